@@ -1,0 +1,74 @@
+import 'reflect-metadata';
+import { NestFactory } from '@nestjs/core';
+import type { NestExpressApplication } from '@nestjs/platform-express';
+import { DocumentBuilder, SwaggerModule } from '@nestjs/swagger';
+import helmet from 'helmet';
+import { pinoHttp } from 'pino-http';
+import express from 'express';
+import { existsSync } from 'node:fs';
+import { join } from 'node:path';
+import { AppModule } from './app.module.js';
+import { AppConfig } from './config/app-config.service.js';
+
+/** Builds the application with every global piece; used by main.ts and the end-to-end tests. */
+export async function createApp(opts: { logger?: boolean } = {}): Promise<NestExpressApplication> {
+  const app = await NestFactory.create<NestExpressApplication>(AppModule, {
+    logger: opts.logger === false ? ['error'] : ['error', 'warn', 'log'],
+    bodyParser: false,
+  });
+  const config = app.get(AppConfig);
+  app.set('trust proxy', 'loopback');
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          'default-src': ["'self'"],
+          'img-src': ["'self'", 'data:', 'blob:'],
+          'style-src': ["'self'", "'unsafe-inline'"],
+          'font-src': ["'self'", 'data:'],
+          'connect-src': ["'self'", 'ws:', 'wss:'],
+          'script-src': ["'self'"],
+          'upgrade-insecure-requests': null,
+        },
+      },
+      crossOriginEmbedderPolicy: false,
+      strictTransportSecurity: false,
+    }),
+  );
+  if (config.get('LOG_LEVEL') !== 'silent' && opts.logger !== false) {
+    app.use(
+      pinoHttp({
+        level: config.get('LOG_LEVEL'),
+        autoLogging: { ignore: (req) => !req.url?.startsWith('/api') },
+        redact: ['req.headers.authorization', 'req.headers.cookie'],
+        serializers: { req: (r) => ({ method: r.method, url: r.url }), res: (r) => ({ statusCode: r.statusCode }) },
+      }),
+    );
+  }
+  app.use('/api', express.json({ limit: '5mb' }));
+  app.use('/api', express.text({ type: ['text/csv', 'text/plain'], limit: '200mb' }));
+  app.setGlobalPrefix('api');
+  app.enableShutdownHooks();
+
+  const doc = SwaggerModule.createDocument(
+    app,
+    new DocumentBuilder()
+      .setTitle('Crankjournal API')
+      .setDescription('Run logbook, start gate, alarms and engineering calculations for a historic steam mill engine.')
+      .setVersion('0.1.0')
+      .addBearerAuth()
+      .build(),
+  );
+  SwaggerModule.setup('api/docs', app, doc, { jsonDocumentUrl: 'api/docs-json' });
+
+  const uiDist = config.get('UI_DIST') ?? join(process.cwd(), '..', 'ui', 'dist');
+  if (existsSync(join(uiDist, 'index.html'))) {
+    app.useStaticAssets(uiDist, { index: false, maxAge: '1h', setHeaders: (res, path) => { if (path.includes('/assets/')) res.setHeader('Cache-Control', 'public, max-age=31536000, immutable'); } });
+    app.use((req: express.Request, res: express.Response, next: express.NextFunction) => {
+      if (req.method !== 'GET' || req.path.startsWith('/api') || req.path.startsWith('/socket.io')) return next();
+      res.setHeader('Cache-Control', 'no-cache');
+      res.sendFile(join(uiDist, 'index.html'));
+    });
+  }
+  return app;
+}

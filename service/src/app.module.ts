@@ -1,0 +1,41 @@
+import { Module } from '@nestjs/common';
+import { APP_FILTER, APP_GUARD, APP_PIPE } from '@nestjs/core';
+import { TypeOrmModule } from '@nestjs/typeorm';
+import { ThrottlerModule } from '@nestjs/throttler';
+import { AppConfigModule } from './config/config.module.js';
+import { AppConfig } from './config/app-config.service.js';
+import { typeOrmOptions } from './database/typeorm-options.js';
+import { JwtAuthGuard } from './common/guards/jwt-auth.guard.js';
+import { RolesGuard } from './common/guards/roles.guard.js';
+import { AllExceptionsFilter } from './common/filters/all-exceptions.filter.js';
+import { validationPipe } from './common/pipes/validation.pipe.js';
+import { AuthModule } from './modules/auth/auth.module.js';
+import { UsersModule } from './modules/users/users.module.js';
+import { HealthModule } from './modules/health/health.module.js';
+import { MailModule } from './modules/mail/mail.module.js';
+import { StorageModule } from './modules/storage/storage.module.js';
+import { LiveModule } from './modules/live/live.module.js';
+
+@Module({
+  imports: [
+    AppConfigModule,
+    TypeOrmModule.forRootAsync({ inject: [AppConfig], useFactory: (c: AppConfig) => typeOrmOptions(c.get('DATABASE_URL')) }),
+    ThrottlerModule.forRootAsync({
+      inject: [AppConfig],
+      useFactory: (c: AppConfig) => ({ throttlers: [{ name: 'login', ttl: 60_000, limit: c.get('LOGIN_RATE_LIMIT_PER_MINUTE') }] }),
+    }),
+    MailModule,
+    StorageModule,
+    LiveModule,
+    AuthModule,
+    UsersModule,
+    HealthModule,
+  ],
+  providers: [
+    { provide: APP_GUARD, useClass: JwtAuthGuard },
+    { provide: APP_GUARD, useClass: RolesGuard },
+    { provide: APP_PIPE, useValue: validationPipe },
+    { provide: APP_FILTER, useClass: AllExceptionsFilter },
+  ],
+})
+export class AppModule {}

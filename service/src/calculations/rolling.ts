@@ -1,0 +1,272 @@
+/**
+ * Flat / bar rolling, one pass: geometry, strain, strain rate, mean flow stress, roll force, torque and power.
+ *
+ * Model (simple slab estimate, as taught in manufacturing texts):
+ *   draft Δh = h0 − h1, reduction r = Δh/h0, true strain ε = ln(h0/h1)
+ *   elongation (area ratio) λ = (h0·w0)/(h1·w1)
+ *   contact length L = √(R·Δh)
+ *   mean strain rate ε̇ = (v/L)·ε, v = roll surface speed (the average rate over the time a particle
+ *     spends in the roll gap, L/v)
+ *   roll force F = L·w·Y_avg × frictionFactor (w = mean of entry and exit width; frictionFactor 1 is the
+ *     frictionless estimate, about 1.2 allows for friction)
+ *   torque per roll = F·L/2 (force taken to act at the middle of the arc of contact)
+ *   power for the roll pair P = 2π·F·L·N/60 (W, with F in N, L in m, N in rpm)
+ *
+ * Mean flow stress, hot carbon steel: Misaka & Yoshimoto (1967),
+ *   σ = exp(0.126 − 1.75C + 0.594C² + (2851 + 2968C − 1120C²)/T) · ε^0.21 · ε̇^0.13  [kgf/mm²]
+ *   with C in wt %, T in kelvin; ×9.80665 gives MPa. Reported range: ε ≤ 0.5, 750–1200 °C,
+ *   ε̇ 30–200 /s, C ≤ 1.2 %. A slow bar mill often runs below that strain-rate range: the result is
+ *   then an extrapolation and is flagged.
+ * Mean flow stress, cold / annealed metal with a power-law flow curve σ = K·εⁿ: Y_avg = K·εⁿ/(1 + n).
+ */
+import { WATTS_PER_HP } from './units.js';
+
+/** 1 lbf in newtons (exact: 0.45359237 kg × 9.80665 m/s²). */
+export const NEWTONS_PER_LBF = 4.4482216152605;
+/** 1 ft in metres (exact). */
+export const METRES_PER_FOOT = 0.3048;
+/** 1 kgf/mm² in MPa (standard gravity 9.80665 m/s²). */
+export const MPA_PER_KGF_PER_MM2 = 9.80665;
+
+export const MISAKA_VALID_RANGE = {
+  strainMax: 0.5,
+  temperatureMinC: 750,
+  temperatureMaxC: 1200,
+  strainRateMinPerS: 30,
+  strainRateMaxPerS: 200,
+  carbonMaxPct: 1.2,
+} as const;
+
+/** Allowance on the frictionless roll force for friction (about 20 %, per the manufacturing texts). */
+export const TYPICAL_FRICTION_FACTOR = 1.2;
+
+export const MILL_LOAD_CAUTION =
+  'Roll force, torque and power here are estimates from a simple model. A stand loaded past its rating can ' +
+  'break a roll, a neck or a housing, and hot stock can kill. Keep within the stand and engine ratings, ' +
+  'and treat these figures as an aid to a qualified crew, never a replacement for the mill\u2019s own limits, ' +
+  'local codes or licensed practice.';
+
+function assertFinite(name: string, value: number): void {
+  if (typeof value !== 'number' || !Number.isFinite(value)) throw new RangeError(`${name} must be a finite number`);
+}
+function assertPositive(name: string, value: number): void {
+  assertFinite(name, value);
+  if (value <= 0) throw new RangeError(`${name} must be greater than zero`);
+}
+function assertNonNegative(name: string, value: number): void {
+  assertFinite(name, value);
+  if (value < 0) throw new RangeError(`${name} must be zero or greater`);
+}
+
+export interface PassGeometry {
+  draftMm: number;
+  reduction: number;
+  trueStrain: number;
+  elongation: number;
+  contactLengthMm: number;
+  meanWidthMm: number;
+}
+
+export function passGeometry(p: {
+  rollDiameterMm: number;
+  entryThicknessMm: number;
+  exitThicknessMm: number;
+  entryWidthMm: number;
+  exitWidthMm?: number;
+}): PassGeometry {
+  assertPositive('rollDiameterMm', p.rollDiameterMm);
+  assertPositive('entryThicknessMm', p.entryThicknessMm);
+  assertPositive('exitThicknessMm', p.exitThicknessMm);
+  assertPositive('entryWidthMm', p.entryWidthMm);
+  const exitWidthMm = p.exitWidthMm ?? p.entryWidthMm;
+  assertPositive('exitWidthMm', exitWidthMm);
+  if (p.exitThicknessMm >= p.entryThicknessMm) throw new RangeError('exitThicknessMm must be less than entryThicknessMm');
+  const draftMm = p.entryThicknessMm - p.exitThicknessMm;
+  const rollRadiusMm = p.rollDiameterMm / 2;
+  return {
+    draftMm,
+    reduction: draftMm / p.entryThicknessMm,
+    trueStrain: Math.log(p.entryThicknessMm / p.exitThicknessMm),
+    elongation: (p.entryThicknessMm * p.entryWidthMm) / (p.exitThicknessMm * exitWidthMm),
+    contactLengthMm: Math.sqrt(rollRadiusMm * draftMm),
+    meanWidthMm: (p.entryWidthMm + exitWidthMm) / 2,
+  };
+}
+
+/** Roll surface speed v = π·D·N/60, m/s. */
+export function rollSurfaceSpeedMPerS(rollDiameterMm: number, rollSpeedRpm: number): number {
+  assertPositive('rollDiameterMm', rollDiameterMm);
+  assertNonNegative('rollSpeedRpm', rollSpeedRpm);
+  return (Math.PI * (rollDiameterMm / 1000) * rollSpeedRpm) / 60;
+}
+
+/** Mean strain rate ε̇ = (v/L)·ε, per second. */
+export function meanStrainRatePerS(p: { rollSurfaceSpeedMPerS: number; contactLengthMm: number; trueStrain: number }): number {
+  assertNonNegative('rollSurfaceSpeedMPerS', p.rollSurfaceSpeedMPerS);
+  assertPositive('contactLengthMm', p.contactLengthMm);
+  assertNonNegative('trueStrain', p.trueStrain);
+  return (p.rollSurfaceSpeedMPerS / (p.contactLengthMm / 1000)) * p.trueStrain;
+}
+
+export interface MisakaResult {
+  flowStressMPa: number;
+  /** parameters outside the range the equation was fitted over */
+  outOfRange: string[];
+}
+
+/** Misaka & Yoshimoto mean flow stress of plain carbon steel, MPa (see the module header). */
+export function misakaMeanFlowStressMPa(p: {
+  carbonPct: number;
+  temperatureC: number;
+  strain: number;
+  strainRatePerS: number;
+}): MisakaResult {
+  assertNonNegative('carbonPct', p.carbonPct);
+  assertFinite('temperatureC', p.temperatureC);
+  assertPositive('strain', p.strain);
+  assertPositive('strainRatePerS', p.strainRatePerS);
+  const c = p.carbonPct;
+  const temperatureK = p.temperatureC + 273.15;
+  if (temperatureK <= 0) throw new RangeError('temperatureC must be above absolute zero');
+  const exponent = 0.126 - 1.75 * c + 0.594 * c ** 2 + (2851 + 2968 * c - 1120 * c ** 2) / temperatureK;
+  const kgfPerMm2 = Math.exp(exponent) * p.strain ** 0.21 * p.strainRatePerS ** 0.13;
+  const r = MISAKA_VALID_RANGE;
+  const outOfRange: string[] = [];
+  if (p.strain > r.strainMax) outOfRange.push(`strain ${p.strain.toFixed(3)} > ${r.strainMax}`);
+  if (p.temperatureC < r.temperatureMinC || p.temperatureC > r.temperatureMaxC) {
+    outOfRange.push(`temperature ${p.temperatureC} °C outside ${r.temperatureMinC}–${r.temperatureMaxC} °C`);
+  }
+  if (p.strainRatePerS < r.strainRateMinPerS || p.strainRatePerS > r.strainRateMaxPerS) {
+    outOfRange.push(`strain rate ${p.strainRatePerS.toFixed(2)} /s outside ${r.strainRateMinPerS}–${r.strainRateMaxPerS} /s`);
+  }
+  if (c > r.carbonMaxPct) outOfRange.push(`carbon ${c} % > ${r.carbonMaxPct} %`);
+  return { flowStressMPa: kgfPerMm2 * MPA_PER_KGF_PER_MM2, outOfRange };
+}
+
+/** Mean flow stress over a pass for a power-law flow curve σ = K·εⁿ: Y_avg = K·εⁿ/(1 + n), MPa. */
+export function powerLawMeanFlowStressMPa(p: { strengthCoefficientMPa: number; hardeningExponent: number; strain: number }): number {
+  assertPositive('strengthCoefficientMPa', p.strengthCoefficientMPa);
+  assertNonNegative('hardeningExponent', p.hardeningExponent);
+  assertNonNegative('strain', p.strain);
+  return (p.strengthCoefficientMPa * p.strain ** p.hardeningExponent) / (1 + p.hardeningExponent);
+}
+
+export interface RollLoad {
+  forceN: number;
+  forceKn: number;
+  forceLbf: number;
+  torquePerRollNm: number;
+  torquePerRollKnM: number;
+  torquePerRollLbfFt: number;
+  powerRollPairW: number;
+  powerRollPairKw: number;
+  powerRollPairHp: number;
+}
+
+/** Roll force, torque per roll and power for the roll pair (see the module header). */
+export function rollLoad(p: {
+  contactLengthMm: number;
+  widthMm: number;
+  meanFlowStressMPa: number;
+  rollSpeedRpm: number;
+  frictionFactor?: number;
+}): RollLoad {
+  assertPositive('contactLengthMm', p.contactLengthMm);
+  assertPositive('widthMm', p.widthMm);
+  assertPositive('meanFlowStressMPa', p.meanFlowStressMPa);
+  assertNonNegative('rollSpeedRpm', p.rollSpeedRpm);
+  const frictionFactor = p.frictionFactor ?? 1;
+  assertFinite('frictionFactor', frictionFactor);
+  if (frictionFactor < 1) throw new RangeError('frictionFactor must be at least 1');
+  const contactLengthM = p.contactLengthMm / 1000;
+  // MPa × mm² = N
+  const forceN = p.contactLengthMm * p.widthMm * p.meanFlowStressMPa * frictionFactor;
+  const torquePerRollNm = (forceN * contactLengthM) / 2;
+  const powerRollPairW = (2 * Math.PI * forceN * contactLengthM * p.rollSpeedRpm) / 60;
+  return {
+    forceN,
+    forceKn: forceN / 1000,
+    forceLbf: forceN / NEWTONS_PER_LBF,
+    torquePerRollNm,
+    torquePerRollKnM: torquePerRollNm / 1000,
+    torquePerRollLbfFt: torquePerRollNm / (NEWTONS_PER_LBF * METRES_PER_FOOT),
+    powerRollPairW,
+    powerRollPairKw: powerRollPairW / 1000,
+    powerRollPairHp: powerRollPairW / WATTS_PER_HP,
+  };
+}
+
+export interface PassLoadInput {
+  rollDiameterMm: number;
+  entryWidthMm: number;
+  exitWidthMm?: number;
+  entryThicknessMm: number;
+  exitThicknessMm: number;
+  /** stock temperature for the hot-steel flow stress */
+  temperatureC: number;
+  carbonPct: number;
+  rollSpeedRpm: number;
+  standMaxForceKn: number;
+  /** 1 = frictionless estimate; TYPICAL_FRICTION_FACTOR (1.2) allows for friction */
+  frictionFactor?: number;
+  /** overrides the Misaka flow stress (e.g. a power-law figure for cold metal, or a measured value) */
+  meanFlowStressMPa?: number;
+}
+
+export interface PassLoadResult extends PassGeometry, RollLoad {
+  rollSurfaceSpeedMPerS: number;
+  meanStrainRatePerS: number;
+  meanFlowStressMPa: number;
+  flowStressSource: 'misaka' | 'given';
+  flowStressOutOfRange: string[];
+  exceedsStandForce: boolean;
+  standForceUtilisation: number;
+}
+
+/** Everything for one pass, with a check against the stand's rated force. */
+export function passLoad(input: PassLoadInput): PassLoadResult {
+  assertPositive('standMaxForceKn', input.standMaxForceKn);
+  const geometry = passGeometry(input);
+  const surfaceSpeed = rollSurfaceSpeedMPerS(input.rollDiameterMm, input.rollSpeedRpm);
+  const strainRate = meanStrainRatePerS({
+    rollSurfaceSpeedMPerS: surfaceSpeed,
+    contactLengthMm: geometry.contactLengthMm,
+    trueStrain: geometry.trueStrain,
+  });
+  let meanFlowStressMPa: number;
+  let flowStressSource: 'misaka' | 'given';
+  let flowStressOutOfRange: string[] = [];
+  if (input.meanFlowStressMPa !== undefined) {
+    assertPositive('meanFlowStressMPa', input.meanFlowStressMPa);
+    meanFlowStressMPa = input.meanFlowStressMPa;
+    flowStressSource = 'given';
+  } else {
+    const m = misakaMeanFlowStressMPa({
+      carbonPct: input.carbonPct,
+      temperatureC: input.temperatureC,
+      strain: geometry.trueStrain,
+      strainRatePerS: strainRate,
+    });
+    meanFlowStressMPa = m.flowStressMPa;
+    flowStressSource = 'misaka';
+    flowStressOutOfRange = m.outOfRange;
+  }
+  const load = rollLoad({
+    contactLengthMm: geometry.contactLengthMm,
+    widthMm: geometry.meanWidthMm,
+    meanFlowStressMPa,
+    rollSpeedRpm: input.rollSpeedRpm,
+    frictionFactor: input.frictionFactor,
+  });
+  return {
+    ...geometry,
+    ...load,
+    rollSurfaceSpeedMPerS: surfaceSpeed,
+    meanStrainRatePerS: strainRate,
+    meanFlowStressMPa,
+    flowStressSource,
+    flowStressOutOfRange,
+    exceedsStandForce: load.forceKn > input.standMaxForceKn,
+    standForceUtilisation: load.forceKn / input.standMaxForceKn,
+  };
+}

@@ -1,0 +1,4 @@
+import { Foundation1796162547067 } from './1796162547067-Foundation.js';
+
+/** Every migration in order. Add new ones at the end; never edit one that has been committed. */
+export const MIGRATIONS: Function[] = [Foundation1796162547067];

@@ -1,0 +1,112 @@
+import { Injectable, UnauthorizedException, BadRequestException } from '@nestjs/common';
+import { JwtService } from '@nestjs/jwt';
+import { InjectRepository } from '@nestjs/typeorm';
+import { IsNull, Repository } from 'typeorm';
+import { randomUUID } from 'node:crypto';
+import type { SessionUser, TokenPair } from '@crankjournal/shared-types';
+import { AppConfig } from '../../config/app-config.service.js';
+import { UsersService } from '../users/users.service.js';
+import type { User } from '../users/user.entity.js';
+import { RefreshToken } from './refresh-token.entity.js';
+import { hashPassword, newSecret, sha256, verifyPassword } from './password.util.js';
+
+const BAD_SIGN_IN = 'The e-mail or password is not right.';
+
+@Injectable()
+export class AuthService {
+  constructor(
+    private readonly users: UsersService,
+    private readonly jwt: JwtService,
+    private readonly config: AppConfig,
+    @InjectRepository(RefreshToken) private readonly refreshTokens: Repository<RefreshToken>,
+  ) {}
+
+  async login(email: string, password: string): Promise<TokenPair> {
+    const user = await this.users.findByEmailWithSecrets(email);
+    // Verify even for unknown users so timing does not reveal who has an account.
+    const ok = await verifyPassword(user?.passwordHash ?? DUMMY_HASH, password);
+    if (!user || !ok || !user.passwordHash) throw new UnauthorizedException(BAD_SIGN_IN);
+    if (!user.active) throw new UnauthorizedException('This account has been deactivated. Ask an administrator.');
+    return this.issue(user, randomUUID());
+  }
+
+  async refresh(token: string): Promise<TokenPair> {
+    const [id] = token.split('.');
+    const row = /^[0-9a-f-]{36}$/.test(id ?? '') ? await this.refreshTokens.findOne({ where: { id } }) : null;
+    if (!row || row.tokenHash !== sha256(token)) throw new UnauthorizedException('Please sign in again.');
+    if (row.revokedAt) {
+      // A used token presented again: someone may hold a copy. End the whole family.
+      await this.refreshTokens.update({ familyId: row.familyId, revokedAt: IsNull() }, { revokedAt: new Date() });
+      throw new UnauthorizedException('This sign-in has ended. Please sign in again.');
+    }
+    if (row.expiresAt.getTime() < Date.now()) throw new UnauthorizedException('Your sign-in has expired. Please sign in again.');
+    const claimed = await this.refreshTokens.update({ id: row.id, revokedAt: IsNull() }, { revokedAt: new Date() });
+    if (!claimed.affected) throw new UnauthorizedException('This sign-in has ended. Please sign in again.');
+    const user = await this.users.findByIdWithSecrets(row.userId);
+    if (!user || !user.active) throw new UnauthorizedException('This account has been deactivated. Ask an administrator.');
+    return this.issue(user, row.familyId);
+  }
+
+  async logout(token: string | undefined, userId: string): Promise<void> {
+    if (token) {
+      const [id] = token.split('.');
+      if (/^[0-9a-f-]{36}$/.test(id ?? '')) {
+        const row = await this.refreshTokens.findOne({ where: { id, userId } });
+        if (row) await this.refreshTokens.update({ familyId: row.familyId, revokedAt: IsNull() }, { revokedAt: new Date() });
+      }
+    }
+  }
+
+  async changePassword(userId: string, current: string, next: string): Promise<void> {
+    const user = await this.users.findByIdWithSecrets(userId);
+    if (!user || !(await verifyPassword(user.passwordHash, current))) throw new BadRequestException('Your current password is not right.');
+    await this.users.setPasswordHash(userId, await hashPassword(next));
+    // End every other sign-in of this person.
+    await this.refreshTokens.update({ userId, revokedAt: IsNull() }, { revokedAt: new Date() });
+  }
+
+  async setPin(userId: string, current: string, pin: string): Promise<void> {
+    const user = await this.users.findByIdWithSecrets(userId);
+    if (!user || !(await verifyPassword(user.passwordHash, current))) throw new BadRequestException('Your current password is not right.');
+    await this.users.setPinHash(userId, await hashPassword(pin));
+  }
+
+  /** Re-authentication when signing a record: the person's password or signing PIN. */
+  async verifySigner(userId: string, secret: string): Promise<boolean> {
+    const user = await this.users.findByIdWithSecrets(userId);
+    if (!user || !user.active) return false;
+    if (await verifyPassword(user.passwordHash, secret)) return true;
+    return verifyPassword(user.pinHash, secret);
+  }
+
+  async acceptInvitation(token: string, password: string): Promise<TokenPair> {
+    const user = await this.users.consumeInvitation(token);
+    await this.users.setPasswordHash(user.id, await hashPassword(password));
+    const fresh = await this.users.findByIdWithSecrets(user.id);
+    return this.issue(fresh!, randomUUID());
+  }
+
+  sessionUser(u: User): SessionUser {
+    return { id: u.id, email: u.email, displayName: u.displayName, role: u.role, unitSystem: u.unitSystem };
+  }
+
+  private async issue(user: User, familyId: string): Promise<TokenPair> {
+    const ttl = this.config.get('ACCESS_TOKEN_TTL_SECONDS');
+    const accessToken = await this.jwt.signAsync({ sub: user.id, role: user.role }, { expiresIn: ttl });
+    const id = randomUUID();
+    const { secret } = newSecret();
+    const refreshToken = `${id}.${secret}`;
+    await this.refreshTokens.insert({
+      id,
+      userId: user.id,
+      familyId,
+      tokenHash: sha256(refreshToken),
+      expiresAt: new Date(Date.now() + this.config.get('REFRESH_TOKEN_TTL_DAYS') * 86400_000),
+      revokedAt: null,
+    });
+    return { accessToken, accessExpiresInSeconds: ttl, refreshToken, user: this.sessionUser(user) };
+  }
+}
+
+/** A valid argon2id hash of a random string, verified against when the user is unknown. */
+const DUMMY_HASH = '$argon2id$v=19$m=19456,t=2,p=1$JfobwwZyQK5/ITBd3F1sjA$vDLyyBzF343uo3qWWczR0eQh+l6ueAelDM0S+d8VoF0';

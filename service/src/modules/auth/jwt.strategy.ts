@@ -1,0 +1,33 @@
+import { Injectable, UnauthorizedException } from '@nestjs/common';
+import { PassportStrategy } from '@nestjs/passport';
+import { ExtractJwt, Strategy } from 'passport-jwt';
+import { AppConfig } from '../../config/app-config.service.js';
+import { UsersService } from '../users/users.service.js';
+import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
+
+export interface AccessTokenPayload {
+  sub: string;
+  role: string;
+}
+
+@Injectable()
+export class JwtStrategy extends PassportStrategy(Strategy) {
+  constructor(
+    config: AppConfig,
+    private readonly users: UsersService,
+  ) {
+    super({
+      jwtFromRequest: ExtractJwt.fromAuthHeaderAsBearerToken(),
+      ignoreExpiration: false,
+      secretOrKey: config.get('JWT_SECRET'),
+      algorithms: ['HS256'],
+    });
+  }
+
+  /** Checked on every request, so a deactivated user's tokens stop working at once. */
+  async validate(payload: AccessTokenPayload): Promise<AuthUser> {
+    const user = await this.users.findActiveAuthUser(payload.sub);
+    if (!user) throw new UnauthorizedException('Your account is not active. Ask an administrator.');
+    return user;
+  }
+}

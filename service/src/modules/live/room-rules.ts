@@ -1,0 +1,19 @@
+import type { Role } from '@crankjournal/shared-types';
+import { ROLES } from '@crankjournal/shared-types';
+
+const UUID = '[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}';
+
+/** Which roles may join which rooms of the live channel. One table; a room not listed is refused. */
+export const ROOM_RULES: { pattern: RegExp; roles: readonly Role[]; what: string }[] = [
+  { pattern: /^site$/, roles: ROLES, what: 'site-wide notices' },
+  { pattern: new RegExp(`^run:${UUID}$`), roles: ROLES, what: 'one run: readings, alarms, state, card sets' },
+  { pattern: new RegExp(`^engine:${UUID}$`), roles: ROLES, what: 'one engine: its runs and alarms' },
+  { pattern: /^administration$/, roles: ['administrator'], what: 'account changes' },
+];
+
+export function canJoinRoom(role: Role, room: string): { ok: true } | { ok: false; reason: string } {
+  const rule = ROOM_RULES.find((r) => r.pattern.test(room));
+  if (!rule) return { ok: false, reason: `There is no room called "${room.slice(0, 60)}".` };
+  if (!rule.roles.includes(role)) return { ok: false, reason: `Your role may not join ${rule.what}.` };
+  return { ok: true };
+}

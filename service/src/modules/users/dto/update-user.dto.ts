@@ -1,0 +1,22 @@
+import { ApiPropertyOptional } from '@nestjs/swagger';
+import { IsBoolean, IsIn, IsOptional, IsString, MaxLength, MinLength } from 'class-validator';
+import { ROLES, type Role, type UpdateUserRequest } from '@crankjournal/shared-types';
+
+export class UpdateUserDto implements UpdateUserRequest {
+  @ApiPropertyOptional({ enum: ROLES })
+  @IsOptional()
+  @IsIn(ROLES, { message: `role must be one of: ${ROLES.join(', ')}` })
+  role?: Role;
+
+  @ApiPropertyOptional()
+  @IsOptional()
+  @IsBoolean({ message: 'active must be true or false' })
+  active?: boolean;
+
+  @ApiPropertyOptional()
+  @IsOptional()
+  @IsString()
+  @MinLength(1)
+  @MaxLength(120)
+  displayName?: string;
+}

@@ -1,0 +1,34 @@
+import { Body, Controller, Get, Param, Patch, Post } from '@nestjs/common';
+import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
+import type { UserSummary } from '@crankjournal/shared-types';
+import { Roles } from '../../common/decorators/roles.decorator.js';
+import { CurrentUser, type AuthUser } from '../../common/decorators/current-user.decorator.js';
+import { IdParamDto } from '../../common/dto/id-param.dto.js';
+import { UsersService } from './users.service.js';
+import { InviteUserDto } from './dto/invite-user.dto.js';
+import { UpdateUserDto } from './dto/update-user.dto.js';
+
+@ApiTags('users')
+@ApiBearerAuth()
+@Controller('users')
+export class UsersController {
+  constructor(private readonly users: UsersService) {}
+
+  @Get()
+  @Roles('administrator')
+  list(): Promise<UserSummary[]> {
+    return this.users.list();
+  }
+
+  @Post('invitations')
+  @Roles('administrator')
+  invite(@Body() dto: InviteUserDto, @CurrentUser() me: AuthUser): Promise<UserSummary> {
+    return this.users.invite(dto, me.id);
+  }
+
+  @Patch(':id')
+  @Roles('administrator')
+  update(@Param() p: IdParamDto, @Body() dto: UpdateUserDto, @CurrentUser() me: AuthUser): Promise<UserSummary> {
+    return this.users.update(p.id, dto, me.id);
+  }
+}

@@ -1,0 +1,161 @@
+import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
+import { InjectRepository } from '@nestjs/typeorm';
+import { Repository } from 'typeorm';
+import type { Role, UserSummary } from '@crankjournal/shared-types';
+import { User } from './user.entity.js';
+import { Invitation } from './invitation.entity.js';
+import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
+import { newSecret, sha256 } from '../auth/password.util.js';
+import { MailService } from '../mail/mail.service.js';
+import { AppConfig } from '../../config/app-config.service.js';
+import { LiveService } from '../live/live.service.js';
+import type { InviteUserDto } from './dto/invite-user.dto.js';
+import type { UpdateUserDto } from './dto/update-user.dto.js';
+
+const INVITATION_TTL_HOURS = 72;
+/** Auth lookups are cached briefly; any change to a user clears the entry at once. */
+const AUTH_CACHE_MS = 5_000;
+
+@Injectable()
+export class UsersService {
+  private readonly authCache = new Map<string, { user: AuthUser | null; at: number }>();
+
+  constructor(
+    @InjectRepository(User) private readonly users: Repository<User>,
+    @InjectRepository(Invitation) private readonly invitations: Repository<Invitation>,
+    private readonly mail: MailService,
+    private readonly config: AppConfig,
+    private readonly live: LiveService,
+  ) {}
+
+  async findActiveAuthUser(id: string): Promise<AuthUser | null> {
+    const hit = this.authCache.get(id);
+    if (hit && Date.now() - hit.at < AUTH_CACHE_MS) return hit.user;
+    const u = await this.users.findOne({ where: { id, active: true } });
+    const user = u ? { id: u.id, email: u.email, displayName: u.displayName, role: u.role } : null;
+    this.authCache.set(id, { user, at: Date.now() });
+    return user;
+  }
+
+  forget(id: string) {
+    this.authCache.delete(id);
+  }
+
+  findByEmailWithSecrets(email: string): Promise<User | null> {
+    return this.users
+      .createQueryBuilder('u')
+      .addSelect(['u.passwordHash', 'u.pinHash'])
+      .where('u.email = :email', { email: email.trim().toLowerCase() })
+      .getOne();
+  }
+
+  findByIdWithSecrets(id: string): Promise<User | null> {
+    return this.users.createQueryBuilder('u').addSelect(['u.passwordHash', 'u.pinHash']).where('u.id = :id', { id }).getOne();
+  }
+
+  async get(id: string): Promise<User> {
+    const u = await this.users.findOne({ where: { id } });
+    if (!u) throw new NotFoundException('No such user.');
+    return u;
+  }
+
+  async list(): Promise<UserSummary[]> {
+    const rows = await this.users
+      .createQueryBuilder('u')
+      .addSelect('u.passwordHash')
+      .orderBy('u.displayName', 'ASC')
+      .getMany();
+    return rows.map((u) => this.toSummary(u));
+  }
+
+  toSummary(u: User): UserSummary {
+    return {
+      id: u.id,
+      email: u.email,
+      displayName: u.displayName,
+      role: u.role,
+      active: u.active,
+      unitSystem: u.unitSystem,
+      invitationPending: !u.passwordHash,
+      createdAt: u.createdAt.toISOString(),
+    };
+  }
+
+  async invite(dto: InviteUserDto, invitedBy: string): Promise<UserSummary> {
+    const email = dto.email.trim().toLowerCase();
+    if (await this.users.exists({ where: { email } })) {
+      throw new ConflictException(`${email} already has an account.`);
+    }
+    const { secret, hash } = newSecret();
+    const user = await this.users.manager.transaction(async (m) => {
+      const u = await m.save(m.create(User, { email, displayName: dto.displayName.trim(), role: dto.role, active: true, passwordHash: null }));
+      await m.save(
+        m.create(Invitation, { userId: u.id, tokenHash: hash, invitedBy, expiresAt: new Date(Date.now() + INVITATION_TTL_HOURS * 3600_000), usedAt: null }),
+      );
+      return u;
+    });
+    const link = `${this.config.get('PUBLIC_URL')}/set-password?token=${encodeURIComponent(secret)}`;
+    await this.mail.send({
+      to: email,
+      subject: 'You have been invited to Crankjournal',
+      text: [
+        `Hello ${user.displayName},`,
+        '',
+        `You have been given a Crankjournal account at the engine house. Set your password here (the link works once, for ${INVITATION_TTL_HOURS} hours):`,
+        '',
+        link,
+        '',
+        'If you did not expect this, ignore this message.',
+      ].join('\n'),
+    });
+    return this.toSummary(user);
+  }
+
+  /** Checks a one-time invitation and marks it used; returns the user. */
+  async consumeInvitation(token: string): Promise<User> {
+    const inv = await this.invitations.findOne({ where: { tokenHash: sha256(token) } });
+    if (!inv || inv.usedAt || inv.expiresAt.getTime() < Date.now()) {
+      throw new BadRequestException('This invitation link is not valid any more. Ask an administrator for a new one.');
+    }
+    const res = await this.invitations.update({ id: inv.id, usedAt: undefined }, { usedAt: new Date() });
+    if (!res.affected) throw new BadRequestException('This invitation link has already been used.');
+    return this.get(inv.userId);
+  }
+
+  async setPasswordHash(id: string, passwordHash: string) {
+    await this.users.update({ id }, { passwordHash });
+    this.forget(id);
+  }
+
+  async setPinHash(id: string, pinHash: string) {
+    await this.users.update({ id }, { pinHash });
+  }
+
+  async update(id: string, dto: UpdateUserDto, actingUserId: string): Promise<UserSummary> {
+    const u = await this.get(id);
+    if (id === actingUserId && (dto.active === false || (dto.role && dto.role !== u.role))) {
+      throw new BadRequestException('You cannot deactivate yourself or change your own role; ask another administrator.');
+    }
+    if (dto.role !== undefined) u.role = dto.role as Role;
+    if (dto.active !== undefined) u.active = dto.active;
+    if (dto.displayName !== undefined) u.displayName = dto.displayName.trim();
+    await this.users.save(u);
+    this.forget(id);
+    if (dto.active === false) this.live.disconnectUser(id);
+    const withHash = await this.findByIdWithSecrets(id);
+    return this.toSummary(withHash!);
+  }
+
+  async updatePreferences(id: string, prefs: { unitSystem?: User['unitSystem']; displayName?: string }) {
+    const patch: Partial<User> = {};
+    if (prefs.unitSystem) patch.unitSystem = prefs.unitSystem;
+    if (prefs.displayName) patch.displayName = prefs.displayName.trim();
+    if (Object.keys(patch).length) await this.users.update({ id }, patch);
+    this.forget(id);
+    return this.get(id);
+  }
+
+  usersWithRoles(roles: Role[]): Promise<User[]> {
+    return this.users.createQueryBuilder('u').where('u.role IN (:...roles)', { roles }).andWhere('u.active = true').getMany();
+  }
+}
