@@ -235,7 +235,8 @@ export function computeIndicatedPower(input: IndicatedPowerInput): IndicatedPowe
   const geometry: { strokeIn: number; meanAreaSqIn: number }[] = [];
   const cylinders: CylinderResult[] = input.cylinders.map((cyl, i) => {
     const path = `cylinders[${i}]`;
-    const boreIn = requirePositiveNumber(cyl?.boreIn, `${path}.boreIn`);
+    if (typeof cyl?.label !== 'string') throw new CalculationInputError(`${path}.label`, 'must be a string');
+    const boreIn = requirePositiveNumber(cyl.boreIn, `${path}.boreIn`);
     const pistonRodIn = requireRod(cyl.pistonRodIn, boreIn, `${path}.pistonRodIn`);
     const tailRodIn = requireRod(cyl.tailRodIn, boreIn, `${path}.tailRodIn`);
     const strokeIn = isGiven(cyl.strokeIn) ? requirePositiveNumber(cyl.strokeIn, `${path}.strokeIn`) : engineStrokeIn;

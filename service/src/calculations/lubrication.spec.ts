@@ -33,9 +33,9 @@ describe('ASTM D341 (Walther) viscosity against temperature', () => {
   });
 
   it('matches the constants and the 80 °C value of a published ASTM D341 worked spreadsheet', () => {
-    // "Viscosity vs Temperature Calculator" (ASTM D341 worked spreadsheet, author not shown, seen on
-    // scribd.com document 361017004): 32 cSt at 40 °C and 5.4 cSt at 100 °C, kelvin taken as °C + 273,
-    // gives A = 9.5259, B = 3.7449 and 8.5 cSt at 80 °C.
+    // "Viscosity vs Temperature Calculator", a published ASTM D341 worked spreadsheet (author not shown;
+    // seen in an online document library): 32 cSt at 40 °C and 5.4 cSt at 100 °C, kelvin taken as
+    // °C + 273, gives A = 9.5259, B = 3.7449 and 8.5 cSt at 80 °C.
     const fit = waltherFit({ temperature1K: 313, viscosity1Cst: 32, temperature2K: 373, viscosity2Cst: 5.4 });
     expect(fit.a).toBeCloseTo(9.5259, 4);
     expect(fit.b).toBeCloseTo(3.7449, 4);
@@ -105,7 +105,7 @@ describe('density and absolute viscosity', () => {
 describe('journal bearing: unit load, Sommerfeld number, Petroff', () => {
   // R. L. Mott, Machine Elements in Mechanical Design, chapter on plain surface bearings, worked design
   // example (1500 lb at 850 rpm, D = L = 2.50 in, C_r = 0.0015 in, SAE 30 at 3.3 µreyn), seen in a
-  // worked-solutions reproduction (holooly.com): p = 240 psi, S = 0.135, 7.88 lb·in at 850 rpm → 0.106 hp.
+  // worked-solutions reproduction: p = 240 psi, S = 0.135, 7.88 lb·in at 850 rpm → 0.106 hp.
   it('unit load on the projected area: 1500 lb on 2.50 × 2.50 in = 240 psi (Mott)', () => {
     expect(bearingUnitLoadPsi(1500, 2.5, 2.5)).toBeCloseTo(240, 9);
   });
@@ -125,7 +125,7 @@ describe('journal bearing: unit load, Sommerfeld number, Petroff', () => {
 
   // Centrifugal-pump design text, hydrodynamic bearings chapter, "evaluation of frictional losses"
   // (book attributed from memory to V. S. Lobanoff & R. R. Ross, Centrifugal Pumps: Design and Application,
-  // 2nd ed.; seen in an online reproduction, civilengineeringhandbook.tk/centrifugal-pumps-3/fhp.html):
+  // 2nd ed.; seen in an online reproduction of the chapter):
   // D = 5 in, L = 5 in, c = 0.0025 in, 5000 rpm, μ = 2 × 10⁻⁶ lb·s/in² → 16.32 hp.
   const pumpExample = {
     diameterIn: 5,

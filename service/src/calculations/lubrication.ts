@@ -5,7 +5,8 @@
  * Pure functions. Units are in the names: journal geometry in inches, loads in lbf, viscosity in cSt,
  * Pa·s or reyn (lbf·s/in²), temperatures in °C or K.
  */
-import { FT_LBF_PER_MIN_PER_HP, KPA_PER_PSI } from './units.js';
+import { KPA_PER_PSI } from './units.js';
+import { brakeHorsepower } from './indicated-power.js';
 
 /** Offset between the Celsius and kelvin scales. */
 export const KELVIN_OFFSET = 273.15;
@@ -238,11 +239,11 @@ export function petroffFrictionCoefficient(p: {
   return 2 * Math.PI ** 2 * sommerfeldNumber(p) * (p.radialClearanceIn / p.radiusIn);
 }
 
-/** Power (hp) absorbed by a torque in lbf·in at a speed in rpm: hp = T·ω / 33,000 ft·lbf/min. */
+/** Power (hp) absorbed by a torque in lbf·in at a speed in rpm (2πNT/33,000 via brakeHorsepower, T in lbf·ft). */
 export function torqueLbfInToHp(torqueLbfIn: number, speedRpm: number): number {
   assertFinite('torqueLbfIn', torqueLbfIn);
   assertNonNegative('speedRpm', speedRpm);
-  return ((torqueLbfIn / 12) * 2 * Math.PI * speedRpm) / FT_LBF_PER_MIN_PER_HP;
+  return brakeHorsepower({ torqueLbfFt: torqueLbfIn / 12, speedRpm });
 }
 
 export interface JournalFrictionInput {

@@ -20,6 +20,8 @@
  * Mean flow stress, cold / annealed metal with a power-law flow curve σ = K·εⁿ: Y_avg = K·εⁿ/(1 + n).
  */
 import { WATTS_PER_HP } from './units.js';
+import { celsiusToKelvin } from './lubrication.js';
+import { rpmToRadPerS } from './flywheel.js';
 
 /** 1 lbf in newtons (exact: 0.45359237 kg × 9.80665 m/s²). */
 export const NEWTONS_PER_LBF = 4.4482216152605;
@@ -93,11 +95,11 @@ export function passGeometry(p: {
   };
 }
 
-/** Roll surface speed v = π·D·N/60, m/s. */
+/** Roll surface speed v = ω·D/2 = π·D·N/60, m/s. */
 export function rollSurfaceSpeedMPerS(rollDiameterMm: number, rollSpeedRpm: number): number {
   assertPositive('rollDiameterMm', rollDiameterMm);
   assertNonNegative('rollSpeedRpm', rollSpeedRpm);
-  return (Math.PI * (rollDiameterMm / 1000) * rollSpeedRpm) / 60;
+  return rpmToRadPerS(rollSpeedRpm) * (rollDiameterMm / 1000 / 2);
 }
 
 /** Mean strain rate ε̇ = (v/L)·ε, per second. */
@@ -126,7 +128,7 @@ export function misakaMeanFlowStressMPa(p: {
   assertPositive('strain', p.strain);
   assertPositive('strainRatePerS', p.strainRatePerS);
   const c = p.carbonPct;
-  const temperatureK = p.temperatureC + 273.15;
+  const temperatureK = celsiusToKelvin(p.temperatureC);
   if (temperatureK <= 0) throw new RangeError('temperatureC must be above absolute zero');
   const exponent = 0.126 - 1.75 * c + 0.594 * c ** 2 + (2851 + 2968 * c - 1120 * c ** 2) / temperatureK;
   const kgfPerMm2 = Math.exp(exponent) * p.strain ** 0.21 * p.strainRatePerS ** 0.13;
@@ -182,7 +184,8 @@ export function rollLoad(p: {
   // MPa × mm² = N
   const forceN = p.contactLengthMm * p.widthMm * p.meanFlowStressMPa * frictionFactor;
   const torquePerRollNm = (forceN * contactLengthM) / 2;
-  const powerRollPairW = (2 * Math.PI * forceN * contactLengthM * p.rollSpeedRpm) / 60;
+  // two rolls × torque × ω = 2π·F·L·N/60
+  const powerRollPairW = 2 * torquePerRollNm * rpmToRadPerS(p.rollSpeedRpm);
   return {
     forceN,
     forceKn: forceN / 1000,

@@ -11,7 +11,7 @@
  *
  * SI inside (K, MPa, m³/kg); imperial wrappers (°F, psia, ft³/lb) for the crew's units.
  */
-import { KPA_PER_PSI, fahrenheitToCelsius } from './units.js';
+import { KPA_PER_PSI, celsiusToFahrenheit, fahrenheitToCelsius } from './units.js';
 
 /** Caution shown beside steam-property figures. */
 export const STEAM_PROPERTIES_CAUTION =
@@ -144,8 +144,7 @@ export function saturatedVapourSpecificVolumeM3PerKg(pressureMPa: number): numbe
 
 /** Saturation temperature (°F) at an absolute pressure (psia). */
 export function saturationTemperatureFFromPsia(pressurePsia: number): number {
-  const celsius = saturationTemperatureK(pressurePsia * MPA_PER_PSI) - KELVIN_AT_0_C;
-  return (celsius * 9) / 5 + 32;
+  return celsiusToFahrenheit(saturationTemperatureK(pressurePsia * MPA_PER_PSI) - KELVIN_AT_0_C);
 }
 
 /** Saturation pressure (psia) at a temperature (°F). */

@@ -1,0 +1,99 @@
+import { maintenanceDue, resetFromWorkRecord, addDays, DUE_RULE_TEXT, type LastDone } from './maintenance-due.js';
+
+// Due rules are the product's own (10 % of interval or 7 days; common practice, no source).
+const lastDone: LastDone = { runHours: 1000, revolutions: 4_000_000, date: new Date('2025-05-01T00:00:00Z') };
+const plan = { intervalRunHours: 200, intervalRevolutions: 900_000, intervalDays: 365 };
+
+describe('each criterion can come due first', () => {
+  it('running hours first: 190 of 200 h used → due soon, governed by run hours', () => {
+    const r = maintenanceDue(plan, lastDone, { runHours: 1190, revolutions: 4_500_000, now: new Date('2025-09-01T00:00:00Z') });
+    expect(r.governing).toBe('run_hours');
+    expect(r.status).toBe('due_soon');
+    const hours = r.criteria.find((c) => c.criterion === 'run_hours')!;
+    expect(hours.remaining).toBe(10);
+    expect(hours.fractionRemaining).toBeCloseTo(0.05, 12);
+  });
+
+  it('revolutions first: 905,000 of 900,000 revolutions → overdue even though hours and days remain', () => {
+    const r = maintenanceDue(plan, lastDone, { runHours: 1150, revolutions: 4_905_000, now: new Date('2025-09-01T00:00:00Z') });
+    expect(r.governing).toBe('revolutions');
+    expect(r.status).toBe('overdue');
+    expect(r.criteria.find((c) => c.criterion === 'revolutions')!.remaining).toBe(-5000);
+    expect(r.criteria.find((c) => c.criterion === 'run_hours')!.status).toBe('ok');
+  });
+
+  it('calendar first: little running, but 360 of 365 days gone → due soon with the calendar due date', () => {
+    const now = addDays(lastDone.date, 360);
+    const r = maintenanceDue(plan, lastDone, { runHours: 1020, revolutions: 4_090_000, now });
+    expect(r.governing).toBe('calendar_days');
+    expect(r.status).toBe('due_soon');
+    expect(r.dueDate!.toISOString()).toBe('2026-05-01T00:00:00.000Z');
+    expect(r.criteria.find((c) => c.criterion === 'calendar_days')!.remaining).toBeCloseTo(5, 9);
+  });
+
+  it('calendar overdue the day after the interval', () => {
+    const r = maintenanceDue({ intervalDays: 30 }, lastDone, { runHours: 1000, revolutions: 4_000_000, now: addDays(lastDone.date, 31) });
+    expect(r.status).toBe('overdue');
+    expect(r.criteria[0].remaining).toBeCloseTo(-1, 9);
+  });
+});
+
+describe('thresholds', () => {
+  const at = (hoursUsed: number) =>
+    maintenanceDue({ intervalRunHours: 200 }, lastDone, { runHours: 1000 + hoursUsed, revolutions: 4_000_000, now: new Date('2025-06-01T00:00:00Z') }).status;
+  it('exactly 10 % left is due soon; a little more is ok; reaching the interval is overdue', () => {
+    expect(at(179.9)).toBe('ok');
+    expect(at(180)).toBe('due_soon');
+    expect(at(199.9)).toBe('due_soon');
+    expect(at(200)).toBe('overdue');
+  });
+
+  it('a usage rate turns remaining hours into a due date, and 7 days or less is due soon', () => {
+    const now = new Date('2025-06-01T00:00:00Z');
+    // 150 of 200 h used: 50 h left (25 %), at 8 h a day → 6.25 days → due soon by date
+    const soon = maintenanceDue({ intervalRunHours: 200 }, lastDone, { runHours: 1150, revolutions: 4_000_000, now }, { runHoursPerDay: 8 });
+    expect(soon.status).toBe('due_soon');
+    expect(soon.dueDate!.getTime()).toBe(now.getTime() + 6.25 * 86_400_000);
+    // at 2 h a day the same 50 h is 25 days away → ok
+    const later = maintenanceDue({ intervalRunHours: 200 }, lastDone, { runHours: 1150, revolutions: 4_000_000, now }, { runHoursPerDay: 2 });
+    expect(later.status).toBe('ok');
+    expect(later.dueDate!.getTime()).toBe(now.getTime() + 25 * 86_400_000);
+  });
+
+  it('the earliest estimate is the due date, whichever criterion gives it', () => {
+    const now = new Date('2025-06-01T00:00:00Z');
+    const r = maintenanceDue(plan, lastDone, { runHours: 1100, revolutions: 4_450_000, now }, { runHoursPerDay: 4, revolutionsPerDay: 9_000 });
+    // hours: 100 left / 4 = 25 days; revolutions: 450,000 / 9,000 = 50 days; calendar: 2026-05-01
+    expect(r.dueDate!.getTime()).toBe(now.getTime() + 25 * 86_400_000);
+    expect(r.governing).toBe('run_hours');
+    expect(r.status).toBe('ok');
+  });
+
+  it('thresholds are settings', () => {
+    const r = maintenanceDue({ intervalRunHours: 200 }, lastDone, { runHours: 1170, revolutions: 4_000_000, now: new Date('2025-06-01T00:00:00Z') }, {}, { dueSoonFraction: 0.2 });
+    expect(r.status).toBe('due_soon');
+  });
+
+  it('rejects a plan with no interval and counters that run backwards', () => {
+    const now = new Date('2025-06-01T00:00:00Z');
+    expect(() => maintenanceDue({}, lastDone, { runHours: 1100, revolutions: 4_000_000, now })).toThrow(RangeError);
+    expect(() => maintenanceDue(plan, lastDone, { runHours: 900, revolutions: 4_000_000, now })).toThrow(RangeError);
+  });
+
+  it('exports the rule text', () => {
+    expect(DUE_RULE_TEXT).toMatch(/10 %/);
+    expect(DUE_RULE_TEXT).toMatch(/7 days/);
+  });
+});
+
+describe('reset from the closing work record', () => {
+  it('takes the counters and date from the record, and the task is then ok again', () => {
+    const completedAt = new Date('2025-09-10T15:30:00Z');
+    const next = resetFromWorkRecord({ completedAt, runHoursAtCompletion: 1203.5, revolutionsAtCompletion: 4_910_000 });
+    expect(next).toEqual({ runHours: 1203.5, revolutions: 4_910_000, date: completedAt });
+    expect(next.date).not.toBe(completedAt);
+    const r = maintenanceDue(plan, next, { runHours: 1203.5, revolutions: 4_910_000, now: completedAt });
+    expect(r.status).toBe('ok');
+    expect(r.criteria.every((c) => c.used === 0)).toBe(true);
+  });
+});

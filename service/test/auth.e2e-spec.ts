@@ -1,0 +1,177 @@
+import { JwtService } from '@nestjs/jwt';
+import { bearer, startTestApp, type TestApp } from './utils/test-app.js';
+import { createUser, login, signIn, uniqueEmail } from './factories/users.factory.js';
+
+describe('sign-in and tokens (API)', () => {
+  let t: TestApp;
+  beforeAll(async () => {
+    t = await startTestApp();
+  });
+  afterAll(async () => {
+    await t?.close();
+  });
+
+  const me = (accessToken: string) => t.http.get('/api/auth/me').set('Authorization', bearer(accessToken));
+
+  it('signs in with the right password and returns a token pair', async () => {
+    const u = await createUser(t.db, { role: 'operator' });
+    const res = await t.http.post('/api/auth/login').send({ email: u.email, password: u.password });
+    expect(res.status).toBe(200);
+    expect(typeof res.body.accessToken).toBe('string');
+    expect(res.body.accessToken.split('.')).toHaveLength(3);
+    expect(typeof res.body.refreshToken).toBe('string');
+    expect(res.body.user).toMatchObject({ id: u.id, email: u.email, role: 'operator' });
+    expect(res.body.user.passwordHash).toBeUndefined();
+    // The access token works.
+    const who = await me(res.body.accessToken);
+    expect(who.status).toBe(200);
+    expect(who.body.id).toBe(u.id);
+  });
+
+  it('signs in whatever the case of the e-mail address', async () => {
+    const u = await createUser(t.db);
+    const res = await t.http.post('/api/auth/login').send({ email: u.email.toUpperCase(), password: u.password });
+    expect(res.status).toBe(200);
+  });
+
+  it('refuses a wrong password with 401', async () => {
+    const u = await createUser(t.db);
+    const res = await t.http.post('/api/auth/login').send({ email: u.email, password: `${u.password}x` });
+    expect(res.status).toBe(401);
+    expect(res.body.accessToken).toBeUndefined();
+  });
+
+  it('refuses an unknown user with 401 and the same message as a wrong password', async () => {
+    const u = await createUser(t.db);
+    const wrong = await t.http.post('/api/auth/login').send({ email: u.email, password: 'not-the-password' });
+    const unknown = await t.http.post('/api/auth/login').send({ email: uniqueEmail('nobody'), password: 'not-the-password' });
+    expect(unknown.status).toBe(401);
+    expect(unknown.body.accessToken).toBeUndefined();
+    expect(unknown.body.message).toBe(wrong.body.message);
+  });
+
+  it('refuses a deactivated user at sign-in, and their earlier access token stops working', async () => {
+    const admin = await login(t, 'administrator');
+    const u = await createUser(t.db, { role: 'operator' });
+    const before = await signIn(t, u);
+    expect((await me(before.accessToken)).status).toBe(200);
+
+    const off = await t.http.patch(`/api/users/${u.id}`).set('Authorization', bearer(admin.accessToken)).send({ active: false });
+    expect(off.status).toBe(200);
+    expect(off.body.active).toBe(false);
+
+    const again = await t.http.post('/api/auth/login').send({ email: u.email, password: u.password });
+    expect(again.status).toBe(401);
+    expect((await me(before.accessToken)).status).toBe(401);
+    // Nor can the refresh token of the earlier sign-in bring the session back.
+    const refreshed = await t.http.post('/api/auth/refresh').send({ refreshToken: before.refreshToken });
+    expect(refreshed.status).toBe(401);
+  });
+
+  it('answers 429 once LOGIN_RATE_LIMIT_PER_MINUTE attempts for one e-mail have been made', async () => {
+    const limit = Number(process.env.LOGIN_RATE_LIMIT_PER_MINUTE);
+    expect(limit).toBeGreaterThan(0);
+    const u = await createUser(t.db);
+    for (let i = 0; i < limit; i++) {
+      const res = await t.http.post('/api/auth/login').send({ email: u.email, password: 'wrong-password' });
+      expect(res.status).toBe(401);
+    }
+    const blocked = await t.http.post('/api/auth/login').send({ email: u.email, password: 'wrong-password' });
+    expect(blocked.status).toBe(429);
+    // Even the right password waits for the minute to pass.
+    const right = await t.http.post('/api/auth/login').send({ email: u.email, password: u.password });
+    expect(right.status).toBe(429);
+    // Another person on the same address is not locked out.
+    const other = await createUser(t.db);
+    const otherRes = await t.http.post('/api/auth/login').send({ email: other.email, password: other.password });
+    expect(otherRes.status).toBe(200);
+  });
+
+  it('rotates refresh tokens: a new pair each time, the used one refused, reuse ends the family', async () => {
+    const first = await login(t, 'chief_engineer');
+    const r1 = await t.http.post('/api/auth/refresh').send({ refreshToken: first.refreshToken });
+    expect(r1.status).toBe(200);
+    expect(r1.body.refreshToken).not.toBe(first.refreshToken);
+    expect(typeof r1.body.accessToken).toBe('string');
+    expect((await me(r1.body.accessToken)).status).toBe(200);
+
+    // The used token again: refused...
+    const reuse = await t.http.post('/api/auth/refresh').send({ refreshToken: first.refreshToken });
+    expect(reuse.status).toBe(401);
+    // ...and the whole family ends, so the newest token is refused too.
+    const successor = await t.http.post('/api/auth/refresh').send({ refreshToken: r1.body.refreshToken });
+    expect(successor.status).toBe(401);
+  });
+
+  it('keeps other sign-ins of the same person when one family is ended', async () => {
+    const u = await createUser(t.db);
+    const a = await signIn(t, u);
+    const b = await signIn(t, u);
+    await t.http.post('/api/auth/refresh').send({ refreshToken: a.refreshToken });
+    await t.http.post('/api/auth/refresh').send({ refreshToken: a.refreshToken }); // reuse ends family a
+    const stillB = await t.http.post('/api/auth/refresh').send({ refreshToken: b.refreshToken });
+    expect(stillB.status).toBe(200);
+  });
+
+  it('refuses an access token whose expiry has passed, though signed with the right secret', async () => {
+    const u = await login(t, 'operator');
+    const jwt = new JwtService({ secret: process.env.JWT_SECRET });
+    const now = Math.floor(Date.now() / 1000);
+    const expired = await jwt.signAsync({ sub: u.user.id, role: u.user.role, iat: now - 3600, exp: now - 60 }, { algorithm: 'HS256' });
+    const res = await me(expired);
+    expect(res.status).toBe(401);
+    // Control: the same claims with a future expiry are accepted, so the refusal above is the expiry.
+    const valid = await jwt.signAsync({ sub: u.user.id, role: u.user.role, iat: now, exp: now + 600 }, { algorithm: 'HS256' });
+    expect((await me(valid)).status).toBe(200);
+    // And a token signed with another secret is refused.
+    const forged = await new JwtService({ secret: 'some-other-secret-0123456789' }).signAsync(
+      { sub: u.user.id, role: 'administrator', iat: now, exp: now + 600 },
+      { algorithm: 'HS256' },
+    );
+    expect((await me(forged)).status).toBe(401);
+  });
+
+  it('refuses requests without a token, or with a malformed one', async () => {
+    expect((await t.http.get('/api/auth/me')).status).toBe(401);
+    expect((await me('not-a-token')).status).toBe(401);
+  });
+
+  it('logout revokes the refresh token', async () => {
+    const s = await login(t, 'mill_lead');
+    const out = await t.http.post('/api/auth/logout').set('Authorization', bearer(s.accessToken)).send({ refreshToken: s.refreshToken });
+    expect(out.status).toBe(204);
+    const res = await t.http.post('/api/auth/refresh').send({ refreshToken: s.refreshToken });
+    expect(res.status).toBe(401);
+  });
+
+  it('changes the own password: the old one stops working, the new one works', async () => {
+    const s = await login(t, 'maintenance_lead');
+    const newPassword = `new-${s.account.password}`;
+
+    const wrongCurrent = await t.http
+      .post('/api/auth/password')
+      .set('Authorization', bearer(s.accessToken))
+      .send({ currentPassword: 'not-my-password', newPassword });
+    expect(wrongCurrent.status).toBe(400);
+
+    const tooShort = await t.http
+      .post('/api/auth/password')
+      .set('Authorization', bearer(s.accessToken))
+      .send({ currentPassword: s.account.password, newPassword: 'short' });
+    expect(tooShort.status).toBe(400);
+
+    const ok = await t.http
+      .post('/api/auth/password')
+      .set('Authorization', bearer(s.accessToken))
+      .send({ currentPassword: s.account.password, newPassword });
+    expect(ok.status).toBe(204);
+
+    const old = await t.http.post('/api/auth/login').send({ email: s.account.email, password: s.account.password });
+    expect(old.status).toBe(401);
+    const fresh = await t.http.post('/api/auth/login').send({ email: s.account.email, password: newPassword });
+    expect(fresh.status).toBe(200);
+    // The sign-ins made with the old password end.
+    const refreshOld = await t.http.post('/api/auth/refresh').send({ refreshToken: s.refreshToken });
+    expect(refreshOld.status).toBe(401);
+  });
+});

@@ -1,0 +1,88 @@
+import { bearer, startTestApp, type TestApp } from './utils/test-app.js';
+import { login, uniqueEmail, type SignedIn } from './factories/users.factory.js';
+import { waitForMessage } from './utils/mail-inbox.js';
+
+describe('invitations, health and API documentation (API)', () => {
+  let t: TestApp;
+  let admin: SignedIn;
+
+  beforeAll(async () => {
+    t = await startTestApp();
+    admin = await login(t, 'administrator');
+  });
+  afterAll(async () => {
+    await t?.close();
+  });
+
+  it('an invited person gets an e-mail, sets a password from its link once, and signs in with it', async () => {
+    const email = uniqueEmail('invitee');
+    const invited = await t.http
+      .post('/api/users/invitations')
+      .set('Authorization', bearer(admin.accessToken))
+      .send({ email, displayName: 'Ivy Invitee', role: 'operator' });
+    expect(invited.status).toBe(201);
+    expect(invited.body).toMatchObject({ email, role: 'operator', active: true, invitationPending: true });
+
+    // Not signed in yet: there is no password.
+    const early = await t.http.post('/api/auth/login').send({ email, password: 'anything-at-all' });
+    expect(early.status).toBe(401);
+
+    const mail = await waitForMessage(email, { subject: 'invited' });
+    expect(mail.to).toContain(email);
+    const publicUrl = process.env.PUBLIC_URL!.replace(/\/$/, '');
+    const escaped = publicUrl.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
+    const link = mail.text.match(new RegExp(`${escaped}/set-password\\?token=([^\\s]+)`));
+    expect(link).not.toBeNull();
+    const token = decodeURIComponent(link![1]);
+    expect(token.length).toBeGreaterThanOrEqual(20);
+
+    const password = `chosen-${Date.now()}-password`;
+    const accepted = await t.http.post('/api/auth/accept-invitation').send({ token, password });
+    expect(accepted.status).toBe(200);
+    expect(typeof accepted.body.accessToken).toBe('string');
+    expect(accepted.body.user).toMatchObject({ email, role: 'operator' });
+
+    const signedIn = await t.http.post('/api/auth/login').send({ email, password });
+    expect(signedIn.status).toBe(200);
+    expect(signedIn.body.user.email).toBe(email);
+
+    // The link works once.
+    const twice = await t.http.post('/api/auth/accept-invitation').send({ token, password: 'another-password-here' });
+    expect(twice.status).toBe(400);
+    const still = await t.http.post('/api/auth/login').send({ email, password });
+    expect(still.status).toBe(200);
+
+    // The administrator's list no longer shows the invitation as pending.
+    const list = await t.http.get('/api/users').set('Authorization', bearer(admin.accessToken));
+    expect(list.status).toBe(200);
+    const row = (list.body as { email: string; invitationPending: boolean }[]).find((u) => u.email === email);
+    expect(row?.invitationPending).toBe(false);
+  });
+
+  it('refuses a made-up invitation token', async () => {
+    const res = await t.http.post('/api/auth/accept-invitation').send({ token: 'x'.repeat(43), password: 'some-password-123' });
+    expect(res.status).toBe(400);
+  });
+
+  it('refuses to invite an address that already has an account (409)', async () => {
+    const res = await t.http
+      .post('/api/users/invitations')
+      .set('Authorization', bearer(admin.accessToken))
+      .send({ email: admin.user.email, displayName: 'Again', role: 'observer' });
+    expect(res.status).toBe(409);
+  });
+
+  it('GET /api/health answers ok with the database up', async () => {
+    const res = await t.http.get('/api/health');
+    expect(res.status).toBe(200);
+    expect(res.body).toMatchObject({ status: 'ok', database: 'up' });
+  });
+
+  it('GET /api/docs-json describes the sign-in route', async () => {
+    const res = await t.http.get('/api/docs-json');
+    expect(res.status).toBe(200);
+    expect(res.body.openapi).toMatch(/^3\./);
+    expect(res.body.paths['/api/auth/login']).toBeDefined();
+    expect(res.body.paths['/api/auth/login'].post).toBeDefined();
+  });
+});

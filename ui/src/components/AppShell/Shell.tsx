@@ -1,0 +1,137 @@
+import { Suspense, useEffect, useState } from 'react';
+import { NavLink as RouterLink, Outlet, useLocation, useNavigate } from 'react-router-dom';
+import {
+  ActionIcon,
+  AppShell,
+  Badge,
+  Burger,
+  Center,
+  Group,
+  Loader,
+  NavLink,
+  ScrollArea,
+  Stack,
+  Text,
+  Tooltip,
+  useComputedColorScheme,
+  useMantineColorScheme,
+} from '@mantine/core';
+import { useDisclosure } from '@mantine/hooks';
+import { notifications } from '@mantine/notifications';
+import { IconLogout, IconMoon, IconSun } from '@tabler/icons-react';
+import { ROLE_LABELS } from '@crankjournal/shared-types';
+import { Brand } from '../Brand';
+import { useSession } from '../../features/auth/useSession';
+import { signOut } from '../../features/auth/api/auth.api';
+import { getSocket } from '../../api/socket';
+import { navigationFor } from './navigation';
+
+export function Shell() {
+  const session = useSession()!;
+  const [opened, { toggle, close }] = useDisclosure();
+  const navigate = useNavigate();
+  const location = useLocation();
+  const { setColorScheme } = useMantineColorScheme();
+  const scheme = useComputedColorScheme('dark');
+  const [live, setLive] = useState<boolean>(false);
+
+  useEffect(close, [location.pathname, close]);
+  useEffect(() => {
+    const s = getSocket();
+    if (!s) return;
+    const on = () => setLive(true);
+    const off = () => setLive(false);
+    const notice = (n: { message: string; from: string }) =>
+      notifications.show({ title: `Notice from ${n.from}`, message: n.message, autoClose: 15_000 });
+    s.on('connect', on);
+    s.on('disconnect', off);
+    s.on('site:notice', notice);
+    setLive(s.connected);
+    return () => {
+      s.off('connect', on);
+      s.off('disconnect', off);
+      s.off('site:notice', notice);
+    };
+  }, [session.accessToken]);
+
+  const groups = navigationFor(session.user.role);
+  return (
+    <AppShell header={{ height: 60 }} navbar={{ width: 240, breakpoint: 'md', collapsed: { mobile: !opened } }} padding="md">
+      <AppShell.Header>
+        <Group h="100%" px="md" justify="space-between" wrap="nowrap">
+          <Group wrap="nowrap">
+            <Burger opened={opened} onClick={toggle} hiddenFrom="md" size="md" aria-label="Open navigation" />
+            <Brand />
+          </Group>
+          <Group gap="xs" wrap="nowrap">
+            <Tooltip label={live ? 'Live updates connected' : 'Live updates not connected'}>
+              <Badge variant="dot" color={live ? 'copper' : 'amber'} size="lg" visibleFrom="sm">
+                {live ? 'Live' : 'Offline'}
+              </Badge>
+            </Tooltip>
+            <Stack gap={0} visibleFrom="sm" align="flex-end">
+              <Text fz="sm" fw={600} data-testid="signed-in-name">
+                {session.user.displayName}
+              </Text>
+              <Text fz="xs" c="dimmed" data-testid="signed-in-role">
+                {ROLE_LABELS[session.user.role]}
+              </Text>
+            </Stack>
+            <ActionIcon
+              variant="subtle"
+              color="gray"
+              aria-label={scheme === 'dark' ? 'Use the light scheme' : 'Use the dark scheme'}
+              onClick={() => setColorScheme(scheme === 'dark' ? 'light' : 'dark')}
+            >
+              {scheme === 'dark' ? <IconSun /> : <IconMoon />}
+            </ActionIcon>
+            <ActionIcon
+              variant="subtle"
+              color="gray"
+              aria-label="Sign out"
+              onClick={async () => {
+                await signOut();
+                navigate('/sign-in', { replace: true });
+              }}
+            >
+              <IconLogout />
+            </ActionIcon>
+          </Group>
+        </Group>
+      </AppShell.Header>
+      <AppShell.Navbar p="xs" aria-label="Main navigation">
+        <ScrollArea>
+          {groups.map((g) => (
+            <Stack key={g.label} gap={2} mb="sm">
+              <Text fz="xs" tt="uppercase" c="dimmed" fw={700} px="sm" pt="xs">
+                {g.label}
+              </Text>
+              {g.items.map((i) => (
+                <NavLink
+                  key={i.path}
+                  component={RouterLink}
+                  to={i.path}
+                  end={i.path === '/'}
+                  label={i.label}
+                  leftSection={<i.icon size={22} stroke={1.6} />}
+                  styles={{ root: { minHeight: 48, borderRadius: 6 }, label: { fontSize: 16 } }}
+                />
+              ))}
+            </Stack>
+          ))}
+        </ScrollArea>
+      </AppShell.Navbar>
+      <AppShell.Main>
+        <Suspense
+          fallback={
+            <Center h={200}>
+              <Loader />
+            </Center>
+          }
+        >
+          <Outlet />
+        </Suspense>
+      </AppShell.Main>
+    </AppShell>
+  );
+}

@@ -1,0 +1,40 @@
+import type { LoginRequest, SessionUser, TokenPair, UpdateMyPreferencesRequest } from '@crankjournal/shared-types';
+import { api } from '../../../api/http';
+import { sessionStore } from '../../../api/session';
+import { closeSocket } from '../../../api/socket';
+
+export async function signIn(req: LoginRequest): Promise<TokenPair> {
+  const pair = await api<TokenPair>('/auth/login', { body: req });
+  sessionStore.set(pair);
+  return pair;
+}
+
+export async function signOut(): Promise<void> {
+  const s = sessionStore.get();
+  try {
+    if (s) await api('/auth/logout', { body: { refreshToken: s.refreshToken } });
+  } catch {
+    /* signed out locally whatever the server says */
+  }
+  closeSocket();
+  sessionStore.set(null);
+}
+
+export async function acceptInvitation(token: string, password: string): Promise<TokenPair> {
+  const pair = await api<TokenPair>('/auth/accept-invitation', { body: { token, password } });
+  sessionStore.set(pair);
+  return pair;
+}
+
+export async function updateMe(req: UpdateMyPreferencesRequest): Promise<SessionUser> {
+  const user = await api<SessionUser>('/auth/me', { method: 'PATCH', body: req });
+  sessionStore.updateUser(user);
+  return user;
+}
+
+export function changePassword(currentPassword: string, newPassword: string) {
+  return api<void>('/auth/password', { body: { currentPassword, newPassword } });
+}
+export function setSigningPin(currentPassword: string, pin: string) {
+  return api<void>('/auth/signing-pin', { body: { currentPassword, pin } });
+}

@@ -1,0 +1,12 @@
+import { queryOptions } from '@tanstack/react-query';
+import type { InviteUserRequest, UpdateUserRequest, UserSummary } from '@crankjournal/shared-types';
+import { api } from '../../../api/http';
+
+export const userKeys = {
+  all: ['users'] as const,
+  list: () => [...userKeys.all, 'list'] as const,
+};
+
+export const usersListQuery = () => queryOptions({ queryKey: userKeys.list(), queryFn: () => api<UserSummary[]>('/users') });
+export const inviteUser = (req: InviteUserRequest) => api<UserSummary>('/users/invitations', { body: req });
+export const updateUser = (id: string, req: UpdateUserRequest) => api<UserSummary>(`/users/${id}`, { method: 'PATCH', body: req });
