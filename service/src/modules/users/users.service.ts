@@ -1,6 +1,6 @@
 import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
-import { Repository } from 'typeorm';
+import { IsNull, Repository } from 'typeorm';
 import type { Role, UserSummary } from '@crankjournal/shared-types';
 import { User } from './user.entity.js';
 import { Invitation } from './invitation.entity.js';
@@ -117,7 +117,7 @@ export class UsersService {
     if (!inv || inv.usedAt || inv.expiresAt.getTime() < Date.now()) {
       throw new BadRequestException('This invitation link is not valid any more. Ask an administrator for a new one.');
     }
-    const res = await this.invitations.update({ id: inv.id, usedAt: undefined }, { usedAt: new Date() });
+    const res = await this.invitations.update({ id: inv.id, usedAt: IsNull() }, { usedAt: new Date() });
     if (!res.affected) throw new BadRequestException('This invitation link has already been used.');
     return this.get(inv.userId);
   }
