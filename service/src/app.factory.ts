@@ -46,7 +46,6 @@ export async function createApp(opts: { logger?: boolean } = {}): Promise<NestEx
     );
   }
   app.use('/api', express.json({ limit: '5mb' }));
-  app.use('/api', express.text({ type: ['text/csv', 'text/plain'], limit: '200mb' }));
   app.setGlobalPrefix('api');
   app.enableShutdownHooks();
 

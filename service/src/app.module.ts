@@ -15,6 +15,9 @@ import { HealthModule } from './modules/health/health.module.js';
 import { MailModule } from './modules/mail/mail.module.js';
 import { StorageModule } from './modules/storage/storage.module.js';
 import { LiveModule } from './modules/live/live.module.js';
+import { EnginesModule } from './modules/engines/engines.module.js';
+import { AlarmsModule } from './modules/alarms/alarms.module.js';
+import { RunsModule } from './modules/runs/runs.module.js';
 
 @Module({
   imports: [
@@ -30,6 +33,9 @@ import { LiveModule } from './modules/live/live.module.js';
     AuthModule,
     UsersModule,
     HealthModule,
+    EnginesModule,
+    AlarmsModule,
+    RunsModule,
   ],
   providers: [
     { provide: APP_GUARD, useClass: JwtAuthGuard },

@@ -59,6 +59,26 @@ describe('invitations, health and API documentation (API)', () => {
     expect(row?.invitationPending).toBe(false);
   });
 
+  it('lets only one of two simultaneous uses of the same link through', async () => {
+    const email = uniqueEmail('race');
+    const invited = await t.http
+      .post('/api/users/invitations')
+      .set('Authorization', bearer(admin.accessToken))
+      .send({ email, displayName: 'Rae Race', role: 'observer' });
+    expect(invited.status).toBe(201);
+    const mail = await waitForMessage(email);
+    const token = decodeURIComponent(mail.text.match(/set-password\?token=([^\s]+)/)![1]);
+    const [a, b] = await Promise.all([
+      t.http.post('/api/auth/accept-invitation').send({ token, password: 'first-password-123' }),
+      t.http.post('/api/auth/accept-invitation').send({ token, password: 'second-password-456' }),
+    ]);
+    expect([a.status, b.status].sort()).toEqual([200, 400]);
+    const winner = a.status === 200 ? 'first-password-123' : 'second-password-456';
+    const loser = a.status === 200 ? 'second-password-456' : 'first-password-123';
+    expect((await t.http.post('/api/auth/login').send({ email, password: winner })).status).toBe(200);
+    expect((await t.http.post('/api/auth/login').send({ email, password: loser })).status).toBe(401);
+  });
+
   it('refuses a made-up invitation token', async () => {
     const res = await t.http.post('/api/auth/accept-invitation').send({ token: 'x'.repeat(43), password: 'some-password-123' });
     expect(res.status).toBe(400);

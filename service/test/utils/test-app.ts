@@ -2,6 +2,11 @@ import 'reflect-metadata';
 import type { NestExpressApplication } from '@nestjs/platform-express';
 import type { DataSource } from 'typeorm';
 import supertest from 'supertest';
+import { jest } from '@jest/globals';
+
+// Sign-ins hash with argon2 and each file boots the whole app: allow more than Jest's default 5 s
+// (a project's `testTimeout` in jest.config.cjs is not applied to its tests).
+jest.setTimeout(30_000);
 
 /**
  * The environment of an end-to-end test run. `npm test` (ops/test.sh) sets all of these; the defaults

@@ -1,7 +1,9 @@
 /**
  * The live channel's events, typed once for both the server (socket.io gateway) and the UI.
- * Rooms: `site` (everyone signed in), `run:<id>`, `engine:<id>`.
+ * Rooms: `site` (everyone signed in), `run:<id>`, `engine:<id>`, `administration`.
  */
+import type { AlarmDto, IngestResult, ReadingDto, RunDetail, StartGateVerdict, ReadingInput } from '../api/runs.js';
+
 export interface SiteNotice {
   message: string;
   from: string;
@@ -18,14 +20,47 @@ export interface JoinRoomAck {
 export interface LiveErrorEvent {
   event: string;
   message: string | string[];
+  status?: number;
+}
+export interface ReadingsEvent {
+  runId: string;
+  readings: ReadingDto[];
+}
+export interface SubmitReadingsRequest {
+  runId: string;
+  readings: ReadingInput[];
+}
+export interface StartRunRequest {
+  runId: string;
+}
+export interface LiveAck<T> {
+  ok: boolean;
+  error?: string;
+  status?: number;
+  data?: T;
+  details?: unknown;
+}
+/** A generic "something changed in this run" event for feature areas (card sets, checklists, passes). */
+export interface RunRecordEvent {
+  runId: string;
+  kind: string;
+  id: string;
+  data?: unknown;
 }
 
 export interface ServerToClientEvents {
   'site:notice': (notice: SiteNotice) => void;
   'live:error': (error: LiveErrorEvent) => void;
+  'readings:new': (e: ReadingsEvent) => void;
+  'reading:amended': (r: ReadingDto) => void;
+  'alarm:changed': (a: AlarmDto) => void;
+  'run:changed': (r: RunDetail) => void;
+  'run:record': (e: RunRecordEvent) => void;
 }
 
 export interface ClientToServerEvents {
   'room:join': (req: JoinRoomRequest, ack?: (res: JoinRoomAck) => void) => void;
   'room:leave': (req: JoinRoomRequest, ack?: (res: JoinRoomAck) => void) => void;
+  'readings:submit': (req: SubmitReadingsRequest, ack?: (res: LiveAck<IngestResult>) => void) => void;
+  'run:start': (req: StartRunRequest, ack?: (res: LiveAck<RunDetail | StartGateVerdict>) => void) => void;
 }

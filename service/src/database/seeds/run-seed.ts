@@ -1,13 +1,15 @@
 import 'reflect-metadata';
-import dataSource from '../data-source.js';
+import { seedContext } from './seed-context.js';
 import { seedDemo } from './seed-demo.js';
 
 /** Seeds the invented demo site from samples/. Running it twice gives the same data. */
 async function main() {
-  await dataSource.initialize();
-  const summary = await seedDemo(dataSource);
-  console.log(`seed: ${summary}`);
-  await dataSource.destroy();
+  const app = await seedContext();
+  try {
+    console.log(`seed: ${await seedDemo(app)}`);
+  } finally {
+    await app.close();
+  }
 }
 main().catch((e) => {
   console.error(e);

@@ -19,6 +19,7 @@
  * All limits are per-point (or per-engine) settings chosen by the chief engineer; none of them
  * comes from a published source.
  */
+import { UNIT_LABELS } from '@crankjournal/shared-types';
 import { KPA_PER_PSI, STANDARD_ATMOSPHERE_KPA, celsiusToFahrenheit, psigToPsia } from '../../calculations/units.js';
 
 /** Shown beside pressure, speed and bearing alarms. */
@@ -261,7 +262,8 @@ function fmt(n: number): string {
 }
 
 function withUnit(n: number, unit: string): string {
-  return unit ? `${fmt(n)} ${unit}` : fmt(n);
+  const label = UNIT_LABELS[unit] ?? unit;
+  return label ? `${fmt(n)} ${label}` : fmt(n);
 }
 
 /**

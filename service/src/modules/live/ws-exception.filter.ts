@@ -10,7 +10,8 @@ export class WsErrorFilter extends BaseWsExceptionFilter {
     const ws = host.switchToWs();
     const client = ws.getClient<Socket>();
     const args = host.getArgs();
-    const ack = typeof args[args.length - 1] === 'function' ? (args[args.length - 1] as (r: unknown) => void) : undefined;
+    // Nest passes (client, data, ack?, pattern): the ack is not always the last argument.
+    const ack = args.find((a, i) => i > 0 && typeof a === 'function') as ((r: unknown) => void) | undefined;
     let message: string | string[];
     let status = 400;
     if (exception instanceof WsException) {

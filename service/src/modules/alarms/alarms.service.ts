@@ -1,0 +1,372 @@
+import { BadRequestException, Injectable, Logger, NotFoundException, type OnModuleDestroy, type OnModuleInit } from '@nestjs/common';
+import { InjectDataSource } from '@nestjs/typeorm';
+import { DataSource, EntityManager, Not } from 'typeorm';
+import type { AlarmDto, AlarmKind } from '@crankjournal/shared-types';
+import { ALARM_KIND_WORDS } from '@crankjournal/shared-types';
+import { Alarm } from './alarm.entity.js';
+import { AlarmEvent } from './alarm-event.entity.js';
+import { evaluateReading, type PointReading } from './alarm-rules.js';
+import { AlarmTransitionError, applyShelveExpiry, transition, type AlarmEvent as LifecycleEvent, type AlarmLifecycle } from './alarm-lifecycle.js';
+import { EnginesService } from '../engines/engines.service.js';
+import type { MeasurementPoint } from '../engines/measurement-point.entity.js';
+import { LiveService } from '../live/live.service.js';
+import { MailService } from '../mail/mail.service.js';
+import { UsersService } from '../users/users.service.js';
+import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
+import { celsiusToFahrenheit, fahrenheitToCelsius } from '../../calculations/units.js';
+import { AppConfig } from '../../config/app-config.service.js';
+
+/** Rate of rise is judged over this window, long enough to hold two hand-taken rounds. */
+export const RATE_WINDOW_MINUTES = 15;
+
+export interface NewReading {
+  id: string;
+  pointId: string;
+  value: number;
+  takenAt: Date;
+}
+
+interface EngineState {
+  recent: Map<string, PointReading[]>;
+  open: Map<string, Alarm>;
+  ambient: { value: number; unit: string; takenAt: Date } | null;
+}
+
+export interface EvaluationOutcome {
+  changed: Alarm[];
+  raised: number;
+  toEmail: Alarm[];
+}
+
+/** Recent readings per point and the latest ambient reading, from the module that owns readings. */
+export type RecentHistoryLoader = (
+  engineId: string,
+  windowMinutes: number,
+  m: EntityManager,
+) => Promise<{ recent: Map<string, PointReading[]>; ambient: { value: number; unit: string; takenAt: Date } | null }>;
+
+/** Permission check for acknowledging (the qualifications module fills it in). */
+export interface AlarmAckPolicy {
+  assertMayAcknowledge(user: AuthUser, alarm: Alarm): Promise<void>;
+}
+
+@Injectable()
+export class AlarmsService implements OnModuleInit, OnModuleDestroy {
+  private readonly logger = new Logger('Alarms');
+  private readonly state = new Map<string, EngineState>();
+  private readonly names = new Map<string, string>();
+  private sweep: NodeJS.Timeout | null = null;
+  private ackPolicy: AlarmAckPolicy | null = null;
+
+  constructor(
+    @InjectDataSource() private readonly db: DataSource,
+    private readonly engines: EnginesService,
+    private readonly live: LiveService,
+    private readonly mail: MailService,
+    private readonly users: UsersService,
+    private readonly config: AppConfig,
+  ) {}
+
+  onModuleInit() {
+    this.sweep = setInterval(() => void this.expireShelves().catch((e) => this.logger.warn(e.message)), 30_000);
+    this.sweep.unref();
+  }
+  onModuleDestroy() {
+    if (this.sweep) clearInterval(this.sweep);
+  }
+
+  setAckPolicy(policy: AlarmAckPolicy) {
+    this.ackPolicy = policy;
+  }
+
+  /** Forget cached state of an engine (after a rolled-back transaction). */
+  forget(engineId: string) {
+    this.state.delete(engineId);
+  }
+
+  private async load(engineId: string, m: EntityManager, history: RecentHistoryLoader): Promise<EngineState> {
+    const hit = this.state.get(engineId);
+    if (hit) return hit;
+    const open = await m.find(Alarm, { where: { engineId, state: Not('normal') } });
+    const { recent, ambient } = await history(engineId, RATE_WINDOW_MINUTES, m);
+    const st: EngineState = {
+      recent,
+      open: new Map(open.map((a) => [`${a.pointId}:${a.kind}`, a])),
+      ambient,
+    };
+    this.state.set(engineId, st);
+    return st;
+  }
+
+  /**
+   * Evaluates new readings (already stored, in the same transaction) against their points' limits.
+   * The caller serialises calls per engine and broadcasts/e-mails the outcome after commit.
+   */
+  async evaluate(engineId: string, runId: string, readings: NewReading[], m: EntityManager, history: RecentHistoryLoader): Promise<EvaluationOutcome> {
+    const { engine, points } = await this.engines.withPoints(engineId);
+    const pointById = new Map(points.map((p) => [p.id, p]));
+    const st = await this.load(engineId, m, history);
+    const changed = new Map<string, Alarm>();
+    const toEmail: Alarm[] = [];
+    const events: Partial<AlarmEvent>[] = [];
+    let raised = 0;
+    const sorted = [...readings].sort((a, b) => a.takenAt.getTime() - b.takenAt.getTime());
+    for (const r of sorted) {
+      const point = pointById.get(r.pointId);
+      if (!point) continue;
+      const list = st.recent.get(point.id) ?? [];
+      list.push({ pointId: point.id, value: r.value, takenAt: r.takenAt });
+      const cutoff = r.takenAt.getTime() - RATE_WINDOW_MINUTES * 60_000;
+      while (list.length && list[0].takenAt.getTime() < cutoff) list.shift();
+      st.recent.set(point.id, list);
+      if (point.kind === 'ambient_temperature') {
+        if (!st.ambient || st.ambient.takenAt <= r.takenAt) st.ambient = { value: r.value, unit: point.unit, takenAt: r.takenAt };
+      }
+      const activeConditions = [...st.open.values()].filter((a) => a.pointId === point.id && a.conditionActive).map((a) => a.kind);
+      const decisions = evaluateReading({
+        point: { ...point, name: point.label },
+        engine: { maximumAllowableWorkingPressurePsig: engine.mawpPsig, overspeedRpm: engine.overspeedRpm },
+        reading: { pointId: point.id, value: r.value, takenAt: r.takenAt },
+        recentHistory: list,
+        ambientTemperature: this.ambientIn(st, point),
+        activeConditions,
+        rateWindowMinutes: RATE_WINDOW_MINUTES,
+      });
+      for (const d of decisions) {
+        if (!d.evaluated || d.action === 'hold') continue;
+        const key = `${point.id}:${d.kind}`;
+        const open = st.open.get(key);
+        if (d.action === 'raise') {
+          if (open) {
+            const next = this.apply(open, { type: 'reactivate' }, null, r.takenAt, events);
+            next.value = d.value;
+            next.limit = d.limit;
+            next.message = d.message;
+            changed.set(next.id, next);
+          } else {
+            const a = m.create(Alarm, {
+              engineId,
+              runId,
+              pointId: point.id,
+              kind: d.kind as AlarmKind,
+              priority: d.priority,
+              state: 'active_unacknowledged',
+              conditionActive: true,
+              message: d.message,
+              value: d.value,
+              limit: d.limit,
+              unit: d.unit,
+              readingId: r.id,
+              raisedAt: r.takenAt,
+            });
+            const saved = await m.save(Alarm, a);
+            events.push({ alarmId: saved.id, event: 'raise', fromState: null, toState: 'active_unacknowledged', byUser: null, at: r.takenAt, note: d.message });
+            st.open.set(key, saved);
+            changed.set(saved.id, saved);
+            raised++;
+            if (saved.priority === 'high_high') toEmail.push(saved);
+          }
+        } else if (d.action === 'clear' && open && open.conditionActive) {
+          const next = this.apply(open, { type: 'return_to_normal' }, null, r.takenAt, events);
+          changed.set(next.id, next);
+          if (next.state === 'normal') st.open.delete(key);
+        }
+      }
+    }
+    if (changed.size) {
+      await m.save(Alarm, [...changed.values()]);
+    }
+    if (events.length) await m.insert(AlarmEvent, events);
+    return { changed: [...changed.values()], raised, toEmail };
+  }
+
+  private ambientIn(st: EngineState, point: MeasurementPoint): number | null {
+    if (!st.ambient || point.kind !== 'bearing_temperature') return null;
+    const { value, unit } = st.ambient;
+    if (unit === point.unit) return value;
+    if (unit === 'degC' && point.unit === 'degF') return celsiusToFahrenheit(value);
+    if (unit === 'degF' && point.unit === 'degC') return fahrenheitToCelsius(value);
+    return null;
+  }
+
+  /** Applies a lifecycle event to an alarm in memory, recording the event. */
+  private apply(a: Alarm, ev: LifecycleEvent, by: string | null, at: Date, events: Partial<AlarmEvent>[], note?: string): Alarm {
+    const before: AlarmLifecycle = { state: a.state, conditionActive: a.conditionActive, shelvedUntil: a.shelvedUntil, shelveReason: a.shelveReason };
+    const next = transition(before, ev, { now: at });
+    events.push({ alarmId: a.id, event: ev.type, fromState: a.state, toState: next.state, byUser: by, at, note: note ?? null });
+    a.state = next.state;
+    a.conditionActive = next.conditionActive;
+    a.shelvedUntil = next.shelvedUntil;
+    a.shelveReason = next.shelveReason;
+    if (ev.type === 'return_to_normal') a.returnedAt = at;
+    if (ev.type === 'acknowledge') {
+      a.acknowledgedAt = at;
+      a.acknowledgedBy = by;
+    }
+    if (ev.type === 'shelve') a.shelvedBy = by;
+    return a;
+  }
+
+  /** After commit: tell everyone watching, and e-mail the people who must know of a high-high alarm (once per alarm). */
+  async publish(outcome: EvaluationOutcome) {
+    for (const a of outcome.changed) await this.broadcast(a);
+    for (const a of outcome.toEmail) void this.emailOnce(a).catch((e) => this.logger.warn(`alarm e-mail failed: ${e.message}`));
+  }
+
+  private async emailOnce(a: Alarm) {
+    const claimed = await this.db.getRepository(Alarm).createQueryBuilder().update().set({ emailedAt: () => 'now()' }).where('id = :id AND emailed_at IS NULL', { id: a.id }).execute();
+    if (!claimed.affected) return;
+    const to = (await this.users.usersWithRoles(['chief_engineer', 'maintenance_lead'])).map((u) => u.email);
+    if (!to.length) return;
+    const { engine } = await this.engines.withPoints(a.engineId);
+    await this.mail.send({
+      to,
+      subject: `High-high alarm on ${engine.name}: ${a.message}`,
+      text: [
+        `${ALARM_KIND_WORDS[a.kind]} alarm raised at ${a.raisedAt.toISOString()} on ${engine.name}.`,
+        '',
+        a.message,
+        '',
+        a.runId ? `Open the run: ${this.config.get('PUBLIC_URL')}/runs/${a.runId}` : '',
+        '',
+        'Follow the engine house’s hot-bearing and over-pressure procedures. Crankjournal aids a qualified crew; it does not replace local codes, the insurer’s inspections or licensed practice.',
+      ].join('\n'),
+    });
+  }
+
+  private async broadcast(a: Alarm) {
+    const dto = await this.toDto(a);
+    if (a.runId) this.live.emitToRoom(`run:${a.runId}`, 'alarm:changed', dto);
+    this.live.emitToRoom(`engine:${a.engineId}`, 'alarm:changed', dto);
+  }
+
+  private async nameOf(id: string | null): Promise<string | null> {
+    if (!id) return null;
+    const hit = this.names.get(id);
+    if (hit) return hit;
+    const u = await this.users.get(id).catch(() => null);
+    const n = u?.displayName ?? 'unknown';
+    this.names.set(id, n);
+    return n;
+  }
+
+  async toDto(a: Alarm): Promise<AlarmDto> {
+    const { points } = await this.engines.withPoints(a.engineId);
+    const p = points.find((x) => x.id === a.pointId);
+    return {
+      id: a.id,
+      engineId: a.engineId,
+      runId: a.runId,
+      pointId: a.pointId,
+      pointLabel: p ? p.label : 'engine',
+      kind: a.kind,
+      priority: a.priority,
+      state: a.state,
+      conditionActive: a.conditionActive,
+      message: a.message,
+      value: a.value,
+      limit: a.limit,
+      unit: a.unit,
+      raisedAt: a.raisedAt.toISOString(),
+      acknowledgedAt: a.acknowledgedAt?.toISOString() ?? null,
+      acknowledgedByName: await this.nameOf(a.acknowledgedBy),
+      returnedAt: a.returnedAt?.toISOString() ?? null,
+      shelvedUntil: a.shelvedUntil?.toISOString() ?? null,
+      shelveReason: a.shelveReason,
+      shelvedByName: await this.nameOf(a.shelvedBy),
+      updatedAt: (a.updatedAt ?? new Date()).toISOString(),
+    };
+  }
+
+  async list(filter: { engineId?: string; runId?: string; open?: boolean }): Promise<AlarmDto[]> {
+    await this.expireShelves();
+    const where: Record<string, unknown> = {};
+    if (filter.engineId) where.engineId = filter.engineId;
+    if (filter.runId) where.runId = filter.runId;
+    if (filter.open) where.state = Not('normal');
+    const rows = await this.db.getRepository(Alarm).find({ where, order: { raisedAt: 'DESC' }, take: 500 });
+    return Promise.all(rows.map((a) => this.toDto(a)));
+  }
+
+  async openCountByRun(runIds: string[]): Promise<Map<string, number>> {
+    if (!runIds.length) return new Map();
+    const rows: { run_id: string; n: number }[] = await this.db.query(
+      `SELECT run_id, count(*)::int AS n FROM alarms WHERE run_id = ANY($1) AND state <> 'normal' GROUP BY run_id`,
+      [runIds],
+    );
+    return new Map(rows.map((o) => [o.run_id, o.n]));
+  }
+
+  /** True when a high-high priority alarm is active (condition present) on the engine. */
+  async hasActiveHighHigh(engineId: string): Promise<Alarm[]> {
+    return this.db.getRepository(Alarm).find({ where: { engineId, priority: 'high_high', conditionActive: true, state: Not('normal') } });
+  }
+
+  private async change(alarmId: string, user: AuthUser, build: (a: Alarm) => LifecycleEvent, note?: string): Promise<AlarmDto> {
+    const a0 = await this.db.getRepository(Alarm).findOne({ where: { id: alarmId } });
+    if (!a0) throw new NotFoundException('No such alarm.');
+    if (this.ackPolicy) await this.ackPolicy.assertMayAcknowledge(user, a0);
+    const engineId = a0.engineId;
+    const a = await this.db.transaction(async (m) => {
+      const cur = await m.findOne(Alarm, { where: { id: alarmId }, lock: { mode: 'pessimistic_write' } });
+      if (!cur) throw new NotFoundException('No such alarm.');
+      const events: Partial<AlarmEvent>[] = [];
+      try {
+        this.apply(cur, build(cur), user.id, new Date(), events, note);
+      } catch (e) {
+        if (e instanceof AlarmTransitionError) throw new BadRequestException(e.message);
+        throw e;
+      }
+      await m.save(Alarm, cur);
+      await m.insert(AlarmEvent, events);
+      return cur;
+    });
+    // Keep the cached open set in step.
+    const st = this.state.get(engineId);
+    if (st) {
+      const key = `${a.pointId}:${a.kind}`;
+      if (a.state === 'normal') st.open.delete(key);
+      else st.open.set(key, a);
+    }
+    await this.broadcast(a);
+    return this.toDto(a);
+  }
+
+  acknowledge(alarmId: string, user: AuthUser) {
+    return this.change(alarmId, user, () => ({ type: 'acknowledge' }));
+  }
+  shelve(alarmId: string, user: AuthUser, reason: string, minutes: number) {
+    return this.change(alarmId, user, () => ({ type: 'shelve', reason, until: new Date(Date.now() + minutes * 60_000) }), reason);
+  }
+  unshelve(alarmId: string, user: AuthUser) {
+    return this.change(alarmId, user, () => ({ type: 'unshelve' }));
+  }
+
+  /** Shelved alarms whose time is up go back to their real state. */
+  async expireShelves() {
+    const due = await this.db.getRepository(Alarm).createQueryBuilder('a').where(`a.state = 'shelved' AND a.shelved_until <= now()`).getMany();
+    for (const a of due) {
+      const next = applyShelveExpiry({ state: a.state, conditionActive: a.conditionActive, shelvedUntil: a.shelvedUntil, shelveReason: a.shelveReason }, new Date());
+      if (next.state === a.state) continue;
+      await this.db.transaction(async (m) => {
+        await m.update(Alarm, { id: a.id, state: 'shelved' }, { state: next.state, shelvedUntil: null, shelveReason: null });
+        await m.insert(AlarmEvent, { alarmId: a.id, event: 'shelve_expired', fromState: 'shelved', toState: next.state, byUser: null, at: new Date(), note: null });
+      });
+      a.state = next.state;
+      const st = this.state.get(a.engineId);
+      if (st) {
+        if (a.state === 'normal') st.open.delete(`${a.pointId}:${a.kind}`);
+        else st.open.set(`${a.pointId}:${a.kind}`, a);
+      }
+      await this.broadcast(a);
+    }
+  }
+
+  async get(id: string): Promise<Alarm> {
+    const a = await this.db.getRepository(Alarm).findOne({ where: { id } });
+    if (!a) throw new NotFoundException('No such alarm.');
+    return a;
+  }
+
+
+}

@@ -1,0 +1,12 @@
+import { Column, Entity, Index, PrimaryGeneratedColumn } from 'typeorm';
+
+@Entity({ name: 'reading_amendments' })
+export class ReadingAmendment {
+  @PrimaryGeneratedColumn('uuid') id: string;
+  @Index() @Column({ name: 'reading_id', type: 'bigint' }) readingId: string;
+  @Column({ name: 'old_value', type: 'double precision' }) oldValue: number;
+  @Column({ name: 'new_value', type: 'double precision' }) newValue: number;
+  @Column({ type: 'text' }) reason: string;
+  @Column({ name: 'by_user', type: 'uuid' }) byUser: string;
+  @Column({ type: 'timestamptz' }) at: Date;
+}

@@ -1,0 +1,150 @@
+import { Injectable, NotFoundException } from '@nestjs/common';
+import { InjectDataSource } from '@nestjs/typeorm';
+import { DataSource, In } from 'typeorm';
+import type { AmendmentDto, BoardPoint, ReadingDto } from '@crankjournal/shared-types';
+import { Reading } from './reading.entity.js';
+import { ReadingAmendment } from './reading-amendment.entity.js';
+import { RunsService } from './runs.service.js';
+import { User } from '../users/user.entity.js';
+import { LiveService } from '../live/live.service.js';
+import { AlarmsService } from '../alarms/alarms.service.js';
+import { EnginesService } from '../engines/engines.service.js';
+import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
+import { validateReadingValue } from '../alarms/alarm-rules.js';
+import { BadRequestException } from '@nestjs/common';
+
+@Injectable()
+export class ReadingsService {
+  constructor(
+    @InjectDataSource() private readonly db: DataSource,
+    private readonly runs: RunsService,
+    private readonly live: LiveService,
+    private readonly alarms: AlarmsService,
+    private readonly engines: EnginesService,
+  ) {}
+
+  async list(runId: string, filter: { since?: string; pointId?: string; limit?: number }): Promise<ReadingDto[]> {
+    await this.runs.get(runId);
+    const qb = this.db.getRepository(Reading).createQueryBuilder('r').where('r.runId = :runId', { runId });
+    if (filter.since) qb.andWhere('r.receivedAt > :since', { since: new Date(filter.since) });
+    if (filter.pointId) qb.andWhere('r.pointId = :pointId', { pointId: filter.pointId });
+    const rows = await qb.orderBy('r.takenAt', 'ASC').addOrderBy('r.id', 'ASC').limit(filter.limit ?? 20_000).getMany();
+    return this.toDtos(rows);
+  }
+
+  private async toDtos(rows: Reading[]): Promise<ReadingDto[]> {
+    const amendedIds = rows.filter((r) => r.amendedValue !== null).map((r) => r.id);
+    const amendments = amendedIds.length
+      ? await this.db.getRepository(ReadingAmendment).find({ where: { readingId: In(amendedIds) }, order: { at: 'ASC' } })
+      : [];
+    const userIds = [...new Set([...rows.map((r) => r.enteredBy).filter((x): x is string => !!x), ...amendments.map((a) => a.byUser)])];
+    const users = userIds.length ? await this.db.getRepository(User).find({ where: { id: In(userIds) } }) : [];
+    const name = new Map(users.map((u) => [u.id, u.displayName]));
+    const byReading = new Map<string, AmendmentDto[]>();
+    for (const a of amendments) {
+      const list = byReading.get(a.readingId) ?? [];
+      list.push({ id: a.id, oldValue: a.oldValue, newValue: a.newValue, reason: a.reason, by: a.byUser, byName: name.get(a.byUser) ?? 'unknown', at: a.at.toISOString() });
+      byReading.set(a.readingId, list);
+    }
+    return rows.map((r) => ({
+      id: String(r.id),
+      clientId: r.clientId,
+      runId: r.runId,
+      pointId: r.pointId,
+      value: r.amendedValue ?? r.value,
+      originalValue: r.amendedValue !== null ? r.value : null,
+      unit: r.unit,
+      takenAt: r.takenAt.toISOString(),
+      source: r.source,
+      enteredByName: r.enteredBy ? (name.get(r.enteredBy) ?? null) : null,
+      amendments: byReading.get(String(r.id)) ?? [],
+    }));
+  }
+
+  /** Latest value, a short trend and the alarm state of every point of the run's engine. */
+  async board(runId: string): Promise<BoardPoint[]> {
+    const run = await this.runs.get(runId);
+    const { points } = await this.engines.withPoints(run.engineId);
+    const rows: { point_id: string; value: number; taken_at: Date; rn: number }[] = await this.db.query(
+      `SELECT point_id, value, taken_at, rn FROM (
+         SELECT point_id, COALESCE(amended_value, value) AS value, taken_at,
+                row_number() OVER (PARTITION BY point_id ORDER BY taken_at DESC) AS rn
+           FROM readings WHERE run_id = $1) x WHERE rn <= 20 ORDER BY point_id, taken_at`,
+      [runId],
+    );
+    const alarms = await this.alarms.list({ runId, open: true });
+    const worst = new Map<string, { state: BoardPoint['alarmState']; priority: BoardPoint['alarmPriority'] }>();
+    for (const a of alarms) {
+      if (!a.pointId) continue;
+      const cur = worst.get(a.pointId);
+      if (!cur || (a.priority === 'high_high' && cur.priority !== 'high_high')) worst.set(a.pointId, { state: a.state, priority: a.priority });
+    }
+    const byPoint = new Map<string, { value: number; taken_at: Date }[]>();
+    for (const r of rows) {
+      const list = byPoint.get(r.point_id) ?? [];
+      list.push({ value: Number(r.value), taken_at: new Date(r.taken_at) });
+      byPoint.set(r.point_id, list);
+    }
+    return points
+      .filter((p) => p.active)
+      .map((p) => {
+        const list = byPoint.get(p.id) ?? [];
+        const last = list[list.length - 1];
+        const w = worst.get(p.id);
+        return {
+          pointId: p.id,
+          value: last ? last.value : null,
+          unit: p.unit,
+          takenAt: last ? last.taken_at.toISOString() : null,
+          trend: list.map((x) => x.value),
+          alarmState: w?.state ?? null,
+          alarmPriority: w?.priority ?? null,
+        };
+      });
+  }
+
+  /** A correction: the original stays, the amendment records the new value, reason, who and when. */
+  async amend(readingId: string, value: number, reason: string, user: AuthUser): Promise<ReadingDto> {
+    if (!/^\d{1,18}$/.test(readingId)) throw new BadRequestException('id must be a reading number');
+    const r0 = await this.db.getRepository(Reading).findOne({ where: { id: readingId } });
+    if (!r0) throw new NotFoundException('No such reading.');
+    const run = await this.runs.get(r0.runId);
+    this.runs.assertOpen(run);
+    const { points } = await this.engines.withPoints(r0.engineId);
+    const point = points.find((p) => p.id === r0.pointId);
+    if (point) {
+      const absurd = validateReadingValue({ ...point, name: point.label }, value);
+      if (absurd) throw new BadRequestException(`value: ${absurd}`);
+    }
+    await this.db.transaction(async (m) => {
+      const cur = await m.findOne(Reading, { where: { id: readingId }, lock: { mode: 'pessimistic_write' } });
+      const old = cur!.amendedValue ?? cur!.value;
+      await m.insert(ReadingAmendment, { readingId, oldValue: old, newValue: value, reason: reason.trim(), byUser: user.id, at: new Date() });
+      await m.update(Reading, { id: readingId }, { amendedValue: value });
+    });
+    const [dto] = await this.toDtos([(await this.db.getRepository(Reading).findOne({ where: { id: readingId } }))!]);
+    this.live.emitToRoom(`run:${r0.runId}`, 'reading:amended', dto);
+    return dto;
+  }
+
+  /** Readings of a run in time order, streamed in pages (for CSV and PDF exports). */
+  async *iterate(runId: string, pageSize = 5000): AsyncGenerator<Reading[]> {
+    let after = '0';
+    for (;;) {
+      const page = await this.db
+        .getRepository(Reading)
+        .createQueryBuilder('r')
+        .where('r.runId = :runId AND r.id > :after', { runId, after })
+        .orderBy('r.id', 'ASC')
+        .limit(pageSize)
+        .getMany();
+      if (!page.length) return;
+      yield page;
+      after = String(page[page.length - 1].id);
+    }
+  }
+
+  amendmentsOf(readingIds: string[]) {
+    return readingIds.length ? this.db.getRepository(ReadingAmendment).find({ where: { readingId: In(readingIds) }, order: { at: 'ASC' } }) : Promise.resolve([]);
+  }
+}

@@ -1,0 +1,141 @@
+import { Body, Controller, Get, HttpCode, HttpException, Param, Patch, Post, Query, Req, Res, StreamableFile, UnsupportedMediaTypeException } from '@nestjs/common';
+import { ApiBearerAuth, ApiConsumes, ApiTags } from '@nestjs/swagger';
+import type { Request, Response } from 'express';
+import type { AlarmDto, BoardPoint, IngestResult, ReadingDto, RunDetail, RunSummary, StartGateVerdict } from '@crankjournal/shared-types';
+import { AnyRole, Roles } from '../../common/decorators/roles.decorator.js';
+import { CurrentUser, type AuthUser } from '../../common/decorators/current-user.decorator.js';
+import { IdParamDto } from '../../common/dto/id-param.dto.js';
+import { RunsService } from './runs.service.js';
+import { ReadingsService } from './readings.service.js';
+import { IngestService } from './ingest.service.js';
+import { CsvImportService } from './csv-import.service.js';
+import { RunExportsService } from './run-exports.service.js';
+import { AlarmsService } from '../alarms/alarms.service.js';
+import { CreateRunDto, ReadingsQueryDto, RunQueryDto, RunTransitionDto, UpdateRunDto } from './dto/run.dto.js';
+import { RoundDto } from './dto/reading.dto.js';
+
+const MAX_CSV_BYTES = 200 * 1024 * 1024;
+
+/** A batch with rejected rows answers 400 with the full report; its good rows are kept. */
+export function answerIngest(r: IngestResult): IngestResult {
+  if (r.rejectedCount > 0) {
+    throw new HttpException(
+      { statusCode: 400, error: 'Bad Request', message: r.rejected.slice(0, 20).map((x) => `${x.line !== undefined ? `line ${x.line}` : `reading ${x.index}`}${x.column ? `, ${x.column}` : ''}: ${x.reason}`), details: r },
+      400,
+    );
+  }
+  return r;
+}
+
+@ApiTags('runs')
+@ApiBearerAuth()
+@Controller('runs')
+export class RunsController {
+  constructor(
+    private readonly runs: RunsService,
+    private readonly readings: ReadingsService,
+    private readonly ingest: IngestService,
+    private readonly csv: CsvImportService,
+    private readonly exports: RunExportsService,
+    private readonly alarms: AlarmsService,
+  ) {}
+
+  @Get()
+  @AnyRole()
+  list(@Query() q: RunQueryDto): Promise<RunSummary[]> {
+    return this.runs.list(q);
+  }
+
+  @Post()
+  @Roles('chief_engineer', 'operator')
+  create(@Body() dto: CreateRunDto, @CurrentUser() me: AuthUser): Promise<RunDetail> {
+    return this.runs.create(dto, me);
+  }
+
+  @Get(':id')
+  @AnyRole()
+  detail(@Param() p: IdParamDto): Promise<RunDetail> {
+    return this.runs.detail(p.id);
+  }
+
+  @Patch(':id')
+  @Roles('chief_engineer', 'operator')
+  update(@Param() p: IdParamDto, @Body() dto: UpdateRunDto, @CurrentUser() me: AuthUser): Promise<RunDetail> {
+    return this.runs.update(p.id, dto, me);
+  }
+
+  /** Moves the run on; to running only through the start gate (409 with reasons when refused). */
+  @Post(':id/transitions')
+  @HttpCode(200)
+  @Roles('chief_engineer', 'operator')
+  transition(@Param() p: IdParamDto, @Body() dto: RunTransitionDto, @CurrentUser() me: AuthUser): Promise<RunDetail> {
+    return this.runs.transition(p.id, dto, me);
+  }
+
+  @Get(':id/start-gate')
+  @AnyRole()
+  startGate(@Param() p: IdParamDto, @CurrentUser() me: AuthUser): Promise<StartGateVerdict> {
+    return this.runs.startGate(p.id, me);
+  }
+
+  @Get(':id/readings')
+  @AnyRole()
+  readingsList(@Param() p: IdParamDto, @Query() q: ReadingsQueryDto): Promise<ReadingDto[]> {
+    return this.readings.list(p.id, q);
+  }
+
+  @Get(':id/board')
+  @AnyRole()
+  board(@Param() p: IdParamDto): Promise<BoardPoint[]> {
+    return this.readings.board(p.id);
+  }
+
+  @Get(':id/alarms')
+  @AnyRole()
+  async runAlarms(@Param() p: IdParamDto): Promise<AlarmDto[]> {
+    await this.runs.get(p.id);
+    return this.alarms.list({ runId: p.id });
+  }
+
+  /** A round of readings from the tablet. */
+  @Post(':id/rounds')
+  @Roles('chief_engineer', 'operator')
+  async round(@Param() p: IdParamDto, @Body() dto: RoundDto, @CurrentUser() me: AuthUser): Promise<IngestResult> {
+    const run = await this.runs.get(p.id);
+    return answerIngest(await this.ingest.ingest({ run, source: 'round', enteredBy: me.id }, dto.readings));
+  }
+
+  /** A logger's CSV file, sent as the raw body (text/csv), streamed. */
+  @Post(':id/imports')
+  @ApiConsumes('text/csv')
+  @Roles('chief_engineer', 'operator')
+  async importCsv(@Param() p: IdParamDto, @Req() req: Request, @CurrentUser() me: AuthUser): Promise<IngestResult> {
+    const type = (req.headers['content-type'] ?? '').split(';')[0].trim();
+    if (!['text/csv', 'text/plain', 'application/csv'].includes(type)) {
+      req.resume();
+      throw new UnsupportedMediaTypeException('Send the CSV file itself as the body, with Content-Type text/csv.');
+    }
+    if (Number(req.headers['content-length'] ?? 0) > MAX_CSV_BYTES) {
+      req.resume();
+      throw new HttpException({ statusCode: 413, error: 'Payload Too Large', message: 'The file is larger than 200 MB; split it.' }, 413);
+    }
+    const run = await this.runs.get(p.id);
+    return this.csv.import(run, req, me.id);
+  }
+
+  @Get(':id/readings.csv')
+  @AnyRole()
+  async csvExport(@Param() p: IdParamDto, @Res({ passthrough: true }) res: Response): Promise<StreamableFile> {
+    const { filename, stream } = await this.exports.readingsCsv(p.id);
+    res.setHeader('content-disposition', `attachment; filename="${filename}"`);
+    return new StreamableFile(stream, { type: 'text/csv; charset=utf-8' });
+  }
+
+  @Get(':id/log-sheet.pdf')
+  @AnyRole()
+  async pdf(@Param() p: IdParamDto, @Res({ passthrough: true }) res: Response): Promise<StreamableFile> {
+    const { filename, stream } = await this.exports.logSheetPdf(p.id);
+    res.setHeader('content-disposition', `attachment; filename="${filename}"`);
+    return new StreamableFile(stream, { type: 'application/pdf' });
+  }
+}

@@ -1,0 +1,70 @@
+import { UseFilters, UsePipes } from '@nestjs/common';
+import { ConnectedSocket, MessageBody, SubscribeMessage, WebSocketGateway, WsException } from '@nestjs/websockets';
+import { IsArray, IsObject, IsUUID, ArrayMinSize, ArrayMaxSize } from 'class-validator';
+import type { IngestResult, LiveAck, Role, RunDetail, StartGateVerdict } from '@crankjournal/shared-types';
+import { HttpException } from '@nestjs/common';
+import { wsValidationPipe } from '../live/ws-validation.pipe.js';
+import { WsErrorFilter } from '../live/ws-exception.filter.js';
+import type { LiveSocket } from '../live/live.gateway.js';
+import { IngestService } from './ingest.service.js';
+import { RunsService } from './runs.service.js';
+
+export class SubmitReadingsDto {
+  @IsUUID('all', { message: 'runId must be a UUID' }) runId: string;
+  @IsArray({ message: 'readings must be a list' })
+  @ArrayMinSize(1)
+  @ArrayMaxSize(5000)
+  @IsObject({ each: true, message: 'each reading must be an object' })
+  readings: Record<string, unknown>[];
+}
+export class StartRunDto {
+  @IsUUID('all', { message: 'runId must be a UUID' }) runId: string;
+}
+
+/** Who may send each socket event (the roles matrix test reads this table). */
+export const SOCKET_EVENT_ROLES: Record<string, readonly Role[]> = {
+  'readings:submit': ['operator', 'chief_engineer'],
+  'run:start': ['operator', 'chief_engineer'],
+};
+
+function assertRole(socket: LiveSocket, event: string) {
+  if (!SOCKET_EVENT_ROLES[event].includes(socket.data.user.role)) throw new WsException(`Your role may not send ${event}.`);
+}
+
+/** Run-log events on the live channel; they take the same paths as the REST routes. */
+@WebSocketGateway({ cors: { origin: false } })
+@UsePipes(wsValidationPipe)
+@UseFilters(new WsErrorFilter())
+export class RunsGateway {
+  constructor(
+    private readonly ingest: IngestService,
+    private readonly runs: RunsService,
+  ) {}
+
+  @SubscribeMessage('readings:submit')
+  async submit(@ConnectedSocket() socket: LiveSocket, @MessageBody() body: SubmitReadingsDto): Promise<LiveAck<IngestResult>> {
+    assertRole(socket, 'readings:submit');
+    const run = await this.runs.get(body.runId);
+    const r = await this.ingest.ingest({ run, source: 'live', enteredBy: socket.data.user.id }, body.readings);
+    if (r.rejectedCount) {
+      socket.emit('live:error', { event: 'readings:submit', message: r.rejected.slice(0, 20).map((x) => `reading ${x.index}: ${x.reason}`), status: 400 });
+      return { ok: false, status: 400, error: 'Some readings were refused.', data: r };
+    }
+    return { ok: true, data: r };
+  }
+
+  /** Starting from the live channel asks the same start gate as the REST route. */
+  @SubscribeMessage('run:start')
+  async start(@ConnectedSocket() socket: LiveSocket, @MessageBody() body: StartRunDto): Promise<LiveAck<RunDetail | StartGateVerdict>> {
+    assertRole(socket, 'run:start');
+    try {
+      return { ok: true, data: await this.runs.transition(body.runId, { to: 'running' }, socket.data.user) };
+    } catch (e) {
+      if (e instanceof HttpException && e.getStatus() === 409) {
+        const r = e.getResponse() as { message: string[]; details: StartGateVerdict };
+        return { ok: false, status: 409, error: (r.message ?? []).join(' '), data: r.details, details: r.details };
+      }
+      throw e;
+    }
+  }
+}

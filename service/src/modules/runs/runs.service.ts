@@ -1,0 +1,245 @@
+import { BadRequestException, ConflictException, ForbiddenException, HttpException, Injectable, NotFoundException } from '@nestjs/common';
+import { InjectDataSource } from '@nestjs/typeorm';
+import { DataSource, In, Not } from 'typeorm';
+import {
+  RUN_STATE_LABELS,
+  RUN_STATES_TAKING_READINGS,
+  RUN_TRANSITIONS,
+  type Role,
+  type RunDetail,
+  type RunState,
+  type RunSummary,
+} from '@crankjournal/shared-types';
+import { Run } from './run.entity.js';
+import { RunStateChange } from './run-state-change.entity.js';
+import { StartGateService } from './start-gate.service.js';
+import { EnginesService } from '../engines/engines.service.js';
+import { LiveService } from '../live/live.service.js';
+import { AuthService } from '../auth/auth.service.js';
+import { User } from '../users/user.entity.js';
+import { AlarmsService } from '../alarms/alarms.service.js';
+import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
+import type { CreateRunDto, RunTransitionDto, UpdateRunDto } from './dto/run.dto.js';
+import { revolutionsFromSpeedRecord, runningSeconds } from '../../calculations/run-derived.js';
+
+/** Who may move a run into each state. */
+const TRANSITION_ROLES: Record<Exclude<RunState, 'planned'>, Role[]> = {
+  preparing: ['operator', 'chief_engineer'],
+  cleared: ['chief_engineer'],
+  running: ['operator', 'chief_engineer'],
+  stopped: ['operator', 'chief_engineer'],
+  closed: ['chief_engineer'],
+  abandoned: ['operator', 'chief_engineer'],
+};
+const ACTIVE: RunState[] = ['preparing', 'cleared', 'running', 'stopped'];
+
+@Injectable()
+export class RunsService {
+  constructor(
+    @InjectDataSource() private readonly db: DataSource,
+    private readonly engines: EnginesService,
+    private readonly gate: StartGateService,
+    private readonly live: LiveService,
+    private readonly auth: AuthService,
+    private readonly alarms: AlarmsService,
+  ) {}
+
+  async get(id: string): Promise<Run> {
+    const r = await this.db.getRepository(Run).findOne({ where: { id } });
+    if (!r) throw new NotFoundException('No such run.');
+    return r;
+  }
+
+  /** Refuses changes to a closed or abandoned run: it is part of the record. */
+  assertOpen(run: Run) {
+    if (run.state === 'closed' || run.state === 'abandoned')
+      throw new ConflictException(`This run is ${RUN_STATE_LABELS[run.state].toLowerCase()} and can no longer be changed.`);
+  }
+
+  assertTakingReadings(run: Run) {
+    if (!RUN_STATES_TAKING_READINGS.includes(run.state))
+      throw new ConflictException(`This run is ${RUN_STATE_LABELS[run.state].toLowerCase()}: readings are taken from preparation until the run is closed.`);
+  }
+
+  async list(filter: { engineId?: string; state?: RunState }): Promise<RunSummary[]> {
+    const where: Record<string, unknown> = {};
+    if (filter.engineId) where.engineId = filter.engineId;
+    if (filter.state) where.state = filter.state;
+    const runs = await this.db.getRepository(Run).find({ where, order: { createdAt: 'DESC' }, take: 300 });
+    return this.summaries(runs);
+  }
+
+  private async summaries(runs: Run[]): Promise<RunSummary[]> {
+    if (!runs.length) return [];
+    const engineNames = new Map((await this.engines.list()).map((e) => [e.id, e.name]));
+    const openBy = await this.alarms.openCountByRun(runs.map((r) => r.id));
+    const live = await Promise.all(runs.map((r) => (r.state === 'running' && r.revolutions === null ? this.liveRevolutions(r) : Promise.resolve(r.revolutions ?? 0))));
+    return runs.map((r, i) => ({
+      id: r.id,
+      engineId: r.engineId,
+      engineName: engineNames.get(r.engineId) ?? '',
+      purpose: r.purpose,
+      state: r.state,
+      title: r.title,
+      plannedFor: r.plannedFor,
+      startedAt: r.startedAt?.toISOString() ?? null,
+      stoppedAt: r.stoppedAt?.toISOString() ?? null,
+      closedAt: r.closedAt?.toISOString() ?? null,
+      runningSeconds: runningSeconds(r.startedAt, r.stoppedAt),
+      revolutions: live[i],
+      openAlarms: openBy.get(r.id) ?? 0,
+    }));
+  }
+
+  /** Revolutions so far, from the speed readings. */
+  private async liveRevolutions(r: Run, until?: Date): Promise<number> {
+    if (!r.startedAt) return 0;
+    const { points } = await this.engines.withPoints(r.engineId);
+    const speed = points.filter((p) => p.kind === 'speed' && p.unit === 'rpm').map((p) => p.id);
+    if (!speed.length) return 0;
+    const rows: { t: Date; v: number }[] = await this.db.query(
+      `SELECT taken_at AS t, COALESCE(amended_value, value) AS v FROM readings WHERE run_id = $1 AND point_id = ANY($2) ORDER BY taken_at`,
+      [r.id, speed],
+    );
+    const end = (until ?? r.stoppedAt ?? new Date()).getTime();
+    return revolutionsFromSpeedRecord(rows.map((x) => ({ takenAtMs: new Date(x.t).getTime(), speedRpm: Number(x.v) })), r.startedAt.getTime(), end);
+  }
+
+  async detail(id: string): Promise<RunDetail> {
+    const r = await this.get(id);
+    const [summary] = await this.summaries([r]);
+    const history = await this.db.getRepository(RunStateChange).find({ where: { runId: id }, order: { at: 'ASC' } });
+    const userIds = [...new Set([...r.crewIds, ...history.map((h) => h.byUser), ...(r.countersignedBy ? [r.countersignedBy] : [])])];
+    const users = userIds.length ? await this.db.getRepository(User).find({ where: { id: In(userIds) } }) : [];
+    const name = new Map(users.map((u) => [u.id, u.displayName]));
+    const peaks: { point_id: string; max: number; min: number; unit: string }[] = await this.db.query(
+      `SELECT point_id, max(COALESCE(amended_value, value)) AS max, min(COALESCE(amended_value, value)) AS min, max(unit) AS unit FROM readings WHERE run_id = $1 GROUP BY point_id`,
+      [id],
+    );
+    return {
+      ...summary,
+      notes: r.notes,
+      crew: r.crewIds.map((cid) => ({ id: cid, displayName: name.get(cid) ?? 'unknown' })),
+      countersignedBy: r.countersignedBy,
+      countersignedByName: r.countersignedBy ? (name.get(r.countersignedBy) ?? null) : null,
+      countersignedAt: r.closedAt?.toISOString() ?? null,
+      abandonedReason: r.abandonedReason,
+      history: history.map((h) => ({ from: h.fromState, to: h.toState, by: h.byUser, byName: name.get(h.byUser) ?? 'unknown', at: h.at.toISOString(), note: h.note })),
+      peaks: peaks.map((p) => ({ pointId: p.point_id, max: Number(p.max), min: Number(p.min), unit: p.unit })),
+      createdAt: r.createdAt.toISOString(),
+    };
+  }
+
+  private async assertCrew(ids: string[] | undefined) {
+    if (!ids?.length) return;
+    const found = await this.db.getRepository(User).count({ where: { id: In(ids) } });
+    if (found !== new Set(ids).size) throw new BadRequestException('crewIds holds someone who has no account.');
+  }
+
+  async create(dto: CreateRunDto, user: AuthUser): Promise<RunDetail> {
+    await this.engines.get(dto.engineId);
+    await this.assertCrew(dto.crewIds);
+    const run = await this.db.transaction(async (m) => {
+      const r = await m.save(
+        Run,
+        m.create(Run, {
+          engineId: dto.engineId,
+          purpose: dto.purpose,
+          title: dto.title.trim(),
+          plannedFor: dto.plannedFor ?? null,
+          crewIds: [...new Set(dto.crewIds ?? [])],
+          notes: dto.notes ?? '',
+          state: 'planned',
+          createdBy: user.id,
+        }),
+      );
+      await m.insert(RunStateChange, { runId: r.id, fromState: null, toState: 'planned', byUser: user.id, at: new Date(), note: null });
+      return r;
+    });
+    return this.detail(run.id);
+  }
+
+  async update(id: string, dto: UpdateRunDto, user: AuthUser): Promise<RunDetail> {
+    const r = await this.get(id);
+    this.assertOpen(r);
+    if (dto.engineId && dto.engineId !== r.engineId) throw new BadRequestException('A run cannot move to another engine; plan a new run.');
+    await this.assertCrew(dto.crewIds);
+    const patch: Partial<Run> = {};
+    if (dto.title !== undefined) patch.title = dto.title.trim();
+    if (dto.purpose !== undefined) patch.purpose = dto.purpose;
+    if (dto.plannedFor !== undefined) patch.plannedFor = dto.plannedFor;
+    if (dto.crewIds !== undefined) patch.crewIds = [...new Set(dto.crewIds)];
+    if (dto.notes !== undefined) patch.notes = dto.notes;
+    await this.db.getRepository(Run).update({ id }, patch);
+    void user;
+    return this.broadcast(id);
+  }
+
+  async startGate(id: string, user: AuthUser) {
+    return this.gate.checkStart(await this.get(id), user);
+  }
+
+  /** Every change of state goes through here; the start gate and the close gate are asked here and nowhere else. */
+  async transition(id: string, dto: RunTransitionDto, user: AuthUser): Promise<RunDetail> {
+    const run0 = await this.get(id);
+    const to = dto.to;
+    const allowedRoles = TRANSITION_ROLES[to];
+    if (!allowedRoles.includes(user.role)) throw new ForbiddenException(`Your role may not move a run to "${RUN_STATE_LABELS[to]}".`);
+    if (!RUN_TRANSITIONS[run0.state].includes(to))
+      throw new ConflictException(`A run that is ${RUN_STATE_LABELS[run0.state].toLowerCase()} cannot go to "${RUN_STATE_LABELS[to]}".`);
+    if (to === 'abandoned' && !dto.note?.trim()) throw new BadRequestException('note must say why the run is abandoned');
+    if (to === 'running') {
+      const verdict = await this.gate.checkStart(run0, user);
+      if (!verdict.allowed) throw new HttpException({ statusCode: 409, error: 'Conflict', message: verdict.reasons.map((r) => r.message), details: verdict }, 409);
+    }
+    if (to === 'closed') {
+      if (!dto.signature || !(await this.auth.verifySigner(user.id, dto.signature)))
+        throw new BadRequestException('To countersign, type your password or signing PIN; the one given is not right.');
+      const verdict = await this.gate.checkClose(run0, user);
+      if (!verdict.allowed) throw new HttpException({ statusCode: 409, error: 'Conflict', message: verdict.reasons.map((r) => r.message), details: verdict }, 409);
+    }
+    const now = new Date();
+    let addTotals: { hours: number; revs: number } | null = null;
+    if (to === 'stopped') {
+      const revs = await this.liveRevolutions(run0, now);
+      addTotals = { hours: runningSeconds(run0.startedAt, now) / 3600, revs };
+    }
+    await this.db.transaction(async (m) => {
+      const cur = await m.findOne(Run, { where: { id }, lock: { mode: 'pessimistic_write' } });
+      if (!cur || cur.state !== run0.state) throw new ConflictException('Someone else changed this run a moment ago. Look again and retry.');
+      if (to === 'preparing' && run0.state === 'planned') {
+        const other = await m.findOne(Run, { where: { engineId: cur.engineId, state: In(ACTIVE), id: Not(id) } });
+        if (other) throw new ConflictException(`Another run of this engine ("${other.title}") is ${RUN_STATE_LABELS[other.state].toLowerCase()}. Close or abandon it first.`);
+      }
+      cur.state = to;
+      if (to === 'running') cur.startedAt = now;
+      if (to === 'stopped') {
+        cur.stoppedAt = now;
+        cur.revolutions = addTotals!.revs;
+      }
+      if (to === 'closed') {
+        cur.closedAt = now;
+        cur.countersignedBy = user.id;
+      }
+      if (to === 'abandoned') cur.abandonedReason = dto.note!.trim();
+      await m.save(Run, cur);
+      await m.insert(RunStateChange, { runId: id, fromState: run0.state, toState: to, byUser: user.id, at: now, note: dto.note?.trim() || null });
+      if (ACTIVE.includes(to)) await this.engines.setActiveRun(cur.engineId, id, m);
+      if (to === 'closed' || to === 'abandoned') await this.engines.setActiveRun(cur.engineId, null, m);
+      if (addTotals) await this.engines.addRunTotals(cur.engineId, addTotals.hours, addTotals.revs, m);
+    });
+    return this.broadcast(id);
+  }
+
+  private async broadcast(id: string): Promise<RunDetail> {
+    const d = await this.detail(id);
+    this.live.emitToRoom(`run:${id}`, 'run:changed', d);
+    this.live.emitToRoom(`engine:${d.engineId}`, 'run:changed', d);
+    return d;
+  }
+
+  /** The run an engine is preparing or running now (for loggers that do not name a run). */
+  async activeRunOf(engineId: string): Promise<Run | null> {
+    return this.db.getRepository(Run).findOne({ where: { engineId, state: In(RUN_STATES_TAKING_READINGS as RunState[]) }, order: { createdAt: 'DESC' } });
+  }
+}

@@ -1,0 +1,146 @@
+import type { Role, RunDetail, RunState } from '@crankjournal/shared-types';
+import { render, screen, fireEvent, waitFor, within } from '../../../test-utils/render';
+import { sessionStore } from '../../../api/session';
+import { RunHeader } from './RunHeader';
+
+const run = (state: RunState, extra: Partial<RunDetail> = {}): RunDetail => ({
+  id: 'run-1',
+  engineId: 'eng-1',
+  engineName: 'No. 2 engine',
+  purpose: 'demonstration',
+  state,
+  title: 'Open day demonstration',
+  plannedFor: null,
+  startedAt: null,
+  stoppedAt: null,
+  closedAt: null,
+  runningSeconds: 0,
+  revolutions: 0,
+  openAlarms: 0,
+  notes: '',
+  crew: [],
+  countersignedBy: null,
+  countersignedByName: null,
+  countersignedAt: null,
+  abandonedReason: null,
+  history: [],
+  peaks: [],
+  createdAt: '2026-05-01T08:00:00Z',
+  ...extra,
+});
+
+function signIn(role: Role) {
+  sessionStore.set({
+    accessToken: 'a',
+    refreshToken: 'r',
+    user: { id: 'u1', email: 'x@alderforge.example', displayName: 'Test Person', role, unitSystem: 'imperial' },
+  });
+}
+
+const json = (body: unknown, status = 200) => new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
+
+function buttonsShown(): string[] {
+  const group = screen.queryByRole('group', { name: 'Run actions' });
+  if (!group) return [];
+  return within(group)
+    .getAllByRole('button')
+    .map((b) => b.textContent ?? '');
+}
+
+describe('RunHeader transition buttons', () => {
+  beforeEach(() => {
+    vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
+      const url = String(input);
+      if (url.endsWith('/start-gate')) return json({ allowed: true, reasons: [] });
+      return json({ statusCode: 404, error: 'Not Found', message: 'no' }, 404);
+    });
+  });
+  afterEach(() => {
+    vi.restoreAllMocks();
+    sessionStore.set(null);
+  });
+
+  const cases: [RunState, Role, string[]][] = [
+    ['planned', 'operator', ['Prepare', 'Abandon']],
+    ['preparing', 'operator', ['Clear to start', 'Abandon']],
+    ['cleared', 'chief_engineer', ['Start engine', 'Return to preparing', 'Abandon']],
+    ['running', 'operator', ['Stop engine']],
+    ['stopped', 'chief_engineer', ['Close and countersign']],
+    ['stopped', 'operator', []],
+    ['closed', 'chief_engineer', []],
+    ['abandoned', 'chief_engineer', []],
+    ['running', 'observer', []],
+    ['preparing', 'maintenance_lead', []],
+    ['cleared', 'administrator', []],
+  ];
+  it.each(cases)('in state %s a %s sees %j', (state, role, expected) => {
+    signIn(role);
+    render(<RunHeader run={run(state)} />);
+    expect(buttonsShown()).toEqual(expected);
+  });
+
+  it('tells an operator that a stopped run waits for the chief engineer', () => {
+    signIn('operator');
+    render(<RunHeader run={run('stopped')} />);
+    expect(screen.getByText(/Waiting for the chief engineer to close and countersign/)).toBeInTheDocument();
+  });
+
+  it('asks for a reason before abandoning', async () => {
+    signIn('operator');
+    render(<RunHeader run={run('preparing')} />);
+    fireEvent.click(screen.getByRole('button', { name: 'Abandon' }));
+    const confirm = await screen.findByRole('button', { name: 'Abandon run' });
+    expect(confirm).toBeDisabled();
+    fireEvent.change(screen.getByLabelText(/Reason for abandoning/), { target: { value: 'Boiler inspection not passed' } });
+    expect(confirm).toBeEnabled();
+  });
+
+  it('asks the chief engineer for a password or PIN to close, and sends it as the signature', async () => {
+    signIn('chief_engineer');
+    const fetchSpy = vi.spyOn(globalThis, 'fetch').mockImplementation(async () => json(run('closed')));
+    render(<RunHeader run={run('stopped')} />);
+    fireEvent.click(screen.getByRole('button', { name: 'Close and countersign' }));
+    const dialog = await screen.findByRole('dialog');
+    expect(dialog).toHaveTextContent(/Records your countersignature/);
+    const confirm = within(dialog).getByRole('button', { name: 'Close and countersign' });
+    expect(confirm).toBeDisabled();
+    fireEvent.change(screen.getByLabelText('Your password or signing PIN'), { target: { value: '4821' } });
+    fireEvent.click(confirm);
+    await waitFor(() => expect(fetchSpy).toHaveBeenCalled());
+    const [url, init] = fetchSpy.mock.calls[0]!;
+    expect(String(url)).toBe('/api/runs/run-1/transitions');
+    expect(JSON.parse(String(init?.body))).toEqual({ to: 'closed', signature: '4821' });
+  });
+
+  it('shows the start gate’s reasons when the server refuses a start (409)', async () => {
+    signIn('operator');
+    vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
+      const url = String(input);
+      if (url.endsWith('/start-gate')) return json({ allowed: true, reasons: [] });
+      return json(
+        {
+          statusCode: 409,
+          error: 'Conflict',
+          message: 'The run may not start.',
+          details: {
+            allowed: false,
+            reasons: [
+              { code: 'checklist_incomplete', message: 'The pre-start checklist is not complete.', subject: 'Pre-start checks v3' },
+              { code: 'prelube_stale', message: 'The pre-lube sign-off is no longer fresh.' },
+            ],
+          },
+        },
+        409,
+      );
+    });
+    render(<RunHeader run={run('cleared')} />);
+    fireEvent.click(screen.getByRole('button', { name: 'Start engine' }));
+    const dialog = await screen.findByRole('dialog');
+    fireEvent.click(within(dialog).getByRole('button', { name: 'Start engine' }));
+    const alert = await screen.findByRole('alert');
+    expect(alert).toHaveTextContent('Start refused');
+    expect(alert).toHaveTextContent('The pre-start checklist is not complete.');
+    expect(alert).toHaveTextContent('Pre-start checks v3');
+    expect(alert).toHaveTextContent('The pre-lube sign-off is no longer fresh.');
+  });
+});

@@ -1,0 +1,105 @@
+import { Box, Button, Group, Stack, Text } from '@mantine/core';
+import dayjs from 'dayjs';
+import { ALARM_KIND_WORDS, type AlarmDto } from '@crankjournal/shared-types';
+import { alarmLook, isUnacknowledged } from './alarm-look';
+
+/** Most urgent first: high-high before high, active before returned, newest first. */
+export function bannerOrder(a: AlarmDto, b: AlarmDto): number {
+  const p = (x: AlarmDto) => (x.priority === 'high_high' ? 0 : 1);
+  const s = (x: AlarmDto) => (x.state === 'active_unacknowledged' ? 0 : 1);
+  return p(a) - p(b) || s(a) - s(b) || b.raisedAt.localeCompare(a.raisedAt);
+}
+
+/**
+ * Pinned under the app header whenever an alarm waits for acknowledgement: point, message, state (icon + word)
+ * and an "Acknowledge" button for those who may. Shows the most urgent ones and counts the rest.
+ */
+export function AlarmBanner({
+  alarms,
+  canAcknowledge,
+  onAcknowledge,
+  acknowledging,
+  max = 3,
+}: {
+  alarms: AlarmDto[];
+  canAcknowledge: boolean;
+  onAcknowledge: (a: AlarmDto) => void;
+  acknowledging: string | null;
+  max?: number;
+}) {
+  const waiting = alarms.filter((a) => isUnacknowledged(a.state)).sort(bannerOrder);
+  if (waiting.length === 0) return null;
+  const shown = waiting.slice(0, max);
+  const more = waiting.length - shown.length;
+  return (
+    <Box
+      role="alert"
+      aria-label="Alarms waiting for acknowledgement"
+      data-testid="alarm-banner"
+      style={{ position: 'sticky', top: 'calc(var(--app-shell-header-offset, 60px))', zIndex: 120, marginInline: 'calc(var(--app-shell-padding, 16px) * -1)', marginTop: 'calc(var(--app-shell-padding, 16px) * -1)' }}
+      mb="md"
+    >
+      <Stack gap={0}>
+        {shown.map((a) => {
+          const look = alarmLook(a.state, a.priority)!;
+          const filled = look.variant === 'filled';
+          const fg = filled ? (a.priority === 'high_high' ? 'white' : 'black') : undefined;
+          return (
+            <Group
+              key={a.id}
+              justify="space-between"
+              wrap="nowrap"
+              px="md"
+              py="sm"
+              gap="md"
+              style={{
+                background: filled ? `var(--mantine-color-${look.color}-${a.priority === 'high_high' ? 7 : 5})` : 'var(--mantine-color-body)',
+                border: filled ? undefined : `3px solid var(--mantine-color-amber-5)`,
+                borderBottom: '1px solid rgba(0,0,0,.25)',
+                color: fg,
+              }}
+              data-priority={a.priority}
+              data-state={a.state}
+            >
+              <Group gap="sm" wrap="nowrap" style={{ minWidth: 0 }}>
+                <look.Icon size={34} stroke={2} aria-hidden />
+                <Stack gap={0} style={{ minWidth: 0 }}>
+                  <Text fw={800} fz="lg" c={fg} lh={1.2}>
+                    {a.priority === 'high_high' ? 'HIGH-HIGH' : 'HIGH'} · {a.pointLabel} · {ALARM_KIND_WORDS[a.kind]}
+                  </Text>
+                  <Text fz="sm" c={fg} lh={1.3} style={{ overflowWrap: 'anywhere' }}>
+                    {a.message}
+                  </Text>
+                  <Text fz="xs" c={fg} fw={600}>
+                    {look.word} · raised {dayjs(a.raisedAt).format('HH:mm:ss')}
+                    {a.returnedAt ? ` · returned ${dayjs(a.returnedAt).format('HH:mm:ss')}` : ''}
+                  </Text>
+                </Stack>
+              </Group>
+              {canAcknowledge && (
+                <Button
+                  size="lg"
+                  h={52}
+                  variant={filled ? 'white' : 'filled'}
+                  color={filled ? 'dark' : 'amber'}
+                  c={filled ? 'black' : 'black'}
+                  loading={acknowledging === a.id}
+                  onClick={() => onAcknowledge(a)}
+                  style={{ flexShrink: 0 }}
+                  aria-label={`Acknowledge ${a.pointLabel} alarm`}
+                >
+                  Acknowledge
+                </Button>
+              )}
+            </Group>
+          );
+        })}
+        {more > 0 && (
+          <Text fz="sm" fw={700} px="md" py={6} bg="var(--mantine-color-default)" style={{ borderBottom: '1px solid var(--mantine-color-default-border)' }}>
+            and {more} more waiting — see the alarm list below
+          </Text>
+        )}
+      </Stack>
+    </Box>
+  );
+}

@@ -1,0 +1,247 @@
+import '@mantine/charts/styles.css';
+import { useCallback, useMemo, useState } from 'react';
+import { Link, useSearchParams, useParams } from 'react-router-dom';
+import { useQuery, useQueryClient } from '@tanstack/react-query';
+import { Alert, Badge, Button, Center, Group, Loader, Stack, Tabs, Text } from '@mantine/core';
+import { notifications } from '@mantine/notifications';
+import { IconClipboardList, IconFileTypeCsv, IconFileTypePdf, IconPlugConnectedX } from '@tabler/icons-react';
+import { RUN_STATES_TAKING_READINGS, type AlarmDto, type IngestResult, type ReadingDto } from '@crankjournal/shared-types';
+import { errorText } from '../../../api/http';
+import { useHasRole } from '../../auth/useSession';
+import { engineDetailQuery } from '../../engines/api/engines.api';
+import { downloadLogSheet, downloadReadingsCsv, runAlarmsQuery, runBoardQuery, runDetailQuery, runKeys, runReadingsQuery } from '../api/runs.api';
+import { RunHeader } from '../components/RunHeader';
+import { AlarmBanner } from './AlarmBanner';
+import { AlarmList, ShelveModal } from './AlarmList';
+import { isUnacknowledged } from './alarm-look';
+import { Board } from './Board';
+import { BottomBar } from './BottomBar';
+import { CsvImport } from './CsvImport';
+import { useAlarmAction, useAmendReading } from './live-actions.api';
+import { QueueStatus } from './QueueStatus';
+import { AmendModal, ReadingsTable } from './ReadingsTable';
+import { TrendCharts } from './TrendCharts';
+import { useLiveRun } from './useLiveRun';
+import { useOfflineQueue } from './useOfflineQueue';
+
+const TABS = ['board', 'alarms', 'readings', 'import'] as const;
+type Tab = (typeof TABS)[number];
+
+/** A run while it happens (and afterwards, as a record): /runs/:id. */
+export default function LiveRunPage() {
+  const { id = '' } = useParams();
+  const qc = useQueryClient();
+  const [params, setParams] = useSearchParams();
+  const canWrite = useHasRole('operator', 'chief_engineer');
+
+  const run = useQuery(runDetailQuery(id));
+  const engineId = run.data?.engineId;
+  const engine = useQuery({ ...engineDetailQuery(engineId ?? ''), enabled: !!engineId });
+  const board = useQuery(runBoardQuery(id));
+  const readings = useQuery(runReadingsQuery(id));
+  const alarms = useQuery(runAlarmsQuery(id));
+  const { connected } = useLiveRun(id);
+  const onSent = useCallback((runId: string, _r: IngestResult) => void qc.invalidateQueries({ queryKey: runKeys.run(runId) }), [qc]);
+  const q = useOfflineQueue(id, { onSent });
+
+  const alarmAction = useAlarmAction(id);
+  const amend = useAmendReading(id);
+  const [shelving, setShelving] = useState<AlarmDto | null>(null);
+  const [amending, setAmending] = useState<ReadingDto | null>(null);
+  const [downloading, setDownloading] = useState<'csv' | 'pdf' | null>(null);
+
+  const tabParam = params.get('tab') as Tab | null;
+  const tab: Tab = tabParam && TABS.includes(tabParam) ? tabParam : 'board';
+  const setTab = (t: string | null) =>
+    setParams(
+      (p) => {
+        const n = new URLSearchParams(p);
+        if (!t || t === 'board') n.delete('tab');
+        else n.set('tab', t);
+        return n;
+      },
+      { replace: true },
+    );
+
+  const points = useMemo(() => engine.data?.measurementPoints ?? [], [engine.data]);
+  const alarmList = alarms.data ?? [];
+  const waiting = alarmList.filter((a) => isUnacknowledged(a.state)).length;
+  const open = alarmList.filter((a) => a.state !== 'normal').length;
+
+  if (run.isLoading)
+    return (
+      <Center h={240}>
+        <Loader />
+      </Center>
+    );
+  if (run.error || !run.data) return <Alert color="signal" title="Cannot open this run">{errorText(run.error)}</Alert>;
+
+  const r = run.data;
+  const finished = r.state === 'closed' || r.state === 'abandoned';
+  const takingReadings = RUN_STATES_TAKING_READINGS.includes(r.state);
+  const mayWrite = canWrite && !finished;
+
+  const ack = (a: AlarmDto) =>
+    alarmAction.mutate(
+      { kind: 'acknowledge', alarm: a },
+      { onError: (e) => notifications.show({ color: 'signal', title: 'Not acknowledged', message: errorText(e) }) },
+    );
+  const unshelve = (a: AlarmDto) =>
+    alarmAction.mutate({ kind: 'unshelve', alarm: a }, { onError: (e) => notifications.show({ color: 'signal', title: 'Not unshelved', message: errorText(e) }) });
+  const busyAlarm = alarmAction.isPending && alarmAction.variables?.kind !== 'shelve' ? alarmAction.variables?.alarm.id ?? null : null;
+
+  const exportFile = async (kind: 'csv' | 'pdf') => {
+    setDownloading(kind);
+    try {
+      await (kind === 'csv' ? downloadReadingsCsv(id) : downloadLogSheet(id));
+    } catch (e) {
+      notifications.show({ color: 'signal', title: 'Not downloaded', message: errorText(e) });
+    } finally {
+      setDownloading(null);
+    }
+  };
+
+  return (
+    <>
+      <AlarmBanner alarms={alarmList} canAcknowledge={canWrite} onAcknowledge={ack} acknowledging={busyAlarm} />
+      <RunHeader run={r} />
+      {!connected && !finished && (
+        <Alert color="amber" variant="outline" icon={<IconPlugConnectedX />} mb="md" role="status" title="Live updates not connected">
+          Reconnecting… Values on this screen may be out of date; they are refreshed as soon as the connection is back.
+        </Alert>
+      )}
+      <QueueStatus pending={q.pending} failed={q.failed} sending={q.sending} queue={q.queue} />
+
+      <Tabs value={tab} onChange={setTab} keepMounted={false}>
+        <Tabs.List mb="md">
+          <Tabs.Tab value="board" fz="md" h={52}>
+            Board and trends
+          </Tabs.Tab>
+          <Tabs.Tab
+            value="alarms"
+            fz="md"
+            h={52}
+            rightSection={
+              waiting > 0 ? (
+                <Badge color="signal" size="md" circle>
+                  {waiting}
+                </Badge>
+              ) : open > 0 ? (
+                <Badge color="gray" variant="outline" size="md" circle>
+                  {open}
+                </Badge>
+              ) : undefined
+            }
+          >
+            Alarms
+          </Tabs.Tab>
+          <Tabs.Tab value="readings" fz="md" h={52}>
+            Readings
+          </Tabs.Tab>
+          {mayWrite && takingReadings && (
+            <Tabs.Tab value="import" fz="md" h={52}>
+              Import logger file
+            </Tabs.Tab>
+          )}
+        </Tabs.List>
+
+        <Tabs.Panel value="board">
+          {engine.isLoading || board.isLoading ? (
+            <Center h={200}>
+              <Loader />
+            </Center>
+          ) : engine.error || board.error ? (
+            <Alert color="signal">{errorText(engine.error ?? board.error)}</Alert>
+          ) : (
+            <Stack gap="xl">
+              <Board points={points} board={board.data ?? []} />
+              {engine.data &&
+                (readings.error ? (
+                  <Alert color="signal">{errorText(readings.error)}</Alert>
+                ) : readings.isLoading ? (
+                  <Loader />
+                ) : (
+                  <TrendCharts points={points} readings={readings.data ?? []} alarms={alarmList} engine={engine.data} />
+                ))}
+            </Stack>
+          )}
+        </Tabs.Panel>
+
+        <Tabs.Panel value="alarms">
+          {alarms.isLoading ? (
+            <Loader />
+          ) : alarms.error ? (
+            <Alert color="signal">{errorText(alarms.error)}</Alert>
+          ) : (
+            <AlarmList alarms={alarmList} actions={{ canWrite: mayWrite, busy: busyAlarm, onAcknowledge: ack, onShelve: setShelving, onUnshelve: unshelve }} />
+          )}
+        </Tabs.Panel>
+
+        <Tabs.Panel value="readings">
+          {readings.isLoading ? (
+            <Loader />
+          ) : readings.error ? (
+            <Alert color="signal">{errorText(readings.error)}</Alert>
+          ) : (
+            <>
+              {finished && (
+                <Text fz="sm" c="dimmed" mb="sm">
+                  This run is {r.state}; its log is read-only.
+                </Text>
+              )}
+              <ReadingsTable readings={readings.data ?? []} points={points} canAmend={mayWrite} onAmend={setAmending} />
+            </>
+          )}
+        </Tabs.Panel>
+
+        {mayWrite && takingReadings && (
+          <Tabs.Panel value="import">
+            <CsvImport runId={id} onImported={() => void qc.invalidateQueries({ queryKey: runKeys.run(id) })} />
+          </Tabs.Panel>
+        )}
+      </Tabs>
+
+      <ShelveModal
+        alarm={shelving}
+        onClose={() => {
+          setShelving(null);
+          alarmAction.reset();
+        }}
+        busy={alarmAction.isPending && alarmAction.variables?.kind === 'shelve'}
+        error={alarmAction.error && alarmAction.variables?.kind === 'shelve' ? errorText(alarmAction.error) : null}
+        onShelve={(a, reason, minutes) => alarmAction.mutate({ kind: 'shelve', alarm: a, reason, minutes }, { onSuccess: () => setShelving(null) })}
+      />
+      <AmendModal
+        reading={amending}
+        point={points.find((p) => p.id === amending?.pointId)}
+        onClose={() => {
+          setAmending(null);
+          amend.reset();
+        }}
+        busy={amend.isPending}
+        error={amend.error ? errorText(amend.error) : null}
+        onAmend={(reading, value, reason) => amend.mutate({ reading, value, reason }, { onSuccess: () => setAmending(null) })}
+      />
+
+      <BottomBar label="Run actions">
+        <Group gap="sm" wrap="nowrap">
+          <Button size="lg" h={56} variant="default" leftSection={<IconFileTypeCsv />} loading={downloading === 'csv'} onClick={() => void exportFile('csv')}>
+            Readings CSV
+          </Button>
+          <Button size="lg" h={56} variant="default" leftSection={<IconFileTypePdf />} loading={downloading === 'pdf'} onClick={() => void exportFile('pdf')}>
+            Log sheet PDF
+          </Button>
+        </Group>
+        {mayWrite && takingReadings ? (
+          <Button component={Link} to={`/runs/${id}/round`} size="xl" h={60} leftSection={<IconClipboardList />}>
+            Record round
+          </Button>
+        ) : (
+          <Text fz="sm" c="dimmed">
+            {finished ? 'This log is a record: read-only.' : !canWrite ? 'Read only.' : 'Readings are recorded once the run is being prepared.'}
+          </Text>
+        )}
+      </BottomBar>
+    </>
+  );
+}

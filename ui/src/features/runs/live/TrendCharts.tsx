@@ -1,0 +1,128 @@
+import { useMemo } from 'react';
+import { Paper, SimpleGrid, Text, Title } from '@mantine/core';
+import { LineChart, type ChartReferenceLineProps } from '@mantine/charts';
+import type { AlarmDto, EngineDetail, MeasurementKind, ReadingDto } from '@crankjournal/shared-types';
+import { useUnits } from '../../units/useUnits';
+import type { EnginePoint } from './Board';
+
+const SERIES_COLORS = ['copper.4', 'brass.5', 'blue.4', 'grape.4', 'teal.3', 'orange.3', 'gray.4', 'lime.4'];
+
+const localTime = (ms: number) => new Date(ms).toLocaleTimeString(undefined, { hour: '2-digit', minute: '2-digit' });
+const localTimeSeconds = (ms: number) => new Date(ms).toLocaleTimeString(undefined, { hour: '2-digit', minute: '2-digit', second: '2-digit' });
+
+interface ChartSpec {
+  key: string;
+  title: string;
+  kinds: MeasurementKind[];
+  /** Only points stored in this unit go on the chart (one y-axis per chart). */
+  unit: string;
+}
+const CHARTS: ChartSpec[] = [
+  { key: 'pressures', title: 'Steam pressures', kinds: ['throttle_pressure', 'receiver_pressure'], unit: 'psig' },
+  { key: 'speed', title: 'Speed', kinds: ['speed'], unit: 'rpm' },
+  { key: 'bearings', title: 'Bearing temperatures', kinds: ['bearing_temperature'], unit: '' },
+];
+
+/** Rows for a time chart: one row per moment, a column per point code, values in the person's units. */
+export function chartRows(readings: ReadingDto[], points: EnginePoint[], convert: (v: number, unit: string) => number | null) {
+  const codeById = new Map(points.map((p) => [p.id, p.code]));
+  const rows = new Map<number, Record<string, number | null>>();
+  for (const r of readings) {
+    const code = codeById.get(r.pointId);
+    if (!code) continue;
+    const t = Date.parse(r.takenAt);
+    const row = rows.get(t) ?? { t };
+    row[code] = convert(r.value, r.unit);
+    rows.set(t, row);
+  }
+  return [...rows.values()].sort((a, b) => (a.t as number) - (b.t as number));
+}
+
+function TrendChart({ spec, points, readings, alarms, engine }: { spec: ChartSpec; points: EnginePoint[]; readings: ReadingDto[]; alarms: AlarmDto[]; engine: EngineDetail }) {
+  const { display } = useUnits();
+  const unit = spec.unit || points[0]?.unit || '';
+  const mine = points.filter((p) => p.unit === unit);
+  const ids = new Set(mine.map((p) => p.id));
+  const data = useMemo(
+    () => chartRows(readings.filter((r) => ids.has(r.pointId)), mine, (v, u) => display(v, u).value),
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+    [readings, mine.map((p) => p.id).join(), display],
+  );
+  const unitLabel = display(0, unit).unitLabel;
+
+  const refLines: ChartReferenceLineProps[] = [];
+  const seen = new Set<string>();
+  const addLine = (y: number | null | undefined, label: string, color: string) => {
+    if (y === null || y === undefined) return;
+    const dy = display(y, unit).value!;
+    const key = `${label}:${dy}`;
+    if (seen.has(key)) return;
+    seen.add(key);
+    refLines.push({ y: dy, label: `${label} ${display(y, unit).text}`, color, strokeDasharray: '6 4', labelPosition: 'insideTopRight', ifOverflow: 'extendDomain' } as ChartReferenceLineProps);
+  };
+  for (const p of mine) {
+    addLine(p.highHighLimit, 'High-high', 'signal.6');
+    addLine(p.highLimit, 'High', 'amber.6');
+  }
+  if (spec.key === 'pressures' && unit === 'psig') addLine(engine.mawpPsig, 'MAWP', 'signal.6');
+  if (spec.key === 'speed' && unit === 'rpm') {
+    addLine(engine.overspeedRpm, 'Overspeed', 'signal.6');
+    addLine(engine.ratedSpeedRpm, 'Rated', 'gray.5');
+  }
+
+  // Alarms as marks on the time axis.
+  const alarmLines: ChartReferenceLineProps[] = alarms
+    .filter((a) => a.pointId && ids.has(a.pointId))
+    .map((a) => ({ x: Date.parse(a.raisedAt), color: a.priority === 'high_high' ? 'signal.6' : 'amber.6', strokeDasharray: '2 3', label: '▲', labelPosition: 'insideBottom' }) as ChartReferenceLineProps);
+
+  const times = data.map((d) => d.t as number);
+  return (
+    <Paper withBorder p="md" radius="md">
+      <Title order={3} fz="md" mb="xs">
+        {spec.title} <Text span c="dimmed" fz="sm">({unitLabel})</Text>
+      </Title>
+      {data.length < 2 ? (
+        <Text c="dimmed" fz="sm" h={220}>
+          Not enough readings yet to draw a trend.
+        </Text>
+      ) : (
+        <LineChart
+          h={240}
+          data={data}
+          dataKey="t"
+          series={mine.map((p, i) => ({ name: p.code, label: p.label, color: SERIES_COLORS[i % SERIES_COLORS.length] }))}
+          withLegend={mine.length > 1}
+          legendProps={{ verticalAlign: 'bottom', height: 40 }}
+          withDots={data.length < 40}
+          curveType="linear"
+          connectNulls
+          strokeWidth={2}
+          referenceLines={[...refLines, ...alarmLines]}
+          xAxisProps={{
+            type: 'number',
+            scale: 'time',
+            domain: [Math.min(...times), Math.max(...times)],
+            tickFormatter: (v: number) => localTime(v),
+            minTickGap: 40,
+          }}
+          yAxisProps={{ domain: ['auto', 'auto'], width: 56 }}
+          tooltipProps={{ labelFormatter: (v: unknown) => localTimeSeconds(Number(v)) }}
+          valueFormatter={(v) => `${Number(v.toFixed(2))} ${unitLabel}`}
+          gridAxis="xy"
+        />
+      )}
+    </Paper>
+  );
+}
+
+/** Trends of pressures, speed and bearing temperatures over the run, with limits as dashed lines. */
+export function TrendCharts({ points, readings, alarms, engine }: { points: EnginePoint[]; readings: ReadingDto[]; alarms: AlarmDto[]; engine: EngineDetail }) {
+  const specs = CHARTS.map((s) => ({ spec: s, points: points.filter((p) => s.kinds.includes(p.kind)).sort((a, b) => a.sequence - b.sequence) })).filter((x) => x.points.length > 0);
+  return (
+    <SimpleGrid cols={{ base: 1, lg: 2 }} spacing="md">
+      {specs.map(({ spec, points: pts }) => (
+        <TrendChart key={spec.key} spec={spec} points={pts} readings={readings} alarms={alarms} engine={engine} />
+      ))}
+    </SimpleGrid>
+  );
+}
