@@ -1,8 +1,9 @@
 import { create, all } from 'mathjs';
 import type { UnitConversion, UnitConversionTable } from '@crankjournal/shared-types';
-import { STANDARD_ATMOSPHERE_PSI } from '../../calculations/units.js';
 
 const math = create(all);
+// mathjs knows mmHg but not the inch of mercury; 1 inHg = 25.4 mmHg (conventional, 0 °C).
+math.createUnit('inHg', '25.4 mmHg');
 
 /** Stored unit → [mathjs unit, imperial display, metric display]. Gauge and vacuum scales keep their zero. */
 const DISPLAY: Record<string, { mathjs: string; imperial: [string, string]; metric: [string, string] }> = {
@@ -35,6 +36,5 @@ export function unitConversionTable(): UnitConversionTable {
       out[system][stored] = { from: stored, to: label, factor, offset: Math.abs(offset) < 1e-12 ? 0 : offset };
     }
   }
-  void STANDARD_ATMOSPHERE_PSI;
   return (table = out);
 }
