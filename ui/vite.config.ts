@@ -13,10 +13,11 @@ export default defineConfig({
     chunkSizeWarningLimit: 900,
     rollupOptions: {
       output: {
+        // Only what every page needs goes into 'vendor'; the rest (charts, dates, dropzone...) is left to the
+        // bundler, which puts it beside the lazy pages that use it. A named chunk also takes in the modules it
+        // imports: a 'charts' chunk took React and Mantine with it, and the sign-in page then loaded the charts.
         manualChunks(id: string) {
-          if (id.includes('node_modules/recharts') || id.includes('node_modules/d3-') || id.includes('@mantine/charts')) return 'charts';
-          if (id.includes('node_modules/@mantine') || id.includes('node_modules/react') || id.includes('node_modules/scheduler')) return 'vendor';
-          return undefined;
+          return /node_modules\/(react|react-dom|scheduler|react-router|react-router-dom|@mantine\/core|@mantine\/hooks)\//.test(id) ? 'vendor' : undefined;
         },
       },
     },

@@ -18,6 +18,12 @@ import { LiveModule } from './modules/live/live.module.js';
 import { EnginesModule } from './modules/engines/engines.module.js';
 import { AlarmsModule } from './modules/alarms/alarms.module.js';
 import { RunsModule } from './modules/runs/runs.module.js';
+import { QualificationsModule } from './modules/qualifications/qualifications.module.js';
+import { ChecklistsModule } from './modules/checklists/checklists.module.js';
+import { MillModule } from './modules/mill/mill.module.js';
+import { IndicatorCardsModule } from './modules/indicator-cards/indicator-cards.module.js';
+import { MaintenanceModule } from './modules/maintenance/maintenance.module.js';
+import { LubricationModule } from './modules/lubrication/lubrication.module.js';
 
 @Module({
   imports: [
@@ -36,6 +42,12 @@ import { RunsModule } from './modules/runs/runs.module.js';
     EnginesModule,
     AlarmsModule,
     RunsModule,
+    QualificationsModule,
+    ChecklistsModule,
+    MillModule,
+    IndicatorCardsModule,
+    MaintenanceModule,
+    LubricationModule,
   ],
   providers: [
     { provide: APP_GUARD, useClass: JwtAuthGuard },

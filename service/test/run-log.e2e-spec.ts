@@ -4,6 +4,7 @@ import { bearer, startTestApp, type TestApp } from './utils/test-app.js';
 import { login, type SignedIn } from './factories/users.factory.js';
 import { createEngine, createPreparingRun, engineBody, reading } from './factories/engine.factory.js';
 import { messagesTo, waitForMessage } from './utils/mail-inbox.js';
+import { qualifyInDb } from './factories/checklists.factory.js';
 
 describe('the run log (engines, runs, readings, alarms) against PostgreSQL', () => {
   let t: TestApp;
@@ -21,6 +22,8 @@ describe('the run log (engines, runs, readings, alarms) against PostgreSQL', () 
     observer = await login(t, 'observer');
     maintenance = await login(t, 'maintenance_lead');
     engine = await createEngine(t, chief.accessToken);
+    // Answering alarms needs a current "start and run" qualification on the engine.
+    await qualifyInDb(t, operator.account.id, engine.id, ['start_and_run']);
   });
   afterAll(async () => {
     await t?.close();
@@ -247,6 +250,20 @@ describe('the run log (engines, runs, readings, alarms) against PostgreSQL', () 
       expect(ab.status).toBe(200);
       expect(ab.body).toMatchObject({ state: 'abandoned', abandonedReason: 'Boiler feed pump failed' });
       expect((await t.http.patch(`/api/runs/${run.id}`).set('authorization', bearer(operator.accessToken)).send({ notes: 'later' })).status).toBe(409);
+    });
+
+    it('an alarm left open by an earlier run is closed out, and the next run raises its own', async () => {
+      const e = await createEngine(t, chief.accessToken);
+      const mb = e.measurementPoints.find((p) => p.code === 'MB')!.id;
+      const first = await createPreparingRun(t, operator.accessToken, e.id);
+      await t.http.post(`/api/runs/${first.id}/rounds`).set('authorization', bearer(operator.accessToken)).send({ takenAt: new Date().toISOString(), readings: [reading(mb, 135)] });
+      await t.http.post(`/api/runs/${first.id}/transitions`).set('authorization', bearer(operator.accessToken)).send({ to: 'abandoned', note: 'Called off' });
+      const second = await createPreparingRun(t, operator.accessToken, e.id);
+      await t.http.post(`/api/runs/${second.id}/rounds`).set('authorization', bearer(operator.accessToken)).send({ takenAt: new Date().toISOString(), readings: [reading(mb, 136)] });
+      const a1 = (await t.http.get(`/api/runs/${first.id}/alarms`).set('authorization', bearer(observer.accessToken))).body as AlarmDto[];
+      const a2 = (await t.http.get(`/api/runs/${second.id}/alarms`).set('authorization', bearer(observer.accessToken))).body as AlarmDto[];
+      expect(a1.find((a) => a.kind === 'high')?.state).toBe('normal');
+      expect(a2.find((a) => a.kind === 'high')?.state).toBe('active_unacknowledged');
     });
 
     it('only one run of an engine is under way at a time', async () => {

@@ -1,5 +1,5 @@
 import { create, all } from 'mathjs';
-import { fitBand, bandAt, isDrift, driftCheck, DRIFT_RULE_TEXT, type DriftPoint } from './bearing-drift.js';
+import { fitBand, bandAt, isDrift, driftCheck, driftHistory, driftRuleText, DRIFT_RULE_TEXT, type DriftPoint } from './bearing-drift.js';
 
 const math = create(all);
 
@@ -111,5 +111,67 @@ describe('drift flag (rule: above upper band + 5 °F)', () => {
   it('the rule text for the UI states the band and the margin', () => {
     expect(DRIFT_RULE_TEXT).toMatch(/least squares/);
     expect(DRIFT_RULE_TEXT).toMatch(/5 °F/);
+  });
+});
+
+describe('comparable load (minLoadSpread)', () => {
+  // Rule of the product (common practice, no source): loads that span less than the set spread are treated
+  // as the same load, so the band is the mean ± k·s rather than a slope fitted to noise.
+  const nearlySame: DriftPoint[] = [
+    { load: 74.2, temperatureRiseF: 40.1 },
+    { load: 74.6, temperatureRiseF: 41.3 },
+    { load: 75.1, temperatureRiseF: 40.6 },
+  ];
+  it('falls back to the mean band (mean and sample SD checked with mathjs) when the loads span less than the setting', () => {
+    const band = fitBand(nearlySame, { minLoadSpread: 5 });
+    expect(band.kind).toBe('mean');
+    expect(band.interceptF).toBeCloseTo(Number(math.mean([40.1, 41.3, 40.6])), 12);
+    expect(band.residualSdF).toBeCloseTo(Number(math.std([40.1, 41.3, 40.6])), 12);
+  });
+  it('fits the sloping line when the loads span at least the setting', () => {
+    expect(fitBand(nearlySame, { minLoadSpread: 0.5 }).kind).toBe('regression');
+    expect(fitBand(nearlySame).kind).toBe('regression');
+  });
+  it('refuses a negative spread', () => {
+    expect(() => fitBand(nearlySame, { minLoadSpread: -1 })).toThrow(RangeError);
+  });
+  it('states the settings actually used', () => {
+    const text = driftRuleText({ k: 2, marginF: 5, minLoadSpread: 5, loadName: 'mean speed', loadUnit: 'rpm' });
+    expect(text).toMatch(/\u00b1 2s/);
+    expect(text).toMatch(/more than 5 \u00b0F above the top of the band/);
+    expect(text).toMatch(/spans less than 5 rpm \(comparable mean speed\)/);
+    expect(driftRuleText({ marginF: 3 })).toMatch(/more than 3 \u00b0F/);
+  });
+});
+
+describe('a season judged run by run (driftHistory)', () => {
+  // Synthetic season at one speed: rises of about 41 °F, one run at 80 °F (the warm bearing).
+  const season = [
+    { id: 'may', load: 74.4, temperatureRiseF: 40.8 },
+    { id: 'jun', load: 74.6, temperatureRiseF: 41.6 },
+    { id: 'jul', load: 74.5, temperatureRiseF: 40.2 },
+    { id: 'aug', load: 74.7, temperatureRiseF: 80.3 },
+    { id: 'sep', load: 74.5, temperatureRiseF: 41.9 },
+    { id: 'oct', load: 74.3, temperatureRiseF: 40.5 },
+  ];
+  const verdicts = driftHistory(season, { minLoadSpread: 5 });
+
+  it('flags the run above the band and no other', () => {
+    expect(verdicts.filter((v) => v.check?.drift).map((v) => v.id)).toEqual(['aug']);
+    expect(verdicts[0].check).toBeNull();
+  });
+
+  it('leaves the flagged run out of the later bands', () => {
+    const sep = verdicts.find((v) => v.id === 'sep')!;
+    expect(sep.historyRuns).toBe(3);
+    expect(sep.band!.interceptF).toBeCloseTo(Number(math.mean([40.8, 41.6, 40.2])), 12);
+  });
+
+  it('would have hidden a second hot run if the first were kept in the band (why it is left out)', () => {
+    const band = fitBand(season.slice(0, 4), { minLoadSpread: 5 });
+    expect(isDrift({ load: 74.5, temperatureRiseF: 60 }, band)).toBe(false);
+    expect(verdicts.length).toBe(6);
+    const withoutAug = fitBand(season.slice(0, 3), { minLoadSpread: 5 });
+    expect(isDrift({ load: 74.5, temperatureRiseF: 60 }, withoutAug)).toBe(true);
   });
 });

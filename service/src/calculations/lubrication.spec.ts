@@ -21,6 +21,7 @@ import {
   revolutionsFromSpeed,
   celsiusToKelvin,
   JACKING_CAUTION,
+  consumptionTrend,
 } from './lubrication.js';
 
 const math = create(all);
@@ -165,6 +166,20 @@ describe('journal bearing: unit load, Sommerfeld number, Petroff', () => {
     const f = petroffFrictionCoefficient({ radiusIn: 8, radialClearanceIn: 0.008, viscosityReyn: 5e-6, speedRevPerS: 1.25, unitLoadPsi: r.unitLoadPsi });
     expect(r.frictionCoefficient).toBeCloseTo(f, 12);
   });
+  it('Petroff friction coefficient of a published calculator example: 1 Pa\u00b7s, 10 rev/s, 0.15 MPa, c/r = 0.005 \u2192 0.263189', () => {
+    // "Petroff's equation for coefficient of friction" calculator, calculatoratoz.com, worked example on the page
+    // (online calculator, seen 2026): f = 2\u03c0\u00b2\u00b7(\u03bcN/P)\u00b7(r/c) with \u03bc = 10 P = 1 Pa\u00b7s,
+    // N = 10 rev/s, P = 0.15 MPa and relative clearance 0.005 gives 0.263189450695716. Our function takes reyn and psi;
+    // \u03bcN/P is dimensionless, so the SI figures are converted to reyn and psi with the same factor.
+    const f = petroffFrictionCoefficient({
+      radiusIn: 1,
+      radialClearanceIn: 0.005,
+      viscosityReyn: 1 / PASCAL_SECONDS_PER_REYN,
+      speedRevPerS: 10,
+      unitLoadPsi: 150000 / PASCAL_SECONDS_PER_REYN,
+    });
+    expect(f).toBeCloseTo(0.263189450695716, 9);
+  });
   it('rejects a zero clearance', () => {
     expect(() => journalFriction({ ...pumpExample, radialClearanceIn: 0 })).toThrow(RangeError);
   });
@@ -201,5 +216,30 @@ describe('oil consumption (common practice, no source)', () => {
     const r = oilConsumption({ oilUsedLitres: 3, runHours: 4, revolutions });
     expect(r.litresPerRunHour).toBeCloseTo(0.75, 12);
     expect(r.litresPerThousandRevolutions).toBeCloseTo(3 / 18, 12);
+  });
+});
+
+describe('consumption trend (common practice, no source: latest against the median of the earlier runs, \u00b115 % steady)', () => {
+  it('0.20 after 0.10, 0.12, 0.11 (median 0.11) is a rise of about 81.8 %, checked with mathjs', () => {
+    const r = consumptionTrend([0.1, 0.12, 0.11, 0.2]);
+    const median = Number(math.median([0.1, 0.12, 0.11]));
+    expect(r.earlierMedian).toBeCloseTo(median, 12);
+    expect(r.changePercent).toBeCloseTo(((0.2 - median) / median) * 100, 9);
+    expect(r.direction).toBe('rising');
+  });
+  it('one odd earlier run does not make a normal latest run look falling (median of an even count checked with mathjs)', () => {
+    const r = consumptionTrend([0.071, 0.07, 0.069, 0.145, 0.07, 0.07]);
+    expect(r.earlierMedian).toBeCloseTo(Number(math.median([0.071, 0.07, 0.069, 0.145, 0.07])), 12);
+    expect(r.direction).toBe('steady');
+    expect(consumptionTrend([0.07, 0.07, 0.145, 0.07]).earlierMedian).toBeCloseTo(Number(math.median([0.07, 0.07, 0.145])), 12);
+  });
+  it('within 15 % is steady, below is falling; one run has no trend', () => {
+    expect(consumptionTrend([0.1, 0.1, 0.11]).direction).toBe('steady');
+    expect(consumptionTrend([0.1, 0.1, 0.05]).direction).toBe('falling');
+    expect(consumptionTrend([0.1]).direction).toBeNull();
+    expect(consumptionTrend([]).latest).toBeNull();
+  });
+  it('the steady band is a setting', () => {
+    expect(consumptionTrend([0.1, 0.1, 0.11], { steadyPercent: 5 }).direction).toBe('rising');
   });
 });

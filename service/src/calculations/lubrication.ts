@@ -376,3 +376,35 @@ export function oilConsumption(p: { oilUsedLitres: number; runHours: number; rev
     litresPerThousandRevolutions: (p.oilUsedLitres / p.revolutions) * 1000,
   };
 }
+
+/** Within ± this percentage of the earlier mean, consumption is called steady (common practice, no source). */
+export const DEFAULT_CONSUMPTION_STEADY_PERCENT = 15;
+
+export const CONSUMPTION_TREND_RULE_TEXT =
+  'Trend: the latest run\u2019s oil used per thousand revolutions against the median of the runs before it ' +
+  '(the median, so one odd run does not move the yardstick). ' +
+  'Within \u00b115 % it is steady; above, rising (look for a leak, a worn bearing or a lubricator set too rich); ' +
+  'below, falling (look for a choked feed). Common practice, no source.';
+
+/**
+ * Trend of a lubrication point's consumption: the latest figure against the median of the earlier ones
+ * (figures oldest first, e.g. litres per thousand revolutions per run).
+ */
+export function consumptionTrend(
+  figuresOldestFirst: number[],
+  options: { steadyPercent?: number } = {},
+): { latest: number | null; earlierMedian: number | null; changePercent: number | null; direction: 'rising' | 'steady' | 'falling' | null } {
+  const steady = options.steadyPercent ?? DEFAULT_CONSUMPTION_STEADY_PERCENT;
+  assertNonNegative('steadyPercent', steady);
+  for (const f of figuresOldestFirst) assertNonNegative('figure', f);
+  if (figuresOldestFirst.length === 0) return { latest: null, earlierMedian: null, changePercent: null, direction: null };
+  const latest = figuresOldestFirst[figuresOldestFirst.length - 1];
+  const earlier = figuresOldestFirst.slice(0, -1).sort((a, b) => a - b);
+  if (earlier.length === 0) return { latest, earlierMedian: null, changePercent: null, direction: null };
+  const mid = Math.floor(earlier.length / 2);
+  const earlierMedian = earlier.length % 2 ? earlier[mid] : (earlier[mid - 1] + earlier[mid]) / 2;
+  if (earlierMedian === 0) return { latest, earlierMedian, changePercent: null, direction: latest > 0 ? 'rising' : 'steady' };
+  const changePercent = ((latest - earlierMedian) / earlierMedian) * 100;
+  const direction = changePercent > steady ? 'rising' : changePercent < -steady ? 'falling' : 'steady';
+  return { latest, earlierMedian, changePercent, direction };
+}

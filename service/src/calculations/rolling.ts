@@ -89,10 +89,43 @@ export function passGeometry(p: {
     draftMm,
     reduction: draftMm / p.entryThicknessMm,
     trueStrain: Math.log(p.entryThicknessMm / p.exitThicknessMm),
-    elongation: (p.entryThicknessMm * p.entryWidthMm) / (p.exitThicknessMm * exitWidthMm),
+    elongation: areaElongation(p.entryThicknessMm * p.entryWidthMm, p.exitThicknessMm * exitWidthMm),
     contactLengthMm: Math.sqrt(rollRadiusMm * draftMm),
     meanWidthMm: (p.entryWidthMm + exitWidthMm) / 2,
   };
+}
+
+export type SectionShape = 'rectangle' | 'round' | 'oval';
+/** A bar's cross-section: rectangle (flat or square, box passes), round (height = width = diameter), oval. */
+export interface BarSection {
+  shape: SectionShape;
+  heightMm: number;
+  widthMm: number;
+}
+
+/**
+ * Cross-section area, mm²: rectangle h·w; round and oval as an ellipse π·h·w/4 (a round has h = w = d, so
+ * π·d²/4). A groove oval made of two arcs is a little fuller than an ellipse; the ellipse is the simple estimate.
+ */
+export function sectionAreaMm2(s: BarSection): number {
+  assertPositive('heightMm', s.heightMm);
+  assertPositive('widthMm', s.widthMm);
+  if (s.shape === 'rectangle') return s.heightMm * s.widthMm;
+  if (s.shape === 'round' || s.shape === 'oval') return (Math.PI * s.heightMm * s.widthMm) / 4;
+  throw new RangeError(`shape must be rectangle, round or oval`);
+}
+
+/** Elongation (coefficient of elongation) of a pass: entry area / exit area (constant volume). */
+export function areaElongation(entryAreaMm2: number, exitAreaMm2: number): number {
+  assertPositive('entryAreaMm2', entryAreaMm2);
+  assertPositive('exitAreaMm2', exitAreaMm2);
+  return entryAreaMm2 / exitAreaMm2;
+}
+
+/** Length of a bar of stock (length, area) once rolled to a section of exitAreaMm2 (constant volume), m. */
+export function barLengthM(stockLengthM: number, stockAreaMm2: number, exitAreaMm2: number): number {
+  assertPositive('stockLengthM', stockLengthM);
+  return stockLengthM * areaElongation(stockAreaMm2, exitAreaMm2);
 }
 
 /** Roll surface speed v = ω·D/2 = π·D·N/60, m/s. */

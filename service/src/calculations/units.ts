@@ -11,6 +11,8 @@ export const KPA_PER_PSI = 6.894757293168361;
 /** Standard atmosphere in kilopascals. */
 export const STANDARD_ATMOSPHERE_KPA = 101.325;
 export const STANDARD_ATMOSPHERE_PSI = STANDARD_ATMOSPHERE_KPA / KPA_PER_PSI;
+/** 1 lb (avoirdupois pound mass) in kilograms (exact by definition). */
+export const KG_PER_LB = 0.45359237;
 
 export function psigToPsia(gaugePsi: number, atmosphericPsi = STANDARD_ATMOSPHERE_PSI): number {
   return gaugePsi + atmosphericPsi;

@@ -6,7 +6,7 @@ import { jest } from '@jest/globals';
 
 // Sign-ins hash with argon2 and each file boots the whole app: allow more than Jest's default 5 s
 // (a project's `testTimeout` in jest.config.cjs is not applied to its tests).
-jest.setTimeout(30_000);
+jest.setTimeout(120_000);
 
 /**
  * The environment of an end-to-end test run. `npm test` (ops/test.sh) sets all of these; the defaults

@@ -22,3 +22,9 @@ export interface UpdateUserRequest {
   active?: boolean;
   displayName?: string;
 }
+/** A person as others see them when choosing a crew (no e-mail address). */
+export interface CrewMemberSummary {
+  id: string;
+  displayName: string;
+  role: Role;
+}

@@ -16,6 +16,8 @@ export interface JoinRoomAck {
   ok: boolean;
   room?: string;
   error?: string;
+  /** On refusal: 403 when the role may not join, 404 when there is no such room, 400 for a malformed request. */
+  status?: number;
 }
 export interface LiveErrorEvent {
   event: string;

@@ -1,5 +1,10 @@
 import { Foundation1796162547067 } from './1796162547067-Foundation.js';
 import { RunLog1796163443370 } from './1796163443370-RunLog.js';
+import { Mill1796164211009 } from './1796164211009-Mill.js';
+import { ChecklistsQualifications1796164498769 } from './1796164498769-ChecklistsQualifications.js';
+import { IndicatorCards1796164976631 } from './1796164976631-IndicatorCards.js';
+import { Maintenance1796166275712 } from './1796166275712-Maintenance.js';
+import { ReadingsPointRunIndex1796169344642 } from './1796169344642-ReadingsPointRunIndex.js';
 
 /** Every migration in order. Add new ones at the end; never edit one that has been committed. */
-export const MIGRATIONS: Function[] = [Foundation1796162547067, RunLog1796163443370];
+export const MIGRATIONS: Function[] = [Foundation1796162547067, RunLog1796163443370, Mill1796164211009, ChecklistsQualifications1796164498769, IndicatorCards1796164976631, Maintenance1796166275712, ReadingsPointRunIndex1796169344642];

@@ -3,6 +3,11 @@ import { DataSource } from 'typeorm';
 import { seedUsers } from './seed-users.js';
 import { seedEngine } from './seed-engine.js';
 import { seedSeason } from './seed-season.js';
+import { seedChecklists } from './seed-checklists.js';
+import { seedMill } from './seed-mill.js';
+import { seedIndicatorCards } from './seed-indicator-cards.js';
+import { seedMaintenance } from './seed-maintenance.js';
+import { seedLubrication } from './seed-lubrication.js';
 
 /**
  * Every part of the demo, in order. Each part is idempotent (matched by natural keys), so running the
@@ -13,5 +18,12 @@ export async function seedDemo(app: INestApplicationContext): Promise<string> {
   const users = await db.transaction((m) => seedUsers(m));
   const engine = await seedEngine(app, users.get('chief@alderforge.example')!.id);
   const runs = await seedSeason(app, engine, users);
-  return `${users.size} users, engine "${engine.name}", ${runs} new runs`;
+  const checklists = await seedChecklists(app, engine, users);
+  const cardSets = await seedIndicatorCards(app, engine, users);
+  // After the card sets: logged passes take the run's indicated hp from them.
+  const mill = await seedMill(app, engine, users);
+  // After the season: the inspections refer to its runs and alarms.
+  const maintenance = await seedMaintenance(app, engine, users);
+  const lubrication = await seedLubrication(app, engine, users);
+  return `${users.size} users, engine "${engine.name}", ${runs} new runs, ${checklists}, ${mill}, ${cardSets} new card sets, ${maintenance}, ${lubrication}`;
 }

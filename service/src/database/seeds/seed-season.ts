@@ -6,6 +6,7 @@ import { Run } from '../../modules/runs/run.entity.js';
 import { RunStateChange } from '../../modules/runs/run-state-change.entity.js';
 import { IngestService } from '../../modules/runs/ingest.service.js';
 import { EnginesService } from '../../modules/engines/engines.service.js';
+import { AlarmsService } from '../../modules/alarms/alarms.service.js';
 import { Engine } from '../../modules/engines/engine.entity.js';
 import type { User } from '../../modules/users/user.entity.js';
 import { revolutionsFromSpeedRecord } from '../../calculations/run-derived.js';
@@ -129,9 +130,10 @@ export async function seedSeason(app: INestApplicationContext, engine: Engine, u
       await m.query(`UPDATE alarms SET state = 'normal', condition_active = false, returned_at = COALESCE(returned_at, $2) WHERE run_id = $1 AND state <> 'normal'`, [run.id, stop]);
     });
     await engines.addRunTotals(engine.id, s.hours, revs);
+    // The alarms above were closed out in SQL: let the evaluator reload them from the database.
+    app.get(AlarmsService).forget(engine.id);
     created++;
   }
-  app.get(EnginesService); // keep the cache coherent
   if (!(await db.getRepository(Run).exists({ where: { engineId: engine.id, title: season.today.title } }))) {
     const today = new Date().toISOString().slice(0, 10);
     const crew = season.today.crew.map((e) => users.get(e)!);

@@ -1,6 +1,6 @@
 import { BadRequestException, Injectable, Logger, NotFoundException, type OnModuleDestroy, type OnModuleInit } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
-import { DataSource, EntityManager, Not } from 'typeorm';
+import { DataSource, EntityManager, In, Not } from 'typeorm';
 import type { AlarmDto, AlarmKind } from '@crankjournal/shared-types';
 import { ALARM_KIND_WORDS } from '@crankjournal/shared-types';
 import { Alarm } from './alarm.entity.js';
@@ -35,6 +35,8 @@ interface EngineState {
 export interface EvaluationOutcome {
   changed: Alarm[];
   raised: number;
+  /** Ids of the readings that raised a new alarm (one per new alarm), so a caller can split `raised` among batches. */
+  raisedReadingIds: string[];
   toEmail: Alarm[];
 }
 
@@ -48,6 +50,45 @@ export type RecentHistoryLoader = (
 /** Permission check for acknowledging (the qualifications module fills it in). */
 export interface AlarmAckPolicy {
   assertMayAcknowledge(user: AuthUser, alarm: Alarm): Promise<void>;
+}
+
+/** Inserts a reading into a list kept in time order (after readings of the same moment, so ties keep arrival order). */
+function insertByTime(list: PointReading[], r: PointReading) {
+  const t = r.takenAt.getTime();
+  if (!list.length || list[list.length - 1].takenAt.getTime() <= t) {
+    list.push(r);
+    return;
+  }
+  let lo = 0;
+  let hi = list.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >>> 1;
+    if (list[mid].takenAt.getTime() <= t) lo = mid + 1;
+    else hi = mid;
+  }
+  list.splice(lo, 0, r);
+}
+
+/**
+ * The earliest reading of a time-ordered list within [takenAt − window, takenAt] with a finite value (the
+ * first such in arrival order among readings of the same moment), as a one-element list; empty when none.
+ */
+function oldestInWindow(list: readonly PointReading[], takenAt: Date, windowMinutes: number): PointReading[] {
+  const end = takenAt.getTime();
+  const start = end - windowMinutes * 60_000;
+  let lo = 0;
+  let hi = list.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >>> 1;
+    if (list[mid].takenAt.getTime() < start) lo = mid + 1;
+    else hi = mid;
+  }
+  for (let i = lo; i < list.length; i++) {
+    const t = list[i].takenAt.getTime();
+    if (t > end) break;
+    if (Number.isFinite(list[i].value) && Number.isFinite(t)) return [list[i]];
+  }
+  return [];
 }
 
 @Injectable()
@@ -106,28 +147,53 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
     const { engine, points } = await this.engines.withPoints(engineId);
     const pointById = new Map(points.map((p) => [p.id, p]));
     const st = await this.load(engineId, m, history);
+    // The open alarms are read again, and locked, in this transaction: people acknowledge, shelve and unshelve
+    // them meanwhile (change(), expireShelves()), and a cached copy would overwrite their change or miss it
+    // (an acknowledged alarm raised a second time, refused by alarms_one_open_per_condition).
+    const open = await m.find(Alarm, { where: { engineId, state: Not('normal') }, order: { id: 'ASC' }, lock: { mode: 'pessimistic_write' } });
+    st.open = new Map(open.map((a) => [`${a.pointId}:${a.kind}`, a]));
     const changed = new Map<string, Alarm>();
     const toEmail: Alarm[] = [];
     const events: Partial<AlarmEvent>[] = [];
     let raised = 0;
+    const raisedReadingIds: string[] = [];
     const sorted = [...readings].sort((a, b) => a.takenAt.getTime() - b.takenAt.getTime());
+    // Built once per call rather than once per reading (a logger batch holds thousands of readings).
+    const engineLimits = { maximumAllowableWorkingPressurePsig: engine.mawpPsig, overspeedRpm: engine.overspeedRpm };
+    const settingsById = new Map<string, MeasurementPoint & { name: string }>();
     for (const r of sorted) {
       const point = pointById.get(r.pointId);
       if (!point) continue;
+      let settings = settingsById.get(point.id);
+      if (!settings) settingsById.set(point.id, (settings = { ...point, name: point.label }));
       const list = st.recent.get(point.id) ?? [];
-      list.push({ pointId: point.id, value: r.value, takenAt: r.takenAt });
+      insertByTime(list, { pointId: point.id, value: r.value, takenAt: r.takenAt });
       const cutoff = r.takenAt.getTime() - RATE_WINDOW_MINUTES * 60_000;
-      while (list.length && list[0].takenAt.getTime() < cutoff) list.shift();
+      let drop = 0;
+      while (drop < list.length && list[drop].takenAt.getTime() < cutoff) drop++;
+      if (drop) list.splice(0, drop);
       st.recent.set(point.id, list);
       if (point.kind === 'ambient_temperature') {
         if (!st.ambient || st.ambient.takenAt <= r.takenAt) st.ambient = { value: r.value, unit: point.unit, takenAt: r.takenAt };
       }
+      // An alarm left open by an earlier run is closed out on the record; this run gets its own.
+      for (const [key, a] of st.open) {
+        if (a.pointId !== point.id || a.runId === runId) continue;
+        events.push({ alarmId: a.id, event: 'superseded', fromState: a.state, toState: 'normal', byUser: null, at: r.takenAt, note: 'Closed out: a later run took over this point.' });
+        a.state = 'normal';
+        a.conditionActive = false;
+        await m.save(Alarm, a);
+        changed.set(a.id, a);
+        st.open.delete(key);
+      }
       const activeConditions = [...st.open.values()].filter((a) => a.pointId === point.id && a.conditionActive).map((a) => a.kind);
       const decisions = evaluateReading({
-        point: { ...point, name: point.label },
-        engine: { maximumAllowableWorkingPressurePsig: engine.mawpPsig, overspeedRpm: engine.overspeedRpm },
+        point: settings,
+        engine: engineLimits,
         reading: { pointId: point.id, value: r.value, takenAt: r.takenAt },
-        recentHistory: list,
+        // The list is kept in time order, so the rate of rise needs only the oldest reading of the window
+        // (the one riseRatePerMinute would pick from the whole list): O(log n) instead of O(n) per reading.
+        recentHistory: oldestInWindow(list, r.takenAt, RATE_WINDOW_MINUTES),
         ambientTemperature: this.ambientIn(st, point),
         activeConditions,
         rateWindowMinutes: RATE_WINDOW_MINUTES,
@@ -164,12 +230,18 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
             st.open.set(key, saved);
             changed.set(saved.id, saved);
             raised++;
+            raisedReadingIds.push(r.id);
             if (saved.priority === 'high_high') toEmail.push(saved);
           }
         } else if (d.action === 'clear' && open && open.conditionActive) {
           const next = this.apply(open, { type: 'return_to_normal' }, null, r.takenAt, events);
           changed.set(next.id, next);
-          if (next.state === 'normal') st.open.delete(key);
+          if (next.state === 'normal') {
+            // Written at once: a later reading of this batch may cross again and open a new alarm, and
+            // alarms_one_open_per_condition must see this one closed by then (else the batch fails with 409).
+            await m.save(Alarm, next);
+            st.open.delete(key);
+          }
         }
       }
     }
@@ -177,7 +249,7 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
       await m.save(Alarm, [...changed.values()]);
     }
     if (events.length) await m.insert(AlarmEvent, events);
-    return { changed: [...changed.values()], raised, toEmail };
+    return { changed: [...changed.values()], raised, raisedReadingIds, toEmail };
   }
 
   private ambientIn(st: EngineState, point: MeasurementPoint): number | null {
@@ -288,6 +360,13 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
     return Promise.all(rows.map((a) => this.toDto(a)));
   }
 
+  /** Every alarm raised on some points (e.g. one bearing's temperature points), oldest first. */
+  async listByPoints(pointIds: string[], limit = 2000): Promise<AlarmDto[]> {
+    if (!pointIds.length) return [];
+    const rows = await this.db.getRepository(Alarm).find({ where: { pointId: In(pointIds) }, order: { raisedAt: 'ASC' }, take: limit });
+    return Promise.all(rows.map((a) => this.toDto(a)));
+  }
+
   async openCountByRun(runIds: string[]): Promise<Map<string, number>> {
     if (!runIds.length) return new Map();
     const rows: { run_id: string; n: number }[] = await this.db.query(
@@ -345,14 +424,21 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
   /** Shelved alarms whose time is up go back to their real state. */
   async expireShelves() {
     const due = await this.db.getRepository(Alarm).createQueryBuilder('a').where(`a.state = 'shelved' AND a.shelved_until <= now()`).getMany();
-    for (const a of due) {
-      const next = applyShelveExpiry({ state: a.state, conditionActive: a.conditionActive, shelvedUntil: a.shelvedUntil, shelveReason: a.shelveReason }, new Date());
-      if (next.state === a.state) continue;
-      await this.db.transaction(async (m) => {
-        await m.update(Alarm, { id: a.id, state: 'shelved' }, { state: next.state, shelvedUntil: null, shelveReason: null });
-        await m.insert(AlarmEvent, { alarmId: a.id, event: 'shelve_expired', fromState: 'shelved', toState: next.state, byUser: null, at: new Date(), note: null });
+    for (const a0 of due) {
+      // Decided on the row as it is now (locked): the readings may have changed its condition since.
+      const a = await this.db.transaction(async (m) => {
+        const cur = await m.findOne(Alarm, { where: { id: a0.id }, lock: { mode: 'pessimistic_write' } });
+        if (!cur || cur.state !== 'shelved') return null;
+        const next = applyShelveExpiry({ state: cur.state, conditionActive: cur.conditionActive, shelvedUntil: cur.shelvedUntil, shelveReason: cur.shelveReason }, new Date());
+        if (next.state === cur.state) return null;
+        await m.update(Alarm, { id: cur.id }, { state: next.state, shelvedUntil: null, shelveReason: null });
+        await m.insert(AlarmEvent, { alarmId: cur.id, event: 'shelve_expired', fromState: 'shelved', toState: next.state, byUser: null, at: new Date(), note: null });
+        cur.state = next.state;
+        cur.shelvedUntil = null;
+        cur.shelveReason = null;
+        return cur;
       });
-      a.state = next.state;
+      if (!a) continue;
       const st = this.state.get(a.engineId);
       if (st) {
         if (a.state === 'normal') st.open.delete(`${a.pointId}:${a.kind}`);

@@ -57,8 +57,8 @@ export class LiveGateway implements OnGatewayInit {
   async join(@ConnectedSocket() socket: LiveSocket, @MessageBody() body: JoinRoomDto): Promise<JoinRoomAck> {
     const verdict = canJoinRoom(socket.data.user.role, body.room);
     if (!verdict.ok) {
-      socket.emit('live:error', { event: 'room:join', message: verdict.reason });
-      return { ok: false, error: verdict.reason };
+      socket.emit('live:error', { event: 'room:join', message: verdict.reason, status: verdict.status });
+      return { ok: false, error: verdict.reason, status: verdict.status };
     }
     await socket.join(body.room);
     return { ok: true, room: body.room };

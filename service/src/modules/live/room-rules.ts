@@ -11,9 +11,9 @@ export const ROOM_RULES: { pattern: RegExp; roles: readonly Role[]; what: string
   { pattern: /^administration$/, roles: ['administrator'], what: 'account changes' },
 ];
 
-export function canJoinRoom(role: Role, room: string): { ok: true } | { ok: false; reason: string } {
+export function canJoinRoom(role: Role, room: string): { ok: true } | { ok: false; reason: string; status: 403 | 404 } {
   const rule = ROOM_RULES.find((r) => r.pattern.test(room));
-  if (!rule) return { ok: false, reason: `There is no room called "${room.slice(0, 60)}".` };
-  if (!rule.roles.includes(role)) return { ok: false, reason: `Your role may not join ${rule.what}.` };
+  if (!rule) return { ok: false, reason: `There is no room called "${room.slice(0, 60)}".`, status: 404 };
+  if (!rule.roles.includes(role)) return { ok: false, reason: `Your role may not join ${rule.what}.`, status: 403 };
   return { ok: true };
 }

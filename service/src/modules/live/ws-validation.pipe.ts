@@ -1,6 +1,7 @@
-import { ValidationPipe } from '@nestjs/common';
+import { ValidationPipe, type ArgumentMetadata } from '@nestjs/common';
 import { WsException } from '@nestjs/websockets';
 import type { ValidationError } from 'class-validator';
+import { hiddenKeyPath } from '../../common/pipes/validation.pipe.js';
 
 function flatten(errors: ValidationError[], prefix = ''): string[] {
   return errors.flatMap((e) => [
@@ -9,8 +10,16 @@ function flatten(errors: ValidationError[], prefix = ''): string[] {
   ]);
 }
 
+class StrictWsValidationPipe extends ValidationPipe {
+  override async transform(value: unknown, metadata: ArgumentMetadata) {
+    const hidden = hiddenKeyPath(value);
+    if (hidden) throw new WsException([`property ${hidden} should not exist`]);
+    return super.transform(value, metadata);
+  }
+}
+
 /** The same validation as the HTTP edge, answered on the socket as a `live:error` event. */
-export const wsValidationPipe = new ValidationPipe({
+export const wsValidationPipe = new StrictWsValidationPipe({
   whitelist: true,
   forbidNonWhitelisted: true,
   transform: true,

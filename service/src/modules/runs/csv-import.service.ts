@@ -7,7 +7,7 @@ import { IngestService } from './ingest.service.js';
 import { RunsService } from './runs.service.js';
 import type { Run } from './run.entity.js';
 
-const CHUNK_ROWS = 5000;
+const CHUNK_ROWS = 1000;
 const COLUMNS: Record<string, string> = { takenAt: 'taken_at', pointCode: 'point', pointId: 'point', value: 'value', unit: 'unit', clientId: 'client_id' };
 
 /** A stable id for a CSV row without one: the same point at the same moment in the same run is the same reading. */
@@ -36,19 +36,28 @@ export class CsvImportService {
     let headerChecked = false;
     let line = 1;
     let chunk: { row: Record<string, unknown>; line: number }[] = [];
-    const flush = async () => {
-      if (!chunk.length) return;
-      const lines = chunk.map((c) => c.line);
+    const store = async (rows: typeof chunk) => {
+      if (!rows.length) return;
+      const lines = rows.map((c) => c.line);
       const r = await this.ingest.ingest(
         { run, source: 'import', enteredBy: userId, columnOf: (f) => COLUMNS[f] ?? f, lineOf: (i) => lines[i] },
-        chunk.map((c) => c.row),
+        rows.map((c) => c.row),
       );
       total.stored += r.stored;
       total.duplicates += r.duplicates;
       total.alarmsRaised += r.alarmsRaised;
       total.rejectedCount += r.rejectedCount;
       for (const x of r.rejected) if (total.rejected.length < 1000) total.rejected.push(x);
+    };
+    // One chunk is stored while the next one is parsed (the database and the parser work side by side);
+    // chunks are still stored one after another, in file order, and at most two are held at a time.
+    let storing: Promise<void> | null = null;
+    const flush = async () => {
+      const rows = chunk;
       chunk = [];
+      if (storing) await storing;
+      storing = store(rows);
+      storing.catch(() => undefined); // awaited at the next flush or at the end
     };
     const rejectLine = (row: RejectedRow) => {
       total.rejectedCount++;
@@ -84,6 +93,7 @@ export class CsvImportService {
     }
     if (!headerChecked) throw new BadRequestException('The file is empty: it needs a header line (taken_at, point, value) and at least one reading.');
     await flush();
+    await storing;
     return total;
   }
 }

@@ -9,6 +9,8 @@ import type { ReadingSource } from '@crankjournal/shared-types';
 @Index('readings_point_time', ['pointId', 'takenAt'])
 @Index('readings_run_time', ['runId', 'takenAt'])
 @Index('readings_engine_time', ['engineId', 'takenAt'])
+/** Per-run figures of a point (bearing history): one exact range per point and run, whatever the table's size. */
+@Index('readings_point_run', ['pointId', 'runId'])
 export class Reading {
   @PrimaryGeneratedColumn('identity', { type: 'bigint', generatedIdentity: 'ALWAYS' }) id: string;
   @Index('readings_client_id', { unique: true }) @Column({ name: 'client_id', type: 'uuid' }) clientId: string;

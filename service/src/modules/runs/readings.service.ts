@@ -1,7 +1,7 @@
 import { Injectable, NotFoundException } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, In } from 'typeorm';
-import type { AmendmentDto, BoardPoint, ReadingDto } from '@crankjournal/shared-types';
+import type { AmendmentDto, BoardPoint, MeasurementKind, ReadingDto } from '@crankjournal/shared-types';
 import { Reading } from './reading.entity.js';
 import { ReadingAmendment } from './reading-amendment.entity.js';
 import { RunsService } from './runs.service.js';
@@ -12,6 +12,18 @@ import { EnginesService } from '../engines/engines.service.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { validateReadingValue } from '../alarms/alarm-rules.js';
 import { BadRequestException } from '@nestjs/common';
+
+/** Aggregates of one point's readings in one run (amended values count). */
+export interface PointRunStat {
+  runId: string;
+  pointId: string;
+  peak: number;
+  mean: number;
+  least: number;
+  count: number;
+  firstAt: Date;
+  lastAt: Date;
+}
 
 @Injectable()
 export class ReadingsService {
@@ -144,7 +156,63 @@ export class ReadingsService {
     }
   }
 
+  /**
+   * Per-run aggregates of some points' readings: peak, mean, least, count, first and last time, amended values
+   * counting. One grouped query over the readings(point_id, taken_at) index, never a loop over runs; restrict it
+   * to some runs with `runIds` (then the readings(run_id, taken_at) index may serve instead).
+   */
+  async pointRunStats(pointIds: string[], opts: { runIds?: string[] } = {}): Promise<PointRunStat[]> {
+    if (!pointIds.length || (opts.runIds && !opts.runIds.length)) return [];
+    const params: unknown[] = [pointIds];
+    let byRun = '';
+    if (opts.runIds) {
+      params.push(opts.runIds);
+      byRun = ' AND run_id = ANY($2::uuid[])';
+    }
+    const rows: { run_id: string; point_id: string; peak: number; mean: number; least: number; n: number; first_at: Date; last_at: Date }[] = await this.db.query(
+      `SELECT run_id, point_id, max(v) AS peak, avg(v) AS mean, min(v) AS least, count(*)::int AS n, min(taken_at) AS first_at, max(taken_at) AS last_at
+         FROM (SELECT run_id, point_id, COALESCE(amended_value, value) AS v, taken_at FROM readings WHERE point_id = ANY($1::uuid[])${byRun}) r
+        GROUP BY run_id, point_id`,
+      params,
+    );
+    return rows.map((r) => ({
+      runId: r.run_id,
+      pointId: r.point_id,
+      peak: Number(r.peak),
+      mean: Number(r.mean),
+      least: Number(r.least),
+      count: Number(r.n),
+      firstAt: new Date(r.first_at),
+      lastAt: new Date(r.last_at),
+    }));
+  }
+
   amendmentsOf(readingIds: string[]) {
     return readingIds.length ? this.db.getRepository(ReadingAmendment).find({ where: { readingId: In(readingIds) }, order: { at: 'ASC' } }) : Promise.resolve([]);
+  }
+
+  /**
+   * The run's reading of a point of `pointKind` nearest in time to `at` (an amended value wins), no further
+   * than `withinMs` away; null when there is none. Used by the indicator cards for speed and pressures.
+   */
+  async nearestValue(
+    runId: string,
+    pointKind: MeasurementKind,
+    at: Date,
+    withinMs = 30 * 60_000,
+  ): Promise<{ value: number; unit: string; takenAt: Date; pointId: string; pointCode: string } | null> {
+    const run = await this.runs.get(runId);
+    const { points } = await this.engines.withPoints(run.engineId);
+    const ofKind = points.filter((p) => p.kind === pointKind);
+    if (!ofKind.length) return null;
+    const rows: { point_id: string; v: number; unit: string; taken_at: Date }[] = await this.db.query(
+      `SELECT point_id, COALESCE(amended_value, value) AS v, unit, taken_at FROM readings
+        WHERE run_id = $1 AND point_id = ANY($2) AND taken_at BETWEEN $3 AND $4
+        ORDER BY abs(extract(epoch FROM taken_at - $5::timestamptz)), taken_at LIMIT 1`,
+      [runId, ofKind.map((p) => p.id), new Date(at.getTime() - withinMs), new Date(at.getTime() + withinMs), at],
+    );
+    if (!rows.length) return null;
+    const r = rows[0];
+    return { value: Number(r.v), unit: r.unit, takenAt: new Date(r.taken_at), pointId: r.point_id, pointCode: ofKind.find((p) => p.id === r.point_id)?.code ?? '' };
   }
 }

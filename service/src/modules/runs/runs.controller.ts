@@ -120,7 +120,10 @@ export class RunsController {
       throw new HttpException({ statusCode: 413, error: 'Payload Too Large', message: 'The file is larger than 200 MB; split it.' }, 413);
     }
     const run = await this.runs.get(p.id);
-    return this.csv.import(run, req, me.id);
+    const result = await this.csv.import(run, req, me.id);
+    // A file of which no line could be taken is refused (400 with the report); a partly good one is kept and reported.
+    if (result.rejectedCount > 0 && result.stored + result.duplicates === 0) return answerIngest(result);
+    return result;
   }
 
   @Get(':id/readings.csv')

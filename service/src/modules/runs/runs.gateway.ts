@@ -1,8 +1,8 @@
 import { UseFilters, UsePipes } from '@nestjs/common';
-import { ConnectedSocket, MessageBody, SubscribeMessage, WebSocketGateway, WsException } from '@nestjs/websockets';
+import { ConnectedSocket, MessageBody, SubscribeMessage, WebSocketGateway } from '@nestjs/websockets';
 import { IsArray, IsObject, IsUUID, ArrayMinSize, ArrayMaxSize } from 'class-validator';
 import type { IngestResult, LiveAck, Role, RunDetail, StartGateVerdict } from '@crankjournal/shared-types';
-import { HttpException } from '@nestjs/common';
+import { ForbiddenException, HttpException } from '@nestjs/common';
 import { wsValidationPipe } from '../live/ws-validation.pipe.js';
 import { WsErrorFilter } from '../live/ws-exception.filter.js';
 import type { LiveSocket } from '../live/live.gateway.js';
@@ -28,7 +28,8 @@ export const SOCKET_EVENT_ROLES: Record<string, readonly Role[]> = {
 };
 
 function assertRole(socket: LiveSocket, event: string) {
-  if (!SOCKET_EVENT_ROLES[event].includes(socket.data.user.role)) throw new WsException(`Your role may not send ${event}.`);
+  // 403 like the HTTP edge (WsErrorFilter answers an HttpException with its status).
+  if (!SOCKET_EVENT_ROLES[event].includes(socket.data.user.role)) throw new ForbiddenException(`Your role may not send ${event}.`);
 }
 
 /** Run-log events on the live channel; they take the same paths as the REST routes. */
@@ -61,8 +62,9 @@ export class RunsGateway {
       return { ok: true, data: await this.runs.transition(body.runId, { to: 'running' }, socket.data.user) };
     } catch (e) {
       if (e instanceof HttpException && e.getStatus() === 409) {
-        const r = e.getResponse() as { message: string[]; details: StartGateVerdict };
-        return { ok: false, status: 409, error: (r.message ?? []).join(' '), data: r.details, details: r.details };
+        // A refused start gate answers a list of reasons; a refused state change (ConflictException) one sentence.
+        const r = e.getResponse() as { message?: string | string[]; details?: StartGateVerdict };
+        return { ok: false, status: 409, error: [r.message ?? []].flat().join(' ') || 'Refused.', data: r.details, details: r.details };
       }
       throw e;
     }

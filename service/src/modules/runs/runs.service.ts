@@ -185,6 +185,24 @@ export class RunsService {
     const to = dto.to;
     const allowedRoles = TRANSITION_ROLES[to];
     if (!allowedRoles.includes(user.role)) throw new ForbiddenException(`Your role may not move a run to "${RUN_STATE_LABELS[to]}".`);
+    return this.move(run0, dto, user);
+  }
+
+  /**
+   * Preparing → cleared, asked by the checklists module once every checklist required before a start is
+   * signed for this run: the signatures (each by a person qualified for its duty, re-authenticated) are the
+   * clearance, so no role check here. Recorded under the signer's name with the note. Returns null when the
+   * run is no longer preparing. Starting still goes through the start gate.
+   */
+  async clearAfterChecklists(id: string, user: AuthUser, note: string): Promise<RunDetail | null> {
+    const run0 = await this.get(id);
+    if (run0.state !== 'preparing') return null;
+    return this.move(run0, { to: 'cleared', note }, user);
+  }
+
+  private async move(run0: Run, dto: RunTransitionDto, user: AuthUser): Promise<RunDetail> {
+    const id = run0.id;
+    const to = dto.to;
     if (!RUN_TRANSITIONS[run0.state].includes(to))
       throw new ConflictException(`A run that is ${RUN_STATE_LABELS[run0.state].toLowerCase()} cannot go to "${RUN_STATE_LABELS[to]}".`);
     if (to === 'abandoned' && !dto.note?.trim()) throw new BadRequestException('note must say why the run is abandoned');

@@ -1,7 +1,7 @@
 import { Body, Controller, Get, Param, Patch, Post } from '@nestjs/common';
 import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
-import type { UserSummary } from '@crankjournal/shared-types';
-import { Roles } from '../../common/decorators/roles.decorator.js';
+import type { CrewMemberSummary, UserSummary } from '@crankjournal/shared-types';
+import { AnyRole, Roles } from '../../common/decorators/roles.decorator.js';
 import { CurrentUser, type AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { IdParamDto } from '../../common/dto/id-param.dto.js';
 import { UsersService } from './users.service.js';
@@ -18,6 +18,13 @@ export class UsersController {
   @Roles('administrator')
   list(): Promise<UserSummary[]> {
     return this.users.list();
+  }
+
+  /** Names and roles of the active crew, for choosing who works a run (no e-mail addresses). */
+  @Get('crew')
+  @AnyRole()
+  crew(): Promise<CrewMemberSummary[]> {
+    return this.users.crew();
   }
 
   @Post('invitations')

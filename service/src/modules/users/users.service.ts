@@ -1,7 +1,7 @@
 import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
 import { IsNull, Repository } from 'typeorm';
-import type { Role, UserSummary } from '@crankjournal/shared-types';
+import type { CrewMemberSummary, Role, UserSummary } from '@crankjournal/shared-types';
 import { User } from './user.entity.js';
 import { Invitation } from './invitation.entity.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
@@ -66,6 +66,11 @@ export class UsersService {
       .orderBy('u.displayName', 'ASC')
       .getMany();
     return rows.map((u) => this.toSummary(u));
+  }
+
+  async crew(): Promise<CrewMemberSummary[]> {
+    const rows = await this.users.find({ where: { active: true }, order: { displayName: 'ASC' } });
+    return rows.map((u) => ({ id: u.id, displayName: u.displayName, role: u.role }));
   }
 
   toSummary(u: User): UserSummary {

@@ -2,6 +2,11 @@ import type { ComponentType } from 'react';
 import type { Role } from '@crankjournal/shared-types';
 import { ROLES } from '@crankjournal/shared-types';
 import { IconHome, IconUsers, IconUserCircle } from '@tabler/icons-react';
+import { IconEngine, IconPlugConnected, IconTimeline } from '@tabler/icons-react';
+import { IconCertificate, IconChecklist } from '@tabler/icons-react';
+import { CALCULATORS } from '../../features/calculators/calculators';
+import { IconCalendarDue, IconCircleDot, IconClipboardCheck, IconDroplet, IconTool } from '@tabler/icons-react';
+import { IconBuildingFactory2, IconClipboardList, IconTimeline as IconRollingLog, IconTruckDelivery } from '@tabler/icons-react';
 
 export interface NavItem {
   label: string;
@@ -17,12 +22,72 @@ export interface NavGroup {
 /** The navigation rail, grouped by job. An item shows only to the roles that may use it. */
 export const NAVIGATION: NavGroup[] = [
   { label: 'Today', items: [{ label: 'Today', path: '/', icon: IconHome, roles: ROLES }] },
+  { label: 'Runs', items: [{ label: 'Runs', path: '/runs', icon: IconTimeline, roles: ROLES }] },
+  { label: 'Engines', items: [{ label: 'Engines', path: '/engines', icon: IconEngine, roles: ROLES }] },
   {
     label: 'Administration',
     items: [{ label: 'People and roles', path: '/admin/users', icon: IconUsers, roles: ['administrator'] }],
   },
   { label: 'You', items: [{ label: 'Your account', path: '/account', icon: IconUserCircle, roles: ROLES }] },
 ];
+
+// Data loggers sit with the other administration screens.
+NAVIGATION.find((g) => g.label === 'Administration')?.items.push({
+  label: 'Data loggers',
+  path: '/admin/loggers',
+  icon: IconPlugConnected,
+  roles: ['administrator'],
+});
+
+// Checklist templates and crew qualifications sit with the engines they belong to.
+NAVIGATION.find((g) => g.label === 'Engines')?.items.push(
+  { label: 'Checklists', path: '/checklists', icon: IconChecklist, roles: ROLES },
+  { label: 'Qualifications', path: '/qualifications', icon: IconCertificate, roles: ROLES },
+);
+
+// Calculators: one item per entry of the registry (features/calculators/calculators.ts), just before Administration.
+NAVIGATION.splice(
+  Math.max(0, NAVIGATION.findIndex((g) => g.label === 'Administration')),
+  0,
+  { label: 'Calculators', items: CALCULATORS.map((c) => ({ label: c.title, path: c.path, icon: c.icon, roles: c.roles })) },
+);
+
+// The mill: after the engines and maintenance, before the calculators.
+NAVIGATION.splice(
+  (() => {
+    const at = NAVIGATION.findIndex((g) => g.label === 'Calculators' || g.label === 'Administration');
+    return at < 0 ? NAVIGATION.length : at;
+  })(),
+  0,
+  {
+    label: 'Mill',
+    items: [
+      { label: 'Mill', path: '/mill', icon: IconBuildingFactory2, roles: ROLES },
+      { label: 'Pass schedules', path: '/mill/schedules', icon: IconClipboardList, roles: ROLES },
+      { label: 'Rolling log', path: '/mill/rolling', icon: IconRollingLog, roles: ROLES },
+      { label: 'Customer lots', path: '/mill/lots', icon: IconTruckDelivery, roles: ROLES },
+    ],
+  },
+);
+
+// Maintenance: bearings, what is due, inspections, work and lubrication, just after the engines.
+NAVIGATION.splice(
+  (() => {
+    const at = NAVIGATION.findIndex((g) => g.label === 'Engines');
+    return at < 0 ? NAVIGATION.length : at + 1;
+  })(),
+  0,
+  {
+    label: 'Maintenance',
+    items: [
+      { label: 'Due and plans', path: '/maintenance/due', icon: IconCalendarDue, roles: ROLES },
+      { label: 'Bearings', path: '/maintenance/bearings', icon: IconCircleDot, roles: ROLES },
+      { label: 'Inspections', path: '/maintenance/inspections', icon: IconClipboardCheck, roles: ROLES },
+      { label: 'Work records', path: '/maintenance/work', icon: IconTool, roles: ROLES },
+      { label: 'Lubrication', path: '/lubrication', icon: IconDroplet, roles: ROLES },
+    ],
+  },
+);
 
 export function navigationFor(role: Role): NavGroup[] {
   return NAVIGATION.map((g) => ({ ...g, items: g.items.filter((i) => i.roles.includes(role)) })).filter((g) => g.items.length > 0);

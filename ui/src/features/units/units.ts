@@ -17,7 +17,7 @@ export interface DisplayValue {
 }
 
 export interface DisplayOptions {
-  /** Decimals to show; defaults to the display unit's usual decimals. */
+  /** Decimals for the value in its stored unit (scaled when converted); defaults to the display unit's usual decimals. */
   decimals?: number;
   /**
    * True for a difference or a rate (rise per minute, rise above ambient, deadband): only the factor applies,
@@ -68,7 +68,13 @@ export function convertForDisplay(
   const conv = table?.[system]?.[storedUnit];
   const converted = !!conv && conv.to !== storedUnit;
   const unit = converted ? conv.to : storedUnit;
-  const decimals = opts.decimals ?? UNIT_DECIMALS[unit] ?? 1;
+  // Decimals asked for are for the stored unit; a conversion keeps about the same precision (in → mm: two fewer).
+  const decimals =
+    opts.decimals === undefined
+      ? (UNIT_DECIMALS[unit] ?? 1)
+      : converted && conv.factor !== 0
+        ? Math.max(0, Math.round(opts.decimals - Math.log10(Math.abs(conv.factor))))
+        : opts.decimals;
   const label = unitLabel(unit);
   if (value === null || value === undefined || !Number.isFinite(value)) {
     return { value: null, unit, unitLabel: label, text: '—', label: `— ${label}`, converted };

@@ -1,7 +1,6 @@
 import type { LoginRequest, SessionUser, TokenPair, UpdateMyPreferencesRequest } from '@crankjournal/shared-types';
 import { api } from '../../../api/http';
 import { sessionStore } from '../../../api/session';
-import { closeSocket } from '../../../api/socket';
 
 export async function signIn(req: LoginRequest): Promise<TokenPair> {
   const pair = await api<TokenPair>('/auth/login', { body: req });
@@ -16,7 +15,8 @@ export async function signOut(): Promise<void> {
   } catch {
     /* signed out locally whatever the server says */
   }
-  closeSocket();
+  // Loaded here rather than imported above, so the sign-in page does not carry the live channel's client.
+  (await import('../../../api/socket')).closeSocket();
   sessionStore.set(null);
 }
 

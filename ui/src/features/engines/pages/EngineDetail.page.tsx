@@ -18,7 +18,7 @@ import { DataTable, columnHelper } from '../../../components/DataTable/DataTable
 import { UnitValue } from '../../../components/UnitValue/UnitValue';
 import { errorText } from '../../../api/http';
 import { useHasRole } from '../../auth/useSession';
-import { formatNumber, unitLabel } from '../../units/units';
+import { formatNumber } from '../../units/units';
 import { useUnits } from '../../units/useUnits';
 import { engineDetailQuery, engineLimitChangesQuery } from '../api/engines.api';
 import {
@@ -26,6 +26,7 @@ import {
   CYLINDER_ROLE_LABELS,
   ENGINE_TYPE_LABELS,
   LUBRICATION_KIND_LABELS,
+  LIMITS_CAUTION,
   PRESSURE_LIMITS_CAUTION,
   fieldLabel,
 } from '../labels';
@@ -76,7 +77,7 @@ export default function EngineDetailPage() {
     <Stack gap="lg">
       <PageHeader
         title={engine.name}
-        subtitle={`${ENGINE_TYPE_LABELS[engine.type]} · ${engine.builder} · ${engine.yearBuilt}`}
+        subtitle={[ENGINE_TYPE_LABELS[engine.type], engine.yearBuilt && `built ${engine.yearBuilt}`, engine.builder].filter(Boolean).join(' · ')}
         state={
           engine.activeRunId ? (
             <Button component={Link} to={`/runs/${engine.activeRunId}`} variant="light" rightSection={<IconArrowRight size={18} />}>
@@ -106,8 +107,8 @@ function Settings({ engine }: { engine: EngineDetail }) {
   return (
     <Section title="Settings">
       <Grid gap="lg">
-        <Grid.Col span={{ base: 12, md: 7 }}>
-          <SimpleGrid cols={{ base: 2, sm: 3 }} spacing="lg">
+        <Grid.Col span={{ base: 12, xl: 8 }}>
+          <SimpleGrid cols={{ base: 2, sm: 3 }} spacing="lg" verticalSpacing="lg">
             <Setting label="Running hours">
               <UnitValue value={engine.runningHours} unit="h" raw decimals={1} size="lg" />
             </Setting>
@@ -136,16 +137,16 @@ function Settings({ engine }: { engine: EngineDetail }) {
               <UnitValue value={engine.rotatingWeightLb} unit="lb" raw size="md" />
             </Setting>
           </SimpleGrid>
-          {engine.notes && (
-            <Text mt="lg" style={{ whiteSpace: 'pre-wrap' }}>
-              {engine.notes}
-            </Text>
-          )}
         </Grid.Col>
-        <Grid.Col span={{ base: 12, md: 5 }}>
+        <Grid.Col span={{ base: 12, xl: 4 }}>
           <Caution title="Pressure limits">{PRESSURE_LIMITS_CAUTION}</Caution>
         </Grid.Col>
       </Grid>
+      {engine.notes && (
+        <Text maw={900} style={{ whiteSpace: 'pre-wrap' }}>
+          {engine.notes}
+        </Text>
+      )}
     </Section>
   );
 }
@@ -227,7 +228,7 @@ function MeasurementPoints({ engine }: { engine: EngineDetail }) {
       v === null || v === undefined ? (
         <Text c="dimmed">—</Text>
       ) : (
-        <Text className="cj-num" fw={500}>
+        <Text className="cj-num" fw={500} style={{ whiteSpace: 'nowrap' }}>
           {display(v, unit, { delta }).label}
         </Text>
       );
@@ -236,27 +237,21 @@ function MeasurementPoints({ engine }: { engine: EngineDetail }) {
       engine.bearings.find((b) => b.id === p.bearingId)?.label ??
       p.cylinderLabel ??
       engine.cylinders.find((c) => c.id === p.cylinderId)?.label ??
-      '—';
+      null;
     return [
       ptCol.accessor('sequence', { header: '#', cell: (c) => <Text className="cj-num">{c.getValue()}</Text> }),
       ptCol.accessor('code', { header: 'Code', cell: (c) => <Text ff="monospace">{c.getValue()}</Text> }),
       ptCol.accessor('label', {
         header: 'Point',
         cell: (c) => (
-          <Stack gap={0}>
+          <Stack gap={0} miw={200}>
             <Text fw={600}>{c.getValue()}</Text>
             <Text fz="xs" c="dimmed">
-              {MEASUREMENT_KIND_LABELS[c.row.original.kind]} · on {attachedTo(c.row.original)}
+              {MEASUREMENT_KIND_LABELS[c.row.original.kind]}
+              {attachedTo(c.row.original) ? ` · on ${attachedTo(c.row.original)}` : ''}
             </Text>
           </Stack>
         ),
-      }),
-      ptCol.accessor('unit', {
-        header: 'Unit',
-        cell: (c) => {
-          const shown = display(0, c.getValue());
-          return shown.converted ? `${shown.unitLabel} (recorded in ${unitLabel(c.getValue())})` : unitLabel(c.getValue());
-        },
       }),
       ptCol.accessor((p) => p.normalLow ?? p.normalHigh ?? null, {
         id: 'normal',
@@ -266,7 +261,7 @@ function MeasurementPoints({ engine }: { engine: EngineDetail }) {
           if (p.normalLow == null && p.normalHigh == null) return <Text c="dimmed">—</Text>;
           const lo = p.normalLow == null ? '' : display(p.normalLow, p.unit).text;
           const hi = p.normalHigh == null ? '' : display(p.normalHigh, p.unit).label;
-          return <Text className="cj-num">{`${lo} – ${hi || display(null, p.unit).unitLabel}`}</Text>;
+          return <Text className="cj-num" style={{ whiteSpace: 'nowrap' }}>{`${lo} – ${hi || display(null, p.unit).unitLabel}`}</Text>;
         },
       }),
       ptCol.accessor((p) => p.lowLimit ?? null, { id: 'low', header: 'Low', cell: (c) => limit(c.row.original.lowLimit, c.row.original.unit) }),
@@ -295,7 +290,7 @@ function MeasurementPoints({ engine }: { engine: EngineDetail }) {
       title="Measurement points and limits"
       subtitle="In the order of a round of readings. The server raises an alarm when a reading passes a limit, rises faster than the rate, or rises too far above ambient."
     >
-      <Caution title="Pressure limits">{PRESSURE_LIMITS_CAUTION}</Caution>
+      <Caution title="Limits">{LIMITS_CAUTION}</Caution>
       <DataTable data={points} columns={columns} caption="Measurement points and limits" getRowId={(r) => r.id} empty="No measurement points yet." />
     </Section>
   );

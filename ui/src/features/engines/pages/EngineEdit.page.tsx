@@ -25,7 +25,7 @@ import { notifications } from '@mantine/notifications';
 import { IconPlus, IconTrash, IconArrowBackUp } from '@tabler/icons-react';
 import { MEASUREMENT_KIND_LABELS, MEASUREMENT_UNITS, UNIT_LABELS } from '@crankjournal/shared-types';
 import { PageHeader } from '../../../components/PageHeader';
-import { Caution, SAFETY_NOTE } from '../../../components/Caution/Caution';
+import { Caution } from '../../../components/Caution/Caution';
 import { HttpError, errorText } from '../../../api/http';
 import { engineDetailQuery, useSaveEngine } from '../api/engines.api';
 import {
@@ -33,6 +33,7 @@ import {
   CYLINDER_ROLE_LABELS,
   ENGINE_TYPE_LABELS,
   LUBRICATION_KIND_LABELS,
+  LIMITS_CAUTION,
   PRESSURE_LIMITS_CAUTION,
   options,
 } from '../labels';
@@ -172,6 +173,21 @@ function RemoveButton({ label, onClick }: { label: string; onClick: () => void }
   );
 }
 
+/** One part in a list: its name on top with the remove button, its fields below. */
+function Row({ title, onRemove, removeLabel, children }: { title: string; onRemove: () => void; removeLabel: string; children: ReactNode }) {
+  return (
+    <Paper withBorder p="sm" radius="sm">
+      <Group justify="space-between" mb={4} wrap="nowrap">
+        <Text fw={700} truncate>
+          {title}
+        </Text>
+        <RemoveButton label={removeLabel} onClick={onRemove} />
+      </Group>
+      {children}
+    </Paper>
+  );
+}
+
 function AddButton({ children, onClick }: { children: ReactNode; onClick: () => void }) {
   return (
     <Button variant="default" size="md" h={48} leftSection={<IconPlus size={18} />} onClick={onClick}>
@@ -220,20 +236,34 @@ function CylindersSection({ form }: { form: Form }) {
     >
       {rows.length === 0 && <Text c="dimmed">No cylinders yet.</Text>}
       {rows.map((c, i) => (
-        <Paper key={c.key} withBorder p="sm" radius="sm">
-          <Group align="flex-end" gap="sm" wrap="wrap">
-            <TextInput label="Cylinder" required w={180} {...form.getInputProps(`cylinders.${i}.label`)} />
-            <Select label="Role" w={220} data={options(CYLINDER_ROLE_LABELS)} allowDeselect={false} {...form.getInputProps(`cylinders.${i}.role`)} />
-            <SimpleGrid cols={{ base: 2, sm: 5 }} style={{ flex: 1, minWidth: 280 }}>
-              <Num form={form} path={`cylinders.${i}.boreIn`} label="Bore (in)" required />
-              <Num form={form} path={`cylinders.${i}.strokeIn`} label="Stroke (in)" required />
-              <Num form={form} path={`cylinders.${i}.pistonRodIn`} label="Piston rod (in)" required />
-              <Num form={form} path={`cylinders.${i}.tailRodIn`} label="Tail rod (in)" />
-              <Num form={form} path={`cylinders.${i}.clearancePercent`} label="Clearance (%)" required />
-            </SimpleGrid>
-            <RemoveButton label={`Remove cylinder ${c.label || i + 1}`} onClick={() => form.removeListItem('cylinders', i)} />
-          </Group>
-        </Paper>
+        <Row
+          key={c.key}
+          title={c.label || 'New cylinder'}
+          removeLabel={`Remove cylinder ${c.label || i + 1}`}
+          onRemove={() => form.removeListItem('cylinders', i)}
+        >
+          <Grid gap="sm" columns={15}>
+            <Grid.Col span={{ base: 6, sm: 5, lg: 2 }}>
+              <TextInput label="Cylinder" required {...form.getInputProps(`cylinders.${i}.label`)} />
+            </Grid.Col>
+            <Grid.Col span={{ base: 9, sm: 5, lg: 3 }}>
+              <Select label="Role" data={options(CYLINDER_ROLE_LABELS)} allowDeselect={false} {...form.getInputProps(`cylinders.${i}.role`)} />
+            </Grid.Col>
+            {(
+              [
+                ['boreIn', 'Bore (in)', true],
+                ['strokeIn', 'Stroke (in)', true],
+                ['pistonRodIn', 'Piston rod (in)', true],
+                ['tailRodIn', 'Tail rod (in)', false],
+                ['clearancePercent', 'Clearance (%)', true],
+              ] as const
+            ).map(([f, label, required]) => (
+              <Grid.Col key={f} span={{ base: 5, sm: 5, lg: 2 }}>
+                <Num form={form} path={`cylinders.${i}.${f}`} label={label} required={required} />
+              </Grid.Col>
+            ))}
+          </Grid>
+        </Row>
       ))}
     </Section>
   );
@@ -249,14 +279,18 @@ function LubricationSection({ form }: { form: Form }) {
     >
       {rows.length === 0 && <Text c="dimmed">No lubrication points yet.</Text>}
       {rows.map((l, i) => (
-        <Paper key={l.key} withBorder p="sm" radius="sm">
-          <Group align="flex-end" gap="sm" wrap="wrap">
-            <TextInput label="Lubrication point" required w={240} {...form.getInputProps(`lubricationPoints.${i}.label`)} />
-            <Select label="Kind" w={240} data={options(LUBRICATION_KIND_LABELS)} allowDeselect={false} {...form.getInputProps(`lubricationPoints.${i}.kind`)} />
-            <TextInput label="Oil grade" w={220} {...form.getInputProps(`lubricationPoints.${i}.oilGrade`)} />
-            <RemoveButton label={`Remove lubrication point ${l.label || i + 1}`} onClick={() => form.removeListItem('lubricationPoints', i)} />
-          </Group>
-        </Paper>
+        <Row
+          key={l.key}
+          title={l.label || 'New lubrication point'}
+          removeLabel={`Remove lubrication point ${l.label || i + 1}`}
+          onRemove={() => form.removeListItem('lubricationPoints', i)}
+        >
+          <SimpleGrid cols={{ base: 1, sm: 3 }}>
+            <TextInput label="Lubrication point" required {...form.getInputProps(`lubricationPoints.${i}.label`)} />
+            <Select label="Kind" data={options(LUBRICATION_KIND_LABELS)} allowDeselect={false} {...form.getInputProps(`lubricationPoints.${i}.kind`)} />
+            <TextInput label="Oil grade" {...form.getInputProps(`lubricationPoints.${i}.oilGrade`)} />
+          </SimpleGrid>
+        </Row>
       ))}
     </Section>
   );
@@ -276,27 +310,26 @@ function BearingsSection({ form }: { form: Form }) {
     >
       {rows.length === 0 && <Text c="dimmed">No bearings yet.</Text>}
       {rows.map((b, i) => (
-        <Paper key={b.key} withBorder p="sm" radius="sm">
-          <Group align="flex-end" gap="sm" wrap="wrap">
-            <TextInput label="Bearing" required w={200} {...form.getInputProps(`bearings.${i}.label`)} />
-            <Select label="Kind" w={180} data={options(BEARING_KIND_LABELS)} allowDeselect={false} {...form.getInputProps(`bearings.${i}.kind`)} />
-            <SimpleGrid cols={{ base: 2, sm: 4 }} style={{ flex: 1, minWidth: 280 }}>
+        <Row
+          key={b.key}
+          title={b.label || 'New bearing'}
+          removeLabel={`Remove bearing ${b.label || i + 1}`}
+          onRemove={() => form.removeListItem('bearings', i)}
+        >
+          <Stack gap="sm">
+            <SimpleGrid cols={{ base: 1, sm: 3 }}>
+              <TextInput label="Bearing" required {...form.getInputProps(`bearings.${i}.label`)} />
+              <Select label="Kind" data={options(BEARING_KIND_LABELS)} allowDeselect={false} {...form.getInputProps(`bearings.${i}.kind`)} />
+              <Select label="Fed by" data={lubOptions} clearable placeholder="None" {...form.getInputProps(`bearings.${i}.lubricationPointLabel`)} />
+            </SimpleGrid>
+            <SimpleGrid cols={{ base: 2, sm: 4 }}>
               <Num form={form} path={`bearings.${i}.journalDiameterIn`} label="Journal diameter (in)" required />
               <Num form={form} path={`bearings.${i}.journalLengthIn`} label="Journal length (in)" required />
               <Num form={form} path={`bearings.${i}.loadSharePercent`} label="Share of load (%)" required />
               <Num form={form} path={`bearings.${i}.radialClearanceIn`} label="Radial clearance (in)" />
             </SimpleGrid>
-            <Select
-              label="Fed by"
-              w={220}
-              data={lubOptions}
-              clearable
-              placeholder="None"
-              {...form.getInputProps(`bearings.${i}.lubricationPointLabel`)}
-            />
-            <RemoveButton label={`Remove bearing ${b.label || i + 1}`} onClick={() => form.removeListItem('bearings', i)} />
-          </Group>
-        </Paper>
+          </Stack>
+        </Row>
       ))}
     </Section>
   );
@@ -318,9 +351,7 @@ function PointsSection({ form }: { form: Form }) {
       subtitle="Each point is read in a round or sent by a logger under its code. Limits are in the point's own unit; rates and rises are differences in that unit."
       action={<AddButton onClick={() => form.insertListItem('measurementPoints', emptyPoint(nextSequence))}>Add measurement point</AddButton>}
     >
-      <Caution title="Pressure limits">
-        {PRESSURE_LIMITS_CAUTION} {SAFETY_NOTE}
-      </Caution>
+      <Caution title="Limits">{LIMITS_CAUTION}</Caution>
       {rows.length === 0 && <Text c="dimmed">No measurement points yet.</Text>}
       {rows.map((p, i) => {
         const u = UNIT_LABELS[p.unit] ?? p.unit;
@@ -347,32 +378,45 @@ function PointsSection({ form }: { form: Form }) {
             </Paper>
           );
         return (
-          <Paper key={p.key} withBorder p="sm" radius="sm">
+          <Row
+            key={p.key}
+            title={[p.code, p.label].filter(Boolean).join(' — ') || 'New measurement point'}
+            removeLabel={`Remove measurement point ${p.code || i + 1}`}
+            onRemove={() => (p.id ? form.setFieldValue(`${base}.retire`, true) : form.removeListItem('measurementPoints', i))}
+          >
             <Stack gap="sm">
-              <Group align="flex-end" gap="sm" wrap="wrap">
-                <NumberInput label="Order" w={90} hideControls inputMode="numeric" allowDecimal={false} required {...form.getInputProps(`${base}.sequence`)} />
-                <TextInput label="Code" w={130} required styles={{ input: { fontFamily: 'monospace' } }} {...form.getInputProps(`${base}.code`)} />
-                <TextInput label="Point" required style={{ flex: 1, minWidth: 200 }} {...form.getInputProps(`${base}.label`)} />
-                <Select label="Kind" w={250} data={kindOptions} allowDeselect={false} {...form.getInputProps(`${base}.kind`)} />
-                <Select label="Unit" w={130} data={unitOptions} allowDeselect={false} {...form.getInputProps(`${base}.unit`)} />
-                <Select label="On" w={200} data={attachOptions} clearable placeholder="Engine as a whole" {...form.getInputProps(`${base}.attachedTo`)} />
-                <RemoveButton
-                  label={`Remove measurement point ${p.code || i + 1}`}
-                  onClick={() => (p.id ? form.setFieldValue(`${base}.retire`, true) : form.removeListItem('measurementPoints', i))}
-                />
-              </Group>
-              <SimpleGrid cols={{ base: 2, sm: 4, lg: 8 }}>
+              <Grid gap="sm">
+                <Grid.Col span={{ base: 4, sm: 2, lg: 1 }}>
+                  <NumberInput label="Order" hideControls inputMode="numeric" allowDecimal={false} required {...form.getInputProps(`${base}.sequence`)} />
+                </Grid.Col>
+                <Grid.Col span={{ base: 8, sm: 4, lg: 2 }}>
+                  <TextInput label="Code" required styles={{ input: { fontFamily: 'monospace' } }} {...form.getInputProps(`${base}.code`)} />
+                </Grid.Col>
+                <Grid.Col span={{ base: 12, sm: 6, lg: 3 }}>
+                  <TextInput label="Point" required {...form.getInputProps(`${base}.label`)} />
+                </Grid.Col>
+                <Grid.Col span={{ base: 12, sm: 5, lg: 2 }}>
+                  <Select label="Kind" data={kindOptions} allowDeselect={false} {...form.getInputProps(`${base}.kind`)} />
+                </Grid.Col>
+                <Grid.Col span={{ base: 4, sm: 2, lg: 2 }}>
+                  <Select label="Unit" data={unitOptions} allowDeselect={false} {...form.getInputProps(`${base}.unit`)} />
+                </Grid.Col>
+                <Grid.Col span={{ base: 8, sm: 5, lg: 2 }}>
+                  <Select label="On" data={attachOptions} clearable placeholder="Whole engine" {...form.getInputProps(`${base}.attachedTo`)} />
+                </Grid.Col>
+              </Grid>
+              <SimpleGrid cols={{ base: 2, sm: 4 }}>
                 <Num form={form} path={`${base}.normalLow`} label={`Normal low (${u})`} />
                 <Num form={form} path={`${base}.normalHigh`} label={`Normal high (${u})`} />
-                <Num form={form} path={`${base}.lowLimit`} label={`Low (${u})`} />
-                <Num form={form} path={`${base}.highLimit`} label={`High (${u})`} />
-                <Num form={form} path={`${base}.highHighLimit`} label={`High-high (${u})`} />
-                <Num form={form} path={`${base}.maxRiseRatePerMin`} label={`Rise per min (${u}/min)`} />
-                <Num form={form} path={`${base}.maxRiseAboveAmbient`} label={`Above ambient (${u})`} />
+                <Num form={form} path={`${base}.lowLimit`} label={`Low limit (${u})`} />
+                <Num form={form} path={`${base}.highLimit`} label={`High limit (${u})`} />
+                <Num form={form} path={`${base}.highHighLimit`} label={`High-high limit (${u})`} />
+                <Num form={form} path={`${base}.maxRiseRatePerMin`} label={`Rise per minute (${u}/min)`} />
+                <Num form={form} path={`${base}.maxRiseAboveAmbient`} label={`Rise above ambient (${u})`} />
                 <Num form={form} path={`${base}.deadband`} label={`Deadband (${u})`} />
               </SimpleGrid>
             </Stack>
-          </Paper>
+          </Row>
         );
       })}
     </Section>

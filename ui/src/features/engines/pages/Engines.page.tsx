@@ -29,7 +29,9 @@ export default function EnginesPage() {
               {c.getValue()}
             </Anchor>
             <Text fz="sm" c="dimmed">
-              {ENGINE_TYPE_LABELS[c.row.original.type]}, {c.row.original.builder} {c.row.original.yearBuilt}
+              {[ENGINE_TYPE_LABELS[c.row.original.type], c.row.original.yearBuilt && `built ${c.row.original.yearBuilt}`, c.row.original.builder]
+                .filter(Boolean)
+                .join(' · ')}
             </Text>
           </Stack>
         ),

@@ -62,7 +62,8 @@ describe('RunHeader transition buttons', () => {
 
   const cases: [RunState, Role, string[]][] = [
     ['planned', 'operator', ['Prepare', 'Abandon']],
-    ['preparing', 'operator', ['Clear to start', 'Abandon']],
+    ['preparing', 'operator', ['Abandon']],
+    ['preparing', 'chief_engineer', ['Clear to start', 'Abandon']],
     ['cleared', 'chief_engineer', ['Start engine', 'Return to preparing', 'Abandon']],
     ['running', 'operator', ['Stop engine']],
     ['stopped', 'chief_engineer', ['Close and countersign']],
@@ -93,7 +94,7 @@ describe('RunHeader transition buttons', () => {
     expect(confirm).toBeDisabled();
     fireEvent.change(screen.getByLabelText(/Reason for abandoning/), { target: { value: 'Boiler inspection not passed' } });
     expect(confirm).toBeEnabled();
-  });
+  }, 20_000);
 
   it('asks the chief engineer for a password or PIN to close, and sends it as the signature', async () => {
     signIn('chief_engineer');
@@ -110,7 +111,7 @@ describe('RunHeader transition buttons', () => {
     const [url, init] = fetchSpy.mock.calls[0]!;
     expect(String(url)).toBe('/api/runs/run-1/transitions');
     expect(JSON.parse(String(init?.body))).toEqual({ to: 'closed', signature: '4821' });
-  });
+  }, 20_000);
 
   it('shows the start gate’s reasons when the server refuses a start (409)', async () => {
     signIn('operator');
@@ -142,5 +143,5 @@ describe('RunHeader transition buttons', () => {
     expect(alert).toHaveTextContent('The pre-start checklist is not complete.');
     expect(alert).toHaveTextContent('Pre-start checks v3');
     expect(alert).toHaveTextContent('The pre-lube sign-off is no longer fresh.');
-  });
+  }, 20_000);
 });

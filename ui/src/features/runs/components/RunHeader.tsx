@@ -8,7 +8,7 @@ import { errorText } from '../../../api/http';
 import { useSession } from '../../auth/useSession';
 import { formatNumber } from '../../units/units';
 import { startGateQuery, startRefusal, useTransitionRun } from '../api/runs.api';
-import { allowedTransitions, formatDuration, transitionLabel, TRANSITION_ROLES, type TransitionTarget } from '../model/transitions';
+import { allowedTransitions, formatDuration, formatPlannedFor, transitionLabel, TRANSITION_ROLES, type TransitionTarget } from '../model/transitions';
 import { OpenAlarmsBadge, RunStateBadge } from './RunStateBadge';
 
 const when = (iso: string | null) =>
@@ -83,10 +83,12 @@ export interface RunHeaderProps {
   run: RunDetail;
   /** Called with the run as the server returns it after a transition. */
   onTransitioned?: (run: RunDetail) => void;
+  /** Draw every transition as a secondary button, when the page already has its own primary action. */
+  quietActions?: boolean;
 }
 
 /** A run's title, engine, state, running time and revolutions, and the state changes this person may make now. */
-export function RunHeader({ run, onTransitioned }: RunHeaderProps) {
+export function RunHeader({ run, onTransitioned, quietActions = false }: RunHeaderProps) {
   const session = useSession();
   const role = session?.user.role;
   const targets = allowedTransitions(run.state, role);
@@ -122,7 +124,7 @@ export function RunHeader({ run, onTransitioned }: RunHeaderProps) {
               </Anchor>
               {' · '}
               {RUN_PURPOSE_LABELS[run.purpose]}
-              {run.plannedFor && ` · planned for ${when(run.plannedFor)}`}
+              {run.plannedFor && ` · planned for ${formatPlannedFor(run.plannedFor)}`}
               {run.crew.length > 0 && ` · crew: ${run.crew.map((c) => c.displayName).join(', ')}`}
             </Text>
           </Stack>
@@ -132,7 +134,7 @@ export function RunHeader({ run, onTransitioned }: RunHeaderProps) {
                 <Button
                   key={t}
                   size="lg"
-                  variant={i === 0 && t !== 'abandoned' ? 'filled' : t === 'abandoned' ? 'subtle' : 'default'}
+                  variant={i === 0 && t !== 'abandoned' && !quietActions ? 'filled' : t === 'abandoned' ? 'subtle' : 'default'}
                   color={t === 'abandoned' ? 'signal' : undefined}
                   onClick={() => setPending(t)}
                 >

@@ -5,7 +5,7 @@ import type { RunState, RunSummary } from '@crankjournal/shared-types';
 import { errorText } from '../../../api/http';
 import { useHasRole } from '../../auth/useSession';
 import { runsListQuery } from '../api/runs.api';
-import { FINISHED_STATES, formatDuration } from '../model/transitions';
+import { FINISHED_STATES, formatDuration, formatPlannedFor } from '../model/transitions';
 import { OpenAlarmsBadge, RunStateBadge } from './RunStateBadge';
 
 /** Runs under way come first, then those being prepared, then the planned ones by date. */
@@ -25,8 +25,7 @@ export function currentAndNextRuns(runs: RunSummary[], limit = 3): RunSummary[] 
 
 const when = (r: RunSummary) => {
   if (r.state === 'running' || r.state === 'stopped') return `Running time ${formatDuration(r.runningSeconds)}`;
-  if (!r.plannedFor) return 'Date not fixed';
-  return `Planned for ${new Date(r.plannedFor).toLocaleString(undefined, { weekday: 'long', day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit' })}`;
+  return r.plannedFor ? `Planned for ${formatPlannedFor(r.plannedFor, { long: true })}` : 'Date not fixed';
 };
 
 /** The Today panel: the run under way or coming next, with a button to open it. */

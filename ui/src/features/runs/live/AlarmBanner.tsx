@@ -1,7 +1,6 @@
 import { Box, Button, Group, Stack, Text } from '@mantine/core';
-import dayjs from 'dayjs';
 import { ALARM_KIND_WORDS, type AlarmDto } from '@crankjournal/shared-types';
-import { alarmLook, isUnacknowledged } from './alarm-look';
+import { alarmLook, alarmTime, isUnacknowledged } from './alarm-look';
 
 /** Most urgent first: high-high before high, active before returned, newest first. */
 export function bannerOrder(a: AlarmDto, b: AlarmDto): number {
@@ -50,7 +49,7 @@ export function AlarmBanner({
               justify="space-between"
               wrap="nowrap"
               px="md"
-              py="sm"
+              py={8}
               gap="md"
               style={{
                 background: filled ? `var(--mantine-color-${look.color}-${a.priority === 'high_high' ? 7 : 5})` : 'var(--mantine-color-body)',
@@ -62,24 +61,24 @@ export function AlarmBanner({
               data-state={a.state}
             >
               <Group gap="sm" wrap="nowrap" style={{ minWidth: 0 }}>
-                <look.Icon size={34} stroke={2} aria-hidden />
+                <look.Icon size={30} stroke={2} aria-hidden />
                 <Stack gap={0} style={{ minWidth: 0 }}>
-                  <Text fw={800} fz="lg" c={fg} lh={1.2}>
+                  <Text fw={800} fz="md" c={fg} lh={1.2}>
                     {a.priority === 'high_high' ? 'HIGH-HIGH' : 'HIGH'} · {a.pointLabel} · {ALARM_KIND_WORDS[a.kind]}
                   </Text>
-                  <Text fz="sm" c={fg} lh={1.3} style={{ overflowWrap: 'anywhere' }}>
+                  <Text fz="sm" c={fg} lh={1.25} lineClamp={2} style={{ overflowWrap: 'anywhere' }}>
                     {a.message}
                   </Text>
-                  <Text fz="xs" c={fg} fw={600}>
-                    {look.word} · raised {dayjs(a.raisedAt).format('HH:mm:ss')}
-                    {a.returnedAt ? ` · returned ${dayjs(a.returnedAt).format('HH:mm:ss')}` : ''}
+                  <Text fz="xs" c={fg} fw={700} lh={1.3}>
+                    {look.word} · raised {alarmTime(a.raisedAt)}
+                    {a.returnedAt ? ` · returned ${alarmTime(a.returnedAt)}` : ''}
                   </Text>
                 </Stack>
               </Group>
               {canAcknowledge && (
                 <Button
                   size="lg"
-                  h={52}
+                  h={48}
                   variant={filled ? 'white' : 'filled'}
                   color={filled ? 'dark' : 'amber'}
                   c={filled ? 'black' : 'black'}

@@ -4,7 +4,7 @@ import { IconBellCheck, IconClockPause, IconClockPlay } from '@tabler/icons-reac
 import dayjs from 'dayjs';
 import { ALARM_KIND_WORDS, type AlarmDto } from '@crankjournal/shared-types';
 import { useUnits } from '../../units/useUnits';
-import { AlarmStateBadge, isUnacknowledged } from './alarm-look';
+import { AlarmStateBadge, alarmTime, isUnacknowledged } from './alarm-look';
 
 export const MAX_SHELVE_MINUTES = 24 * 60;
 const STATE_ORDER = ['active_unacknowledged', 'returned_unacknowledged', 'active_acknowledged', 'shelved', 'normal'];
@@ -13,10 +13,13 @@ export function alarmListOrder(a: AlarmDto, b: AlarmDto) {
   return STATE_ORDER.indexOf(a.state) - STATE_ORDER.indexOf(b.state) || b.raisedAt.localeCompare(a.raisedAt);
 }
 
-const t = (iso: string | null) => (iso ? dayjs(iso).format('HH:mm:ss') : '');
+const t = alarmTime;
 
 export interface AlarmActions {
-  canWrite: boolean;
+  /** May acknowledge (operators, chief engineer). */
+  canAcknowledge: boolean;
+  /** May shelve and unshelve (as above, and the run is not finished). */
+  canShelve: boolean;
   busy: string | null;
   onAcknowledge: (a: AlarmDto) => void;
   onShelve: (a: AlarmDto) => void;
@@ -68,14 +71,14 @@ function AlarmRow({ alarm: a, actions }: { alarm: AlarmDto; actions: AlarmAction
             </Text>
           )}
         </Stack>
-        {actions.canWrite && !cleared && (
+        {(actions.canAcknowledge || actions.canShelve) && !cleared && (
           <Group gap="xs" wrap="wrap">
-            {isUnacknowledged(a.state) && (
+            {actions.canAcknowledge && isUnacknowledged(a.state) && (
               <Button size="md" h={48} leftSection={<IconBellCheck size={18} />} loading={actions.busy === a.id} onClick={() => actions.onAcknowledge(a)}>
                 Acknowledge
               </Button>
             )}
-            {shelved ? (
+            {!actions.canShelve ? null : shelved ? (
               <Button size="md" h={48} variant="default" leftSection={<IconClockPlay size={18} />} loading={actions.busy === a.id} onClick={() => actions.onUnshelve(a)}>
                 Unshelve
               </Button>

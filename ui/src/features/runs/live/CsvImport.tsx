@@ -110,7 +110,7 @@ function Report({ result }: { result: IngestResult }) {
               </Table.Tr>
             </Table.Thead>
             <Table.Tbody>
-              {result.rejected.map((r, i) => (
+              {[...result.rejected].sort((a, b) => (a.line ?? a.index ?? 0) - (b.line ?? b.index ?? 0)).map((r, i) => (
                 <Table.Tr key={i}>
                   <Table.Td className="cj-num">{r.line ?? (r.index !== undefined ? r.index + 1 : '—')}</Table.Td>
                   <Table.Td>{r.column ?? r.field ?? '—'}</Table.Td>

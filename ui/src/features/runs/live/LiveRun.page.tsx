@@ -1,10 +1,13 @@
+import { RunChecklistsLink } from '../../checklists/components/RunChecklistsLink';
+import { PreLubeCountdown } from '../../checklists/components/PreLubeCountdown';
+import { CardSetsPanel } from '../../indicator-cards';
 import '@mantine/charts/styles.css';
-import { useCallback, useMemo, useState } from 'react';
+import { useCallback, useEffect, useMemo, useState } from 'react';
 import { Link, useSearchParams, useParams } from 'react-router-dom';
 import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { Alert, Badge, Button, Center, Group, Loader, Stack, Tabs, Text } from '@mantine/core';
 import { notifications } from '@mantine/notifications';
-import { IconClipboardList, IconFileTypeCsv, IconFileTypePdf, IconPlugConnectedX } from '@tabler/icons-react';
+import { IconClipboardList, IconCloudOff, IconFileTypeCsv, IconFileTypePdf, IconPlugConnectedX } from '@tabler/icons-react';
 import { RUN_STATES_TAKING_READINGS, type AlarmDto, type IngestResult, type ReadingDto } from '@crankjournal/shared-types';
 import { errorText } from '../../../api/http';
 import { useHasRole } from '../../auth/useSession';
@@ -17,14 +20,14 @@ import { isUnacknowledged } from './alarm-look';
 import { Board } from './Board';
 import { BottomBar } from './BottomBar';
 import { CsvImport } from './CsvImport';
-import { useAlarmAction, useAmendReading } from './live-actions.api';
-import { QueueStatus } from './QueueStatus';
+import { mergeAlarms, openEngineAlarmsQuery, useAlarmAction, useAmendReading } from './live-actions.api';
+import { QueueStatus, waitingText } from './QueueStatus';
 import { AmendModal, ReadingsTable } from './ReadingsTable';
 import { TrendCharts } from './TrendCharts';
 import { useLiveRun } from './useLiveRun';
 import { useOfflineQueue } from './useOfflineQueue';
 
-const TABS = ['board', 'alarms', 'readings', 'import'] as const;
+const TABS = ['board', 'alarms', 'readings', 'cards', 'import'] as const;
 type Tab = (typeof TABS)[number];
 
 /** A run while it happens (and afterwards, as a record): /runs/:id. */
@@ -40,7 +43,9 @@ export default function LiveRunPage() {
   const board = useQuery(runBoardQuery(id));
   const readings = useQuery(runReadingsQuery(id));
   const alarms = useQuery(runAlarmsQuery(id));
-  const { connected } = useLiveRun(id);
+  const finishedRun = run.data?.state === 'closed' || run.data?.state === 'abandoned';
+  const engineAlarms = useQuery({ ...openEngineAlarmsQuery(engineId ?? ''), enabled: !!engineId && !finishedRun });
+  const { connected } = useLiveRun(id, engineId);
   const onSent = useCallback((runId: string, _r: IngestResult) => void qc.invalidateQueries({ queryKey: runKeys.run(runId) }), [qc]);
   const q = useOfflineQueue(id, { onSent });
 
@@ -49,6 +54,12 @@ export default function LiveRunPage() {
   const [shelving, setShelving] = useState<AlarmDto | null>(null);
   const [amending, setAmending] = useState<ReadingDto | null>(null);
   const [downloading, setDownloading] = useState<'csv' | 'pdf' | null>(null);
+
+  // Load the round screen's code now, so "Record round" opens even if the server goes away meanwhile.
+  useEffect(() => {
+    void import('./RoundEntry.page');
+    window.scrollTo(0, 0);
+  }, []);
 
   const tabParam = params.get('tab') as Tab | null;
   const tab: Tab = tabParam && TABS.includes(tabParam) ? tabParam : 'board';
@@ -64,7 +75,11 @@ export default function LiveRunPage() {
     );
 
   const points = useMemo(() => engine.data?.measurementPoints ?? [], [engine.data]);
-  const alarmList = alarms.data ?? [];
+  // While the run is live, alarms still open on the engine from an earlier run belong on this screen too.
+  const alarmList = useMemo(
+    () => (finishedRun ? alarms.data ?? [] : mergeAlarms(alarms.data, engineAlarms.data?.filter((a) => a.runId === id || a.state !== 'normal'))),
+    [finishedRun, alarms.data, engineAlarms.data, id],
+  );
   const waiting = alarmList.filter((a) => isUnacknowledged(a.state)).length;
   const open = alarmList.filter((a) => a.state !== 'normal').length;
 
@@ -74,7 +89,8 @@ export default function LiveRunPage() {
         <Loader />
       </Center>
     );
-  if (run.error || !run.data) return <Alert color="signal" title="Cannot open this run">{errorText(run.error)}</Alert>;
+  // A failed refetch keeps the data already shown; only a screen with nothing to show says so.
+  if (!run.data) return <Alert color="signal" title="Cannot open this run">{errorText(run.error)}</Alert>;
 
   const r = run.data;
   const finished = r.state === 'closed' || r.state === 'abandoned';
@@ -103,8 +119,12 @@ export default function LiveRunPage() {
 
   return (
     <>
-      <AlarmBanner alarms={alarmList} canAcknowledge={canWrite} onAcknowledge={ack} acknowledging={busyAlarm} />
+      <AlarmBanner alarms={alarmList} canAcknowledge={canWrite} onAcknowledge={ack} acknowledging={busyAlarm} max={2} />
       <RunHeader run={r} />
+      <Group gap="sm" wrap="wrap">
+        <RunChecklistsLink runId={id} />
+        {(r.state === 'preparing' || r.state === 'cleared') && <PreLubeCountdown runId={id} />}
+      </Group>
       {!connected && !finished && (
         <Alert color="amber" variant="outline" icon={<IconPlugConnectedX />} mb="md" role="status" title="Live updates not connected">
           Reconnecting… Values on this screen may be out of date; they are refreshed as soon as the connection is back.
@@ -138,6 +158,9 @@ export default function LiveRunPage() {
           <Tabs.Tab value="readings" fz="md" h={52}>
             Readings
           </Tabs.Tab>
+          <Tabs.Tab value="cards" fz="md" h={52}>
+            Indicator cards
+          </Tabs.Tab>
           {mayWrite && takingReadings && (
             <Tabs.Tab value="import" fz="md" h={52}>
               Import logger file
@@ -150,16 +173,16 @@ export default function LiveRunPage() {
             <Center h={200}>
               <Loader />
             </Center>
-          ) : engine.error || board.error ? (
+          ) : !engine.data || !board.data ? (
             <Alert color="signal">{errorText(engine.error ?? board.error)}</Alert>
           ) : (
             <Stack gap="xl">
               <Board points={points} board={board.data ?? []} />
               {engine.data &&
-                (readings.error ? (
-                  <Alert color="signal">{errorText(readings.error)}</Alert>
-                ) : readings.isLoading ? (
+                (readings.isLoading ? (
                   <Loader />
+                ) : !readings.data ? (
+                  <Alert color="signal">{errorText(readings.error)}</Alert>
                 ) : (
                   <TrendCharts points={points} readings={readings.data ?? []} alarms={alarmList} engine={engine.data} />
                 ))}
@@ -170,17 +193,17 @@ export default function LiveRunPage() {
         <Tabs.Panel value="alarms">
           {alarms.isLoading ? (
             <Loader />
-          ) : alarms.error ? (
+          ) : !alarms.data ? (
             <Alert color="signal">{errorText(alarms.error)}</Alert>
           ) : (
-            <AlarmList alarms={alarmList} actions={{ canWrite: mayWrite, busy: busyAlarm, onAcknowledge: ack, onShelve: setShelving, onUnshelve: unshelve }} />
+            <AlarmList alarms={alarmList} actions={{ canAcknowledge: canWrite, canShelve: mayWrite, busy: busyAlarm, onAcknowledge: ack, onShelve: setShelving, onUnshelve: unshelve }} />
           )}
         </Tabs.Panel>
 
         <Tabs.Panel value="readings">
           {readings.isLoading ? (
             <Loader />
-          ) : readings.error ? (
+          ) : !readings.data ? (
             <Alert color="signal">{errorText(readings.error)}</Alert>
           ) : (
             <>
@@ -192,6 +215,10 @@ export default function LiveRunPage() {
               <ReadingsTable readings={readings.data ?? []} points={points} canAmend={mayWrite} onAmend={setAmending} />
             </>
           )}
+        </Tabs.Panel>
+
+        <Tabs.Panel value="cards">
+          <CardSetsPanel runId={id} />
         </Tabs.Panel>
 
         {mayWrite && takingReadings && (
@@ -232,6 +259,11 @@ export default function LiveRunPage() {
             Log sheet PDF
           </Button>
         </Group>
+        {q.pending.length > 0 && (
+          <Badge size="xl" color="amber" variant="light" leftSection={<IconCloudOff size={18} />} style={{ textTransform: 'none', flexShrink: 0 }} role="status">
+            {waitingText(q.pending.length)}
+          </Badge>
+        )}
         {mayWrite && takingReadings ? (
           <Button component={Link} to={`/runs/${id}/round`} size="xl" h={60} leftSection={<IconClipboardList />}>
             Record round

@@ -19,7 +19,7 @@ export function QueueStatus({ pending, failed, sending, queue }: { pending: Queu
         <Alert
           role="status"
           aria-live="polite"
-          variant="outline"
+          variant="light"
           color="amber"
           icon={sending ? <IconCloudUpload /> : <IconCloudOff />}
           title={<Text fw={700} fz="lg">{waitingText(pending.length)}</Text>}

@@ -10,9 +10,20 @@ import { parseEntered, unitLabel } from './round-check';
 const SOURCE_WORDS: Record<ReadingDto['source'], string> = { round: 'Round', logger: 'Logger', import: 'CSV import', live: 'Live entry' };
 const PAGE = 60;
 
+/** Decimals a recorded number was written with (at most 4), so the record shows exactly what was logged. */
+export function recordedDecimals(v: number): number {
+  const m = /\.(\d+)$/.exec(String(v));
+  return Math.min(4, m ? m[1].length : 0);
+}
+
 /** A value as recorded: after an amendment the original stays, struck through, with who, when and why. */
 export function RecordedValue({ reading }: { reading: ReadingDto }) {
-  const { display } = useUnits();
+  const units = useUnits();
+  // In the unit it was logged in, a number is shown to the decimals it was logged with (a record is not rounded).
+  const display = (v: number, unit: string) => {
+    const d = units.display(v, unit);
+    return d.converted ? d : units.display(v, unit, { decimals: Math.max(recordedDecimals(v), 0) });
+  };
   const now = display(reading.value, reading.unit);
   const amended = reading.amendments.length > 0 || reading.originalValue !== null;
   return (

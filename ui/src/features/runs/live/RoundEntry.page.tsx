@@ -1,4 +1,4 @@
-import { useCallback, useMemo } from 'react';
+import { useCallback, useEffect, useMemo } from 'react';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { Alert, Button, Center, Loader, Text } from '@mantine/core';
@@ -29,6 +29,12 @@ export default function RoundEntryPage() {
   const onSent = useCallback((runId: string, _r: IngestResult) => void qc.invalidateQueries({ queryKey: runKeys.run(runId) }), [qc]);
   const q = useOfflineQueue(id, { onSent });
 
+  // Load the live page's code now: after "Save round" it must open even when the server cannot be reached.
+  useEffect(() => {
+    void import('./LiveRun.page');
+    window.scrollTo(0, 0);
+  }, []);
+
   const previous = useMemo(() => {
     const m: Record<string, PreviousValue> = {};
     for (const b of board.data ?? []) m[b.pointId] = { value: b.value, takenAt: b.takenAt };
@@ -41,8 +47,7 @@ export default function RoundEntryPage() {
         <Loader />
       </Center>
     );
-  if (run.error || engine.error) return <Alert color="signal" title="Cannot open the round">{errorText(run.error ?? engine.error)}</Alert>;
-  if (!run.data || !engine.data) return null;
+  if (!run.data || !engine.data) return <Alert color="signal" title="Cannot open the round">{errorText(run.error ?? engine.error)}</Alert>;
 
   const back = (
     <Button component={Link} to={`/runs/${id}`} variant="default" size="lg" h={56} leftSection={<IconArrowLeft />}>
@@ -62,7 +67,7 @@ export default function RoundEntryPage() {
     } else {
       notifications.show({
         title: 'No connection — round kept on this tablet',
-        message: `${waitingText(q.pending.length)}. It goes as soon as the server answers.`,
+        message: `${waitingText(q.queue.pending(id).length)}. It goes as soon as the server answers.`,
         color: 'amber',
         icon: <IconCloudOff size={18} />,
         autoClose: 10_000,

@@ -1,5 +1,5 @@
-import { useMemo } from 'react';
-import { Paper, SimpleGrid, Text, Title } from '@mantine/core';
+import { useMemo, useState } from 'react';
+import { Group, Paper, Select, SimpleGrid, Text, Title } from '@mantine/core';
 import { LineChart, type ChartReferenceLineProps } from '@mantine/charts';
 import type { AlarmDto, EngineDetail, MeasurementKind, ReadingDto } from '@crankjournal/shared-types';
 import { useUnits } from '../../units/useUnits';
@@ -50,25 +50,59 @@ function TrendChart({ spec, points, readings, alarms, engine }: { spec: ChartSpe
   );
   const unitLabel = display(0, unit).unitLabel;
 
-  const refLines: ChartReferenceLineProps[] = [];
-  const seen = new Set<string>();
+  // Limits of one point at a time (several bearings' limits at once are unreadable): by default the point nearest its high limit.
+  const withLimits = mine.filter((p) => p.highLimit != null || p.highHighLimit != null);
+  const nearest = useMemo(() => {
+    let best: EnginePoint | null = null;
+    let bestRatio = -Infinity;
+    for (const p of withLimits) {
+      const limit = p.highLimit ?? p.highHighLimit!;
+      const last = [...readings].reverse().find((r) => r.pointId === p.id);
+      const ratio = last && limit ? last.value / limit : 0;
+      if (ratio > bestRatio) {
+        best = p;
+        bestRatio = ratio;
+      }
+    }
+    return best;
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [readings, withLimits.map((p) => p.id).join()]);
+  const [chosen, setChosen] = useState<string | null>(null);
+  const focus = withLimits.find((p) => p.id === chosen) ?? nearest;
+
+  const lines = new Map<number, { labels: string[]; color: string }>();
   const addLine = (y: number | null | undefined, label: string, color: string) => {
     if (y === null || y === undefined) return;
     const dy = display(y, unit).value!;
-    const key = `${label}:${dy}`;
-    if (seen.has(key)) return;
-    seen.add(key);
-    refLines.push({ y: dy, label: `${label} ${display(y, unit).text}`, color, strokeDasharray: '6 4', labelPosition: 'insideTopRight', ifOverflow: 'extendDomain' } as ChartReferenceLineProps);
+    const l = lines.get(dy);
+    if (l) {
+      l.labels.push(label);
+      if (color.startsWith('signal')) l.color = color;
+    } else lines.set(dy, { labels: [label], color });
   };
-  for (const p of mine) {
-    addLine(p.highHighLimit, 'High-high', 'signal.6');
-    addLine(p.highLimit, 'High', 'amber.6');
+  if (focus) {
+    addLine(focus.highHighLimit, 'High-high', 'signal.6');
+    addLine(focus.highLimit, 'High', 'amber.6');
   }
   if (spec.key === 'pressures' && unit === 'psig') addLine(engine.mawpPsig, 'MAWP', 'signal.6');
   if (spec.key === 'speed' && unit === 'rpm') {
     addLine(engine.overspeedRpm, 'Overspeed', 'signal.6');
     addLine(engine.ratedSpeedRpm, 'Rated', 'gray.5');
   }
+  const refLines: ChartReferenceLineProps[] = [...lines.entries()]
+    .sort((a, b) => b[0] - a[0])
+    .map(
+      ([y, l], i) =>
+        ({
+          y,
+          label: `${l.labels.join(' · ')} ${Number(y.toFixed(2))}`,
+          color: l.color,
+          strokeDasharray: '6 4',
+          // Alternate sides so labels of close lines do not sit on each other.
+          labelPosition: i % 2 === 0 ? 'insideTopRight' : 'insideBottomLeft',
+          ifOverflow: 'extendDomain',
+        }) as ChartReferenceLineProps,
+    );
 
   // Alarms as marks on the time axis.
   const alarmLines: ChartReferenceLineProps[] = alarms
@@ -78,9 +112,22 @@ function TrendChart({ spec, points, readings, alarms, engine }: { spec: ChartSpe
   const times = data.map((d) => d.t as number);
   return (
     <Paper withBorder p="md" radius="md">
-      <Title order={3} fz="md" mb="xs">
-        {spec.title} <Text span c="dimmed" fz="sm">({unitLabel})</Text>
-      </Title>
+      <Group justify="space-between" mb="xs" wrap="wrap" gap="xs">
+        <Title order={3} fz="md">
+          {spec.title} <Text span c="dimmed" fz="sm">({unitLabel})</Text>
+        </Title>
+        {withLimits.length > 1 && focus && (
+          <Select
+            aria-label={`Limits drawn on ${spec.title}`}
+            w={210}
+            styles={{ input: { minHeight: 48 } }}
+            allowDeselect={false}
+            data={withLimits.map((p) => ({ value: p.id, label: `Limits of ${p.code}` }))}
+            value={focus.id}
+            onChange={setChosen}
+          />
+        )}
+      </Group>
       {data.length < 2 ? (
         <Text c="dimmed" fz="sm" h={220}>
           Not enough readings yet to draw a trend.
@@ -107,7 +154,7 @@ function TrendChart({ spec, points, readings, alarms, engine }: { spec: ChartSpe
           }}
           yAxisProps={{ domain: ['auto', 'auto'], width: 56 }}
           tooltipProps={{ labelFormatter: (v: unknown) => localTimeSeconds(Number(v)) }}
-          valueFormatter={(v) => `${Number(v.toFixed(2))} ${unitLabel}`}
+          valueFormatter={(v) => String(Number(v.toFixed(2)))}
           gridAxis="xy"
         />
       )}

@@ -59,3 +59,14 @@ export function AlarmStateBadge({ state, priority, short = false, size = 'lg' }:
     </Badge>
   );
 }
+
+/** A time on the run's day as 14:05:09; an earlier day with its date. */
+export function alarmTime(iso: string | null): string {
+  if (!iso) return '';
+  const d = new Date(iso);
+  const today = new Date();
+  const sameDay = d.toDateString() === today.toDateString();
+  return sameDay
+    ? d.toLocaleTimeString(undefined, { hour: '2-digit', minute: '2-digit', second: '2-digit' })
+    : d.toLocaleString(undefined, { day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit' });
+}

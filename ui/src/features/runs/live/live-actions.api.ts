@@ -1,8 +1,13 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
 import type { AlarmDto, AmendReadingRequest, ReadingDto, ShelveAlarmRequest } from '@crankjournal/shared-types';
 import { api } from '../../../api/http';
 import { runKeys } from '../api/runs.api';
-import { replaceReading, upsertAlarm } from './useLiveRun';
+import { openAlarmKeys, replaceReading, upsertAlarm } from './live-cache';
+
+export { mergeAlarms, openAlarmKeys } from './live-cache';
+
+export const openEngineAlarmsQuery = (engineId: string) =>
+  queryOptions({ queryKey: openAlarmKeys.engine(engineId), queryFn: () => api<AlarmDto[]>(`/alarms?engineId=${encodeURIComponent(engineId)}&open=true`) });
 
 export const acknowledgeAlarm = (id: string) => api<AlarmDto>(`/alarms/${id}/acknowledge`, { method: 'POST' });
 export const shelveAlarm = (id: string, req: ShelveAlarmRequest) => api<AlarmDto>(`/alarms/${id}/shelve`, { body: req });
@@ -22,7 +27,8 @@ export function useAlarmAction(runId: string) {
           ? unshelveAlarm(a.alarm.id)
           : shelveAlarm(a.alarm.id, { reason: a.reason, minutes: a.minutes }),
     onSuccess: (alarm) => {
-      qc.setQueryData<AlarmDto[]>(runKeys.alarms(runId), (old) => upsertAlarm(old, alarm));
+      if (alarm.runId === runId) qc.setQueryData<AlarmDto[]>(runKeys.alarms(runId), (old) => upsertAlarm(old, alarm));
+      qc.setQueryData<AlarmDto[]>(openAlarmKeys.engine(alarm.engineId), (old) => upsertAlarm(old, alarm));
       qc.invalidateQueries({ queryKey: runKeys.board(runId) });
       qc.invalidateQueries({ queryKey: runKeys.detail(runId) });
     },

@@ -5,7 +5,7 @@ export type TransitionTarget = Exclude<RunState, 'planned'>;
 /** Who may move a run into each state. The server enforces the same rule; this only decides which buttons to show. */
 export const TRANSITION_ROLES: Record<TransitionTarget, readonly Role[]> = {
   preparing: ['operator', 'chief_engineer'],
-  cleared: ['operator', 'chief_engineer'],
+  cleared: ['chief_engineer'],
   running: ['operator', 'chief_engineer'],
   stopped: ['operator', 'chief_engineer'],
   // Closing is the countersignature: the chief engineer's alone.
@@ -53,4 +53,13 @@ export function formatDuration(seconds: number): string {
   const m = Math.floor((s % 3600) / 60);
   if (h === 0) return `${m} min`;
   return `${h} h ${String(m).padStart(2, '0')} min`;
+}
+
+/** A run's planned day: the server keeps a date ("2026-12-05"), shown as that local calendar day. */
+export function formatPlannedFor(value: string | null, opts: { long?: boolean } = {}): string {
+  if (!value) return 'Date not fixed';
+  const m = /^(\d{4})-(\d{2})-(\d{2})$/.exec(value);
+  const d = m ? new Date(Number(m[1]), Number(m[2]) - 1, Number(m[3])) : new Date(value);
+  if (Number.isNaN(d.getTime())) return value;
+  return d.toLocaleDateString(undefined, { weekday: opts.long ? 'long' : 'short', day: 'numeric', month: 'short', year: 'numeric' });
 }

@@ -1,32 +1,26 @@
 import { useEffect, useState } from 'react';
 import { useNavigate, useSearchParams } from 'react-router-dom';
 import { useQuery } from '@tanstack/react-query';
-import { Alert, Button, Card, Group, List, Loader, Select, Stack, Text, TextInput, Textarea } from '@mantine/core';
+import { Alert, Button, Card, Group, List, Loader, MultiSelect, Select, Stack, Text, TextInput, Textarea } from '@mantine/core';
 import { useForm } from '@mantine/form';
 import { notifications } from '@mantine/notifications';
-import { RUN_PURPOSES, RUN_PURPOSE_LABELS, type RunPurpose } from '@crankjournal/shared-types';
+import { ROLE_LABELS, RUN_PURPOSES, RUN_PURPOSE_LABELS, type CrewMemberSummary, type RunPurpose } from '@crankjournal/shared-types';
 import { PageHeader } from '../../../components/PageHeader';
-import { HttpError, errorText } from '../../../api/http';
+import { HttpError, api, errorText } from '../../../api/http';
 import { enginesListQuery } from '../../engines/api/engines.api';
 import { useCreateRun } from '../api/runs.api';
 
 const purposeOptions = RUN_PURPOSES.map((p) => ({ value: p, label: RUN_PURPOSE_LABELS[p] }));
 
-/** "2026-05-01T09:30" (a datetime-local value, local time) to ISO, or null. */
-export function localInputToIso(v: string): string | null {
-  if (!v) return null;
-  const d = new Date(v);
-  return Number.isNaN(d.getTime()) ? null : d.toISOString();
-}
-
 export default function NewRunPage() {
   const navigate = useNavigate();
   const [params] = useSearchParams();
   const engines = useQuery(enginesListQuery());
+  const crew = useQuery({ queryKey: ['users', 'crew'], queryFn: () => api<CrewMemberSummary[]>('/users/crew'), staleTime: 60_000 });
   const create = useCreateRun();
   const [serverErrors, setServerErrors] = useState<string[]>([]);
   const form = useForm({
-    initialValues: { engineId: params.get('engine') ?? '', purpose: 'demonstration' as RunPurpose, title: '', plannedFor: '', notes: '' },
+    initialValues: { engineId: params.get('engine') ?? '', purpose: 'demonstration' as RunPurpose, title: '', plannedFor: '', notes: '', crewIds: [] as string[] },
     validate: {
       engineId: (v) => (v ? null : 'Choose the engine'),
       title: (v) => (v.trim() ? null : 'Give the run a title, e.g. “Open day, afternoon”'),
@@ -50,7 +44,7 @@ export default function NewRunPage() {
           onSubmit={form.onSubmit((v) => {
             setServerErrors([]);
             create.mutate(
-              { engineId: v.engineId, purpose: v.purpose, title: v.title.trim(), plannedFor: localInputToIso(v.plannedFor), notes: v.notes.trim() || undefined },
+              { engineId: v.engineId, purpose: v.purpose, title: v.title.trim(), plannedFor: v.plannedFor || null, notes: v.notes.trim() || undefined, crewIds: v.crewIds },
               {
                 onSuccess: (run) => {
                   notifications.show({ title: 'Run planned', message: `${run.title} on ${run.engineName}.` });
@@ -80,7 +74,14 @@ export default function NewRunPage() {
             />
             <Select label="Purpose" required allowDeselect={false} data={purposeOptions} {...form.getInputProps('purpose')} />
             <TextInput label="Title" required placeholder="Open day, afternoon" {...form.getInputProps('title')} />
-            <TextInput label="Planned for" type="datetime-local" description="Your local time. Leave empty if the day is not fixed yet." {...form.getInputProps('plannedFor')} />
+            <TextInput label="Planned for" type="date" description="The day of the run. Leave empty if it is not fixed yet." {...form.getInputProps('plannedFor')} />
+            <MultiSelect
+              label="Crew"
+              description="Who works this run. Qualifications for each duty are checked when they sign and start."
+              searchable
+              data={(crew.data ?? []).filter((c) => c.role !== 'observer').map((c) => ({ value: c.id, label: `${c.displayName} (${ROLE_LABELS[c.role]})` }))}
+              {...form.getInputProps('crewIds')}
+            />
             <Textarea label="Notes" rows={3} {...form.getInputProps('notes')} />
             <Text fz="sm" c="dimmed">
               The run starts as planned. Preparing it opens the pre-start checklists; the engine can start only once they are signed.

@@ -12,16 +12,16 @@ import { formatNumber } from '../../units/units';
 import { enginesListQuery } from '../../engines/api/engines.api';
 import { runsListQuery } from '../api/runs.api';
 import { OpenAlarmsBadge, RunStateBadge } from '../components/RunStateBadge';
-import { FINISHED_STATES, formatDuration } from '../model/transitions';
+import { FINISHED_STATES, formatDuration, formatPlannedFor } from '../model/transitions';
 
 const col = columnHelper<RunSummary>();
 const stateOptions = RUN_STATES.map((s) => ({ value: s, label: RUN_STATE_LABELS[s] }));
 
-/** The date that best says when a run is or was: started, else planned, else none. */
+/** When a run is or was: its start, else its planned day. */
 export function runWhen(r: Pick<RunSummary, 'startedAt' | 'plannedFor'>): string {
-  const iso = r.startedAt ?? r.plannedFor;
-  if (!iso) return 'Not yet planned';
-  return new Date(iso).toLocaleString(undefined, { weekday: 'short', day: 'numeric', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit' });
+  if (r.startedAt)
+    return new Date(r.startedAt).toLocaleString(undefined, { weekday: 'short', day: 'numeric', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit' });
+  return formatPlannedFor(r.plannedFor);
 }
 
 export default function RunsPage() {

@@ -1,0 +1,98 @@
+import { Body, Controller, Delete, Get, HttpCode, Param, Post, Put, Query, Res, StreamableFile } from '@nestjs/common';
+import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
+import type { Response } from 'express';
+import type { ChecklistTemplateDetail, ChecklistTemplateSummary, ChecklistTemplateVersionDto } from '@crankjournal/shared-types';
+import { AnyRole, Roles } from '../../common/decorators/roles.decorator.js';
+import { CurrentUser, type AuthUser } from '../../common/decorators/current-user.decorator.js';
+import { IdParamDto } from '../../common/dto/id-param.dto.js';
+import { ChecklistTemplatesService } from './checklist-templates.service.js';
+import { ChecklistPdfService } from './checklist-pdf.service.js';
+import { ChecklistTemplateContentDto, CreateChecklistTemplateDto, PublishChecklistTemplateDto, TemplateQueryDto, TemplateVersionParamDto } from './dto/template.dto.js';
+
+/** Checklist templates: everyone reads and prints them; the chief engineer writes, publishes and retires them. */
+@ApiTags('checklists')
+@ApiBearerAuth()
+@Controller('checklist-templates')
+export class ChecklistTemplatesController {
+  constructor(
+    private readonly templates: ChecklistTemplatesService,
+    private readonly pdf: ChecklistPdfService,
+  ) {}
+
+  @Get()
+  @AnyRole()
+  list(@Query() q: TemplateQueryDto): Promise<ChecklistTemplateSummary[]> {
+    return this.templates.list(q);
+  }
+
+  @Post()
+  @Roles('chief_engineer')
+  create(@Body() dto: CreateChecklistTemplateDto, @CurrentUser() me: AuthUser): Promise<ChecklistTemplateDetail> {
+    return this.templates.create(dto, me);
+  }
+
+  @Get(':id')
+  @AnyRole()
+  detail(@Param() p: IdParamDto): Promise<ChecklistTemplateDetail> {
+    return this.templates.detail(p.id);
+  }
+
+  @Get(':id/versions/:version')
+  @AnyRole()
+  version(@Param() p: TemplateVersionParamDto): Promise<ChecklistTemplateVersionDto> {
+    return this.templates.version(p.id, p.version);
+  }
+
+  /** Saves the chief engineer's changes without publishing them. */
+  @Put(':id/draft')
+  @Roles('chief_engineer')
+  saveDraft(@Param() p: IdParamDto, @Body() dto: ChecklistTemplateContentDto, @CurrentUser() me: AuthUser): Promise<ChecklistTemplateDetail> {
+    return this.templates.saveDraft(p.id, dto, me);
+  }
+
+  @Delete(':id/draft')
+  @Roles('chief_engineer')
+  discardDraft(@Param() p: IdParamDto): Promise<ChecklistTemplateDetail> {
+    return this.templates.discardDraft(p.id);
+  }
+
+  /** The draft becomes the next version. */
+  @Post(':id/publish')
+  @HttpCode(200)
+  @Roles('chief_engineer')
+  publish(@Param() p: IdParamDto, @Body() dto: PublishChecklistTemplateDto, @CurrentUser() me: AuthUser): Promise<ChecklistTemplateDetail> {
+    return this.templates.publish(p.id, dto.changeNote ?? '', me);
+  }
+
+  @Post(':id/retire')
+  @HttpCode(200)
+  @Roles('chief_engineer')
+  retire(@Param() p: IdParamDto): Promise<ChecklistTemplateDetail> {
+    return this.templates.setRetired(p.id, true);
+  }
+
+  @Post(':id/reinstate')
+  @HttpCode(200)
+  @Roles('chief_engineer')
+  reinstate(@Param() p: IdParamDto): Promise<ChecklistTemplateDetail> {
+    return this.templates.setRetired(p.id, false);
+  }
+
+  /** The printable blank checklist of the current version (or the draft while nothing is published). */
+  @Get(':id/blank.pdf')
+  @AnyRole()
+  async blank(@Param() p: IdParamDto, @Res({ passthrough: true }) res: Response): Promise<StreamableFile> {
+    const { filename, stream } = await this.pdf.blank(p.id);
+    res.setHeader('content-disposition', `attachment; filename="${filename}"`);
+    return new StreamableFile(stream, { type: 'application/pdf' });
+  }
+
+  @Get(':id/versions/:version/blank.pdf')
+  @AnyRole()
+  async blankVersion(@Param() p: TemplateVersionParamDto, @Res({ passthrough: true }) res: Response): Promise<StreamableFile> {
+    await this.templates.versionRow(p.id, p.version);
+    const { filename, stream } = await this.pdf.blank(p.id, p.version);
+    res.setHeader('content-disposition', `attachment; filename="${filename}"`);
+    return new StreamableFile(stream, { type: 'application/pdf' });
+  }
+}

@@ -1,0 +1,688 @@
+import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
+import { InjectDataSource } from '@nestjs/typeorm';
+import { DataSource, In, type EntityManager } from 'typeorm';
+import {
+  CARD_RECORD_KINDS,
+  type AmendBrakeFigureRequest,
+  type AmendCardRequest,
+  type AmendCardSetRequest,
+  type BrakeFigureDto,
+  type BrakeFigureInput,
+  type CardDto,
+  type CardInput,
+  type CardSetCylinder,
+  type CardSetDto,
+  type CardSetPreviewDto,
+  type CreateCardSetRequest,
+  type FieldChange,
+  type FigureSource,
+  type MeasurementKind,
+  type RecordAmendmentDto,
+} from '@crankjournal/shared-types';
+import { CardSet } from './card-set.entity.js';
+import { IndicatorCard } from './indicator-card.entity.js';
+import { CardImage } from './card-image.entity.js';
+import { BrakeFigure } from './brake-figure.entity.js';
+import { CardRecordAmendment, type AmendedSubject } from './card-record-amendment.entity.js';
+import { BRAKE_FIELDS, BrakeFiguresService, brakeFigureFields } from './brake-figures.service.js';
+import { CYLINDER_END_WORDS, computeCardSetResults, evaluateCard, type EvaluatedCard, type ResultCard } from './card-set-results.js';
+import { RunsService } from '../runs/runs.service.js';
+import { ReadingsService } from '../runs/readings.service.js';
+import type { Run } from '../runs/run.entity.js';
+import { EnginesService } from '../engines/engines.service.js';
+import { LiveService } from '../live/live.service.js';
+import { User } from '../users/user.entity.js';
+import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
+import { CalculationInputError } from '../../calculations/indicated-power.js';
+import { KPA_PER_PSI, psiaToPsig } from '../../calculations/units.js';
+import { KPA_PER_INCH_OF_MERCURY } from '../../calculations/vacuum.js';
+
+/** Speed and pressures are taken from readings no further than this from the moment of the set. */
+export const NEAREST_READING_WINDOW_MS = 30 * 60_000;
+/** A set may be stamped at most this far ahead of the server's clock (a tablet's clock drift). */
+const MAX_FUTURE_MS = 5 * 60_000;
+
+/** The figures of a card that an amendment compares. */
+const CARD_FIELDS = [
+  'method',
+  'springPsiPerIn',
+  'lengthIn',
+  'areaSqIn',
+  'ordinatesIn',
+  'givenMeanEffectivePressurePsi',
+  'imageId',
+  'trace',
+  'cutOffPercent',
+  'compressionPercent',
+  'admissionPressurePsig',
+  'note',
+  'meanEffectivePressurePsi',
+] as const;
+const SET_FIELDS = ['takenAt', 'speedRpm', 'speedSource', 'cutOffPercent', 'throttlePressurePsig', 'receiverPressurePsig', 'vacuumInHg', 'notes'] as const;
+
+/** Turns a calculation's input error into a 400 that names the field. */
+function badRequest<T>(fn: () => T): T {
+  try {
+    return fn();
+  } catch (e) {
+    if (e instanceof CalculationInputError) throw new BadRequestException({ statusCode: 400, error: 'Bad Request', message: [e.message] });
+    throw e;
+  }
+}
+
+/** JSON with object keys in order (jsonb keeps its own key order, so plain JSON.stringify would see changes that are not). */
+function stableJson(v: unknown): string {
+  if (Array.isArray(v)) return `[${v.map(stableJson).join(',')}]`;
+  if (v && typeof v === 'object') {
+    const o = v as Record<string, unknown>;
+    return `{${Object.keys(o)
+      .filter((k) => o[k] !== undefined)
+      .sort()
+      .map((k) => `${JSON.stringify(k)}:${stableJson(o[k])}`)
+      .join(',')}}`;
+  }
+  return JSON.stringify(v ?? null);
+}
+const same = (a: unknown, b: unknown) => stableJson(a ?? null) === stableJson(b ?? null);
+const plain = (v: unknown) => (v instanceof Date ? v.toISOString() : (v ?? null));
+
+/** The fields that differ between two records, as stored. */
+export function changesBetween<T extends object>(before: T, after: Partial<T>, fields: readonly (keyof T & string)[]): FieldChange[] {
+  return fields.filter((f) => f in after && !same(plain(before[f]), plain(after[f]))).map((f) => ({ field: f, from: plain(before[f]), to: plain(after[f]) }));
+}
+
+/** A reading's value on the psi gauge basis (pressure points may be logged in other units). */
+function asPsig(value: number, unit: string): number | null {
+  switch (unit) {
+    case 'psig':
+    case 'psi':
+      return value;
+    case 'psia':
+      return psiaToPsig(value);
+    case 'kPa':
+      return value / KPA_PER_PSI;
+    case 'bar':
+      return (value * 100) / KPA_PER_PSI;
+    default:
+      return null;
+  }
+}
+function asInHg(value: number, unit: string): number | null {
+  if (unit === 'inHg') return value;
+  if (unit === 'kPa') return value / KPA_PER_INCH_OF_MERCURY;
+  return null;
+}
+
+interface PreparedCard {
+  input: CardInput;
+  cylinder: CardSetCylinder;
+  evaluated: EvaluatedCard;
+}
+interface PreparedSet {
+  takenAt: Date;
+  speedRpm: number;
+  speedSource: FigureSource;
+  speedReadingAt: Date | null;
+  cutOffPercent: number | null;
+  throttlePressurePsig: number | null;
+  throttleSource: FigureSource | null;
+  receiverPressurePsig: number | null;
+  receiverSource: FigureSource | null;
+  vacuumInHg: number | null;
+  vacuumSource: FigureSource | null;
+  notes: string | null;
+  cylinders: CardSetCylinder[];
+  condensing: boolean;
+  cards: PreparedCard[];
+}
+
+/**
+ * Card sets of a run: taking them, adding a card, amending a card or a set (never erasing), brake figures,
+ * and the results of each set (computed from the pure calculations, stored with the set, broadcast live).
+ */
+@Injectable()
+export class CardSetsService {
+  constructor(
+    @InjectDataSource() private readonly db: DataSource,
+    private readonly runs: RunsService,
+    private readonly readings: ReadingsService,
+    private readonly engines: EnginesService,
+    private readonly live: LiveService,
+    private readonly brakes: BrakeFiguresService,
+  ) {}
+
+  // ------------------------------------------------------------------------------------------
+  // Reading
+  // ------------------------------------------------------------------------------------------
+
+  async list(runId: string): Promise<CardSetDto[]> {
+    await this.runs.get(runId);
+    const sets = await this.db.getRepository(CardSet).find({ where: { runId }, order: { takenAt: 'ASC', createdAt: 'ASC' } });
+    return this.toDtos(sets);
+  }
+
+  async get(id: string): Promise<CardSetDto> {
+    const [dto] = await this.toDtos([await this.load(id)]);
+    return dto;
+  }
+
+  private async load(id: string, m?: EntityManager): Promise<CardSet> {
+    const s = await (m ?? this.db.manager).findOne(CardSet, { where: { id } });
+    if (!s) throw new NotFoundException('No such card set.');
+    return s;
+  }
+
+  async brakeFigures(runId: string): Promise<BrakeFigureDto[]> {
+    await this.runs.get(runId);
+    return this.brakes.toDtos(await this.brakes.listEntities(runId));
+  }
+
+  // ------------------------------------------------------------------------------------------
+  // Preparing a set: speed and pressures from readings, cards checked and worked out
+  // ------------------------------------------------------------------------------------------
+
+  private async nearest(run: Run, kind: MeasurementKind, at: Date) {
+    return this.readings.nearestValue(run.id, kind, at, NEAREST_READING_WINDOW_MS);
+  }
+
+  private async figure(run: Run, kind: MeasurementKind, at: Date, given: number | null | undefined, convert: (v: number, unit: string) => number | null) {
+    if (given !== undefined && given !== null) return { value: given, source: 'entered' as FigureSource, at: null };
+    const r = await this.nearest(run, kind, at);
+    const value = r ? convert(r.value, r.unit) : null;
+    return value === null ? { value: null, source: null, at: null } : { value, source: 'reading' as FigureSource, at: r!.takenAt };
+  }
+
+  private async geometry(run: Run): Promise<{ cylinders: CardSetCylinder[]; condensing: boolean }> {
+    const engine = await this.engines.detail(run.engineId);
+    if (!engine.cylinders.length) throw new ConflictException("This engine's cylinders are not described yet; a chief engineer adds them on the engine's page first.");
+    return {
+      cylinders: engine.cylinders.map((c) => ({
+        cylinderId: c.id,
+        label: c.label,
+        role: c.role,
+        boreIn: c.boreIn,
+        strokeIn: c.strokeIn,
+        pistonRodIn: c.pistonRodIn,
+        tailRodIn: c.tailRodIn,
+        clearancePercent: c.clearancePercent,
+      })),
+      condensing: engine.measurementPoints.some((p) => p.kind === 'vacuum'),
+    };
+  }
+
+  /** Checks a card against the set's cylinders and the run's images, and works out its mean pressure. */
+  private async prepareCard(run: Run, cylinders: CardSetCylinder[], card: CardInput, path: string): Promise<PreparedCard> {
+    const cylinder = cylinders.find((c) => c.cylinderId === card.cylinderId);
+    if (!cylinder) throw new BadRequestException({ statusCode: 400, error: 'Bad Request', message: [`${path}.cylinderId: not a cylinder of this run's engine`] });
+    if (card.imageId) {
+      const image = await this.db.getRepository(CardImage).findOne({ where: { id: card.imageId } });
+      if (!image || image.runId !== run.id) {
+        throw new BadRequestException({ statusCode: 400, error: 'Bad Request', message: [`${path}.imageId: no image of this run has that id; upload the card image first`] });
+      }
+    }
+    const evaluated = badRequest(() => evaluateCard(card, path));
+    return { input: card, cylinder, evaluated };
+  }
+
+  private async prepare(run: Run, dto: CreateCardSetRequest, opts: { seed?: boolean } = {}): Promise<PreparedSet> {
+    const takenAt = new Date(dto.takenAt);
+    if (Number.isNaN(takenAt.getTime())) throw new BadRequestException('takenAt must be an ISO date-time');
+    if (!opts.seed && takenAt.getTime() > Date.now() + MAX_FUTURE_MS) throw new BadRequestException('takenAt is in the future; check the tablet’s clock.');
+    const { cylinders, condensing } = await this.geometry(run);
+
+    const speed = await this.figure(run, 'speed', takenAt, dto.speedRpm, (v, unit) => (unit === 'rpm' && v > 0 ? v : null));
+    if (speed.value === null) {
+      throw new BadRequestException({
+        statusCode: 400,
+        error: 'Bad Request',
+        message: [`speedRpm: no speed reading within ${NEAREST_READING_WINDOW_MS / 60_000} minutes of when the set was taken; enter the speed`],
+      });
+    }
+    const throttle = await this.figure(run, 'throttle_pressure', takenAt, dto.throttlePressurePsig, asPsig);
+    const receiver = await this.figure(run, 'receiver_pressure', takenAt, dto.receiverPressurePsig, asPsig);
+    const vacuum = await this.figure(run, 'vacuum', takenAt, dto.vacuumInHg, asInHg);
+
+    const cards: PreparedCard[] = [];
+    const seen = new Set<string>();
+    for (const [i, card] of (dto.cards ?? []).entries()) {
+      const prepared = await this.prepareCard(run, cylinders, card, `cards[${i}]`);
+      const key = `${card.cylinderId}:${card.end}`;
+      if (seen.has(key)) {
+        throw new BadRequestException({ statusCode: 400, error: 'Bad Request', message: [`cards[${i}].end: a second card for the ${prepared.cylinder.label} ${CYLINDER_END_WORDS[card.end]}`] });
+      }
+      seen.add(key);
+      cards.push(prepared);
+    }
+    return {
+      takenAt,
+      speedRpm: speed.value,
+      speedSource: speed.source!,
+      speedReadingAt: speed.at,
+      cutOffPercent: dto.cutOffPercent ?? null,
+      throttlePressurePsig: throttle.value,
+      throttleSource: throttle.source,
+      receiverPressurePsig: receiver.value,
+      receiverSource: receiver.source,
+      vacuumInHg: vacuum.value,
+      vacuumSource: vacuum.source,
+      notes: dto.notes?.trim() || null,
+      cylinders,
+      condensing,
+      cards,
+    };
+  }
+
+  private resultsFor(
+    set: Pick<PreparedSet, 'takenAt' | 'speedRpm' | 'cylinders' | 'cutOffPercent' | 'throttlePressurePsig' | 'receiverPressurePsig' | 'vacuumInHg' | 'condensing'>,
+    cards: ResultCard[],
+    figures: BrakeFigure[],
+  ) {
+    const b = this.brakes.nearest(figures, set.takenAt);
+    return computeCardSetResults({
+      speedRpm: set.speedRpm,
+      cylinders: set.cylinders,
+      cards,
+      cutOffPercent: set.cutOffPercent,
+      throttlePressurePsig: set.throttlePressurePsig,
+      receiverPressurePsig: set.receiverPressurePsig,
+      vacuumInHg: set.vacuumInHg,
+      condensing: set.condensing,
+      brake: b ? { figureId: b.id, measuredAt: b.measuredAt.toISOString(), brakeHorsepower: b.brakeHorsepower } : null,
+      computedAt: new Date(),
+    });
+  }
+
+  /** A stored card as the results see it, matched to the set's own copy of its cylinder by label. */
+  private static resultCard = (cylinders: CardSetCylinder[]) => (c: IndicatorCard): ResultCard => {
+    return {
+      id: c.id,
+      cylinderId: cylinders.find((x) => x.label === c.cylinderLabel)?.cylinderId ?? c.cylinderId ?? c.cylinderLabel,
+      end: c.end,
+      meanEffectivePressurePsi: c.meanEffectivePressurePsi,
+      cutOffPercent: c.cutOffPercent,
+      compressionPercent: c.compressionPercent,
+      admissionPressurePsig: c.admissionPressurePsig,
+      outline: c.outline,
+    };
+  };
+
+  /** The columns of a card from its input and evaluation. */
+  private static cardColumns(input: Omit<CardInput, 'cylinderId' | 'end'>, e: EvaluatedCard) {
+    const traced = e.method === 'trace';
+    return {
+      method: e.method,
+      springPsiPerIn: e.method === 'mep' ? null : (input.springPsiPerIn ?? null),
+      lengthIn: e.method === 'mep' || e.method === 'ordinates' ? null : (input.lengthIn ?? null),
+      areaSqIn: e.method === 'planimeter' ? (input.areaSqIn ?? null) : null,
+      ordinatesIn: e.method === 'ordinates' ? (input.ordinatesIn ?? null) : null,
+      givenMeanEffectivePressurePsi: e.method === 'mep' ? (input.meanEffectivePressurePsi ?? null) : null,
+      imageId: input.imageId ?? null,
+      trace: traced ? (input.trace ?? null) : null,
+      cutOffPercent: input.cutOffPercent ?? null,
+      compressionPercent: input.compressionPercent ?? null,
+      admissionPressurePsig: input.admissionPressurePsig ?? null,
+      note: input.note?.trim() || null,
+      meanHeightIn: e.meanHeightIn,
+      meanEffectivePressurePsi: e.meanEffectivePressurePsi,
+      tracedAreaSqIn: e.tracedAreaSqIn,
+      outline: e.outline,
+    };
+  }
+
+  // ------------------------------------------------------------------------------------------
+  // Writing
+  // ------------------------------------------------------------------------------------------
+
+  /** What a set would come to, without storing it (for the form's live figures). */
+  async preview(runId: string, dto: CreateCardSetRequest): Promise<CardSetPreviewDto> {
+    const run = await this.runs.get(runId);
+    const p = await this.prepare(run, dto);
+    const cards: ResultCard[] = p.cards.map((c, i) => ({
+      id: `preview-${i}`,
+      cylinderId: c.cylinder.cylinderId,
+      end: c.input.end,
+      meanEffectivePressurePsi: c.evaluated.meanEffectivePressurePsi,
+      cutOffPercent: c.input.cutOffPercent ?? null,
+      compressionPercent: c.input.compressionPercent ?? null,
+      admissionPressurePsig: c.input.admissionPressurePsig ?? null,
+      outline: c.evaluated.outline,
+    }));
+    const results = this.resultsFor(p, cards, await this.brakes.listEntities(runId));
+    return {
+      speedRpm: p.speedRpm,
+      speedSource: p.speedSource,
+      speedReadingAt: p.speedReadingAt?.toISOString() ?? null,
+      throttlePressurePsig: p.throttlePressurePsig,
+      throttleSource: p.throttleSource,
+      receiverPressurePsig: p.receiverPressurePsig,
+      receiverSource: p.receiverSource,
+      vacuumInHg: p.vacuumInHg,
+      vacuumSource: p.vacuumSource,
+      cylinders: p.cylinders,
+      cards: p.cards.map((c) => ({
+        cylinderId: c.cylinder.cylinderId,
+        end: c.input.end,
+        method: c.evaluated.method,
+        meanEffectivePressurePsi: c.evaluated.meanEffectivePressurePsi,
+        meanHeightIn: c.evaluated.meanHeightIn,
+        tracedAreaSqIn: c.evaluated.tracedAreaSqIn,
+        outline: c.evaluated.outline,
+      })),
+      results,
+    };
+  }
+
+  /**
+   * Takes a card set for a run that is being prepared, running or stopped. `seed` lets the demo seed
+   * record the sets of a season already closed (it bypasses the run-state checks only).
+   */
+  async create(runId: string, dto: CreateCardSetRequest, user: AuthUser | { id: string }, opts: { seed?: boolean } = {}): Promise<CardSetDto> {
+    const run = await this.runs.get(runId);
+    if (!opts.seed) {
+      this.runs.assertOpen(run);
+      this.runs.assertTakingReadings(run);
+    }
+    const p = await this.prepare(run, dto, opts);
+    const id = await this.db.transaction(async (m) => {
+      const set = await m.save(
+        CardSet,
+        m.create(CardSet, {
+          runId,
+          engineId: run.engineId,
+          takenAt: p.takenAt,
+          speedRpm: p.speedRpm,
+          speedSource: p.speedSource,
+          speedReadingAt: p.speedReadingAt,
+          cutOffPercent: p.cutOffPercent,
+          throttlePressurePsig: p.throttlePressurePsig,
+          throttleSource: p.throttleSource,
+          receiverPressurePsig: p.receiverPressurePsig,
+          receiverSource: p.receiverSource,
+          vacuumInHg: p.vacuumInHg,
+          vacuumSource: p.vacuumSource,
+          notes: p.notes,
+          cylinders: p.cylinders,
+          condensing: p.condensing,
+          results: this.resultsFor(p, [], []), // replaced below, once the cards have ids
+          createdBy: user.id,
+        }),
+      );
+      const cards: IndicatorCard[] = [];
+      for (const c of p.cards) {
+        cards.push(
+          await m.save(
+            IndicatorCard,
+            m.create(IndicatorCard, {
+              cardSetId: set.id,
+              cylinderId: c.cylinder.cylinderId,
+              cylinderLabel: c.cylinder.label,
+              end: c.input.end,
+              ...CardSetsService.cardColumns(c.input, c.evaluated),
+              createdBy: user.id,
+            }),
+          ),
+        );
+      }
+      const results = this.resultsFor(p, cards.map(CardSetsService.resultCard(p.cylinders)), await this.brakes.listEntities(runId, m));
+      await m.update(CardSet, { id: set.id }, { results });
+      return set.id;
+    });
+    return this.broadcast(id);
+  }
+
+  /** Adds the card of an end not yet taken. */
+  async addCard(setId: string, dto: CardInput, user: AuthUser): Promise<CardSetDto> {
+    const set0 = await this.load(setId);
+    const run = await this.runs.get(set0.runId);
+    this.runs.assertOpen(run);
+    const prepared = await this.prepareCard(run, set0.cylinders, dto, 'card');
+    await this.db.transaction(async (m) => {
+      const set = await m.findOne(CardSet, { where: { id: setId }, lock: { mode: 'pessimistic_write' } });
+      const cards = await m.find(IndicatorCard, { where: { cardSetId: setId } });
+      if (cards.some((c) => c.cylinderLabel === prepared.cylinder.label && c.end === dto.end)) {
+        throw new ConflictException(`The ${prepared.cylinder.label} ${CYLINDER_END_WORDS[dto.end]} already has a card in this set; amend that card instead.`);
+      }
+      const card = await m.save(
+        IndicatorCard,
+        m.create(IndicatorCard, {
+          cardSetId: setId,
+          cylinderId: prepared.cylinder.cylinderId,
+          cylinderLabel: prepared.cylinder.label,
+          end: dto.end,
+          ...CardSetsService.cardColumns(dto, prepared.evaluated),
+          createdBy: user.id,
+        }),
+      );
+      await this.recompute(m, set!, [...cards, card]);
+    });
+    return this.broadcast(setId);
+  }
+
+  /** Corrects a card: the new figures replace the old ones, which stay in the amendment with who, when and why. */
+  async amendCard(cardId: string, dto: AmendCardRequest, user: AuthUser | { id: string }, opts: { seed?: boolean; at?: Date } = {}): Promise<CardSetDto> {
+    const card0 = await this.db.getRepository(IndicatorCard).findOne({ where: { id: cardId } });
+    if (!card0) throw new NotFoundException('No such card.');
+    const set0 = await this.load(card0.cardSetId);
+    const run = await this.runs.get(set0.runId);
+    if (!opts.seed) this.runs.assertOpen(run);
+    const cylinderId = card0.cylinderId ?? '';
+    const cylinder = set0.cylinders.find((c) => c.cylinderId === cylinderId || c.label === card0.cylinderLabel);
+    if (!cylinder) throw new ConflictException('This card’s cylinder is no longer part of the set.');
+    const { reason, ...figures } = dto;
+    const prepared = await this.prepareCard(run, set0.cylinders, { ...figures, cylinderId: cylinder.cylinderId, end: card0.end }, 'card');
+    const next = CardSetsService.cardColumns(figures, prepared.evaluated);
+    await this.db.transaction(async (m) => {
+      const set = await m.findOne(CardSet, { where: { id: set0.id }, lock: { mode: 'pessimistic_write' } });
+      const card = await m.findOne(IndicatorCard, { where: { id: cardId } });
+      const changes = changesBetween(card!, next, CARD_FIELDS);
+      if (!changes.length) throw new BadRequestException('Nothing would change: the figures given are the ones recorded.');
+      const before = set!.results.totalIndicatedHorsepower;
+      await m.update(IndicatorCard, { id: cardId }, next);
+      const cards = await m.find(IndicatorCard, { where: { cardSetId: set0.id } });
+      const results = await this.recompute(m, set!, cards);
+      changes.push({ field: 'totalIndicatedHorsepower', from: before, to: results.totalIndicatedHorsepower });
+      await this.recordAmendment(m, 'card', cardId, set0.runId, changes, reason, user.id, opts.at);
+    });
+    return this.broadcast(set0.id);
+  }
+
+  /** Corrects a set's own figures (moment, speed, cut-off, pressures, notes). */
+  async amendSet(setId: string, dto: AmendCardSetRequest, user: AuthUser): Promise<CardSetDto> {
+    const set0 = await this.load(setId);
+    const run = await this.runs.get(set0.runId);
+    this.runs.assertOpen(run);
+    const takenAt = dto.takenAt !== undefined ? new Date(dto.takenAt) : set0.takenAt;
+    if (takenAt.getTime() > Date.now() + MAX_FUTURE_MS) throw new BadRequestException('takenAt is in the future; check the tablet’s clock.');
+    const patch: Partial<CardSet> = {};
+    if (dto.takenAt !== undefined) patch.takenAt = takenAt;
+    if (dto.speedRpm !== undefined) {
+      const speed = await this.figure(run, 'speed', takenAt, dto.speedRpm, (v, unit) => (unit === 'rpm' && v > 0 ? v : null));
+      if (speed.value === null) throw new BadRequestException({ statusCode: 400, error: 'Bad Request', message: ['speedRpm: no speed reading near that moment; enter the speed'] });
+      Object.assign(patch, { speedRpm: speed.value, speedSource: speed.source!, speedReadingAt: speed.at });
+    }
+    if (dto.cutOffPercent !== undefined) patch.cutOffPercent = dto.cutOffPercent;
+    const pressure = async (kind: MeasurementKind, given: number | null | undefined, convert: (v: number, u: string) => number | null) =>
+      this.figure(run, kind, takenAt, given, convert);
+    if (dto.throttlePressurePsig !== undefined) {
+      const f = await pressure('throttle_pressure', dto.throttlePressurePsig, asPsig);
+      Object.assign(patch, { throttlePressurePsig: f.value, throttleSource: f.source });
+    }
+    if (dto.receiverPressurePsig !== undefined) {
+      const f = await pressure('receiver_pressure', dto.receiverPressurePsig, asPsig);
+      Object.assign(patch, { receiverPressurePsig: f.value, receiverSource: f.source });
+    }
+    if (dto.vacuumInHg !== undefined) {
+      const f = await pressure('vacuum', dto.vacuumInHg, asInHg);
+      Object.assign(patch, { vacuumInHg: f.value, vacuumSource: f.source });
+    }
+    if (dto.notes !== undefined) patch.notes = dto.notes?.trim() || null;
+    await this.db.transaction(async (m) => {
+      const set = await m.findOne(CardSet, { where: { id: setId }, lock: { mode: 'pessimistic_write' } });
+      const changes = changesBetween(set!, patch, SET_FIELDS);
+      if (!changes.length) throw new BadRequestException('Nothing would change: the figures given are the ones recorded.');
+      const before = set!.results.totalIndicatedHorsepower;
+      Object.assign(set!, patch);
+      await m.update(CardSet, { id: setId }, patch);
+      const results = await this.recompute(m, set!, await m.find(IndicatorCard, { where: { cardSetId: setId } }));
+      changes.push({ field: 'totalIndicatedHorsepower', from: before, to: results.totalIndicatedHorsepower });
+      await this.recordAmendment(m, 'card_set', setId, set0.runId, changes, dto.reason, user.id);
+    });
+    return this.broadcast(setId);
+  }
+
+  private async recompute(m: EntityManager, set: CardSet, cards: IndicatorCard[]) {
+    const results = this.resultsFor(set, cards.map(CardSetsService.resultCard(set.cylinders)), await this.brakes.listEntities(set.runId, m));
+    await m.update(CardSet, { id: set.id }, { results });
+    return results;
+  }
+
+  private async recordAmendment(m: EntityManager, subjectType: AmendedSubject, subjectId: string, runId: string, changes: FieldChange[], reason: string, byUser: string, at = new Date()) {
+    await m.save(CardRecordAmendment, m.create(CardRecordAmendment, { subjectType, subjectId, runId, changes, reason: reason.trim(), byUser, at }));
+  }
+
+  // ------------------------------------------------------------------------------------------
+  // Brake figures (each change recomputes the run's sets)
+  // ------------------------------------------------------------------------------------------
+
+  async addBrakeFigure(runId: string, dto: BrakeFigureInput, user: AuthUser | { id: string }, opts: { seed?: boolean } = {}): Promise<BrakeFigureDto> {
+    const run = await this.runs.get(runId);
+    if (!opts.seed) this.runs.assertOpen(run);
+    const fields = badRequest(() => brakeFigureFields(dto));
+    const saved = await this.db.getRepository(BrakeFigure).save(this.db.getRepository(BrakeFigure).create({ runId, ...fields, createdBy: user.id }));
+    await this.recomputeRun(runId);
+    const [out] = await this.brakes.toDtos([saved]);
+    this.live.emitToRoom(`run:${runId}`, 'run:record', { runId, kind: CARD_RECORD_KINDS.brakeFigure, id: out.id, data: out });
+    return out;
+  }
+
+  async amendBrakeFigure(id: string, dto: AmendBrakeFigureRequest, user: AuthUser): Promise<BrakeFigureDto> {
+    const f0 = await this.brakes.get(id);
+    const run = await this.runs.get(f0.runId);
+    this.runs.assertOpen(run);
+    const { reason, ...given } = dto;
+    const merged: BrakeFigureInput = {
+      measuredAt: given.measuredAt ?? f0.measuredAt.toISOString(),
+      method: given.method ?? f0.method,
+      brakeHorsepower: given.brakeHorsepower !== undefined ? given.brakeHorsepower : f0.brakeHorsepower,
+      netBrakeLoadLbf: given.netBrakeLoadLbf !== undefined ? given.netBrakeLoadLbf : f0.netBrakeLoadLbf,
+      drumDiameterFt: given.drumDiameterFt !== undefined ? given.drumDiameterFt : f0.drumDiameterFt,
+      ropeDiameterFt: given.ropeDiameterFt !== undefined ? given.ropeDiameterFt : f0.ropeDiameterFt,
+      torqueLbfFt: given.torqueLbfFt !== undefined ? given.torqueLbfFt : f0.torqueLbfFt,
+      speedRpm: given.speedRpm !== undefined ? given.speedRpm : f0.speedRpm,
+      note: given.note !== undefined ? given.note : f0.note,
+    };
+    const next = badRequest(() => brakeFigureFields(merged));
+    await this.db.transaction(async (m) => {
+      const cur = await m.findOne(BrakeFigure, { where: { id }, lock: { mode: 'pessimistic_write' } });
+      const changes = changesBetween(cur!, next, BRAKE_FIELDS);
+      if (!changes.length) throw new BadRequestException('Nothing would change: the figures given are the ones recorded.');
+      await m.update(BrakeFigure, { id }, next);
+      await this.recordAmendment(m, 'brake_figure', id, f0.runId, changes, reason, user.id);
+    });
+    await this.recomputeRun(f0.runId);
+    const [out] = await this.brakes.toDtos([await this.brakes.get(id)]);
+    this.live.emitToRoom(`run:${f0.runId}`, 'run:record', { runId: f0.runId, kind: CARD_RECORD_KINDS.brakeFigure, id, data: out });
+    return out;
+  }
+
+  /** Recomputes every set of a run (after its brake figures change) and broadcasts them. */
+  private async recomputeRun(runId: string) {
+    const sets = await this.db.getRepository(CardSet).find({ where: { runId } });
+    for (const s of sets) {
+      await this.db.transaction(async (m) => {
+        const set = await m.findOne(CardSet, { where: { id: s.id }, lock: { mode: 'pessimistic_write' } });
+        await this.recompute(m, set!, await m.find(IndicatorCard, { where: { cardSetId: s.id } }));
+      });
+      await this.broadcast(s.id);
+    }
+  }
+
+  // ------------------------------------------------------------------------------------------
+  // Answers
+  // ------------------------------------------------------------------------------------------
+
+  private async broadcast(setId: string): Promise<CardSetDto> {
+    const dto = await this.get(setId);
+    this.live.emitToRoom(`run:${dto.runId}`, 'run:record', { runId: dto.runId, kind: CARD_RECORD_KINDS.cardSet, id: dto.id, data: dto });
+    return dto;
+  }
+
+  private async toDtos(sets: CardSet[]): Promise<CardSetDto[]> {
+    if (!sets.length) return [];
+    const cards = await this.db.getRepository(IndicatorCard).find({ where: { cardSetId: In(sets.map((s) => s.id)) }, order: { createdAt: 'ASC' } });
+    const amendments = await this.db.getRepository(CardRecordAmendment).find({
+      where: [
+        { subjectType: 'card_set', subjectId: In(sets.map((s) => s.id)) },
+        ...(cards.length ? [{ subjectType: 'card' as const, subjectId: In(cards.map((c) => c.id)) }] : []),
+      ],
+      order: { at: 'ASC' },
+    });
+    const userIds = [...new Set([...sets.map((s) => s.createdBy), ...cards.map((c) => c.createdBy), ...amendments.map((a) => a.byUser)])];
+    const users = userIds.length ? await this.db.getRepository(User).find({ where: { id: In(userIds) } }) : [];
+    const name = new Map(users.map((u) => [u.id, u.displayName]));
+    const bySubject = new Map<string, RecordAmendmentDto[]>();
+    for (const a of amendments) {
+      const list = bySubject.get(a.subjectId) ?? [];
+      list.push({ id: a.id, reason: a.reason, by: a.byUser, byName: name.get(a.byUser) ?? 'unknown', at: a.at.toISOString(), changes: a.changes });
+      bySubject.set(a.subjectId, list);
+    }
+    const endOrder = { head: 0, crank: 1 } as const;
+    return sets.map((s) => {
+      const position = new Map(s.cylinders.map((c, i) => [c.label, i]));
+      const mine: CardDto[] = cards
+        .filter((c) => c.cardSetId === s.id)
+        .sort((a, b) => (position.get(a.cylinderLabel) ?? 99) - (position.get(b.cylinderLabel) ?? 99) || endOrder[a.end] - endOrder[b.end])
+        .map((c) => ({
+          id: c.id,
+          cardSetId: c.cardSetId,
+          cylinderId: c.cylinderId,
+          cylinderLabel: c.cylinderLabel,
+          end: c.end,
+          method: c.method,
+          springPsiPerIn: c.springPsiPerIn,
+          lengthIn: c.lengthIn,
+          areaSqIn: c.areaSqIn,
+          ordinatesIn: c.ordinatesIn,
+          givenMeanEffectivePressurePsi: c.givenMeanEffectivePressurePsi,
+          imageId: c.imageId,
+          trace: c.trace,
+          cutOffPercent: c.cutOffPercent,
+          compressionPercent: c.compressionPercent,
+          admissionPressurePsig: c.admissionPressurePsig,
+          note: c.note,
+          meanHeightIn: c.meanHeightIn,
+          meanEffectivePressurePsi: c.meanEffectivePressurePsi,
+          tracedAreaSqIn: c.tracedAreaSqIn,
+          outline: c.outline,
+          createdBy: c.createdBy,
+          createdByName: name.get(c.createdBy) ?? 'unknown',
+          createdAt: c.createdAt.toISOString(),
+          amendments: bySubject.get(c.id) ?? [],
+        }));
+      return {
+        id: s.id,
+        runId: s.runId,
+        engineId: s.engineId,
+        takenAt: s.takenAt.toISOString(),
+        speedRpm: s.speedRpm,
+        speedSource: s.speedSource,
+        speedReadingAt: s.speedReadingAt?.toISOString() ?? null,
+        cutOffPercent: s.cutOffPercent,
+        throttlePressurePsig: s.throttlePressurePsig,
+        throttleSource: s.throttleSource,
+        receiverPressurePsig: s.receiverPressurePsig,
+        receiverSource: s.receiverSource,
+        vacuumInHg: s.vacuumInHg,
+        vacuumSource: s.vacuumSource,
+        notes: s.notes,
+        cylinders: s.cylinders,
+        cards: mine,
+        results: s.results,
+        createdBy: s.createdBy,
+        createdByName: name.get(s.createdBy) ?? 'unknown',
+        createdAt: s.createdAt.toISOString(),
+        amendments: bySubject.get(s.id) ?? [],
+      };
+    });
+  }
+}

@@ -1,0 +1,23 @@
+import { Module } from '@nestjs/common';
+import { TypeOrmModule } from '@nestjs/typeorm';
+import { CardSet } from './card-set.entity.js';
+import { IndicatorCard } from './indicator-card.entity.js';
+import { CardImage } from './card-image.entity.js';
+import { BrakeFigure } from './brake-figure.entity.js';
+import { CardRecordAmendment } from './card-record-amendment.entity.js';
+import { CardSetsService } from './card-sets.service.js';
+import { CardImagesService } from './card-images.service.js';
+import { BrakeFiguresService } from './brake-figures.service.js';
+import { CardSetsController } from './card-sets.controller.js';
+import { IndicatorCalculationsController } from './calculations.controller.js';
+import { RunsModule } from '../runs/runs.module.js';
+import { EnginesModule } from '../engines/engines.module.js';
+
+/** Indicator cards and indicated power: card sets of a run, traced images, brake figures, the calculator route. */
+@Module({
+  imports: [TypeOrmModule.forFeature([CardSet, IndicatorCard, CardImage, BrakeFigure, CardRecordAmendment]), RunsModule, EnginesModule],
+  providers: [CardSetsService, CardImagesService, BrakeFiguresService],
+  controllers: [CardSetsController, IndicatorCalculationsController],
+  exports: [CardSetsService, CardImagesService],
+})
+export class IndicatorCardsModule {}

@@ -1,0 +1,91 @@
+import { Body, Controller, Delete, Get, HttpCode, Param, Patch, Post, Query, Res, StreamableFile } from '@nestjs/common';
+import { ApiBearerAuth, ApiOperation, ApiTags } from '@nestjs/swagger';
+import type { Response } from 'express';
+import { MILL_WRITERS, type LotDetail, type LotSummary, type QuoteDto } from '@crankjournal/shared-types';
+import { AnyRole, Roles } from '../../common/decorators/roles.decorator.js';
+import { CurrentUser, type AuthUser } from '../../common/decorators/current-user.decorator.js';
+import { IdParamDto } from '../../common/dto/id-param.dto.js';
+import { LotsService } from './lots.service.js';
+import { LinkRunDto, LotQueryDto, LotRunParamDto, LotTransitionDto, LotUpdateDto, LotWriteDto, QuoteRequestDto, SendQuoteDto } from './dto/lot.dto.js';
+
+/** Small customer lots, from enquiry to delivery, and their quotes. */
+@ApiTags('mill')
+@ApiBearerAuth()
+@Controller('mill')
+export class LotsController {
+  constructor(private readonly lots: LotsService) {}
+
+  @Get('lots')
+  @AnyRole()
+  list(@Query() q: LotQueryDto): Promise<LotSummary[]> {
+    return this.lots.list(q);
+  }
+
+  @Get('lots/:id')
+  @AnyRole()
+  detail(@Param() p: IdParamDto): Promise<LotDetail> {
+    return this.lots.detail(p.id);
+  }
+
+  @Post('lots')
+  @Roles(...MILL_WRITERS)
+  create(@Body() dto: LotWriteDto, @CurrentUser() me: AuthUser): Promise<LotDetail> {
+    return this.lots.create(dto, me);
+  }
+
+  @Patch('lots/:id')
+  @Roles(...MILL_WRITERS)
+  update(@Param() p: IdParamDto, @Body() dto: LotUpdateDto): Promise<LotDetail> {
+    return this.lots.update(p.id, dto);
+  }
+
+  @Post('lots/:id/transitions')
+  @HttpCode(200)
+  @Roles(...MILL_WRITERS)
+  @ApiOperation({ summary: 'Move a lot one step: enquiry → quoted → accepted → scheduled → rolled → inspected → delivered (409 when skipping)' })
+  transition(@Param() p: IdParamDto, @Body() dto: LotTransitionDto, @CurrentUser() me: AuthUser): Promise<LotDetail> {
+    return this.lots.transition(p.id, dto, me);
+  }
+
+  @Post('lots/:id/runs')
+  @HttpCode(200)
+  @Roles(...MILL_WRITERS)
+  linkRun(@Param() p: IdParamDto, @Body() dto: LinkRunDto, @CurrentUser() me: AuthUser): Promise<LotDetail> {
+    return this.lots.linkRun(p.id, dto.runId, me);
+  }
+
+  @Delete('lots/:id/runs/:runId')
+  @Roles(...MILL_WRITERS)
+  unlinkRun(@Param() p: LotRunParamDto): Promise<LotDetail> {
+    return this.lots.unlinkRun(p.id, p.runId);
+  }
+
+  @Get('lots/:id/quotes')
+  @AnyRole()
+  quotes(@Param() p: IdParamDto): Promise<QuoteDto[]> {
+    return this.lots.quotes(p.id);
+  }
+
+  @Post('lots/:id/quotes')
+  @Roles(...MILL_WRITERS)
+  @ApiOperation({ summary: "Make a quote from the site's rates and the lot's engine and crew hours" })
+  createQuote(@Param() p: IdParamDto, @Body() dto: QuoteRequestDto, @CurrentUser() me: AuthUser): Promise<QuoteDto> {
+    return this.lots.createQuote(p.id, dto, me);
+  }
+
+  @Get('quotes/:id/quote.pdf')
+  @AnyRole()
+  async pdf(@Param() p: IdParamDto, @Res({ passthrough: true }) res: Response): Promise<StreamableFile> {
+    const { filename, buffer } = await this.lots.quotePdf(p.id);
+    res.setHeader('content-disposition', `attachment; filename="${filename}"`);
+    return new StreamableFile(buffer, { type: 'application/pdf' });
+  }
+
+  @Post('quotes/:id/send')
+  @HttpCode(200)
+  @Roles(...MILL_WRITERS)
+  @ApiOperation({ summary: 'E-mail the quote as a PDF to the customer (an enquiry becomes quoted)' })
+  send(@Param() p: IdParamDto, @Body() dto: SendQuoteDto, @CurrentUser() me: AuthUser): Promise<QuoteDto> {
+    return this.lots.sendQuote(p.id, dto, me);
+  }
+}

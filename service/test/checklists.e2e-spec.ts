@@ -1,0 +1,447 @@
+import { randomUUID } from 'node:crypto';
+import type { ChecklistDetail, ChecklistTemplateDetail, StartGateVerdict } from '@crankjournal/shared-types';
+import { bearer, startTestApp, type TestApp } from './utils/test-app.js';
+import { login, type SignedIn } from './factories/users.factory.js';
+import {
+  INSPECTION,
+  PRE_LUBE,
+  SHUTDOWN,
+  completeChecklist,
+  createEngine,
+  createTemplate,
+  fill,
+  grant,
+  preparingRun,
+  sign,
+  startByRest,
+  startBySocket,
+  startChecklist,
+} from './factories/checklists.factory.js';
+
+/** The smallest valid PNG file: signature, IHDR (1×1, 8-bit grey), IDAT, IEND. */
+const PNG_1x1 = Buffer.from('89504e470d0a1a0a0000000d4948445200000001000000010800000000376ef9240000000a49444154789c63600000000200014815b4a40000000049454e44ae426082', 'hex');
+
+describe('checklists and the start gate (API)', () => {
+  let t: TestApp;
+  let chief: SignedIn;
+  let operator: SignedIn;
+  let lapsed: SignedIn;
+  let unqualified: SignedIn;
+  let observer: SignedIn;
+  let engine: { id: string; name: string; pointId: string };
+  let preLube: ChecklistTemplateDetail;
+  let inspection: ChecklistTemplateDetail;
+  let shutdown: ChecklistTemplateDetail;
+
+  const as = (who: SignedIn) => ({ Authorization: bearer(who.accessToken) });
+  const detail = async (id: string): Promise<ChecklistDetail> => (await t.http.get(`/api/checklists/${id}`).set(as(operator))).body;
+  const clearByChief = async (id: string) => {
+    const r = await t.http.post(`/api/runs/${id}/transitions`).set(as(chief)).send({ to: 'cleared' });
+    if (r.status !== 200) throw new Error(`not cleared: ${r.status} ${JSON.stringify(r.body)}`);
+  };
+  const runState = async (id: string): Promise<string> => (await t.http.get(`/api/runs/${id}`).set(as(operator))).body.state;
+
+  beforeAll(async () => {
+    t = await startTestApp();
+    chief = await login(t, 'chief_engineer');
+    operator = await login(t, 'operator');
+    lapsed = await login(t, 'operator');
+    unqualified = await login(t, 'operator');
+    observer = await login(t, 'observer');
+    engine = await createEngine(t, chief);
+    preLube = await createTemplate(t, chief, engine.id, PRE_LUBE);
+    inspection = await createTemplate(t, chief, engine.id, INSPECTION);
+    shutdown = await createTemplate(t, chief, engine.id, SHUTDOWN);
+    await grant(t, chief, chief.account.id, engine.id, ['pre_lube', 'start_and_run', 'shutdown']);
+    await grant(t, chief, operator.account.id, engine.id, ['pre_lube', 'start_and_run', 'shutdown']);
+    await grant(t, chief, lapsed.account.id, engine.id, ['start_and_run'], { from: -400, to: -1 });
+  }, 180_000);
+  afterAll(async () => {
+    await t?.close();
+  });
+
+  /** A preparing run with both pre-start checklists signed by the qualified operator (so it is cleared). */
+  async function readyRun() {
+    const run = await preparingRun(t, operator, engine.id);
+    const lube = await completeChecklist(t, operator, run.id, preLube.id);
+    const insp = await completeChecklist(t, operator, run.id, inspection.id);
+    return { run, lube, insp };
+  }
+
+  describe.each([
+    ['REST', startByRest],
+    ['socket', startBySocket],
+  ] as const)('the start gate through %s', (_route, start) => {
+    const codes = (v: StartGateVerdict | null) => v?.reasons.map((r) => r.code) ?? [];
+
+    it('is allowed when every condition holds, and the run starts', async () => {
+      const { run } = await readyRun();
+      expect(await runState(run.id)).toBe('cleared');
+      const r = await start(t, operator, run.id);
+      expect(r.status).toBe(200);
+      expect(r.run?.state).toBe('running');
+      expect(await runState(run.id)).toBe('running');
+    });
+
+    it('is refused for a missing checklist alone (checklist_missing, naming it), even when the chief engineer cleared the run', async () => {
+      const run = await preparingRun(t, operator, engine.id);
+      await completeChecklist(t, operator, run.id, preLube.id);
+      await clearByChief(run.id);
+      const r = await start(t, operator, run.id);
+      expect(r.status).toBe(409);
+      expect(codes(r.verdict)).toEqual(['checklist_missing']);
+      expect(r.verdict!.reasons[0].subject).toBe('Pre-start inspection');
+      expect(r.verdict!.reasons[0].message).toContain('Pre-start inspection');
+      expect(await runState(run.id)).toBe('cleared');
+    });
+
+    it('is refused for an unsigned checklist alone (checklist_unsigned, saying how far it got)', async () => {
+      const run = await preparingRun(t, operator, engine.id);
+      await completeChecklist(t, operator, run.id, preLube.id);
+      const c = await startChecklist(t, operator, run.id, inspection.id);
+      expect((await fill(t, operator, c.id, 'guards', { tick: true })).status).toBe(200);
+      await clearByChief(run.id);
+      const r = await start(t, operator, run.id);
+      expect(r.status).toBe(409);
+      expect(codes(r.verdict)).toEqual(['checklist_unsigned']);
+      expect(r.verdict!.reasons[0].message).toContain('1 of 2 required items done');
+    });
+
+    it('is refused for a stale pre-lube alone (pre_lube_stale, saying how old it is)', async () => {
+      const { run, lube } = await readyRun();
+      // The pre-lube was signed 31 minutes ago; the engine's window is 30 minutes.
+      await t.db.query(`UPDATE checklists SET signed_at = now() - interval '31 minutes' WHERE id = $1`, [lube.id]);
+      const r = await start(t, operator, run.id);
+      expect(r.status).toBe(409);
+      expect(codes(r.verdict)).toEqual(['pre_lube_stale']);
+      expect(r.verdict!.reasons[0].message).toMatch(/is 31 min old; .* window is 30 min/);
+      expect(Date.parse(r.verdict!.preLubeFreshUntil!)).toBeLessThan(Date.now());
+      expect(await runState(run.id)).toBe('cleared');
+    });
+
+    it('is refused when the person starting has an expired qualification alone (qualification_expired)', async () => {
+      const { run } = await readyRun();
+      const r = await start(t, lapsed, run.id);
+      expect(r.status).toBe(409);
+      expect(codes(r.verdict)).toEqual(['qualification_expired']);
+      expect(r.verdict!.reasons[0].message).toContain('expired on');
+    });
+
+    it('is refused when the person starting holds no qualification (qualification_missing)', async () => {
+      const { run } = await readyRun();
+      const r = await start(t, unqualified, run.id);
+      expect(r.status).toBe(409);
+      expect(codes(r.verdict)).toEqual(['qualification_missing']);
+    });
+
+    it('is refused while a high-high alarm is active on the engine alone (active_high_high_alarm)', async () => {
+      const { run } = await readyRun();
+      const now = new Date().toISOString();
+      const round = await t.http
+        .post(`/api/runs/${run.id}/rounds`)
+        .set(as(operator))
+        .send({ takenAt: now, readings: [{ clientId: randomUUID(), pointId: engine.pointId, value: 150, takenAt: now }] });
+      expect(round.status).toBe(201);
+      try {
+        const r = await start(t, operator, run.id);
+        expect(r.status).toBe(409);
+        expect(codes(r.verdict)).toEqual(['active_high_high_alarm']);
+      } finally {
+        // The condition clears with a reading back under the limit, for the tests that follow.
+        const later = new Date(Date.now() + 1000).toISOString();
+        await t.http.post(`/api/runs/${run.id}/rounds`).set(as(operator)).send({ takenAt: later, readings: [{ clientId: randomUUID(), pointId: engine.pointId, value: 100, takenAt: later }] });
+      }
+      expect((await start(t, operator, run.id)).status).toBe(200);
+    });
+  });
+
+  it('GET /runs/:id/start-gate gives the same verdict and the pre-lube freshness while cleared', async () => {
+    const { run, lube } = await readyRun();
+    const v = (await t.http.get(`/api/runs/${run.id}/start-gate`).set(as(operator))).body as StartGateVerdict;
+    expect(v.allowed).toBe(true);
+    expect(Date.parse(v.preLubeFreshUntil!) - Date.parse(lube.signedAt!)).toBe(30 * 60_000);
+    const o = (await t.http.get(`/api/runs/${run.id}/checklists`).set(as(observer))).body;
+    expect(o.preLubeFreshUntil).toBe(v.preLubeFreshUntil);
+    expect(o.templates.map((x: { progress: string }) => x.progress)).toEqual(['signed', 'signed', 'not_started']);
+  });
+
+  it('clears a preparing run once the pre-start checklists are all signed, under the signer’s name', async () => {
+    const run = await preparingRun(t, operator, engine.id);
+    await completeChecklist(t, operator, run.id, preLube.id);
+    expect(await runState(run.id)).toBe('preparing');
+    await completeChecklist(t, operator, run.id, inspection.id);
+    const d = (await t.http.get(`/api/runs/${run.id}`).set(as(operator))).body;
+    expect(d.state).toBe('cleared');
+    const last = d.history[d.history.length - 1];
+    expect(last).toMatchObject({ from: 'preparing', to: 'cleared', by: operator.account.id });
+    expect(last.note).toContain('every checklist required before a start is signed');
+  });
+
+  it('pre-lubing again makes a stale pre-lube fresh', async () => {
+    const { run, lube } = await readyRun();
+    await t.db.query(`UPDATE checklists SET signed_at = now() - interval '45 minutes' WHERE id = $1`, [lube.id]);
+    expect((await startByRest(t, operator, run.id)).status).toBe(409);
+    await completeChecklist(t, operator, run.id, preLube.id);
+    expect((await startByRest(t, operator, run.id)).status).toBe(200);
+  });
+
+  describe('after a stop', () => {
+    it('refuses to close until the shutdown checklist is signed, then closes', async () => {
+      const { run } = await readyRun();
+      expect((await startByRest(t, operator, run.id)).status).toBe(200);
+      expect((await t.http.post(`/api/runs/${run.id}/transitions`).set(as(operator)).send({ to: 'stopped' })).status).toBe(200);
+      const refused = await t.http.post(`/api/runs/${run.id}/transitions`).set(as(chief)).send({ to: 'closed', signature: chief.account.password });
+      expect(refused.status).toBe(409);
+      expect(refused.body.details.reasons.map((r: { code: string }) => r.code)).toEqual(['shutdown_checklist_missing']);
+      await completeChecklist(t, operator, run.id, shutdown.id);
+      const closed = await t.http.post(`/api/runs/${run.id}/transitions`).set(as(chief)).send({ to: 'closed', signature: chief.account.password });
+      expect(closed.status).toBe(200);
+      expect(closed.body.state).toBe('closed');
+    });
+
+    it('does not let a shutdown checklist be filled before the stop', async () => {
+      const run = await preparingRun(t, operator, engine.id);
+      const r = await t.http.post(`/api/runs/${run.id}/checklists`).set(as(operator)).send({ templateId: shutdown.id });
+      expect(r.status).toBe(409);
+      expect(r.body.message).toContain('stopped');
+    });
+  });
+
+  describe('template versions', () => {
+    it('leaves a checklist completed against version 1 unchanged after version 2 is published', async () => {
+      const tpl = await createTemplate(t, chief, engine.id, { ...PRE_LUBE, name: `Versioned ${randomUUID().slice(0, 6)}`, requiredWhen: 'not_required' });
+      expect(tpl.currentVersion).toBe(1);
+      const run = await preparingRun(t, operator, engine.id);
+      const done = await completeChecklist(t, operator, run.id, tpl.id);
+      const before = await detail(done.id);
+
+      const v2 = structuredClone(PRE_LUBE);
+      v2.name = tpl.name;
+      v2.requiredWhen = 'not_required';
+      v2.sections[0].items[1] = { ...v2.sections[0].items[1], label: 'Line pressure after two minutes', min: 18, max: 28 };
+      v2.sections[0].items.push({ key: 'drains', kind: 'tick', label: 'Drains open', required: true });
+      const draft = await t.http.put(`/api/checklist-templates/${tpl.id}/draft`).set(as(chief)).send(v2);
+      expect(draft.status).toBe(200);
+      expect(draft.body.currentVersion).toBe(1);
+      const published = await t.http.post(`/api/checklist-templates/${tpl.id}/publish`).set(as(chief)).send({ changeNote: 'Tighter range, drains added.' });
+      expect(published.status).toBe(200);
+      expect(published.body.currentVersion).toBe(2);
+      expect(published.body.versions.map((v: { version: number }) => v.version)).toEqual([2, 1]);
+
+      const after = await detail(done.id);
+      expect(after).toEqual(before);
+      expect(after.version).toBe(1);
+      expect(after.sections[0].items.map((i) => i.key)).toEqual(['valves', 'pressure', 'photo']);
+      expect(after.sections[0].items[1]).toMatchObject({ label: 'Pre-lube line pressure', min: 15, max: 30 });
+
+      const next = await startChecklist(t, operator, run.id, tpl.id);
+      expect(next.version).toBe(2);
+      expect(next.sections[0].items.map((i) => i.key)).toEqual(['valves', 'pressure', 'photo', 'drains']);
+      const v1 = await t.http.get(`/api/checklist-templates/${tpl.id}/versions/1`).set(as(observer));
+      expect(v1.status).toBe(200);
+      expect(v1.body.content.sections[0].items[1].label).toBe('Pre-lube line pressure');
+    });
+
+    it('refuses to publish without a draft and refuses a template whose content does not hold together', async () => {
+      expect((await t.http.post(`/api/checklist-templates/${preLube.id}/publish`).set(as(chief)).send({})).status).toBe(409);
+      const bad = structuredClone(PRE_LUBE);
+      bad.sections[0].items[1] = { ...bad.sections[0].items[1], min: 40, max: 30 };
+      const r = await t.http.post('/api/checklist-templates').set(as(chief)).send({ ...bad, name: 'Bad ranges', engineId: engine.id });
+      expect(r.status).toBe(400);
+      expect(r.body.message.join(' ')).toContain('min must not be above max');
+    });
+
+    it('is written by the chief engineer only; everyone reads and prints', async () => {
+      const body = { ...SHUTDOWN, name: `Role test ${randomUUID().slice(0, 6)}`, engineId: engine.id };
+      expect((await t.http.post('/api/checklist-templates').set(as(operator)).send(body)).status).toBe(403);
+      expect((await t.http.post('/api/checklist-templates').set(as(observer)).send(body)).status).toBe(403);
+      expect((await t.http.post('/api/checklist-templates').set(as(chief)).send(body)).status).toBe(201);
+      expect((await t.http.get(`/api/checklist-templates?engineId=${engine.id}`).set(as(observer))).status).toBe(200);
+      const pdf = await t.http.get(`/api/checklist-templates/${preLube.id}/blank.pdf`).set(as(observer)).buffer(true).parse((res, cb) => {
+        const chunks: Buffer[] = [];
+        res.on('data', (c: Buffer) => chunks.push(c));
+        res.on('end', () => cb(null, Buffer.concat(chunks)));
+      });
+      expect(pdf.status).toBe(200);
+      expect(pdf.headers['content-type']).toBe('application/pdf');
+      expect((pdf.body as Buffer).subarray(0, 5).toString()).toBe('%PDF-');
+    });
+  });
+
+  describe('out-of-range readings', () => {
+    it('block the signature until the chief engineer records an override, which an operator may not', async () => {
+      const run = await preparingRun(t, operator, engine.id);
+      const c = await startChecklist(t, operator, run.id, preLube.id);
+      await fill(t, operator, c.id, 'valves', { tick: true });
+      const low = await fill(t, operator, c.id, 'pressure', { value: 12 });
+      expect(low.status).toBe(200);
+      expect(low.body.entries.find((e: { itemKey: string }) => e.itemKey === 'pressure')).toMatchObject({ value: 12, outOfRange: true, override: null });
+      expect(low.body.blockedItems).toBe(1);
+
+      const refused = await sign(t, operator, c.id);
+      expect(refused.status).toBe(409);
+      expect(refused.body.message.join(' ')).toContain('12 psig is outside the acceptance range (15 to 30 psig)');
+
+      const byOperator = await t.http.post(`/api/checklists/${c.id}/items/pressure/override`).set(as(operator)).send({ reason: 'Gauge reads low, known fault.' });
+      expect(byOperator.status).toBe(403);
+      const noReason = await t.http.post(`/api/checklists/${c.id}/items/pressure/override`).set(as(chief)).send({ reason: '' });
+      expect(noReason.status).toBe(400);
+      const byChief = await t.http.post(`/api/checklists/${c.id}/items/pressure/override`).set(as(chief)).send({ reason: 'Gauge reads 4 psi low; checked against the test gauge.' });
+      expect(byChief.status).toBe(200);
+      const entry = byChief.body.entries.find((e: { itemKey: string }) => e.itemKey === 'pressure');
+      expect(entry.override).toMatchObject({ reason: 'Gauge reads 4 psi low; checked against the test gauge.', byName: chief.account.displayName });
+
+      const signed = await sign(t, operator, c.id);
+      expect(signed.status).toBe(200);
+      const kept = (await detail(c.id)).entries.find((e) => e.itemKey === 'pressure')!;
+      expect(kept.override?.reason).toContain('checked against the test gauge');
+      expect(kept.outOfRange).toBe(true);
+    });
+
+    it('void an override when the value changes', async () => {
+      const run = await preparingRun(t, operator, engine.id);
+      const c = await startChecklist(t, operator, run.id, preLube.id);
+      await fill(t, operator, c.id, 'valves', { tick: true });
+      await fill(t, operator, c.id, 'pressure', { value: 12 });
+      await t.http.post(`/api/checklists/${c.id}/items/pressure/override`).set(as(chief)).send({ reason: 'Accepted for today only.' });
+      const changed = await fill(t, operator, c.id, 'pressure', { value: 11 });
+      expect(changed.body.entries.find((e: { itemKey: string }) => e.itemKey === 'pressure').override).toBeNull();
+      expect((await sign(t, operator, c.id)).status).toBe(409);
+    });
+  });
+
+  describe('signing', () => {
+    it('asks for the password again: a wrong one refuses the signature, the right one records who, when and the version', async () => {
+      const run = await preparingRun(t, operator, engine.id);
+      const c = await startChecklist(t, operator, run.id, preLube.id);
+      await fill(t, operator, c.id, 'valves', { tick: true });
+      await fill(t, operator, c.id, 'pressure', { value: 20 });
+      const wrong = await sign(t, operator, c.id, 'not-my-password');
+      expect(wrong.status).toBe(400);
+      expect(wrong.body.message).toContain('not right');
+      expect((await detail(c.id)).status).toBe('in_progress');
+      const right = await sign(t, operator, c.id);
+      expect(right.status).toBe(200);
+      expect(right.body).toMatchObject({ status: 'signed', signedByName: operator.account.displayName, version: 1 });
+      expect(Math.abs(Date.parse(right.body.signedAt) - Date.now())).toBeLessThan(60_000);
+    });
+
+    it('accepts the signing PIN instead of the password', async () => {
+      const pin = '482917';
+      expect((await t.http.post('/api/auth/signing-pin').set(as(operator)).send({ currentPassword: operator.account.password, pin })).status).toBeLessThan(300);
+      const run = await preparingRun(t, operator, engine.id);
+      const c = await startChecklist(t, operator, run.id, preLube.id);
+      await fill(t, operator, c.id, 'valves', { tick: true });
+      await fill(t, operator, c.id, 'pressure', { value: 20 });
+      expect((await sign(t, operator, c.id, pin)).status).toBe(200);
+    });
+
+    it('needs the template’s qualification: refused without it, whatever the role', async () => {
+      const run = await preparingRun(t, operator, engine.id);
+      const c = await startChecklist(t, unqualified, run.id, inspection.id);
+      await fill(t, unqualified, c.id, 'guards', { tick: true });
+      await fill(t, unqualified, c.id, 'barring', { choice: 'Out and locked' });
+      const r = await sign(t, unqualified, c.id);
+      expect(r.status).toBe(403);
+      expect(r.body.message).toContain('start and run qualification');
+      const otherChief = await login(t, 'chief_engineer');
+      expect((await sign(t, otherChief, c.id)).status).toBe(403);
+      const admin = await login(t, 'administrator');
+      expect((await sign(t, admin, c.id)).status).toBe(403);
+      expect((await sign(t, operator, c.id)).status).toBe(200);
+    });
+
+    it('refuses an observer anything but reading', async () => {
+      const run = await preparingRun(t, operator, engine.id);
+      expect((await t.http.post(`/api/runs/${run.id}/checklists`).set(as(observer)).send({ templateId: preLube.id })).status).toBe(403);
+      const c = await startChecklist(t, operator, run.id, preLube.id);
+      expect((await fill(t, observer, c.id, 'valves', { tick: true })).status).toBe(403);
+      expect((await t.http.get(`/api/checklists/${c.id}`).set(as(observer))).status).toBe(200);
+    });
+  });
+
+  describe('items', () => {
+    it('can be filled in any order and take only the field of their kind', async () => {
+      const run = await preparingRun(t, operator, engine.id);
+      const c = await startChecklist(t, operator, run.id, inspection.id);
+      expect((await fill(t, operator, c.id, 'barring', { choice: 'Out and locked' })).body.requiredDone).toBe(1);
+      expect((await fill(t, operator, c.id, 'guards', { value: 3 })).status).toBe(400);
+      expect((await fill(t, operator, c.id, 'barring', { choice: 'Half in' })).status).toBe(400);
+      expect((await fill(t, operator, c.id, 'nope', { tick: true })).status).toBe(404);
+      const done = await fill(t, operator, c.id, 'guards', { tick: true });
+      expect(done.body).toMatchObject({ requiredDone: 2, requiredItems: 2, blockedItems: 0 });
+      const second = await t.http.post(`/api/runs/${run.id}/checklists`).set(as(operator)).send({ templateId: inspection.id });
+      expect(second.status).toBe(409);
+      expect(second.body.details.checklistId).toBe(c.id);
+    });
+
+    it('take a photo by content type (PNG, JPEG, WebP), refuse other files and give the photo back', async () => {
+      const run = await preparingRun(t, operator, engine.id);
+      const c = await startChecklist(t, operator, run.id, preLube.id);
+      const up = await t.http.put(`/api/checklists/${c.id}/items/photo/photo`).set(as(operator)).set('Content-Type', 'image/png').send(PNG_1x1);
+      expect(up.status).toBe(200);
+      expect(up.body.entries.find((e: { itemKey: string }) => e.itemKey === 'photo').hasPhoto).toBe(true);
+      const back = await t.http.get(`/api/checklists/${c.id}/items/photo/photo`).set(as(observer)).buffer(true).parse((res, cb) => {
+        const chunks: Buffer[] = [];
+        res.on('data', (x: Buffer) => chunks.push(x));
+        res.on('end', () => cb(null, Buffer.concat(chunks)));
+      });
+      expect(back.status).toBe(200);
+      expect(back.headers['content-type']).toBe('image/png');
+      expect(Buffer.compare(back.body as Buffer, PNG_1x1)).toBe(0);
+
+      const fake = await t.http.put(`/api/checklists/${c.id}/items/photo/photo`).set(as(operator)).set('Content-Type', 'image/png').send(Buffer.from('<svg xmlns="http://www.w3.org/2000/svg"></svg>'));
+      expect(fake.status).toBe(415);
+      const notImage = await t.http.put(`/api/checklists/${c.id}/items/photo/photo`).set(as(operator)).set('Content-Type', 'text/plain').send('hello');
+      expect(notImage.status).toBe(415);
+      const big = Buffer.alloc(10 * 1024 * 1024 + 1, 0);
+      PNG_1x1.copy(big);
+      const tooBig = await t.http.put(`/api/checklists/${c.id}/items/photo/photo`).set(as(operator)).set('Content-Type', 'image/png').send(big);
+      expect(tooBig.status).toBe(413);
+      const wrongItem = await t.http.put(`/api/checklists/${c.id}/items/valves/photo`).set(as(operator)).set('Content-Type', 'image/png').send(PNG_1x1);
+      expect(wrongItem.status).toBe(400);
+    });
+  });
+
+  describe('completed checklists', () => {
+    it('are read-only; a mistake is corrected by an amendment with a reason, the value as signed kept', async () => {
+      const run = await preparingRun(t, operator, engine.id);
+      const c = await completeChecklist(t, operator, run.id, preLube.id);
+      expect((await fill(t, operator, c.id, 'pressure', { value: 25 })).status).toBe(409);
+      expect((await t.http.post(`/api/checklists/${c.id}/amendments`).set(as(operator)).send({ itemKey: 'pressure', value: 24 })).status).toBe(400);
+      const am = await t.http.post(`/api/checklists/${c.id}/amendments`).set(as(operator)).send({ itemKey: 'pressure', value: 24, reason: 'Misread the gauge; it was 24.' });
+      expect(am.status).toBe(201);
+      const e = am.body.entries.find((x: { itemKey: string }) => x.itemKey === 'pressure');
+      expect(e.value).toBe(24);
+      expect(e.original).toEqual({ value: 22 });
+      expect(e.amendments).toHaveLength(1);
+      expect(e.amendments[0]).toMatchObject({ oldValue: { value: 22 }, newValue: { value: 24 }, reason: 'Misread the gauge; it was 24.', byName: operator.account.displayName });
+      expect(am.body).toMatchObject({ status: 'signed', signedByName: operator.account.displayName, amendmentCount: 1 });
+    });
+
+    it('take an out-of-range amendment only from the chief engineer, with an override reason', async () => {
+      const run = await preparingRun(t, operator, engine.id);
+      const c = await completeChecklist(t, operator, run.id, preLube.id);
+      const byOperator = await t.http.post(`/api/checklists/${c.id}/amendments`).set(as(operator)).send({ itemKey: 'pressure', value: 35, reason: 'Gauge photo shows 35.' });
+      expect(byOperator.status).toBe(409);
+      const noOverride = await t.http.post(`/api/checklists/${c.id}/amendments`).set(as(chief)).send({ itemKey: 'pressure', value: 35, reason: 'Gauge photo shows 35.' });
+      expect(noOverride.status).toBe(400);
+      const ok = await t.http
+        .post(`/api/checklists/${c.id}/amendments`)
+        .set(as(chief))
+        .send({ itemKey: 'pressure', value: 35, reason: 'Gauge photo shows 35.', overrideReason: 'Relief valve set high that day; reset since.' });
+      expect(ok.status).toBe(201);
+      const e = ok.body.entries.find((x: { itemKey: string }) => x.itemKey === 'pressure');
+      expect(e.override.reason).toContain('Relief valve');
+      expect(e.amendments[0].overrideReason).toContain('Relief valve');
+    });
+  });
+
+  it('answers unknown ids with 404 and bad ids with 400', async () => {
+    expect((await t.http.get(`/api/checklists/${randomUUID()}`).set(as(operator))).status).toBe(404);
+    expect((await t.http.get('/api/checklists/not-an-id').set(as(operator))).status).toBe(400);
+    expect((await t.http.get(`/api/runs/${randomUUID()}/checklists`).set(as(operator))).status).toBe(404);
+    expect((await t.http.post(`/api/runs/${randomUUID()}/checklists`).set(as(operator)).send({ templateId: preLube.id })).status).toBe(404);
+    expect((await t.http.get(`/api/checklist-templates/${preLube.id}/versions/9`).set(as(operator))).status).toBe(404);
+  });
+});

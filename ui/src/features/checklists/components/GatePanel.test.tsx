@@ -1,0 +1,96 @@
+import type { Role, RunDetail, RunState } from '@crankjournal/shared-types';
+import { render, screen, fireEvent, within } from '../../../test-utils/render';
+import { sessionStore } from '../../../api/session';
+import { GatePanel } from './GatePanel';
+
+const run = (state: RunState): RunDetail => ({
+  id: 'run-1',
+  engineId: 'eng-1',
+  engineName: 'No. 2 engine',
+  purpose: 'demonstration',
+  state,
+  title: 'Winter open day',
+  plannedFor: null,
+  startedAt: null,
+  stoppedAt: null,
+  closedAt: null,
+  runningSeconds: 0,
+  revolutions: 0,
+  openAlarms: 0,
+  notes: '',
+  crew: [],
+  countersignedBy: null,
+  countersignedByName: null,
+  countersignedAt: null,
+  abandonedReason: null,
+  history: [],
+  peaks: [],
+  createdAt: '2026-12-01T08:00:00Z',
+});
+const json = (body: unknown, status = 200) => new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
+const signIn = (role: Role) =>
+  sessionStore.set({ accessToken: 'a', refreshToken: 'r', user: { id: 'u1', email: 'x@alderforge.example', displayName: 'Test Person', role, unitSystem: 'imperial' } });
+
+describe('GatePanel', () => {
+  afterEach(() => {
+    vi.restoreAllMocks();
+    sessionStore.set(null);
+  });
+
+  it('shows the countdown of the pre-lube window while the run is cleared', async () => {
+    signIn('operator');
+    const until = new Date(Date.now() + 12 * 60_000 + 30_000).toISOString();
+    vi.spyOn(globalThis, 'fetch').mockImplementation(async () => json({ allowed: true, reasons: [], preLubeFreshUntil: until }));
+    render(<GatePanel run={run('cleared')} />);
+    expect(await screen.findByTestId('pre-lube-remaining')).toHaveTextContent(/^12:(30|29)$/);
+    expect(screen.getByTestId('gate-clear')).toBeInTheDocument();
+    expect(screen.getByRole('button', { name: 'Start engine' })).toBeInTheDocument();
+  });
+
+  it('shows the server’s refusal with every reason when a start is refused', async () => {
+    signIn('operator');
+    vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
+      if (String(input).endsWith('/start-gate')) return json({ allowed: true, reasons: [], preLubeFreshUntil: new Date(Date.now() + 60_000).toISOString() });
+      return json(
+        {
+          statusCode: 409,
+          error: 'Conflict',
+          message: ['stale'],
+          details: { allowed: false, reasons: [{ code: 'pre_lube_stale', message: 'The pre-lube sign-off (Pre-lube) is 31 min old.', subject: 'Pre-lube' }], preLubeFreshUntil: null },
+        },
+        409,
+      );
+    });
+    render(<GatePanel run={run('cleared')} />);
+    fireEvent.click(await screen.findByRole('button', { name: 'Start engine' }));
+    fireEvent.click(within(await screen.findByRole('dialog')).getByRole('button', { name: 'Start engine' }));
+    const refused = await screen.findByTestId('start-refused');
+    expect(refused).toHaveTextContent('Start refused');
+    expect(refused).toHaveTextContent('The pre-lube sign-off (Pre-lube) is 31 min old.');
+  }, 20_000);
+
+  it('does not tell an observer about their own missing start qualification, nor offer a start', async () => {
+    signIn('observer');
+    vi.spyOn(globalThis, 'fetch').mockImplementation(async () =>
+      json({
+        allowed: false,
+        reasons: [
+          { code: 'qualification_missing', message: 'You hold no start and run qualification for No. 2 engine.' },
+          { code: 'checklist_missing', message: 'Pre-lube: no checklist has been started for this run.', subject: 'Pre-lube' },
+        ],
+      }),
+    );
+    render(<GatePanel run={run('cleared')} />);
+    const reasons = await screen.findByTestId('gate-reasons');
+    expect(reasons).toHaveTextContent('Pre-lube: no checklist has been started');
+    expect(reasons).not.toHaveTextContent('start and run qualification');
+    expect(screen.queryByRole('button', { name: 'Start engine' })).toBeNull();
+  });
+
+  it('shows nothing once the run is running', () => {
+    signIn('operator');
+    vi.spyOn(globalThis, 'fetch').mockImplementation(async () => json({ allowed: true, reasons: [] }));
+    render(<GatePanel run={run('running')} />);
+    expect(screen.queryByTestId('gate-panel')).toBeNull();
+  });
+});

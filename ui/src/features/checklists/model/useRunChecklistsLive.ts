@@ -1,0 +1,36 @@
+import { useEffect } from 'react';
+import { useQueryClient } from '@tanstack/react-query';
+import type { RunDetail, RunRecordEvent } from '@crankjournal/shared-types';
+import { getSocket, joinRoom } from '../../../api/socket';
+import { runKeys, useApplyRun } from '../../runs/api/runs.api';
+import { checklistKeys } from '../api/checklists.api';
+
+/** Keeps a run's checklists and state current from the live channel (other tablets filling and signing). */
+export function useRunChecklistsLive(runId: string) {
+  const qc = useQueryClient();
+  const applyRun = useApplyRun();
+  useEffect(() => {
+    const socket = getSocket();
+    if (!socket || !runId) return;
+    const leave = joinRoom(`run:${runId}`);
+    const onRecord = (e: RunRecordEvent) => {
+      if (e.runId !== runId || e.kind !== 'checklist') return;
+      qc.invalidateQueries({ queryKey: checklistKeys.runOverview(runId) });
+      qc.invalidateQueries({ queryKey: checklistKeys.checklist(e.id) });
+      qc.invalidateQueries({ queryKey: runKeys.startGate(runId) });
+    };
+    const onRun = (r: RunDetail) => {
+      if (r.id !== runId) return;
+      applyRun(r);
+      qc.invalidateQueries({ queryKey: checklistKeys.runOverview(runId) });
+    };
+    socket.on('run:record', onRecord);
+    socket.on('run:changed', onRun);
+    return () => {
+      socket.off('run:record', onRecord);
+      socket.off('run:changed', onRun);
+      leave();
+    };
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [runId, qc]);
+}

@@ -1,0 +1,72 @@
+import { Route, Routes } from 'react-router-dom';
+import type { EngineDetail, LimitChangeDto, UnitConversionTable } from '@crankjournal/shared-types';
+import { render, screen, within } from '../../../test-utils/render';
+import { sessionStore } from '../../../api/session';
+import EngineDetailPage from './EngineDetail.page';
+
+const engine: EngineDetail = {
+  id: 'e1',
+  name: 'No. 2 engine',
+  builder: 'Demo builder',
+  yearBuilt: '1911',
+  type: 'tandem_compound',
+  ratedSpeedRpm: 75,
+  overspeedRpm: 82,
+  mawpPsig: 150,
+  preLubeFreshnessMinutes: 30,
+  runningHours: 12.5,
+  revolutions: 56250,
+  activeRunId: null,
+  notes: '',
+  flywheelMassLb: null,
+  flywheelRadiusOfGyrationFt: null,
+  rotatingWeightLb: null,
+  cylinders: [],
+  lubricationPoints: [],
+  bearings: [],
+  measurementPoints: [{ id: 'p1', code: 'MB1-T', label: 'Main bearing 1', kind: 'bearing_temperature', unit: 'degF', sequence: 1, highLimit: 212 }],
+};
+const changes: LimitChangeDto[] = [
+  { id: 'c1', engineId: 'e1', subject: 'MB1-T Main bearing 1', field: 'highLimit', oldValue: 130, newValue: 125, changedBy: 'u1', changedByName: 'Hester Chief', changedAt: '2026-05-01T08:00:00Z' },
+];
+const table: UnitConversionTable = { imperial: {}, metric: { degF: { from: 'degF', to: 'degC', factor: 5 / 9, offset: -17.7778 } } };
+const json = (body: unknown) => new Response(JSON.stringify(body), { headers: { 'content-type': 'application/json' } });
+
+describe('engine detail page', () => {
+  beforeEach(() => {
+    sessionStore.set({
+      accessToken: 'a',
+      refreshToken: 'r',
+      user: { id: 'u2', email: 'op@alderforge.example', displayName: 'Operator', role: 'operator', unitSystem: 'metric' },
+    });
+    vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
+      const url = String(input);
+      if (url.endsWith('/limit-changes')) return json(changes);
+      if (url.endsWith('/units/conversions')) return json(table);
+      return json(engine);
+    });
+  });
+  afterEach(() => {
+    vi.restoreAllMocks();
+    sessionStore.set(null);
+  });
+
+  it('shows limits in the person’s units, the pressure caution, and each limit change as old struck through → new', async () => {
+    render(
+      <Routes>
+        <Route path="/engines/:id" element={<EngineDetailPage />} />
+      </Routes>,
+      { route: '/engines/e1' },
+    );
+    // 212 °F = 100 °C (boiling point of water at one standard atmosphere; common practice, no source).
+    expect(await screen.findByText('100.0 °C', {}, { timeout: 8000 })).toBeInTheDocument();
+    expect(screen.getAllByText(/maximum allowable working pressure is the figure on the boiler’s current certificate/).length).toBeGreaterThan(0);
+    const history = await screen.findByRole('table', { name: 'Changes to limits and settings' });
+    expect(within(history).getByText('Hester Chief')).toBeInTheDocument();
+    expect(within(history).getByLabelText('old value')).toHaveClass('cj-struck');
+    expect(within(history).getByLabelText('old value')).toHaveTextContent('130');
+    expect(within(history).getByText('125')).toBeInTheDocument();
+    // An operator cannot edit the engine.
+    expect(screen.queryByRole('link', { name: /Edit engine/ })).not.toBeInTheDocument();
+  }, 20_000);
+});

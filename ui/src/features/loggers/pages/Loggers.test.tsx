@@ -1,0 +1,65 @@
+import type { LoggerDto } from '@crankjournal/shared-types';
+import { render, screen, fireEvent, within } from '../../../test-utils/render';
+import { sessionStore } from '../../../api/session';
+import LoggersPage from './Loggers.page';
+
+const json = (body: unknown, status = 200) => new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
+const logger: LoggerDto = {
+  id: 'l1',
+  engineId: 'e1',
+  name: 'Bearing thermocouples',
+  keyPrefix: 'cjl_ab12',
+  createdAt: '2026-05-01T08:00:00Z',
+  revokedAt: null,
+  lastSeenAt: null,
+};
+
+describe('data loggers page', () => {
+  beforeEach(() => {
+    sessionStore.set({
+      accessToken: 'a',
+      refreshToken: 'r',
+      user: { id: 'u1', email: 'admin@alderforge.example', displayName: 'Admin', role: 'administrator', unitSystem: 'imperial' },
+    });
+  });
+  afterEach(() => {
+    vi.restoreAllMocks();
+    sessionStore.set(null);
+  });
+
+  it('shows an issued key once, with a copy button and a warning', async () => {
+    const fetchSpy = vi.spyOn(globalThis, 'fetch').mockImplementation(async (input, init) => {
+      const url = String(input);
+      if (url === '/api/engines') return json([{ id: 'e1', name: 'No. 2 engine' }]);
+      if (url === '/api/loggers' && init?.method === 'POST') return json({ ...logger, id: 'l2', name: 'Oil pressure logger', key: 'cjl_secret_key_123' });
+      return json([logger]);
+    });
+    render(<LoggersPage />);
+    expect(await screen.findByText('Bearing thermocouples', {}, { timeout: 8000 })).toBeInTheDocument();
+    fireEvent.click(screen.getByRole('button', { name: 'Issue a logger key' }));
+    const dialog = await screen.findByRole('dialog');
+    fireEvent.change(within(dialog).getByLabelText(/Logger name/), { target: { value: 'Oil pressure logger' } });
+    fireEvent.click(within(dialog).getByRole('button', { name: 'Issue key' }));
+    expect(await screen.findByTestId('issued-key', {}, { timeout: 8000 })).toHaveTextContent('cjl_secret_key_123');
+    expect(screen.getByText(/only time the key is shown/)).toBeInTheDocument();
+    expect(screen.getByRole('button', { name: 'Copy key' })).toBeInTheDocument();
+    const post = fetchSpy.mock.calls.find(([, init]) => init?.method === 'POST')!;
+    expect(JSON.parse(String(post[1]!.body))).toEqual({ engineId: 'e1', name: 'Oil pressure logger' });
+  }, 20_000);
+
+  it('asks before revoking a key', async () => {
+    const fetchSpy = vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
+      const url = String(input);
+      if (url === '/api/engines') return json([{ id: 'e1', name: 'No. 2 engine' }]);
+      if (url === '/api/loggers/l1/revoke') return json({ ...logger, revokedAt: '2026-05-02T08:00:00Z' });
+      return json([logger]);
+    });
+    render(<LoggersPage />);
+    fireEvent.click(await screen.findByRole('button', { name: 'Revoke key' }, { timeout: 8000 }));
+    const dialog = await screen.findByRole('dialog');
+    expect(dialog).toHaveTextContent('will be refused from now on');
+    expect(fetchSpy.mock.calls.some(([u]) => String(u).endsWith('/revoke'))).toBe(false);
+    fireEvent.click(within(dialog).getByRole('button', { name: 'Revoke key' }));
+    await vi.waitFor(() => expect(fetchSpy.mock.calls.some(([u]) => String(u) === '/api/loggers/l1/revoke')).toBe(true));
+  }, 20_000);
+});

@@ -1,0 +1,26 @@
+import { Badge } from '@mantine/core';
+import { IconAlertOctagon, IconAlertTriangle, IconCheck } from '@tabler/icons-react';
+import { DUE_STATUS_LABELS, type DueStatus } from '@crankjournal/shared-types';
+
+/** Due status by word, icon and colour (colour only when a person is needed). */
+const noCut = { root: { overflow: 'visible', flexShrink: 0 }, label: { overflow: 'visible' } } as const;
+
+export function DueBadge({ status, size = 'md' }: { status: DueStatus; size?: 'sm' | 'md' | 'lg' }) {
+  if (status === 'overdue')
+    return (
+      <Badge color="signal" variant="filled" size={size} styles={noCut} leftSection={<IconAlertOctagon size={14} />} data-testid="due-overdue">
+        {DUE_STATUS_LABELS.overdue}
+      </Badge>
+    );
+  if (status === 'due_soon')
+    return (
+      <Badge color="amber" variant="light" size={size} styles={noCut} leftSection={<IconAlertTriangle size={14} />} data-testid="due-soon">
+        {DUE_STATUS_LABELS.due_soon}
+      </Badge>
+    );
+  return (
+    <Badge color="gray" variant="outline" size={size} styles={noCut} leftSection={<IconCheck size={14} />}>
+      {DUE_STATUS_LABELS.ok}
+    </Badge>
+  );
+}

@@ -1,0 +1,50 @@
+import { render, screen, waitFor } from '../../../test-utils/render';
+import RollingPassCalculatorPage, { EXAMPLE, toRollingPassRequest } from './RollingPassCalculator.page';
+import { json, overloaded } from '../test/fixtures';
+
+// Rendering Mantine in jsdom is slow on a busy machine.
+vi.setConfig({ testTimeout: 30_000 });
+
+describe('rolling pass calculator', () => {
+  afterEach(() => vi.restoreAllMocks());
+
+  it('sends a flat body with units in the names, sections split into thickness and width', () => {
+    const body = toRollingPassRequest(EXAMPLE);
+    expect(body).toMatchObject({
+      rollDiameterMm: 406.4,
+      entryThicknessMm: 76.2,
+      entryWidthMm: 76.2,
+      exitThicknessMm: 62,
+      exitWidthMm: 80,
+      temperatureC: 1150,
+      carbonPct: 0.2,
+      rollSpeedRpm: 75,
+      standMaxForceKn: 900,
+      flywheelMassLb: 156800,
+      flywheelRadiusOfGyrationFt: 9.9,
+      barExitLengthM: 2.1,
+      indicatedHp: 650,
+    });
+  });
+
+  it('leaves the flywheel group out when it is not checked, and a round exit sends its diameter twice', () => {
+    const body = toRollingPassRequest({ ...EXAMPLE, flywheel: false, exit: { shape: 'round', heightMm: 60, widthMm: '' } });
+    expect(body.flywheelMassLb).toBeUndefined();
+    expect(body.indicatedHp).toBeUndefined();
+    expect(body).toMatchObject({ exitShape: 'round', exitThicknessMm: 60, exitWidthMm: 60 });
+  });
+
+  it('shows the server’s figures and its warnings', async () => {
+    const fetchSpy = vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
+      if (String(input).endsWith('/calculations/rolling-pass')) return json({ ...overloaded(), caution: 'Test caution from the server.' });
+      return json([]);
+    });
+    render(<RollingPassCalculatorPage />);
+    const result = await screen.findByTestId('rolling-pass-result', {}, { timeout: 10000 });
+    expect(result).toHaveTextContent('2,347 kN');
+    expect(result).toHaveTextContent('61.9 rpm');
+    expect(screen.getAllByRole('alert').map((a) => a.textContent).join(' ')).toMatch(/Flywheel speed drop/);
+    expect(screen.getByText('Test caution from the server.')).toBeInTheDocument();
+    await waitFor(() => expect(fetchSpy.mock.calls.some(([u]) => String(u).endsWith('/calculations/rolling-pass'))).toBe(true));
+  });
+});

@@ -1,0 +1,73 @@
+import type { Role } from '@crankjournal/shared-types';
+import { render, screen, fireEvent, waitFor } from '../../../test-utils/render';
+import { sessionStore } from '../../../api/session';
+import { LotStatusActions } from './LotStatusActions';
+import { json, lot } from '../test/fixtures';
+
+function signIn(role: Role) {
+  sessionStore.set({ accessToken: 'a', refreshToken: 'r', user: { id: 'u1', email: 'x@alderforge.example', displayName: 'Test Person', role, unitSystem: 'imperial' } });
+}
+
+// Rendering Mantine in jsdom is slow on a busy machine.
+vi.setConfig({ testTimeout: 30_000 });
+
+describe('LotStatusActions', () => {
+  afterEach(() => {
+    vi.restoreAllMocks();
+    sessionStore.set(null);
+  });
+
+  it.each([
+    ['mill_lead', true],
+    ['chief_engineer', true],
+    ['observer', false],
+    ['operator', false],
+    ['administrator', false],
+  ] as [Role, boolean][])('a %s sees the next step: %s', (role, shown) => {
+    signIn(role);
+    render(<LotStatusActions lot={lot()} />);
+    expect(!!screen.queryByRole('button', { name: 'Mark accepted' })).toBe(shown);
+  });
+
+  it('a delivered lot has no next step', () => {
+    signIn('mill_lead');
+    render(<LotStatusActions lot={lot({ status: 'delivered', nextStatus: null })} />);
+    expect(screen.queryByRole('button')).not.toBeInTheDocument();
+  });
+
+  it('moves the lot one step with the note', async () => {
+    signIn('mill_lead');
+    const fetchSpy = vi.spyOn(globalThis, 'fetch').mockImplementation(async () => json(lot({ status: 'accepted', nextStatus: 'scheduled' })));
+    render(<LotStatusActions lot={lot()} />);
+    fireEvent.click(screen.getByRole('button', { name: 'Mark accepted' }));
+    const dialog = await screen.findByRole('dialog');
+    fireEvent.change(screen.getByLabelText('Note (optional)'), { target: { value: 'Accepted by telephone' } });
+    fireEvent.click(dialog.querySelectorAll('button')[dialog.querySelectorAll('button').length - 1]);
+    await waitFor(() => expect(fetchSpy).toHaveBeenCalled(), { timeout: 5000 });
+    const [url, init] = fetchSpy.mock.calls[0]!;
+    expect(String(url)).toBe('/api/mill/lots/lot-1/transitions');
+    expect(JSON.parse(String(init?.body))).toEqual({ to: 'accepted', note: 'Accepted by telephone' });
+  });
+
+  it('asks for the tonnage when marking rolled, records it, then moves the lot; shows the server’s refusal', async () => {
+    signIn('chief_engineer');
+    const fetchSpy = vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
+      if (String(input).endsWith('/transitions')) return json({ statusCode: 409, error: 'Conflict', message: 'Someone else moved this lot a moment ago. Look again and retry.' }, 409);
+      return json(lot({ status: 'scheduled', producedTonnes: 1.9 }));
+    });
+    render(<LotStatusActions lot={lot({ status: 'scheduled', nextStatus: 'rolled' })} />);
+    fireEvent.click(screen.getByRole('button', { name: 'Mark rolled' }));
+    const dialog = await screen.findByRole('dialog');
+    expect(screen.getByLabelText('Produced, tonnes')).toHaveValue('1.9');
+    fireEvent.change(screen.getByLabelText('Produced, tonnes'), { target: { value: '1.95' } });
+    const confirm = [...dialog.querySelectorAll('button')].find((b) => b.textContent === 'Mark rolled')!;
+    fireEvent.click(confirm);
+    await waitFor(() => expect(fetchSpy).toHaveBeenCalledTimes(2), { timeout: 5000 });
+    const [url1, init1] = fetchSpy.mock.calls[0]!;
+    expect(String(url1)).toBe('/api/mill/lots/lot-1');
+    expect(init1?.method).toBe('PATCH');
+    expect(JSON.parse(String(init1?.body))).toEqual({ producedTonnes: 1.95, scrappedTonnes: 0.1 });
+    expect(JSON.parse(String(fetchSpy.mock.calls[1]![1]?.body))).toEqual({ to: 'rolled' });
+    expect(await screen.findByRole('alert', {}, { timeout: 5000 })).toHaveTextContent('Someone else moved this lot');
+  });
+});

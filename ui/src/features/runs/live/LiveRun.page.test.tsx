@@ -1,0 +1,131 @@
+import { Route, Routes } from 'react-router-dom';
+import type { AlarmDto, BoardPoint, EngineDetail, Role, RunDetail } from '@crankjournal/shared-types';
+import { render, screen, within } from '../../../test-utils/render';
+import { sessionStore } from '../../../api/session';
+import LiveRunPage from './LiveRun.page';
+
+vi.mock('../../../api/socket', () => ({ getSocket: () => null, joinRoom: () => () => {}, closeSocket: () => {} }));
+vi.mock('@mantine/charts', () => ({ LineChart: () => null, Sparkline: () => null }));
+
+const RUN = 'run-1';
+const ENGINE = 'eng-1';
+const run: RunDetail = {
+  id: RUN,
+  engineId: ENGINE,
+  engineName: 'No. 2 engine',
+  purpose: 'demonstration',
+  state: 'running',
+  title: 'Winter open day',
+  plannedFor: null,
+  startedAt: '2025-06-14T10:00:00Z',
+  stoppedAt: null,
+  closedAt: null,
+  runningSeconds: 600,
+  revolutions: 750,
+  openAlarms: 1,
+  notes: '',
+  crew: [],
+  countersignedBy: null,
+  countersignedByName: null,
+  countersignedAt: null,
+  abandonedReason: null,
+  history: [],
+  peaks: [],
+  createdAt: '2025-06-14T09:00:00Z',
+};
+const engine = {
+  id: ENGINE,
+  name: 'No. 2 engine',
+  mawpPsig: 150,
+  overspeedRpm: 82,
+  ratedSpeedRpm: 75,
+  measurementPoints: [{ id: 'p-mb2', code: 'MB2-T', label: 'Main bearing 2 temperature', kind: 'bearing_temperature', unit: 'degF', sequence: 1, normalLow: 70, normalHigh: 115, highLimit: 130, highHighLimit: 145 }],
+} as unknown as EngineDetail;
+const board: BoardPoint[] = [{ pointId: 'p-mb2', value: 147, unit: 'degF', takenAt: '2025-06-14T10:10:00Z', trend: [120, 147], alarmState: 'active_unacknowledged', alarmPriority: 'high_high' }];
+const alarm: AlarmDto = {
+  id: 'a1',
+  engineId: ENGINE,
+  runId: RUN,
+  pointId: 'p-mb2',
+  pointLabel: 'Main bearing 2 temperature',
+  kind: 'high_high',
+  priority: 'high_high',
+  state: 'active_unacknowledged',
+  conditionActive: true,
+  message: 'Main bearing 2 temperature 147 °F is above its high-high limit 145 °F.',
+  value: 147,
+  limit: 145,
+  unit: 'degF',
+  raisedAt: '2025-06-14T10:10:00Z',
+  acknowledgedAt: null,
+  acknowledgedByName: null,
+  returnedAt: null,
+  shelvedUntil: null,
+  shelveReason: null,
+  shelvedByName: null,
+  updatedAt: '2025-06-14T10:10:00Z',
+};
+
+function respond(url: string): unknown {
+  const path = url.replace(/^.*\/api/, '');
+  if (path === `/runs/${RUN}`) return run;
+  if (path === `/engines/${ENGINE}`) return engine;
+  if (path === `/runs/${RUN}/board`) return board;
+  if (path.startsWith(`/runs/${RUN}/readings`)) return [];
+  if (path === `/runs/${RUN}/alarms`) return [alarm];
+  if (path.startsWith('/alarms?')) return [alarm];
+  if (path === `/runs/${RUN}/start-gate`) return { allowed: true, reasons: [] };
+  if (path === '/units/conversions') return { imperial: {}, metric: {} };
+  throw new Error(`unexpected ${path}`);
+}
+
+function signIn(role: Role) {
+  sessionStore.set({ accessToken: 'a.b.c', refreshToken: 'r', user: { id: 'u1', email: 'x@example.test', displayName: 'Test Person', role, unitSystem: 'imperial' } });
+}
+
+beforeEach(() => {
+  vi.stubGlobal(
+    'fetch',
+    vi.fn(async (url: string) => new Response(JSON.stringify(respond(String(url))), { status: 200, headers: { 'content-type': 'application/json' } })),
+  );
+});
+afterEach(() => {
+  vi.unstubAllGlobals();
+  sessionStore.set(null);
+});
+
+const page = () =>
+  render(
+    <Routes>
+      <Route path="/runs/:id" element={<LiveRunPage />} />
+    </Routes>,
+    { route: `/runs/${RUN}` },
+  );
+
+describe('live run page', () => {
+  it('pins a red high-high alarm banner with its point, message and an Acknowledge button for an operator', async () => {
+    signIn('operator');
+    page();
+    const banner = await screen.findByTestId('alarm-banner');
+    const row = within(banner).getByText(/Main bearing 2 temperature · High-high/).closest('[data-priority]')!;
+    expect(row).toHaveAttribute('data-priority', 'high_high');
+    expect(row.getAttribute('style')).toContain('--mantine-color-signal-7');
+    expect(within(banner).getByText(/above its high-high limit 145/)).toBeInTheDocument();
+    expect(within(banner).getByRole('button', { name: 'Acknowledge Main bearing 2 temperature alarm' })).toBeInTheDocument();
+    expect(await screen.findByRole('link', { name: /Record round/ })).toHaveAttribute('href', `/runs/${RUN}/round`);
+    // The board tile names its state in words, not by colour alone.
+    expect(await screen.findByTestId('board-MB2-T')).toHaveTextContent('High-high — not acknowledged');
+  });
+
+  it('shows an observer everything but no write buttons', async () => {
+    signIn('observer');
+    page();
+    const banner = await screen.findByTestId('alarm-banner');
+    expect(within(banner).getByText(/above its high-high limit 145/)).toBeInTheDocument();
+    expect(await screen.findByTestId('board-MB2-T')).toHaveTextContent('147');
+    expect(screen.queryByRole('button', { name: /Acknowledge/ })).toBeNull();
+    expect(screen.queryByRole('link', { name: /Record round/ })).toBeNull();
+    expect(screen.queryByRole('tab', { name: /Import/ })).toBeNull();
+    expect(screen.getByRole('button', { name: /Readings CSV/ })).toBeInTheDocument();
+  });
+});
