@@ -17,7 +17,7 @@ FILE=""
 TARGET=""
 FORCE=0
 URL=""
-usage() { sed -n '2,13p' "${BASH_SOURCE[0]}" | sed 's/^# \{0,1\}//'; }
+usage() { sed -n '2,12p' "${BASH_SOURCE[0]}" | sed 's/^# \{0,1\}//'; }
 while [ $# -gt 0 ]; do
   case "$1" in
     --database) TARGET="${2:?--database needs a name}"; shift 2 ;;

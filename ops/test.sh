@@ -45,6 +45,13 @@ BUILD_RC=$?
 set -e
 [ "$BUILD_RC" = 0 ] || say "the build failed (exit $BUILD_RC); running the suites anyway"
 
+# The environment the service sees in the API tests and the browser tests.
+export NODE_ENV=test
+export JWT_SECRET="test-only-secret-0123456789abcdef"
+export SMTP_HOST=127.0.0.1 SMTP_PORT
+export MAIL_INBOX_URL="http://127.0.0.1:$MAIL_HTTP_PORT"
+export S3_ENDPOINT="http://127.0.0.1:$S3_PORT"
+
 say "creating fresh test databases"
 pg_database "$PG_PORT" "$E2E_DB" fresh
 pg_database "$PG_PORT" "$BROWSER_DB" fresh
@@ -52,13 +59,6 @@ pg_database "$PG_PORT" "$RELIABILITY_DB" fresh
 (cd "$ROOT/service" && DATABASE_URL="$(db_url "$E2E_DB")" node dist/database/migrate.js)
 (cd "$ROOT/service" && DATABASE_URL="$(db_url "$BROWSER_DB")" node dist/database/migrate.js \
   && DATABASE_URL="$(db_url "$BROWSER_DB")" node dist/database/seeds/run-seed.js)
-
-# The environment the service sees in the API tests and the browser tests.
-export NODE_ENV=test
-export JWT_SECRET="test-only-secret-0123456789abcdef"
-export SMTP_HOST=127.0.0.1 SMTP_PORT
-export MAIL_INBOX_URL="http://127.0.0.1:$MAIL_HTTP_PORT"
-export S3_ENDPOINT="http://127.0.0.1:$S3_PORT"
 
 set +e
 

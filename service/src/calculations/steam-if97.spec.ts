@@ -66,12 +66,12 @@ describe('IF97 region 2, specific volume', () => {
     expect(relativeError(region2SpecificVolumeM3PerKg(tK, pMPa), v)).toBeLessThan(1e-8);
   });
 
-  // "Saturation Properties for Steam – Temperature Table", Ohio University ME thermodynamics property
-  // tables (web page, NIST-based values); IF97 and IAPWS-95 agree to about 0.1 % here.
+  // G. F. C. Rogers & Y. R. Mayhew, Thermodynamic and Transport Properties of Fluids (SI units), 5th ed.,
+  // saturated water and steam table (from memory): v_g 12.03 m³/kg at 50 °C, 2.361 m³/kg at 90 °C.
   it.each([
-    [50, 12.027],
-    [90, 2.3591],
-  ])('dry saturated vapour at %p °C has v_g ≈ %p m³/kg (Ohio University steam table, temperature table)', (tC, vg) => {
+    [50, 12.03],
+    [90, 2.361],
+  ])('dry saturated vapour at %p °C has v_g ≈ %p m³/kg (Rogers & Mayhew steam tables, 5th ed.)', (tC, vg) => {
     const pMPa = saturationPressureMPa(tC + 273.15);
     expect(relativeError(saturatedVapourSpecificVolumeM3PerKg(pMPa), vg)).toBeLessThan(1e-3);
   });

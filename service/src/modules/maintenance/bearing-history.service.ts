@@ -208,8 +208,8 @@ export class BearingHistoryService {
     const points = ctx.points;
     const { stats, alarms } = await this.figures(ctx, [bearing.id]);
     const { rows, measure, note, band } = this.runRows(ctx, bearing.id, stats, alarms);
-    const inspections = await this.inspections.ofBearing(bearing.id);
-    const workRecords = await this.work.ofBearing(bearing.id);
+    const inspections = await this.inspections.ofBearing(bearing.id, bearing.label);
+    const workRecords = await this.work.ofBearing(bearing.id, bearing.label);
     const f1 = (v: number | null) => (v === null ? '\u2014' : v.toFixed(0));
     const timeline: TimelineEntry[] = [
       ...rows.map((r) => ({
@@ -271,9 +271,9 @@ export class BearingHistoryService {
       const ctx = await this.engineContext(engineId);
       const points = ctx.points;
       const { stats, alarms } = await this.figures(ctx, engine.bearings.map((b) => b.id));
+      const inspected = await this.inspections.lastInspectedAt(engine.bearings.map((b) => b.id));
       for (const b of engine.bearings) {
         const { rows } = this.runRows(ctx, b.id, stats, alarms);
-        const inspections = await this.inspections.ofBearing(b.id);
         const last = rows[rows.length - 1];
         out.push({
           id: b.id,
@@ -286,7 +286,7 @@ export class BearingHistoryService {
           lastRunAt: last?.startedAt ?? null,
           latestRunDrift: !!last?.drift?.flagged,
           driftRuns: rows.filter((r) => r.drift?.flagged).length,
-          lastInspectionAt: inspections.length ? inspections[inspections.length - 1].inspectedAt : null,
+          lastInspectionAt: inspected.get(b.id) ?? null,
         });
       }
     }

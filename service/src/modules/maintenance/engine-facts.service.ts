@@ -45,7 +45,18 @@ export class EngineFactsService {
 
   /** The engine that has this bearing, and the bearing. 404 when no engine has it. */
   async bearing(bearingId: string): Promise<{ engine: EngineDetail; bearing: EngineDetail['bearings'][number] }> {
-    for (const e of await this.engines.list()) {
+    const engines = await this.engines.list();
+    // Most bearings have a temperature point: the engines' points are cached, so look there first.
+    const order = [...engines];
+    for (const e of engines) {
+      const { points } = await this.engines.withPoints(e.id);
+      if (points.some((p) => p.bearingId === bearingId)) {
+        order.splice(order.indexOf(e), 1);
+        order.unshift(e);
+        break;
+      }
+    }
+    for (const e of order) {
       const d = await this.engines.detail(e.id);
       const b = d.bearings.find((x) => x.id === bearingId);
       if (b) return { engine: d, bearing: b };

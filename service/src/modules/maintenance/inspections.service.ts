@@ -67,7 +67,7 @@ export class InspectionsService {
     return this.summaries(rows);
   }
 
-  async summaries(rows: Inspection[]): Promise<InspectionSummary[]> {
+  async summaries(rows: Inspection[], knownLabels?: Map<string, string>): Promise<InspectionSummary[]> {
     if (!rows.length) return [];
     const ids = rows.map((r) => r.id);
     const counts: { inspection_id: string; n: number; out: number }[] = await this.db.query(
@@ -78,7 +78,7 @@ export class InspectionsService {
       `SELECT inspection_id, count(*)::int AS n FROM inspection_attachments WHERE inspection_id = ANY($1) GROUP BY inspection_id`,
       [ids],
     );
-    const bearingLabels = await this.bearingLabels(rows.map((r) => r.engineId));
+    const bearingLabels = knownLabels ?? (await this.bearingLabels(rows.map((r) => r.engineId)));
     return rows.map((r) => {
       const c = counts.find((x) => x.inspection_id === r.id);
       return {
@@ -272,9 +272,19 @@ export class InspectionsService {
   }
 
   /** Inspections of a bearing, oldest first (for its history). */
-  async ofBearing(bearingId: string): Promise<InspectionSummary[]> {
+  async ofBearing(bearingId: string, bearingLabel?: string): Promise<InspectionSummary[]> {
     const rows = await this.db.getRepository(Inspection).find({ where: { bearingId }, order: { inspectedAt: 'ASC' } });
-    return this.summaries(rows);
+    return this.summaries(rows, bearingLabel !== undefined ? new Map([[bearingId, bearingLabel]]) : undefined);
+  }
+
+  /** When each of these bearings was last inspected (one grouped query). */
+  async lastInspectedAt(bearingIds: string[]): Promise<Map<string, string>> {
+    if (!bearingIds.length) return new Map();
+    const rows: { bearing_id: string; at: Date }[] = await this.db.query(
+      `SELECT bearing_id, max(inspected_at) AS at FROM inspections WHERE bearing_id = ANY($1::uuid[]) GROUP BY bearing_id`,
+      [bearingIds],
+    );
+    return new Map(rows.map((r) => [r.bearing_id, new Date(r.at).toISOString()]));
   }
 
   async exists(ids: string[]): Promise<Inspection[]> {

@@ -45,10 +45,9 @@ export class WorkRecordsService {
   }
 
   /** Work on a bearing, oldest first (for its history). */
-  async ofBearing(bearingId: string): Promise<WorkRecordSummary[]> {
+  async ofBearing(bearingId: string, bearingLabel: string): Promise<WorkRecordSummary[]> {
     const rows = await this.db.getRepository(WorkRecord).find({ where: { bearingId }, order: { startedAt: 'ASC' } });
-    const labels = await this.bearingLabels(rows.map((r) => r.engineId));
-    return rows.map((w) => workSummary(w, w.bearingId ? (labels.get(w.bearingId) ?? null) : null));
+    return rows.map((w) => workSummary(w, bearingLabel));
   }
 
   async detail(id: string): Promise<WorkRecordDto> {

@@ -7,7 +7,7 @@ import { IngestService } from './ingest.service.js';
 import { RunsService } from './runs.service.js';
 import type { Run } from './run.entity.js';
 
-const CHUNK_ROWS = 1000;
+const CHUNK_ROWS = 5000;
 const COLUMNS: Record<string, string> = { takenAt: 'taken_at', pointCode: 'point', pointId: 'point', value: 'value', unit: 'unit', clientId: 'client_id' };
 
 /** A stable id for a CSV row without one: the same point at the same moment in the same run is the same reading. */
