@@ -76,6 +76,8 @@ if (b5) {
     yes(b5.met.usable),
   ]);
 }
+/** Long lists of ids in a plan, shortened: '{a,b,…}' → '{… 124 ids …}'. */
+const shortPlan = (plan) => plan.replace(/'\{((?:[0-9a-f-]{36},)+[0-9a-f-]{36})\}'/g, (_m, ids) => (ids.length > 200 ? `'{… ${ids.split(',').length} ids …}'` : `'{${ids}}'`));
 const table = (head, body) => [`| ${head.join(' | ')} |`, `| ${head.map(() => '---').join(' | ')} |`, ...body.map((r) => `| ${r.join(' | ')} |`)].join('\n');
 
 const md = [];
@@ -238,15 +240,15 @@ if (b4) {
   md.push('');
   md.push(`The view reads the kept figures of the closed runs (${fmt(b4.queries.kept.ms, 2)} ms):`);
   md.push('');
-  md.push('```sql\n' + b4.queries.kept.sql + '\n```\n\n```\n' + b4.plans.kept + '\n```');
+  md.push('```sql\n' + b4.queries.kept.sql + '\n```\n\n```\n' + shortPlan(b4.plans.kept) + '\n```');
   md.push('');
   md.push(`and computes those of the open run afresh (${fmt(b4.queries.openRun.ms, 1)} ms):`);
   md.push('');
-  md.push('```sql\n' + b4.queries.openRun.sql + '\n```\n\n```\n' + b4.plans.openRun + '\n```');
+  md.push('```sql\n' + b4.queries.openRun.sql + '\n```\n\n```\n' + shortPlan(b4.plans.openRun) + '\n```');
   md.push('');
   md.push(`Without the kept figures the same aggregate over every run of the bearing would take ${fmt(b4.queries.withoutKeptFigures.ms, 0)} ms (what the start-up and ten-minute background pass spends once per closed run):`);
   md.push('');
-  md.push('```\n' + b4.plans.withoutKeptFigures + '\n```');
+  md.push('```\n' + shortPlan(b4.plans.withoutKeptFigures) + '\n```');
 } else md.push('Not measured.');
 md.push('');
 
