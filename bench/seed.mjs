@@ -3,6 +3,7 @@
 // the first three, and a logger key. Writes .data/bench/context.json for the benchmark scripts.
 import pg from 'pg';
 import { writeFileSync } from 'node:fs';
+import { randomUUID } from 'node:crypto';
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { ROOT, WORK, DB_URL, PASSWORD, api, login, log } from './lib.mjs';
@@ -103,10 +104,19 @@ const runs = {
   copy: await preparingRun(engines.copy.id, 'Bench: COPY baseline'),
   csv: await preparingRun(engines.csv.id, 'Bench: CSV import'),
 };
+// A run as the crew keeps it by hand, for the live run page: eight rounds of every point, fifteen minutes apart.
+engines.ui = await engine(loggerEngine(`Bench E, live run page ${stamp}`));
+runs.ui = await preparingRun(engines.ui.id, 'Bench: live run page');
+const roundValues = { T1: 104, T2: 107, T3: 110, T4: 112, T5: 114, T6: 116, T7: 118, T8: 121, AMB: 68, SPD: 74, THR: 126 };
+for (let k = 0; k < 8; k++) {
+  const takenAt = new Date(Date.now() - (8 - k) * 15 * 60_000).toISOString();
+  const readings = Object.entries(roundValues).map(([code, v]) => ({ clientId: randomUUID(), pointId: engines.ui.points[code].id, value: v + k * 0.5, takenAt }));
+  await api(`/api/runs/${runs.ui}/rounds`, { method: 'POST', token: tokens.operator, body: { takenAt, readings } });
+}
 const logger = await api('/api/loggers', { method: 'POST', token: tokens.admin, body: { engineId: engines.ingest.id, name: 'Bench logger' } });
 
 writeFileSync(
   join(WORK, 'context.json'),
   JSON.stringify({ people: Object.fromEntries(people.map((p) => [p.key, p.email])), tokens, engines, runs, loggerKey: logger.key, loggerId: logger.id }, null, 2),
 );
-log(`seeded: 4 people, 5 engines, 4 runs, 1 logger key`);
+log(`seeded: 4 people, 6 engines, 5 runs (one with eight rounds of readings), 1 logger key`);
