@@ -18,7 +18,8 @@ const fmt = (x, d = 0) => (x === null || x === undefined || Number.isNaN(x) ? 'â
 const kb = (b) => fmt(b / 1024, 1);
 const yes = (ok) => (ok ? '**met**' : '**missed**');
 const when = (r) => (r ? `${r.measuredAt.replace('T', ' ').slice(0, 16)} UTC, load average ${r.loadAvg?.join(' / ') ?? 'â€”'}` : 'not run');
-const stale = (r) => (r && seconds && Date.now() - Date.parse(r.measuredAt) > (seconds + 120) * 1000 ? ' (from an earlier run of the command)' : '');
+const newest = Math.max(...[b1, b2, b3, b4, b5].filter(Boolean).map((r) => Date.parse(r.measuredAt)));
+const stale = (r) => (r && seconds && newest - Date.parse(r.measuredAt) > (seconds + 120) * 1000 ? ' (from an earlier run of the command)' : '');
 
 const rows = [];
 if (b1)
