@@ -1,3 +1,4 @@
+import { assertFinite } from './input-checks.js';
 /**
  * Bearing temperature drift: is this run's temperature rise out of line with the bearing's own history
  * at comparable load?
@@ -40,9 +41,6 @@ export interface DriftBand {
   loadMax: number;
 }
 
-function assertFinite(name: string, value: number): void {
-  if (typeof value !== 'number' || !Number.isFinite(value)) throw new RangeError(`${name} must be a finite number`);
-}
 
 function mean(values: number[]): number {
   return values.reduce((s, v) => s + v, 0) / values.length;

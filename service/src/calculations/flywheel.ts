@@ -11,21 +11,11 @@
  * SI throughout (kg, m, J, W); speeds in rpm.
  */
 import { WATTS_PER_HP } from './units.js';
+import { assertFinite, assertPositive, assertNonNegative } from './input-checks.js';
 
 /** Lowest speed after a pass, as a fraction of rated speed, before a warning (common practice, no source; set per engine). */
 export const DEFAULT_MIN_SPEED_FRACTION = 0.9;
 
-function assertFinite(name: string, value: number): void {
-  if (typeof value !== 'number' || !Number.isFinite(value)) throw new RangeError(`${name} must be a finite number`);
-}
-function assertPositive(name: string, value: number): void {
-  assertFinite(name, value);
-  if (value <= 0) throw new RangeError(`${name} must be greater than zero`);
-}
-function assertNonNegative(name: string, value: number): void {
-  assertFinite(name, value);
-  if (value < 0) throw new RangeError(`${name} must be zero or greater`);
-}
 
 export function rpmToRadPerS(speedRpm: number): number {
   return (2 * Math.PI * speedRpm) / 60;

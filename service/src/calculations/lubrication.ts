@@ -7,6 +7,7 @@
  */
 import { KPA_PER_PSI } from './units.js';
 import { brakeHorsepower } from './indicated-power.js';
+import { assertFinite, assertPositive, assertNonNegative } from './input-checks.js';
 
 /** Offset between the Celsius and kelvin scales. */
 export const KELVIN_OFFSET = 273.15;
@@ -44,19 +45,6 @@ export const JACK_MARGIN_RULE_TEXT =
   'default minimum is 1.5 (common practice, no source). Any jack that is not carrying its share ' +
   'reduces the real margin.';
 
-function assertFinite(name: string, value: number): void {
-  if (typeof value !== 'number' || !Number.isFinite(value)) {
-    throw new RangeError(`${name} must be a finite number`);
-  }
-}
-function assertPositive(name: string, value: number): void {
-  assertFinite(name, value);
-  if (value <= 0) throw new RangeError(`${name} must be greater than zero`);
-}
-function assertNonNegative(name: string, value: number): void {
-  assertFinite(name, value);
-  if (value < 0) throw new RangeError(`${name} must be zero or greater`);
-}
 
 export function celsiusToKelvin(temperatureC: number): number {
   return temperatureC + KELVIN_OFFSET;

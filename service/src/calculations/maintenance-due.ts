@@ -1,3 +1,4 @@
+import { assertFinite } from './input-checks.js';
 /**
  * When is maintenance due? A plan has intervals by running hours, revolutions and/or calendar days;
  * whichever criterion comes due first governs.
@@ -67,9 +68,6 @@ export interface MaintenanceDueResult {
 
 const STATUS_RANK: Record<DueStatus, number> = { ok: 0, due_soon: 1, overdue: 2 };
 
-function assertFinite(name: string, value: number): void {
-  if (typeof value !== 'number' || !Number.isFinite(value)) throw new RangeError(`${name} must be a finite number`);
-}
 function assertDate(name: string, value: Date): void {
   if (!(value instanceof Date) || Number.isNaN(value.getTime())) throw new RangeError(`${name} must be a valid date`);
 }

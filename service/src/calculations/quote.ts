@@ -1,3 +1,4 @@
+import { assertFinite, assertNonNegative } from './input-checks.js';
 /**
  * Quote for a customer lot rolled on the mill.
  *
@@ -46,13 +47,6 @@ export interface Quote {
   total: number;
 }
 
-function assertFinite(name: string, value: number): void {
-  if (typeof value !== 'number' || !Number.isFinite(value)) throw new RangeError(`${name} must be a finite number`);
-}
-function assertNonNegative(name: string, value: number): void {
-  assertFinite(name, value);
-  if (value < 0) throw new RangeError(`${name} must be zero or greater`);
-}
 
 /** Round money to cents, half away from zero, guarding against binary representation (1.005 → 1.01). */
 export function roundToCents(amount: number): number {

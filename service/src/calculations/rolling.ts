@@ -22,6 +22,7 @@
 import { WATTS_PER_HP } from './units.js';
 import { celsiusToKelvin } from './lubrication.js';
 import { rpmToRadPerS } from './flywheel.js';
+import { assertFinite, assertPositive, assertNonNegative } from './input-checks.js';
 
 /** 1 lbf in newtons (exact: 0.45359237 kg × 9.80665 m/s²). */
 export const NEWTONS_PER_LBF = 4.4482216152605;
@@ -48,17 +49,6 @@ export const MILL_LOAD_CAUTION =
   'and treat these figures as an aid to a qualified crew, never a replacement for the mill\u2019s own limits, ' +
   'local codes or licensed practice.';
 
-function assertFinite(name: string, value: number): void {
-  if (typeof value !== 'number' || !Number.isFinite(value)) throw new RangeError(`${name} must be a finite number`);
-}
-function assertPositive(name: string, value: number): void {
-  assertFinite(name, value);
-  if (value <= 0) throw new RangeError(`${name} must be greater than zero`);
-}
-function assertNonNegative(name: string, value: number): void {
-  assertFinite(name, value);
-  if (value < 0) throw new RangeError(`${name} must be zero or greater`);
-}
 
 export interface PassGeometry {
   draftMm: number;
