@@ -27,7 +27,9 @@ const featureModules = readdirSync(path.join(root, modulesDir), { withFileTypes:
 const moduleBoundaryZones = featureModules.map((name) => ({
   target: `${modulesDir}/${name}/**`,
   from: featureModules.filter((other) => other !== name).map((other) => `${modulesDir}/${other}/**`),
-  except: featureModules.filter((other) => other !== name).flatMap((other) => [`${modulesDir}/${other}/*.service.ts`, `${modulesDir}/${other}/*.module.ts`]),
+  except: featureModules
+    .filter((other) => other !== name)
+    .flatMap((other) => [`${modulesDir}/${other}/*.service.ts`, `${modulesDir}/${other}/*.module.ts`]),
   message: 'A module uses another only through its exported service or module class (DEVELOPERS.md, "Module boundaries").',
 }));
 
@@ -56,14 +58,21 @@ export default tseslint.config(
     },
     plugins: { 'import-x': importX },
     settings: {
-      'import-x/resolver-next': [createTypeScriptImportResolver({ project: ['service/tsconfig.json', 'ui/tsconfig.json', 'ui/e2e/tsconfig.json', 'shared-types/tsconfig.json'] })],
+      'import-x/resolver-next': [
+        createTypeScriptImportResolver({
+          project: ['service/tsconfig.json', 'ui/tsconfig.json', 'ui/e2e/tsconfig.json', 'shared-types/tsconfig.json'],
+        }),
+      ],
     },
     rules: {
       '@typescript-eslint/no-floating-promises': 'error',
       '@typescript-eslint/no-misused-promises': ['error', { checksVoidReturn: { attributes: false, arguments: false } }],
       '@typescript-eslint/await-thenable': 'error',
       '@typescript-eslint/consistent-type-imports': ['error', { fixStyle: 'inline-type-imports', disallowTypeAnnotations: false }],
-      '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_', caughtErrors: 'none', ignoreRestSiblings: true }],
+      '@typescript-eslint/no-unused-vars': [
+        'error',
+        { argsIgnorePattern: '^_', varsIgnorePattern: '^_', caughtErrors: 'none', ignoreRestSiblings: true },
+      ],
       'import-x/no-duplicates': ['error', { 'prefer-inline': true }],
       'import-x/order': [
         'error',

@@ -36,7 +36,12 @@ const emitAck = (s, ev, body) => new Promise((resolve) => s.emit(ev, body, resol
 
 /** Value of reading k of a client: even k above the limit (unique, so the raise can be recognised), odd k below. */
 const valueOf = (k) => (k % 2 === 0 ? HIGH + 1 + ((k / 2) % 400) * 0.01 : HIGH - 10);
-const reading = (pointId, value) => ({ clientId: randomUUID(), pointId, value: Math.round(value * 100) / 100, takenAt: new Date().toISOString() });
+const reading = (pointId, value) => ({
+  clientId: randomUUID(),
+  pointId,
+  value: Math.round(value * 100) / 100,
+  takenAt: new Date().toISOString(),
+});
 
 async function measure(url, label, viewerToken, submitToken, serverPid) {
   const viewers = [];
@@ -133,7 +138,9 @@ async function measure(url, label, viewerToken, submitToken, serverPid) {
     latencyMs: roundStats(lat),
     ackMs: roundStats(stats(ackLatencies)),
   };
-  log(`${label}: alarm event at viewer median ${out.latencyMs.median} ms, p99 ${out.latencyMs.p99} ms (${lat.n}/${expected} events, ${mismatched} out of order, rate ${out.achievedRate}/s, ${late} late sends)`);
+  log(
+    `${label}: alarm event at viewer median ${out.latencyMs.median} ms, p99 ${out.latencyMs.p99} ms (${lat.n}/${expected} events, ${mismatched} out of order, rate ${out.achievedRate}/s, ${late} late sends)`,
+  );
   return out;
 }
 
@@ -142,7 +149,9 @@ function roundStats(s) {
 }
 
 // Baseline first (the service is idle meanwhile), then the service.
-const echo = fork(new URL('./echo-server.mjs', import.meta.url).pathname, [String(process.env.BENCH_ECHO_PORT ?? 3291)], { stdio: 'inherit' });
+const echo = fork(new URL('./echo-server.mjs', import.meta.url).pathname, [String(process.env.BENCH_ECHO_PORT ?? 3291)], {
+  stdio: 'inherit',
+});
 await new Promise((resolve, reject) => {
   echo.once('message', resolve);
   echo.once('exit', (c) => reject(new Error(`echo server ended (${c})`)));
@@ -162,7 +171,10 @@ writeResult('b1', {
   design: { viewers: VIEWERS, clients: CLIENTS, rate: RATE, warmupMs: WARMUP_MS, measureMs: MEASURE_MS },
   service,
   baseline,
-  ratio: { median: round(service.latencyMs.median / baseline.latencyMs.median, 2), p99: round(service.latencyMs.p99 / baseline.latencyMs.p99, 2) },
+  ratio: {
+    median: round(service.latencyMs.median / baseline.latencyMs.median, 2),
+    p99: round(service.latencyMs.p99 / baseline.latencyMs.p99, 2),
+  },
   target: { p99Ms: 25 },
   met: service.latencyMs.p99 <= 25 && service.eventsMissing === 0,
 });

@@ -55,7 +55,14 @@ await db.connect();
 const copyBodies = [];
 for (let b = 0; b < BATCHES; b++) {
   const slice = rows.slice(b * BATCH, (b + 1) * BATCH);
-  copyBodies.push(slice.map((r) => `${randomUUID()}\t${twinRun}\t${twin.id}\t${twin.points[r.code].id}\t${r.value}\t${twin.points[r.code].unit}\t${r.takenAt}\tlogger\t${ctx.loggerId}\n`).join(''));
+  copyBodies.push(
+    slice
+      .map(
+        (r) =>
+          `${randomUUID()}\t${twinRun}\t${twin.id}\t${twin.points[r.code].id}\t${r.value}\t${twin.points[r.code].unit}\t${r.takenAt}\tlogger\t${ctx.loggerId}\n`,
+      )
+      .join(''),
+  );
 }
 const copyBatchMs = [];
 const copyCpu0 = cpuMark();
@@ -63,7 +70,12 @@ const tCopy0 = performance.now();
 for (let b = 0; b < BATCHES; b++) {
   const t = performance.now();
   await db.query('BEGIN');
-  await pipeline(Readable.from([copyBodies[b]]), db.query(copyStreams.from('COPY readings (client_id, run_id, engine_id, point_id, value, unit, taken_at, source, logger_id) FROM STDIN')));
+  await pipeline(
+    Readable.from([copyBodies[b]]),
+    db.query(
+      copyStreams.from('COPY readings (client_id, run_id, engine_id, point_id, value, unit, taken_at, source, logger_id) FROM STDIN'),
+    ),
+  );
   await db.query('COMMIT');
   copyBatchMs.push(performance.now() - t);
 }
@@ -75,11 +87,15 @@ log(`baseline COPY: ${Math.round(copyRate)} rows/s (${BATCHES} × ${BATCH} rows 
 // ---- the service: logger batch push ----------------------------------------------------------------
 const bodies = [];
 for (let b = 0; b < BATCHES; b++) {
-  const readings = rows.slice(b * BATCH, (b + 1) * BATCH).map((r) => ({ clientId: randomUUID(), pointCode: r.code, value: r.value, takenAt: r.takenAt }));
+  const readings = rows
+    .slice(b * BATCH, (b + 1) * BATCH)
+    .map((r) => ({ clientId: randomUUID(), pointCode: r.code, value: r.value, takenAt: r.takenAt }));
   bodies.push(JSON.stringify({ runId, readings }));
 }
 log(`request body: ${(bodies[0].length / 1e6).toFixed(1)} MB per batch of ${BATCH}`);
-const [{ n: alarms0 }] = (await db.query(`SELECT count(*)::int AS n FROM alarm_events e JOIN alarms a ON a.id = e.alarm_id WHERE a.engine_id = $1`, [eng.id])).rows;
+const [{ n: alarms0 }] = (
+  await db.query(`SELECT count(*)::int AS n FROM alarm_events e JOIN alarms a ON a.id = e.alarm_id WHERE a.engine_id = $1`, [eng.id])
+).rows;
 
 const pushMs = [];
 let stored = 0;
@@ -91,7 +107,11 @@ async function pusher() {
   while (next < BATCHES) {
     const body = bodies[next++];
     const t = performance.now();
-    const res = await fetch(`${BASE}/api/logger/readings`, { method: 'POST', headers: { 'content-type': 'application/json', 'x-logger-key': ctx.loggerKey }, body });
+    const res = await fetch(`${BASE}/api/logger/readings`, {
+      method: 'POST',
+      headers: { 'content-type': 'application/json', 'x-logger-key': ctx.loggerKey },
+      body,
+    });
     const out = await res.json();
     if (!res.ok) throw new Error(`push refused: ${res.status} ${JSON.stringify(out).slice(0, 400)}`);
     pushMs.push(performance.now() - t);
@@ -103,9 +123,13 @@ await Promise.all(Array.from({ length: IN_FLIGHT }, pusher));
 const pushSeconds = (performance.now() - t0) / 1000;
 const cpu = cpuSince(cpu0);
 const rate = stored / pushSeconds;
-const [{ n: alarms1 }] = (await db.query(`SELECT count(*)::int AS n FROM alarm_events e JOIN alarms a ON a.id = e.alarm_id WHERE a.engine_id = $1`, [eng.id])).rows;
+const [{ n: alarms1 }] = (
+  await db.query(`SELECT count(*)::int AS n FROM alarm_events e JOIN alarms a ON a.id = e.alarm_id WHERE a.engine_id = $1`, [eng.id])
+).rows;
 await db.end();
-log(`service: ${Math.round(rate)} readings/s (${stored} stored in ${pushSeconds.toFixed(1)} s, ${raised} alarms raised, ${alarms1 - alarms0} alarm events)`);
+log(
+  `service: ${Math.round(rate)} readings/s (${stored} stored in ${pushSeconds.toFixed(1)} s, ${raised} alarms raised, ${alarms1 - alarms0} alarm events)`,
+);
 if (stored !== total) throw new Error(`stored ${stored} of ${total}`);
 
 const pushStats = stats(pushMs);

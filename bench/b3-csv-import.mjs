@@ -13,7 +13,22 @@ import { Transform } from 'node:stream';
 import pg from 'pg';
 import copyStreams from 'pg-copy-streams';
 import { Agent, request } from 'undici';
-import { BASE, DB_URL, WORK, SERVER_PID, context, login, log, round, writeResult, memoryOf, resetPeakRss, rssSampler, cpuMark, cpuSince } from './lib.mjs';
+import {
+  BASE,
+  DB_URL,
+  WORK,
+  SERVER_PID,
+  context,
+  login,
+  log,
+  round,
+  writeResult,
+  memoryOf,
+  resetPeakRss,
+  rssSampler,
+  cpuMark,
+  cpuSince,
+} from './lib.mjs';
 
 const ROWS = Number(process.env.B3_ROWS ?? 1_000_000);
 const ctx = context();
@@ -75,10 +90,13 @@ const importSeconds = (performance.now() - t0) / 1000;
 const cpu = cpuSince(cpu0);
 const sampled = sampler?.stop();
 const after = SERVER_PID ? memoryOf(SERVER_PID) : null;
-if (res.statusCode !== 201 && res.statusCode !== 200) throw new Error(`import refused: ${res.statusCode} ${JSON.stringify(answer).slice(0, 500)}`);
+if (res.statusCode !== 201 && res.statusCode !== 200)
+  throw new Error(`import refused: ${res.statusCode} ${JSON.stringify(answer).slice(0, 500)}`);
 const rate = answer.stored / importSeconds;
 const peakMb = Math.max(sampled?.maxMb ?? 0, hwmReset ? after.hwmMb : 0);
-log(`service: ${Math.round(rate)} rows/s (${answer.stored} stored, ${answer.rejectedCount} refused, ${answer.alarmsRaised} alarms in ${importSeconds.toFixed(1)} s); memory ${Math.round(before?.rssMb)} MB before, peak ${Math.round(peakMb)} MB`);
+log(
+  `service: ${Math.round(rate)} rows/s (${answer.stored} stored, ${answer.rejectedCount} refused, ${answer.alarmsRaised} alarms in ${importSeconds.toFixed(1)} s); memory ${Math.round(before?.rssMb)} MB before, peak ${Math.round(peakMb)} MB`,
+);
 if (answer.stored !== ROWS) throw new Error(`stored ${answer.stored} of ${ROWS}`);
 
 // ---- baseline: COPY of the same rows into the same table (the twin engine of benchmark 2) ----------------
@@ -107,7 +125,11 @@ const toCopy = new Transform({
   },
 });
 await db.query('BEGIN');
-await pipeline(createReadStream(file), toCopy, db.query(copyStreams.from('COPY readings (client_id, run_id, engine_id, point_id, value, unit, taken_at, source) FROM STDIN')));
+await pipeline(
+  createReadStream(file),
+  toCopy,
+  db.query(copyStreams.from('COPY readings (client_id, run_id, engine_id, point_id, value, unit, taken_at, source) FROM STDIN')),
+);
 await db.query('COMMIT');
 const copySeconds = (performance.now() - tc) / 1000;
 const copyCpu = cpuSince(copyCpu0);
@@ -124,7 +146,15 @@ writeResult('b3', {
     seconds: round(importSeconds, 1),
     stored: answer.stored,
     alarmsRaised: answer.alarmsRaised,
-    memoryMb: { before: round(before?.rssMb, 0), peak: round(peakMb, 0), polledMax: round(sampled?.maxMb, 0), vmHwm: hwmReset ? round(after.hwmMb, 0) : null, after: round(after?.rssMb, 0), samples: sampled?.samples ?? 0, hwmReset },
+    memoryMb: {
+      before: round(before?.rssMb, 0),
+      peak: round(peakMb, 0),
+      polledMax: round(sampled?.maxMb, 0),
+      vmHwm: hwmReset ? round(after.hwmMb, 0) : null,
+      after: round(after?.rssMb, 0),
+      samples: sampled?.samples ?? 0,
+      hwmReset,
+    },
     cpu,
     cpuMsPer1000: { service: round((cpu.serviceCpuSeconds / ROWS) * 1e6, 0), postgres: round((cpu.pgCpuSeconds / ROWS) * 1e6, 0) },
     cpuBoundRateOn2Cores: Math.round((2 * ROWS) / (cpu.serviceCpuSeconds + cpu.pgCpuSeconds)),

@@ -19,8 +19,13 @@ const db = new pg.Client({ connectionString: DB_URL });
 await db.connect();
 
 // Wait for the service's background pass to keep the figures of the closed runs (as it would in service).
-const expectRows = async () => Number((await db.query(`SELECT count(*)::int AS n FROM runs WHERE engine_id = $1 AND state = 'closed'`, [eng.id])).rows[0].n) * 10;
-const keptRows = async () => Number((await db.query(`SELECT count(*)::int AS n FROM run_point_stats s JOIN runs r ON r.id = s.run_id WHERE r.engine_id = $1`, [eng.id])).rows[0].n);
+const expectRows = async () =>
+  Number((await db.query(`SELECT count(*)::int AS n FROM runs WHERE engine_id = $1 AND state = 'closed'`, [eng.id])).rows[0].n) * 10;
+const keptRows = async () =>
+  Number(
+    (await db.query(`SELECT count(*)::int AS n FROM run_point_stats s JOIN runs r ON r.id = s.run_id WHERE r.engine_id = $1`, [eng.id]))
+      .rows[0].n,
+  );
 const want = await expectRows();
 const tw = performance.now();
 let kept = await keptRows();
@@ -44,12 +49,22 @@ async function series(path, n) {
   const ms = [];
   for (let i = 0; i < n; i++) ms.push((await time(path)).ms);
   const s = stats(ms);
-  return { first: round(first.ms, 1), bytes: first.bytes, n: s.n, median: round(s.median, 1), p99: round(s.p99, 1), max: round(s.max, 1), body: first.body };
+  return {
+    first: round(first.ms, 1),
+    bytes: first.bytes,
+    n: s.n,
+    median: round(s.median, 1),
+    p99: round(s.p99, 1),
+    max: round(s.max, 1),
+    body: first.body,
+  };
 }
 
 const history = await series(`/api/maintenance/bearings/${bearingId}/history`, N);
 const parsed = JSON.parse(history.body);
-log(`history of bearing 3: ${parsed.runs.length} runs, ${parsed.runs.filter((r) => r.drift?.flagged).length} flagged; median ${history.median} ms, p99 ${history.p99} ms (first ${history.first} ms)`);
+log(
+  `history of bearing 3: ${parsed.runs.length} runs, ${parsed.runs.filter((r) => r.drift?.flagged).length} flagged; median ${history.median} ms, p99 ${history.p99} ms (first ${history.first} ms)`,
+);
 const list = await series(`/api/maintenance/bearings`, Math.max(10, Math.round(N / 2)));
 log(`bearings list: ${JSON.parse(list.body).length} bearings; median ${list.median} ms, p99 ${list.p99} ms (first ${list.first} ms)`);
 const baseline = await series(`/api/engines/${eng.id}`, N);
@@ -59,8 +74,11 @@ log(`baseline GET /api/engines/:id: median ${baseline.median} ms, p99 ${baseline
 const points = (await db.query(`SELECT id, code, kind FROM measurement_points WHERE engine_id = $1`, [eng.id])).rows;
 const own = points.filter((p) => p.code === 'T3' || p.kind === 'ambient_temperature' || p.kind === 'speed').map((p) => p.id);
 const closed = (await db.query(`SELECT id FROM runs WHERE engine_id = $1 AND state = 'closed'`, [eng.id])).rows.map((r) => r.id);
-const open = (await db.query(`SELECT id FROM runs WHERE engine_id = $1 AND state <> 'closed' AND started_at IS NOT NULL`, [eng.id])).rows.map((r) => r.id);
-const explain = async (sql, params) => (await db.query(`EXPLAIN (ANALYZE, BUFFERS) ${sql}`, params)).rows.map((r) => r['QUERY PLAN']).join('\n');
+const open = (
+  await db.query(`SELECT id FROM runs WHERE engine_id = $1 AND state <> 'closed' AND started_at IS NOT NULL`, [eng.id])
+).rows.map((r) => r.id);
+const explain = async (sql, params) =>
+  (await db.query(`EXPLAIN (ANALYZE, BUFFERS) ${sql}`, params)).rows.map((r) => r['QUERY PLAN']).join('\n');
 const keptSql = `SELECT run_id, point_id, peak, mean, least, count, first_at, last_at FROM run_point_stats WHERE point_id = ANY($1::uuid[]) AND run_id = ANY($2::uuid[])`;
 const aggSql = `SELECT run_id, point_id, max(v) AS peak, avg(v) AS mean, min(v) AS least, count(*)::int AS n, min(taken_at) AS first_at, max(taken_at) AS last_at
   FROM (SELECT run_id, point_id, COALESCE(amended_value, value) AS v, taken_at FROM readings WHERE point_id = ANY($1::uuid[]) AND run_id = ANY($2::uuid[])) r
@@ -71,7 +89,9 @@ const plans = {
   withoutKeptFigures: await explain(aggSql, [own, closed]),
 };
 const execMs = (plan) => Number((plan.match(/Execution Time: ([\d.]+) ms/) ?? [])[1]);
-log(`query times: kept figures ${execMs(plans.kept)} ms, open run ${execMs(plans.openRun)} ms, all runs without kept figures ${execMs(plans.withoutKeptFigures)} ms`);
+log(
+  `query times: kept figures ${execMs(plans.kept)} ms, open run ${execMs(plans.openRun)} ms, all runs without kept figures ${execMs(plans.withoutKeptFigures)} ms`,
+);
 await db.end();
 
 delete history.body;
@@ -79,12 +99,22 @@ delete list.body;
 delete baseline.body;
 writeResult('b4', {
   title: 'Bearing history over ten million readings',
-  design: { repeat: N, bearing: 'Bearing 3', runs: parsed.runs.length, keptRows: kept, waitedForBackgroundPassSeconds: round(warmSeconds, 0) },
+  design: {
+    repeat: N,
+    bearing: 'Bearing 3',
+    runs: parsed.runs.length,
+    keptRows: kept,
+    waitedForBackgroundPassSeconds: round(warmSeconds, 0),
+  },
   history,
   list,
   baseline,
   ratio: { history: round(history.median / baseline.median, 1), list: round(list.median / baseline.median, 1) },
-  queries: { kept: { sql: keptSql, ms: execMs(plans.kept) }, openRun: { sql: aggSql, ms: execMs(plans.openRun) }, withoutKeptFigures: { sql: aggSql, ms: execMs(plans.withoutKeptFigures) } },
+  queries: {
+    kept: { sql: keptSql, ms: execMs(plans.kept) },
+    openRun: { sql: aggSql, ms: execMs(plans.openRun) },
+    withoutKeptFigures: { sql: aggSql, ms: execMs(plans.withoutKeptFigures) },
+  },
   plans,
   target: { ms: 100 },
   met: { history: history.p99 <= 100, list: list.p99 <= 100 },

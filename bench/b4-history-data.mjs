@@ -21,25 +21,43 @@ const t0 = performance.now();
 const [{ id: chiefId }] = (await q(`SELECT id FROM users WHERE email = $1`, [ctx.people.chief])).rows;
 const year = new Date().getUTCFullYear();
 // Runs: seasons from May to September, a run every six days at 10:00; stopped during the load, closed after it.
-await q(`DELETE FROM run_point_stats WHERE run_id IN (SELECT id FROM runs WHERE engine_id = $1 AND title LIKE 'Season %')`, [eng.id]).catch(() => undefined);
+await q(`DELETE FROM run_point_stats WHERE run_id IN (SELECT id FROM runs WHERE engine_id = $1 AND title LIKE 'Season %')`, [eng.id]).catch(
+  () => undefined,
+);
 const runs = [];
 for (let s = 0; s < SEASONS; s++) {
   const y = year - SEASONS + s;
   for (let k = 0; k < RUNS_PER_SEASON; k++) {
     const start = new Date(Date.UTC(y, 4, 1 + k * 6, 10, 0, 0));
     const last = s === SEASONS - 1 && k === RUNS_PER_SEASON - 1;
-    runs.push({ title: `Season ${y} run ${k + 1}`, start, stop: new Date(start.getTime() + RUN_SECONDS * 1000), state: last ? 'stopped' : 'closed' });
+    runs.push({
+      title: `Season ${y} run ${k + 1}`,
+      start,
+      stop: new Date(start.getTime() + RUN_SECONDS * 1000),
+      state: last ? 'stopped' : 'closed',
+    });
   }
 }
 await q(
   `INSERT INTO runs (engine_id, title, purpose, state, started_at, stopped_at, closed_at, revolutions, created_by, created_at, updated_at, version)
    SELECT $1, t, 'demonstration', 'stopped', a, b, NULL, 75 * extract(epoch FROM b - a) / 60, $2, a - interval '1 day', b, 1
      FROM unnest($3::text[], $4::text[], $5::timestamptz[], $6::timestamptz[]) AS x(t, st, a, b)`,
-  [eng.id, chiefId, runs.map((r) => r.title), runs.map((r) => r.state), runs.map((r) => r.start.toISOString()), runs.map((r) => r.stop.toISOString())],
+  [
+    eng.id,
+    chiefId,
+    runs.map((r) => r.title),
+    runs.map((r) => r.state),
+    runs.map((r) => r.start.toISOString()),
+    runs.map((r) => r.stop.toISOString()),
+  ],
 );
 
 // Set the secondary indexes and the foreign-key triggers aside for the load.
-const indexes = (await q(`SELECT indexname, indexdef FROM pg_indexes WHERE tablename = 'readings' AND indexname NOT IN (SELECT conname FROM pg_constraint WHERE conrelid = 'readings'::regclass)`)).rows;
+const indexes = (
+  await q(
+    `SELECT indexname, indexdef FROM pg_indexes WHERE tablename = 'readings' AND indexname NOT IN (SELECT conname FROM pg_constraint WHERE conrelid = 'readings'::regclass)`,
+  )
+).rows;
 for (const i of indexes) await q(`DROP INDEX "${i.indexname}"`);
 await q(`ALTER TABLE readings DISABLE TRIGGER ALL`);
 await q(`SET work_mem = '256MB'`);
@@ -80,13 +98,29 @@ try {
 }
 // Closed only now that their readings are in (a closed run's figures are kept once computed, and the
 // service's background pass may look at any moment).
-await q(`UPDATE runs SET state = 'closed', closed_at = stopped_at + interval '1 hour' WHERE engine_id = $1 AND title = ANY($2::text[])`, [eng.id, runs.filter((r) => r.state === 'closed').map((r) => r.title)]);
+await q(`UPDATE runs SET state = 'closed', closed_at = stopped_at + interval '1 hour' WHERE engine_id = $1 AND title = ANY($2::text[])`, [
+  eng.id,
+  runs.filter((r) => r.state === 'closed').map((r) => r.title),
+]);
 await q(`DELETE FROM run_point_stats WHERE run_id IN (SELECT id FROM runs WHERE engine_id = $1)`, [eng.id]);
 const tv = performance.now();
 await q(`VACUUM (ANALYZE) readings`);
 log(`VACUUM ANALYZE in ${((performance.now() - tv) / 1000).toFixed(0)} s`);
-const [{ n, size }] = (await q(`SELECT (SELECT count(*) FROM readings WHERE engine_id = $1)::int AS n, pg_size_pretty(pg_total_relation_size('readings')) AS size`, [eng.id])).rows;
+const [{ n, size }] = (
+  await q(
+    `SELECT (SELECT count(*) FROM readings WHERE engine_id = $1)::int AS n, pg_size_pretty(pg_total_relation_size('readings')) AS size`,
+    [eng.id],
+  )
+).rows;
 await db.end();
 log(`engine D holds ${n} readings; the readings table with its indexes is ${size}`);
-writeResult('b4-data', { readings: n, runs: runs.length, seasons: SEASONS, runSeconds: RUN_SECONDS, tableSize: size, loadSeconds: round((performance.now() - t0) / 1000, 0), indexesRebuilt: indexes.map((i) => i.indexname) });
+writeResult('b4-data', {
+  readings: n,
+  runs: runs.length,
+  seasons: SEASONS,
+  runSeconds: RUN_SECONDS,
+  tableSize: size,
+  loadSeconds: round((performance.now() - t0) / 1000, 0),
+  indexesRebuilt: indexes.map((i) => i.indexname),
+});
 process.exit(0);

@@ -11,7 +11,16 @@ import { BASE, context, api, log, round, stats, writeResult, PASSWORD } from './
 
 const ctx = context();
 const RUNS = Number(process.env.B5_RUNS ?? 9);
-const ARGS = ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'];
+const ARGS = [
+  '--headless',
+  '--no-sandbox',
+  '--disable-gpu',
+  '--disable-quic',
+  '--no-first-run',
+  '--disable-background-networking',
+  '--disable-component-update',
+  '--disable-sync',
+];
 const browser = await chromium.launch({ executablePath: process.env.CHROMIUM ?? '/usr/bin/chromium', headless: true, args: ARGS });
 
 /** Records the scripts a page loads: url, bytes as sent, gzip bytes. */
@@ -29,7 +38,8 @@ function recordScripts(page) {
   });
   return scripts;
 }
-const total = (scripts) => [...scripts.values()].reduce((a, s) => ({ bytes: a.bytes + s.bytes, gzipBytes: a.gzipBytes + s.gzipBytes }), { bytes: 0, gzipBytes: 0 });
+const total = (scripts) =>
+  [...scripts.values()].reduce((a, s) => ({ bytes: a.bytes + s.bytes, gzipBytes: a.gzipBytes + s.gzipBytes }), { bytes: 0, gzipBytes: 0 });
 
 const pair = await api('/api/auth/login', { method: 'POST', body: { email: ctx.people.operator, password: PASSWORD } });
 const session = JSON.stringify({ accessToken: pair.accessToken, refreshToken: pair.refreshToken, user: pair.user });
@@ -53,7 +63,9 @@ let signIn;
   signIn = { ...total(scripts), files: [...scripts.values()].sort((a, b) => b.gzipBytes - a.gzipBytes), usableMs: round(usableMs, 0) };
   await c.close();
 }
-log(`sign-in page: ${signIn.files.length} scripts, ${Math.round(signIn.bytes / 1024)} kB as sent, ${Math.round(signIn.gzipBytes / 1024)} kB gzip`);
+log(
+  `sign-in page: ${signIn.files.length} scripts, ${Math.round(signIn.bytes / 1024)} kB as sent, ${Math.round(signIn.gzipBytes / 1024)} kB gzip`,
+);
 
 // ---- live run page: JavaScript loaded, time to usable -------------------------------------------------------
 async function liveRunLoad({ warm, page: which = 'rounds' }) {
@@ -96,7 +108,9 @@ const counts = async (runId) => (await api(`/api/runs/${runId}/readings`, { toke
 const readingsIn = { rounds: await counts(ctx.runs.ui), busy: await counts(ctx.runs.latency) };
 log(`busy run (${readingsIn.busy} readings): usable after ${Math.round(busyStats.median)} ms (cold, median)`);
 const live = cold[cold.length - 1];
-log(`live run page: ${live.files.length} scripts, ${Math.round(live.scripts.bytes / 1024)} kB as sent, ${Math.round(live.scripts.gzipBytes / 1024)} kB gzip; usable after ${Math.round(coldStats.median)} ms (cold, median), ${Math.round(warmStats.median)} ms (warm)`);
+log(
+  `live run page: ${live.files.length} scripts, ${Math.round(live.scripts.bytes / 1024)} kB as sent, ${Math.round(live.scripts.gzipBytes / 1024)} kB gzip; usable after ${Math.round(coldStats.median)} ms (cold, median), ${Math.round(warmStats.median)} ms (warm)`,
+);
 if (live.errors.length) log(`page errors: ${live.errors.slice(0, 3).join(' | ')}`);
 
 // ---- baseline: a page with no script, same server (the service answers unknown paths with index.html,

@@ -18,18 +18,43 @@ io.on('connection', (socket) => {
     const room = `run:${body.runId}`;
     const now = new Date().toISOString();
     const readings = body.readings.map((r, i) => ({
-      id: String(++alarmCounter), clientId: r.clientId, runId: body.runId, pointId: r.pointId, value: r.value,
-      originalValue: null, unit: 'degF', takenAt: r.takenAt, source: 'live', enteredByName: null, amendments: [],
+      id: String(++alarmCounter),
+      clientId: r.clientId,
+      runId: body.runId,
+      pointId: r.pointId,
+      value: r.value,
+      originalValue: null,
+      unit: 'degF',
+      takenAt: r.takenAt,
+      source: 'live',
+      enteredByName: null,
+      amendments: [],
     }));
     for (const r of body.readings) {
       const raised = r.value > 130;
       io.to(room).emit('readings:new', { runId: body.runId, readings });
       io.to(room).emit('alarm:changed', {
-        id: '00000000-0000-4000-8000-000000000000', engineId: '00000000-0000-4000-8000-000000000001', runId: body.runId, pointId: r.pointId,
-        pointLabel: 'Latency bearing', kind: 'high', priority: 'high', state: raised ? 'active_unacknowledged' : 'returned_unacknowledged',
-        conditionActive: raised, message: `Latency bearing is ${r.value} °F, above its high limit 130 °F.`, value: raised ? r.value : 131,
-        limit: 130, unit: '°F', raisedAt: now, acknowledgedAt: null, acknowledgedByName: null, returnedAt: raised ? null : now,
-        shelvedUntil: null, shelveReason: null, shelvedByName: null, updatedAt: now,
+        id: '00000000-0000-4000-8000-000000000000',
+        engineId: '00000000-0000-4000-8000-000000000001',
+        runId: body.runId,
+        pointId: r.pointId,
+        pointLabel: 'Latency bearing',
+        kind: 'high',
+        priority: 'high',
+        state: raised ? 'active_unacknowledged' : 'returned_unacknowledged',
+        conditionActive: raised,
+        message: `Latency bearing is ${r.value} °F, above its high limit 130 °F.`,
+        value: raised ? r.value : 131,
+        limit: 130,
+        unit: '°F',
+        raisedAt: now,
+        acknowledgedAt: null,
+        acknowledgedByName: null,
+        returnedAt: raised ? null : now,
+        shelvedUntil: null,
+        shelveReason: null,
+        shelvedByName: null,
+        updatedAt: now,
       });
     }
     ack?.({ ok: true, data: { stored: body.readings.length, duplicates: 0, rejected: [], rejectedCount: 0, alarmsRaised: 1 } });

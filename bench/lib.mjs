@@ -21,14 +21,25 @@ export function stats(values) {
   const rank = (p) => a[Math.min(n - 1, Math.max(0, Math.ceil((p / 100) * n) - 1))];
   let sum = 0;
   for (const v of a) sum += v;
-  return { n, median: n % 2 ? a[(n - 1) / 2] : (a[n / 2 - 1] + a[n / 2]) / 2, p99: rank(99), p90: rank(90), mean: sum / n, min: a[0], max: a[n - 1] };
+  return {
+    n,
+    median: n % 2 ? a[(n - 1) / 2] : (a[n / 2 - 1] + a[n / 2]) / 2,
+    p99: rank(99),
+    p90: rank(90),
+    mean: sum / n,
+    min: a[0],
+    max: a[n - 1],
+  };
 }
 
 export async function api(path, { method = 'GET', token, body, headers = {}, raw = false } = {}) {
   const h = { ...headers };
   if (token) h.authorization = `Bearer ${token}`;
   let payload = body;
-  if (body !== undefined && !(typeof body === 'string' || body instanceof Uint8Array || typeof body?.pipe === 'function' || body?.[Symbol.asyncIterator])) {
+  if (
+    body !== undefined &&
+    !(typeof body === 'string' || body instanceof Uint8Array || typeof body?.pipe === 'function' || body?.[Symbol.asyncIterator])
+  ) {
     h['content-type'] = 'application/json';
     payload = JSON.stringify(body);
   }
@@ -41,7 +52,10 @@ export async function api(path, { method = 'GET', token, body, headers = {}, raw
   } catch {
     data = text;
   }
-  if (!res.ok) throw new Error(`${method} ${path}: ${res.status} ${typeof data === 'string' ? data.slice(0, 300) : JSON.stringify(data).slice(0, 600)}`);
+  if (!res.ok)
+    throw new Error(
+      `${method} ${path}: ${res.status} ${typeof data === 'string' ? data.slice(0, 300) : JSON.stringify(data).slice(0, 600)}`,
+    );
   return data;
 }
 

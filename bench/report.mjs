@@ -12,14 +12,21 @@ const b3 = readResult('b3');
 const b4 = readResult('b4');
 const b4d = readResult('b4-data');
 const b5 = readResult('b5');
-const failed = (n) => (existsSync(join(WORK, 'results', `b${n}.failed.json`)) ? JSON.parse(readFileSync(join(WORK, 'results', `b${n}.failed.json`), 'utf8')) : null);
+const failed = (n) =>
+  existsSync(join(WORK, 'results', `b${n}.failed.json`))
+    ? JSON.parse(readFileSync(join(WORK, 'results', `b${n}.failed.json`), 'utf8'))
+    : null;
 
-const fmt = (x, d = 0) => (x === null || x === undefined || Number.isNaN(x) ? '—' : Number(x).toLocaleString('en-GB', { minimumFractionDigits: d, maximumFractionDigits: d }));
+const fmt = (x, d = 0) =>
+  x === null || x === undefined || Number.isNaN(x)
+    ? '—'
+    : Number(x).toLocaleString('en-GB', { minimumFractionDigits: d, maximumFractionDigits: d });
 const kb = (b) => fmt(b / 1024, 1);
 const yes = (ok) => (ok ? '**met**' : '**missed**');
 const when = (r) => (r ? `${r.measuredAt.replace('T', ' ').slice(0, 16)} UTC, load average ${r.loadAvg?.join(' / ') ?? '—'}` : 'not run');
 const newest = Math.max(...[b1, b2, b3, b4, b5].filter(Boolean).map((r) => Date.parse(r.measuredAt)));
-const stale = (r) => (r && seconds && newest - Date.parse(r.measuredAt) > (seconds + 120) * 1000 ? ' (from an earlier run of the command)' : '');
+const stale = (r) =>
+  r && seconds && newest - Date.parse(r.measuredAt) > (seconds + 120) * 1000 ? ' (from an earlier run of the command)' : '';
 
 const rows = [];
 if (b1)
@@ -62,11 +69,35 @@ if (b4) {
     '≤ 100 ms',
     yes(b4.met.history),
   ]);
-  rows.push(['4b. Bearings with drift verdicts (all engines)', `${fmt(b4.list.median, 1)} ms`, `${fmt(b4.list.p99, 1)} ms`, 'as above', `×${fmt(b4.ratio.list, 1)}`, '≤ 100 ms', yes(b4.met.list)]);
+  rows.push([
+    '4b. Bearings with drift verdicts (all engines)',
+    `${fmt(b4.list.median, 1)} ms`,
+    `${fmt(b4.list.p99, 1)} ms`,
+    'as above',
+    `×${fmt(b4.ratio.list, 1)}`,
+    '≤ 100 ms',
+    yes(b4.met.list),
+  ]);
 }
 if (b5) {
-  rows.push(['5a. JavaScript of the sign-in page', `${kb(b5.signIn.gzipBytes)} kB gzip`, `(${kb(b5.signIn.bytes)} kB as sent)`, '—', '—', '≤ 250 kB gzip', yes(b5.met.signIn)]);
-  rows.push(['5b. JavaScript of the live run page', `${kb(b5.liveRun.gzipBytes)} kB gzip`, `(${kb(b5.liveRun.bytes)} kB as sent)`, '—', '—', '(none)', '—']);
+  rows.push([
+    '5a. JavaScript of the sign-in page',
+    `${kb(b5.signIn.gzipBytes)} kB gzip`,
+    `(${kb(b5.signIn.bytes)} kB as sent)`,
+    '—',
+    '—',
+    '≤ 250 kB gzip',
+    yes(b5.met.signIn),
+  ]);
+  rows.push([
+    '5b. JavaScript of the live run page',
+    `${kb(b5.liveRun.gzipBytes)} kB gzip`,
+    `(${kb(b5.liveRun.bytes)} kB as sent)`,
+    '—',
+    '—',
+    '(none)',
+    '—',
+  ]);
   rows.push([
     '5c. Live run page usable (cold cache)',
     `${fmt(b5.liveRun.usableMsCold.median)} ms`,
@@ -78,8 +109,12 @@ if (b5) {
   ]);
 }
 /** Long lists of ids in a plan, shortened: '{a,b,…}' → '{… 124 ids …}'. */
-const shortPlan = (plan) => plan.replace(/'\{((?:[0-9a-f-]{36},)+[0-9a-f-]{36})\}'/g, (_m, ids) => (ids.length > 200 ? `'{… ${ids.split(',').length} ids …}'` : `'{${ids}}'`));
-const table = (head, body) => [`| ${head.join(' | ')} |`, `| ${head.map(() => '---').join(' | ')} |`, ...body.map((r) => `| ${r.join(' | ')} |`)].join('\n');
+const shortPlan = (plan) =>
+  plan.replace(/'\{((?:[0-9a-f-]{36},)+[0-9a-f-]{36})\}'/g, (_m, ids) =>
+    ids.length > 200 ? `'{… ${ids.split(',').length} ids …}'` : `'{${ids}}'`,
+  );
+const table = (head, body) =>
+  [`| ${head.join(' | ')} |`, `| ${head.map(() => '---').join(' | ')} |`, ...body.map((r) => `| ${r.join(' | ')} |`)].join('\n');
 
 const md = [];
 md.push('# Benchmarks');
@@ -93,7 +128,9 @@ md.push(
 md.push('');
 md.push('## Machine');
 md.push('');
-md.push(table(['CPU', 'cores', 'RAM', 'OS', 'Node.js', 'PostgreSQL'], [[m.cpuModel, String(m.cores), `${m.ramGb} GB`, m.os, m.node, pgVersion]]));
+md.push(
+  table(['CPU', 'cores', 'RAM', 'OS', 'Node.js', 'PostgreSQL'], [[m.cpuModel, String(m.cores), `${m.ramGb} GB`, m.os, m.node, pgVersion]]),
+);
 md.push('');
 md.push(
   'The machine is shared: other work (builds, test suites, other services) ran during the measurement. The load average ' +
@@ -108,7 +145,10 @@ md.push(table(['Benchmark', 'Median', 'p99', 'Baseline (median / p99)', 'Ratio',
 md.push('');
 for (const n of [1, 2, 3, 4, 5]) {
   const f = failed(n);
-  if (f) md.push(`> Benchmark ${n} (${f.script}) failed in the run of ${f.at.slice(0, 16)}; its figures above are from an earlier run or missing. See the command's output.`);
+  if (f)
+    md.push(
+      `> Benchmark ${n} (${f.script}) failed in the run of ${f.at.slice(0, 16)}; its figures above are from an earlier run or missing. See the command's output.`,
+    );
 }
 md.push('');
 
@@ -132,7 +172,16 @@ if (b1) {
   md.push(
     table(
       ['', 'readings/s achieved', 'events measured (missing)', 'median', 'p90', 'p99', 'max', 'acknowledgement median / p99'],
-      [b1.baseline, s].map((x) => [x.label, fmt(x.achievedRate, 1), `${fmt(x.eventsMeasured)} (${fmt(x.eventsMissing)})`, `${fmt(x.latencyMs.median, 1)} ms`, `${fmt(x.latencyMs.p90, 1)} ms`, `${fmt(x.latencyMs.p99, 1)} ms`, `${fmt(x.latencyMs.max, 1)} ms`, `${fmt(x.ackMs.median, 1)} / ${fmt(x.ackMs.p99, 1)} ms`]),
+      [b1.baseline, s].map((x) => [
+        x.label,
+        fmt(x.achievedRate, 1),
+        `${fmt(x.eventsMeasured)} (${fmt(x.eventsMissing)})`,
+        `${fmt(x.latencyMs.median, 1)} ms`,
+        `${fmt(x.latencyMs.p90, 1)} ms`,
+        `${fmt(x.latencyMs.p99, 1)} ms`,
+        `${fmt(x.latencyMs.max, 1)} ms`,
+        `${fmt(x.ackMs.median, 1)} / ${fmt(x.ackMs.p99, 1)} ms`,
+      ]),
     ),
   );
   md.push('');
@@ -170,13 +219,29 @@ if (b2) {
     table(
       ['', 'rate', 'batch time median / p99', 'CPU: service', 'CPU: PostgreSQL', 'rate the CPU cost allows on 2 idle cores'],
       [
-        ['service', `${fmt(s.readingsPerSecond)} readings/s`, `${fmt(s.batchMs.median)} / ${fmt(s.batchMs.p99)} ms`, `${fmt(s.cpuMsPer1000.service)} ms per 1,000`, `${fmt(s.cpuMsPer1000.postgres)} ms per 1,000`, `${fmt(s.cpuBoundRateOn2Cores)}/s`],
-        ['COPY', `${fmt(b2.baseline.rowsPerSecond)} rows/s`, `${fmt(b2.baseline.batchMs.median)} / ${fmt(b2.baseline.batchMs.p99)} ms`, '—', `${fmt(b2.baseline.cpuMsPer1000.postgres)} ms per 1,000`, `${fmt(b2.baseline.cpuBoundRateOn2Cores)}/s`],
+        [
+          'service',
+          `${fmt(s.readingsPerSecond)} readings/s`,
+          `${fmt(s.batchMs.median)} / ${fmt(s.batchMs.p99)} ms`,
+          `${fmt(s.cpuMsPer1000.service)} ms per 1,000`,
+          `${fmt(s.cpuMsPer1000.postgres)} ms per 1,000`,
+          `${fmt(s.cpuBoundRateOn2Cores)}/s`,
+        ],
+        [
+          'COPY',
+          `${fmt(b2.baseline.rowsPerSecond)} rows/s`,
+          `${fmt(b2.baseline.batchMs.median)} / ${fmt(b2.baseline.batchMs.p99)} ms`,
+          '—',
+          `${fmt(b2.baseline.cpuMsPer1000.postgres)} ms per 1,000`,
+          `${fmt(b2.baseline.cpuBoundRateOn2Cores)}/s`,
+        ],
       ],
     ),
   );
   md.push('');
-  md.push(`Ratio service / COPY: ${fmt(b2.ratio, 2)} as measured; ${fmt(s.cpuBoundRateOn2Cores / b2.baseline.cpuBoundRateOn2Cores, 2)} by CPU cost. Alarms raised: ${s.alarmsRaised}; alarm events recorded: ${s.alarmEvents}.`);
+  md.push(
+    `Ratio service / COPY: ${fmt(b2.ratio, 2)} as measured; ${fmt(s.cpuBoundRateOn2Cores / b2.baseline.cpuBoundRateOn2Cores, 2)} by CPU cost. Alarms raised: ${s.alarmsRaised}; alarm events recorded: ${s.alarmEvents}.`,
+  );
 } else md.push('Not measured.');
 md.push('');
 
@@ -199,7 +264,15 @@ if (b3) {
     table(
       ['', 'rate', 'time', 'memory before / peak / after', 'CPU: service', 'CPU: PostgreSQL', 'rate the CPU cost allows on 2 idle cores'],
       [
-        ['service', `${fmt(s.rowsPerSecond)} rows/s`, `${fmt(s.seconds, 1)} s`, `${fmt(s.memoryMb.before)} / ${fmt(s.memoryMb.peak)} / ${fmt(s.memoryMb.after)} MB`, `${fmt(s.cpuMsPer1000.service)} ms per 1,000`, `${fmt(s.cpuMsPer1000.postgres)} ms per 1,000`, `${fmt(s.cpuBoundRateOn2Cores)}/s`],
+        [
+          'service',
+          `${fmt(s.rowsPerSecond)} rows/s`,
+          `${fmt(s.seconds, 1)} s`,
+          `${fmt(s.memoryMb.before)} / ${fmt(s.memoryMb.peak)} / ${fmt(s.memoryMb.after)} MB`,
+          `${fmt(s.cpuMsPer1000.service)} ms per 1,000`,
+          `${fmt(s.cpuMsPer1000.postgres)} ms per 1,000`,
+          `${fmt(s.cpuBoundRateOn2Cores)}/s`,
+        ],
         ['COPY of the same rows', `${fmt(b3.baseline.rowsPerSecond)} rows/s`, `${fmt(b3.baseline.seconds, 1)} s`, '—', '—', '—', '—'],
       ],
     ),
@@ -228,14 +301,37 @@ if (b4) {
     table(
       ['request', 'first', 'median', 'p99', 'max', 'answer'],
       [
-        [`GET /api/maintenance/bearings/:id/history (one bearing, ${b4.design.runs} runs, with the drift band)`, `${fmt(b4.history.first, 1)} ms`, `${fmt(b4.history.median, 1)} ms`, `${fmt(b4.history.p99, 1)} ms`, `${fmt(b4.history.max, 1)} ms`, `${kb(b4.history.bytes)} kB`],
-        ['GET /api/maintenance/bearings (every bearing with its drift verdict)', `${fmt(b4.list.first, 1)} ms`, `${fmt(b4.list.median, 1)} ms`, `${fmt(b4.list.p99, 1)} ms`, `${fmt(b4.list.max, 1)} ms`, `${kb(b4.list.bytes)} kB`],
-        ['baseline: GET /api/engines/:id', `${fmt(b4.baseline.first, 1)} ms`, `${fmt(b4.baseline.median, 1)} ms`, `${fmt(b4.baseline.p99, 1)} ms`, `${fmt(b4.baseline.max, 1)} ms`, `${kb(b4.baseline.bytes)} kB`],
+        [
+          `GET /api/maintenance/bearings/:id/history (one bearing, ${b4.design.runs} runs, with the drift band)`,
+          `${fmt(b4.history.first, 1)} ms`,
+          `${fmt(b4.history.median, 1)} ms`,
+          `${fmt(b4.history.p99, 1)} ms`,
+          `${fmt(b4.history.max, 1)} ms`,
+          `${kb(b4.history.bytes)} kB`,
+        ],
+        [
+          'GET /api/maintenance/bearings (every bearing with its drift verdict)',
+          `${fmt(b4.list.first, 1)} ms`,
+          `${fmt(b4.list.median, 1)} ms`,
+          `${fmt(b4.list.p99, 1)} ms`,
+          `${fmt(b4.list.max, 1)} ms`,
+          `${kb(b4.list.bytes)} kB`,
+        ],
+        [
+          'baseline: GET /api/engines/:id',
+          `${fmt(b4.baseline.first, 1)} ms`,
+          `${fmt(b4.baseline.median, 1)} ms`,
+          `${fmt(b4.baseline.p99, 1)} ms`,
+          `${fmt(b4.baseline.max, 1)} ms`,
+          `${kb(b4.baseline.bytes)} kB`,
+        ],
       ],
     ),
   );
   md.push('');
-  md.push(`Times are whole requests measured by the client on loopback, ${b4.design.repeat} in a row after a first one, so they include the transfer; the server time is at most this.`);
+  md.push(
+    `Times are whole requests measured by the client on loopback, ${b4.design.repeat} in a row after a first one, so they include the transfer; the server time is at most this.`,
+  );
   md.push('');
   md.push('### Query plans (EXPLAIN (ANALYZE, BUFFERS), on the same data)');
   md.push('');
@@ -247,7 +343,9 @@ if (b4) {
   md.push('');
   md.push('```sql\n' + b4.queries.openRun.sql + '\n```\n\n```\n' + shortPlan(b4.plans.openRun) + '\n```');
   md.push('');
-  md.push(`Without the kept figures the same aggregate over every run of the bearing would take ${fmt(b4.queries.withoutKeptFigures.ms, 0)} ms (what the start-up and ten-minute background pass spends once per closed run):`);
+  md.push(
+    `Without the kept figures the same aggregate over every run of the bearing would take ${fmt(b4.queries.withoutKeptFigures.ms, 0)} ms (what the start-up and ten-minute background pass spends once per closed run):`,
+  );
   md.push('');
   md.push('```\n' + shortPlan(b4.plans.withoutKeptFigures) + '\n```');
 } else md.push('Not measured.');
@@ -265,25 +363,61 @@ if (b5) {
       `Time to a usable live run page: from navigation start until the first tile of the run's board is visible, ${b5.design.runs} loads in a ` +
       `fresh browser context each (cold cache) and as many with the cache warm, of a run kept by hand (${b5.liveRun.readings ?? '—'} readings: eight rounds of eleven points); ` +
       'then a few cold loads of the run of benchmark 1, which holds the thousands of readings and alarm changes that benchmark sent. ' +
-      'Baseline: the sign-in route\'s HTML document with its scripts blocked.',
+      "Baseline: the sign-in route's HTML document with its scripts blocked.",
   );
   md.push('');
   md.push(
     table(
       ['page', 'scripts', 'as sent', 'gzip', 'usable: median / p99 (max)'],
       [
-        ['sign-in', String(b5.signIn.files.length), `${kb(b5.signIn.bytes)} kB`, `${kb(b5.signIn.gzipBytes)} kB`, `${fmt(b5.signIn.usableMs)} ms (one load)`],
-        ['live run, cold cache', String(b5.liveRun.files.length), `${kb(b5.liveRun.bytes)} kB`, `${kb(b5.liveRun.gzipBytes)} kB`, `${fmt(b5.liveRun.usableMsCold.median)} / ${fmt(b5.liveRun.usableMsCold.p99)} ms`],
+        [
+          'sign-in',
+          String(b5.signIn.files.length),
+          `${kb(b5.signIn.bytes)} kB`,
+          `${kb(b5.signIn.gzipBytes)} kB`,
+          `${fmt(b5.signIn.usableMs)} ms (one load)`,
+        ],
+        [
+          'live run, cold cache',
+          String(b5.liveRun.files.length),
+          `${kb(b5.liveRun.bytes)} kB`,
+          `${kb(b5.liveRun.gzipBytes)} kB`,
+          `${fmt(b5.liveRun.usableMsCold.median)} / ${fmt(b5.liveRun.usableMsCold.p99)} ms`,
+        ],
         ['live run, warm cache', '', '', '', `${fmt(b5.liveRun.usableMsWarm.median)} / ${fmt(b5.liveRun.usableMsWarm.p99)} ms`],
-        ...(b5.liveRun.busy ? [[`busy live run (${fmt(b5.liveRun.busy.readings)} readings), cold cache`, '', '', '', `${fmt(b5.liveRun.busy.usableMsCold.median)} / ${fmt(b5.liveRun.busy.usableMsCold.p99)} ms`]] : []),
-        ['baseline: bare HTML document', '0', '', '', `${fmt(b5.baseline.bareDocumentMs.median)} / ${fmt(b5.baseline.bareDocumentMs.p99)} ms`],
+        ...(b5.liveRun.busy
+          ? [
+              [
+                `busy live run (${fmt(b5.liveRun.busy.readings)} readings), cold cache`,
+                '',
+                '',
+                '',
+                `${fmt(b5.liveRun.busy.usableMsCold.median)} / ${fmt(b5.liveRun.busy.usableMsCold.p99)} ms`,
+              ],
+            ]
+          : []),
+        [
+          'baseline: bare HTML document',
+          '0',
+          '',
+          '',
+          `${fmt(b5.baseline.bareDocumentMs.median)} / ${fmt(b5.baseline.bareDocumentMs.p99)} ms`,
+        ],
       ],
     ),
   );
   md.push('');
-  md.push('Scripts of the sign-in page (gzip): ' + b5.signIn.files.map((f) => `${f.url.replace(/^\/assets\//, '')} ${kb(f.gzipBytes)} kB`).join(', ') + '.');
+  md.push(
+    'Scripts of the sign-in page (gzip): ' +
+      b5.signIn.files.map((f) => `${f.url.replace(/^\/assets\//, '')} ${kb(f.gzipBytes)} kB`).join(', ') +
+      '.',
+  );
   md.push('');
-  md.push('Scripts of the live run page (gzip): ' + b5.liveRun.files.map((f) => `${f.url.replace(/^\/assets\//, '')} ${kb(f.gzipBytes)} kB`).join(', ') + '.');
+  md.push(
+    'Scripts of the live run page (gzip): ' +
+      b5.liveRun.files.map((f) => `${f.url.replace(/^\/assets\//, '')} ${kb(f.gzipBytes)} kB`).join(', ') +
+      '.',
+  );
   if (b5.liveRun.errors?.length) md.push(`\nPage errors seen: ${b5.liveRun.errors.join('; ')}`);
 } else md.push('Not measured.');
 md.push('');

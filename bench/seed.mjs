@@ -52,23 +52,70 @@ const base = (name) => ({
 
 /** A bearing temperature point in °F with a high limit only (no high-high, so no alarm e-mail). */
 const alarmPoint = (i) => ({
-  code: `L${i}`, label: `Latency bearing ${i}`, kind: 'bearing_temperature', unit: 'degF', sequence: i,
-  normalLow: 60, normalHigh: 115, highLimit: 130, deadband: 2,
+  code: `L${i}`,
+  label: `Latency bearing ${i}`,
+  kind: 'bearing_temperature',
+  unit: 'degF',
+  sequence: i,
+  normalLow: 60,
+  normalHigh: 115,
+  highLimit: 130,
+  deadband: 2,
 });
 
 /** A logger's view of an engine: eight bearing temperatures with every bearing rule, ambient, speed, steam. */
 function loggerEngine(name) {
   const b = base(name);
   for (let i = 1; i <= 8; i++) {
-    b.bearings.push({ label: `Bearing ${i}`, kind: i <= 2 ? 'main' : i <= 4 ? 'crankpin' : 'crosshead', journalDiameterIn: 10, journalLengthIn: 14, loadSharePercent: 12.5, lubricationPointLabel: 'Main oil line' });
+    b.bearings.push({
+      label: `Bearing ${i}`,
+      kind: i <= 2 ? 'main' : i <= 4 ? 'crankpin' : 'crosshead',
+      journalDiameterIn: 10,
+      journalLengthIn: 14,
+      loadSharePercent: 12.5,
+      lubricationPointLabel: 'Main oil line',
+    });
     b.measurementPoints.push({
-      code: `T${i}`, label: `Bearing ${i} temperature`, kind: 'bearing_temperature', unit: 'degF', sequence: i,
-      normalLow: 60, normalHigh: 140, highLimit: 160, highHighLimit: 200, maxRiseRatePerMin: 5, maxRiseAboveAmbient: 100, deadband: 2, bearingLabel: `Bearing ${i}`,
+      code: `T${i}`,
+      label: `Bearing ${i} temperature`,
+      kind: 'bearing_temperature',
+      unit: 'degF',
+      sequence: i,
+      normalLow: 60,
+      normalHigh: 140,
+      highLimit: 160,
+      highHighLimit: 200,
+      maxRiseRatePerMin: 5,
+      maxRiseAboveAmbient: 100,
+      deadband: 2,
+      bearingLabel: `Bearing ${i}`,
     });
   }
   b.measurementPoints.push({ code: 'AMB', label: 'Engine house', kind: 'ambient_temperature', unit: 'degF', sequence: 20 });
-  b.measurementPoints.push({ code: 'SPD', label: 'Speed', kind: 'speed', unit: 'rpm', sequence: 21, normalLow: 70, normalHigh: 76, highLimit: 78, deadband: 0.5 });
-  b.measurementPoints.push({ code: 'THR', label: 'Throttle', kind: 'throttle_pressure', unit: 'psig', sequence: 22, normalLow: 100, normalHigh: 135, highLimit: 142, highHighLimit: 148, lowLimit: 80, deadband: 2 });
+  b.measurementPoints.push({
+    code: 'SPD',
+    label: 'Speed',
+    kind: 'speed',
+    unit: 'rpm',
+    sequence: 21,
+    normalLow: 70,
+    normalHigh: 76,
+    highLimit: 78,
+    deadband: 0.5,
+  });
+  b.measurementPoints.push({
+    code: 'THR',
+    label: 'Throttle',
+    kind: 'throttle_pressure',
+    unit: 'psig',
+    sequence: 22,
+    normalLow: 100,
+    normalHigh: 135,
+    highLimit: 142,
+    highHighLimit: 148,
+    lowLimit: 80,
+    deadband: 2,
+  });
   return b;
 }
 
@@ -77,7 +124,9 @@ async function engine(body) {
   return {
     id: e.id,
     name: e.name,
-    points: Object.fromEntries(e.measurementPoints.map((p) => [p.code, { id: p.id, unit: p.unit, kind: p.kind, bearingId: p.bearingId ?? null }])),
+    points: Object.fromEntries(
+      e.measurementPoints.map((p) => [p.code, { id: p.id, unit: p.unit, kind: p.kind, bearingId: p.bearingId ?? null }]),
+    ),
     bearings: Object.fromEntries(e.bearings.map((x) => [x.label, x.id])),
   };
 }
@@ -110,13 +159,26 @@ runs.ui = await preparingRun(engines.ui.id, 'Bench: live run page');
 const roundValues = { T1: 104, T2: 107, T3: 110, T4: 112, T5: 114, T6: 116, T7: 118, T8: 121, AMB: 68, SPD: 74, THR: 126 };
 for (let k = 0; k < 8; k++) {
   const takenAt = new Date(Date.now() - (8 - k) * 15 * 60_000).toISOString();
-  const readings = Object.entries(roundValues).map(([code, v]) => ({ clientId: randomUUID(), pointId: engines.ui.points[code].id, value: v + k * 0.5, takenAt }));
+  const readings = Object.entries(roundValues).map(([code, v]) => ({
+    clientId: randomUUID(),
+    pointId: engines.ui.points[code].id,
+    value: v + k * 0.5,
+    takenAt,
+  }));
   await api(`/api/runs/${runs.ui}/rounds`, { method: 'POST', token: tokens.operator, body: { takenAt, readings } });
 }
-const logger = await api('/api/loggers', { method: 'POST', token: tokens.admin, body: { engineId: engines.ingest.id, name: 'Bench logger' } });
+const logger = await api('/api/loggers', {
+  method: 'POST',
+  token: tokens.admin,
+  body: { engineId: engines.ingest.id, name: 'Bench logger' },
+});
 
 writeFileSync(
   join(WORK, 'context.json'),
-  JSON.stringify({ people: Object.fromEntries(people.map((p) => [p.key, p.email])), tokens, engines, runs, loggerKey: logger.key, loggerId: logger.id }, null, 2),
+  JSON.stringify(
+    { people: Object.fromEntries(people.map((p) => [p.key, p.email])), tokens, engines, runs, loggerKey: logger.key, loggerId: logger.id },
+    null,
+    2,
+  ),
 );
 log(`seeded: 4 people, 6 engines, 5 runs (one with eight rounds of readings), 1 logger key`);

@@ -13,21 +13,31 @@ const opt = (name) => {
   return i >= 0 ? args[i + 1] : undefined;
 };
 const dir = opt('dir') ?? '.data/test-results';
-const suites = args.flatMap((a, i) => (a === '--suite' ? [args[i + 1]] : [])).map((spec) => {
-  const [name, file, rc] = spec.split('=');
-  return { name, file, exitCode: rc === undefined || rc === '' ? null : Number(rc) };
-});
+const suites = args
+  .flatMap((a, i) => (a === '--suite' ? [args[i + 1]] : []))
+  .map((spec) => {
+    const [name, file, rc] = spec.split('=');
+    return { name, file, exitCode: rc === undefined || rc === '' ? null : Number(rc) };
+  });
 
 /** Counts from one result file, whatever produced it. */
 function counts(report) {
   if (report && report.stats && typeof report.stats.expected === 'number') {
     // Playwright: expected = passed, unexpected = failed, flaky = passed on a retry.
     const s = report.stats;
-    return { passed: s.expected + (s.flaky ?? 0), failed: s.unexpected, skipped: s.skipped ?? 0, flaky: s.flaky ?? 0, errors: report.errors?.length ?? 0 };
+    return {
+      passed: s.expected + (s.flaky ?? 0),
+      failed: s.unexpected,
+      skipped: s.skipped ?? 0,
+      flaky: s.flaky ?? 0,
+      errors: report.errors?.length ?? 0,
+    };
   }
   if (report && typeof report.numTotalTests === 'number') {
     // jest --json and vitest's json reporter share this shape.
-    const brokenFiles = (report.testResults ?? []).filter((r) => r.status === 'failed' && (r.assertionResults ?? []).every((a) => a.status !== 'failed')).length;
+    const brokenFiles = (report.testResults ?? []).filter(
+      (r) => r.status === 'failed' && (r.assertionResults ?? []).every((a) => a.status !== 'failed'),
+    ).length;
     const suiteErrors = Math.max(report.numRuntimeErrorTestSuites ?? 0, brokenFiles);
     return {
       passed: report.numPassedTests ?? 0,
@@ -43,7 +53,8 @@ function counts(report) {
 
 const rows = suites.map((s) => {
   const path = join(dir, s.file);
-  if (!existsSync(path)) return { ...s, status: 'NO RESULTS', passed: '-', failed: '-', skipped: '-', bad: true, note: `${s.file} missing` };
+  if (!existsSync(path))
+    return { ...s, status: 'NO RESULTS', passed: '-', failed: '-', skipped: '-', bad: true, note: `${s.file} missing` };
   let c;
   try {
     c = counts(JSON.parse(readFileSync(path, 'utf8')));
@@ -84,7 +95,11 @@ const cols = [
 ];
 const table = [...rows, total];
 const width = cols.map(([h, f]) => Math.max(h.length, ...table.map((r) => f(r).length)));
-const line = (cells) => cells.map((c, i) => (i >= 2 && i <= 4 ? c.padStart(width[i]) : c.padEnd(width[i]))).join('  ').trimEnd();
+const line = (cells) =>
+  cells
+    .map((c, i) => (i >= 2 && i <= 4 ? c.padStart(width[i]) : c.padEnd(width[i])))
+    .join('  ')
+    .trimEnd();
 const rule = width.map((w) => '-'.repeat(w)).join('  ');
 console.log('');
 console.log(line(cols.map(([h]) => h)));
@@ -93,5 +108,6 @@ for (const r of rows) console.log(line(cols.map(([, f]) => f(r))));
 console.log(rule);
 console.log(line(cols.map(([, f]) => f(total))));
 const seconds = opt('seconds');
-if (seconds) console.log(`\n${total.status === 'passed' ? 'all suites passed' : 'some suites FAILED'} in ${seconds} s; result files in ${dir}`);
+if (seconds)
+  console.log(`\n${total.status === 'passed' ? 'all suites passed' : 'some suites FAILED'} in ${seconds} s; result files in ${dir}`);
 process.exit(total.status === 'passed' ? 0 : 1);

@@ -17,7 +17,9 @@ export default defineConfig({
         // bundler, which puts it beside the lazy pages that use it. A named chunk also takes in the modules it
         // imports: a 'charts' chunk took React and Mantine with it, and the sign-in page then loaded the charts.
         manualChunks(id: string) {
-          return /node_modules\/(react|react-dom|scheduler|react-router|react-router-dom|@mantine\/core|@mantine\/hooks)\//.test(id) ? 'vendor' : undefined;
+          return /node_modules\/(react|react-dom|scheduler|react-router|react-router-dom|@mantine\/core|@mantine\/hooks)\//.test(id)
+            ? 'vendor'
+            : undefined;
         },
       },
     },

@@ -19,7 +19,10 @@ mkdirSync(dir, { recursive: true });
 const store = join(dir, 'messages.jsonl');
 /** @type {{id:string,receivedAt:string,from:string,to:string[],subject:string,text:string,attachments:{filename:string,contentType:string,size:number}[]}[]} */
 let messages = existsSync(store)
-  ? readFileSync(store, 'utf8').split('\n').filter(Boolean).map((l) => JSON.parse(l))
+  ? readFileSync(store, 'utf8')
+      .split('\n')
+      .filter(Boolean)
+      .map((l) => JSON.parse(l))
   : [];
 
 const smtp = new SMTPServer({
@@ -37,7 +40,11 @@ const smtp = new SMTPServer({
           to: session.envelope.rcptTo.map((r) => r.address),
           subject: mail.subject ?? '',
           text: mail.text ?? '',
-          attachments: (mail.attachments ?? []).map((a) => ({ filename: a.filename ?? 'attachment', contentType: a.contentType, size: a.size })),
+          attachments: (mail.attachments ?? []).map((a) => ({
+            filename: a.filename ?? 'attachment',
+            contentType: a.contentType,
+            size: a.size,
+          })),
         };
         messages.push(msg);
         appendFileSync(store, JSON.stringify(msg) + '\n');
@@ -48,7 +55,10 @@ const smtp = new SMTPServer({
 });
 
 const esc = (s) => String(s).replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]);
-const page = (title, body) => `<!doctype html><html lang="en"><head><meta charset="utf-8"><meta name="viewport" content="width=device-width, initial-scale=1"><title>${esc(title)}</title>
+const page = (
+  title,
+  body,
+) => `<!doctype html><html lang="en"><head><meta charset="utf-8"><meta name="viewport" content="width=device-width, initial-scale=1"><title>${esc(title)}</title>
 <style>body{font-family:system-ui,sans-serif;background:#ecebe6;color:#1d1f1e;margin:0;padding:24px}main{max-width:960px;margin:auto}
 table{width:100%;border-collapse:collapse;background:#fbfaf7}td,th{padding:10px;border-bottom:1px solid #d4d1c8;text-align:left}
 a{color:#2f6b5e}pre{white-space:pre-wrap;background:#fbfaf7;padding:16px;border:1px solid #d4d1c8}.note{color:#5b5e5c}</style></head><body><main>${body}</main></body></html>`;
@@ -70,18 +80,37 @@ const server = http.createServer((req, res) => {
   const m = url.pathname.match(/^\/messages\/([0-9a-f-]{36})$/);
   if (req.method === 'GET' && m) {
     const msg = messages.find((x) => x.id === m[1]);
-    if (!msg) { res.writeHead(404); return res.end('not found'); }
+    if (!msg) {
+      res.writeHead(404);
+      return res.end('not found');
+    }
     res.writeHead(200, { 'content-type': 'text/html; charset=utf-8' });
     const linked = esc(msg.text).replace(/(https?:\/\/[^\s<]+)/g, '<a href="$1">$1</a>');
-    return res.end(page(msg.subject, `<p><a href="/">← Inbox</a></p><h1>${esc(msg.subject)}</h1>
+    return res.end(
+      page(
+        msg.subject,
+        `<p><a href="/">← Inbox</a></p><h1>${esc(msg.subject)}</h1>
       <p class="note">From ${esc(msg.from)} to ${esc(msg.to.join(', '))}, ${esc(msg.receivedAt)}</p><pre>${linked}</pre>
-      ${msg.attachments.length ? `<p>Attachments: ${msg.attachments.map((a) => `${esc(a.filename)} (${esc(a.contentType)}, ${a.size} bytes)`).join(', ')}</p>` : ''}`));
+      ${msg.attachments.length ? `<p>Attachments: ${msg.attachments.map((a) => `${esc(a.filename)} (${esc(a.contentType)}, ${a.size} bytes)`).join(', ')}</p>` : ''}`,
+      ),
+    );
   }
   if (req.method === 'GET' && url.pathname === '/') {
     res.writeHead(200, { 'content-type': 'text/html; charset=utf-8' });
-    const rows = [...messages].reverse().map((x) => `<tr><td>${esc(x.receivedAt.replace('T', ' ').slice(0, 19))}</td><td>${esc(x.to.join(', '))}</td><td><a href="/messages/${x.id}">${esc(x.subject)}</a></td></tr>`).join('');
-    return res.end(page('Local mail inbox', `<h1>Local mail inbox</h1><p class="note">Every e-mail Crankjournal sends on this machine lands here; nothing leaves the machine.</p>
-      <table><thead><tr><th>Received (UTC)</th><th>To</th><th>Subject</th></tr></thead><tbody>${rows || '<tr><td colspan="3">No messages yet.</td></tr>'}</tbody></table>`));
+    const rows = [...messages]
+      .reverse()
+      .map(
+        (x) =>
+          `<tr><td>${esc(x.receivedAt.replace('T', ' ').slice(0, 19))}</td><td>${esc(x.to.join(', '))}</td><td><a href="/messages/${x.id}">${esc(x.subject)}</a></td></tr>`,
+      )
+      .join('');
+    return res.end(
+      page(
+        'Local mail inbox',
+        `<h1>Local mail inbox</h1><p class="note">Every e-mail Crankjournal sends on this machine lands here; nothing leaves the machine.</p>
+      <table><thead><tr><th>Received (UTC)</th><th>To</th><th>Subject</th></tr></thead><tbody>${rows || '<tr><td colspan="3">No messages yet.</td></tr>'}</tbody></table>`,
+      ),
+    );
   }
   res.writeHead(404);
   res.end('not found');
@@ -90,6 +119,10 @@ const server = http.createServer((req, res) => {
 smtp.listen(smtpPort, '127.0.0.1', () => {
   server.listen(httpPort, '127.0.0.1', () => console.log(`mail inbox: SMTP 127.0.0.1:${smtpPort}, read at http://127.0.0.1:${httpPort}/`));
 });
-const stop = () => { smtp.close(() => {}); server.close(() => process.exit(0)); setTimeout(() => process.exit(0), 500).unref(); };
+const stop = () => {
+  smtp.close(() => {});
+  server.close(() => process.exit(0));
+  setTimeout(() => process.exit(0), 500).unref();
+};
 process.on('SIGINT', stop);
 process.on('SIGTERM', stop);

@@ -62,7 +62,13 @@ export async function createApp(opts: { logger?: boolean } = {}): Promise<NestEx
 
   const uiDist = config.get('UI_DIST') ?? join(process.cwd(), '..', 'ui', 'dist');
   if (existsSync(join(uiDist, 'index.html'))) {
-    app.useStaticAssets(uiDist, { index: false, maxAge: '1h', setHeaders: (res, path) => { if (path.includes('/assets/')) res.setHeader('Cache-Control', 'public, max-age=31536000, immutable'); } });
+    app.useStaticAssets(uiDist, {
+      index: false,
+      maxAge: '1h',
+      setHeaders: (res, path) => {
+        if (path.includes('/assets/')) res.setHeader('Cache-Control', 'public, max-age=31536000, immutable');
+      },
+    });
     app.use((req: express.Request, res: express.Response, next: express.NextFunction) => {
       if (req.method !== 'GET' || req.path.startsWith('/api') || req.path.startsWith('/socket.io')) return next();
       res.setHeader('Cache-Control', 'no-cache');

@@ -19,7 +19,10 @@ import {
 } from './factories/checklists.factory.js';
 
 /** The smallest valid PNG file: signature, IHDR (1×1, 8-bit grey), IDAT, IEND. */
-const PNG_1x1 = Buffer.from('89504e470d0a1a0a0000000d4948445200000001000000010800000000376ef9240000000a49444154789c63600000000200014815b4a40000000049454e44ae426082', 'hex');
+const PNG_1x1 = Buffer.from(
+  '89504e470d0a1a0a0000000d4948445200000001000000010800000000376ef9240000000a49444154789c63600000000200014815b4a40000000049454e44ae426082',
+  'hex',
+);
 
 describe('checklists and the start gate (API)', () => {
   let t: TestApp;
@@ -149,7 +152,10 @@ describe('checklists and the start gate (API)', () => {
       } finally {
         // The condition clears with a reading back under the limit, for the tests that follow.
         const later = new Date(Date.now() + 1000).toISOString();
-        await t.http.post(`/api/runs/${run.id}/rounds`).set(as(operator)).send({ takenAt: later, readings: [{ clientId: randomUUID(), pointId: engine.pointId, value: 100, takenAt: later }] });
+        await t.http
+          .post(`/api/runs/${run.id}/rounds`)
+          .set(as(operator))
+          .send({ takenAt: later, readings: [{ clientId: randomUUID(), pointId: engine.pointId, value: 100, takenAt: later }] });
       }
       expect((await start(t, operator, run.id)).status).toBe(200);
     });
@@ -190,11 +196,17 @@ describe('checklists and the start gate (API)', () => {
       const { run } = await readyRun();
       expect((await startByRest(t, operator, run.id)).status).toBe(200);
       expect((await t.http.post(`/api/runs/${run.id}/transitions`).set(as(operator)).send({ to: 'stopped' })).status).toBe(200);
-      const refused = await t.http.post(`/api/runs/${run.id}/transitions`).set(as(chief)).send({ to: 'closed', signature: chief.account.password });
+      const refused = await t.http
+        .post(`/api/runs/${run.id}/transitions`)
+        .set(as(chief))
+        .send({ to: 'closed', signature: chief.account.password });
       expect(refused.status).toBe(409);
       expect(refused.body.details.reasons.map((r: { code: string }) => r.code)).toEqual(['shutdown_checklist_missing']);
       await completeChecklist(t, operator, run.id, shutdown.id);
-      const closed = await t.http.post(`/api/runs/${run.id}/transitions`).set(as(chief)).send({ to: 'closed', signature: chief.account.password });
+      const closed = await t.http
+        .post(`/api/runs/${run.id}/transitions`)
+        .set(as(chief))
+        .send({ to: 'closed', signature: chief.account.password });
       expect(closed.status).toBe(200);
       expect(closed.body.state).toBe('closed');
     });
@@ -209,7 +221,11 @@ describe('checklists and the start gate (API)', () => {
 
   describe('template versions', () => {
     it('leaves a checklist completed against version 1 unchanged after version 2 is published', async () => {
-      const tpl = await createTemplate(t, chief, engine.id, { ...PRE_LUBE, name: `Versioned ${randomUUID().slice(0, 6)}`, requiredWhen: 'not_required' });
+      const tpl = await createTemplate(t, chief, engine.id, {
+        ...PRE_LUBE,
+        name: `Versioned ${randomUUID().slice(0, 6)}`,
+        requiredWhen: 'not_required',
+      });
       expect(tpl.currentVersion).toBe(1);
       const run = await preparingRun(t, operator, engine.id);
       const done = await completeChecklist(t, operator, run.id, tpl.id);
@@ -223,7 +239,10 @@ describe('checklists and the start gate (API)', () => {
       const draft = await t.http.put(`/api/checklist-templates/${tpl.id}/draft`).set(as(chief)).send(v2);
       expect(draft.status).toBe(200);
       expect(draft.body.currentVersion).toBe(1);
-      const published = await t.http.post(`/api/checklist-templates/${tpl.id}/publish`).set(as(chief)).send({ changeNote: 'Tighter range, drains added.' });
+      const published = await t.http
+        .post(`/api/checklist-templates/${tpl.id}/publish`)
+        .set(as(chief))
+        .send({ changeNote: 'Tighter range, drains added.' });
       expect(published.status).toBe(200);
       expect(published.body.currentVersion).toBe(2);
       expect(published.body.versions.map((v: { version: number }) => v.version)).toEqual([2, 1]);
@@ -246,7 +265,10 @@ describe('checklists and the start gate (API)', () => {
       expect((await t.http.post(`/api/checklist-templates/${preLube.id}/publish`).set(as(chief)).send({})).status).toBe(409);
       const bad = structuredClone(PRE_LUBE);
       bad.sections[0].items[1] = { ...bad.sections[0].items[1], min: 40, max: 30 };
-      const r = await t.http.post('/api/checklist-templates').set(as(chief)).send({ ...bad, name: 'Bad ranges', engineId: engine.id });
+      const r = await t.http
+        .post('/api/checklist-templates')
+        .set(as(chief))
+        .send({ ...bad, name: 'Bad ranges', engineId: engine.id });
       expect(r.status).toBe(400);
       expect(r.body.message.join(' ')).toContain('min must not be above max');
     });
@@ -257,11 +279,15 @@ describe('checklists and the start gate (API)', () => {
       expect((await t.http.post('/api/checklist-templates').set(as(observer)).send(body)).status).toBe(403);
       expect((await t.http.post('/api/checklist-templates').set(as(chief)).send(body)).status).toBe(201);
       expect((await t.http.get(`/api/checklist-templates?engineId=${engine.id}`).set(as(observer))).status).toBe(200);
-      const pdf = await t.http.get(`/api/checklist-templates/${preLube.id}/blank.pdf`).set(as(observer)).buffer(true).parse((res, cb) => {
-        const chunks: Buffer[] = [];
-        res.on('data', (c: Buffer) => chunks.push(c));
-        res.on('end', () => cb(null, Buffer.concat(chunks)));
-      });
+      const pdf = await t.http
+        .get(`/api/checklist-templates/${preLube.id}/blank.pdf`)
+        .set(as(observer))
+        .buffer(true)
+        .parse((res, cb) => {
+          const chunks: Buffer[] = [];
+          res.on('data', (c: Buffer) => chunks.push(c));
+          res.on('end', () => cb(null, Buffer.concat(chunks)));
+        });
       expect(pdf.status).toBe(200);
       expect(pdf.headers['content-type']).toBe('application/pdf');
       expect((pdf.body as Buffer).subarray(0, 5).toString()).toBe('%PDF-');
@@ -275,21 +301,34 @@ describe('checklists and the start gate (API)', () => {
       await fill(t, operator, c.id, 'valves', { tick: true });
       const low = await fill(t, operator, c.id, 'pressure', { value: 12 });
       expect(low.status).toBe(200);
-      expect(low.body.entries.find((e: { itemKey: string }) => e.itemKey === 'pressure')).toMatchObject({ value: 12, outOfRange: true, override: null });
+      expect(low.body.entries.find((e: { itemKey: string }) => e.itemKey === 'pressure')).toMatchObject({
+        value: 12,
+        outOfRange: true,
+        override: null,
+      });
       expect(low.body.blockedItems).toBe(1);
 
       const refused = await sign(t, operator, c.id);
       expect(refused.status).toBe(409);
       expect(refused.body.message.join(' ')).toContain('12 psig is outside the acceptance range (15 to 30 psig)');
 
-      const byOperator = await t.http.post(`/api/checklists/${c.id}/items/pressure/override`).set(as(operator)).send({ reason: 'Gauge reads low, known fault.' });
+      const byOperator = await t.http
+        .post(`/api/checklists/${c.id}/items/pressure/override`)
+        .set(as(operator))
+        .send({ reason: 'Gauge reads low, known fault.' });
       expect(byOperator.status).toBe(403);
       const noReason = await t.http.post(`/api/checklists/${c.id}/items/pressure/override`).set(as(chief)).send({ reason: '' });
       expect(noReason.status).toBe(400);
-      const byChief = await t.http.post(`/api/checklists/${c.id}/items/pressure/override`).set(as(chief)).send({ reason: 'Gauge reads 4 psi low; checked against the test gauge.' });
+      const byChief = await t.http
+        .post(`/api/checklists/${c.id}/items/pressure/override`)
+        .set(as(chief))
+        .send({ reason: 'Gauge reads 4 psi low; checked against the test gauge.' });
       expect(byChief.status).toBe(200);
       const entry = byChief.body.entries.find((e: { itemKey: string }) => e.itemKey === 'pressure');
-      expect(entry.override).toMatchObject({ reason: 'Gauge reads 4 psi low; checked against the test gauge.', byName: chief.account.displayName });
+      expect(entry.override).toMatchObject({
+        reason: 'Gauge reads 4 psi low; checked against the test gauge.',
+        byName: chief.account.displayName,
+      });
 
       const signed = await sign(t, operator, c.id);
       expect(signed.status).toBe(200);
@@ -328,7 +367,9 @@ describe('checklists and the start gate (API)', () => {
 
     it('accepts the signing PIN instead of the password', async () => {
       const pin = '482917';
-      expect((await t.http.post('/api/auth/signing-pin').set(as(operator)).send({ currentPassword: operator.account.password, pin })).status).toBeLessThan(300);
+      expect(
+        (await t.http.post('/api/auth/signing-pin').set(as(operator)).send({ currentPassword: operator.account.password, pin })).status,
+      ).toBeLessThan(300);
       const run = await preparingRun(t, operator, engine.id);
       const c = await startChecklist(t, operator, run.id, preLube.id);
       await fill(t, operator, c.id, 'valves', { tick: true });
@@ -378,27 +419,51 @@ describe('checklists and the start gate (API)', () => {
     it('take a photo by content type (PNG, JPEG, WebP), refuse other files and give the photo back', async () => {
       const run = await preparingRun(t, operator, engine.id);
       const c = await startChecklist(t, operator, run.id, preLube.id);
-      const up = await t.http.put(`/api/checklists/${c.id}/items/photo/photo`).set(as(operator)).set('Content-Type', 'image/png').send(PNG_1x1);
+      const up = await t.http
+        .put(`/api/checklists/${c.id}/items/photo/photo`)
+        .set(as(operator))
+        .set('Content-Type', 'image/png')
+        .send(PNG_1x1);
       expect(up.status).toBe(200);
       expect(up.body.entries.find((e: { itemKey: string }) => e.itemKey === 'photo').hasPhoto).toBe(true);
-      const back = await t.http.get(`/api/checklists/${c.id}/items/photo/photo`).set(as(observer)).buffer(true).parse((res, cb) => {
-        const chunks: Buffer[] = [];
-        res.on('data', (x: Buffer) => chunks.push(x));
-        res.on('end', () => cb(null, Buffer.concat(chunks)));
-      });
+      const back = await t.http
+        .get(`/api/checklists/${c.id}/items/photo/photo`)
+        .set(as(observer))
+        .buffer(true)
+        .parse((res, cb) => {
+          const chunks: Buffer[] = [];
+          res.on('data', (x: Buffer) => chunks.push(x));
+          res.on('end', () => cb(null, Buffer.concat(chunks)));
+        });
       expect(back.status).toBe(200);
       expect(back.headers['content-type']).toBe('image/png');
       expect(Buffer.compare(back.body as Buffer, PNG_1x1)).toBe(0);
 
-      const fake = await t.http.put(`/api/checklists/${c.id}/items/photo/photo`).set(as(operator)).set('Content-Type', 'image/png').send(Buffer.from('<svg xmlns="http://www.w3.org/2000/svg"></svg>'));
+      const fake = await t.http
+        .put(`/api/checklists/${c.id}/items/photo/photo`)
+        .set(as(operator))
+        .set('Content-Type', 'image/png')
+        .send(Buffer.from('<svg xmlns="http://www.w3.org/2000/svg"></svg>'));
       expect(fake.status).toBe(415);
-      const notImage = await t.http.put(`/api/checklists/${c.id}/items/photo/photo`).set(as(operator)).set('Content-Type', 'text/plain').send('hello');
+      const notImage = await t.http
+        .put(`/api/checklists/${c.id}/items/photo/photo`)
+        .set(as(operator))
+        .set('Content-Type', 'text/plain')
+        .send('hello');
       expect(notImage.status).toBe(415);
       const big = Buffer.alloc(10 * 1024 * 1024 + 1, 0);
       PNG_1x1.copy(big);
-      const tooBig = await t.http.put(`/api/checklists/${c.id}/items/photo/photo`).set(as(operator)).set('Content-Type', 'image/png').send(big);
+      const tooBig = await t.http
+        .put(`/api/checklists/${c.id}/items/photo/photo`)
+        .set(as(operator))
+        .set('Content-Type', 'image/png')
+        .send(big);
       expect(tooBig.status).toBe(413);
-      const wrongItem = await t.http.put(`/api/checklists/${c.id}/items/valves/photo`).set(as(operator)).set('Content-Type', 'image/png').send(PNG_1x1);
+      const wrongItem = await t.http
+        .put(`/api/checklists/${c.id}/items/valves/photo`)
+        .set(as(operator))
+        .set('Content-Type', 'image/png')
+        .send(PNG_1x1);
       expect(wrongItem.status).toBe(400);
     });
   });
@@ -408,28 +473,49 @@ describe('checklists and the start gate (API)', () => {
       const run = await preparingRun(t, operator, engine.id);
       const c = await completeChecklist(t, operator, run.id, preLube.id);
       expect((await fill(t, operator, c.id, 'pressure', { value: 25 })).status).toBe(409);
-      expect((await t.http.post(`/api/checklists/${c.id}/amendments`).set(as(operator)).send({ itemKey: 'pressure', value: 24 })).status).toBe(400);
-      const am = await t.http.post(`/api/checklists/${c.id}/amendments`).set(as(operator)).send({ itemKey: 'pressure', value: 24, reason: 'Misread the gauge; it was 24.' });
+      expect(
+        (await t.http.post(`/api/checklists/${c.id}/amendments`).set(as(operator)).send({ itemKey: 'pressure', value: 24 })).status,
+      ).toBe(400);
+      const am = await t.http
+        .post(`/api/checklists/${c.id}/amendments`)
+        .set(as(operator))
+        .send({ itemKey: 'pressure', value: 24, reason: 'Misread the gauge; it was 24.' });
       expect(am.status).toBe(201);
       const e = am.body.entries.find((x: { itemKey: string }) => x.itemKey === 'pressure');
       expect(e.value).toBe(24);
       expect(e.original).toEqual({ value: 22 });
       expect(e.amendments).toHaveLength(1);
-      expect(e.amendments[0]).toMatchObject({ oldValue: { value: 22 }, newValue: { value: 24 }, reason: 'Misread the gauge; it was 24.', byName: operator.account.displayName });
+      expect(e.amendments[0]).toMatchObject({
+        oldValue: { value: 22 },
+        newValue: { value: 24 },
+        reason: 'Misread the gauge; it was 24.',
+        byName: operator.account.displayName,
+      });
       expect(am.body).toMatchObject({ status: 'signed', signedByName: operator.account.displayName, amendmentCount: 1 });
     });
 
     it('take an out-of-range amendment only from the chief engineer, with an override reason', async () => {
       const run = await preparingRun(t, operator, engine.id);
       const c = await completeChecklist(t, operator, run.id, preLube.id);
-      const byOperator = await t.http.post(`/api/checklists/${c.id}/amendments`).set(as(operator)).send({ itemKey: 'pressure', value: 35, reason: 'Gauge photo shows 35.' });
+      const byOperator = await t.http
+        .post(`/api/checklists/${c.id}/amendments`)
+        .set(as(operator))
+        .send({ itemKey: 'pressure', value: 35, reason: 'Gauge photo shows 35.' });
       expect(byOperator.status).toBe(409);
-      const noOverride = await t.http.post(`/api/checklists/${c.id}/amendments`).set(as(chief)).send({ itemKey: 'pressure', value: 35, reason: 'Gauge photo shows 35.' });
+      const noOverride = await t.http
+        .post(`/api/checklists/${c.id}/amendments`)
+        .set(as(chief))
+        .send({ itemKey: 'pressure', value: 35, reason: 'Gauge photo shows 35.' });
       expect(noOverride.status).toBe(400);
       const ok = await t.http
         .post(`/api/checklists/${c.id}/amendments`)
         .set(as(chief))
-        .send({ itemKey: 'pressure', value: 35, reason: 'Gauge photo shows 35.', overrideReason: 'Relief valve set high that day; reset since.' });
+        .send({
+          itemKey: 'pressure',
+          value: 35,
+          reason: 'Gauge photo shows 35.',
+          overrideReason: 'Relief valve set high that day; reset since.',
+        });
       expect(ok.status).toBe(201);
       const e = ok.body.entries.find((x: { itemKey: string }) => x.itemKey === 'pressure');
       expect(e.override.reason).toContain('Relief valve');

@@ -73,7 +73,11 @@ describe('indicator cards and indicated power', () => {
 
   // -----------------------------------------------------------------------------------------------
   describe('POST /api/calculations/indicated-power', () => {
-    const post = (body: unknown, who: SignedIn = observer) => t.http.post('/api/calculations/indicated-power').set('authorization', auth(who)).send(body as object);
+    const post = (body: unknown, who: SignedIn = observer) =>
+      t.http
+        .post('/api/calculations/indicated-power')
+        .set('authorization', auth(who))
+        .send(body as object);
 
     it('answers the issue’s body with the module’s own numbers, for any signed-in role (an observer here)', async () => {
       const res = await post(ISSUE_BODY);
@@ -89,26 +93,61 @@ describe('indicator cards and indicated power', () => {
       const res = await post({
         rpm: 40,
         strokeIn: 66,
-        cylinders: [{ label: 'Mill', boreIn, pistonRodIn: 0, tailRodIn: 0, cards: [{ end: 'head', meanEffectivePressurePsi: 39.81 }, { end: 'crank', meanEffectivePressurePsi: 39.81 }] }],
+        cylinders: [
+          {
+            label: 'Mill',
+            boreIn,
+            pistonRodIn: 0,
+            tailRodIn: 0,
+            cards: [
+              { end: 'head', meanEffectivePressurePsi: 39.81 },
+              { end: 'crank', meanEffectivePressurePsi: 39.81 },
+            ],
+          },
+        ],
       });
       expect(res.status).toBe(200);
       expect(res.body.totalIndicatedHorsepower).toBeCloseTo(212.32, 2);
     });
 
     const bad: [string, (b: IndicatedPowerRequest) => void, RegExp][] = [
-      ['a card giving two ways', (b) => (b.cylinders[0].cards[0].meanEffectivePressurePsi = 40), /cylinders\[0\]\.cards\[0\]\.areaSqIn: a card gives only one way/],
+      [
+        'a card giving two ways',
+        (b) => (b.cylinders[0].cards[0].meanEffectivePressurePsi = 40),
+        /cylinders\[0\]\.cards\[0\]\.areaSqIn: a card gives only one way/,
+      ],
       ['a card giving none', (b) => (b.cylinders[1].cards[0] = { end: 'head' }), /cylinders\[1\]\.cards\[0\]: give one of/],
-      ['an area card without its spring', (b) => delete b.cylinders[0].cards[0].springPsiPerIn, /cylinders\[0\]\.cards\[0\]\.springPsiPerIn/],
+      [
+        'an area card without its spring',
+        (b) => delete b.cylinders[0].cards[0].springPsiPerIn,
+        /cylinders\[0\]\.cards\[0\]\.springPsiPerIn/,
+      ],
       ['a zero bore', (b) => (b.cylinders[0].boreIn = 0), /cylinders\.0\.boreIn must be greater than zero/],
       ['a negative speed', (b) => (b.rpm = -40), /rpm must be greater than zero/],
       ['a zero card length', (b) => (b.cylinders[0].cards[0].lengthIn = 0), /cylinders\.0\.cards\.0\.lengthIn must be greater than zero/],
       ['a zero stroke', (b) => (b.strokeIn = 0), /strokeIn must be greater than zero/],
-      ['a piston rod not smaller than its bore', (b) => (b.cylinders[0].pistonRodIn = 22.57), /cylinders\[0\]\.pistonRodIn: must be smaller than the bore/],
-      ['a tail rod larger than its bore', (b) => (b.cylinders[1].tailRodIn = 50), /cylinders\[1\]\.tailRodIn: must be smaller than the bore/],
-      ['two cards for the same end', (b) => (b.cylinders[0].cards[1].end = 'head'), /cylinders\[0\]\.cards\[1\]\.end: a second card for the head end/],
+      [
+        'a piston rod not smaller than its bore',
+        (b) => (b.cylinders[0].pistonRodIn = 22.57),
+        /cylinders\[0\]\.pistonRodIn: must be smaller than the bore/,
+      ],
+      [
+        'a tail rod larger than its bore',
+        (b) => (b.cylinders[1].tailRodIn = 50),
+        /cylinders\[1\]\.tailRodIn: must be smaller than the bore/,
+      ],
+      [
+        'two cards for the same end',
+        (b) => (b.cylinders[0].cards[1].end = 'head'),
+        /cylinders\[0\]\.cards\[1\]\.end: a second card for the head end/,
+      ],
       ['an end that is neither', (b) => ((b.cylinders[0].cards[1] as { end: string }).end = 'middle'), /end must be one of: head, crank/],
       ['no cylinders', (b) => (b.cylinders = []), /cylinders needs at least one cylinder/],
-      ['an ordinate that is not a number', (b) => ((b.cylinders[0].cards[1].ordinatesIn as unknown[])[3] = 'x'), /ordinatesIn must hold only numbers/],
+      [
+        'an ordinate that is not a number',
+        (b) => ((b.cylinders[0].cards[1].ordinatesIn as unknown[])[3] = 'x'),
+        /ordinatesIn must hold only numbers/,
+      ],
       ['an unknown field', (b) => ((b as unknown as Record<string, unknown>).horsepowerPlease = true), /horsepowerPlease should not exist/],
     ];
     it.each(bad)('refuses %s with 400 naming the field', async (_, mutate, message) => {
@@ -145,11 +184,15 @@ describe('indicator cards and indicated power', () => {
       const res = await upload(png, 'application/octet-stream');
       expect(res.status).toBe(201);
       expect(res.body).toMatchObject({ contentType: 'image/png', widthPx: 40, heightPx: 30, bytes: png.length, runId: run.id });
-      const back = await t.http.get(`/api/card-images/${res.body.id}`).set('authorization', auth(observer)).buffer(true).parse((r, cb) => {
-        const parts: Buffer[] = [];
-        r.on('data', (c: Buffer) => parts.push(c));
-        r.on('end', () => cb(null, Buffer.concat(parts)));
-      });
+      const back = await t.http
+        .get(`/api/card-images/${res.body.id}`)
+        .set('authorization', auth(observer))
+        .buffer(true)
+        .parse((r, cb) => {
+          const parts: Buffer[] = [];
+          r.on('data', (c: Buffer) => parts.push(c));
+          r.on('end', () => cb(null, Buffer.concat(parts)));
+        });
       expect(back.status).toBe(200);
       expect(back.headers['content-type']).toBe('image/png');
       expect(Buffer.compare(back.body as Buffer, png)).toBe(0);
@@ -157,7 +200,9 @@ describe('indicator cards and indicated power', () => {
 
     it('refuses a file that is not an image by its content, whatever it is called or claims to be (415)', async () => {
       expect((await upload(Buffer.from('this is a text file called card.png'), 'image/png')).status).toBe(415);
-      expect((await upload(Buffer.from('<svg xmlns="http://www.w3.org/2000/svg"><circle r="4"/></svg>'), 'image/svg+xml')).status).toBe(415);
+      expect((await upload(Buffer.from('<svg xmlns="http://www.w3.org/2000/svg"><circle r="4"/></svg>'), 'image/svg+xml')).status).toBe(
+        415,
+      );
       expect((await upload(Buffer.from('%PDF-1.7\n%âãÏÓ\n'), 'image/jpeg')).status).toBe(415);
     });
 
@@ -213,7 +258,11 @@ describe('indicator cards and indicated power', () => {
         springPsiPerIn: 80,
         lengthIn: 3.5,
       });
-      const up = await t.http.post(`/api/runs/${run.id}/card-images`).set('authorization', auth(operator)).set('content-type', 'image/png').send(drawn.png);
+      const up = await t.http
+        .post(`/api/runs/${run.id}/card-images`)
+        .set('authorization', auth(operator))
+        .set('content-type', 'image/png')
+        .send(drawn.png);
       expect(up.status).toBe(201);
       return { imageId: up.body.id as string, trace: drawn.trace };
     }
@@ -259,13 +308,38 @@ describe('indicator cards and indicated power', () => {
       expect(set.vacuumSource).toBe('reading');
 
       // The set's numbers are the module's: computeIndicatedPower on the same cards.
-      const hpTrace = calibrateTrace({ atmosphericLine: trace.atmosphericLine, diagramStartPx: trace.admissionEndPx, diagramEndPx: trace.releaseEndPx, tracePx: trace.pointsPx, springPsiPerIn: 80, cardLengthIn: 3.5 });
+      const hpTrace = calibrateTrace({
+        atmosphericLine: trace.atmosphericLine,
+        diagramStartPx: trace.admissionEndPx,
+        diagramEndPx: trace.releaseEndPx,
+        tracePx: trace.pointsPx,
+        springPsiPerIn: 80,
+        cardLengthIn: 3.5,
+      });
       const expected = computeIndicatedPower({
         rpm: 74.2,
         strokeIn: 48,
         cylinders: [
-          { label: 'HP', boreIn: 24, pistonRodIn: 5.5, tailRodIn: 0, cards: [{ end: 'head', meanEffectivePressurePsi: hpTrace.meanEffectivePressurePsi }, { end: 'crank', areaSqIn: 2.4, lengthIn: 3.5, springPsiPerIn: 80 }] },
-          { label: 'LP', boreIn: 44, pistonRodIn: 5.5, tailRodIn: 4, cards: [{ end: 'head', ordinatesIn, springPsiPerIn: 20 }, { end: 'crank', meanEffectivePressurePsi: 25.5 }] },
+          {
+            label: 'HP',
+            boreIn: 24,
+            pistonRodIn: 5.5,
+            tailRodIn: 0,
+            cards: [
+              { end: 'head', meanEffectivePressurePsi: hpTrace.meanEffectivePressurePsi },
+              { end: 'crank', areaSqIn: 2.4, lengthIn: 3.5, springPsiPerIn: 80 },
+            ],
+          },
+          {
+            label: 'LP',
+            boreIn: 44,
+            pistonRodIn: 5.5,
+            tailRodIn: 4,
+            cards: [
+              { end: 'head', ordinatesIn, springPsiPerIn: 20 },
+              { end: 'crank', meanEffectivePressurePsi: 25.5 },
+            ],
+          },
         ],
       });
       expect(set.results.totalIndicatedHorsepower).toBeCloseTo(expected.totalIndicatedHorsepower, 9);
@@ -288,14 +362,25 @@ describe('indicator cards and indicated power', () => {
       const res = await t.http
         .post(`/api/runs/${run.id}/card-sets`)
         .set('authorization', auth(operator))
-        .send({ takenAt: takenAt(), speedRpm: 75, cards: [{ cylinderId: cyl('HP'), end: 'head', springPsiPerIn: 80, lengthIn: 3.5, imageId, trace }] });
+        .send({
+          takenAt: takenAt(),
+          speedRpm: 75,
+          cards: [{ cylinderId: cyl('HP'), end: 'head', springPsiPerIn: 80, lengthIn: 3.5, imageId, trace }],
+        });
       expect(res.status).toBe(201);
       const list = (await t.http.get(`/api/runs/${run.id}/card-sets`).set('authorization', auth(observer))).body as CardSetDto[];
       const card = list.find((s) => s.id === res.body.id)!.cards[0];
       expect(card.method).toBe('trace');
       expect(card.imageId).toBe(imageId);
       expect(card.trace).toEqual(trace as CardTrace);
-      const again = calibrateTrace({ atmosphericLine: card.trace!.atmosphericLine, diagramStartPx: card.trace!.admissionEndPx, diagramEndPx: card.trace!.releaseEndPx, tracePx: card.trace!.pointsPx, springPsiPerIn: 80, cardLengthIn: 3.5 });
+      const again = calibrateTrace({
+        atmosphericLine: card.trace!.atmosphericLine,
+        diagramStartPx: card.trace!.admissionEndPx,
+        diagramEndPx: card.trace!.releaseEndPx,
+        tracePx: card.trace!.pointsPx,
+        springPsiPerIn: 80,
+        cardLengthIn: 3.5,
+      });
       expect(card.meanEffectivePressurePsi).toBeCloseTo(again.meanEffectivePressurePsi, 12);
       expect(card.outline).toHaveLength(trace.pointsPx.length);
       // The set's results with only one end: incomplete, and it says which ends are missing.
@@ -306,7 +391,11 @@ describe('indicator cards and indicated power', () => {
       const created = await t.http
         .post(`/api/runs/${run.id}/card-sets`)
         .set('authorization', auth(operator))
-        .send({ takenAt: takenAt(), speedRpm: 75, cards: [{ cylinderId: cyl('LP'), end: 'crank', areaSqIn: 4.6, lengthIn: 3.5, springPsiPerIn: 20 }] });
+        .send({
+          takenAt: takenAt(),
+          speedRpm: 75,
+          cards: [{ cylinderId: cyl('LP'), end: 'crank', areaSqIn: 4.6, lengthIn: 3.5, springPsiPerIn: 20 }],
+        });
       const card = (created.body as CardSetDto).cards[0];
       const s = await observerSocket(run.id);
       const arrived = nextRecord(s, 'card_set');
@@ -327,8 +416,22 @@ describe('indicator cards and indicated power', () => {
       expect(a.changes.find((c) => c.field === 'meanEffectivePressurePsi')?.from).toBeCloseTo((4.6 / 3.5) * 20, 9);
       expect((await arrived).id).toBe(created.body.id);
 
-      expect((await t.http.post(`/api/cards/${card.id}/amendments`).set('authorization', auth(chief)).send({ areaSqIn: 4.51, lengthIn: 3.5, springPsiPerIn: 20 })).status).toBe(400); // no reason
-      expect((await t.http.post(`/api/cards/${card.id}/amendments`).set('authorization', auth(observer)).send({ areaSqIn: 4.5, lengthIn: 3.5, springPsiPerIn: 20, reason: 'observer try' })).status).toBe(403);
+      expect(
+        (
+          await t.http
+            .post(`/api/cards/${card.id}/amendments`)
+            .set('authorization', auth(chief))
+            .send({ areaSqIn: 4.51, lengthIn: 3.5, springPsiPerIn: 20 })
+        ).status,
+      ).toBe(400); // no reason
+      expect(
+        (
+          await t.http
+            .post(`/api/cards/${card.id}/amendments`)
+            .set('authorization', auth(observer))
+            .send({ areaSqIn: 4.5, lengthIn: 3.5, springPsiPerIn: 20, reason: 'observer try' })
+        ).status,
+      ).toBe(403);
     });
 
     it('adds a missing end, refuses a second card for an end (409) and a bad card (400 naming the field)', async () => {
@@ -337,21 +440,40 @@ describe('indicator cards and indicated power', () => {
         .set('authorization', auth(operator))
         .send({ takenAt: takenAt(), speedRpm: 75, cards: [{ cylinderId: cyl('HP'), end: 'head', meanEffectivePressurePsi: 55 }] });
       const id = created.body.id as string;
-      const add = await t.http.post(`/api/card-sets/${id}/cards`).set('authorization', auth(operator)).send({ cylinderId: cyl('HP'), end: 'crank', meanEffectivePressurePsi: 53 });
+      const add = await t.http
+        .post(`/api/card-sets/${id}/cards`)
+        .set('authorization', auth(operator))
+        .send({ cylinderId: cyl('HP'), end: 'crank', meanEffectivePressurePsi: 53 });
       expect(add.status).toBe(201);
       expect((add.body as CardSetDto).cards).toHaveLength(2);
-      const again = await t.http.post(`/api/card-sets/${id}/cards`).set('authorization', auth(operator)).send({ cylinderId: cyl('HP'), end: 'crank', meanEffectivePressurePsi: 50 });
+      const again = await t.http
+        .post(`/api/card-sets/${id}/cards`)
+        .set('authorization', auth(operator))
+        .send({ cylinderId: cyl('HP'), end: 'crank', meanEffectivePressurePsi: 50 });
       expect(again.status).toBe(409);
-      const twoWays = await t.http.post(`/api/card-sets/${id}/cards`).set('authorization', auth(operator)).send({ cylinderId: cyl('LP'), end: 'head', meanEffectivePressurePsi: 20, areaSqIn: 4, lengthIn: 3.5, springPsiPerIn: 20 });
+      const twoWays = await t.http
+        .post(`/api/card-sets/${id}/cards`)
+        .set('authorization', auth(operator))
+        .send({ cylinderId: cyl('LP'), end: 'head', meanEffectivePressurePsi: 20, areaSqIn: 4, lengthIn: 3.5, springPsiPerIn: 20 });
       expect(twoWays.status).toBe(400);
       expect(twoWays.body.message.join(' ')).toMatch(/card\.areaSqIn/);
-      const foreign = await t.http.post(`/api/card-sets/${id}/cards`).set('authorization', auth(operator)).send({ cylinderId: randomUUID(), end: 'head', meanEffectivePressurePsi: 20 });
+      const foreign = await t.http
+        .post(`/api/card-sets/${id}/cards`)
+        .set('authorization', auth(operator))
+        .send({ cylinderId: randomUUID(), end: 'head', meanEffectivePressurePsi: 20 });
       expect(foreign.status).toBe(400);
       expect(foreign.body.message.join(' ')).toMatch(/card\.cylinderId/);
       const dup = await t.http
         .post(`/api/runs/${run.id}/card-sets`)
         .set('authorization', auth(operator))
-        .send({ takenAt: takenAt(), speedRpm: 75, cards: [{ cylinderId: cyl('HP'), end: 'head', meanEffectivePressurePsi: 55 }, { cylinderId: cyl('HP'), end: 'head', meanEffectivePressurePsi: 54 }] });
+        .send({
+          takenAt: takenAt(),
+          speedRpm: 75,
+          cards: [
+            { cylinderId: cyl('HP'), end: 'head', meanEffectivePressurePsi: 55 },
+            { cylinderId: cyl('HP'), end: 'head', meanEffectivePressurePsi: 54 },
+          ],
+        });
       expect(dup.status).toBe(400);
       expect(dup.body.message.join(' ')).toMatch(/cards\[1\]\.end: a second card for the HP head end/);
     });
@@ -362,7 +484,10 @@ describe('indicator cards and indicated power', () => {
         .set('authorization', auth(operator))
         .send({ takenAt: takenAt(), speedRpm: 70, cards: [{ cylinderId: cyl('HP'), end: 'head', meanEffectivePressurePsi: 55 }] });
       const before = (created.body as CardSetDto).results.totalIndicatedHorsepower;
-      const res = await t.http.post(`/api/card-sets/${created.body.id}/amendments`).set('authorization', auth(operator)).send({ speedRpm: 75, reason: 'Speed read off the wrong counter.' });
+      const res = await t.http
+        .post(`/api/card-sets/${created.body.id}/amendments`)
+        .set('authorization', auth(operator))
+        .send({ speedRpm: 75, reason: 'Speed read off the wrong counter.' });
       expect(res.status).toBe(201);
       const set = res.body as CardSetDto;
       // IHP is proportional to speed (P·L·A·N/33,000).
@@ -374,14 +499,27 @@ describe('indicator cards and indicated power', () => {
       const created = await t.http
         .post(`/api/runs/${run.id}/card-sets`)
         .set('authorization', auth(operator))
-        .send({ takenAt: takenAt(), speedRpm: 75, cards: [{ cylinderId: cyl('HP'), end: 'head', meanEffectivePressurePsi: 55 }, { cylinderId: cyl('HP'), end: 'crank', meanEffectivePressurePsi: 53 }] });
+        .send({
+          takenAt: takenAt(),
+          speedRpm: 75,
+          cards: [
+            { cylinderId: cyl('HP'), end: 'head', meanEffectivePressurePsi: 55 },
+            { cylinderId: cyl('HP'), end: 'crank', meanEffectivePressurePsi: 53 },
+          ],
+        });
       const ihp = (created.body as CardSetDto).results.totalIndicatedHorsepower;
-      const res = await t.http.post(`/api/runs/${run.id}/brake-figures`).set('authorization', auth(chief)).send({ measuredAt: takenAt(), method: 'direct', brakeHorsepower: 300 });
+      const res = await t.http
+        .post(`/api/runs/${run.id}/brake-figures`)
+        .set('authorization', auth(chief))
+        .send({ measuredAt: takenAt(), method: 'direct', brakeHorsepower: 300 });
       expect(res.status).toBe(201);
       const set = (await t.http.get(`/api/card-sets/${created.body.id}`).set('authorization', auth(observer))).body as CardSetDto;
       expect(set.results.brake?.brakeHorsepower).toBe(300);
       expect(set.results.brake?.mechanicalEfficiency).toBeCloseTo(300 / ihp, 12);
-      const missing = await t.http.post(`/api/runs/${run.id}/brake-figures`).set('authorization', auth(chief)).send({ measuredAt: takenAt(), method: 'torque', speedRpm: 75 });
+      const missing = await t.http
+        .post(`/api/runs/${run.id}/brake-figures`)
+        .set('authorization', auth(chief))
+        .send({ measuredAt: takenAt(), method: 'torque', speedRpm: 75 });
       expect(missing.status).toBe(400);
       expect(missing.body.message.join(' ')).toMatch(/torqueLbfFt/);
     });
@@ -390,7 +528,10 @@ describe('indicator cards and indicated power', () => {
       const body = { takenAt: takenAt(), speedRpm: 75, cards: [] };
       expect((await t.http.post(`/api/runs/${run.id}/card-sets`).set('authorization', auth(observer)).send(body)).status).toBe(403);
       const other = await createPreparingRun(t, operator.accessToken, (await createEngine(t, chief.accessToken, compoundBody())).id);
-      const res = await t.http.post(`/api/runs/${other.id}/card-sets`).set('authorization', auth(operator)).send({ takenAt: takenAt(), cards: [] });
+      const res = await t.http
+        .post(`/api/runs/${other.id}/card-sets`)
+        .set('authorization', auth(operator))
+        .send({ takenAt: takenAt(), cards: [] });
       expect(res.status).toBe(400);
       expect(res.body.message.join(' ')).toMatch(/speedRpm: no speed reading/);
       expect((await t.http.post(`/api/runs/${randomUUID()}/card-sets`).set('authorization', auth(operator)).send(body)).status).toBe(404);
@@ -406,10 +547,32 @@ describe('indicator cards and indicated power', () => {
       expect(created.status).toBe(201);
       // Closing needs the whole start and close procedure; the state is arranged directly for this test.
       await t.db.query(`UPDATE runs SET state = 'closed', closed_at = now() WHERE id = $1`, [r.id]);
-      expect((await t.http.post(`/api/runs/${r.id}/card-sets`).set('authorization', auth(operator)).send({ takenAt: takenAt(), speedRpm: 75, cards: [] })).status).toBe(409);
+      expect(
+        (
+          await t.http
+            .post(`/api/runs/${r.id}/card-sets`)
+            .set('authorization', auth(operator))
+            .send({ takenAt: takenAt(), speedRpm: 75, cards: [] })
+        ).status,
+      ).toBe(409);
       const cardId = (created.body as CardSetDto).cards[0].id;
-      expect((await t.http.post(`/api/cards/${cardId}/amendments`).set('authorization', auth(chief)).send({ meanEffectivePressurePsi: 54, reason: 'too late now' })).status).toBe(409);
-      expect((await t.http.post(`/api/runs/${r.id}/card-images`).set('authorization', auth(operator)).set('content-type', 'image/png').send(encodePng(2, 2, new Uint8Array(12)))).status).toBe(409);
+      expect(
+        (
+          await t.http
+            .post(`/api/cards/${cardId}/amendments`)
+            .set('authorization', auth(chief))
+            .send({ meanEffectivePressurePsi: 54, reason: 'too late now' })
+        ).status,
+      ).toBe(409);
+      expect(
+        (
+          await t.http
+            .post(`/api/runs/${r.id}/card-images`)
+            .set('authorization', auth(operator))
+            .set('content-type', 'image/png')
+            .send(encodePng(2, 2, new Uint8Array(12)))
+        ).status,
+      ).toBe(409);
       // Still readable.
       expect((await t.http.get(`/api/runs/${r.id}/card-sets`).set('authorization', auth(observer))).status).toBe(200);
     });
@@ -417,13 +580,35 @@ describe('indicator cards and indicated power', () => {
 
   describe('POST /api/calculations/indicator-trace', () => {
     it('calibrates a trace without storing it; a trace of two points is refused naming pointsPx', async () => {
-      const drawn = drawIndicatorCard({ seed: 'e2e-preview', end: 'crank', admissionPressurePsia: 39, backPressurePsia: 3.3, cutOffFraction: 0.42, clearanceFraction: 0.06, springPsiPerIn: 20, lengthIn: 3.5 });
-      const res = await t.http.post('/api/calculations/indicator-trace').set('authorization', auth(observer)).send({ trace: drawn.trace, springPsiPerIn: 20, lengthIn: 3.5 });
+      const drawn = drawIndicatorCard({
+        seed: 'e2e-preview',
+        end: 'crank',
+        admissionPressurePsia: 39,
+        backPressurePsia: 3.3,
+        cutOffFraction: 0.42,
+        clearanceFraction: 0.06,
+        springPsiPerIn: 20,
+        lengthIn: 3.5,
+      });
+      const res = await t.http
+        .post('/api/calculations/indicator-trace')
+        .set('authorization', auth(observer))
+        .send({ trace: drawn.trace, springPsiPerIn: 20, lengthIn: 3.5 });
       expect(res.status).toBe(200);
-      const direct = calibrateTrace({ atmosphericLine: drawn.trace.atmosphericLine, diagramStartPx: drawn.trace.admissionEndPx, diagramEndPx: drawn.trace.releaseEndPx, tracePx: drawn.trace.pointsPx, springPsiPerIn: 20, cardLengthIn: 3.5 });
+      const direct = calibrateTrace({
+        atmosphericLine: drawn.trace.atmosphericLine,
+        diagramStartPx: drawn.trace.admissionEndPx,
+        diagramEndPx: drawn.trace.releaseEndPx,
+        tracePx: drawn.trace.pointsPx,
+        springPsiPerIn: 20,
+        cardLengthIn: 3.5,
+      });
       expect(res.body.meanEffectivePressurePsi).toBeCloseTo(direct.meanEffectivePressurePsi, 12);
       expect(res.body.lengthIn).toBeCloseTo(3.5, 9);
-      const bad = await t.http.post('/api/calculations/indicator-trace').set('authorization', auth(observer)).send({ trace: { ...drawn.trace, pointsPx: drawn.trace.pointsPx.slice(0, 2) }, springPsiPerIn: 20, lengthIn: 3.5 });
+      const bad = await t.http
+        .post('/api/calculations/indicator-trace')
+        .set('authorization', auth(observer))
+        .send({ trace: { ...drawn.trace, pointsPx: drawn.trace.pointsPx.slice(0, 2) }, springPsiPerIn: 20, lengthIn: 3.5 });
       expect(bad.status).toBe(400);
       expect(bad.body.message.join(' ')).toMatch(/pointsPx/);
     });

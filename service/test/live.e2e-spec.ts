@@ -27,7 +27,13 @@ describe('the live channel (socket.io)', () => {
 
   /** A client that has not connected yet; closed after each test. */
   const client = (token?: string) => {
-    const s = io(t.url, { transports: ['websocket'], reconnection: false, forceNew: true, autoConnect: false, ...(token ? { auth: { token } } : {}) });
+    const s = io(t.url, {
+      transports: ['websocket'],
+      reconnection: false,
+      forceNew: true,
+      autoConnect: false,
+      ...(token ? { auth: { token } } : {}),
+    });
     sockets.push(s);
     return s;
   };

@@ -53,7 +53,15 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
     findings: 'Top half scored on one side.',
     followUpActions: [{ text: 'Scrape and reset the clearance' }],
     measurements: [
-      { kind: 'clearance_lead_wire', label: 'Top, centre', value: 0.027, unit: 'in', nominal: 0.016, toleranceMin: 0.012, toleranceMax: 0.02 },
+      {
+        kind: 'clearance_lead_wire',
+        label: 'Top, centre',
+        value: 0.027,
+        unit: 'in',
+        nominal: 0.016,
+        toleranceMin: 0.012,
+        toleranceMax: 0.02,
+      },
       { kind: 'clearance_feeler', label: 'Side', value: 0.009, unit: 'in', toleranceMin: 0.004, toleranceMax: 0.012 },
     ],
     ...over,
@@ -69,7 +77,10 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
       expect(lead1).toMatchObject({ outOfTolerance: true, status: 'above' });
       expect(lead1.excess).toBeCloseTo(0.007, 9);
       expect(side).toMatchObject({ outOfTolerance: false, status: 'within', excess: 0 });
-      const rows = await t.db.query(`SELECT label, out_of_tolerance FROM inspection_measurements WHERE inspection_id = $1 ORDER BY sequence`, [i.id]);
+      const rows = await t.db.query(
+        `SELECT label, out_of_tolerance FROM inspection_measurements WHERE inspection_id = $1 ORDER BY sequence`,
+        [i.id],
+      );
       expect(rows).toEqual([
         { label: 'Top, centre', out_of_tolerance: true },
         { label: 'Side', out_of_tolerance: false },
@@ -83,23 +94,60 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
       const upside = await t.http
         .post('/api/maintenance/inspections')
         .set(auth(lead))
-        .send(inspectionBody({ measurements: [{ kind: 'shaft_level', label: 'MB', value: 0.001, unit: 'in/ft', toleranceMin: 0.002, toleranceMax: -0.002 }] }));
+        .send(
+          inspectionBody({
+            measurements: [{ kind: 'shaft_level', label: 'MB', value: 0.001, unit: 'in/ft', toleranceMin: 0.002, toleranceMax: -0.002 }],
+          }),
+        );
       expect(upside.status).toBe(400);
       expect(JSON.stringify(upside.body.message)).toContain('measurements.0.toleranceMin');
-      const web = await t.http.post('/api/maintenance/inspections').set(auth(lead)).send(inspectionBody({ kind: 'crank_web_deflection', measurements: [{ kind: 'web_deflection', label: '90°', value: 0.001, unit: 'in' }] }));
+      const web = await t.http
+        .post('/api/maintenance/inspections')
+        .set(auth(lead))
+        .send(
+          inspectionBody({
+            kind: 'crank_web_deflection',
+            measurements: [{ kind: 'web_deflection', label: '90°', value: 0.001, unit: 'in' }],
+          }),
+        );
       expect(web.status).toBe(400);
       expect(JSON.stringify(web.body.message)).toContain('crankAngleDeg');
       const other = await createEngine(t, chief.accessToken);
-      const wrong = await t.http.post('/api/maintenance/inspections').set(auth(lead)).send(inspectionBody({ engineId: other.id }));
+      const wrong = await t.http
+        .post('/api/maintenance/inspections')
+        .set(auth(lead))
+        .send(inspectionBody({ engineId: other.id }));
       expect(wrong.status).toBe(400);
-      expect((await t.http.post('/api/maintenance/inspections').set(auth(lead)).send(inspectionBody({ unit: 'furlong' }))).status).toBe(400);
-      expect((await t.http.post('/api/maintenance/inspections').set(auth(lead)).send(inspectionBody({ engineId: '6f1c2d3e-4b5a-4c6d-8e7f-0a1b2c3d4e5f' }))).status).toBe(404);
+      expect(
+        (
+          await t.http
+            .post('/api/maintenance/inspections')
+            .set(auth(lead))
+            .send(inspectionBody({ unit: 'furlong' }))
+        ).status,
+      ).toBe(400);
+      expect(
+        (
+          await t.http
+            .post('/api/maintenance/inspections')
+            .set(auth(lead))
+            .send(inspectionBody({ engineId: '6f1c2d3e-4b5a-4c6d-8e7f-0a1b2c3d4e5f' }))
+        ).status,
+      ).toBe(404);
       expect((await t.http.get('/api/maintenance/inspections/not-a-uuid').set(auth(lead))).status).toBe(400);
     });
 
     it('observers, operators and the mill lead cannot record; the chief engineer can', async () => {
-      for (const who of [observer, operator, millLead]) expect((await t.http.post('/api/maintenance/inspections').set(auth(who)).send(inspectionBody())).status).toBe(403);
-      expect((await t.http.post('/api/maintenance/inspections').set(auth(chief)).send(inspectionBody({ title: 'By the chief' }))).status).toBe(201);
+      for (const who of [observer, operator, millLead])
+        expect((await t.http.post('/api/maintenance/inspections').set(auth(who)).send(inspectionBody())).status).toBe(403);
+      expect(
+        (
+          await t.http
+            .post('/api/maintenance/inspections')
+            .set(auth(chief))
+            .send(inspectionBody({ title: 'By the chief' }))
+        ).status,
+      ).toBe(201);
       expect((await t.http.get('/api/maintenance/inspections').set(auth(observer))).status).toBe(200);
       expect((await t.http.get('/api/maintenance/inspections')).status).toBe(401);
     });
@@ -108,20 +156,40 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
   describe('photos and documents', () => {
     let inspectionId: string;
     beforeAll(async () => {
-      inspectionId = ((await t.http.post('/api/maintenance/inspections').set(auth(lead)).send(inspectionBody({ title: 'With photos' }))).body as InspectionDto).id;
+      inspectionId = (
+        (
+          await t.http
+            .post('/api/maintenance/inspections')
+            .set(auth(lead))
+            .send(inspectionBody({ title: 'With photos' }))
+        ).body as InspectionDto
+      ).id;
     });
     const upload = (who: SignedIn, body: Buffer, name: string, type: string) =>
-      t.http.post(`/api/maintenance/inspections/${inspectionId}/attachments`).set(auth(who)).field('caption', 'Top half as lifted').attach('file', body, { filename: name, contentType: type });
+      t.http
+        .post(`/api/maintenance/inspections/${inspectionId}/attachments`)
+        .set(auth(who))
+        .field('caption', 'Top half as lifted')
+        .attach('file', body, { filename: name, contentType: type });
 
     it('stores an image in the object store, judged by its bytes, and gives the same bytes back', async () => {
       const res = await upload(lead, TINY_PNG, 'shell.png', 'image/png');
       expect(res.status).toBe(201);
-      expect(res.body).toMatchObject({ kind: 'image', contentType: 'image/png', sizeBytes: TINY_PNG.length, caption: 'Top half as lifted' });
-      const back = await t.http.get(`/api/maintenance/attachments/${res.body.id}/content`).set(auth(observer)).buffer(true).parse((r, cb) => {
-        const chunks: Buffer[] = [];
-        r.on('data', (c: Buffer) => chunks.push(c));
-        r.on('end', () => cb(null, Buffer.concat(chunks)));
+      expect(res.body).toMatchObject({
+        kind: 'image',
+        contentType: 'image/png',
+        sizeBytes: TINY_PNG.length,
+        caption: 'Top half as lifted',
       });
+      const back = await t.http
+        .get(`/api/maintenance/attachments/${res.body.id}/content`)
+        .set(auth(observer))
+        .buffer(true)
+        .parse((r, cb) => {
+          const chunks: Buffer[] = [];
+          r.on('data', (c: Buffer) => chunks.push(c));
+          r.on('end', () => cb(null, Buffer.concat(chunks)));
+        });
       expect(back.status).toBe(200);
       expect(back.headers['content-type']).toBe('image/png');
       expect(Buffer.compare(back.body as Buffer, TINY_PNG)).toBe(0);
@@ -152,7 +220,10 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
 
     it('an observer cannot upload; no file is a 400', async () => {
       expect((await upload(observer, TINY_PNG, 'shell.png', 'image/png')).status).toBe(403);
-      const none = await t.http.post(`/api/maintenance/inspections/${inspectionId}/attachments`).set(auth(lead)).field('caption', 'nothing');
+      const none = await t.http
+        .post(`/api/maintenance/inspections/${inspectionId}/attachments`)
+        .set(auth(lead))
+        .field('caption', 'nothing');
       expect(none.status).toBe(400);
     });
   });
@@ -162,7 +233,16 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
       const res = await t.http
         .post('/api/maintenance/plans')
         .set(auth(lead))
-        .send({ engineId: engine.id, componentKind: 'bearing', bearingId: bearing().id, title: 'Monthly look at the main bearing', inspectionKind: 'general', intervalDays: 30, lastDoneAt: new Date(Date.now() - 40 * DAY).toISOString(), hazards: ['lockout'] });
+        .send({
+          engineId: engine.id,
+          componentKind: 'bearing',
+          bearingId: bearing().id,
+          title: 'Monthly look at the main bearing',
+          inspectionKind: 'general',
+          intervalDays: 30,
+          lastDoneAt: new Date(Date.now() - 40 * DAY).toISOString(),
+          hazards: ['lockout'],
+        });
       expect(res.status).toBe(201);
       const plan = res.body as InspectionPlanDto;
       expect(plan.due.status).toBe('overdue');
@@ -177,10 +257,26 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
         await t.http
           .post('/api/maintenance/plans')
           .set(auth(chief))
-          .send({ engineId: engine.id, componentKind: 'crankshaft', componentLabel: 'Crankshaft webs', title: 'Web deflection', inspectionKind: 'crank_web_deflection', intervalRunHours: 4, intervalDays: 365, lastDoneAt: new Date(Date.now() - 20 * DAY).toISOString() })
+          .send({
+            engineId: engine.id,
+            componentKind: 'crankshaft',
+            componentLabel: 'Crankshaft webs',
+            title: 'Web deflection',
+            inspectionKind: 'crank_web_deflection',
+            intervalRunHours: 4,
+            intervalDays: 365,
+            lastDoneAt: new Date(Date.now() - 20 * DAY).toISOString(),
+          })
       ).body as InspectionPlanDto;
       expect(plan.due.status).toBe('ok');
-      await insertClosedRun(t, engine, chief.account.id, { title: 'Hours run', startedAt: new Date(Date.now() - 10 * DAY), hours: 5, ambientF: 60, riseF: 40, speedRpm: 75 });
+      await insertClosedRun(t, engine, chief.account.id, {
+        title: 'Hours run',
+        startedAt: new Date(Date.now() - 10 * DAY),
+        hours: 5,
+        ambientF: 60,
+        riseF: 40,
+        speedRpm: 75,
+      });
       const after = (await t.http.get(`/api/maintenance/plans/${plan.id}`).set(auth(observer))).body as InspectionPlanDto;
       expect(after.due.status).toBe('overdue');
       expect(after.due.governing).toBe('run_hours');
@@ -194,23 +290,48 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
         await t.http
           .post('/api/maintenance/plans')
           .set(auth(lead))
-          .send({ engineId: engine.id, componentKind: 'bearing', bearingId: bearing().id, title: 'Clearance every 2 h', inspectionKind: 'bearing_clearance', intervalRunHours: 2, lastDoneAt: new Date(Date.now() - 30 * DAY).toISOString() })
+          .send({
+            engineId: engine.id,
+            componentKind: 'bearing',
+            bearingId: bearing().id,
+            title: 'Clearance every 2 h',
+            inspectionKind: 'bearing_clearance',
+            intervalRunHours: 2,
+            lastDoneAt: new Date(Date.now() - 30 * DAY).toISOString(),
+          })
       ).body as InspectionPlanDto;
       expect(plan.due.status).toBe('overdue');
       const created = await t.http
         .post('/api/maintenance/work-records')
         .set(auth(lead))
-        .send({ engineId: engine.id, bearingId: bearing().id, title: 'Scraped and shimmed', performedBy: 'Test crew', parts: [{ description: 'Shim', quantity: 2, unit: 'pieces' }], labourHours: 6, hazards: ['lockout', 'lifting'], satisfiesPlanIds: [plan.id], startedAt: new Date(Date.now() - 2 * DAY).toISOString() });
+        .send({
+          engineId: engine.id,
+          bearingId: bearing().id,
+          title: 'Scraped and shimmed',
+          performedBy: 'Test crew',
+          parts: [{ description: 'Shim', quantity: 2, unit: 'pieces' }],
+          labourHours: 6,
+          hazards: ['lockout', 'lifting'],
+          satisfiesPlanIds: [plan.id],
+          startedAt: new Date(Date.now() - 2 * DAY).toISOString(),
+        });
       expect(created.status).toBe(201);
       const work = created.body as WorkRecordDto;
       expect(work.status).toBe('open');
       expect((await t.http.post(`/api/maintenance/work-records/${work.id}/close`).set(auth(observer)).send({})).status).toBe(403);
       const completedAt = new Date(Date.now() - DAY);
-      const closed = await t.http.post(`/api/maintenance/work-records/${work.id}/close`).set(auth(lead)).send({ completedAt: completedAt.toISOString(), note: 'Done' });
+      const closed = await t.http
+        .post(`/api/maintenance/work-records/${work.id}/close`)
+        .set(auth(lead))
+        .send({ completedAt: completedAt.toISOString(), note: 'Done' });
       expect(closed.status).toBe(200);
       const c = closed.body as WorkRecordDto;
       const counters = (await t.http.get(`/api/engines/${engine.id}`).set(auth(lead))).body as EngineDetail;
-      expect(c).toMatchObject({ status: 'closed', resetPlans: [{ id: plan.id, title: plan.title }], closedByName: lead.account.displayName });
+      expect(c).toMatchObject({
+        status: 'closed',
+        resetPlans: [{ id: plan.id, title: plan.title }],
+        closedByName: lead.account.displayName,
+      });
       expect(c.runHoursAtCompletion).toBeCloseTo(counters.runningHours, 6);
       const reset = (await t.http.get(`/api/maintenance/plans/${plan.id}`).set(auth(lead))).body as InspectionPlanDto;
       expect(reset.lastDoneAt).toBe(completedAt.toISOString());
@@ -222,22 +343,60 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
     });
 
     it('refuses a plan without an interval, a completion before the work started, and writers other than the maintenance lead and the chief', async () => {
-      const none = await t.http.post('/api/maintenance/plans').set(auth(lead)).send({ engineId: engine.id, componentKind: 'engine', title: 'No interval', inspectionKind: 'general' });
+      const none = await t.http
+        .post('/api/maintenance/plans')
+        .set(auth(lead))
+        .send({ engineId: engine.id, componentKind: 'engine', title: 'No interval', inspectionKind: 'general' });
       expect(none.status).toBe(400);
       expect(JSON.stringify(none.body.message)).toMatch(/at least one interval/);
       for (const who of [observer, operator]) {
-        expect((await t.http.post('/api/maintenance/plans').set(auth(who)).send({ engineId: engine.id, componentKind: 'engine', title: 'x', inspectionKind: 'general', intervalDays: 5 })).status).toBe(403);
-        expect((await t.http.post('/api/maintenance/work-records').set(auth(who)).send({ engineId: engine.id, title: 'x', performedBy: 'x' })).status).toBe(403);
+        expect(
+          (
+            await t.http
+              .post('/api/maintenance/plans')
+              .set(auth(who))
+              .send({ engineId: engine.id, componentKind: 'engine', title: 'x', inspectionKind: 'general', intervalDays: 5 })
+          ).status,
+        ).toBe(403);
+        expect(
+          (await t.http.post('/api/maintenance/work-records').set(auth(who)).send({ engineId: engine.id, title: 'x', performedBy: 'x' }))
+            .status,
+        ).toBe(403);
       }
-      const w = (await t.http.post('/api/maintenance/work-records').set(auth(chief)).send({ engineId: engine.id, title: 'Early close', performedBy: 'Chief', startedAt: new Date(Date.now() - DAY).toISOString() })).body as WorkRecordDto;
-      expect((await t.http.post(`/api/maintenance/work-records/${w.id}/close`).set(auth(chief)).send({ completedAt: new Date(Date.now() - 3 * DAY).toISOString() })).status).toBe(400);
+      const w = (
+        await t.http
+          .post('/api/maintenance/work-records')
+          .set(auth(chief))
+          .send({ engineId: engine.id, title: 'Early close', performedBy: 'Chief', startedAt: new Date(Date.now() - DAY).toISOString() })
+      ).body as WorkRecordDto;
+      expect(
+        (
+          await t.http
+            .post(`/api/maintenance/work-records/${w.id}/close`)
+            .set(auth(chief))
+            .send({ completedAt: new Date(Date.now() - 3 * DAY).toISOString() })
+        ).status,
+      ).toBe(400);
     });
 
     it('work prompted by an inspection carries out its follow-up actions', async () => {
-      const i = (await t.http.post('/api/maintenance/inspections').set(auth(lead)).send(inspectionBody({ title: 'Prompting inspection' }))).body as InspectionDto;
-      const bad = await t.http.post('/api/maintenance/work-records').set(auth(lead)).send({ engineId: engine.id, title: 'Follow-up', performedBy: 'Crew', promptedByInspectionId: i.id, followUpActionIndexes: [3] });
+      const i = (
+        await t.http
+          .post('/api/maintenance/inspections')
+          .set(auth(lead))
+          .send(inspectionBody({ title: 'Prompting inspection' }))
+      ).body as InspectionDto;
+      const bad = await t.http
+        .post('/api/maintenance/work-records')
+        .set(auth(lead))
+        .send({ engineId: engine.id, title: 'Follow-up', performedBy: 'Crew', promptedByInspectionId: i.id, followUpActionIndexes: [3] });
       expect(bad.status).toBe(400);
-      const w = (await t.http.post('/api/maintenance/work-records').set(auth(lead)).send({ engineId: engine.id, title: 'Follow-up', performedBy: 'Crew', promptedByInspectionId: i.id, followUpActionIndexes: [0] })).body as WorkRecordDto;
+      const w = (
+        await t.http
+          .post('/api/maintenance/work-records')
+          .set(auth(lead))
+          .send({ engineId: engine.id, title: 'Follow-up', performedBy: 'Crew', promptedByInspectionId: i.id, followUpActionIndexes: [0] })
+      ).body as WorkRecordDto;
       const after = (await t.http.get(`/api/maintenance/inspections/${i.id}`).set(auth(observer))).body as InspectionDto;
       expect(after.followUpActions[0].workRecordId).toBe(w.id);
       expect(after.workRecords.map((x) => x.id)).toContain(w.id);
@@ -253,7 +412,14 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
       // Synthetic season: six runs at 75 rpm with rises of about 40 °F, one of them 75 °F.
       const rises = [40.2, 41.0, 39.8, 75.0, 40.6, 40.1];
       for (const [i, rise] of rises.entries()) {
-        const id = await insertClosedRun(t, fresh, chief.account.id, { title: `Season run ${i + 1}`, startedAt: new Date(Date.now() - (60 - i * 7) * DAY), hours: 3, ambientF: 60 + i, riseF: rise, speedRpm: 75 });
+        const id = await insertClosedRun(t, fresh, chief.account.id, {
+          title: `Season run ${i + 1}`,
+          startedAt: new Date(Date.now() - (60 - i * 7) * DAY),
+          hours: 3,
+          ambientF: 60 + i,
+          riseF: rise,
+          speedRpm: 75,
+        });
         if (rise > 70) hotRun = id;
       }
     });
@@ -281,7 +447,10 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
 
     it('puts inspections and work on the same timeline', async () => {
       const b = fresh.bearings[0];
-      await t.http.post('/api/maintenance/inspections').set(auth(lead)).send(inspectionBody({ engineId: fresh.id, bearingId: b.id, title: 'After the hot run', promptedByRunId: hotRun }));
+      await t.http
+        .post('/api/maintenance/inspections')
+        .set(auth(lead))
+        .send(inspectionBody({ engineId: fresh.id, bearingId: b.id, title: 'After the hot run', promptedByRunId: hotRun }));
       const h = (await t.http.get(`/api/maintenance/bearings/${b.id}/history`).set(auth(observer))).body as BearingHistory;
       const kinds = h.timeline.map((e) => e.type);
       expect(kinds).toContain('inspection');
@@ -292,7 +461,10 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
 
     it('gives the history as CSV (cells neutralised) and as a PDF report', async () => {
       const b = fresh.bearings[0];
-      await t.http.post('/api/maintenance/inspections').set(auth(lead)).send(inspectionBody({ engineId: fresh.id, bearingId: b.id, title: '=HYPERLINK("http://example.test")' }));
+      await t.http
+        .post('/api/maintenance/inspections')
+        .set(auth(lead))
+        .send(inspectionBody({ engineId: fresh.id, bearingId: b.id, title: '=HYPERLINK("http://example.test")' }));
       const csv = await t.http.get(`/api/maintenance/bearings/${b.id}/history.csv`).set(auth(observer));
       expect(csv.status).toBe(200);
       expect(csv.headers['content-type']).toMatch(/text\/csv/);
@@ -302,14 +474,20 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
       // OWASP CSV-injection advice: a text cell a spreadsheet would run as a formula is prefixed with an apostrophe.
       expect(text).toContain(`"'=HYPERLINK(""http://example.test"")"`);
       expect(text).not.toMatch(/(^|,)=HYPERLINK/m);
-      const pdf = await t.http.get(`/api/maintenance/bearings/${b.id}/history.pdf`).set(auth(observer)).buffer(true).parse((r, cb) => {
-        const chunks: Buffer[] = [];
-        r.on('data', (c: Buffer) => chunks.push(c));
-        r.on('end', () => cb(null, Buffer.concat(chunks)));
-      });
+      const pdf = await t.http
+        .get(`/api/maintenance/bearings/${b.id}/history.pdf`)
+        .set(auth(observer))
+        .buffer(true)
+        .parse((r, cb) => {
+          const chunks: Buffer[] = [];
+          r.on('data', (c: Buffer) => chunks.push(c));
+          r.on('end', () => cb(null, Buffer.concat(chunks)));
+        });
       expect(pdf.status).toBe(200);
       expect((pdf.body as Buffer).subarray(0, 5).toString('latin1')).toBe('%PDF-');
-      expect((await t.http.get('/api/maintenance/bearings/6f1c2d3e-4b5a-4c6d-8e7f-0a1b2c3d4e5f/history').set(auth(observer))).status).toBe(404);
+      expect((await t.http.get('/api/maintenance/bearings/6f1c2d3e-4b5a-4c6d-8e7f-0a1b2c3d4e5f/history').set(auth(observer))).status).toBe(
+        404,
+      );
     });
   });
 
@@ -317,26 +495,70 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
     let oil: OilDto;
     let runId: string;
     it('adds an oil (the maintenance lead), refuses the same name twice and a 100 °C figure above the 40 °C one', async () => {
-      const body = { name: `Test VG 150 ${engine.id.slice(0, 6)}`, grade: 'ISO VG 150', viscosity40cSt: 150, viscosity100cSt: 14.5, densityKgM3At15C: 890, figuresSource: 'typical of the grade' };
+      const body = {
+        name: `Test VG 150 ${engine.id.slice(0, 6)}`,
+        grade: 'ISO VG 150',
+        viscosity40cSt: 150,
+        viscosity100cSt: 14.5,
+        densityKgM3At15C: 890,
+        figuresSource: 'typical of the grade',
+      };
       expect((await t.http.post('/api/lubrication/oils').set(auth(operator)).send(body)).status).toBe(403);
       const res = await t.http.post('/api/lubrication/oils').set(auth(lead)).send(body);
       expect(res.status).toBe(201);
       oil = res.body as OilDto;
       expect((await t.http.post('/api/lubrication/oils').set(auth(lead)).send(body)).status).toBe(409);
-      expect((await t.http.post('/api/lubrication/oils').set(auth(lead)).send({ ...body, name: 'x', viscosity100cSt: 200 })).status).toBe(400);
-      const assigned = await t.http.put(`/api/lubrication/points/${engine.lubricationPoints[0].id}/oil`).set(auth(lead)).send({ oilId: oil.id });
+      expect(
+        (
+          await t.http
+            .post('/api/lubrication/oils')
+            .set(auth(lead))
+            .send({ ...body, name: 'x', viscosity100cSt: 200 })
+        ).status,
+      ).toBe(400);
+      const assigned = await t.http
+        .put(`/api/lubrication/points/${engine.lubricationPoints[0].id}/oil`)
+        .set(auth(lead))
+        .send({ oilId: oil.id });
       expect(assigned.status).toBe(200);
       expect(assigned.body).toMatchObject({ oilId: oil.id, matchedBy: 'assigned' });
     });
 
     it('logs oil used per run and gives it per run-hour and per thousand revolutions', async () => {
-      runId = await insertClosedRun(t, engine, chief.account.id, { title: 'Oil run', startedAt: new Date(Date.now() - 5 * DAY), hours: 4, ambientF: 65, riseF: 38, speedRpm: 75 });
+      runId = await insertClosedRun(t, engine, chief.account.id, {
+        title: 'Oil run',
+        startedAt: new Date(Date.now() - 5 * DAY),
+        hours: 4,
+        ambientF: 65,
+        riseF: 38,
+        speedRpm: 75,
+      });
       const point = engine.lubricationPoints[0].id;
-      expect((await t.http.post('/api/lubrication/consumption').set(auth(observer)).send({ runId, lubricationPointId: point, method: 'added', quantityLitres: 1 })).status).toBe(403);
-      expect((await t.http.post('/api/lubrication/consumption').set(auth(operator)).send({ runId, lubricationPointId: point, method: 'levels', levelStartLitres: 3, levelEndLitres: 4 })).status).toBe(400);
-      const a = await t.http.post('/api/lubrication/consumption').set(auth(operator)).send({ runId, lubricationPointId: point, method: 'added', quantityLitres: 1.2 });
+      expect(
+        (
+          await t.http
+            .post('/api/lubrication/consumption')
+            .set(auth(observer))
+            .send({ runId, lubricationPointId: point, method: 'added', quantityLitres: 1 })
+        ).status,
+      ).toBe(403);
+      expect(
+        (
+          await t.http
+            .post('/api/lubrication/consumption')
+            .set(auth(operator))
+            .send({ runId, lubricationPointId: point, method: 'levels', levelStartLitres: 3, levelEndLitres: 4 })
+        ).status,
+      ).toBe(400);
+      const a = await t.http
+        .post('/api/lubrication/consumption')
+        .set(auth(operator))
+        .send({ runId, lubricationPointId: point, method: 'added', quantityLitres: 1.2 });
       expect(a.status).toBe(201);
-      const b = await t.http.post('/api/lubrication/consumption').set(auth(operator)).send({ runId, lubricationPointId: point, method: 'levels', levelStartLitres: 5, levelEndLitres: 4.4 });
+      const b = await t.http
+        .post('/api/lubrication/consumption')
+        .set(auth(operator))
+        .send({ runId, lubricationPointId: point, method: 'levels', levelStartLitres: 5, levelEndLitres: 4.4 });
       expect(b.status).toBe(201);
       expect(b.body.usedLitres).toBeCloseTo(0.6, 9);
       const l = (await t.http.get(`/api/lubrication/engines/${engine.id}`).set(auth(observer))).body as EngineLubrication;
@@ -371,29 +593,46 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
         .set(auth(observer))
         .send({ diameterIn: 5, lengthIn: 5, radialClearanceIn: 0.0025, speedRpm: 5000, viscosityReyn: 2e-6, loadLbf: 1000 });
       expect(res.status).toBe(200);
-      expect(Object.keys(res.body)).toEqual(expect.arrayContaining(['frictionTorqueLbfIn', 'frictionCoefficient', 'powerLossHp', 'sommerfeldNumber', 'unitLoadPsi']));
+      expect(Object.keys(res.body)).toEqual(
+        expect.arrayContaining(['frictionTorqueLbfIn', 'frictionCoefficient', 'powerLossHp', 'sommerfeldNumber', 'unitLoadPsi']),
+      );
       expect(res.body.powerLossHp).toBeCloseTo(16.32, 1);
       expect(res.body.unitLoadPsi).toBeCloseTo(40, 9);
     });
 
     it('oil-viscosity: gives back the data-sheet figure at 40 °C and answers every signed-in role', async () => {
       for (const who of [observer, operator, millLead]) {
-        const res = await t.http.post('/api/calculations/oil-viscosity').set(auth(who)).send({ viscosity40cSt: 150, viscosity100cSt: 14.5, temperatureC: 40 });
+        const res = await t.http
+          .post('/api/calculations/oil-viscosity')
+          .set(auth(who))
+          .send({ viscosity40cSt: 150, viscosity100cSt: 14.5, temperatureC: 40 });
         expect(res.status).toBe(200);
         expect(res.body.kinematicCst).toBeCloseTo(150, 6);
         expect(res.body.densityAssumed).toBe(true);
       }
-      expect((await t.http.post('/api/calculations/oil-viscosity').send({ viscosity40cSt: 150, viscosity100cSt: 14.5, temperatureC: 40 })).status).toBe(401);
+      expect(
+        (await t.http.post('/api/calculations/oil-viscosity').send({ viscosity40cSt: 150, viscosity100cSt: 14.5, temperatureC: 40 }))
+          .status,
+      ).toBe(401);
     });
 
     it('refuses bad figures with the field named', async () => {
-      const s = await t.http.post('/api/calculations/journal-friction').set(auth(observer)).send({ diameterIn: '5', lengthIn: 5, radialClearanceIn: 0.0025, speedRpm: 5000, viscosityReyn: 2e-6, loadLbf: 1000 });
+      const s = await t.http
+        .post('/api/calculations/journal-friction')
+        .set(auth(observer))
+        .send({ diameterIn: '5', lengthIn: 5, radialClearanceIn: 0.0025, speedRpm: 5000, viscosityReyn: 2e-6, loadLbf: 1000 });
       expect(s.status).toBe(400);
       expect(JSON.stringify(s.body.message)).toContain('diameterIn');
-      const v = await t.http.post('/api/calculations/oil-viscosity').set(auth(observer)).send({ viscosity40cSt: 10, viscosity100cSt: 20, temperatureC: 50 });
+      const v = await t.http
+        .post('/api/calculations/oil-viscosity')
+        .set(auth(observer))
+        .send({ viscosity40cSt: 10, viscosity100cSt: 20, temperatureC: 50 });
       expect(v.status).toBe(400);
       expect(JSON.stringify(v.body.message)).toContain('viscosity100cSt');
-      const extra = await t.http.post('/api/calculations/oil-viscosity').set(auth(observer)).send({ viscosity40cSt: 150, viscosity100cSt: 14.5, temperatureC: 40, temperatureF: 104 });
+      const extra = await t.http
+        .post('/api/calculations/oil-viscosity')
+        .set(auth(observer))
+        .send({ viscosity40cSt: 150, viscosity100cSt: 14.5, temperatureC: 40, temperatureF: 104 });
       expect(extra.status).toBe(400);
     });
 
@@ -402,20 +641,35 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
       expect(lift.status).toBe(200);
       expect(lift.body.liftPressurePsi).toBeCloseTo(1500, 9);
       expect(lift.body.caution).toMatch(/licensed practice/);
-      const jacks = await t.http.post('/api/calculations/jack-capacity').set(auth(observer)).send({ jackCount: 4, jackCapacityShortTons: 50, loadLbf: 225000 });
+      const jacks = await t.http
+        .post('/api/calculations/jack-capacity')
+        .set(auth(observer))
+        .send({ jackCount: 4, jackCapacityShortTons: 50, loadLbf: 225000 });
       expect(jacks.body.margin).toBeCloseTo(1.78, 2);
       expect(jacks.body.belowRequiredMargin).toBe(false);
-      expect((await t.http.post('/api/calculations/jack-capacity').set(auth(observer)).send({ jackCount: 2.5, jackCapacityShortTons: 50, loadLbf: 225000 })).status).toBe(400);
+      expect(
+        (
+          await t.http
+            .post('/api/calculations/jack-capacity')
+            .set(auth(observer))
+            .send({ jackCount: 2.5, jackCapacityShortTons: 50, loadLbf: 225000 })
+        ).status,
+      ).toBe(400);
     });
 
     it('are documented in OpenAPI with the unit field names', async () => {
-      const doc = (await t.http.get('/api/docs-json')).body as { paths: Record<string, unknown>; components: { schemas: Record<string, { properties?: Record<string, unknown> }> } };
+      const doc = (await t.http.get('/api/docs-json')).body as {
+        paths: Record<string, unknown>;
+        components: { schemas: Record<string, { properties?: Record<string, unknown> }> };
+      };
       expect(doc.paths['/api/calculations/oil-viscosity']).toBeDefined();
       expect(doc.paths['/api/calculations/journal-friction']).toBeDefined();
       const req = doc.components.schemas.JournalFrictionRequestDto.properties!;
       expect(Object.keys(req).sort()).toEqual(['diameterIn', 'lengthIn', 'loadLbf', 'radialClearanceIn', 'speedRpm', 'viscosityReyn']);
       const out = doc.components.schemas.JournalFrictionResponseDto.properties!;
-      expect(Object.keys(out)).toEqual(expect.arrayContaining(['frictionTorqueLbfIn', 'frictionCoefficient', 'powerLossHp', 'sommerfeldNumber', 'unitLoadPsi']));
+      expect(Object.keys(out)).toEqual(
+        expect.arrayContaining(['frictionTorqueLbfIn', 'frictionCoefficient', 'powerLossHp', 'sommerfeldNumber', 'unitLoadPsi']),
+      );
     });
   });
 });

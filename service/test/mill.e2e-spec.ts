@@ -1,5 +1,15 @@
 import { randomUUID } from 'node:crypto';
-import type { BarDto, EngineDetail, LoggedPassDto, LotDetail, MillDto, MillTimelineItem, QuoteDto, RunDetail, ScheduleDetail } from '@crankjournal/shared-types';
+import type {
+  BarDto,
+  EngineDetail,
+  LoggedPassDto,
+  LotDetail,
+  MillDto,
+  MillTimelineItem,
+  QuoteDto,
+  RunDetail,
+  ScheduleDetail,
+} from '@crankjournal/shared-types';
 import { bearer, startTestApp, type TestApp } from './utils/test-app.js';
 import { login, type SignedIn } from './factories/users.factory.js';
 import { reading } from './factories/engine.factory.js';
@@ -34,7 +44,10 @@ describe('the mill (API)', () => {
   describe('the mill described per site', () => {
     it('the chief engineer and the mill lead describe it; observers and operators read only', async () => {
       expect(mill.stands.map((s) => s.position)).toEqual([1, 2, 3]);
-      const body = { ...millBody(engine.id, mill.name), stands: mill.stands.map((s) => (s.position === 3 ? { ...s, maxSeparatingForceKn: 950 } : s)) };
+      const body = {
+        ...millBody(engine.id, mill.name),
+        stands: mill.stands.map((s) => (s.position === 3 ? { ...s, maxSeparatingForceKn: 950 } : s)),
+      };
       const upd = await t.http.put(`/api/mill/mills/${mill.id}`).set('authorization', auth(lead)).send(body);
       expect(upd.status).toBe(200);
       expect((upd.body as MillDto).stands.find((s) => s.position === 3)!.maxSeparatingForceKn).toBe(950);
@@ -56,7 +69,10 @@ describe('the mill (API)', () => {
       const r2 = await t.http.post('/api/mill/mills').set('authorization', auth(chief)).send(millBody(randomUUID()));
       expect(r2.status).toBe(400);
       expect(JSON.stringify(r2.body.message)).toMatch(/engineId names no engine/);
-      const r3 = await t.http.post('/api/mill/mills').set('authorization', auth(chief)).send({ ...millBody(engine.id), stands: [] });
+      const r3 = await t.http
+        .post('/api/mill/mills')
+        .set('authorization', auth(chief))
+        .send({ ...millBody(engine.id), stands: [] });
       expect(r3.status).toBe(400);
       expect(r3.body.message).toContain('a mill needs at least one stand');
       expect((await t.http.get(`/api/mill/mills/${randomUUID()}`).set('authorization', auth(chief))).status).toBe(404);
@@ -93,9 +109,22 @@ describe('the mill (API)', () => {
 
     it('hot steel uses the cited flow stress model, flags the extrapolation and both overloads', async () => {
       const res = await t.http.post('/api/calculations/rolling-pass').set('authorization', auth(lead)).send({
-        rollDiameterMm: 406.4, entryThicknessMm: 40, exitThicknessMm: 25, entryWidthMm: 150, exitWidthMm: 155,
-        temperatureC: 850, carbonPct: 0.45, rollSpeedRpm: 75, standMaxForceKn: 1200,
-        flywheelMassLb: 156800, flywheelRadiusOfGyrationFt: 9.9, engineSpeedRpm: 75, ratedSpeedRpm: 75, barExitLengthM: 10, indicatedHp: 650, baseLoadHp: 60,
+        rollDiameterMm: 406.4,
+        entryThicknessMm: 40,
+        exitThicknessMm: 25,
+        entryWidthMm: 150,
+        exitWidthMm: 155,
+        temperatureC: 850,
+        carbonPct: 0.45,
+        rollSpeedRpm: 75,
+        standMaxForceKn: 1200,
+        flywheelMassLb: 156800,
+        flywheelRadiusOfGyrationFt: 9.9,
+        engineSpeedRpm: 75,
+        ratedSpeedRpm: 75,
+        barExitLengthM: 10,
+        indicatedHp: 650,
+        baseLoadHp: 60,
       });
       expect(res.status).toBe(200);
       expect(res.body.flowStress.model).toBe('misaka');
@@ -110,7 +139,11 @@ describe('the mill (API)', () => {
       ['a number sent as text', { ...kalpakjian, temperatureC: '850' }, /temperatureC must be a number/],
       ['an unknown field', { ...kalpakjian, rollDiameterInches: 16 }, /rollDiameterInches should not exist/],
       ['an exit no thinner than the entry', { ...kalpakjian, exitThicknessMm: 26 }, /exit height must be less than the entry height/],
-      ['half the flywheel group', { ...kalpakjian, flywheelMassLb: 156800 }, /missing: flywheelRadiusOfGyrationFt, engineSpeedRpm, ratedSpeedRpm, barExitLengthM, indicatedHp/],
+      [
+        'half the flywheel group',
+        { ...kalpakjian, flywheelMassLb: 156800 },
+        /missing: flywheelRadiusOfGyrationFt, engineSpeedRpm, ratedSpeedRpm, barExitLengthM, indicatedHp/,
+      ],
       ['a negative roll speed', { ...kalpakjian, rollSpeedRpm: -5 }, /rollSpeedRpm must be at least/],
     ])('answers 400 for %s', async (_what, body, message) => {
       const res = await t.http.post('/api/calculations/rolling-pass').set('authorization', auth(lead)).send(body);
@@ -119,10 +152,23 @@ describe('the mill (API)', () => {
     });
 
     it('is documented in the OpenAPI description with units in the field names', async () => {
-      const doc = (await t.http.get('/api/docs-json')).body as { paths: Record<string, { post?: { requestBody?: unknown } }>; components: { schemas: Record<string, { properties: Record<string, unknown> }> } };
+      const doc = (await t.http.get('/api/docs-json')).body as {
+        paths: Record<string, { post?: { requestBody?: unknown } }>;
+        components: { schemas: Record<string, { properties: Record<string, unknown> }> };
+      };
       expect(doc.paths['/api/calculations/rolling-pass']?.post).toBeDefined();
       const props = Object.keys(doc.components.schemas.RollingPassDto.properties);
-      expect(props).toEqual(expect.arrayContaining(['rollDiameterMm', 'entryThicknessMm', 'temperatureC', 'carbonPct', 'rollSpeedRpm', 'standMaxForceKn', 'flywheelMassLb']));
+      expect(props).toEqual(
+        expect.arrayContaining([
+          'rollDiameterMm',
+          'entryThicknessMm',
+          'temperatureC',
+          'carbonPct',
+          'rollSpeedRpm',
+          'standMaxForceKn',
+          'flywheelMassLb',
+        ]),
+      );
     });
   });
 
@@ -141,7 +187,10 @@ describe('the mill (API)', () => {
       expect(p1.calc!.flywheel!.startSpeedRpm).toBe(75);
       expect(template.totalElongation).toBeCloseTo((76.2 * 76.2) / (50.8 * 50.8), 9);
 
-      const copy = await t.http.post(`/api/mill/schedules/${template.id}/copies`).set('authorization', auth(lead)).send({ name: 'Planned from the template' });
+      const copy = await t.http
+        .post(`/api/mill/schedules/${template.id}/copies`)
+        .set('authorization', auth(lead))
+        .send({ name: 'Planned from the template' });
       expect(copy.status).toBe(201);
       expect(copy.body.isTemplate).toBe(false);
       expect(copy.body.templateId).toBe(template.id);
@@ -160,7 +209,9 @@ describe('the mill (API)', () => {
       expect(res.status).toBe(400);
       expect(JSON.stringify(res.body.message)).toMatch(/has no stand 7/);
       expect((await t.http.post('/api/mill/schedules').set('authorization', auth(observer)).send(scheduleBody(mill.id))).status).toBe(403);
-      expect((await t.http.post(`/api/mill/schedules/${template.id}/copies`).set('authorization', auth(operator)).send({ name: 'x' })).status).toBe(403);
+      expect(
+        (await t.http.post(`/api/mill/schedules/${template.id}/copies`).set('authorization', auth(operator)).send({ name: 'x' })).status,
+      ).toBe(403);
     });
   });
 
@@ -174,23 +225,45 @@ describe('the mill (API)', () => {
     });
 
     it('refuses bars while the run is only planned', async () => {
-      const res = await t.http.post(`/api/mill/runs/${run.id}/bars`).set('authorization', auth(lead)).send({ barCode: 'B-01', stock: rect(76.2, 76.2), stockLengthMm: 1500 });
+      const res = await t.http
+        .post(`/api/mill/runs/${run.id}/bars`)
+        .set('authorization', auth(lead))
+        .send({ barCode: 'B-01', stock: rect(76.2, 76.2), stockLengthMm: 1500 });
       expect(res.status).toBe(409);
       expect(res.body.message).toMatch(/passes are logged while the run is running, or stopped and not yet closed/);
     });
 
     it('logs a normal pass with its calculation, taking the speed from the run’s latest speed reading', async () => {
       await forceRunState(t, run.id, 'running');
-      const round = await t.http.post(`/api/runs/${run.id}/rounds`).set('authorization', auth(operator)).send({
-        takenAt: new Date(Date.now() - 10 * 60_000).toISOString(),
-        readings: [reading(point('SPD'), 72, new Date(Date.now() - 10 * 60_000)), reading(point('MB'), 150, new Date(Date.now() - 10 * 60_000))],
-      });
+      const round = await t.http
+        .post(`/api/runs/${run.id}/rounds`)
+        .set('authorization', auth(operator))
+        .send({
+          takenAt: new Date(Date.now() - 10 * 60_000).toISOString(),
+          readings: [
+            reading(point('SPD'), 72, new Date(Date.now() - 10 * 60_000)),
+            reading(point('MB'), 150, new Date(Date.now() - 10 * 60_000)),
+          ],
+        });
       expect(round.status).toBe(201);
-      const b = await t.http.post(`/api/mill/runs/${run.id}/bars`).set('authorization', auth(lead)).send({ barCode: 'B-01', stock: rect(76.2, 76.2), stockLengthMm: 1500 });
+      const b = await t.http
+        .post(`/api/mill/runs/${run.id}/bars`)
+        .set('authorization', auth(lead))
+        .send({ barCode: 'B-01', stock: rect(76.2, 76.2), stockLengthMm: 1500 });
       expect(b.status).toBe(201);
       bar = b.body;
-      expect((await t.http.post(`/api/mill/runs/${run.id}/bars`).set('authorization', auth(lead)).send({ barCode: 'B-01', stock: rect(76.2, 76.2), stockLengthMm: 1500 })).status).toBe(409);
-      const res = await t.http.post(`/api/mill/bars/${bar.id}/passes`).set('authorization', auth(lead)).send({ passNumber: 1, standPosition: 1, measuredTemperatureC: 1140, exit: rect(62, 80) });
+      expect(
+        (
+          await t.http
+            .post(`/api/mill/runs/${run.id}/bars`)
+            .set('authorization', auth(lead))
+            .send({ barCode: 'B-01', stock: rect(76.2, 76.2), stockLengthMm: 1500 })
+        ).status,
+      ).toBe(409);
+      const res = await t.http
+        .post(`/api/mill/bars/${bar.id}/passes`)
+        .set('authorization', auth(lead))
+        .send({ passNumber: 1, standPosition: 1, measuredTemperatureC: 1140, exit: rect(62, 80) });
       expect(res.status).toBe(201);
       const p = res.body as LoggedPassDto;
       expect(p.entry).toEqual(rect(76.2, 76.2));
@@ -199,15 +272,24 @@ describe('the mill (API)', () => {
       expect(p.calc.flywheel!.startSpeedSource).toMatch(/speed reading SPD/);
       expect(p.calc.flywheel!.indicatedHpSource).toMatch(/site setting/);
       expect(p.calc.rollSpeedRpm).toBe(72);
-      const again = await t.http.post(`/api/mill/bars/${bar.id}/passes`).set('authorization', auth(lead)).send({ passNumber: 1, standPosition: 1, measuredTemperatureC: 1140, exit: rect(62, 80) });
+      const again = await t.http
+        .post(`/api/mill/bars/${bar.id}/passes`)
+        .set('authorization', auth(lead))
+        .send({ passNumber: 1, standPosition: 1, measuredTemperatureC: 1140, exit: rect(62, 80) });
       expect(again.status).toBe(409);
       expect(again.body.message).toMatch(/Pass 1 of bar B-01 is already logged/);
     });
 
     it('flags an overloaded pass: stand force and the flywheel speed drop', async () => {
-      const b = await t.http.post(`/api/mill/runs/${run.id}/bars`).set('authorization', auth(chief)).send({ barCode: 'B-02', stock: rect(40, 150), stockLengthMm: 6000 });
+      const b = await t.http
+        .post(`/api/mill/runs/${run.id}/bars`)
+        .set('authorization', auth(chief))
+        .send({ barCode: 'B-02', stock: rect(40, 150), stockLengthMm: 6000 });
       expect(b.status).toBe(201);
-      const res = await t.http.post(`/api/mill/bars/${b.body.id}/passes`).set('authorization', auth(lead)).send({ passNumber: 1, standPosition: 1, measuredTemperatureC: 850, exit: rect(25, 155) });
+      const res = await t.http
+        .post(`/api/mill/bars/${b.body.id}/passes`)
+        .set('authorization', auth(lead))
+        .send({ passNumber: 1, standPosition: 1, measuredTemperatureC: 850, exit: rect(25, 155) });
       expect(res.status).toBe(201);
       const codes = (res.body as LoggedPassDto).calc.warnings.map((w) => w.code);
       expect(codes).toContain('stand_force');
@@ -219,8 +301,22 @@ describe('the mill (API)', () => {
       expect((await t.http.post(`/api/mill/bars/${bar.id}/passes`).set('authorization', auth(observer)).send(body)).status).toBe(403);
       expect((await t.http.post(`/api/mill/bars/${bar.id}/passes`).set('authorization', auth(operator)).send(body)).status).toBe(403);
       expect((await t.http.post(`/api/mill/bars/${bar.id}/passes`).set('authorization', auth(chief)).send(body)).status).toBe(201);
-      expect((await t.http.post(`/api/mill/bars/${bar.id}/passes`).set('authorization', auth(lead)).send({ ...body, passNumber: 3, standPosition: 9 })).status).toBe(400);
-      expect((await t.http.post(`/api/mill/bars/${randomUUID()}/passes`).set('authorization', auth(lead)).send({ ...body, passNumber: 3 })).status).toBe(404);
+      expect(
+        (
+          await t.http
+            .post(`/api/mill/bars/${bar.id}/passes`)
+            .set('authorization', auth(lead))
+            .send({ ...body, passNumber: 3, standPosition: 9 })
+        ).status,
+      ).toBe(400);
+      expect(
+        (
+          await t.http
+            .post(`/api/mill/bars/${randomUUID()}/passes`)
+            .set('authorization', auth(lead))
+            .send({ ...body, passNumber: 3 })
+        ).status,
+      ).toBe(404);
     });
 
     it('puts passes, rounds of readings and alarms of the run on one timeline', async () => {
@@ -237,9 +333,19 @@ describe('the mill (API)', () => {
 
     it('refuses passes once the run is closed, and still shows its log', async () => {
       await forceRunState(t, run.id, 'stopped');
-      expect((await t.http.post(`/api/mill/bars/${bar.id}/passes`).set('authorization', auth(lead)).send({ passNumber: 3, standPosition: 3, measuredTemperatureC: 1050, exit: rect(50.8, 50.8) })).status).toBe(201);
+      expect(
+        (
+          await t.http
+            .post(`/api/mill/bars/${bar.id}/passes`)
+            .set('authorization', auth(lead))
+            .send({ passNumber: 3, standPosition: 3, measuredTemperatureC: 1050, exit: rect(50.8, 50.8) })
+        ).status,
+      ).toBe(201);
       await forceRunState(t, run.id, 'closed');
-      const res = await t.http.post(`/api/mill/bars/${bar.id}/passes`).set('authorization', auth(lead)).send({ passNumber: 4, standPosition: 3, measuredTemperatureC: 1000, exit: rect(48, 48) });
+      const res = await t.http
+        .post(`/api/mill/bars/${bar.id}/passes`)
+        .set('authorization', auth(lead))
+        .send({ passNumber: 4, standPosition: 3, measuredTemperatureC: 1000, exit: rect(48, 48) });
       expect(res.status).toBe(409);
       expect(res.body.message).toMatch(/closed/);
       expect((await t.http.patch(`/api/mill/bars/${bar.id}`).set('authorization', auth(lead)).send({ weightKg: 60 })).status).toBe(409);
@@ -263,7 +369,8 @@ describe('the mill (API)', () => {
       dueDate: '2027-03-31',
       millId: mill.id,
     });
-    const move = (s: SignedIn, id: string, to: string) => t.http.post(`/api/mill/lots/${id}/transitions`).set('authorization', auth(s)).send({ to });
+    const move = (s: SignedIn, id: string, to: string) =>
+      t.http.post(`/api/mill/lots/${id}/transitions`).set('authorization', auth(s)).send({ to });
 
     it('only the mill lead and the chief engineer change lots; observers read', async () => {
       expect((await t.http.post('/api/mill/lots').set('authorization', auth(observer)).send(lotBody())).status).toBe(403);
@@ -273,17 +380,27 @@ describe('the mill (API)', () => {
       const id = created.body.id as string;
       expect(created.body.reference).toMatch(/^LOT-\d{4}-\d{3}$/);
       expect((await t.http.patch(`/api/mill/lots/${id}`).set('authorization', auth(observer)).send({ notes: 'x' })).status).toBe(403);
-      expect((await t.http.patch(`/api/mill/lots/${id}`).set('authorization', auth(lead)).send({ notes: 'Call before delivery.' })).status).toBe(200);
+      expect(
+        (await t.http.patch(`/api/mill/lots/${id}`).set('authorization', auth(lead)).send({ notes: 'Call before delivery.' })).status,
+      ).toBe(200);
       expect((await move(operator, id, 'quoted')).status).toBe(403);
-      expect((await t.http.post(`/api/mill/lots/${id}/quotes`).set('authorization', auth(observer)).send({ engineHours: 1, crewHours: 1 })).status).toBe(403);
+      expect(
+        (await t.http.post(`/api/mill/lots/${id}/quotes`).set('authorization', auth(observer)).send({ engineHours: 1, crewHours: 1 }))
+          .status,
+      ).toBe(403);
       const read = await t.http.get(`/api/mill/lots/${id}`).set('authorization', auth(observer));
       expect(read.status).toBe(200);
       expect(read.body.notes).toBe('Call before delivery.');
       expect((await t.http.get('/api/mill/lots').set('authorization', auth(observer))).status).toBe(200);
       expect((await t.http.get(`/api/mill/lots/${randomUUID()}`).set('authorization', auth(observer))).status).toBe(404);
-      const bad = await t.http.post('/api/mill/lots').set('authorization', auth(lead)).send({ ...lotBody(), dueDate: '31/03/2027', customerEmail: 'nobody' });
+      const bad = await t.http
+        .post('/api/mill/lots')
+        .set('authorization', auth(lead))
+        .send({ ...lotBody(), dueDate: '31/03/2027', customerEmail: 'nobody' });
       expect(bad.status).toBe(400);
-      expect(bad.body.message).toEqual(expect.arrayContaining(['dueDate must be a date like 2026-07-31', 'customerEmail must be an e-mail address']));
+      expect(bad.body.message).toEqual(
+        expect.arrayContaining(['dueDate must be a date like 2026-07-31', 'customerEmail must be an e-mail address']),
+      );
     });
 
     it('the status flow goes one step at a time and refuses skipping with a message (409)', async () => {
@@ -296,25 +413,38 @@ describe('the mill (API)', () => {
       const noQuote = await move(lead, lot.id, 'quoted');
       expect(noQuote.status).toBe(409);
       expect(noQuote.body.message).toMatch(/Make a quote/);
-      expect((await t.http.post(`/api/mill/lots/${lot.id}/quotes`).set('authorization', auth(lead)).send({ engineHours: 6, crewHours: 8 })).status).toBe(201);
+      expect(
+        (await t.http.post(`/api/mill/lots/${lot.id}/quotes`).set('authorization', auth(lead)).send({ engineHours: 6, crewHours: 8 }))
+          .status,
+      ).toBe(201);
       expect((await move(lead, lot.id, 'quoted')).status).toBe(200);
       expect((await move(lead, lot.id, 'quoted')).status).toBe(409);
       expect((await move(lead, lot.id, 'delivered')).status).toBe(409);
       expect((await move(chief, lot.id, 'accepted')).status).toBe(200);
-      const late = await t.http.post(`/api/mill/lots/${lot.id}/quotes`).set('authorization', auth(lead)).send({ engineHours: 1, crewHours: 1 });
+      const late = await t.http
+        .post(`/api/mill/lots/${lot.id}/quotes`)
+        .set('authorization', auth(lead))
+        .send({ engineHours: 1, crewHours: 1 });
       expect(late.status).toBe(409);
       expect(late.body.message).toMatch(/price is fixed/);
       const noRun = await move(lead, lot.id, 'scheduled');
       expect(noRun.status).toBe(409);
       expect(noRun.body.message).toMatch(/Link the run/);
       const run = await createRun(t, chief.accessToken, engine.id);
-      expect((await t.http.post(`/api/mill/lots/${lot.id}/runs`).set('authorization', auth(lead)).send({ runId: run.id })).status).toBe(200);
+      expect((await t.http.post(`/api/mill/lots/${lot.id}/runs`).set('authorization', auth(lead)).send({ runId: run.id })).status).toBe(
+        200,
+      );
       expect((await move(lead, lot.id, 'scheduled')).status).toBe(200);
       const notRolled = await move(lead, lot.id, 'rolled');
       expect(notRolled.status).toBe(409);
       expect(notRolled.body.message).toMatch(/tonnage produced/);
-      expect((await t.http.patch(`/api/mill/lots/${lot.id}`).set('authorization', auth(lead)).send({ producedTonnes: 9.6, scrappedTonnes: 0.3 })).status).toBe(200);
-      expect((await t.http.patch(`/api/mill/lots/${lot.id}`).set('authorization', auth(lead)).send({ quantityTonnes: 12 })).status).toBe(409);
+      expect(
+        (await t.http.patch(`/api/mill/lots/${lot.id}`).set('authorization', auth(lead)).send({ producedTonnes: 9.6, scrappedTonnes: 0.3 }))
+          .status,
+      ).toBe(200);
+      expect((await t.http.patch(`/api/mill/lots/${lot.id}`).set('authorization', auth(lead)).send({ quantityTonnes: 12 })).status).toBe(
+        409,
+      );
       for (const to of ['rolled', 'inspected', 'delivered']) expect((await move(lead, lot.id, to)).status).toBe(200);
       const back = await move(lead, lot.id, 'rolled');
       expect(back.status).toBe(409);
@@ -332,7 +462,10 @@ describe('the mill (API)', () => {
       // stock 10 t / (1 − 0.10) = 11.111 t × 900 = 10,000.00; engine 6 h × 250 = 1,500; crew 8 h × 5 × 22.50 = 900;
       // fixed 1,200 + 150; subtotal 13,750; contingency 10 % = 1,375; margin 15 % of 15,125 = 2,268.75; total 17,393.75.
       const lot = (await t.http.post('/api/mill/lots').set('authorization', auth(lead)).send(lotBody())).body as LotDetail;
-      const res = await t.http.post(`/api/mill/lots/${lot.id}/quotes`).set('authorization', auth(lead)).send({ engineHours: 6, crewHours: 8 });
+      const res = await t.http
+        .post(`/api/mill/lots/${lot.id}/quotes`)
+        .set('authorization', auth(lead))
+        .send({ engineHours: 6, crewHours: 8 });
       expect(res.status).toBe(201);
       const q = res.body as QuoteDto;
       expect(q.number).toBe(1);
@@ -343,7 +476,10 @@ describe('the mill (API)', () => {
       expect(q.margin.amount).toBe(2268.75);
       expect(q.total).toBe(17393.75);
       expect(q.currency).toBe('GBP');
-      const second = await t.http.post(`/api/mill/lots/${lot.id}/quotes`).set('authorization', auth(chief)).send({ engineHours: 6, crewHours: 8, extraFixedCosts: [{ label: 'Haulage', amount: 100 }] });
+      const second = await t.http
+        .post(`/api/mill/lots/${lot.id}/quotes`)
+        .set('authorization', auth(chief))
+        .send({ engineHours: 6, crewHours: 8, extraFixedCosts: [{ label: 'Haulage', amount: 100 }] });
       expect(second.body.number).toBe(2);
       // 100 more before contingency and margin: 100 × 1.10 × 1.15 = 126.50
       expect(second.body.total).toBe(17393.75 + 126.5);
@@ -353,22 +489,33 @@ describe('the mill (API)', () => {
     it('the quote is a PDF, and e-mailing it sends the PDF to the customer and marks an enquiry quoted', async () => {
       const body = lotBody();
       const lot = (await t.http.post('/api/mill/lots').set('authorization', auth(lead)).send(body)).body as LotDetail;
-      const q = (await t.http.post(`/api/mill/lots/${lot.id}/quotes`).set('authorization', auth(lead)).send({ engineHours: 2, crewHours: 3 })).body as QuoteDto;
-      const pdf = await t.http.get(`/api/mill/quotes/${q.id}/quote.pdf`).set('authorization', auth(observer)).buffer(true).parse((res, cb) => {
-        const chunks: Buffer[] = [];
-        res.on('data', (c: Buffer) => chunks.push(c));
-        res.on('end', () => cb(null, Buffer.concat(chunks)));
-      });
+      const q = (
+        await t.http.post(`/api/mill/lots/${lot.id}/quotes`).set('authorization', auth(lead)).send({ engineHours: 2, crewHours: 3 })
+      ).body as QuoteDto;
+      const pdf = await t.http
+        .get(`/api/mill/quotes/${q.id}/quote.pdf`)
+        .set('authorization', auth(observer))
+        .buffer(true)
+        .parse((res, cb) => {
+          const chunks: Buffer[] = [];
+          res.on('data', (c: Buffer) => chunks.push(c));
+          res.on('end', () => cb(null, Buffer.concat(chunks)));
+        });
       expect(pdf.status).toBe(200);
       expect(pdf.headers['content-type']).toMatch(/application\/pdf/);
       expect((pdf.body as Buffer).subarray(0, 5).toString()).toBe('%PDF-');
       expect((await t.http.post(`/api/mill/quotes/${q.id}/send`).set('authorization', auth(observer)).send({})).status).toBe(403);
-      const sent = await t.http.post(`/api/mill/quotes/${q.id}/send`).set('authorization', auth(lead)).send({ message: 'Our price for the square bar.' });
+      const sent = await t.http
+        .post(`/api/mill/quotes/${q.id}/send`)
+        .set('authorization', auth(lead))
+        .send({ message: 'Our price for the square bar.' });
       expect(sent.status).toBe(200);
       expect(sent.body.sentTo).toBe(body.customerEmail);
       const mail = await waitForMessage(body.customerEmail, { subject: lot.reference });
       expect(mail.text).toContain('Our price for the square bar.');
-      expect(mail.attachments).toEqual([expect.objectContaining({ contentType: 'application/pdf', filename: `quote-${lot.reference}-Q1.pdf` })]);
+      expect(mail.attachments).toEqual([
+        expect.objectContaining({ contentType: 'application/pdf', filename: `quote-${lot.reference}-Q1.pdf` }),
+      ]);
       const after = (await t.http.get(`/api/mill/lots/${lot.id}`).set('authorization', auth(lead))).body as LotDetail;
       expect(after.status).toBe('quoted');
       expect(after.quotes[0].sentAt).not.toBeNull();

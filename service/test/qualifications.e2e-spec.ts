@@ -34,7 +34,15 @@ describe('crew qualifications (API)', () => {
       expect((await post(admin, body)).status).toBe(403);
       const ok = await post(chief, { ...body, notes: 'Assessed on the spring training day.' });
       expect(ok.status).toBe(201);
-      expect(ok.body).toMatchObject({ userId: someone.account.id, engineId: engine.id, duty: 'pre_lube', status: 'current', daysToExpiry: 300, notes: 'Assessed on the spring training day.', grantedByName: chief.account.displayName });
+      expect(ok.body).toMatchObject({
+        userId: someone.account.id,
+        engineId: engine.id,
+        duty: 'pre_lube',
+        status: 'current',
+        daysToExpiry: 300,
+        notes: 'Assessed on the spring training day.',
+        grantedByName: chief.account.displayName,
+      });
     });
 
     it('refuses a second standing grant of the same duty (409), bad dates (400), unknown people (404) and observers (400)', async () => {
@@ -97,16 +105,34 @@ describe('crew qualifications (API)', () => {
   it('renews by withdrawing the old grant and granting a new one, so the old dates stay in the record', async () => {
     const p = await login(t, 'operator');
     const [id] = await grant(t, chief, p.account.id, engine.id, ['start_and_run'], { from: -360, to: -2 });
-    expect((await t.http.post(`/api/qualifications/${id}/renew`).set(as(operator)).send({ expiresOn: isoDate(365) })).status).toBe(403);
-    const renewed = await t.http.post(`/api/qualifications/${id}/renew`).set(as(chief)).send({ expiresOn: isoDate(365) });
+    expect(
+      (
+        await t.http
+          .post(`/api/qualifications/${id}/renew`)
+          .set(as(operator))
+          .send({ expiresOn: isoDate(365) })
+      ).status,
+    ).toBe(403);
+    const renewed = await t.http
+      .post(`/api/qualifications/${id}/renew`)
+      .set(as(chief))
+      .send({ expiresOn: isoDate(365) });
     expect(renewed.status).toBe(201);
     expect(renewed.body).toMatchObject({ status: 'current', grantedOn: isoDate(0), expiresOn: isoDate(365) });
-    const all = (await t.http.get(`/api/qualifications?userId=${p.account.id}&includeWithdrawn=true`).set(as(chief))).body as QualificationDto[];
+    const all = (await t.http.get(`/api/qualifications?userId=${p.account.id}&includeWithdrawn=true`).set(as(chief)))
+      .body as QualificationDto[];
     expect(all).toHaveLength(2);
     const old = all.find((q) => q.id === id)!;
     expect(old).toMatchObject({ status: 'withdrawn', expiresOn: isoDate(-2), withdrawnByName: chief.account.displayName });
     expect(old.withdrawnReason).toContain('Renewed until');
-    expect((await t.http.post(`/api/qualifications/${id}/renew`).set(as(chief)).send({ expiresOn: isoDate(365) })).status).toBe(409);
+    expect(
+      (
+        await t.http
+          .post(`/api/qualifications/${id}/renew`)
+          .set(as(chief))
+          .send({ expiresOn: isoDate(365) })
+      ).status,
+    ).toBe(409);
   });
 
   describe('withdrawing', () => {
@@ -139,7 +165,10 @@ describe('crew qualifications (API)', () => {
       const starter = await login(t, 'operator');
       const run = await preparingRun(t, starter, e.id);
       const now = new Date().toISOString();
-      await t.http.post(`/api/runs/${run.id}/rounds`).set(as(starter)).send({ takenAt: now, readings: [{ clientId: randomUUID(), pointId: e.pointId, value: 150, takenAt: now }] });
+      await t.http
+        .post(`/api/runs/${run.id}/rounds`)
+        .set(as(starter))
+        .send({ takenAt: now, readings: [{ clientId: randomUUID(), pointId: e.pointId, value: 150, takenAt: now }] });
       const alarms = (await t.http.get(`/api/runs/${run.id}/alarms`).set(as(starter))).body;
       expect(alarms.length).toBeGreaterThan(0);
       return { e, alarmId: alarms[0].id as string };
@@ -172,7 +201,9 @@ describe('crew qualifications (API)', () => {
     it('applies to shelving as well', async () => {
       const { alarmId } = await alarmOn();
       const unq = await login(t, 'operator');
-      expect((await t.http.post(`/api/alarms/${alarmId}/shelve`).set(as(unq)).send({ reason: 'Known sensor fault.', minutes: 30 })).status).toBe(403);
+      expect(
+        (await t.http.post(`/api/alarms/${alarmId}/shelve`).set(as(unq)).send({ reason: 'Known sensor fault.', minutes: 30 })).status,
+      ).toBe(403);
     });
   });
 });

@@ -32,7 +32,11 @@ describe('who may call what (API)', () => {
       ok: 201,
       call: (token) => {
         const r = t.http.post('/api/users/invitations');
-        return (token ? r.set('Authorization', bearer(token)) : r).send({ email: uniqueEmail('invitee'), displayName: 'Invited Person', role: 'observer' });
+        return (token ? r.set('Authorization', bearer(token)) : r).send({
+          email: uniqueEmail('invitee'),
+          displayName: 'Invited Person',
+          role: 'observer',
+        });
       },
     },
     {

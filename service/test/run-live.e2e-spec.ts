@@ -58,10 +58,21 @@ describe('the run log live: readings and alarms reach everyone watching the run,
     const a = await joined(observer.accessToken, `run:${run.id}`);
     const b = await joined(chief.accessToken, `run:${run.id}`);
     const c = await joined(operator.accessToken, `run:${other.id}`);
-    const got = { a: collect<ReadingsEvent>(a, 'readings:new'), b: collect<ReadingsEvent>(b, 'readings:new'), c: collect<ReadingsEvent>(c, 'readings:new') };
-    const alarms = { a: collect<AlarmDto>(a, 'alarm:changed'), b: collect<AlarmDto>(b, 'alarm:changed'), c: collect<AlarmDto>(c, 'alarm:changed') };
+    const got = {
+      a: collect<ReadingsEvent>(a, 'readings:new'),
+      b: collect<ReadingsEvent>(b, 'readings:new'),
+      c: collect<ReadingsEvent>(c, 'readings:new'),
+    };
+    const alarms = {
+      a: collect<AlarmDto>(a, 'alarm:changed'),
+      b: collect<AlarmDto>(b, 'alarm:changed'),
+      c: collect<AlarmDto>(c, 'alarm:changed'),
+    };
     const r = reading(point('THR'), 149);
-    const res = await t.http.post(`/api/runs/${run.id}/rounds`).set('authorization', bearer(operator.accessToken)).send({ takenAt: r.takenAt, readings: [r] });
+    const res = await t.http
+      .post(`/api/runs/${run.id}/rounds`)
+      .set('authorization', bearer(operator.accessToken))
+      .send({ takenAt: r.takenAt, readings: [r] });
     expect(res.status).toBe(201);
     await until(() => got.a.length > 0 && got.b.length > 0 && alarms.a.length >= 2 && alarms.b.length >= 2);
     for (const list of [got.a, got.b]) expect(list[0].readings[0]).toMatchObject({ clientId: r.clientId, value: 149, unit: 'psig' });
@@ -78,9 +89,14 @@ describe('the run log live: readings and alarms reach everyone watching the run,
     const r = { ...reading(randomUUID(), 74), pointCode: 'SPD', pointId: undefined };
     const ack = (await s.timeout(WAIT_MS).emitWithAck('readings:submit', { runId: run.id, readings: [r] })) as LiveAck<IngestResult>;
     expect(ack).toMatchObject({ ok: true, data: { stored: 1, duplicates: 0 } });
-    const rest = await t.http.post(`/api/runs/${run.id}/rounds`).set('authorization', bearer(operator.accessToken)).send({ takenAt: r.takenAt, readings: [r] });
+    const rest = await t.http
+      .post(`/api/runs/${run.id}/rounds`)
+      .set('authorization', bearer(operator.accessToken))
+      .send({ takenAt: r.takenAt, readings: [r] });
     expect(rest.body).toMatchObject({ stored: 0, duplicates: 1 });
-    const denied = (await obs.timeout(WAIT_MS).emitWithAck('readings:submit', { runId: run.id, readings: [{ ...r, clientId: randomUUID() }] })) as LiveAck<unknown>;
+    const denied = (await obs
+      .timeout(WAIT_MS)
+      .emitWithAck('readings:submit', { runId: run.id, readings: [{ ...r, clientId: randomUUID() }] })) as LiveAck<unknown>;
     expect(denied.ok).toBe(false);
     const bad = (await s.timeout(WAIT_MS).emitWithAck('readings:submit', { runId: 'nope', readings: [] })) as LiveAck<unknown>;
     expect(bad.ok).toBe(false);

@@ -59,7 +59,11 @@ describe('the run log (engines, runs, readings, alarms) against PostgreSQL', () 
       const res = await t.http.post('/api/engines').set('authorization', bearer(chief.accessToken)).send(body);
       expect(res.status).toBe(400);
       expect(JSON.stringify(res.body.message)).toContain('cylinders.0.pistonRodIn');
-      expect((await t.http.get('/api/engines').set('authorization', bearer(chief.accessToken))).body.some((e: { name: string }) => e.name === body.name)).toBe(false);
+      expect(
+        (await t.http.get('/api/engines').set('authorization', bearer(chief.accessToken))).body.some(
+          (e: { name: string }) => e.name === body.name,
+        ),
+      ).toBe(false);
     });
   });
 
@@ -74,7 +78,10 @@ describe('the run log (engines, runs, readings, alarms) against PostgreSQL', () 
       const res = await t.http
         .post(`/api/runs/${run.id}/rounds`)
         .set('authorization', bearer(operator.accessToken))
-        .send({ takenAt: new Date(t0).toISOString(), readings: [reading(point('MB'), 120, new Date(t0)), reading(point('AMB'), 75, new Date(t0))] });
+        .send({
+          takenAt: new Date(t0).toISOString(),
+          readings: [reading(point('MB'), 120, new Date(t0)), reading(point('AMB'), 75, new Date(t0))],
+        });
       expect(res.status).toBe(201);
       const hot = await t.http
         .post(`/api/runs/${run.id}/rounds`)
@@ -100,7 +107,9 @@ describe('the run log (engines, runs, readings, alarms) against PostgreSQL', () 
     });
 
     it('an observer cannot acknowledge; an operator can, and it is recorded', async () => {
-      const [a] = ((await t.http.get(`/api/runs/${run.id}/alarms`).set('authorization', bearer(observer.accessToken))).body as AlarmDto[]).filter((x) => x.kind === 'high_high');
+      const [a] = (
+        (await t.http.get(`/api/runs/${run.id}/alarms`).set('authorization', bearer(observer.accessToken))).body as AlarmDto[]
+      ).filter((x) => x.kind === 'high_high');
       expect((await t.http.post(`/api/alarms/${a.id}/acknowledge`).set('authorization', bearer(observer.accessToken))).status).toBe(403);
       const ack = await t.http.post(`/api/alarms/${a.id}/acknowledge`).set('authorization', bearer(operator.accessToken));
       expect(ack.status).toBe(200);
@@ -110,20 +119,47 @@ describe('the run log (engines, runs, readings, alarms) against PostgreSQL', () 
     });
 
     it('shelving needs a reason and at most 24 hours', async () => {
-      const [a] = ((await t.http.get(`/api/runs/${run.id}/alarms`).set('authorization', bearer(observer.accessToken))).body as AlarmDto[]).filter((x) => x.kind === 'high');
-      expect((await t.http.post(`/api/alarms/${a.id}/shelve`).set('authorization', bearer(operator.accessToken)).send({ reason: '', minutes: 30 })).status).toBe(400);
-      expect((await t.http.post(`/api/alarms/${a.id}/shelve`).set('authorization', bearer(operator.accessToken)).send({ reason: 'Gauge being changed', minutes: 2000 })).status).toBe(400);
-      const ok = await t.http.post(`/api/alarms/${a.id}/shelve`).set('authorization', bearer(operator.accessToken)).send({ reason: 'Gauge being changed', minutes: 30 });
+      const [a] = (
+        (await t.http.get(`/api/runs/${run.id}/alarms`).set('authorization', bearer(observer.accessToken))).body as AlarmDto[]
+      ).filter((x) => x.kind === 'high');
+      expect(
+        (
+          await t.http
+            .post(`/api/alarms/${a.id}/shelve`)
+            .set('authorization', bearer(operator.accessToken))
+            .send({ reason: '', minutes: 30 })
+        ).status,
+      ).toBe(400);
+      expect(
+        (
+          await t.http
+            .post(`/api/alarms/${a.id}/shelve`)
+            .set('authorization', bearer(operator.accessToken))
+            .send({ reason: 'Gauge being changed', minutes: 2000 })
+        ).status,
+      ).toBe(400);
+      const ok = await t.http
+        .post(`/api/alarms/${a.id}/shelve`)
+        .set('authorization', bearer(operator.accessToken))
+        .send({ reason: 'Gauge being changed', minutes: 30 });
       expect(ok.status).toBe(200);
       expect(ok.body).toMatchObject({ state: 'shelved', shelveReason: 'Gauge being changed' });
-      expect((await t.http.post(`/api/alarms/${a.id}/unshelve`).set('authorization', bearer(operator.accessToken))).body.state).not.toBe('shelved');
+      expect((await t.http.post(`/api/alarms/${a.id}/unshelve`).set('authorization', bearer(operator.accessToken))).body.state).not.toBe(
+        'shelved',
+      );
     });
 
     it('the same reading sent twice is stored once, whatever route it came by', async () => {
       const r = reading(point('THR'), 130);
-      const first = await t.http.post(`/api/runs/${run.id}/rounds`).set('authorization', bearer(operator.accessToken)).send({ takenAt: r.takenAt, readings: [r] });
+      const first = await t.http
+        .post(`/api/runs/${run.id}/rounds`)
+        .set('authorization', bearer(operator.accessToken))
+        .send({ takenAt: r.takenAt, readings: [r] });
       expect(first.body).toMatchObject({ stored: 1, duplicates: 0 });
-      const second = await t.http.post(`/api/runs/${run.id}/rounds`).set('authorization', bearer(operator.accessToken)).send({ takenAt: r.takenAt, readings: [r, r] });
+      const second = await t.http
+        .post(`/api/runs/${run.id}/rounds`)
+        .set('authorization', bearer(operator.accessToken))
+        .send({ takenAt: r.takenAt, readings: [r, r] });
       expect(second.body).toMatchObject({ stored: 0, duplicates: 1 });
       const [{ n }] = await t.db.query(`SELECT count(*)::int AS n FROM readings WHERE client_id = $1`, [r.clientId]);
       expect(n).toBe(1);
@@ -131,15 +167,38 @@ describe('the run log (engines, runs, readings, alarms) against PostgreSQL', () 
 
     it('an amendment keeps both values, the reason, who and when', async () => {
       const r = reading(point('SPD'), 47);
-      await t.http.post(`/api/runs/${run.id}/rounds`).set('authorization', bearer(operator.accessToken)).send({ takenAt: r.takenAt, readings: [r] });
-      const list = (await t.http.get(`/api/runs/${run.id}/readings?pointId=${point('SPD')}`).set('authorization', bearer(observer.accessToken))).body as ReadingDto[];
+      await t.http
+        .post(`/api/runs/${run.id}/rounds`)
+        .set('authorization', bearer(operator.accessToken))
+        .send({ takenAt: r.takenAt, readings: [r] });
+      const list = (
+        await t.http.get(`/api/runs/${run.id}/readings?pointId=${point('SPD')}`).set('authorization', bearer(observer.accessToken))
+      ).body as ReadingDto[];
       const stored = list.find((x) => x.clientId === r.clientId)!;
-      expect((await t.http.post(`/api/readings/${stored.id}/amendments`).set('authorization', bearer(observer.accessToken)).send({ value: 74, reason: 'Misread' })).status).toBe(403);
-      expect((await t.http.post(`/api/readings/${stored.id}/amendments`).set('authorization', bearer(operator.accessToken)).send({ value: 74 })).status).toBe(400);
-      const res = await t.http.post(`/api/readings/${stored.id}/amendments`).set('authorization', bearer(operator.accessToken)).send({ value: 74, reason: 'Misread the counter: 47 for 74' });
+      expect(
+        (
+          await t.http
+            .post(`/api/readings/${stored.id}/amendments`)
+            .set('authorization', bearer(observer.accessToken))
+            .send({ value: 74, reason: 'Misread' })
+        ).status,
+      ).toBe(403);
+      expect(
+        (await t.http.post(`/api/readings/${stored.id}/amendments`).set('authorization', bearer(operator.accessToken)).send({ value: 74 }))
+          .status,
+      ).toBe(400);
+      const res = await t.http
+        .post(`/api/readings/${stored.id}/amendments`)
+        .set('authorization', bearer(operator.accessToken))
+        .send({ value: 74, reason: 'Misread the counter: 47 for 74' });
       expect(res.status).toBe(201);
       expect(res.body).toMatchObject({ value: 74, originalValue: 47 });
-      expect(res.body.amendments[0]).toMatchObject({ oldValue: 47, newValue: 74, reason: 'Misread the counter: 47 for 74', byName: operator.account.displayName });
+      expect(res.body.amendments[0]).toMatchObject({
+        oldValue: 47,
+        newValue: 74,
+        reason: 'Misread the counter: 47 for 74',
+        byName: operator.account.displayName,
+      });
       const [row] = await t.db.query(`SELECT value, amended_value FROM readings WHERE id = $1`, [stored.id]);
       expect(row).toEqual({ value: 47, amended_value: 74 });
     });
@@ -181,7 +240,11 @@ describe('the run log (engines, runs, readings, alarms) against PostgreSQL', () 
         `${iso(5)},THR,130,bar`,
         `${iso(4)},MB,118.5,degF`,
       ].join('\n');
-      const res = await t.http.post(`/api/runs/${run.id}/imports`).set('authorization', bearer(operator.accessToken)).set('content-type', 'text/csv').send(csv);
+      const res = await t.http
+        .post(`/api/runs/${run.id}/imports`)
+        .set('authorization', bearer(operator.accessToken))
+        .set('content-type', 'text/csv')
+        .send(csv);
       expect(res.status).toBe(201);
       expect(res.body.stored).toBe(3);
       expect(res.body.rejected.map((r: { line: number; column: string }) => [r.line, r.column])).toEqual([
@@ -190,11 +253,23 @@ describe('the run log (engines, runs, readings, alarms) against PostgreSQL', () 
         [5, 'point'],
         [7, 'unit'],
       ]);
-      const again = await t.http.post(`/api/runs/${run.id}/imports`).set('authorization', bearer(operator.accessToken)).set('content-type', 'text/csv').send(csv);
+      const again = await t.http
+        .post(`/api/runs/${run.id}/imports`)
+        .set('authorization', bearer(operator.accessToken))
+        .set('content-type', 'text/csv')
+        .send(csv);
       expect(again.body).toMatchObject({ stored: 0, duplicates: 3 });
-      const wrongType = await t.http.post(`/api/runs/${run.id}/imports`).set('authorization', bearer(operator.accessToken)).set('content-type', 'application/json').send({ a: 1 });
+      const wrongType = await t.http
+        .post(`/api/runs/${run.id}/imports`)
+        .set('authorization', bearer(operator.accessToken))
+        .set('content-type', 'application/json')
+        .send({ a: 1 });
       expect(wrongType.status).toBe(415);
-      const noHeader = await t.http.post(`/api/runs/${run.id}/imports`).set('authorization', bearer(operator.accessToken)).set('content-type', 'text/csv').send('a,b\n1,2');
+      const noHeader = await t.http
+        .post(`/api/runs/${run.id}/imports`)
+        .set('authorization', bearer(operator.accessToken))
+        .set('content-type', 'text/csv')
+        .send('a,b\n1,2');
       expect(noHeader.status).toBe(400);
     });
 
@@ -204,22 +279,35 @@ describe('the run log (engines, runs, readings, alarms) against PostgreSQL', () 
       expect(csv.headers['content-type']).toContain('text/csv');
       expect(csv.text.split('\r\n')[0]).toBe('taken_at,point,point_label,value,unit,original_value,amendment_reason,source,reading_id');
       expect(csv.text).toContain('Misread the counter: 47 for 74');
-      const pdf = await t.http.get(`/api/runs/${run.id}/log-sheet.pdf`).set('authorization', bearer(observer.accessToken)).buffer(true).parse((res, cb) => {
-        const chunks: Buffer[] = [];
-        res.on('data', (c: Buffer) => chunks.push(c));
-        res.on('end', () => cb(null, Buffer.concat(chunks)));
-      });
+      const pdf = await t.http
+        .get(`/api/runs/${run.id}/log-sheet.pdf`)
+        .set('authorization', bearer(observer.accessToken))
+        .buffer(true)
+        .parse((res, cb) => {
+          const chunks: Buffer[] = [];
+          res.on('data', (c: Buffer) => chunks.push(c));
+          res.on('end', () => cb(null, Buffer.concat(chunks)));
+        });
       expect(pdf.status).toBe(200);
       expect((pdf.body as Buffer).subarray(0, 5).toString()).toBe('%PDF-');
     });
 
     it('a data logger pushes with its own key; a revoked key is refused; a user token is not a logger key', async () => {
       const admin = await login(t, 'administrator');
-      expect((await t.http.post('/api/loggers').set('authorization', bearer(operator.accessToken)).send({ engineId: engine.id, name: 'L1' })).status).toBe(403);
-      const issued = await t.http.post('/api/loggers').set('authorization', bearer(admin.accessToken)).send({ engineId: engine.id, name: 'Bearing logger' });
+      expect(
+        (await t.http.post('/api/loggers').set('authorization', bearer(operator.accessToken)).send({ engineId: engine.id, name: 'L1' }))
+          .status,
+      ).toBe(403);
+      const issued = await t.http
+        .post('/api/loggers')
+        .set('authorization', bearer(admin.accessToken))
+        .send({ engineId: engine.id, name: 'Bearing logger' });
       expect(issued.status).toBe(201);
       const key = issued.body.key as string;
-      const batch = { runId: run.id, readings: [{ clientId: randomUUID(), pointCode: 'MB', value: 119, takenAt: new Date().toISOString() }] };
+      const batch = {
+        runId: run.id,
+        readings: [{ clientId: randomUUID(), pointCode: 'MB', value: 119, takenAt: new Date().toISOString() }],
+      };
       const ok = await t.http.post('/api/logger/readings').set('x-logger-key', key).send(batch);
       expect(ok.status).toBe(201);
       expect(ok.body.stored).toBe(1);
@@ -231,7 +319,10 @@ describe('the run log (engines, runs, readings, alarms) against PostgreSQL', () 
     it('a closed run refuses new readings and amendments', async () => {
       const other = await createPreparingRun(t, operator.accessToken, (await createEngine(t, chief.accessToken)).id);
       await t.db.query(`UPDATE runs SET state = 'closed' WHERE id = $1`, [other.id]);
-      const res = await t.http.post(`/api/runs/${other.id}/rounds`).set('authorization', bearer(operator.accessToken)).send({ takenAt: new Date().toISOString(), readings: [reading(randomUUID(), 1)] });
+      const res = await t.http
+        .post(`/api/runs/${other.id}/rounds`)
+        .set('authorization', bearer(operator.accessToken))
+        .send({ takenAt: new Date().toISOString(), readings: [reading(randomUUID(), 1)] });
       expect(res.status).toBe(409);
       const [{ n }] = await t.db.query(`SELECT count(*)::int AS n FROM readings WHERE run_id = $1`, [other.id]);
       expect(n).toBe(0);
@@ -241,25 +332,58 @@ describe('the run log (engines, runs, readings, alarms) against PostgreSQL', () 
   describe('run states', () => {
     it('refuses a transition that skips a step, and one the role may not make', async () => {
       const run = await createPreparingRun(t, operator.accessToken, (await createEngine(t, chief.accessToken)).id);
-      expect((await t.http.post(`/api/runs/${run.id}/transitions`).set('authorization', bearer(operator.accessToken)).send({ to: 'closed' })).status).toBe(403);
-      expect((await t.http.post(`/api/runs/${run.id}/transitions`).set('authorization', bearer(operator.accessToken)).send({ to: 'stopped' })).status).toBe(409);
-      expect((await t.http.post(`/api/runs/${run.id}/transitions`).set('authorization', bearer(operator.accessToken)).send({ to: 'cleared' })).status).toBe(403);
-      expect((await t.http.post(`/api/runs/${run.id}/transitions`).set('authorization', bearer(observer.accessToken)).send({ to: 'abandoned', note: 'x' })).status).toBe(403);
-      expect((await t.http.post(`/api/runs/${run.id}/transitions`).set('authorization', bearer(operator.accessToken)).send({ to: 'abandoned' })).status).toBe(400);
-      const ab = await t.http.post(`/api/runs/${run.id}/transitions`).set('authorization', bearer(operator.accessToken)).send({ to: 'abandoned', note: 'Boiler feed pump failed' });
+      expect(
+        (await t.http.post(`/api/runs/${run.id}/transitions`).set('authorization', bearer(operator.accessToken)).send({ to: 'closed' }))
+          .status,
+      ).toBe(403);
+      expect(
+        (await t.http.post(`/api/runs/${run.id}/transitions`).set('authorization', bearer(operator.accessToken)).send({ to: 'stopped' }))
+          .status,
+      ).toBe(409);
+      expect(
+        (await t.http.post(`/api/runs/${run.id}/transitions`).set('authorization', bearer(operator.accessToken)).send({ to: 'cleared' }))
+          .status,
+      ).toBe(403);
+      expect(
+        (
+          await t.http
+            .post(`/api/runs/${run.id}/transitions`)
+            .set('authorization', bearer(observer.accessToken))
+            .send({ to: 'abandoned', note: 'x' })
+        ).status,
+      ).toBe(403);
+      expect(
+        (await t.http.post(`/api/runs/${run.id}/transitions`).set('authorization', bearer(operator.accessToken)).send({ to: 'abandoned' }))
+          .status,
+      ).toBe(400);
+      const ab = await t.http
+        .post(`/api/runs/${run.id}/transitions`)
+        .set('authorization', bearer(operator.accessToken))
+        .send({ to: 'abandoned', note: 'Boiler feed pump failed' });
       expect(ab.status).toBe(200);
       expect(ab.body).toMatchObject({ state: 'abandoned', abandonedReason: 'Boiler feed pump failed' });
-      expect((await t.http.patch(`/api/runs/${run.id}`).set('authorization', bearer(operator.accessToken)).send({ notes: 'later' })).status).toBe(409);
+      expect(
+        (await t.http.patch(`/api/runs/${run.id}`).set('authorization', bearer(operator.accessToken)).send({ notes: 'later' })).status,
+      ).toBe(409);
     });
 
     it('an alarm left open by an earlier run is closed out, and the next run raises its own', async () => {
       const e = await createEngine(t, chief.accessToken);
       const mb = e.measurementPoints.find((p) => p.code === 'MB')!.id;
       const first = await createPreparingRun(t, operator.accessToken, e.id);
-      await t.http.post(`/api/runs/${first.id}/rounds`).set('authorization', bearer(operator.accessToken)).send({ takenAt: new Date().toISOString(), readings: [reading(mb, 135)] });
-      await t.http.post(`/api/runs/${first.id}/transitions`).set('authorization', bearer(operator.accessToken)).send({ to: 'abandoned', note: 'Called off' });
+      await t.http
+        .post(`/api/runs/${first.id}/rounds`)
+        .set('authorization', bearer(operator.accessToken))
+        .send({ takenAt: new Date().toISOString(), readings: [reading(mb, 135)] });
+      await t.http
+        .post(`/api/runs/${first.id}/transitions`)
+        .set('authorization', bearer(operator.accessToken))
+        .send({ to: 'abandoned', note: 'Called off' });
       const second = await createPreparingRun(t, operator.accessToken, e.id);
-      await t.http.post(`/api/runs/${second.id}/rounds`).set('authorization', bearer(operator.accessToken)).send({ takenAt: new Date().toISOString(), readings: [reading(mb, 136)] });
+      await t.http
+        .post(`/api/runs/${second.id}/rounds`)
+        .set('authorization', bearer(operator.accessToken))
+        .send({ takenAt: new Date().toISOString(), readings: [reading(mb, 136)] });
       const a1 = (await t.http.get(`/api/runs/${first.id}/alarms`).set('authorization', bearer(observer.accessToken))).body as AlarmDto[];
       const a2 = (await t.http.get(`/api/runs/${second.id}/alarms`).set('authorization', bearer(observer.accessToken))).body as AlarmDto[];
       expect(a1.find((a) => a.kind === 'high')?.state).toBe('normal');
@@ -269,8 +393,14 @@ describe('the run log (engines, runs, readings, alarms) against PostgreSQL', () 
     it('only one run of an engine is under way at a time', async () => {
       const e = await createEngine(t, chief.accessToken);
       await createPreparingRun(t, operator.accessToken, e.id);
-      const second = await t.http.post('/api/runs').set('authorization', bearer(operator.accessToken)).send({ engineId: e.id, purpose: 'test', title: 'Second' });
-      const res = await t.http.post(`/api/runs/${second.body.id}/transitions`).set('authorization', bearer(operator.accessToken)).send({ to: 'preparing' });
+      const second = await t.http
+        .post('/api/runs')
+        .set('authorization', bearer(operator.accessToken))
+        .send({ engineId: e.id, purpose: 'test', title: 'Second' });
+      const res = await t.http
+        .post(`/api/runs/${second.body.id}/transitions`)
+        .set('authorization', bearer(operator.accessToken))
+        .send({ to: 'preparing' });
       expect(res.status).toBe(409);
     });
   });

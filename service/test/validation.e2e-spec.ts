@@ -19,7 +19,11 @@ describe('the API edge refuses bad input (API)', () => {
 
   const userCount = async () => Number((await t.db.query('SELECT count(*)::int AS n FROM users'))[0].n);
   const userExists = async (email: string) => (await t.db.query('SELECT 1 FROM users WHERE email = $1', [email.toLowerCase()])).length > 0;
-  const invite = (body: unknown) => t.http.post('/api/users/invitations').set('Authorization', bearer(admin.accessToken)).send(body as object);
+  const invite = (body: unknown) =>
+    t.http
+      .post('/api/users/invitations')
+      .set('Authorization', bearer(admin.accessToken))
+      .send(body as object);
 
   describe('POST /api/users/invitations', () => {
     it('accepts a well-formed invitation (control for the cases below)', async () => {

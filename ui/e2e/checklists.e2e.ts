@@ -1,5 +1,13 @@
 import { expect, test, type APIRequestContext, type Page } from '@playwright/test';
-import type { ChecklistDetail, ChecklistTemplateDetail, ChecklistTemplateSummary, EngineDetail, RunDetail, RunSummary, StartGateVerdict } from '@crankjournal/shared-types';
+import type {
+  ChecklistDetail,
+  ChecklistTemplateDetail,
+  ChecklistTemplateSummary,
+  EngineDetail,
+  RunDetail,
+  RunSummary,
+  StartGateVerdict,
+} from '@crankjournal/shared-types';
 import { DEMO_PASSWORD, signIn } from './helpers';
 
 /** The tablet on its stand in the engine house. */
@@ -35,7 +43,10 @@ async function signOpenChecklist(page: Page) {
   await expect(page.getByTestId('signature')).toContainText('Signed by Tobias Wrenfield');
 }
 
-test('an operator completes the pre-lube and pre-start checklists on the tablet; the run is cleared, the countdown shows, the run starts', async ({ page, request }) => {
+test('an operator completes the pre-lube and pre-start checklists on the tablet; the run is cleared, the countdown shows, the run starts', async ({
+  page,
+  request,
+}) => {
   test.setTimeout(120_000);
   const op = await token(request, 'operator@alderforge.example');
   const runs = (await (await request.get('/api/runs', { headers: auth(op) })).json()) as RunSummary[];
@@ -125,7 +136,15 @@ test('a second attempt with a stale pre-lube is refused, with the reason shown',
       overspeedRpm: d.overspeedRpm,
       mawpPsig: d.mawpPsig,
       preLubeFreshnessMinutes: 1,
-      cylinders: d.cylinders.map(({ label, role, boreIn, strokeIn, pistonRodIn, tailRodIn, clearancePercent }) => ({ label, role, boreIn, strokeIn, pistonRodIn, tailRodIn, clearancePercent })),
+      cylinders: d.cylinders.map(({ label, role, boreIn, strokeIn, pistonRodIn, tailRodIn, clearancePercent }) => ({
+        label,
+        role,
+        boreIn,
+        strokeIn,
+        pistonRodIn,
+        tailRodIn,
+        clearancePercent,
+      })),
       lubricationPoints: [],
       bearings: [],
       measurementPoints: [],
@@ -135,31 +154,57 @@ test('a second attempt with a stale pre-lube is refused, with the reason shown',
   const engine = (await created.json()) as EngineDetail;
 
   // The demo engine's two pre-start templates, copied; the operator qualified on this engine too.
-  const templates = (await (await request.get(`/api/checklist-templates?engineId=${demo.id}`, { headers: auth(chief) })).json()) as ChecklistTemplateSummary[];
+  const templates = (await (
+    await request.get(`/api/checklist-templates?engineId=${demo.id}`, { headers: auth(chief) })
+  ).json()) as ChecklistTemplateSummary[];
   for (const t of templates.filter((x) => x.requiredWhen === 'before_start' && !x.retired)) {
-    const full = (await (await request.get(`/api/checklist-templates/${t.id}`, { headers: auth(chief) })).json()) as ChecklistTemplateDetail;
-    expect((await request.post('/api/checklist-templates', { headers: auth(chief), data: { ...full.current!.content, engineId: engine.id, publish: true } })).status()).toBe(201);
+    const full = (await (
+      await request.get(`/api/checklist-templates/${t.id}`, { headers: auth(chief) })
+    ).json()) as ChecklistTemplateDetail;
+    expect(
+      (
+        await request.post('/api/checklist-templates', {
+          headers: auth(chief),
+          data: { ...full.current!.content, engineId: engine.id, publish: true },
+        })
+      ).status(),
+    ).toBe(201);
   }
   const me = (await (await request.get('/api/auth/me', { headers: auth(op) })).json()) as { id: string };
   const today = new Date().toISOString().slice(0, 10);
   const nextYear = new Date(Date.now() + 365 * 86_400_000).toISOString().slice(0, 10);
   for (const duty of ['pre_lube', 'start_and_run']) {
-    const g = await request.post('/api/qualifications', { headers: auth(chief), data: { userId: me.id, engineId: engine.id, duty, grantedOn: today, expiresOn: nextYear } });
+    const g = await request.post('/api/qualifications', {
+      headers: auth(chief),
+      data: { userId: me.id, engineId: engine.id, duty, grantedOn: today, expiresOn: nextYear },
+    });
     expect(g.status()).toBe(201);
   }
 
   // A run whose pre-start checklists are done and signed: it is cleared.
-  const run = (await (await request.post('/api/runs', { headers: auth(op), data: { engineId: engine.id, purpose: 'test', title: 'Second start attempt' } })).json()) as RunDetail;
+  const run = (await (
+    await request.post('/api/runs', { headers: auth(op), data: { engineId: engine.id, purpose: 'test', title: 'Second start attempt' } })
+  ).json()) as RunDetail;
   expect((await request.post(`/api/runs/${run.id}/transitions`, { headers: auth(op), data: { to: 'preparing' } })).status()).toBe(200);
   const overview = await (await request.get(`/api/runs/${run.id}/checklists`, { headers: auth(op) })).json();
   for (const s of overview.templates as { template: ChecklistTemplateSummary }[]) {
-    const c = (await (await request.post(`/api/runs/${run.id}/checklists`, { headers: auth(op), data: { templateId: s.template.id } })).json()) as ChecklistDetail;
+    const c = (await (
+      await request.post(`/api/runs/${run.id}/checklists`, { headers: auth(op), data: { templateId: s.template.id } })
+    ).json()) as ChecklistDetail;
     for (const it of c.sections.flatMap((x) => x.items).filter((x) => x.required)) {
       const value =
-        it.kind === 'tick' ? { tick: true } : it.kind === 'reading' ? { value: it.min ?? it.max ?? 1 } : it.kind === 'choice' ? { choice: it.acceptable?.[0] ?? it.choices![0] } : { text: 'Checked.' };
+        it.kind === 'tick'
+          ? { tick: true }
+          : it.kind === 'reading'
+            ? { value: it.min ?? it.max ?? 1 }
+            : it.kind === 'choice'
+              ? { choice: it.acceptable?.[0] ?? it.choices![0] }
+              : { text: 'Checked.' };
       expect((await request.put(`/api/checklists/${c.id}/items/${it.key}`, { headers: auth(op), data: value })).status()).toBe(200);
     }
-    expect((await request.post(`/api/checklists/${c.id}/sign`, { headers: auth(op), data: { signature: DEMO_PASSWORD } })).status()).toBe(200);
+    expect((await request.post(`/api/checklists/${c.id}/sign`, { headers: auth(op), data: { signature: DEMO_PASSWORD } })).status()).toBe(
+      200,
+    );
   }
   const cleared = (await (await request.get(`/api/runs/${run.id}`, { headers: auth(op) })).json()) as RunDetail;
   expect(cleared.state).toBe('cleared');
@@ -171,7 +216,13 @@ test('a second attempt with a stale pre-lube is refused, with the reason shown',
   await expect(page.getByTestId('pre-lube-countdown')).toContainText('Pre-lube window has passed', { timeout: 75_000 });
   await expect(page.getByTestId('pre-lube-remaining')).toHaveText('0:00');
   await expect
-    .poll(async () => ((await (await request.get(`/api/runs/${run.id}/start-gate`, { headers: auth(op) })).json()) as StartGateVerdict).reasons.map((r) => r.code), { timeout: 10_000 })
+    .poll(
+      async () =>
+        ((await (await request.get(`/api/runs/${run.id}/start-gate`, { headers: auth(op) })).json()) as StartGateVerdict).reasons.map(
+          (r) => r.code,
+        ),
+      { timeout: 10_000 },
+    )
     .toContain('pre_lube_stale');
 
   // The attempt to start is refused by the server; the screen shows why.
@@ -187,5 +238,8 @@ test('a second attempt with a stale pre-lube is refused, with the reason shown',
   expect(after.state).toBe('cleared');
 
   // Leave the test engine free.
-  await request.post(`/api/runs/${run.id}/transitions`, { headers: auth(chief), data: { to: 'abandoned', note: 'Browser test of a stale pre-lube.' } });
+  await request.post(`/api/runs/${run.id}/transitions`, {
+    headers: auth(chief),
+    data: { to: 'abandoned', note: 'Browser test of a stale pre-lube.' },
+  });
 });

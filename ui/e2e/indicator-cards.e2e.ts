@@ -45,7 +45,11 @@ async function clickImage(surface: Locator, p: TracePoint) {
   await surface.click({ position: { x: p.x * scale, y: p.y * scale } });
 }
 
-test('an operator uploads a card photo, calibrates and traces it, sees MEP and horsepower; a second viewer sees the set’s total arrive live', async ({ page, browser, request }) => {
+test('an operator uploads a card photo, calibrates and traces it, sees MEP and horsepower; a second viewer sees the set’s total arrive live', async ({
+  page,
+  browser,
+  request,
+}) => {
   test.setTimeout(120_000);
   const operatorToken = await token(request, 'operator@alderforge.example');
   const run = await openRun(request, operatorToken);
@@ -123,7 +127,9 @@ test('the indicated power calculator works out the example and names a bad field
   await expect(page.getByRole('heading', { name: 'Indicated power' })).toBeVisible();
   await expect(page.getByTestId('calc-total')).toHaveText(/\d+\.\d ihp/);
   // The HP head-end card is Machinery’s Reference Series No. 70 example: 2.6 in², 3.6 in, 60-lb spring → 43.3 psi.
-  await expect(page.getByRole('table', { name: 'Indicated power by end' }).getByRole('row', { name: /HP head end/ })).toContainText('43.33');
+  await expect(page.getByRole('table', { name: 'Indicated power by end' }).getByRole('row', { name: /HP head end/ })).toContainText(
+    '43.33',
+  );
   await page.getByTestId('calc-cylinder-0').getByLabel('Piston rod, in').fill('30');
   await expect(page.getByTestId('calc-error')).toContainText('cylinders[0].pistonRodIn');
 });

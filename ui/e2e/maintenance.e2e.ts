@@ -1,7 +1,9 @@
 import { expect, test } from '@playwright/test';
 import { signIn } from './helpers';
 
-test('the maintenance lead opens the warm bearing of the demo season, sees the flagged run and opens the follow-up inspection', async ({ page }) => {
+test('the maintenance lead opens the warm bearing of the demo season, sees the flagged run and opens the follow-up inspection', async ({
+  page,
+}) => {
   await signIn(page, 'maintenance@alderforge.example');
 
   // The start screen carries what is due, overdue marked.

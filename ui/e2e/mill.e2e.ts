@@ -47,12 +47,20 @@ async function runningRunWithMill(request: APIRequestContext): Promise<{ run: Ru
   const day = (d: Date) => d.toISOString().slice(0, 10);
   const qual = await request.post('/api/qualifications', {
     headers: h,
-    data: { userId: chief.user.id, engineId: engine.id, duty: 'start_and_run', grantedOn: day(new Date(today.getTime() - 86_400_000)), expiresOn: day(new Date(today.getTime() + 300 * 86_400_000)) },
+    data: {
+      userId: chief.user.id,
+      engineId: engine.id,
+      duty: 'start_and_run',
+      grantedOn: day(new Date(today.getTime() - 86_400_000)),
+      expiresOn: day(new Date(today.getTime() + 300 * 86_400_000)),
+    },
   });
   // Where the qualifications area is not installed the start gate has no such rule.
   expect([201, 404]).toContain(qual.status());
 
-  const demo = ((await (await request.get('/api/mill/mills', { headers: h })).json()) as MillDto[]).find((m) => m.name === 'Alder Forge bar mill');
+  const demo = ((await (await request.get('/api/mill/mills', { headers: h })).json()) as MillDto[]).find(
+    (m) => m.name === 'Alder Forge bar mill',
+  );
   expect(demo, 'the demo mill is seeded').toBeTruthy();
   const millRes = await request.post('/api/mill/mills', {
     headers: h,
@@ -68,7 +76,10 @@ async function runningRunWithMill(request: APIRequestContext): Promise<{ run: Ru
   expect(millRes.status(), await millRes.text()).toBe(201);
   const mill = (await millRes.json()) as MillDto;
 
-  const runRes = await request.post('/api/runs', { headers: h, data: { engineId: engine.id, purpose: 'demonstration', title: `Rolling test ${tag}` } });
+  const runRes = await request.post('/api/runs', {
+    headers: h,
+    data: { engineId: engine.id, purpose: 'demonstration', title: `Rolling test ${tag}` },
+  });
   expect(runRes.status()).toBe(201);
   let run = (await runRes.json()) as RunDetail;
   for (const to of ['preparing', 'cleared', 'running']) {
@@ -85,7 +96,10 @@ async function choose(page: Page, label: string | RegExp, option: string | RegEx
   await page.getByRole('option', { name: option }).click();
 }
 
-test('the mill lead plans a schedule from a template, logs passes during a run, and sees the flywheel warning on an overloaded pass', async ({ page, request }) => {
+test('the mill lead plans a schedule from a template, logs passes during a run, and sees the flywheel warning on an overloaded pass', async ({
+  page,
+  request,
+}) => {
   test.setTimeout(150_000);
   const { run, mill } = await runningRunWithMill(request);
   const scheduleName = `Open day rounds ${Date.now().toString(36)}`;

@@ -20,7 +20,13 @@ export function App() {
     <MantineProvider theme={theme} defaultColorScheme="auto">
       <Notifications position="top-right" />
       <QueryClientProvider client={queryClient}>
-        <Suspense fallback={<Center h="100vh"><Loader /></Center>}>
+        <Suspense
+          fallback={
+            <Center h="100vh">
+              <Loader />
+            </Center>
+          }
+        >
           <RouterProvider router={router} />
         </Suspense>
       </QueryClientProvider>

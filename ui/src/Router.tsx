@@ -83,7 +83,14 @@ export const routes = [
     children: [
       { index: true, element: <TodayPage /> },
       { path: 'account', element: <AccountPage /> },
-      { path: 'admin/users', element: <RequireRole roles={['administrator']}><UsersPage /></RequireRole> },
+      {
+        path: 'admin/users',
+        element: (
+          <RequireRole roles={['administrator']}>
+            <UsersPage />
+          </RequireRole>
+        ),
+      },
       { path: 'runs/:id', element: <LiveRunPage /> },
       { path: 'runs/:id/round', element: <RoundEntryPage /> },
       { path: 'runs/:id/cards', element: <RunCardsPage /> },
@@ -92,38 +99,143 @@ export const routes = [
       { path: 'maintenance/due', element: <MaintenanceOverviewPage /> },
       { path: 'maintenance/bearings', element: <BearingsPage /> },
       { path: 'maintenance/bearings/:id', element: <BearingHistoryPage /> },
-      { path: 'maintenance/plans/new', element: <RequireRole roles={MAINTENANCE_WRITERS}><PlanEditPage /></RequireRole> },
+      {
+        path: 'maintenance/plans/new',
+        element: (
+          <RequireRole roles={MAINTENANCE_WRITERS}>
+            <PlanEditPage />
+          </RequireRole>
+        ),
+      },
       { path: 'maintenance/plans/:id', element: <PlanDetailPage /> },
-      { path: 'maintenance/plans/:id/edit', element: <RequireRole roles={MAINTENANCE_WRITERS}><PlanEditPage /></RequireRole> },
+      {
+        path: 'maintenance/plans/:id/edit',
+        element: (
+          <RequireRole roles={MAINTENANCE_WRITERS}>
+            <PlanEditPage />
+          </RequireRole>
+        ),
+      },
       { path: 'maintenance/inspections', element: <InspectionsPage /> },
-      { path: 'maintenance/inspections/new', element: <RequireRole roles={MAINTENANCE_WRITERS}><NewInspectionPage /></RequireRole> },
+      {
+        path: 'maintenance/inspections/new',
+        element: (
+          <RequireRole roles={MAINTENANCE_WRITERS}>
+            <NewInspectionPage />
+          </RequireRole>
+        ),
+      },
       { path: 'maintenance/inspections/:id', element: <InspectionPage /> },
       { path: 'maintenance/work', element: <WorkRecordsPage /> },
-      { path: 'maintenance/work/new', element: <RequireRole roles={MAINTENANCE_WRITERS}><NewWorkRecordPage /></RequireRole> },
+      {
+        path: 'maintenance/work/new',
+        element: (
+          <RequireRole roles={MAINTENANCE_WRITERS}>
+            <NewWorkRecordPage />
+          </RequireRole>
+        ),
+      },
       { path: 'maintenance/work/:id', element: <WorkRecordPage /> },
       { path: 'lubrication', element: <LubricationPage /> },
-      ...CALCULATORS.map((c) => ({ path: c.path.replace(/^\//, ''), element: <RequireRole roles={c.roles}><c.Page /></RequireRole> })),
+      ...CALCULATORS.map((c) => ({
+        path: c.path.replace(/^\//, ''),
+        element: (
+          <RequireRole roles={c.roles}>
+            <c.Page />
+          </RequireRole>
+        ),
+      })),
       { path: 'runs/:id/checklists', element: <RunChecklistsPage /> },
       { path: 'runs/:id/checklists/:checklistId', element: <ChecklistPage /> },
       { path: 'checklists', element: <ChecklistTemplatesPage /> },
-      { path: 'checklists/templates/new', element: <RequireRole roles={['chief_engineer']}><TemplateEditorPage /></RequireRole> },
+      {
+        path: 'checklists/templates/new',
+        element: (
+          <RequireRole roles={['chief_engineer']}>
+            <TemplateEditorPage />
+          </RequireRole>
+        ),
+      },
       { path: 'checklists/templates/:id', element: <ChecklistTemplatePage /> },
-      { path: 'checklists/templates/:id/edit', element: <RequireRole roles={['chief_engineer']}><TemplateEditorPage /></RequireRole> },
+      {
+        path: 'checklists/templates/:id/edit',
+        element: (
+          <RequireRole roles={['chief_engineer']}>
+            <TemplateEditorPage />
+          </RequireRole>
+        ),
+      },
       { path: 'qualifications', element: <QualificationsPage /> },
       { path: 'engines', element: <EnginesPage /> },
-      { path: 'engines/new', element: <RequireRole roles={['chief_engineer']}><EngineEditPage /></RequireRole> },
+      {
+        path: 'engines/new',
+        element: (
+          <RequireRole roles={['chief_engineer']}>
+            <EngineEditPage />
+          </RequireRole>
+        ),
+      },
       { path: 'engines/:id', element: <EngineDetailPage /> },
-      { path: 'engines/:id/edit', element: <RequireRole roles={['chief_engineer']}><EngineEditPage /></RequireRole> },
+      {
+        path: 'engines/:id/edit',
+        element: (
+          <RequireRole roles={['chief_engineer']}>
+            <EngineEditPage />
+          </RequireRole>
+        ),
+      },
       { path: 'runs', element: <RunsPage /> },
-      { path: 'runs/new', element: <RequireRole roles={['chief_engineer', 'operator']}><NewRunPage /></RequireRole> },
-      { path: 'admin/loggers', element: <RequireRole roles={['administrator']}><LoggersPage /></RequireRole> },
+      {
+        path: 'runs/new',
+        element: (
+          <RequireRole roles={['chief_engineer', 'operator']}>
+            <NewRunPage />
+          </RequireRole>
+        ),
+      },
+      {
+        path: 'admin/loggers',
+        element: (
+          <RequireRole roles={['administrator']}>
+            <LoggersPage />
+          </RequireRole>
+        ),
+      },
       { path: 'mill', element: <MillOverviewPage /> },
-      { path: 'mill/mills/new', element: <RequireRole roles={MILL_WRITERS}><MillEditPage /></RequireRole> },
-      { path: 'mill/mills/:id/edit', element: <RequireRole roles={MILL_WRITERS}><MillEditPage /></RequireRole> },
+      {
+        path: 'mill/mills/new',
+        element: (
+          <RequireRole roles={MILL_WRITERS}>
+            <MillEditPage />
+          </RequireRole>
+        ),
+      },
+      {
+        path: 'mill/mills/:id/edit',
+        element: (
+          <RequireRole roles={MILL_WRITERS}>
+            <MillEditPage />
+          </RequireRole>
+        ),
+      },
       { path: 'mill/schedules', element: <MillSchedulesPage /> },
-      { path: 'mill/schedules/new', element: <RequireRole roles={MILL_WRITERS}><MillScheduleEditPage /></RequireRole> },
+      {
+        path: 'mill/schedules/new',
+        element: (
+          <RequireRole roles={MILL_WRITERS}>
+            <MillScheduleEditPage />
+          </RequireRole>
+        ),
+      },
       { path: 'mill/schedules/:id', element: <MillScheduleDetailPage /> },
-      { path: 'mill/schedules/:id/edit', element: <RequireRole roles={MILL_WRITERS}><MillScheduleEditPage /></RequireRole> },
+      {
+        path: 'mill/schedules/:id/edit',
+        element: (
+          <RequireRole roles={MILL_WRITERS}>
+            <MillScheduleEditPage />
+          </RequireRole>
+        ),
+      },
       { path: 'mill/rolling', element: <MillRollingRunsPage /> },
       { path: 'mill/rolling/:runId', element: <MillRunRollingPage /> },
       { path: 'mill/lots', element: <MillLotsPage /> },

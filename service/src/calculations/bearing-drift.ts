@@ -41,7 +41,6 @@ export interface DriftBand {
   loadMax: number;
 }
 
-
 function mean(values: number[]): number {
   return values.reduce((s, v) => s + v, 0) / values.length;
 }
@@ -50,7 +49,9 @@ function mean(values: number[]): number {
  * The rule in words for the settings actually used (band width k, margin, and the least spread of load
  * for which a sloping line is fitted), so the screen states exactly what the code does.
  */
-export function driftRuleText(settings: { k?: number; marginF?: number; minLoadSpread?: number; loadName?: string; loadUnit?: string } = {}): string {
+export function driftRuleText(
+  settings: { k?: number; marginF?: number; minLoadSpread?: number; loadName?: string; loadUnit?: string } = {},
+): string {
   const k = settings.k ?? DEFAULT_BAND_K;
   const marginF = settings.marginF ?? DEFAULT_DRIFT_MARGIN_F;
   const spread = settings.minLoadSpread ?? DEFAULT_MIN_LOAD_SPREAD;
@@ -122,7 +123,10 @@ export function fitBand(points: DriftPoint[], options: { k?: number; minLoadSpre
 }
 
 /** The band at a load: expected rise and the lower / upper limits (°F). */
-export function bandAt(band: DriftBand, load: number): {
+export function bandAt(
+  band: DriftBand,
+  load: number,
+): {
   expectedRiseF: number;
   lowerF: number;
   upperF: number;

@@ -106,10 +106,7 @@ describe('passFlywheelCheck', () => {
     expect(r.durationS).toBe(3);
     expect(r.passEnergyJ).toBe(900000);
     expect(r.energyFromFlywheelJ).toBe(900000);
-    expect(r.endSpeedRpm).toBeCloseTo(
-      speedAfterEnergyDraw({ inertiaKgM2: 63500 * 9, startSpeedRpm: 75, energyJ: 900000 }).endSpeedRpm,
-      12,
-    );
+    expect(r.endSpeedRpm).toBeCloseTo(speedAfterEnergyDraw({ inertiaKgM2: 63500 * 9, startSpeedRpm: 75, energyJ: 900000 }).endSpeedRpm, 12);
     expect(r.belowMinSpeed).toBe(false);
     expect(r.warning).toBeNull();
     expect(r.recoveryTimeS).toBeCloseTo(900000 / r.surplusPowerW, 9);

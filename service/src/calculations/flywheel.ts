@@ -16,7 +16,6 @@ import { assertFinite, assertPositive, assertNonNegative } from './input-checks.
 /** Lowest speed after a pass, as a fraction of rated speed, before a warning (common practice, no source; set per engine). */
 export const DEFAULT_MIN_SPEED_FRACTION = 0.9;
 
-
 export function rpmToRadPerS(speedRpm: number): number {
   return (2 * Math.PI * speedRpm) / 60;
 }

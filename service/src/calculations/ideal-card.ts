@@ -54,10 +54,7 @@ export function idealMeanEffectivePressurePsi(input: IdealCardInput): number {
 }
 
 /** Diagram factor: actual MEP ÷ ideal MEP (a fraction, typically 0.6–0.9). */
-export function diagramFactor(input: {
-  actualMeanEffectivePressurePsi: number;
-  idealMeanEffectivePressurePsi: number;
-}): number {
+export function diagramFactor(input: { actualMeanEffectivePressurePsi: number; idealMeanEffectivePressurePsi: number }): number {
   if (!(input.idealMeanEffectivePressurePsi > 0)) {
     throw new RangeError('idealMeanEffectivePressurePsi must be greater than zero');
   }

@@ -111,12 +111,15 @@ describe('indicated horsepower, published examples', () => {
     [8, 600, 0.912],
     [12, 400, 1.366],
     [20, 600, 5.731],
-  ])('%p in cylinder at %p ft/min piston speed: %p IHP per psi (Bepler, Handy Manual of Knowledge, horse-power table)', (boreIn, speedFtPerMin, hpPerPsi) => {
-    const strokeIn = 24;
-    const rpm = speedFtPerMin / (2 * (strokeIn / 12));
-    const result = computeIndicatedPower(plainEngine({ rpm, strokeIn, boreIn, mepPsi: 1 }));
-    expect(Math.abs(result.totalIndicatedHorsepower - hpPerPsi) / hpPerPsi).toBeLessThan(0.005);
-  });
+  ])(
+    '%p in cylinder at %p ft/min piston speed: %p IHP per psi (Bepler, Handy Manual of Knowledge, horse-power table)',
+    (boreIn, speedFtPerMin, hpPerPsi) => {
+      const strokeIn = 24;
+      const rpm = speedFtPerMin / (2 * (strokeIn / 12));
+      const result = computeIndicatedPower(plainEngine({ rpm, strokeIn, boreIn, mepPsi: 1 }));
+      expect(Math.abs(result.totalIndicatedHorsepower - hpPerPsi) / hpPerPsi).toBeLessThan(0.005);
+    },
+  );
 });
 
 describe('effective areas and the two ends', () => {
@@ -322,9 +325,7 @@ describe('input errors name the field', () => {
   });
 
   it('a cylinder without a label', () => {
-    expect(fieldPathOf((i) => delete (i.cylinders[0] as Partial<IndicatedPowerInput['cylinders'][0]>).label)).toBe(
-      'cylinders[0].label',
-    );
+    expect(fieldPathOf((i) => delete (i.cylinders[0] as Partial<IndicatedPowerInput['cylinders'][0]>).label)).toBe('cylinders[0].label');
   });
 
   it('no cylinders, or a cylinder without cards', () => {

@@ -89,7 +89,13 @@ describe('shoelace area of a closed polygon (surveyor’s formula; common practi
   });
 
   it('right triangle with legs 4 and 3 is 6', () => {
-    expect(shoelaceArea([{ x: 0, y: 0 }, { x: 4, y: 0 }, { x: 0, y: 3 }])).toBeCloseTo(6, 12);
+    expect(
+      shoelaceArea([
+        { x: 0, y: 0 },
+        { x: 4, y: 0 },
+        { x: 0, y: 3 },
+      ]),
+    ).toBeCloseTo(6, 12);
   });
 
   it('rectangle 3.6 × 0.722 in is about 2.6 in², the planimeter figure of the Machinery’s Reference Series example', () => {
@@ -104,7 +110,11 @@ describe('shoelace area of a closed polygon (surveyor’s formula; common practi
   });
 
   it('repeating the first vertex at the end changes nothing', () => {
-    const open = [{ x: 0, y: 0 }, { x: 4, y: 0 }, { x: 0, y: 3 }];
+    const open = [
+      { x: 0, y: 0 },
+      { x: 4, y: 0 },
+      { x: 0, y: 3 },
+    ];
     expect(shoelaceArea([...open, open[0]])).toBeCloseTo(6, 12);
   });
 
@@ -120,7 +130,12 @@ describe('shoelace area of a closed polygon (surveyor’s formula; common practi
   });
 
   it('refuses fewer than three points', () => {
-    expect(() => shoelaceArea([{ x: 0, y: 0 }, { x: 1, y: 1 }])).toThrow(RangeError);
+    expect(() =>
+      shoelaceArea([
+        { x: 0, y: 0 },
+        { x: 1, y: 1 },
+      ]),
+    ).toThrow(RangeError);
   });
 });
 
@@ -233,7 +248,14 @@ describe('calibrating a traced card image', () => {
     expect(() => calibrateTrace(base)).toThrow(RangeError);
     expect(() => calibrateTrace({ ...base, cardLengthIn: 3.6, diagramEndPx: base.diagramStartPx })).toThrow(RangeError);
     expect(() =>
-      calibrateTrace({ ...base, cardLengthIn: 3.6, atmosphericLine: [{ x: 10, y: 10 }, { x: 12, y: 200 }] }),
+      calibrateTrace({
+        ...base,
+        cardLengthIn: 3.6,
+        atmosphericLine: [
+          { x: 10, y: 10 },
+          { x: 12, y: 200 },
+        ],
+      }),
     ).toThrow(RangeError);
   });
 });

@@ -55,11 +55,7 @@ export interface CardMeanPressure {
 }
 
 /** (a) Planimeter figure: area (in²), card length (in) and spring scale (psi per in). */
-export function mepFromPlanimeter(input: {
-  areaSqIn: number;
-  lengthIn: number;
-  springPsiPerIn: number;
-}): CardMeanPressure {
+export function mepFromPlanimeter(input: { areaSqIn: number; lengthIn: number; springPsiPerIn: number }): CardMeanPressure {
   const meanHeightIn = meanHeightFromAreaIn(input.areaSqIn, input.lengthIn);
   return { meanHeightIn, meanEffectivePressurePsi: mepFromMeanHeight(meanHeightIn, input.springPsiPerIn) };
 }

@@ -161,9 +161,22 @@ describe('journal bearing: unit load, Sommerfeld number, Petroff', () => {
   });
   it('the individual Petroff pieces match journalFriction', () => {
     const t = petroffTorqueLbfIn({ radiusIn: 8, lengthIn: 26, radialClearanceIn: 0.008, viscosityReyn: 5e-6, speedRevPerS: 75 / 60 });
-    const r = journalFriction({ diameterIn: 16, lengthIn: 26, radialClearanceIn: 0.008, speedRpm: 75, viscosityReyn: 5e-6, loadLbf: 60000 });
+    const r = journalFriction({
+      diameterIn: 16,
+      lengthIn: 26,
+      radialClearanceIn: 0.008,
+      speedRpm: 75,
+      viscosityReyn: 5e-6,
+      loadLbf: 60000,
+    });
     expect(r.frictionTorqueLbfIn).toBeCloseTo(t, 9);
-    const f = petroffFrictionCoefficient({ radiusIn: 8, radialClearanceIn: 0.008, viscosityReyn: 5e-6, speedRevPerS: 1.25, unitLoadPsi: r.unitLoadPsi });
+    const f = petroffFrictionCoefficient({
+      radiusIn: 8,
+      radialClearanceIn: 0.008,
+      viscosityReyn: 5e-6,
+      speedRevPerS: 1.25,
+      unitLoadPsi: r.unitLoadPsi,
+    });
     expect(r.frictionCoefficient).toBeCloseTo(f, 12);
   });
   it('Petroff friction coefficient of a published calculator example: 1 Pa\u00b7s, 10 rev/s, 0.15 MPa, c/r = 0.005 \u2192 0.263189', () => {
@@ -200,7 +213,9 @@ describe('jacking and lift pressure (common practice, no source)', () => {
     expect(r.loadShortTons).toBeCloseTo(112.5, 9);
     expect(r.margin).toBeCloseTo(1.78, 2);
     expect(r.belowRequiredMargin).toBe(false);
-    expect(jackCapacityCheck({ jackCount: 4, jackCapacityShortTons: 50, loadLbf: 225000, requiredMargin: 2 }).belowRequiredMargin).toBe(true);
+    expect(jackCapacityCheck({ jackCount: 4, jackCapacityShortTons: 50, loadLbf: 225000, requiredMargin: 2 }).belowRequiredMargin).toBe(
+      true,
+    );
     expect(jackCapacityCheck({ jackCount: 3, jackCapacityShortTons: 50, loadLbf: 225000 }).belowRequiredMargin).toBe(true);
   });
   it('exports a jacking caution that defers to codes and licensed practice', () => {

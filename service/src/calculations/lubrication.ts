@@ -45,7 +45,6 @@ export const JACK_MARGIN_RULE_TEXT =
   'default minimum is 1.5 (common practice, no source). Any jack that is not carrying its share ' +
   'reduces the real margin.';
 
-
 export function celsiusToKelvin(temperatureC: number): number {
   return temperatureC + KELVIN_OFFSET;
 }
@@ -76,9 +75,7 @@ export function waltherFit(p: {
   assertPositive('viscosity1Cst', p.viscosity1Cst);
   assertPositive('viscosity2Cst', p.viscosity2Cst);
   if (p.temperature1K === p.temperature2K) throw new RangeError('the two temperatures must differ');
-  const b =
-    (loglog(p.viscosity1Cst) - loglog(p.viscosity2Cst)) /
-    (Math.log10(p.temperature2K) - Math.log10(p.temperature1K));
+  const b = (loglog(p.viscosity1Cst) - loglog(p.viscosity2Cst)) / (Math.log10(p.temperature2K) - Math.log10(p.temperature1K));
   const a = loglog(p.viscosity1Cst) + b * Math.log10(p.temperature1K);
   return { a, b };
 }
@@ -90,11 +87,7 @@ export function waltherViscosityCst(constants: WaltherConstants, temperatureK: n
 }
 
 /** Kinematic viscosity (cSt) at temperatureC from the data-sheet figures at 40 °C and 100 °C. */
-export function kinematicViscosityCst(p: {
-  viscosity40cSt: number;
-  viscosity100cSt: number;
-  temperatureC: number;
-}): number {
+export function kinematicViscosityCst(p: { viscosity40cSt: number; viscosity100cSt: number; temperatureC: number }): number {
   const fit = waltherFit({
     temperature1K: celsiusToKelvin(40),
     viscosity1Cst: p.viscosity40cSt,
@@ -105,9 +98,7 @@ export function kinematicViscosityCst(p: {
 }
 
 /** ISO 3448 viscosity grades (mid-point kinematic viscosity at 40 °C in cSt). */
-export const ISO_VG_GRADES = [
-  2, 3, 5, 7, 10, 15, 22, 32, 46, 68, 100, 150, 220, 320, 460, 680, 1000, 1500, 2200, 3200,
-] as const;
+export const ISO_VG_GRADES = [2, 3, 5, 7, 10, 15, 22, 32, 46, 68, 100, 150, 220, 320, 460, 680, 1000, 1500, 2200, 3200] as const;
 
 /**
  * ISO 3448 grade: the grade number is the mid-point kinematic viscosity at 40 °C in cSt and the
@@ -121,11 +112,7 @@ export function isoVgMidpointCst(grade: number): { midpointCst: number; minCst: 
 }
 
 /** Oil density at temperature: ρ(T) = ρ15 · (1 − α·(T − 15 °C)), α default 0.00065 /K (common practice). */
-export function oilDensityKgM3(p: {
-  densityKgM3At15C: number;
-  temperatureC: number;
-  expansionPerK?: number;
-}): number {
+export function oilDensityKgM3(p: { densityKgM3At15C: number; temperatureC: number; expansionPerK?: number }): number {
   assertPositive('densityKgM3At15C', p.densityKgM3At15C);
   assertFinite('temperatureC', p.temperatureC);
   const alpha = p.expansionPerK ?? DEFAULT_OIL_EXPANSION_PER_K;
@@ -317,12 +304,7 @@ export function liftPressure(p: { loadLbf: number; pocketAreaIn2: number; breaka
 export const DEFAULT_REQUIRED_JACK_MARGIN = 1.5;
 
 /** Jack capacity margin check (see JACK_MARGIN_RULE_TEXT; common practice, no source). */
-export function jackCapacityCheck(p: {
-  jackCount: number;
-  jackCapacityShortTons: number;
-  loadLbf: number;
-  requiredMargin?: number;
-}): {
+export function jackCapacityCheck(p: { jackCount: number; jackCapacityShortTons: number; loadLbf: number; requiredMargin?: number }): {
   capacityShortTons: number;
   loadShortTons: number;
   margin: number;
@@ -381,7 +363,12 @@ export const CONSUMPTION_TREND_RULE_TEXT =
 export function consumptionTrend(
   figuresOldestFirst: number[],
   options: { steadyPercent?: number } = {},
-): { latest: number | null; earlierMedian: number | null; changePercent: number | null; direction: 'rising' | 'steady' | 'falling' | null } {
+): {
+  latest: number | null;
+  earlierMedian: number | null;
+  changePercent: number | null;
+  direction: 'rising' | 'steady' | 'falling' | null;
+} {
   const steady = options.steadyPercent ?? DEFAULT_CONSUMPTION_STEADY_PERCENT;
   assertNonNegative('steadyPercent', steady);
   for (const f of figuresOldestFirst) assertNonNegative('figure', f);

@@ -40,7 +40,11 @@ describe('each criterion can come due first', () => {
 
 describe('thresholds', () => {
   const at = (hoursUsed: number) =>
-    maintenanceDue({ intervalRunHours: 200 }, lastDone, { runHours: 1000 + hoursUsed, revolutions: 4_000_000, now: new Date('2025-06-01T00:00:00Z') }).status;
+    maintenanceDue({ intervalRunHours: 200 }, lastDone, {
+      runHours: 1000 + hoursUsed,
+      revolutions: 4_000_000,
+      now: new Date('2025-06-01T00:00:00Z'),
+    }).status;
   it('exactly 10 % left is due soon; a little more is ok; reaching the interval is overdue', () => {
     expect(at(179.9)).toBe('ok');
     expect(at(180)).toBe('due_soon');
@@ -51,18 +55,33 @@ describe('thresholds', () => {
   it('a usage rate turns remaining hours into a due date, and 7 days or less is due soon', () => {
     const now = new Date('2025-06-01T00:00:00Z');
     // 150 of 200 h used: 50 h left (25 %), at 8 h a day → 6.25 days → due soon by date
-    const soon = maintenanceDue({ intervalRunHours: 200 }, lastDone, { runHours: 1150, revolutions: 4_000_000, now }, { runHoursPerDay: 8 });
+    const soon = maintenanceDue(
+      { intervalRunHours: 200 },
+      lastDone,
+      { runHours: 1150, revolutions: 4_000_000, now },
+      { runHoursPerDay: 8 },
+    );
     expect(soon.status).toBe('due_soon');
     expect(soon.dueDate!.getTime()).toBe(now.getTime() + 6.25 * 86_400_000);
     // at 2 h a day the same 50 h is 25 days away → ok
-    const later = maintenanceDue({ intervalRunHours: 200 }, lastDone, { runHours: 1150, revolutions: 4_000_000, now }, { runHoursPerDay: 2 });
+    const later = maintenanceDue(
+      { intervalRunHours: 200 },
+      lastDone,
+      { runHours: 1150, revolutions: 4_000_000, now },
+      { runHoursPerDay: 2 },
+    );
     expect(later.status).toBe('ok');
     expect(later.dueDate!.getTime()).toBe(now.getTime() + 25 * 86_400_000);
   });
 
   it('the earliest estimate is the due date, whichever criterion gives it', () => {
     const now = new Date('2025-06-01T00:00:00Z');
-    const r = maintenanceDue(plan, lastDone, { runHours: 1100, revolutions: 4_450_000, now }, { runHoursPerDay: 4, revolutionsPerDay: 9_000 });
+    const r = maintenanceDue(
+      plan,
+      lastDone,
+      { runHours: 1100, revolutions: 4_450_000, now },
+      { runHoursPerDay: 4, revolutionsPerDay: 9_000 },
+    );
     // hours: 100 left / 4 = 25 days; revolutions: 450,000 / 9,000 = 50 days; calendar: 2026-05-01
     expect(r.dueDate!.getTime()).toBe(now.getTime() + 25 * 86_400_000);
     expect(r.governing).toBe('run_hours');
@@ -70,7 +89,13 @@ describe('thresholds', () => {
   });
 
   it('thresholds are settings', () => {
-    const r = maintenanceDue({ intervalRunHours: 200 }, lastDone, { runHours: 1170, revolutions: 4_000_000, now: new Date('2025-06-01T00:00:00Z') }, {}, { dueSoonFraction: 0.2 });
+    const r = maintenanceDue(
+      { intervalRunHours: 200 },
+      lastDone,
+      { runHours: 1170, revolutions: 4_000_000, now: new Date('2025-06-01T00:00:00Z') },
+      {},
+      { dueSoonFraction: 0.2 },
+    );
     expect(r.status).toBe('due_soon');
   });
 

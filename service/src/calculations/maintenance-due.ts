@@ -84,7 +84,12 @@ export function daysBetween(from: Date, to: Date): number {
   return (to.getTime() - from.getTime()) / MS_PER_DAY;
 }
 
-function classify(remaining: number, interval: number, daysToDue: number | null, o: { dueSoonFraction: number; dueSoonDays: number }): DueStatus {
+function classify(
+  remaining: number,
+  interval: number,
+  daysToDue: number | null,
+  o: { dueSoonFraction: number; dueSoonDays: number },
+): DueStatus {
   if (remaining <= 0) return 'overdue';
   if (remaining <= o.dueSoonFraction * interval) return 'due_soon';
   if (daysToDue !== null && daysToDue <= o.dueSoonDays) return 'due_soon';
@@ -172,7 +177,11 @@ export function maintenanceDue(
 }
 
 /** New "last done" from the work record that closed the task. */
-export function resetFromWorkRecord(record: { completedAt: Date; runHoursAtCompletion: number; revolutionsAtCompletion: number }): LastDone {
+export function resetFromWorkRecord(record: {
+  completedAt: Date;
+  runHoursAtCompletion: number;
+  revolutionsAtCompletion: number;
+}): LastDone {
   assertDate('completedAt', record.completedAt);
   assertFinite('runHoursAtCompletion', record.runHoursAtCompletion);
   assertFinite('revolutionsAtCompletion', record.revolutionsAtCompletion);

@@ -8,8 +8,14 @@ const math = create(all);
 
 describe('bar sections', () => {
   it('rectangle h·w; round π·d²/4; oval as an ellipse π·h·w/4 (plain geometry, checked with mathjs)', () => {
-    expect(sectionAreaMm2({ shape: 'rectangle', heightMm: 76.2, widthMm: 76.2 })).toBeCloseTo(math.evaluate('(3 in)^2').toNumber('mm^2'), 9);
-    expect(sectionAreaMm2({ shape: 'round', heightMm: 38.1, widthMm: 38.1 })).toBeCloseTo(math.evaluate('pi * (1.5 in)^2 / 4').toNumber('mm^2'), 9);
+    expect(sectionAreaMm2({ shape: 'rectangle', heightMm: 76.2, widthMm: 76.2 })).toBeCloseTo(
+      math.evaluate('(3 in)^2').toNumber('mm^2'),
+      9,
+    );
+    expect(sectionAreaMm2({ shape: 'round', heightMm: 38.1, widthMm: 38.1 })).toBeCloseTo(
+      math.evaluate('pi * (1.5 in)^2 / 4').toNumber('mm^2'),
+      9,
+    );
     expect(sectionAreaMm2({ shape: 'oval', heightMm: 30, widthMm: 60 })).toBeCloseTo(math.evaluate('pi * 15 * 30') as number, 9);
     expect(() => sectionAreaMm2({ shape: 'rectangle', heightMm: 0, widthMm: 10 })).toThrow(RangeError);
   });
@@ -17,7 +23,7 @@ describe('bar sections', () => {
     // 3 in square billet, 1.5 m long, rolled to 1½ in round: volume is kept, so length × area is the same.
     const stock = sectionAreaMm2({ shape: 'rectangle', heightMm: 76.2, widthMm: 76.2 });
     const round = sectionAreaMm2({ shape: 'round', heightMm: 38.1, widthMm: 38.1 });
-    expect(areaElongation(stock, round)).toBeCloseTo(4 / Math.PI * 4, 9); // (3/1.5)² · 4/π
+    expect(areaElongation(stock, round)).toBeCloseTo((4 / Math.PI) * 4, 9); // (3/1.5)² · 4/π
     expect(barLengthM(1.5, stock, round) * round).toBeCloseTo(1.5 * stock, 6);
     expect(math.evaluate(`${barLengthM(1.5, stock, round)} m`).toNumber('m')).toBeCloseTo(7.639, 3);
   });
@@ -63,15 +69,31 @@ describe('millPassCheck: the pass as a whole', () => {
   it('composes passLoad and passFlywheelCheck without changing their figures', () => {
     const r = millPassCheck(normal);
     const load = passLoad({
-      rollDiameterMm: 406.4, entryThicknessMm: 76.2, exitThicknessMm: 60, entryWidthMm: 76.2, exitWidthMm: 82,
-      temperatureC: 1100, carbonPct: 0.2, rollSpeedRpm: 75, standMaxForceKn: 1200, frictionFactor: 1.2,
+      rollDiameterMm: 406.4,
+      entryThicknessMm: 76.2,
+      exitThicknessMm: 60,
+      entryWidthMm: 76.2,
+      exitWidthMm: 82,
+      temperatureC: 1100,
+      carbonPct: 0.2,
+      rollSpeedRpm: 75,
+      standMaxForceKn: 1200,
+      frictionFactor: 1.2,
     });
     expect(r.load.forceKn).toBe(load.forceKn);
     expect(r.load.powerRollPairW).toBe(load.powerRollPairW);
     const fw = passFlywheelCheck({
-      massKg: 156800 * KG_PER_LB, radiusOfGyrationM: 9.9 * 0.3048, startSpeedRpm: 75, ratedSpeedRpm: 75, minSpeedFraction: 0.9,
-      rollPowerW: load.powerRollPairW, barExitLengthM: normal.flywheel!.barExitLengthM, rollSurfaceSpeedMPerS: load.rollSurfaceSpeedMPerS,
-      indicatedHp: 650, mechanicalEfficiency: 0.88, baseLoadHp: 60,
+      massKg: 156800 * KG_PER_LB,
+      radiusOfGyrationM: 9.9 * 0.3048,
+      startSpeedRpm: 75,
+      ratedSpeedRpm: 75,
+      minSpeedFraction: 0.9,
+      rollPowerW: load.powerRollPairW,
+      barExitLengthM: normal.flywheel!.barExitLengthM,
+      rollSurfaceSpeedMPerS: load.rollSurfaceSpeedMPerS,
+      indicatedHp: 650,
+      mechanicalEfficiency: 0.88,
+      baseLoadHp: 60,
     });
     expect(r.flywheel!.endSpeedRpm).toBe(fw.endSpeedRpm);
     expect(r.elongation).toBeCloseTo((76.2 * 76.2) / (60 * 82), 12);
@@ -83,7 +105,9 @@ describe('millPassCheck: the pass as a whole', () => {
     const e = math.evaluate('0.5 * 156800 lb * (9.9 ft)^2 * (2 pi * 75 / (60 s))^2').toNumber('J');
     expect(r.flywheel!.storedEnergyJ).toBeCloseTo(e, 0);
     // the speed after the pass satisfies the energy balance ½·I·(ω1² − ω2²) = energy drawn
-    const drawn = math.evaluate(`0.5 * ${r.flywheel!.inertiaKgM2} kg m^2 * ((2 pi * 75 / (60 s))^2 - (2 pi * ${r.flywheel!.endSpeedRpm} / (60 s))^2)`).toNumber('J');
+    const drawn = math
+      .evaluate(`0.5 * ${r.flywheel!.inertiaKgM2} kg m^2 * ((2 pi * 75 / (60 s))^2 - (2 pi * ${r.flywheel!.endSpeedRpm} / (60 s))^2)`)
+      .toNumber('J');
     expect(drawn).toBeCloseTo(r.flywheel!.energyFromFlywheelJ, 3);
   });
 
@@ -121,7 +145,10 @@ describe('millPassCheck: the pass as a whole', () => {
   });
 
   it('a stall and an engine with nothing to spare are reported', () => {
-    const tiny = millPassCheck({ ...overloaded, flywheel: { ...engine, flywheelMassLb: 2000, flywheelRadiusOfGyrationFt: 2, barExitLengthM: 10 } });
+    const tiny = millPassCheck({
+      ...overloaded,
+      flywheel: { ...engine, flywheelMassLb: 2000, flywheelRadiusOfGyrationFt: 2, barExitLengthM: 10 },
+    });
     expect(tiny.warnings.map((w) => w.code)).toContain('stall');
     const weak = millPassCheck({ ...normal, flywheel: { ...normal.flywheel!, indicatedHp: 50 } });
     expect(weak.warnings.map((w) => w.code)).toEqual(['no_surplus_power']);

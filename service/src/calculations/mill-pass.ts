@@ -147,7 +147,8 @@ export function millPassCheck(input: MillPassInput): MillPassResult {
     if (check.recoveryTimeS === null) {
       warnings.push({
         code: 'no_surplus_power',
-        message: 'The engine has no power to spare beyond its base load at this indicated horsepower: it cannot restore the speed between passes.',
+        message:
+          'The engine has no power to spare beyond its base load at this indicated horsepower: it cannot restore the speed between passes.',
       });
     }
   }

@@ -47,7 +47,6 @@ export interface Quote {
   total: number;
 }
 
-
 /** Round money to cents, half away from zero, guarding against binary representation (1.005 → 1.01). */
 export function roundToCents(amount: number): number {
   assertFinite('amount', amount);
@@ -83,7 +82,13 @@ export function buildQuote(input: QuoteInput): Quote {
   const stockTonnes = stockTonnesRequired(input.productTonnes, input.yieldLossFraction);
   const exact: QuoteLine[] = [
     { label: 'Stock', quantity: stockTonnes, unit: 't', rate: input.stockRatePerTonne, amount: stockTonnes * input.stockRatePerTonne },
-    { label: 'Engine time', quantity: input.engineHours, unit: 'h', rate: input.engineRatePerHour, amount: input.engineHours * input.engineRatePerHour },
+    {
+      label: 'Engine time',
+      quantity: input.engineHours,
+      unit: 'h',
+      rate: input.engineRatePerHour,
+      amount: input.engineHours * input.engineRatePerHour,
+    },
     {
       label: `Crew (${input.crewSize})`,
       quantity: input.crewHours * input.crewSize,
@@ -105,7 +110,13 @@ export function buildQuote(input: QuoteInput): Quote {
     stockTonnes,
     lines: exact.map((l) => ({ ...l, amount: roundToCents(l.amount) })),
     subtotal: roundToCents(subtotal),
-    contingency: { label: 'Contingency', quantity: contingencyPct, unit: '%', rate: roundToCents(subtotal), amount: roundToCents(contingency) },
+    contingency: {
+      label: 'Contingency',
+      quantity: contingencyPct,
+      unit: '%',
+      rate: roundToCents(subtotal),
+      amount: roundToCents(contingency),
+    },
     margin: { label: 'Margin', quantity: marginPct, unit: '%', rate: roundToCents(subtotal + contingency), amount: roundToCents(margin) },
     total: roundToCents(total),
   };

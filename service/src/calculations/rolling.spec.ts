@@ -62,7 +62,10 @@ describe('roll force, torque and power', () => {
     expect(r.forceKn / 1000).toBeCloseTo(1.59, 2);
     expect(r.powerRollPairKw).toBeCloseTo(645, 0);
     expect(r.exceedsStandForce).toBe(true);
-    expect(passLoad({ ...kalpakjian, temperatureC: 20, carbonPct: 0, rollSpeedRpm: 100, standMaxForceKn: 1700, meanFlowStressMPa: 180 }).exceedsStandForce).toBe(false);
+    expect(
+      passLoad({ ...kalpakjian, temperatureC: 20, carbonPct: 0, rollSpeedRpm: 100, standMaxForceKn: 1700, meanFlowStressMPa: 180 })
+        .exceedsStandForce,
+    ).toBe(false);
   });
   it('torque per roll is F·L/2 and the pair power is twice torque × ω (Kalpakjian: a = L/2)', () => {
     const r = rollLoad({ contactLengthMm: 40, widthMm: 100, meanFlowStressMPa: 150, rollSpeedRpm: 60 });
@@ -71,7 +74,13 @@ describe('roll force, torque and power', () => {
   });
   it('the ~20 % friction allowance scales force, torque and power (Kalpakjian: increase by about 20 %)', () => {
     const base = rollLoad({ contactLengthMm: 40, widthMm: 100, meanFlowStressMPa: 150, rollSpeedRpm: 60 });
-    const withFriction = rollLoad({ contactLengthMm: 40, widthMm: 100, meanFlowStressMPa: 150, rollSpeedRpm: 60, frictionFactor: TYPICAL_FRICTION_FACTOR });
+    const withFriction = rollLoad({
+      contactLengthMm: 40,
+      widthMm: 100,
+      meanFlowStressMPa: 150,
+      rollSpeedRpm: 60,
+      frictionFactor: TYPICAL_FRICTION_FACTOR,
+    });
     expect(withFriction.forceN / base.forceN).toBeCloseTo(1.2, 12);
     expect(withFriction.powerRollPairW / base.powerRollPairW).toBeCloseTo(1.2, 12);
   });
@@ -87,7 +96,10 @@ describe('roll force, torque and power', () => {
 
 describe('mean flow stress', () => {
   it('power law Y_avg = K·εⁿ/(1 + n): K = 275 MPa, n = 0.15, ε = ln(25/22) → 175.7 MPa (Groover, Fundamentals of Modern Manufacturing, flat rolling example; from memory)', () => {
-    expect(powerLawMeanFlowStressMPa({ strengthCoefficientMPa: 275, hardeningExponent: 0.15, strain: Math.log(25 / 22) })).toBeCloseTo(175.7, 0);
+    expect(powerLawMeanFlowStressMPa({ strengthCoefficientMPa: 275, hardeningExponent: 0.15, strain: Math.log(25 / 22) })).toBeCloseTo(
+      175.7,
+      0,
+    );
   });
 
   // Misaka & Yoshimoto, "Formularization of mean resistance to deformation of plain carbon steels at elevated
@@ -115,7 +127,8 @@ describe('mean flow stress', () => {
     expect(s).toBeLessThan(150);
   });
   it('softer when hotter, harder when faster (Misaka trends)', () => {
-    const at = (t: number, r: number) => misakaMeanFlowStressMPa({ carbonPct: 0.2, temperatureC: t, strain: 0.3, strainRatePerS: r }).flowStressMPa;
+    const at = (t: number, r: number) =>
+      misakaMeanFlowStressMPa({ carbonPct: 0.2, temperatureC: t, strain: 0.3, strainRatePerS: r }).flowStressMPa;
     expect(at(1100, 50)).toBeLessThan(at(900, 50));
     expect(at(1000, 100)).toBeGreaterThan(at(1000, 40));
   });
@@ -148,7 +161,8 @@ describe('strain rate and the complete pass', () => {
     });
     expect(r.flowStressSource).toBe('misaka');
     expect(r.meanFlowStressMPa).toBeCloseTo(
-      misakaMeanFlowStressMPa({ carbonPct: 0.2, temperatureC: 1050, strain: r.trueStrain, strainRatePerS: r.meanStrainRatePerS }).flowStressMPa,
+      misakaMeanFlowStressMPa({ carbonPct: 0.2, temperatureC: 1050, strain: r.trueStrain, strainRatePerS: r.meanStrainRatePerS })
+        .flowStressMPa,
       12,
     );
     expect(r.forceN).toBeCloseTo(r.contactLengthMm * 62 * r.meanFlowStressMPa * 1.2, 6);

@@ -49,7 +49,6 @@ export const MILL_LOAD_CAUTION =
   'and treat these figures as an aid to a qualified crew, never a replacement for the mill\u2019s own limits, ' +
   'local codes or licensed practice.';
 
-
 export interface PassGeometry {
   draftMm: number;
   reduction: number;

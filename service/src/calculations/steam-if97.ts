@@ -39,8 +39,8 @@ export const REGION2_SATURATION_TEMPERATURE_MAX_K = 623.15;
 
 // Table 34: coefficients of the saturation equations 30 and 31.
 const N4 = [
-  0.11670521452767e4, -0.72421316703206e6, -0.17073846940092e2, 0.12020824702470e5, -0.32325550322333e7,
-  0.14915108613530e2, -0.48232657361591e4, 0.40511340542057e6, -0.23855557567849, 0.65017534844798e3,
+  0.11670521452767e4, -0.72421316703206e6, -0.17073846940092e2, 0.1202082470247e5, -0.32325550322333e7, 0.1491510861353e2,
+  -0.48232657361591e4, 0.40511340542057e6, -0.23855557567849, 0.65017534844798e3,
 ] as const;
 const [n1, n2, n3, n4, n5, n6, n7, n8, n9, n10] = N4;
 
@@ -213,8 +213,7 @@ export function steamAccountedForFromSpecificVolumes(input: {
     throw new RangeError('compressionVolumeFt3 must not be negative');
   }
   const steamPerStrokeLb =
-    input.expansionVolumeFt3 / input.expansionSpecificVolumeFt3PerLb -
-    input.compressionVolumeFt3 / input.compressionSpecificVolumeFt3PerLb;
+    input.expansionVolumeFt3 / input.expansionSpecificVolumeFt3PerLb - input.compressionVolumeFt3 / input.compressionSpecificVolumeFt3PerLb;
   const steamPerHourLb = steamPerStrokeLb * input.speedRpm * input.strokesPerRevolution * 60;
   return { steamPerStrokeLb, steamPerHourLb, steamPerIhpHourLb: steamPerHourLb / input.indicatedHorsepower };
 }

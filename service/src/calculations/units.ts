@@ -5,7 +5,7 @@
 /** 1 hp = 33,000 ft·lbf/min (mechanical horsepower). */
 export const FT_LBF_PER_MIN_PER_HP = 33_000;
 /** 1 mechanical hp in watts (exact by definition of the foot, pound and g_n). */
-export const WATTS_PER_HP = 745.699871582270;
+export const WATTS_PER_HP = 745.69987158227;
 /** 1 psi in kilopascals. */
 export const KPA_PER_PSI = 6.894757293168361;
 /** Standard atmosphere in kilopascals. */

@@ -1,6 +1,14 @@
 import { randomUUID } from 'node:crypto';
 import { io, type Socket } from 'socket.io-client';
-import type { ChecklistDetail, ChecklistTemplateContent, ChecklistTemplateDetail, Duty, LiveAck, RunDetail, StartGateVerdict } from '@crankjournal/shared-types';
+import type {
+  ChecklistDetail,
+  ChecklistTemplateContent,
+  ChecklistTemplateDetail,
+  Duty,
+  LiveAck,
+  RunDetail,
+  StartGateVerdict,
+} from '@crankjournal/shared-types';
 import { bearer, type TestApp } from '../utils/test-app.js';
 import type { SignedIn } from './users.factory.js';
 
@@ -8,7 +16,11 @@ const DAY_MS = 86_400_000;
 export const isoDate = (offsetDays: number) => new Date(Date.now() + offsetDays * DAY_MS).toISOString().slice(0, 10);
 
 /** A small engine of the tests' own, with one bearing temperature point that can raise a high-high alarm. */
-export async function createEngine(t: TestApp, chief: SignedIn, opts: { preLubeFreshnessMinutes?: number } = {}): Promise<{ id: string; name: string; pointId: string }> {
+export async function createEngine(
+  t: TestApp,
+  chief: SignedIn,
+  opts: { preLubeFreshnessMinutes?: number } = {},
+): Promise<{ id: string; name: string; pointId: string }> {
   const name = `Test engine ${randomUUID().slice(0, 8)}`;
   const res = await t.http
     .post('/api/engines')
@@ -25,14 +37,32 @@ export async function createEngine(t: TestApp, chief: SignedIn, opts: { preLubeF
       cylinders: [{ label: 'C', role: 'single', boreIn: 20, strokeIn: 40, pistonRodIn: 4, tailRodIn: 0, clearancePercent: 6 }],
       lubricationPoints: [],
       bearings: [],
-      measurementPoints: [{ code: 'MB1-T', label: 'Main bearing temperature', kind: 'bearing_temperature', unit: 'degF', sequence: 1, highLimit: 130, highHighLimit: 145, deadband: 2 }],
+      measurementPoints: [
+        {
+          code: 'MB1-T',
+          label: 'Main bearing temperature',
+          kind: 'bearing_temperature',
+          unit: 'degF',
+          sequence: 1,
+          highLimit: 130,
+          highHighLimit: 145,
+          deadband: 2,
+        },
+      ],
     });
   if (res.status !== 201) throw new Error(`engine not created: ${res.status} ${JSON.stringify(res.body)}`);
   return { id: res.body.id, name, pointId: res.body.measurementPoints[0].id };
 }
 
 /** Grants qualifications through the API as the chief engineer (dates relative to today). */
-export async function grant(t: TestApp, chief: SignedIn, userId: string, engineId: string, duties: Duty[], dates: { from?: number; to?: number } = {}) {
+export async function grant(
+  t: TestApp,
+  chief: SignedIn,
+  userId: string,
+  engineId: string,
+  duties: Duty[],
+  dates: { from?: number; to?: number } = {},
+) {
   const out: string[] = [];
   for (const duty of duties) {
     const res = await t.http
@@ -72,7 +102,16 @@ export const PRE_LUBE: ChecklistTemplateContent = {
       title: 'Lines',
       items: [
         { key: 'valves', kind: 'tick', label: 'Line valves open', required: true },
-        { key: 'pressure', kind: 'reading', label: 'Pre-lube line pressure', required: true, unit: 'psig', min: 15, max: 30, caution: { hazard: 'pressure', text: 'Lines under pressure while the pump runs.' } },
+        {
+          key: 'pressure',
+          kind: 'reading',
+          label: 'Pre-lube line pressure',
+          required: true,
+          unit: 'psig',
+          min: 15,
+          max: 30,
+          caution: { hazard: 'pressure', text: 'Lines under pressure while the pump runs.' },
+        },
         { key: 'photo', kind: 'photo', label: 'Gauge photo', required: false },
       ],
     },
@@ -90,7 +129,14 @@ export const INSPECTION: ChecklistTemplateContent = {
       title: 'Round the engine',
       items: [
         { key: 'guards', kind: 'tick', label: 'Guards in place', required: true },
-        { key: 'barring', kind: 'choice', label: 'Barring gear', required: true, choices: ['Out and locked', 'Engaged'], acceptable: ['Out and locked'] },
+        {
+          key: 'barring',
+          kind: 'choice',
+          label: 'Barring gear',
+          required: true,
+          choices: ['Out and locked', 'Engaged'],
+          acceptable: ['Out and locked'],
+        },
         { key: 'remarks', kind: 'note', label: 'Remarks', required: false },
       ],
     },
@@ -105,19 +151,36 @@ export const SHUTDOWN: ChecklistTemplateContent = {
   sections: [{ key: 'stop', title: 'Stop', items: [{ key: 'locked', kind: 'tick', label: 'Stop valve locked', required: true }] }],
 };
 
-export async function createTemplate(t: TestApp, chief: SignedIn, engineId: string, content: ChecklistTemplateContent): Promise<ChecklistTemplateDetail> {
-  const res = await t.http.post('/api/checklist-templates').set('Authorization', bearer(chief.accessToken)).send({ ...content, engineId, publish: true });
+export async function createTemplate(
+  t: TestApp,
+  chief: SignedIn,
+  engineId: string,
+  content: ChecklistTemplateContent,
+): Promise<ChecklistTemplateDetail> {
+  const res = await t.http
+    .post('/api/checklist-templates')
+    .set('Authorization', bearer(chief.accessToken))
+    .send({ ...content, engineId, publish: true });
   if (res.status !== 201) throw new Error(`template not created: ${res.status} ${JSON.stringify(res.body)}`);
   return res.body;
 }
 
 /** A new run of the engine, moved to preparing; any other open run of the engine is set aside first (test set-up only). */
 export async function preparingRun(t: TestApp, by: SignedIn, engineId: string): Promise<RunDetail> {
-  await t.db.query(`UPDATE runs SET state = 'abandoned', abandoned_reason = 'test set-up' WHERE engine_id = $1 AND state NOT IN ('closed', 'abandoned')`, [engineId]);
+  await t.db.query(
+    `UPDATE runs SET state = 'abandoned', abandoned_reason = 'test set-up' WHERE engine_id = $1 AND state NOT IN ('closed', 'abandoned')`,
+    [engineId],
+  );
   await t.db.query(`UPDATE engines SET active_run_id = NULL WHERE id = $1`, [engineId]);
-  const created = await t.http.post('/api/runs').set('Authorization', bearer(by.accessToken)).send({ engineId, purpose: 'test', title: `Test run ${randomUUID().slice(0, 6)}` });
+  const created = await t.http
+    .post('/api/runs')
+    .set('Authorization', bearer(by.accessToken))
+    .send({ engineId, purpose: 'test', title: `Test run ${randomUUID().slice(0, 6)}` });
   if (created.status !== 201) throw new Error(`run not created: ${created.status} ${JSON.stringify(created.body)}`);
-  const moved = await t.http.post(`/api/runs/${created.body.id}/transitions`).set('Authorization', bearer(by.accessToken)).send({ to: 'preparing' });
+  const moved = await t.http
+    .post(`/api/runs/${created.body.id}/transitions`)
+    .set('Authorization', bearer(by.accessToken))
+    .send({ to: 'preparing' });
   if (moved.status !== 200) throw new Error(`run not prepared: ${moved.status} ${JSON.stringify(moved.body)}`);
   return moved.body;
 }
@@ -146,7 +209,13 @@ export const GOOD: Record<string, Record<string, unknown>> = {
 };
 
 /** Starts, fills with good values and signs a checklist; returns it signed. */
-export async function completeChecklist(t: TestApp, by: SignedIn, runId: string, templateId: string, signer: SignedIn = by): Promise<ChecklistDetail> {
+export async function completeChecklist(
+  t: TestApp,
+  by: SignedIn,
+  runId: string,
+  templateId: string,
+  signer: SignedIn = by,
+): Promise<ChecklistDetail> {
   const c = await startChecklist(t, by, runId, templateId);
   for (const e of c.entries) {
     const v = GOOD[e.itemKey];
@@ -160,13 +229,25 @@ export async function completeChecklist(t: TestApp, by: SignedIn, runId: string,
 }
 
 /** Starts a run through the REST route; returns status and body. */
-export async function startByRest(t: TestApp, by: SignedIn, runId: string): Promise<{ status: number; verdict: StartGateVerdict | null; run: RunDetail | null }> {
+export async function startByRest(
+  t: TestApp,
+  by: SignedIn,
+  runId: string,
+): Promise<{ status: number; verdict: StartGateVerdict | null; run: RunDetail | null }> {
   const res = await t.http.post(`/api/runs/${runId}/transitions`).set('Authorization', bearer(by.accessToken)).send({ to: 'running' });
-  return { status: res.status, verdict: res.status === 409 ? (res.body.details as StartGateVerdict) : null, run: res.status === 200 ? res.body : null };
+  return {
+    status: res.status,
+    verdict: res.status === 409 ? (res.body.details as StartGateVerdict) : null,
+    run: res.status === 200 ? res.body : null,
+  };
 }
 
 /** Starts a run through the live channel's 'run:start' event; returns the same shape as startByRest. */
-export async function startBySocket(t: TestApp, by: SignedIn, runId: string): Promise<{ status: number; verdict: StartGateVerdict | null; run: RunDetail | null }> {
+export async function startBySocket(
+  t: TestApp,
+  by: SignedIn,
+  runId: string,
+): Promise<{ status: number; verdict: StartGateVerdict | null; run: RunDetail | null }> {
   const s: Socket = io(t.url, { transports: ['websocket'], reconnection: false, forceNew: true, auth: { token: by.accessToken } });
   try {
     await new Promise<void>((resolve, reject) => {

@@ -15,11 +15,45 @@ export function engineBody(name = `Test engine ${randomUUID().slice(0, 8)}`): En
     preLubeFreshnessMinutes: 30,
     cylinders: [{ label: 'C1', role: 'single', boreIn: 20, strokeIn: 36, pistonRodIn: 4, tailRodIn: 0, clearancePercent: 6 }],
     lubricationPoints: [{ label: 'Main line', kind: 'pressure_line', oilGrade: 'ISO VG 150' }],
-    bearings: [{ label: 'Main', kind: 'main', journalDiameterIn: 12, journalLengthIn: 18, loadSharePercent: 100, lubricationPointLabel: 'Main line' }],
+    bearings: [
+      {
+        label: 'Main',
+        kind: 'main',
+        journalDiameterIn: 12,
+        journalLengthIn: 18,
+        loadSharePercent: 100,
+        lubricationPointLabel: 'Main line',
+      },
+    ],
     measurementPoints: [
-      { code: 'THR', label: 'Throttle', kind: 'throttle_pressure', unit: 'psig', sequence: 1, normalLow: 100, normalHigh: 140, highLimit: 145, highHighLimit: 148, deadband: 2 },
+      {
+        code: 'THR',
+        label: 'Throttle',
+        kind: 'throttle_pressure',
+        unit: 'psig',
+        sequence: 1,
+        normalLow: 100,
+        normalHigh: 140,
+        highLimit: 145,
+        highHighLimit: 148,
+        deadband: 2,
+      },
       { code: 'SPD', label: 'Speed', kind: 'speed', unit: 'rpm', sequence: 2, normalLow: 70, normalHigh: 76, highLimit: 78, deadband: 0.5 },
-      { code: 'MB', label: 'Main bearing', kind: 'bearing_temperature', unit: 'degF', sequence: 3, normalLow: 60, normalHigh: 115, highLimit: 130, highHighLimit: 145, maxRiseRatePerMin: 2, maxRiseAboveAmbient: 60, deadband: 2, bearingLabel: 'Main' },
+      {
+        code: 'MB',
+        label: 'Main bearing',
+        kind: 'bearing_temperature',
+        unit: 'degF',
+        sequence: 3,
+        normalLow: 60,
+        normalHigh: 115,
+        highLimit: 130,
+        highHighLimit: 145,
+        maxRiseRatePerMin: 2,
+        maxRiseAboveAmbient: 60,
+        deadband: 2,
+        bearingLabel: 'Main',
+      },
       { code: 'AMB', label: 'Ambient', kind: 'ambient_temperature', unit: 'degF', sequence: 4 },
     ],
   };
@@ -33,11 +67,19 @@ export async function createEngine(t: TestApp, chiefToken: string, body = engine
 
 /** A run in `preparing` (readings are taken from preparation on). */
 export async function createPreparingRun(t: TestApp, token: string, engineId: string): Promise<RunDetail> {
-  const res = await t.http.post('/api/runs').set('authorization', bearer(token)).send({ engineId, purpose: 'test', title: `Run ${randomUUID().slice(0, 6)}` });
+  const res = await t.http
+    .post('/api/runs')
+    .set('authorization', bearer(token))
+    .send({ engineId, purpose: 'test', title: `Run ${randomUUID().slice(0, 6)}` });
   if (res.status !== 201) throw new Error(`run not created: ${res.status} ${JSON.stringify(res.body)}`);
   const prep = await t.http.post(`/api/runs/${res.body.id}/transitions`).set('authorization', bearer(token)).send({ to: 'preparing' });
   if (prep.status !== 200) throw new Error(`run not preparing: ${prep.status} ${JSON.stringify(prep.body)}`);
   return prep.body as RunDetail;
 }
 
-export const reading = (pointId: string, value: number, takenAt = new Date()) => ({ clientId: randomUUID(), pointId, value, takenAt: takenAt.toISOString() });
+export const reading = (pointId: string, value: number, takenAt = new Date()) => ({
+  clientId: randomUUID(),
+  pointId,
+  value,
+  takenAt: takenAt.toISOString(),
+});

@@ -17,7 +17,13 @@ export interface SyntheticRun {
  * bearing, ambient and speed points every 15 minutes. Returns the run's id. The engine's recorded hours and
  * revolutions are increased as the run log does when a run stops.
  */
-export async function insertClosedRun(t: TestApp, engine: EngineDetail, createdBy: string, r: SyntheticRun, codes = { bearing: 'MB', ambient: 'AMB', speed: 'SPD' }): Promise<string> {
+export async function insertClosedRun(
+  t: TestApp,
+  engine: EngineDetail,
+  createdBy: string,
+  r: SyntheticRun,
+  codes = { bearing: 'MB', ambient: 'AMB', speed: 'SPD' },
+): Promise<string> {
   const point = (code: string) => engine.measurementPoints.find((p) => p.code === code)!;
   const id = randomUUID();
   const stoppedAt = new Date(r.startedAt.getTime() + r.hours * 3600_000);
@@ -41,13 +47,17 @@ export async function insertClosedRun(t: TestApp, engine: EngineDetail, createdB
       [randomUUID(), id, engine.id, p.id, value, p.unit, at],
     );
   }
-  await t.db.query(`UPDATE engines SET recorded_hours = recorded_hours + $2, recorded_revolutions = recorded_revolutions + $3 WHERE id = $1`, [engine.id, r.hours, revolutions]);
+  await t.db.query(
+    `UPDATE engines SET recorded_hours = recorded_hours + $2, recorded_revolutions = recorded_revolutions + $3 WHERE id = $1`,
+    [engine.id, r.hours, revolutions],
+  );
   return id;
 }
 
 /** A valid 1 × 1 PNG (signature, IHDR, IDAT, IEND). */
 export const TINY_PNG = Buffer.from(
-  '89504e470d0a1a0a0000000d4948445200000001000000010806000000' + '1f15c4890000000d49444154789c6360000002000185d78fe90000000049454e44ae426082',
+  '89504e470d0a1a0a0000000d4948445200000001000000010806000000' +
+    '1f15c4890000000d49444154789c6360000002000185d78fe90000000049454e44ae426082',
   'hex',
 );
 /** The start of a PDF file (what a reader and a content sniffer look at first). */

@@ -5,7 +5,11 @@ import { createEngine, engineBody } from './engine.factory.js';
 
 /** A test engine with a flywheel (the demo engine's invented figures: 156,800 lb at k = 9.9 ft, 75 rpm). */
 export function millEngine(t: TestApp, chiefToken: string): Promise<EngineDetail> {
-  return createEngine(t, chiefToken, { ...engineBody(`Mill test engine ${randomUUID().slice(0, 8)}`), flywheelMassLb: 156800, flywheelRadiusOfGyrationFt: 9.9 });
+  return createEngine(t, chiefToken, {
+    ...engineBody(`Mill test engine ${randomUUID().slice(0, 8)}`),
+    flywheelMassLb: 156800,
+    flywheelRadiusOfGyrationFt: 9.9,
+  });
 }
 
 /** A three-stand 16 in mill with round-number quote rates. Test data, not demo data. */
@@ -67,7 +71,10 @@ export function scheduleBody(millId: string, isTemplate = true): ScheduleWriteRe
 
 /** A planned run of the engine. */
 export async function createRun(t: TestApp, token: string, engineId: string): Promise<RunDetail> {
-  const res = await t.http.post('/api/runs').set('authorization', bearer(token)).send({ engineId, purpose: 'production_lot', title: `Mill run ${randomUUID().slice(0, 6)}` });
+  const res = await t.http
+    .post('/api/runs')
+    .set('authorization', bearer(token))
+    .send({ engineId, purpose: 'production_lot', title: `Mill run ${randomUUID().slice(0, 6)}` });
   if (res.status !== 201) throw new Error(`run not created: ${res.status} ${JSON.stringify(res.body)}`);
   return res.body as RunDetail;
 }
@@ -76,7 +83,12 @@ export async function createRun(t: TestApp, token: string, engineId: string): Pr
  * Test-only: puts a run straight into a state in the database. The start gate (checklists, qualifications,
  * alarms) has its own tests; these tests are about the mill's rule of when passes may be logged.
  */
-export async function forceRunState(t: TestApp, runId: string, state: 'running' | 'stopped' | 'closed', startedMinutesAgo = 60): Promise<void> {
+export async function forceRunState(
+  t: TestApp,
+  runId: string,
+  state: 'running' | 'stopped' | 'closed',
+  startedMinutesAgo = 60,
+): Promise<void> {
   await t.db.query(
     `UPDATE runs SET state = $2::varchar, started_at = now() - make_interval(mins => $3::int),
             stopped_at = CASE WHEN $2::varchar IN ('stopped', 'closed') THEN now() ELSE NULL END,

@@ -9,14 +9,27 @@ import { mkdtempSync, readFileSync, rmSync, statSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { promisify } from 'node:util';
-import { databaseExists, databaseName, dropDatabase, freshDatabase, repoRoot, serviceDir, siblingDatabaseUrl, withClient } from './support/env.js';
+import {
+  databaseExists,
+  databaseName,
+  dropDatabase,
+  freshDatabase,
+  repoRoot,
+  serviceDir,
+  siblingDatabaseUrl,
+  withClient,
+} from './support/env.js';
 import { diffSnapshots, snapshot, type Snapshot } from './support/db-snapshot.js';
 
 const run = promisify(execFile);
 
 async function script(name: string, args: string[]): Promise<{ code: number; stdout: string; stderr: string }> {
   try {
-    const { stdout, stderr } = await run('bash', [join(repoRoot(), 'ops', name), ...args], { cwd: repoRoot(), env: { ...process.env, NODE_OPTIONS: '' }, maxBuffer: 16 * 1024 * 1024 });
+    const { stdout, stderr } = await run('bash', [join(repoRoot(), 'ops', name), ...args], {
+      cwd: repoRoot(),
+      env: { ...process.env, NODE_OPTIONS: '' },
+      maxBuffer: 16 * 1024 * 1024,
+    });
     return { code: 0, stdout, stderr };
   } catch (e) {
     const x = e as { code?: number; stdout?: string; stderr?: string };
@@ -24,7 +37,8 @@ async function script(name: string, args: string[]): Promise<{ code: number; std
   }
 }
 const lastLine = (s: string) => s.trim().split('\n').pop()!.trim();
-const fingerprint = (url: string): Promise<Snapshot> => withClient(url, (c) => snapshot(async (sql, params) => (await c.query(sql, params)).rows));
+const fingerprint = (url: string): Promise<Snapshot> =>
+  withClient(url, (c) => snapshot(async (sql, params) => (await c.query(sql, params)).rows));
 const urlOf = (name: string, like: string) => {
   const u = new URL(like);
   u.pathname = `/${name}`;
@@ -44,7 +58,11 @@ describe('backup and restore of the demo data (ops/backup.sh, ops/restore.sh)', 
     await dropDatabase(target);
     const env = { ...process.env, NODE_OPTIONS: '', DATABASE_URL: source };
     await run(process.execPath, [join(serviceDir(), 'dist', 'database', 'migrate.js')], { cwd: serviceDir(), env });
-    await run(process.execPath, [join(serviceDir(), 'dist', 'database', 'seeds', 'run-seed.js')], { cwd: serviceDir(), env, maxBuffer: 16 * 1024 * 1024 });
+    await run(process.execPath, [join(serviceDir(), 'dist', 'database', 'seeds', 'run-seed.js')], {
+      cwd: serviceDir(),
+      env,
+      maxBuffer: 16 * 1024 * 1024,
+    });
     original = await fingerprint(source);
   }, 240_000);
 
@@ -55,7 +73,8 @@ describe('backup and restore of the demo data (ops/backup.sh, ops/restore.sh)', 
 
   it('backs up the seeded demo database to a pg_dump custom-format file', async () => {
     // The demo data is there to be backed up.
-    for (const table of ['users', 'engines', 'runs', 'readings', 'alarms', 'measurement_points']) expect(original[table]?.rows).toBeGreaterThan(0);
+    for (const table of ['users', 'engines', 'runs', 'readings', 'alarms', 'measurement_points'])
+      expect(original[table]?.rows).toBeGreaterThan(0);
     const r = await script('backup.sh', ['--database-url', source, '--out', outDir]);
     expect(r).toMatchObject({ code: 0 });
     dump = lastLine(r.stdout);

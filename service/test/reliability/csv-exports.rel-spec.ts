@@ -22,7 +22,11 @@ const t = await startTestApp();
 const s = await sessionsForEveryRole(t.db);
 
 async function api(method: string, path: string, token: string, body?: unknown): Promise<any> {
-  const res = await fetch(`${t.url}${path}`, { method, headers: { authorization: `Bearer ${token}`, 'content-type': 'application/json' }, body: body === undefined ? undefined : JSON.stringify(body) });
+  const res = await fetch(`${t.url}${path}`, {
+    method,
+    headers: { authorization: `Bearer ${token}`, 'content-type': 'application/json' },
+    body: body === undefined ? undefined : JSON.stringify(body),
+  });
   const json = await res.json().catch(() => null);
   if (res.status >= 300) throw new Error(`${method} ${path}: ${res.status} ${JSON.stringify(json)}`);
   return json;
@@ -32,7 +36,11 @@ async function api(method: string, path: string, token: string, body?: unknown):
 async function formulaEngine(): Promise<EngineDetail> {
   const body = engineBody(`Export engine ${randomUUID().slice(0, 6)}`);
   body.bearings[0].label = FORMULAS[3];
-  body.measurementPoints = body.measurementPoints.map((p, i) => ({ ...p, label: FORMULAS[i % FORMULAS.length], ...(p.bearingLabel ? { bearingLabel: FORMULAS[3] } : {}) }));
+  body.measurementPoints = body.measurementPoints.map((p, i) => ({
+    ...p,
+    label: FORMULAS[i % FORMULAS.length],
+    ...(p.bearingLabel ? { bearingLabel: FORMULAS[3] } : {}),
+  }));
   return api('POST', '/api/engines', s.chief_engineer.token, body);
 }
 
@@ -46,7 +54,12 @@ const FIXTURES: Record<string, Fixture> = {
     const run = await api('POST', '/api/runs', op, { engineId: engine.id, purpose: 'test', title: FORMULAS[0], notes: FORMULAS[1] });
     await api('POST', `/api/runs/${run.id}/transitions`, op, { to: 'preparing', note: FORMULAS[2] });
     const thr = engine.measurementPoints.find((p) => p.code === 'THR')!.id;
-    const readings = [120, 121, 122, 123, 124].map((value) => ({ clientId: randomUUID(), pointId: thr, value, takenAt: new Date().toISOString() }));
+    const readings = [120, 121, 122, 123, 124].map((value) => ({
+      clientId: randomUUID(),
+      pointId: thr,
+      value,
+      takenAt: new Date().toISOString(),
+    }));
     // A negative gauge reading: a number, which stays a number.
     readings.push({ clientId: randomUUID(), pointId: thr, value: -5, takenAt: new Date().toISOString() });
     await api('POST', `/api/runs/${run.id}/rounds`, op, { takenAt: new Date().toISOString(), readings, note: FORMULAS[3] });
@@ -60,8 +73,20 @@ const FIXTURES: Record<string, Fixture> = {
     const engine = await formulaEngine();
     const lead = s.maintenance_lead.token;
     const bearingId = engine.bearings[0].id!;
-    await api('POST', '/api/maintenance/inspections', lead, { engineId: engine.id, bearingId, kind: INSPECTION_KINDS[0], title: FORMULAS[0], inspectedAt: new Date().toISOString(), findings: FORMULAS[1] });
-    await api('POST', '/api/maintenance/work-records', lead, { engineId: engine.id, bearingId, title: FORMULAS[4], performedBy: FORMULAS[2] });
+    await api('POST', '/api/maintenance/inspections', lead, {
+      engineId: engine.id,
+      bearingId,
+      kind: INSPECTION_KINDS[0],
+      title: FORMULAS[0],
+      inspectedAt: new Date().toISOString(),
+      findings: FORMULAS[1],
+    });
+    await api('POST', '/api/maintenance/work-records', lead, {
+      engineId: engine.id,
+      bearingId,
+      title: FORMULAS[4],
+      performedBy: FORMULAS[2],
+    });
     return { path: `/api/maintenance/bearings/${bearingId}/history.csv`, planted: [FORMULAS[0], FORMULAS[4]] };
   },
 };
@@ -79,7 +104,10 @@ describe('CSV exports neutralise formula text', () => {
 
   it.each(csvRoutes.map((r) => r.key))('%s', async (key) => {
     const fixture = FIXTURES[key];
-    if (!fixture) throw new Error(`${key} serves a CSV but test/reliability/csv-exports.rel-spec.ts has no fixture for it: add one to FIXTURES that puts text beginning with =, +, - or @ into what it exports`);
+    if (!fixture)
+      throw new Error(
+        `${key} serves a CSV but test/reliability/csv-exports.rel-spec.ts has no fixture for it: add one to FIXTURES that puts text beginning with =, +, - or @ into what it exports`,
+      );
     const { path, planted } = await fixture();
     const res = await fetch(`${t.url}${concretePath(path)}`, { headers: { authorization: `Bearer ${s.observer.token}` } });
     expect(res.status).toBe(200);

@@ -78,7 +78,10 @@ describe('no loss, no doubles: 10,000 readings from five clients while the servi
 
   beforeAll(async () => {
     await freshDatabase(dbUrl);
-    await runFile(process.execPath, [join(serviceDir(), 'dist', 'database', 'migrate.js')], { cwd: serviceDir(), env: { ...process.env, NODE_OPTIONS: '', DATABASE_URL: dbUrl } });
+    await runFile(process.execPath, [join(serviceDir(), 'dist', 'database', 'migrate.js')], {
+      cwd: serviceDir(),
+      env: { ...process.env, NODE_OPTIONS: '', DATABASE_URL: dbUrl },
+    });
     svc = new ServiceProcess({ databaseUrl: dbUrl, port: await freePort() });
     await svc.start();
   }, 180_000);
@@ -92,14 +95,24 @@ describe('no loss, no doubles: 10,000 readings from five clients while the servi
     // People (straight into the database; tokens signed like the service signs them).
     const people = await withClient(dbUrl, async (c) => {
       const add = async (role: string) =>
-        (await c.query(`INSERT INTO users (email, display_name, role, active) VALUES ($1, $2, $3, true) RETURNING id`, [`${role}-${randomUUID()}@e2e.crankjournal.test`, `Reliability ${role}`, role])).rows[0].id as string;
+        (
+          await c.query(`INSERT INTO users (email, display_name, role, active) VALUES ($1, $2, $3, true) RETURNING id`, [
+            `${role}-${randomUUID()}@e2e.crankjournal.test`,
+            `Reliability ${role}`,
+            role,
+          ])
+        ).rows[0].id as string;
       return { chief: await add('chief_engineer'), operator: await add('operator'), admin: await add('administrator') };
     });
     const chief = await accessToken(people.chief, 'chief_engineer', 7200);
     const operator = await accessToken(people.operator, 'operator', 7200);
     const admin = await accessToken(people.admin, 'administrator', 7200);
     const api = async (method: string, path: string, token: string, body?: unknown): Promise<any> => {
-      const res = await fetch(`${svc.url}${path}`, { method, headers: { authorization: `Bearer ${token}`, 'content-type': 'application/json' }, body: body === undefined ? undefined : JSON.stringify(body) });
+      const res = await fetch(`${svc.url}${path}`, {
+        method,
+        headers: { authorization: `Bearer ${token}`, 'content-type': 'application/json' },
+        body: body === undefined ? undefined : JSON.stringify(body),
+      });
       const json = await res.json().catch(() => null);
       if (res.status >= 300) throw new Error(`${method} ${path}: ${res.status} ${JSON.stringify(json)}`);
       return json;
@@ -107,18 +120,40 @@ describe('no loss, no doubles: 10,000 readings from five clients while the servi
 
     // One engine, run and logger key per client.
     let clientsDone = false;
-    const clients: { engineId: string; runId: string; loggerKey: string; series: Reading[]; expected: ReturnType<typeof expectedEvents> }[] = [];
+    const clients: {
+      engineId: string;
+      runId: string;
+      loggerKey: string;
+      series: Reading[];
+      expected: ReturnType<typeof expectedEvents>;
+    }[] = [];
     const start = Date.now() - 3 * 3600_000;
     for (let c = 0; c < CLIENTS; c++) {
       const body = engineBody(`Reliability engine ${c + 1} ${randomUUID().slice(0, 6)}`);
-      body.measurementPoints = [{ code: 'OILP', label: 'Main oil pressure', kind: 'oil_pressure', unit: 'psig', sequence: 1, highLimit: HIGH_LIMIT, deadband: DEADBAND }];
+      body.measurementPoints = [
+        {
+          code: 'OILP',
+          label: 'Main oil pressure',
+          kind: 'oil_pressure',
+          unit: 'psig',
+          sequence: 1,
+          highLimit: HIGH_LIMIT,
+          deadband: DEADBAND,
+        },
+      ];
       const engine = await api('POST', '/api/engines', chief, body);
       const run = await api('POST', '/api/runs', operator, { engineId: engine.id, purpose: 'test', title: `Crash test ${c + 1}` });
       await api('POST', `/api/runs/${run.id}/transitions`, operator, { to: 'preparing' });
       const logger = await api('POST', '/api/loggers', admin, { engineId: engine.id, name: `Crash test logger ${c + 1}` });
       // The operator answers alarms on this engine (the qualifications module asks for the start-and-run duty).
       const today = new Date().toISOString().slice(0, 10);
-      await api('POST', '/api/qualifications', chief, { userId: people.operator, engineId: engine.id, duty: 'start_and_run', grantedOn: today, expiresOn: new Date(Date.now() + 300 * 86_400_000).toISOString().slice(0, 10) });
+      await api('POST', '/api/qualifications', chief, {
+        userId: people.operator,
+        engineId: engine.id,
+        duty: 'start_and_run',
+        grantedOn: today,
+        expiresOn: new Date(Date.now() + 300 * 86_400_000).toISOString().slice(0, 10),
+      });
       const random = prng(1000 + c);
       const series: Reading[] = Array.from({ length: READINGS_PER_CLIENT }, (_x, i) => ({
         clientId: randomUUID(),
@@ -126,7 +161,13 @@ describe('no loss, no doubles: 10,000 readings from five clients while the servi
         value: LEVELS[Math.floor(random() * LEVELS.length)],
         takenAt: new Date(start + c * 7 + i * 1000).toISOString(),
       }));
-      clients.push({ engineId: engine.id as string, runId: run.id as string, loggerKey: logger.key as string, series, expected: expectedEvents(series) });
+      clients.push({
+        engineId: engine.id as string,
+        runId: run.id as string,
+        loggerKey: logger.key as string,
+        series,
+        expected: expectedEvents(series),
+      });
     }
     const total = CLIENTS * READINGS_PER_CLIENT;
     const expectedRaises = clients.reduce((n, c) => n + c.expected.raises.length, 0);
@@ -134,10 +175,20 @@ describe('no loss, no doubles: 10,000 readings from five clients while the servi
 
     // The clients: each sends its batches in order, and a batch again until it is acknowledged.
     let acked = 0;
-    const stats = { requests: 0, retries: 0, duplicatesReported: 0, byChannel: { live: 0, logger: 0, round: 0 } as Record<Channel, number> };
+    const stats = {
+      requests: 0,
+      retries: 0,
+      duplicatesReported: 0,
+      byChannel: { live: 0, logger: 0, round: 0 } as Record<Channel, number>,
+    };
     const sockets: Socket[] = [];
 
-    async function send(c: (typeof clients)[number], socket: Socket, channel: Channel, batch: Reading[]): Promise<{ stored: number; duplicates: number } | null> {
+    async function send(
+      c: (typeof clients)[number],
+      socket: Socket,
+      channel: Channel,
+      batch: Reading[],
+    ): Promise<{ stored: number; duplicates: number } | null> {
       stats.requests++;
       try {
         if (channel === 'live') {
@@ -151,7 +202,12 @@ describe('no loss, no doubles: 10,000 readings from five clients while the servi
           channel === 'logger'
             ? ['/api/logger/readings', { 'x-logger-key': c.loggerKey }, { runId: c.runId, readings: batch }]
             : [`/api/runs/${c.runId}/rounds`, { authorization: `Bearer ${operator}` }, { takenAt: batch[0].takenAt, readings: batch }];
-        const res = await fetch(`${svc.url}${path}`, { method: 'POST', headers: { ...headers, 'content-type': 'application/json' }, body: JSON.stringify(body), signal: AbortSignal.timeout(ACK_TIMEOUT_MS) });
+        const res = await fetch(`${svc.url}${path}`, {
+          method: 'POST',
+          headers: { ...headers, 'content-type': 'application/json' },
+          body: JSON.stringify(body),
+          signal: AbortSignal.timeout(ACK_TIMEOUT_MS),
+        });
         const json = await res.json().catch(() => null);
         if (res.status === 201) return json as { stored: number; duplicates: number };
         if (res.status < 500) throw new Error(`${channel} batch refused: ${res.status} ${JSON.stringify(json)}`);
@@ -164,7 +220,13 @@ describe('no loss, no doubles: 10,000 readings from five clients while the servi
 
     async function client(index: number) {
       const c = clients[index];
-      const socket = io(svc.url, { transports: ['websocket'], auth: { token: operator }, reconnectionDelay: 100, reconnectionDelayMax: 500, forceNew: true });
+      const socket = io(svc.url, {
+        transports: ['websocket'],
+        auth: { token: operator },
+        reconnectionDelay: 100,
+        reconnectionDelayMax: 500,
+        forceNew: true,
+      });
       sockets.push(socket);
       for (let b = 0; b * BATCH < c.series.length; b++) {
         const batch = c.series.slice(b * BATCH, (b + 1) * BATCH);
@@ -207,11 +269,18 @@ describe('no loss, no doubles: 10,000 readings from five clients while the servi
       while (!clientsDone) {
         for (const c of clients) {
           try {
-            const res = await fetch(`${svc.url}/api/alarms?engineId=${c.engineId}&open=true`, { headers: { authorization: `Bearer ${operator}` }, signal: AbortSignal.timeout(ACK_TIMEOUT_MS) });
+            const res = await fetch(`${svc.url}/api/alarms?engineId=${c.engineId}&open=true`, {
+              headers: { authorization: `Bearer ${operator}` },
+              signal: AbortSignal.timeout(ACK_TIMEOUT_MS),
+            });
             if (res.status !== 200) continue;
             for (const a of (await res.json()) as { id: string; state: string }[]) {
               if (a.state !== 'active_unacknowledged' && a.state !== 'returned_unacknowledged') continue;
-              const r = await fetch(`${svc.url}/api/alarms/${a.id}/acknowledge`, { method: 'POST', headers: { authorization: `Bearer ${operator}` }, signal: AbortSignal.timeout(ACK_TIMEOUT_MS) });
+              const r = await fetch(`${svc.url}/api/alarms/${a.id}/acknowledge`, {
+                method: 'POST',
+                headers: { authorization: `Bearer ${operator}` },
+                signal: AbortSignal.timeout(ACK_TIMEOUT_MS),
+              });
               if (r.status === 200) acknowledgements++;
             }
           } catch {
@@ -239,7 +308,9 @@ describe('no loss, no doubles: 10,000 readings from five clients while the servi
     try {
       // allSettled, then the first failure: every client has stopped before the checks or the clean-up.
       const outcomes = await Promise.allSettled(clients.map((_c, i) => client(i).catch((e) => ((clientsDone = true), Promise.reject(e)))));
-      const failed = outcomes.find((o): o is PromiseRejectedResult => o.status === 'rejected' && !String(o.reason?.message).includes('another client failed'));
+      const failed = outcomes.find(
+        (o): o is PromiseRejectedResult => o.status === 'rejected' && !String(o.reason?.message).includes('another client failed'),
+      );
       if (failed) throw failed.reason;
     } finally {
       clientsDone = true;
@@ -258,10 +329,12 @@ describe('no loss, no doubles: 10,000 readings from five clients while the servi
 
     // Every reading stored exactly once.
     await withClient(dbUrl, async (db) => {
-      const [{ n, distinct }] = (await db.query(`SELECT count(*)::int AS n, count(DISTINCT client_id)::int AS distinct FROM readings`)).rows;
+      const [{ n, distinct }] = (await db.query(`SELECT count(*)::int AS n, count(DISTINCT client_id)::int AS distinct FROM readings`))
+        .rows;
       expect({ n, distinct }).toEqual({ n: total, distinct: total });
       for (const c of clients) {
-        const rows = (await db.query(`SELECT client_id, value, taken_at FROM readings WHERE run_id = $1 ORDER BY taken_at`, [c.runId])).rows as { client_id: string; value: number; taken_at: Date }[];
+        const rows = (await db.query(`SELECT client_id, value, taken_at FROM readings WHERE run_id = $1 ORDER BY taken_at`, [c.runId]))
+          .rows as { client_id: string; value: number; taken_at: Date }[];
         expect(rows.map((r) => r.client_id)).toEqual(c.series.map((r) => r.clientId));
         expect(rows.map((r) => Number(r.value))).toEqual(c.series.map((r) => r.value));
       }
@@ -269,11 +342,13 @@ describe('no loss, no doubles: 10,000 readings from five clients while the servi
       // Every crossing raised exactly one alarm event (a raise, or a reactivation of an alarm not yet
       // acknowledged), at the reading that crossed; every return to normal likewise.
       for (const c of clients) {
-        const events = (await db.query(
-          `SELECT e.alarm_id, e.event, e.from_state, e.to_state, e.at FROM alarm_events e JOIN alarms a ON a.id = e.alarm_id
+        const events = (
+          await db.query(
+            `SELECT e.alarm_id, e.event, e.from_state, e.to_state, e.at FROM alarm_events e JOIN alarms a ON a.id = e.alarm_id
             WHERE a.engine_id = $1 AND e.event IN ('raise', 'reactivate', 'return_to_normal') ORDER BY e.at, e.event`,
-          [c.engineId],
-        )).rows as { alarm_id: string; event: string; at: Date }[];
+            [c.engineId],
+          )
+        ).rows as { alarm_id: string; event: string; at: Date }[];
         const times = (kinds: string[]) => events.filter((e) => kinds.includes(e.event)).map((e) => new Date(e.at).toISOString());
         expect(times(['raise', 'reactivate'])).toEqual(c.expected.raises);
         expect(times(['return_to_normal'])).toEqual(c.expected.clears);
@@ -283,9 +358,18 @@ describe('no loss, no doubles: 10,000 readings from five clients while the servi
         // and readings are written by different transactions, so the chain is checked as a balance of states
         // (each state entered as often as it is left, but the start and the end), which any valid order meets
         // and a lost update breaks.
-        const alarms = (await db.query(`SELECT id, kind, state, condition_active FROM alarms WHERE engine_id = $1`, [c.engineId])).rows as { id: string; kind: string; state: string; condition_active: boolean }[];
+        const alarms = (await db.query(`SELECT id, kind, state, condition_active FROM alarms WHERE engine_id = $1`, [c.engineId])).rows as {
+          id: string;
+          kind: string;
+          state: string;
+          condition_active: boolean;
+        }[];
         for (const a of alarms) {
-          const chain = (await db.query(`SELECT event, from_state, to_state FROM alarm_events WHERE alarm_id = $1`, [a.id])).rows as { event: string; from_state: string | null; to_state: string }[];
+          const chain = (await db.query(`SELECT event, from_state, to_state FROM alarm_events WHERE alarm_id = $1`, [a.id])).rows as {
+            event: string;
+            from_state: string | null;
+            to_state: string;
+          }[];
           const balance = new Map<string, number>();
           const move = (state: string, by: number) => balance.set(state, (balance.get(state) ?? 0) + by);
           for (const e of chain) {
@@ -294,7 +378,9 @@ describe('no loss, no doubles: 10,000 readings from five clients while the servi
           }
           move('raised', +1);
           move(a.state, -1);
-          const unbalanced = [...balance.entries()].filter(([, n]) => n !== 0).map(([state, n]) => `${state} ${n > 0 ? 'entered' : 'left'} ${Math.abs(n)} more time(s) than ${n > 0 ? 'left' : 'entered'}`);
+          const unbalanced = [...balance.entries()]
+            .filter(([, n]) => n !== 0)
+            .map(([state, n]) => `${state} ${n > 0 ? 'entered' : 'left'} ${Math.abs(n)} more time(s) than ${n > 0 ? 'left' : 'entered'}`);
           expect({ alarm: a.id, unbalanced }).toEqual({ alarm: a.id, unbalanced: [] });
         }
         expect(alarms.every((a) => a.kind === 'high')).toBe(true);

@@ -38,8 +38,7 @@ afterAll(async () => {
   await t.close();
 });
 
-const tokenOf = (p: Principal): string | undefined =>
-  p === 'no token' ? undefined : p === 'expired token' ? expired : sessions[p].token;
+const tokenOf = (p: Principal): string | undefined => (p === 'no token' ? undefined : p === 'expired token' ? expired : sessions[p].token);
 
 async function call(method: string, path: string, headers: Record<string, string>): Promise<{ status: number; text: string }> {
   const hasBody = ['POST', 'PUT', 'PATCH'].includes(method);
@@ -70,18 +69,22 @@ describe('roles matrix: HTTP routes (router vs test/roles-matrix.table.ts)', () 
     expect(served.length).toBeGreaterThan(30);
     const missing = served.filter((r) => !(r.key in ROUTE_ACCESS)).map((r) => `  '${r.key}': [...roles] | 'public' | 'logger-key',`);
     if (missing.length)
-      throw new Error(`${missing.length} route(s) have no row in ${TABLE_FILE}. Add, as each controller's @Roles/@AnyRole/@Public says:\n${missing.join('\n')}`);
+      throw new Error(
+        `${missing.length} route(s) have no row in ${TABLE_FILE}. Add, as each controller's @Roles/@AnyRole/@Public says:\n${missing.join('\n')}`,
+      );
   });
 
   it('the table names no route that is not served', () => {
     const stale = Object.keys(ROUTE_ACCESS).filter((k) => !servedKeys.has(k));
-    if (stale.length) throw new Error(`${TABLE_FILE} has rows for routes the router does not serve (remove or correct them): ${stale.join('; ')}`);
+    if (stale.length)
+      throw new Error(`${TABLE_FILE} has rows for routes the router does not serve (remove or correct them): ${stale.join('; ')}`);
   });
 
   const keys = [...new Set([...served.map((r) => r.key), ...Object.keys(ROUTE_ACCESS)])].sort();
   it.each(keys)('%s', async (key) => {
     const access = ROUTE_ACCESS[key];
-    if (!access) throw new Error(`'${key}' is served but has no row in ${TABLE_FILE}; add one: '${key}': [...roles] | 'public' | 'logger-key'`);
+    if (!access)
+      throw new Error(`'${key}' is served but has no row in ${TABLE_FILE}; add one: '${key}': [...roles] | 'public' | 'logger-key'`);
     if (!servedKeys.has(key)) throw new Error(`'${key}' is in ${TABLE_FILE} but the router does not serve it; remove or correct the row`);
     const [method, path] = key.split(' ');
     const wrong: string[] = [];
@@ -95,11 +98,13 @@ describe('roles matrix: HTTP routes (router vs test/roles-matrix.table.ts)', () 
       const res = answers[i];
       const want = expected(access, p);
       if (res.status >= 500) wrong.push(`${p}: ${res.status} (server error) ${res.text}`);
-      else if (verdict(res.status) !== want) wrong.push(`${p}: expected ${want === 'allowed' ? 'allowed (not 401/403)' : want}, got ${res.status} ${res.text}`);
+      else if (verdict(res.status) !== want)
+        wrong.push(`${p}: expected ${want === 'allowed' ? 'allowed (not 401/403)' : want}, got ${res.status} ${res.text}`);
     });
     if (access === 'logger-key') {
       const good = await call(method, concretePath(path), { 'x-logger-key': loggerKey });
-      if (verdict(good.status) !== 'allowed' || good.status >= 500) wrong.push(`a valid logger key: expected allowed, got ${good.status} ${good.text}`);
+      if (verdict(good.status) !== 'allowed' || good.status >= 500)
+        wrong.push(`a valid logger key: expected allowed, got ${good.status} ${good.text}`);
       const bad = await call(method, concretePath(path), { 'x-logger-key': `cjl_${randomUUID()}` });
       if (bad.status !== 401) wrong.push(`an unknown logger key: expected 401, got ${bad.status} ${bad.text}`);
     }
@@ -151,7 +156,9 @@ describe('roles matrix: socket events (gateways vs test/roles-matrix.table.ts)',
       .map(([, v]) => (v.payload(randomUUID) as { room: string }).room);
     const uncovered = ROOM_RULES.filter((r) => !samples.some((room) => r.pattern.test(room)));
     if (uncovered.length)
-      throw new Error(`room rule(s) with no 'room:join <example room>' row in ${TABLE_FILE}: ${uncovered.map((r) => `${r.pattern} (${r.what})`).join('; ')}`);
+      throw new Error(
+        `room rule(s) with no 'room:join <example room>' row in ${TABLE_FILE}: ${uncovered.map((r) => `${r.pattern} (${r.what})`).join('; ')}`,
+      );
   });
 
   it.each(['no token', 'expired token'] as const)('the live channel refuses a connection with %s', async (p) => {

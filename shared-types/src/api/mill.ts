@@ -320,7 +320,16 @@ export interface MillRunSummary {
   lotReferences: string[];
 }
 export interface MillRunLog {
-  run: { id: string; title: string; state: RunState; engineId: string; engineName: string; plannedFor: string | null; startedAt: string | null; stoppedAt: string | null };
+  run: {
+    id: string;
+    title: string;
+    state: RunState;
+    engineId: string;
+    engineName: string;
+    plannedFor: string | null;
+    startedAt: string | null;
+    stoppedAt: string | null;
+  };
   mill: { id: string; name: string; stands: (MillStandDto & { id: string })[] } | null;
   /** whether passes may be logged now, and if not why */
   canLog: boolean;

@@ -32,7 +32,22 @@ export const MEASUREMENT_KIND_LABELS: Record<MeasurementKind, string> = {
 };
 
 /** Units a measurement point may be recorded in. */
-export const MEASUREMENT_UNITS = ['psig', 'psia', 'kPa', 'bar', 'inHg', 'rpm', 'degF', 'degC', 'drops/min', 'pint/h', 'mL/h', 'psi', 'in', 'mm'] as const;
+export const MEASUREMENT_UNITS = [
+  'psig',
+  'psia',
+  'kPa',
+  'bar',
+  'inHg',
+  'rpm',
+  'degF',
+  'degC',
+  'drops/min',
+  'pint/h',
+  'mL/h',
+  'psi',
+  'in',
+  'mm',
+] as const;
 export type MeasurementUnit = (typeof MEASUREMENT_UNITS)[number];
 
 export const UNIT_LABELS: Record<string, string> = {

@@ -1,12 +1,5 @@
 /** The people who use Crankjournal. Stored as these strings. */
-export const ROLES = [
-  'administrator',
-  'chief_engineer',
-  'operator',
-  'maintenance_lead',
-  'mill_lead',
-  'observer',
-] as const;
+export const ROLES = ['administrator', 'chief_engineer', 'operator', 'maintenance_lead', 'mill_lead', 'observer'] as const;
 export type Role = (typeof ROLES)[number];
 
 export const ROLE_LABELS: Record<Role, string> = {

@@ -2,7 +2,17 @@ import type { ReactNode } from 'react';
 import { Group, Stack, Text, Title } from '@mantine/core';
 
 /** The page's title, its state and (right) its one primary action. */
-export function PageHeader({ title, subtitle, state, action }: { title: string; subtitle?: ReactNode; state?: ReactNode; action?: ReactNode }) {
+export function PageHeader({
+  title,
+  subtitle,
+  state,
+  action,
+}: {
+  title: string;
+  subtitle?: ReactNode;
+  state?: ReactNode;
+  action?: ReactNode;
+}) {
   return (
     <Group justify="space-between" align="flex-start" mb="lg" wrap="wrap">
       <Stack gap={2}>

@@ -41,15 +41,28 @@ export class AllExceptionsFilter implements ExceptionFilter {
       const [status, message] = PG_CLIENT_ERRORS[(exception as unknown as { code: string }).code];
       body = { statusCode: status, error: status === 409 ? 'Conflict' : 'Bad Request', message };
     } else if (isBodyParserError(exception)) {
-      body = { statusCode: exception.status, error: 'Bad Request', message: exception.status === 413 ? 'The request is too large.' : 'The request body is not valid JSON.' };
+      body = {
+        statusCode: exception.status,
+        error: 'Bad Request',
+        message: exception.status === 413 ? 'The request is too large.' : 'The request body is not valid JSON.',
+      };
     } else {
       this.logger.error(`${req.method} ${req.url} failed`, exception instanceof Error ? exception.stack : String(exception));
-      body = { statusCode: HttpStatus.INTERNAL_SERVER_ERROR, error: 'Internal Server Error', message: 'Something went wrong on the server. It has been logged.' };
+      body = {
+        statusCode: HttpStatus.INTERNAL_SERVER_ERROR,
+        error: 'Internal Server Error',
+        message: 'Something went wrong on the server. It has been logged.',
+      };
     }
     res.status(body.statusCode).json(body);
   }
 }
 
 function isBodyParserError(e: unknown): e is { status: number; type: string } {
-  return typeof e === 'object' && e !== null && typeof (e as { status?: unknown }).status === 'number' && typeof (e as { type?: unknown }).type === 'string';
+  return (
+    typeof e === 'object' &&
+    e !== null &&
+    typeof (e as { status?: unknown }).status === 'number' &&
+    typeof (e as { type?: unknown }).type === 'string'
+  );
 }

@@ -7,4 +7,12 @@ import { Maintenance1796166275712 } from './1796166275712-Maintenance.js';
 import { ReadingsPointRunIndex1796169344642 } from './1796169344642-ReadingsPointRunIndex.js';
 
 /** Every migration in order. Add new ones at the end; never edit one that has been committed. */
-export const MIGRATIONS: Function[] = [Foundation1796162547067, RunLog1796163443370, Mill1796164211009, ChecklistsQualifications1796164498769, IndicatorCards1796164976631, Maintenance1796166275712, ReadingsPointRunIndex1796169344642];
+export const MIGRATIONS: Function[] = [
+  Foundation1796162547067,
+  RunLog1796163443370,
+  Mill1796164211009,
+  ChecklistsQualifications1796164498769,
+  IndicatorCards1796164976631,
+  Maintenance1796166275712,
+  ReadingsPointRunIndex1796169344642,
+];

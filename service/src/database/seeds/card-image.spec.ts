@@ -10,7 +10,11 @@ function chunks(png: Buffer): { type: string; data: Buffer; crc: number }[] {
   let i = 8;
   while (i < png.length) {
     const length = png.readUInt32BE(i);
-    out.push({ type: png.toString('latin1', i + 4, i + 8), data: png.subarray(i + 8, i + 8 + length), crc: png.readUInt32BE(i + 8 + length) });
+    out.push({
+      type: png.toString('latin1', i + 4, i + 8),
+      data: png.subarray(i + 8, i + 8 + length),
+      crc: png.readUInt32BE(i + 8 + length),
+    });
     i += 12 + length;
   }
   return out;
@@ -49,34 +53,60 @@ describe('drawn demonstration cards and their traces', () => {
     springPsiPerIn: 80,
     lengthIn: 3.5,
   };
-  const lpCrank: CardDrawingSpec = { ...hpHead, seed: 'spec-lp-crank', end: 'crank', admissionPressurePsia: psigToPsia(24.5), backPressurePsia: 3.3, springPsiPerIn: 20, cutOffFraction: 0.42 };
+  const lpCrank: CardDrawingSpec = {
+    ...hpHead,
+    seed: 'spec-lp-crank',
+    end: 'crank',
+    admissionPressurePsia: psigToPsia(24.5),
+    backPressurePsia: 3.3,
+    springPsiPerIn: 20,
+    cutOffFraction: 0.42,
+  };
 
   it.each([
     ['HP head end', hpHead],
     ['LP crank end (mirrored, partly below the atmospheric line)', lpCrank],
-  ])('%s: the trace’s MEP is within 1.5 %% of the drawn outline’s, and below the ideal card’s (a real card is never fuller than the ideal)', (_, spec) => {
-    const drawn = drawIndicatorCard(spec);
-    const calibrated = calibrateTrace({
-      atmosphericLine: drawn.trace.atmosphericLine,
-      diagramStartPx: drawn.trace.admissionEndPx,
-      diagramEndPx: drawn.trace.releaseEndPx,
-      tracePx: drawn.trace.pointsPx,
-      springPsiPerIn: spec.springPsiPerIn,
-      cardLengthIn: spec.lengthIn,
-    });
-    const outlineArea = shoelaceArea(drawn.outline.map((p) => ({ x: p.strokeFraction * spec.lengthIn, y: p.pressurePsig / spec.springPsiPerIn })));
-    const drawnMep = (outlineArea / spec.lengthIn) * spec.springPsiPerIn;
-    expect(Math.abs(calibrated.meanEffectivePressurePsi - drawnMep) / drawnMep).toBeLessThan(0.015);
-    expect(drawnMep).toBeLessThan(idealMeanEffectivePressurePsi({ admissionPressurePsia: spec.admissionPressurePsia, cutoffFraction: spec.cutOffFraction, backPressurePsia: spec.backPressurePsia }));
-    // The card's length comes back from the calibration marks.
-    expect(calibrated.lengthIn).toBeCloseTo(spec.lengthIn, 6);
-  });
+  ])(
+    '%s: the trace’s MEP is within 1.5 %% of the drawn outline’s, and below the ideal card’s (a real card is never fuller than the ideal)',
+    (_, spec) => {
+      const drawn = drawIndicatorCard(spec);
+      const calibrated = calibrateTrace({
+        atmosphericLine: drawn.trace.atmosphericLine,
+        diagramStartPx: drawn.trace.admissionEndPx,
+        diagramEndPx: drawn.trace.releaseEndPx,
+        tracePx: drawn.trace.pointsPx,
+        springPsiPerIn: spec.springPsiPerIn,
+        cardLengthIn: spec.lengthIn,
+      });
+      const outlineArea = shoelaceArea(
+        drawn.outline.map((p) => ({ x: p.strokeFraction * spec.lengthIn, y: p.pressurePsig / spec.springPsiPerIn })),
+      );
+      const drawnMep = (outlineArea / spec.lengthIn) * spec.springPsiPerIn;
+      expect(Math.abs(calibrated.meanEffectivePressurePsi - drawnMep) / drawnMep).toBeLessThan(0.015);
+      expect(drawnMep).toBeLessThan(
+        idealMeanEffectivePressurePsi({
+          admissionPressurePsia: spec.admissionPressurePsia,
+          cutoffFraction: spec.cutOffFraction,
+          backPressurePsia: spec.backPressurePsia,
+        }),
+      );
+      // The card's length comes back from the calibration marks.
+      expect(calibrated.lengthIn).toBeCloseTo(spec.lengthIn, 6);
+    },
+  );
 
   it('the trace survives being stored as JSON and read back: the same calibration', () => {
     const drawn = drawIndicatorCard(hpHead);
     const reloaded = JSON.parse(JSON.stringify(drawn.trace)) as typeof drawn.trace;
     const calibrate = (t: typeof drawn.trace) =>
-      calibrateTrace({ atmosphericLine: t.atmosphericLine, diagramStartPx: t.admissionEndPx, diagramEndPx: t.releaseEndPx, tracePx: t.pointsPx, springPsiPerIn: 80, cardLengthIn: 3.5 });
+      calibrateTrace({
+        atmosphericLine: t.atmosphericLine,
+        diagramStartPx: t.admissionEndPx,
+        diagramEndPx: t.releaseEndPx,
+        tracePx: t.pointsPx,
+        springPsiPerIn: 80,
+        cardLengthIn: 3.5,
+      });
     expect(calibrate(reloaded)).toEqual(calibrate(drawn.trace));
   });
 

@@ -203,14 +203,23 @@ export function realisticOutline(spec: CardDrawingSpec): { strokeFraction: numbe
   const hook = spec.compressionHook ?? 0.22;
 
   // The ideal card (hyperbolic expansion) is the frame the distortions are laid on.
-  const ideal = idealCardPoints({ admissionPressurePsia: p1, cutoffFraction: k, backPressurePsia: pb, clearanceFraction: spec.clearanceFraction, expansionSegments: 64 });
-  const expansion = ideal.filter((p, i) => i > 0 && p.strokeFraction >= k && p.pressurePsia > pb).sort((a, b) => a.strokeFraction - b.strokeFraction);
+  const ideal = idealCardPoints({
+    admissionPressurePsia: p1,
+    cutoffFraction: k,
+    backPressurePsia: pb,
+    clearanceFraction: spec.clearanceFraction,
+    expansionSegments: 64,
+  });
+  const expansion = ideal
+    .filter((p, i) => i > 0 && p.strokeFraction >= k && p.pressurePsia > pb)
+    .sort((a, b) => a.strokeFraction - b.strokeFraction);
   const idealUpper = (x: number): number => {
     if (x <= k) return p1;
     for (let i = 0; i + 1 < expansion.length; i++) {
       const a = expansion[i];
       const b = expansion[i + 1];
-      if (x >= a.strokeFraction && x <= b.strokeFraction) return a.pressurePsia + ((x - a.strokeFraction) / (b.strokeFraction - a.strokeFraction)) * (b.pressurePsia - a.pressurePsia);
+      if (x >= a.strokeFraction && x <= b.strokeFraction)
+        return a.pressurePsia + ((x - a.strokeFraction) / (b.strokeFraction - a.strokeFraction)) * (b.pressurePsia - a.pressurePsia);
     }
     return expansion[expansion.length - 1].pressurePsia;
   };

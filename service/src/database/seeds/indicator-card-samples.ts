@@ -55,7 +55,11 @@ export function readCardSamples(): CardSamples {
   return readSample<CardSamples>('indicator-cards.json');
 }
 
-const slug = (s: string) => s.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '');
+const slug = (s: string) =>
+  s
+    .toLowerCase()
+    .replace(/[^a-z0-9]+/g, '-')
+    .replace(/^-|-$/g, '');
 
 /** The four cards of one set (HP and LP, head and crank ends), with the drawing each is made from. */
 export function sampleCards(samples: CardSamples, set: CardSamples['sets'][number]): SampleCard[] {
@@ -80,7 +84,8 @@ export function sampleCards(samples: CardSamples, set: CardSamples['sets'][numbe
         drawing: {
           seed: name,
           end,
-          admissionPressurePsia: cylinder === 'HP' ? psigToPsia(p.throttlePsig - p.throttleToChestDropPsi) : receiverPsia - p.receiverToChestDropPsi,
+          admissionPressurePsia:
+            cylinder === 'HP' ? psigToPsia(p.throttlePsig - p.throttleToChestDropPsi) : receiverPsia - p.receiverToChestDropPsi,
           backPressurePsia: (cylinder === 'HP' ? receiverPsia : condenserPsia) + p.exhaustBackPressureRisePsi[cylinder],
           cutOffFraction: cutOffPercent / 100,
           // The crank end has the rod's displacement, so a touch more clearance as a fraction of its swept volume.

@@ -73,7 +73,9 @@ export async function seedChecklists(app: INestApplicationContext, engine: Engin
     const person = users.get(q.email);
     if (!person) throw new Error(`samples/checklists.json: no demo user ${q.email}`);
     for (const duty of q.duties) {
-      const standing = await db.getRepository(Qualification).findOne({ where: { userId: person.id, engineId: engine.id, duty, withdrawnAt: IsNull() } });
+      const standing = await db
+        .getRepository(Qualification)
+        .findOne({ where: { userId: person.id, engineId: engine.id, duty, withdrawnAt: IsNull() } });
       if (standing) continue;
       await db.getRepository(Qualification).insert({
         userId: person.id,
@@ -97,12 +99,16 @@ export async function seedChecklists(app: INestApplicationContext, engine: Engin
     const signer = run.crewIds[0] ?? chief.id;
     for (const t of active) {
       if (await db.getRepository(Checklist).exists({ where: { runId: run.id, templateId: t.id } })) continue;
-      const version = (await db.getRepository(ChecklistTemplateVersion).findOne({ where: { templateId: t.id, version: t.currentVersion } }))!;
+      const version = (await db
+        .getRepository(ChecklistTemplateVersion)
+        .findOne({ where: { templateId: t.id, version: t.currentVersion } }))!;
       const offsetMin = { pre_start_inspection: -40, pre_lube: -15, warm_up: -5, shutdown: 30, other: 0 }[t.purpose];
       const base = t.requiredWhen === 'after_stop' ? run.stoppedAt : run.startedAt;
       const signedAt = new Date(base.getTime() + offsetMin * MIN_MS);
       const startedAt = new Date(signedAt.getTime() - 12 * MIN_MS);
-      const qual = await db.getRepository(Qualification).findOne({ where: { userId: signer, engineId: engine.id, duty: version.content.requiredDuty } });
+      const qual = await db
+        .getRepository(Qualification)
+        .findOne({ where: { userId: signer, engineId: engine.id, duty: version.content.requiredDuty } });
       await db.transaction(async (m) => {
         const c = await m.save(
           Checklist,
@@ -124,7 +130,19 @@ export async function seedChecklists(app: INestApplicationContext, engine: Engin
         const rows = items
           .map((it, i) => {
             const v = typicalEntry(it, sample.pastRuns.typicalValues);
-            return v ? { checklistId: c.id, itemKey: it.key, tick: null, value: null, choice: null, text: null, ...v, filledBy: signer, filledAt: new Date(startedAt.getTime() + ((i + 1) * 10 * MIN_MS) / items.length) } : null;
+            return v
+              ? {
+                  checklistId: c.id,
+                  itemKey: it.key,
+                  tick: null,
+                  value: null,
+                  choice: null,
+                  text: null,
+                  ...v,
+                  filledBy: signer,
+                  filledAt: new Date(startedAt.getTime() + ((i + 1) * 10 * MIN_MS) / items.length),
+                }
+              : null;
           })
           .filter((x): x is NonNullable<typeof x> => x !== null);
         if (rows.length) await m.insert(ChecklistEntry, rows);

@@ -61,7 +61,12 @@ export async function seedIndicatorCards(app: INestApplicationContext, engine: E
       if (card.method !== 'trace' && card.cylinder === 'LP') cards[cards.length - 1].admissionPressurePsig = admissionReadOffPsig(card);
     }
     const hp = sampleCards(samples, s)[0];
-    const set = await sets.create(run.id, { takenAt: takenAt.toISOString(), cutOffPercent: hp.cutOffPercent, notes: s.notes ?? null, cards }, { id: takenBy }, { seed: true });
+    const set = await sets.create(
+      run.id,
+      { takenAt: takenAt.toISOString(), cutOffPercent: hp.cutOffPercent, notes: s.notes ?? null, cards },
+      { id: takenBy },
+      { seed: true },
+    );
     created++;
 
     // The amended card of this set: the first planimeter figure was wrong and was corrected the same day.
@@ -91,15 +96,26 @@ export async function seedIndicatorCards(app: INestApplicationContext, engine: E
     if (!run?.startedAt) continue;
     const measuredAt = at(run, b.minutes);
     if (await db.getRepository(BrakeFigure).exists({ where: { runId: run.id, measuredAt } })) continue;
-    await sets.addBrakeFigure(run.id, { measuredAt: measuredAt.toISOString(), method: b.method, torqueLbfFt: b.torqueLbfFt, speedRpm: b.speedRpm, note: b.note }, { id: chief.id }, { seed: true });
+    await sets.addBrakeFigure(
+      run.id,
+      { measuredAt: measuredAt.toISOString(), method: b.method, torqueLbfFt: b.torqueLbfFt, speedRpm: b.speedRpm, note: b.note },
+      { id: chief.id },
+      { seed: true },
+    );
   }
 
   // Keep the record's order plausible: a seeded card's creation time is the moment its set was taken.
-  await db.query(`UPDATE card_sets SET created_at = taken_at + interval '10 minutes' WHERE created_at > taken_at + interval '1 day' AND run_id IN (SELECT id FROM runs WHERE engine_id = $1)`, [engine.id]);
+  await db.query(
+    `UPDATE card_sets SET created_at = taken_at + interval '10 minutes' WHERE created_at > taken_at + interval '1 day' AND run_id IN (SELECT id FROM runs WHERE engine_id = $1)`,
+    [engine.id],
+  );
   await db.query(
     `UPDATE indicator_cards c SET created_at = s.taken_at + interval '10 minutes' FROM card_sets s WHERE c.card_set_id = s.id AND c.created_at > s.taken_at + interval '1 day' AND s.engine_id = $1`,
     [engine.id],
   );
-  await db.query(`UPDATE brake_figures SET created_at = measured_at + interval '5 minutes' WHERE created_at > measured_at + interval '1 day' AND run_id IN (SELECT id FROM runs WHERE engine_id = $1)`, [engine.id]);
+  await db.query(
+    `UPDATE brake_figures SET created_at = measured_at + interval '5 minutes' WHERE created_at > measured_at + interval '1 day' AND run_id IN (SELECT id FROM runs WHERE engine_id = $1)`,
+    [engine.id],
+  );
   return created;
 }

@@ -67,7 +67,7 @@ export function drawScoredShell(): Buffer {
   const h = 400;
   const rgb = new Uint8Array(w * h * 3);
   let seed = 20260820;
-  const rnd = () => ((seed = (seed * 1103515245 + 12345) & 0x7fffffff) / 0x7fffffff);
+  const rnd = () => (seed = (seed * 1103515245 + 12345) & 0x7fffffff) / 0x7fffffff;
   const set = (x: number, y: number, c: [number, number, number]) => {
     if (x < 0 || y < 0 || x >= w || y >= h) return;
     const i = (y * w + x) * 3;
@@ -81,7 +81,8 @@ export function drawScoredShell(): Buffer {
     Math.max(0, Math.min(255, c[2] + d)),
   ];
   // Bench (dark, oily wood) with grain.
-  for (let y = 0; y < h; y++) for (let x = 0; x < w; x++) set(x, y, shade([74, 58, 44], Math.round(12 * Math.sin(y / 7 + x / 90) + (rnd() - 0.5) * 10)));
+  for (let y = 0; y < h; y++)
+    for (let x = 0; x < w; x++) set(x, y, shade([74, 58, 44], Math.round(12 * Math.sin(y / 7 + x / 90) + (rnd() - 0.5) * 10)));
   // Shell outline (bronze), seen from above as a rounded rectangle; lining inside it.
   const shell = { x0: 60, y0: 50, x1: 580, y1: 350 };
   const lining = { x0: 84, y0: 74, x1: 556, y1: 326 };
@@ -126,7 +127,9 @@ export function drawScoredShell(): Buffer {
     const cy = 100 + Math.floor(rnd() * 200);
     const r = 14 + Math.floor(rnd() * 18);
     for (let y = cy - r; y <= cy + r; y++)
-      for (let x = cx - r; x <= cx + r; x++) if ((x - cx) ** 2 + (y - cy) ** 2 <= r * r && x < lining.x1 && y < lining.y1 && y >= lining.y0) set(x, y, [120 + Math.floor(rnd() * 10), 130, 168]);
+      for (let x = cx - r; x <= cx + r; x++)
+        if ((x - cx) ** 2 + (y - cy) ** 2 <= r * r && x < lining.x1 && y < lining.y1 && y >= lining.y0)
+          set(x, y, [120 + Math.floor(rnd() * 10), 130, 168]);
   }
   // A steel rule along the bottom for scale: a light strip with a tick every 20 px.
   for (let y = 362; y < 382; y++) for (let x = 60; x < 580; x++) set(x, y, [208, 206, 198]);
@@ -179,7 +182,10 @@ export async function seedMaintenance(app: INestApplicationContext, engine: Engi
       continue;
     }
     const { bearing, ...rest } = p;
-    const made = await plans.create(dto(PlanWriteDto, { ...rest, engineId: engine.id, bearingId: bearingId(bearing) }, `plan "${p.title}"`), recorder.id);
+    const made = await plans.create(
+      dto(PlanWriteDto, { ...rest, engineId: engine.id, bearingId: bearingId(bearing) }, `plan "${p.title}"`),
+      recorder.id,
+    );
     planIds.set(p.title, made.id);
     newPlans++;
   }
@@ -225,7 +231,9 @@ export async function seedMaintenance(app: INestApplicationContext, engine: Engi
     if (await db.getRepository(WorkRecord).exists({ where: { engineId: engine.id, title: w.title } })) continue;
     const { bearing, promptedByInspection, promptedByAlarm, satisfiesPlans, completedAt, closeNote, ...rest } = w;
     const inspectionId = promptedByInspection ? inspectionIds.get(promptedByInspection) : undefined;
-    const inspectionRun = inspectionId ? (await db.getRepository(Inspection).findOne({ where: { id: inspectionId } }))?.promptedByRunId ?? undefined : undefined;
+    const inspectionRun = inspectionId
+      ? ((await db.getRepository(Inspection).findOne({ where: { id: inspectionId } }))?.promptedByRunId ?? undefined)
+      : undefined;
     const made = await work.create(
       dto(
         WorkRecordCreateDto,
@@ -241,7 +249,12 @@ export async function seedMaintenance(app: INestApplicationContext, engine: Engi
       ),
       recorder.id,
     );
-    if (completedAt) await work.close(made.id, dto(CloseWorkRecordDto, { completedAt, ...(closeNote ? { note: closeNote } : {}) }, `closing "${w.title}"`), recorder.id);
+    if (completedAt)
+      await work.close(
+        made.id,
+        dto(CloseWorkRecordDto, { completedAt, ...(closeNote ? { note: closeNote } : {}) }, `closing "${w.title}"`),
+        recorder.id,
+      );
     newWork++;
   }
   return `${newPlans} new inspection plans, ${newInspections} new inspections, ${newWork} new work records`;

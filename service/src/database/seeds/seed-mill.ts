@@ -96,24 +96,40 @@ export async function seedMill(app: INestApplicationContext, engine: Engine, use
     const { reference, enquiryOn, quotes, steps, run: runTitle, schedule, bars, ...write } = l;
     const lot = await lots.create({ ...write, millId }, lead, { reference, createdAt: new Date(`${enquiryOn}T09:00:00Z`) });
     const events = [
-      ...quotes.map((q) => ({ on: q.on, order: 0, act: async () => {
-        const made = await lots.createQuote(lot.id, { engineHours: q.engineHours, crewHours: q.crewHours, notes: q.notes }, lead, new Date(`${q.on}T10:00:00Z`));
-        // Sent on the day (recorded as sent; the demo seed sends no e-mail).
-        if (q.sentOn) await db.getRepository(LotQuote).update({ id: made.id }, { sentAt: new Date(`${q.sentOn}T11:00:00Z`), sentTo: l.customerEmail });
-      } })),
-      ...steps.map((s) => ({ on: s.on, order: 1, act: async () => {
-        if (s.to === 'scheduled' && runTitle) {
-          const run = await db.getRepository(Run).findOneByOrFail({ engineId: engine.id, title: runTitle });
-          await lots.linkRun(lot.id, run.id, lead);
-        }
-        if (s.to === 'rolled' && runTitle && bars && schedule) {
-          const run = await db.getRepository(Run).findOneByOrFail({ engineId: engine.id, title: runTitle });
-          const scheduleId = await planFrom(schedule.name, schedule.from, lot.id);
-          const t = await rollSeasonBars(run, scheduleId, lot.id, bars);
-          await lots.update(lot.id, { producedTonnes: t.produced, scrappedTonnes: t.scrapped });
-        }
-        await lots.transition(lot.id, { to: s.to, note: s.note }, lead, noon(s.on));
-      } })),
+      ...quotes.map((q) => ({
+        on: q.on,
+        order: 0,
+        act: async () => {
+          const made = await lots.createQuote(
+            lot.id,
+            { engineHours: q.engineHours, crewHours: q.crewHours, notes: q.notes },
+            lead,
+            new Date(`${q.on}T10:00:00Z`),
+          );
+          // Sent on the day (recorded as sent; the demo seed sends no e-mail).
+          if (q.sentOn)
+            await db
+              .getRepository(LotQuote)
+              .update({ id: made.id }, { sentAt: new Date(`${q.sentOn}T11:00:00Z`), sentTo: l.customerEmail });
+        },
+      })),
+      ...steps.map((s) => ({
+        on: s.on,
+        order: 1,
+        act: async () => {
+          if (s.to === 'scheduled' && runTitle) {
+            const run = await db.getRepository(Run).findOneByOrFail({ engineId: engine.id, title: runTitle });
+            await lots.linkRun(lot.id, run.id, lead);
+          }
+          if (s.to === 'rolled' && runTitle && bars && schedule) {
+            const run = await db.getRepository(Run).findOneByOrFail({ engineId: engine.id, title: runTitle });
+            const scheduleId = await planFrom(schedule.name, schedule.from, lot.id);
+            const t = await rollSeasonBars(run, scheduleId, lot.id, bars);
+            await lots.update(lot.id, { producedTonnes: t.produced, scrappedTonnes: t.scrapped });
+          }
+          await lots.transition(lot.id, { to: s.to, note: s.note }, lead, noon(s.on));
+        },
+      })),
     ].sort((a, b) => a.on.localeCompare(b.on) || a.order - b.order);
     for (const e of events) await e.act();
     if (schedule) await planFrom(schedule.name, schedule.from, lot.id);
@@ -142,7 +158,10 @@ export async function seedMill(app: INestApplicationContext, engine: Engine, use
         const drift = (s: SectionDto, what: string): SectionDto => ({
           shape: s.shape,
           heightMm: round1(s.heightMm + jitter(0.4, code, String(p.seq), what, 'h')),
-          widthMm: s.shape === 'round' ? round1(s.heightMm + jitter(0.4, code, String(p.seq), what, 'h')) : round1(s.widthMm + jitter(0.6, code, String(p.seq), what, 'w')),
+          widthMm:
+            s.shape === 'round'
+              ? round1(s.heightMm + jitter(0.4, code, String(p.seq), what, 'h'))
+              : round1(s.widthMm + jitter(0.6, code, String(p.seq), what, 'w')),
         });
         const logged = await rolling.logPass(
           bar.id,
@@ -150,10 +169,13 @@ export async function seedMill(app: INestApplicationContext, engine: Engine, use
             passNumber: p.seq,
             standPosition: p.standPosition,
             at: new Date(barStart + (p.seq - 1) * 35_000).toISOString(),
-            measuredTemperatureC: Math.round(p.expectedTemperatureC - 8 - 12 * rnd(code, String(p.seq), 't') - (cold ? 215 + 16 * (p.seq - 1) : 0)),
+            measuredTemperatureC: Math.round(
+              p.expectedTemperatureC - 8 - 12 * rnd(code, String(p.seq), 't') - (cold ? 215 + 16 * (p.seq - 1) : 0),
+            ),
             entry: p.entry,
             exit: drift(p.exit, 'exit'),
-            notes: cold && p.standPosition === 3 ? 'Bar ran cold after the furnace door jammed; stand 3 laboured and the bar was pulled.' : '',
+            notes:
+              cold && p.standPosition === 3 ? 'Bar ran cold after the furnace door jammed; stand 3 laboured and the bar was pulled.' : '',
           },
           { id: lead.id },
           { allowClosedRun: true },

@@ -48,11 +48,16 @@ function valueAt(code: string, t: number, hours: number, ambientF: number, rnd: 
   const noise = (a: number) => (rnd() - 0.5) * 2 * a;
   const warmUp = 1 - Math.exp(-t / 45);
   switch (code) {
-    case 'THR-P': return 132 + noise(3);
-    case 'REC-P': return 27 + noise(2);
-    case 'VAC': return 24.5 + noise(0.6);
-    case 'SPD': return t < 10 ? 20 + t * 5.2 : 74.5 + noise(0.8);
-    case 'MB1-T': return ambientF + 8 + 32 * warmUp + noise(1.5);
+    case 'THR-P':
+      return 132 + noise(3);
+    case 'REC-P':
+      return 27 + noise(2);
+    case 'VAC':
+      return 24.5 + noise(0.6);
+    case 'SPD':
+      return t < 10 ? 20 + t * 5.2 : 74.5 + noise(0.8);
+    case 'MB1-T':
+      return ambientF + 8 + 32 * warmUp + noise(1.5);
     case 'MB2-T': {
       const base = ambientF + 8 + 34 * warmUp + noise(1.5);
       if (!warm) return base;
@@ -60,13 +65,20 @@ function valueAt(code: string, t: number, hours: number, ambientF: number, rnd: 
       const extra = t < 110 ? 0 : t < 150 ? (t - 110) * 0.95 : Math.max(0, 38 - (t - 150) * 0.35);
       return base + extra;
     }
-    case 'CP-T': return ambientF + 10 + 30 * warmUp + noise(2);
-    case 'XH-T': return ambientF + 6 + 22 * warmUp + noise(1.5);
-    case 'OB-T': return ambientF + 5 + 20 * warmUp + noise(1.5);
-    case 'OIL-P': return 22 + noise(2);
-    case 'FEED-CP': return 8 + noise(1);
-    case 'AMB-T': return ambientF + 4 * (t / (hours * 60)) + noise(0.8);
-    default: return 0;
+    case 'CP-T':
+      return ambientF + 10 + 30 * warmUp + noise(2);
+    case 'XH-T':
+      return ambientF + 6 + 22 * warmUp + noise(1.5);
+    case 'OB-T':
+      return ambientF + 5 + 20 * warmUp + noise(1.5);
+    case 'OIL-P':
+      return 22 + noise(2);
+    case 'FEED-CP':
+      return 8 + noise(1);
+    case 'AMB-T':
+      return ambientF + 4 * (t / (hours * 60)) + noise(0.8);
+    default:
+      return 0;
   }
 }
 
@@ -87,8 +99,16 @@ export async function seedSeason(app: INestApplicationContext, engine: Engine, u
     const operator = crew[0];
     const run = await db.getRepository(Run).save(
       db.getRepository(Run).create({
-        engineId: engine.id, title: s.title, purpose: s.purpose, state: 'running', plannedFor: s.date, crewIds: crew.map((c) => c.id),
-        notes: s.notes, startedAt: start, createdBy: chief.id, createdAt: new Date(start.getTime() - 14 * 86400_000),
+        engineId: engine.id,
+        title: s.title,
+        purpose: s.purpose,
+        state: 'running',
+        plannedFor: s.date,
+        crewIds: crew.map((c) => c.id),
+        notes: s.notes,
+        startedAt: start,
+        createdBy: chief.id,
+        createdAt: new Date(start.getTime() - 14 * 86400_000),
       }),
     );
     const rnd = prng(s.title);
@@ -101,13 +121,22 @@ export async function seedSeason(app: INestApplicationContext, engine: Engine, u
       for (const tt of times) {
         for (const p of points) {
           if (tt !== t && !['MB2-T', 'MB1-T', 'AMB-T', 'SPD'].includes(p.code)) continue;
-          rows.push({ clientId: stableUuid(run.id, p.code, String(tt)), point: p, value: +valueAt(p.code, tt, s.hours, s.ambientF, rnd, warm).toFixed(1), takenAt: new Date(start.getTime() + tt * 60_000) });
+          rows.push({
+            clientId: stableUuid(run.id, p.code, String(tt)),
+            point: p,
+            value: +valueAt(p.code, tt, s.hours, s.ambientF, rnd, warm).toFixed(1),
+            takenAt: new Date(start.getTime() + tt * 60_000),
+          });
         }
       }
     }
     await ingest.store({ run, source: 'round', enteredBy: operator.id }, rows);
     const speedId = points.find((p) => p.code === 'SPD')!.id;
-    const revs = revolutionsFromSpeedRecord(rows.filter((r) => r.point.id === speedId).map((r) => ({ takenAtMs: r.takenAt.getTime(), speedRpm: r.value })), start.getTime(), stop.getTime());
+    const revs = revolutionsFromSpeedRecord(
+      rows.filter((r) => r.point.id === speedId).map((r) => ({ takenAtMs: r.takenAt.getTime(), speedRpm: r.value })),
+      start.getTime(),
+      stop.getTime(),
+    );
     const closedAt = new Date(stop.getTime() + 50 * 60_000);
     await db.transaction(async (m) => {
       await m.update(Run, { id: run.id }, { state: 'closed', stoppedAt: stop, closedAt, countersignedBy: chief.id, revolutions: revs });
@@ -127,7 +156,10 @@ export async function seedSeason(app: INestApplicationContext, engine: Engine, u
           WHERE run_id = $1 AND state <> 'normal'`,
         [run.id, operator.id],
       );
-      await m.query(`UPDATE alarms SET state = 'normal', condition_active = false, returned_at = COALESCE(returned_at, $2) WHERE run_id = $1 AND state <> 'normal'`, [run.id, stop]);
+      await m.query(
+        `UPDATE alarms SET state = 'normal', condition_active = false, returned_at = COALESCE(returned_at, $2) WHERE run_id = $1 AND state <> 'normal'`,
+        [run.id, stop],
+      );
     });
     await engines.addRunTotals(engine.id, s.hours, revs);
     // The alarms above were closed out in SQL: let the evaluator reload them from the database.
@@ -137,12 +169,32 @@ export async function seedSeason(app: INestApplicationContext, engine: Engine, u
   if (!(await db.getRepository(Run).exists({ where: { engineId: engine.id, title: season.today.title } }))) {
     const today = new Date().toISOString().slice(0, 10);
     const crew = season.today.crew.map((e) => users.get(e)!);
-    const run = await db.getRepository(Run).save(
-      db.getRepository(Run).create({ engineId: engine.id, title: season.today.title, purpose: season.today.purpose, state: 'preparing', plannedFor: today, crewIds: crew.map((c) => c.id), notes: season.today.notes, createdBy: chief.id }),
-    );
+    const run = await db
+      .getRepository(Run)
+      .save(
+        db
+          .getRepository(Run)
+          .create({
+            engineId: engine.id,
+            title: season.today.title,
+            purpose: season.today.purpose,
+            state: 'preparing',
+            plannedFor: today,
+            crewIds: crew.map((c) => c.id),
+            notes: season.today.notes,
+            createdBy: chief.id,
+          }),
+      );
     await db.getRepository(RunStateChange).insert([
       { runId: run.id, fromState: null, toState: 'planned', byUser: chief.id, at: new Date(Date.now() - 7 * 86400_000), note: null },
-      { runId: run.id, fromState: 'planned', toState: 'preparing', byUser: crew[0].id, at: new Date(), note: 'Boiler lit; warming through.' },
+      {
+        runId: run.id,
+        fromState: 'planned',
+        toState: 'preparing',
+        byUser: crew[0].id,
+        at: new Date(),
+        note: 'Boiler lit; warming through.',
+      },
     ]);
     await engines.setActiveRun(engine.id, run.id);
     created++;

@@ -21,8 +21,17 @@ export async function seedUsers(m: EntityManager): Promise<Map<string, User>> {
       .where('u.email = :e', { e: s.email })
       .getOne();
     const passwordHash =
-      existing?.passwordHash && (await verifyPassword(existing.passwordHash, site.demoPassword)) ? existing.passwordHash : await hashPassword(site.demoPassword);
-    const user = await m.save(User, { ...(existing ?? {}), email: s.email, displayName: s.displayName, role: s.role, active: true, passwordHash });
+      existing?.passwordHash && (await verifyPassword(existing.passwordHash, site.demoPassword))
+        ? existing.passwordHash
+        : await hashPassword(site.demoPassword);
+    const user = await m.save(User, {
+      ...(existing ?? {}),
+      email: s.email,
+      displayName: s.displayName,
+      role: s.role,
+      active: true,
+      passwordHash,
+    });
     out.set(s.email, user);
   }
   return out;

@@ -13,12 +13,7 @@
  * The 24 h default for the longest shelve is a product setting, not taken from a source.
  */
 
-export type AlarmState =
-  | 'active_unacknowledged'
-  | 'active_acknowledged'
-  | 'returned_unacknowledged'
-  | 'normal'
-  | 'shelved';
+export type AlarmState = 'active_unacknowledged' | 'active_acknowledged' | 'returned_unacknowledged' | 'normal' | 'shelved';
 
 export const ALARM_STATES: readonly AlarmState[] = [
   'active_unacknowledged',

@@ -113,9 +113,7 @@ describe('high limit', () => {
     expect(above.value).toBe(140.1);
   });
   it('writes a plain message', () => {
-    expect(decision(evaluate(BEARING, 148), 'high').message).toBe(
-      'Main bearing, crank side 148 °F is above its high limit 140 °F.',
-    );
+    expect(decision(evaluate(BEARING, 148), 'high').message).toBe('Main bearing, crank side 148 °F is above its high limit 140 °F.');
   });
   it('does not raise again while active, and clears below the limit when there is no deadband', () => {
     expect(decision(evaluate(BEARING, 150, { activeConditions: ['high'] }), 'high').action).toBe('hold');
@@ -159,7 +157,10 @@ describe('deadband', () => {
     let raises = 0;
     for (let i = 0; i < 20; i++) {
       const d = decision(evaluate(noDeadband, i % 2 === 0 ? 141 : 139, { activeConditions: active }), 'high');
-      if (d.action === 'raise') { raises++; active.add('high'); }
+      if (d.action === 'raise') {
+        raises++;
+        active.add('high');
+      }
       if (d.action === 'clear') active.delete('high');
     }
     expect(raises).toBe(10);
@@ -174,15 +175,18 @@ describe('high-high limit', () => {
     expect(decision(list, 'high_high').action).toBe('raise');
     expect(decision(list, 'high_high').priority).toBe('high_high');
     expect(decision(list, 'high').action).toBe('raise'); // both limits are exceeded
-    expect(decision(list, 'high_high').message).toBe(
-      'Main bearing, crank side 160.1 °F is above its high-high limit 160 °F.',
-    );
+    expect(decision(list, 'high_high').message).toBe('Main bearing, crank side 160.1 °F is above its high-high limit 160 °F.');
   });
 });
 
 describe('low limit', () => {
   const oil: MeasurementPointSettings = {
-    id: 'oil-1', name: 'Oil header pressure', kind: 'oil_pressure', unit: 'psig', lowLimit: 5, deadband: 1,
+    id: 'oil-1',
+    name: 'Oil header pressure',
+    kind: 'oil_pressure',
+    unit: 'psig',
+    lowLimit: 5,
+    deadband: 1,
   };
   it('just above, at and just below 5 psig', () => {
     expect(decision(evaluate(oil, 5.1), 'low').action).toBe('hold');
@@ -274,7 +278,11 @@ describe('rate of rise', () => {
 
 describe('rise above ambient (bearing temperatures)', () => {
   const point: MeasurementPointSettings = {
-    ...BEARING, highLimit: null, highHighLimit: null, maxRiseAboveAmbient: 50, deadband: 2,
+    ...BEARING,
+    highLimit: null,
+    highHighLimit: null,
+    maxRiseAboveAmbient: 50,
+    deadband: 2,
   };
   it('ambient 70 °F, allowed 50 °F: 119.9 and 120 hold, 120.1 raises (arithmetic by hand)', () => {
     expect(decision(evaluate(point, 119.9, { ambientTemperature: 70 }), 'above_ambient').action).toBe('hold');
@@ -284,9 +292,7 @@ describe('rise above ambient (bearing temperatures)', () => {
     const above = decision(evaluate(point, 120.1, { ambientTemperature: 70 }), 'above_ambient');
     expect(above.action).toBe('raise');
     expect(above.value).toBeCloseTo(50.1, 12);
-    expect(above.message).toBe(
-      'Main bearing, crank side 120.1 °F is 50.1 °F above ambient 70 °F, more than the allowed 50 °F.',
-    );
+    expect(above.message).toBe('Main bearing, crank side 120.1 °F is 50.1 °F above ambient 70 °F, more than the allowed 50 °F.');
   });
   it('clears only when the rise is below 50 − 2 = 48 °F', () => {
     const active: AlarmConditionKind[] = ['above_ambient'];
@@ -389,7 +395,10 @@ describe('conditions without a limit', () => {
 
 describe('validateReadingValue', () => {
   const p = (unit: string, kind: MeasurementPointSettings['kind'] = 'other'): MeasurementPointSettings => ({
-    id: 'p', name: 'Gauge', kind, unit,
+    id: 'p',
+    name: 'Gauge',
+    kind,
+    unit,
   });
 
   it('refuses non-finite values', () => {

@@ -25,7 +25,7 @@ import { KPA_PER_PSI, STANDARD_ATMOSPHERE_KPA, celsiusToFahrenheit, psigToPsia }
 /** Shown beside pressure, speed and bearing alarms. */
 export const ALARM_CAUTION =
   'Alarms aid a qualified crew; they do not replace watching the gauges, the safety valves and the ' +
-  'bearings, nor local boiler and pressure-vessel law, the insurer\'s inspections or licensed practice. ' +
+  "bearings, nor local boiler and pressure-vessel law, the insurer's inspections or licensed practice. " +
   'Treat a pressure, overspeed or hot-bearing alarm as real until the crew has checked it.';
 
 export type MeasurementKind =
@@ -39,14 +39,7 @@ export type MeasurementKind =
   | 'ambient_temperature'
   | 'other';
 
-export type AlarmConditionKind =
-  | 'high'
-  | 'high_high'
-  | 'low'
-  | 'rate_of_rise'
-  | 'above_ambient'
-  | 'above_mawp'
-  | 'overspeed';
+export type AlarmConditionKind = 'high' | 'high_high' | 'low' | 'rate_of_rise' | 'above_ambient' | 'above_mawp' | 'overspeed';
 
 /** Every condition kind, in the order decisions are returned. */
 export const ALARM_CONDITION_KINDS: readonly AlarmConditionKind[] = [
@@ -519,7 +512,9 @@ export function evaluateReading(ctx: EvaluateReadingContext): ConditionDecision[
     if (overspeed === null) {
       out.push(notEvaluated('overspeed', null, unit, `${name}: the engine has no overspeed limit set.`));
     } else if (!isRpm(unit)) {
-      out.push(notEvaluated('overspeed', null, unit, `${name}: unit "${unit}" cannot be compared with the overspeed limit ${fmt(overspeed)} rpm.`));
+      out.push(
+        notEvaluated('overspeed', null, unit, `${name}: unit "${unit}" cannot be compared with the overspeed limit ${fmt(overspeed)} rpm.`),
+      );
     } else {
       level('overspeed', {
         side: 'high',
@@ -614,7 +609,9 @@ export function evaluateReading(ctx: EvaluateReadingContext): ConditionDecision[
   } else {
     const ambient = setting(ctx.ambientTemperature);
     if (ambient === null) {
-      out.push(notEvaluated('above_ambient', maxRise, unit, `${name}: rise above ambient not checked — there is no ambient temperature reading.`));
+      out.push(
+        notEvaluated('above_ambient', maxRise, unit, `${name}: rise above ambient not checked — there is no ambient temperature reading.`),
+      );
     } else {
       const rise = value - ambient;
       const isActiveAmbient = active('above_ambient');

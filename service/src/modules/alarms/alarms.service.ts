@@ -6,7 +6,13 @@ import { ALARM_KIND_WORDS } from '@crankjournal/shared-types';
 import { Alarm } from './alarm.entity.js';
 import { AlarmEvent } from './alarm-event.entity.js';
 import { evaluateReading, type PointReading } from './alarm-rules.js';
-import { AlarmTransitionError, applyShelveExpiry, transition, type AlarmEvent as LifecycleEvent, type AlarmLifecycle } from './alarm-lifecycle.js';
+import {
+  AlarmTransitionError,
+  applyShelveExpiry,
+  transition,
+  type AlarmEvent as LifecycleEvent,
+  type AlarmLifecycle,
+} from './alarm-lifecycle.js';
 import { EnginesService } from '../engines/engines.service.js';
 import type { MeasurementPoint } from '../engines/measurement-point.entity.js';
 import { LiveService } from '../live/live.service.js';
@@ -143,14 +149,24 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
    * Evaluates new readings (already stored, in the same transaction) against their points' limits.
    * The caller serialises calls per engine and broadcasts/e-mails the outcome after commit.
    */
-  async evaluate(engineId: string, runId: string, readings: NewReading[], m: EntityManager, history: RecentHistoryLoader): Promise<EvaluationOutcome> {
+  async evaluate(
+    engineId: string,
+    runId: string,
+    readings: NewReading[],
+    m: EntityManager,
+    history: RecentHistoryLoader,
+  ): Promise<EvaluationOutcome> {
     const { engine, points } = await this.engines.withPoints(engineId);
     const pointById = new Map(points.map((p) => [p.id, p]));
     const st = await this.load(engineId, m, history);
     // The open alarms are read again, and locked, in this transaction: people acknowledge, shelve and unshelve
     // them meanwhile (change(), expireShelves()), and a cached copy would overwrite their change or miss it
     // (an acknowledged alarm raised a second time, refused by alarms_one_open_per_condition).
-    const open = await m.find(Alarm, { where: { engineId, state: Not('normal') }, order: { id: 'ASC' }, lock: { mode: 'pessimistic_write' } });
+    const open = await m.find(Alarm, {
+      where: { engineId, state: Not('normal') },
+      order: { id: 'ASC' },
+      lock: { mode: 'pessimistic_write' },
+    });
     st.open = new Map(open.map((a) => [`${a.pointId}:${a.kind}`, a]));
     const changed = new Map<string, Alarm>();
     const toEmail: Alarm[] = [];
@@ -179,7 +195,15 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
       // An alarm left open by an earlier run is closed out on the record; this run gets its own.
       for (const [key, a] of st.open) {
         if (a.pointId !== point.id || a.runId === runId) continue;
-        events.push({ alarmId: a.id, event: 'superseded', fromState: a.state, toState: 'normal', byUser: null, at: r.takenAt, note: 'Closed out: a later run took over this point.' });
+        events.push({
+          alarmId: a.id,
+          event: 'superseded',
+          fromState: a.state,
+          toState: 'normal',
+          byUser: null,
+          at: r.takenAt,
+          note: 'Closed out: a later run took over this point.',
+        });
         a.state = 'normal';
         a.conditionActive = false;
         await m.save(Alarm, a);
@@ -226,7 +250,15 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
               raisedAt: r.takenAt,
             });
             const saved = await m.save(Alarm, a);
-            events.push({ alarmId: saved.id, event: 'raise', fromState: null, toState: 'active_unacknowledged', byUser: null, at: r.takenAt, note: d.message });
+            events.push({
+              alarmId: saved.id,
+              event: 'raise',
+              fromState: null,
+              toState: 'active_unacknowledged',
+              byUser: null,
+              at: r.takenAt,
+              note: d.message,
+            });
             st.open.set(key, saved);
             changed.set(saved.id, saved);
             raised++;
@@ -263,7 +295,12 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
 
   /** Applies a lifecycle event to an alarm in memory, recording the event. */
   private apply(a: Alarm, ev: LifecycleEvent, by: string | null, at: Date, events: Partial<AlarmEvent>[], note?: string): Alarm {
-    const before: AlarmLifecycle = { state: a.state, conditionActive: a.conditionActive, shelvedUntil: a.shelvedUntil, shelveReason: a.shelveReason };
+    const before: AlarmLifecycle = {
+      state: a.state,
+      conditionActive: a.conditionActive,
+      shelvedUntil: a.shelvedUntil,
+      shelveReason: a.shelveReason,
+    };
     const next = transition(before, ev, { now: at });
     events.push({ alarmId: a.id, event: ev.type, fromState: a.state, toState: next.state, byUser: by, at, note: note ?? null });
     a.state = next.state;
@@ -286,7 +323,13 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
   }
 
   private async emailOnce(a: Alarm) {
-    const claimed = await this.db.getRepository(Alarm).createQueryBuilder().update().set({ emailedAt: () => 'now()' }).where('id = :id AND emailed_at IS NULL', { id: a.id }).execute();
+    const claimed = await this.db
+      .getRepository(Alarm)
+      .createQueryBuilder()
+      .update()
+      .set({ emailedAt: () => 'now()' })
+      .where('id = :id AND emailed_at IS NULL', { id: a.id })
+      .execute();
     if (!claimed.affected) return;
     const to = (await this.users.usersWithRoles(['chief_engineer', 'maintenance_lead'])).map((u) => u.email);
     if (!to.length) return;
@@ -423,16 +466,31 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
 
   /** Shelved alarms whose time is up go back to their real state. */
   async expireShelves() {
-    const due = await this.db.getRepository(Alarm).createQueryBuilder('a').where(`a.state = 'shelved' AND a.shelved_until <= now()`).getMany();
+    const due = await this.db
+      .getRepository(Alarm)
+      .createQueryBuilder('a')
+      .where(`a.state = 'shelved' AND a.shelved_until <= now()`)
+      .getMany();
     for (const a0 of due) {
       // Decided on the row as it is now (locked): the readings may have changed its condition since.
       const a = await this.db.transaction(async (m) => {
         const cur = await m.findOne(Alarm, { where: { id: a0.id }, lock: { mode: 'pessimistic_write' } });
         if (!cur || cur.state !== 'shelved') return null;
-        const next = applyShelveExpiry({ state: cur.state, conditionActive: cur.conditionActive, shelvedUntil: cur.shelvedUntil, shelveReason: cur.shelveReason }, new Date());
+        const next = applyShelveExpiry(
+          { state: cur.state, conditionActive: cur.conditionActive, shelvedUntil: cur.shelvedUntil, shelveReason: cur.shelveReason },
+          new Date(),
+        );
         if (next.state === cur.state) return null;
         await m.update(Alarm, { id: cur.id }, { state: next.state, shelvedUntil: null, shelveReason: null });
-        await m.insert(AlarmEvent, { alarmId: cur.id, event: 'shelve_expired', fromState: 'shelved', toState: next.state, byUser: null, at: new Date(), note: null });
+        await m.insert(AlarmEvent, {
+          alarmId: cur.id,
+          event: 'shelve_expired',
+          fromState: 'shelved',
+          toState: next.state,
+          byUser: null,
+          at: new Date(),
+          note: null,
+        });
         cur.state = next.state;
         cur.shelvedUntil = null;
         cur.shelveReason = null;
@@ -453,6 +511,4 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
     if (!a) throw new NotFoundException('No such alarm.');
     return a;
   }
-
-
 }

@@ -1,10 +1,23 @@
-import { allStartChecklistsSigned, evaluateCloseChecklists, evaluateStartChecklists, formatAge, preLubeFreshUntil, type GateChecklist, type GateTemplate } from './checklist-gate.js';
+import {
+  allStartChecklistsSigned,
+  evaluateCloseChecklists,
+  evaluateStartChecklists,
+  formatAge,
+  preLubeFreshUntil,
+  type GateChecklist,
+  type GateTemplate,
+} from './checklist-gate.js';
 
 // The gate's rules come from the product brief (a start needs every required checklist signed, a fresh
 // pre-lube sign-off and qualified signers); the times below are plain clock arithmetic
 // (common practice, no source: 60 s to the minute).
 const preLube: GateTemplate = { id: 't-lube', name: 'Pre-lube', purpose: 'pre_lube', requiredWhen: 'before_start' };
-const inspection: GateTemplate = { id: 't-insp', name: 'Pre-start inspection', purpose: 'pre_start_inspection', requiredWhen: 'before_start' };
+const inspection: GateTemplate = {
+  id: 't-insp',
+  name: 'Pre-start inspection',
+  purpose: 'pre_start_inspection',
+  requiredWhen: 'before_start',
+};
 const warmUp: GateTemplate = { id: 't-warm', name: 'Warm-up', purpose: 'warm_up', requiredWhen: 'not_required' };
 const shutdown: GateTemplate = { id: 't-shut', name: 'Shutdown', purpose: 'shutdown', requiredWhen: 'after_stop' };
 const templates = [preLube, inspection, warmUp, shutdown];
@@ -21,7 +34,16 @@ const signed = (templateId: string, signedMinutesAgo: number, id = `c-${template
   requiredDone: 5,
   startedAt: minutesAgo(signedMinutesAgo + 10),
 });
-const open = (templateId: string, done: number): GateChecklist => ({ id: `o-${templateId}`, templateId, status: 'in_progress', signedAt: null, signedByName: null, requiredItems: 8, requiredDone: done, startedAt: minutesAgo(5) });
+const open = (templateId: string, done: number): GateChecklist => ({
+  id: `o-${templateId}`,
+  templateId,
+  status: 'in_progress',
+  signedAt: null,
+  signedByName: null,
+  requiredItems: 8,
+  requiredDone: done,
+  startedAt: minutesAgo(5),
+});
 const input = (checklists: GateChecklist[], signerProblems = new Map<string, string | null>()) => ({
   templates,
   checklists,
@@ -60,7 +82,9 @@ describe('the checklist part of the start gate', () => {
   });
 
   it('treats the end of the window itself as stale', () => {
-    expect(evaluateStartChecklists(input([signed('t-lube', 30), signed('t-insp', 20)])).reasons.map((r) => r.code)).toEqual(['pre_lube_stale']);
+    expect(evaluateStartChecklists(input([signed('t-lube', 30), signed('t-insp', 20)])).reasons.map((r) => r.code)).toEqual([
+      'pre_lube_stale',
+    ]);
     expect(evaluateStartChecklists(input([signed('t-lube', 29.9), signed('t-insp', 20)])).reasons).toEqual([]);
   });
 
@@ -76,7 +100,9 @@ describe('the checklist part of the start gate', () => {
 
   it('refuses with signer_not_qualified when a signer has lost the qualification since', () => {
     const s = signed('t-insp', 20);
-    const v = evaluateStartChecklists(input([signed('t-lube', 5), s], new Map([[s.id, 'their start and run qualification expired on 2026-12-01.']])));
+    const v = evaluateStartChecklists(
+      input([signed('t-lube', 5), s], new Map([[s.id, 'their start and run qualification expired on 2026-12-01.']])),
+    );
     expect(v.reasons.map((r) => r.code)).toEqual(['signer_not_qualified']);
     expect(v.reasons[0].message).toContain('A. Operator');
   });

@@ -50,8 +50,18 @@ export function latestByTemplate(checklists: GateChecklist[]): Map<string, { sig
   return out;
 }
 
-function missingOrUnsigned(t: GateTemplate, open: GateChecklist | null, codes: { missing: string; unsigned: string }, when: string): StartGateReason {
-  if (!open) return { code: codes.missing, message: `${t.name}: no checklist has been started for this run. Fill it and sign it ${when}.`, subject: t.name };
+function missingOrUnsigned(
+  t: GateTemplate,
+  open: GateChecklist | null,
+  codes: { missing: string; unsigned: string },
+  when: string,
+): StartGateReason {
+  if (!open)
+    return {
+      code: codes.missing,
+      message: `${t.name}: no checklist has been started for this run. Fill it and sign it ${when}.`,
+      subject: t.name,
+    };
   return {
     code: codes.unsigned,
     message: `${t.name}: started but not signed (${open.requiredDone} of ${open.requiredItems} required items done). Finish it and sign it ${when}.`,
@@ -82,11 +92,23 @@ export function evaluateStartChecklists(input: StartChecklistInput): GateVerdict
   for (const t of input.templates.filter((x) => x.requiredWhen === 'before_start')) {
     const { signed, open } = latest.get(t.id) ?? { signed: null, open: null };
     if (!signed) {
-      reasons.push(missingOrUnsigned(t, open, { missing: GATE_REASON_CODES.checklistMissing, unsigned: GATE_REASON_CODES.checklistUnsigned }, 'before the start'));
+      reasons.push(
+        missingOrUnsigned(
+          t,
+          open,
+          { missing: GATE_REASON_CODES.checklistMissing, unsigned: GATE_REASON_CODES.checklistUnsigned },
+          'before the start',
+        ),
+      );
       continue;
     }
     const problem = input.signerProblems.get(signed.id);
-    if (problem) reasons.push({ code: GATE_REASON_CODES.signerNotQualified, message: `${t.name} was signed by ${signed.signedByName ?? 'someone'}: ${problem} Have it signed again by someone qualified.`, subject: t.name });
+    if (problem)
+      reasons.push({
+        code: GATE_REASON_CODES.signerNotQualified,
+        message: `${t.name} was signed by ${signed.signedByName ?? 'someone'}: ${problem} Have it signed again by someone qualified.`,
+        subject: t.name,
+      });
     if (t.purpose === 'pre_lube' && signed.signedAt) {
       const until = preLubeFreshUntil(signed.signedAt, input.preLubeFreshnessMinutes);
       if (!freshUntil || until < freshUntil) freshUntil = until;
@@ -109,7 +131,14 @@ export function evaluateCloseChecklists(templates: GateTemplate[], checklists: G
   for (const t of templates.filter((x) => x.requiredWhen === 'after_stop')) {
     const { signed, open } = latest.get(t.id) ?? { signed: null, open: null };
     if (!signed)
-      reasons.push(missingOrUnsigned(t, open, { missing: GATE_REASON_CODES.shutdownChecklistMissing, unsigned: GATE_REASON_CODES.shutdownChecklistUnsigned }, 'before the run is closed'));
+      reasons.push(
+        missingOrUnsigned(
+          t,
+          open,
+          { missing: GATE_REASON_CODES.shutdownChecklistMissing, unsigned: GATE_REASON_CODES.shutdownChecklistUnsigned },
+          'before the run is closed',
+        ),
+      );
   }
   return { reasons };
 }

@@ -1,7 +1,13 @@
 import { Injectable } from '@nestjs/common';
 import PDFDocument from 'pdfkit';
 import { PassThrough, type Readable } from 'node:stream';
-import { CHECKLIST_PURPOSE_LABELS, CHECKLIST_REQUIRED_WHEN_LABELS, DUTY_LABELS, HAZARD_LABELS, type ChecklistItemDef } from '@crankjournal/shared-types';
+import {
+  CHECKLIST_PURPOSE_LABELS,
+  CHECKLIST_REQUIRED_WHEN_LABELS,
+  DUTY_LABELS,
+  HAZARD_LABELS,
+  type ChecklistItemDef,
+} from '@crankjournal/shared-types';
 import { ChecklistTemplatesService } from './checklist-templates.service.js';
 import { EnginesService } from '../engines/engines.service.js';
 import { rangeText, unitText } from './checklist-rules.js';
@@ -35,7 +41,12 @@ export class ChecklistPdfService {
       if (doc.y + h > bottom()) doc.addPage();
     };
     const box = (x: number, y: number) => doc.rect(x, y, BOX, BOX).lineWidth(0.8).stroke();
-    const line = (x: number, y: number, w: number) => doc.moveTo(x, y).lineTo(x + w, y).lineWidth(0.5).stroke();
+    const line = (x: number, y: number, w: number) =>
+      doc
+        .moveTo(x, y)
+        .lineTo(x + w, y)
+        .lineWidth(0.5)
+        .stroke();
 
     doc.font('Helvetica-Bold').fontSize(17).text(`${content.name} — ${engine.name}`, left, doc.y, { width });
     doc.font('Helvetica').fontSize(9.5).fillColor('#333');
@@ -54,7 +65,15 @@ export class ChecklistPdfService {
     doc.x = left;
     doc.y = y0 + 22;
     if (content.description) doc.fontSize(10).text(content.description, left, doc.y, { width }).moveDown(0.4);
-    doc.fontSize(8.5).fillColor('#555').text('Paper copy for when the tablet is not available. Enter every value into Crankjournal afterwards; the start gate only counts checklists signed there.', left, doc.y, { width });
+    doc
+      .fontSize(8.5)
+      .fillColor('#555')
+      .text(
+        'Paper copy for when the tablet is not available. Enter every value into Crankjournal afterwards; the start gate only counts checklists signed there.',
+        left,
+        doc.y,
+        { width },
+      );
     doc.fillColor('black').moveDown(0.6);
 
     let n = 0;
@@ -71,8 +90,15 @@ export class ChecklistPdfService {
     }
 
     room(150);
-    doc.moveDown(0.6).font('Helvetica-Bold').fontSize(11).text('Out-of-range values accepted by the chief engineer', left, doc.y, { width });
-    doc.font('Helvetica').fontSize(9).text('Item, value, reason:', left, doc.y + 4);
+    doc
+      .moveDown(0.6)
+      .font('Helvetica-Bold')
+      .fontSize(11)
+      .text('Out-of-range values accepted by the chief engineer', left, doc.y, { width });
+    doc
+      .font('Helvetica')
+      .fontSize(9)
+      .text('Item, value, reason:', left, doc.y + 4);
     for (let i = 0; i < 2; i++) line(left, doc.y + 14 + i * 18, width);
     doc.y += 44;
     doc.text('Chief engineer (name and signature):', left, doc.y);
@@ -92,7 +118,11 @@ export class ChecklistPdfService {
     doc.y = ys + 52;
     doc.fontSize(8).fillColor('#555').text(CHECKLIST_SAFETY_NOTE, left, doc.y, { width });
     doc.end();
-    const slug = content.name.replace(/[^A-Za-z0-9]+/g, '-').replace(/^-|-$/g, '').slice(0, 40) || 'checklist';
+    const slug =
+      content.name
+        .replace(/[^A-Za-z0-9]+/g, '-')
+        .replace(/^-|-$/g, '')
+        .slice(0, 40) || 'checklist';
     return { filename: `checklist-${slug}-v${published?.version ?? 'draft'}.pdf`, stream: out };
   }
 
@@ -111,10 +141,17 @@ export class ChecklistPdfService {
     const estimate = 34 + (it.help ? 12 : 0) + (it.caution ? 26 : 0) + (it.kind === 'note' ? 30 : 0);
     room(estimate);
     const y = doc.y;
-    doc.font('Helvetica').fontSize(8).fillColor('#666').text(String(n), left, y + 1, { width: 14 });
+    doc
+      .font('Helvetica')
+      .fontSize(8)
+      .fillColor('#666')
+      .text(String(n), left, y + 1, { width: 14 });
     doc.fillColor('black');
     if (it.kind === 'tick') box(left + 20, y);
-    doc.font('Helvetica-Bold').fontSize(10).text(`${it.label}${it.required ? '' : ' (optional)'}`, textX, y, { width: textW });
+    doc
+      .font('Helvetica-Bold')
+      .fontSize(10)
+      .text(`${it.label}${it.required ? '' : ' (optional)'}`, textX, y, { width: textW });
     doc.font('Helvetica').fontSize(8.5);
     if (it.help) doc.fillColor('#444').text(it.help, textX, doc.y, { width: textW }).fillColor('black');
     if (it.kind === 'reading') {
@@ -123,7 +160,11 @@ export class ChecklistPdfService {
       line(textX + 45, yy + 10, 90);
       doc.text(unitText(it.unit), textX + 140, yy);
       const r = rangeText(it);
-      if (r) doc.font('Helvetica-Bold').text(`Acceptance range: ${r}`, textX + 200, yy).font('Helvetica');
+      if (r)
+        doc
+          .font('Helvetica-Bold')
+          .text(`Acceptance range: ${r}`, textX + 200, yy)
+          .font('Helvetica');
       doc.x = textX;
       doc.y = yy + 16;
     } else if (it.kind === 'choice') {
@@ -155,7 +196,12 @@ export class ChecklistPdfService {
       const label = `CAUTION — ${HAZARD_LABELS[it.caution.hazard]}: `;
       const h = doc.heightOfString(label + it.caution.text, { width: textW - 10 }) + 8;
       doc.rect(textX, yy, textW, h).lineWidth(0.8).stroke();
-      doc.font('Helvetica-Bold').fontSize(8.5).text(label, textX + 5, yy + 4, { continued: true, width: textW - 10 }).font('Helvetica').text(it.caution.text);
+      doc
+        .font('Helvetica-Bold')
+        .fontSize(8.5)
+        .text(label, textX + 5, yy + 4, { continued: true, width: textW - 10 })
+        .font('Helvetica')
+        .text(it.caution.text);
       doc.y = yy + h + 2;
     }
     doc.x = left;

@@ -1,16 +1,49 @@
 import type { ChecklistItemDef, ChecklistTemplateContent } from '@crankjournal/shared-types';
-import { isDone, isOutOfRange, normaliseValue, overrideHolds, progressOf, rangeText, signBlockers, validateTemplateContent, type EntryState } from './checklist-rules.js';
+import {
+  isDone,
+  isOutOfRange,
+  normaliseValue,
+  overrideHolds,
+  progressOf,
+  rangeText,
+  signBlockers,
+  validateTemplateContent,
+  type EntryState,
+} from './checklist-rules.js';
 
 // Acceptance ranges are inclusive at both ends (a gauge reading exactly at the stated limit is within it:
 // common practice, no source). The items below are invented.
 const tick: ChecklistItemDef = { key: 'drains', kind: 'tick', label: 'Drain cocks open', required: true };
-const pressure: ChecklistItemDef = { key: 'line-p', kind: 'reading', label: 'Pre-lube line pressure', required: true, unit: 'psig', min: 15, max: 30 };
+const pressure: ChecklistItemDef = {
+  key: 'line-p',
+  kind: 'reading',
+  label: 'Pre-lube line pressure',
+  required: true,
+  unit: 'psig',
+  min: 15,
+  max: 30,
+};
 const level: ChecklistItemDef = { key: 'level', kind: 'reading', label: 'Sump level', required: true, unit: 'in', min: 4, max: null };
-const barring: ChecklistItemDef = { key: 'barring', kind: 'choice', label: 'Barring gear', required: true, choices: ['Disengaged and locked out', 'Engaged'], acceptable: ['Disengaged and locked out'] };
+const barring: ChecklistItemDef = {
+  key: 'barring',
+  kind: 'choice',
+  label: 'Barring gear',
+  required: true,
+  choices: ['Disengaged and locked out', 'Engaged'],
+  acceptable: ['Disengaged and locked out'],
+};
 const note: ChecklistItemDef = { key: 'note', kind: 'note', label: 'Remarks', required: false };
 const photo: ChecklistItemDef = { key: 'photo', kind: 'photo', label: 'Photo of the gauge board', required: false };
 
-const entry = (p: Partial<EntryState>): EntryState => ({ tick: null, value: null, choice: null, text: null, hasPhoto: false, overrideValue: null, ...p });
+const entry = (p: Partial<EntryState>): EntryState => ({
+  tick: null,
+  value: null,
+  choice: null,
+  text: null,
+  hasPhoto: false,
+  overrideValue: null,
+  ...p,
+});
 
 describe('items', () => {
   it('is done only when ticked, read, chosen, written or photographed', () => {
@@ -96,7 +129,14 @@ describe('values given for items', () => {
 });
 
 describe('template content', () => {
-  const base: ChecklistTemplateContent = { name: 'Pre-lube', purpose: 'pre_lube', requiredWhen: 'before_start', requiredDuty: 'pre_lube', description: '', sections: [{ key: 's1', title: 'Lines', items: [tick, pressure] }] };
+  const base: ChecklistTemplateContent = {
+    name: 'Pre-lube',
+    purpose: 'pre_lube',
+    requiredWhen: 'before_start',
+    requiredDuty: 'pre_lube',
+    description: '',
+    sections: [{ key: 's1', title: 'Lines', items: [tick, pressure] }],
+  };
   it('accepts a sound template', () => {
     expect(validateTemplateContent(base)).toEqual([]);
   });
@@ -105,7 +145,14 @@ describe('template content', () => {
       ...base,
       sections: [
         { key: 's1', title: 'A', items: [tick, { ...tick }] },
-        { key: 's1', title: 'B', items: [{ ...pressure, key: 'p2', unit: '', min: 40, max: 30 }, { ...barring, choices: ['One'], acceptable: ['Two'] }] },
+        {
+          key: 's1',
+          title: 'B',
+          items: [
+            { ...pressure, key: 'p2', unit: '', min: 40, max: 30 },
+            { ...barring, choices: ['One'], acceptable: ['Two'] },
+          ],
+        },
       ],
     };
     const errs = validateTemplateContent(bad);

@@ -1,4 +1,12 @@
-import { acceptanceRangeText, checklistUnitText, readingOutOfRange, type ChecklistEntryValue, type ChecklistItemDef, type ChecklistSectionDef, type ChecklistTemplateContent } from '@crankjournal/shared-types';
+import {
+  acceptanceRangeText,
+  checklistUnitText,
+  readingOutOfRange,
+  type ChecklistEntryValue,
+  type ChecklistItemDef,
+  type ChecklistSectionDef,
+  type ChecklistTemplateContent,
+} from '@crankjournal/shared-types';
 
 /** The stored state of one item of a checklist (only the field of the item's kind is used). */
 export interface EntryState {
@@ -37,7 +45,8 @@ export function validateTemplateContent(c: ChecklistTemplateContent): string[] {
       if (it.kind === 'choice') {
         const choices = it.choices ?? [];
         if (choices.length < 2) errs.push(`${at} ("${it.label}") is a choice and needs at least two options`);
-        if (new Set(choices.map((x) => x.trim().toLowerCase())).size !== choices.length) errs.push(`${at}.choices holds the same option twice`);
+        if (new Set(choices.map((x) => x.trim().toLowerCase())).size !== choices.length)
+          errs.push(`${at}.choices holds the same option twice`);
         for (const a of it.acceptable ?? []) if (!choices.includes(a)) errs.push(`${at}.acceptable "${a}" is not one of its choices`);
       } else if (it.choices?.length || it.acceptable?.length) {
         errs.push(`${at} ("${it.label}"): choices belong to choice items only`);
@@ -71,7 +80,12 @@ export function valueOf(item: ChecklistItemDef, e: EntryState | null | undefined
 
 export function sameValue(a: ChecklistEntryValue | null, b: ChecklistEntryValue | null): boolean {
   if (!a || !b) return false;
-  return (a.tick ?? null) === (b.tick ?? null) && (a.value ?? null) === (b.value ?? null) && (a.choice ?? null) === (b.choice ?? null) && (a.text ?? null) === (b.text ?? null);
+  return (
+    (a.tick ?? null) === (b.tick ?? null) &&
+    (a.value ?? null) === (b.value ?? null) &&
+    (a.choice ?? null) === (b.choice ?? null) &&
+    (a.text ?? null) === (b.text ?? null)
+  );
 }
 
 /** Whether the item has been done: ticked, read, chosen, written or photographed. */
@@ -166,7 +180,16 @@ export function signBlockers(sections: ChecklistSectionDef[], entries: Map<strin
  */
 export function normaliseValue(item: ChecklistItemDef, v: ChecklistEntryValue): Pick<EntryState, 'tick' | 'value' | 'choice' | 'text'> {
   const given = (['tick', 'value', 'choice', 'text'] as const).filter((k) => v[k] !== undefined);
-  const field = item.kind === 'tick' ? 'tick' : item.kind === 'reading' ? 'value' : item.kind === 'choice' ? 'choice' : item.kind === 'note' ? 'text' : null;
+  const field =
+    item.kind === 'tick'
+      ? 'tick'
+      : item.kind === 'reading'
+        ? 'value'
+        : item.kind === 'choice'
+          ? 'choice'
+          : item.kind === 'note'
+            ? 'text'
+            : null;
   if (!field) throw new Error(`${item.label} is a photo item: upload the photo instead.`);
   const wrong = given.filter((k) => k !== field);
   if (wrong.length) throw new Error(`${item.label} takes ${field}, not ${wrong.join(', ')}.`);
@@ -175,7 +198,8 @@ export function normaliseValue(item: ChecklistItemDef, v: ChecklistEntryValue): 
   if (field === 'tick') out.tick = v.tick ?? null;
   if (field === 'value') out.value = v.value ?? null;
   if (field === 'choice') {
-    if (v.choice != null && !(item.choices ?? []).includes(v.choice)) throw new Error(`${item.label}: choose one of ${(item.choices ?? []).join(', ')}.`);
+    if (v.choice != null && !(item.choices ?? []).includes(v.choice))
+      throw new Error(`${item.label}: choose one of ${(item.choices ?? []).join(', ')}.`);
     out.choice = v.choice ?? null;
   }
   if (field === 'text') out.text = v.text?.trim() ? v.text.trim() : null;

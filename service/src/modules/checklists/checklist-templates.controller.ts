@@ -7,7 +7,13 @@ import { CurrentUser, type AuthUser } from '../../common/decorators/current-user
 import { IdParamDto } from '../../common/dto/id-param.dto.js';
 import { ChecklistTemplatesService } from './checklist-templates.service.js';
 import { ChecklistPdfService } from './checklist-pdf.service.js';
-import { ChecklistTemplateContentDto, CreateChecklistTemplateDto, PublishChecklistTemplateDto, TemplateQueryDto, TemplateVersionParamDto } from './dto/template.dto.js';
+import {
+  ChecklistTemplateContentDto,
+  CreateChecklistTemplateDto,
+  PublishChecklistTemplateDto,
+  TemplateQueryDto,
+  TemplateVersionParamDto,
+} from './dto/template.dto.js';
 
 /** Checklist templates: everyone reads and prints them; the chief engineer writes, publishes and retires them. */
 @ApiTags('checklists')
@@ -46,7 +52,11 @@ export class ChecklistTemplatesController {
   /** Saves the chief engineer's changes without publishing them. */
   @Put(':id/draft')
   @Roles('chief_engineer')
-  saveDraft(@Param() p: IdParamDto, @Body() dto: ChecklistTemplateContentDto, @CurrentUser() me: AuthUser): Promise<ChecklistTemplateDetail> {
+  saveDraft(
+    @Param() p: IdParamDto,
+    @Body() dto: ChecklistTemplateContentDto,
+    @CurrentUser() me: AuthUser,
+  ): Promise<ChecklistTemplateDetail> {
     return this.templates.saveDraft(p.id, dto, me);
   }
 

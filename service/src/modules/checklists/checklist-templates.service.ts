@@ -33,7 +33,9 @@ export function cleanContent(c: ChecklistTemplateContent): ChecklistTemplateCont
         ...(it.help?.trim() ? { help: it.help.trim() } : {}),
         required: it.required,
         ...(it.kind === 'reading' ? { unit: it.unit?.trim() ?? '', min: it.min ?? null, max: it.max ?? null } : {}),
-        ...(it.kind === 'choice' ? { choices: (it.choices ?? []).map((x) => x.trim()), acceptable: (it.acceptable ?? []).map((x) => x.trim()) } : {}),
+        ...(it.kind === 'choice'
+          ? { choices: (it.choices ?? []).map((x) => x.trim()), acceptable: (it.acceptable ?? []).map((x) => x.trim()) }
+          : {}),
         caution: it.caution ? { hazard: it.caution.hazard, text: it.caution.text.trim() } : null,
       })),
     })),
@@ -101,12 +103,21 @@ export class ChecklistTemplatesService {
     if (filter.engineId) where.engineId = filter.engineId;
     const rows = await this.db.getRepository(ChecklistTemplate).find({ where, order: { createdAt: 'ASC' } });
     const order: ChecklistRequiredWhen[] = ['before_start', 'not_required', 'after_stop'];
-    return (await this.summaries(rows)).sort((a, b) => Number(a.retired) - Number(b.retired) || order.indexOf(a.requiredWhen) - order.indexOf(b.requiredWhen));
+    return (await this.summaries(rows)).sort(
+      (a, b) => Number(a.retired) - Number(b.retired) || order.indexOf(a.requiredWhen) - order.indexOf(b.requiredWhen),
+    );
   }
 
   private async versionDto(v: ChecklistTemplateVersion, names?: Map<string, string>): Promise<ChecklistTemplateVersionDto> {
     const n = names ?? (await this.names([v.publishedBy]));
-    return { templateId: v.templateId, version: v.version, content: v.content, publishedAt: v.publishedAt.toISOString(), publishedByName: n.get(v.publishedBy) ?? 'unknown', changeNote: v.changeNote };
+    return {
+      templateId: v.templateId,
+      version: v.version,
+      content: v.content,
+      publishedAt: v.publishedAt.toISOString(),
+      publishedByName: n.get(v.publishedBy) ?? 'unknown',
+      changeNote: v.changeNote,
+    };
   }
 
   private async names(ids: string[]): Promise<Map<string, string>> {
@@ -127,7 +138,12 @@ export class ChecklistTemplatesService {
       current: cur ? await this.versionDto(cur, names) : null,
       draft: t.draft,
       draftUpdatedAt: t.draftUpdatedAt?.toISOString() ?? null,
-      versions: versions.map((v) => ({ version: v.version, publishedAt: v.publishedAt.toISOString(), publishedByName: names.get(v.publishedBy) ?? 'unknown', changeNote: v.changeNote })),
+      versions: versions.map((v) => ({
+        version: v.version,
+        publishedAt: v.publishedAt.toISOString(),
+        publishedByName: names.get(v.publishedBy) ?? 'unknown',
+        changeNote: v.changeNote,
+      })),
     };
   }
 
@@ -186,7 +202,13 @@ export class ChecklistTemplatesService {
       await this.assertNameFree(m, t.engineId, content.name, t.id);
       const patch: Partial<ChecklistTemplate> = { draft: content, draftUpdatedAt: new Date() };
       // While nothing is published the template shows what its draft says.
-      if (t.currentVersion === 0) Object.assign(patch, { name: content.name, purpose: content.purpose, requiredWhen: content.requiredWhen, requiredDuty: content.requiredDuty });
+      if (t.currentVersion === 0)
+        Object.assign(patch, {
+          name: content.name,
+          purpose: content.purpose,
+          requiredWhen: content.requiredWhen,
+          requiredDuty: content.requiredDuty,
+        });
       await m.update(ChecklistTemplate, { id }, patch);
     });
     void user;
@@ -196,7 +218,8 @@ export class ChecklistTemplatesService {
   async discardDraft(id: string): Promise<ChecklistTemplateDetail> {
     const t = await this.get(id);
     if (!t.draft) throw new ConflictException('There is no draft to discard.');
-    if (t.currentVersion === 0) throw new ConflictException('Nothing is published yet: the draft is all this template has. Retire the template instead.');
+    if (t.currentVersion === 0)
+      throw new ConflictException('Nothing is published yet: the draft is all this template has. Retire the template instead.');
     await this.db.getRepository(ChecklistTemplate).update({ id }, { draft: null, draftUpdatedAt: null });
     return this.detail(id);
   }
@@ -205,11 +228,26 @@ export class ChecklistTemplatesService {
     if (!t.draft) throw new ConflictException('There is no draft to publish: save your changes as a draft first.');
     this.check(t.draft);
     const version = t.currentVersion + 1;
-    await m.insert(ChecklistTemplateVersion, { templateId: t.id, version, content: t.draft, changeNote: changeNote.trim(), publishedBy: user.id, publishedAt: new Date() });
+    await m.insert(ChecklistTemplateVersion, {
+      templateId: t.id,
+      version,
+      content: t.draft,
+      changeNote: changeNote.trim(),
+      publishedBy: user.id,
+      publishedAt: new Date(),
+    });
     await m.update(
       ChecklistTemplate,
       { id: t.id },
-      { currentVersion: version, name: t.draft.name, purpose: t.draft.purpose, requiredWhen: t.draft.requiredWhen, requiredDuty: t.draft.requiredDuty, draft: null, draftUpdatedAt: null },
+      {
+        currentVersion: version,
+        name: t.draft.name,
+        purpose: t.draft.purpose,
+        requiredWhen: t.draft.requiredWhen,
+        requiredDuty: t.draft.requiredDuty,
+        draft: null,
+        draftUpdatedAt: null,
+      },
     );
   }
 
@@ -228,7 +266,8 @@ export class ChecklistTemplatesService {
     await this.db.transaction(async (m) => {
       const t = await m.findOne(ChecklistTemplate, { where: { id }, lock: { mode: 'pessimistic_write' } });
       if (!t) throw new NotFoundException('No such checklist template.');
-      if (retired === (t.retiredAt !== null)) throw new ConflictException(retired ? 'This template is already retired.' : 'This template is not retired.');
+      if (retired === (t.retiredAt !== null))
+        throw new ConflictException(retired ? 'This template is already retired.' : 'This template is not retired.');
       if (!retired) await this.assertNameFree(m, t.engineId, t.name, t.id);
       await m.update(ChecklistTemplate, { id }, { retiredAt: retired ? new Date() : null });
     });
@@ -237,7 +276,9 @@ export class ChecklistTemplatesService {
 
   /** Published, not retired templates of an engine (what the gates and a run's checklists work from). */
   async activeFor(engineId: string): Promise<ChecklistTemplate[]> {
-    return this.db.getRepository(ChecklistTemplate).find({ where: { engineId, retiredAt: IsNull(), currentVersion: Not(0) }, order: { createdAt: 'ASC' } });
+    return this.db
+      .getRepository(ChecklistTemplate)
+      .find({ where: { engineId, retiredAt: IsNull(), currentVersion: Not(0) }, order: { createdAt: 'ASC' } });
   }
 
   async summariesOf(rows: ChecklistTemplate[]): Promise<ChecklistTemplateSummary[]> {

@@ -1,4 +1,17 @@
-import { Body, Controller, Get, HttpCode, HttpException, Param, Post, Put, Req, Res, StreamableFile, UnsupportedMediaTypeException } from '@nestjs/common';
+import {
+  Body,
+  Controller,
+  Get,
+  HttpCode,
+  HttpException,
+  Param,
+  Post,
+  Put,
+  Req,
+  Res,
+  StreamableFile,
+  UnsupportedMediaTypeException,
+} from '@nestjs/common';
 import { ApiBearerAuth, ApiConsumes, ApiTags } from '@nestjs/swagger';
 import type { Request, Response } from 'express';
 import type { ChecklistDetail, RunChecklistsOverview } from '@crankjournal/shared-types';
@@ -7,11 +20,26 @@ import { CurrentUser, type AuthUser } from '../../common/decorators/current-user
 import { IdParamDto } from '../../common/dto/id-param.dto.js';
 import { AppConfig } from '../../config/app-config.service.js';
 import { ChecklistsService } from './checklists.service.js';
-import { AmendChecklistDto, ChecklistItemParamDto, FillChecklistItemDto, OverrideChecklistItemDto, SignChecklistDto, StartChecklistDto } from './dto/checklist.dto.js';
+import {
+  AmendChecklistDto,
+  ChecklistItemParamDto,
+  FillChecklistItemDto,
+  OverrideChecklistItemDto,
+  SignChecklistDto,
+  StartChecklistDto,
+} from './dto/checklist.dto.js';
 
 /** Reads a raw request body, refusing it (413) once it passes `limit` bytes. */
 export async function readBody(req: Request, limit: number): Promise<Buffer> {
-  const tooLarge = () => new HttpException({ statusCode: 413, error: 'Payload Too Large', message: `The photo is larger than ${Math.round(limit / 1024 / 1024)} MB; take a smaller one.` }, 413);
+  const tooLarge = () =>
+    new HttpException(
+      {
+        statusCode: 413,
+        error: 'Payload Too Large',
+        message: `The photo is larger than ${Math.round(limit / 1024 / 1024)} MB; take a smaller one.`,
+      },
+      413,
+    );
   if (Number(req.headers['content-length'] ?? 0) > limit) {
     req.resume();
     throw tooLarge();
@@ -92,7 +120,11 @@ export class ChecklistsController {
   @Post('checklists/:id/items/:itemKey/override')
   @HttpCode(200)
   @Roles('chief_engineer')
-  override(@Param() p: ChecklistItemParamDto, @Body() dto: OverrideChecklistItemDto, @CurrentUser() me: AuthUser): Promise<ChecklistDetail> {
+  override(
+    @Param() p: ChecklistItemParamDto,
+    @Body() dto: OverrideChecklistItemDto,
+    @CurrentUser() me: AuthUser,
+  ): Promise<ChecklistDetail> {
     return this.checklists.override(p.id, p.itemKey, dto.reason, me);
   }
 

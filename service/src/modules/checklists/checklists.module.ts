@@ -18,7 +18,12 @@ import { QualificationsModule } from '../qualifications/qualifications.module.js
  * checklists signed); clears a preparing run once its pre-start checklists are all signed.
  */
 @Module({
-  imports: [TypeOrmModule.forFeature([ChecklistTemplate, ChecklistTemplateVersion, Checklist, ChecklistEntry, ChecklistAmendment]), EnginesModule, RunsModule, QualificationsModule],
+  imports: [
+    TypeOrmModule.forFeature([ChecklistTemplate, ChecklistTemplateVersion, Checklist, ChecklistEntry, ChecklistAmendment]),
+    EnginesModule,
+    RunsModule,
+    QualificationsModule,
+  ],
   providers: [ChecklistTemplatesService, ChecklistsService, ChecklistPdfService],
   controllers: [ChecklistTemplatesController, ChecklistsController],
   exports: [ChecklistTemplatesService, ChecklistsService],

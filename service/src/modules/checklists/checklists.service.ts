@@ -1,4 +1,12 @@
-import { BadRequestException, ConflictException, ForbiddenException, HttpException, Injectable, Logger, NotFoundException } from '@nestjs/common';
+import {
+  BadRequestException,
+  ConflictException,
+  ForbiddenException,
+  HttpException,
+  Injectable,
+  Logger,
+  NotFoundException,
+} from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, In, type EntityManager } from 'typeorm';
 import { randomUUID } from 'node:crypto';
@@ -17,7 +25,20 @@ import {
 import { Checklist, ChecklistAmendment, ChecklistEntry } from './checklist.entity.js';
 import { ChecklistTemplate, ChecklistTemplateVersion } from './checklist-template.entity.js';
 import { ChecklistTemplatesService } from './checklist-templates.service.js';
-import { isDone, isOutOfRange, itemsOf, normaliseValue, overrideHolds, progressOf, rangeText, sameValue, signBlockers, unitText, valueOf, type EntryState } from './checklist-rules.js';
+import {
+  isDone,
+  isOutOfRange,
+  itemsOf,
+  normaliseValue,
+  overrideHolds,
+  progressOf,
+  rangeText,
+  sameValue,
+  signBlockers,
+  unitText,
+  valueOf,
+  type EntryState,
+} from './checklist-rules.js';
 import {
   allStartChecklistsSigned,
   evaluateCloseChecklists,
@@ -91,11 +112,22 @@ export class ChecklistsService {
     return new Map(users.map((u) => [u.id, u.displayName]));
   }
 
-  private async build(rows: Checklist[], full: boolean): Promise<{ summaries: ChecklistSummary[]; entries: Map<string, ChecklistEntryDto[]>; versions: Map<string, ChecklistTemplateVersion> }> {
+  private async build(
+    rows: Checklist[],
+    full: boolean,
+  ): Promise<{
+    summaries: ChecklistSummary[];
+    entries: Map<string, ChecklistEntryDto[]>;
+    versions: Map<string, ChecklistTemplateVersion>;
+  }> {
     if (!rows.length) return { summaries: [], entries: new Map(), versions: new Map() };
     const ids = rows.map((c) => c.id);
     const versions = new Map(
-      (await this.db.getRepository(ChecklistTemplateVersion).find({ where: { id: In([...new Set(rows.map((c) => c.templateVersionId))]) } })).map((v) => [v.id, v]),
+      (
+        await this.db
+          .getRepository(ChecklistTemplateVersion)
+          .find({ where: { id: In([...new Set(rows.map((c) => c.templateVersionId))]) } })
+      ).map((v) => [v.id, v]),
     );
     const entries = await this.db.getRepository(ChecklistEntry).find({ where: { checklistId: In(ids) } });
     const amendments = await this.db.getRepository(ChecklistAmendment).find({ where: { checklistId: In(ids) }, order: { at: 'ASC' } });
@@ -142,7 +174,16 @@ export class ChecklistsService {
             const st = states.get(it.key);
             const amendmentDtos: ChecklistAmendmentDto[] = am
               .filter((a) => a.itemKey === it.key)
-              .map((a) => ({ id: a.id, itemKey: a.itemKey, oldValue: a.oldValue, newValue: a.newValue, reason: a.reason, overrideReason: a.overrideReason, byName: names.get(a.byUser) ?? 'unknown', at: a.at.toISOString() }));
+              .map((a) => ({
+                id: a.id,
+                itemKey: a.itemKey,
+                oldValue: a.oldValue,
+                newValue: a.newValue,
+                reason: a.reason,
+                overrideReason: a.overrideReason,
+                byName: names.get(a.byUser) ?? 'unknown',
+                at: a.at.toISOString(),
+              }));
             return {
               itemKey: it.key,
               tick: e?.tick ?? null,
@@ -152,7 +193,10 @@ export class ChecklistsService {
               hasPhoto: !!e?.photoKey,
               done: isDone(it, st),
               outOfRange: isOutOfRange(it, st),
-              override: e?.overrideReason && overrideHolds(it, st) ? { reason: e.overrideReason, byName: names.get(e.overrideBy ?? '') ?? 'unknown', at: e.overrideAt!.toISOString() } : null,
+              override:
+                e?.overrideReason && overrideHolds(it, st)
+                  ? { reason: e.overrideReason, byName: names.get(e.overrideBy ?? '') ?? 'unknown', at: e.overrideAt!.toISOString() }
+                  : null,
               filledByName: e?.filledBy ? (names.get(e.filledBy) ?? 'unknown') : null,
               filledAt: e?.filledAt?.toISOString() ?? null,
               original: e?.signedValue ?? null,
@@ -169,7 +213,14 @@ export class ChecklistsService {
     const { c, version } = await this.load(id);
     const run = await this.runs.get(c.runId);
     const { summaries, entries } = await this.build([c], true);
-    return { ...summaries[0], description: version.content.description, sections: version.content.sections, entries: entries.get(c.id) ?? [], engineId: c.engineId, runState: run.state };
+    return {
+      ...summaries[0],
+      description: version.content.description,
+      sections: version.content.sections,
+      entries: entries.get(c.id) ?? [],
+      engineId: c.engineId,
+      runState: run.state,
+    };
   }
 
   private async summary(id: string): Promise<ChecklistSummary> {
@@ -198,10 +249,24 @@ export class ChecklistsService {
       const l = latest.get(t.id);
       const signed = l?.signed ? byId.get(l.signed.id)! : null;
       const open = l?.open ? byId.get(l.open.id)! : null;
-      return { template: t, progress: signed ? 'signed' : open ? 'in_progress' : 'not_started', signed, open, fillableNow: this.fillableIn(run, t.requiredWhen) };
+      return {
+        template: t,
+        progress: signed ? 'signed' : open ? 'in_progress' : 'not_started',
+        signed,
+        open,
+        fillableNow: this.fillableIn(run, t.requiredWhen),
+      };
     });
     const verdict = this.freshness(active, checklists, engine.preLubeFreshnessMinutes);
-    return { runId, engineId: run.engineId, runState: run.state, preLubeFreshnessMinutes: engine.preLubeFreshnessMinutes, preLubeFreshUntil: verdict, templates, checklists };
+    return {
+      runId,
+      engineId: run.engineId,
+      runState: run.state,
+      preLubeFreshnessMinutes: engine.preLubeFreshnessMinutes,
+      preLubeFreshUntil: verdict,
+      templates,
+      checklists,
+    };
   }
 
   private freshness(active: ChecklistTemplate[], checklists: ChecklistSummary[], minutes: number): string | null {
@@ -253,9 +318,19 @@ export class ChecklistsService {
       const row = rows.find((r) => r.id === s.id)!;
       const duty = summaries.find((x) => x.id === s.id)!.requiredDuty;
       const f = await this.quals.finding(row.signedBy!, run.engineId, duty, now);
-      signerProblems.set(s.id, isQualified(f.status) ? null : (qualificationProblem(f, duty, engine.name, s.signedByName ?? 'The signer')?.message ?? null));
+      signerProblems.set(
+        s.id,
+        isQualified(f.status) ? null : (qualificationProblem(f, duty, engine.name, s.signedByName ?? 'The signer')?.message ?? null),
+      );
     }
-    return evaluateStartChecklists({ templates: this.gateTemplates(active), checklists: gate, now, engineName: engine.name, preLubeFreshnessMinutes: engine.preLubeFreshnessMinutes, signerProblems });
+    return evaluateStartChecklists({
+      templates: this.gateTemplates(active),
+      checklists: gate,
+      now,
+      engineName: engine.name,
+      preLubeFreshnessMinutes: engine.preLubeFreshnessMinutes,
+      signerProblems,
+    });
   }
 
   /** The close gate: shutdown checklists signed (registered with the start gate's close rules). */
@@ -263,7 +338,10 @@ export class ChecklistsService {
     const active = await this.templates.activeFor(run.engineId);
     if (!active.some((t) => t.requiredWhen === 'after_stop')) return { reasons: [] };
     const summaries = await this.runChecklists(run.id);
-    return evaluateCloseChecklists(this.gateTemplates(active), summaries.map((s) => this.gateView(s)));
+    return evaluateCloseChecklists(
+      this.gateTemplates(active),
+      summaries.map((s) => this.gateView(s)),
+    );
   }
 
   // ---- writing ------------------------------------------------------------------------------------------
@@ -272,7 +350,9 @@ export class ChecklistsService {
     this.runs.assertOpen(run);
     if (!this.fillableIn(run, when)) {
       const states = CHECKLIST_RUN_STATES[when].map((s) => RUN_STATE_LABELS[s].toLowerCase()).join(' or ');
-      throw new ConflictException(`The ${name} checklist is filled while the run is ${states}; this run is ${RUN_STATE_LABELS[run.state].toLowerCase()}.`);
+      throw new ConflictException(
+        `The ${name} checklist is filled while the run is ${states}; this run is ${RUN_STATE_LABELS[run.state].toLowerCase()}.`,
+      );
     }
   }
 
@@ -291,9 +371,27 @@ export class ChecklistsService {
     const version = await this.templates.versionRow(t.id, t.currentVersion);
     const id = await this.db.transaction(async (m) => {
       const open = await m.findOne(Checklist, { where: { runId, templateId, status: 'in_progress' } });
-      if (open) throw new ConflictException({ statusCode: 409, error: 'Conflict', message: `A ${t.name} checklist is already being filled for this run; carry on with it.`, details: { checklistId: open.id } });
+      if (open)
+        throw new ConflictException({
+          statusCode: 409,
+          error: 'Conflict',
+          message: `A ${t.name} checklist is already being filled for this run; carry on with it.`,
+          details: { checklistId: open.id },
+        });
       const now = new Date();
-      const c = await m.save(Checklist, m.create(Checklist, { runId, engineId: run.engineId, templateId, templateVersionId: version.id, version: version.version, status: 'in_progress', startedBy: user.id, startedAt: now }));
+      const c = await m.save(
+        Checklist,
+        m.create(Checklist, {
+          runId,
+          engineId: run.engineId,
+          templateId,
+          templateVersionId: version.id,
+          version: version.version,
+          status: 'in_progress',
+          startedBy: user.id,
+          startedAt: now,
+        }),
+      );
       return c.id;
     });
     this.emit(runId, await this.summary(id));
@@ -307,7 +405,8 @@ export class ChecklistsService {
     this.assertFillable(run, first.version.content.requiredWhen, first.version.content.name);
     await this.db.transaction(async (m) => {
       const l = await this.load(id, m, true);
-      if (l.c.status === 'signed') throw new ConflictException('This checklist is signed and read-only. Correct a mistake with an amendment, giving the reason.');
+      if (l.c.status === 'signed')
+        throw new ConflictException('This checklist is signed and read-only. Correct a mistake with an amendment, giving the reason.');
       await write(m, l, run);
     });
     this.emit(first.c.runId, await this.summary(id));
@@ -315,7 +414,10 @@ export class ChecklistsService {
   }
 
   private async entryOf(m: EntityManager, checklistId: string, itemKey: string): Promise<ChecklistEntry> {
-    return (await m.findOne(ChecklistEntry, { where: { checklistId, itemKey } })) ?? m.create(ChecklistEntry, { checklistId, itemKey, tick: null, value: null, choice: null, text: null, photoKey: null, photoType: null });
+    return (
+      (await m.findOne(ChecklistEntry, { where: { checklistId, itemKey } })) ??
+      m.create(ChecklistEntry, { checklistId, itemKey, tick: null, value: null, choice: null, text: null, photoKey: null, photoType: null })
+    );
   }
 
   async fill(id: string, itemKey: string, dto: FillChecklistItemDto, user: AuthUser): Promise<ChecklistDetail> {
@@ -330,14 +432,23 @@ export class ChecklistsService {
       const e = await this.entryOf(m, id, itemKey);
       Object.assign(e, next, { filledBy: user.id, filledAt: new Date() });
       // An override was given for one value; a new value needs a new one.
-      if (e.overrideValue && !sameValue(e.overrideValue, valueOf(it, toState(e)))) Object.assign(e, { overrideValue: null, overrideReason: null, overrideBy: null, overrideAt: null });
+      if (e.overrideValue && !sameValue(e.overrideValue, valueOf(it, toState(e))))
+        Object.assign(e, { overrideValue: null, overrideReason: null, overrideBy: null, overrideAt: null });
       await m.save(ChecklistEntry, e);
     });
   }
 
   async putPhoto(id: string, itemKey: string, body: Buffer, user: AuthUser): Promise<ChecklistDetail> {
     const type = sniffImageType(body);
-    if (!type) throw new HttpException({ statusCode: 415, error: 'Unsupported Media Type', message: 'The photo must be a PNG, JPEG or WebP image (judged by its content, not its name).' }, 415);
+    if (!type)
+      throw new HttpException(
+        {
+          statusCode: 415,
+          error: 'Unsupported Media Type',
+          message: 'The photo must be a PNG, JPEG or WebP image (judged by its content, not its name).',
+        },
+        415,
+      );
     const { version, c } = await this.load(id);
     const it = this.item(version, itemKey);
     if (it.kind !== 'photo') throw new BadRequestException(`${it.label} is not a photo item.`);
@@ -363,7 +474,8 @@ export class ChecklistsService {
 
   /** The chief engineer accepts an out-of-range value for this checklist, with a reason that stays in the record. */
   async override(id: string, itemKey: string, reason: string, user: AuthUser): Promise<ChecklistDetail> {
-    if (user.role !== 'chief_engineer') throw new ForbiddenException('Only the chief engineer may accept a value outside its acceptance range.');
+    if (user.role !== 'chief_engineer')
+      throw new ForbiddenException('Only the chief engineer may accept a value outside its acceptance range.');
     return this.whileFilling(id, async (m, { version }) => {
       const it = this.item(version, itemKey);
       const e = await m.findOne(ChecklistEntry, { where: { checklistId: id, itemKey } });
@@ -390,14 +502,25 @@ export class ChecklistsService {
       this.assertFillable(run, content.requiredWhen, content.name);
       const blockers = signBlockers(content.sections, await this.states(id));
       if (blockers.length) throw new HttpException({ statusCode: 409, error: 'Conflict', message: blockers, details: { blockers } }, 409);
-      const qualificationId = await this.quals.assertQualified(user, c.engineId, content.requiredDuty, `sign the ${content.name} checklist`);
-      if (!(await this.auth.verifySigner(user.id, signature))) throw new BadRequestException('The password or signing PIN is not right; the checklist was not signed.');
+      const qualificationId = await this.quals.assertQualified(
+        user,
+        c.engineId,
+        content.requiredDuty,
+        `sign the ${content.name} checklist`,
+      );
+      if (!(await this.auth.verifySigner(user.id, signature)))
+        throw new BadRequestException('The password or signing PIN is not right; the checklist was not signed.');
       await this.db.transaction(async (m) => {
         const cur = await this.load(id, m, true);
         if (cur.c.status === 'signed') throw new ConflictException('This checklist was signed a moment ago by someone else.');
         const again = signBlockers(content.sections, await this.states(id, m));
-        if (again.length) throw new HttpException({ statusCode: 409, error: 'Conflict', message: again, details: { blockers: again } }, 409);
-        await m.update(Checklist, { id }, { status: 'signed', signedBy: user.id, signedAt: new Date(), signerQualificationId: qualificationId });
+        if (again.length)
+          throw new HttpException({ statusCode: 409, error: 'Conflict', message: again, details: { blockers: again } }, 409);
+        await m.update(
+          Checklist,
+          { id },
+          { status: 'signed', signedBy: user.id, signedAt: new Date(), signerQualificationId: qualificationId },
+        );
       });
       this.emit(c.runId, await this.summary(id));
       if (content.requiredWhen === 'before_start') await this.clearIfReady(c.runId, user);
@@ -416,10 +539,20 @@ export class ChecklistsService {
     if (run.state !== 'preparing') return;
     const active = await this.templates.activeFor(run.engineId);
     const summaries = await this.runChecklists(runId);
-    if (!allStartChecklistsSigned(this.gateTemplates(active), summaries.map((s) => this.gateView(s)))) return;
+    if (
+      !allStartChecklistsSigned(
+        this.gateTemplates(active),
+        summaries.map((s) => this.gateView(s)),
+      )
+    )
+      return;
     const names = active.filter((t) => t.requiredWhen === 'before_start').map((t) => t.name);
     try {
-      await this.runs.clearAfterChecklists(runId, user, `Cleared: every checklist required before a start is signed (${names.join(', ')}).`);
+      await this.runs.clearAfterChecklists(
+        runId,
+        user,
+        `Cleared: every checklist required before a start is signed (${names.join(', ')}).`,
+      );
     } catch (e) {
       if (e instanceof ConflictException) return; // someone moved the run meanwhile
       this.logger.warn(`clearing run ${runId} failed: ${(e as Error).message}`);
@@ -433,7 +566,10 @@ export class ChecklistsService {
     const run = await this.runs.get(c.runId);
     this.runs.assertOpen(run);
     const it = this.item(version, dto.itemKey);
-    if (it.kind === 'photo') throw new ConflictException('A photo cannot be amended. Record the correction in the reason of an amendment to another item, or in the run notes.');
+    if (it.kind === 'photo')
+      throw new ConflictException(
+        'A photo cannot be amended. Record the correction in the reason of an amendment to another item, or in the run notes.',
+      );
     let next: ReturnType<typeof normaliseValue>;
     try {
       next = normaliseValue(it, { tick: dto.tick, value: dto.value, choice: dto.choice, text: dto.text });
@@ -441,7 +577,8 @@ export class ChecklistsService {
       throw new BadRequestException((e as Error).message);
     }
     const nextState: EntryState = { ...next, hasPhoto: false, overrideValue: null };
-    if (it.required && !isDone(it, nextState)) throw new BadRequestException(`${it.label} is required: an amendment cannot leave it empty.`);
+    if (it.required && !isDone(it, nextState))
+      throw new BadRequestException(`${it.label} is required: an amendment cannot leave it empty.`);
     const outOfRange = isOutOfRange(it, nextState);
     if (outOfRange) {
       if (user.role !== 'chief_engineer')
@@ -462,9 +599,19 @@ export class ChecklistsService {
       const now = new Date();
       if (!e.signedValue) e.signedValue = old;
       Object.assign(e, next);
-      if (outOfRange) Object.assign(e, { overrideReason: dto.overrideReason!.trim(), overrideBy: user.id, overrideAt: now, overrideValue: neu });
+      if (outOfRange)
+        Object.assign(e, { overrideReason: dto.overrideReason!.trim(), overrideBy: user.id, overrideAt: now, overrideValue: neu });
       await m.save(ChecklistEntry, e);
-      await m.insert(ChecklistAmendment, { checklistId: id, itemKey: it.key, oldValue: old, newValue: neu, reason: dto.reason.trim(), overrideReason: outOfRange ? dto.overrideReason!.trim() : null, byUser: user.id, at: now });
+      await m.insert(ChecklistAmendment, {
+        checklistId: id,
+        itemKey: it.key,
+        oldValue: old,
+        newValue: neu,
+        reason: dto.reason.trim(),
+        overrideReason: outOfRange ? dto.overrideReason!.trim() : null,
+        byUser: user.id,
+        at: now,
+      });
     });
     this.emit(c.runId, await this.summary(id));
     return this.detail(id);

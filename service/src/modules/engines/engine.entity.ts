@@ -18,7 +18,8 @@ export class Engine {
   @Column({ name: 'mawp_psig', type: 'numeric', transformer: numeric }) mawpPsig: number;
   @Column({ name: 'pre_lube_freshness_minutes', type: 'int', default: 30 }) preLubeFreshnessMinutes: number;
   @Column({ name: 'flywheel_mass_lb', type: 'numeric', nullable: true, transformer: numeric }) flywheelMassLb: number | null;
-  @Column({ name: 'flywheel_radius_of_gyration_ft', type: 'numeric', nullable: true, transformer: numeric }) flywheelRadiusOfGyrationFt: number | null;
+  @Column({ name: 'flywheel_radius_of_gyration_ft', type: 'numeric', nullable: true, transformer: numeric }) flywheelRadiusOfGyrationFt:
+    number | null;
   @Column({ name: 'rotating_weight_lb', type: 'numeric', nullable: true, transformer: numeric }) rotatingWeightLb: number | null;
   /** Hours and revolutions before the first run recorded here (from the old log books). */
   @Column({ name: 'baseline_hours', type: 'numeric', default: 0, transformer: numeric }) baselineHours: number;

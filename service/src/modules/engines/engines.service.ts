@@ -12,7 +12,17 @@ import type { EngineWriteDto } from './dto/engine-write.dto.js';
 import { User } from '../users/user.entity.js';
 
 /** Limit fields whose every change is kept for the record. */
-const POINT_LIMIT_FIELDS = ['normalLow', 'normalHigh', 'lowLimit', 'highLimit', 'highHighLimit', 'maxRiseRatePerMin', 'maxRiseAboveAmbient', 'deadband', 'unit'] as const;
+const POINT_LIMIT_FIELDS = [
+  'normalLow',
+  'normalHigh',
+  'lowLimit',
+  'highLimit',
+  'highHighLimit',
+  'maxRiseRatePerMin',
+  'maxRiseAboveAmbient',
+  'deadband',
+  'unit',
+] as const;
 const ENGINE_LIMIT_FIELDS = ['ratedSpeedRpm', 'overspeedRpm', 'mawpPsig', 'preLubeFreshnessMinutes'] as const;
 
 export interface EngineWithPoints {
@@ -76,7 +86,18 @@ export class EnginesService {
       flywheelMassLb: e.flywheelMassLb,
       flywheelRadiusOfGyrationFt: e.flywheelRadiusOfGyrationFt,
       rotatingWeightLb: e.rotatingWeightLb,
-      cylinders: (e.cylinders ?? []).sort(byPos).map(({ id, label, role, boreIn, strokeIn, pistonRodIn, tailRodIn, clearancePercent }) => ({ id, label, role, boreIn, strokeIn, pistonRodIn, tailRodIn, clearancePercent })),
+      cylinders: (e.cylinders ?? [])
+        .sort(byPos)
+        .map(({ id, label, role, boreIn, strokeIn, pistonRodIn, tailRodIn, clearancePercent }) => ({
+          id,
+          label,
+          role,
+          boreIn,
+          strokeIn,
+          pistonRodIn,
+          tailRodIn,
+          clearancePercent,
+        })),
       lubricationPoints: (e.lubricationPoints ?? []).sort(byPos).map(({ id, label, kind, oilGrade }) => ({ id, label, kind, oilGrade })),
       bearings: (e.bearings ?? []).sort(byPos).map((b) => ({
         id: b.id,
@@ -131,28 +152,46 @@ export class EnginesService {
         seen.add(k);
       }
     };
-    dup(dto.cylinders.map((c) => c.label), 'cylinder label');
-    dup(dto.bearings.map((b) => b.label), 'bearing label');
-    dup(dto.lubricationPoints.map((l) => l.label), 'lubrication point label');
-    dup(dto.measurementPoints.map((m) => m.code), 'measurement point code');
+    dup(
+      dto.cylinders.map((c) => c.label),
+      'cylinder label',
+    );
+    dup(
+      dto.bearings.map((b) => b.label),
+      'bearing label',
+    );
+    dup(
+      dto.lubricationPoints.map((l) => l.label),
+      'lubrication point label',
+    );
+    dup(
+      dto.measurementPoints.map((m) => m.code),
+      'measurement point code',
+    );
     const lubeLabels = new Set(dto.lubricationPoints.map((l) => l.label));
     const bearingLabels = new Set(dto.bearings.map((b) => b.label));
     const cylLabels = new Set(dto.cylinders.map((c) => c.label));
     dto.bearings.forEach((b, i) => {
-      if (b.lubricationPointLabel && !lubeLabels.has(b.lubricationPointLabel)) errs.push(`bearings.${i}.lubricationPointLabel "${b.lubricationPointLabel}" is not one of the lubrication points`);
+      if (b.lubricationPointLabel && !lubeLabels.has(b.lubricationPointLabel))
+        errs.push(`bearings.${i}.lubricationPointLabel "${b.lubricationPointLabel}" is not one of the lubrication points`);
     });
     dto.measurementPoints.forEach((m, i) => {
-      if (m.highLimit != null && m.highHighLimit != null && m.highHighLimit < m.highLimit) errs.push(`measurementPoints.${i}.highHighLimit must not be below highLimit`);
-      if (m.normalLow != null && m.normalHigh != null && m.normalLow > m.normalHigh) errs.push(`measurementPoints.${i}.normalLow must not be above normalHigh`);
-      if (m.bearingLabel && !bearingLabels.has(m.bearingLabel)) errs.push(`measurementPoints.${i}.bearingLabel "${m.bearingLabel}" is not one of the bearings`);
-      if (m.cylinderLabel && !cylLabels.has(m.cylinderLabel)) errs.push(`measurementPoints.${i}.cylinderLabel "${m.cylinderLabel}" is not one of the cylinders`);
+      if (m.highLimit != null && m.highHighLimit != null && m.highHighLimit < m.highLimit)
+        errs.push(`measurementPoints.${i}.highHighLimit must not be below highLimit`);
+      if (m.normalLow != null && m.normalHigh != null && m.normalLow > m.normalHigh)
+        errs.push(`measurementPoints.${i}.normalLow must not be above normalHigh`);
+      if (m.bearingLabel && !bearingLabels.has(m.bearingLabel))
+        errs.push(`measurementPoints.${i}.bearingLabel "${m.bearingLabel}" is not one of the bearings`);
+      if (m.cylinderLabel && !cylLabels.has(m.cylinderLabel))
+        errs.push(`measurementPoints.${i}.cylinderLabel "${m.cylinderLabel}" is not one of the cylinders`);
     });
     if (errs.length) throw new BadRequestException({ statusCode: 400, error: 'Bad Request', message: errs });
   }
 
   async create(dto: EngineWriteDto, userId: string): Promise<EngineDetail> {
     this.crossCheck(dto);
-    if (await this.engines.exists({ where: { name: dto.name.trim() } })) throw new ConflictException(`An engine called "${dto.name}" already exists.`);
+    if (await this.engines.exists({ where: { name: dto.name.trim() } }))
+      throw new ConflictException(`An engine called "${dto.name}" already exists.`);
     const id = await this.db.transaction(async (m) => {
       const e = await m.save(Engine, m.create(Engine, this.engineFields(dto)));
       await this.writeParts(m, e, dto, userId, true);
@@ -170,7 +209,8 @@ export class EnginesService {
       const fields = this.engineFields(dto);
       const log: Partial<LimitChange>[] = [];
       for (const f of ENGINE_LIMIT_FIELDS) {
-        if (e[f] !== fields[f]) log.push({ engineId: id, subject: 'engine', field: f, oldValue: String(e[f]), newValue: String(fields[f]), changedBy: userId });
+        if (e[f] !== fields[f])
+          log.push({ engineId: id, subject: 'engine', field: f, oldValue: String(e[f]), newValue: String(fields[f]), changedBy: userId });
       }
       Object.assign(e, fields);
       await m.save(Engine, e);
@@ -210,19 +250,38 @@ export class EnginesService {
       return found;
     };
     // Lubrication points first: bearings refer to them.
-    const lubes = await own(LubricationPoint, dto.lubricationPoints.map((l) => l.id), 'lubrication point');
+    const lubes = await own(
+      LubricationPoint,
+      dto.lubricationPoints.map((l) => l.id),
+      'lubrication point',
+    );
     const savedLubes = await m.save(
       LubricationPoint,
-      dto.lubricationPoints.map((l, i) => ({ ...(l.id ? lubes.get(l.id) : {}), engineId: e.id, label: l.label.trim(), kind: l.kind, oilGrade: l.oilGrade.trim(), position: i })),
+      dto.lubricationPoints.map((l, i) => ({
+        ...(l.id ? lubes.get(l.id) : {}),
+        engineId: e.id,
+        label: l.label.trim(),
+        kind: l.kind,
+        oilGrade: l.oilGrade.trim(),
+        position: i,
+      })),
     );
     const lubeByLabel = new Map(savedLubes.map((l) => [l.label, l.id]));
-    const cyls = await own(Cylinder, dto.cylinders.map((c) => c.id), 'cylinder');
+    const cyls = await own(
+      Cylinder,
+      dto.cylinders.map((c) => c.id),
+      'cylinder',
+    );
     const savedCyls = await m.save(
       Cylinder,
       dto.cylinders.map((c, i) => ({ ...(c.id ? cyls.get(c.id) : {}), ...c, label: c.label.trim(), engineId: e.id, position: i })),
     );
     const cylByLabel = new Map(savedCyls.map((c) => [c.label, c.id]));
-    const bearings = await own(Bearing, dto.bearings.map((b) => b.id), 'bearing');
+    const bearings = await own(
+      Bearing,
+      dto.bearings.map((b) => b.id),
+      'bearing',
+    );
     const savedBearings = await m.save(
       Bearing,
       dto.bearings.map((b, i) => ({
@@ -234,13 +293,21 @@ export class EnginesService {
         journalLengthIn: b.journalLengthIn,
         loadSharePercent: b.loadSharePercent,
         radialClearanceIn: b.radialClearanceIn ?? null,
-        lubricationPointId: b.lubricationPointLabel ? (lubeByLabel.get(b.lubricationPointLabel.trim()) ?? null) : (b.lubricationPointId ?? null),
+        lubricationPointId: b.lubricationPointLabel
+          ? (lubeByLabel.get(b.lubricationPointLabel.trim()) ?? null)
+          : (b.lubricationPointId ?? null),
         position: i,
       })),
     );
     const bearingByLabel = new Map(savedBearings.map((b) => [b.label, b.id]));
-    const points = await own(MeasurementPoint, dto.measurementPoints.map((p) => p.id), 'measurement point');
-    const existingByCode = fresh ? new Map<string, MeasurementPoint>() : new Map((await m.find(MeasurementPoint, { where: { engineId: e.id } })).map((p) => [p.code, p]));
+    const points = await own(
+      MeasurementPoint,
+      dto.measurementPoints.map((p) => p.id),
+      'measurement point',
+    );
+    const existingByCode = fresh
+      ? new Map<string, MeasurementPoint>()
+      : new Map((await m.find(MeasurementPoint, { where: { engineId: e.id } })).map((p) => [p.code, p]));
     const log: Partial<LimitChange>[] = [];
     const savedPoints: MeasurementPoint[] = [];
     for (const p of dto.measurementPoints) {
@@ -269,7 +336,15 @@ export class EnginesService {
         for (const f of POINT_LIMIT_FIELDS) {
           const o = before[f] ?? null;
           const n = next[f] ?? null;
-          if (o !== n) log.push({ engineId: e.id, subject: `${p.code} ${p.label}`, field: f, oldValue: o === null ? null : String(o), newValue: n === null ? null : String(n), changedBy: userId });
+          if (o !== n)
+            log.push({
+              engineId: e.id,
+              subject: `${p.code} ${p.label}`,
+              field: f,
+              oldValue: o === null ? null : String(o),
+              newValue: n === null ? null : String(n),
+              changedBy: userId,
+            });
         }
       }
       savedPoints.push(await m.save(MeasurementPoint, next));
@@ -337,7 +412,10 @@ export class EnginesService {
     await (m ?? this.db.manager)
       .createQueryBuilder()
       .update(Engine)
-      .set({ recordedHours: () => `recorded_hours + ${Number(hours) || 0}`, recordedRevolutions: () => `recorded_revolutions + ${Number(revolutions) || 0}` })
+      .set({
+        recordedHours: () => `recorded_hours + ${Number(hours) || 0}`,
+        recordedRevolutions: () => `recorded_revolutions + ${Number(revolutions) || 0}`,
+      })
       .where('id = :engineId', { engineId })
       .execute();
     this.cache.delete(engineId);

@@ -6,7 +6,9 @@ import { Engine } from './engine.entity.js';
 export class LubricationPoint {
   @PrimaryGeneratedColumn('uuid') id: string;
   @Index() @Column({ name: 'engine_id', type: 'uuid' }) engineId: string;
-  @ManyToOne(() => Engine, (e) => e.lubricationPoints, { onDelete: 'CASCADE' }) @JoinColumn({ name: 'engine_id' }) engine?: Relation<Engine>;
+  @ManyToOne(() => Engine, (e) => e.lubricationPoints, { onDelete: 'CASCADE' })
+  @JoinColumn({ name: 'engine_id' })
+  engine?: Relation<Engine>;
   @Column({ type: 'varchar', length: 80 }) label: string;
   @Column({ type: 'varchar', length: 24 }) kind: LubricationKind;
   @Column({ name: 'oil_grade', type: 'varchar', length: 80, default: '' }) oilGrade: string;

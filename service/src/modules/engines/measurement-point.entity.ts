@@ -8,7 +8,9 @@ import { Engine } from './engine.entity.js';
 export class MeasurementPoint {
   @PrimaryGeneratedColumn('uuid') id: string;
   @Index() @Column({ name: 'engine_id', type: 'uuid' }) engineId: string;
-  @ManyToOne(() => Engine, (e) => e.measurementPoints, { onDelete: 'CASCADE' }) @JoinColumn({ name: 'engine_id' }) engine?: Relation<Engine>;
+  @ManyToOne(() => Engine, (e) => e.measurementPoints, { onDelete: 'CASCADE' })
+  @JoinColumn({ name: 'engine_id' })
+  engine?: Relation<Engine>;
   @Column({ type: 'varchar', length: 24 }) code: string;
   @Column({ type: 'varchar', length: 120 }) label: string;
   @Column({ type: 'varchar', length: 32 }) kind: MeasurementKind;

@@ -20,8 +20,17 @@ export class HealthController {
     } catch {
       database = 'down';
     }
-    const body: HealthResponse = { status: database === 'up' ? 'ok' : 'degraded', database, version: '0.1.0', time: new Date().toISOString() };
-    if (database === 'down') throw new HttpException({ statusCode: 503, error: 'Service Unavailable', message: 'The database is not answering.', details: body }, 503);
+    const body: HealthResponse = {
+      status: database === 'up' ? 'ok' : 'degraded',
+      database,
+      version: '0.1.0',
+      time: new Date().toISOString(),
+    };
+    if (database === 'down')
+      throw new HttpException(
+        { statusCode: 503, error: 'Service Unavailable', message: 'The database is not answering.', details: body },
+        503,
+      );
     return body;
   }
 }

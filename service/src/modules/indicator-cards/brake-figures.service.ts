@@ -5,14 +5,29 @@ import type { BrakeFigureDto, BrakeFigureInput, RecordAmendmentDto } from '@cran
 import { BrakeFigure } from './brake-figure.entity.js';
 import { CardRecordAmendment } from './card-record-amendment.entity.js';
 import { User } from '../users/user.entity.js';
-import { CalculationInputError, brakeHorsepower, brakeTorqueLbfFt, ropeBrakeEffectiveRadiusFt } from '../../calculations/indicated-power.js';
+import {
+  CalculationInputError,
+  brakeHorsepower,
+  brakeTorqueLbfFt,
+  ropeBrakeEffectiveRadiusFt,
+} from '../../calculations/indicated-power.js';
 import { hpToKw } from '../../calculations/units.js';
 
 /** A brake figure is compared with card sets taken no further than this from it. */
 export const BRAKE_FIGURE_WINDOW_MS = 60 * 60_000;
 
 /** The fields a brake figure's amendment compares. */
-export const BRAKE_FIELDS = ['measuredAt', 'method', 'brakeHorsepower', 'netBrakeLoadLbf', 'drumDiameterFt', 'ropeDiameterFt', 'torqueLbfFt', 'speedRpm', 'note'] as const;
+export const BRAKE_FIELDS = [
+  'measuredAt',
+  'method',
+  'brakeHorsepower',
+  'netBrakeLoadLbf',
+  'drumDiameterFt',
+  'ropeDiameterFt',
+  'torqueLbfFt',
+  'speedRpm',
+  'note',
+] as const;
 
 function need(value: number | null | undefined, path: string): number {
   if (value === null || value === undefined) throw new CalculationInputError(path, 'is needed for this method');
@@ -25,7 +40,10 @@ export function brakeFigureHorsepower(input: BrakeFigureInput): number {
     case 'direct':
       return need(input.brakeHorsepower, 'brakeHorsepower');
     case 'rope_brake': {
-      const effectiveRadiusFt = ropeBrakeEffectiveRadiusFt({ drumDiameterFt: need(input.drumDiameterFt, 'drumDiameterFt'), ropeDiameterFt: input.ropeDiameterFt ?? 0 });
+      const effectiveRadiusFt = ropeBrakeEffectiveRadiusFt({
+        drumDiameterFt: need(input.drumDiameterFt, 'drumDiameterFt'),
+        ropeDiameterFt: input.ropeDiameterFt ?? 0,
+      });
       const torqueLbfFt = brakeTorqueLbfFt({ netBrakeLoadLbf: need(input.netBrakeLoadLbf, 'netBrakeLoadLbf'), effectiveRadiusFt });
       return brakeHorsepower({ torqueLbfFt, speedRpm: need(input.speedRpm, 'speedRpm') });
     }
@@ -87,7 +105,14 @@ export class BrakeFiguresService {
     const byFigure = new Map<string, RecordAmendmentDto[]>();
     for (const a of amendments) {
       const list = byFigure.get(a.subjectId) ?? [];
-      list.push({ id: a.id, reason: a.reason, by: a.byUser, byName: name.get(a.byUser) ?? 'unknown', at: a.at.toISOString(), changes: a.changes });
+      list.push({
+        id: a.id,
+        reason: a.reason,
+        by: a.byUser,
+        byName: name.get(a.byUser) ?? 'unknown',
+        at: a.at.toISOString(),
+        changes: a.changes,
+      });
       byFigure.set(a.subjectId, list);
     }
     return figures.map((f) => ({

@@ -2,7 +2,12 @@ import { BadRequestException, Body, Controller, HttpCode, Post } from '@nestjs/c
 import { ApiBadRequestResponse, ApiBearerAuth, ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
 import { AnyRole } from '../../common/decorators/roles.decorator.js';
 import { CalculationInputError, computeIndicatedPower } from '../../calculations/indicated-power.js';
-import { IndicatedPowerRequestDto, IndicatedPowerResponseDto, TraceCalibrationRequestDto, TraceCalibrationResponseDto } from './dto/calculations.dto.js';
+import {
+  IndicatedPowerRequestDto,
+  IndicatedPowerResponseDto,
+  TraceCalibrationRequestDto,
+  TraceCalibrationResponseDto,
+} from './dto/calculations.dto.js';
 import { calibrateCardTrace } from './card-set-results.js';
 
 function answer<T>(fn: () => T): T {

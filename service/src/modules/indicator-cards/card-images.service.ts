@@ -18,7 +18,14 @@ export function readLimited(stream: Readable, maxBytes: number): Promise<Buffer>
     let size = 0;
     let done = false;
     const tooLarge = () =>
-      new HttpException({ statusCode: 413, error: 'Payload Too Large', message: `The image is larger than ${Math.floor(maxBytes / 1024 / 1024)} MB (${maxBytes} bytes); send a smaller photo or scan.` }, 413);
+      new HttpException(
+        {
+          statusCode: 413,
+          error: 'Payload Too Large',
+          message: `The image is larger than ${Math.floor(maxBytes / 1024 / 1024)} MB (${maxBytes} bytes); send a smaller photo or scan.`,
+        },
+        413,
+      );
     stream.on('data', (c: Buffer) => {
       if (done) return;
       size += c.length;
@@ -54,7 +61,15 @@ export class CardImagesService {
   }
 
   toDto(i: CardImage): CardImageDto {
-    return { id: i.id, runId: i.runId, contentType: i.contentType, bytes: i.bytes, widthPx: i.widthPx, heightPx: i.heightPx, uploadedAt: i.uploadedAt.toISOString() };
+    return {
+      id: i.id,
+      runId: i.runId,
+      contentType: i.contentType,
+      bytes: i.bytes,
+      widthPx: i.widthPx,
+      heightPx: i.heightPx,
+      uploadedAt: i.uploadedAt.toISOString(),
+    };
   }
 
   /** Stores an image for a run's cards; refuses anything that is not a PNG, JPEG or WebP image by its content. */
@@ -67,10 +82,16 @@ export class CardImagesService {
   /** Also used by the demo seed, for runs already closed. */
   async store(runId: string, body: Buffer, userId: string): Promise<CardImageDto> {
     if (body.length === 0) throw new BadRequestException('The request holds no image. Send the photo or scan itself as the body.');
-    if (body.length > this.maxBytes) throw new HttpException({ statusCode: 413, error: 'Payload Too Large', message: `The image is larger than ${this.maxBytes} bytes.` }, 413);
+    if (body.length > this.maxBytes)
+      throw new HttpException(
+        { statusCode: 413, error: 'Payload Too Large', message: `The image is larger than ${this.maxBytes} bytes.` },
+        413,
+      );
     const sniffed = sniffImage(body);
     if (!sniffed) {
-      throw new UnsupportedMediaTypeException('That file is not a PNG, JPEG or WebP image (checked by its content, not its name). Photograph or scan the card as one of those.');
+      throw new UnsupportedMediaTypeException(
+        'That file is not a PNG, JPEG or WebP image (checked by its content, not its name). Photograph or scan the card as one of those.',
+      );
     }
     const sha256 = createHash('sha256').update(body).digest('hex');
     const id = randomUUID();
@@ -106,7 +127,8 @@ export class CardImagesService {
       return { image, body };
     } catch (e) {
       const name = (e as { name?: string }).name;
-      if (name === 'NoSuchKey' || name === 'NotFound') throw new NotFoundException('The image is recorded but missing from the object store.');
+      if (name === 'NoSuchKey' || name === 'NotFound')
+        throw new NotFoundException('The image is recorded but missing from the object store.');
       throw e;
     }
   }

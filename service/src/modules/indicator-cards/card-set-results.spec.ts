@@ -71,10 +71,24 @@ describe('one card: which way, and what it comes to', () => {
       }
       throw new Error('no error');
     };
-    expect(err(() => evaluateCard({ meanEffectivePressurePsi: 20, ordinatesIn: [1, 1], springPsiPerIn: 20 }, 'cards[2]')).fieldPath).toBe('cards[2].ordinatesIn');
+    expect(err(() => evaluateCard({ meanEffectivePressurePsi: 20, ordinatesIn: [1, 1], springPsiPerIn: 20 }, 'cards[2]')).fieldPath).toBe(
+      'cards[2].ordinatesIn',
+    );
     expect(err(() => evaluateCard({}, 'cards[0]')).fieldPath).toBe('cards[0]');
     expect(err(() => evaluateCard({ areaSqIn: 2, springPsiPerIn: 60 }, 'card')).fieldPath).toBe('card.lengthIn');
-    const trace = { atmosphericLine: [{ x: 0, y: 100 }, { x: 400, y: 100 }] as [{ x: number; y: number }, { x: number; y: number }], admissionEndPx: { x: 20, y: 100 }, releaseEndPx: { x: 380, y: 100 }, pointsPx: [{ x: 20, y: 20 }, { x: 380, y: 80 }, { x: 20, y: 90 }] };
+    const trace = {
+      atmosphericLine: [
+        { x: 0, y: 100 },
+        { x: 400, y: 100 },
+      ] as [{ x: number; y: number }, { x: number; y: number }],
+      admissionEndPx: { x: 20, y: 100 },
+      releaseEndPx: { x: 380, y: 100 },
+      pointsPx: [
+        { x: 20, y: 20 },
+        { x: 380, y: 80 },
+        { x: 20, y: 90 },
+      ],
+    };
     expect(err(() => evaluateCard({ trace, springPsiPerIn: 60, lengthIn: 3.6 }, 'cards[3]')).fieldPath).toBe('cards[3].imageId');
   });
 
@@ -83,10 +97,18 @@ describe('one card: which way, and what it comes to', () => {
     const top = 500 - 82.2;
     const bottom = 500 - 10;
     const trace = {
-      atmosphericLine: [{ x: 80, y: 500 }, { x: 480, y: 500 }] as [{ x: number; y: number }, { x: number; y: number }],
+      atmosphericLine: [
+        { x: 80, y: 500 },
+        { x: 480, y: 500 },
+      ] as [{ x: number; y: number }, { x: number; y: number }],
       admissionEndPx: { x: 100, y: 500 },
       releaseEndPx: { x: 460, y: 500 },
-      pointsPx: [{ x: 100, y: top }, { x: 460, y: top }, { x: 460, y: bottom }, { x: 100, y: bottom }],
+      pointsPx: [
+        { x: 100, y: top },
+        { x: 460, y: top },
+        { x: 460, y: bottom },
+        { x: 100, y: bottom },
+      ],
     };
     const r = calibrateCardTrace(trace, 60, 3.6);
     expect(r.areaSqIn).toBeCloseTo(3.6 * 0.722, 9);
@@ -99,8 +121,22 @@ describe('one card: which way, and what it comes to', () => {
   });
 
   it('turns the calc module’s trace messages into the names the sender used', () => {
-    const trace = { atmosphericLine: [{ x: 0, y: 100 }, { x: 400, y: 100 }] as [{ x: number; y: number }, { x: number; y: number }], admissionEndPx: { x: 20, y: 100 }, releaseEndPx: { x: 20, y: 100 }, pointsPx: [{ x: 20, y: 20 }, { x: 380, y: 80 }, { x: 20, y: 90 }] };
-    expect(() => calibrateCardTrace(trace, 60, 3.6, 'cards[0].trace')).toThrow(/cards\[0\]\.trace: admissionEndPx and releaseEndPx must differ/);
+    const trace = {
+      atmosphericLine: [
+        { x: 0, y: 100 },
+        { x: 400, y: 100 },
+      ] as [{ x: number; y: number }, { x: number; y: number }],
+      admissionEndPx: { x: 20, y: 100 },
+      releaseEndPx: { x: 20, y: 100 },
+      pointsPx: [
+        { x: 20, y: 20 },
+        { x: 380, y: 80 },
+        { x: 20, y: 90 },
+      ],
+    };
+    expect(() => calibrateCardTrace(trace, 60, 3.6, 'cards[0].trace')).toThrow(
+      /cards\[0\]\.trace: admissionEndPx and releaseEndPx must differ/,
+    );
   });
 });
 
@@ -125,7 +161,10 @@ describe('a set’s results', () => {
       input({
         speedRpm: 180,
         cylinders: [cylinder({ boreIn: inches(300, 'mm'), strokeIn: inches(400, 'mm') })],
-        cards: [card({ end: 'head', meanEffectivePressurePsi: psi(6.5, 'bar') }), card({ end: 'crank', meanEffectivePressurePsi: psi(6.5, 'bar') })],
+        cards: [
+          card({ end: 'head', meanEffectivePressurePsi: psi(6.5, 'bar') }),
+          card({ end: 'crank', meanEffectivePressurePsi: psi(6.5, 'bar') }),
+        ],
         brake: { figureId: 'b1', measuredAt: '2026-06-13T11:05:00Z', brakeHorsepower },
       }),
     );
@@ -173,7 +212,9 @@ describe('a set’s results', () => {
       card({ cylinderId: 'lp', end: 'head', meanEffectivePressurePsi: 26, cutOffPercent: 42, admissionPressurePsig: 24.5 }),
       card({ cylinderId: 'lp', end: 'crank', meanEffectivePressurePsi: 25, cutOffPercent: 42, admissionPressurePsig: 23.5 }),
     ];
-    const r = computeCardSetResults(input({ cylinders: [hp, lp], cards, throttlePressurePsig: 132, receiverPressurePsig: 27, vacuumInHg: 24.5 }));
+    const r = computeCardSetResults(
+      input({ cylinders: [hp, lp], cards, throttlePressurePsig: 132, receiverPressurePsig: 27, vacuumInHg: 24.5 }),
+    );
 
     it('receiver drop is the receiver pressure less the LP cards’ mean admission: 27 − 24 = 3 psi (common practice, no source)', () => {
       expect(r.lowPressureAdmissionPsig).toBeCloseTo(24, 12);
@@ -198,13 +239,15 @@ describe('a set’s results', () => {
       const hpHead = r.cylinders[0].ends[0];
       expect(hpHead.steam!.expansionPressureBasis).toBe('logged');
       // Expansion point at cut-off incl. 8 % clearance: A/144 · L/12 · (0.35 + 0.08) ft³.
-      expect(hpHead.steam!.expansionVolumeFt3).toBeCloseTo(((Math.PI / 4) * 24 ** 2 / 144) * 4 * 0.43, 9);
+      expect(hpHead.steam!.expansionVolumeFt3).toBeCloseTo((((Math.PI / 4) * 24 ** 2) / 144) * 4 * 0.43, 9);
       expect(r.cylinders[1].ends[0].steam!.expansionPressureBasis).toBe('card');
       expect(r.steamAccountedForLbPerIhpHour).toBeGreaterThan(0);
     });
 
     it('without the LP cards the set is incomplete: no referred MEP, no shares', () => {
-      const partial = computeCardSetResults(input({ cylinders: [hp, lp], cards: cards.slice(0, 2), throttlePressurePsig: 132, receiverPressurePsig: 27, vacuumInHg: 24.5 }));
+      const partial = computeCardSetResults(
+        input({ cylinders: [hp, lp], cards: cards.slice(0, 2), throttlePressurePsig: 132, receiverPressurePsig: 27, vacuumInHg: 24.5 }),
+      );
       expect(partial.referredMeanEffectivePressurePsi).toBeNull();
       expect(partial.cylinders[0].workShare).toBeNull();
       expect(partial.cylinders[1].indicatedHorsepower).toBe(0);

@@ -31,7 +31,12 @@ import {
 } from '../../calculations/indicated-power.js';
 import { diagramFactor, idealCardPoints, idealMeanEffectivePressurePsi } from '../../calculations/ideal-card.js';
 import { cylinderVolumeFt3, steamAccountedForByDiagram } from '../../calculations/steam-if97.js';
-import { highestPressurePsig, lowerLinePressurePsig, upperLinePressurePsig, type CardOutlinePoint } from '../../calculations/card-diagram.js';
+import {
+  highestPressurePsig,
+  lowerLinePressurePsig,
+  upperLinePressurePsig,
+  type CardOutlinePoint,
+} from '../../calculations/card-diagram.js';
 import { vacuumInHgToPsia } from '../../calculations/vacuum.js';
 import { STANDARD_ATMOSPHERE_PSI, hpToKw, psiaToPsig, psigToPsia } from '../../calculations/units.js';
 
@@ -65,7 +70,12 @@ function requirePositive(value: unknown, path: string): number {
 }
 
 /** A trace calibrated: card coordinates, area and mean pressure (indicator-card.ts calibrateTrace). */
-export function calibrateCardTrace(trace: CardTrace, springPsiPerIn: number, lengthIn: number | null | undefined, path = 'trace'): TraceCalibrationResponse {
+export function calibrateCardTrace(
+  trace: CardTrace,
+  springPsiPerIn: number,
+  lengthIn: number | null | undefined,
+  path = 'trace',
+): TraceCalibrationResponse {
   let r;
   try {
     r = calibrateTrace({
@@ -108,7 +118,10 @@ export interface EvaluatedCard {
 }
 
 /** The card's inputs in the shape of a stored card (null where not given). */
-export type CardFigures = Pick<CardInput, 'springPsiPerIn' | 'lengthIn' | 'areaSqIn' | 'ordinatesIn' | 'meanEffectivePressurePsi' | 'imageId' | 'trace'>;
+export type CardFigures = Pick<
+  CardInput,
+  'springPsiPerIn' | 'lengthIn' | 'areaSqIn' | 'ordinatesIn' | 'meanEffectivePressurePsi' | 'imageId' | 'trace'
+>;
 
 /**
  * Checks that a card gives exactly one way to its mean height (MEP typed in; planimeter area with
@@ -124,35 +137,66 @@ export function evaluateCard(card: CardFigures, path: string): EvaluatedCard {
   ];
   const given = ways.filter((w) => w.given);
   if (given.length === 0) {
-    throw new CalculationInputError(path, 'give one of meanEffectivePressurePsi; areaSqIn with lengthIn and springPsiPerIn; ordinatesIn with springPsiPerIn; trace with imageId and springPsiPerIn');
+    throw new CalculationInputError(
+      path,
+      'give one of meanEffectivePressurePsi; areaSqIn with lengthIn and springPsiPerIn; ordinatesIn with springPsiPerIn; trace with imageId and springPsiPerIn',
+    );
   }
   if (given.length > 1) {
-    throw new CalculationInputError(`${path}.${given[1].field}`, `a card gives only one way to its mean pressure, but ${given.map((w) => w.field).join(' and ')} were given`);
+    throw new CalculationInputError(
+      `${path}.${given[1].field}`,
+      `a card gives only one way to its mean pressure, but ${given.map((w) => w.field).join(' and ')} were given`,
+    );
   }
   const method = given[0].method;
   switch (method) {
     case 'mep': {
       const mep = card.meanEffectivePressurePsi as number;
-      if (typeof mep !== 'number' || !Number.isFinite(mep)) throw new CalculationInputError(`${path}.meanEffectivePressurePsi`, 'must be a finite number');
-      return { method, meanEffectivePressurePsi: mep, meanHeightIn: null, tracedAreaSqIn: null, outline: null, traceAdmissionPressurePsig: null };
+      if (typeof mep !== 'number' || !Number.isFinite(mep))
+        throw new CalculationInputError(`${path}.meanEffectivePressurePsi`, 'must be a finite number');
+      return {
+        method,
+        meanEffectivePressurePsi: mep,
+        meanHeightIn: null,
+        tracedAreaSqIn: null,
+        outline: null,
+        traceAdmissionPressurePsig: null,
+      };
     }
     case 'planimeter': {
       const areaSqIn = card.areaSqIn as number;
-      if (typeof areaSqIn !== 'number' || !Number.isFinite(areaSqIn) || areaSqIn < 0) throw new CalculationInputError(`${path}.areaSqIn`, 'must be a number of at least 0');
+      if (typeof areaSqIn !== 'number' || !Number.isFinite(areaSqIn) || areaSqIn < 0)
+        throw new CalculationInputError(`${path}.areaSqIn`, 'must be a number of at least 0');
       const lengthIn = requirePositive(card.lengthIn, `${path}.lengthIn`);
       const springPsiPerIn = requirePositive(card.springPsiPerIn, `${path}.springPsiPerIn`);
       const r = mepFromPlanimeter({ areaSqIn, lengthIn, springPsiPerIn });
-      return { method, meanEffectivePressurePsi: r.meanEffectivePressurePsi, meanHeightIn: r.meanHeightIn, tracedAreaSqIn: areaSqIn, outline: null, traceAdmissionPressurePsig: null };
+      return {
+        method,
+        meanEffectivePressurePsi: r.meanEffectivePressurePsi,
+        meanHeightIn: r.meanHeightIn,
+        tracedAreaSqIn: areaSqIn,
+        outline: null,
+        traceAdmissionPressurePsig: null,
+      };
     }
     case 'ordinates': {
       const ordinatesIn = card.ordinatesIn as number[];
-      if (!Array.isArray(ordinatesIn) || ordinatesIn.length < 2) throw new CalculationInputError(`${path}.ordinatesIn`, 'needs at least two ordinates');
+      if (!Array.isArray(ordinatesIn) || ordinatesIn.length < 2)
+        throw new CalculationInputError(`${path}.ordinatesIn`, 'needs at least two ordinates');
       ordinatesIn.forEach((o, k) => {
-        if (typeof o !== 'number' || !Number.isFinite(o)) throw new CalculationInputError(`${path}.ordinatesIn[${k}]`, 'must be a finite number');
+        if (typeof o !== 'number' || !Number.isFinite(o))
+          throw new CalculationInputError(`${path}.ordinatesIn[${k}]`, 'must be a finite number');
       });
       const springPsiPerIn = requirePositive(card.springPsiPerIn, `${path}.springPsiPerIn`);
       const r = mepFromOrdinates({ ordinatesIn, springPsiPerIn });
-      return { method, meanEffectivePressurePsi: r.meanEffectivePressurePsi, meanHeightIn: r.meanHeightIn, tracedAreaSqIn: null, outline: null, traceAdmissionPressurePsig: null };
+      return {
+        method,
+        meanEffectivePressurePsi: r.meanEffectivePressurePsi,
+        meanHeightIn: r.meanHeightIn,
+        tracedAreaSqIn: null,
+        outline: null,
+        traceAdmissionPressurePsig: null,
+      };
     }
     case 'trace': {
       if (!isGiven(card.imageId)) throw new CalculationInputError(`${path}.imageId`, 'a trace needs the uploaded image it was made on');
@@ -258,7 +302,8 @@ export function computeCardSetResults(input: CardSetResultsInput): CardSetResult
     const backPsia = backOf(stage);
     const clearanceFraction = cyl.clearancePercent / 100;
     for (const end of ['head', 'crank'] as const) {
-      if (!cards.some((k) => k.cylinderId === cyl.cylinderId && k.end === end)) missingEnds.push({ cylinderId: cyl.cylinderId, cylinderLabel: cyl.label, end });
+      if (!cards.some((k) => k.cylinderId === cyl.cylinderId && k.end === end))
+        missingEnds.push({ cylinderId: cyl.cylinderId, cylinderLabel: cyl.label, end });
     }
     const i = carded.indexOf(cyl);
     const powered = i >= 0 && power ? power.cylinders[i] : null;
@@ -369,7 +414,8 @@ export function computeCardSetResults(input: CardSetResultsInput): CardSetResult
 
   const total = power?.totalIndicatedHorsepower ?? 0;
   const everyCylinderCarded = cylinders.length > 0 && carded.length === cylinders.length;
-  if (missingEnds.length) notes.push(`Not yet taken: ${missingEnds.map((m) => `${m.cylinderLabel} ${CYLINDER_END_WORDS[m.end]}`).join(', ')}.`);
+  if (missingEnds.length)
+    notes.push(`Not yet taken: ${missingEnds.map((m) => `${m.cylinderLabel} ${CYLINDER_END_WORDS[m.end]}`).join(', ')}.`);
 
   // Share of the work (indicated-power.ts), once every cylinder has a card.
   if (everyCylinderCarded && total > 0) {
@@ -380,7 +426,8 @@ export function computeCardSetResults(input: CardSetResultsInput): CardSetResult
   // The largest cylinder by swept volume, which the referred MEP is referred to.
   let referredToCylinderLabel: string | null = null;
   if (everyCylinderCarded && power) {
-    const swept = (c: CardSetCylinder) => ((effectiveAreaSqIn(c.boreIn, c.tailRodIn) + effectiveAreaSqIn(c.boreIn, c.pistonRodIn)) / 2) * c.strokeIn;
+    const swept = (c: CardSetCylinder) =>
+      ((effectiveAreaSqIn(c.boreIn, c.tailRodIn) + effectiveAreaSqIn(c.boreIn, c.pistonRodIn)) / 2) * c.strokeIn;
     referredToCylinderLabel = cylinders.reduce((a, b) => (swept(b) > swept(a) ? b : a)).label;
   }
 
@@ -405,7 +452,10 @@ export function computeCardSetResults(input: CardSetResultsInput): CardSetResult
   // Mechanical efficiency against the nearest brake or measured output figure (indicated-power.ts).
   let brake: CardSetResults['brake'] = null;
   if (input.brake && total > 0) {
-    brake = { ...input.brake, mechanicalEfficiency: mechanicalEfficiency({ brakeHorsepower: input.brake.brakeHorsepower, indicatedHorsepower: total }) };
+    brake = {
+      ...input.brake,
+      mechanicalEfficiency: mechanicalEfficiency({ brakeHorsepower: input.brake.brakeHorsepower, indicatedHorsepower: total }),
+    };
   }
 
   // Steam accounted for: the first cylinder's diagrams, charged to the engine's whole indicated power.

@@ -1,4 +1,16 @@
-import { Body, Controller, Get, HttpCode, HttpException, Param, Post, Req, Res, StreamableFile, UnsupportedMediaTypeException } from '@nestjs/common';
+import {
+  Body,
+  Controller,
+  Get,
+  HttpCode,
+  HttpException,
+  Param,
+  Post,
+  Req,
+  Res,
+  StreamableFile,
+  UnsupportedMediaTypeException,
+} from '@nestjs/common';
 import { ApiBearerAuth, ApiBody, ApiConsumes, ApiOperation, ApiTags } from '@nestjs/swagger';
 import type { Request, Response } from 'express';
 import type { BrakeFigureDto, CardImageDto, CardSetDto, CardSetPreviewDto } from '@crankjournal/shared-types';
@@ -7,7 +19,15 @@ import { CurrentUser, type AuthUser } from '../../common/decorators/current-user
 import { IdParamDto } from '../../common/dto/id-param.dto.js';
 import { CardSetsService } from './card-sets.service.js';
 import { CardImagesService, readLimited } from './card-images.service.js';
-import { AmendBrakeFigureDto, AmendCardDto, AmendCardSetDto, CardInputDto, CreateBrakeFigureDto, CreateCardSetDto, RunIdParamDto } from './dto/card-set.dto.js';
+import {
+  AmendBrakeFigureDto,
+  AmendCardDto,
+  AmendCardSetDto,
+  CardInputDto,
+  CreateBrakeFigureDto,
+  CreateCardSetDto,
+  RunIdParamDto,
+} from './dto/card-set.dto.js';
 
 /** Card sets of a run: taken, added to and amended by operators and the chief engineer; read by everyone. */
 @ApiTags('indicator cards')
@@ -63,7 +83,7 @@ export class CardSetsController {
 
   @Post('cards/:id/amendments')
   @Roles('chief_engineer', 'operator')
-  @ApiOperation({ summary: "Correct a card (new figures in full, one way); the old values stay with the reason, who and when" })
+  @ApiOperation({ summary: 'Correct a card (new figures in full, one way); the old values stay with the reason, who and when' })
   amendCard(@Param() p: IdParamDto, @Body() dto: AmendCardDto, @CurrentUser() me: AuthUser): Promise<CardSetDto> {
     return this.sets.amendCard(p.id, dto, me);
   }
@@ -84,7 +104,10 @@ export class CardSetsController {
     const max = this.images.maxBytes;
     if (Number(req.headers['content-length'] ?? 0) > max) {
       req.resume();
-      throw new HttpException({ statusCode: 413, error: 'Payload Too Large', message: `The image is larger than ${max} bytes; send a smaller photo or scan.` }, 413);
+      throw new HttpException(
+        { statusCode: 413, error: 'Payload Too Large', message: `The image is larger than ${max} bytes; send a smaller photo or scan.` },
+        413,
+      );
     }
     const body = await readLimited(req, max);
     return this.images.upload(p.runId, body, me);

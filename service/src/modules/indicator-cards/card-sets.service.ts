@@ -58,7 +58,16 @@ const CARD_FIELDS = [
   'note',
   'meanEffectivePressurePsi',
 ] as const;
-const SET_FIELDS = ['takenAt', 'speedRpm', 'speedSource', 'cutOffPercent', 'throttlePressurePsig', 'receiverPressurePsig', 'vacuumInHg', 'notes'] as const;
+const SET_FIELDS = [
+  'takenAt',
+  'speedRpm',
+  'speedSource',
+  'cutOffPercent',
+  'throttlePressurePsig',
+  'receiverPressurePsig',
+  'vacuumInHg',
+  'notes',
+] as const;
 
 /** Turns a calculation's input error into a 400 that names the field. */
 function badRequest<T>(fn: () => T): T {
@@ -88,7 +97,9 @@ const plain = (v: unknown) => (v instanceof Date ? v.toISOString() : (v ?? null)
 
 /** The fields that differ between two records, as stored. */
 export function changesBetween<T extends object>(before: T, after: Partial<T>, fields: readonly (keyof T & string)[]): FieldChange[] {
-  return fields.filter((f) => f in after && !same(plain(before[f]), plain(after[f]))).map((f) => ({ field: f, from: plain(before[f]), to: plain(after[f]) }));
+  return fields
+    .filter((f) => f in after && !same(plain(before[f]), plain(after[f])))
+    .map((f) => ({ field: f, from: plain(before[f]), to: plain(after[f]) }));
 }
 
 /** A reading's value on the psi gauge basis (pressure points may be logged in other units). */
@@ -185,7 +196,13 @@ export class CardSetsService {
     return this.readings.nearestValue(run.id, kind, at, NEAREST_READING_WINDOW_MS);
   }
 
-  private async figure(run: Run, kind: MeasurementKind, at: Date, given: number | null | undefined, convert: (v: number, unit: string) => number | null) {
+  private async figure(
+    run: Run,
+    kind: MeasurementKind,
+    at: Date,
+    given: number | null | undefined,
+    convert: (v: number, unit: string) => number | null,
+  ) {
     if (given !== undefined && given !== null) return { value: given, source: 'entered' as FigureSource, at: null };
     const r = await this.nearest(run, kind, at);
     const value = r ? convert(r.value, r.unit) : null;
@@ -194,7 +211,8 @@ export class CardSetsService {
 
   private async geometry(run: Run): Promise<{ cylinders: CardSetCylinder[]; condensing: boolean }> {
     const engine = await this.engines.detail(run.engineId);
-    if (!engine.cylinders.length) throw new ConflictException("This engine's cylinders are not described yet; a chief engineer adds them on the engine's page first.");
+    if (!engine.cylinders.length)
+      throw new ConflictException("This engine's cylinders are not described yet; a chief engineer adds them on the engine's page first.");
     return {
       cylinders: engine.cylinders.map((c) => ({
         cylinderId: c.id,
@@ -213,11 +231,20 @@ export class CardSetsService {
   /** Checks a card against the set's cylinders and the run's images, and works out its mean pressure. */
   private async prepareCard(run: Run, cylinders: CardSetCylinder[], card: CardInput, path: string): Promise<PreparedCard> {
     const cylinder = cylinders.find((c) => c.cylinderId === card.cylinderId);
-    if (!cylinder) throw new BadRequestException({ statusCode: 400, error: 'Bad Request', message: [`${path}.cylinderId: not a cylinder of this run's engine`] });
+    if (!cylinder)
+      throw new BadRequestException({
+        statusCode: 400,
+        error: 'Bad Request',
+        message: [`${path}.cylinderId: not a cylinder of this run's engine`],
+      });
     if (card.imageId) {
       const image = await this.db.getRepository(CardImage).findOne({ where: { id: card.imageId } });
       if (!image || image.runId !== run.id) {
-        throw new BadRequestException({ statusCode: 400, error: 'Bad Request', message: [`${path}.imageId: no image of this run has that id; upload the card image first`] });
+        throw new BadRequestException({
+          statusCode: 400,
+          error: 'Bad Request',
+          message: [`${path}.imageId: no image of this run has that id; upload the card image first`],
+        });
       }
     }
     const evaluated = badRequest(() => evaluateCard(card, path));
@@ -227,7 +254,8 @@ export class CardSetsService {
   private async prepare(run: Run, dto: CreateCardSetRequest, opts: { seed?: boolean } = {}): Promise<PreparedSet> {
     const takenAt = new Date(dto.takenAt);
     if (Number.isNaN(takenAt.getTime())) throw new BadRequestException('takenAt must be an ISO date-time');
-    if (!opts.seed && takenAt.getTime() > Date.now() + MAX_FUTURE_MS) throw new BadRequestException('takenAt is in the future; check the tablet’s clock.');
+    if (!opts.seed && takenAt.getTime() > Date.now() + MAX_FUTURE_MS)
+      throw new BadRequestException('takenAt is in the future; check the tablet’s clock.');
     const { cylinders, condensing } = await this.geometry(run);
 
     const speed = await this.figure(run, 'speed', takenAt, dto.speedRpm, (v, unit) => (unit === 'rpm' && v > 0 ? v : null));
@@ -235,7 +263,9 @@ export class CardSetsService {
       throw new BadRequestException({
         statusCode: 400,
         error: 'Bad Request',
-        message: [`speedRpm: no speed reading within ${NEAREST_READING_WINDOW_MS / 60_000} minutes of when the set was taken; enter the speed`],
+        message: [
+          `speedRpm: no speed reading within ${NEAREST_READING_WINDOW_MS / 60_000} minutes of when the set was taken; enter the speed`,
+        ],
       });
     }
     const throttle = await this.figure(run, 'throttle_pressure', takenAt, dto.throttlePressurePsig, asPsig);
@@ -248,7 +278,11 @@ export class CardSetsService {
       const prepared = await this.prepareCard(run, cylinders, card, `cards[${i}]`);
       const key = `${card.cylinderId}:${card.end}`;
       if (seen.has(key)) {
-        throw new BadRequestException({ statusCode: 400, error: 'Bad Request', message: [`cards[${i}].end: a second card for the ${prepared.cylinder.label} ${CYLINDER_END_WORDS[card.end]}`] });
+        throw new BadRequestException({
+          statusCode: 400,
+          error: 'Bad Request',
+          message: [`cards[${i}].end: a second card for the ${prepared.cylinder.label} ${CYLINDER_END_WORDS[card.end]}`],
+        });
       }
       seen.add(key);
       cards.push(prepared);
@@ -273,7 +307,10 @@ export class CardSetsService {
   }
 
   private resultsFor(
-    set: Pick<PreparedSet, 'takenAt' | 'speedRpm' | 'cylinders' | 'cutOffPercent' | 'throttlePressurePsig' | 'receiverPressurePsig' | 'vacuumInHg' | 'condensing'>,
+    set: Pick<
+      PreparedSet,
+      'takenAt' | 'speedRpm' | 'cylinders' | 'cutOffPercent' | 'throttlePressurePsig' | 'receiverPressurePsig' | 'vacuumInHg' | 'condensing'
+    >,
     cards: ResultCard[],
     figures: BrakeFigure[],
   ) {
@@ -293,18 +330,20 @@ export class CardSetsService {
   }
 
   /** A stored card as the results see it, matched to the set's own copy of its cylinder by label. */
-  private static resultCard = (cylinders: CardSetCylinder[]) => (c: IndicatorCard): ResultCard => {
-    return {
-      id: c.id,
-      cylinderId: cylinders.find((x) => x.label === c.cylinderLabel)?.cylinderId ?? c.cylinderId ?? c.cylinderLabel,
-      end: c.end,
-      meanEffectivePressurePsi: c.meanEffectivePressurePsi,
-      cutOffPercent: c.cutOffPercent,
-      compressionPercent: c.compressionPercent,
-      admissionPressurePsig: c.admissionPressurePsig,
-      outline: c.outline,
+  private static resultCard =
+    (cylinders: CardSetCylinder[]) =>
+    (c: IndicatorCard): ResultCard => {
+      return {
+        id: c.id,
+        cylinderId: cylinders.find((x) => x.label === c.cylinderLabel)?.cylinderId ?? c.cylinderId ?? c.cylinderLabel,
+        end: c.end,
+        meanEffectivePressurePsi: c.meanEffectivePressurePsi,
+        cutOffPercent: c.cutOffPercent,
+        compressionPercent: c.compressionPercent,
+        admissionPressurePsig: c.admissionPressurePsig,
+        outline: c.outline,
+      };
     };
-  };
 
   /** The columns of a card from its input and evaluation. */
   private static cardColumns(input: Omit<CardInput, 'cylinderId' | 'end'>, e: EvaluatedCard) {
@@ -376,7 +415,12 @@ export class CardSetsService {
    * Takes a card set for a run that is being prepared, running or stopped. `seed` lets the demo seed
    * record the sets of a season already closed (it bypasses the run-state checks only).
    */
-  async create(runId: string, dto: CreateCardSetRequest, user: AuthUser | { id: string }, opts: { seed?: boolean } = {}): Promise<CardSetDto> {
+  async create(
+    runId: string,
+    dto: CreateCardSetRequest,
+    user: AuthUser | { id: string },
+    opts: { seed?: boolean } = {},
+  ): Promise<CardSetDto> {
     const run = await this.runs.get(runId);
     if (!opts.seed) {
       this.runs.assertOpen(run);
@@ -440,7 +484,9 @@ export class CardSetsService {
       const set = await m.findOne(CardSet, { where: { id: setId }, lock: { mode: 'pessimistic_write' } });
       const cards = await m.find(IndicatorCard, { where: { cardSetId: setId } });
       if (cards.some((c) => c.cylinderLabel === prepared.cylinder.label && c.end === dto.end)) {
-        throw new ConflictException(`The ${prepared.cylinder.label} ${CYLINDER_END_WORDS[dto.end]} already has a card in this set; amend that card instead.`);
+        throw new ConflictException(
+          `The ${prepared.cylinder.label} ${CYLINDER_END_WORDS[dto.end]} already has a card in this set; amend that card instead.`,
+        );
       }
       const card = await m.save(
         IndicatorCard,
@@ -459,7 +505,12 @@ export class CardSetsService {
   }
 
   /** Corrects a card: the new figures replace the old ones, which stay in the amendment with who, when and why. */
-  async amendCard(cardId: string, dto: AmendCardRequest, user: AuthUser | { id: string }, opts: { seed?: boolean; at?: Date } = {}): Promise<CardSetDto> {
+  async amendCard(
+    cardId: string,
+    dto: AmendCardRequest,
+    user: AuthUser | { id: string },
+    opts: { seed?: boolean; at?: Date } = {},
+  ): Promise<CardSetDto> {
     const card0 = await this.db.getRepository(IndicatorCard).findOne({ where: { id: cardId } });
     if (!card0) throw new NotFoundException('No such card.');
     const set0 = await this.load(card0.cardSetId);
@@ -492,12 +543,18 @@ export class CardSetsService {
     const run = await this.runs.get(set0.runId);
     this.runs.assertOpen(run);
     const takenAt = dto.takenAt !== undefined ? new Date(dto.takenAt) : set0.takenAt;
-    if (takenAt.getTime() > Date.now() + MAX_FUTURE_MS) throw new BadRequestException('takenAt is in the future; check the tablet’s clock.');
+    if (takenAt.getTime() > Date.now() + MAX_FUTURE_MS)
+      throw new BadRequestException('takenAt is in the future; check the tablet’s clock.');
     const patch: Partial<CardSet> = {};
     if (dto.takenAt !== undefined) patch.takenAt = takenAt;
     if (dto.speedRpm !== undefined) {
       const speed = await this.figure(run, 'speed', takenAt, dto.speedRpm, (v, unit) => (unit === 'rpm' && v > 0 ? v : null));
-      if (speed.value === null) throw new BadRequestException({ statusCode: 400, error: 'Bad Request', message: ['speedRpm: no speed reading near that moment; enter the speed'] });
+      if (speed.value === null)
+        throw new BadRequestException({
+          statusCode: 400,
+          error: 'Bad Request',
+          message: ['speedRpm: no speed reading near that moment; enter the speed'],
+        });
       Object.assign(patch, { speedRpm: speed.value, speedSource: speed.source!, speedReadingAt: speed.at });
     }
     if (dto.cutOffPercent !== undefined) patch.cutOffPercent = dto.cutOffPercent;
@@ -531,24 +588,47 @@ export class CardSetsService {
   }
 
   private async recompute(m: EntityManager, set: CardSet, cards: IndicatorCard[]) {
-    const results = this.resultsFor(set, cards.map(CardSetsService.resultCard(set.cylinders)), await this.brakes.listEntities(set.runId, m));
+    const results = this.resultsFor(
+      set,
+      cards.map(CardSetsService.resultCard(set.cylinders)),
+      await this.brakes.listEntities(set.runId, m),
+    );
     await m.update(CardSet, { id: set.id }, { results });
     return results;
   }
 
-  private async recordAmendment(m: EntityManager, subjectType: AmendedSubject, subjectId: string, runId: string, changes: FieldChange[], reason: string, byUser: string, at = new Date()) {
-    await m.save(CardRecordAmendment, m.create(CardRecordAmendment, { subjectType, subjectId, runId, changes, reason: reason.trim(), byUser, at }));
+  private async recordAmendment(
+    m: EntityManager,
+    subjectType: AmendedSubject,
+    subjectId: string,
+    runId: string,
+    changes: FieldChange[],
+    reason: string,
+    byUser: string,
+    at = new Date(),
+  ) {
+    await m.save(
+      CardRecordAmendment,
+      m.create(CardRecordAmendment, { subjectType, subjectId, runId, changes, reason: reason.trim(), byUser, at }),
+    );
   }
 
   // ------------------------------------------------------------------------------------------
   // Brake figures (each change recomputes the run's sets)
   // ------------------------------------------------------------------------------------------
 
-  async addBrakeFigure(runId: string, dto: BrakeFigureInput, user: AuthUser | { id: string }, opts: { seed?: boolean } = {}): Promise<BrakeFigureDto> {
+  async addBrakeFigure(
+    runId: string,
+    dto: BrakeFigureInput,
+    user: AuthUser | { id: string },
+    opts: { seed?: boolean } = {},
+  ): Promise<BrakeFigureDto> {
     const run = await this.runs.get(runId);
     if (!opts.seed) this.runs.assertOpen(run);
     const fields = badRequest(() => brakeFigureFields(dto));
-    const saved = await this.db.getRepository(BrakeFigure).save(this.db.getRepository(BrakeFigure).create({ runId, ...fields, createdBy: user.id }));
+    const saved = await this.db
+      .getRepository(BrakeFigure)
+      .save(this.db.getRepository(BrakeFigure).create({ runId, ...fields, createdBy: user.id }));
     await this.recomputeRun(runId);
     const [out] = await this.brakes.toDtos([saved]);
     this.live.emitToRoom(`run:${runId}`, 'run:record', { runId, kind: CARD_RECORD_KINDS.brakeFigure, id: out.id, data: out });
@@ -609,7 +689,9 @@ export class CardSetsService {
 
   private async toDtos(sets: CardSet[]): Promise<CardSetDto[]> {
     if (!sets.length) return [];
-    const cards = await this.db.getRepository(IndicatorCard).find({ where: { cardSetId: In(sets.map((s) => s.id)) }, order: { createdAt: 'ASC' } });
+    const cards = await this.db
+      .getRepository(IndicatorCard)
+      .find({ where: { cardSetId: In(sets.map((s) => s.id)) }, order: { createdAt: 'ASC' } });
     const amendments = await this.db.getRepository(CardRecordAmendment).find({
       where: [
         { subjectType: 'card_set', subjectId: In(sets.map((s) => s.id)) },
@@ -623,7 +705,14 @@ export class CardSetsService {
     const bySubject = new Map<string, RecordAmendmentDto[]>();
     for (const a of amendments) {
       const list = bySubject.get(a.subjectId) ?? [];
-      list.push({ id: a.id, reason: a.reason, by: a.byUser, byName: name.get(a.byUser) ?? 'unknown', at: a.at.toISOString(), changes: a.changes });
+      list.push({
+        id: a.id,
+        reason: a.reason,
+        by: a.byUser,
+        byName: name.get(a.byUser) ?? 'unknown',
+        at: a.at.toISOString(),
+        changes: a.changes,
+      });
       bySubject.set(a.subjectId, list);
     }
     const endOrder = { head: 0, crank: 1 } as const;

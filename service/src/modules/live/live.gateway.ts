@@ -1,13 +1,6 @@
 import { Logger, UseFilters, UsePipes } from '@nestjs/common';
 import { JwtService } from '@nestjs/jwt';
-import {
-  ConnectedSocket,
-  MessageBody,
-  OnGatewayInit,
-  SubscribeMessage,
-  WebSocketGateway,
-  WebSocketServer,
-} from '@nestjs/websockets';
+import { ConnectedSocket, MessageBody, OnGatewayInit, SubscribeMessage, WebSocketGateway, WebSocketServer } from '@nestjs/websockets';
 import type { Server, Socket } from 'socket.io';
 import type { ClientToServerEvents, JoinRoomAck, ServerToClientEvents } from '@crankjournal/shared-types';
 import { UsersService } from '../users/users.service.js';

@@ -16,7 +16,8 @@ export class WsErrorFilter extends BaseWsExceptionFilter {
     let status = 400;
     if (exception instanceof WsException) {
       const e = exception.getError();
-      message = typeof e === 'string' || Array.isArray(e) ? (e as string | string[]) : String((e as { message?: string }).message ?? 'Refused.');
+      message =
+        typeof e === 'string' || Array.isArray(e) ? (e as string | string[]) : String((e as { message?: string }).message ?? 'Refused.');
     } else if (exception instanceof HttpException) {
       status = exception.getStatus();
       const r = exception.getResponse();

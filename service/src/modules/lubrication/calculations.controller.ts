@@ -49,9 +49,16 @@ export class LubricationCalculationsController {
   @AnyRole()
   @ApiOperation({ summary: 'Oil viscosity at a temperature from its 40 °C and 100 °C figures', description: VISCOSITY_METHOD })
   @ApiOkResponse({ type: OilViscosityResponseDto })
-  @ApiBadRequestResponse({ description: 'A field is missing or out of range, or the 100 °C figure is not below the 40 °C one; the message names the field.' })
+  @ApiBadRequestResponse({
+    description: 'A field is missing or out of range, or the 100 °C figure is not below the 40 °C one; the message names the field.',
+  })
   oilViscosity(@Body() dto: OilViscosityRequestDto): OilViscosityResponseDto {
-    if (dto.viscosity100cSt >= dto.viscosity40cSt) throw new BadRequestException({ statusCode: 400, error: 'Bad Request', message: ['viscosity100cSt must be lower than viscosity40cSt (oil thins as it warms)'] });
+    if (dto.viscosity100cSt >= dto.viscosity40cSt)
+      throw new BadRequestException({
+        statusCode: 400,
+        error: 'Bad Request',
+        message: ['viscosity100cSt must be lower than viscosity40cSt (oil thins as it warms)'],
+      });
     return answer(() => ({ ...oilViscosity(dto), method: VISCOSITY_METHOD }));
   }
 
@@ -62,7 +69,12 @@ export class LubricationCalculationsController {
   @ApiOkResponse({ type: JournalFrictionResponseDto })
   @ApiBadRequestResponse({ description: 'A field is missing or out of range; the message names the field.' })
   journalFriction(@Body() dto: JournalFrictionRequestDto): JournalFrictionResponseDto {
-    if (dto.radialClearanceIn * 2 >= dto.diameterIn) throw new BadRequestException({ statusCode: 400, error: 'Bad Request', message: ['radialClearanceIn must be far smaller than the journal'] });
+    if (dto.radialClearanceIn * 2 >= dto.diameterIn)
+      throw new BadRequestException({
+        statusCode: 400,
+        error: 'Bad Request',
+        message: ['radialClearanceIn must be far smaller than the journal'],
+      });
     return answer(() => {
       const r = journalFriction(dto);
       return { ...r, powerLossKw: hpToKw(r.powerLossHp), method: FRICTION_METHOD };
@@ -72,7 +84,10 @@ export class LubricationCalculationsController {
   @Post('lift-pressure')
   @HttpCode(200)
   @AnyRole()
-  @ApiOperation({ summary: 'Oil pressure to lift a journal (pre-lube / hydrostatic jacking)', description: LIFT_PRESSURE_RULE_TEXT + ' ' + JACKING_CAUTION })
+  @ApiOperation({
+    summary: 'Oil pressure to lift a journal (pre-lube / hydrostatic jacking)',
+    description: LIFT_PRESSURE_RULE_TEXT + ' ' + JACKING_CAUTION,
+  })
   @ApiOkResponse({ type: LiftPressureResponseDto })
   @ApiBadRequestResponse({ description: 'A field is missing or out of range; the message names the field.' })
   liftPressure(@Body() dto: LiftPressureRequestDto): LiftPressureResponseDto {

@@ -1,6 +1,12 @@
 import { Body, Controller, Get, Param, Post, Put, Query } from '@nestjs/common';
 import { ApiBearerAuth, ApiOperation, ApiTags } from '@nestjs/swagger';
-import type { BearingLubricationAnalysis, ConsumptionEntryDto as ConsumptionEntryOut, EngineLubrication, LubricationPointOilDto, OilDto } from '@crankjournal/shared-types';
+import type {
+  BearingLubricationAnalysis,
+  ConsumptionEntryDto as ConsumptionEntryOut,
+  EngineLubrication,
+  LubricationPointOilDto,
+  OilDto,
+} from '@crankjournal/shared-types';
 import { AnyRole, Roles } from '../../common/decorators/roles.decorator.js';
 import { CurrentUser, type AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { IdParamDto } from '../../common/dto/id-param.dto.js';
@@ -55,7 +61,10 @@ export class LubricationController {
 
   @Get('engines/:id/bearings')
   @AnyRole()
-  @ApiOperation({ summary: 'Each bearing at a run (default the latest): viscosity at its temperature, unit load, Petroff friction and power, Sommerfeld number' })
+  @ApiOperation({
+    summary:
+      'Each bearing at a run (default the latest): viscosity at its temperature, unit load, Petroff friction and power, Sommerfeld number',
+  })
   bearings(@Param() p: IdParamDto, @Query() q: AnalysisQueryDto): Promise<BearingLubricationAnalysis> {
     return this.lube.bearingAnalysis(p.id, q.runId);
   }

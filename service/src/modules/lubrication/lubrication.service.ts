@@ -19,7 +19,14 @@ import { EnginesService } from '../engines/engines.service.js';
 import { RunsService } from '../runs/runs.service.js';
 import { ReadingsService } from '../runs/readings.service.js';
 import { UsersService } from '../users/users.service.js';
-import { CONSUMPTION_TREND_RULE_TEXT, bearingUnitLoadPsi, consumptionTrend, journalFriction, oilConsumption, oilViscosity } from '../../calculations/lubrication.js';
+import {
+  CONSUMPTION_TREND_RULE_TEXT,
+  bearingUnitLoadPsi,
+  consumptionTrend,
+  journalFriction,
+  oilConsumption,
+  oilViscosity,
+} from '../../calculations/lubrication.js';
 import { fahrenheitToCelsius } from '../../calculations/units.js';
 import { FRICTION_METHOD } from './calculations.controller.js';
 
@@ -56,13 +63,15 @@ export class LubricationService {
   }
 
   private checkOil(dto: OilWriteDto) {
-    if (dto.viscosity100cSt >= dto.viscosity40cSt) throw new BadRequestException('viscosity100cSt must be lower than viscosity40cSt (oil thins as it warms).');
+    if (dto.viscosity100cSt >= dto.viscosity40cSt)
+      throw new BadRequestException('viscosity100cSt must be lower than viscosity40cSt (oil thins as it warms).');
   }
 
   async createOil(dto: OilWriteDto): Promise<OilDto> {
     this.checkOil(dto);
     const name = dto.name.trim();
-    if (await this.db.getRepository(Oil).exists({ where: { name } })) throw new ConflictException(`An oil called "${name}" already exists.`);
+    if (await this.db.getRepository(Oil).exists({ where: { name } }))
+      throw new ConflictException(`An oil called "${name}" already exists.`);
     const saved = await this.db.getRepository(Oil).save({
       name,
       grade: dto.grade.trim(),
@@ -80,7 +89,8 @@ export class LubricationService {
     const o = await this.db.getRepository(Oil).findOne({ where: { id } });
     if (!o) throw new NotFoundException('No such oil.');
     const name = dto.name.trim();
-    if (name !== o.name && (await this.db.getRepository(Oil).exists({ where: { name } }))) throw new ConflictException(`An oil called "${name}" already exists.`);
+    if (name !== o.name && (await this.db.getRepository(Oil).exists({ where: { name } })))
+      throw new ConflictException(`An oil called "${name}" already exists.`);
     Object.assign(o, {
       name,
       grade: dto.grade.trim(),
@@ -138,8 +148,11 @@ export class LubricationService {
     if (oilId === null) {
       await this.db.getRepository(LubricationPointOil).delete({ lubricationPointId: pointId });
     } else {
-      if (!(await this.db.getRepository(Oil).exists({ where: { id: oilId } }))) throw new BadRequestException('oilId is not one of the oils.');
-      await this.db.getRepository(LubricationPointOil).upsert({ lubricationPointId: pointId, engineId: engine.id, oilId, assignedBy: userId }, ['lubricationPointId']);
+      if (!(await this.db.getRepository(Oil).exists({ where: { id: oilId } })))
+        throw new BadRequestException('oilId is not one of the oils.');
+      await this.db
+        .getRepository(LubricationPointOil)
+        .upsert({ lubricationPointId: pointId, engineId: engine.id, oilId, assignedBy: userId }, ['lubricationPointId']);
     }
     const { dtos } = await this.pointOils(engine);
     return dtos.find((d) => d.lubricationPointId === pointId)!;
@@ -150,14 +163,17 @@ export class LubricationService {
   async addConsumption(dto: ConsumptionEntryDto, userId: string): Promise<ConsumptionEntryOut> {
     const run = await this.runs.get(dto.runId);
     const engine = await this.engines.detail(run.engineId);
-    if (!engine.lubricationPoints.some((l) => l.id === dto.lubricationPointId)) throw new BadRequestException('lubricationPointId is not a lubrication point of the run’s engine.');
-    if (!run.startedAt || run.state === 'abandoned') throw new ConflictException('Oil used is logged against a run that has run; this one has not started.');
+    if (!engine.lubricationPoints.some((l) => l.id === dto.lubricationPointId))
+      throw new BadRequestException('lubricationPointId is not a lubrication point of the run’s engine.');
+    if (!run.startedAt || run.state === 'abandoned')
+      throw new ConflictException('Oil used is logged against a run that has run; this one has not started.');
     let used: number;
     if (dto.method === 'added') {
       if (dto.quantityLitres == null) throw new BadRequestException('quantityLitres is needed when method is added.');
       used = dto.quantityLitres;
     } else {
-      if (dto.levelStartLitres == null || dto.levelEndLitres == null) throw new BadRequestException('levelStartLitres and levelEndLitres are needed when method is levels.');
+      if (dto.levelStartLitres == null || dto.levelEndLitres == null)
+        throw new BadRequestException('levelStartLitres and levelEndLitres are needed when method is levels.');
       if (dto.levelEndLitres > dto.levelStartLitres)
         throw new BadRequestException('levelEndLitres is above levelStartLitres: if oil was put in during the run, log it as added.');
       used = dto.levelStartLitres - dto.levelEndLitres;
@@ -199,7 +215,9 @@ export class LubricationService {
   async engineLubrication(engineId: string): Promise<EngineLubrication> {
     const engine = await this.engines.detail(engineId);
     const { dtos, oilOf } = await this.pointOils(engine);
-    const runs = (await this.runs.list({ engineId })).filter((r) => r.startedAt && r.state !== 'abandoned').sort((a, b) => a.startedAt!.localeCompare(b.startedAt!));
+    const runs = (await this.runs.list({ engineId }))
+      .filter((r) => r.startedAt && r.state !== 'abandoned')
+      .sort((a, b) => a.startedAt!.localeCompare(b.startedAt!));
     const runById = new Map(runs.map((r) => [r.id, r]));
     const entries = await this.db.getRepository(OilConsumptionEntry).find({ where: { engineId }, order: { recordedAt: 'ASC' } });
     const consumption: PointConsumption[] = engine.lubricationPoints.map((l) => {
@@ -209,7 +227,10 @@ export class LubricationService {
         .filter((r) => used.has(r.id))
         .map((r) => {
           const runHours = r.runningSeconds / 3600;
-          const rates = runHours > 0 && r.revolutions > 0 ? oilConsumption({ oilUsedLitres: used.get(r.id)!, runHours, revolutions: r.revolutions }) : null;
+          const rates =
+            runHours > 0 && r.revolutions > 0
+              ? oilConsumption({ oilUsedLitres: used.get(r.id)!, runHours, revolutions: r.revolutions })
+              : null;
           return {
             runId: r.id,
             title: r.title,
@@ -239,7 +260,10 @@ export class LubricationService {
       engineName: engine.name,
       points: dtos,
       consumption,
-      entries: entries.slice(-200).reverse().map((e) => this.entryDto(e, titles, names)),
+      entries: entries
+        .slice(-200)
+        .reverse()
+        .map((e) => this.entryDto(e, titles, names)),
     };
   }
 
@@ -258,19 +282,29 @@ export class LubricationService {
       run = runs.find((r) => r.id === runId);
       if (!run) {
         const r = await this.runs.get(runId);
-        throw new BadRequestException(r.engineId !== engineId ? 'runId is not a run of this engine.' : 'That run has not run yet: there are no running figures.');
+        throw new BadRequestException(
+          r.engineId !== engineId ? 'runId is not a run of this engine.' : 'That run has not run yet: there are no running figures.',
+        );
       }
     } else run = runs.sort((a, b) => b.startedAt!.localeCompare(a.startedAt!))[0];
     const { oilOf } = await this.pointOils(engine);
     const { points } = await this.engines.withPoints(engineId);
     const tempPoints = points.filter((p) => p.kind === 'bearing_temperature' && p.bearingId && (p.unit === 'degF' || p.unit === 'degC'));
     const speedPoints = points.filter((p) => p.kind === 'speed' && p.unit === 'rpm');
-    const stats = run ? await this.readings.pointRunStats([...tempPoints, ...speedPoints].map((p) => p.id), { runIds: [run.id] }) : [];
+    const stats = run
+      ? await this.readings.pointRunStats(
+          [...tempPoints, ...speedPoints].map((p) => p.id),
+          { runIds: [run.id] },
+        )
+      : [];
     const speedStat = speedPoints.map((p) => stats.find((s) => s.pointId === p.id)).find((s) => s);
     const speedRpm = speedStat ? speedStat.mean : null;
     const rows: BearingLubricationRow[] = engine.bearings.map((b) => {
       const missing: string[] = [];
-      const tp = tempPoints.filter((p) => p.bearingId === b.id).map((p) => ({ p, s: stats.find((s) => s.pointId === p.id) })).find((x) => x.s);
+      const tp = tempPoints
+        .filter((p) => p.bearingId === b.id)
+        .map((p) => ({ p, s: stats.find((s) => s.pointId === p.id) }))
+        .find((x) => x.s);
       const temperatureC = tp ? (tp.p.unit === 'degF' ? fahrenheitToCelsius(tp.s!.mean) : tp.s!.mean) : null;
       if (!run) missing.push('no run yet');
       else if (temperatureC === null) missing.push('no temperature readings of this bearing in the run');
@@ -281,10 +315,25 @@ export class LubricationService {
       if (!engine.rotatingWeightLb) missing.push('the engine’s rotating weight is not given');
       else if (!(b.loadSharePercent > 0)) missing.push('it carries no share of the rotating weight');
       if (!b.radialClearanceIn) missing.push('no radial clearance given');
-      const visc = oil && temperatureC !== null ? oilViscosity({ viscosity40cSt: oil.viscosity40cSt, viscosity100cSt: oil.viscosity100cSt, temperatureC, densityKgM3At15C: oil.densityKgM3At15C ?? undefined }) : null;
+      const visc =
+        oil && temperatureC !== null
+          ? oilViscosity({
+              viscosity40cSt: oil.viscosity40cSt,
+              viscosity100cSt: oil.viscosity100cSt,
+              temperatureC,
+              densityKgM3At15C: oil.densityKgM3At15C ?? undefined,
+            })
+          : null;
       const friction =
         visc && loadLbf && b.radialClearanceIn && speedRpm !== null && speedRpm > 0
-          ? journalFriction({ diameterIn: b.journalDiameterIn, lengthIn: b.journalLengthIn, radialClearanceIn: b.radialClearanceIn, speedRpm, viscosityReyn: visc.dynamicReyn, loadLbf })
+          ? journalFriction({
+              diameterIn: b.journalDiameterIn,
+              lengthIn: b.journalLengthIn,
+              radialClearanceIn: b.radialClearanceIn,
+              speedRpm,
+              viscosityReyn: visc.dynamicReyn,
+              loadLbf,
+            })
           : null;
       return {
         bearingId: b.id,

@@ -8,7 +8,11 @@ import { csvLine } from '../../common/util/csv.util.js';
 const day = (iso: string | null) => (iso ? iso.slice(0, 10) : '');
 const fmt = (v: number | null | undefined, d = 1) => (v === null || v === undefined || !Number.isFinite(v) ? '' : v.toFixed(d));
 const unitWord = (u: string) => (u === 'degC' ? '°C' : '°F');
-const fileStem = (h: BearingHistory) => `bearing-${h.bearing.label.replace(/[^A-Za-z0-9]+/g, '-').replace(/^-|-$/g, '').slice(0, 40)}-history`;
+const fileStem = (h: BearingHistory) =>
+  `bearing-${h.bearing.label
+    .replace(/[^A-Za-z0-9]+/g, '-')
+    .replace(/^-|-$/g, '')
+    .slice(0, 40)}-history`;
 
 /** Records out: a bearing's history as CSV (one row per run, then inspections and work) and as a PDF report. */
 @Injectable()
@@ -18,7 +22,28 @@ export class BearingHistoryExportsService {
   async csv(bearingId: string): Promise<{ filename: string; stream: Readable }> {
     const h = await this.history.history(bearingId);
     const lines: string[] = [];
-    lines.push(csvLine(['record', 'date', 'title', 'point', 'unit', 'peak_temperature', 'mean_temperature', 'ambient_mean', 'rise_at_peak_F', 'mean_speed_rpm', 'indicated_hp', 'load', 'alarms', 'drift_flag', 'drift_limit_F', 'expected_rise_F', 'detail', 'id']));
+    lines.push(
+      csvLine([
+        'record',
+        'date',
+        'title',
+        'point',
+        'unit',
+        'peak_temperature',
+        'mean_temperature',
+        'ambient_mean',
+        'rise_at_peak_F',
+        'mean_speed_rpm',
+        'indicated_hp',
+        'load',
+        'alarms',
+        'drift_flag',
+        'drift_limit_F',
+        'expected_rise_F',
+        'detail',
+        'id',
+      ]),
+    );
     for (const r of h.runs) {
       lines.push(
         csvLine([
@@ -44,9 +69,51 @@ export class BearingHistoryExportsService {
       );
     }
     for (const i of h.inspections)
-      lines.push(csvLine(['inspection', day(i.inspectedAt), i.title, '', '', '', '', '', '', '', '', '', '', '', '', '', `${INSPECTION_KIND_LABELS[i.kind]}: ${i.outOfToleranceCount} of ${i.measurementCount} out of tolerance. ${i.findings}`, i.id]));
+      lines.push(
+        csvLine([
+          'inspection',
+          day(i.inspectedAt),
+          i.title,
+          '',
+          '',
+          '',
+          '',
+          '',
+          '',
+          '',
+          '',
+          '',
+          '',
+          '',
+          '',
+          '',
+          `${INSPECTION_KIND_LABELS[i.kind]}: ${i.outOfToleranceCount} of ${i.measurementCount} out of tolerance. ${i.findings}`,
+          i.id,
+        ]),
+      );
     for (const w of h.workRecords)
-      lines.push(csvLine(['work', day(w.startedAt), w.title, '', '', '', '', '', '', '', '', '', '', '', '', '', w.status === 'closed' ? `closed ${day(w.closedAt)}` : 'open', w.id]));
+      lines.push(
+        csvLine([
+          'work',
+          day(w.startedAt),
+          w.title,
+          '',
+          '',
+          '',
+          '',
+          '',
+          '',
+          '',
+          '',
+          '',
+          '',
+          '',
+          '',
+          '',
+          w.status === 'closed' ? `closed ${day(w.closedAt)}` : 'open',
+          w.id,
+        ]),
+      );
     lines.push(csvLine([]));
     lines.push(csvLine(['rule', '', h.ruleText]));
     lines.push(csvLine(['load', '', h.loadMeasureNote]));
@@ -59,7 +126,11 @@ export class BearingHistoryExportsService {
     if (runs.length < 2) return;
     const height = 130;
     if (doc.y + height + 40 > doc.page.height - doc.page.margins.bottom) doc.addPage();
-    doc.moveDown(0.6).font('Helvetica-Bold').fontSize(10).text('Rise above ambient at peak, \u00b0F, run by run (dashed: the drift limit each run was judged against)', x0);
+    doc
+      .moveDown(0.6)
+      .font('Helvetica-Bold')
+      .fontSize(10)
+      .text('Rise above ambient at peak, \u00b0F, run by run (dashed: the drift limit each run was judged against)', x0);
     const top = doc.y + 6;
     const left = x0 + 36;
     const w = Math.min(width - 40, 560);
@@ -73,16 +144,32 @@ export class BearingHistoryExportsService {
     doc.font('Helvetica').fontSize(7).fillColor('#555');
     for (let v = lo; v <= hi; v += Math.max(10, Math.round((hi - lo) / 50) * 10)) {
       doc.text(String(v), x0, y(v) - 3, { width: 30, align: 'right' });
-      doc.moveTo(left, y(v)).lineTo(left + w, y(v)).strokeColor('#ddd').stroke();
+      doc
+        .moveTo(left, y(v))
+        .lineTo(left + w, y(v))
+        .strokeColor('#ddd')
+        .stroke();
     }
     runs.forEach((r, i) => (i === 0 ? doc.moveTo(x(i), y(r.riseAtPeakF!)) : doc.lineTo(x(i), y(r.riseAtPeakF!))));
     doc.strokeColor('#2f6b5e').lineWidth(1).stroke();
     runs.forEach((r, i) => {
       if (r.drift) {
-        doc.moveTo(x(i) - 8, y(r.drift.limitF)).lineTo(x(i) + 8, y(r.drift.limitF)).dash(2, { space: 2 }).strokeColor('#b37100').stroke().undash();
+        doc
+          .moveTo(x(i) - 8, y(r.drift.limitF))
+          .lineTo(x(i) + 8, y(r.drift.limitF))
+          .dash(2, { space: 2 })
+          .strokeColor('#b37100')
+          .stroke()
+          .undash();
       }
-      doc.circle(x(i), y(r.riseAtPeakF!), 3).fillColor(r.drift?.flagged ? '#b01e1e' : '#2f6b5e').fill();
-      doc.fillColor('#555').fontSize(6.5).text(day(r.startedAt), x(i) - 25, top + height + 3, { width: 50, align: 'center' });
+      doc
+        .circle(x(i), y(r.riseAtPeakF!), 3)
+        .fillColor(r.drift?.flagged ? '#b01e1e' : '#2f6b5e')
+        .fill();
+      doc
+        .fillColor('#555')
+        .fontSize(6.5)
+        .text(day(r.startedAt), x(i) - 25, top + height + 3, { width: 50, align: 'center' });
     });
     doc.fillColor('black').strokeColor('black').lineWidth(1);
     doc.x = x0;
@@ -91,7 +178,12 @@ export class BearingHistoryExportsService {
 
   async pdf(bearingId: string): Promise<{ filename: string; stream: Readable }> {
     const h = await this.history.history(bearingId);
-    const doc = new PDFDocument({ size: 'A4', layout: 'landscape', margin: 36, info: { Title: `Bearing history: ${h.bearing.label}`, Author: 'Crankjournal' } });
+    const doc = new PDFDocument({
+      size: 'A4',
+      layout: 'landscape',
+      margin: 36,
+      info: { Title: `Bearing history: ${h.bearing.label}`, Author: 'Crankjournal' },
+    });
     const out = new PassThrough();
     doc.pipe(out);
     const x0 = doc.page.margins.left;
@@ -118,7 +210,16 @@ export class BearingHistoryExportsService {
       { head: 'Speed rpm', w: 50, cell: (r) => fmt(r.meanSpeedRpm) },
       { head: 'IHP', w: 40, cell: (r) => fmt(r.indicatedHp, 0) },
       { head: 'Alarms', w: 120, cell: (r) => r.alarms.map((a) => ALARM_KIND_WORDS[a.kind]).join(', ') || '\u2014' },
-      { head: 'Drift', w: 0, cell: (r) => (r.drift ? (r.drift.flagged ? `DRIFT: ${fmt(r.riseAtPeakF)} > ${fmt(r.drift.limitF)} \u00b0F` : `ok (limit ${fmt(r.drift.limitF)})`) : '\u2014') },
+      {
+        head: 'Drift',
+        w: 0,
+        cell: (r) =>
+          r.drift
+            ? r.drift.flagged
+              ? `DRIFT: ${fmt(r.riseAtPeakF)} > ${fmt(r.drift.limitF)} \u00b0F`
+              : `ok (limit ${fmt(r.drift.limitF)})`
+            : '\u2014',
+      },
     ];
     const fixed = cols.reduce((s, c) => s + c.w, 0);
     cols[cols.length - 1].w = Math.max(80, width - fixed);
@@ -136,7 +237,10 @@ export class BearingHistoryExportsService {
       doc.x = x0;
       doc.y = bottom + 2;
     };
-    row(cols.map((c) => c.head), true);
+    row(
+      cols.map((c) => c.head),
+      true,
+    );
     for (const r of h.runs) {
       if (r.drift?.flagged) doc.fillColor('#b01e1e');
       row(cols.map((c) => c.cell(r)));
@@ -166,15 +270,23 @@ export class BearingHistoryExportsService {
     doc.fillColor('black');
     for (const i of h.inspections.filter((x) => x.findings)) {
       if (doc.y > doc.page.height - 60) doc.addPage();
-      doc.moveDown(0.4).font('Helvetica-Bold').fontSize(9).text(`Findings, ${day(i.inspectedAt)} \u2014 ${i.title}`, x0, doc.y, { width });
+      doc
+        .moveDown(0.4)
+        .font('Helvetica-Bold')
+        .fontSize(9)
+        .text(`Findings, ${day(i.inspectedAt)} \u2014 ${i.title}`, x0, doc.y, { width });
       doc.font('Helvetica').text(i.findings, x0, doc.y, { width });
     }
-    doc.moveDown(1).fontSize(8).fillColor('#555').text(
-      'Crankjournal aids a qualified crew. It never replaces local boiler and pressure-vessel law, the insurer\u2019s inspections or licensed practice.',
-      x0,
-      doc.y,
-      { width },
-    );
+    doc
+      .moveDown(1)
+      .fontSize(8)
+      .fillColor('#555')
+      .text(
+        'Crankjournal aids a qualified crew. It never replaces local boiler and pressure-vessel law, the insurer\u2019s inspections or licensed practice.',
+        x0,
+        doc.y,
+        { width },
+      );
     doc.end();
     return { filename: `${fileStem(h)}.pdf`, stream: out };
   }

@@ -34,7 +34,13 @@ const LOAD_UNIT: Record<LoadMeasure, string> = { speed_rpm: 'rpm', indicated_hp:
 /** The rule exactly as applied here: the band of bearing-drift.ts plus how the history is chosen. */
 export function historyRuleText(measure: LoadMeasure): string {
   return (
-    driftRuleText({ k: DRIFT_SETTINGS.bandK, marginF: DRIFT_SETTINGS.marginF, minLoadSpread: MIN_LOAD_SPREAD[measure], loadName: LOAD_NAME[measure], loadUnit: LOAD_UNIT[measure] }) +
+    driftRuleText({
+      k: DRIFT_SETTINGS.bandK,
+      marginF: DRIFT_SETTINGS.marginF,
+      minLoadSpread: MIN_LOAD_SPREAD[measure],
+      loadName: LOAD_NAME[measure],
+      loadUnit: LOAD_UNIT[measure],
+    }) +
     ' Rise above ambient is the run\u2019s peak bearing temperature less its mean ambient temperature. Each run is judged against the runs before it; ' +
     'a run already flagged is left out of the band for the runs after it, so one hot run does not hide the next.'
   );
@@ -114,13 +120,21 @@ export class BearingHistoryService {
   /** Per-run figures and alarms of some bearings' points, with the engine's ambient and speed points, in one go. */
   private async figures(ctx: EngineContext, bearingIds: string[]): Promise<{ stats: PointRunStat[]; alarms: AlarmDto[] }> {
     const own = ctx.points.filter((p) => p.kind === 'bearing_temperature' && p.bearingId && bearingIds.includes(p.bearingId));
-    const stats = await this.stats.stats([...own, ...ctx.ambient, ...ctx.speed].map((p) => p.id), ctx.runs);
+    const stats = await this.stats.stats(
+      [...own, ...ctx.ambient, ...ctx.speed].map((p) => p.id),
+      ctx.runs,
+    );
     const alarms = await this.alarms.listByPoints(own.map((p) => p.id));
     return { stats, alarms };
   }
 
   /** The runs of one bearing with their figures and drift verdicts (oldest first). */
-  private runRows(ctx: EngineContext, bearingId: string, stats: PointRunStat[], alarms: AlarmDto[]): { rows: BearingRunRow[]; measure: LoadMeasure; note: string; band: DriftBandDto | null } {
+  private runRows(
+    ctx: EngineContext,
+    bearingId: string,
+    stats: PointRunStat[],
+    alarms: AlarmDto[],
+  ): { rows: BearingRunRow[]; measure: LoadMeasure; note: string; band: DriftBandDto | null } {
     const own = ctx.points.filter((p) => p.kind === 'bearing_temperature' && p.bearingId === bearingId);
     const ownIds = new Set(own.map((p) => p.id));
     const { ambient, speed, ihpByRun } = ctx;
@@ -128,7 +142,8 @@ export class BearingHistoryService {
     const byRun = new Map<string, PointRunStat[]>();
     for (const s of stats) byRun.set(s.runId, [...(byRun.get(s.runId) ?? []), s]);
     const alarmsByRun = new Map<string, AlarmDto[]>();
-    for (const a of alarms) if (a.runId && a.pointId && ownIds.has(a.pointId)) alarmsByRun.set(a.runId, [...(alarmsByRun.get(a.runId) ?? []), a]);
+    for (const a of alarms)
+      if (a.runId && a.pointId && ownIds.has(a.pointId)) alarmsByRun.set(a.runId, [...(alarmsByRun.get(a.runId) ?? []), a]);
 
     const rows: BearingRunRow[] = [];
     for (const r of started) {
@@ -156,7 +171,14 @@ export class BearingHistoryService {
         meanSpeedRpm: spd ? spd.mean : null,
         indicatedHp: ihpByRun.get(r.id) ?? null,
         load: null,
-        alarms: (alarmsByRun.get(r.id) ?? []).map((a) => ({ id: a.id, kind: a.kind, priority: a.priority, raisedAt: a.raisedAt, message: a.message, value: a.value })),
+        alarms: (alarmsByRun.get(r.id) ?? []).map((a) => ({
+          id: a.id,
+          kind: a.kind,
+          priority: a.priority,
+          raisedAt: a.raisedAt,
+          message: a.message,
+          value: a.value,
+        })),
         drift: null,
         driftNote: null,
       });
@@ -195,10 +217,18 @@ export class BearingHistoryService {
     }
     for (const x of rows) {
       if (x.drift || x.driftNote) continue;
-      x.driftNote = x.riseAtPeakF === null ? 'No ambient temperature was read in this run, so its rise is not known.' : 'No load figure (speed) for this run.';
+      x.driftNote =
+        x.riseAtPeakF === null
+          ? 'No ambient temperature was read in this run, so its rise is not known.'
+          : 'No load figure (speed) for this run.';
     }
     const usual = judged.filter((x) => !x.drift?.flagged).map((x) => ({ load: x.load!, temperatureRiseF: x.riseAtPeakF! }));
-    const band = usual.length ? bandDto(fitBand(usual, options), judged.map((x) => x.load!)) : null;
+    const band = usual.length
+      ? bandDto(
+          fitBand(usual, options),
+          judged.map((x) => x.load!),
+        )
+      : null;
     return { rows, measure, note, band };
   }
 
@@ -248,7 +278,9 @@ export class BearingHistoryService {
         journalLengthIn: bearing.journalLengthIn,
         radialClearanceIn: bearing.radialClearanceIn ?? null,
         loadSharePercent: bearing.loadSharePercent,
-        points: points.filter((p) => p.kind === 'bearing_temperature' && p.bearingId === bearing.id).map((p) => ({ id: p.id, code: p.code, unit: p.unit })),
+        points: points
+          .filter((p) => p.kind === 'bearing_temperature' && p.bearingId === bearing.id)
+          .map((p) => ({ id: p.id, code: p.code, unit: p.unit })),
       },
       loadMeasure: measure,
       loadMeasureNote: note,
@@ -270,7 +302,10 @@ export class BearingHistoryService {
       const engine = await this.facts.detail(engineId);
       const ctx = await this.engineContext(engineId);
       const points = ctx.points;
-      const { stats, alarms } = await this.figures(ctx, engine.bearings.map((b) => b.id));
+      const { stats, alarms } = await this.figures(
+        ctx,
+        engine.bearings.map((b) => b.id),
+      );
       const inspected = await this.inspections.lastInspectedAt(engine.bearings.map((b) => b.id));
       for (const b of engine.bearings) {
         const { rows } = this.runRows(ctx, b.id, stats, alarms);

@@ -35,7 +35,9 @@ export class IndicatedPowerSource {
         try {
           const sets = await this.cardSets.list(run.id);
           const hp = sets
-            .filter((s) => s.results?.complete && Number.isFinite(s.results.totalIndicatedHorsepower) && s.results.totalIndicatedHorsepower > 0)
+            .filter(
+              (s) => s.results?.complete && Number.isFinite(s.results.totalIndicatedHorsepower) && s.results.totalIndicatedHorsepower > 0,
+            )
             .map((s) => s.results.totalIndicatedHorsepower);
           const mean = hp.length ? hp.reduce((a, b) => a + b, 0) / hp.length : null;
           if (mean !== null) out.set(run.id, mean);

@@ -30,7 +30,9 @@ export class Inspection {
 export class InspectionMeasurement {
   @PrimaryGeneratedColumn('uuid') id: string;
   @Index() @Column({ name: 'inspection_id', type: 'uuid' }) inspectionId: string;
-  @ManyToOne(() => Inspection, (i) => i.measurements, { onDelete: 'CASCADE' }) @JoinColumn({ name: 'inspection_id' }) inspection?: Relation<Inspection>;
+  @ManyToOne(() => Inspection, (i) => i.measurements, { onDelete: 'CASCADE' })
+  @JoinColumn({ name: 'inspection_id' })
+  inspection?: Relation<Inspection>;
   @Column({ type: 'int' }) sequence: number;
   @Column({ type: 'varchar', length: 32 }) kind: MeasurementItemKind;
   @Column({ type: 'varchar', length: 120 }) label: string;
@@ -50,7 +52,9 @@ export class InspectionMeasurement {
 export class InspectionAttachment {
   @PrimaryGeneratedColumn('uuid') id: string;
   @Index() @Column({ name: 'inspection_id', type: 'uuid' }) inspectionId: string;
-  @ManyToOne(() => Inspection, (i) => i.attachments, { onDelete: 'CASCADE' }) @JoinColumn({ name: 'inspection_id' }) inspection?: Relation<Inspection>;
+  @ManyToOne(() => Inspection, (i) => i.attachments, { onDelete: 'CASCADE' })
+  @JoinColumn({ name: 'inspection_id' })
+  inspection?: Relation<Inspection>;
   @Column({ type: 'varchar', length: 8 }) kind: 'image' | 'pdf';
   @Column({ name: 'content_type', type: 'varchar', length: 64 }) contentType: string;
   @Column({ type: 'varchar', length: 200 }) filename: string;

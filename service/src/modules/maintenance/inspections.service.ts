@@ -107,13 +107,22 @@ export class InspectionsService {
   async detail(id: string): Promise<InspectionDto> {
     const i = await this.get(id);
     const [summary] = await this.summaries([i]);
-    const measurements = await this.db.getRepository(InspectionMeasurement).find({ where: { inspectionId: id }, order: { sequence: 'ASC' } });
-    const attachments = await this.db.getRepository(InspectionAttachment).find({ where: { inspectionId: id }, order: { uploadedAt: 'ASC' } });
+    const measurements = await this.db
+      .getRepository(InspectionMeasurement)
+      .find({ where: { inspectionId: id }, order: { sequence: 'ASC' } });
+    const attachments = await this.db
+      .getRepository(InspectionAttachment)
+      .find({ where: { inspectionId: id }, order: { uploadedAt: 'ASC' } });
     const work = await this.db.getRepository(WorkRecord).find({ where: { promptedByInspectionId: id }, order: { startedAt: 'ASC' } });
     const names = await this.facts.userNames();
     const engineNames = await this.facts.engineNames();
     const planTitle = i.planId ? ((await this.plans.titles([i.planId])).get(i.planId) ?? null) : null;
-    const runTitle = i.promptedByRunId ? await this.runs.get(i.promptedByRunId).then((r) => r.title).catch(() => null) : null;
+    const runTitle = i.promptedByRunId
+      ? await this.runs
+          .get(i.promptedByRunId)
+          .then((r) => r.title)
+          .catch(() => null)
+      : null;
     const items: MeasurementItemDto[] = measurements.map((m) => {
       const t = toleranceStatus(m.value, m.toleranceMin, m.toleranceMax);
       return {
@@ -176,8 +185,10 @@ export class InspectionsService {
     if (inspectedAt.getTime() > Date.now() + 5 * 60_000) errs.push('inspectedAt must not be in the future');
     if (dto.completesPlan && !dto.planId) errs.push('completesPlan needs the planId of the plan it completes');
     (dto.measurements ?? []).forEach((m, i) => {
-      if (m.toleranceMin != null && m.toleranceMax != null && m.toleranceMin > m.toleranceMax) errs.push(`measurements.${i}.toleranceMin must not be above toleranceMax`);
-      if (m.kind === 'web_deflection' && m.crankAngleDeg == null) errs.push(`measurements.${i}.crankAngleDeg is needed for a web deflection reading`);
+      if (m.toleranceMin != null && m.toleranceMax != null && m.toleranceMin > m.toleranceMax)
+        errs.push(`measurements.${i}.toleranceMin must not be above toleranceMax`);
+      if (m.kind === 'web_deflection' && m.crankAngleDeg == null)
+        errs.push(`measurements.${i}.crankAngleDeg is needed for a web deflection reading`);
     });
     if (errs.length) throw new BadRequestException({ statusCode: 400, error: 'Bad Request', message: errs });
     const plan = dto.planId ? (await this.plans.ofEngine(dto.engineId, [dto.planId]))[0] : null;
@@ -235,7 +246,12 @@ export class InspectionsService {
   }
 
   /** Stores a photo or document of an inspection. Images and PDFs only, judged by their bytes; size limited by UPLOAD_MAX_BYTES. */
-  async attach(inspectionId: string, file: { buffer: Buffer; originalname?: string; size: number } | undefined, caption: string | undefined, userId: string): Promise<AttachmentDto> {
+  async attach(
+    inspectionId: string,
+    file: { buffer: Buffer; originalname?: string; size: number } | undefined,
+    caption: string | undefined,
+    userId: string,
+  ): Promise<AttachmentDto> {
     await this.get(inspectionId);
     if (!file || !file.buffer?.length) throw new BadRequestException('Send the photo or document as the multipart field "file".');
     const max = this.config.get('UPLOAD_MAX_BYTES');
@@ -244,12 +260,20 @@ export class InspectionsService {
     const type = sniffed ? ATTACHMENT_TYPES[sniffed.mime] : undefined;
     if (!sniffed || !type)
       throw new HttpException(
-        { statusCode: 415, error: 'Unsupported Media Type', message: 'Only photos (PNG, JPEG, WebP, GIF) and PDF documents may be attached; this file is neither.' },
+        {
+          statusCode: 415,
+          error: 'Unsupported Media Type',
+          message: 'Only photos (PNG, JPEG, WebP, GIF) and PDF documents may be attached; this file is neither.',
+        },
         HttpStatus.UNSUPPORTED_MEDIA_TYPE,
       );
     const key = `inspections/${inspectionId}/${randomUUID()}.${type.ext}`;
     await this.storage.put(key, file.buffer, sniffed.mime);
-    const base = (file.originalname ?? '').replace(/[\\/]/g, '_').replace(/[^\w.\- ()]+/g, '').trim().slice(0, 150);
+    const base = (file.originalname ?? '')
+      .replace(/[\\/]/g, '_')
+      .replace(/[^\w.\- ()]+/g, '')
+      .trim()
+      .slice(0, 150);
     const filename = base ? (base.toLowerCase().endsWith(`.${type.ext}`) ? base : `${base}.${type.ext}`) : `attachment.${type.ext}`;
     const saved = await this.db.getRepository(InspectionAttachment).save({
       inspectionId,

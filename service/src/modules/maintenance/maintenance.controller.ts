@@ -1,4 +1,17 @@
-import { Body, Controller, Get, HttpCode, Param, Patch, Post, Query, Res, StreamableFile, UploadedFile, UseInterceptors } from '@nestjs/common';
+import {
+  Body,
+  Controller,
+  Get,
+  HttpCode,
+  Param,
+  Patch,
+  Post,
+  Query,
+  Res,
+  StreamableFile,
+  UploadedFile,
+  UseInterceptors,
+} from '@nestjs/common';
 import { FileInterceptor } from '@nestjs/platform-express';
 import { ApiBearerAuth, ApiBody, ApiConsumes, ApiOperation, ApiTags } from '@nestjs/swagger';
 import type { Response } from 'express';
@@ -52,7 +65,9 @@ export class MaintenanceController {
 
   @Get('bearings/:id/history')
   @AnyRole()
-  @ApiOperation({ summary: 'A bearing’s runs (peak, mean, rise above ambient, speed, IHP, alarms), the drift flag with its rule, inspections and work' })
+  @ApiOperation({
+    summary: 'A bearing’s runs (peak, mean, rise above ambient, speed, IHP, alarms), the drift flag with its rule, inspections and work',
+  })
   bearingHistory(@Param() p: IdParamDto): Promise<BearingHistory> {
     return this.history.history(p.id);
   }
@@ -132,8 +147,13 @@ export class MaintenanceController {
   @Roles(...WRITERS)
   @UseInterceptors(FileInterceptor('file'))
   @ApiConsumes('multipart/form-data')
-  @ApiBody({ schema: { type: 'object', required: ['file'], properties: { file: { type: 'string', format: 'binary' }, caption: { type: 'string' } } } })
-  @ApiOperation({ summary: 'Attach a photo (PNG, JPEG, WebP, GIF) or a PDF, judged by its content; larger than UPLOAD_MAX_BYTES answers 413, anything else 415' })
+  @ApiBody({
+    schema: { type: 'object', required: ['file'], properties: { file: { type: 'string', format: 'binary' }, caption: { type: 'string' } } },
+  })
+  @ApiOperation({
+    summary:
+      'Attach a photo (PNG, JPEG, WebP, GIF) or a PDF, judged by its content; larger than UPLOAD_MAX_BYTES answers 413, anything else 415',
+  })
   attach(
     @Param() p: IdParamDto,
     @UploadedFile() file: { buffer: Buffer; originalname?: string; size: number } | undefined,

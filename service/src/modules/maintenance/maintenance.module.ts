@@ -37,7 +37,16 @@ import { AppConfig } from '../../config/app-config.service.js';
     UsersModule,
     IndicatorCardsModule,
   ],
-  providers: [EngineFactsService, PlansService, InspectionsService, WorkRecordsService, RunStatsService, IndicatedPowerSource, BearingHistoryService, BearingHistoryExportsService],
+  providers: [
+    EngineFactsService,
+    PlansService,
+    InspectionsService,
+    WorkRecordsService,
+    RunStatsService,
+    IndicatedPowerSource,
+    BearingHistoryService,
+    BearingHistoryExportsService,
+  ],
   controllers: [MaintenanceController],
   exports: [PlansService, BearingHistoryService, RunStatsService],
 })

@@ -64,7 +64,10 @@ export class PlansService {
   async toDtos(rows: InspectionPlan[], now = new Date()): Promise<InspectionPlanDto[]> {
     if (!rows.length) return [];
     const names = await this.facts.engineNames();
-    const perEngine = new Map<string, { counters: Counters; rates: { runHoursPerDay: number; revolutionsPerDay: number }; bearings: Map<string, string> }>();
+    const perEngine = new Map<
+      string,
+      { counters: Counters; rates: { runHoursPerDay: number; revolutionsPerDay: number }; bearings: Map<string, string> }
+    >();
     for (const engineId of new Set(rows.map((r) => r.engineId))) {
       const detail = await this.facts.detail(engineId);
       perEngine.set(engineId, {
@@ -76,9 +79,17 @@ export class PlansService {
     return rows.map((p) => {
       const e = perEngine.get(p.engineId)!;
       // Counters never run backwards; a last-done figure above today's (a mistyped baseline) counts as zero used.
-      const current = { runHours: Math.max(e.counters.runHours, p.lastDoneRunHours), revolutions: Math.max(e.counters.revolutions, p.lastDoneRevolutions), now };
+      const current = {
+        runHours: Math.max(e.counters.runHours, p.lastDoneRunHours),
+        revolutions: Math.max(e.counters.revolutions, p.lastDoneRevolutions),
+        now,
+      };
       const due = maintenanceDue(
-        { intervalRunHours: p.intervalRunHours ?? undefined, intervalRevolutions: p.intervalRevolutions ?? undefined, intervalDays: p.intervalDays ?? undefined },
+        {
+          intervalRunHours: p.intervalRunHours ?? undefined,
+          intervalRevolutions: p.intervalRevolutions ?? undefined,
+          intervalDays: p.intervalDays ?? undefined,
+        },
         { runHours: p.lastDoneRunHours, revolutions: p.lastDoneRevolutions, date: p.lastDoneAt },
         current,
         e.rates,

@@ -73,22 +73,42 @@ export class RunStatsService implements OnApplicationBootstrap, OnModuleDestroy 
     if (!pointIds.length || !runs.length) return [];
     const closed = runs.filter((r) => r.state === 'closed').map((r) => r.id);
     const open = runs.filter((r) => r.state !== 'closed').map((r) => r.id);
-    const kept: { runId: string; pointId: string; peak: number | null; mean: number | null; least: number | null; count: number; firstAt: Date | null; lastAt: Date | null }[] = closed.length
+    const kept: {
+      runId: string;
+      pointId: string;
+      peak: number | null;
+      mean: number | null;
+      least: number | null;
+      count: number;
+      firstAt: Date | null;
+      lastAt: Date | null;
+    }[] = closed.length
       ? (
           await this.db.query(
             `SELECT run_id, point_id, peak, mean, least, count, first_at, last_at FROM run_point_stats WHERE point_id = ANY($1::uuid[]) AND run_id = ANY($2::uuid[])`,
             [pointIds, closed],
           )
-        ).map((k: { run_id: string; point_id: string; peak: number | null; mean: number | null; least: number | null; count: number; first_at: Date | null; last_at: Date | null }) => ({
-          runId: k.run_id,
-          pointId: k.point_id,
-          peak: k.peak,
-          mean: k.mean,
-          least: k.least,
-          count: k.count,
-          firstAt: k.first_at,
-          lastAt: k.last_at,
-        }))
+        ).map(
+          (k: {
+            run_id: string;
+            point_id: string;
+            peak: number | null;
+            mean: number | null;
+            least: number | null;
+            count: number;
+            first_at: Date | null;
+            last_at: Date | null;
+          }) => ({
+            runId: k.run_id,
+            pointId: k.point_id,
+            peak: k.peak,
+            mean: k.mean,
+            least: k.least,
+            count: k.count,
+            firstAt: k.first_at,
+            lastAt: k.last_at,
+          }),
+        )
       : [];
     const have = new Set(kept.map((k) => `${k.runId}|${k.pointId}`));
     const missingRuns = closed.filter((r) => pointIds.some((p) => !have.has(`${r}|${p}`)));
@@ -102,16 +122,36 @@ export class RunStatsService implements OnApplicationBootstrap, OnModuleDestroy 
           const key = `${r}|${p}`;
           if (have.has(key)) continue;
           const c = got.get(key);
-          rows.push(c ? { runId: r, pointId: p, peak: c.peak, mean: c.mean, least: c.least, count: c.count, firstAt: c.firstAt, lastAt: c.lastAt } : { runId: r, pointId: p, peak: null, mean: null, least: null, count: 0, firstAt: null, lastAt: null });
+          rows.push(
+            c
+              ? { runId: r, pointId: p, peak: c.peak, mean: c.mean, least: c.least, count: c.count, firstAt: c.firstAt, lastAt: c.lastAt }
+              : { runId: r, pointId: p, peak: null, mean: null, least: null, count: 0, firstAt: null, lastAt: null },
+          );
           if (c) fresh.push(c);
         }
-      for (let i = 0; i < rows.length; i += 1000) await this.db.createQueryBuilder().insert().into(RunPointStat).values(rows.slice(i, i + 1000)).orIgnore().execute();
+      for (let i = 0; i < rows.length; i += 1000)
+        await this.db
+          .createQueryBuilder()
+          .insert()
+          .into(RunPointStat)
+          .values(rows.slice(i, i + 1000))
+          .orIgnore()
+          .execute();
     }
     const live = open.length ? await this.readings.pointRunStats(pointIds, { runIds: open }) : [];
     return [
       ...kept
         .filter((k) => k.count > 0)
-        .map((k) => ({ runId: k.runId, pointId: k.pointId, peak: k.peak!, mean: k.mean!, least: k.least!, count: k.count, firstAt: k.firstAt!, lastAt: k.lastAt! })),
+        .map((k) => ({
+          runId: k.runId,
+          pointId: k.pointId,
+          peak: k.peak!,
+          mean: k.mean!,
+          least: k.least!,
+          count: k.count,
+          firstAt: k.firstAt!,
+          lastAt: k.lastAt!,
+        })),
       ...fresh,
       ...live,
     ];

@@ -34,7 +34,7 @@ describe('crank web deflection spread', () => {
       { kind: 'shaft_level', value: 0.5, unit: 'in' },
     ]);
     expect(s!.spread).toBeCloseTo(0.0015, 12);
-    expect(s!.unit).toBe("in");
+    expect(s!.unit).toBe('in');
     expect(s!.readings).toBe(3);
   });
   it('needs two readings', () => {

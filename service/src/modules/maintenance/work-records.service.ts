@@ -56,7 +56,9 @@ export class WorkRecordsService {
     const names = await this.facts.userNames();
     const engineNames = await this.facts.engineNames();
     const titles = await this.plans.titles([...new Set([...w.satisfiesPlanIds, ...w.resetPlanIds])]);
-    const inspection = w.promptedByInspectionId ? await this.db.getRepository(Inspection).findOne({ where: { id: w.promptedByInspectionId } }) : null;
+    const inspection = w.promptedByInspectionId
+      ? await this.db.getRepository(Inspection).findOne({ where: { id: w.promptedByInspectionId } })
+      : null;
     const alarm = w.promptedByAlarmId ? await this.alarms.get(w.promptedByAlarmId).catch(() => null) : null;
     return {
       ...workSummary(w, w.bearingId ? (labels.get(w.bearingId) ?? null) : null),
@@ -82,7 +84,8 @@ export class WorkRecordsService {
   /** Checks the links of a record against its engine (bearing, inspection, alarm, plans). */
   private async checkLinks(engineId: string, dto: WorkRecordUpdateDto) {
     const engine = await this.facts.detail(engineId);
-    if (dto.bearingId && !engine.bearings.some((b) => b.id === dto.bearingId)) throw new BadRequestException('bearingId is not a bearing of this engine.');
+    if (dto.bearingId && !engine.bearings.some((b) => b.id === dto.bearingId))
+      throw new BadRequestException('bearingId is not a bearing of this engine.');
     if (dto.promptedByInspectionId) {
       const i = await this.db.getRepository(Inspection).findOne({ where: { id: dto.promptedByInspectionId } });
       if (!i || i.engineId !== engineId) throw new BadRequestException('promptedByInspectionId is not an inspection of this engine.');
@@ -92,7 +95,8 @@ export class WorkRecordsService {
       if (!a || a.engineId !== engineId) throw new BadRequestException('promptedByAlarmId is not an alarm of this engine.');
     }
     if (dto.satisfiesPlanIds?.length) await this.plans.ofEngine(engineId, dto.satisfiesPlanIds);
-    if (dto.startedAt && new Date(dto.startedAt).getTime() > Date.now() + FUTURE_SLACK_MS) throw new BadRequestException('startedAt must not be in the future.');
+    if (dto.startedAt && new Date(dto.startedAt).getTime() > Date.now() + FUTURE_SLACK_MS)
+      throw new BadRequestException('startedAt must not be in the future.');
   }
 
   /** Marks follow-up actions of the prompting inspection as carried out by this work record. */
@@ -103,7 +107,10 @@ export class WorkRecordsService {
       const insp = await m.findOne(Inspection, { where: { id: inspectionId }, lock: { mode: 'pessimistic_write' } });
       if (!insp) throw new BadRequestException('promptedByInspectionId is not an inspection.');
       const bad = indexes.filter((i) => i < 0 || i >= insp.followUpActions.length);
-      if (bad.length) throw new BadRequestException(`followUpActionIndexes ${bad.join(', ')} is not a follow-up action of that inspection (it has ${insp.followUpActions.length}).`);
+      if (bad.length)
+        throw new BadRequestException(
+          `followUpActionIndexes ${bad.join(', ')} is not a follow-up action of that inspection (it has ${insp.followUpActions.length}).`,
+        );
       insp.followUpActions = insp.followUpActions.map((a, i) => (indexes.includes(i) ? { ...a, workRecordId: workId } : a));
       await m.save(Inspection, insp);
     });
@@ -112,7 +119,8 @@ export class WorkRecordsService {
   async create(dto: WorkRecordCreateDto, userId: string): Promise<WorkRecordDto> {
     await this.facts.summary(dto.engineId);
     await this.checkLinks(dto.engineId, dto);
-    if (dto.followUpActionIndexes?.length && !dto.promptedByInspectionId) throw new BadRequestException('followUpActionIndexes needs promptedByInspectionId.');
+    if (dto.followUpActionIndexes?.length && !dto.promptedByInspectionId)
+      throw new BadRequestException('followUpActionIndexes needs promptedByInspectionId.');
     const saved = await this.db.getRepository(WorkRecord).save(
       this.db.getRepository(WorkRecord).create({
         engineId: dto.engineId,
@@ -144,7 +152,8 @@ export class WorkRecordsService {
     if (dto.title !== undefined) w.title = dto.title.trim();
     if (dto.description !== undefined) w.description = dto.description;
     if (dto.performedBy !== undefined) w.performedBy = dto.performedBy.trim();
-    if (dto.parts !== undefined) w.parts = dto.parts.map((p) => ({ description: p.description.trim(), quantity: p.quantity, unit: p.unit.trim() }));
+    if (dto.parts !== undefined)
+      w.parts = dto.parts.map((p) => ({ description: p.description.trim(), quantity: p.quantity, unit: p.unit.trim() }));
     if (dto.labourHours !== undefined) w.labourHours = dto.labourHours;
     if (dto.promptedByInspectionId !== undefined) w.promptedByInspectionId = dto.promptedByInspectionId ?? null;
     if (dto.promptedByAlarmId !== undefined) w.promptedByAlarmId = dto.promptedByAlarmId ?? null;

@@ -16,7 +16,8 @@ export class MillCalculationsController {
   @HttpCode(200)
   @AnyRole()
   @ApiOperation({
-    summary: 'One rolling pass: reduction, elongation, contact length, mean flow stress, roll force, torque, power, and the flywheel’s share',
+    summary:
+      'One rolling pass: reduction, elongation, contact length, mean flow stress, roll force, torque, power, and the flywheel’s share',
     description:
       'Mean flow stress of hot plain carbon steel from Misaka & Yoshimoto (1967) unless meanFlowStressMPa is given; flagged as extrapolated ' +
       'outside 750–1200 °C or strain rates 30–200 /s (a slow mill runs below that range). Roll force F = L·w·Y·frictionFactor with L = √(R·Δh); ' +
@@ -24,11 +25,15 @@ export class MillCalculationsController {
       'engineSpeedRpm, ratedSpeedRpm, barExitLengthM, indicatedHp) for the speed drop and recovery time, or none. Warnings: stand_force, ' +
       'speed_drop, stall, no_surplus_power. Units are in every field name: Mm, C, Pct, Rpm, Kn, Lb, Ft, M, Hp, MPa.',
   })
-  @ApiOkResponse({ description: 'PassCalculationDto and a caution; forces in kN and lbf, torque in kN·m and lbf·ft, power in kW and hp, energies in kJ, times in s.' })
+  @ApiOkResponse({
+    description:
+      'PassCalculationDto and a caution; forces in kN and lbf, torque in kN·m and lbf·ft, power in kW and hp, energies in kJ, times in s.',
+  })
   rollingPass(@Body() dto: RollingPassDto): RollingPassResponse {
     const d = DEFAULT_MILL_SETTINGS;
     const missing = RollingPassDto.missingFlywheelFields(dto);
-    if (missing.length) throw new BadRequestException(`The flywheel check needs every one of its fields, or none; missing: ${missing.join(', ')}.`);
+    if (missing.length)
+      throw new BadRequestException(`The flywheel check needs every one of its fields, or none; missing: ${missing.join(', ')}.`);
     const flywheel =
       dto.flywheelMassLb !== undefined
         ? {

@@ -6,7 +6,16 @@ import { AnyRole, Roles } from '../../common/decorators/roles.decorator.js';
 import { CurrentUser, type AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { IdParamDto } from '../../common/dto/id-param.dto.js';
 import { LotsService } from './lots.service.js';
-import { LinkRunDto, LotQueryDto, LotRunParamDto, LotTransitionDto, LotUpdateDto, LotWriteDto, QuoteRequestDto, SendQuoteDto } from './dto/lot.dto.js';
+import {
+  LinkRunDto,
+  LotQueryDto,
+  LotRunParamDto,
+  LotTransitionDto,
+  LotUpdateDto,
+  LotWriteDto,
+  QuoteRequestDto,
+  SendQuoteDto,
+} from './dto/lot.dto.js';
 
 /** Small customer lots, from enquiry to delivery, and their quotes. */
 @ApiTags('mill')
@@ -42,7 +51,9 @@ export class LotsController {
   @Post('lots/:id/transitions')
   @HttpCode(200)
   @Roles(...MILL_WRITERS)
-  @ApiOperation({ summary: 'Move a lot one step: enquiry → quoted → accepted → scheduled → rolled → inspected → delivered (409 when skipping)' })
+  @ApiOperation({
+    summary: 'Move a lot one step: enquiry → quoted → accepted → scheduled → rolled → inspected → delivered (409 when skipping)',
+  })
   transition(@Param() p: IdParamDto, @Body() dto: LotTransitionDto, @CurrentUser() me: AuthUser): Promise<LotDetail> {
     return this.lots.transition(p.id, dto, me);
   }

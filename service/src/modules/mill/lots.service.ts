@@ -51,7 +51,9 @@ export class LotsService {
   }
 
   async list(filter: { status?: LotStatus }): Promise<LotSummary[]> {
-    const rows = await this.db.getRepository(CustomerLot).find({ where: filter.status ? { status: filter.status } : {}, order: { dueDate: 'ASC', reference: 'ASC' } });
+    const rows = await this.db
+      .getRepository(CustomerLot)
+      .find({ where: filter.status ? { status: filter.status } : {}, order: { dueDate: 'ASC', reference: 'ASC' } });
     return this.summaries(rows);
   }
 
@@ -109,7 +111,13 @@ export class LotsService {
       notes: l.notes,
       millId: l.millId,
       nextStatus: nextLotStatus(l.status),
-      history: history.map((h) => ({ from: h.fromStatus, to: h.toStatus, byName: names.get(h.byUser) ?? 'unknown', at: h.at.toISOString(), note: h.note })),
+      history: history.map((h) => ({
+        from: h.fromStatus,
+        to: h.toStatus,
+        byName: names.get(h.byUser) ?? 'unknown',
+        at: h.at.toISOString(),
+        note: h.note,
+      })),
       runs,
       bars,
       barTonnes: { produced: kg(false) / 1000, scrapped: kg(true) / 1000 },
@@ -135,9 +143,10 @@ export class LotsService {
 
   async create(dto: LotWriteRequest, user: AuthUser, opts: { reference?: string; createdAt?: Date } = {}): Promise<LotDetail> {
     const millId = dto.millId ?? (await this.mills.first())?.id ?? null;
-    if (dto.millId) await this.mills.get(dto.millId).catch(() => {
-      throw new BadRequestException('millId names no mill.');
-    });
+    if (dto.millId)
+      await this.mills.get(dto.millId).catch(() => {
+        throw new BadRequestException('millId names no mill.');
+      });
     const id = await this.db.transaction(async (m) => {
       const at = opts.createdAt ?? new Date();
       const lot = await m.save(
@@ -168,7 +177,8 @@ export class LotsService {
   }
 
   private assertNotDelivered(l: CustomerLot) {
-    if (l.status === 'delivered') throw new ConflictException(`Lot ${l.reference} is delivered: its record is closed and can no longer be changed.`);
+    if (l.status === 'delivered')
+      throw new ConflictException(`Lot ${l.reference} is delivered: its record is closed and can no longer be changed.`);
   }
 
   async update(id: string, dto: LotUpdateRequest): Promise<LotDetail> {
@@ -181,7 +191,10 @@ export class LotsService {
       (dto.productShape !== undefined && dto.productShape !== l.productShape) ||
       (dto.productHeightMm !== undefined && dto.productHeightMm !== l.productHeightMm) ||
       (dto.productWidthMm !== undefined && dto.productWidthMm !== l.productWidthMm);
-    if (priced && repriced) throw new ConflictException(`Lot ${l.reference} is ${label(l.status)}: its product and quantity were priced. Agree a new enquiry for a change.`);
+    if (priced && repriced)
+      throw new ConflictException(
+        `Lot ${l.reference} is ${label(l.status)}: its product and quantity were priced. Agree a new enquiry for a change.`,
+      );
     if (dto.customerName !== undefined) patch.customerName = dto.customerName.trim();
     if (dto.customerEmail !== undefined) patch.customerEmail = dto.customerEmail.trim().toLowerCase();
     if (dto.customerContact !== undefined) patch.customerContact = dto.customerContact.trim();
@@ -224,12 +237,20 @@ export class LotsService {
       throw new ConflictException('Make a quote for the lot before marking it quoted.');
     if (dto.to === 'scheduled' && !(await this.db.getRepository(LotRun).exists({ where: { lotId: id } })))
       throw new ConflictException('Link the run that will roll the lot before marking it scheduled.');
-    if (dto.to === 'rolled' && !(l.producedTonnes > 0)) throw new ConflictException('Record the tonnage produced before marking the lot rolled.');
+    if (dto.to === 'rolled' && !(l.producedTonnes > 0))
+      throw new ConflictException('Record the tonnage produced before marking the lot rolled.');
     await this.db.transaction(async (m) => {
       const cur = await m.findOne(CustomerLot, { where: { id }, lock: { mode: 'pessimistic_write' } });
       if (!cur || cur.status !== l.status) throw new ConflictException('Someone else moved this lot a moment ago. Look again and retry.');
       await m.update(CustomerLot, { id }, { status: dto.to });
-      await m.insert(LotStatusChange, { lotId: id, fromStatus: l.status, toStatus: dto.to, byUser: user.id, at, note: dto.note?.trim() || null });
+      await m.insert(LotStatusChange, {
+        lotId: id,
+        fromStatus: l.status,
+        toStatus: dto.to,
+        byUser: user.id,
+        at,
+        note: dto.note?.trim() || null,
+      });
     });
     return this.detail(id);
   }
@@ -238,7 +259,10 @@ export class LotsService {
     const l = await this.get(id);
     this.assertNotDelivered(l);
     await this.rolling.assertRunExists(runId);
-    await this.db.query(`INSERT INTO mill_lot_runs (lot_id, run_id, linked_by, linked_at) VALUES ($1, $2, $3, now()) ON CONFLICT DO NOTHING`, [id, runId, user.id]);
+    await this.db.query(
+      `INSERT INTO mill_lot_runs (lot_id, run_id, linked_by, linked_at) VALUES ($1, $2, $3, now()) ON CONFLICT DO NOTHING`,
+      [id, runId, user.id],
+    );
     return this.detail(id);
   }
 
@@ -295,7 +319,9 @@ export class LotsService {
   async createQuote(lotId: string, dto: QuoteRequest, user: AuthUser, at?: Date): Promise<QuoteDto> {
     const l = await this.get(lotId);
     if (!LOT_STATUSES_OPEN_TO_QUOTES.includes(l.status))
-      throw new ConflictException(`Lot ${l.reference} is ${label(l.status)}: its price is fixed. Quotes are made while a lot is an enquiry or quoted.`);
+      throw new ConflictException(
+        `Lot ${l.reference} is ${label(l.status)}: its price is fixed. Quotes are made while a lot is an enquiry or quoted.`,
+      );
     const mill = l.millId ? await this.mills.get(l.millId) : await this.mills.first();
     if (!mill) throw new ConflictException('Describe the mill and its quote rates first.');
     const rates = mill.quoteRates;
@@ -354,7 +380,8 @@ export class LotsService {
     const q = await this.getQuote(quoteId);
     const lot = await this.get(q.lotId);
     const latest = await this.db.getRepository(LotQuote).findOne({ where: { lotId: lot.id }, order: { number: 'DESC' } });
-    if (latest && latest.id !== q.id) throw new ConflictException(`Quote ${q.number} has been replaced by quote ${latest.number}; send the latest.`);
+    if (latest && latest.id !== q.id)
+      throw new ConflictException(`Quote ${q.number} has been replaced by quote ${latest.number}; send the latest.`);
     const to = (dto.to ?? lot.customerEmail).trim().toLowerCase();
     const { filename, buffer } = await this.quotePdf(quoteId);
     const money = new Intl.NumberFormat('en-GB', { style: 'currency', currency: q.currency });
@@ -370,7 +397,12 @@ export class LotsService {
       `With regards,`,
       user.displayName,
     ].join('\n');
-    await this.mail.send({ to, subject: `Quotation ${lot.reference}/Q${q.number}: ${productLabel(lot.productShape, lot.productHeightMm, lot.productWidthMm)}`, text, attachments: [{ filename, content: buffer, contentType: 'application/pdf' }] });
+    await this.mail.send({
+      to,
+      subject: `Quotation ${lot.reference}/Q${q.number}: ${productLabel(lot.productShape, lot.productHeightMm, lot.productWidthMm)}`,
+      text,
+      attachments: [{ filename, content: buffer, contentType: 'application/pdf' }],
+    });
     const now = new Date();
     await this.db.getRepository(LotQuote).update({ id: q.id }, { sentAt: now, sentTo: to });
     if (lot.status === 'enquiry') await this.transition(lot.id, { to: 'quoted', note: `Quote ${q.number} sent to ${to}.` }, user, now);

@@ -7,7 +7,8 @@ import { numeric } from '../../common/transformers/numeric.transformer.js';
 @Index(['barId', 'passNumber'], { unique: true })
 export class MillPass {
   @PrimaryGeneratedColumn('uuid') id: string;
-  @Index({ unique: true, where: 'client_id IS NOT NULL' }) @Column({ name: 'client_id', type: 'uuid', nullable: true }) clientId: string | null;
+  @Index({ unique: true, where: 'client_id IS NOT NULL' }) @Column({ name: 'client_id', type: 'uuid', nullable: true }) clientId:
+    string | null;
   @Column({ name: 'bar_id', type: 'uuid' }) barId: string;
   @Index() @Column({ name: 'run_id', type: 'uuid' }) runId: string;
   @Column({ name: 'pass_number', type: 'int' }) passNumber: number;

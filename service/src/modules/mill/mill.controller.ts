@@ -52,7 +52,10 @@ export class MillController {
 
   @Get('schedules/:id')
   @AnyRole()
-  @ApiOperation({ summary: 'A pass schedule with each pass calculated (reduction, elongation, contact length, flow stress, force, torque, power, flywheel)' })
+  @ApiOperation({
+    summary:
+      'A pass schedule with each pass calculated (reduction, elongation, contact length, flow stress, force, torque, power, flywheel)',
+  })
   scheduleDetail(@Param() p: IdParamDto): Promise<ScheduleDetail> {
     return this.schedules.detail(p.id);
   }

@@ -28,7 +28,18 @@ import { IndicatorCardsModule } from '../indicator-cards/indicator-cards.module.
 /** The mill: stands and settings, pass schedules, the rolling log of runs, customer lots and quotes. */
 @Module({
   imports: [
-    TypeOrmModule.forFeature([Mill, MillStand, PassSchedule, SchedulePass, MillBar, MillPass, CustomerLot, LotStatusChange, LotRun, LotQuote]),
+    TypeOrmModule.forFeature([
+      Mill,
+      MillStand,
+      PassSchedule,
+      SchedulePass,
+      MillBar,
+      MillPass,
+      CustomerLot,
+      LotStatusChange,
+      LotRun,
+      LotQuote,
+    ]),
     EnginesModule,
     RunsModule,
     AlarmsModule,

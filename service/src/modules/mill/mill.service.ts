@@ -54,7 +54,10 @@ export class MillService {
 
   standAt(mill: Mill, position: number): MillStand {
     const s = (mill.stands ?? []).find((x) => x.position === position);
-    if (!s) throw new BadRequestException(`${mill.name} has no stand ${position} (it has ${(mill.stands ?? []).map((x) => x.position).join(', ') || 'none'}).`);
+    if (!s)
+      throw new BadRequestException(
+        `${mill.name} has no stand ${position} (it has ${(mill.stands ?? []).map((x) => x.position).join(', ') || 'none'}).`,
+      );
     return s;
   }
 
@@ -70,7 +73,11 @@ export class MillService {
       name: m.name,
       engineId: m.engineId,
       engineName: e.name,
-      engine: { ratedSpeedRpm: e.ratedSpeedRpm, flywheelMassLb: e.flywheelMassLb, flywheelRadiusOfGyrationFt: e.flywheelRadiusOfGyrationFt },
+      engine: {
+        ratedSpeedRpm: e.ratedSpeedRpm,
+        flywheelMassLb: e.flywheelMassLb,
+        flywheelRadiusOfGyrationFt: e.flywheelRadiusOfGyrationFt,
+      },
       notes: m.notes,
       stands: stands.map((s) => ({
         id: s.id,
@@ -90,7 +97,8 @@ export class MillService {
 
   private validate(dto: MillWriteRequest) {
     const positions = dto.stands.map((s) => s.position);
-    if (new Set(positions).size !== positions.length) throw new BadRequestException('Two stands have the same position; number them 1, 2, 3 … from the entry side.');
+    if (new Set(positions).size !== positions.length)
+      throw new BadRequestException('Two stands have the same position; number them 1, 2, 3 … from the entry side.');
     const labels = dto.quoteRates.fixedCosts.map((f) => f.label.trim().toLowerCase());
     if (new Set(labels).size !== labels.length) throw new BadRequestException('Two fixed costs have the same label.');
   }
@@ -100,9 +108,19 @@ export class MillService {
     await this.engines.get(dto.engineId).catch(() => {
       throw new BadRequestException('engineId names no engine.');
     });
-    if (await this.db.getRepository(Mill).exists({ where: { name: dto.name.trim() } })) throw new ConflictException(`A mill called "${dto.name.trim()}" already exists.`);
+    if (await this.db.getRepository(Mill).exists({ where: { name: dto.name.trim() } }))
+      throw new ConflictException(`A mill called "${dto.name.trim()}" already exists.`);
     const id = await this.db.transaction(async (m) => {
-      const mill = await m.save(Mill, m.create(Mill, { name: dto.name.trim(), engineId: dto.engineId, notes: dto.notes ?? '', settings: { ...dto.settings }, quoteRates: this.rates(dto) }));
+      const mill = await m.save(
+        Mill,
+        m.create(Mill, {
+          name: dto.name.trim(),
+          engineId: dto.engineId,
+          notes: dto.notes ?? '',
+          settings: { ...dto.settings },
+          quoteRates: this.rates(dto),
+        }),
+      );
       await this.writeStands(m, mill.id, dto);
       return mill.id;
     });
@@ -118,7 +136,17 @@ export class MillService {
     const clash = await this.db.getRepository(Mill).findOne({ where: { name: dto.name.trim() } });
     if (clash && clash.id !== id) throw new ConflictException(`A mill called "${dto.name.trim()}" already exists.`);
     await this.db.transaction(async (m) => {
-      await m.update(Mill, { id }, { name: dto.name.trim(), engineId: dto.engineId, notes: dto.notes ?? cur.notes, settings: { ...dto.settings }, quoteRates: this.rates(dto) });
+      await m.update(
+        Mill,
+        { id },
+        {
+          name: dto.name.trim(),
+          engineId: dto.engineId,
+          notes: dto.notes ?? cur.notes,
+          settings: { ...dto.settings },
+          quoteRates: this.rates(dto),
+        },
+      );
       await this.writeStands(m, id, dto);
     });
     return this.detail(id);

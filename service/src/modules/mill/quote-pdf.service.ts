@@ -27,7 +27,11 @@ export class QuotePdfService {
     const day = (d: Date) => d.toISOString().slice(0, 10);
 
     doc.font('Helvetica-Bold').fontSize(18).text(`Quotation ${lot.reference}/Q${q.number}`);
-    doc.font('Helvetica').fontSize(10).fillColor('#444').text(`${p.millName} · made ${day(made)} · valid until ${day(validUntil)}`);
+    doc
+      .font('Helvetica')
+      .fontSize(10)
+      .fillColor('#444')
+      .text(`${p.millName} · made ${day(made)} · valid until ${day(validUntil)}`);
     doc.moveDown(1).fillColor('#000');
     doc.font('Helvetica-Bold').fontSize(11).text('For');
     doc.font('Helvetica').fontSize(10).text(lot.customerName);
@@ -38,7 +42,9 @@ export class QuotePdfService {
     doc.font('Helvetica').fontSize(10);
     doc.text(`${productLabel(lot.productShape, lot.productHeightMm, lot.productWidthMm)}, ${lot.steelGrade}`);
     doc.text(`Quantity ${qty(q.inputs.productTonnes)} t of product, due ${lot.dueDate}`);
-    doc.text(`Stock ${qty(q.result.stockTonnes)} t, allowing ${q.inputs.rates.yieldLossPct} % of the stock for scale, crop ends and rejects`);
+    doc.text(
+      `Stock ${qty(q.result.stockTonnes)} t, allowing ${q.inputs.rates.yieldLossPct} % of the stock for scale, crop ends and rejects`,
+    );
     doc.moveDown(1);
 
     const x0 = doc.page.margins.left;
@@ -61,10 +67,18 @@ export class QuotePdfService {
       doc.x = x0;
     };
     const rule = () => {
-      doc.moveTo(x0, doc.y).lineTo(x0 + width, doc.y).strokeColor('#999').lineWidth(0.5).stroke();
+      doc
+        .moveTo(x0, doc.y)
+        .lineTo(x0 + width, doc.y)
+        .strokeColor('#999')
+        .lineWidth(0.5)
+        .stroke();
       doc.moveDown(0.3);
     };
-    row(cols.map((c) => c.title), true);
+    row(
+      cols.map((c) => c.title),
+      true,
+    );
     rule();
     for (const l of q.result.lines) row([l.label, `${qty(l.quantity)} ${l.unit}`, money.format(l.rate), money.format(l.amount)]);
     rule();
@@ -75,7 +89,12 @@ export class QuotePdfService {
     row(['Total', '', '', money.format(q.result.total)], true);
     doc.moveDown(1);
     doc.font('Helvetica').fontSize(9).fillColor('#444');
-    doc.text('Amounts are rounded to the penny line by line; the total is the exact total rounded, so the lines may differ from it by a penny.', x0, doc.y, { width });
+    doc.text(
+      'Amounts are rounded to the penny line by line; the total is the exact total rounded, so the lines may differ from it by a penny.',
+      x0,
+      doc.y,
+      { width },
+    );
     if (q.notes) doc.moveDown(0.5).fillColor('#000').fontSize(10).text(q.notes, { width });
     doc.end();
     return done;

@@ -1,6 +1,13 @@
 import { Body, Controller, Get, HttpCode, Param, Patch, Post } from '@nestjs/common';
 import { ApiBearerAuth, ApiOperation, ApiTags } from '@nestjs/swagger';
-import { MILL_WRITERS, type BarDto, type LoggedPassDto, type MillRunLog, type MillRunSummary, type MillTimelineItem } from '@crankjournal/shared-types';
+import {
+  MILL_WRITERS,
+  type BarDto,
+  type LoggedPassDto,
+  type MillRunLog,
+  type MillRunSummary,
+  type MillTimelineItem,
+} from '@crankjournal/shared-types';
 import { AnyRole, Roles } from '../../common/decorators/roles.decorator.js';
 import { CurrentUser, type AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { IdParamDto } from '../../common/dto/id-param.dto.js';

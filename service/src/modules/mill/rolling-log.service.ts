@@ -114,7 +114,9 @@ export class RollingLogService {
           lotReferences: lotRows.filter((x) => x.run_id === r.id).map((x) => x.reference),
         };
       })
-      .sort((a, b) => rank(a.state) - rank(b.state) || (b.startedAt ?? b.plannedFor ?? '').localeCompare(a.startedAt ?? a.plannedFor ?? ''));
+      .sort(
+        (a, b) => rank(a.state) - rank(b.state) || (b.startedAt ?? b.plannedFor ?? '').localeCompare(a.startedAt ?? a.plannedFor ?? ''),
+      );
   }
 
   async runLog(runId: string): Promise<MillRunLog> {
@@ -150,7 +152,9 @@ export class RollingLogService {
     if (where.ids) w.id = In(where.ids);
     const bars = await this.db.getRepository(MillBar).find({ where: w, order: { createdAt: 'ASC', barCode: 'ASC' } });
     if (!bars.length) return [];
-    const passes = await this.db.getRepository(MillPass).find({ where: { barId: In(bars.map((b) => b.id)) }, order: { passNumber: 'ASC' } });
+    const passes = await this.db
+      .getRepository(MillPass)
+      .find({ where: { barId: In(bars.map((b) => b.id)) }, order: { passNumber: 'ASC' } });
     const passDtos = await this.passDtos(passes, bars);
     const scheduleIds = [...new Set(bars.map((b) => b.scheduleId).filter((x): x is string => !!x))];
     const schedules = scheduleIds.length ? await this.db.getRepository(PassSchedule).find({ where: { id: In(scheduleIds) } }) : [];
@@ -182,7 +186,12 @@ export class RollingLogService {
   }
 
   /** Starts a bar on a run (`allowClosedRun`: the demo seed's past season only; the API never sets it). */
-  async createBar(runId: string, dto: CreateBarRequest, user: Pick<AuthUser, 'id'>, opts: { allowClosedRun?: boolean } = {}): Promise<BarDto> {
+  async createBar(
+    runId: string,
+    dto: CreateBarRequest,
+    user: Pick<AuthUser, 'id'>,
+    opts: { allowClosedRun?: boolean } = {},
+  ): Promise<BarDto> {
     const run = await this.runs.get(runId);
     if (!opts.allowClosedRun) this.assertLogging(run);
     const mill = await this.millOfRun(run);
@@ -193,10 +202,13 @@ export class RollingLogService {
     }
     const stock = dto.stock ?? schedule?.stock;
     const stockLengthMm = dto.stockLengthMm ?? schedule?.stockLengthMm;
-    if (!stock || !stockLengthMm) throw new BadRequestException('Give the stock size and length, or choose the pass schedule the bar follows.');
-    if (dto.lotId && !(await this.db.getRepository(CustomerLot).exists({ where: { id: dto.lotId } }))) throw new BadRequestException('lotId names no customer lot.');
+    if (!stock || !stockLengthMm)
+      throw new BadRequestException('Give the stock size and length, or choose the pass schedule the bar follows.');
+    if (dto.lotId && !(await this.db.getRepository(CustomerLot).exists({ where: { id: dto.lotId } })))
+      throw new BadRequestException('lotId names no customer lot.');
     const code = dto.barCode.trim();
-    if (await this.db.getRepository(MillBar).exists({ where: { runId, barCode: code } })) throw new ConflictException(`Bar ${code} is already logged on this run; give the next bar its own id.`);
+    if (await this.db.getRepository(MillBar).exists({ where: { runId, barCode: code } }))
+      throw new ConflictException(`Bar ${code} is already logged on this run; give the next bar its own id.`);
     const saved = await this.db.transaction(async (m) => {
       const b = await m.save(
         MillBar,
@@ -225,14 +237,16 @@ export class RollingLogService {
     if (!bar) throw new NotFoundException('No such bar.');
     const run = await this.runs.get(bar.runId);
     this.runs.assertOpen(run);
-    if (dto.lotId && !(await this.db.getRepository(CustomerLot).exists({ where: { id: dto.lotId } }))) throw new BadRequestException('lotId names no customer lot.');
+    if (dto.lotId && !(await this.db.getRepository(CustomerLot).exists({ where: { id: dto.lotId } })))
+      throw new BadRequestException('lotId names no customer lot.');
     const patch: Partial<MillBar> = {};
     if (dto.lotId !== undefined) patch.lotId = dto.lotId;
     if (dto.weightKg !== undefined) patch.weightKg = dto.weightKg;
     if (dto.scrapped !== undefined) patch.scrapped = dto.scrapped;
     if (dto.scrapReason !== undefined) patch.scrapReason = dto.scrapReason;
     if (dto.notes !== undefined) patch.notes = dto.notes;
-    if (patch.scrapped && !(patch.scrapReason ?? bar.scrapReason)?.trim()) throw new BadRequestException('scrapReason must say why the bar was scrapped.');
+    if (patch.scrapped && !(patch.scrapReason ?? bar.scrapReason)?.trim())
+      throw new BadRequestException('scrapReason must say why the bar was scrapped.');
     await this.db.transaction(async (m) => {
       if (Object.keys(patch).length) await m.update(MillBar, { id: barId }, patch);
       if (dto.lotId) await this.linkRunToLot(m, dto.lotId, bar.runId, user.id);
@@ -244,7 +258,11 @@ export class RollingLogService {
 
   /** A bar of a lot ties its run to the lot. */
   private async linkRunToLot(m: import('typeorm').EntityManager, lotId: string, runId: string, userId: string) {
-    await m.query(`INSERT INTO mill_lot_runs (lot_id, run_id, linked_by, linked_at) VALUES ($1, $2, $3, now()) ON CONFLICT DO NOTHING`, [lotId, runId, userId]);
+    await m.query(`INSERT INTO mill_lot_runs (lot_id, run_id, linked_by, linked_at) VALUES ($1, $2, $3, now()) ON CONFLICT DO NOTHING`, [
+      lotId,
+      runId,
+      userId,
+    ]);
   }
 
   // ---- passes --------------------------------------------------------------------------------------------
@@ -253,7 +271,12 @@ export class RollingLogService {
    * Logs one pass of a bar and stores its calculation as made at that moment. `allowClosedRun` is for the demo
    * seed, which writes a past season's passes on runs it has already closed; the API never sets it.
    */
-  async logPass(barId: string, dto: LogPassRequest, user: Pick<AuthUser, 'id'>, opts: { allowClosedRun?: boolean } = {}): Promise<LoggedPassDto> {
+  async logPass(
+    barId: string,
+    dto: LogPassRequest,
+    user: Pick<AuthUser, 'id'>,
+    opts: { allowClosedRun?: boolean } = {},
+  ): Promise<LoggedPassDto> {
     const bar = await this.db.getRepository(MillBar).findOne({ where: { id: barId } });
     if (!bar) throw new NotFoundException('No such bar.');
     if (dto.clientId) {
@@ -270,8 +293,10 @@ export class RollingLogService {
     const engine = await this.engines.get(mill.engineId);
     const at = dto.at ? new Date(dto.at) : new Date();
     if (!opts.allowClosedRun) {
-      if (at.getTime() > Date.now() + CLOCK_SLACK_MS) throw new BadRequestException('at is in the future; leave it out to log the pass now.');
-      if (run.startedAt && at < run.startedAt) throw new BadRequestException(`at is before the run started (${run.startedAt.toISOString()}).`);
+      if (at.getTime() > Date.now() + CLOCK_SLACK_MS)
+        throw new BadRequestException('at is in the future; leave it out to log the pass now.');
+      if (run.startedAt && at < run.startedAt)
+        throw new BadRequestException(`at is before the run started (${run.startedAt.toISOString()}).`);
     }
     if (await this.db.getRepository(MillPass).exists({ where: { barId, passNumber: dto.passNumber } }))
       throw new ConflictException(`Pass ${dto.passNumber} of bar ${bar.barCode} is already logged. Log the next pass number.`);
@@ -354,7 +379,8 @@ export class RollingLogService {
           WHERE run_id = $1 AND point_id = $2 AND taken_at <= $3 AND taken_at >= $4 ORDER BY taken_at DESC LIMIT 1`,
         [run.id, speed.id, at, new Date(at.getTime() - SPEED_READING_MAX_AGE_MS)],
       );
-      if (rows.length && Number(rows[0].v) > 0) return { rpm: Number(rows[0].v), source: `speed reading ${speed.code} at ${fmtClock(new Date(rows[0].t))}` };
+      if (rows.length && Number(rows[0].v) > 0)
+        return { rpm: Number(rows[0].v), source: `speed reading ${speed.code} at ${fmtClock(new Date(rows[0].t))}` };
     }
     return { rpm: ratedSpeedRpm, source: 'rated speed (no speed reading in the 30 minutes before the pass)' };
   }
@@ -419,7 +445,10 @@ export class RollingLogService {
   async lotBars(lotId: string) {
     const bars = await this.db.getRepository(MillBar).find({ where: { lotId }, order: { createdAt: 'ASC' } });
     if (!bars.length) return [];
-    const counts: { bar_id: string; n: number }[] = await this.db.query(`SELECT bar_id, count(*)::int AS n FROM mill_passes WHERE bar_id = ANY($1) GROUP BY bar_id`, [bars.map((b) => b.id)]);
+    const counts: { bar_id: string; n: number }[] = await this.db.query(
+      `SELECT bar_id, count(*)::int AS n FROM mill_passes WHERE bar_id = ANY($1) GROUP BY bar_id`,
+      [bars.map((b) => b.id)],
+    );
     const runIds = [...new Set(bars.map((b) => b.runId))];
     const titles = new Map<string, string>();
     for (const id of runIds) titles.set(id, (await this.runs.get(id)).title);

@@ -8,7 +8,9 @@ import { PassSchedule } from './pass-schedule.entity.js';
 export class SchedulePass {
   @PrimaryGeneratedColumn('uuid') id: string;
   @Column({ name: 'schedule_id', type: 'uuid' }) scheduleId: string;
-  @ManyToOne(() => PassSchedule, (s) => s.passes, { onDelete: 'CASCADE' }) @JoinColumn({ name: 'schedule_id' }) schedule?: Relation<PassSchedule>;
+  @ManyToOne(() => PassSchedule, (s) => s.passes, { onDelete: 'CASCADE' })
+  @JoinColumn({ name: 'schedule_id' })
+  schedule?: Relation<PassSchedule>;
   /** pass number, from 1 */
   @Column({ type: 'int' }) seq: number;
   @Column({ name: 'stand_position', type: 'int' }) standPosition: number;

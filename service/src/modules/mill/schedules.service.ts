@@ -1,7 +1,13 @@
 import { BadRequestException, HttpException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, In } from 'typeorm';
-import type { ScheduleCopyRequest, ScheduleDetail, SchedulePassDto, ScheduleSummary, ScheduleWriteRequest } from '@crankjournal/shared-types';
+import type {
+  ScheduleCopyRequest,
+  ScheduleDetail,
+  SchedulePassDto,
+  ScheduleSummary,
+  ScheduleWriteRequest,
+} from '@crankjournal/shared-types';
 import { PassSchedule } from './pass-schedule.entity.js';
 import { SchedulePass } from './schedule-pass.entity.js';
 import { CustomerLot } from './customer-lot.entity.js';
@@ -44,7 +50,9 @@ export class SchedulesService {
     const where: Record<string, unknown> = {};
     if (filter.millId) where.millId = filter.millId;
     if (filter.templates !== undefined) where.isTemplate = filter.templates;
-    const rows = await this.db.getRepository(PassSchedule).find({ where, relations: { passes: true }, order: { isTemplate: 'DESC', name: 'ASC' } });
+    const rows = await this.db
+      .getRepository(PassSchedule)
+      .find({ where, relations: { passes: true }, order: { isTemplate: 'DESC', name: 'ASC' } });
     const details = await this.build(rows);
     return details.map(({ passes, notes, totalElongation, finalLengthM, assumptions, createdByName, createdAt, ...summary }) => summary);
   }
@@ -155,7 +163,8 @@ export class SchedulesService {
       });
       return { ...base, calc, calcError: null };
     } catch (e) {
-      if (e instanceof HttpException) return { ...base, calc: null, calcError: String((e.getResponse() as { message?: string }).message ?? e.message) };
+      if (e instanceof HttpException)
+        return { ...base, calc: null, calcError: String((e.getResponse() as { message?: string }).message ?? e.message) };
       throw e;
     }
   }
@@ -166,8 +175,10 @@ export class SchedulesService {
     });
     const positions = new Set((mill.stands ?? []).map((s) => s.position));
     const missing = [...new Set(dto.passes.map((p) => p.standPosition).filter((p) => !positions.has(p)))];
-    if (missing.length) throw new BadRequestException(`${mill.name} has no stand ${missing.join(', ')}; its stands are ${[...positions].sort().join(', ')}.`);
-    if (dto.lotId && !(await this.db.getRepository(CustomerLot).exists({ where: { id: dto.lotId } }))) throw new BadRequestException('lotId names no customer lot.');
+    if (missing.length)
+      throw new BadRequestException(`${mill.name} has no stand ${missing.join(', ')}; its stands are ${[...positions].sort().join(', ')}.`);
+    if (dto.lotId && !(await this.db.getRepository(CustomerLot).exists({ where: { id: dto.lotId } })))
+      throw new BadRequestException('lotId names no customer lot.');
     return mill;
   }
 
@@ -194,37 +205,55 @@ export class SchedulesService {
           createdBy: user.id,
         }),
       );
-      await m.insert(SchedulePass, dto.passes.map((p, i) => this.passRow(s.id, i + 1, p)));
+      await m.insert(
+        SchedulePass,
+        dto.passes.map((p, i) => this.passRow(s.id, i + 1, p)),
+      );
       return s.id;
     });
     return this.detail(id);
   }
 
   private passRow(scheduleId: string, seq: number, p: ScheduleWriteRequest['passes'][number]) {
-    return { scheduleId, seq, standPosition: p.standPosition, entry: { ...p.entry }, exit: { ...p.exit }, expectedTemperatureC: p.expectedTemperatureC, notes: p.notes ?? '' };
+    return {
+      scheduleId,
+      seq,
+      standPosition: p.standPosition,
+      entry: { ...p.entry },
+      exit: { ...p.exit },
+      expectedTemperatureC: p.expectedTemperatureC,
+      notes: p.notes ?? '',
+    };
   }
 
   async update(id: string, dto: ScheduleWriteRequest): Promise<ScheduleDetail> {
     const cur = await this.getEntity(id);
     await this.assertRefs(dto);
     await this.db.transaction(async (m) => {
-      await m.update(PassSchedule, { id }, {
-        millId: dto.millId,
-        name: dto.name.trim(),
-        isTemplate: dto.isTemplate,
-        archived: dto.archived ?? cur.archived,
-        productShape: dto.productShape,
-        productHeightMm: dto.productHeightMm,
-        productWidthMm: dto.productWidthMm,
-        steelGrade: dto.steelGrade.trim(),
-        carbonPct: dto.carbonPct,
-        stock: { ...dto.stock },
-        stockLengthMm: dto.stockLengthMm,
-        lotId: dto.lotId === undefined ? cur.lotId : dto.lotId,
-        notes: dto.notes ?? cur.notes,
-      });
+      await m.update(
+        PassSchedule,
+        { id },
+        {
+          millId: dto.millId,
+          name: dto.name.trim(),
+          isTemplate: dto.isTemplate,
+          archived: dto.archived ?? cur.archived,
+          productShape: dto.productShape,
+          productHeightMm: dto.productHeightMm,
+          productWidthMm: dto.productWidthMm,
+          steelGrade: dto.steelGrade.trim(),
+          carbonPct: dto.carbonPct,
+          stock: { ...dto.stock },
+          stockLengthMm: dto.stockLengthMm,
+          lotId: dto.lotId === undefined ? cur.lotId : dto.lotId,
+          notes: dto.notes ?? cur.notes,
+        },
+      );
       await m.delete(SchedulePass, { scheduleId: id });
-      await m.insert(SchedulePass, dto.passes.map((p, i) => this.passRow(id, i + 1, p)));
+      await m.insert(
+        SchedulePass,
+        dto.passes.map((p, i) => this.passRow(id, i + 1, p)),
+      );
     });
     return this.detail(id);
   }
@@ -246,7 +275,13 @@ export class SchedulesService {
         stockLengthMm: src.stockLengthMm,
         lotId: dto.lotId ?? null,
         notes: src.notes,
-        passes: (src.passes ?? []).map((p) => ({ standPosition: p.standPosition, entry: p.entry, exit: p.exit, expectedTemperatureC: p.expectedTemperatureC, notes: p.notes })),
+        passes: (src.passes ?? []).map((p) => ({
+          standPosition: p.standPosition,
+          entry: p.entry,
+          exit: p.exit,
+          expectedTemperatureC: p.expectedTemperatureC,
+          notes: p.notes,
+        })),
       },
       user,
       src.id,

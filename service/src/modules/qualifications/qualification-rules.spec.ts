@@ -1,4 +1,12 @@
-import { daysBetween, isCalendarDate, isQualified, qualificationProblem, qualificationStatus, starterReason, utcDateOf } from './qualification-rules.js';
+import {
+  daysBetween,
+  isCalendarDate,
+  isQualified,
+  qualificationProblem,
+  qualificationStatus,
+  starterReason,
+  utcDateOf,
+} from './qualification-rules.js';
 
 // Calendar arithmetic is checked against plain calendar facts (common practice, no source):
 // 2028 is a leap year (29 February exists), 2026 is not; a non-leap year has 365 days.
@@ -63,10 +71,17 @@ describe('qualification reasons', () => {
   });
   it('says a missing qualification is missing, naming the person when it is not the reader', () => {
     const r = qualificationProblem({ status: 'none' }, 'pre_lube', 'No. 2 engine', 'A. Person');
-    expect(r).toEqual({ code: 'qualification_missing', message: 'A. Person holds no pre-lube qualification for No. 2 engine. The chief engineer grants it.' });
+    expect(r).toEqual({
+      code: 'qualification_missing',
+      message: 'A. Person holds no pre-lube qualification for No. 2 engine. The chief engineer grants it.',
+    });
   });
   it('treats a withdrawn or not-yet-valid qualification as missing', () => {
-    expect(qualificationProblem({ status: 'withdrawn', withdrawnAt: new Date('2026-05-01T00:00:00Z') }, 'shutdown', 'E')?.code).toBe('qualification_missing');
-    expect(qualificationProblem({ status: 'not_yet_valid', grantedOn: '2027-01-01' }, 'shutdown', 'E')?.message).toContain('valid only from 2027-01-01');
+    expect(qualificationProblem({ status: 'withdrawn', withdrawnAt: new Date('2026-05-01T00:00:00Z') }, 'shutdown', 'E')?.code).toBe(
+      'qualification_missing',
+    );
+    expect(qualificationProblem({ status: 'not_yet_valid', grantedOn: '2027-01-01' }, 'shutdown', 'E')?.message).toContain(
+      'valid only from 2027-01-01',
+    );
   });
 });

@@ -45,7 +45,11 @@ export interface QualificationDates {
  * Where a qualification stands on `today`: valid from its granted date to its expiry date, both inclusive;
  * "expiring soon" within `warningDays` of the expiry; withdrawn overrides everything.
  */
-export function qualificationStatus(q: QualificationDates, today: string, warningDays = QUALIFICATION_EXPIRY_WARNING_DAYS): QualificationStatus {
+export function qualificationStatus(
+  q: QualificationDates,
+  today: string,
+  warningDays = QUALIFICATION_EXPIRY_WARNING_DAYS,
+): QualificationStatus {
   if (q.withdrawnAt) return 'withdrawn';
   if (daysBetween(today, q.grantedOn) > 0) return 'not_yet_valid';
   const left = daysBetween(today, q.expiresOn);
@@ -70,13 +74,21 @@ export interface QualificationFinding {
  * What is wrong with a person's qualification for a duty, in words a person can act on; null when they
  * are qualified. `who` is "You" for the person asking, or a name.
  */
-export function qualificationProblem(finding: QualificationFinding, duty: Duty, engineName: string, who = 'You'): { code: string; message: string } | null {
+export function qualificationProblem(
+  finding: QualificationFinding,
+  duty: Duty,
+  engineName: string,
+  who = 'You',
+): { code: string; message: string } | null {
   if (isQualified(finding.status)) return null;
   const dutyWords = `${DUTY_LABELS[duty].toLowerCase()} qualification for ${engineName}`;
   const whose = who === 'You' ? 'Your' : `${who}’s`;
   switch (finding.status) {
     case 'expired':
-      return { code: GATE_REASON_CODES.qualificationExpired, message: `${whose} ${dutyWords} expired on ${finding.expiresOn}. The chief engineer must renew it.` };
+      return {
+        code: GATE_REASON_CODES.qualificationExpired,
+        message: `${whose} ${dutyWords} expired on ${finding.expiresOn}. The chief engineer must renew it.`,
+      };
     case 'not_yet_valid':
       return { code: GATE_REASON_CODES.qualificationMissing, message: `${whose} ${dutyWords} is valid only from ${finding.grantedOn}.` };
     case 'withdrawn':
@@ -95,5 +107,7 @@ export function qualificationProblem(finding: QualificationFinding, duty: Duty, 
 /** The start gate's reason when the person starting is not qualified to start and run the engine. */
 export function starterReason(finding: QualificationFinding, duty: Duty, engineName: string): StartGateReason | null {
   const p = qualificationProblem(finding, duty, engineName);
-  return p ? { code: p.code, message: `${p.message} Starting the engine needs a current ${DUTY_LABELS[duty].toLowerCase()} qualification.` } : null;
+  return p
+    ? { code: p.code, message: `${p.message} Starting the engine needs a current ${DUTY_LABELS[duty].toLowerCase()} qualification.` }
+    : null;
 }

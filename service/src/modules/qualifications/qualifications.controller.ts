@@ -5,7 +5,13 @@ import { AnyRole, Roles } from '../../common/decorators/roles.decorator.js';
 import { CurrentUser, type AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { IdParamDto } from '../../common/dto/id-param.dto.js';
 import { QualificationsService } from './qualifications.service.js';
-import { GrantQualificationDto, MatrixQueryDto, QualificationQueryDto, RenewQualificationDto, WithdrawQualificationDto } from './dto/qualification.dto.js';
+import {
+  GrantQualificationDto,
+  MatrixQueryDto,
+  QualificationQueryDto,
+  RenewQualificationDto,
+  WithdrawQualificationDto,
+} from './dto/qualification.dto.js';
 
 /** Crew qualifications: everyone reads their own; the chief engineer grants, renews and withdraws. */
 @ApiTags('qualifications')

@@ -11,7 +11,14 @@ import {
   type QualificationMatrixRow,
 } from '@crankjournal/shared-types';
 import { Qualification } from './qualification.entity.js';
-import { daysBetween, isQualified, qualificationProblem, qualificationStatus, utcDateOf, type QualificationFinding } from './qualification-rules.js';
+import {
+  daysBetween,
+  isQualified,
+  qualificationProblem,
+  qualificationStatus,
+  utcDateOf,
+  type QualificationFinding,
+} from './qualification-rules.js';
 import { EnginesService } from '../engines/engines.service.js';
 import { User } from '../users/user.entity.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
@@ -59,12 +66,23 @@ export class QualificationsService {
   }
 
   /** Where a person stands for a duty on an engine now: the standing qualification, else the latest withdrawn one. */
-  async finding(userId: string, engineId: string, duty: Duty, at = new Date()): Promise<QualificationFinding & { qualificationId: string | null }> {
+  async finding(
+    userId: string,
+    engineId: string,
+    duty: Duty,
+    at = new Date(),
+  ): Promise<QualificationFinding & { qualificationId: string | null }> {
     const repo = this.db.getRepository(Qualification);
     const standing = await repo.findOne({ where: { userId, engineId, duty, withdrawnAt: IsNull() } });
     const q = standing ?? (await repo.findOne({ where: { userId, engineId, duty }, order: { withdrawnAt: 'DESC' } }));
     if (!q) return { status: 'none', qualificationId: null };
-    return { status: qualificationStatus(q, utcDateOf(at)), grantedOn: q.grantedOn, expiresOn: q.expiresOn, withdrawnAt: q.withdrawnAt, qualificationId: q.id };
+    return {
+      status: qualificationStatus(q, utcDateOf(at)),
+      grantedOn: q.grantedOn,
+      expiresOn: q.expiresOn,
+      withdrawnAt: q.withdrawnAt,
+      qualificationId: q.id,
+    };
   }
 
   /** The id of the current qualification that allows the duty, or a 403 with what is missing, in words. */
@@ -73,7 +91,12 @@ export class QualificationsService {
     if (isQualified(f.status) && f.qualificationId) return f.qualificationId;
     const engine = await this.engines.get(engineId);
     const p = qualificationProblem(f, duty, engine.name)!;
-    throw new ForbiddenException({ statusCode: 403, error: 'Forbidden', message: `${p.message} It is needed to ${toDo}.`, details: { code: p.code, duty, engineId } });
+    throw new ForbiddenException({
+      statusCode: 403,
+      error: 'Forbidden',
+      message: `${p.message} It is needed to ${toDo}.`,
+      details: { code: p.code, duty, engineId },
+    });
   }
 
   async list(filter: { userId?: string; engineId?: string; includeWithdrawn?: boolean }): Promise<QualificationDto[]> {
@@ -89,24 +112,42 @@ export class QualificationsService {
   async mine(userId: string): Promise<QualificationDto[]> {
     const rows = await this.db.getRepository(Qualification).find({ where: { userId }, order: { createdAt: 'DESC' } });
     const dtos = await this.toDtos(rows);
-    return [...dtos.filter((d) => !d.withdrawnAt).sort((a, b) => a.expiresOn.localeCompare(b.expiresOn)), ...dtos.filter((d) => d.withdrawnAt)];
+    return [
+      ...dtos.filter((d) => !d.withdrawnAt).sort((a, b) => a.expiresOn.localeCompare(b.expiresOn)),
+      ...dtos.filter((d) => d.withdrawnAt),
+    ];
   }
 
   async matrix(engineId: string): Promise<QualificationMatrix> {
     const engine = await this.engines.get(engineId);
     const today = utcDateOf(new Date());
-    const crew = await this.db.getRepository(User).find({ where: { active: true, role: In([...CREW_ROLES]) }, order: { displayName: 'ASC' } });
+    const crew = await this.db
+      .getRepository(User)
+      .find({ where: { active: true, role: In([...CREW_ROLES]) }, order: { displayName: 'ASC' } });
     const rows = await this.db.getRepository(Qualification).find({ where: { engineId, withdrawnAt: IsNull() } });
     const dtos = await this.toDtos(rows, today);
     const byUser = new Map<string, QualificationDto[]>();
     for (const d of dtos) byUser.set(d.userId, [...(byUser.get(d.userId) ?? []), d]);
     const matrixRows: QualificationMatrixRow[] = crew.map((u) => {
       const mine = byUser.get(u.id) ?? [];
-      const cells = Object.fromEntries(DUTIES.map((duty) => [duty, mine.find((d) => d.duty === duty) ?? null])) as Record<Duty, QualificationDto | null>;
+      const cells = Object.fromEntries(DUTIES.map((duty) => [duty, mine.find((d) => d.duty === duty) ?? null])) as Record<
+        Duty,
+        QualificationDto | null
+      >;
       return { userId: u.id, displayName: u.displayName, role: u.role, cells };
     });
-    const attention = dtos.filter((d) => d.status === 'expiring_soon' || d.status === 'expired').sort((a, b) => a.expiresOn.localeCompare(b.expiresOn));
-    return { engineId, engineName: engine.name, today, warningDays: QUALIFICATION_EXPIRY_WARNING_DAYS, duties: [...DUTIES], rows: matrixRows, attention };
+    const attention = dtos
+      .filter((d) => d.status === 'expiring_soon' || d.status === 'expired')
+      .sort((a, b) => a.expiresOn.localeCompare(b.expiresOn));
+    return {
+      engineId,
+      engineName: engine.name,
+      today,
+      warningDays: QUALIFICATION_EXPIRY_WARNING_DAYS,
+      duties: [...DUTIES],
+      rows: matrixRows,
+      attention,
+    };
   }
 
   private async get(id: string, m: EntityManager = this.db.manager, lock = false): Promise<Qualification> {
@@ -126,12 +167,29 @@ export class QualificationsService {
     if (!person) throw new NotFoundException('No such person.');
     if (!person.active) throw new BadRequestException(`${person.displayName}'s account is deactivated.`);
     if (!(CREW_ROLES as readonly string[]).includes(person.role))
-      throw new BadRequestException(`${person.displayName} is an ${ROLE_LABELS[person.role].toLowerCase()}: observers only read. Change their role first.`);
+      throw new BadRequestException(
+        `${person.displayName} is an ${ROLE_LABELS[person.role].toLowerCase()}: observers only read. Change their role first.`,
+      );
     const saved = await this.db.transaction(async (m) => {
-      const standing = await m.findOne(Qualification, { where: { userId: dto.userId, engineId: dto.engineId, duty: dto.duty, withdrawnAt: IsNull() } });
+      const standing = await m.findOne(Qualification, {
+        where: { userId: dto.userId, engineId: dto.engineId, duty: dto.duty, withdrawnAt: IsNull() },
+      });
       if (standing)
-        throw new ConflictException(`${person.displayName} already holds this qualification for ${engine.name} (until ${standing.expiresOn}). Renew it instead.`);
-      return m.save(Qualification, m.create(Qualification, { userId: dto.userId, engineId: dto.engineId, duty: dto.duty, grantedOn: dto.grantedOn, expiresOn: dto.expiresOn, notes: dto.notes?.trim() ?? '', grantedBy: by.id }));
+        throw new ConflictException(
+          `${person.displayName} already holds this qualification for ${engine.name} (until ${standing.expiresOn}). Renew it instead.`,
+        );
+      return m.save(
+        Qualification,
+        m.create(Qualification, {
+          userId: dto.userId,
+          engineId: dto.engineId,
+          duty: dto.duty,
+          grantedOn: dto.grantedOn,
+          expiresOn: dto.expiresOn,
+          notes: dto.notes?.trim() ?? '',
+          grantedBy: by.id,
+        }),
+      );
     });
     return (await this.toDtos([saved]))[0];
   }
@@ -144,8 +202,23 @@ export class QualificationsService {
       if (old.withdrawnAt) throw new ConflictException('This qualification was withdrawn; grant a new one instead.');
       const grantedOn = dto.grantedOn ?? today;
       this.assertDates(grantedOn, dto.expiresOn);
-      await m.update(Qualification, { id }, { withdrawnAt: new Date(), withdrawnBy: by.id, withdrawnReason: `Renewed until ${dto.expiresOn}.` });
-      return m.save(Qualification, m.create(Qualification, { userId: old.userId, engineId: old.engineId, duty: old.duty, grantedOn, expiresOn: dto.expiresOn, notes: dto.notes?.trim() ?? old.notes, grantedBy: by.id }));
+      await m.update(
+        Qualification,
+        { id },
+        { withdrawnAt: new Date(), withdrawnBy: by.id, withdrawnReason: `Renewed until ${dto.expiresOn}.` },
+      );
+      return m.save(
+        Qualification,
+        m.create(Qualification, {
+          userId: old.userId,
+          engineId: old.engineId,
+          duty: old.duty,
+          grantedOn,
+          expiresOn: dto.expiresOn,
+          notes: dto.notes?.trim() ?? old.notes,
+          grantedBy: by.id,
+        }),
+      );
     });
     return (await this.toDtos([saved]))[0];
   }

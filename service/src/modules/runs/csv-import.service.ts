@@ -8,11 +8,20 @@ import { RunsService } from './runs.service.js';
 import type { Run } from './run.entity.js';
 
 const CHUNK_ROWS = 5000;
-const COLUMNS: Record<string, string> = { takenAt: 'taken_at', pointCode: 'point', pointId: 'point', value: 'value', unit: 'unit', clientId: 'client_id' };
+const COLUMNS: Record<string, string> = {
+  takenAt: 'taken_at',
+  pointCode: 'point',
+  pointId: 'point',
+  value: 'value',
+  unit: 'unit',
+  clientId: 'client_id',
+};
 
 /** A stable id for a CSV row without one: the same point at the same moment in the same run is the same reading. */
 export function csvRowClientId(runId: string, point: string, takenAt: string): string {
-  const h = createHash('sha1').update(`${runId}|${point.trim().toLowerCase()}|${new Date(takenAt).toISOString()}`).digest('hex');
+  const h = createHash('sha1')
+    .update(`${runId}|${point.trim().toLowerCase()}|${new Date(takenAt).toISOString()}`)
+    .digest('hex');
   return `${h.slice(0, 8)}-${h.slice(8, 12)}-5${h.slice(13, 16)}-${((parseInt(h[16], 16) & 0x3) | 0x8).toString(16)}${h.slice(17, 20)}-${h.slice(20, 32)}`;
 }
 
@@ -31,7 +40,11 @@ export class CsvImportService {
   async import(run: Run, body: Readable, userId: string): Promise<IngestResult> {
     this.runs.assertTakingReadings(run);
     const total: IngestResult = { stored: 0, duplicates: 0, rejected: [], rejectedCount: 0, alarmsRaised: 0 };
-    const parser = Papa.parse(Papa.NODE_STREAM_INPUT, { header: true, skipEmptyLines: 'greedy', transformHeader: (h: string) => h.trim().toLowerCase() }) as unknown as NodeJS.ReadWriteStream;
+    const parser = Papa.parse(Papa.NODE_STREAM_INPUT, {
+      header: true,
+      skipEmptyLines: 'greedy',
+      transformHeader: (h: string) => h.trim().toLowerCase(),
+    }) as unknown as NodeJS.ReadWriteStream;
     body.pipe(parser);
     let headerChecked = false;
     let line = 1;
@@ -71,7 +84,9 @@ export class CsvImportService {
         if (missing.length) {
           body.unpipe(parser);
           body.resume();
-          throw new BadRequestException(`The file's first line must name the columns taken_at, point, value (and optionally unit, client_id); missing: ${missing.join(', ')}.`);
+          throw new BadRequestException(
+            `The file's first line must name the columns taken_at, point, value (and optionally unit, client_id); missing: ${missing.join(', ')}.`,
+          );
         }
         headerChecked = true;
       }
@@ -82,16 +97,31 @@ export class CsvImportService {
       const point = (raw.point ?? '').trim();
       const takenAt = (raw.taken_at ?? '').trim();
       const valueText = (raw.value ?? '').trim();
-      if (!point) { rejectLine({ line, column: 'point', field: 'pointCode', reason: 'point is empty' }); continue; }
-      if (!takenAt || Number.isNaN(Date.parse(takenAt))) { rejectLine({ line, column: 'taken_at', field: 'takenAt', reason: 'taken_at must be a date-time like 2026-06-14T10:15:00Z' }); continue; }
-      if (!/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(valueText)) { rejectLine({ line, column: 'value', field: 'value', reason: `value "${valueText.slice(0, 40)}" is not a number` }); continue; }
+      if (!point) {
+        rejectLine({ line, column: 'point', field: 'pointCode', reason: 'point is empty' });
+        continue;
+      }
+      if (!takenAt || Number.isNaN(Date.parse(takenAt))) {
+        rejectLine({ line, column: 'taken_at', field: 'takenAt', reason: 'taken_at must be a date-time like 2026-06-14T10:15:00Z' });
+        continue;
+      }
+      if (!/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(valueText)) {
+        rejectLine({ line, column: 'value', field: 'value', reason: `value "${valueText.slice(0, 40)}" is not a number` });
+        continue;
+      }
       const clientId = (raw.client_id ?? '').trim() || csvRowClientId(run.id, point, takenAt);
-      const row: Record<string, unknown> = { clientId, pointCode: point, value: Number(valueText), takenAt: new Date(takenAt).toISOString() };
+      const row: Record<string, unknown> = {
+        clientId,
+        pointCode: point,
+        value: Number(valueText),
+        takenAt: new Date(takenAt).toISOString(),
+      };
       if ((raw.unit ?? '').trim()) row.unit = raw.unit.trim();
       chunk.push({ row, line });
       if (chunk.length >= CHUNK_ROWS) await flush();
     }
-    if (!headerChecked) throw new BadRequestException('The file is empty: it needs a header line (taken_at, point, value) and at least one reading.');
+    if (!headerChecked)
+      throw new BadRequestException('The file is empty: it needs a header line (taken_at, point, value) and at least one reading.');
     await flush();
     await storing;
     return total;

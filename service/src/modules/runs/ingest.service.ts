@@ -34,10 +34,14 @@ function plainlyValidReading(raw: object): raw is ReadingInputDto {
   for (const k of Object.keys(raw)) if (!READING_FIELDS.has(k)) return false;
   const r = raw as Record<string, unknown>;
   return (
-    typeof r.clientId === 'string' && isUUID(r.clientId, 'all') &&
+    typeof r.clientId === 'string' &&
+    isUUID(r.clientId, 'all') &&
     (absent(r.pointId) || (typeof r.pointId === 'string' && isUUID(r.pointId, 'all'))) &&
     (absent(r.pointCode) || (typeof r.pointCode === 'string' && r.pointCode.length <= 24)) &&
-    typeof r.value === 'number' && Number.isFinite(r.value) && r.value >= -1e9 && r.value <= 1e9 &&
+    typeof r.value === 'number' &&
+    Number.isFinite(r.value) &&
+    r.value >= -1e9 &&
+    r.value <= 1e9 &&
     (absent(r.unit) || (typeof r.unit === 'string' && r.unit.length <= 16)) &&
     isDateString(r.takenAt, {})
   );
@@ -128,8 +132,14 @@ export class IngestService {
       }
       const point = dto.pointId ? byId.get(dto.pointId) : dto.pointCode ? byCode.get(dto.pointCode.toLowerCase()) : undefined;
       if (!dto.pointId && !dto.pointCode) return reject(index, 'pointId', 'pointId or pointCode is required');
-      if (!point) return reject(index, dto.pointId ? 'pointId' : 'pointCode', `no measurement point ${dto.pointId ?? dto.pointCode} on this run's engine`);
-      if (dto.unit !== undefined && dto.unit !== point.unit) return reject(index, 'unit', `${point.code} is recorded in ${point.unit}, not ${dto.unit}`);
+      if (!point)
+        return reject(
+          index,
+          dto.pointId ? 'pointId' : 'pointCode',
+          `no measurement point ${dto.pointId ?? dto.pointCode} on this run's engine`,
+        );
+      if (dto.unit !== undefined && dto.unit !== point.unit)
+        return reject(index, 'unit', `${point.code} is recorded in ${point.unit}, not ${dto.unit}`);
       let settings = settingsOf.get(point.id);
       if (!settings) settingsOf.set(point.id, (settings = { ...point, name: point.label }));
       const absurd = validateReadingValue(settings, dto.value);
@@ -215,7 +225,8 @@ export class IngestService {
     try {
       ({ inserted, outcome } = await this.db.transaction(async (m) => {
         const [state] = await m.query(`SELECT state FROM runs WHERE id = $1 FOR SHARE`, [run.id]);
-        if (!state || !['preparing', 'cleared', 'running', 'stopped'].includes(state.state)) throw new ConflictException('This run no longer takes readings.');
+        if (!state || !['preparing', 'cleared', 'running', 'stopped'].includes(state.state))
+          throw new ConflictException('This run no longer takes readings.');
         // Columns go as delimited text (cheaper to build than array literals for thousands of rows); every
         // field is a uuid, a number, an ISO time, a source word or a unit, none of which holds the delimiter.
         const col = (f: (r: { job: number; g: GoodRow }) => string) => rows.map(f).join(SEP);
@@ -251,7 +262,12 @@ export class IngestService {
           const { job, g } = byClientId.get(client_id)!;
           return { job, row: { id, client_id, point_id: g.point.id, value: g.value, taken_at: g.takenAt } };
         });
-        const fresh: NewReading[] = ins.map(({ row }) => ({ id: String(row.id), pointId: row.point_id, value: row.value, takenAt: row.taken_at }));
+        const fresh: NewReading[] = ins.map(({ row }) => ({
+          id: String(row.id),
+          pointId: row.point_id,
+          value: row.value,
+          takenAt: row.taken_at,
+        }));
         const o = await this.alarms.evaluate(engineId, run.id, fresh, m, this.history);
         return { inserted: ins, outcome: o };
       }));
@@ -264,7 +280,11 @@ export class IngestService {
     return group.map((j, job) => {
       const mine = inserted.filter((x) => x.job === job).map((x) => x.row);
       if (mine.length) this.broadcast(j.ctx, mine);
-      return { stored: mine.length, duplicates: j.good.length - mine.length, alarmsRaised: mine.filter((r) => raisedBy.has(String(r.id))).length };
+      return {
+        stored: mine.length,
+        duplicates: j.good.length - mine.length,
+        alarmsRaised: mine.filter((r) => raisedBy.has(String(r.id))).length,
+      };
     });
   }
 

@@ -19,7 +19,15 @@ export class LoggersService {
   ) {}
 
   toDto(l: DataLogger): LoggerDto {
-    return { id: l.id, engineId: l.engineId, name: l.name, keyPrefix: l.keyPrefix, createdAt: l.createdAt.toISOString(), revokedAt: l.revokedAt?.toISOString() ?? null, lastSeenAt: l.lastSeenAt?.toISOString() ?? null };
+    return {
+      id: l.id,
+      engineId: l.engineId,
+      name: l.name,
+      keyPrefix: l.keyPrefix,
+      createdAt: l.createdAt.toISOString(),
+      revokedAt: l.revokedAt?.toISOString() ?? null,
+      lastSeenAt: l.lastSeenAt?.toISOString() ?? null,
+    };
   }
 
   async list(): Promise<LoggerDto[]> {
@@ -30,7 +38,17 @@ export class LoggersService {
     await this.engines.get(engineId);
     const { secret } = newSecret(24);
     const key = `cjl_${secret}`;
-    const l = await this.loggers.save(this.loggers.create({ engineId, name: name.trim(), keyPrefix: key.slice(0, 10), keyHash: sha256(key), createdBy: by, revokedAt: null, lastSeenAt: null }));
+    const l = await this.loggers.save(
+      this.loggers.create({
+        engineId,
+        name: name.trim(),
+        keyPrefix: key.slice(0, 10),
+        keyHash: sha256(key),
+        createdBy: by,
+        revokedAt: null,
+        lastSeenAt: null,
+      }),
+    );
     return { ...this.toDto(l), key };
   }
 
@@ -47,7 +65,8 @@ export class LoggersService {
 
   /** The logger a key belongs to, if the key is valid and not revoked. */
   async authenticate(key: unknown): Promise<DataLogger> {
-    if (typeof key !== 'string' || !key.startsWith('cjl_') || key.length > 200) throw new UnauthorizedException('A data logger must send its key in the x-logger-key header.');
+    if (typeof key !== 'string' || !key.startsWith('cjl_') || key.length > 200)
+      throw new UnauthorizedException('A data logger must send its key in the x-logger-key header.');
     const hash = sha256(key);
     const hit = this.cache.get(hash);
     let logger = hit && Date.now() - hit.at < KEY_CACHE_MS ? hit.logger : undefined;

@@ -40,7 +40,11 @@ export class ReadingsService {
     const qb = this.db.getRepository(Reading).createQueryBuilder('r').where('r.runId = :runId', { runId });
     if (filter.since) qb.andWhere('r.receivedAt > :since', { since: new Date(filter.since) });
     if (filter.pointId) qb.andWhere('r.pointId = :pointId', { pointId: filter.pointId });
-    const rows = await qb.orderBy('r.takenAt', 'ASC').addOrderBy('r.id', 'ASC').limit(filter.limit ?? 20_000).getMany();
+    const rows = await qb
+      .orderBy('r.takenAt', 'ASC')
+      .addOrderBy('r.id', 'ASC')
+      .limit(filter.limit ?? 20_000)
+      .getMany();
     return this.toDtos(rows);
   }
 
@@ -55,7 +59,15 @@ export class ReadingsService {
     const byReading = new Map<string, AmendmentDto[]>();
     for (const a of amendments) {
       const list = byReading.get(a.readingId) ?? [];
-      list.push({ id: a.id, oldValue: a.oldValue, newValue: a.newValue, reason: a.reason, by: a.byUser, byName: name.get(a.byUser) ?? 'unknown', at: a.at.toISOString() });
+      list.push({
+        id: a.id,
+        oldValue: a.oldValue,
+        newValue: a.newValue,
+        reason: a.reason,
+        by: a.byUser,
+        byName: name.get(a.byUser) ?? 'unknown',
+        at: a.at.toISOString(),
+      });
       byReading.set(a.readingId, list);
     }
     return rows.map((r) => ({
@@ -89,7 +101,8 @@ export class ReadingsService {
     for (const a of alarms) {
       if (!a.pointId) continue;
       const cur = worst.get(a.pointId);
-      if (!cur || (a.priority === 'high_high' && cur.priority !== 'high_high')) worst.set(a.pointId, { state: a.state, priority: a.priority });
+      if (!cur || (a.priority === 'high_high' && cur.priority !== 'high_high'))
+        worst.set(a.pointId, { state: a.state, priority: a.priority });
     }
     const byPoint = new Map<string, { value: number; taken_at: Date }[]>();
     for (const r of rows) {
@@ -131,7 +144,14 @@ export class ReadingsService {
     await this.db.transaction(async (m) => {
       const cur = await m.findOne(Reading, { where: { id: readingId }, lock: { mode: 'pessimistic_write' } });
       const old = cur!.amendedValue ?? cur!.value;
-      await m.insert(ReadingAmendment, { readingId, oldValue: old, newValue: value, reason: reason.trim(), byUser: user.id, at: new Date() });
+      await m.insert(ReadingAmendment, {
+        readingId,
+        oldValue: old,
+        newValue: value,
+        reason: reason.trim(),
+        byUser: user.id,
+        at: new Date(),
+      });
       await m.update(Reading, { id: readingId }, { amendedValue: value });
     });
     const [dto] = await this.toDtos([(await this.db.getRepository(Reading).findOne({ where: { id: readingId } }))!]);
@@ -169,7 +189,16 @@ export class ReadingsService {
       params.push(opts.runIds);
       byRun = ' AND run_id = ANY($2::uuid[])';
     }
-    const rows: { run_id: string; point_id: string; peak: number; mean: number; least: number; n: number; first_at: Date; last_at: Date }[] = await this.db.query(
+    const rows: {
+      run_id: string;
+      point_id: string;
+      peak: number;
+      mean: number;
+      least: number;
+      n: number;
+      first_at: Date;
+      last_at: Date;
+    }[] = await this.db.query(
       `SELECT run_id, point_id, max(v) AS peak, avg(v) AS mean, min(v) AS least, count(*)::int AS n, min(taken_at) AS first_at, max(taken_at) AS last_at
          FROM (SELECT run_id, point_id, COALESCE(amended_value, value) AS v, taken_at FROM readings WHERE point_id = ANY($1::uuid[])${byRun}) r
         GROUP BY run_id, point_id`,
@@ -188,7 +217,9 @@ export class ReadingsService {
   }
 
   amendmentsOf(readingIds: string[]) {
-    return readingIds.length ? this.db.getRepository(ReadingAmendment).find({ where: { readingId: In(readingIds) }, order: { at: 'ASC' } }) : Promise.resolve([]);
+    return readingIds.length
+      ? this.db.getRepository(ReadingAmendment).find({ where: { readingId: In(readingIds) }, order: { at: 'ASC' } })
+      : Promise.resolve([]);
   }
 
   /**
@@ -213,6 +244,12 @@ export class ReadingsService {
     );
     if (!rows.length) return null;
     const r = rows[0];
-    return { value: Number(r.v), unit: r.unit, takenAt: new Date(r.taken_at), pointId: r.point_id, pointCode: ofKind.find((p) => p.id === r.point_id)?.code ?? '' };
+    return {
+      value: Number(r.v),
+      unit: r.unit,
+      takenAt: new Date(r.taken_at),
+      pointId: r.point_id,
+      pointCode: ofKind.find((p) => p.id === r.point_id)?.code ?? '',
+    };
   }
 }

@@ -30,7 +30,9 @@ export class RunExportsService {
     const self = this;
     void (async function write() {
       try {
-        out.write(csvLine(['taken_at', 'point', 'point_label', 'value', 'unit', 'original_value', 'amendment_reason', 'source', 'reading_id']));
+        out.write(
+          csvLine(['taken_at', 'point', 'point_label', 'value', 'unit', 'original_value', 'amendment_reason', 'source', 'reading_id']),
+        );
         for await (const page of self.readings.iterate(runId)) {
           const am = await self.readings.amendmentsOf(page.filter((r) => r.amendedValue !== null).map((r) => r.id));
           const reason = new Map<string, string>();
@@ -38,7 +40,17 @@ export class RunExportsService {
           let chunk = '';
           for (const r of page) {
             const p = byId.get(r.pointId);
-            chunk += csvLine([r.takenAt, p?.code ?? '', p?.label ?? '', r.amendedValue ?? r.value, r.unit, r.amendedValue !== null ? r.value : '', reason.get(String(r.id)) ?? '', r.source, String(r.id)]);
+            chunk += csvLine([
+              r.takenAt,
+              p?.code ?? '',
+              p?.label ?? '',
+              r.amendedValue ?? r.value,
+              r.unit,
+              r.amendedValue !== null ? r.value : '',
+              reason.get(String(r.id)) ?? '',
+              r.source,
+              String(r.id),
+            ]);
           }
           if (!out.write(chunk)) await new Promise((res) => out.once('drain', res));
         }
@@ -57,19 +69,29 @@ export class RunExportsService {
     const alarms = await this.alarms.list({ runId });
     const readings = await this.readings.list(runId, {});
     const pointsBySeq = engine.measurementPoints;
-    const doc = new PDFDocument({ size: 'A4', layout: 'landscape', margin: 36, info: { Title: `Run log: ${d.title}`, Author: 'Crankjournal' } });
+    const doc = new PDFDocument({
+      size: 'A4',
+      layout: 'landscape',
+      margin: 36,
+      info: { Title: `Run log: ${d.title}`, Author: 'Crankjournal' },
+    });
     const out = new PassThrough();
     doc.pipe(out);
     doc.font('Helvetica-Bold').fontSize(16).text(`Run log sheet — ${engine.name}`);
     doc.font('Helvetica').fontSize(10);
     doc.text(`${d.title} · ${RUN_PURPOSE_LABELS[d.purpose]} · state: ${RUN_STATE_LABELS[d.state]}`);
-    doc.text(`Started ${fmtTime(d.startedAt)} · stopped ${fmtTime(d.stoppedAt)} · running ${(d.runningSeconds / 3600).toFixed(2)} h · ${Math.round(d.revolutions)} revolutions`);
+    doc.text(
+      `Started ${fmtTime(d.startedAt)} · stopped ${fmtTime(d.stoppedAt)} · running ${(d.runningSeconds / 3600).toFixed(2)} h · ${Math.round(d.revolutions)} revolutions`,
+    );
     doc.text(`Crew: ${d.crew.map((c) => c.displayName).join(', ') || '—'}`);
     if (d.notes) doc.text(`Notes: ${d.notes}`);
     doc.moveDown(0.5);
     doc.font('Helvetica-Bold').text('State history');
     doc.font('Helvetica');
-    for (const h of d.history) doc.text(`${fmtTime(h.at)}  ${h.from ? RUN_STATE_LABELS[h.from] + ' → ' : ''}${RUN_STATE_LABELS[h.to]}  by ${h.byName}${h.note ? ` — ${h.note}` : ''}`);
+    for (const h of d.history)
+      doc.text(
+        `${fmtTime(h.at)}  ${h.from ? RUN_STATE_LABELS[h.from] + ' → ' : ''}${RUN_STATE_LABELS[h.to]}  by ${h.byName}${h.note ? ` — ${h.note}` : ''}`,
+      );
     // Readings grouped into rounds by minute, one column per point (as many as fit on the sheet).
     doc.moveDown(0.5).font('Helvetica-Bold').text('Readings');
     const cols = pointsBySeq.slice(0, 11);
@@ -113,15 +135,34 @@ export class RunExportsService {
     doc.font('Helvetica').fontSize(9);
     if (!alarms.length) doc.text('None.');
     for (const a of alarms)
-      doc.text(`${fmtTime(a.raisedAt)}  ${ALARM_KIND_WORDS[a.kind]} — ${a.message}  [${ALARM_STATE_WORDS[a.state]}${a.acknowledgedByName ? `, acknowledged by ${a.acknowledgedByName} ${fmtTime(a.acknowledgedAt)}` : ''}]`);
+      doc.text(
+        `${fmtTime(a.raisedAt)}  ${ALARM_KIND_WORDS[a.kind]} — ${a.message}  [${ALARM_STATE_WORDS[a.state]}${a.acknowledgedByName ? `, acknowledged by ${a.acknowledgedByName} ${fmtTime(a.acknowledgedAt)}` : ''}]`,
+      );
     doc.moveDown(0.5).font('Helvetica-Bold').fontSize(11).text('Amendments');
     doc.font('Helvetica').fontSize(9);
     const amended = readings.filter((r) => r.amendments.length);
     if (!amended.length) doc.text('None.');
-    for (const r of amended) for (const a of r.amendments) doc.text(`${fmtTime(r.takenAt)} ${pointsBySeq.find((p) => p.id === r.pointId)?.code ?? ''}: ${a.oldValue} → ${a.newValue} by ${a.byName} at ${fmtTime(a.at)} — ${a.reason}`);
+    for (const r of amended)
+      for (const a of r.amendments)
+        doc.text(
+          `${fmtTime(r.takenAt)} ${pointsBySeq.find((p) => p.id === r.pointId)?.code ?? ''}: ${a.oldValue} → ${a.newValue} by ${a.byName} at ${fmtTime(a.at)} — ${a.reason}`,
+        );
     doc.moveDown(1).font('Helvetica-Bold').fontSize(11).text('Countersignature');
-    doc.font('Helvetica').fontSize(10).text(d.countersignedByName ? `Countersigned by ${d.countersignedByName} (chief engineer) at ${fmtTime(d.countersignedAt)}.` : 'Not yet countersigned.');
-    doc.moveDown(1).fontSize(8).fillColor('#555').text('Crankjournal aids a qualified crew. It never replaces local boiler and pressure-vessel law, the insurer’s inspections or licensed practice.');
+    doc
+      .font('Helvetica')
+      .fontSize(10)
+      .text(
+        d.countersignedByName
+          ? `Countersigned by ${d.countersignedByName} (chief engineer) at ${fmtTime(d.countersignedAt)}.`
+          : 'Not yet countersigned.',
+      );
+    doc
+      .moveDown(1)
+      .fontSize(8)
+      .fillColor('#555')
+      .text(
+        'Crankjournal aids a qualified crew. It never replaces local boiler and pressure-vessel law, the insurer’s inspections or licensed practice.',
+      );
     doc.end();
     return { filename: `run-${d.title.replace(/[^A-Za-z0-9]+/g, '-').slice(0, 40)}-log-sheet.pdf`, stream: out };
   }

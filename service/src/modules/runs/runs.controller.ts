@@ -1,4 +1,18 @@
-import { Body, Controller, Get, HttpCode, HttpException, Param, Patch, Post, Query, Req, Res, StreamableFile, UnsupportedMediaTypeException } from '@nestjs/common';
+import {
+  Body,
+  Controller,
+  Get,
+  HttpCode,
+  HttpException,
+  Param,
+  Patch,
+  Post,
+  Query,
+  Req,
+  Res,
+  StreamableFile,
+  UnsupportedMediaTypeException,
+} from '@nestjs/common';
 import { ApiBearerAuth, ApiConsumes, ApiTags } from '@nestjs/swagger';
 import type { Request, Response } from 'express';
 import type { AlarmDto, BoardPoint, IngestResult, ReadingDto, RunDetail, RunSummary, StartGateVerdict } from '@crankjournal/shared-types';
@@ -20,7 +34,14 @@ const MAX_CSV_BYTES = 200 * 1024 * 1024;
 export function answerIngest(r: IngestResult): IngestResult {
   if (r.rejectedCount > 0) {
     throw new HttpException(
-      { statusCode: 400, error: 'Bad Request', message: r.rejected.slice(0, 20).map((x) => `${x.line !== undefined ? `line ${x.line}` : `reading ${x.index}`}${x.column ? `, ${x.column}` : ''}: ${x.reason}`), details: r },
+      {
+        statusCode: 400,
+        error: 'Bad Request',
+        message: r.rejected
+          .slice(0, 20)
+          .map((x) => `${x.line !== undefined ? `line ${x.line}` : `reading ${x.index}`}${x.column ? `, ${x.column}` : ''}: ${x.reason}`),
+        details: r,
+      },
       400,
     );
   }

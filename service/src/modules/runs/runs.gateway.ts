@@ -48,7 +48,11 @@ export class RunsGateway {
     const run = await this.runs.get(body.runId);
     const r = await this.ingest.ingest({ run, source: 'live', enteredBy: socket.data.user.id }, body.readings);
     if (r.rejectedCount) {
-      socket.emit('live:error', { event: 'readings:submit', message: r.rejected.slice(0, 20).map((x) => `reading ${x.index}: ${x.reason}`), status: 400 });
+      socket.emit('live:error', {
+        event: 'readings:submit',
+        message: r.rejected.slice(0, 20).map((x) => `reading ${x.index}: ${x.reason}`),
+        status: 400,
+      });
       return { ok: false, status: 400, error: 'Some readings were refused.', data: r };
     }
     return { ok: true, data: r };

@@ -23,7 +23,17 @@ import { AlarmsModule } from '../alarms/alarms.module.js';
 /** The run log: runs and their states, readings from every source, loggers, exports. */
 @Module({
   imports: [TypeOrmModule.forFeature([Run, RunStateChange, Reading, ReadingAmendment, DataLogger]), EnginesModule, AlarmsModule],
-  providers: [RunsService, StartGateService, IngestService, ReadingsService, CsvImportService, LoggersService, RunExportsService, LoggerKeyGuard, RunsGateway],
+  providers: [
+    RunsService,
+    StartGateService,
+    IngestService,
+    ReadingsService,
+    CsvImportService,
+    LoggersService,
+    RunExportsService,
+    LoggerKeyGuard,
+    RunsGateway,
+  ],
   controllers: [RunsController, ReadingsController, LoggersController],
   exports: [RunsService, StartGateService, ReadingsService, IngestService],
 })

@@ -58,7 +58,9 @@ export class RunsService {
 
   assertTakingReadings(run: Run) {
     if (!RUN_STATES_TAKING_READINGS.includes(run.state))
-      throw new ConflictException(`This run is ${RUN_STATE_LABELS[run.state].toLowerCase()}: readings are taken from preparation until the run is closed.`);
+      throw new ConflictException(
+        `This run is ${RUN_STATE_LABELS[run.state].toLowerCase()}: readings are taken from preparation until the run is closed.`,
+      );
   }
 
   async list(filter: { engineId?: string; state?: RunState }): Promise<RunSummary[]> {
@@ -73,7 +75,9 @@ export class RunsService {
     if (!runs.length) return [];
     const engineNames = new Map((await this.engines.list()).map((e) => [e.id, e.name]));
     const openBy = await this.alarms.openCountByRun(runs.map((r) => r.id));
-    const live = await Promise.all(runs.map((r) => (r.state === 'running' && r.revolutions === null ? this.liveRevolutions(r) : Promise.resolve(r.revolutions ?? 0))));
+    const live = await Promise.all(
+      runs.map((r) => (r.state === 'running' && r.revolutions === null ? this.liveRevolutions(r) : Promise.resolve(r.revolutions ?? 0))),
+    );
     return runs.map((r, i) => ({
       id: r.id,
       engineId: r.engineId,
@@ -102,7 +106,11 @@ export class RunsService {
       [r.id, speed],
     );
     const end = (until ?? r.stoppedAt ?? new Date()).getTime();
-    return revolutionsFromSpeedRecord(rows.map((x) => ({ takenAtMs: new Date(x.t).getTime(), speedRpm: Number(x.v) })), r.startedAt.getTime(), end);
+    return revolutionsFromSpeedRecord(
+      rows.map((x) => ({ takenAtMs: new Date(x.t).getTime(), speedRpm: Number(x.v) })),
+      r.startedAt.getTime(),
+      end,
+    );
   }
 
   async detail(id: string): Promise<RunDetail> {
@@ -124,7 +132,14 @@ export class RunsService {
       countersignedByName: r.countersignedBy ? (name.get(r.countersignedBy) ?? null) : null,
       countersignedAt: r.closedAt?.toISOString() ?? null,
       abandonedReason: r.abandonedReason,
-      history: history.map((h) => ({ from: h.fromState, to: h.toState, by: h.byUser, byName: name.get(h.byUser) ?? 'unknown', at: h.at.toISOString(), note: h.note })),
+      history: history.map((h) => ({
+        from: h.fromState,
+        to: h.toState,
+        by: h.byUser,
+        byName: name.get(h.byUser) ?? 'unknown',
+        at: h.at.toISOString(),
+        note: h.note,
+      })),
       peaks: peaks.map((p) => ({ pointId: p.point_id, max: Number(p.max), min: Number(p.min), unit: p.unit })),
       createdAt: r.createdAt.toISOString(),
     };
@@ -208,13 +223,21 @@ export class RunsService {
     if (to === 'abandoned' && !dto.note?.trim()) throw new BadRequestException('note must say why the run is abandoned');
     if (to === 'running') {
       const verdict = await this.gate.checkStart(run0, user);
-      if (!verdict.allowed) throw new HttpException({ statusCode: 409, error: 'Conflict', message: verdict.reasons.map((r) => r.message), details: verdict }, 409);
+      if (!verdict.allowed)
+        throw new HttpException(
+          { statusCode: 409, error: 'Conflict', message: verdict.reasons.map((r) => r.message), details: verdict },
+          409,
+        );
     }
     if (to === 'closed') {
       if (!dto.signature || !(await this.auth.verifySigner(user.id, dto.signature)))
         throw new BadRequestException('To countersign, type your password or signing PIN; the one given is not right.');
       const verdict = await this.gate.checkClose(run0, user);
-      if (!verdict.allowed) throw new HttpException({ statusCode: 409, error: 'Conflict', message: verdict.reasons.map((r) => r.message), details: verdict }, 409);
+      if (!verdict.allowed)
+        throw new HttpException(
+          { statusCode: 409, error: 'Conflict', message: verdict.reasons.map((r) => r.message), details: verdict },
+          409,
+        );
     }
     const now = new Date();
     let addTotals: { hours: number; revs: number } | null = null;
@@ -224,10 +247,14 @@ export class RunsService {
     }
     await this.db.transaction(async (m) => {
       const cur = await m.findOne(Run, { where: { id }, lock: { mode: 'pessimistic_write' } });
-      if (!cur || cur.state !== run0.state) throw new ConflictException('Someone else changed this run a moment ago. Look again and retry.');
+      if (!cur || cur.state !== run0.state)
+        throw new ConflictException('Someone else changed this run a moment ago. Look again and retry.');
       if (to === 'preparing' && run0.state === 'planned') {
         const other = await m.findOne(Run, { where: { engineId: cur.engineId, state: In(ACTIVE), id: Not(id) } });
-        if (other) throw new ConflictException(`Another run of this engine ("${other.title}") is ${RUN_STATE_LABELS[other.state].toLowerCase()}. Close or abandon it first.`);
+        if (other)
+          throw new ConflictException(
+            `Another run of this engine ("${other.title}") is ${RUN_STATE_LABELS[other.state].toLowerCase()}. Close or abandon it first.`,
+          );
       }
       cur.state = to;
       if (to === 'running') cur.startedAt = now;
@@ -241,7 +268,14 @@ export class RunsService {
       }
       if (to === 'abandoned') cur.abandonedReason = dto.note!.trim();
       await m.save(Run, cur);
-      await m.insert(RunStateChange, { runId: id, fromState: run0.state, toState: to, byUser: user.id, at: now, note: dto.note?.trim() || null });
+      await m.insert(RunStateChange, {
+        runId: id,
+        fromState: run0.state,
+        toState: to,
+        byUser: user.id,
+        at: now,
+        note: dto.note?.trim() || null,
+      });
       if (ACTIVE.includes(to)) await this.engines.setActiveRun(cur.engineId, id, m);
       if (to === 'closed' || to === 'abandoned') await this.engines.setActiveRun(cur.engineId, null, m);
       if (addTotals) await this.engines.addRunTotals(cur.engineId, addTotals.hours, addTotals.revs, m);
@@ -258,6 +292,8 @@ export class RunsService {
 
   /** The run an engine is preparing or running now (for loggers that do not name a run). */
   async activeRunOf(engineId: string): Promise<Run | null> {
-    return this.db.getRepository(Run).findOne({ where: { engineId, state: In(RUN_STATES_TAKING_READINGS as RunState[]) }, order: { createdAt: 'DESC' } });
+    return this.db
+      .getRepository(Run)
+      .findOne({ where: { engineId, state: In(RUN_STATES_TAKING_READINGS as RunState[]) }, order: { createdAt: 'DESC' } });
   }
 }

@@ -1,11 +1,5 @@
 import { Injectable, Logger, type OnModuleInit } from '@nestjs/common';
-import {
-  CreateBucketCommand,
-  GetObjectCommand,
-  HeadBucketCommand,
-  PutObjectCommand,
-  S3Client,
-} from '@aws-sdk/client-s3';
+import { CreateBucketCommand, GetObjectCommand, HeadBucketCommand, PutObjectCommand, S3Client } from '@aws-sdk/client-s3';
 import { AppConfig } from '../../config/app-config.service.js';
 
 /** Object storage through the S3 SDK; locally an S3-compatible stand-in on 127.0.0.1. */

@@ -60,11 +60,7 @@ export class UsersService {
   }
 
   async list(): Promise<UserSummary[]> {
-    const rows = await this.users
-      .createQueryBuilder('u')
-      .addSelect('u.passwordHash')
-      .orderBy('u.displayName', 'ASC')
-      .getMany();
+    const rows = await this.users.createQueryBuilder('u').addSelect('u.passwordHash').orderBy('u.displayName', 'ASC').getMany();
     return rows.map((u) => this.toSummary(u));
   }
 
@@ -93,9 +89,17 @@ export class UsersService {
     }
     const { secret, hash } = newSecret();
     const user = await this.users.manager.transaction(async (m) => {
-      const u = await m.save(m.create(User, { email, displayName: dto.displayName.trim(), role: dto.role, active: true, passwordHash: null }));
+      const u = await m.save(
+        m.create(User, { email, displayName: dto.displayName.trim(), role: dto.role, active: true, passwordHash: null }),
+      );
       await m.save(
-        m.create(Invitation, { userId: u.id, tokenHash: hash, invitedBy, expiresAt: new Date(Date.now() + INVITATION_TTL_HOURS * 3600_000), usedAt: null }),
+        m.create(Invitation, {
+          userId: u.id,
+          tokenHash: hash,
+          invitedBy,
+          expiresAt: new Date(Date.now() + INVITATION_TTL_HOURS * 3600_000),
+          usedAt: null,
+        }),
       );
       return u;
     });

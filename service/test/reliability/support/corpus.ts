@@ -73,7 +73,11 @@ function multipart(parts: FormPart[]): { body: Buffer; contentType: string } {
   const chunks: Buffer[] = [];
   for (const p of parts) {
     const disposition = `form-data; name="${p.name}"${p.filename ? `; filename="${p.filename}"` : ''}`;
-    chunks.push(Buffer.from(`--${boundary}\r\nContent-Disposition: ${disposition}\r\n${p.type ? `Content-Type: ${p.type}\r\n` : ''}\r\n`), p.data, Buffer.from('\r\n'));
+    chunks.push(
+      Buffer.from(`--${boundary}\r\nContent-Disposition: ${disposition}\r\n${p.type ? `Content-Type: ${p.type}\r\n` : ''}\r\n`),
+      p.data,
+      Buffer.from('\r\n'),
+    );
   }
   chunks.push(Buffer.from(`--${boundary}--\r\n`));
   return { body: Buffer.concat(chunks), contentType: `multipart/form-data; boundary=${boundary}` };
@@ -99,7 +103,15 @@ export function generateCases(doc: OpenApiDoc): HttpCase[] {
       case 'string': {
         if (typeof s.example === 'string') return s.example;
         const k = stringKind(name, s);
-        return k === 'uuid' ? randomUUID() : k === 'email' ? 'someone@e2e.crankjournal.test' : k === 'date' ? new Date().toISOString() : k === 'secret' ? 'not-the-password-123' : 'Bad input corpus';
+        return k === 'uuid'
+          ? randomUUID()
+          : k === 'email'
+            ? 'someone@e2e.crankjournal.test'
+            : k === 'date'
+              ? new Date().toISOString()
+              : k === 'secret'
+                ? 'not-the-password-123'
+                : 'Bad input corpus';
       }
       case 'number':
       case 'integer':
@@ -142,11 +154,14 @@ export function generateCases(doc: OpenApiDoc): HttpCase[] {
       const routePath = openApiToRouterPath(apiPath);
       const routeKey = `${method} ${routePath}`;
       const params = [...apiPath.matchAll(/\{([^}]+)\}/g)].map((x) => x[1]);
-      const at = (value?: (p: string) => string) => apiPath.replace(/\{([^}]+)\}/g, (_x, p: string) => encodeURIComponent(value ? value(p) : randomUUID()));
+      const at = (value?: (p: string) => string) =>
+        apiPath.replace(/\{([^}]+)\}/g, (_x, p: string) => encodeURIComponent(value ? value(p) : randomUUID()));
       const add = (what: string, c: Omit<HttpCase, 'name' | 'routeKey' | 'method' | 'path'> & { path?: string }) =>
         out.push({ ...c, name: `${routeKey}: ${what}`, routeKey, method, path: c.path ?? at() });
-      const json = (what: string, body: unknown, path?: string) => add(what, { contentType: 'application/json', body: JSON.stringify(body), path });
-      const raw = (what: string, text: string, contentType = 'application/json', path?: string) => add(what, { contentType, body: text, path });
+      const json = (what: string, body: unknown, path?: string) =>
+        add(what, { contentType: 'application/json', body: JSON.stringify(body), path });
+      const raw = (what: string, text: string, contentType = 'application/json', path?: string) =>
+        add(what, { contentType, body: text, path });
 
       const content = op.requestBody?.content ?? {};
       const jsonSchema = content['application/json']?.schema;
@@ -263,26 +278,50 @@ export function generateCases(doc: OpenApiDoc): HttpCase[] {
           const { body: b, contentType } = multipart(parts);
           add(what, { contentType, body: b });
         };
-        form('form — a text file labelled image/png', [{ name: fileField, filename: 'photo.png', type: 'image/png', data: Buffer.from('not a picture, only text pretending\n') }]);
-        form('form — a script labelled application/pdf', [{ name: fileField, filename: 'report.pdf', type: 'application/pdf', data: Buffer.from(`${HTML_INJECTION}\n`) }]);
+        form('form — a text file labelled image/png', [
+          { name: fileField, filename: 'photo.png', type: 'image/png', data: Buffer.from('not a picture, only text pretending\n') },
+        ]);
+        form('form — a script labelled application/pdf', [
+          { name: fileField, filename: 'report.pdf', type: 'application/pdf', data: Buffer.from(`${HTML_INJECTION}\n`) },
+        ]);
         form('form — no file', [{ name: 'caption', data: Buffer.from('a caption and no file') }]);
-        form('form — an unknown field', [{ name: fileField, filename: 'photo.png', type: 'image/png', data: PNG_BYTES }, { name: 'zzUnknownField', data: Buffer.from('surprise') }]);
-        form('form — oversized file (11 MB, over UPLOAD_MAX_BYTES)', [{ name: fileField, filename: 'big.png', type: 'image/png', data: Buffer.concat([PNG_BYTES, Buffer.alloc(11 * 1024 * 1024, 1)]) }]);
+        form('form — an unknown field', [
+          { name: fileField, filename: 'photo.png', type: 'image/png', data: PNG_BYTES },
+          { name: 'zzUnknownField', data: Buffer.from('surprise') },
+        ]);
+        form('form — oversized file (11 MB, over UPLOAD_MAX_BYTES)', [
+          { name: fileField, filename: 'big.png', type: 'image/png', data: Buffer.concat([PNG_BYTES, Buffer.alloc(11 * 1024 * 1024, 1)]) },
+        ]);
         add('form — JSON instead of a form', { contentType: 'application/json', body: JSON.stringify({ caption: 'no file' }) });
       }
 
       // Raw uploads (CSV, images): declared by @ApiConsumes.
       const uploadTypes = Object.keys(content).filter((c) => c !== 'application/json' && c !== 'multipart/form-data');
       if (uploadTypes.some((c) => c.startsWith('image/'))) {
-        add('upload — text mislabelled as image/png', { contentType: 'image/png', body: Buffer.from('this is not a picture, only text pretending\n') });
+        add('upload — text mislabelled as image/png', {
+          contentType: 'image/png',
+          body: Buffer.from('this is not a picture, only text pretending\n'),
+        });
         add('upload — a script labelled image/jpeg', { contentType: 'image/jpeg', body: Buffer.from(`${HTML_INJECTION}\n`) });
         add('upload — empty body', { contentType: 'image/png', body: Buffer.alloc(0) });
-        add('upload — JSON instead of a file', { contentType: 'application/json', body: JSON.stringify({ image: 'data:image/png;base64,AAAA' }) });
-        add('upload — oversized (11 MB, over UPLOAD_MAX_BYTES)', { contentType: 'image/png', body: Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), Buffer.alloc(11 * 1024 * 1024, 1)]) });
+        add('upload — JSON instead of a file', {
+          contentType: 'application/json',
+          body: JSON.stringify({ image: 'data:image/png;base64,AAAA' }),
+        });
+        add('upload — oversized (11 MB, over UPLOAD_MAX_BYTES)', {
+          contentType: 'image/png',
+          body: Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), Buffer.alloc(11 * 1024 * 1024, 1)]),
+        });
       }
       if (uploadTypes.some((c) => c.includes('csv'))) {
-        add('upload — CSV with formula cells', { contentType: 'text/csv', body: 'taken_at,point,value\n2026-06-14T10:00:00Z,=cmd|\' /C calc\'!A0,=1+2\n' });
-        add('upload — CSV with broken quoting', { contentType: 'text/csv', body: 'taken_at,point,value\n"2026-06-14T10:00:00Z,"THR,"12\n' });
+        add('upload — CSV with formula cells', {
+          contentType: 'text/csv',
+          body: "taken_at,point,value\n2026-06-14T10:00:00Z,=cmd|' /C calc'!A0,=1+2\n",
+        });
+        add('upload — CSV with broken quoting', {
+          contentType: 'text/csv',
+          body: 'taken_at,point,value\n"2026-06-14T10:00:00Z,"THR,"12\n',
+        });
         add('upload — CSV mislabelled as image/png', { contentType: 'image/png', body: 'taken_at,point,value\n' });
         add('upload — empty CSV', { contentType: 'text/csv', body: '' });
       }

@@ -30,9 +30,7 @@ export class ServiceProcess {
   readonly pids: number[] = [];
   readonly url: string;
 
-  constructor(
-    private readonly opts: { databaseUrl: string; port: number; env?: Record<string, string> },
-  ) {
+  constructor(private readonly opts: { databaseUrl: string; port: number; env?: Record<string, string> }) {
     this.url = `http://127.0.0.1:${opts.port}`;
   }
 
@@ -58,7 +56,11 @@ export class ServiceProcess {
       UI_DIST: '/nonexistent',
       ...this.opts.env,
     };
-    const child = spawn(process.execPath, [join(serviceDir(), 'dist', 'main.js')], { cwd: serviceDir(), env, stdio: ['ignore', 'pipe', 'pipe'] });
+    const child = spawn(process.execPath, [join(serviceDir(), 'dist', 'main.js')], {
+      cwd: serviceDir(),
+      env,
+      stdio: ['ignore', 'pipe', 'pipe'],
+    });
     this.child = child;
     this.pids.push(child.pid!);
     const keep = (b: Buffer) => {

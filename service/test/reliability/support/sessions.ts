@@ -20,13 +20,21 @@ const secret = () => {
  * through the sign-in route, which is rate-limited and slow on purpose.
  */
 export function accessToken(userId: string, role: Role, expiresInSeconds = 3600): Promise<string> {
-  return new JwtService({ secret: secret(), signOptions: { algorithm: 'HS256' } }).signAsync({ sub: userId, role }, { expiresIn: expiresInSeconds });
+  return new JwtService({ secret: secret(), signOptions: { algorithm: 'HS256' } }).signAsync(
+    { sub: userId, role },
+    { expiresIn: expiresInSeconds },
+  );
 }
 
 /** A token that was valid once and expired a minute ago (exp in the past, signature good). */
 export function expiredToken(userId: string, role: Role): Promise<string> {
   const now = Math.floor(Date.now() / 1000);
-  return new JwtService({ secret: secret(), signOptions: { algorithm: 'HS256' } }).signAsync({ sub: userId, role, iat: now - 3600, exp: now - 60 });
+  return new JwtService({ secret: secret(), signOptions: { algorithm: 'HS256' } }).signAsync({
+    sub: userId,
+    role,
+    iat: now - 3600,
+    exp: now - 60,
+  });
 }
 
 /** One fresh user of every role, each with an access token. */

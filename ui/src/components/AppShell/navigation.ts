@@ -47,7 +47,10 @@ NAVIGATION.find((g) => g.label === 'Engines')?.items.push(
 
 // Calculators: one item per entry of the registry (features/calculators/calculators.ts), just before Administration.
 NAVIGATION.splice(
-  Math.max(0, NAVIGATION.findIndex((g) => g.label === 'Administration')),
+  Math.max(
+    0,
+    NAVIGATION.findIndex((g) => g.label === 'Administration'),
+  ),
   0,
   { label: 'Calculators', items: CALCULATORS.map((c) => ({ label: c.title, path: c.path, icon: c.icon, roles: c.roles })) },
 );

@@ -46,7 +46,13 @@ export function DataTable<T extends object>({ data, columns, empty = 'Nothing he
                       <UnstyledButton onClick={h.column.getToggleSortingHandler()} style={{ minHeight: 40 }}>
                         <Group gap={4} wrap="nowrap">
                           <table.FlexRender header={h} />
-                          {sorted === 'asc' ? <IconArrowUp size={14} /> : sorted === 'desc' ? <IconArrowDown size={14} /> : <IconArrowsSort size={14} opacity={0.4} />}
+                          {sorted === 'asc' ? (
+                            <IconArrowUp size={14} />
+                          ) : sorted === 'desc' ? (
+                            <IconArrowDown size={14} />
+                          ) : (
+                            <IconArrowsSort size={14} opacity={0.4} />
+                          )}
                         </Group>
                       </UnstyledButton>
                     ) : (

@@ -18,8 +18,8 @@ export class ErrorBoundary extends Component<{ children: ReactNode }, State> {
         <Stack maw={560}>
           <Title order={2}>This screen could not be shown</Title>
           <Alert color="signal" title="What happened">
-            Something in this screen failed. Nothing you saved before is lost. Reload to try again; if it keeps
-            happening, tell your administrator what you were doing.
+            Something in this screen failed. Nothing you saved before is lost. Reload to try again; if it keeps happening, tell your
+            administrator what you were doing.
             <Code block mt="sm">
               {this.state.error.message}
             </Code>

@@ -30,7 +30,9 @@ export function UnitValue({ value, unit, size = 'md', decimals, delta, raw, per,
     : display(value, unit, { decimals, delta });
   const s = SIZES[size];
   const recorded =
-    d.converted && value !== null && value !== undefined ? `Recorded as ${formatNumber(value, decimals ?? 2)} ${unitLabel(unit)}` : undefined;
+    d.converted && value !== null && value !== undefined
+      ? `Recorded as ${formatNumber(value, decimals ?? 2)} ${unitLabel(unit)}`
+      : undefined;
   return (
     <Group component="span" gap={4} wrap="nowrap" align="baseline" display="inline-flex" title={recorded} data-testid="unit-value">
       <Text component="span" className="cj-num" fz={s.n} fw={600} lh={1.1} c={c}>

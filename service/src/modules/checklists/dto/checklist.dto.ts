@@ -1,6 +1,12 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { IsBoolean, IsOptional, IsString, IsUUID, Matches, MaxLength, MinLength } from 'class-validator';
-import type { AmendChecklistRequest, FillChecklistItemRequest, OverrideChecklistItemRequest, SignChecklistRequest, StartChecklistRequest } from '@crankjournal/shared-types';
+import type {
+  AmendChecklistRequest,
+  FillChecklistItemRequest,
+  OverrideChecklistItemRequest,
+  SignChecklistRequest,
+  StartChecklistRequest,
+} from '@crankjournal/shared-types';
 import { IsFiniteNumberIn } from '../../../common/dto/validators.js';
 import { KEY_PATTERN } from '../checklist-rules.js';
 
@@ -17,17 +23,30 @@ export class FillChecklistItemDto implements FillChecklistItemRequest {
 }
 
 export class OverrideChecklistItemDto implements OverrideChecklistItemRequest {
-  @ApiProperty() @IsString() @MinLength(5, { message: 'reason must say why the value is acceptable today (at least 5 characters)' }) @MaxLength(1000) reason: string;
+  @ApiProperty()
+  @IsString()
+  @MinLength(5, { message: 'reason must say why the value is acceptable today (at least 5 characters)' })
+  @MaxLength(1000)
+  reason: string;
 }
 
 export class SignChecklistDto implements SignChecklistRequest {
-  @ApiProperty({ description: 'the signer’s password or signing PIN' }) @IsString() @MinLength(1, { message: 'signature must be your password or signing PIN' }) @MaxLength(200) signature: string;
+  @ApiProperty({ description: 'the signer’s password or signing PIN' })
+  @IsString()
+  @MinLength(1, { message: 'signature must be your password or signing PIN' })
+  @MaxLength(200)
+  signature: string;
 }
 
 export class AmendChecklistDto extends FillChecklistItemDto implements AmendChecklistRequest {
   @ApiProperty() @IsString() @Matches(KEY_PATTERN, { message: 'itemKey is not an item key' }) itemKey: string;
   @ApiProperty() @IsString() @MinLength(3, { message: 'reason must say why (at least 3 characters)' }) @MaxLength(1000) reason: string;
-  @ApiPropertyOptional() @IsOptional() @IsString() @MinLength(5, { message: 'overrideReason must say why the value is acceptable (at least 5 characters)' }) @MaxLength(1000) overrideReason?: string;
+  @ApiPropertyOptional()
+  @IsOptional()
+  @IsString()
+  @MinLength(5, { message: 'overrideReason must say why the value is acceptable (at least 5 characters)' })
+  @MaxLength(1000)
+  overrideReason?: string;
 }
 
 export class ChecklistItemParamDto {

@@ -35,7 +35,9 @@ import {
 import { IsFiniteNumberIn } from '../../../common/dto/validators.js';
 import { KEY_PATTERN } from '../checklist-rules.js';
 
-const oneOf = (list: readonly string[]) => ({ message: ({ property }: { property: string }) => `${property} must be one of: ${list.join(', ')}` });
+const oneOf = (list: readonly string[]) => ({
+  message: ({ property }: { property: string }) => `${property} must be one of: ${list.join(', ')}`,
+});
 const keyRule = { message: ({ property }: { property: string }) => `${property} must be 1–64 letters, digits, - or _` };
 
 export class ItemCautionDto implements ItemCaution {
@@ -52,9 +54,20 @@ export class ChecklistItemDefDto implements ChecklistItemDef {
   @ApiPropertyOptional() @IsOptional() @IsString() @MaxLength(16) unit?: string;
   @ApiPropertyOptional() @IsOptional() @IsFiniteNumberIn(-1e6, 1e6) min?: number | null;
   @ApiPropertyOptional() @IsOptional() @IsFiniteNumberIn(-1e6, 1e6) max?: number | null;
-  @ApiPropertyOptional() @IsOptional() @IsArray() @ArrayMaxSize(12) @IsString({ each: true }) @MinLength(1, { each: true }) @MaxLength(200, { each: true }) choices?: string[];
+  @ApiPropertyOptional()
+  @IsOptional()
+  @IsArray()
+  @ArrayMaxSize(12)
+  @IsString({ each: true })
+  @MinLength(1, { each: true })
+  @MaxLength(200, { each: true })
+  choices?: string[];
   @ApiPropertyOptional() @IsOptional() @IsArray() @ArrayMaxSize(12) @IsString({ each: true }) acceptable?: string[];
-  @ApiPropertyOptional({ type: ItemCautionDto }) @IsOptional() @ValidateNested() @Type(() => ItemCautionDto) caution?: ItemCautionDto | null;
+  @ApiPropertyOptional({ type: ItemCautionDto })
+  @IsOptional()
+  @ValidateNested()
+  @Type(() => ItemCautionDto)
+  caution?: ItemCautionDto | null;
 }
 
 export class ChecklistSectionDefDto implements ChecklistSectionDef {
@@ -72,7 +85,9 @@ export class ChecklistSectionDefDto implements ChecklistSectionDef {
 export class ChecklistTemplateContentDto implements ChecklistTemplateContent {
   @ApiProperty() @IsString() @MinLength(1, { message: 'name must not be empty' }) @MaxLength(120) name: string;
   @ApiProperty({ enum: CHECKLIST_PURPOSES }) @IsIn(CHECKLIST_PURPOSES, oneOf(CHECKLIST_PURPOSES)) purpose: ChecklistPurpose;
-  @ApiProperty({ enum: CHECKLIST_REQUIRED_WHEN }) @IsIn(CHECKLIST_REQUIRED_WHEN, oneOf(CHECKLIST_REQUIRED_WHEN)) requiredWhen: ChecklistRequiredWhen;
+  @ApiProperty({ enum: CHECKLIST_REQUIRED_WHEN })
+  @IsIn(CHECKLIST_REQUIRED_WHEN, oneOf(CHECKLIST_REQUIRED_WHEN))
+  requiredWhen: ChecklistRequiredWhen;
   @ApiProperty({ enum: DUTIES }) @IsIn(DUTIES, oneOf(DUTIES)) requiredDuty: Duty;
   @ApiProperty() @IsString() @MaxLength(4000) description: string;
   @ApiProperty({ type: [ChecklistSectionDefDto] })

@@ -1,6 +1,20 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { Type } from 'class-transformer';
-import { ArrayMaxSize, IsArray, IsIn, IsInt, IsOptional, IsString, IsUUID, Matches, MaxLength, Min, MinLength, ValidateNested, Max } from 'class-validator';
+import {
+  ArrayMaxSize,
+  IsArray,
+  IsIn,
+  IsInt,
+  IsOptional,
+  IsString,
+  IsUUID,
+  Matches,
+  MaxLength,
+  Min,
+  MinLength,
+  ValidateNested,
+  Max,
+} from 'class-validator';
 import {
   BEARING_KINDS,
   CYLINDER_ROLES,
@@ -22,7 +36,9 @@ import {
 } from '@crankjournal/shared-types';
 import { IsFiniteNumberIn } from '../../../common/dto/validators.js';
 
-const oneOf = (list: readonly string[]) => ({ message: ({ property }: { property: string }) => `${property} must be one of: ${list.join(', ')}` });
+const oneOf = (list: readonly string[]) => ({
+  message: ({ property }: { property: string }) => `${property} must be one of: ${list.join(', ')}`,
+});
 
 export class CylinderWriteDto implements CylinderDto {
   @IsOptional() @IsUUID('all', { message: 'id must be a UUID' }) id?: string;
@@ -90,8 +106,28 @@ export class EngineWriteDto implements EngineWriteRequest {
   @IsOptional() @IsFiniteNumberIn(1, 1e7) flywheelMassLb?: number | null;
   @IsOptional() @IsFiniteNumberIn(0.1, 100) flywheelRadiusOfGyrationFt?: number | null;
   @IsOptional() @IsFiniteNumberIn(1, 1e7) rotatingWeightLb?: number | null;
-  @ApiProperty({ type: [CylinderWriteDto] }) @IsArray() @ArrayMaxSize(8) @ValidateNested({ each: true }) @Type(() => CylinderWriteDto) cylinders: CylinderWriteDto[];
-  @ApiProperty({ type: [LubricationPointWriteDto] }) @IsArray() @ArrayMaxSize(200) @ValidateNested({ each: true }) @Type(() => LubricationPointWriteDto) lubricationPoints: LubricationPointWriteDto[];
-  @ApiProperty({ type: [BearingWriteDto] }) @IsArray() @ArrayMaxSize(100) @ValidateNested({ each: true }) @Type(() => BearingWriteDto) bearings: BearingWriteDto[];
-  @ApiProperty({ type: [MeasurementPointWriteDto] }) @IsArray() @ArrayMaxSize(500) @ValidateNested({ each: true }) @Type(() => MeasurementPointWriteDto) measurementPoints: MeasurementPointWriteDto[];
+  @ApiProperty({ type: [CylinderWriteDto] })
+  @IsArray()
+  @ArrayMaxSize(8)
+  @ValidateNested({ each: true })
+  @Type(() => CylinderWriteDto)
+  cylinders: CylinderWriteDto[];
+  @ApiProperty({ type: [LubricationPointWriteDto] })
+  @IsArray()
+  @ArrayMaxSize(200)
+  @ValidateNested({ each: true })
+  @Type(() => LubricationPointWriteDto)
+  lubricationPoints: LubricationPointWriteDto[];
+  @ApiProperty({ type: [BearingWriteDto] })
+  @IsArray()
+  @ArrayMaxSize(100)
+  @ValidateNested({ each: true })
+  @Type(() => BearingWriteDto)
+  bearings: BearingWriteDto[];
+  @ApiProperty({ type: [MeasurementPointWriteDto] })
+  @IsArray()
+  @ArrayMaxSize(500)
+  @ValidateNested({ each: true })
+  @Type(() => MeasurementPointWriteDto)
+  measurementPoints: MeasurementPointWriteDto[];
 }

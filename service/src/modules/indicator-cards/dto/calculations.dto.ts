@@ -1,6 +1,17 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { Type } from 'class-transformer';
-import { ArrayMaxSize, ArrayMinSize, IsArray, IsIn, IsNumber, IsObject, IsOptional, IsString, MaxLength, ValidateNested } from 'class-validator';
+import {
+  ArrayMaxSize,
+  ArrayMinSize,
+  IsArray,
+  IsIn,
+  IsNumber,
+  IsObject,
+  IsOptional,
+  IsString,
+  MaxLength,
+  ValidateNested,
+} from 'class-validator';
 import {
   CYLINDER_ENDS,
   type CardTrace,
@@ -42,7 +53,10 @@ export class IndicatedPowerCardDto implements IndicatedPowerCardInput {
   @IsOptional()
   @IsPositiveNumberUpTo(10000)
   springPsiPerIn?: number;
-  @ApiPropertyOptional({ description: 'Mid-ordinates, in (one way; with springPsiPerIn); ten is usual, any number of two or more', type: [Number] })
+  @ApiPropertyOptional({
+    description: 'Mid-ordinates, in (one way; with springPsiPerIn); ten is usual, any number of two or more',
+    type: [Number],
+  })
   @IsOptional()
   @IsArray({ message: 'ordinatesIn must be a list of numbers' })
   @ArrayMinSize(2, { message: 'ordinatesIn needs at least two ordinates' })
@@ -56,7 +70,10 @@ export class IndicatedPowerCylinderDto implements IndicatedPowerCylinderInput {
   @ApiProperty({ description: 'in', example: 22.57 }) @IsPositiveNumberUpTo(500) boreIn: number;
   @ApiProperty({ description: 'Piston rod (crank end), in; 0 if none', example: 4 }) @IsFiniteNumberIn(0, 500) pistonRodIn: number;
   @ApiProperty({ description: 'Tail rod (head end), in; 0 if none', example: 0 }) @IsFiniteNumberIn(0, 500) tailRodIn: number;
-  @ApiPropertyOptional({ description: "This cylinder's stroke where it differs from the engine's, in" }) @IsOptional() @IsPositiveNumberUpTo(1000) strokeIn?: number;
+  @ApiPropertyOptional({ description: "This cylinder's stroke where it differs from the engine's, in" })
+  @IsOptional()
+  @IsPositiveNumberUpTo(1000)
+  strokeIn?: number;
   @ApiProperty({ type: [IndicatedPowerCardDto], description: 'One card per end it reports (head, crank or both)' })
   @IsArray({ message: 'cards must be a list' })
   @ArrayMinSize(1, { message: 'cards needs at least one card' })
@@ -93,7 +110,8 @@ export class IndicatedPowerResponseDto implements IndicatedPowerResponse {
   @ApiProperty({ type: [IndicatedPowerCylinderResultDto] }) cylinders: IndicatedPowerCylinderResultDto[];
   @ApiProperty({ description: 'hp' }) totalIndicatedHorsepower: number;
   @ApiProperty({ description: 'kW' }) totalIndicatedKilowatts: number;
-  @ApiProperty({ description: "Every cylinder's work referred to the largest cylinder's area, psi" }) referredMeanEffectivePressurePsi: number;
+  @ApiProperty({ description: "Every cylinder's work referred to the largest cylinder's area, psi" })
+  referredMeanEffectivePressurePsi: number;
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -130,13 +148,21 @@ export class CardTraceDto implements CardTrace {
   @ValidateNested({ each: true })
   @Type(() => TracePointDto)
   pointsPx: TracePointDto[];
-  @ApiPropertyOptional({ description: 'Known image scale, pixels per inch' }) @IsOptional() @IsPositiveNumberUpTo(100000) pixelsPerInch?: number | null;
+  @ApiPropertyOptional({ description: 'Known image scale, pixels per inch' }) @IsOptional() @IsPositiveNumberUpTo(100000) pixelsPerInch?:
+    number | null;
 }
 
 export class TraceCalibrationRequestDto implements TraceCalibrationRequest {
-  @ApiProperty({ type: CardTraceDto }) @IsObject({ message: 'trace must be an object (the traced points and the frame)' }) @ValidateNested() @Type(() => CardTraceDto) trace: CardTraceDto;
+  @ApiProperty({ type: CardTraceDto })
+  @IsObject({ message: 'trace must be an object (the traced points and the frame)' })
+  @ValidateNested()
+  @Type(() => CardTraceDto)
+  trace: CardTraceDto;
   @ApiProperty({ description: 'psi per inch of height', example: 60 }) @IsPositiveNumberUpTo(10000) springPsiPerIn: number;
-  @ApiPropertyOptional({ description: 'Length of the diagram on the card, in', example: 3.5 }) @IsOptional() @IsPositiveNumberUpTo(100) lengthIn?: number;
+  @ApiPropertyOptional({ description: 'Length of the diagram on the card, in', example: 3.5 })
+  @IsOptional()
+  @IsPositiveNumberUpTo(100)
+  lengthIn?: number;
 }
 
 export class CardOutlinePointResponseDto implements CardOutlinePointDto {

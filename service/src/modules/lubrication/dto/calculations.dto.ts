@@ -39,7 +39,9 @@ export class OilViscosityResponseDto implements OilViscosityResponse {
 export class JournalFrictionRequestDto implements JournalFrictionRequest {
   @ApiProperty({ description: 'Journal diameter, in', example: 16 }) @IsFiniteNumberIn(0.05, 200) diameterIn: number;
   @ApiProperty({ description: 'Bearing length, in', example: 26 }) @IsFiniteNumberIn(0.05, 400) lengthIn: number;
-  @ApiProperty({ description: 'Radial clearance (half the diametral clearance), in', example: 0.008 }) @IsFiniteNumberIn(0.00001, 1) radialClearanceIn: number;
+  @ApiProperty({ description: 'Radial clearance (half the diametral clearance), in', example: 0.008 })
+  @IsFiniteNumberIn(0.00001, 1)
+  radialClearanceIn: number;
   @ApiProperty({ description: 'Journal speed, rpm', example: 75 }) @IsFiniteNumberIn(0, 100_000) speedRpm: number;
   @ApiProperty({ description: 'Absolute viscosity of the oil at the film temperature, reyn (lbf·s/in²)', example: 0.0000122 })
   @IsFiniteNumberIn(1e-12, 1)
@@ -58,7 +60,9 @@ export class JournalFrictionResponseDto implements JournalFrictionResponse {
 
 export class LiftPressureRequestDto implements LiftPressureRequest {
   @ApiProperty({ description: 'Load on the journal to be lifted, lbf', example: 112500 }) @IsFiniteNumberIn(0.001, 1e9) loadLbf: number;
-  @ApiProperty({ description: 'Area of the oil pocket (or the projected journal area), in²', example: 75 }) @IsFiniteNumberIn(0.001, 1e6) pocketAreaIn2: number;
+  @ApiProperty({ description: 'Area of the oil pocket (or the projected journal area), in²', example: 75 })
+  @IsFiniteNumberIn(0.001, 1e6)
+  pocketAreaIn2: number;
   @ApiPropertyOptional({ description: 'Breakaway factor on the lift pressure for the pump (1.5–3 usual; 2 by default)', example: 2 })
   @IsOptional()
   @IsFiniteNumberIn(1, 10)
@@ -79,7 +83,9 @@ export class JackCapacityRequestDto implements JackCapacityRequest {
   @Min(1, { message: 'jackCount must be at least 1' })
   @Max(64, { message: 'jackCount must be at most 64' })
   jackCount: number;
-  @ApiProperty({ description: 'Rated capacity of each jack, short tons (2000 lb)', example: 50 }) @IsFiniteNumberIn(0.001, 10_000) jackCapacityShortTons: number;
+  @ApiProperty({ description: 'Rated capacity of each jack, short tons (2000 lb)', example: 50 })
+  @IsFiniteNumberIn(0.001, 10_000)
+  jackCapacityShortTons: number;
   @ApiProperty({ description: 'Load to be lifted, lbf', example: 225000 }) @IsFiniteNumberIn(0.001, 1e9) loadLbf: number;
   @ApiPropertyOptional({ description: 'Least acceptable capacity ÷ load (1.5 by default)', example: 1.5 })
   @IsOptional()

@@ -1,12 +1,31 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { Type } from 'class-transformer';
-import { ArrayMaxSize, ArrayMinSize, IsArray, IsDefined, IsInt, IsOptional, IsString, IsUUID, Matches, Max, MaxLength, Min, MinLength, ValidateNested } from 'class-validator';
+import {
+  ArrayMaxSize,
+  ArrayMinSize,
+  IsArray,
+  IsDefined,
+  IsInt,
+  IsOptional,
+  IsString,
+  IsUUID,
+  Matches,
+  Max,
+  MaxLength,
+  Min,
+  MinLength,
+  ValidateNested,
+} from 'class-validator';
 import type { MillSettings, MillStandDto, MillWriteRequest, QuoteRates } from '@crankjournal/shared-types';
 import { IsFiniteNumberIn } from '../../../common/dto/validators.js';
 
 export class MillStandWriteDto implements MillStandDto {
   @IsOptional() @IsUUID('all', { message: 'id must be a UUID' }) id?: string;
-  @ApiProperty({ description: '1 = the first stand the bar meets' }) @IsInt({ message: 'position must be a whole number' }) @Min(1) @Max(12) position: number;
+  @ApiProperty({ description: '1 = the first stand the bar meets' })
+  @IsInt({ message: 'position must be a whole number' })
+  @Min(1)
+  @Max(12)
+  position: number;
   @ApiProperty({ example: 'Roughing stand' }) @IsString() @MinLength(1, { message: 'name must not be empty' }) @MaxLength(80) name: string;
   @ApiProperty({ description: 'mm', example: 406.4 }) @IsFiniteNumberIn(50, 2000) rollDiameterMm: number;
   @ApiProperty({ description: 'mm', example: 762 }) @IsFiniteNumberIn(50, 5000) barrelLengthMm: number;
@@ -19,7 +38,9 @@ export class MillSettingsDto implements MillSettings {
   @ApiProperty({ description: 'fraction of rated speed, e.g. 0.9' }) @IsFiniteNumberIn(0.5, 1) minSpeedFraction: number;
   @ApiProperty({ description: 'fraction, e.g. 0.88' }) @IsFiniteNumberIn(0.3, 1) mechanicalEfficiency: number;
   @ApiProperty({ description: 'hp' }) @IsFiniteNumberIn(0, 20000) baseLoadHp: number;
-  @ApiProperty({ description: 'hp, used when the run has no indicator card figure' }) @IsFiniteNumberIn(1, 20000) defaultIndicatedHp: number;
+  @ApiProperty({ description: 'hp, used when the run has no indicator card figure' })
+  @IsFiniteNumberIn(1, 20000)
+  defaultIndicatedHp: number;
   @ApiProperty({ description: '1 = frictionless; 1.2 allows about 20 % for friction' }) @IsFiniteNumberIn(1, 2) frictionFactor: number;
 }
 
@@ -35,7 +56,12 @@ export class QuoteRatesDto implements QuoteRates {
   @ApiProperty({ description: 'per engine hour' }) @IsFiniteNumberIn(0, 1e6) engineRatePerHour: number;
   @ApiProperty({ description: 'per person-hour' }) @IsFiniteNumberIn(0, 1e5) crewRatePerPersonHour: number;
   @ApiProperty() @IsInt({ message: 'crewSize must be a whole number' }) @Min(1) @Max(100) crewSize: number;
-  @ApiProperty({ type: [FixedCostDto] }) @IsArray() @ArrayMaxSize(20) @ValidateNested({ each: true }) @Type(() => FixedCostDto) fixedCosts: FixedCostDto[];
+  @ApiProperty({ type: [FixedCostDto] })
+  @IsArray()
+  @ArrayMaxSize(20)
+  @ValidateNested({ each: true })
+  @Type(() => FixedCostDto)
+  fixedCosts: FixedCostDto[];
   @ApiProperty({ description: 'percent' }) @IsFiniteNumberIn(0, 100) contingencyPct: number;
   @ApiProperty({ description: 'percent' }) @IsFiniteNumberIn(0, 200) marginPct: number;
 }
@@ -45,9 +71,20 @@ export class MillWriteDto implements MillWriteRequest {
   @ApiProperty() @IsUUID('all', { message: 'engineId must be a UUID' }) engineId: string;
   @ApiPropertyOptional() @IsOptional() @IsString() @MaxLength(5000) notes?: string;
   @ApiProperty({ type: [MillStandWriteDto] })
-  @IsArray() @ArrayMinSize(1, { message: 'a mill needs at least one stand' }) @ArrayMaxSize(12)
-  @ValidateNested({ each: true }) @Type(() => MillStandWriteDto)
+  @IsArray()
+  @ArrayMinSize(1, { message: 'a mill needs at least one stand' })
+  @ArrayMaxSize(12)
+  @ValidateNested({ each: true })
+  @Type(() => MillStandWriteDto)
   stands: MillStandWriteDto[];
-  @ApiProperty({ type: MillSettingsDto }) @IsDefined({ message: 'settings is required' }) @ValidateNested() @Type(() => MillSettingsDto) settings: MillSettingsDto;
-  @ApiProperty({ type: QuoteRatesDto }) @IsDefined({ message: 'quoteRates is required' }) @ValidateNested() @Type(() => QuoteRatesDto) quoteRates: QuoteRatesDto;
+  @ApiProperty({ type: MillSettingsDto })
+  @IsDefined({ message: 'settings is required' })
+  @ValidateNested()
+  @Type(() => MillSettingsDto)
+  settings: MillSettingsDto;
+  @ApiProperty({ type: QuoteRatesDto })
+  @IsDefined({ message: 'quoteRates is required' })
+  @ValidateNested()
+  @Type(() => QuoteRatesDto)
+  quoteRates: QuoteRatesDto;
 }

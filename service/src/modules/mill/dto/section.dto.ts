@@ -3,7 +3,9 @@ import { IsIn } from 'class-validator';
 import { SECTION_SHAPES, type SectionDto, type SectionShape } from '@crankjournal/shared-types';
 import { IsFiniteNumberIn } from '../../../common/dto/validators.js';
 
-export const oneOf = (list: readonly string[]) => ({ message: ({ property }: { property: string }) => `${property} must be one of: ${list.join(', ')}` });
+export const oneOf = (list: readonly string[]) => ({
+  message: ({ property }: { property: string }) => `${property} must be one of: ${list.join(', ')}`,
+});
 
 /** A bar's cross-section in millimetres (a round: height = width = diameter). */
 export class SectionBodyDto implements SectionDto {

@@ -1,7 +1,25 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { Transform } from 'class-transformer';
-import { IsBoolean, IsIn, IsOptional, IsString, IsUUID, MaxLength, MinLength, Validate, ValidatorConstraint, type ValidationArguments, type ValidatorConstraintInterface } from 'class-validator';
-import { DUTIES, type Duty, type GrantQualificationRequest, type RenewQualificationRequest, type WithdrawQualificationRequest } from '@crankjournal/shared-types';
+import {
+  IsBoolean,
+  IsIn,
+  IsOptional,
+  IsString,
+  IsUUID,
+  MaxLength,
+  MinLength,
+  Validate,
+  ValidatorConstraint,
+  type ValidationArguments,
+  type ValidatorConstraintInterface,
+} from 'class-validator';
+import {
+  DUTIES,
+  type Duty,
+  type GrantQualificationRequest,
+  type RenewQualificationRequest,
+  type WithdrawQualificationRequest,
+} from '@crankjournal/shared-types';
 import { isCalendarDate } from '../qualification-rules.js';
 
 @ValidatorConstraint({ name: 'calendarDate' })

@@ -1,13 +1,35 @@
 import { ApiProperty, ApiPropertyOptional, PartialType } from '@nestjs/swagger';
 import { ArrayMaxSize, IsArray, IsDateString, IsIn, IsOptional, IsString, IsUUID, MaxLength, MinLength } from 'class-validator';
-import { RUN_PURPOSES, RUN_STATES, type CreateRunRequest, type RunPurpose, type RunState, type RunTransitionRequest, type UpdateRunRequest } from '@crankjournal/shared-types';
+import {
+  RUN_PURPOSES,
+  RUN_STATES,
+  type CreateRunRequest,
+  type RunPurpose,
+  type RunState,
+  type RunTransitionRequest,
+  type UpdateRunRequest,
+} from '@crankjournal/shared-types';
 
 export class CreateRunDto implements CreateRunRequest {
   @ApiProperty() @IsUUID('all', { message: 'engineId must be a UUID' }) engineId: string;
-  @ApiProperty({ enum: RUN_PURPOSES }) @IsIn(RUN_PURPOSES, { message: `purpose must be one of: ${RUN_PURPOSES.join(', ')}` }) purpose: RunPurpose;
-  @ApiProperty({ example: 'Open day demonstration' }) @IsString() @MinLength(1, { message: 'title must not be empty' }) @MaxLength(160) title: string;
-  @ApiPropertyOptional({ example: '2026-12-05' }) @IsOptional() @IsDateString({ strict: true }, { message: 'plannedFor must be a date like 2026-12-05' }) plannedFor?: string | null;
-  @ApiPropertyOptional() @IsOptional() @IsArray() @ArrayMaxSize(30) @IsUUID('all', { each: true, message: 'crewIds must be user ids' }) crewIds?: string[];
+  @ApiProperty({ enum: RUN_PURPOSES })
+  @IsIn(RUN_PURPOSES, { message: `purpose must be one of: ${RUN_PURPOSES.join(', ')}` })
+  purpose: RunPurpose;
+  @ApiProperty({ example: 'Open day demonstration' })
+  @IsString()
+  @MinLength(1, { message: 'title must not be empty' })
+  @MaxLength(160)
+  title: string;
+  @ApiPropertyOptional({ example: '2026-12-05' })
+  @IsOptional()
+  @IsDateString({ strict: true }, { message: 'plannedFor must be a date like 2026-12-05' })
+  plannedFor?: string | null;
+  @ApiPropertyOptional()
+  @IsOptional()
+  @IsArray()
+  @ArrayMaxSize(30)
+  @IsUUID('all', { each: true, message: 'crewIds must be user ids' })
+  crewIds?: string[];
   @ApiPropertyOptional() @IsOptional() @IsString() @MaxLength(5000) notes?: string;
 }
 

@@ -92,8 +92,8 @@ export default function AccountPage() {
           <Stack>
             <Title order={3}>Signing PIN</Title>
             <Text fz="sm" c="dimmed">
-              When you sign a checklist or countersign a log you are asked to confirm who you are. A short PIN is easier
-              to type in gloves than your password.
+              When you sign a checklist or countersign a log you are asked to confirm who you are. A short PIN is easier to type in gloves
+              than your password.
             </Text>
             {pinError && <Alert color="signal">{pinError}</Alert>}
             <PasswordInput label="Current password" {...pin.getInputProps('currentPassword')} />

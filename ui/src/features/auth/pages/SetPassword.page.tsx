@@ -27,8 +27,8 @@ export default function SetPasswordPage() {
           <Brand size={36} />
           <Title order={2}>Set your password</Title>
           <Text c="dimmed" fz="sm">
-            You were invited to Crankjournal. Choose a password of at least {MIN_PASSWORD_LENGTH} characters; a short
-            sentence is easier to type on a tablet than a jumble.
+            You were invited to Crankjournal. Choose a password of at least {MIN_PASSWORD_LENGTH} characters; a short sentence is easier to
+            type on a tablet than a jumble.
           </Text>
           {!token && <Alert color="signal">This page needs the link from your invitation e-mail.</Alert>}
           {error && (

@@ -1,8 +1,28 @@
 import { useEffect, useMemo, useState } from 'react';
 import { Link } from 'react-router-dom';
-import { ActionIcon, Alert, Button, Group, NumberInput, Paper, SegmentedControl, SimpleGrid, Stack, Table, Text, TextInput, Title } from '@mantine/core';
+import {
+  ActionIcon,
+  Alert,
+  Button,
+  Group,
+  NumberInput,
+  Paper,
+  SegmentedControl,
+  SimpleGrid,
+  Stack,
+  Table,
+  Text,
+  TextInput,
+  Title,
+} from '@mantine/core';
 import { IconPlus, IconTrash } from '@tabler/icons-react';
-import { CYLINDER_END_LABELS, type CylinderEnd, type IndicatedPowerCardInput, type IndicatedPowerRequest, type IndicatedPowerResponse } from '@crankjournal/shared-types';
+import {
+  CYLINDER_END_LABELS,
+  type CylinderEnd,
+  type IndicatedPowerCardInput,
+  type IndicatedPowerRequest,
+  type IndicatedPowerResponse,
+} from '@crankjournal/shared-types';
 import { errorText } from '../../../api/http';
 import { Caution } from '../../../components/Caution/Caution';
 import { PageHeader } from '../../../components/PageHeader';
@@ -81,7 +101,8 @@ export function toCalculatorRequest(f: CalculatorForm): IndicatedPowerRequest {
   };
 }
 
-const CAUTION = 'Power figures aid a qualified crew in judging the engine; they do not clear it to run harder. Cards are taken at live steam cocks; follow the site procedure, local codes and licensed practice.';
+const CAUTION =
+  'Power figures aid a qualified crew in judging the engine; they do not clear it to run harder. Cards are taken at live steam cocks; follow the site procedure, local codes and licensed practice.';
 
 /** /calculators/indicated-power: the stateless calculator over POST /api/calculations/indicated-power. */
 export default function IndicatedPowerCalculatorPage() {
@@ -113,9 +134,13 @@ export default function IndicatedPowerCalculatorPage() {
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [key]);
 
-  const setCyl = (i: number, patch: Partial<CylinderForm>) => setForm((f) => ({ ...f, cylinders: f.cylinders.map((c, j) => (j === i ? { ...c, ...patch } : c)) }));
+  const setCyl = (i: number, patch: Partial<CylinderForm>) =>
+    setForm((f) => ({ ...f, cylinders: f.cylinders.map((c, j) => (j === i ? { ...c, ...patch } : c)) }));
   const setEnd = (i: number, e: CylinderEnd, patch: Partial<EndForm>) =>
-    setForm((f) => ({ ...f, cylinders: f.cylinders.map((c, j) => (j === i ? { ...c, ends: { ...c.ends, [e]: { ...c.ends[e], ...patch } } } : c)) }));
+    setForm((f) => ({
+      ...f,
+      cylinders: f.cylinders.map((c, j) => (j === i ? { ...c, ends: { ...c.ends, [e]: { ...c.ends[e], ...patch } } } : c)),
+    }));
   const numProps = (value: Num, onChange: (v: Num) => void, label: string) => ({
     label,
     value,
@@ -154,7 +179,11 @@ export default function IndicatedPowerCalculatorPage() {
                 Cylinder {i + 1}
               </Title>
               {form.cylinders.length > 1 && (
-                <ActionIcon variant="default" aria-label={`Remove cylinder ${i + 1}`} onClick={() => setForm((f) => ({ ...f, cylinders: f.cylinders.filter((_, j) => j !== i) }))}>
+                <ActionIcon
+                  variant="default"
+                  aria-label={`Remove cylinder ${i + 1}`}
+                  onClick={() => setForm((f) => ({ ...f, cylinders: f.cylinders.filter((_, j) => j !== i) }))}
+                >
                   <IconTrash />
                 </ActionIcon>
               )}
@@ -191,7 +220,13 @@ export default function IndicatedPowerCalculatorPage() {
                       {x.way === 'planimeter' && <NumberInput {...numProps(x.area, (v) => setEnd(i, e, { area: v }), 'Area, in²')} />}
                       {x.way === 'planimeter' && <NumberInput {...numProps(x.length, (v) => setEnd(i, e, { length: v }), 'Length, in')} />}
                       {x.way === 'ordinates' && (
-                        <TextInput label="Mid-ordinates, in" value={x.ordinates} onChange={(ev) => setEnd(i, e, { ordinates: ev.currentTarget.value })} inputMode="decimal" style={{ gridColumn: 'span 2' }} />
+                        <TextInput
+                          label="Mid-ordinates, in"
+                          value={x.ordinates}
+                          onChange={(ev) => setEnd(i, e, { ordinates: ev.currentTarget.value })}
+                          inputMode="decimal"
+                          style={{ gridColumn: 'span 2' }}
+                        />
                       )}
                       {x.way !== 'mep' && <NumberInput {...numProps(x.spring, (v) => setEnd(i, e, { spring: v }), 'Spring, psi/in')} />}
                     </SimpleGrid>
@@ -205,7 +240,21 @@ export default function IndicatedPowerCalculatorPage() {
           <Button
             variant="default"
             leftSection={<IconPlus size={16} />}
-            onClick={() => setForm((f) => ({ ...f, cylinders: [...f.cylinders, { label: `C${f.cylinders.length + 1}`, bore: '', pistonRod: 0, tailRod: 0, ends: { head: end({ way: 'mep' }), crank: end({ way: 'mep' }) } }] }))}
+            onClick={() =>
+              setForm((f) => ({
+                ...f,
+                cylinders: [
+                  ...f.cylinders,
+                  {
+                    label: `C${f.cylinders.length + 1}`,
+                    bore: '',
+                    pistonRod: 0,
+                    tailRod: 0,
+                    ends: { head: end({ way: 'mep' }), crank: end({ way: 'mep' }) },
+                  },
+                ],
+              }))
+            }
           >
             Add a cylinder
           </Button>

@@ -1,7 +1,8 @@
 import { render, screen, waitFor } from '../../../test-utils/render';
 import IndicatedPowerCalculatorPage, { EXAMPLE, toCalculatorRequest } from './IndicatedPowerCalculator.page';
 
-const json = (body: unknown, status = 200) => new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
+const json = (body: unknown, status = 200) =>
+  new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
 
 describe('the indicated power calculator', () => {
   afterEach(() => vi.restoreAllMocks());
@@ -29,7 +30,13 @@ describe('the indicated power calculator', () => {
   it('shows the server’s answer: total, kW, referred MEP and each end', async () => {
     const fetchSpy = vi.spyOn(globalThis, 'fetch').mockImplementation(async () =>
       json({
-        cylinders: [{ label: 'HP', indicatedHorsepower: 211.2, ends: [{ end: 'head', meanEffectivePressurePsi: 43.33, effectiveAreaSqIn: 400.09, indicatedHorsepower: 115.6 }] }],
+        cylinders: [
+          {
+            label: 'HP',
+            indicatedHorsepower: 211.2,
+            ends: [{ end: 'head', meanEffectivePressurePsi: 43.33, effectiveAreaSqIn: 400.09, indicatedHorsepower: 115.6 }],
+          },
+        ],
         totalIndicatedHorsepower: 335.9,
         totalIndicatedKilowatts: 250.5,
         referredMeanEffectivePressurePsi: 16.71,
@@ -45,8 +52,12 @@ describe('the indicated power calculator', () => {
   });
 
   it('shows the server’s message naming the field when it refuses', async () => {
-    vi.spyOn(globalThis, 'fetch').mockImplementation(async () => json({ statusCode: 400, error: 'Bad Request', message: ['cylinders[0].pistonRodIn: must be smaller than the bore'] }, 400));
+    vi.spyOn(globalThis, 'fetch').mockImplementation(async () =>
+      json({ statusCode: 400, error: 'Bad Request', message: ['cylinders[0].pistonRodIn: must be smaller than the bore'] }, 400),
+    );
     render(<IndicatedPowerCalculatorPage />);
-    await waitFor(() => expect(screen.getByTestId('calc-error')).toHaveTextContent('cylinders[0].pistonRodIn: must be smaller than the bore'));
+    await waitFor(() =>
+      expect(screen.getByTestId('calc-error')).toHaveTextContent('cylinders[0].pistonRodIn: must be smaller than the bore'),
+    );
   });
 });

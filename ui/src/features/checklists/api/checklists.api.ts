@@ -25,13 +25,15 @@ export const checklistKeys = {
 
 export const runChecklistsQuery = (runId: string) =>
   queryOptions({ queryKey: checklistKeys.runOverview(runId), queryFn: () => api<RunChecklistsOverview>(`/runs/${runId}/checklists`) });
-export const checklistQuery = (id: string) => queryOptions({ queryKey: checklistKeys.checklist(id), queryFn: () => api<ChecklistDetail>(`/checklists/${id}`) });
+export const checklistQuery = (id: string) =>
+  queryOptions({ queryKey: checklistKeys.checklist(id), queryFn: () => api<ChecklistDetail>(`/checklists/${id}`) });
 export const templatesQuery = (engineId?: string) =>
   queryOptions({
     queryKey: checklistKeys.templateList(engineId),
     queryFn: () => api<ChecklistTemplateSummary[]>(`/checklist-templates${engineId ? `?engineId=${engineId}` : ''}`),
   });
-export const templateQuery = (id: string) => queryOptions({ queryKey: checklistKeys.template(id), queryFn: () => api<ChecklistTemplateDetail>(`/checklist-templates/${id}`) });
+export const templateQuery = (id: string) =>
+  queryOptions({ queryKey: checklistKeys.template(id), queryFn: () => api<ChecklistTemplateDetail>(`/checklist-templates/${id}`) });
 export const templateVersionQuery = (id: string, version: number) =>
   queryOptions({
     queryKey: checklistKeys.templateVersion(id, version),
@@ -40,7 +42,10 @@ export const templateVersionQuery = (id: string, version: number) =>
   });
 
 export const downloadBlankChecklist = (templateId: string, version?: number) =>
-  download(version ? `/checklist-templates/${templateId}/versions/${version}/blank.pdf` : `/checklist-templates/${templateId}/blank.pdf`, 'checklist.pdf');
+  download(
+    version ? `/checklist-templates/${templateId}/versions/${version}/blank.pdf` : `/checklist-templates/${templateId}/blank.pdf`,
+    'checklist.pdf',
+  );
 
 /** The photo of an item, as an object URL for an <img> (the API needs the access token). */
 export async function fetchPhotoUrl(checklistId: string, itemKey: string): Promise<string> {
@@ -61,7 +66,10 @@ export function useApplyChecklist() {
 
 export function useStartChecklist(runId: string) {
   const apply = useApplyChecklist();
-  return useMutation({ mutationFn: (templateId: string) => api<ChecklistDetail>(`/runs/${runId}/checklists`, { body: { templateId } }), onSuccess: apply });
+  return useMutation({
+    mutationFn: (templateId: string) => api<ChecklistDetail>(`/runs/${runId}/checklists`, { body: { templateId } }),
+    onSuccess: apply,
+  });
 }
 
 export type ChecklistAction =
@@ -76,7 +84,11 @@ export function checklistAction(id: string, a: ChecklistAction): Promise<Checkli
     case 'fill':
       return api(`/checklists/${id}/items/${a.itemKey}`, { method: 'PUT', body: a.value });
     case 'photo':
-      return api(`/checklists/${id}/items/${a.itemKey}/photo`, { method: 'PUT', raw: a.file, headers: { 'content-type': a.file.type || 'application/octet-stream' } });
+      return api(`/checklists/${id}/items/${a.itemKey}/photo`, {
+        method: 'PUT',
+        raw: a.file,
+        headers: { 'content-type': a.file.type || 'application/octet-stream' },
+      });
     case 'override':
       return api(`/checklists/${id}/items/${a.itemKey}/override`, { body: { reason: a.reason } });
     case 'sign':
@@ -98,18 +110,27 @@ export function useTemplateWrite() {
     qc.invalidateQueries({ queryKey: [...checklistKeys.templates, 'list'] });
   };
   return {
-    create: useMutation({ mutationFn: (req: CreateChecklistTemplateRequest) => api<ChecklistTemplateDetail>('/checklist-templates', { body: req }), onSuccess: done }),
-    saveDraft: useMutation({
-      mutationFn: ({ id, content }: { id: string; content: ChecklistTemplateContent }) => api<ChecklistTemplateDetail>(`/checklist-templates/${id}/draft`, { method: 'PUT', body: content }),
+    create: useMutation({
+      mutationFn: (req: CreateChecklistTemplateRequest) => api<ChecklistTemplateDetail>('/checklist-templates', { body: req }),
       onSuccess: done,
     }),
-    discardDraft: useMutation({ mutationFn: (id: string) => api<ChecklistTemplateDetail>(`/checklist-templates/${id}/draft`, { method: 'DELETE' }), onSuccess: done }),
+    saveDraft: useMutation({
+      mutationFn: ({ id, content }: { id: string; content: ChecklistTemplateContent }) =>
+        api<ChecklistTemplateDetail>(`/checklist-templates/${id}/draft`, { method: 'PUT', body: content }),
+      onSuccess: done,
+    }),
+    discardDraft: useMutation({
+      mutationFn: (id: string) => api<ChecklistTemplateDetail>(`/checklist-templates/${id}/draft`, { method: 'DELETE' }),
+      onSuccess: done,
+    }),
     publish: useMutation({
-      mutationFn: ({ id, changeNote }: { id: string; changeNote: string }) => api<ChecklistTemplateDetail>(`/checklist-templates/${id}/publish`, { body: { changeNote } }),
+      mutationFn: ({ id, changeNote }: { id: string; changeNote: string }) =>
+        api<ChecklistTemplateDetail>(`/checklist-templates/${id}/publish`, { body: { changeNote } }),
       onSuccess: done,
     }),
     retire: useMutation({
-      mutationFn: ({ id, retired }: { id: string; retired: boolean }) => api<ChecklistTemplateDetail>(`/checklist-templates/${id}/${retired ? 'retire' : 'reinstate'}`, { method: 'POST' }),
+      mutationFn: ({ id, retired }: { id: string; retired: boolean }) =>
+        api<ChecklistTemplateDetail>(`/checklist-templates/${id}/${retired ? 'retire' : 'reinstate'}`, { method: 'POST' }),
       onSuccess: done,
     }),
   };

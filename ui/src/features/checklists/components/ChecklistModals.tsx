@@ -31,7 +31,17 @@ export function SignModal({
   const [secret, setSecret] = useState('');
   useEffect(() => setSecret(''), [opened]);
   return (
-    <Modal opened={opened} onClose={onClose} title={<Text fw={700} fz="lg">Sign the {checklist.name} checklist?</Text>} centered size="lg">
+    <Modal
+      opened={opened}
+      onClose={onClose}
+      title={
+        <Text fw={700} fz="lg">
+          Sign the {checklist.name} checklist?
+        </Text>
+      }
+      centered
+      size="lg"
+    >
       <form
         onSubmit={(e) => {
           e.preventDefault();
@@ -40,9 +50,9 @@ export function SignModal({
       >
         <Stack>
           <Text fz="sm">
-            Your signature records your name, the time and that this is version {checklist.version} of the template. The checklist then becomes read-only; a
-            mistake is corrected by an amendment with a reason. You need a current {DUTY_LABELS[checklist.requiredDuty].toLowerCase()} qualification for
-            this engine.
+            Your signature records your name, the time and that this is version {checklist.version} of the template. The checklist then
+            becomes read-only; a mistake is corrected by an amendment with a reason. You need a current{' '}
+            {DUTY_LABELS[checklist.requiredDuty].toLowerCase()} qualification for this engine.
           </Text>
           {error && (
             <Alert color="signal" role="alert" title="Not signed">
@@ -91,20 +101,44 @@ export function OverrideModal({
   const [reason, setReason] = useState('');
   useEffect(() => setReason(''), [item]);
   return (
-    <Modal opened={!!item} onClose={onClose} title={<Text fw={700} fz="lg">Accept a value outside its range?</Text>} centered size="lg">
+    <Modal
+      opened={!!item}
+      onClose={onClose}
+      title={
+        <Text fw={700} fz="lg">
+          Accept a value outside its range?
+        </Text>
+      }
+      centered
+      size="lg"
+    >
       {item && (
         <Stack>
           <Text>
             <b>{item.label}</b>: {valueWords(item, entry)}
-            {item.kind === 'reading' ? ` (acceptance range ${acceptanceRangeText(item)})` : ` (acceptable: ${(item.acceptable ?? []).join(', ')})`}
+            {item.kind === 'reading'
+              ? ` (acceptance range ${acceptanceRangeText(item)})`
+              : ` (acceptable: ${(item.acceptable ?? []).join(', ')})`}
           </Text>
-          <Text fz="sm">Your override, with your name, the time and the reason, becomes part of the checklist's record and lets it be signed with this value.</Text>
+          <Text fz="sm">
+            Your override, with your name, the time and the reason, becomes part of the checklist's record and lets it be signed with this
+            value.
+          </Text>
           {error && (
             <Alert color="signal" role="alert">
               {error}
             </Alert>
           )}
-          <Textarea label="Why is this value acceptable today?" required autosize minRows={3} size="md" value={reason} onChange={(e) => setReason(e.currentTarget.value)} data-autofocus />
+          <Textarea
+            label="Why is this value acceptable today?"
+            required
+            autosize
+            minRows={3}
+            size="md"
+            value={reason}
+            onChange={(e) => setReason(e.currentTarget.value)}
+            data-autofocus
+          />
           <Group justify="flex-end">
             <Button variant="default" size="lg" onClick={onClose}>
               Cancel
@@ -157,7 +191,11 @@ export function AmendModal({
     (item.kind === 'reading' && num !== null && Number.isFinite(num) && readingOutOfRange(item, num)) ||
     (item.kind === 'choice' && !!choice && (item.acceptable?.length ?? 0) > 0 && !item.acceptable!.includes(choice));
   const req = (): AmendChecklistRequest => {
-    const base = { itemKey: item.key, reason: reason.trim(), ...(out && overrideReason.trim() ? { overrideReason: overrideReason.trim() } : {}) };
+    const base = {
+      itemKey: item.key,
+      reason: reason.trim(),
+      ...(out && overrideReason.trim() ? { overrideReason: overrideReason.trim() } : {}),
+    };
     switch (item.kind) {
       case 'tick':
         return { ...base, tick: tick === 'done' };
@@ -171,7 +209,17 @@ export function AmendModal({
   };
   const ready = reason.trim().length >= 3 && (!out || (isChief && overrideReason.trim().length >= 5));
   return (
-    <Modal opened onClose={onClose} title={<Text fw={700} fz="lg">Amend “{item.label}”</Text>} centered size="lg">
+    <Modal
+      opened
+      onClose={onClose}
+      title={
+        <Text fw={700} fz="lg">
+          Amend “{item.label}”
+        </Text>
+      }
+      centered
+      size="lg"
+    >
       <form
         onSubmit={(e) => {
           e.preventDefault();
@@ -180,7 +228,8 @@ export function AmendModal({
       >
         <Stack>
           <Text fz="sm">
-            Recorded now: <b>{valueWords(item, entry)}</b>. The value as signed stays in the record, struck through, with your name, the time and your reason.
+            Recorded now: <b>{valueWords(item, entry)}</b>. The value as signed stays in the record, struck through, with your name, the
+            time and your reason.
           </Text>
           {error && (
             <Alert color="signal" role="alert">
@@ -188,7 +237,15 @@ export function AmendModal({
             </Alert>
           )}
           {item.kind === 'tick' && (
-            <SegmentedControl size="lg" value={tick} onChange={setTick} data={[{ value: 'done', label: 'Done' }, { value: 'not', label: 'Not done' }]} />
+            <SegmentedControl
+              size="lg"
+              value={tick}
+              onChange={setTick}
+              data={[
+                { value: 'done', label: 'Done' },
+                { value: 'not', label: 'Not done' },
+              ]}
+            />
           )}
           {item.kind === 'reading' && (
             <NumberInput
@@ -203,9 +260,20 @@ export function AmendModal({
               data-autofocus
             />
           )}
-          {item.kind === 'choice' && <SegmentedControl size="lg" value={choice} onChange={setChoice} data={item.choices ?? []} orientation="vertical" fullWidth />}
-          {item.kind === 'note' && <Textarea label="New note" autosize minRows={2} value={text} onChange={(e) => setText(e.currentTarget.value)} />}
-          <Textarea label="Reason for the amendment" required autosize minRows={2} value={reason} onChange={(e) => setReason(e.currentTarget.value)} />
+          {item.kind === 'choice' && (
+            <SegmentedControl size="lg" value={choice} onChange={setChoice} data={item.choices ?? []} orientation="vertical" fullWidth />
+          )}
+          {item.kind === 'note' && (
+            <Textarea label="New note" autosize minRows={2} value={text} onChange={(e) => setText(e.currentTarget.value)} />
+          )}
+          <Textarea
+            label="Reason for the amendment"
+            required
+            autosize
+            minRows={2}
+            value={reason}
+            onChange={(e) => setReason(e.currentTarget.value)}
+          />
           {out &&
             (isChief ? (
               <Textarea

@@ -27,9 +27,14 @@ const run = (state: RunState): RunDetail => ({
   peaks: [],
   createdAt: '2026-12-01T08:00:00Z',
 });
-const json = (body: unknown, status = 200) => new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
+const json = (body: unknown, status = 200) =>
+  new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
 const signIn = (role: Role) =>
-  sessionStore.set({ accessToken: 'a', refreshToken: 'r', user: { id: 'u1', email: 'x@alderforge.example', displayName: 'Test Person', role, unitSystem: 'imperial' } });
+  sessionStore.set({
+    accessToken: 'a',
+    refreshToken: 'r',
+    user: { id: 'u1', email: 'x@alderforge.example', displayName: 'Test Person', role, unitSystem: 'imperial' },
+  });
 
 describe('GatePanel', () => {
   afterEach(() => {
@@ -50,13 +55,18 @@ describe('GatePanel', () => {
   it('shows the server’s refusal with every reason when a start is refused', async () => {
     signIn('operator');
     vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
-      if (String(input).endsWith('/start-gate')) return json({ allowed: true, reasons: [], preLubeFreshUntil: new Date(Date.now() + 60_000).toISOString() });
+      if (String(input).endsWith('/start-gate'))
+        return json({ allowed: true, reasons: [], preLubeFreshUntil: new Date(Date.now() + 60_000).toISOString() });
       return json(
         {
           statusCode: 409,
           error: 'Conflict',
           message: ['stale'],
-          details: { allowed: false, reasons: [{ code: 'pre_lube_stale', message: 'The pre-lube sign-off (Pre-lube) is 31 min old.', subject: 'Pre-lube' }], preLubeFreshUntil: null },
+          details: {
+            allowed: false,
+            reasons: [{ code: 'pre_lube_stale', message: 'The pre-lube sign-off (Pre-lube) is 31 min old.', subject: 'Pre-lube' }],
+            preLubeFreshUntil: null,
+          },
         },
         409,
       );

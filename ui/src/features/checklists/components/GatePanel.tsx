@@ -3,7 +3,13 @@ import { Link, useNavigate } from 'react-router-dom';
 import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { Alert, Anchor, Button, Group, List, Modal, Stack, Text } from '@mantine/core';
 import { IconCircleCheck, IconHandStop, IconPlayerPlayFilled } from '@tabler/icons-react';
-import { GATE_REASON_CODES, type RunChecklistsOverview, type RunDetail, type StartGateReason, type StartGateVerdict } from '@crankjournal/shared-types';
+import {
+  GATE_REASON_CODES,
+  type RunChecklistsOverview,
+  type RunDetail,
+  type StartGateReason,
+  type StartGateVerdict,
+} from '@crankjournal/shared-types';
 import { errorText } from '../../../api/http';
 import { useHasRole } from '../../auth/useSession';
 import { runKeys, startGateQuery, startRefusal, useTransitionRun } from '../../runs/api/runs.api';
@@ -19,7 +25,15 @@ function reasonLink(r: StartGateReason, overview: RunChecklistsOverview | undefi
   return c ? `/runs/${overview!.runId}/checklists/${c.id}` : null;
 }
 
-export function GateReasons({ verdict, refused, overview }: { verdict: StartGateVerdict; refused: boolean; overview?: RunChecklistsOverview }) {
+export function GateReasons({
+  verdict,
+  refused,
+  overview,
+}: {
+  verdict: StartGateVerdict;
+  refused: boolean;
+  overview?: RunChecklistsOverview;
+}) {
   return (
     <Alert
       color={refused ? 'signal' : 'amber'}
@@ -105,7 +119,9 @@ export function GatePanel({ run, overview }: { run: RunDetail; overview?: RunChe
       ) : shown ? (
         <Group gap="xs" data-testid="gate-clear">
           <IconCircleCheck size={22} color="var(--mantine-color-copper-5)" aria-hidden />
-          <Text fz="md">Every condition of the start gate holds{run.state === 'preparing' ? '; the run is waiting to be cleared.' : '.'}</Text>
+          <Text fz="md">
+            Every condition of the start gate holds{run.state === 'preparing' ? '; the run is waiting to be cleared.' : '.'}
+          </Text>
         </Group>
       ) : null}
       {run.state === 'cleared' && mayStart && (
@@ -115,14 +131,24 @@ export function GatePanel({ run, overview }: { run: RunDetail; overview?: RunChe
           </Button>
         </Group>
       )}
-      <Modal opened={confirming} onClose={() => setConfirming(false)} title={<Text fw={700} fz="lg">Start engine?</Text>} centered size="lg">
+      <Modal
+        opened={confirming}
+        onClose={() => setConfirming(false)}
+        title={
+          <Text fw={700} fz="lg">
+            Start engine?
+          </Text>
+        }
+        centered
+        size="lg"
+      >
         <Stack>
           <Text>
             <b>{run.title}</b> — {run.engineName}
           </Text>
           <Text fz="sm">
-            Records the start time and your name. The server checks the start gate first: every required checklist signed by a qualified person, the pre-lube
-            sign-off still fresh, your own start-and-run qualification, and no high-high alarm on the engine.
+            Records the start time and your name. The server checks the start gate first: every required checklist signed by a qualified
+            person, the pre-lube sign-off still fresh, your own start-and-run qualification, and no high-high alarm on the engine.
           </Text>
           <Group justify="flex-end">
             <Button variant="default" size="lg" onClick={() => setConfirming(false)}>

@@ -69,7 +69,18 @@ describe('ItemCard', () => {
   });
 
   it('shows a recorded override with who and why instead of the block', () => {
-    render(<ItemCard {...props({ entry: entry({ value: 12, done: true, outOfRange: true, override: { reason: 'Gauge reads low.', byName: 'H. Chief', at: '2026-12-05T09:00:00Z' } }) })} />);
+    render(
+      <ItemCard
+        {...props({
+          entry: entry({
+            value: 12,
+            done: true,
+            outOfRange: true,
+            override: { reason: 'Gauge reads low.', byName: 'H. Chief', at: '2026-12-05T09:00:00Z' },
+          }),
+        })}
+      />,
+    );
     expect(screen.queryByText(/signing is blocked/)).toBeNull();
     expect(screen.getByTestId('override-line-pressure')).toHaveTextContent('accepted by H. Chief');
     expect(screen.getByTestId('override-line-pressure')).toHaveTextContent('Gauge reads low.');
@@ -101,7 +112,18 @@ describe('ItemCard', () => {
             value: 24,
             done: true,
             original: { value: 22 },
-            amendments: [{ id: 'a1', itemKey: 'line-pressure', oldValue: { value: 22 }, newValue: { value: 24 }, reason: 'Misread the gauge.', overrideReason: null, byName: 'T. Operator', at: '2026-12-05T10:00:00Z' }],
+            amendments: [
+              {
+                id: 'a1',
+                itemKey: 'line-pressure',
+                oldValue: { value: 22 },
+                newValue: { value: 24 },
+                reason: 'Misread the gauge.',
+                overrideReason: null,
+                byName: 'T. Operator',
+                at: '2026-12-05T10:00:00Z',
+              },
+            ],
           }),
         })}
       />,

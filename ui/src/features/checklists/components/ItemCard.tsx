@@ -68,7 +68,19 @@ export interface ItemCardProps {
 }
 
 /** One item: what to do, the control to record it with big targets, its acceptance range, and its caution beside it. */
-export function ItemCard({ checklistId, item, entry, mode, busy, canOverride, canAmend, onFill, onPhoto, onOverride, onAmend }: ItemCardProps) {
+export function ItemCard({
+  checklistId,
+  item,
+  entry,
+  mode,
+  busy,
+  canOverride,
+  canAmend,
+  onFill,
+  onPhoto,
+  onOverride,
+  onAmend,
+}: ItemCardProps) {
   const [draft, setDraft] = useState<string | number>(entry?.value ?? '');
   const [note, setNote] = useState(entry?.text ?? '');
   useEffect(() => setDraft(entry?.value ?? ''), [entry?.value]);
@@ -88,7 +100,12 @@ export function ItemCard({ checklistId, item, entry, mode, busy, canOverride, ca
 
   const control = () => {
     if (!filling) {
-      if (item.kind === 'photo') return entry?.hasPhoto ? <Photo checklistId={checklistId} itemKey={item.key} stamp={entry.filledAt} /> : <Text c="dimmed">No photo.</Text>;
+      if (item.kind === 'photo')
+        return entry?.hasPhoto ? (
+          <Photo checklistId={checklistId} itemKey={item.key} stamp={entry.filledAt} />
+        ) : (
+          <Text c="dimmed">No photo.</Text>
+        );
       return (
         <Group gap={8} align="baseline" wrap="wrap">
           {entry?.original && (
@@ -212,7 +229,11 @@ export function ItemCard({ checklistId, item, entry, mode, busy, canOverride, ca
         <Grid.Col span={{ base: 12, sm: item.caution ? 7 : 12 }}>
           <Stack gap="sm">
             <Group gap="xs" wrap="nowrap" align="flex-start">
-              {entry?.done ? <IconCircleCheck size={24} color="var(--mantine-color-copper-5)" aria-label="done" style={{ flex: 'none' }} /> : <IconSquare size={24} opacity={0.4} aria-label="not done" style={{ flex: 'none' }} />}
+              {entry?.done ? (
+                <IconCircleCheck size={24} color="var(--mantine-color-copper-5)" aria-label="done" style={{ flex: 'none' }} />
+              ) : (
+                <IconSquare size={24} opacity={0.4} aria-label="not done" style={{ flex: 'none' }} />
+              )}
               <Stack gap={2}>
                 <Text fw={600} fz="lg">
                   {item.label}
@@ -243,23 +264,37 @@ export function ItemCard({ checklistId, item, entry, mode, busy, canOverride, ca
             {control()}
             {out && (
               <Group gap="xs" wrap="nowrap" align="flex-start">
-                <IconAlertTriangle size={20} color={entry?.override ? 'var(--mantine-color-amber-6)' : 'var(--mantine-color-signal-6)'} style={{ flex: 'none' }} aria-hidden />
+                <IconAlertTriangle
+                  size={20}
+                  color={entry?.override ? 'var(--mantine-color-amber-6)' : 'var(--mantine-color-signal-6)'}
+                  style={{ flex: 'none' }}
+                  aria-hidden
+                />
                 {entry?.override ? (
                   <Text fz="sm" data-testid={`override-${item.key}`}>
-                    {item.kind === 'choice' ? 'Not an acceptable option' : 'Outside the acceptance range'}; <b>accepted by {entry.override.byName}</b> ({new Date(entry.override.at).toLocaleString(undefined, { hour: '2-digit', minute: '2-digit', day: 'numeric', month: 'short' })}): “{entry.override.reason}”
+                    {item.kind === 'choice' ? 'Not an acceptable option' : 'Outside the acceptance range'};{' '}
+                    <b>accepted by {entry.override.byName}</b> (
+                    {new Date(entry.override.at).toLocaleString(undefined, {
+                      hour: '2-digit',
+                      minute: '2-digit',
+                      day: 'numeric',
+                      month: 'short',
+                    })}
+                    ): “{entry.override.reason}”
                   </Text>
                 ) : (
                   <Text fz="sm" c="signal" fw={600}>
-                    {item.kind === 'choice' ? 'Not an acceptable option' : 'Outside the acceptance range'}: signing is blocked until it is put right, or the chief engineer records an
-                    override with a reason.
+                    {item.kind === 'choice' ? 'Not an acceptable option' : 'Outside the acceptance range'}: signing is blocked until it is
+                    put right, or the chief engineer records an override with a reason.
                   </Text>
                 )}
               </Group>
             )}
             {entry?.amendments.map((a) => (
               <Text key={a.id} fz="xs" c="dimmed">
-                Amended {valueWords(item, a.oldValue)} → {valueWords(item, a.newValue)} by {a.byName}, {new Date(a.at).toLocaleString(undefined, { day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit' })}: “{a.reason}”
-                {a.overrideReason ? ` — accepted out of range: “${a.overrideReason}”` : ''}
+                Amended {valueWords(item, a.oldValue)} → {valueWords(item, a.newValue)} by {a.byName},{' '}
+                {new Date(a.at).toLocaleString(undefined, { day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit' })}: “
+                {a.reason}”{a.overrideReason ? ` — accepted out of range: “${a.overrideReason}”` : ''}
               </Text>
             ))}
             {entry?.filledByName && filling && (

@@ -13,7 +13,15 @@ export const PRE_LUBE_WARNING_MINUTES = 5;
  * The time left in the pre-lube window, ticking every second. Calm while plenty is left, amber near the end,
  * red with the words "pre-lube again" once it has passed (the server then refuses the start).
  */
-export function PreLubeCountdownView({ until, windowMinutes, onExpired }: { until: string; windowMinutes?: number; onExpired?: () => void }) {
+export function PreLubeCountdownView({
+  until,
+  windowMinutes,
+  onExpired,
+}: {
+  until: string;
+  windowMinutes?: number;
+  onExpired?: () => void;
+}) {
   const now = useNow(1000);
   const c = countdown(until, now);
   useEffect(() => {
@@ -34,7 +42,11 @@ export function PreLubeCountdownView({ until, windowMinutes, onExpired }: { unti
       style={color ? { borderColor: `var(--mantine-color-${color}-6)`, borderWidth: 2 } : undefined}
     >
       <Group gap="md" wrap="nowrap" align="center">
-        {c.expired ? <IconDropletOff size={36} color="var(--mantine-color-signal-6)" aria-hidden /> : <IconDroplet size={36} aria-hidden color={warn ? 'var(--mantine-color-amber-6)' : undefined} />}
+        {c.expired ? (
+          <IconDropletOff size={36} color="var(--mantine-color-signal-6)" aria-hidden />
+        ) : (
+          <IconDroplet size={36} aria-hidden color={warn ? 'var(--mantine-color-amber-6)' : undefined} />
+        )}
         <Stack gap={0}>
           <Text fz="xs" tt="uppercase" fw={700} c="dimmed">
             {c.expired ? 'Pre-lube window has passed' : 'Pre-lube fresh for'}
@@ -59,5 +71,11 @@ export function PreLubeCountdown({ runId, windowMinutes }: { runId: string; wind
   const gate = useQuery(startGateQuery(runId));
   const until = gate.data?.preLubeFreshUntil;
   if (!until) return null;
-  return <PreLubeCountdownView until={until} windowMinutes={windowMinutes} onExpired={() => void qc.invalidateQueries({ queryKey: runKeys.startGate(runId) })} />;
+  return (
+    <PreLubeCountdownView
+      until={until}
+      windowMinutes={windowMinutes}
+      onExpired={() => void qc.invalidateQueries({ queryKey: runKeys.startGate(runId) })}
+    />
+  );
 }

@@ -14,7 +14,8 @@ import { ItemCard, type ItemMode } from '../components/ItemCard';
 import { AmendModal, OverrideModal, SignModal } from '../components/ChecklistModals';
 import { useRunChecklistsLive } from '../model/useRunChecklistsLive';
 
-const when = (iso: string) => new Date(iso).toLocaleString(undefined, { day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit' });
+const when = (iso: string) =>
+  new Date(iso).toLocaleString(undefined, { day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit' });
 
 /** One checklist on the tablet: /runs/:id/checklists/:checklistId. Items in any order, progress, cautions, signature. */
 export default function ChecklistPage() {
@@ -36,14 +37,21 @@ export default function ChecklistPage() {
         <Loader />
       </Center>
     );
-  if (q.error || !q.data) return <Alert color="signal" title="Cannot open this checklist">{errorText(q.error)}</Alert>;
+  if (q.error || !q.data)
+    return (
+      <Alert color="signal" title="Cannot open this checklist">
+        {errorText(q.error)}
+      </Alert>
+    );
   const c = q.data;
   const signed = c.status === 'signed';
   const runOpen = c.runState !== 'closed' && c.runState !== 'abandoned';
   const fillable = CHECKLIST_RUN_STATES[c.requiredWhen].includes(c.runState);
   const mode: ItemMode = !canWrite || !runOpen ? 'readonly' : signed ? 'signed' : fillable ? 'fill' : 'readonly';
   const pending = (a: ChecklistAction['kind'], key?: string) =>
-    action.isPending && action.variables?.kind === a && (key === undefined || ('itemKey' in action.variables && action.variables.itemKey === key));
+    action.isPending &&
+    action.variables?.kind === a &&
+    (key === undefined || ('itemKey' in action.variables && action.variables.itemKey === key));
 
   const run = (a: ChecklistAction, done?: () => void, what = 'Not saved') =>
     action.mutate(a, {
@@ -56,12 +64,24 @@ export default function ChecklistPage() {
 
   const missing = c.requiredItems - c.requiredDone;
   const ready = missing === 0 && c.blockedItems === 0;
-  const why = missing > 0 ? `${missing} required item${missing === 1 ? '' : 's'} still to do` : c.blockedItems > 0 ? `${c.blockedItems} outside the acceptance range` : '';
+  const why =
+    missing > 0
+      ? `${missing} required item${missing === 1 ? '' : 's'} still to do`
+      : c.blockedItems > 0
+        ? `${c.blockedItems} outside the acceptance range`
+        : '';
   const pct = c.requiredItems ? (100 * c.requiredDone) / c.requiredItems : 100;
 
   return (
     <>
-      <Anchor component={Link} to={`/runs/${runId}/checklists`} fz="sm" mb="xs" display="inline-flex" style={{ alignItems: 'center', gap: 4 }}>
+      <Anchor
+        component={Link}
+        to={`/runs/${runId}/checklists`}
+        fz="sm"
+        mb="xs"
+        display="inline-flex"
+        style={{ alignItems: 'center', gap: 4 }}
+      >
         <IconArrowLeft size={16} /> All checklists of this run
       </Anchor>
       <Group justify="space-between" align="flex-start" mb="sm" wrap="wrap">
@@ -75,7 +95,12 @@ export default function ChecklistPage() {
               Version {c.version}
             </Badge>
             {signed ? (
-              <Badge size="lg" variant="outline" color="gray" leftSection={<IconCircleCheck size={16} color="var(--mantine-color-copper-5)" />}>
+              <Badge
+                size="lg"
+                variant="outline"
+                color="gray"
+                leftSection={<IconCircleCheck size={16} color="var(--mantine-color-copper-5)" />}
+              >
                 Signed
               </Badge>
             ) : (
@@ -85,7 +110,8 @@ export default function ChecklistPage() {
             )}
           </Group>
           <Text c="dimmed" fz="sm">
-            Started by {c.startedByName}, {when(c.startedAt)} · the signer needs a current {DUTY_LABELS[c.requiredDuty].toLowerCase()} qualification
+            Started by {c.startedByName}, {when(c.startedAt)} · the signer needs a current {DUTY_LABELS[c.requiredDuty].toLowerCase()}{' '}
+            qualification
           </Text>
         </Stack>
       </Group>
@@ -94,7 +120,9 @@ export default function ChecklistPage() {
           <IconCircleCheck size={22} color="var(--mantine-color-copper-5)" aria-hidden style={{ flex: 'none', marginTop: 3 }} />
           <Text>
             Signed by <b>{c.signedByName}</b> on {when(c.signedAt!)} against version {c.version}. Read-only
-            {c.amendmentCount ? `; ${c.amendmentCount} amendment(s) recorded below.` : '; a mistake is corrected by an amendment with a reason.'}
+            {c.amendmentCount
+              ? `; ${c.amendmentCount} amendment(s) recorded below.`
+              : '; a mistake is corrected by an amendment with a reason.'}
           </Text>
         </Group>
       )}
@@ -109,7 +137,8 @@ export default function ChecklistPage() {
       )}
       {!signed && !fillable && runOpen && (
         <Alert color="gray" variant="outline" mb="md">
-          This checklist is filled while the run is {CHECKLIST_RUN_STATES[c.requiredWhen].map((s) => RUN_STATE_LABELS[s].toLowerCase()).join(' or ')}; the run is{' '}
+          This checklist is filled while the run is{' '}
+          {CHECKLIST_RUN_STATES[c.requiredWhen].map((s) => RUN_STATE_LABELS[s].toLowerCase()).join(' or ')}; the run is{' '}
           {RUN_STATE_LABELS[c.runState].toLowerCase()}.
         </Alert>
       )}

@@ -45,7 +45,9 @@ export function TemplateContentView({ content }: { content: ChecklistTemplateCon
                   <Text fz="sm" c="dimmed">
                     {CHECKLIST_ITEM_KIND_LABELS[it.kind]}
                     {it.kind === 'reading' && acceptanceRangeText(it) ? ` · acceptance range ${acceptanceRangeText(it)}` : ''}
-                    {it.kind === 'choice' ? ` · ${(it.choices ?? []).join(' / ')}${it.acceptable?.length ? ` (acceptable: ${it.acceptable.join(', ')})` : ''}` : ''}
+                    {it.kind === 'choice'
+                      ? ` · ${(it.choices ?? []).join(' / ')}${it.acceptable?.length ? ` (acceptable: ${it.acceptable.join(', ')})` : ''}`
+                      : ''}
                   </Text>
                   {it.help && <Text fz="sm">{it.help}</Text>}
                 </Grid.Col>
@@ -82,7 +84,12 @@ export default function ChecklistTemplatePage() {
         <Loader />
       </Center>
     );
-  if (t.error || !t.data) return <Alert color="signal" title="Cannot open this template">{errorText(t.error)}</Alert>;
+  if (t.error || !t.data)
+    return (
+      <Alert color="signal" title="Cannot open this template">
+        {errorText(t.error)}
+      </Alert>
+    );
   const d = t.data;
   const content = shown === d.currentVersion ? (d.current?.content ?? d.draft) : v.data?.content;
   const print = async () => {
@@ -148,7 +155,10 @@ export default function ChecklistTemplatePage() {
           allowDeselect={false}
           value={String(shown)}
           onChange={(x) => setVersion(Number(x))}
-          data={d.versions.map((x) => ({ value: String(x.version), label: `Version ${x.version}${x.version === d.currentVersion ? ' (current)' : ''}` }))}
+          data={d.versions.map((x) => ({
+            value: String(x.version),
+            label: `Version ${x.version}${x.version === d.currentVersion ? ' (current)' : ''}`,
+          }))}
         />
       )}
       {content ? v.isLoading ? <Loader /> : <TemplateContentView content={content} /> : <Loader />}
@@ -171,7 +181,15 @@ export default function ChecklistTemplatePage() {
             {d.versions.map((x) => (
               <Table.Tr key={x.version}>
                 <Table.Td className="cj-num">{x.version}</Table.Td>
-                <Table.Td>{new Date(x.publishedAt).toLocaleString(undefined, { day: 'numeric', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit' })}</Table.Td>
+                <Table.Td>
+                  {new Date(x.publishedAt).toLocaleString(undefined, {
+                    day: 'numeric',
+                    month: 'short',
+                    year: 'numeric',
+                    hour: '2-digit',
+                    minute: '2-digit',
+                  })}
+                </Table.Td>
                 <Table.Td>{x.publishedByName}</Table.Td>
                 <Table.Td>{x.changeNote || '—'}</Table.Td>
               </Table.Tr>

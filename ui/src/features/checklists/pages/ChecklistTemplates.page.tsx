@@ -4,7 +4,12 @@ import { useQuery } from '@tanstack/react-query';
 import { Alert, Anchor, Badge, Button, Group, Loader, Select, Stack, Text } from '@mantine/core';
 import { notifications } from '@mantine/notifications';
 import { IconPlus, IconPrinter } from '@tabler/icons-react';
-import { CHECKLIST_PURPOSE_LABELS, CHECKLIST_REQUIRED_WHEN_LABELS, DUTY_LABELS, type ChecklistTemplateSummary } from '@crankjournal/shared-types';
+import {
+  CHECKLIST_PURPOSE_LABELS,
+  CHECKLIST_REQUIRED_WHEN_LABELS,
+  DUTY_LABELS,
+  type ChecklistTemplateSummary,
+} from '@crankjournal/shared-types';
 import { errorText } from '../../../api/http';
 import { PageHeader } from '../../../components/PageHeader';
 import { DataTable, columnHelper } from '../../../components/DataTable/DataTable';
@@ -97,21 +102,41 @@ export default function ChecklistTemplatesPage() {
         action={
           isChief &&
           engineId && (
-            <Button component={Link} to={`/checklists/templates/new?engineId=${engineId}`} leftSection={<IconPlus />} size="lg" variant="default">
+            <Button
+              component={Link}
+              to={`/checklists/templates/new?engineId=${engineId}`}
+              leftSection={<IconPlus />}
+              size="lg"
+              variant="default"
+            >
               New checklist template
             </Button>
           )
         }
       />
       {engines.data && engines.data.length > 1 && (
-        <Select label="Engine" data={engines.data.map((e) => ({ value: e.id, label: e.name }))} value={engineId} onChange={setPicked} w={320} mb="md" allowDeselect={false} />
+        <Select
+          label="Engine"
+          data={engines.data.map((e) => ({ value: e.id, label: e.name }))}
+          value={engineId}
+          onChange={setPicked}
+          w={320}
+          mb="md"
+          allowDeselect={false}
+        />
       )}
       {engines.isLoading || list.isLoading ? (
         <Loader />
       ) : engines.error || list.error ? (
         <Alert color="signal">{errorText(engines.error ?? list.error)}</Alert>
       ) : (
-        <DataTable data={list.data ?? []} columns={columns} caption="Checklist templates" empty="No checklist templates for this engine yet." getRowId={(t) => t.id} />
+        <DataTable
+          data={list.data ?? []}
+          columns={columns}
+          caption="Checklist templates"
+          empty="No checklist templates for this engine yet."
+          getRowId={(t) => t.id}
+        />
       )}
     </>
   );

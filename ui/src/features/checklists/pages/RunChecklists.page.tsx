@@ -23,7 +23,11 @@ import { GatePanel } from '../components/GatePanel';
 import { useRunChecklistsLive } from '../model/useRunChecklistsLive';
 
 const GROUPS: { when: ChecklistRequiredWhen; title: string; note: string }[] = [
-  { when: 'before_start', title: 'Before the start', note: 'Required: the engine may not start until each is signed. Signing the last one clears the run to start.' },
+  {
+    when: 'before_start',
+    title: 'Before the start',
+    note: 'Required: the engine may not start until each is signed. Signing the last one clears the run to start.',
+  },
   { when: 'not_required', title: 'Kept for the record', note: 'Not asked for by the start gate.' },
   { when: 'after_stop', title: 'After the stop', note: 'Required before the run can be closed.' },
 ];
@@ -34,7 +38,13 @@ function ProgressLine({ c }: { c: ChecklistSummary }) {
   const pct = c.requiredItems ? (100 * c.requiredDone) / c.requiredItems : 100;
   return (
     <Stack gap={4}>
-      <Progress value={pct} size="lg" radius="sm" color={c.blockedItems ? 'signal' : 'copper'} aria-label={`${c.requiredDone} of ${c.requiredItems} required items done`} />
+      <Progress
+        value={pct}
+        size="lg"
+        radius="sm"
+        color={c.blockedItems ? 'signal' : 'copper'}
+        aria-label={`${c.requiredDone} of ${c.requiredItems} required items done`}
+      />
       <Text fz="sm" c={c.blockedItems ? 'signal' : 'dimmed'}>
         {c.requiredDone} of {c.requiredItems} required items done
         {c.blockedItems ? ` · ${c.blockedItems} outside the acceptance range` : ''}
@@ -43,7 +53,19 @@ function ProgressLine({ c }: { c: ChecklistSummary }) {
   );
 }
 
-function TemplateCard({ s, runId, canWrite, onStart, starting }: { s: RunChecklistTemplateStatus; runId: string; canWrite: boolean; onStart: () => void; starting: boolean }) {
+function TemplateCard({
+  s,
+  runId,
+  canWrite,
+  onStart,
+  starting,
+}: {
+  s: RunChecklistTemplateStatus;
+  runId: string;
+  canWrite: boolean;
+  onStart: () => void;
+  starting: boolean;
+}) {
   const t = s.template;
   const [printing, setPrinting] = useState(false);
   const print = async () => {
@@ -66,11 +88,18 @@ function TemplateCard({ s, runId, canWrite, onStart, starting }: { s: RunCheckli
               {t.name}
             </Title>
             <Text fz="sm" c="dimmed">
-              {t.name === CHECKLIST_PURPOSE_LABELS[t.purpose] ? '' : `${CHECKLIST_PURPOSE_LABELS[t.purpose]} · `}version {t.currentVersion} · the signer needs a {DUTY_LABELS[t.requiredDuty].toLowerCase()} qualification
+              {t.name === CHECKLIST_PURPOSE_LABELS[t.purpose] ? '' : `${CHECKLIST_PURPOSE_LABELS[t.purpose]} · `}version {t.currentVersion}{' '}
+              · the signer needs a {DUTY_LABELS[t.requiredDuty].toLowerCase()} qualification
             </Text>
           </Stack>
           {s.progress === 'signed' ? (
-            <Badge size="lg" variant="outline" color="gray" style={{ flexShrink: 0 }} leftSection={<IconCircleCheck size={16} color="var(--mantine-color-copper-5)" />}>
+            <Badge
+              size="lg"
+              variant="outline"
+              color="gray"
+              style={{ flexShrink: 0 }}
+              leftSection={<IconCircleCheck size={16} color="var(--mantine-color-copper-5)" />}
+            >
               Signed
             </Badge>
           ) : s.progress === 'in_progress' ? (
@@ -170,7 +199,11 @@ export default function RunChecklistsPage() {
       <Anchor component={Link} to={`/runs/${id}`} fz="sm" mb="xs" display="inline-flex" style={{ alignItems: 'center', gap: 4 }}>
         <IconArrowLeft size={16} /> Back to the run
       </Anchor>
-      <PageHeader title={`Checklists — ${r.title}`} subtitle={`${r.engineName} · pre-lube window ${o.preLubeFreshnessMinutes} min`} state={<RunStateBadge state={r.state} />} />
+      <PageHeader
+        title={`Checklists — ${r.title}`}
+        subtitle={`${r.engineName} · pre-lube window ${o.preLubeFreshnessMinutes} min`}
+        state={<RunStateBadge state={r.state} />}
+      />
       <GatePanel run={r} overview={o} />
       {finished && (
         <Text c="dimmed" mb="md">
@@ -222,7 +255,9 @@ export default function RunChecklistsPage() {
                   {c.name} (version {c.version})
                 </Anchor>
                 <Text fz="sm" c="dimmed">
-                  {c.status === 'signed' ? `signed by ${c.signedByName} at ${time(c.signedAt!)}` : `started by ${c.startedByName} at ${time(c.startedAt)}, not signed`}
+                  {c.status === 'signed'
+                    ? `signed by ${c.signedByName} at ${time(c.signedAt!)}`
+                    : `started by ${c.startedByName} at ${time(c.startedAt)}, not signed`}
                 </Text>
               </Group>
             ))}

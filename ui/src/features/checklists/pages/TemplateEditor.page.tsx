@@ -63,7 +63,14 @@ export function newKey(text: string): string {
 
 const blankItem = (): ChecklistItemDef => ({ key: newKey('item'), kind: 'tick', label: '', required: true, caution: null });
 const blankSection = (): ChecklistSectionDef => ({ key: newKey('section'), title: '', items: [blankItem()] });
-const BLANK: ChecklistTemplateContent = { name: '', purpose: 'pre_start_inspection', requiredWhen: 'before_start', requiredDuty: 'start_and_run', description: '', sections: [blankSection()] };
+const BLANK: ChecklistTemplateContent = {
+  name: '',
+  purpose: 'pre_start_inspection',
+  requiredWhen: 'before_start',
+  requiredDuty: 'start_and_run',
+  description: '',
+  sections: [blankSection()],
+};
 
 const options = <T extends string>(list: readonly T[], labels: Record<T, string>) => list.map((v) => ({ value: v, label: labels[v] }));
 
@@ -77,21 +84,51 @@ function move<T>(list: T[], i: number, by: number): T[] {
 
 /** Only the fields an item of its kind carries (what the server accepts). */
 function tidy(it: ChecklistItemDef): ChecklistItemDef {
-  const base: ChecklistItemDef = { key: it.key, kind: it.kind, label: it.label, required: it.required, caution: it.caution?.text.trim() ? it.caution : null };
+  const base: ChecklistItemDef = {
+    key: it.key,
+    kind: it.kind,
+    label: it.label,
+    required: it.required,
+    caution: it.caution?.text.trim() ? it.caution : null,
+  };
   if (it.help?.trim()) base.help = it.help;
   if (it.kind === 'reading') Object.assign(base, { unit: it.unit ?? '', min: it.min ?? null, max: it.max ?? null });
-  if (it.kind === 'choice') Object.assign(base, { choices: it.choices ?? [], acceptable: (it.acceptable ?? []).filter((a) => (it.choices ?? []).includes(a)) });
+  if (it.kind === 'choice')
+    Object.assign(base, { choices: it.choices ?? [], acceptable: (it.acceptable ?? []).filter((a) => (it.choices ?? []).includes(a)) });
   return base;
 }
-const tidyContent = (c: ChecklistTemplateContent): ChecklistTemplateContent => ({ ...c, sections: c.sections.map((s) => ({ ...s, items: s.items.map(tidy) })) });
+const tidyContent = (c: ChecklistTemplateContent): ChecklistTemplateContent => ({
+  ...c,
+  sections: c.sections.map((s) => ({ ...s, items: s.items.map(tidy) })),
+});
 
-function ItemEditor({ item, onChange, onMove, onRemove, first, last }: { item: ChecklistItemDef; onChange: (it: ChecklistItemDef) => void; onMove: (by: number) => void; onRemove: () => void; first: boolean; last: boolean }) {
+function ItemEditor({
+  item,
+  onChange,
+  onMove,
+  onRemove,
+  first,
+  last,
+}: {
+  item: ChecklistItemDef;
+  onChange: (it: ChecklistItemDef) => void;
+  onMove: (by: number) => void;
+  onRemove: () => void;
+  first: boolean;
+  last: boolean;
+}) {
   const set = (p: Partial<ChecklistItemDef>) => onChange({ ...item, ...p });
   return (
     <Paper withBorder p="sm" radius="sm">
       <Stack gap="xs">
         <Group gap="sm" align="flex-end" wrap="nowrap">
-          <TextInput label="What to do or read" style={{ flex: 1 }} value={item.label} onChange={(e) => set({ label: e.currentTarget.value })} required />
+          <TextInput
+            label="What to do or read"
+            style={{ flex: 1 }}
+            value={item.label}
+            onChange={(e) => set({ label: e.currentTarget.value })}
+            required
+          />
           <Group gap={4} wrap="nowrap">
             <ActionIcon variant="default" aria-label="Move item up" disabled={first} onClick={() => onMove(-1)}>
               <IconArrowUp />
@@ -105,24 +142,66 @@ function ItemEditor({ item, onChange, onMove, onRemove, first, last }: { item: C
           </Group>
         </Group>
         <Group gap="sm" align="flex-end" wrap="nowrap">
-          <Select label="Kind" w={240} data={options(CHECKLIST_ITEM_KINDS, CHECKLIST_ITEM_KIND_LABELS)} value={item.kind} onChange={(v) => v && set({ kind: v as ChecklistItemKind })} allowDeselect={false} />
-          <TextInput label="How (optional)" style={{ flex: 1 }} value={item.help ?? ''} onChange={(e) => set({ help: e.currentTarget.value })} />
+          <Select
+            label="Kind"
+            w={240}
+            data={options(CHECKLIST_ITEM_KINDS, CHECKLIST_ITEM_KIND_LABELS)}
+            value={item.kind}
+            onChange={(v) => v && set({ kind: v as ChecklistItemKind })}
+            allowDeselect={false}
+          />
+          <TextInput
+            label="How (optional)"
+            style={{ flex: 1 }}
+            value={item.help ?? ''}
+            onChange={(e) => set({ help: e.currentTarget.value })}
+          />
           <Switch label="Required" checked={item.required} onChange={(e) => set({ required: e.currentTarget.checked })} mb={10} size="md" />
         </Group>
         {item.kind === 'reading' && (
           <Group gap="sm">
-            <TextInput label="Unit" w={140} placeholder="psig, degF, in, min" value={item.unit ?? ''} onChange={(e) => set({ unit: e.currentTarget.value })} required />
-            <NumberInput label="Acceptable from" w={170} value={item.min ?? ''} onChange={(v) => set({ min: v === '' ? null : Number(v) })} hideControls />
-            <NumberInput label="Acceptable up to" w={170} value={item.max ?? ''} onChange={(v) => set({ max: v === '' ? null : Number(v) })} hideControls />
+            <TextInput
+              label="Unit"
+              w={140}
+              placeholder="psig, degF, in, min"
+              value={item.unit ?? ''}
+              onChange={(e) => set({ unit: e.currentTarget.value })}
+              required
+            />
+            <NumberInput
+              label="Acceptable from"
+              w={170}
+              value={item.min ?? ''}
+              onChange={(v) => set({ min: v === '' ? null : Number(v) })}
+              hideControls
+            />
+            <NumberInput
+              label="Acceptable up to"
+              w={170}
+              value={item.max ?? ''}
+              onChange={(v) => set({ max: v === '' ? null : Number(v) })}
+              hideControls
+            />
           </Group>
         )}
         {item.kind === 'choice' && (
           <Grid>
             <Grid.Col span={{ base: 12, sm: 6 }}>
-              <TagsInput label="Options" description="Type an option and press Enter" value={item.choices ?? []} onChange={(v) => set({ choices: v })} />
+              <TagsInput
+                label="Options"
+                description="Type an option and press Enter"
+                value={item.choices ?? []}
+                onChange={(v) => set({ choices: v })}
+              />
             </Grid.Col>
             <Grid.Col span={{ base: 12, sm: 6 }}>
-              <MultiSelect label="Acceptable options" description="Others block the signature" data={item.choices ?? []} value={(item.acceptable ?? []).filter((a) => (item.choices ?? []).includes(a))} onChange={(v) => set({ acceptable: v })} />
+              <MultiSelect
+                label="Acceptable options"
+                description="Others block the signature"
+                data={item.choices ?? []}
+                value={(item.acceptable ?? []).filter((a) => (item.choices ?? []).includes(a))}
+                onChange={(v) => set({ acceptable: v })}
+              />
             </Grid.Col>
           </Grid>
         )}
@@ -136,7 +215,14 @@ function ItemEditor({ item, onChange, onMove, onRemove, first, last }: { item: C
             allowDeselect={false}
           />
           {item.caution && (
-            <Textarea label="Caution text (shown beside the item)" style={{ flex: 1 }} autosize minRows={1} value={item.caution.text} onChange={(e) => set({ caution: { hazard: item.caution!.hazard, text: e.currentTarget.value } })} />
+            <Textarea
+              label="Caution text (shown beside the item)"
+              style={{ flex: 1 }}
+              autosize
+              minRows={1}
+              value={item.caution.text}
+              onChange={(e) => set({ caution: { hazard: item.caution!.hazard, text: e.currentTarget.value } })}
+            />
           )}
         </Group>
       </Stack>
@@ -176,7 +262,8 @@ export default function TemplateEditorPage() {
     setContent(c);
     setDirty(true);
   };
-  const setSection = (i: number, s: ChecklistSectionDef) => update({ ...content, sections: content.sections.map((x, j) => (j === i ? s : x)) });
+  const setSection = (i: number, s: ChecklistSectionDef) =>
+    update({ ...content, sections: content.sections.map((x, j) => (j === i ? s : x)) });
   const fail = (e: unknown) => setErrors(e instanceof HttpError ? e.messages : [errorText(e)]);
 
   const saveDraft = (then?: (id: string) => void) => {
@@ -216,7 +303,10 @@ export default function TemplateEditorPage() {
         {
           onSuccess: (t) => {
             setPublishing(false);
-            notifications.show({ title: `Version ${t.currentVersion} published`, message: 'New checklists use it; completed ones keep theirs.' });
+            notifications.show({
+              title: `Version ${t.currentVersion} published`,
+              message: 'New checklists use it; completed ones keep theirs.',
+            });
             navigate(`/checklists/templates/${t.id}`);
           },
           onError: (e) => {
@@ -232,14 +322,22 @@ export default function TemplateEditorPage() {
 
   return (
     <>
-      <Anchor component={Link} to={id ? `/checklists/templates/${id}` : '/checklists'} fz="sm" mb="xs" display="inline-flex" style={{ alignItems: 'center', gap: 4 }}>
+      <Anchor
+        component={Link}
+        to={id ? `/checklists/templates/${id}` : '/checklists'}
+        fz="sm"
+        mb="xs"
+        display="inline-flex"
+        style={{ alignItems: 'center', gap: 4 }}
+      >
         <IconArrowLeft size={16} /> {id ? 'Back to the template' : 'All checklists'}
       </Anchor>
       <Title order={1} fz={28} mb="xs">
         {id ? `Edit “${existing.data?.name}”` : 'New checklist template'}
       </Title>
       <Text c="dimmed" mb="md">
-        Changes are a draft until you publish them as version {nextVersion}. Checklists already filled keep the version they were filled against.
+        Changes are a draft until you publish them as version {nextVersion}. Checklists already filled keep the version they were filled
+        against.
       </Text>
       {errors.length > 0 && (
         <Alert color="signal" title="Not saved" mb="md" role="alert">
@@ -256,7 +354,13 @@ export default function TemplateEditorPage() {
             <TextInput label="Name" required value={content.name} onChange={(e) => update({ ...content, name: e.currentTarget.value })} />
           </Grid.Col>
           <Grid.Col span={{ base: 12, sm: 6 }}>
-            <Select label="Purpose" data={options(CHECKLIST_PURPOSES, CHECKLIST_PURPOSE_LABELS)} value={content.purpose} onChange={(v) => v && update({ ...content, purpose: v as ChecklistPurpose })} allowDeselect={false} />
+            <Select
+              label="Purpose"
+              data={options(CHECKLIST_PURPOSES, CHECKLIST_PURPOSE_LABELS)}
+              value={content.purpose}
+              onChange={(v) => v && update({ ...content, purpose: v as ChecklistPurpose })}
+              allowDeselect={false}
+            />
           </Grid.Col>
           <Grid.Col span={{ base: 12, sm: 6 }}>
             <Select
@@ -282,19 +386,47 @@ export default function TemplateEditorPage() {
             The signature of this checklist starts the engine's pre-lube window; the start gate refuses once it has passed.
           </Text>
         )}
-        <Textarea label="Description" autosize minRows={2} value={content.description} onChange={(e) => update({ ...content, description: e.currentTarget.value })} />
+        <Textarea
+          label="Description"
+          autosize
+          minRows={2}
+          value={content.description}
+          onChange={(e) => update({ ...content, description: e.currentTarget.value })}
+        />
         {content.sections.map((s, si) => (
           <Paper key={s.key} withBorder p="md" radius="md">
             <Stack gap="sm">
               <Group gap="sm" align="flex-end" wrap="nowrap">
-                <TextInput label={`Section ${si + 1}`} style={{ flex: 1 }} value={s.title} onChange={(e) => setSection(si, { ...s, title: e.currentTarget.value })} required />
-                <ActionIcon variant="default" aria-label="Move section up" disabled={si === 0} onClick={() => update({ ...content, sections: move(content.sections, si, -1) })}>
+                <TextInput
+                  label={`Section ${si + 1}`}
+                  style={{ flex: 1 }}
+                  value={s.title}
+                  onChange={(e) => setSection(si, { ...s, title: e.currentTarget.value })}
+                  required
+                />
+                <ActionIcon
+                  variant="default"
+                  aria-label="Move section up"
+                  disabled={si === 0}
+                  onClick={() => update({ ...content, sections: move(content.sections, si, -1) })}
+                >
                   <IconArrowUp />
                 </ActionIcon>
-                <ActionIcon variant="default" aria-label="Move section down" disabled={si === content.sections.length - 1} onClick={() => update({ ...content, sections: move(content.sections, si, 1) })}>
+                <ActionIcon
+                  variant="default"
+                  aria-label="Move section down"
+                  disabled={si === content.sections.length - 1}
+                  onClick={() => update({ ...content, sections: move(content.sections, si, 1) })}
+                >
                   <IconArrowDown />
                 </ActionIcon>
-                <ActionIcon variant="subtle" color="signal" aria-label="Remove section" disabled={content.sections.length === 1} onClick={() => update({ ...content, sections: content.sections.filter((_, j) => j !== si) })}>
+                <ActionIcon
+                  variant="subtle"
+                  color="signal"
+                  aria-label="Remove section"
+                  disabled={content.sections.length === 1}
+                  onClick={() => update({ ...content, sections: content.sections.filter((_, j) => j !== si) })}
+                >
                   <IconTrash />
                 </ActionIcon>
               </Group>
@@ -309,13 +441,23 @@ export default function TemplateEditorPage() {
                   onRemove={() => setSection(si, { ...s, items: s.items.filter((_, j) => j !== ii) })}
                 />
               ))}
-              <Button variant="default" leftSection={<IconPlus />} w="fit-content" onClick={() => setSection(si, { ...s, items: [...s.items, blankItem()] })}>
+              <Button
+                variant="default"
+                leftSection={<IconPlus />}
+                w="fit-content"
+                onClick={() => setSection(si, { ...s, items: [...s.items, blankItem()] })}
+              >
                 Add item
               </Button>
             </Stack>
           </Paper>
         ))}
-        <Button variant="default" leftSection={<IconPlus />} w="fit-content" onClick={() => update({ ...content, sections: [...content.sections, blankSection()] })}>
+        <Button
+          variant="default"
+          leftSection={<IconPlus />}
+          w="fit-content"
+          onClick={() => update({ ...content, sections: [...content.sections, blankSection()] })}
+        >
           Add section
         </Button>
         <Text fz="xs" c="dimmed">
@@ -323,10 +465,30 @@ export default function TemplateEditorPage() {
         </Text>
       </Stack>
 
-      <Modal opened={publishing} onClose={() => setPublishing(false)} title={<Text fw={700} fz="lg">Publish version {nextVersion}?</Text>} centered size="lg">
+      <Modal
+        opened={publishing}
+        onClose={() => setPublishing(false)}
+        title={
+          <Text fw={700} fz="lg">
+            Publish version {nextVersion}?
+          </Text>
+        }
+        centered
+        size="lg"
+      >
         <Stack>
-          <Text fz="sm">New checklists use version {nextVersion} from now on. Checklists already filled, signed or being filled keep the version they started with.</Text>
-          <Textarea label="What changed (for the record)" autosize minRows={2} value={note} onChange={(e) => setNote(e.currentTarget.value)} data-autofocus />
+          <Text fz="sm">
+            New checklists use version {nextVersion} from now on. Checklists already filled, signed or being filled keep the version they
+            started with.
+          </Text>
+          <Textarea
+            label="What changed (for the record)"
+            autosize
+            minRows={2}
+            value={note}
+            onChange={(e) => setNote(e.currentTarget.value)}
+            data-autofocus
+          />
           <Group justify="flex-end">
             <Button variant="default" size="lg" onClick={() => setPublishing(false)}>
               Cancel
@@ -363,7 +525,14 @@ export default function TemplateEditorPage() {
           </Text>
         </Group>
         <Group gap="sm" wrap="nowrap">
-          <Button variant="default" size="lg" h={56} loading={write.create.isPending || write.saveDraft.isPending} onClick={() => saveDraft()} disabled={!dirty && !!id}>
+          <Button
+            variant="default"
+            size="lg"
+            h={56}
+            loading={write.create.isPending || write.saveDraft.isPending}
+            onClick={() => saveDraft()}
+            disabled={!dirty && !!id}
+          >
             Save draft
           </Button>
           <Button size="xl" h={60} onClick={() => setPublishing(true)} disabled={busy || (!!id && !dirty && !existing.data?.hasDraft)}>

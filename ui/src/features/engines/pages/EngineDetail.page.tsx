@@ -77,7 +77,9 @@ export default function EngineDetailPage() {
     <Stack gap="lg">
       <PageHeader
         title={engine.name}
-        subtitle={[ENGINE_TYPE_LABELS[engine.type], engine.yearBuilt && `built ${engine.yearBuilt}`, engine.builder].filter(Boolean).join(' · ')}
+        subtitle={[ENGINE_TYPE_LABELS[engine.type], engine.yearBuilt && `built ${engine.yearBuilt}`, engine.builder]
+          .filter(Boolean)
+          .join(' · ')}
         state={
           engine.activeRunId ? (
             <Button component={Link} to={`/runs/${engine.activeRunId}`} variant="light" rightSection={<IconArrowRight size={18} />}>
@@ -159,9 +161,18 @@ function Cylinders({ rows }: { rows: Cyl[] }) {
       cylCol.accessor('role', { header: 'Role', cell: (c) => CYLINDER_ROLE_LABELS[c.getValue()] }),
       cylCol.accessor('boreIn', { header: 'Bore', cell: (c) => <UnitValue value={c.getValue()} unit="in" decimals={2} size="sm" /> }),
       cylCol.accessor('strokeIn', { header: 'Stroke', cell: (c) => <UnitValue value={c.getValue()} unit="in" decimals={2} size="sm" /> }),
-      cylCol.accessor('pistonRodIn', { header: 'Piston rod', cell: (c) => <UnitValue value={c.getValue()} unit="in" decimals={2} size="sm" /> }),
-      cylCol.accessor('tailRodIn', { header: 'Tail rod', cell: (c) => <UnitValue value={c.getValue()} unit="in" decimals={2} size="sm" /> }),
-      cylCol.accessor('clearancePercent', { header: 'Clearance', cell: (c) => <UnitValue value={c.getValue()} unit="%" raw decimals={1} size="sm" /> }),
+      cylCol.accessor('pistonRodIn', {
+        header: 'Piston rod',
+        cell: (c) => <UnitValue value={c.getValue()} unit="in" decimals={2} size="sm" />,
+      }),
+      cylCol.accessor('tailRodIn', {
+        header: 'Tail rod',
+        cell: (c) => <UnitValue value={c.getValue()} unit="in" decimals={2} size="sm" />,
+      }),
+      cylCol.accessor('clearancePercent', {
+        header: 'Clearance',
+        cell: (c) => <UnitValue value={c.getValue()} unit="%" raw decimals={1} size="sm" />,
+      }),
     ],
     [],
   );
@@ -182,8 +193,14 @@ function Bearings({ rows, lubrication }: { rows: Brg[]; lubrication: Lub[] }) {
         header: 'Journal diameter',
         cell: (c) => <UnitValue value={c.getValue()} unit="in" decimals={2} size="sm" />,
       }),
-      brgCol.accessor('journalLengthIn', { header: 'Journal length', cell: (c) => <UnitValue value={c.getValue()} unit="in" decimals={2} size="sm" /> }),
-      brgCol.accessor('loadSharePercent', { header: 'Share of load', cell: (c) => <UnitValue value={c.getValue()} unit="%" raw decimals={0} size="sm" /> }),
+      brgCol.accessor('journalLengthIn', {
+        header: 'Journal length',
+        cell: (c) => <UnitValue value={c.getValue()} unit="in" decimals={2} size="sm" />,
+      }),
+      brgCol.accessor('loadSharePercent', {
+        header: 'Share of load',
+        cell: (c) => <UnitValue value={c.getValue()} unit="%" raw decimals={0} size="sm" />,
+      }),
       brgCol.accessor((r) => r.radialClearanceIn ?? null, {
         id: 'clearance',
         header: 'Radial clearance',
@@ -215,7 +232,13 @@ function Lubrication({ rows }: { rows: Lub[] }) {
   );
   return (
     <Section title="Lubrication points">
-      <DataTable data={rows} columns={columns} caption="Lubrication points" getRowId={(r) => r.id} empty="No lubrication points described." />
+      <DataTable
+        data={rows}
+        columns={columns}
+        caption="Lubrication points"
+        getRowId={(r) => r.id}
+        empty="No lubrication points described."
+      />
     </Section>
   );
 }
@@ -264,8 +287,16 @@ function MeasurementPoints({ engine }: { engine: EngineDetail }) {
           return <Text className="cj-num" style={{ whiteSpace: 'nowrap' }}>{`${lo} – ${hi || display(null, p.unit).unitLabel}`}</Text>;
         },
       }),
-      ptCol.accessor((p) => p.lowLimit ?? null, { id: 'low', header: 'Low', cell: (c) => limit(c.row.original.lowLimit, c.row.original.unit) }),
-      ptCol.accessor((p) => p.highLimit ?? null, { id: 'high', header: 'High', cell: (c) => limit(c.row.original.highLimit, c.row.original.unit) }),
+      ptCol.accessor((p) => p.lowLimit ?? null, {
+        id: 'low',
+        header: 'Low',
+        cell: (c) => limit(c.row.original.lowLimit, c.row.original.unit),
+      }),
+      ptCol.accessor((p) => p.highLimit ?? null, {
+        id: 'high',
+        header: 'High',
+        cell: (c) => limit(c.row.original.highLimit, c.row.original.unit),
+      }),
       ptCol.accessor((p) => p.highHighLimit ?? null, {
         id: 'highHigh',
         header: 'High-high',
@@ -281,7 +312,11 @@ function MeasurementPoints({ engine }: { engine: EngineDetail }) {
         header: 'Above ambient',
         cell: (c) => limit(c.row.original.maxRiseAboveAmbient, c.row.original.unit, true),
       }),
-      ptCol.accessor((p) => p.deadband ?? null, { id: 'deadband', header: 'Deadband', cell: (c) => limit(c.row.original.deadband, c.row.original.unit, true) }),
+      ptCol.accessor((p) => p.deadband ?? null, {
+        id: 'deadband',
+        header: 'Deadband',
+        cell: (c) => limit(c.row.original.deadband, c.row.original.unit, true),
+      }),
     ];
   }, [display, engine]);
   const points = useMemo(() => [...engine.measurementPoints].sort((a, b) => a.sequence - b.sequence), [engine.measurementPoints]);
@@ -291,15 +326,30 @@ function MeasurementPoints({ engine }: { engine: EngineDetail }) {
       subtitle="In the order of a round of readings. The server raises an alarm when a reading passes a limit, rises faster than the rate, or rises too far above ambient."
     >
       <Caution title="Limits">{LIMITS_CAUTION}</Caution>
-      <DataTable data={points} columns={columns} caption="Measurement points and limits" getRowId={(r) => r.id} empty="No measurement points yet." />
+      <DataTable
+        data={points}
+        columns={columns}
+        caption="Measurement points and limits"
+        getRowId={(r) => r.id}
+        empty="No measurement points yet."
+      />
     </Section>
   );
 }
 
 const lcCol = columnHelper<LimitChangeDto>();
 function ChangeValue({ v }: { v: number | string | null }) {
-  if (v === null || v === '') return <Text span c="dimmed">none</Text>;
-  return <Text span className="cj-num">{typeof v === 'number' ? formatNumber(v, Number.isInteger(v) ? 0 : 2) : v}</Text>;
+  if (v === null || v === '')
+    return (
+      <Text span c="dimmed">
+        none
+      </Text>
+    );
+  return (
+    <Text span className="cj-num">
+      {typeof v === 'number' ? formatNumber(v, Number.isInteger(v) ? 0 : 2) : v}
+    </Text>
+  );
 }
 function LimitHistory({ engineId }: { engineId: string }) {
   const { data, isLoading, error } = useQuery(engineLimitChangesQuery(engineId));
@@ -309,7 +359,13 @@ function LimitHistory({ engineId }: { engineId: string }) {
         header: 'When',
         cell: (c) => (
           <Text className="cj-num" fz="sm">
-            {new Date(c.getValue()).toLocaleString(undefined, { day: 'numeric', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit' })}
+            {new Date(c.getValue()).toLocaleString(undefined, {
+              day: 'numeric',
+              month: 'short',
+              year: 'numeric',
+              hour: '2-digit',
+              minute: '2-digit',
+            })}
           </Text>
         ),
       }),
@@ -347,10 +403,21 @@ function LimitHistory({ engineId }: { engineId: string }) {
   );
   const rows = useMemo(() => [...(data ?? [])].sort((a, b) => b.changedAt.localeCompare(a.changedAt)), [data]);
   return (
-    <Section title="Changes to limits and settings" subtitle="Every change is kept: who made it, when, and the value before and after. Newest first.">
+    <Section
+      title="Changes to limits and settings"
+      subtitle="Every change is kept: who made it, when, and the value before and after. Newest first."
+    >
       {isLoading && <Loader size="sm" />}
       {error && <Alert color="signal">{errorText(error)}</Alert>}
-      {data && <DataTable data={rows} columns={columns} caption="Changes to limits and settings" getRowId={(r) => r.id} empty="No changes since the engine was described." />}
+      {data && (
+        <DataTable
+          data={rows}
+          columns={columns}
+          caption="Changes to limits and settings"
+          getRowId={(r) => r.id}
+          empty="No changes since the engine was described."
+        />
+      )}
       {data && data.length > 0 && (
         <Badge variant="outline" color="gray">
           {data.length === 1 ? '1 change' : `${data.length} changes`}

@@ -24,10 +24,22 @@ const engine: EngineDetail = {
   cylinders: [],
   lubricationPoints: [],
   bearings: [],
-  measurementPoints: [{ id: 'p1', code: 'MB1-T', label: 'Main bearing 1', kind: 'bearing_temperature', unit: 'degF', sequence: 1, highLimit: 212 }],
+  measurementPoints: [
+    { id: 'p1', code: 'MB1-T', label: 'Main bearing 1', kind: 'bearing_temperature', unit: 'degF', sequence: 1, highLimit: 212 },
+  ],
 };
 const changes: LimitChangeDto[] = [
-  { id: 'c1', engineId: 'e1', subject: 'MB1-T Main bearing 1', field: 'highLimit', oldValue: 130, newValue: 125, changedBy: 'u1', changedByName: 'Hester Chief', changedAt: '2026-05-01T08:00:00Z' },
+  {
+    id: 'c1',
+    engineId: 'e1',
+    subject: 'MB1-T Main bearing 1',
+    field: 'highLimit',
+    oldValue: 130,
+    newValue: 125,
+    changedBy: 'u1',
+    changedByName: 'Hester Chief',
+    changedAt: '2026-05-01T08:00:00Z',
+  },
 ];
 const table: UnitConversionTable = { imperial: {}, metric: { degF: { from: 'degF', to: 'degC', factor: 5 / 9, offset: -17.7778 } } };
 const json = (body: unknown) => new Response(JSON.stringify(body), { headers: { 'content-type': 'application/json' } });
@@ -60,7 +72,9 @@ describe('engine detail page', () => {
     );
     // 212 °F = 100 °C (boiling point of water at one standard atmosphere; common practice, no source).
     expect(await screen.findByText('100.0 °C', {}, { timeout: 8000 })).toBeInTheDocument();
-    expect(screen.getAllByText(/maximum allowable working pressure is the figure on the boiler’s current certificate/).length).toBeGreaterThan(0);
+    expect(
+      screen.getAllByText(/maximum allowable working pressure is the figure on the boiler’s current certificate/).length,
+    ).toBeGreaterThan(0);
     const history = await screen.findByRole('table', { name: 'Changes to limits and settings' });
     expect(within(history).getByText('Hester Chief')).toBeInTheDocument();
     expect(within(history).getByLabelText('old value')).toHaveClass('cj-struck');

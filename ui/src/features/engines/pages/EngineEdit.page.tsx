@@ -111,13 +111,7 @@ function EngineForm({ engineId, initial }: { engineId?: string; initial: EngineF
         <BearingsSection form={form} />
         <PointsSection form={form} />
       </Stack>
-      <Paper
-        withBorder
-        shadow="md"
-        p="md"
-        style={{ position: 'sticky', bottom: 0, zIndex: 5 }}
-        bg="var(--mantine-color-body)"
-      >
+      <Paper withBorder shadow="md" p="md" style={{ position: 'sticky', bottom: 0, zIndex: 5 }} bg="var(--mantine-color-body)">
         <Stack gap="sm">
           {serverErrors.length > 0 && (
             <Alert color="signal" title="Not saved" role="alert">
@@ -174,7 +168,17 @@ function RemoveButton({ label, onClick }: { label: string; onClick: () => void }
 }
 
 /** One part in a list: its name on top with the remove button, its fields below. */
-function Row({ title, onRemove, removeLabel, children }: { title: string; onRemove: () => void; removeLabel: string; children: ReactNode }) {
+function Row({
+  title,
+  onRemove,
+  removeLabel,
+  children,
+}: {
+  title: string;
+  onRemove: () => void;
+  removeLabel: string;
+  children: ReactNode;
+}) {
   return (
     <Paper withBorder p="sm" radius="sm">
       <Group justify="space-between" mb={4} wrap="nowrap">
@@ -247,7 +251,12 @@ function CylindersSection({ form }: { form: Form }) {
               <TextInput label="Cylinder" required {...form.getInputProps(`cylinders.${i}.label`)} />
             </Grid.Col>
             <Grid.Col span={{ base: 9, sm: 5, lg: 3 }}>
-              <Select label="Role" data={options(CYLINDER_ROLE_LABELS)} allowDeselect={false} {...form.getInputProps(`cylinders.${i}.role`)} />
+              <Select
+                label="Role"
+                data={options(CYLINDER_ROLE_LABELS)}
+                allowDeselect={false}
+                {...form.getInputProps(`cylinders.${i}.role`)}
+              />
             </Grid.Col>
             {(
               [
@@ -287,7 +296,12 @@ function LubricationSection({ form }: { form: Form }) {
         >
           <SimpleGrid cols={{ base: 1, sm: 3 }}>
             <TextInput label="Lubrication point" required {...form.getInputProps(`lubricationPoints.${i}.label`)} />
-            <Select label="Kind" data={options(LUBRICATION_KIND_LABELS)} allowDeselect={false} {...form.getInputProps(`lubricationPoints.${i}.kind`)} />
+            <Select
+              label="Kind"
+              data={options(LUBRICATION_KIND_LABELS)}
+              allowDeselect={false}
+              {...form.getInputProps(`lubricationPoints.${i}.kind`)}
+            />
             <TextInput label="Oil grade" {...form.getInputProps(`lubricationPoints.${i}.oilGrade`)} />
           </SimpleGrid>
         </Row>
@@ -319,8 +333,19 @@ function BearingsSection({ form }: { form: Form }) {
           <Stack gap="sm">
             <SimpleGrid cols={{ base: 1, sm: 3 }}>
               <TextInput label="Bearing" required {...form.getInputProps(`bearings.${i}.label`)} />
-              <Select label="Kind" data={options(BEARING_KIND_LABELS)} allowDeselect={false} {...form.getInputProps(`bearings.${i}.kind`)} />
-              <Select label="Fed by" data={lubOptions} clearable placeholder="None" {...form.getInputProps(`bearings.${i}.lubricationPointLabel`)} />
+              <Select
+                label="Kind"
+                data={options(BEARING_KIND_LABELS)}
+                allowDeselect={false}
+                {...form.getInputProps(`bearings.${i}.kind`)}
+              />
+              <Select
+                label="Fed by"
+                data={lubOptions}
+                clearable
+                placeholder="None"
+                {...form.getInputProps(`bearings.${i}.lubricationPointLabel`)}
+              />
             </SimpleGrid>
             <SimpleGrid cols={{ base: 2, sm: 4 }}>
               <Num form={form} path={`bearings.${i}.journalDiameterIn`} label="Journal diameter (in)" required />
@@ -339,8 +364,14 @@ function PointsSection({ form }: { form: Form }) {
   const rows = form.values.measurementPoints;
   const attachOptions = useMemo(
     () => [
-      { group: 'Bearings', items: [...new Set(form.values.bearings.map((b) => b.label.trim()).filter(Boolean))].map((l) => ({ value: `b:${l}`, label: l })) },
-      { group: 'Cylinders', items: [...new Set(form.values.cylinders.map((c) => c.label.trim()).filter(Boolean))].map((l) => ({ value: `c:${l}`, label: l })) },
+      {
+        group: 'Bearings',
+        items: [...new Set(form.values.bearings.map((b) => b.label.trim()).filter(Boolean))].map((l) => ({ value: `b:${l}`, label: l })),
+      },
+      {
+        group: 'Cylinders',
+        items: [...new Set(form.values.cylinders.map((c) => c.label.trim()).filter(Boolean))].map((l) => ({ value: `c:${l}`, label: l })),
+      },
     ],
     [form.values.bearings, form.values.cylinders],
   );
@@ -349,7 +380,9 @@ function PointsSection({ form }: { form: Form }) {
     <Section
       title="Measurement points and limits"
       subtitle="Each point is read in a round or sent by a logger under its code. Limits are in the point's own unit; rates and rises are differences in that unit."
-      action={<AddButton onClick={() => form.insertListItem('measurementPoints', emptyPoint(nextSequence))}>Add measurement point</AddButton>}
+      action={
+        <AddButton onClick={() => form.insertListItem('measurementPoints', emptyPoint(nextSequence))}>Add measurement point</AddButton>
+      }
     >
       <Caution title="Limits">{LIMITS_CAUTION}</Caution>
       {rows.length === 0 && <Text c="dimmed">No measurement points yet.</Text>}
@@ -368,7 +401,12 @@ function PointsSection({ form }: { form: Form }) {
                     Retired when you save
                   </Badge>
                 </Text>
-                <Button variant="default" h={48} leftSection={<IconArrowBackUp size={18} />} onClick={() => form.setFieldValue(`${base}.retire`, false)}>
+                <Button
+                  variant="default"
+                  h={48}
+                  leftSection={<IconArrowBackUp size={18} />}
+                  onClick={() => form.setFieldValue(`${base}.retire`, false)}
+                >
                   Keep this point
                 </Button>
               </Group>
@@ -387,10 +425,22 @@ function PointsSection({ form }: { form: Form }) {
             <Stack gap="sm">
               <Grid gap="sm">
                 <Grid.Col span={{ base: 4, sm: 2, lg: 1 }}>
-                  <NumberInput label="Order" hideControls inputMode="numeric" allowDecimal={false} required {...form.getInputProps(`${base}.sequence`)} />
+                  <NumberInput
+                    label="Order"
+                    hideControls
+                    inputMode="numeric"
+                    allowDecimal={false}
+                    required
+                    {...form.getInputProps(`${base}.sequence`)}
+                  />
                 </Grid.Col>
                 <Grid.Col span={{ base: 8, sm: 4, lg: 2 }}>
-                  <TextInput label="Code" required styles={{ input: { fontFamily: 'monospace' } }} {...form.getInputProps(`${base}.code`)} />
+                  <TextInput
+                    label="Code"
+                    required
+                    styles={{ input: { fontFamily: 'monospace' } }}
+                    {...form.getInputProps(`${base}.code`)}
+                  />
                 </Grid.Col>
                 <Grid.Col span={{ base: 12, sm: 6, lg: 3 }}>
                   <TextInput label="Point" required {...form.getInputProps(`${base}.label`)} />
@@ -402,7 +452,13 @@ function PointsSection({ form }: { form: Form }) {
                   <Select label="Unit" data={unitOptions} allowDeselect={false} {...form.getInputProps(`${base}.unit`)} />
                 </Grid.Col>
                 <Grid.Col span={{ base: 8, sm: 5, lg: 2 }}>
-                  <Select label="On" data={attachOptions} clearable placeholder="Whole engine" {...form.getInputProps(`${base}.attachedTo`)} />
+                  <Select
+                    label="On"
+                    data={attachOptions}
+                    clearable
+                    placeholder="Whole engine"
+                    {...form.getInputProps(`${base}.attachedTo`)}
+                  />
                 </Grid.Col>
               </Grid>
               <SimpleGrid cols={{ base: 2, sm: 4 }}>

@@ -24,9 +24,12 @@ const engine: EngineDetail = {
   cylinders: [],
   lubricationPoints: [],
   bearings: [],
-  measurementPoints: [{ id: 'p1', code: 'MB1-T', label: 'Main bearing 1', kind: 'bearing_temperature', unit: 'degF', sequence: 1, highLimit: 130 }],
+  measurementPoints: [
+    { id: 'p1', code: 'MB1-T', label: 'Main bearing 1', kind: 'bearing_temperature', unit: 'degF', sequence: 1, highLimit: 130 },
+  ],
 };
-const json = (body: unknown, status = 200) => new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
+const json = (body: unknown, status = 200) =>
+  new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
 
 describe('engine edit page', () => {
   beforeEach(() =>
@@ -44,7 +47,14 @@ describe('engine edit page', () => {
   it('puts the whole engine and shows the server’s 400 messages', async () => {
     const fetchSpy = vi.spyOn(globalThis, 'fetch').mockImplementation(async (input, init) => {
       if (init?.method === 'PUT')
-        return json({ statusCode: 400, error: 'Bad Request', message: ['highHighLimit of MB1-T must be above its highLimit', 'mawpPsig must be positive'] }, 400);
+        return json(
+          {
+            statusCode: 400,
+            error: 'Bad Request',
+            message: ['highHighLimit of MB1-T must be above its highLimit', 'mawpPsig must be positive'],
+          },
+          400,
+        );
       return json(engine);
     });
     render(
@@ -62,7 +72,12 @@ describe('engine edit page', () => {
     const put = fetchSpy.mock.calls.find(([, init]) => init?.method === 'PUT')!;
     expect(String(put[0])).toBe('/api/engines/e1');
     const body = JSON.parse(String(put[1]!.body));
-    expect(body).toMatchObject({ name: 'No. 2 engine', mawpPsig: 150, cylinders: [], measurementPoints: [{ id: 'p1', code: 'MB1-T', highLimit: 130 }] });
+    expect(body).toMatchObject({
+      name: 'No. 2 engine',
+      mawpPsig: 150,
+      cylinders: [],
+      measurementPoints: [{ id: 'p1', code: 'MB1-T', highLimit: 130 }],
+    });
   }, 20_000);
 
   it('does not send when a required field is empty', async () => {

@@ -29,14 +29,21 @@ export default function EnginesPage() {
               {c.getValue()}
             </Anchor>
             <Text fz="sm" c="dimmed">
-              {[ENGINE_TYPE_LABELS[c.row.original.type], c.row.original.yearBuilt && `built ${c.row.original.yearBuilt}`, c.row.original.builder]
+              {[
+                ENGINE_TYPE_LABELS[c.row.original.type],
+                c.row.original.yearBuilt && `built ${c.row.original.yearBuilt}`,
+                c.row.original.builder,
+              ]
                 .filter(Boolean)
                 .join(' · ')}
             </Text>
           </Stack>
         ),
       }),
-      col.accessor('ratedSpeedRpm', { header: 'Rated speed', cell: (c) => <UnitValue value={c.getValue()} unit="rpm" decimals={0} size="sm" /> }),
+      col.accessor('ratedSpeedRpm', {
+        header: 'Rated speed',
+        cell: (c) => <UnitValue value={c.getValue()} unit="rpm" decimals={0} size="sm" />,
+      }),
       col.accessor('runningHours', {
         header: 'Running hours',
         cell: (c) => <UnitValue value={c.getValue()} unit="h" raw decimals={1} size="md" />,

@@ -21,10 +21,29 @@ const engine: EngineDetail = {
   cylinders: [{ id: 'c1', label: 'HP', role: 'high', boreIn: 24, strokeIn: 48, pistonRodIn: 5.5, tailRodIn: 0, clearancePercent: 8 }],
   lubricationPoints: [{ id: 'l1', label: 'MB1 line', kind: 'pressure_line', oilGrade: 'VG 150' }],
   bearings: [
-    { id: 'b1', label: 'MB1', kind: 'main', journalDiameterIn: 16, journalLengthIn: 26, loadSharePercent: 50, radialClearanceIn: null, lubricationPointId: 'l1' },
+    {
+      id: 'b1',
+      label: 'MB1',
+      kind: 'main',
+      journalDiameterIn: 16,
+      journalLengthIn: 26,
+      loadSharePercent: 50,
+      radialClearanceIn: null,
+      lubricationPointId: 'l1',
+    },
   ],
   measurementPoints: [
-    { id: 'p1', code: 'MB1-T', label: 'Main bearing 1', kind: 'bearing_temperature', unit: 'degF', sequence: 2, highLimit: 130, highHighLimit: 145, bearingId: 'b1' },
+    {
+      id: 'p1',
+      code: 'MB1-T',
+      label: 'Main bearing 1',
+      kind: 'bearing_temperature',
+      unit: 'degF',
+      sequence: 2,
+      highLimit: 130,
+      highHighLimit: 145,
+      bearingId: 'b1',
+    },
     { id: 'p2', code: 'THR-P', label: 'Throttle', kind: 'throttle_pressure', unit: 'psig', sequence: 1, cylinderId: 'c1' },
   ],
 };

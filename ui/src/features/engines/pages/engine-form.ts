@@ -100,7 +100,16 @@ export const LIMIT_FIELDS = [
   'deadband',
 ] as const;
 
-export const emptyCylinder = (): CylinderRow => ({ key: rowKey(), label: '', role: 'single', boreIn: '', strokeIn: '', pistonRodIn: '', tailRodIn: 0, clearancePercent: '' });
+export const emptyCylinder = (): CylinderRow => ({
+  key: rowKey(),
+  label: '',
+  role: 'single',
+  boreIn: '',
+  strokeIn: '',
+  pistonRodIn: '',
+  tailRodIn: 0,
+  clearancePercent: '',
+});
 export const emptyLubrication = (): LubricationRow => ({ key: rowKey(), label: '', kind: 'sight_feed', oilGrade: '' });
 export const emptyBearing = (): BearingRow => ({
   key: rowKey(),
@@ -246,7 +255,12 @@ export function toWriteRequest(v: EngineFormValues): EngineWriteRequest {
       tailRodIn: c.tailRodIn === '' ? 0 : c.tailRodIn,
       clearancePercent: req(c.clearancePercent),
     })),
-    lubricationPoints: v.lubricationPoints.map((l) => ({ ...(l.id ? { id: l.id } : {}), label: l.label.trim(), kind: l.kind, oilGrade: l.oilGrade.trim() })),
+    lubricationPoints: v.lubricationPoints.map((l) => ({
+      ...(l.id ? { id: l.id } : {}),
+      label: l.label.trim(),
+      kind: l.kind,
+      oilGrade: l.oilGrade.trim(),
+    })),
     bearings: v.bearings.map((b) => ({
       ...(b.id ? { id: b.id } : {}),
       label: b.label.trim(),
@@ -291,25 +305,37 @@ export function validateEngine(v: EngineFormValues): Record<string, string> {
   };
   set('name', required(v.name));
   for (const f of ['ratedSpeedRpm', 'overspeedRpm', 'mawpPsig', 'preLubeFreshnessMinutes'] as const) set(f, required(v[f]));
-  if (v.ratedSpeedRpm !== '' && v.overspeedRpm !== '' && v.overspeedRpm <= v.ratedSpeedRpm) set('overspeedRpm', 'Must be above the rated speed');
+  if (v.ratedSpeedRpm !== '' && v.overspeedRpm !== '' && v.overspeedRpm <= v.ratedSpeedRpm)
+    set('overspeedRpm', 'Must be above the rated speed');
   const dupes = (labels: string[], path: string) =>
     labels.forEach((l, i) => {
-      if (l.trim() && labels.findIndex((o) => o.trim().toLowerCase() === l.trim().toLowerCase()) !== i) set(`${path}.${i}.label`, 'Used twice');
+      if (l.trim() && labels.findIndex((o) => o.trim().toLowerCase() === l.trim().toLowerCase()) !== i)
+        set(`${path}.${i}.label`, 'Used twice');
     });
   v.cylinders.forEach((c, i) => {
     set(`cylinders.${i}.label`, required(c.label));
     for (const f of ['boreIn', 'strokeIn', 'pistonRodIn', 'clearancePercent'] as const) set(`cylinders.${i}.${f}`, required(c[f]));
   });
-  dupes(v.cylinders.map((c) => c.label), 'cylinders');
+  dupes(
+    v.cylinders.map((c) => c.label),
+    'cylinders',
+  );
   v.lubricationPoints.forEach((l, i) => set(`lubricationPoints.${i}.label`, required(l.label)));
-  dupes(v.lubricationPoints.map((l) => l.label), 'lubricationPoints');
+  dupes(
+    v.lubricationPoints.map((l) => l.label),
+    'lubricationPoints',
+  );
   const lubLabels = new Set(v.lubricationPoints.map((l) => l.label.trim()));
   v.bearings.forEach((b, i) => {
     set(`bearings.${i}.label`, required(b.label));
     for (const f of ['journalDiameterIn', 'journalLengthIn', 'loadSharePercent'] as const) set(`bearings.${i}.${f}`, required(b[f]));
-    if (b.lubricationPointLabel && !lubLabels.has(b.lubricationPointLabel)) set(`bearings.${i}.lubricationPointLabel`, 'No longer in the list: choose again');
+    if (b.lubricationPointLabel && !lubLabels.has(b.lubricationPointLabel))
+      set(`bearings.${i}.lubricationPointLabel`, 'No longer in the list: choose again');
   });
-  dupes(v.bearings.map((b) => b.label), 'bearings');
+  dupes(
+    v.bearings.map((b) => b.label),
+    'bearings',
+  );
   const bearingLabels = new Set(v.bearings.map((b) => `b:${b.label.trim()}`));
   const cylLabels = new Set(v.cylinders.map((c) => `c:${c.label.trim()}`));
   const codes = v.measurementPoints.filter((p) => !p.retire).map((p) => p.code.trim().toUpperCase());
@@ -318,7 +344,8 @@ export function validateEngine(v: EngineFormValues): Record<string, string> {
     set(`measurementPoints.${i}.code`, required(p.code));
     set(`measurementPoints.${i}.label`, required(p.label));
     set(`measurementPoints.${i}.sequence`, required(p.sequence));
-    if (p.code.trim() && codes.filter((c) => c === p.code.trim().toUpperCase()).length > 1) set(`measurementPoints.${i}.code`, 'Used twice');
+    if (p.code.trim() && codes.filter((c) => c === p.code.trim().toUpperCase()).length > 1)
+      set(`measurementPoints.${i}.code`, 'Used twice');
     if (p.attachedTo && !bearingLabels.has(p.attachedTo) && !cylLabels.has(p.attachedTo))
       set(`measurementPoints.${i}.attachedTo`, 'No longer in the list: choose again');
     set(`measurementPoints.${i}.normalHigh`, orderCheck(p.normalLow, p.normalHigh, 'Below the normal low'));

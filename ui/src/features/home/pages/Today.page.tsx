@@ -13,10 +13,15 @@ export default function TodayPage() {
   const session = useSession()!;
   const role = session.user.role;
   const panels = todayPanels.filter((p) => p.roles.includes(role));
-  const shortcuts = navigationFor(role).flatMap((g) => g.items).filter((i) => i.path !== '/');
+  const shortcuts = navigationFor(role)
+    .flatMap((g) => g.items)
+    .filter((i) => i.path !== '/');
   return (
     <Stack>
-      <PageHeader title={`Good day, ${session.user.displayName.split(' ')[0]}`} subtitle={`${ROLE_LABELS[role]} · ${new Date().toLocaleDateString(undefined, { weekday: 'long', day: 'numeric', month: 'long' })}`} />
+      <PageHeader
+        title={`Good day, ${session.user.displayName.split(' ')[0]}`}
+        subtitle={`${ROLE_LABELS[role]} · ${new Date().toLocaleDateString(undefined, { weekday: 'long', day: 'numeric', month: 'long' })}`}
+      />
       {panels.map((P) => (
         <P.Component key={P.key} />
       ))}

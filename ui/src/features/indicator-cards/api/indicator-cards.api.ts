@@ -25,7 +25,8 @@ export const cardKeys = {
   image: (imageId: string) => ['card-images', imageId] as const,
 };
 
-export const cardSetsQuery = (runId: string) => queryOptions({ queryKey: cardKeys.sets(runId), queryFn: () => api<CardSetDto[]>(`/runs/${runId}/card-sets`) });
+export const cardSetsQuery = (runId: string) =>
+  queryOptions({ queryKey: cardKeys.sets(runId), queryFn: () => api<CardSetDto[]>(`/runs/${runId}/card-sets`) });
 export const brakeFiguresQuery = (runId: string) =>
   queryOptions({ queryKey: cardKeys.brakeFigures(runId), queryFn: () => api<BrakeFigureDto[]>(`/runs/${runId}/brake-figures`) });
 
@@ -43,12 +44,18 @@ export const cardImageQuery = (imageId: string) =>
 
 export const previewCardSet = (runId: string, req: CreateCardSetRequest, signal?: AbortSignal) =>
   api<CardSetPreviewDto>(`/runs/${runId}/card-sets/preview`, { body: req, signal });
-export const calibrateTrace = (req: TraceCalibrationRequest, signal?: AbortSignal) => api<TraceCalibrationResponse>('/calculations/indicator-trace', { body: req, signal });
-export const calculateIndicatedPower = (req: IndicatedPowerRequest) => api<IndicatedPowerResponse>('/calculations/indicated-power', { body: req });
+export const calibrateTrace = (req: TraceCalibrationRequest, signal?: AbortSignal) =>
+  api<TraceCalibrationResponse>('/calculations/indicator-trace', { body: req, signal });
+export const calculateIndicatedPower = (req: IndicatedPowerRequest) =>
+  api<IndicatedPowerResponse>('/calculations/indicated-power', { body: req });
 
 /** Sends the image file itself as the body; the server checks it by its content. */
 export const uploadCardImage = (runId: string, file: Blob) =>
-  api<CardImageDto>(`/runs/${runId}/card-images`, { method: 'POST', raw: file, headers: { 'content-type': file.type || 'application/octet-stream' } });
+  api<CardImageDto>(`/runs/${runId}/card-images`, {
+    method: 'POST',
+    raw: file,
+    headers: { 'content-type': file.type || 'application/octet-stream' },
+  });
 
 /** Puts a set into the run's list (new or changed), keeping the list in time order. */
 export function upsertSet(list: CardSetDto[] | undefined, set: CardSetDto): CardSetDto[] | undefined {
@@ -69,22 +76,32 @@ export function applySet(qc: QueryClient, set: CardSetDto) {
 
 export function useCreateCardSet(runId: string) {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: (req: CreateCardSetRequest) => api<CardSetDto>(`/runs/${runId}/card-sets`, { body: req }), onSuccess: (s) => applySet(qc, s) });
+  return useMutation({
+    mutationFn: (req: CreateCardSetRequest) => api<CardSetDto>(`/runs/${runId}/card-sets`, { body: req }),
+    onSuccess: (s) => applySet(qc, s),
+  });
 }
 export function useAddCard(setId: string) {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: (req: CardInput) => api<CardSetDto>(`/card-sets/${setId}/cards`, { body: req }), onSuccess: (s) => applySet(qc, s) });
+  return useMutation({
+    mutationFn: (req: CardInput) => api<CardSetDto>(`/card-sets/${setId}/cards`, { body: req }),
+    onSuccess: (s) => applySet(qc, s),
+  });
 }
 export function useAmendCard() {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: ({ cardId, req }: { cardId: string; req: AmendCardRequest }) => api<CardSetDto>(`/cards/${cardId}/amendments`, { body: req }),
+    mutationFn: ({ cardId, req }: { cardId: string; req: AmendCardRequest }) =>
+      api<CardSetDto>(`/cards/${cardId}/amendments`, { body: req }),
     onSuccess: (s) => applySet(qc, s),
   });
 }
 export function useAmendCardSet(setId: string) {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: (req: AmendCardSetRequest) => api<CardSetDto>(`/card-sets/${setId}/amendments`, { body: req }), onSuccess: (s) => applySet(qc, s) });
+  return useMutation({
+    mutationFn: (req: AmendCardSetRequest) => api<CardSetDto>(`/card-sets/${setId}/amendments`, { body: req }),
+    onSuccess: (s) => applySet(qc, s),
+  });
 }
 export function useAddBrakeFigure(runId: string) {
   const qc = useQueryClient();
@@ -99,7 +116,8 @@ export function useAddBrakeFigure(runId: string) {
 export function useAmendBrakeFigure(runId: string) {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: ({ id, req }: { id: string; req: AmendBrakeFigureRequest }) => api<BrakeFigureDto>(`/brake-figures/${id}/amendments`, { body: req }),
+    mutationFn: ({ id, req }: { id: string; req: AmendBrakeFigureRequest }) =>
+      api<BrakeFigureDto>(`/brake-figures/${id}/amendments`, { body: req }),
     onSuccess: (f) => {
       qc.setQueryData<BrakeFigureDto[]>(cardKeys.brakeFigures(runId), (old) => upsertBrakeFigure(old, f));
       qc.invalidateQueries({ queryKey: cardKeys.sets(runId) });

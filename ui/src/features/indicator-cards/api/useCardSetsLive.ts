@@ -28,7 +28,8 @@ export function useCardSetsLive(runId: string) {
     const onRecord = (e: RunRecordEvent) => {
       if (e.runId !== runId || !e.data) return;
       if (e.kind === CARD_RECORD_KINDS.cardSet) applySet(qc, e.data as CardSetDto);
-      if (e.kind === CARD_RECORD_KINDS.brakeFigure) qc.setQueryData<BrakeFigureDto[]>(cardKeys.brakeFigures(runId), (old) => upsertBrakeFigure(old, e.data as BrakeFigureDto));
+      if (e.kind === CARD_RECORD_KINDS.brakeFigure)
+        qc.setQueryData<BrakeFigureDto[]>(cardKeys.brakeFigures(runId), (old) => upsertBrakeFigure(old, e.data as BrakeFigureDto));
     };
     // Events missed while disconnected: fetch again once back.
     const onConnect = () => void qc.invalidateQueries({ queryKey: cardKeys.sets(runId) });

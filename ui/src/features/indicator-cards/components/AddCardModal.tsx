@@ -36,7 +36,12 @@ export function AddCardModal({ set, missing, onClose }: { set: CardSetDto; missi
           <Button variant="default" size="lg" onClick={onClose}>
             Cancel
           </Button>
-          <Button size="lg" disabled={!figures} loading={add.isPending} onClick={() => figures && add.mutate({ ...figures, cylinderId: missing.cylinderId, end: missing.end }, { onSuccess: onClose })}>
+          <Button
+            size="lg"
+            disabled={!figures}
+            loading={add.isPending}
+            onClick={() => figures && add.mutate({ ...figures, cylinderId: missing.cylinderId, end: missing.end }, { onSuccess: onClose })}
+          >
             Add card
           </Button>
         </Group>

@@ -66,10 +66,17 @@ export function AmendCardModal({ set, card, onClose }: { set: CardSetDto; card: 
   const save = () => figures && amend.mutate({ cardId: card.id, req: { ...figures, reason: reason.trim() } }, { onSuccess: onClose });
 
   return (
-    <Modal opened onClose={onClose} title={`Amend the ${cardTitle(card)} card`} size="xl" fullScreen={typeof window !== 'undefined' && window.innerWidth < 900}>
+    <Modal
+      opened
+      onClose={onClose}
+      title={`Amend the ${cardTitle(card)} card`}
+      size="xl"
+      fullScreen={typeof window !== 'undefined' && window.innerWidth < 900}
+    >
       <Stack gap="md">
         <Text fz="sm" c="dimmed">
-          Recorded now: MEP {fmt(card.meanEffectivePressurePsi, 1)} psi. The amendment keeps this figure in the record beside the new one, with your name, the time and your reason.
+          Recorded now: MEP {fmt(card.meanEffectivePressurePsi, 1)} psi. The amendment keeps this figure in the record beside the new one,
+          with your name, the time and your reason.
         </Text>
         <CardEditor
           runId={set.runId}
@@ -80,7 +87,15 @@ export function AmendCardModal({ set, card, onClose }: { set: CardSetDto; card: 
           figures={previewCard ? { ...previewCard, indicatedHorsepower: previewEnd?.indicatedHorsepower ?? null } : null}
         />
         {previewError && <Alert color="amber">{previewError}</Alert>}
-        <Textarea label="Why is it amended?" required size="lg" value={reason} onChange={(e) => setReason(e.currentTarget.value)} autosize minRows={2} />
+        <Textarea
+          label="Why is it amended?"
+          required
+          size="lg"
+          value={reason}
+          onChange={(e) => setReason(e.currentTarget.value)}
+          autosize
+          minRows={2}
+        />
         {amend.error && <Alert color="signal">{errorText(amend.error)}</Alert>}
         <Group justify="flex-end">
           <Button variant="default" size="lg" onClick={onClose}>

@@ -34,7 +34,8 @@ export function AmendSetModal({ set, opened, onClose }: { set: CardSetDto; opene
   const i = initial();
   const req: AmendCardSetRequest = { reason: reason.trim() };
   if (f.takenAt !== i.takenAt) req.takenAt = new Date(f.takenAt).toISOString();
-  for (const k of ['speedRpm', 'cutOffPercent', 'throttlePressurePsig', 'receiverPressurePsig', 'vacuumInHg'] as const) if (f[k] !== i[k]) req[k] = f[k] === '' ? null : Number(f[k]);
+  for (const k of ['speedRpm', 'cutOffPercent', 'throttlePressurePsig', 'receiverPressurePsig', 'vacuumInHg'] as const)
+    if (f[k] !== i[k]) req[k] = f[k] === '' ? null : Number(f[k]);
   if (f.notes !== i.notes) req.notes = f.notes;
   const changed = Object.keys(req).length > 1;
   const field = (k: 'speedRpm' | 'cutOffPercent' | 'throttlePressurePsig' | 'receiverPressurePsig' | 'vacuumInHg') => ({
@@ -49,10 +50,17 @@ export function AmendSetModal({ set, opened, onClose }: { set: CardSetDto; opene
     <Modal opened={opened} onClose={onClose} title="Amend the set’s figures" size="lg">
       <Stack>
         <Text fz="sm" c="dimmed">
-          Only what you change is amended; the earlier figures stay in the record with your name, the time and your reason. An emptied speed or pressure is taken from the nearest reading again.
+          Only what you change is amended; the earlier figures stay in the record with your name, the time and your reason. An emptied speed
+          or pressure is taken from the nearest reading again.
         </Text>
         <SimpleGrid cols={2}>
-          <TextInput type="datetime-local" label="Taken at" size="lg" value={f.takenAt} onChange={(e) => setF((x) => ({ ...x, takenAt: e.currentTarget.value }))} />
+          <TextInput
+            type="datetime-local"
+            label="Taken at"
+            size="lg"
+            value={f.takenAt}
+            onChange={(e) => setF((x) => ({ ...x, takenAt: e.currentTarget.value }))}
+          />
           <NumberInput label="Speed, rpm" {...field('speedRpm')} />
           <NumberInput label="Cut-off, %" {...field('cutOffPercent')} />
           <NumberInput label="Throttle, psig" {...field('throttlePressurePsig')} />
@@ -60,13 +68,26 @@ export function AmendSetModal({ set, opened, onClose }: { set: CardSetDto; opene
           <NumberInput label="Vacuum, inHg" {...field('vacuumInHg')} />
         </SimpleGrid>
         <Textarea label="Notes" value={f.notes} onChange={(e) => setF((x) => ({ ...x, notes: e.currentTarget.value }))} autosize />
-        <Textarea label="Why is it amended?" required size="lg" value={reason} onChange={(e) => setReason(e.currentTarget.value)} autosize minRows={2} />
+        <Textarea
+          label="Why is it amended?"
+          required
+          size="lg"
+          value={reason}
+          onChange={(e) => setReason(e.currentTarget.value)}
+          autosize
+          minRows={2}
+        />
         {amend.error && <Alert color="signal">{errorText(amend.error)}</Alert>}
         <Group justify="flex-end">
           <Button variant="default" size="lg" onClick={onClose}>
             Cancel
           </Button>
-          <Button size="lg" disabled={!changed || reason.trim().length < 3} loading={amend.isPending} onClick={() => amend.mutate(req, { onSuccess: onClose })}>
+          <Button
+            size="lg"
+            disabled={!changed || reason.trim().length < 3}
+            loading={amend.isPending}
+            onClick={() => amend.mutate(req, { onSuccess: onClose })}
+          >
             Save amendment
           </Button>
         </Group>

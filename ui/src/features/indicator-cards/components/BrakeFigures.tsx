@@ -1,7 +1,13 @@
 import { useState } from 'react';
 import { Alert, Button, Group, NumberInput, Paper, SegmentedControl, SimpleGrid, Stack, Text, TextInput, Title } from '@mantine/core';
 import { IconPlus } from '@tabler/icons-react';
-import { BRAKE_METHOD_LABELS, BRAKE_METHODS, type BrakeFigureDto, type BrakeFigureInput, type BrakeMethod } from '@crankjournal/shared-types';
+import {
+  BRAKE_METHOD_LABELS,
+  BRAKE_METHODS,
+  type BrakeFigureDto,
+  type BrakeFigureInput,
+  type BrakeMethod,
+} from '@crankjournal/shared-types';
 import { errorText } from '../../../api/http';
 import { Caution } from '../../../components/Caution/Caution';
 import { useAddBrakeFigure } from '../api/indicator-cards.api';
@@ -21,7 +27,14 @@ export function BrakeFigures({ runId, figures, canWrite }: { runId: string; figu
   const [note, setNote] = useState('');
   const add = useAddBrakeFigure(runId);
   const field = (k: string, label: string) => (
-    <NumberInput label={label} size="lg" hideControls inputMode="decimal" value={v[k] ?? ''} onChange={(x) => setV((o) => ({ ...o, [k]: x === '' ? '' : Number(x) }))} />
+    <NumberInput
+      label={label}
+      size="lg"
+      hideControls
+      inputMode="decimal"
+      value={v[k] ?? ''}
+      onChange={(x) => setV((o) => ({ ...o, [k]: x === '' ? '' : Number(x) }))}
+    />
   );
   const n = (k: string) => (v[k] === '' || v[k] === undefined ? null : Number(v[k]));
   const submit = () => {
@@ -36,7 +49,13 @@ export function BrakeFigures({ runId, figures, canWrite }: { runId: string; figu
       speedRpm: n('speedRpm'),
       note: note.trim() || null,
     };
-    add.mutate(req, { onSuccess: () => { setOpen(false); setV({}); setNote(''); } });
+    add.mutate(req, {
+      onSuccess: () => {
+        setOpen(false);
+        setV({});
+        setNote('');
+      },
+    });
   };
   return (
     <Paper withBorder p="md" radius="md" data-testid="brake-figures">
@@ -59,7 +78,8 @@ export function BrakeFigures({ runId, figures, canWrite }: { runId: string; figu
         {figures.map((f) => (
           <Stack key={f.id} gap={2}>
             <Text className="cj-num">
-              {whenShort(f.measuredAt)}: <strong>{fmt(f.brakeHorsepower, 0)} bhp</strong> ({fmt(f.brakeKilowatts, 0)} kW) — {BRAKE_METHOD_LABELS[f.method].toLowerCase()}
+              {whenShort(f.measuredAt)}: <strong>{fmt(f.brakeHorsepower, 0)} bhp</strong> ({fmt(f.brakeKilowatts, 0)} kW) —{' '}
+              {BRAKE_METHOD_LABELS[f.method].toLowerCase()}
               {f.torqueLbfFt !== null ? `, ${fmt(f.torqueLbfFt, 0)} lbf·ft` : ''}
               {f.speedRpm !== null ? ` at ${fmt(f.speedRpm, 1)} rpm` : ''}
             </Text>
@@ -75,9 +95,19 @@ export function BrakeFigures({ runId, figures, canWrite }: { runId: string; figu
       {open && (
         <Stack mt="sm">
           <Caution title="Load tests">{BRAKE_CAUTION}</Caution>
-          <SegmentedControl data={BRAKE_METHODS.map((m) => ({ value: m, label: BRAKE_METHOD_LABELS[m] }))} value={method} onChange={(m) => setMethod(m as BrakeMethod)} />
+          <SegmentedControl
+            data={BRAKE_METHODS.map((m) => ({ value: m, label: BRAKE_METHOD_LABELS[m] }))}
+            value={method}
+            onChange={(m) => setMethod(m as BrakeMethod)}
+          />
           <SimpleGrid cols={{ base: 2, sm: 3 }}>
-            <TextInput type="datetime-local" label="Measured at" size="lg" value={measuredAt} onChange={(e) => setMeasuredAt(e.currentTarget.value)} />
+            <TextInput
+              type="datetime-local"
+              label="Measured at"
+              size="lg"
+              value={measuredAt}
+              onChange={(e) => setMeasuredAt(e.currentTarget.value)}
+            />
             {method === 'direct' && field('brakeHorsepower', 'Output, hp')}
             {method === 'rope_brake' && field('netBrakeLoadLbf', 'Net brake load, lbf')}
             {method === 'rope_brake' && field('drumDiameterFt', 'Drum diameter, ft')}

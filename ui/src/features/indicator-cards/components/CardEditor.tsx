@@ -1,6 +1,21 @@
 import { useEffect, useState } from 'react';
 import { useQuery } from '@tanstack/react-query';
-import { Alert, Button, Collapse, FileButton, Group, Loader, NumberInput, Paper, SegmentedControl, SimpleGrid, Stack, Text, TextInput, Title } from '@mantine/core';
+import {
+  Alert,
+  Button,
+  Collapse,
+  FileButton,
+  Group,
+  Loader,
+  NumberInput,
+  Paper,
+  SegmentedControl,
+  SimpleGrid,
+  Stack,
+  Text,
+  TextInput,
+  Title,
+} from '@mantine/core';
 import { IconChevronDown, IconChevronUp, IconPhotoUp } from '@tabler/icons-react';
 import { errorText } from '../../../api/http';
 import { cardImageQuery, uploadCardImage } from '../api/indicator-cards.api';
@@ -52,11 +67,22 @@ export interface CardEditorProps {
 
 /** One card: how its mean height is given (image trace, planimeter, mid-ordinates or MEP) and its figures. */
 export function CardEditor({ runId, title, draft, onChange, figures, allowNone = true, testId }: CardEditorProps) {
-  const [more, setMore] = useState(draft.cutOffPercent !== '' || draft.compressionPercent !== '' || draft.admissionPressurePsig !== '' || !!draft.note);
+  const [more, setMore] = useState(
+    draft.cutOffPercent !== '' || draft.compressionPercent !== '' || draft.admissionPressurePsig !== '' || !!draft.note,
+  );
   const [uploading, setUploading] = useState(false);
   const [uploadError, setUploadError] = useState<string | null>(null);
   const set = (patch: Partial<CardDraft>) => onChange({ ...draft, ...patch });
-  const numberProps = (field: 'springPsiPerIn' | 'lengthIn' | 'areaSqIn' | 'meanEffectivePressurePsi' | 'cutOffPercent' | 'compressionPercent' | 'admissionPressurePsig') => ({
+  const numberProps = (
+    field:
+      | 'springPsiPerIn'
+      | 'lengthIn'
+      | 'areaSqIn'
+      | 'meanEffectivePressurePsi'
+      | 'cutOffPercent'
+      | 'compressionPercent'
+      | 'admissionPressurePsig',
+  ) => ({
     value: draft[field],
     onChange: (v: string | number) => set({ [field]: v === '' ? '' : Number(v) } as Partial<CardDraft>),
     inputMode: 'decimal' as const,
@@ -106,10 +132,18 @@ export function CardEditor({ runId, title, draft, onChange, figures, allowNone =
         {draft.method !== 'none' && (
           <>
             <SimpleGrid cols={{ base: 2, sm: 3 }} spacing="sm">
-              {draft.method !== 'mep' && <NumberInput label="Spring, psi per inch" placeholder="e.g. 80" min={0} {...numberProps('springPsiPerIn')} />}
-              {(draft.method === 'planimeter' || draft.method === 'trace') && <NumberInput label="Card length, in" placeholder="e.g. 3.5" min={0} decimalScale={3} {...numberProps('lengthIn')} />}
-              {draft.method === 'planimeter' && <NumberInput label="Planimeter area, in²" min={0} decimalScale={3} {...numberProps('areaSqIn')} />}
-              {draft.method === 'mep' && <NumberInput label="Mean effective pressure, psi" decimalScale={2} {...numberProps('meanEffectivePressurePsi')} />}
+              {draft.method !== 'mep' && (
+                <NumberInput label="Spring, psi per inch" placeholder="e.g. 80" min={0} {...numberProps('springPsiPerIn')} />
+              )}
+              {(draft.method === 'planimeter' || draft.method === 'trace') && (
+                <NumberInput label="Card length, in" placeholder="e.g. 3.5" min={0} decimalScale={3} {...numberProps('lengthIn')} />
+              )}
+              {draft.method === 'planimeter' && (
+                <NumberInput label="Planimeter area, in²" min={0} decimalScale={3} {...numberProps('areaSqIn')} />
+              )}
+              {draft.method === 'mep' && (
+                <NumberInput label="Mean effective pressure, psi" decimalScale={2} {...numberProps('meanEffectivePressurePsi')} />
+              )}
             </SimpleGrid>
             {draft.method === 'ordinates' && (
               <TextInput
@@ -120,7 +154,11 @@ export function CardEditor({ runId, title, draft, onChange, figures, allowNone =
                 value={draft.ordinatesText}
                 onChange={(e) => set({ ordinatesText: e.currentTarget.value })}
                 error={ordinates === null ? 'Only numbers, please.' : undefined}
-                rightSection={<Text fz="xs" c="dimmed">{ordinates ? ordinates.length : 0}</Text>}
+                rightSection={
+                  <Text fz="xs" c="dimmed">
+                    {ordinates ? ordinates.length : 0}
+                  </Text>
+                }
               />
             )}
             {draft.method === 'trace' && (
@@ -128,7 +166,13 @@ export function CardEditor({ runId, title, draft, onChange, figures, allowNone =
                 <Group gap="sm">
                   <FileButton onChange={(f) => void onFile(f)} accept="image/png,image/jpeg,image/webp">
                     {(props) => (
-                      <Button {...props} variant={draft.imageId ? 'default' : 'filled'} leftSection={<IconPhotoUp />} loading={uploading} h={52}>
+                      <Button
+                        {...props}
+                        variant={draft.imageId ? 'default' : 'filled'}
+                        leftSection={<IconPhotoUp />}
+                        loading={uploading}
+                        h={52}
+                      >
                         {draft.imageId ? 'Use another photo' : 'Upload card photo or scan'}
                       </Button>
                     )}
@@ -143,11 +187,25 @@ export function CardEditor({ runId, title, draft, onChange, figures, allowNone =
                   </Alert>
                 )}
                 {draft.imageId && !image && <Loader size="sm" />}
-                {image && <CardTracer imageUrl={image.url} widthPx={image.widthPx} heightPx={image.heightPx} value={draft.trace} onChange={(trace) => set({ trace })} />}
+                {image && (
+                  <CardTracer
+                    imageUrl={image.url}
+                    widthPx={image.widthPx}
+                    heightPx={image.heightPx}
+                    value={draft.trace}
+                    onChange={(trace) => set({ trace })}
+                  />
+                )}
               </Stack>
             )}
 
-            <Button variant="subtle" size="compact-md" onClick={() => setMore((m) => !m)} rightSection={more ? <IconChevronUp size={16} /> : <IconChevronDown size={16} />} w="fit-content">
+            <Button
+              variant="subtle"
+              size="compact-md"
+              onClick={() => setMore((m) => !m)}
+              rightSection={more ? <IconChevronUp size={16} /> : <IconChevronDown size={16} />}
+              w="fit-content"
+            >
               Cut-off, compression and notes for this card
             </Button>
             <Collapse expanded={more}>

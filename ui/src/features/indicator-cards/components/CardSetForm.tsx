@@ -42,7 +42,9 @@ const num = (v: Num) => (v === '' ? null : Number(v));
 
 /** The request for the API: only the cards that are complete. */
 export function toRequest(d: SetDraft, cylinders: FormCylinder[]): CreateCardSetRequest {
-  const cards = cylinders.flatMap((c) => ENDS.map((end) => draftToInput(d.cards[cardKey(c.id, end)], c.id, end)).filter((x): x is NonNullable<typeof x> => !!x));
+  const cards = cylinders.flatMap((c) =>
+    ENDS.map((end) => draftToInput(d.cards[cardKey(c.id, end)], c.id, end)).filter((x): x is NonNullable<typeof x> => !!x),
+  );
   const takenAt = new Date(d.takenAt);
   return {
     takenAt: Number.isNaN(takenAt.getTime()) ? new Date().toISOString() : takenAt.toISOString(),
@@ -64,11 +66,32 @@ export function newSetDraft(cylinders: FormCylinder[], previous?: CardSetDto): S
       const last = previous?.cards.find((k) => k.cylinderLabel === c.label && k.end === end);
       cards[cardKey(c.id, end)] = emptyCard({ springPsiPerIn: last?.springPsiPerIn ?? '', lengthIn: last?.lengthIn ?? '' });
     }
-  return { takenAt: localNow(), speedRpm: '', cutOffPercent: previous?.cutOffPercent ?? '', throttlePressurePsig: '', receiverPressurePsig: '', vacuumInHg: '', notes: '', cards };
+  return {
+    takenAt: localNow(),
+    speedRpm: '',
+    cutOffPercent: previous?.cutOffPercent ?? '',
+    throttlePressurePsig: '',
+    receiverPressurePsig: '',
+    vacuumInHg: '',
+    notes: '',
+    cards,
+  };
 }
 
 /** Taking a card set: the moment, speed and pressures (or the nearest readings), and a card per cylinder end, worked out as they are entered. */
-export function CardSetForm({ runId, cylinders, previous, onSaved, onCancel }: { runId: string; cylinders: FormCylinder[]; previous?: CardSetDto; onSaved: (s: CardSetDto) => void; onCancel: () => void }) {
+export function CardSetForm({
+  runId,
+  cylinders,
+  previous,
+  onSaved,
+  onCancel,
+}: {
+  runId: string;
+  cylinders: FormCylinder[];
+  previous?: CardSetDto;
+  onSaved: (s: CardSetDto) => void;
+  onCancel: () => void;
+}) {
   const [draft, setDraft] = useState<SetDraft>(() => newSetDraft(cylinders, previous));
   const [preview, setPreview] = useState<CardSetPreviewDto | null>(null);
   const [previewError, setPreviewError] = useState<string | null>(null);
@@ -130,19 +153,51 @@ export function CardSetForm({ runId, cylinders, previous, onSaved, onCancel }: {
           The moment
         </Title>
         <SimpleGrid cols={{ base: 2, sm: 3 }} spacing="sm">
-          <TextInput type="datetime-local" label="Taken at" size="lg" value={draft.takenAt} onChange={(e) => setDraft((d) => ({ ...d, takenAt: e.currentTarget.value }))} />
+          <TextInput
+            type="datetime-local"
+            label="Taken at"
+            size="lg"
+            value={draft.takenAt}
+            onChange={(e) => setDraft((d) => ({ ...d, takenAt: e.currentTarget.value }))}
+          />
           <NumberInput
             label="Speed, rpm"
             placeholder="nearest reading"
-            description={preview?.speedSource === 'reading' ? `From the reading of ${new Date(preview.speedReadingAt!).toLocaleTimeString(undefined, { hour: '2-digit', minute: '2-digit' })}: ${fmt(preview.speedRpm, 1)} rpm` : 'Leave empty to use the nearest speed reading'}
+            description={
+              preview?.speedSource === 'reading'
+                ? `From the reading of ${new Date(preview.speedReadingAt!).toLocaleTimeString(undefined, { hour: '2-digit', minute: '2-digit' })}: ${fmt(preview.speedRpm, 1)} rpm`
+                : 'Leave empty to use the nearest speed reading'
+            }
             {...numberField('speedRpm')}
           />
           <NumberInput label="Cut-off, % of stroke" placeholder="if known" min={1} max={100} {...numberField('cutOffPercent')} />
-          <NumberInput label="Throttle, psig" placeholder="nearest reading" description={preview?.throttleSource === 'reading' ? `Reading: ${fmt(preview.throttlePressurePsig, 1)} psig` : undefined} {...numberField('throttlePressurePsig')} />
-          <NumberInput label="Receiver, psig" placeholder="nearest reading" description={preview?.receiverSource === 'reading' ? `Reading: ${fmt(preview.receiverPressurePsig, 1)} psig` : undefined} {...numberField('receiverPressurePsig')} />
-          <NumberInput label="Vacuum, inHg" placeholder="nearest reading" description={preview?.vacuumSource === 'reading' ? `Reading: ${fmt(preview.vacuumInHg, 1)} inHg` : undefined} {...numberField('vacuumInHg')} />
+          <NumberInput
+            label="Throttle, psig"
+            placeholder="nearest reading"
+            description={preview?.throttleSource === 'reading' ? `Reading: ${fmt(preview.throttlePressurePsig, 1)} psig` : undefined}
+            {...numberField('throttlePressurePsig')}
+          />
+          <NumberInput
+            label="Receiver, psig"
+            placeholder="nearest reading"
+            description={preview?.receiverSource === 'reading' ? `Reading: ${fmt(preview.receiverPressurePsig, 1)} psig` : undefined}
+            {...numberField('receiverPressurePsig')}
+          />
+          <NumberInput
+            label="Vacuum, inHg"
+            placeholder="nearest reading"
+            description={preview?.vacuumSource === 'reading' ? `Reading: ${fmt(preview.vacuumInHg, 1)} inHg` : undefined}
+            {...numberField('vacuumInHg')}
+          />
         </SimpleGrid>
-        <Textarea mt="sm" label="Notes" autosize minRows={1} value={draft.notes} onChange={(e) => setDraft((d) => ({ ...d, notes: e.currentTarget.value }))} />
+        <Textarea
+          mt="sm"
+          label="Notes"
+          autosize
+          minRows={1}
+          value={draft.notes}
+          onChange={(e) => setDraft((d) => ({ ...d, notes: e.currentTarget.value }))}
+        />
       </Paper>
 
       {cylinders.map((c) =>
@@ -207,7 +262,14 @@ export function CardSetForm({ runId, cylinders, previous, onSaved, onCancel }: {
         <Button variant="default" size="lg" h={56} onClick={onCancel}>
           Cancel
         </Button>
-        <Button size="lg" h={56} leftSection={<IconDeviceFloppy />} onClick={save} loading={create.isPending} disabled={request.cards.length === 0 || incomplete.length > 0}>
+        <Button
+          size="lg"
+          h={56}
+          leftSection={<IconDeviceFloppy />}
+          onClick={save}
+          loading={create.isPending}
+          disabled={request.cards.length === 0 || incomplete.length > 0}
+        >
           Save card set
         </Button>
       </Group>

@@ -18,7 +18,9 @@ export function CardSetSummary({ set }: { set: CardSetDto }) {
             <Table.Th ta="right">ihp</Table.Th>
             <Table.Th ta="right">Ideal MEP, psi</Table.Th>
             <Table.Th ta="right">Diagram factor</Table.Th>
-            <Table.Th ta="right" title="Steam accounted for by this end’s diagram, per horsepower-hour of this end">Steam, lb/ihp·h</Table.Th>
+            <Table.Th ta="right" title="Steam accounted for by this end’s diagram, per horsepower-hour of this end">
+              Steam, lb/ihp·h
+            </Table.Th>
           </Table.Tr>
         </Table.Thead>
         <Table.Tbody>

@@ -24,7 +24,8 @@ function Stat({ label, children, testId }: { label: string; children: ReactNode;
   );
 }
 
-const source = (s: 'entered' | 'reading' | null, at?: string | null) => (s === 'reading' ? (at ? ` (reading ${timeOnly(at)})` : ' (reading)') : s === 'entered' ? ' (entered)' : '');
+const source = (s: 'entered' | 'reading' | null, at?: string | null) =>
+  s === 'reading' ? (at ? ` (reading ${timeOnly(at)})` : ' (reading)') : s === 'entered' ? ' (entered)' : '';
 
 /** One card set: its moment and figures, the summary table, each card as a p–V diagram over its ideal card, and the record of amendments. */
 export function CardSetView({ set, canWrite, defaultOpen }: { set: CardSetDto; canWrite: boolean; defaultOpen: boolean }) {
@@ -91,13 +92,17 @@ export function CardSetView({ set, canWrite, defaultOpen }: { set: CardSetDto; c
         </Stat>
         <Stat label="Vacuum">{fmt(set.vacuumInHg, 1)} inHg</Stat>
         <Stat label="Referred MEP" testId="stat-referred">
-          {r.referredMeanEffectivePressurePsi !== null ? `${fmt(r.referredMeanEffectivePressurePsi, 1)} psi on ${r.referredToCylinderLabel}` : '—'}
+          {r.referredMeanEffectivePressurePsi !== null
+            ? `${fmt(r.referredMeanEffectivePressurePsi, 1)} psi on ${r.referredToCylinderLabel}`
+            : '—'}
         </Stat>
         <Stat label="Receiver drop">{fmt(r.receiverDropPsi, 1)} psi</Stat>
         <Stat label="Mechanical efficiency" testId="stat-mech-eff">
           {r.brake ? `${pct(r.brake.mechanicalEfficiency, 1)} (${fmt(r.brake.brakeHorsepower, 0)} bhp)` : '—'}
         </Stat>
-        <Stat label="Steam accounted for">{r.steamAccountedForLbPerIhpHour !== null ? `${fmt(r.steamAccountedForLbPerIhpHour, 1)} lb/ihp·h` : '—'}</Stat>
+        <Stat label="Steam accounted for">
+          {r.steamAccountedForLbPerIhpHour !== null ? `${fmt(r.steamAccountedForLbPerIhpHour, 1)} lb/ihp·h` : '—'}
+        </Stat>
         {r.cylinders.map((c) => (
           <Stat key={c.cylinderId} label={`${c.label} share`}>
             {pct(c.workShare)}
@@ -105,7 +110,12 @@ export function CardSetView({ set, canWrite, defaultOpen }: { set: CardSetDto; c
         ))}
       </SimpleGrid>
 
-      <Button mt="sm" variant="subtle" onClick={() => setOpen((o) => !o)} rightSection={open ? <IconChevronUp size={16} /> : <IconChevronDown size={16} />}>
+      <Button
+        mt="sm"
+        variant="subtle"
+        onClick={() => setOpen((o) => !o)}
+        rightSection={open ? <IconChevronUp size={16} /> : <IconChevronDown size={16} />}
+      >
         {open ? 'Hide the cards' : 'Show the cards and the summary'}
       </Button>
       <Collapse expanded={open}>
@@ -118,7 +128,8 @@ export function CardSetView({ set, canWrite, defaultOpen }: { set: CardSetDto; c
                 <Box key={c.id} data-testid="card-panel">
                   <Group justify="space-between" mb={4} wrap="wrap">
                     <Text fw={600}>
-                      {cardTitle(c)} · MEP {fmt(c.meanEffectivePressurePsi, 1)} psi{e?.diagramFactor != null ? ` · diagram factor ${fmt(e.diagramFactor, 2)}` : ''}
+                      {cardTitle(c)} · MEP {fmt(c.meanEffectivePressurePsi, 1)} psi
+                      {e?.diagramFactor != null ? ` · diagram factor ${fmt(e.diagramFactor, 2)}` : ''}
                     </Text>
                     <Group gap={6}>
                       {c.trace && (
@@ -133,7 +144,11 @@ export function CardSetView({ set, canWrite, defaultOpen }: { set: CardSetDto; c
                       )}
                     </Group>
                   </Group>
-                  <PvDiagram outline={c.outline} ideal={e?.ideal?.outline ?? null} label={`${cardTitle(c)}: pressure against volume${e?.ideal ? ', with the ideal card dashed' : ''}`} />
+                  <PvDiagram
+                    outline={c.outline}
+                    ideal={e?.ideal?.outline ?? null}
+                    label={`${cardTitle(c)}: pressure against volume${e?.ideal ? ', with the ideal card dashed' : ''}`}
+                  />
                   {e?.idealMissing && (
                     <Text fz="xs" c="dimmed">
                       No ideal card: {e.idealMissing}.
@@ -147,7 +162,12 @@ export function CardSetView({ set, canWrite, defaultOpen }: { set: CardSetDto; c
           {canWrite && r.missingEnds.length > 0 && (
             <Group gap="sm">
               {r.missingEnds.map((m) => (
-                <Button key={`${m.cylinderId}-${m.end}`} variant="default" leftSection={<IconPlus size={16} />} onClick={() => setAdding(m)}>
+                <Button
+                  key={`${m.cylinderId}-${m.end}`}
+                  variant="default"
+                  leftSection={<IconPlus size={16} />}
+                  onClick={() => setAdding(m)}
+                >
                   Add the {m.cylinderLabel} {m.end} end card
                 </Button>
               ))}

@@ -36,7 +36,12 @@ export function CardSetsPanel({ runId }: { runId: string }) {
         <Loader />
       </Center>
     );
-  if (run.error || sets.error) return <Alert color="signal" title="Cannot show the cards">{errorText(run.error ?? sets.error)}</Alert>;
+  if (run.error || sets.error)
+    return (
+      <Alert color="signal" title="Cannot show the cards">
+        {errorText(run.error ?? sets.error)}
+      </Alert>
+    );
 
   const state = run.data!.state;
   const finished = state === 'closed' || state === 'abandoned';

@@ -53,16 +53,29 @@ describe('CardTracer', () => {
     clickAt(svg, 40, 130);
     expect(screen.getAllByTestId('tracer-point')).toHaveLength(3);
     const last = seen[seen.length - 1];
-    expect(last.atmosphericLine).toEqual([{ x: 10, y: 150 }, { x: 390, y: 152 }]);
-    expect(last.pointsPx).toEqual([{ x: 40, y: 40 }, { x: 360, y: 120 }, { x: 40, y: 130 }]);
+    expect(last.atmosphericLine).toEqual([
+      { x: 10, y: 150 },
+      { x: 390, y: 152 },
+    ]);
+    expect(last.pointsPx).toEqual([
+      { x: 40, y: 40 },
+      { x: 360, y: 120 },
+      { x: 40, y: 130 },
+    ]);
   });
 
   it('undoes the last change, and drags a point to move it without adding one', () => {
     const initial: TraceDraft = {
-      atmosphericLine: [{ x: 10, y: 150 }, { x: 390, y: 152 }],
+      atmosphericLine: [
+        { x: 10, y: 150 },
+        { x: 390, y: 152 },
+      ],
       admissionEndPx: { x: 40, y: 150 },
       releaseEndPx: { x: 360, y: 151 },
-      pointsPx: [{ x: 40, y: 40 }, { x: 360, y: 120 }],
+      pointsPx: [
+        { x: 40, y: 40 },
+        { x: 360, y: 120 },
+      ],
     };
     const seen: TraceDraft[] = [];
     render(<Harness initial={initial} onDraft={(d) => seen.push(d)} />);

@@ -139,7 +139,13 @@ export function CardTracer({ imageUrl, widthPx, heightPx, value, onChange, readO
       <Group justify="space-between" wrap="wrap" gap="xs">
         <Group gap="xs">
           <Badge variant="light" color={step === 'outline' ? 'copper' : 'brass'} size="lg" data-testid="tracer-step">
-            {step === 'atmosphere' ? `Atmospheric line ${atm.length}/2` : step === 'admission' ? 'Admission end' : step === 'release' ? 'Release end' : `Outline: ${value.pointsPx.length} points`}
+            {step === 'atmosphere'
+              ? `Atmospheric line ${atm.length}/2`
+              : step === 'admission'
+                ? 'Admission end'
+                : step === 'release'
+                  ? 'Release end'
+                  : `Outline: ${value.pointsPx.length} points`}
           </Badge>
         </Group>
         {!readOnly && (
@@ -168,7 +174,11 @@ export function CardTracer({ imageUrl, widthPx, heightPx, value, onChange, readO
         )}
         <Group gap={4}>
           <Tooltip label="Zoom out">
-            <ActionIcon variant="default" aria-label="Zoom out" onClick={() => setZoomIndex(Math.max(0, (zoomIndex ?? ZOOMS.findIndex((z) => z >= scale)) - 1))}>
+            <ActionIcon
+              variant="default"
+              aria-label="Zoom out"
+              onClick={() => setZoomIndex(Math.max(0, (zoomIndex ?? ZOOMS.findIndex((z) => z >= scale)) - 1))}
+            >
               <IconZoomOut />
             </ActionIcon>
           </Tooltip>
@@ -179,7 +189,9 @@ export function CardTracer({ imageUrl, widthPx, heightPx, value, onChange, readO
             <ActionIcon
               variant="default"
               aria-label="Zoom in"
-              onClick={() => setZoomIndex(Math.min(ZOOMS.length - 1, (zoomIndex ?? Math.max(0, ZOOMS.findIndex((z) => z > scale) - 1)) + 1))}
+              onClick={() =>
+                setZoomIndex(Math.min(ZOOMS.length - 1, (zoomIndex ?? Math.max(0, ZOOMS.findIndex((z) => z > scale) - 1)) + 1))
+              }
             >
               <IconZoomIn />
             </ActionIcon>
@@ -196,15 +208,36 @@ export function CardTracer({ imageUrl, widthPx, heightPx, value, onChange, readO
           {STEP_WORDS[step]}
         </Text>
       )}
-      <Box ref={boxRef} style={{ overflow: 'auto', maxHeight: '70vh', border: '1px solid var(--mantine-color-default-border)', borderRadius: 4, touchAction: dragging ? 'none' : 'pan-x pan-y' }}>
+      <Box
+        ref={boxRef}
+        style={{
+          overflow: 'auto',
+          maxHeight: '70vh',
+          border: '1px solid var(--mantine-color-default-border)',
+          borderRadius: 4,
+          touchAction: dragging ? 'none' : 'pan-x pan-y',
+        }}
+      >
         <Box style={{ position: 'relative', width: widthPx * scale, height: heightPx * scale }}>
-          <img src={imageUrl} alt="Indicator card" width={widthPx * scale} height={heightPx * scale} draggable={false} style={{ display: 'block', userSelect: 'none' }} />
+          <img
+            src={imageUrl}
+            alt="Indicator card"
+            width={widthPx * scale}
+            height={heightPx * scale}
+            draggable={false}
+            style={{ display: 'block', userSelect: 'none' }}
+          />
           <svg
             ref={svgRef}
             viewBox={`0 0 ${widthPx} ${heightPx}`}
             width={widthPx * scale}
             height={heightPx * scale}
-            style={{ position: 'absolute', inset: 0, cursor: readOnly ? 'default' : dragging ? 'grabbing' : 'crosshair', touchAction: 'none' }}
+            style={{
+              position: 'absolute',
+              inset: 0,
+              cursor: readOnly ? 'default' : dragging ? 'grabbing' : 'crosshair',
+              touchAction: 'none',
+            }}
             onPointerDown={onPointerDown}
             onPointerMove={onPointerMove}
             onPointerUp={onPointerUp}
@@ -216,16 +249,53 @@ export function CardTracer({ imageUrl, widthPx, heightPx, value, onChange, readO
             aria-label="Card image: click to mark and trace"
             data-testid="card-tracer-surface"
           >
-            {atmLine && <line x1={atmLine[0].x} y1={atmLine[0].y} x2={atmLine[1].x} y2={atmLine[1].y} stroke="var(--mantine-color-brass-5)" strokeWidth={stroke} strokeDasharray={`${8 / scale} ${5 / scale}`} />}
+            {atmLine && (
+              <line
+                x1={atmLine[0].x}
+                y1={atmLine[0].y}
+                x2={atmLine[1].x}
+                y2={atmLine[1].y}
+                stroke="var(--mantine-color-brass-5)"
+                strokeWidth={stroke}
+                strokeDasharray={`${8 / scale} ${5 / scale}`}
+              />
+            )}
             {atm.map((p, i) => (
-              <rect key={`a${i}`} x={p.x - r} y={p.y - r} width={2 * r} height={2 * r} fill="var(--mantine-color-brass-5)" data-testid="tracer-atm-mark" />
+              <rect
+                key={`a${i}`}
+                x={p.x - r}
+                y={p.y - r}
+                width={2 * r}
+                height={2 * r}
+                fill="var(--mantine-color-brass-5)"
+                data-testid="tracer-atm-mark"
+              />
             ))}
             {value.admissionEndPx && endMark(value.admissionEndPx, 'A', 'tracer-admission-mark')}
             {value.releaseEndPx && endMark(value.releaseEndPx, 'R', 'tracer-release-mark')}
-            {value.pointsPx.length > 2 && <polygon points={outline} fill="var(--mantine-color-copper-4)" fillOpacity={0.22} stroke="var(--mantine-color-copper-6)" strokeWidth={stroke} />}
-            {value.pointsPx.length === 2 && <polyline points={outline} fill="none" stroke="var(--mantine-color-copper-6)" strokeWidth={stroke} />}
+            {value.pointsPx.length > 2 && (
+              <polygon
+                points={outline}
+                fill="var(--mantine-color-copper-4)"
+                fillOpacity={0.22}
+                stroke="var(--mantine-color-copper-6)"
+                strokeWidth={stroke}
+              />
+            )}
+            {value.pointsPx.length === 2 && (
+              <polyline points={outline} fill="none" stroke="var(--mantine-color-copper-6)" strokeWidth={stroke} />
+            )}
             {value.pointsPx.map((p, i) => (
-              <circle key={`p${i}`} cx={p.x} cy={p.y} r={r} fill={i === 0 ? 'var(--mantine-color-copper-7)' : 'var(--mantine-color-copper-4)'} stroke="#fff" strokeWidth={stroke / 2} data-testid="tracer-point" />
+              <circle
+                key={`p${i}`}
+                cx={p.x}
+                cy={p.y}
+                r={r}
+                fill={i === 0 ? 'var(--mantine-color-copper-7)' : 'var(--mantine-color-copper-4)'}
+                stroke="#fff"
+                strokeWidth={stroke / 2}
+                data-testid="tracer-point"
+              />
             ))}
           </svg>
         </Box>

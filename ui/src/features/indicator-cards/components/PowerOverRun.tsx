@@ -10,7 +10,10 @@ export function powerRows(sets: CardSetDto[]): Record<string, number | null>[] {
   return [...sets]
     .sort((a, b) => a.takenAt.localeCompare(b.takenAt))
     .map((s) => {
-      const row: Record<string, number | null> = { t: Date.parse(s.takenAt), Engine: Math.round(s.results.totalIndicatedHorsepower * 10) / 10 };
+      const row: Record<string, number | null> = {
+        t: Date.parse(s.takenAt),
+        Engine: Math.round(s.results.totalIndicatedHorsepower * 10) / 10,
+      };
       for (const c of s.results.cylinders) row[c.label] = c.indicatedHorsepower > 0 ? Math.round(c.indicatedHorsepower * 10) / 10 : null;
       row.Brake = s.results.brake ? Math.round(s.results.brake.brakeHorsepower * 10) / 10 : null;
       return row;
@@ -26,7 +29,10 @@ export function PowerOverRun({ sets }: { sets: CardSetDto[] }) {
   return (
     <Paper withBorder p="md" radius="md" data-testid="power-over-run">
       <Title order={3} fz="md" mb="xs">
-        Indicated power over the run <Text span c="dimmed" fz="sm">(ihp)</Text>
+        Indicated power over the run{' '}
+        <Text span c="dimmed" fz="sm">
+          (ihp)
+        </Text>
       </Title>
       {data.length === 0 ? (
         <Text c="dimmed" fz="sm">

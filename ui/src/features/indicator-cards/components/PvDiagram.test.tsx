@@ -31,7 +31,11 @@ describe('PvDiagram', () => {
 
   it('the higher pressure is drawn higher up (smaller y on screen)', () => {
     render(<PvDiagram outline={card} ideal={null} label="x" />);
-    const ys = screen.getByTestId('pv-card').getAttribute('points')!.split(' ').map((p) => Number(p.split(',')[1]));
+    const ys = screen
+      .getByTestId('pv-card')
+      .getAttribute('points')!
+      .split(' ')
+      .map((p) => Number(p.split(',')[1]));
     expect(ys[0]).toBeLessThan(ys[2]); // 110 psig above 40 psig
   });
 

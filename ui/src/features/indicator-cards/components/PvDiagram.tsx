@@ -45,11 +45,19 @@ export function PvDiagram({ outline, ideal, label }: PvDiagramProps) {
   const hi = pMax + margin;
   const x = (f: number) => PAD.left + Math.max(-0.05, Math.min(1.05, f)) * (W - PAD.left - PAD.right);
   const y = (p: number) => PAD.top + ((hi - p) / (hi - lo)) * (H - PAD.top - PAD.bottom);
-  const path = (pts: CardOutlinePointDto[]) => pts.map((p) => `${x(p.strokeFraction).toFixed(1)},${y(p.pressurePsig).toFixed(1)}`).join(' ');
+  const path = (pts: CardOutlinePointDto[]) =>
+    pts.map((p) => `${x(p.strokeFraction).toFixed(1)},${y(p.pressurePsig).toFixed(1)}`).join(' ');
   const ticks = niceTicks(lo, hi);
   return (
     <Box>
-      <svg viewBox={`0 0 ${W} ${H}`} width="100%" role="img" aria-label={label} data-testid="pv-diagram" style={{ display: 'block', maxHeight: 280 }}>
+      <svg
+        viewBox={`0 0 ${W} ${H}`}
+        width="100%"
+        role="img"
+        aria-label={label}
+        data-testid="pv-diagram"
+        style={{ display: 'block', maxHeight: 280 }}
+      >
         <title>{label}</title>
         {ticks.map((t) => (
           <g key={t}>
@@ -67,20 +75,51 @@ export function PvDiagram({ outline, ideal, label }: PvDiagramProps) {
         <text x={(PAD.left + W - PAD.right) / 2} y={H - 4} textAnchor="middle" fontSize={11} fill="var(--mantine-color-dimmed)">
           Volume swept, % of stroke (admission end at left)
         </text>
-        <text x={12} y={PAD.top + (H - PAD.top - PAD.bottom) / 2} textAnchor="middle" fontSize={11} fill="var(--mantine-color-dimmed)" transform={`rotate(-90 12 ${PAD.top + (H - PAD.top - PAD.bottom) / 2})`}>
+        <text
+          x={12}
+          y={PAD.top + (H - PAD.top - PAD.bottom) / 2}
+          textAnchor="middle"
+          fontSize={11}
+          fill="var(--mantine-color-dimmed)"
+          transform={`rotate(-90 12 ${PAD.top + (H - PAD.top - PAD.bottom) / 2})`}
+        >
           psig
         </text>
         {/* Atmospheric line */}
-        <line x1={PAD.left} x2={W - PAD.right} y1={y(0)} y2={y(0)} stroke="var(--mantine-color-text)" strokeWidth={1} data-testid="pv-atmospheric" />
+        <line
+          x1={PAD.left}
+          x2={W - PAD.right}
+          y1={y(0)}
+          y2={y(0)}
+          stroke="var(--mantine-color-text)"
+          strokeWidth={1}
+          data-testid="pv-atmospheric"
+        />
         {ideal && ideal.length > 1 && (
-          <polygon points={path(ideal)} fill="none" stroke="var(--mantine-color-brass-6)" strokeWidth={1.2} strokeDasharray="5 4" data-testid="pv-ideal" />
+          <polygon
+            points={path(ideal)}
+            fill="none"
+            stroke="var(--mantine-color-brass-6)"
+            strokeWidth={1.2}
+            strokeDasharray="5 4"
+            data-testid="pv-ideal"
+          />
         )}
         {outline && outline.length > 2 && (
-          <polygon points={path(outline)} fill="var(--mantine-color-copper-4)" fillOpacity={0.18} stroke="var(--mantine-color-copper-5)" strokeWidth={2} strokeLinejoin="round" data-testid="pv-card" />
+          <polygon
+            points={path(outline)}
+            fill="var(--mantine-color-copper-4)"
+            fillOpacity={0.18}
+            stroke="var(--mantine-color-copper-5)"
+            strokeWidth={2}
+            strokeLinejoin="round"
+            data-testid="pv-card"
+          />
         )}
       </svg>
       <Text fz="xs" c="dimmed">
-        {outline ? 'Solid: the card as traced.' : 'No traced outline (mean pressure from figures).'} {ideal ? 'Dashed: the ideal card (hyperbolic expansion, no clearance).' : ''}
+        {outline ? 'Solid: the card as traced.' : 'No traced outline (mean pressure from figures).'}{' '}
+        {ideal ? 'Dashed: the ideal card (hyperbolic expansion, no clearance).' : ''}
       </Text>
     </Box>
   );

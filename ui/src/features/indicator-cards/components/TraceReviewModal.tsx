@@ -22,7 +22,14 @@ export function TraceReviewModal({ card, onClose }: { card: CardDto | null; onCl
   return (
     <Modal opened onClose={onClose} title={`Trace of the ${cardTitle(card)} card`} size="xl">
       {image.data && size ? (
-        <CardTracer imageUrl={image.data} widthPx={size.w} heightPx={size.h} value={fromCardTrace(card.trace)} onChange={() => {}} readOnly />
+        <CardTracer
+          imageUrl={image.data}
+          widthPx={size.w}
+          heightPx={size.h}
+          value={fromCardTrace(card.trace)}
+          onChange={() => {}}
+          readOnly
+        />
       ) : image.error ? (
         <Text c="signal">The image could not be loaded.</Text>
       ) : (

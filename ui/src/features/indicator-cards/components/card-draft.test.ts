@@ -11,13 +11,24 @@ describe('a card as the form holds it', () => {
   it('says what is missing for each way, and nothing for an end not taken', () => {
     expect(cardMissing(emptyCard())).toBeNull();
     expect(cardMissing(emptyCard({ method: 'planimeter', areaSqIn: 2.6 }))).toBe('give the card length');
-    expect(cardMissing(emptyCard({ method: 'ordinates', ordinatesText: '0.5', springPsiPerIn: 60 }))).toBe('give at least two mid-ordinates');
+    expect(cardMissing(emptyCard({ method: 'ordinates', ordinatesText: '0.5', springPsiPerIn: 60 }))).toBe(
+      'give at least two mid-ordinates',
+    );
     expect(cardMissing(emptyCard({ method: 'trace', springPsiPerIn: 60, lengthIn: 3.5 }))).toBe('upload the card image');
-    expect(cardMissing(emptyCard({ method: 'trace', imageId: 'img', springPsiPerIn: 60, lengthIn: 3.5 }))).toBe('mark the atmospheric line');
+    expect(cardMissing(emptyCard({ method: 'trace', imageId: 'img', springPsiPerIn: 60, lengthIn: 3.5 }))).toBe(
+      'mark the atmospheric line',
+    );
   });
 
   it('sends only the figures of the way chosen', () => {
-    const d = emptyCard({ method: 'planimeter', areaSqIn: 2.6, lengthIn: 3.6, springPsiPerIn: 60, ordinatesText: '1 2 3', meanEffectivePressurePsi: 40 });
+    const d = emptyCard({
+      method: 'planimeter',
+      areaSqIn: 2.6,
+      lengthIn: 3.6,
+      springPsiPerIn: 60,
+      ordinatesText: '1 2 3',
+      meanEffectivePressurePsi: 40,
+    });
     expect(draftToInput(d, 'cyl', 'head')).toEqual({
       cylinderId: 'cyl',
       end: 'head',
@@ -47,6 +58,12 @@ describe('a card as the form holds it', () => {
       admissionPressurePsig: 24.5,
       note: 'taken late',
     } as unknown as CardDto;
-    expect(draftToInput(cardToDraft(stored), 'c', 'crank')).toMatchObject({ ordinatesIn: [1.2, 1.1, 1.0], springPsiPerIn: 20, cutOffPercent: 42, admissionPressurePsig: 24.5, note: 'taken late' });
+    expect(draftToInput(cardToDraft(stored), 'c', 'crank')).toMatchObject({
+      ordinatesIn: [1.2, 1.1, 1.0],
+      springPsiPerIn: 20,
+      cutOffPercent: 42,
+      admissionPressurePsig: 24.5,
+      note: 'taken late',
+    });
   });
 });

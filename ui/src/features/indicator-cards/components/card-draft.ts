@@ -93,7 +93,13 @@ export function draftFigures(d: CardDraft): Omit<CardInput, 'cylinderId' | 'end'
     case 'ordinates':
       return { ...common, ordinatesIn: parseOrdinates(d.ordinatesText), springPsiPerIn: num(d.springPsiPerIn) };
     case 'trace':
-      return { ...common, imageId: d.imageId, trace: toCardTrace(d.trace), lengthIn: num(d.lengthIn), springPsiPerIn: num(d.springPsiPerIn) };
+      return {
+        ...common,
+        imageId: d.imageId,
+        trace: toCardTrace(d.trace),
+        lengthIn: num(d.lengthIn),
+        springPsiPerIn: num(d.springPsiPerIn),
+      };
   }
 }
 

@@ -15,7 +15,10 @@ describe('the trace model', () => {
     expect(traceMissing(d)).toBe('trace at least three points of the outline');
     d = addMark(addMark(addMark(d, { x: 60, y: 100 }), { x: 550, y: 250 }), { x: 60.04, y: 280.06 });
     const t = toCardTrace(d)!;
-    expect(t.atmosphericLine).toEqual([{ x: 10, y: 300 }, { x: 600, y: 304 }]);
+    expect(t.atmosphericLine).toEqual([
+      { x: 10, y: 300 },
+      { x: 600, y: 304 },
+    ]);
     expect(t.admissionEndPx).toEqual({ x: 60, y: 301 });
     expect(t.releaseEndPx).toEqual({ x: 550, y: 303 });
     // Kept to a tenth of a pixel.
@@ -26,7 +29,19 @@ describe('the trace model', () => {
   });
 
   it('finds the nearest mark within the grab radius, outline points first, and moves it', () => {
-    const d = fromCardTrace({ atmosphericLine: [{ x: 0, y: 100 }, { x: 400, y: 100 }], admissionEndPx: { x: 20, y: 100 }, releaseEndPx: { x: 380, y: 100 }, pointsPx: [{ x: 20, y: 20 }, { x: 380, y: 80 }, { x: 22, y: 95 }] });
+    const d = fromCardTrace({
+      atmosphericLine: [
+        { x: 0, y: 100 },
+        { x: 400, y: 100 },
+      ],
+      admissionEndPx: { x: 20, y: 100 },
+      releaseEndPx: { x: 380, y: 100 },
+      pointsPx: [
+        { x: 20, y: 20 },
+        { x: 380, y: 80 },
+        { x: 22, y: 95 },
+      ],
+    });
     expect(hitTest(d, { x: 21, y: 22 }, 5)).toEqual({ kind: 'point', index: 0 });
     expect(hitTest(d, { x: 200, y: 200 }, 5)).toBeNull();
     expect(hitTest(d, { x: 378, y: 101 }, 5)).toEqual({ kind: 'release' });

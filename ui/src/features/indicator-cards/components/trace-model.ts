@@ -8,7 +8,8 @@ export interface TraceDraft {
   pointsPx: TracePoint[];
 }
 export type TraceStep = 'atmosphere' | 'admission' | 'release' | 'outline';
-export type TraceTarget = { kind: 'atmosphere'; index: number } | { kind: 'admission' } | { kind: 'release' } | { kind: 'point'; index: number };
+export type TraceTarget =
+  { kind: 'atmosphere'; index: number } | { kind: 'admission' } | { kind: 'release' } | { kind: 'point'; index: number };
 
 export const emptyTrace = (): TraceDraft => ({ atmosphericLine: [], admissionEndPx: null, releaseEndPx: null, pointsPx: [] });
 
@@ -75,12 +76,22 @@ export function hitTest(d: TraceDraft, p: TracePoint, radius: number): TraceTarg
 /** The trace as the API takes it, once calibrated and with at least three outline points; else null. */
 export function toCardTrace(d: TraceDraft): CardTrace | null {
   if (d.atmosphericLine.length !== 2 || !d.admissionEndPx || !d.releaseEndPx || d.pointsPx.length < 3) return null;
-  return { atmosphericLine: [d.atmosphericLine[0], d.atmosphericLine[1]], admissionEndPx: d.admissionEndPx, releaseEndPx: d.releaseEndPx, pointsPx: d.pointsPx };
+  return {
+    atmosphericLine: [d.atmosphericLine[0], d.atmosphericLine[1]],
+    admissionEndPx: d.admissionEndPx,
+    releaseEndPx: d.releaseEndPx,
+    pointsPx: d.pointsPx,
+  };
 }
 
 export function fromCardTrace(t: CardTrace | null | undefined): TraceDraft {
   if (!t) return emptyTrace();
-  return { atmosphericLine: [...t.atmosphericLine], admissionEndPx: t.admissionEndPx, releaseEndPx: t.releaseEndPx, pointsPx: [...t.pointsPx] };
+  return {
+    atmosphericLine: [...t.atmosphericLine],
+    admissionEndPx: t.admissionEndPx,
+    releaseEndPx: t.releaseEndPx,
+    pointsPx: [...t.pointsPx],
+  };
 }
 
 /** What is still missing before the trace can be used, in words. */

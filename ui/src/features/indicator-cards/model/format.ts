@@ -1,13 +1,16 @@
 import { CYLINDER_END_LABELS, type CardDto, type CylinderEnd, type FieldChange } from '@crankjournal/shared-types';
 import { formatNumber } from '../../units/units';
 
-export const fmt = (v: number | null | undefined, decimals = 1) => (v === null || v === undefined || !Number.isFinite(v) ? '—' : formatNumber(v, decimals));
-export const pct = (fraction: number | null | undefined, decimals = 0) => (fraction === null || fraction === undefined ? '—' : `${formatNumber(fraction * 100, decimals)} %`);
+export const fmt = (v: number | null | undefined, decimals = 1) =>
+  v === null || v === undefined || !Number.isFinite(v) ? '—' : formatNumber(v, decimals);
+export const pct = (fraction: number | null | undefined, decimals = 0) =>
+  fraction === null || fraction === undefined ? '—' : `${formatNumber(fraction * 100, decimals)} %`;
 
 export const endLabel = (end: CylinderEnd) => CYLINDER_END_LABELS[end];
 export const cardTitle = (c: Pick<CardDto, 'cylinderLabel' | 'end'>) => `${c.cylinderLabel} ${CYLINDER_END_LABELS[c.end].toLowerCase()}`;
 
-export const whenShort = (iso: string) => new Date(iso).toLocaleString(undefined, { day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit' });
+export const whenShort = (iso: string) =>
+  new Date(iso).toLocaleString(undefined, { day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit' });
 export const timeOnly = (iso: string) => new Date(iso).toLocaleTimeString(undefined, { hour: '2-digit', minute: '2-digit' });
 
 /** Words and units for the fields an amendment may change. */
@@ -48,7 +51,8 @@ export function changeValue(field: string, v: unknown): string {
   if (field === 'trace' && typeof v === 'object') return `${((v as { pointsPx?: unknown[] }).pointsPx ?? []).length} points`;
   if (field === 'imageId') return 'an image';
   if ((field === 'takenAt' || field === 'measuredAt') && typeof v === 'string') return whenShort(v);
-  if (Array.isArray(v)) return v.map((x) => (typeof x === 'number' ? formatNumber(x, 2) : String(x))).join(', ') + (w?.unit ? ` ${w.unit}` : '');
+  if (Array.isArray(v))
+    return v.map((x) => (typeof x === 'number' ? formatNumber(x, 2) : String(x))).join(', ') + (w?.unit ? ` ${w.unit}` : '');
   if (typeof v === 'number') return `${formatNumber(v, w?.decimals ?? 2)}${w?.unit ? ` ${w.unit}` : ''}`;
   return String(v);
 }

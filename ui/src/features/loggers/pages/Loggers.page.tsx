@@ -13,7 +13,9 @@ import { loggersListQuery, useIssueLoggerKey, useRevokeLogger } from '../api/log
 
 const col = columnHelper<LoggerDto>();
 const when = (iso: string | null) =>
-  iso ? new Date(iso).toLocaleString(undefined, { day: 'numeric', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit' }) : '—';
+  iso
+    ? new Date(iso).toLocaleString(undefined, { day: 'numeric', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit' })
+    : '—';
 
 export default function LoggersPage() {
   const { data, isLoading, error } = useQuery(loggersListQuery());
@@ -34,8 +36,22 @@ export default function LoggersPage() {
       }),
       col.accessor((l) => engineName.get(l.engineId) ?? '—', { id: 'engine', header: 'Engine' }),
       col.accessor('keyPrefix', { header: 'Key begins', cell: (c) => <Code fz="sm">{c.getValue()}…</Code> }),
-      col.accessor('createdAt', { header: 'Issued', cell: (c) => <Text className="cj-num" fz="sm">{when(c.getValue())}</Text> }),
-      col.accessor('lastSeenAt', { header: 'Last sent readings', cell: (c) => <Text className="cj-num" fz="sm">{when(c.getValue())}</Text> }),
+      col.accessor('createdAt', {
+        header: 'Issued',
+        cell: (c) => (
+          <Text className="cj-num" fz="sm">
+            {when(c.getValue())}
+          </Text>
+        ),
+      }),
+      col.accessor('lastSeenAt', {
+        header: 'Last sent readings',
+        cell: (c) => (
+          <Text className="cj-num" fz="sm">
+            {when(c.getValue())}
+          </Text>
+        ),
+      }),
       col.display({
         id: 'state',
         header: 'State',
@@ -70,8 +86,16 @@ export default function LoggersPage() {
       {isLoading && <Loader />}
       {error && <Alert color="signal">{errorText(error)}</Alert>}
       {data && <DataTable data={data} columns={columns} caption="Data loggers" getRowId={(l) => l.id} empty="No logger keys issued yet." />}
-      <IssueModal opened={issuing} onClose={() => setIssuing(false)} engines={(engines.data ?? []).map((e) => ({ value: e.id, label: e.name }))} />
-      <RevokeModal logger={revoking} onClose={() => setRevoking(null)} engineName={revoking ? engineName.get(revoking.engineId) : undefined} />
+      <IssueModal
+        opened={issuing}
+        onClose={() => setIssuing(false)}
+        engines={(engines.data ?? []).map((e) => ({ value: e.id, label: e.name }))}
+      />
+      <RevokeModal
+        logger={revoking}
+        onClose={() => setRevoking(null)}
+        engineName={revoking ? engineName.get(revoking.engineId) : undefined}
+      />
     </>
   );
 }
@@ -82,7 +106,10 @@ function IssueModal({ opened, onClose, engines }: { opened: boolean; onClose: ()
   const [error, setError] = useState<string | null>(null);
   const form = useForm({
     initialValues: { engineId: '', name: '' },
-    validate: { engineId: (v) => (v ? null : 'Choose the engine'), name: (v) => (v.trim() ? null : 'Name the logger, e.g. “Bearing thermocouples”') },
+    validate: {
+      engineId: (v) => (v ? null : 'Choose the engine'),
+      name: (v) => (v.trim() ? null : 'Name the logger, e.g. “Bearing thermocouples”'),
+    },
   });
   const close = () => {
     setIssued(null);
@@ -103,7 +130,11 @@ function IssueModal({ opened, onClose, engines }: { opened: boolean; onClose: ()
       closeOnClickOutside={!issued}
       closeOnEscape={!issued}
       withCloseButton={!issued}
-      title={<Text fw={700} fz="lg">{issued ? 'Store this key now' : 'Issue a logger key'}</Text>}
+      title={
+        <Text fw={700} fz="lg">
+          {issued ? 'Store this key now' : 'Issue a logger key'}
+        </Text>
+      }
       centered
       size="lg"
     >
@@ -124,7 +155,12 @@ function IssueModal({ opened, onClose, engines }: { opened: boolean; onClose: ()
           <Group justify="flex-end">
             <CopyButton value={issued.key} timeout={4000}>
               {({ copied, copy }) => (
-                <Button size="lg" variant={copied ? 'default' : 'filled'} leftSection={copied ? <IconCheck /> : <IconCopy />} onClick={copy}>
+                <Button
+                  size="lg"
+                  variant={copied ? 'default' : 'filled'}
+                  leftSection={copied ? <IconCheck /> : <IconCopy />}
+                  onClick={copy}
+                >
                   {copied ? 'Copied' : 'Copy key'}
                 </Button>
               )}
@@ -171,7 +207,17 @@ function RevokeModal({ logger, onClose, engineName }: { logger: LoggerDto | null
   const revoke = useRevokeLogger();
   const [error, setError] = useState<string | null>(null);
   return (
-    <Modal opened={!!logger} onClose={onClose} title={<Text fw={700} fz="lg">Revoke this logger’s key?</Text>} centered size="lg">
+    <Modal
+      opened={!!logger}
+      onClose={onClose}
+      title={
+        <Text fw={700} fz="lg">
+          Revoke this logger’s key?
+        </Text>
+      }
+      centered
+      size="lg"
+    >
       <Stack>
         <Text>
           <b>{logger?.name}</b>

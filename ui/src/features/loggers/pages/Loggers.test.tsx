@@ -3,7 +3,8 @@ import { render, screen, fireEvent, within } from '../../../test-utils/render';
 import { sessionStore } from '../../../api/session';
 import LoggersPage from './Loggers.page';
 
-const json = (body: unknown, status = 200) => new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
+const json = (body: unknown, status = 200) =>
+  new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
 const logger: LoggerDto = {
   id: 'l1',
   engineId: 'e1',
@@ -31,7 +32,8 @@ describe('data loggers page', () => {
     const fetchSpy = vi.spyOn(globalThis, 'fetch').mockImplementation(async (input, init) => {
       const url = String(input);
       if (url === '/api/engines') return json([{ id: 'e1', name: 'No. 2 engine' }]);
-      if (url === '/api/loggers' && init?.method === 'POST') return json({ ...logger, id: 'l2', name: 'Oil pressure logger', key: 'cjl_secret_key_123' });
+      if (url === '/api/loggers' && init?.method === 'POST')
+        return json({ ...logger, id: 'l2', name: 'Oil pressure logger', key: 'cjl_secret_key_123' });
       return json([logger]);
     });
     render(<LoggersPage />);

@@ -35,7 +35,8 @@ export const bearingAnalysisQuery = (engineId: string, runId?: string) =>
   });
 
 export const calculateOilViscosity = (req: OilViscosityRequest) => api<OilViscosityResponse>('/calculations/oil-viscosity', { body: req });
-export const calculateJournalFriction = (req: JournalFrictionRequest) => api<JournalFrictionResponse>('/calculations/journal-friction', { body: req });
+export const calculateJournalFriction = (req: JournalFrictionRequest) =>
+  api<JournalFrictionResponse>('/calculations/journal-friction', { body: req });
 export const calculateLiftPressure = (req: LiftPressureRequest) => api<LiftPressureResponse>('/calculations/lift-pressure', { body: req });
 export const calculateJackCapacity = (req: JackCapacityRequest) => api<JackCapacityResponse>('/calculations/jack-capacity', { body: req });
 
@@ -50,11 +51,15 @@ export function useCreateOil() {
 export function useAssignOil() {
   const refresh = useRefresh();
   return useMutation({
-    mutationFn: ({ pointId, oilId }: { pointId: string; oilId: string | null }) => api<LubricationPointOilDto>(`/lubrication/points/${pointId}/oil`, { method: 'PUT', body: { oilId } }),
+    mutationFn: ({ pointId, oilId }: { pointId: string; oilId: string | null }) =>
+      api<LubricationPointOilDto>(`/lubrication/points/${pointId}/oil`, { method: 'PUT', body: { oilId } }),
     onSuccess: refresh,
   });
 }
 export function useLogConsumption() {
   const refresh = useRefresh();
-  return useMutation({ mutationFn: (req: ConsumptionEntryRequest) => api<ConsumptionEntryDto>('/lubrication/consumption', { body: req }), onSuccess: refresh });
+  return useMutation({
+    mutationFn: (req: ConsumptionEntryRequest) => api<ConsumptionEntryDto>('/lubrication/consumption', { body: req }),
+    onSuccess: refresh,
+  });
 }

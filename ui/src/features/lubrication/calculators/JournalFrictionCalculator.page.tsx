@@ -10,7 +10,14 @@ import { ResultFigure, fmtN, fmtSci } from '../components/ResultFigure';
 type Num = number | '';
 export type FrictionForm = Record<keyof JournalFrictionRequest, Num>;
 /** A main bearing of the demo engine: 16 × 26 in, 0.008 in radial clearance, 75 rpm, half of 225,000 lb; ISO VG 150 (150 / 14.5 cSt, 890 kg/m³) at 45 °C is 1.45 × 10⁻⁵ reyn by the oil-viscosity calculator. */
-export const FRICTION_EXAMPLE: FrictionForm = { diameterIn: 16, lengthIn: 26, radialClearanceIn: 0.008, speedRpm: 75, viscosityReyn: 0.0000145, loadLbf: 112_500 };
+export const FRICTION_EXAMPLE: FrictionForm = {
+  diameterIn: 16,
+  lengthIn: 26,
+  radialClearanceIn: 0.008,
+  speedRpm: 75,
+  viscosityReyn: 0.0000145,
+  loadLbf: 112_500,
+};
 
 export function toFrictionRequest(f: FrictionForm): JournalFrictionRequest | null {
   if (Object.values(f).some((v) => v === '')) return null;
@@ -29,7 +36,14 @@ export default function JournalFrictionCalculatorPage() {
   const [form, setForm] = useState<FrictionForm>(FRICTION_EXAMPLE);
   const { result, error } = useCalculation(calculateJournalFriction, toFrictionRequest(form));
   const num = (label: string, key: keyof FrictionForm, decimals?: number) => (
-    <NumberInput label={label} value={form[key]} onChange={(v) => setForm((f) => ({ ...f, [key]: v === '' ? '' : Number(v) }))} hideControls inputMode="decimal" decimalScale={decimals} />
+    <NumberInput
+      label={label}
+      value={form[key]}
+      onChange={(v) => setForm((f) => ({ ...f, [key]: v === '' ? '' : Number(v) }))}
+      hideControls
+      inputMode="decimal"
+      decimalScale={decimals}
+    />
   );
   return (
     <>
@@ -70,12 +84,19 @@ export default function JournalFrictionCalculatorPage() {
             <Stack gap="sm">
               <Group gap="xl">
                 <ResultFigure label="Friction torque" value={fmtN(result.frictionTorqueLbfIn, 0)} unit="lbf·in" testId="friction-torque" />
-                <ResultFigure label="Power lost" value={fmtN(result.powerLossHp, 2)} unit={`hp (${fmtN(result.powerLossKw, 2)} kW)`} testId="friction-hp" />
+                <ResultFigure
+                  label="Power lost"
+                  value={fmtN(result.powerLossHp, 2)}
+                  unit={`hp (${fmtN(result.powerLossKw, 2)} kW)`}
+                  testId="friction-hp"
+                />
                 <ResultFigure label="Friction coefficient" value={fmtN(result.frictionCoefficient, 4)} />
                 <ResultFigure label="Sommerfeld number" value={fmtSci(result.sommerfeldNumber, 3)} testId="sommerfeld" />
                 <ResultFigure label="Unit load" value={fmtN(result.unitLoadPsi, 0)} unit="psi" />
               </Group>
-              <Text fz="sm" c="dimmed">{result.method}</Text>
+              <Text fz="sm" c="dimmed">
+                {result.method}
+              </Text>
             </Stack>
           ) : (
             <Text c="dimmed">Give every figure.</Text>

@@ -20,7 +20,12 @@ export const VISCOSITY_EXAMPLE: ViscosityForm = { v40: 150, v100: 14.5, temperat
 
 export function toViscosityRequest(f: ViscosityForm): OilViscosityRequest | null {
   if (f.v40 === '' || f.v100 === '' || f.temperatureC === '') return null;
-  return { viscosity40cSt: Number(f.v40), viscosity100cSt: Number(f.v100), temperatureC: Number(f.temperatureC), ...(f.density === '' ? {} : { densityKgM3At15C: Number(f.density) }) };
+  return {
+    viscosity40cSt: Number(f.v40),
+    viscosity100cSt: Number(f.v100),
+    temperatureC: Number(f.temperatureC),
+    ...(f.density === '' ? {} : { densityKgM3At15C: Number(f.density) }),
+  };
 }
 
 /** /calculators/oil-viscosity — POST /api/calculations/oil-viscosity. */
@@ -29,7 +34,14 @@ export default function OilViscosityCalculatorPage() {
   const oils = useQuery(oilsQuery());
   const { result, error } = useCalculation(calculateOilViscosity, toViscosityRequest(form));
   const num = (label: string, key: keyof ViscosityForm, description?: string) => (
-    <NumberInput label={label} description={description} value={form[key]} onChange={(v) => setForm((f) => ({ ...f, [key]: v === '' ? '' : Number(v) }))} hideControls inputMode="decimal" />
+    <NumberInput
+      label={label}
+      description={description}
+      value={form[key]}
+      onChange={(v) => setForm((f) => ({ ...f, [key]: v === '' ? '' : Number(v) }))}
+      hideControls
+      inputMode="decimal"
+    />
   );
   return (
     <>
@@ -80,8 +92,14 @@ export default function OilViscosityCalculatorPage() {
                 <ResultFigure label="Absolute" value={fmtSci(result.dynamicReyn, 3)} unit="reyn (lbf·s/in²)" testId="visc-reyn" />
                 <ResultFigure label="Density at temperature" value={fmtN(result.densityKgM3, 1)} unit="kg/m³" />
               </Group>
-              {result.densityAssumed && <Text fz="sm" c="dimmed">No density given: a typical mineral oil’s 880 kg/m³ at 15 °C was assumed.</Text>}
-              <Text fz="sm" c="dimmed">{result.method}</Text>
+              {result.densityAssumed && (
+                <Text fz="sm" c="dimmed">
+                  No density given: a typical mineral oil’s 880 kg/m³ at 15 °C was assumed.
+                </Text>
+              )}
+              <Text fz="sm" c="dimmed">
+                {result.method}
+              </Text>
             </Stack>
           ) : (
             <Text c="dimmed">Give both viscosities and a temperature.</Text>

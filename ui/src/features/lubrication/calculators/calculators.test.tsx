@@ -4,7 +4,8 @@ import JournalFrictionCalculatorPage, { FRICTION_EXAMPLE, toFrictionRequest } fr
 import { CALCULATORS } from '../../calculators/calculators';
 import { navigationFor } from '../../../components/AppShell/navigation';
 
-const json = (body: unknown, status = 200) => new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
+const json = (body: unknown, status = 200) =>
+  new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
 
 describe('the lubrication calculators', () => {
   afterEach(() => vi.restoreAllMocks());
@@ -14,17 +15,35 @@ describe('the lubrication calculators', () => {
     expect(keys).toEqual(expect.arrayContaining(['oil-viscosity', 'journal-friction', 'lift-and-jacks']));
     const groups = navigationFor('observer').map((g) => g.label);
     expect(groups.indexOf('Maintenance')).toBe(groups.indexOf('Engines') + 1);
-    expect(navigationFor('observer').find((g) => g.label === 'Maintenance')!.items.map((i) => i.label)).toEqual(['Due and plans', 'Bearings', 'Inspections', 'Work records', 'Lubrication']);
+    expect(
+      navigationFor('observer')
+        .find((g) => g.label === 'Maintenance')!
+        .items.map((i) => i.label),
+    ).toEqual(['Due and plans', 'Bearings', 'Inspections', 'Work records', 'Lubrication']);
   });
 
   it('oil viscosity: sends the explicit unit fields and shows the server’s answer', async () => {
-    expect(toViscosityRequest(VISCOSITY_EXAMPLE)).toEqual({ viscosity40cSt: 150, viscosity100cSt: 14.5, temperatureC: 45, densityKgM3At15C: 890 });
+    expect(toViscosityRequest(VISCOSITY_EXAMPLE)).toEqual({
+      viscosity40cSt: 150,
+      viscosity100cSt: 14.5,
+      temperatureC: 45,
+      densityKgM3At15C: 890,
+    });
     expect(toViscosityRequest({ ...VISCOSITY_EXAMPLE, temperatureC: '' })).toBeNull();
-    const spy = vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) =>
-      String(input) === '/api/calculations/oil-viscosity'
-        ? json({ kinematicCst: 114.39, densityKgM3: 872.6, densityAssumed: false, dynamicPaS: 0.0998, dynamicReyn: 0.00001448, method: 'ASTM D341' })
-        : json([]),
-    );
+    const spy = vi
+      .spyOn(globalThis, 'fetch')
+      .mockImplementation(async (input) =>
+        String(input) === '/api/calculations/oil-viscosity'
+          ? json({
+              kinematicCst: 114.39,
+              densityKgM3: 872.6,
+              densityAssumed: false,
+              dynamicPaS: 0.0998,
+              dynamicReyn: 0.00001448,
+              method: 'ASTM D341',
+            })
+          : json([]),
+      );
     render(<OilViscosityCalculatorPage />);
     await waitFor(() => expect(screen.getByTestId('visc-cst')).toHaveTextContent('114.4'));
     expect(screen.getByTestId('visc-reyn')).toHaveTextContent('1.45e-5');
@@ -33,8 +52,17 @@ describe('the lubrication calculators', () => {
   });
 
   it('journal friction: sends diameterIn … loadLbf and shows the server’s message naming the field', async () => {
-    expect(toFrictionRequest(FRICTION_EXAMPLE)).toEqual({ diameterIn: 16, lengthIn: 26, radialClearanceIn: 0.008, speedRpm: 75, viscosityReyn: 0.0000145, loadLbf: 112500 });
-    vi.spyOn(globalThis, 'fetch').mockImplementation(async () => json({ statusCode: 400, error: 'Bad Request', message: ['radialClearanceIn must be at least 0.00001'] }, 400));
+    expect(toFrictionRequest(FRICTION_EXAMPLE)).toEqual({
+      diameterIn: 16,
+      lengthIn: 26,
+      radialClearanceIn: 0.008,
+      speedRpm: 75,
+      viscosityReyn: 0.0000145,
+      loadLbf: 112500,
+    });
+    vi.spyOn(globalThis, 'fetch').mockImplementation(async () =>
+      json({ statusCode: 400, error: 'Bad Request', message: ['radialClearanceIn must be at least 0.00001'] }, 400),
+    );
     render(<JournalFrictionCalculatorPage />);
     await waitFor(() => expect(screen.getByTestId('calc-error')).toHaveTextContent('radialClearanceIn must be at least 0.00001'));
   });

@@ -10,7 +10,15 @@ import { ResultFigure, fmtN } from './ResultFigure';
 type Num = number | '';
 const n = (v: Num) => (v === '' ? null : Number(v));
 const numIn = (label: string, value: Num, set: (v: Num) => void, description?: string) => (
-  <NumberInput label={label} description={description} value={value} onChange={(v) => set(v === '' ? '' : Number(v))} hideControls inputMode="decimal" min={0} />
+  <NumberInput
+    label={label}
+    description={description}
+    value={value}
+    onChange={(v) => set(v === '' ? '' : Number(v))}
+    hideControls
+    inputMode="decimal"
+    min={0}
+  />
 );
 
 /**
@@ -25,9 +33,17 @@ export function LiftAndJacks({ journalLoadLbf, rotatingWeightLb }: { journalLoad
   const [capacity, setCapacity] = useState<Num>(50);
   const [lifted, setLifted] = useState<Num>(rotatingWeightLb ?? 225_000);
   const [margin, setMargin] = useState<Num>(1.5);
-  const liftReq: LiftPressureRequest | null = n(load) && n(pocket) ? { loadLbf: n(load)!, pocketAreaIn2: n(pocket)!, ...(n(factor) ? { breakawayFactor: n(factor)! } : {}) } : null;
+  const liftReq: LiftPressureRequest | null =
+    n(load) && n(pocket) ? { loadLbf: n(load)!, pocketAreaIn2: n(pocket)!, ...(n(factor) ? { breakawayFactor: n(factor)! } : {}) } : null;
   const jackReq: JackCapacityRequest | null =
-    n(jacks) && n(capacity) && n(lifted) ? { jackCount: n(jacks)!, jackCapacityShortTons: n(capacity)!, loadLbf: n(lifted)!, ...(n(margin) ? { requiredMargin: n(margin)! } : {}) } : null;
+    n(jacks) && n(capacity) && n(lifted)
+      ? {
+          jackCount: n(jacks)!,
+          jackCapacityShortTons: n(capacity)!,
+          loadLbf: n(lifted)!,
+          ...(n(margin) ? { requiredMargin: n(margin)! } : {}),
+        }
+      : null;
   const lift = useCalculation(calculateLiftPressure, liftReq);
   const jack = useCalculation(calculateJackCapacity, jackReq);
   return (
@@ -42,7 +58,11 @@ export function LiftAndJacks({ journalLoadLbf, rotatingWeightLb }: { journalLoad
             {numIn('Oil pocket area, in²', pocket, setPocket, 'or the projected area D × L')}
             {numIn('Breakaway factor', factor, setFactor, '1.5 to 3')}
           </SimpleGrid>
-          {lift.error && <Alert color="amber" mt="sm">{lift.error}</Alert>}
+          {lift.error && (
+            <Alert color="amber" mt="sm">
+              {lift.error}
+            </Alert>
+          )}
           {lift.result && (
             <Stack gap="xs" mt="md">
               <Group gap="xl">
@@ -66,7 +86,11 @@ export function LiftAndJacks({ journalLoadLbf, rotatingWeightLb }: { journalLoad
             {numIn('Load lifted, lb', lifted, setLifted)}
             {numIn('Least margin', margin, setMargin)}
           </SimpleGrid>
-          {jack.error && <Alert color="amber" mt="sm">{jack.error}</Alert>}
+          {jack.error && (
+            <Alert color="amber" mt="sm">
+              {jack.error}
+            </Alert>
+          )}
           {jack.result && (
             <Stack gap="xs" mt="md">
               <Group gap="xl" align="flex-end">
@@ -88,7 +112,11 @@ export function LiftAndJacks({ journalLoadLbf, rotatingWeightLb }: { journalLoad
           )}
         </Paper>
       </SimpleGrid>
-      <Caution title="Jacking and lifting">{lift.result?.caution ?? jack.result?.caution ?? 'Jacking and hydraulic lift of a loaded journal can kill or maim. These figures aid a qualified crew; they do not replace the jack and pump makers’ ratings, local codes, the insurer’s requirements or licensed practice.'}</Caution>
+      <Caution title="Jacking and lifting">
+        {lift.result?.caution ??
+          jack.result?.caution ??
+          'Jacking and hydraulic lift of a loaded journal can kill or maim. These figures aid a qualified crew; they do not replace the jack and pump makers’ ratings, local codes, the insurer’s requirements or licensed practice.'}
+      </Caution>
     </Stack>
   );
 }

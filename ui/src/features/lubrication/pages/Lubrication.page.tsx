@@ -1,6 +1,23 @@
 import { useEffect, useMemo, useState } from 'react';
 import { useQuery } from '@tanstack/react-query';
-import { Alert, Badge, Button, Card, Group, Loader, Modal, NumberInput, SegmentedControl, Select, SimpleGrid, Stack, Table, Text, TextInput, Title } from '@mantine/core';
+import {
+  Alert,
+  Badge,
+  Button,
+  Card,
+  Group,
+  Loader,
+  Modal,
+  NumberInput,
+  SegmentedControl,
+  Select,
+  SimpleGrid,
+  Stack,
+  Table,
+  Text,
+  TextInput,
+  Title,
+} from '@mantine/core';
 import { LineChart } from '@mantine/charts';
 import { IconMinus, IconPlus, IconTrendingDown, IconTrendingUp } from '@tabler/icons-react';
 import type { ConsumptionMethod, ConsumptionTrend, EngineDetail, EngineLubrication, OilWriteRequest } from '@crankjournal/shared-types';
@@ -11,14 +28,27 @@ import { useHasRole } from '../../auth/useSession';
 import { engineDetailQuery, enginesListQuery } from '../../engines/api/engines.api';
 import { LUBRICATION_KIND_LABELS } from '../../engines/labels';
 import { runsListQuery } from '../../runs/api/runs.api';
-import { bearingAnalysisQuery, engineLubricationQuery, oilsQuery, useAssignOil, useCreateOil, useLogConsumption } from '../api/lubrication.api';
+import {
+  bearingAnalysisQuery,
+  engineLubricationQuery,
+  oilsQuery,
+  useAssignOil,
+  useCreateOil,
+  useLogConsumption,
+} from '../api/lubrication.api';
 import { LiftAndJacks } from '../components/LiftAndJacks';
 import { fmtN, fmtSci } from '../components/ResultFigure';
 
-const dayShort = (iso: string | null) => (iso ? new Date(iso).toLocaleDateString(undefined, { day: 'numeric', month: 'short', year: '2-digit' }) : '—');
+const dayShort = (iso: string | null) =>
+  iso ? new Date(iso).toLocaleDateString(undefined, { day: 'numeric', month: 'short', year: '2-digit' }) : '—';
 
 export function TrendBadge({ trend }: { trend: ConsumptionTrend }) {
-  if (!trend.direction) return <Text fz="sm" c="dimmed">Too few runs for a trend</Text>;
+  if (!trend.direction)
+    return (
+      <Text fz="sm" c="dimmed">
+        Too few runs for a trend
+      </Text>
+    );
   const pct = trend.changePercent === null ? '' : ` ${trend.changePercent > 0 ? '+' : ''}${fmtN(trend.changePercent, 0)} %`;
   if (trend.direction === 'steady')
     return (
@@ -27,7 +57,12 @@ export function TrendBadge({ trend }: { trend: ConsumptionTrend }) {
       </Badge>
     );
   return (
-    <Badge color="amber" variant="light" leftSection={trend.direction === 'rising' ? <IconTrendingUp size={12} /> : <IconTrendingDown size={12} />} data-testid="trend-attention">
+    <Badge
+      color="amber"
+      variant="light"
+      leftSection={trend.direction === 'rising' ? <IconTrendingUp size={12} /> : <IconTrendingDown size={12} />}
+      data-testid="trend-attention"
+    >
       {trend.direction === 'rising' ? 'Rising' : 'Falling'}
       {pct}
     </Badge>
@@ -38,7 +73,14 @@ function OilsCard({ canWrite }: { canWrite: boolean }) {
   const oils = useQuery(oilsQuery());
   const [open, setOpen] = useState(false);
   const create = useCreateOil();
-  const [form, setForm] = useState<OilWriteRequest>({ name: '', grade: '', viscosity40cSt: 0, viscosity100cSt: 0, densityKgM3At15C: null, figuresSource: '' });
+  const [form, setForm] = useState<OilWriteRequest>({
+    name: '',
+    grade: '',
+    viscosity40cSt: 0,
+    viscosity100cSt: 0,
+    densityKgM3At15C: null,
+    figuresSource: '',
+  });
   return (
     <Card withBorder padding="lg" radius="md">
       <Group justify="space-between" mb="sm">
@@ -82,13 +124,38 @@ function OilsCard({ canWrite }: { canWrite: boolean }) {
       <Modal opened={open} onClose={() => setOpen(false)} title="Add an oil" size="lg">
         <Stack gap="sm">
           <TextInput label="Name" value={form.name} onChange={(e) => setForm((f) => ({ ...f, name: e.currentTarget.value }))} />
-          <TextInput label="Grade" value={form.grade} onChange={(e) => setForm((f) => ({ ...f, grade: e.currentTarget.value }))} placeholder="ISO VG 150" />
+          <TextInput
+            label="Grade"
+            value={form.grade}
+            onChange={(e) => setForm((f) => ({ ...f, grade: e.currentTarget.value }))}
+            placeholder="ISO VG 150"
+          />
           <SimpleGrid cols={3}>
-            <NumberInput label="cSt at 40 °C" value={form.viscosity40cSt || ''} onChange={(v) => setForm((f) => ({ ...f, viscosity40cSt: Number(v) || 0 }))} hideControls />
-            <NumberInput label="cSt at 100 °C" value={form.viscosity100cSt || ''} onChange={(v) => setForm((f) => ({ ...f, viscosity100cSt: Number(v) || 0 }))} hideControls />
-            <NumberInput label="kg/m³ at 15 °C" value={form.densityKgM3At15C ?? ''} onChange={(v) => setForm((f) => ({ ...f, densityKgM3At15C: v === '' ? null : Number(v) }))} hideControls />
+            <NumberInput
+              label="cSt at 40 °C"
+              value={form.viscosity40cSt || ''}
+              onChange={(v) => setForm((f) => ({ ...f, viscosity40cSt: Number(v) || 0 }))}
+              hideControls
+            />
+            <NumberInput
+              label="cSt at 100 °C"
+              value={form.viscosity100cSt || ''}
+              onChange={(v) => setForm((f) => ({ ...f, viscosity100cSt: Number(v) || 0 }))}
+              hideControls
+            />
+            <NumberInput
+              label="kg/m³ at 15 °C"
+              value={form.densityKgM3At15C ?? ''}
+              onChange={(v) => setForm((f) => ({ ...f, densityKgM3At15C: v === '' ? null : Number(v) }))}
+              hideControls
+            />
           </SimpleGrid>
-          <TextInput label="Where the figures come from" value={form.figuresSource} onChange={(e) => setForm((f) => ({ ...f, figuresSource: e.currentTarget.value }))} placeholder="The supplier’s data sheet, or typical of the grade" />
+          <TextInput
+            label="Where the figures come from"
+            value={form.figuresSource}
+            onChange={(e) => setForm((f) => ({ ...f, figuresSource: e.currentTarget.value }))}
+            placeholder="The supplier’s data sheet, or typical of the grade"
+          />
           {create.error && <Alert color="signal">{errorText(create.error)}</Alert>}
           <Button onClick={() => create.mutate(form, { onSuccess: () => setOpen(false) })} loading={create.isPending}>
             Add the oil
@@ -208,7 +275,9 @@ function ConsumptionCard({ data, engineId, canLog }: { data: EngineLubrication; 
                   </Table.Td>
                   <Table.Td>{last ? `${fmtN(last.usedLitres, 2)} L (${dayShort(last.startedAt)})` : '—'}</Table.Td>
                   <Table.Td>{last?.litresPerRunHour != null ? `${fmtN(last.litresPerRunHour, 3)} L/h` : '—'}</Table.Td>
-                  <Table.Td>{last?.litresPerThousandRevolutions != null ? `${fmtN(last.litresPerThousandRevolutions, 4)} L` : '—'}</Table.Td>
+                  <Table.Td>
+                    {last?.litresPerThousandRevolutions != null ? `${fmtN(last.litresPerThousandRevolutions, 4)} L` : '—'}
+                  </Table.Td>
                   <Table.Td>
                     <TrendBadge trend={p.trend} />
                   </Table.Td>
@@ -245,15 +314,55 @@ function ConsumptionCard({ data, engineId, canLog }: { data: EngineLubrication; 
         <Stack gap="sm" mt="lg">
           <Text fw={600}>Log oil used in a run</Text>
           <Group gap="sm" align="flex-end" wrap="wrap">
-            <Select label="Run" data={started.map((r) => ({ value: r.id, label: `${r.title} (${dayShort(r.startedAt)})` }))} value={runId} onChange={setRunId} w={300} />
-            <Select label="Point" data={data.points.map((p) => ({ value: p.lubricationPointId, label: p.label }))} value={pointId} onChange={setPointId} w={260} />
-            <SegmentedControl value={method} onChange={(v) => setMethod(v as ConsumptionMethod)} data={[{ value: 'added', label: 'Quantity added' }, { value: 'levels', label: 'Levels before and after' }]} />
+            <Select
+              label="Run"
+              data={started.map((r) => ({ value: r.id, label: `${r.title} (${dayShort(r.startedAt)})` }))}
+              value={runId}
+              onChange={setRunId}
+              w={300}
+            />
+            <Select
+              label="Point"
+              data={data.points.map((p) => ({ value: p.lubricationPointId, label: p.label }))}
+              value={pointId}
+              onChange={setPointId}
+              w={260}
+            />
+            <SegmentedControl
+              value={method}
+              onChange={(v) => setMethod(v as ConsumptionMethod)}
+              data={[
+                { value: 'added', label: 'Quantity added' },
+                { value: 'levels', label: 'Levels before and after' },
+              ]}
+            />
             {method === 'added' ? (
-              <NumberInput label="Litres added" value={qty} onChange={(v) => setQty(v === '' ? '' : Number(v))} hideControls w={130} min={0} />
+              <NumberInput
+                label="Litres added"
+                value={qty}
+                onChange={(v) => setQty(v === '' ? '' : Number(v))}
+                hideControls
+                w={130}
+                min={0}
+              />
             ) : (
               <>
-                <NumberInput label="Litres before" value={start} onChange={(v) => setStart(v === '' ? '' : Number(v))} hideControls w={130} min={0} />
-                <NumberInput label="Litres after" value={end} onChange={(v) => setEnd(v === '' ? '' : Number(v))} hideControls w={130} min={0} />
+                <NumberInput
+                  label="Litres before"
+                  value={start}
+                  onChange={(v) => setStart(v === '' ? '' : Number(v))}
+                  hideControls
+                  w={130}
+                  min={0}
+                />
+                <NumberInput
+                  label="Litres after"
+                  value={end}
+                  onChange={(v) => setEnd(v === '' ? '' : Number(v))}
+                  hideControls
+                  w={130}
+                  min={0}
+                />
               </>
             )}
             <Button
@@ -265,8 +374,20 @@ function ConsumptionCard({ data, engineId, canLog }: { data: EngineLubrication; 
                 log.mutate(
                   method === 'added'
                     ? { runId, lubricationPointId: pointId, method, quantityLitres: qty === '' ? null : qty }
-                    : { runId, lubricationPointId: pointId, method, levelStartLitres: start === '' ? null : start, levelEndLitres: end === '' ? null : end },
-                  { onSuccess: () => { setQty(''); setStart(''); setEnd(''); } },
+                    : {
+                        runId,
+                        lubricationPointId: pointId,
+                        method,
+                        levelStartLitres: start === '' ? null : start,
+                        levelEndLitres: end === '' ? null : end,
+                      },
+                  {
+                    onSuccess: () => {
+                      setQty('');
+                      setStart('');
+                      setEnd('');
+                    },
+                  },
                 )
               }
             >
@@ -331,7 +452,9 @@ function BearingsCard({ engineId }: { engineId: string }) {
                         {r.missing.length ? ` · ${r.missing.join('; ')}` : ''}
                       </Text>
                     </Table.Td>
-                    <Table.Td>{r.temperatureC === null ? '—' : <UnitValue value={r.temperatureC} unit="degC" size="sm" decimals={1} />}</Table.Td>
+                    <Table.Td>
+                      {r.temperatureC === null ? '—' : <UnitValue value={r.temperatureC} unit="degC" size="sm" decimals={1} />}
+                    </Table.Td>
                     <Table.Td>{r.kinematicCst === null ? '—' : `${fmtN(r.kinematicCst, 1)} cSt`}</Table.Td>
                     <Table.Td>{r.dynamicReyn === null ? '—' : `${fmtSci(r.dynamicReyn, 3)} reyn`}</Table.Td>
                     <Table.Td>{r.loadLbf === null ? '—' : `${fmtN(r.loadLbf, 0)} lbf`}</Table.Td>
@@ -382,7 +505,13 @@ export default function LubricationPage() {
         subtitle="The oils, which point takes which, the oil each point uses per run, and what the oil does in the bearings."
         action={
           (engines.data?.length ?? 0) > 1 ? (
-            <Select aria-label="Engine" data={(engines.data ?? []).map((e) => ({ value: e.id, label: e.name }))} value={engineId || null} onChange={(v) => setEngineId(v ?? '')} allowDeselect={false} />
+            <Select
+              aria-label="Engine"
+              data={(engines.data ?? []).map((e) => ({ value: e.id, label: e.name }))}
+              value={engineId || null}
+              onChange={(v) => setEngineId(v ?? '')}
+              allowDeselect={false}
+            />
           ) : undefined
         }
       />
@@ -397,7 +526,11 @@ export default function LubricationPage() {
           <Title order={2} fz={22} mb="sm">
             Pre-lube and jacking
           </Title>
-          <LiftAndJacks key={engine.data.id} journalLoadLbf={mainJournalLoad(engine.data)} rotatingWeightLb={engine.data.rotatingWeightLb} />
+          <LiftAndJacks
+            key={engine.data.id}
+            journalLoadLbf={mainJournalLoad(engine.data)}
+            rotatingWeightLb={engine.data.rotatingWeightLb}
+          />
         </Card>
       )}
     </Stack>

@@ -32,22 +32,32 @@ export const maintenanceKeys = {
   due: (engineId?: string) => [...maintenanceKeys.all, 'due', engineId ?? null] as const,
   plans: (engineId?: string) => [...maintenanceKeys.all, 'plans', engineId ?? null] as const,
   plan: (id: string) => [...maintenanceKeys.all, 'plan', id] as const,
-  inspections: (f: { engineId?: string; bearingId?: string } = {}) => [...maintenanceKeys.all, 'inspections', f.engineId ?? null, f.bearingId ?? null] as const,
+  inspections: (f: { engineId?: string; bearingId?: string } = {}) =>
+    [...maintenanceKeys.all, 'inspections', f.engineId ?? null, f.bearingId ?? null] as const,
   inspection: (id: string) => [...maintenanceKeys.all, 'inspection', id] as const,
-  work: (f: { engineId?: string; bearingId?: string; status?: string } = {}) => [...maintenanceKeys.all, 'work', f.engineId ?? null, f.bearingId ?? null, f.status ?? null] as const,
+  work: (f: { engineId?: string; bearingId?: string; status?: string } = {}) =>
+    [...maintenanceKeys.all, 'work', f.engineId ?? null, f.bearingId ?? null, f.status ?? null] as const,
   workRecord: (id: string) => [...maintenanceKeys.all, 'work-record', id] as const,
 };
 
-export const bearingsQuery = () => queryOptions({ queryKey: maintenanceKeys.bearings(), queryFn: () => api<BearingListItem[]>('/maintenance/bearings') });
+export const bearingsQuery = () =>
+  queryOptions({ queryKey: maintenanceKeys.bearings(), queryFn: () => api<BearingListItem[]>('/maintenance/bearings') });
 export const bearingHistoryQuery = (id: string) =>
   queryOptions({ queryKey: maintenanceKeys.history(id), queryFn: () => api<BearingHistory>(`/maintenance/bearings/${id}/history`) });
 export const dueListQuery = (engineId?: string) =>
   queryOptions({ queryKey: maintenanceKeys.due(engineId), queryFn: () => api<DueList>(`/maintenance/due${query({ engineId })}`) });
 export const plansQuery = (engineId?: string) =>
-  queryOptions({ queryKey: maintenanceKeys.plans(engineId), queryFn: () => api<InspectionPlanDto[]>(`/maintenance/plans${query({ engineId })}`) });
-export const planQuery = (id: string) => queryOptions({ queryKey: maintenanceKeys.plan(id), queryFn: () => api<InspectionPlanDto>(`/maintenance/plans/${id}`) });
+  queryOptions({
+    queryKey: maintenanceKeys.plans(engineId),
+    queryFn: () => api<InspectionPlanDto[]>(`/maintenance/plans${query({ engineId })}`),
+  });
+export const planQuery = (id: string) =>
+  queryOptions({ queryKey: maintenanceKeys.plan(id), queryFn: () => api<InspectionPlanDto>(`/maintenance/plans/${id}`) });
 export const inspectionsQuery = (f: { engineId?: string; bearingId?: string } = {}) =>
-  queryOptions({ queryKey: maintenanceKeys.inspections(f), queryFn: () => api<InspectionSummary[]>(`/maintenance/inspections${query(f)}`) });
+  queryOptions({
+    queryKey: maintenanceKeys.inspections(f),
+    queryFn: () => api<InspectionSummary[]>(`/maintenance/inspections${query(f)}`),
+  });
 export const inspectionQuery = (id: string) =>
   queryOptions({ queryKey: maintenanceKeys.inspection(id), queryFn: () => api<InspectionDto>(`/maintenance/inspections/${id}`) });
 export const workRecordsQuery = (f: { engineId?: string; bearingId?: string; status?: 'open' | 'closed' } = {}) =>
@@ -73,15 +83,24 @@ function useRefresh() {
 
 export function useCreatePlan() {
   const refresh = useRefresh();
-  return useMutation({ mutationFn: (req: InspectionPlanWriteRequest) => api<InspectionPlanDto>('/maintenance/plans', { body: req }), onSuccess: refresh });
+  return useMutation({
+    mutationFn: (req: InspectionPlanWriteRequest) => api<InspectionPlanDto>('/maintenance/plans', { body: req }),
+    onSuccess: refresh,
+  });
 }
 export function useUpdatePlan(id: string) {
   const refresh = useRefresh();
-  return useMutation({ mutationFn: (req: InspectionPlanUpdateRequest) => api<InspectionPlanDto>(`/maintenance/plans/${id}`, { method: 'PATCH', body: req }), onSuccess: refresh });
+  return useMutation({
+    mutationFn: (req: InspectionPlanUpdateRequest) => api<InspectionPlanDto>(`/maintenance/plans/${id}`, { method: 'PATCH', body: req }),
+    onSuccess: refresh,
+  });
 }
 export function useCreateInspection() {
   const refresh = useRefresh();
-  return useMutation({ mutationFn: (req: InspectionCreateRequest) => api<InspectionDto>('/maintenance/inspections', { body: req }), onSuccess: refresh });
+  return useMutation({
+    mutationFn: (req: InspectionCreateRequest) => api<InspectionDto>('/maintenance/inspections', { body: req }),
+    onSuccess: refresh,
+  });
 }
 export function useUploadAttachment(inspectionId: string) {
   const refresh = useRefresh();
@@ -97,9 +116,15 @@ export function useUploadAttachment(inspectionId: string) {
 }
 export function useCreateWorkRecord() {
   const refresh = useRefresh();
-  return useMutation({ mutationFn: (req: WorkRecordCreateRequest) => api<WorkRecordDto>('/maintenance/work-records', { body: req }), onSuccess: refresh });
+  return useMutation({
+    mutationFn: (req: WorkRecordCreateRequest) => api<WorkRecordDto>('/maintenance/work-records', { body: req }),
+    onSuccess: refresh,
+  });
 }
 export function useCloseWorkRecord(id: string) {
   const refresh = useRefresh();
-  return useMutation({ mutationFn: (req: CloseWorkRecordRequest) => api<WorkRecordDto>(`/maintenance/work-records/${id}/close`, { body: req }), onSuccess: refresh });
+  return useMutation({
+    mutationFn: (req: CloseWorkRecordRequest) => api<WorkRecordDto>(`/maintenance/work-records/${id}/close`, { body: req }),
+    onSuccess: refresh,
+  });
 }

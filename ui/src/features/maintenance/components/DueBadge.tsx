@@ -8,7 +8,14 @@ const noCut = { root: { overflow: 'visible', flexShrink: 0 }, label: { overflow:
 export function DueBadge({ status, size = 'md' }: { status: DueStatus; size?: 'sm' | 'md' | 'lg' }) {
   if (status === 'overdue')
     return (
-      <Badge color="signal" variant="filled" size={size} styles={noCut} leftSection={<IconAlertOctagon size={14} />} data-testid="due-overdue">
+      <Badge
+        color="signal"
+        variant="filled"
+        size={size}
+        styles={noCut}
+        leftSection={<IconAlertOctagon size={14} />}
+        data-testid="due-overdue"
+      >
         {DUE_STATUS_LABELS.overdue}
       </Badge>
     );

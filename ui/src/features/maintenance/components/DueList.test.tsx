@@ -4,7 +4,8 @@ import { DueList } from './DueList';
 import { TodayMaintenance } from './TodayMaintenance';
 import { plan } from '../test/fixtures';
 
-const json = (body: unknown, status = 200) => new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
+const json = (body: unknown, status = 200) =>
+  new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
 
 describe('the due list', () => {
   afterEach(() => {
@@ -13,7 +14,15 @@ describe('the due list', () => {
   });
 
   it('marks an overdue plan by word, with how far over, and a due-soon one apart from the ones in date', () => {
-    render(<DueList plans={[plan('p1', 'Main bearing 1 clearance', 'overdue', -45), plan('p2', 'Governor', 'due_soon', 1.4), plan('p3', 'Crank webs', 'ok', 500)]} />);
+    render(
+      <DueList
+        plans={[
+          plan('p1', 'Main bearing 1 clearance', 'overdue', -45),
+          plan('p2', 'Governor', 'due_soon', 1.4),
+          plan('p3', 'Crank webs', 'ok', 500),
+        ]}
+      />,
+    );
     const rows = screen.getAllByRole('row').slice(1);
     expect(within(rows[0]).getByText('Overdue')).toBeInTheDocument();
     expect(within(rows[0]).getByText(/45 days over/)).toBeInTheDocument();
@@ -24,13 +33,35 @@ describe('the due list', () => {
   });
 
   it('on the Today screen shows only what needs someone, overdue marked, and bearings that drifted', async () => {
-    sessionStore.set({ accessToken: 'a', refreshToken: 'r', user: { id: 'u1', email: 'm@alderforge.example', displayName: 'Test Lead', role: 'maintenance_lead', unitSystem: 'imperial' } });
+    sessionStore.set({
+      accessToken: 'a',
+      refreshToken: 'r',
+      user: { id: 'u1', email: 'm@alderforge.example', displayName: 'Test Lead', role: 'maintenance_lead', unitSystem: 'imperial' },
+    });
     vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
       const url = String(input);
       if (url.startsWith('/api/maintenance/due'))
-        return json({ items: [plan('p1', 'Main bearing 1 clearance', 'overdue', -45), plan('p3', 'Crank webs', 'ok', 500)], ruleText: 'Whichever comes first.', generatedAt: '2026-12-01T00:00:00Z' });
+        return json({
+          items: [plan('p1', 'Main bearing 1 clearance', 'overdue', -45), plan('p3', 'Crank webs', 'ok', 500)],
+          ruleText: 'Whichever comes first.',
+          generatedAt: '2026-12-01T00:00:00Z',
+        });
       if (url.startsWith('/api/maintenance/bearings'))
-        return json([{ id: 'b2', engineId: 'e1', engineName: 'No. 2 engine', label: 'Main bearing 2', kind: 'main', pointCodes: ['MB2-T'], runCount: 6, lastRunAt: null, latestRunDrift: true, driftRuns: 1, lastInspectionAt: null }]);
+        return json([
+          {
+            id: 'b2',
+            engineId: 'e1',
+            engineName: 'No. 2 engine',
+            label: 'Main bearing 2',
+            kind: 'main',
+            pointCodes: ['MB2-T'],
+            runCount: 6,
+            lastRunAt: null,
+            latestRunDrift: true,
+            driftRuns: 1,
+            lastInspectionAt: null,
+          },
+        ]);
       return json({ imperial: {}, metric: {} });
     });
     render(<TodayMaintenance />);

@@ -5,7 +5,15 @@ import { DueBadge } from './DueBadge';
 import { day, intervalText, remainingText } from '../model/format';
 
 /** Plans with their status: the governing criterion, what is left of it and the (estimated) due date. */
-export function DueList({ plans, compact = false, showEngine = false }: { plans: InspectionPlanDto[]; compact?: boolean; showEngine?: boolean }) {
+export function DueList({
+  plans,
+  compact = false,
+  showEngine = false,
+}: {
+  plans: InspectionPlanDto[];
+  compact?: boolean;
+  showEngine?: boolean;
+}) {
   return (
     <Table.ScrollContainer minWidth={compact ? 420 : 760}>
       <Table verticalSpacing="sm" aria-label="Inspections due" data-testid="due-list">

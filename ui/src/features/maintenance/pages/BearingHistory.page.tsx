@@ -13,12 +13,16 @@ import { DriftBadge } from '../components/DriftBadge';
 import { RiseVsLoadChart, SeasonsChart } from '../components/HistoryCharts';
 import { day, fmt } from '../model/format';
 
-
 const HOT_BEARING_CAUTION =
   'A bearing running above its usual band is a warning, not a verdict: follow the engine house’s hot-bearing procedure (ease the load, open the feed, never cool a hot journal suddenly) and stop the engine if the rise keeps on. Crankjournal aids a qualified crew; it never replaces local codes, the insurer’s inspections or licensed practice.';
 
 function DriftCell({ r }: { r: BearingRunRow }) {
-  if (!r.drift) return <Text fz="xs" c="dimmed">{r.driftNote ?? '—'}</Text>;
+  if (!r.drift)
+    return (
+      <Text fz="xs" c="dimmed">
+        {r.driftNote ?? '—'}
+      </Text>
+    );
   if (r.drift.flagged)
     return (
       <Stack gap={2}>
@@ -54,7 +58,12 @@ function RunsTable({ history }: { history: BearingHistory }) {
         </Table.Thead>
         <Table.Tbody>
           {[...history.runs].reverse().map((r) => (
-            <Table.Tr key={r.runId} data-testid={`bearing-run-${r.runId}`} data-flagged={r.drift?.flagged ? 'true' : 'false'} bg={r.drift?.flagged ? 'var(--mantine-color-amber-light)' : undefined}>
+            <Table.Tr
+              key={r.runId}
+              data-testid={`bearing-run-${r.runId}`}
+              data-flagged={r.drift?.flagged ? 'true' : 'false'}
+              bg={r.drift?.flagged ? 'var(--mantine-color-amber-light)' : undefined}
+            >
               <Table.Td>{day(r.startedAt)}</Table.Td>
               <Table.Td>
                 <Anchor component={Link} to={`/runs/${r.runId}`}>
@@ -74,12 +83,23 @@ function RunsTable({ history }: { history: BearingHistory }) {
                 <UnitValue value={r.riseAtPeakF} unit="degF" delta size="sm" decimals={1} />
               </Table.Td>
               <Table.Td>{r.meanSpeedRpm === null ? '—' : <UnitValue value={r.meanSpeedRpm} unit="rpm" size="sm" decimals={1} />}</Table.Td>
-              <Table.Td>{r.indicatedHp === null ? <Text c="dimmed">—</Text> : <UnitValue value={r.indicatedHp} unit="hp" raw size="sm" decimals={0} />}</Table.Td>
+              <Table.Td>
+                {r.indicatedHp === null ? (
+                  <Text c="dimmed">—</Text>
+                ) : (
+                  <UnitValue value={r.indicatedHp} unit="hp" raw size="sm" decimals={0} />
+                )}
+              </Table.Td>
               <Table.Td>
                 <Group gap={4}>
                   {r.alarms.length === 0 && <Text c="dimmed">—</Text>}
                   {r.alarms.map((a) => (
-                    <Badge key={a.id} size="sm" variant={a.priority === 'high_high' ? 'filled' : 'light'} color={a.priority === 'high_high' ? 'signal' : 'amber'}>
+                    <Badge
+                      key={a.id}
+                      size="sm"
+                      variant={a.priority === 'high_high' ? 'filled' : 'light'}
+                      color={a.priority === 'high_high' ? 'signal' : 'amber'}
+                    >
                       {ALARM_KIND_WORDS[a.kind]}
                     </Badge>
                   ))}
@@ -98,7 +118,8 @@ function RunsTable({ history }: { history: BearingHistory }) {
 
 const TIMELINE_ICON = { run: IconEngine, inspection: IconClipboardCheck, work: IconTool } as const;
 const TIMELINE_WORD = { run: 'Run', inspection: 'Inspection', work: 'Work' } as const;
-const timelineLink = (t: TimelineEntry) => (t.type === 'run' ? `/runs/${t.id}` : t.type === 'inspection' ? `/maintenance/inspections/${t.id}` : `/maintenance/work/${t.id}`);
+const timelineLink = (t: TimelineEntry) =>
+  t.type === 'run' ? `/runs/${t.id}` : t.type === 'inspection' ? `/maintenance/inspections/${t.id}` : `/maintenance/work/${t.id}`;
 
 function Timeline({ entries }: { entries: TimelineEntry[] }) {
   return (
@@ -107,7 +128,11 @@ function Timeline({ entries }: { entries: TimelineEntry[] }) {
         const Icon = TIMELINE_ICON[t.type];
         return (
           <Group key={`${t.type}-${t.id}`} gap="sm" wrap="nowrap" align="flex-start">
-            <ThemeIcon variant={t.attention ? 'filled' : 'light'} color={t.attention ? (t.type === 'work' ? 'brass' : 'amber') : 'gray'} size={36}>
+            <ThemeIcon
+              variant={t.attention ? 'filled' : 'light'}
+              color={t.attention ? (t.type === 'work' ? 'brass' : 'amber') : 'gray'}
+              size={36}
+            >
               <Icon size={20} />
             </ThemeIcon>
             <Stack gap={0}>
@@ -157,7 +182,11 @@ export default function BearingHistoryPage() {
               CSV
             </Button>
             {canWrite && (
-              <Button component={Link} to={`/maintenance/inspections/new?engineId=${b.engineId}&bearingId=${b.id}`} leftSection={<IconPlus size={18} />}>
+              <Button
+                component={Link}
+                to={`/maintenance/inspections/new?engineId=${b.engineId}&bearingId=${b.id}`}
+                leftSection={<IconPlus size={18} />}
+              >
                 Record an inspection
               </Button>
             )}
@@ -165,8 +194,18 @@ export default function BearingHistoryPage() {
         }
       />
       {flagged.length > 0 && (
-        <Alert color="amber" variant="light" title={`${flagged.length === 1 ? 'One run' : `${flagged.length} runs`} above this bearing’s usual band`} data-testid="drift-summary">
-          {flagged.map((r) => `${r.title} (${day(r.startedAt)}): rise ${fmt(r.riseAtPeakF, 1)} °F against a limit of ${fmt(r.drift!.limitF, 1)} °F`).join('; ')}.
+        <Alert
+          color="amber"
+          variant="light"
+          title={`${flagged.length === 1 ? 'One run' : `${flagged.length} runs`} above this bearing’s usual band`}
+          data-testid="drift-summary"
+        >
+          {flagged
+            .map(
+              (r) => `${r.title} (${day(r.startedAt)}): rise ${fmt(r.riseAtPeakF, 1)} °F against a limit of ${fmt(r.drift!.limitF, 1)} °F`,
+            )
+            .join('; ')}
+          .
         </Alert>
       )}
       <Card withBorder padding="md" radius="md">
@@ -198,7 +237,12 @@ export default function BearingHistoryPage() {
             Runs, inspections and work
           </Title>
           {canWrite && (
-            <Button component={Link} to={`/maintenance/work/new?engineId=${b.engineId}&bearingId=${b.id}`} variant="default" leftSection={<IconTool size={18} />}>
+            <Button
+              component={Link}
+              to={`/maintenance/work/new?engineId=${b.engineId}&bearingId=${b.id}`}
+              variant="default"
+              leftSection={<IconTool size={18} />}
+            >
               Record work
             </Button>
           )}

@@ -5,11 +5,16 @@ import BearingHistoryPage from './BearingHistory.page';
 import InspectionPage from './Inspection.page';
 import { HISTORY, INSPECTION } from '../test/fixtures';
 
-const json = (body: unknown, status = 200) => new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
+const json = (body: unknown, status = 200) =>
+  new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
 
 describe('a bearing’s history', () => {
   beforeEach(() => {
-    sessionStore.set({ accessToken: 'a', refreshToken: 'r', user: { id: 'u1', email: 'o@alderforge.example', displayName: 'Test Observer', role: 'observer', unitSystem: 'imperial' } });
+    sessionStore.set({
+      accessToken: 'a',
+      refreshToken: 'r',
+      user: { id: 'u1', email: 'o@alderforge.example', displayName: 'Test Observer', role: 'observer', unitSystem: 'imperial' },
+    });
     vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
       const url = String(input);
       if (url === '/api/maintenance/bearings/b2/history') return json(HISTORY);
@@ -40,7 +45,10 @@ describe('a bearing’s history', () => {
     // Observers read: no button to record anything.
     expect(screen.queryByRole('link', { name: /Record an inspection/ })).not.toBeInTheDocument();
     const timeline = screen.getByTestId('bearing-timeline');
-    expect(within(timeline).getByRole('link', { name: 'Main bearing 2 after the August hot run' })).toHaveAttribute('href', '/maintenance/inspections/i1');
+    expect(within(timeline).getByRole('link', { name: 'Main bearing 2 after the August hot run' })).toHaveAttribute(
+      'href',
+      '/maintenance/inspections/i1',
+    );
   });
 
   it('an inspection marks the measurement out of tolerance and by how much', async () => {

@@ -13,7 +13,10 @@ export default function BearingsPage() {
   const { data, isLoading, error } = useQuery(bearingsQuery());
   return (
     <Stack gap="lg">
-      <PageHeader title="Bearings" subtitle="Each bearing against its own history: temperatures at load over the seasons, the drift flag, inspections and work." />
+      <PageHeader
+        title="Bearings"
+        subtitle="Each bearing against its own history: temperatures at load over the seasons, the drift flag, inspections and work."
+      />
       {isLoading && <Loader />}
       {error && <Alert color="signal">{errorText(error)}</Alert>}
       {data && (

@@ -1,9 +1,31 @@
 import { useEffect, useState } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { useQuery } from '@tanstack/react-query';
-import { Alert, Anchor, Badge, Button, Card, FileInput, Group, Image, Loader, SimpleGrid, Stack, Table, Text, TextInput, Title } from '@mantine/core';
+import {
+  Alert,
+  Anchor,
+  Badge,
+  Button,
+  Card,
+  FileInput,
+  Group,
+  Image,
+  Loader,
+  SimpleGrid,
+  Stack,
+  Table,
+  Text,
+  TextInput,
+  Title,
+} from '@mantine/core';
 import { IconAlertOctagon, IconCheck, IconFileTypePdf, IconPaperclip, IconTool } from '@tabler/icons-react';
-import { INSPECTION_KIND_LABELS, MEASUREMENT_ITEM_KIND_LABELS, type AttachmentDto, type InspectionDto, type MeasurementItemDto } from '@crankjournal/shared-types';
+import {
+  INSPECTION_KIND_LABELS,
+  MEASUREMENT_ITEM_KIND_LABELS,
+  type AttachmentDto,
+  type InspectionDto,
+  type MeasurementItemDto,
+} from '@crankjournal/shared-types';
 import { errorText } from '../../../api/http';
 import { PageHeader } from '../../../components/PageHeader';
 import { useHasRole } from '../../auth/useSession';
@@ -12,7 +34,12 @@ import { HazardCautions } from '../components/HazardCautions';
 import { day, fmt, measure } from '../model/format';
 
 function ToleranceCell({ m }: { m: MeasurementItemDto }) {
-  if (m.status === 'no_tolerance') return <Text c="dimmed" fz="sm">No tolerance set</Text>;
+  if (m.status === 'no_tolerance')
+    return (
+      <Text c="dimmed" fz="sm">
+        No tolerance set
+      </Text>
+    );
   if (!m.outOfTolerance)
     return (
       <Group gap={4} wrap="nowrap">
@@ -44,11 +71,20 @@ function Measurements({ inspection }: { inspection: InspectionDto }) {
         </Table.Thead>
         <Table.Tbody>
           {inspection.measurements.map((m) => (
-            <Table.Tr key={m.id} data-out={m.outOfTolerance ? 'true' : 'false'} bg={m.outOfTolerance ? 'var(--mantine-color-signal-light)' : undefined}>
+            <Table.Tr
+              key={m.id}
+              data-out={m.outOfTolerance ? 'true' : 'false'}
+              bg={m.outOfTolerance ? 'var(--mantine-color-signal-light)' : undefined}
+            >
               <Table.Td>{MEASUREMENT_ITEM_KIND_LABELS[m.kind]}</Table.Td>
               <Table.Td>
                 {m.label}
-                {m.crankAngleDeg !== null && m.kind === 'web_deflection' ? <Text span c="dimmed" fz="xs"> · crank at {fmt(m.crankAngleDeg, 0)}°</Text> : null}
+                {m.crankAngleDeg !== null && m.kind === 'web_deflection' ? (
+                  <Text span c="dimmed" fz="xs">
+                    {' '}
+                    · crank at {fmt(m.crankAngleDeg, 0)}°
+                  </Text>
+                ) : null}
                 {m.note && (
                   <Text fz="xs" c="dimmed">
                     {m.note}
@@ -60,7 +96,9 @@ function Measurements({ inspection }: { inspection: InspectionDto }) {
               </Table.Td>
               <Table.Td>{measure(m.nominal, m.unit)}</Table.Td>
               <Table.Td>
-                {m.toleranceMin === null && m.toleranceMax === null ? '—' : `${m.toleranceMin === null ? '…' : measure(m.toleranceMin, m.unit)} to ${m.toleranceMax === null ? '…' : measure(m.toleranceMax, m.unit)}`}
+                {m.toleranceMin === null && m.toleranceMax === null
+                  ? '—'
+                  : `${m.toleranceMin === null ? '…' : measure(m.toleranceMin, m.unit)} to ${m.toleranceMax === null ? '…' : measure(m.toleranceMax, m.unit)}`}
               </Table.Td>
               <Table.Td>
                 <ToleranceCell m={m} />
@@ -93,7 +131,13 @@ function Photo({ a }: { a: AttachmentDto }) {
   }, [a.id]);
   return (
     <Card withBorder padding="xs" radius="sm">
-      {url ? <Image src={url} alt={a.caption || a.filename} radius="sm" /> : failed ? <Text c="dimmed">The photo could not be loaded.</Text> : <Loader size="sm" />}
+      {url ? (
+        <Image src={url} alt={a.caption || a.filename} radius="sm" />
+      ) : failed ? (
+        <Text c="dimmed">The photo could not be loaded.</Text>
+      ) : (
+        <Loader size="sm" />
+      )}
       <Text fz="sm" mt={6}>
         {a.caption || a.filename}
       </Text>
@@ -133,7 +177,16 @@ function Attachments({ inspection, canWrite }: { inspection: InspectionDto; canW
       ))}
       {canWrite && (
         <Group align="flex-end" gap="sm" wrap="wrap">
-          <FileInput label="Photo or PDF" placeholder="Choose a file" accept="image/png,image/jpeg,image/webp,image/gif,application/pdf" value={file} onChange={setFile} leftSection={<IconPaperclip size={16} />} w={260} clearable />
+          <FileInput
+            label="Photo or PDF"
+            placeholder="Choose a file"
+            accept="image/png,image/jpeg,image/webp,image/gif,application/pdf"
+            value={file}
+            onChange={setFile}
+            leftSection={<IconPaperclip size={16} />}
+            w={260}
+            clearable
+          />
           <TextInput label="Caption" value={caption} onChange={(e) => setCaption(e.currentTarget.value)} w={320} />
           <Button
             disabled={!file}
@@ -237,7 +290,10 @@ export default function InspectionPage() {
               Inspected by
             </Text>
             <Text>
-              {i.inspectorName || '—'} <Text span c="dimmed" fz="sm">(recorded by {i.recordedByName})</Text>
+              {i.inspectorName || '—'}{' '}
+              <Text span c="dimmed" fz="sm">
+                (recorded by {i.recordedByName})
+              </Text>
             </Text>
           </Stack>
         </SimpleGrid>
@@ -249,7 +305,8 @@ export default function InspectionPage() {
         <Measurements inspection={i} />
         {i.webDeflection && (
           <Text mt="sm" className="cj-num">
-            Crank web deflection: largest spread round the turn {measure(i.webDeflection.spread, i.webDeflection.unit)} over {i.webDeflection.readings} readings.
+            Crank web deflection: largest spread round the turn {measure(i.webDeflection.spread, i.webDeflection.unit)} over{' '}
+            {i.webDeflection.readings} readings.
           </Text>
         )}
       </Card>
@@ -272,7 +329,11 @@ export default function InspectionPage() {
               const w = a.workRecordId ? i.workRecords.find((x) => x.id === a.workRecordId) : undefined;
               return (
                 <Group key={n} gap="sm" wrap="nowrap" align="flex-start">
-                  {w?.status === 'closed' ? <IconCheck size={18} color="var(--mantine-color-copper-6)" /> : <Text c="dimmed">{n + 1}.</Text>}
+                  {w?.status === 'closed' ? (
+                    <IconCheck size={18} color="var(--mantine-color-copper-6)" />
+                  ) : (
+                    <Text c="dimmed">{n + 1}.</Text>
+                  )}
                   <Stack gap={0}>
                     <Text>{a.text}</Text>
                     {w && (

@@ -61,7 +61,9 @@ export default function InspectionsPage() {
                     <Table.Td>{i.bearingLabel ?? '—'}</Table.Td>
                     <Table.Td>
                       {i.outOfToleranceCount > 0 ? (
-                        <Badge color="signal">{i.outOfToleranceCount} of {i.measurementCount} out of tolerance</Badge>
+                        <Badge color="signal">
+                          {i.outOfToleranceCount} of {i.measurementCount} out of tolerance
+                        </Badge>
                       ) : (
                         <Text fz="sm" c="dimmed">
                           {i.measurementCount ? `${i.measurementCount}, all within` : 'none'}
@@ -84,7 +86,9 @@ export default function InspectionsPage() {
 export function WorkRecordsPage() {
   const canWrite = useHasRole('maintenance_lead', 'chief_engineer');
   const { data, isLoading, error } = useQuery(workRecordsQuery());
-  const rows = [...(data ?? [])].sort((a, b) => (a.status === b.status ? b.startedAt.localeCompare(a.startedAt) : a.status === 'open' ? -1 : 1));
+  const rows = [...(data ?? [])].sort((a, b) =>
+    a.status === b.status ? b.startedAt.localeCompare(a.startedAt) : a.status === 'open' ? -1 : 1,
+  );
   return (
     <Stack gap="lg">
       <PageHeader
@@ -127,7 +131,15 @@ export function WorkRecordsPage() {
                     </Anchor>
                   </Table.Td>
                   <Table.Td>{w.bearingLabel ?? '—'}</Table.Td>
-                  <Table.Td>{w.status === 'open' ? <Badge color="brass">Open</Badge> : <Text fz="sm" c="dimmed">Closed {day(w.closedAt)}</Text>}</Table.Td>
+                  <Table.Td>
+                    {w.status === 'open' ? (
+                      <Badge color="brass">Open</Badge>
+                    ) : (
+                      <Text fz="sm" c="dimmed">
+                        Closed {day(w.closedAt)}
+                      </Text>
+                    )}
+                  </Table.Td>
                 </Table.Tr>
               ))}
             </Table.Tbody>

@@ -1,7 +1,22 @@
 import { useEffect, useState } from 'react';
 import { useNavigate, useSearchParams } from 'react-router-dom';
 import { useQuery } from '@tanstack/react-query';
-import { ActionIcon, Alert, Button, Card, Checkbox, Group, NumberInput, Select, SimpleGrid, Stack, Text, TextInput, Textarea, Title } from '@mantine/core';
+import {
+  ActionIcon,
+  Alert,
+  Button,
+  Card,
+  Checkbox,
+  Group,
+  NumberInput,
+  Select,
+  SimpleGrid,
+  Stack,
+  Text,
+  TextInput,
+  Textarea,
+  Title,
+} from '@mantine/core';
 import { IconPlus, IconTrash } from '@tabler/icons-react';
 import {
   INSPECTION_KINDS,
@@ -32,13 +47,35 @@ export interface ItemRow {
   toleranceMin: Num;
   toleranceMax: Num;
 }
-const row = (over: Partial<ItemRow>): ItemRow => ({ kind: 'other', label: '', crankAngleDeg: '', value: '', unit: 'in', nominal: '', toleranceMin: '', toleranceMax: '', ...over });
+const row = (over: Partial<ItemRow>): ItemRow => ({
+  kind: 'other',
+  label: '',
+  crankAngleDeg: '',
+  value: '',
+  unit: 'in',
+  nominal: '',
+  toleranceMin: '',
+  toleranceMax: '',
+  ...over,
+});
 
 /** Rows to start from for the usual sets of measurements (tolerances are left for the crew's own figures). */
 export const PRESETS: { key: string; label: string; rows: () => ItemRow[] }[] = [
-  { key: 'lead', label: 'Lead-wire clearances', rows: () => ['Top, crank end', 'Top, centre', 'Top, flywheel end'].map((label) => row({ kind: 'clearance_lead_wire', label })) },
-  { key: 'feeler', label: 'Feeler side clearances', rows: () => ['Side, cylinder side', 'Side, far side'].map((label) => row({ kind: 'clearance_feeler', label })) },
-  { key: 'web', label: 'Web deflection at the standard angles', rows: () => STANDARD_CRANK_ANGLES.map((a) => row({ kind: 'web_deflection', label: a.label, crankAngleDeg: a.deg, nominal: 0 })) },
+  {
+    key: 'lead',
+    label: 'Lead-wire clearances',
+    rows: () => ['Top, crank end', 'Top, centre', 'Top, flywheel end'].map((label) => row({ kind: 'clearance_lead_wire', label })),
+  },
+  {
+    key: 'feeler',
+    label: 'Feeler side clearances',
+    rows: () => ['Side, cylinder side', 'Side, far side'].map((label) => row({ kind: 'clearance_feeler', label })),
+  },
+  {
+    key: 'web',
+    label: 'Web deflection at the standard angles',
+    rows: () => STANDARD_CRANK_ANGLES.map((a) => row({ kind: 'web_deflection', label: a.label, crankAngleDeg: a.deg, nominal: 0 })),
+  },
   {
     key: 'alignment',
     label: 'Level, squareness and offsets',
@@ -132,12 +169,34 @@ export default function NewInspectionPage() {
 
   const setRow = (i: number, patch: Partial<ItemRow>) => setRows((rs) => rs.map((r, j) => (j === i ? { ...r, ...patch } : r)));
   const numIn = (label: string, value: Num, onChange: (v: Num) => void, w = 110) => (
-    <NumberInput label={label} value={value} onChange={(v) => onChange(v === '' ? '' : Number(v))} hideControls inputMode="decimal" decimalScale={5} w={w} />
+    <NumberInput
+      label={label}
+      value={value}
+      onChange={(v) => onChange(v === '' ? '' : Number(v))}
+      hideControls
+      inputMode="decimal"
+      decimalScale={5}
+      w={w}
+    />
   );
   const save = async () => {
     setError(null);
     try {
-      const made = await create.mutateAsync(toInspectionRequest({ engineId, bearingId, planId, completesPlan, kind, title, inspectedAt, inspectorName, findings, followUps, rows }));
+      const made = await create.mutateAsync(
+        toInspectionRequest({
+          engineId,
+          bearingId,
+          planId,
+          completesPlan,
+          kind,
+          title,
+          inspectedAt,
+          inspectorName,
+          findings,
+          followUps,
+          rows,
+        }),
+      );
       navigate(`/maintenance/inspections/${made.id}`);
     } catch (e) {
       setError(errorText(e));
@@ -145,20 +204,61 @@ export default function NewInspectionPage() {
   };
   return (
     <Stack gap="lg">
-      <PageHeader title="Record an inspection" subtitle="Each measurement is judged against its tolerance when the record is saved; the record is then kept as it was." />
+      <PageHeader
+        title="Record an inspection"
+        subtitle="Each measurement is judged against its tolerance when the record is saved; the record is then kept as it was."
+      />
       <HazardCautions hazards={['lockout', 'lifting', 'raised_load']} />
       <Card withBorder padding="lg" radius="md">
         <SimpleGrid cols={{ base: 1, sm: 2, lg: 3 }} spacing="md">
-          <Select label="Engine" data={(engines.data ?? []).map((e) => ({ value: e.id, label: e.name }))} value={engineId || null} onChange={(v) => { setEngineId(v ?? ''); setBearingId(''); setPlanId(''); }} allowDeselect={false} />
-          <Select label="Bearing (if the inspection is of one)" data={(engine.data?.bearings ?? []).map((b) => ({ value: b.id, label: b.label }))} value={bearingId || null} onChange={(v) => setBearingId(v ?? '')} clearable />
-          <Select label="Under the plan" data={(plans.data ?? []).map((p) => ({ value: p.id, label: p.title }))} value={planId || null} onChange={(v) => setPlanId(v ?? '')} clearable />
-          <Select label="Kind" data={INSPECTION_KINDS.map((k) => ({ value: k, label: INSPECTION_KIND_LABELS[k] }))} value={kind} onChange={(v) => setKind((v ?? 'general') as InspectionKind)} allowDeselect={false} />
+          <Select
+            label="Engine"
+            data={(engines.data ?? []).map((e) => ({ value: e.id, label: e.name }))}
+            value={engineId || null}
+            onChange={(v) => {
+              setEngineId(v ?? '');
+              setBearingId('');
+              setPlanId('');
+            }}
+            allowDeselect={false}
+          />
+          <Select
+            label="Bearing (if the inspection is of one)"
+            data={(engine.data?.bearings ?? []).map((b) => ({ value: b.id, label: b.label }))}
+            value={bearingId || null}
+            onChange={(v) => setBearingId(v ?? '')}
+            clearable
+          />
+          <Select
+            label="Under the plan"
+            data={(plans.data ?? []).map((p) => ({ value: p.id, label: p.title }))}
+            value={planId || null}
+            onChange={(v) => setPlanId(v ?? '')}
+            clearable
+          />
+          <Select
+            label="Kind"
+            data={INSPECTION_KINDS.map((k) => ({ value: k, label: INSPECTION_KIND_LABELS[k] }))}
+            value={kind}
+            onChange={(v) => setKind((v ?? 'general') as InspectionKind)}
+            allowDeselect={false}
+          />
           <TextInput label="Title" value={title} onChange={(e) => setTitle(e.currentTarget.value)} required />
-          <TextInput label="Inspected at" type="datetime-local" value={inspectedAt} onChange={(e) => setInspectedAt(e.currentTarget.value)} />
+          <TextInput
+            label="Inspected at"
+            type="datetime-local"
+            value={inspectedAt}
+            onChange={(e) => setInspectedAt(e.currentTarget.value)}
+          />
           <TextInput label="Inspected by" value={inspectorName} onChange={(e) => setInspectorName(e.currentTarget.value)} />
         </SimpleGrid>
         {planId && (
-          <Checkbox mt="md" label="This inspection completes the plan (its intervals start again from this date)" checked={completesPlan} onChange={(e) => setCompletesPlan(e.currentTarget.checked)} />
+          <Checkbox
+            mt="md"
+            label="This inspection completes the plan (its intervals start again from this date)"
+            checked={completesPlan}
+            onChange={(e) => setCompletesPlan(e.currentTarget.checked)}
+          />
         )}
       </Card>
       <Card withBorder padding="lg" radius="md">
@@ -181,15 +281,33 @@ export default function NewInspectionPage() {
         <Stack gap="sm">
           {rows.map((r, i) => (
             <Group key={i} gap="xs" align="flex-end" wrap="wrap" data-testid={`measurement-row-${i}`}>
-              <Select label="Kind" data={MEASUREMENT_ITEM_KINDS.map((k) => ({ value: k, label: MEASUREMENT_ITEM_KIND_LABELS[k] }))} value={r.kind} onChange={(v) => setRow(i, { kind: (v ?? 'other') as MeasurementItemKind })} w={230} allowDeselect={false} />
+              <Select
+                label="Kind"
+                data={MEASUREMENT_ITEM_KINDS.map((k) => ({ value: k, label: MEASUREMENT_ITEM_KIND_LABELS[k] }))}
+                value={r.kind}
+                onChange={(v) => setRow(i, { kind: (v ?? 'other') as MeasurementItemKind })}
+                w={230}
+                allowDeselect={false}
+              />
               <TextInput label="Where" value={r.label} onChange={(e) => setRow(i, { label: e.currentTarget.value })} w={230} />
               {r.kind === 'web_deflection' && numIn('Crank angle °', r.crankAngleDeg, (v) => setRow(i, { crankAngleDeg: v }), 100)}
               {numIn('Value', r.value, (v) => setRow(i, { value: v }))}
-              <Select label="Unit" data={[...MAINTENANCE_UNITS]} value={r.unit} onChange={(v) => setRow(i, { unit: (v ?? 'in') as MaintenanceUnit })} w={90} allowDeselect={false} />
+              <Select
+                label="Unit"
+                data={[...MAINTENANCE_UNITS]}
+                value={r.unit}
+                onChange={(v) => setRow(i, { unit: (v ?? 'in') as MaintenanceUnit })}
+                w={90}
+                allowDeselect={false}
+              />
               {numIn('Nominal', r.nominal, (v) => setRow(i, { nominal: v }))}
               {numIn('Least', r.toleranceMin, (v) => setRow(i, { toleranceMin: v }))}
               {numIn('Most', r.toleranceMax, (v) => setRow(i, { toleranceMax: v }))}
-              <ActionIcon variant="default" aria-label={`Remove measurement ${i + 1}`} onClick={() => setRows((rs) => rs.filter((_, j) => j !== i))}>
+              <ActionIcon
+                variant="default"
+                aria-label={`Remove measurement ${i + 1}`}
+                onClick={() => setRows((rs) => rs.filter((_, j) => j !== i))}
+              >
                 <IconTrash />
               </ActionIcon>
             </Group>
@@ -202,8 +320,18 @@ export default function NewInspectionPage() {
           <Text fw={600}>Follow-up actions</Text>
           {followUps.map((t, i) => (
             <Group key={i} gap="xs">
-              <TextInput value={t} onChange={(e) => setFollowUps((fs) => fs.map((x, j) => (j === i ? e.currentTarget.value : x)))} placeholder="What should be done" style={{ flex: 1 }} aria-label={`Follow-up action ${i + 1}`} />
-              <ActionIcon variant="default" aria-label={`Remove action ${i + 1}`} onClick={() => setFollowUps((fs) => fs.filter((_, j) => j !== i))}>
+              <TextInput
+                value={t}
+                onChange={(e) => setFollowUps((fs) => fs.map((x, j) => (j === i ? e.currentTarget.value : x)))}
+                placeholder="What should be done"
+                style={{ flex: 1 }}
+                aria-label={`Follow-up action ${i + 1}`}
+              />
+              <ActionIcon
+                variant="default"
+                aria-label={`Remove action ${i + 1}`}
+                onClick={() => setFollowUps((fs) => fs.filter((_, j) => j !== i))}
+              >
                 <IconTrash />
               </ActionIcon>
             </Group>
@@ -211,7 +339,11 @@ export default function NewInspectionPage() {
           <Button variant="default" w="fit-content" leftSection={<IconPlus size={14} />} onClick={() => setFollowUps((fs) => [...fs, ''])}>
             Another action
           </Button>
-          {error && <Alert color="signal" title="Not saved">{error}</Alert>}
+          {error && (
+            <Alert color="signal" title="Not saved">
+              {error}
+            </Alert>
+          )}
           <Group>
             <Button size="lg" onClick={() => void save()} loading={create.isPending} disabled={!engineId}>
               Save inspection

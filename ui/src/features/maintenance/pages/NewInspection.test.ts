@@ -20,13 +20,35 @@ describe('recording an inspection', () => {
       inspectorName: 'A',
       findings: 'F',
       followUps: ['Scrape', ' '],
-      rows: [{ kind: 'clearance_lead_wire', label: 'Top', crankAngleDeg: '', value: 0.027, unit: 'in', nominal: 0.016, toleranceMin: 0.012, toleranceMax: '' }],
+      rows: [
+        {
+          kind: 'clearance_lead_wire',
+          label: 'Top',
+          crankAngleDeg: '',
+          value: 0.027,
+          unit: 'in',
+          nominal: 0.016,
+          toleranceMin: 0.012,
+          toleranceMax: '',
+        },
+      ],
     });
     expect(req.bearingId).toBeNull();
     expect(req.planId).toBeNull();
     expect(req.completesPlan).toBe(false);
     expect(req.followUpActions).toEqual([{ text: 'Scrape' }]);
-    expect(req.measurements).toEqual([{ kind: 'clearance_lead_wire', label: 'Top', crankAngleDeg: null, value: 0.027, unit: 'in', nominal: 0.016, toleranceMin: 0.012, toleranceMax: null }]);
+    expect(req.measurements).toEqual([
+      {
+        kind: 'clearance_lead_wire',
+        label: 'Top',
+        crankAngleDeg: null,
+        value: 0.027,
+        unit: 'in',
+        nominal: 0.016,
+        toleranceMin: 0.012,
+        toleranceMax: null,
+      },
+    ]);
     expect(new Date(req.inspectedAt).getTime()).toBe(new Date('2026-08-20T09:00').getTime());
   });
 });

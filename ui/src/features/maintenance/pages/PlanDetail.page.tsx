@@ -83,12 +83,20 @@ export default function PlanDetailPage() {
               {p.lastResetByWorkRecordId ? (
                 <>
                   {' '}
-                  (<Anchor component={Link} to={`/maintenance/work/${p.lastResetByWorkRecordId}`}>reset by a work record</Anchor>)
+                  (
+                  <Anchor component={Link} to={`/maintenance/work/${p.lastResetByWorkRecordId}`}>
+                    reset by a work record
+                  </Anchor>
+                  )
                 </>
               ) : p.lastResetByInspectionId ? (
                 <>
                   {' '}
-                  (<Anchor component={Link} to={`/maintenance/inspections/${p.lastResetByInspectionId}`}>reset by an inspection</Anchor>)
+                  (
+                  <Anchor component={Link} to={`/maintenance/inspections/${p.lastResetByInspectionId}`}>
+                    reset by an inspection
+                  </Anchor>
+                  )
                 </>
               ) : null}
               .

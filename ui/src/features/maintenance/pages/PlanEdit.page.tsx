@@ -1,7 +1,22 @@
 import { useEffect, useState } from 'react';
 import { useNavigate, useParams } from 'react-router-dom';
 import { useQuery } from '@tanstack/react-query';
-import { Alert, Button, Card, Checkbox, Group, Loader, MultiSelect, NumberInput, Select, SimpleGrid, Stack, Text, TextInput, Textarea } from '@mantine/core';
+import {
+  Alert,
+  Button,
+  Card,
+  Checkbox,
+  Group,
+  Loader,
+  MultiSelect,
+  NumberInput,
+  Select,
+  SimpleGrid,
+  Stack,
+  Text,
+  TextInput,
+  Textarea,
+} from '@mantine/core';
 import {
   COMPONENT_KINDS,
   COMPONENT_KIND_LABELS,
@@ -108,7 +123,10 @@ export default function PlanEditPage() {
     const lastDoneAt = new Date(`${form.lastDoneAt}T12:00:00`).toISOString();
     try {
       const saved = id
-        ? await update.mutateAsync({ ...body, ...(existing.data && form.lastDoneAt !== existing.data.lastDoneAt.slice(0, 10) ? { lastDoneAt } : {}) })
+        ? await update.mutateAsync({
+            ...body,
+            ...(existing.data && form.lastDoneAt !== existing.data.lastDoneAt.slice(0, 10) ? { lastDoneAt } : {}),
+          })
         : await create.mutateAsync({ ...body, engineId: form.engineId, lastDoneAt });
       navigate(`/maintenance/plans/${saved.id}`);
     } catch (e) {
@@ -116,7 +134,15 @@ export default function PlanEditPage() {
     }
   };
   const numInput = (label: string, value: Num, onChange: (v: Num) => void, description?: string) => (
-    <NumberInput label={label} description={description} value={value} onChange={(v) => onChange(v === '' ? '' : Number(v))} min={0} hideControls inputMode="decimal" />
+    <NumberInput
+      label={label}
+      description={description}
+      value={value}
+      onChange={(v) => onChange(v === '' ? '' : Number(v))}
+      min={0}
+      hideControls
+      inputMode="decimal"
+    />
   );
   return (
     <Stack gap="lg">
@@ -132,7 +158,13 @@ export default function PlanEditPage() {
               disabled={!!id}
               allowDeselect={false}
             />
-            <TextInput label="Title" value={form.title} onChange={(e) => set({ title: e.currentTarget.value })} placeholder="Main bearing clearance" required />
+            <TextInput
+              label="Title"
+              value={form.title}
+              onChange={(e) => set({ title: e.currentTarget.value })}
+              placeholder="Main bearing clearance"
+              required
+            />
             <Select
               label="Component"
               data={COMPONENT_KINDS.map((k) => ({ value: k, label: COMPONENT_KIND_LABELS[k] }))}
@@ -149,7 +181,12 @@ export default function PlanEditPage() {
                 clearable
               />
             ) : (
-              <TextInput label="Component name" value={form.componentLabel} onChange={(e) => set({ componentLabel: e.currentTarget.value })} placeholder="Crankshaft webs" />
+              <TextInput
+                label="Component name"
+                value={form.componentLabel}
+                onChange={(e) => set({ componentLabel: e.currentTarget.value })}
+                placeholder="Crankshaft webs"
+              />
             )}
             <Select
               label="Kind of inspection"
@@ -158,7 +195,13 @@ export default function PlanEditPage() {
               onChange={(v) => set({ inspectionKind: (v ?? 'general') as InspectionKind })}
               allowDeselect={false}
             />
-            <TextInput label="Last done" type="date" value={form.lastDoneAt} onChange={(e) => set({ lastDoneAt: e.currentTarget.value })} description="The engine’s counters at that date are taken from the run log." />
+            <TextInput
+              label="Last done"
+              type="date"
+              value={form.lastDoneAt}
+              onChange={(e) => set({ lastDoneAt: e.currentTarget.value })}
+              description="The engine’s counters at that date are taken from the run log."
+            />
           </SimpleGrid>
           <Text fw={600}>Intervals (any one or more; whichever comes first)</Text>
           <SimpleGrid cols={{ base: 1, sm: 3 }} spacing="md">
@@ -173,8 +216,20 @@ export default function PlanEditPage() {
             onChange={(v) => set({ hazards: v as WorkHazard[] })}
           />
           <HazardCautions hazards={form.hazards} />
-          <Textarea label="Notes (how it is done)" autosize minRows={2} value={form.notes} onChange={(e) => set({ notes: e.currentTarget.value })} />
-          {id && <Checkbox label="Active (shown in the due list)" checked={form.active} onChange={(e) => set({ active: e.currentTarget.checked })} />}
+          <Textarea
+            label="Notes (how it is done)"
+            autosize
+            minRows={2}
+            value={form.notes}
+            onChange={(e) => set({ notes: e.currentTarget.value })}
+          />
+          {id && (
+            <Checkbox
+              label="Active (shown in the due list)"
+              checked={form.active}
+              onChange={(e) => set({ active: e.currentTarget.checked })}
+            />
+          )}
           {error && <Alert color="signal">{error}</Alert>}
           <Group>
             <Button size="lg" onClick={() => void save()} loading={create.isPending || update.isPending}>

@@ -1,7 +1,23 @@
 import { useEffect, useState } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { useQuery } from '@tanstack/react-query';
-import { Alert, Anchor, Badge, Button, Card, Checkbox, Group, Loader, SimpleGrid, Stack, Table, Text, TextInput, Textarea, Title } from '@mantine/core';
+import {
+  Alert,
+  Anchor,
+  Badge,
+  Button,
+  Card,
+  Checkbox,
+  Group,
+  Loader,
+  SimpleGrid,
+  Stack,
+  Table,
+  Text,
+  TextInput,
+  Textarea,
+  Title,
+} from '@mantine/core';
 import { IconCheck } from '@tabler/icons-react';
 import { errorText } from '../../../api/http';
 import { PageHeader } from '../../../components/PageHeader';
@@ -35,7 +51,17 @@ export default function WorkRecordPage() {
       <PageHeader
         title={w.title}
         subtitle={`${w.engineName}${w.bearingLabel ? ` · ${w.bearingLabel}` : ''} · started ${day(w.startedAt)}`}
-        state={w.status === 'open' ? <Badge color="brass" size="lg">Open</Badge> : <Badge color="gray" variant="outline" size="lg" leftSection={<IconCheck size={14} />}>Closed {day(w.closedAt)}</Badge>}
+        state={
+          w.status === 'open' ? (
+            <Badge color="brass" size="lg">
+              Open
+            </Badge>
+          ) : (
+            <Badge color="gray" variant="outline" size="lg" leftSection={<IconCheck size={14} />}>
+              Closed {day(w.closedAt)}
+            </Badge>
+          )
+        }
       />
       <HazardCautions hazards={w.hazards} />
       <SimpleGrid cols={{ base: 1, md: 2 }} spacing="md">
@@ -46,7 +72,10 @@ export default function WorkRecordPage() {
             </Title>
             <Text style={{ whiteSpace: 'pre-wrap' }}>{w.description || '—'}</Text>
             <Text>
-              <b>By:</b> {w.performedBy} <Text span c="dimmed" fz="sm">(recorded by {w.recordedByName})</Text>
+              <b>By:</b> {w.performedBy}{' '}
+              <Text span c="dimmed" fz="sm">
+                (recorded by {w.recordedByName})
+              </Text>
             </Text>
             <Text className="cj-num">
               <b>Labour:</b> {fmt(w.labourHours, 1)} h
@@ -101,11 +130,20 @@ export default function WorkRecordPage() {
                   <Anchor component={Link} to={`/maintenance/plans/${p.id}`}>
                     {p.title}
                   </Anchor>
-                  {w.resetPlans.some((r) => r.id === p.id) ? <Badge variant="outline" color="gray" leftSection={<IconCheck size={12} />}>counters reset</Badge> : <Text fz="sm" c="dimmed">not reset</Text>}
+                  {w.resetPlans.some((r) => r.id === p.id) ? (
+                    <Badge variant="outline" color="gray" leftSection={<IconCheck size={12} />}>
+                      counters reset
+                    </Badge>
+                  ) : (
+                    <Text fz="sm" c="dimmed">
+                      not reset
+                    </Text>
+                  )}
                 </Group>
               ))}
               <Text fz="sm" c="dimmed" className="cj-num">
-                Closed by {w.closedByName} on {day(w.closedAt)} at {fmt(w.runHoursAtCompletion, 1)} running hours and {fmt(w.revolutionsAtCompletion, 0)} revolutions.
+                Closed by {w.closedByName} on {day(w.closedAt)} at {fmt(w.runHoursAtCompletion, 1)} running hours and{' '}
+                {fmt(w.revolutionsAtCompletion, 0)} revolutions.
                 {w.closeNote ? ` ${w.closeNote}` : ''}
               </Text>
             </>
@@ -120,14 +158,24 @@ export default function WorkRecordPage() {
                 />
               ))}
               <Group align="flex-end" gap="sm" wrap="wrap">
-                <TextInput label="Finished at" type="datetime-local" value={completedAt} onChange={(e) => setCompletedAt(e.currentTarget.value)} />
+                <TextInput
+                  label="Finished at"
+                  type="datetime-local"
+                  value={completedAt}
+                  onChange={(e) => setCompletedAt(e.currentTarget.value)}
+                />
                 <Textarea label="Closing note" autosize minRows={1} value={note} onChange={(e) => setNote(e.currentTarget.value)} w={360} />
               </Group>
               {close.error && <Alert color="signal">{errorText(close.error)}</Alert>}
               <Text fz="sm" c="dimmed">
                 Closing records when the work was finished and the engine’s counters then; the record can no longer be changed afterwards.
               </Text>
-              <Button size="lg" w="fit-content" loading={close.isPending} onClick={() => close.mutate({ completedAt: new Date(completedAt).toISOString(), resetPlanIds: reset, note })}>
+              <Button
+                size="lg"
+                w="fit-content"
+                loading={close.isPending}
+                onClick={() => close.mutate({ completedAt: new Date(completedAt).toISOString(), resetPlanIds: reset, note })}
+              >
                 Close the work record
               </Button>
             </Stack>

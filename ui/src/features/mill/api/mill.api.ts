@@ -39,7 +39,8 @@ export const millKeys = {
   mills: () => [...millKeys.all, 'mills'] as const,
   mill: (id: string) => [...millKeys.mills(), id] as const,
   schedules: () => [...millKeys.all, 'schedules'] as const,
-  scheduleList: (f: ScheduleFilters = {}) => [...millKeys.schedules(), 'list', { millId: f.millId ?? null, templates: f.templates ?? null }] as const,
+  scheduleList: (f: ScheduleFilters = {}) =>
+    [...millKeys.schedules(), 'list', { millId: f.millId ?? null, templates: f.templates ?? null }] as const,
   schedule: (id: string) => [...millKeys.schedules(), id] as const,
   runs: () => [...millKeys.all, 'runs'] as const,
   run: (runId: string) => [...millKeys.runs(), runId] as const,
@@ -63,21 +64,26 @@ export const schedulesQuery = (f: ScheduleFilters = {}) =>
       return api<ScheduleSummary[]>(`/mill/schedules${s ? `?${s}` : ''}`);
     },
   });
-export const scheduleQuery = (id: string) => queryOptions({ queryKey: millKeys.schedule(id), queryFn: () => api<ScheduleDetail>(`/mill/schedules/${id}`) });
+export const scheduleQuery = (id: string) =>
+  queryOptions({ queryKey: millKeys.schedule(id), queryFn: () => api<ScheduleDetail>(`/mill/schedules/${id}`) });
 export const millRunsQuery = () => queryOptions({ queryKey: millKeys.runs(), queryFn: () => api<MillRunSummary[]>('/mill/runs') });
-export const runLogQuery = (runId: string) => queryOptions({ queryKey: millKeys.runLog(runId), queryFn: () => api<MillRunLog>(`/mill/runs/${runId}`) });
-export const timelineQuery = (runId: string) => queryOptions({ queryKey: millKeys.timeline(runId), queryFn: () => api<MillTimelineItem[]>(`/mill/runs/${runId}/timeline`) });
+export const runLogQuery = (runId: string) =>
+  queryOptions({ queryKey: millKeys.runLog(runId), queryFn: () => api<MillRunLog>(`/mill/runs/${runId}`) });
+export const timelineQuery = (runId: string) =>
+  queryOptions({ queryKey: millKeys.timeline(runId), queryFn: () => api<MillTimelineItem[]>(`/mill/runs/${runId}/timeline`) });
 export const lotsQuery = (status?: LotStatus) =>
   queryOptions({ queryKey: millKeys.lotList(status), queryFn: () => api<LotSummary[]>(`/mill/lots${status ? `?status=${status}` : ''}`) });
 export const lotQuery = (id: string) => queryOptions({ queryKey: millKeys.lot(id), queryFn: () => api<LotDetail>(`/mill/lots/${id}`) });
 
 export const calculateRollingPass = (req: RollingPassRequest) => api<RollingPassResponse>('/calculations/rolling-pass', { body: req });
-export const downloadQuotePdf = (q: QuoteDto, reference: string) => download(`/mill/quotes/${q.id}/quote.pdf`, `quote-${reference}-Q${q.number}.pdf`);
+export const downloadQuotePdf = (q: QuoteDto, reference: string) =>
+  download(`/mill/quotes/${q.id}/quote.pdf`, `quote-${reference}-Q${q.number}.pdf`);
 
 export function useSaveMill(id: string | undefined) {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (req: MillWriteRequest) => (id ? api<MillDto>(`/mill/mills/${id}`, { method: 'PUT', body: req }) : api<MillDto>('/mill/mills', { body: req })),
+    mutationFn: (req: MillWriteRequest) =>
+      id ? api<MillDto>(`/mill/mills/${id}`, { method: 'PUT', body: req }) : api<MillDto>('/mill/mills', { body: req }),
     onSuccess: (m) => {
       qc.setQueryData(millKeys.mill(m.id), m);
       qc.invalidateQueries({ queryKey: millKeys.mills() });
@@ -89,7 +95,10 @@ export function useSaveMill(id: string | undefined) {
 export function useSaveSchedule(id: string | undefined) {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (req: ScheduleWriteRequest) => (id ? api<ScheduleDetail>(`/mill/schedules/${id}`, { method: 'PUT', body: req }) : api<ScheduleDetail>('/mill/schedules', { body: req })),
+    mutationFn: (req: ScheduleWriteRequest) =>
+      id
+        ? api<ScheduleDetail>(`/mill/schedules/${id}`, { method: 'PUT', body: req })
+        : api<ScheduleDetail>('/mill/schedules', { body: req }),
     onSuccess: (s) => {
       qc.setQueryData(millKeys.schedule(s.id), s);
       qc.invalidateQueries({ queryKey: [...millKeys.schedules(), 'list'] });
@@ -100,7 +109,8 @@ export function useSaveSchedule(id: string | undefined) {
 export function useCopySchedule() {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: ({ id, req }: { id: string; req: ScheduleCopyRequest }) => api<ScheduleDetail>(`/mill/schedules/${id}/copies`, { body: req }),
+    mutationFn: ({ id, req }: { id: string; req: ScheduleCopyRequest }) =>
+      api<ScheduleDetail>(`/mill/schedules/${id}/copies`, { body: req }),
     onSuccess: (s) => {
       qc.setQueryData(millKeys.schedule(s.id), s);
       qc.invalidateQueries({ queryKey: [...millKeys.schedules(), 'list'] });
@@ -123,11 +133,17 @@ export function useCreateBar(runId: string) {
 }
 export function useUpdateBar(runId: string) {
   const refresh = useRefreshRun(runId);
-  return useMutation({ mutationFn: ({ id, req }: { id: string; req: UpdateBarRequest }) => api<BarDto>(`/mill/bars/${id}`, { method: 'PATCH', body: req }), onSuccess: refresh });
+  return useMutation({
+    mutationFn: ({ id, req }: { id: string; req: UpdateBarRequest }) => api<BarDto>(`/mill/bars/${id}`, { method: 'PATCH', body: req }),
+    onSuccess: refresh,
+  });
 }
 export function useLogPass(runId: string) {
   const refresh = useRefreshRun(runId);
-  return useMutation({ mutationFn: ({ barId, req }: { barId: string; req: LogPassRequest }) => api<LoggedPassDto>(`/mill/bars/${barId}/passes`, { body: req }), onSuccess: refresh });
+  return useMutation({
+    mutationFn: ({ barId, req }: { barId: string; req: LogPassRequest }) => api<LoggedPassDto>(`/mill/bars/${barId}/passes`, { body: req }),
+    onSuccess: refresh,
+  });
 }
 
 function useLotMutation<T>(fn: (v: T) => Promise<unknown>) {
@@ -142,9 +158,15 @@ function useLotMutation<T>(fn: (v: T) => Promise<unknown>) {
   });
 }
 export const useCreateLot = () => useLotMutation((req: LotWriteRequest) => api<LotDetail>('/mill/lots', { body: req }));
-export const useUpdateLot = (id: string) => useLotMutation((req: LotUpdateRequest) => api<LotDetail>(`/mill/lots/${id}`, { method: 'PATCH', body: req }));
-export const useMoveLot = (id: string) => useLotMutation((req: LotTransitionRequest) => api<LotDetail>(`/mill/lots/${id}/transitions`, { body: req }));
+export const useUpdateLot = (id: string) =>
+  useLotMutation((req: LotUpdateRequest) => api<LotDetail>(`/mill/lots/${id}`, { method: 'PATCH', body: req }));
+export const useMoveLot = (id: string) =>
+  useLotMutation((req: LotTransitionRequest) => api<LotDetail>(`/mill/lots/${id}/transitions`, { body: req }));
 export const useLinkRun = (id: string) => useLotMutation((runId: string) => api<LotDetail>(`/mill/lots/${id}/runs`, { body: { runId } }));
-export const useUnlinkRun = (id: string) => useLotMutation((runId: string) => api<LotDetail>(`/mill/lots/${id}/runs/${runId}`, { method: 'DELETE' }));
+export const useUnlinkRun = (id: string) =>
+  useLotMutation((runId: string) => api<LotDetail>(`/mill/lots/${id}/runs/${runId}`, { method: 'DELETE' }));
 export const useMakeQuote = (id: string) => useLotMutation((req: QuoteRequest) => api<QuoteDto>(`/mill/lots/${id}/quotes`, { body: req }));
-export const useSendQuote = () => useLotMutation(({ quoteId, req }: { quoteId: string; req: SendQuoteRequest }) => api<QuoteDto>(`/mill/quotes/${quoteId}/send`, { body: req }));
+export const useSendQuote = () =>
+  useLotMutation(({ quoteId, req }: { quoteId: string; req: SendQuoteRequest }) =>
+    api<QuoteDto>(`/mill/quotes/${quoteId}/send`, { body: req }),
+  );

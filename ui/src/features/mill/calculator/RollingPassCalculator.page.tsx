@@ -183,7 +183,13 @@ export default function RollingPassCalculatorPage() {
         <Caution title="Hot steel and heavy rolls">{result?.caution ?? MILL_CAUTION}</Caution>
         <Paper withBorder p="md" radius="md">
           <Group align="flex-end" gap="md" wrap="wrap">
-            <Select label="Fill from a stand of the mill" w={320} placeholder="Choose a stand" data={stands.map((s) => ({ value: s.stand.id, label: `${s.mill.name}: ${s.stand.position}. ${s.stand.name}` }))} onChange={fillFrom} />
+            <Select
+              label="Fill from a stand of the mill"
+              w={320}
+              placeholder="Choose a stand"
+              data={stands.map((s) => ({ value: s.stand.id, label: `${s.mill.name}: ${s.stand.position}. ${s.stand.name}` }))}
+              onChange={fillFrom}
+            />
             <Button variant="default" onClick={() => setForm(EXAMPLE)}>
               Example figures
             </Button>
@@ -205,7 +211,12 @@ export default function RollingPassCalculatorPage() {
           <SectionInput label="Exit" value={form.exit} onChange={(v) => setForm((x) => ({ ...x, exit: v }))} />
         </Paper>
         <Paper withBorder p="md" radius="md">
-          <Checkbox label="Check the flywheel’s share" checked={form.flywheel} onChange={(e) => setForm((x) => ({ ...x, flywheel: e.currentTarget.checked }))} mb="sm" />
+          <Checkbox
+            label="Check the flywheel’s share"
+            checked={form.flywheel}
+            onChange={(e) => setForm((x) => ({ ...x, flywheel: e.currentTarget.checked }))}
+            mb="sm"
+          />
           {form.flywheel && (
             <Group align="flex-end" gap="md" wrap="wrap">
               {num('Flywheel mass, lb', 'flywheelMassLb')}
@@ -234,9 +245,7 @@ export default function RollingPassCalculatorPage() {
               <Tile label="Of the stand’s maximum" danger={result.exceedsStandForce}>
                 {pct(result.standForceUtilisation, 0)}
               </Tile>
-              <Tile label="Power, roll pair">
-                {fmt(result.powerRollPairKw, 0)} kW
-              </Tile>
+              <Tile label="Power, roll pair">{fmt(result.powerRollPairKw, 0)} kW</Tile>
               <Tile label="Mean flow stress">
                 {fmt(result.flowStress.meanFlowStressMPa, 0)} MPa <ExtrapolatedBadge flowStress={result.flowStress} />
               </Tile>

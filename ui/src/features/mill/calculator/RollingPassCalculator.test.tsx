@@ -43,7 +43,12 @@ describe('rolling pass calculator', () => {
     const result = await screen.findByTestId('rolling-pass-result', {}, { timeout: 10000 });
     expect(result).toHaveTextContent('2,347 kN');
     expect(result).toHaveTextContent('61.9 rpm');
-    expect(screen.getAllByRole('alert').map((a) => a.textContent).join(' ')).toMatch(/Flywheel speed drop/);
+    expect(
+      screen
+        .getAllByRole('alert')
+        .map((a) => a.textContent)
+        .join(' '),
+    ).toMatch(/Flywheel speed drop/);
     expect(screen.getByText('Test caution from the server.')).toBeInTheDocument();
     await waitFor(() => expect(fetchSpy.mock.calls.some(([u]) => String(u).endsWith('/calculations/rolling-pass'))).toBe(true));
   });

@@ -14,15 +14,27 @@ export function BarRecord({ bar }: { bar: BarDto }) {
   const [reason, setReason] = useState(bar.scrapReason ?? '');
   const [lotId, setLotId] = useState<string | null>(bar.lotId);
   const save = () =>
-    update.mutate({ id: bar.id, req: { weightKg: weight === '' ? null : Number(weight), scrapped, scrapReason: scrapped ? reason : null, lotId } });
+    update.mutate({
+      id: bar.id,
+      req: { weightKg: weight === '' ? null : Number(weight), scrapped, scrapReason: scrapped ? reason : null, lotId },
+    });
   return (
     <Group align="flex-end" gap="sm" wrap="wrap" mt="xs" role="group" aria-label={`Record of bar ${bar.barCode}`}>
-      <NumberInput label="Weight, kg" w={130} hideControls inputMode="decimal" value={weight} onChange={(v) => setWeight(v === '' ? '' : Number(v))} />
+      <NumberInput
+        label="Weight, kg"
+        w={130}
+        hideControls
+        inputMode="decimal"
+        value={weight}
+        onChange={(v) => setWeight(v === '' ? '' : Number(v))}
+      />
       <Select
         label="Lot"
         w={240}
         clearable
-        data={(lots.data ?? []).filter((l) => l.status !== 'delivered' || l.id === bar.lotId).map((l) => ({ value: l.id, label: `${l.reference} · ${l.customerName}` }))}
+        data={(lots.data ?? [])
+          .filter((l) => l.status !== 'delivered' || l.id === bar.lotId)
+          .map((l) => ({ value: l.id, label: `${l.reference} · ${l.customerName}` }))}
         value={lotId}
         onChange={setLotId}
       />

@@ -6,13 +6,33 @@ import { nextBarCode } from './StartBar';
 import { bar, calc, json, overloaded, rect, schedule } from '../test/fixtures';
 
 function signIn(role: Role) {
-  sessionStore.set({ accessToken: 'a', refreshToken: 'r', user: { id: 'u1', email: 'x@alderforge.example', displayName: 'Test Person', role, unitSystem: 'imperial' } });
+  sessionStore.set({
+    accessToken: 'a',
+    refreshToken: 'r',
+    user: { id: 'u1', email: 'x@alderforge.example', displayName: 'Test Person', role, unitSystem: 'imperial' },
+  });
 }
 const stands = [
   { id: 's1', position: 1, name: 'Stand 1', rollDiameterMm: 406.4, barrelLengthMm: 762, rollSpeedRatio: 1, maxSeparatingForceKn: 900 },
   { id: 's2', position: 2, name: 'Stand 2', rollDiameterMm: 406.4, barrelLengthMm: 762, rollSpeedRatio: 1, maxSeparatingForceKn: 800 },
 ];
-const logged = (c = calc()) => ({ id: 'lp', barId: 'bar-1', barCode: 'B-01', runId: 'run-1', passNumber: 2, standPosition: 2, standName: 'Stand 2', at: '2026-12-01T10:01:00Z', measuredTemperatureC: 1100, entry: rect(80, 62), exit: rect(60, 66), plannedExit: rect(60, 66), notes: '', loggedByName: 'Test', calc: c });
+const logged = (c = calc()) => ({
+  id: 'lp',
+  barId: 'bar-1',
+  barCode: 'B-01',
+  runId: 'run-1',
+  passNumber: 2,
+  standPosition: 2,
+  standName: 'Stand 2',
+  at: '2026-12-01T10:01:00Z',
+  measuredTemperatureC: 1100,
+  entry: rect(80, 62),
+  exit: rect(60, 66),
+  plannedExit: rect(60, 66),
+  notes: '',
+  loggedByName: 'Test',
+  calc: c,
+});
 
 // Rendering Mantine in jsdom is slow on a busy machine.
 vi.setConfig({ testTimeout: 30_000 });

@@ -12,7 +12,19 @@ import { PassWarnings } from './PassWarnings';
 const turned = (s: SectionDraft): SectionDraft => (s.shape === 'round' ? { ...s } : { ...s, heightMm: s.widthMm, widthMm: s.heightMm });
 
 /** "Log a pass": the measured temperature and exit size of the next pass of a bar; the calculation comes back at once. */
-export function LogPass({ runId, bars, stands, barId, onBarChange }: { runId: string; bars: BarDto[]; stands: (MillStandDto & { id: string })[]; barId: string | null; onBarChange: (id: string | null) => void }) {
+export function LogPass({
+  runId,
+  bars,
+  stands,
+  barId,
+  onBarChange,
+}: {
+  runId: string;
+  bars: BarDto[];
+  stands: (MillStandDto & { id: string })[];
+  barId: string | null;
+  onBarChange: (id: string | null) => void;
+}) {
   const bar = bars.find((b) => b.id === barId) ?? null;
   const schedule = useQuery({ ...scheduleQuery(bar?.scheduleId ?? ''), enabled: !!bar?.scheduleId });
   const log = useLogPass(runId);
@@ -68,14 +80,44 @@ export function LogPass({ runId, bars, stands, barId, onBarChange }: { runId: st
       </Title>
       <Stack gap="sm">
         <Group align="flex-end" gap="md" wrap="wrap">
-          <Select label="Bar" w={160} data={bars.map((b) => ({ value: b.id, label: b.barCode }))} value={barId} onChange={onBarChange} allowDeselect={false} />
-          <NumberInput label="Pass number" w={130} min={1} hideControls inputMode="numeric" value={passNumber} onChange={(v) => setPassNumber(v === '' ? '' : Number(v))} />
-          <Select label="Stand" w={240} data={stands.map((s) => ({ value: String(s.position), label: `${s.position}. ${s.name}` }))} value={stand} onChange={setStand} allowDeselect={false} />
-          <NumberInput label="Measured temperature, °C" w={210} hideControls inputMode="decimal" value={temperature} onChange={(v) => setTemperature(v === '' ? '' : Number(v))} />
+          <Select
+            label="Bar"
+            w={160}
+            data={bars.map((b) => ({ value: b.id, label: b.barCode }))}
+            value={barId}
+            onChange={onBarChange}
+            allowDeselect={false}
+          />
+          <NumberInput
+            label="Pass number"
+            w={130}
+            min={1}
+            hideControls
+            inputMode="numeric"
+            value={passNumber}
+            onChange={(v) => setPassNumber(v === '' ? '' : Number(v))}
+          />
+          <Select
+            label="Stand"
+            w={240}
+            data={stands.map((s) => ({ value: String(s.position), label: `${s.position}. ${s.name}` }))}
+            value={stand}
+            onChange={setStand}
+            allowDeselect={false}
+          />
+          <NumberInput
+            label="Measured temperature, °C"
+            w={210}
+            hideControls
+            inputMode="decimal"
+            value={temperature}
+            onChange={(v) => setTemperature(v === '' ? '' : Number(v))}
+          />
         </Group>
         {planned && (
           <Text fz="sm" c="dimmed">
-            Planned in “{schedule.data?.name}”: stand {planned.standPosition}, expected {fmt(planned.expectedTemperatureC, 0)} °C. Change the figures to what was measured.
+            Planned in “{schedule.data?.name}”: stand {planned.standPosition}, expected {fmt(planned.expectedTemperatureC, 0)} °C. Change
+            the figures to what was measured.
           </Text>
         )}
         <Group align="flex-end" gap="xs" wrap="wrap">
@@ -99,8 +141,12 @@ export function LogPass({ runId, bars, stands, barId, onBarChange }: { runId: st
             <Group gap="xs">
               <IconCircleCheck color="var(--mantine-color-copper-5)" aria-hidden />
               <Text fw={600}>
-                Pass {last.passNumber} of {last.barCode} logged: {fmt(last.calc.forceKn, 0)} kN on {last.standName} ({pct(last.calc.standForceUtilisation, 0)} of its maximum)
-                {last.calc.flywheel ? `, speed ${fmt(last.calc.flywheel.startSpeedRpm, 1)} → ${fmt(last.calc.flywheel.endSpeedRpm, 1)} rpm` : ''}.
+                Pass {last.passNumber} of {last.barCode} logged: {fmt(last.calc.forceKn, 0)} kN on {last.standName} (
+                {pct(last.calc.standForceUtilisation, 0)} of its maximum)
+                {last.calc.flywheel
+                  ? `, speed ${fmt(last.calc.flywheel.startSpeedRpm, 1)} → ${fmt(last.calc.flywheel.endSpeedRpm, 1)} rpm`
+                  : ''}
+                .
               </Text>
             </Group>
             <PassWarnings warnings={last.calc.warnings} />

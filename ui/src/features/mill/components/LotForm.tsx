@@ -53,8 +53,19 @@ export function NewLotButton() {
           <SimpleGrid cols={{ base: 1, sm: 3 }}>
             <TextInput label="Customer" value={f.customerName} onChange={(e) => setF({ ...f, customerName: e.currentTarget.value })} />
             <TextInput label="Contact" value={f.customerContact} onChange={(e) => setF({ ...f, customerContact: e.currentTarget.value })} />
-            <TextInput label="Customer e-mail" type="email" value={f.customerEmail} onChange={(e) => setF({ ...f, customerEmail: e.currentTarget.value })} />
-            <Select label="Product" data={PRODUCT_SHAPES.map((p) => ({ value: p, label: PRODUCT_SHAPE_LABELS[p] }))} value={f.productShape} allowDeselect={false} onChange={(v) => v && setF({ ...f, productShape: v as ProductShape })} />
+            <TextInput
+              label="Customer e-mail"
+              type="email"
+              value={f.customerEmail}
+              onChange={(e) => setF({ ...f, customerEmail: e.currentTarget.value })}
+            />
+            <Select
+              label="Product"
+              data={PRODUCT_SHAPES.map((p) => ({ value: p, label: PRODUCT_SHAPE_LABELS[p] }))}
+              value={f.productShape}
+              allowDeselect={false}
+              onChange={(v) => v && setF({ ...f, productShape: v as ProductShape })}
+            />
             <NumberInput
               label={f.productShape === 'round' ? 'Diameter, mm' : f.productShape === 'square' ? 'Side, mm' : 'Thickness, mm'}
               hideControls
@@ -63,13 +74,31 @@ export function NewLotButton() {
               onChange={(v) => setF({ ...f, productHeightMm: v === '' ? '' : Number(v) })}
             />
             {f.productShape === 'flat' ? (
-              <NumberInput label="Width, mm" hideControls inputMode="decimal" value={f.productWidthMm} onChange={(v) => setF({ ...f, productWidthMm: v === '' ? '' : Number(v) })} />
+              <NumberInput
+                label="Width, mm"
+                hideControls
+                inputMode="decimal"
+                value={f.productWidthMm}
+                onChange={(v) => setF({ ...f, productWidthMm: v === '' ? '' : Number(v) })}
+              />
             ) : (
               <div />
             )}
             <TextInput label="Steel grade" value={f.steelGrade} onChange={(e) => setF({ ...f, steelGrade: e.currentTarget.value })} />
-            <NumberInput label="Carbon, %" hideControls inputMode="decimal" value={f.carbonPct} onChange={(v) => setF({ ...f, carbonPct: v === '' ? '' : Number(v) })} />
-            <NumberInput label="Quantity, tonnes" hideControls inputMode="decimal" value={f.quantityTonnes} onChange={(v) => setF({ ...f, quantityTonnes: v === '' ? '' : Number(v) })} />
+            <NumberInput
+              label="Carbon, %"
+              hideControls
+              inputMode="decimal"
+              value={f.carbonPct}
+              onChange={(v) => setF({ ...f, carbonPct: v === '' ? '' : Number(v) })}
+            />
+            <NumberInput
+              label="Quantity, tonnes"
+              hideControls
+              inputMode="decimal"
+              value={f.quantityTonnes}
+              onChange={(v) => setF({ ...f, quantityTonnes: v === '' ? '' : Number(v) })}
+            />
             <TextInput label="Due date" type="date" value={f.dueDate} onChange={(e) => setF({ ...f, dueDate: e.currentTarget.value })} />
           </SimpleGrid>
           <Textarea label="Notes" autosize minRows={2} value={f.notes} onChange={(e) => setF({ ...f, notes: e.currentTarget.value })} />

@@ -5,7 +5,11 @@ import { LotStatusActions } from './LotStatusActions';
 import { json, lot } from '../test/fixtures';
 
 function signIn(role: Role) {
-  sessionStore.set({ accessToken: 'a', refreshToken: 'r', user: { id: 'u1', email: 'x@alderforge.example', displayName: 'Test Person', role, unitSystem: 'imperial' } });
+  sessionStore.set({
+    accessToken: 'a',
+    refreshToken: 'r',
+    user: { id: 'u1', email: 'x@alderforge.example', displayName: 'Test Person', role, unitSystem: 'imperial' },
+  });
 }
 
 // Rendering Mantine in jsdom is slow on a busy machine.
@@ -37,7 +41,9 @@ describe('LotStatusActions', () => {
 
   it('moves the lot one step with the note', async () => {
     signIn('mill_lead');
-    const fetchSpy = vi.spyOn(globalThis, 'fetch').mockImplementation(async () => json(lot({ status: 'accepted', nextStatus: 'scheduled' })));
+    const fetchSpy = vi
+      .spyOn(globalThis, 'fetch')
+      .mockImplementation(async () => json(lot({ status: 'accepted', nextStatus: 'scheduled' })));
     render(<LotStatusActions lot={lot()} />);
     fireEvent.click(screen.getByRole('button', { name: 'Mark accepted' }));
     const dialog = await screen.findByRole('dialog');
@@ -52,7 +58,11 @@ describe('LotStatusActions', () => {
   it('asks for the tonnage when marking rolled, records it, then moves the lot; shows the server’s refusal', async () => {
     signIn('chief_engineer');
     const fetchSpy = vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
-      if (String(input).endsWith('/transitions')) return json({ statusCode: 409, error: 'Conflict', message: 'Someone else moved this lot a moment ago. Look again and retry.' }, 409);
+      if (String(input).endsWith('/transitions'))
+        return json(
+          { statusCode: 409, error: 'Conflict', message: 'Someone else moved this lot a moment ago. Look again and retry.' },
+          409,
+        );
       return json(lot({ status: 'scheduled', producedTonnes: 1.9 }));
     });
     render(<LotStatusActions lot={lot({ status: 'scheduled', nextStatus: 'rolled' })} />);

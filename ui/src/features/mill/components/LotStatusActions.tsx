@@ -10,7 +10,12 @@ import { useMoveLot, useUpdateLot } from '../api/mill.api';
 export function LotSteps({ lot }: { lot: LotDetail }) {
   const active = LOT_STATUSES.indexOf(lot.status);
   return (
-    <Stepper active={lot.status === 'delivered' ? LOT_STATUSES.length : active + 1} size="sm" allowNextStepsSelect={false} aria-label="Lot status">
+    <Stepper
+      active={lot.status === 'delivered' ? LOT_STATUSES.length : active + 1}
+      size="sm"
+      allowNextStepsSelect={false}
+      aria-label="Lot status"
+    >
       {LOT_STATUSES.map((s) => {
         const h = [...lot.history].reverse().find((x) => x.to === s);
         return <Stepper.Step key={s} label={LOT_STATUS_LABELS[s]} description={h ? new Date(h.at).toLocaleDateString() : undefined} />;
@@ -32,7 +37,10 @@ export function LotStatusActions({ lot }: { lot: LotDetail }) {
   if (!canWrite || !next) return null;
   const confirm = async () => {
     if (next === 'rolled') {
-      await update.mutateAsync({ producedTonnes: produced === '' ? 0 : Number(produced), scrappedTonnes: scrapped === '' ? 0 : Number(scrapped) });
+      await update.mutateAsync({
+        producedTonnes: produced === '' ? 0 : Number(produced),
+        scrappedTonnes: scrapped === '' ? 0 : Number(scrapped),
+      });
     }
     move.mutate({ to: next, note: note.trim() || undefined }, { onSuccess: () => setOpen(false) });
   };
@@ -45,12 +53,25 @@ export function LotStatusActions({ lot }: { lot: LotDetail }) {
       <Modal opened={open} onClose={() => setOpen(false)} title={`Lot ${lot.reference}: mark ${LOT_STATUS_LABELS[next].toLowerCase()}`}>
         <Stack>
           <Text fz="sm">
-            Records the step from {LOT_STATUS_LABELS[lot.status].toLowerCase()} to {LOT_STATUS_LABELS[next].toLowerCase()} with your name and the time. A lot moves one step at a time and never back.
+            Records the step from {LOT_STATUS_LABELS[lot.status].toLowerCase()} to {LOT_STATUS_LABELS[next].toLowerCase()} with your name
+            and the time. A lot moves one step at a time and never back.
           </Text>
           {next === 'rolled' && (
             <Group grow>
-              <NumberInput label="Produced, tonnes" hideControls inputMode="decimal" value={produced} onChange={(v) => setProduced(v === '' ? '' : Number(v))} />
-              <NumberInput label="Scrapped, tonnes" hideControls inputMode="decimal" value={scrapped} onChange={(v) => setScrapped(v === '' ? '' : Number(v))} />
+              <NumberInput
+                label="Produced, tonnes"
+                hideControls
+                inputMode="decimal"
+                value={produced}
+                onChange={(v) => setProduced(v === '' ? '' : Number(v))}
+              />
+              <NumberInput
+                label="Scrapped, tonnes"
+                hideControls
+                inputMode="decimal"
+                value={scrapped}
+                onChange={(v) => setScrapped(v === '' ? '' : Number(v))}
+              />
             </Group>
           )}
           <TextInput label="Note (optional)" value={note} onChange={(e) => setNote(e.currentTarget.value)} />

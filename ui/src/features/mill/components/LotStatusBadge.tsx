@@ -1,5 +1,14 @@
 import { Badge } from '@mantine/core';
-import { IconCheck, IconFileInvoice, IconHelpCircle, IconCalendarEvent, IconFlame, IconSearch, IconTruckDelivery, IconThumbUp } from '@tabler/icons-react';
+import {
+  IconCheck,
+  IconFileInvoice,
+  IconHelpCircle,
+  IconCalendarEvent,
+  IconFlame,
+  IconSearch,
+  IconTruckDelivery,
+  IconThumbUp,
+} from '@tabler/icons-react';
 import { LOT_STATUS_LABELS, type LotStatus } from '@crankjournal/shared-types';
 
 const ICONS: Record<LotStatus, typeof IconCheck> = {
@@ -16,7 +25,14 @@ const ICONS: Record<LotStatus, typeof IconCheck> = {
 export function LotStatusBadge({ status, size = 'lg' }: { status: LotStatus; size?: 'md' | 'lg' }) {
   const Icon = ICONS[status];
   return (
-    <Badge size={size} variant={status === 'delivered' ? 'light' : 'outline'} color={status === 'delivered' ? 'copper' : 'gray'} leftSection={<Icon size={14} />} data-testid="lot-status" styles={{ root: { minWidth: 'max-content', overflow: 'visible' }, label: { overflow: 'visible' } }}>
+    <Badge
+      size={size}
+      variant={status === 'delivered' ? 'light' : 'outline'}
+      color={status === 'delivered' ? 'copper' : 'gray'}
+      leftSection={<Icon size={14} />}
+      data-testid="lot-status"
+      styles={{ root: { minWidth: 'max-content', overflow: 'visible' }, label: { overflow: 'visible' } }}
+    >
       {LOT_STATUS_LABELS[status]}
     </Badge>
   );

@@ -2,7 +2,16 @@ import { render, screen, fireEvent, within } from '../../../test-utils/render';
 import { PassCalcTable, type PassRow } from './PassCalcTable';
 import { calc, overloaded, rect } from '../test/fixtures';
 
-const row = (key: string, c = calc()): PassRow => ({ key, passNumber: 1, standName: 'Stand 1', entry: rect(76.2, 76.2), exit: rect(62, 80), temperatureC: 1150, temperatureWord: 'expected', calc: c });
+const row = (key: string, c = calc()): PassRow => ({
+  key,
+  passNumber: 1,
+  standName: 'Stand 1',
+  entry: rect(76.2, 76.2),
+  exit: rect(62, 80),
+  temperatureC: 1150,
+  temperatureWord: 'expected',
+  calc: c,
+});
 
 // Rendering Mantine in jsdom is slow on a busy machine.
 vi.setConfig({ testTimeout: 30_000 });

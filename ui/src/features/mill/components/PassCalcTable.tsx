@@ -137,7 +137,12 @@ export function PassCalcTable({ rows, leadHeader, caption }: { rows: PassRow[]; 
                 >
                   <Table.Td w={52}>
                     {c && (
-                      <ActionIcon variant="subtle" size="lg" aria-label={`${isOpen ? 'Hide' : 'Show'} the working of pass ${r.passNumber}`} onClick={() => setOpen((o) => ({ ...o, [r.key]: !isOpen }))}>
+                      <ActionIcon
+                        variant="subtle"
+                        size="lg"
+                        aria-label={`${isOpen ? 'Hide' : 'Show'} the working of pass ${r.passNumber}`}
+                        onClick={() => setOpen((o) => ({ ...o, [r.key]: !isOpen }))}
+                      >
                         {isOpen ? <IconChevronDown /> : <IconChevronRight />}
                       </ActionIcon>
                     )}
@@ -179,7 +184,12 @@ export function PassCalcTable({ rows, leadHeader, caption }: { rows: PassRow[]; 
                         </Text>
                         <ExtrapolatedBadge flowStress={c.flowStress} />
                       </Table.Td>
-                      <Table.Td className="cj-num" style={{ whiteSpace: 'nowrap' }} fw={c.exceedsStandForce ? 700 : undefined} c={c.exceedsStandForce ? 'signal.7' : undefined}>
+                      <Table.Td
+                        className="cj-num"
+                        style={{ whiteSpace: 'nowrap' }}
+                        fw={c.exceedsStandForce ? 700 : undefined}
+                        c={c.exceedsStandForce ? 'signal.7' : undefined}
+                      >
                         {fmt(c.forceKn, 0)} kN
                         <Text fz="xs" c="dimmed">
                           of {fmt(c.standMaxForceKn, 0)} kN ({pct(c.standForceUtilisation, 0)})
@@ -191,12 +201,17 @@ export function PassCalcTable({ rows, leadHeader, caption }: { rows: PassRow[]; 
                           {fmt(c.powerRollPairKw, 0)} kW · {fmt(c.powerRollPairHp, 0)} hp
                         </Text>
                       </Table.Td>
-                      <Table.Td className="cj-num" c={c.flywheel?.belowMinSpeed ? 'signal.7' : undefined} fw={c.flywheel?.belowMinSpeed ? 700 : undefined}>
+                      <Table.Td
+                        className="cj-num"
+                        c={c.flywheel?.belowMinSpeed ? 'signal.7' : undefined}
+                        fw={c.flywheel?.belowMinSpeed ? 700 : undefined}
+                      >
                         {c.flywheel ? (
                           <>
                             {fmt(c.flywheel.endSpeedRpm, 1)} rpm (−{fmt(c.flywheel.speedDropRpm, 1)})
                             <Text fz="xs" c="dimmed">
-                              {fmt(c.flywheel.passEnergyKj, 0)} kJ · back in {c.flywheel.recoveryTimeS === null ? '—' : seconds(c.flywheel.recoveryTimeS)}
+                              {fmt(c.flywheel.passEnergyKj, 0)} kJ · back in{' '}
+                              {c.flywheel.recoveryTimeS === null ? '—' : seconds(c.flywheel.recoveryTimeS)}
                             </Text>
                           </>
                         ) : (

@@ -56,7 +56,14 @@ export function PassWarnings({ warnings, compact = false }: { warnings: PassWarn
 export function ExtrapolatedBadge({ flowStress }: { flowStress: FlowStressDto }) {
   if (!flowStress.extrapolated) return null;
   return (
-    <Group component="span" gap={3} wrap="nowrap" display="inline-flex" title={flowStress.outOfRange.join('; ')} data-testid="flow-stress-extrapolated">
+    <Group
+      component="span"
+      gap={3}
+      wrap="nowrap"
+      display="inline-flex"
+      title={flowStress.outOfRange.join('; ')}
+      data-testid="flow-stress-extrapolated"
+    >
       <IconInfoCircle size={14} aria-hidden />
       <Text component="span" fz="xs" c="dimmed">
         extrapolated

@@ -21,7 +21,10 @@ export function PlanFromTemplate({ templateId, size = 'lg' }: { templateId?: str
   const openLots = (lots.data ?? []).filter((l) => l.status !== 'delivered');
   const submit = () =>
     chosen &&
-    copy.mutate({ id: chosen, req: { name: name.trim(), lotId: lotId ?? undefined, millId: millId ?? undefined } }, { onSuccess: (s) => navigate(`/mill/schedules/${s.id}`) });
+    copy.mutate(
+      { id: chosen, req: { name: name.trim(), lotId: lotId ?? undefined, millId: millId ?? undefined } },
+      { onSuccess: (s) => navigate(`/mill/schedules/${s.id}`) },
+    );
   return (
     <>
       <Button size={size} leftSection={<IconCopy />} onClick={() => setOpen(true)}>
@@ -32,7 +35,9 @@ export function PlanFromTemplate({ templateId, size = 'lg' }: { templateId?: str
           <Select
             label="Template"
             placeholder="Choose a template"
-            data={(templates.data ?? []).filter((t) => !t.archived).map((t) => ({ value: t.id, label: `${t.name} (${t.passCount} passes)` }))}
+            data={(templates.data ?? [])
+              .filter((t) => !t.archived)
+              .map((t) => ({ value: t.id, label: `${t.name} (${t.passCount} passes)` }))}
             value={chosen}
             onChange={(v) => {
               setChosen(v);

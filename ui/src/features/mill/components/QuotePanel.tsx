@@ -85,7 +85,9 @@ export function QuotePanel({ lot, canWrite }: { lot: LotDetail; canWrite: boolea
       engineHours: engineHours === '' ? (undefined as unknown as number) : Number(engineHours),
       crewHours: crewHours === '' ? (undefined as unknown as number) : Number(crewHours),
       ...(crewSize !== '' ? { crewSize: Number(crewSize) } : {}),
-      ...(extraLabel.trim() ? { extraFixedCosts: [{ label: extraLabel, amount: extraAmount === '' ? (undefined as unknown as number) : Number(extraAmount) }] } : {}),
+      ...(extraLabel.trim()
+        ? { extraFixedCosts: [{ label: extraLabel, amount: extraAmount === '' ? (undefined as unknown as number) : Number(extraAmount) }] }
+        : {}),
       notes: notes || undefined,
     });
   return (
@@ -99,11 +101,40 @@ export function QuotePanel({ lot, canWrite }: { lot: LotDetail; canWrite: boolea
             From the site’s rates: stock after the yield loss, engine and crew hours, fixed costs, contingency and margin.
           </Text>
           <Group align="flex-end" gap="md" wrap="wrap">
-            <NumberInput label="Engine hours" w={150} hideControls inputMode="decimal" value={engineHours} onChange={(v) => setEngineHours(v === '' ? '' : Number(v))} />
-            <NumberInput label="Crew hours (each)" w={160} hideControls inputMode="decimal" value={crewHours} onChange={(v) => setCrewHours(v === '' ? '' : Number(v))} />
-            <NumberInput label="Crew size" w={130} hideControls inputMode="numeric" placeholder="site’s" value={crewSize} onChange={(v) => setCrewSize(v === '' ? '' : Number(v))} />
+            <NumberInput
+              label="Engine hours"
+              w={150}
+              hideControls
+              inputMode="decimal"
+              value={engineHours}
+              onChange={(v) => setEngineHours(v === '' ? '' : Number(v))}
+            />
+            <NumberInput
+              label="Crew hours (each)"
+              w={160}
+              hideControls
+              inputMode="decimal"
+              value={crewHours}
+              onChange={(v) => setCrewHours(v === '' ? '' : Number(v))}
+            />
+            <NumberInput
+              label="Crew size"
+              w={130}
+              hideControls
+              inputMode="numeric"
+              placeholder="site’s"
+              value={crewSize}
+              onChange={(v) => setCrewSize(v === '' ? '' : Number(v))}
+            />
             <TextInput label="Extra cost (optional)" w={220} value={extraLabel} onChange={(e) => setExtraLabel(e.currentTarget.value)} />
-            <NumberInput label="Amount" w={130} hideControls inputMode="decimal" value={extraAmount} onChange={(v) => setExtraAmount(v === '' ? '' : Number(v))} />
+            <NumberInput
+              label="Amount"
+              w={130}
+              hideControls
+              inputMode="decimal"
+              value={extraAmount}
+              onChange={(v) => setExtraAmount(v === '' ? '' : Number(v))}
+            />
           </Group>
           <TextInput label="Notes on the quote" value={notes} onChange={(e) => setNotes(e.currentTarget.value)} />
           {make.error && (
@@ -150,14 +181,21 @@ export function QuotePanel({ lot, canWrite }: { lot: LotDetail; canWrite: boolea
                   Quote PDF
                 </Button>
                 {canWrite && q.id === latest?.id && (
-                  <Button leftSection={<IconMail size={18} />} onClick={() => { setTo(lot.customerEmail); setSending(q); }}>
+                  <Button
+                    leftSection={<IconMail size={18} />}
+                    onClick={() => {
+                      setTo(lot.customerEmail);
+                      setSending(q);
+                    }}
+                  >
                     E-mail to the customer
                   </Button>
                 )}
               </Group>
             </Group>
             <Text fz="sm" c="dimmed">
-              {fmt(q.productTonnes, 2)} t of product from {fmt(q.stockTonnes, 3)} t of stock ({fmt(q.yieldLossPct, 1)} % yield loss) · {fmt(q.engineHours, 1)} engine h · {fmt(q.crewHours, 1)} h × {q.crewSize} crew · made {when(q.createdAt)} by {q.createdByName}
+              {fmt(q.productTonnes, 2)} t of product from {fmt(q.stockTonnes, 3)} t of stock ({fmt(q.yieldLossPct, 1)} % yield loss) ·{' '}
+              {fmt(q.engineHours, 1)} engine h · {fmt(q.crewHours, 1)} h × {q.crewSize} crew · made {when(q.createdAt)} by {q.createdByName}
             </Text>
             <QuoteLines q={q} />
             {q.notes && <Text fz="sm">{q.notes}</Text>}
@@ -168,7 +206,14 @@ export function QuotePanel({ lot, canWrite }: { lot: LotDetail; canWrite: boolea
         <Stack>
           <Text fz="sm">The quote goes as a PDF attachment. {lot.status === 'enquiry' ? 'The lot becomes quoted.' : ''}</Text>
           <TextInput label="To" type="email" value={to} onChange={(e) => setTo(e.currentTarget.value)} />
-          <Textarea label="Message" autosize minRows={3} placeholder={`Please find our quotation for lot ${lot.reference} attached.`} value={message} onChange={(e) => setMessage(e.currentTarget.value)} />
+          <Textarea
+            label="Message"
+            autosize
+            minRows={3}
+            placeholder={`Please find our quotation for lot ${lot.reference} attached.`}
+            value={message}
+            onChange={(e) => setMessage(e.currentTarget.value)}
+          />
           {send.error && (
             <Alert color="signal" role="alert">
               {errorText(send.error)}
@@ -180,7 +225,10 @@ export function QuotePanel({ lot, canWrite }: { lot: LotDetail; canWrite: boolea
             </Button>
             <Button
               loading={send.isPending}
-              onClick={() => sending && send.mutate({ quoteId: sending.id, req: { to, message: message || undefined } }, { onSuccess: () => setSending(null) })}
+              onClick={() =>
+                sending &&
+                send.mutate({ quoteId: sending.id, req: { to, message: message || undefined } }, { onSuccess: () => setSending(null) })
+              }
             >
               Send the quote
             </Button>

@@ -18,7 +18,17 @@ export function sectionOf(d: SectionDraft): SectionDto | null {
 const num = (v: string | number): number | '' => (v === '' ? '' : Number(v));
 
 /** A bar section: shape, then height and width (a round: its diameter), in mm with inches beside. */
-export function SectionInput({ label, value, onChange, disabled }: { label: string; value: SectionDraft; onChange: (v: SectionDraft) => void; disabled?: boolean }) {
+export function SectionInput({
+  label,
+  value,
+  onChange,
+  disabled,
+}: {
+  label: string;
+  value: SectionDraft;
+  onChange: (v: SectionDraft) => void;
+  disabled?: boolean;
+}) {
   const round = value.shape === 'round';
   return (
     <Group gap="xs" align="flex-end" wrap="wrap" role="group" aria-label={label}>

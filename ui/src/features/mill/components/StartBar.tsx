@@ -17,7 +17,17 @@ export function nextBarCode(bars: BarDto[]): string {
 }
 
 /** "Start a bar": its id, the schedule it follows (or its stock), and the lot it is for. */
-export function StartBar({ runId, millId, bars, onStarted }: { runId: string; millId: string; bars: BarDto[]; onStarted: (bar: BarDto) => void }) {
+export function StartBar({
+  runId,
+  millId,
+  bars,
+  onStarted,
+}: {
+  runId: string;
+  millId: string;
+  bars: BarDto[];
+  onStarted: (bar: BarDto) => void;
+}) {
   const schedules = useQuery(schedulesQuery({ millId }));
   const lots = useQuery(lotsQuery());
   const create = useCreateBar(runId);
@@ -30,7 +40,9 @@ export function StartBar({ runId, millId, bars, onStarted }: { runId: string; mi
   useEffect(() => setCode(nextBarCode(bars)), [bars]);
   const options = [
     { value: NONE, label: 'None (give the stock)' },
-    ...(schedules.data ?? []).filter((s) => !s.archived).map((s) => ({ value: s.id, label: `${s.isTemplate ? 'Template: ' : ''}${s.name}` })),
+    ...(schedules.data ?? [])
+      .filter((s) => !s.archived)
+      .map((s) => ({ value: s.id, label: `${s.isTemplate ? 'Template: ' : ''}${s.name}` })),
   ];
   const submit = () =>
     create.mutate(
@@ -50,13 +62,22 @@ export function StartBar({ runId, millId, bars, onStarted }: { runId: string; mi
       <Stack gap="sm">
         <Group align="flex-end" gap="md" wrap="wrap">
           <TextInput label="Bar id" w={140} value={code} onChange={(e) => setCode(e.currentTarget.value)} />
-          <Select label="Pass schedule" w={340} data={options} value={choice} allowDeselect={false} onChange={(v) => setChoice(v ?? NONE)} />
+          <Select
+            label="Pass schedule"
+            w={340}
+            data={options}
+            value={choice}
+            allowDeselect={false}
+            onChange={(v) => setChoice(v ?? NONE)}
+          />
           <Select
             label="Customer lot"
             w={300}
             clearable
             placeholder="None"
-            data={(lots.data ?? []).filter((l) => l.status !== 'delivered').map((l) => ({ value: l.id, label: `${l.reference} · ${l.customerName}` }))}
+            data={(lots.data ?? [])
+              .filter((l) => l.status !== 'delivered')
+              .map((l) => ({ value: l.id, label: `${l.reference} · ${l.customerName}` }))}
             value={lotId}
             onChange={setLotId}
           />
@@ -64,7 +85,15 @@ export function StartBar({ runId, millId, bars, onStarted }: { runId: string; mi
         {!scheduleId && (
           <Group align="flex-end" gap="md" wrap="wrap">
             <SectionInput label="Stock" value={stock} onChange={setStock} />
-            <NumberInput label="Stock length, mm" w={170} hideControls inputMode="decimal" value={length} onChange={(v) => setLength(v === '' ? '' : Number(v))} description=" " />
+            <NumberInput
+              label="Stock length, mm"
+              w={170}
+              hideControls
+              inputMode="decimal"
+              value={length}
+              onChange={(v) => setLength(v === '' ? '' : Number(v))}
+              description=" "
+            />
           </Group>
         )}
         {create.error && (

@@ -35,7 +35,9 @@ export function Timeline({ items }: { items: MillTimelineItem[] }) {
                   </Text>
                   <Text className="cj-num" fz="sm" c="dimmed">
                     {fmt(i.pass.calc.forceKn, 0)} kN · {fmt(i.pass.calc.powerRollPairKw, 0)} kW
-                    {i.pass.calc.flywheel ? ` · ${fmt(i.pass.calc.flywheel.startSpeedRpm, 1)} → ${fmt(i.pass.calc.flywheel.endSpeedRpm, 1)} rpm` : ''}
+                    {i.pass.calc.flywheel
+                      ? ` · ${fmt(i.pass.calc.flywheel.startSpeedRpm, 1)} → ${fmt(i.pass.calc.flywheel.endSpeedRpm, 1)} rpm`
+                      : ''}
                   </Text>
                 </Group>
                 {i.pass.calc.warnings.length > 0 && (

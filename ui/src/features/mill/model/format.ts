@@ -1,4 +1,11 @@
-import { SECTION_SHAPE_LABELS, inchesText, productLabel, sectionText, type ProductShape, type SectionDto } from '@crankjournal/shared-types';
+import {
+  SECTION_SHAPE_LABELS,
+  inchesText,
+  productLabel,
+  sectionText,
+  type ProductShape,
+  type SectionDto,
+} from '@crankjournal/shared-types';
 import { formatNumber } from '../../units/units';
 
 export { productLabel, sectionText, inchesText };

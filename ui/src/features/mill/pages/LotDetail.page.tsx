@@ -1,7 +1,23 @@
 import { useState, type ReactNode } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { useQuery } from '@tanstack/react-query';
-import { ActionIcon, Alert, Anchor, Badge, Button, Card, Grid, Group, Loader, Select, SimpleGrid, Stack, Table, Text, Title } from '@mantine/core';
+import {
+  ActionIcon,
+  Alert,
+  Anchor,
+  Badge,
+  Button,
+  Card,
+  Grid,
+  Group,
+  Loader,
+  Select,
+  SimpleGrid,
+  Stack,
+  Table,
+  Text,
+  Title,
+} from '@mantine/core';
 import { IconLinkOff } from '@tabler/icons-react';
 import { LOT_STATUS_LABELS, MILL_WRITERS } from '@crankjournal/shared-types';
 import { PageHeader } from '../../../components/PageHeader';
@@ -42,7 +58,12 @@ export default function LotDetailPage() {
   const linkable = (runs.data ?? []).filter((r) => !lot.runs.some((x) => x.id === r.id) && r.state !== 'abandoned');
   return (
     <Stack gap="lg">
-      <PageHeader title={`${lot.reference} · ${lot.customerName}`} subtitle={`${product(lot)} · ${lot.steelGrade} · ${fmt(lot.quantityTonnes, 2)} t due ${formatPlannedFor(lot.dueDate)}`} state={<LotStatusBadge status={lot.status} />} action={<LotStatusActions lot={lot} />} />
+      <PageHeader
+        title={`${lot.reference} · ${lot.customerName}`}
+        subtitle={`${product(lot)} · ${lot.steelGrade} · ${fmt(lot.quantityTonnes, 2)} t due ${formatPlannedFor(lot.dueDate)}`}
+        state={<LotStatusBadge status={lot.status} />}
+        action={<LotStatusActions lot={lot} />}
+      />
       <Card withBorder padding="lg">
         <LotSteps lot={lot} />
       </Card>
@@ -125,8 +146,20 @@ export default function LotDetailPage() {
         </Stack>
         {canWrite && !delivered && (
           <Group align="flex-end" mt="md">
-            <Select label="Link a run" w={360} searchable data={linkable.map((r) => ({ value: r.id, label: `${r.title} (${r.engineName})` }))} value={runId} onChange={setRunId} />
-            <Button variant="default" disabled={!runId} loading={link.isPending} onClick={() => runId && link.mutate(runId, { onSuccess: () => setRunId(null) })}>
+            <Select
+              label="Link a run"
+              w={360}
+              searchable
+              data={linkable.map((r) => ({ value: r.id, label: `${r.title} (${r.engineName})` }))}
+              value={runId}
+              onChange={setRunId}
+            />
+            <Button
+              variant="default"
+              disabled={!runId}
+              loading={link.isPending}
+              onClick={() => runId && link.mutate(runId, { onSuccess: () => setRunId(null) })}
+            >
               Link run
             </Button>
           </Group>
@@ -164,7 +197,13 @@ export default function LotDetailPage() {
                     </Table.Td>
                     <Table.Td className="cj-num">{b.passes}</Table.Td>
                     <Table.Td className="cj-num">{b.weightKg !== null ? `${fmt(b.weightKg, 0)} kg` : '—'}</Table.Td>
-                    <Table.Td>{b.scrapped && <Badge color="gray" variant="outline">Scrapped</Badge>}</Table.Td>
+                    <Table.Td>
+                      {b.scrapped && (
+                        <Badge color="gray" variant="outline">
+                          Scrapped
+                        </Badge>
+                      )}
+                    </Table.Td>
                   </Table.Tr>
                 ))}
               </Table.Tbody>

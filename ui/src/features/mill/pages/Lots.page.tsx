@@ -37,7 +37,14 @@ export default function LotsPage() {
       col.accessor((l) => product(l), { id: 'product', header: 'Product', cell: (c) => <Text fz="sm">{c.getValue()}</Text> }),
       col.accessor('steelGrade', { header: 'Steel' }),
       col.accessor('quantityTonnes', { header: 'Quantity', cell: (c) => <Text className="cj-num">{fmt(c.getValue(), 2)} t</Text> }),
-      col.accessor('dueDate', { header: 'Due', cell: (c) => <Text className="cj-num" fz="sm">{formatPlannedFor(c.getValue())}</Text> }),
+      col.accessor('dueDate', {
+        header: 'Due',
+        cell: (c) => (
+          <Text className="cj-num" fz="sm">
+            {formatPlannedFor(c.getValue())}
+          </Text>
+        ),
+      }),
       col.accessor('status', { header: 'Status', cell: (c) => <LotStatusBadge status={c.getValue()} size="md" /> }),
       col.accessor((l) => l.producedTonnes, {
         id: 'made',

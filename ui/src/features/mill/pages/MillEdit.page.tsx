@@ -1,7 +1,21 @@
 import { useEffect, useState } from 'react';
 import { useNavigate, useParams } from 'react-router-dom';
 import { useQuery } from '@tanstack/react-query';
-import { ActionIcon, Alert, Button, Card, Group, Loader, NumberInput, Select, SimpleGrid, Stack, TextInput, Textarea, Title } from '@mantine/core';
+import {
+  ActionIcon,
+  Alert,
+  Button,
+  Card,
+  Group,
+  Loader,
+  NumberInput,
+  Select,
+  SimpleGrid,
+  Stack,
+  TextInput,
+  Textarea,
+  Title,
+} from '@mantine/core';
 import { IconPlus, IconTrash } from '@tabler/icons-react';
 import type { MillDto, MillWriteRequest } from '@crankjournal/shared-types';
 import { PageHeader } from '../../../components/PageHeader';
@@ -25,18 +39,37 @@ interface MillForm {
   notes: string;
   stands: StandForm[];
   settings: Record<'minSpeedFraction' | 'mechanicalEfficiency' | 'baseLoadHp' | 'defaultIndicatedHp' | 'frictionFactor', Num>;
-  rates: Record<'stockRatePerTonne' | 'yieldLossPct' | 'engineRatePerHour' | 'crewRatePerPersonHour' | 'crewSize' | 'contingencyPct' | 'marginPct', Num> & { currency: string };
+  rates: Record<
+    'stockRatePerTonne' | 'yieldLossPct' | 'engineRatePerHour' | 'crewRatePerPersonHour' | 'crewSize' | 'contingencyPct' | 'marginPct',
+    Num
+  > & { currency: string };
   fixedCosts: { label: string; amount: Num }[];
 }
 
-const blankStand = (): StandForm => ({ name: '', rollDiameterMm: 406.4, barrelLengthMm: 762, rollSpeedRatio: 1, maxSeparatingForceKn: '', notes: '' });
+const blankStand = (): StandForm => ({
+  name: '',
+  rollDiameterMm: 406.4,
+  barrelLengthMm: 762,
+  rollSpeedRatio: 1,
+  maxSeparatingForceKn: '',
+  notes: '',
+});
 const BLANK: MillForm = {
   name: '',
   engineId: null,
   notes: '',
   stands: [blankStand()],
   settings: { minSpeedFraction: 0.9, mechanicalEfficiency: 0.88, baseLoadHp: 50, defaultIndicatedHp: 600, frictionFactor: 1.2 },
-  rates: { currency: 'GBP', stockRatePerTonne: '', yieldLossPct: 8, engineRatePerHour: '', crewRatePerPersonHour: '', crewSize: 6, contingencyPct: 5, marginPct: 10 },
+  rates: {
+    currency: 'GBP',
+    stockRatePerTonne: '',
+    yieldLossPct: 8,
+    engineRatePerHour: '',
+    crewRatePerPersonHour: '',
+    crewSize: 6,
+    contingencyPct: 5,
+    marginPct: 10,
+  },
   fixedCosts: [],
 };
 
@@ -46,7 +79,15 @@ function fromMill(m: MillDto): MillForm {
     name: m.name,
     engineId: m.engineId,
     notes: m.notes,
-    stands: m.stands.map((s) => ({ id: s.id, name: s.name, rollDiameterMm: s.rollDiameterMm, barrelLengthMm: s.barrelLengthMm, rollSpeedRatio: s.rollSpeedRatio, maxSeparatingForceKn: s.maxSeparatingForceKn, notes: s.notes ?? '' })),
+    stands: m.stands.map((s) => ({
+      id: s.id,
+      name: s.name,
+      rollDiameterMm: s.rollDiameterMm,
+      barrelLengthMm: s.barrelLengthMm,
+      rollSpeedRatio: s.rollSpeedRatio,
+      maxSeparatingForceKn: s.maxSeparatingForceKn,
+      notes: s.notes ?? '',
+    })),
     settings: { ...m.settings },
     rates,
     fixedCosts: fixedCosts.map((f) => ({ ...f })),
@@ -93,7 +134,14 @@ export function toMillRequest(f: MillForm): MillWriteRequest {
 }
 
 const numIn = (label: string, value: Num, onChange: (v: Num) => void, extra: Record<string, unknown> = {}) => (
-  <NumberInput label={label} value={value} onChange={(v) => onChange(v === '' ? '' : Number(v))} hideControls inputMode="decimal" {...extra} />
+  <NumberInput
+    label={label}
+    value={value}
+    onChange={(v) => onChange(v === '' ? '' : Number(v))}
+    hideControls
+    inputMode="decimal"
+    {...extra}
+  />
 );
 
 /** /mill/mills/new and /mill/mills/:id/edit: describe the mill (chief engineer and mill lead). */
@@ -108,18 +156,34 @@ export default function MillEditPage() {
     if (existing.data) setForm(fromMill(existing.data));
   }, [existing.data]);
   if (id && existing.isLoading) return <Loader />;
-  const setStand = (i: number, patch: Partial<StandForm>) => setForm((f) => ({ ...f, stands: f.stands.map((s, j) => (j === i ? { ...s, ...patch } : s)) }));
+  const setStand = (i: number, patch: Partial<StandForm>) =>
+    setForm((f) => ({ ...f, stands: f.stands.map((s, j) => (j === i ? { ...s, ...patch } : s)) }));
   const submit = () => save.mutate(toMillRequest(form), { onSuccess: () => navigate('/mill') });
 
   return (
     <Stack gap="lg">
-      <PageHeader title={id ? `Edit ${existing.data?.name ?? 'the mill'}` : 'Describe a mill'} subtitle="Stands from the entry side, the engine that drives them, the figures the pass checks use and the rates quotes are made from." />
+      <PageHeader
+        title={id ? `Edit ${existing.data?.name ?? 'the mill'}` : 'Describe a mill'}
+        subtitle="Stands from the entry side, the engine that drives them, the figures the pass checks use and the rates quotes are made from."
+      />
       <Card withBorder padding="lg">
         <SimpleGrid cols={{ base: 1, sm: 2 }} spacing="md">
           <TextInput label="Name" value={form.name} onChange={(e) => setForm({ ...form, name: e.currentTarget.value })} />
-          <Select label="Driving engine" data={(engines.data ?? []).map((e) => ({ value: e.id, label: e.name }))} value={form.engineId} onChange={(v) => setForm({ ...form, engineId: v })} />
+          <Select
+            label="Driving engine"
+            data={(engines.data ?? []).map((e) => ({ value: e.id, label: e.name }))}
+            value={form.engineId}
+            onChange={(v) => setForm({ ...form, engineId: v })}
+          />
         </SimpleGrid>
-        <Textarea mt="md" label="Notes" autosize minRows={2} value={form.notes} onChange={(e) => setForm({ ...form, notes: e.currentTarget.value })} />
+        <Textarea
+          mt="md"
+          label="Notes"
+          autosize
+          minRows={2}
+          value={form.notes}
+          onChange={(e) => setForm({ ...form, notes: e.currentTarget.value })}
+        />
       </Card>
       <Card withBorder padding="lg">
         <Title order={2} fz="xl" mb="sm">
@@ -128,20 +192,34 @@ export default function MillEditPage() {
         <Stack gap="md">
           {form.stands.map((s, i) => (
             <Group key={i} align="flex-end" gap="sm" wrap="wrap" role="group" aria-label={`Stand ${i + 1}`}>
-              <TextInput label={`Stand ${i + 1}: name`} w={220} value={s.name} onChange={(e) => setStand(i, { name: e.currentTarget.value })} />
+              <TextInput
+                label={`Stand ${i + 1}: name`}
+                w={220}
+                value={s.name}
+                onChange={(e) => setStand(i, { name: e.currentTarget.value })}
+              />
               {numIn('Roll diameter, mm', s.rollDiameterMm, (v) => setStand(i, { rollDiameterMm: v }), { w: 150 })}
               {numIn('Barrel length, mm', s.barrelLengthMm, (v) => setStand(i, { barrelLengthMm: v }), { w: 150 })}
               {numIn('Roll ÷ engine speed', s.rollSpeedRatio, (v) => setStand(i, { rollSpeedRatio: v }), { w: 150 })}
               {numIn('Max. separating force, kN', s.maxSeparatingForceKn, (v) => setStand(i, { maxSeparatingForceKn: v }), { w: 190 })}
               <TextInput label="Notes" w={220} value={s.notes} onChange={(e) => setStand(i, { notes: e.currentTarget.value })} />
               {form.stands.length > 1 && (
-                <ActionIcon variant="default" aria-label={`Remove stand ${i + 1}`} onClick={() => setForm((f) => ({ ...f, stands: f.stands.filter((_, j) => j !== i) }))}>
+                <ActionIcon
+                  variant="default"
+                  aria-label={`Remove stand ${i + 1}`}
+                  onClick={() => setForm((f) => ({ ...f, stands: f.stands.filter((_, j) => j !== i) }))}
+                >
                   <IconTrash />
                 </ActionIcon>
               )}
             </Group>
           ))}
-          <Button variant="default" leftSection={<IconPlus />} onClick={() => setForm((f) => ({ ...f, stands: [...f.stands, blankStand()] }))} w="fit-content">
+          <Button
+            variant="default"
+            leftSection={<IconPlus />}
+            onClick={() => setForm((f) => ({ ...f, stands: [...f.stands, blankStand()] }))}
+            w="fit-content"
+          >
             Add a stand
           </Button>
         </Stack>
@@ -151,11 +229,19 @@ export default function MillEditPage() {
           Pass checks
         </Title>
         <SimpleGrid cols={{ base: 2, sm: 3, lg: 5 }} spacing="md">
-          {numIn('Warn below (fraction of rated speed)', form.settings.minSpeedFraction, (v) => setForm({ ...form, settings: { ...form.settings, minSpeedFraction: v } }))}
-          {numIn('Mechanical efficiency (fraction)', form.settings.mechanicalEfficiency, (v) => setForm({ ...form, settings: { ...form.settings, mechanicalEfficiency: v } }))}
+          {numIn('Warn below (fraction of rated speed)', form.settings.minSpeedFraction, (v) =>
+            setForm({ ...form, settings: { ...form.settings, minSpeedFraction: v } }),
+          )}
+          {numIn('Mechanical efficiency (fraction)', form.settings.mechanicalEfficiency, (v) =>
+            setForm({ ...form, settings: { ...form.settings, mechanicalEfficiency: v } }),
+          )}
           {numIn('Base load, hp', form.settings.baseLoadHp, (v) => setForm({ ...form, settings: { ...form.settings, baseLoadHp: v } }))}
-          {numIn('Indicated power without cards, hp', form.settings.defaultIndicatedHp, (v) => setForm({ ...form, settings: { ...form.settings, defaultIndicatedHp: v } }))}
-          {numIn('Friction allowance (×)', form.settings.frictionFactor, (v) => setForm({ ...form, settings: { ...form.settings, frictionFactor: v } }))}
+          {numIn('Indicated power without cards, hp', form.settings.defaultIndicatedHp, (v) =>
+            setForm({ ...form, settings: { ...form.settings, defaultIndicatedHp: v } }),
+          )}
+          {numIn('Friction allowance (×)', form.settings.frictionFactor, (v) =>
+            setForm({ ...form, settings: { ...form.settings, frictionFactor: v } }),
+          )}
         </SimpleGrid>
       </Card>
       <Card withBorder padding="lg">
@@ -163,11 +249,21 @@ export default function MillEditPage() {
           Quote rates
         </Title>
         <SimpleGrid cols={{ base: 2, sm: 4 }} spacing="md">
-          <TextInput label="Currency (three letters)" value={form.rates.currency} onChange={(e) => setForm({ ...form, rates: { ...form.rates, currency: e.currentTarget.value } })} />
-          {numIn('Stock, per tonne', form.rates.stockRatePerTonne, (v) => setForm({ ...form, rates: { ...form.rates, stockRatePerTonne: v } }))}
+          <TextInput
+            label="Currency (three letters)"
+            value={form.rates.currency}
+            onChange={(e) => setForm({ ...form, rates: { ...form.rates, currency: e.currentTarget.value } })}
+          />
+          {numIn('Stock, per tonne', form.rates.stockRatePerTonne, (v) =>
+            setForm({ ...form, rates: { ...form.rates, stockRatePerTonne: v } }),
+          )}
           {numIn('Yield loss, % of stock', form.rates.yieldLossPct, (v) => setForm({ ...form, rates: { ...form.rates, yieldLossPct: v } }))}
-          {numIn('Engine time, per hour', form.rates.engineRatePerHour, (v) => setForm({ ...form, rates: { ...form.rates, engineRatePerHour: v } }))}
-          {numIn('Crew, per person-hour', form.rates.crewRatePerPersonHour, (v) => setForm({ ...form, rates: { ...form.rates, crewRatePerPersonHour: v } }))}
+          {numIn('Engine time, per hour', form.rates.engineRatePerHour, (v) =>
+            setForm({ ...form, rates: { ...form.rates, engineRatePerHour: v } }),
+          )}
+          {numIn('Crew, per person-hour', form.rates.crewRatePerPersonHour, (v) =>
+            setForm({ ...form, rates: { ...form.rates, crewRatePerPersonHour: v } }),
+          )}
           {numIn('Crew size', form.rates.crewSize, (v) => setForm({ ...form, rates: { ...form.rates, crewSize: v } }))}
           {numIn('Contingency, %', form.rates.contingencyPct, (v) => setForm({ ...form, rates: { ...form.rates, contingencyPct: v } }))}
           {numIn('Margin, %', form.rates.marginPct, (v) => setForm({ ...form, rates: { ...form.rates, marginPct: v } }))}
@@ -175,14 +271,35 @@ export default function MillEditPage() {
         <Stack gap="sm" mt="md">
           {form.fixedCosts.map((c, i) => (
             <Group key={i} align="flex-end" gap="sm">
-              <TextInput label={`Fixed cost ${i + 1}`} w={300} value={c.label} onChange={(e) => setForm((f) => ({ ...f, fixedCosts: f.fixedCosts.map((x, j) => (j === i ? { ...x, label: e.currentTarget.value } : x)) }))} />
-              {numIn('Amount', c.amount, (v) => setForm((f) => ({ ...f, fixedCosts: f.fixedCosts.map((x, j) => (j === i ? { ...x, amount: v } : x)) })), { w: 160 })}
-              <ActionIcon variant="default" aria-label={`Remove fixed cost ${i + 1}`} onClick={() => setForm((f) => ({ ...f, fixedCosts: f.fixedCosts.filter((_, j) => j !== i) }))}>
+              <TextInput
+                label={`Fixed cost ${i + 1}`}
+                w={300}
+                value={c.label}
+                onChange={(e) =>
+                  setForm((f) => ({ ...f, fixedCosts: f.fixedCosts.map((x, j) => (j === i ? { ...x, label: e.currentTarget.value } : x)) }))
+                }
+              />
+              {numIn(
+                'Amount',
+                c.amount,
+                (v) => setForm((f) => ({ ...f, fixedCosts: f.fixedCosts.map((x, j) => (j === i ? { ...x, amount: v } : x)) })),
+                { w: 160 },
+              )}
+              <ActionIcon
+                variant="default"
+                aria-label={`Remove fixed cost ${i + 1}`}
+                onClick={() => setForm((f) => ({ ...f, fixedCosts: f.fixedCosts.filter((_, j) => j !== i) }))}
+              >
                 <IconTrash />
               </ActionIcon>
             </Group>
           ))}
-          <Button variant="default" leftSection={<IconPlus />} onClick={() => setForm((f) => ({ ...f, fixedCosts: [...f.fixedCosts, { label: '', amount: '' }] }))} w="fit-content">
+          <Button
+            variant="default"
+            leftSection={<IconPlus />}
+            onClick={() => setForm((f) => ({ ...f, fixedCosts: [...f.fixedCosts, { label: '', amount: '' }] }))}
+            w="fit-content"
+          >
             Add a fixed cost
           </Button>
         </Stack>

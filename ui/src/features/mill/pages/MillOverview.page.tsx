@@ -38,7 +38,13 @@ export default function MillOverviewPage() {
         subtitle="The bar mill the engine drives: its stands, the settings the pass checks use, and the rates quotes are made from."
         action={
           canWrite && (
-            <Button component={Link} to="/mill/mills/new" variant={data.length ? 'default' : 'filled'} size={data.length ? 'md' : 'lg'} leftSection={<IconPlus />}>
+            <Button
+              component={Link}
+              to="/mill/mills/new"
+              variant={data.length ? 'default' : 'filled'}
+              size={data.length ? 'md' : 'lg'}
+              leftSection={<IconPlus />}
+            >
               Describe a mill
             </Button>
           )
@@ -58,7 +64,9 @@ export default function MillOverviewPage() {
           Pass calculator
         </Button>
       </SimpleGrid>
-      {data.length === 0 && <Alert color="gray">No mill is described yet.{canWrite ? ' Describe the mill and the engine that drives it.' : ''}</Alert>}
+      {data.length === 0 && (
+        <Alert color="gray">No mill is described yet.{canWrite ? ' Describe the mill and the engine that drives it.' : ''}</Alert>
+      )}
       {data.map((m) => (
         <MillCard key={m.id} mill={m} canWrite={canWrite} />
       ))}
@@ -82,7 +90,10 @@ function MillCard({ mill, canWrite }: { mill: MillDto; canWrite: boolean }) {
               <Anchor component={Link} to={`/engines/${mill.engineId}`}>
                 {mill.engineName}
               </Anchor>{' '}
-              · rated {fmt(mill.engine.ratedSpeedRpm, 0)} rpm · flywheel {mill.engine.flywheelMassLb ? `${fmt(mill.engine.flywheelMassLb, 0)} lb at k = ${fmt(mill.engine.flywheelRadiusOfGyrationFt, 2)} ft` : 'not described'}
+              · rated {fmt(mill.engine.ratedSpeedRpm, 0)} rpm · flywheel{' '}
+              {mill.engine.flywheelMassLb
+                ? `${fmt(mill.engine.flywheelMassLb, 0)} lb at k = ${fmt(mill.engine.flywheelRadiusOfGyrationFt, 2)} ft`
+                : 'not described'}
             </Text>
           </div>
           {canWrite && (
@@ -139,7 +150,8 @@ function MillCard({ mill, canWrite }: { mill: MillDto; canWrite: boolean }) {
               <Setting label="Friction allowance on roll force">×{fmt(s.frictionFactor, 2)}</Setting>
             </SimpleGrid>
             <Text fz="sm" c="dimmed" mt="xs">
-              Logged passes take the engine’s indicated power from the run’s latest card set before the pass; where the run has none, the figure above.
+              Logged passes take the engine’s indicated power from the run’s latest card set before the pass; where the run has none, the
+              figure above.
             </Text>
           </Grid.Col>
           <Grid.Col span={{ base: 12, md: 6 }}>
@@ -156,7 +168,9 @@ function MillCard({ mill, canWrite }: { mill: MillDto; canWrite: boolean }) {
               <Setting label="Contingency, margin">
                 {fmt(r.contingencyPct, 1)} %, {fmt(r.marginPct, 1)} %
               </Setting>
-              <Setting label="Fixed costs">{r.fixedCosts.map((f) => `${f.label} ${money(f.amount, r.currency)}`).join(' · ') || 'none'}</Setting>
+              <Setting label="Fixed costs">
+                {r.fixedCosts.map((f) => `${f.label} ${money(f.amount, r.currency)}`).join(' · ') || 'none'}
+              </Setting>
             </SimpleGrid>
           </Grid.Col>
         </Grid>

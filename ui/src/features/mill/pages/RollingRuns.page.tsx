@@ -31,14 +31,26 @@ export default function RollingRunsPage() {
         ),
       }),
       col.accessor('state', { header: 'State', cell: (c) => <RunStateBadge state={c.getValue()} size="md" /> }),
-      col.accessor((r) => r.startedAt ?? r.plannedFor ?? '', { id: 'when', header: 'When', cell: (c) => <Text className="cj-num" fz="sm">{runWhen(c.row.original)}</Text> }),
+      col.accessor((r) => r.startedAt ?? r.plannedFor ?? '', {
+        id: 'when',
+        header: 'When',
+        cell: (c) => (
+          <Text className="cj-num" fz="sm">
+            {runWhen(c.row.original)}
+          </Text>
+        ),
+      }),
       col.accessor('bars', { header: 'Bars', cell: (c) => <Text className="cj-num">{c.getValue()}</Text> }),
       col.accessor('passes', { header: 'Passes', cell: (c) => <Text className="cj-num">{c.getValue()}</Text> }),
       col.accessor('flaggedPasses', {
         header: 'Flagged',
         cell: (c) => (c.getValue() > 0 ? <Badge color="signal">{c.getValue()} flagged</Badge> : <Text c="dimmed">none</Text>),
       }),
-      col.accessor((r) => r.lotReferences.join(', '), { id: 'lots', header: 'Lots', cell: (c) => <Group gap={4}>{c.getValue() || '—'}</Group> }),
+      col.accessor((r) => r.lotReferences.join(', '), {
+        id: 'lots',
+        header: 'Lots',
+        cell: (c) => <Group gap={4}>{c.getValue() || '—'}</Group>,
+      }),
     ],
     [],
   );
@@ -46,7 +58,10 @@ export default function RollingRunsPage() {
   if (error || !data) return <Alert color="signal">{errorText(error)}</Alert>;
   return (
     <>
-      <PageHeader title="Rolling log" subtitle="Bars and passes of each run, beside the run’s readings and alarms. Passes are logged while a run is running, or stopped and not yet closed." />
+      <PageHeader
+        title="Rolling log"
+        subtitle="Bars and passes of each run, beside the run’s readings and alarms. Passes are logged while a run is running, or stopped and not yet closed."
+      />
       <DataTable data={data} columns={columns} caption="Runs with rolling" empty="No run has rolled bars yet." getRowId={(r) => r.runId} />
     </>
   );

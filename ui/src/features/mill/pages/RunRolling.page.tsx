@@ -28,11 +28,19 @@ function BarCard({ bar, defaultOpen, editable }: { bar: BarDto; defaultOpen: boo
     <Card withBorder padding="md" data-testid={`bar-${bar.barCode}`}>
       <Group justify="space-between" wrap="wrap" gap="sm">
         <Group gap="sm">
-          <Button variant="subtle" size="md" px="xs" leftSection={open ? <IconChevronDown size={18} /> : <IconChevronRight size={18} />} onClick={() => setOpen(!open)} aria-expanded={open}>
+          <Button
+            variant="subtle"
+            size="md"
+            px="xs"
+            leftSection={open ? <IconChevronDown size={18} /> : <IconChevronRight size={18} />}
+            onClick={() => setOpen(!open)}
+            aria-expanded={open}
+          >
             Bar {bar.barCode}
           </Button>
           <Text className="cj-num" fz="sm">
-            {bar.passes.length} pass(es) · up to {pct(maxUse, 0)} of a stand’s force{speeds.length ? ` · lowest speed ${fmt(Math.min(...speeds), 1)} rpm` : ''}
+            {bar.passes.length} pass(es) · up to {pct(maxUse, 0)} of a stand’s force
+            {speeds.length ? ` · lowest speed ${fmt(Math.min(...speeds), 1)} rpm` : ''}
           </Text>
           {flagged > 0 && (
             <Badge color="signal" variant="filled">
@@ -157,11 +165,27 @@ export default function RunRollingPage() {
       />
       {view === 'bars' &&
         (data.bars.length ? (
-          [...data.bars].reverse().map((b, i) => <BarCard key={b.id} bar={b} editable={canWrite && !['closed', 'abandoned'].includes(data.run.state)} defaultOpen={(i === 0 && data.canLog) || b.passes.some((p) => p.calc.warnings.length > 0)} />)
+          [...data.bars]
+            .reverse()
+            .map((b, i) => (
+              <BarCard
+                key={b.id}
+                bar={b}
+                editable={canWrite && !['closed', 'abandoned'].includes(data.run.state)}
+                defaultOpen={(i === 0 && data.canLog) || b.passes.some((p) => p.calc.warnings.length > 0)}
+              />
+            ))
         ) : (
           <Text c="dimmed">No bars rolled on this run.</Text>
         ))}
-      {view === 'timeline' && (timeline.isLoading ? <Loader /> : timeline.error ? <Alert color="signal">{errorText(timeline.error)}</Alert> : <Timeline items={timeline.data ?? []} />)}
+      {view === 'timeline' &&
+        (timeline.isLoading ? (
+          <Loader />
+        ) : timeline.error ? (
+          <Alert color="signal">{errorText(timeline.error)}</Alert>
+        ) : (
+          <Timeline items={timeline.data ?? []} />
+        ))}
     </Stack>
   );
 }

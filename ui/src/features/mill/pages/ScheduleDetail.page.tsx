@@ -27,7 +27,15 @@ export default function ScheduleDetailPage() {
         subtitle={`${product(s)} · ${s.steelGrade}${/% C/.test(s.steelGrade) ? '' : ` (${fmt(s.carbonPct, 2)} % C)`} · ${s.millName}`}
         state={
           <Group gap="xs">
-            {s.isTemplate ? <Badge size="lg" variant="outline">Template</Badge> : <Badge size="lg" variant="light" color="gray">Working schedule</Badge>}
+            {s.isTemplate ? (
+              <Badge size="lg" variant="outline">
+                Template
+              </Badge>
+            ) : (
+              <Badge size="lg" variant="light" color="gray">
+                Working schedule
+              </Badge>
+            )}
             {s.archived && <Badge color="gray">Archived</Badge>}
           </Group>
         }

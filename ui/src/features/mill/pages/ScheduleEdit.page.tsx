@@ -1,9 +1,31 @@
 import { useEffect, useState } from 'react';
 import { useNavigate, useParams, useSearchParams } from 'react-router-dom';
 import { useQuery } from '@tanstack/react-query';
-import { ActionIcon, Alert, Button, Card, Checkbox, Group, Loader, NumberInput, Select, SimpleGrid, Stack, Text, TextInput, Textarea, Title } from '@mantine/core';
+import {
+  ActionIcon,
+  Alert,
+  Button,
+  Card,
+  Checkbox,
+  Group,
+  Loader,
+  NumberInput,
+  Select,
+  SimpleGrid,
+  Stack,
+  Text,
+  TextInput,
+  Textarea,
+  Title,
+} from '@mantine/core';
 import { IconArrowsExchange, IconPlus, IconTrash } from '@tabler/icons-react';
-import { PRODUCT_SHAPES, PRODUCT_SHAPE_LABELS, type ProductShape, type ScheduleDetail, type ScheduleWriteRequest } from '@crankjournal/shared-types';
+import {
+  PRODUCT_SHAPES,
+  PRODUCT_SHAPE_LABELS,
+  type ProductShape,
+  type ScheduleDetail,
+  type ScheduleWriteRequest,
+} from '@crankjournal/shared-types';
 import { PageHeader } from '../../../components/PageHeader';
 import { errorText } from '../../../api/http';
 import { lotsQuery, millsQuery, scheduleQuery, useSaveSchedule } from '../api/mill.api';
@@ -34,7 +56,13 @@ interface ScheduleForm {
   passes: PassForm[];
 }
 
-const blankPass = (entry?: SectionDraft): PassForm => ({ standPosition: '1', entry: entry ?? sectionDraft(), exit: sectionDraft(), temperature: '', notes: '' });
+const blankPass = (entry?: SectionDraft): PassForm => ({
+  standPosition: '1',
+  entry: entry ?? sectionDraft(),
+  exit: sectionDraft(),
+  temperature: '',
+  notes: '',
+});
 const turned = (s: SectionDraft): SectionDraft => (s.shape === 'round' ? { ...s } : { ...s, heightMm: s.widthMm, widthMm: s.heightMm });
 
 function fromSchedule(s: ScheduleDetail): ScheduleForm {
@@ -52,7 +80,13 @@ function fromSchedule(s: ScheduleDetail): ScheduleForm {
     lotId: s.lotId,
     notes: s.notes,
     archived: s.archived,
-    passes: s.passes.map((p) => ({ standPosition: String(p.standPosition), entry: sectionDraft(p.entry), exit: sectionDraft(p.exit), temperature: p.expectedTemperatureC, notes: p.notes })),
+    passes: s.passes.map((p) => ({
+      standPosition: String(p.standPosition),
+      entry: sectionDraft(p.entry),
+      exit: sectionDraft(p.exit),
+      temperature: p.expectedTemperatureC,
+      notes: p.notes,
+    })),
   };
 }
 
@@ -75,7 +109,13 @@ export function toScheduleRequest(f: ScheduleForm): ScheduleWriteRequest {
     lotId: f.lotId,
     notes: f.notes,
     archived: f.archived,
-    passes: f.passes.map((p) => ({ standPosition: Number(p.standPosition ?? 0), entry: sec(p.entry), exit: sec(p.exit), expectedTemperatureC: n(p.temperature), notes: p.notes })),
+    passes: f.passes.map((p) => ({
+      standPosition: Number(p.standPosition ?? 0),
+      entry: sec(p.entry),
+      exit: sec(p.exit),
+      expectedTemperatureC: n(p.temperature),
+      notes: p.notes,
+    })),
   };
 }
 
@@ -112,17 +152,32 @@ export default function ScheduleEditPage() {
   }, [mills.data, form.millId]);
   if (id && existing.isLoading) return <Loader />;
   const mill = mills.data?.find((m) => m.id === form.millId);
-  const setPass = (i: number, patch: Partial<PassForm>) => setForm((f) => ({ ...f, passes: f.passes.map((p, j) => (j === i ? { ...p, ...patch } : p)) }));
+  const setPass = (i: number, patch: Partial<PassForm>) =>
+    setForm((f) => ({ ...f, passes: f.passes.map((p, j) => (j === i ? { ...p, ...patch } : p)) }));
   const submit = () => save.mutate(toScheduleRequest(form), { onSuccess: (s) => navigate(`/mill/schedules/${s.id}`) });
 
   return (
     <Stack gap="lg">
-      <PageHeader title={id ? `Edit ${existing.data?.name ?? 'schedule'}` : 'New pass schedule'} subtitle="Sizes in millimetres, as the bar enters and leaves each pass (turn the bar between passes by swapping height and width)." />
+      <PageHeader
+        title={id ? `Edit ${existing.data?.name ?? 'schedule'}` : 'New pass schedule'}
+        subtitle="Sizes in millimetres, as the bar enters and leaves each pass (turn the bar between passes by swapping height and width)."
+      />
       <Card withBorder padding="lg">
         <SimpleGrid cols={{ base: 1, sm: 2, lg: 3 }} spacing="md">
           <TextInput label="Name" value={form.name} onChange={(e) => setForm({ ...form, name: e.currentTarget.value })} />
-          <Select label="Mill" data={(mills.data ?? []).map((m) => ({ value: m.id, label: m.name }))} value={form.millId} onChange={(v) => setForm({ ...form, millId: v })} />
-          <Select label="For a customer lot (optional)" clearable data={(lots.data ?? []).map((l) => ({ value: l.id, label: `${l.reference} · ${l.customerName}` }))} value={form.lotId} onChange={(v) => setForm({ ...form, lotId: v })} />
+          <Select
+            label="Mill"
+            data={(mills.data ?? []).map((m) => ({ value: m.id, label: m.name }))}
+            value={form.millId}
+            onChange={(v) => setForm({ ...form, millId: v })}
+          />
+          <Select
+            label="For a customer lot (optional)"
+            clearable
+            data={(lots.data ?? []).map((l) => ({ value: l.id, label: `${l.reference} · ${l.customerName}` }))}
+            value={form.lotId}
+            onChange={(v) => setForm({ ...form, lotId: v })}
+          />
           <Select
             label="Product"
             data={PRODUCT_SHAPES.map((p) => ({ value: p, label: PRODUCT_SHAPE_LABELS[p] }))}
@@ -138,20 +193,57 @@ export default function ScheduleEditPage() {
             onChange={(v) => setForm({ ...form, productHeightMm: v === '' ? '' : Number(v) })}
           />
           {form.productShape === 'flat' && (
-            <NumberInput label="Width, mm" hideControls inputMode="decimal" value={form.productWidthMm} onChange={(v) => setForm({ ...form, productWidthMm: v === '' ? '' : Number(v) })} />
+            <NumberInput
+              label="Width, mm"
+              hideControls
+              inputMode="decimal"
+              value={form.productWidthMm}
+              onChange={(v) => setForm({ ...form, productWidthMm: v === '' ? '' : Number(v) })}
+            />
           )}
-          <TextInput label="Steel grade" value={form.steelGrade} onChange={(e) => setForm({ ...form, steelGrade: e.currentTarget.value })} />
-          <NumberInput label="Carbon, % (for the flow stress)" hideControls inputMode="decimal" value={form.carbonPct} onChange={(v) => setForm({ ...form, carbonPct: v === '' ? '' : Number(v) })} />
+          <TextInput
+            label="Steel grade"
+            value={form.steelGrade}
+            onChange={(e) => setForm({ ...form, steelGrade: e.currentTarget.value })}
+          />
+          <NumberInput
+            label="Carbon, % (for the flow stress)"
+            hideControls
+            inputMode="decimal"
+            value={form.carbonPct}
+            onChange={(v) => setForm({ ...form, carbonPct: v === '' ? '' : Number(v) })}
+          />
         </SimpleGrid>
         <Group mt="md" align="flex-end" gap="md" wrap="wrap">
           <SectionInput label="Stock" value={form.stock} onChange={(v) => setForm({ ...form, stock: v })} />
-          <NumberInput label="Stock length, mm" w={170} hideControls inputMode="decimal" value={form.stockLengthMm} onChange={(v) => setForm({ ...form, stockLengthMm: v === '' ? '' : Number(v) })} description=" " />
+          <NumberInput
+            label="Stock length, mm"
+            w={170}
+            hideControls
+            inputMode="decimal"
+            value={form.stockLengthMm}
+            onChange={(v) => setForm({ ...form, stockLengthMm: v === '' ? '' : Number(v) })}
+            description=" "
+          />
         </Group>
         <Group mt="md">
-          <Checkbox label="Keep as a template for reuse" checked={form.isTemplate} onChange={(e) => setForm({ ...form, isTemplate: e.currentTarget.checked })} />
-          {id && <Checkbox label="Archived" checked={form.archived} onChange={(e) => setForm({ ...form, archived: e.currentTarget.checked })} />}
+          <Checkbox
+            label="Keep as a template for reuse"
+            checked={form.isTemplate}
+            onChange={(e) => setForm({ ...form, isTemplate: e.currentTarget.checked })}
+          />
+          {id && (
+            <Checkbox label="Archived" checked={form.archived} onChange={(e) => setForm({ ...form, archived: e.currentTarget.checked })} />
+          )}
         </Group>
-        <Textarea mt="md" label="Notes" autosize minRows={2} value={form.notes} onChange={(e) => setForm({ ...form, notes: e.currentTarget.value })} />
+        <Textarea
+          mt="md"
+          label="Notes"
+          autosize
+          minRows={2}
+          value={form.notes}
+          onChange={(e) => setForm({ ...form, notes: e.currentTarget.value })}
+        />
       </Card>
       <Title order={2} fz="xl">
         Passes
@@ -163,7 +255,11 @@ export default function ScheduleEditPage() {
               Pass {i + 1}
             </Text>
             {form.passes.length > 1 && (
-              <ActionIcon variant="default" aria-label={`Remove pass ${i + 1}`} onClick={() => setForm((f) => ({ ...f, passes: f.passes.filter((_, j) => j !== i) }))}>
+              <ActionIcon
+                variant="default"
+                aria-label={`Remove pass ${i + 1}`}
+                onClick={() => setForm((f) => ({ ...f, passes: f.passes.filter((_, j) => j !== i) }))}
+              >
                 <IconTrash />
               </ActionIcon>
             )}
@@ -176,11 +272,24 @@ export default function ScheduleEditPage() {
               value={p.standPosition}
               onChange={(v) => setPass(i, { standPosition: v })}
             />
-            <NumberInput label={`Pass ${i + 1}: expected temperature, °C`} w={290} hideControls inputMode="decimal" value={p.temperature} onChange={(v) => setPass(i, { temperature: v === '' ? '' : Number(v) })} />
+            <NumberInput
+              label={`Pass ${i + 1}: expected temperature, °C`}
+              w={290}
+              hideControls
+              inputMode="decimal"
+              value={p.temperature}
+              onChange={(v) => setPass(i, { temperature: v === '' ? '' : Number(v) })}
+            />
           </Group>
           <Group align="flex-end" gap="xs" mt="sm" wrap="wrap">
             <SectionInput label={`Pass ${i + 1} entry`} value={p.entry} onChange={(v) => setPass(i, { entry: v })} />
-            <ActionIcon variant="default" mb={26} aria-label={`Turn the bar before pass ${i + 1}`} title="Turn a quarter (swap height and width)" onClick={() => setPass(i, { entry: turned(p.entry) })}>
+            <ActionIcon
+              variant="default"
+              mb={26}
+              aria-label={`Turn the bar before pass ${i + 1}`}
+              title="Turn a quarter (swap height and width)"
+              onClick={() => setPass(i, { entry: turned(p.entry) })}
+            >
               <IconArrowsExchange />
             </ActionIcon>
           </Group>
@@ -192,7 +301,18 @@ export default function ScheduleEditPage() {
         variant="default"
         leftSection={<IconPlus />}
         w="fit-content"
-        onClick={() => setForm((f) => ({ ...f, passes: [...f.passes, { ...blankPass(turned(f.passes[f.passes.length - 1]?.exit ?? f.stock)), standPosition: f.passes[f.passes.length - 1]?.standPosition ?? '1' }] }))}
+        onClick={() =>
+          setForm((f) => ({
+            ...f,
+            passes: [
+              ...f.passes,
+              {
+                ...blankPass(turned(f.passes[f.passes.length - 1]?.exit ?? f.stock)),
+                standPosition: f.passes[f.passes.length - 1]?.standPosition ?? '1',
+              },
+            ],
+          }))
+        }
       >
         Add a pass (entry = last exit, turned)
       </Button>

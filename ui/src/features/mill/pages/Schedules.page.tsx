@@ -36,7 +36,11 @@ export default function SchedulesPage() {
       }),
       col.accessor((s) => product(s), { id: 'product', header: 'Product', cell: (c) => <Text fz="sm">{c.getValue()}</Text> }),
       col.accessor('steelGrade', { header: 'Steel' }),
-      col.accessor((s) => sectionText(s.stock), { id: 'stock', header: 'Stock, mm', cell: (c) => <Text className="cj-num">{c.getValue()}</Text> }),
+      col.accessor((s) => sectionText(s.stock), {
+        id: 'stock',
+        header: 'Stock, mm',
+        cell: (c) => <Text className="cj-num">{c.getValue()}</Text>,
+      }),
       col.accessor('passCount', { header: 'Passes', cell: (c) => <Text className="cj-num">{c.getValue()}</Text> }),
       col.accessor('flaggedPasses', {
         header: 'Flagged',
@@ -86,11 +90,23 @@ export default function SchedulesPage() {
       <Title order={2} fz="xl">
         Templates
       </Title>
-      <DataTable data={live.filter((s) => s.isTemplate)} columns={columns} caption="Templates" empty="No templates yet." getRowId={(s) => s.id} />
+      <DataTable
+        data={live.filter((s) => s.isTemplate)}
+        columns={columns}
+        caption="Templates"
+        empty="No templates yet."
+        getRowId={(s) => s.id}
+      />
       <Title order={2} fz="xl">
         Working schedules
       </Title>
-      <DataTable data={live.filter((s) => !s.isTemplate)} columns={columns} caption="Working schedules" empty="No schedules planned yet." getRowId={(s) => s.id} />
+      <DataTable
+        data={live.filter((s) => !s.isTemplate)}
+        columns={columns}
+        caption="Working schedules"
+        empty="No schedules planned yet."
+        getRowId={(s) => s.id}
+      />
       {data.some((s) => s.archived) && (
         <Text c="dimmed" fz="sm">
           {data.filter((s) => s.archived).length} archived schedule(s) not shown.

@@ -15,7 +15,13 @@ export function calc(over: Partial<PassCalculationDto> = {}): PassCalculationDto
     rollSpeedRpm: 75,
     rollSurfaceSpeedMPerS: 1.6,
     meanStrainRatePerS: 6.1,
-    flowStress: { model: 'misaka', citation: 'Misaka & Yoshimoto (1967), test citation.', meanFlowStressMPa: 74, extrapolated: true, outOfRange: ['strain rate 6.10 /s outside 30–200 /s'] },
+    flowStress: {
+      model: 'misaka',
+      citation: 'Misaka & Yoshimoto (1967), test citation.',
+      meanFlowStressMPa: 74,
+      extrapolated: true,
+      outOfRange: ['strain rate 6.10 /s outside 30–200 /s'],
+    },
     frictionFactor: 1.2,
     forceKn: 372,
     forceLbf: 83600,
@@ -56,8 +62,14 @@ export function overloaded(): PassCalculationDto {
     ...c,
     flywheel: { ...c.flywheel!, endSpeedRpm: 61.9, speedDropRpm: 13.1, belowMinSpeed: true },
     warnings: [
-      { code: 'stand_force', message: "Roll force 2347 kN is over the stand's maximum of 900 kN (261 %). Take a lighter draft or roll hotter." },
-      { code: 'speed_drop', message: 'Speed would fall to 61.9 rpm, below 67.5 rpm (90 % of rated). Take a lighter draft or wait for full speed.' },
+      {
+        code: 'stand_force',
+        message: "Roll force 2347 kN is over the stand's maximum of 900 kN (261 %). Take a lighter draft or roll hotter.",
+      },
+      {
+        code: 'speed_drop',
+        message: 'Speed would fall to 61.9 rpm, below 67.5 rpm (90 % of rated). Take a lighter draft or wait for full speed.',
+      },
     ],
   };
 }
@@ -109,8 +121,30 @@ export function schedule(): ScheduleDetail {
     updatedAt: '2026-12-01T10:00:00Z',
     notes: '',
     passes: [
-      { id: 'p1', seq: 1, standPosition: 1, standName: 'Stand 1', entry: rect(76.2, 76.2), exit: rect(62, 80), expectedTemperatureC: 1150, notes: '', calc: calc(), calcError: null },
-      { id: 'p2', seq: 2, standPosition: 2, standName: 'Stand 2', entry: rect(80, 62), exit: rect(60, 66), expectedTemperatureC: 1110, notes: '', calc: calc(), calcError: null },
+      {
+        id: 'p1',
+        seq: 1,
+        standPosition: 1,
+        standName: 'Stand 1',
+        entry: rect(76.2, 76.2),
+        exit: rect(62, 80),
+        expectedTemperatureC: 1150,
+        notes: '',
+        calc: calc(),
+        calcError: null,
+      },
+      {
+        id: 'p2',
+        seq: 2,
+        standPosition: 2,
+        standName: 'Stand 2',
+        entry: rect(80, 62),
+        exit: rect(60, 66),
+        expectedTemperatureC: 1110,
+        notes: '',
+        calc: calc(),
+        calcError: null,
+      },
     ],
     totalElongation: 2.25,
     finalLengthM: 4,
@@ -153,4 +187,5 @@ export function lot(over: Partial<LotDetail> = {}): LotDetail {
   };
 }
 
-export const json = (body: unknown, status = 200) => new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
+export const json = (body: unknown, status = 200) =>
+  new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });

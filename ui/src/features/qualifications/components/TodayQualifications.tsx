@@ -34,7 +34,8 @@ export function TodayQualifications() {
             <Text fz="sm">
               {isChief ? <b>{q.userName}</b> : null}
               {isChief ? ' — ' : ''}
-              {DUTY_LABELS[q.duty]} on {q.engineName}: {q.daysToExpiry < 0 ? `ended ${-q.daysToExpiry} day(s) ago` : `ends in ${q.daysToExpiry} day(s)`}
+              {DUTY_LABELS[q.duty]} on {q.engineName}:{' '}
+              {q.daysToExpiry < 0 ? `ended ${-q.daysToExpiry} day(s) ago` : `ends in ${q.daysToExpiry} day(s)`}
             </Text>
           </Group>
         ))}

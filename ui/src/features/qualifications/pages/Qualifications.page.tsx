@@ -1,14 +1,42 @@
 import { useEffect, useState } from 'react';
 import { useQuery } from '@tanstack/react-query';
-import { Alert, Button, Group, Loader, Modal, Paper, Select, Stack, Table, Tabs, Text, Textarea, TextInput, Title, UnstyledButton } from '@mantine/core';
+import {
+  Alert,
+  Button,
+  Group,
+  Loader,
+  Modal,
+  Paper,
+  Select,
+  Stack,
+  Table,
+  Tabs,
+  Text,
+  Textarea,
+  TextInput,
+  Title,
+  UnstyledButton,
+} from '@mantine/core';
 import { notifications } from '@mantine/notifications';
 import { IconPlus } from '@tabler/icons-react';
-import { DUTY_DESCRIPTIONS, DUTY_LABELS, ROLE_LABELS, type Duty, type QualificationDto, type QualificationMatrixRow } from '@crankjournal/shared-types';
+import {
+  DUTY_DESCRIPTIONS,
+  DUTY_LABELS,
+  ROLE_LABELS,
+  type Duty,
+  type QualificationDto,
+  type QualificationMatrixRow,
+} from '@crankjournal/shared-types';
 import { errorText } from '../../../api/http';
 import { PageHeader } from '../../../components/PageHeader';
 import { useHasRole } from '../../auth/useSession';
 import { enginesListQuery } from '../../engines/api/engines.api';
-import { myQualificationsQuery, qualificationHistoryQuery, qualificationMatrixQuery, useQualificationWrite } from '../api/qualifications.api';
+import {
+  myQualificationsQuery,
+  qualificationHistoryQuery,
+  qualificationMatrixQuery,
+  useQualificationWrite,
+} from '../api/qualifications.api';
 import { QualificationStatusBadge } from '../components/QualificationStatusBadge';
 
 const day = (iso: string) => {
@@ -21,7 +49,13 @@ const isoIn = (days: number) => {
   return `${d.getFullYear()}-${String(d.getMonth() + 1).padStart(2, '0')}-${String(d.getDate()).padStart(2, '0')}`;
 };
 const left = (q: QualificationDto) =>
-  q.status === 'withdrawn' ? '' : q.daysToExpiry < 0 ? `ended ${-q.daysToExpiry} day(s) ago` : q.daysToExpiry === 0 ? 'ends today' : `${q.daysToExpiry} day(s) left`;
+  q.status === 'withdrawn'
+    ? ''
+    : q.daysToExpiry < 0
+      ? `ended ${-q.daysToExpiry} day(s) ago`
+      : q.daysToExpiry === 0
+        ? 'ends today'
+        : `${q.daysToExpiry} day(s) left`;
 
 /** Everyone's own qualifications, standing ones first, then the withdrawn history. */
 function Mine() {
@@ -102,7 +136,13 @@ function CellModal({ cell, engineId, isChief, onClose }: { cell: Cell | null; en
   const fail = (e: unknown) => setError(errorText(e));
   const past = (history.data ?? []).filter((h) => h.duty === cell.duty && h.status === 'withdrawn');
   return (
-    <Modal opened onClose={onClose} centered size="lg" title={<Text fw={700} fz="lg">{`${cell.row.displayName} — ${DUTY_LABELS[cell.duty]}`}</Text>}>
+    <Modal
+      opened
+      onClose={onClose}
+      centered
+      size="lg"
+      title={<Text fw={700} fz="lg">{`${cell.row.displayName} — ${DUTY_LABELS[cell.duty]}`}</Text>}
+    >
       <Stack>
         <Text fz="sm" c="dimmed">
           {DUTY_DESCRIPTIONS[cell.duty]}
@@ -131,13 +171,27 @@ function CellModal({ cell, engineId, isChief, onClose }: { cell: Cell | null; en
           <>
             <Title order={4}>{cell.q ? 'Renew' : 'Grant'}</Title>
             <Group grow>
-              <TextInput type="date" label={cell.q ? 'Renewed on' : 'Granted on'} value={grantedOn} onChange={(e) => setGrantedOn(e.currentTarget.value)} />
+              <TextInput
+                type="date"
+                label={cell.q ? 'Renewed on' : 'Granted on'}
+                value={grantedOn}
+                onChange={(e) => setGrantedOn(e.currentTarget.value)}
+              />
               <TextInput type="date" label="Expires on" value={expiresOn} onChange={(e) => setExpiresOn(e.currentTarget.value)} />
             </Group>
             <Textarea label="Notes" rows={2} value={notes} onChange={(e) => setNotes(e.currentTarget.value)} />
             <Group justify="flex-end">
               {cell.q ? (
-                <Button size="lg" loading={write.renew.isPending} onClick={() => write.renew.mutate({ id: cell.q!.id, req: { grantedOn, expiresOn, notes } }, { onSuccess: done('Renewed'), onError: fail })}>
+                <Button
+                  size="lg"
+                  loading={write.renew.isPending}
+                  onClick={() =>
+                    write.renew.mutate(
+                      { id: cell.q!.id, req: { grantedOn, expiresOn, notes } },
+                      { onSuccess: done('Renewed'), onError: fail },
+                    )
+                  }
+                >
                   Renew until {expiresOn ? day(expiresOn) : '…'}
                 </Button>
               ) : (
@@ -145,7 +199,12 @@ function CellModal({ cell, engineId, isChief, onClose }: { cell: Cell | null; en
                   size="lg"
                   leftSection={<IconPlus />}
                   loading={write.grant.isPending}
-                  onClick={() => write.grant.mutate({ userId: cell.row.userId, engineId, duty: cell.duty, grantedOn, expiresOn, notes }, { onSuccess: done('Granted'), onError: fail })}
+                  onClick={() =>
+                    write.grant.mutate(
+                      { userId: cell.row.userId, engineId, duty: cell.duty, grantedOn, expiresOn, notes },
+                      { onSuccess: done('Granted'), onError: fail },
+                    )
+                  }
                 >
                   Grant qualification
                 </Button>
@@ -162,7 +221,9 @@ function CellModal({ cell, engineId, isChief, onClose }: { cell: Cell | null; en
                     size="lg"
                     disabled={reason.trim().length < 3}
                     loading={write.withdraw.isPending}
-                    onClick={() => write.withdraw.mutate({ id: cell.q!.id, reason: reason.trim() }, { onSuccess: done('Withdrawn'), onError: fail })}
+                    onClick={() =>
+                      write.withdraw.mutate({ id: cell.q!.id, reason: reason.trim() }, { onSuccess: done('Withdrawn'), onError: fail })
+                    }
                   >
                     Withdraw qualification
                   </Button>
@@ -202,16 +263,29 @@ function Matrix({ isChief }: { isChief: boolean }) {
   return (
     <Stack gap="md">
       {(engines.data?.length ?? 0) > 1 && (
-        <Select label="Engine" w={320} data={engines.data!.map((e) => ({ value: e.id, label: e.name }))} value={engineId} onChange={setPicked} allowDeselect={false} />
+        <Select
+          label="Engine"
+          w={320}
+          data={engines.data!.map((e) => ({ value: e.id, label: e.name }))}
+          value={engineId}
+          onChange={setPicked}
+          allowDeselect={false}
+        />
       )}
       {d.attention.length > 0 && (
-        <Alert color="amber" variant="outline" title={`Expired or ending within ${d.warningDays} days`} data-testid="qualifications-attention">
+        <Alert
+          color="amber"
+          variant="outline"
+          title={`Expired or ending within ${d.warningDays} days`}
+          data-testid="qualifications-attention"
+        >
           <Stack gap={4}>
             {d.attention.map((q) => (
               <Group key={q.id} gap="xs">
                 <QualificationStatusBadge status={q.status} size="sm" />
                 <Text fz="sm">
-                  <b>{q.userName}</b> — {DUTY_LABELS[q.duty]}: {q.daysToExpiry < 0 ? `ended ${day(q.expiresOn)}` : `ends ${day(q.expiresOn)} (${left(q)})`}
+                  <b>{q.userName}</b> — {DUTY_LABELS[q.duty]}:{' '}
+                  {q.daysToExpiry < 0 ? `ended ${day(q.expiresOn)}` : `ends ${day(q.expiresOn)} (${left(q)})`}
                 </Text>
               </Group>
             ))}

@@ -3,9 +3,14 @@ import { render, screen, fireEvent, within } from '../../../test-utils/render';
 import { sessionStore } from '../../../api/session';
 import QualificationsPage from './Qualifications.page';
 
-const json = (body: unknown, status = 200) => new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
+const json = (body: unknown, status = 200) =>
+  new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
 const signIn = (role: Role) =>
-  sessionStore.set({ accessToken: 'a', refreshToken: 'r', user: { id: 'u1', email: 'x@alderforge.example', displayName: 'Test Person', role, unitSystem: 'imperial' } });
+  sessionStore.set({
+    accessToken: 'a',
+    refreshToken: 'r',
+    user: { id: 'u1', email: 'x@alderforge.example', displayName: 'Test Person', role, unitSystem: 'imperial' },
+  });
 
 const q = (p: Partial<QualificationDto>): QualificationDto => ({
   id: 'q1',
@@ -35,7 +40,14 @@ const matrix: QualificationMatrix = {
   today: '2026-12-01',
   warningDays: 30,
   duties: ['pre_lube', 'start_and_run', 'shutdown', 'mill_operation'],
-  rows: [{ userId: 'u2', displayName: 'Cyril Dunnock', role: 'operator', cells: { pre_lube: null, start_and_run: expired, shutdown: null, mill_operation: null } }],
+  rows: [
+    {
+      userId: 'u2',
+      displayName: 'Cyril Dunnock',
+      role: 'operator',
+      cells: { pre_lube: null, start_and_run: expired, shutdown: null, mill_operation: null },
+    },
+  ],
   attention: [expired],
 };
 
@@ -64,7 +76,11 @@ describe('QualificationsPage', () => {
 
   it('shows an operator their own qualifications only', async () => {
     signIn('operator');
-    const spy = vi.spyOn(globalThis, 'fetch').mockImplementation(async () => json([q({ status: 'current', daysToExpiry: 200, expiresOn: '2027-06-19', userName: 'Test Person' })]));
+    const spy = vi
+      .spyOn(globalThis, 'fetch')
+      .mockImplementation(async () =>
+        json([q({ status: 'current', daysToExpiry: 200, expiresOn: '2027-06-19', userName: 'Test Person' })]),
+      );
     render(<QualificationsPage />);
     expect(await screen.findByRole('table', { name: 'Your qualifications' })).toHaveTextContent('Start and run');
     expect(screen.queryByRole('tab', { name: 'Crew' })).toBeNull();

@@ -40,7 +40,8 @@ export const runKeys = {
   detail: (id: string) => [...runKeys.run(id), 'detail'] as const,
   board: (id: string) => [...runKeys.run(id), 'board'] as const,
   readingsAll: (id: string) => [...runKeys.run(id), 'readings'] as const,
-  readings: (id: string, f: ReadingFilters = {}) => [...runKeys.readingsAll(id), { since: f.since ?? null, pointId: f.pointId ?? null }] as const,
+  readings: (id: string, f: ReadingFilters = {}) =>
+    [...runKeys.readingsAll(id), { since: f.since ?? null, pointId: f.pointId ?? null }] as const,
   alarms: (id: string) => [...runKeys.run(id), 'alarms'] as const,
   startGate: (id: string) => [...runKeys.run(id), 'start-gate'] as const,
 };
@@ -48,13 +49,15 @@ export const runKeys = {
 export const runsListQuery = (f: RunFilters = {}) =>
   queryOptions({ queryKey: runKeys.list(f), queryFn: () => api<RunSummary[]>(`/runs${query({ engineId: f.engineId, state: f.state })}`) });
 export const runDetailQuery = (id: string) => queryOptions({ queryKey: runKeys.detail(id), queryFn: () => api<RunDetail>(`/runs/${id}`) });
-export const runBoardQuery = (id: string) => queryOptions({ queryKey: runKeys.board(id), queryFn: () => api<BoardPoint[]>(`/runs/${id}/board`) });
+export const runBoardQuery = (id: string) =>
+  queryOptions({ queryKey: runKeys.board(id), queryFn: () => api<BoardPoint[]>(`/runs/${id}/board`) });
 export const runReadingsQuery = (id: string, f: ReadingFilters = {}) =>
   queryOptions({
     queryKey: runKeys.readings(id, f),
     queryFn: () => api<ReadingDto[]>(`/runs/${id}/readings${query({ since: f.since, pointId: f.pointId })}`),
   });
-export const runAlarmsQuery = (id: string) => queryOptions({ queryKey: runKeys.alarms(id), queryFn: () => api<AlarmDto[]>(`/runs/${id}/alarms`) });
+export const runAlarmsQuery = (id: string) =>
+  queryOptions({ queryKey: runKeys.alarms(id), queryFn: () => api<AlarmDto[]>(`/runs/${id}/alarms`) });
 export const startGateQuery = (id: string) =>
   queryOptions({ queryKey: runKeys.startGate(id), queryFn: () => api<StartGateVerdict>(`/runs/${id}/start-gate`), staleTime: 5_000 });
 

@@ -37,7 +37,8 @@ function signIn(role: Role) {
   });
 }
 
-const json = (body: unknown, status = 200) => new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
+const json = (body: unknown, status = 200) =>
+  new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
 
 function buttonsShown(): string[] {
   const group = screen.queryByRole('group', { name: 'Run actions' });

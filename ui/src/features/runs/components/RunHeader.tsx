@@ -8,11 +8,20 @@ import { errorText } from '../../../api/http';
 import { useSession } from '../../auth/useSession';
 import { formatNumber } from '../../units/units';
 import { startGateQuery, startRefusal, useTransitionRun } from '../api/runs.api';
-import { allowedTransitions, formatDuration, formatPlannedFor, transitionLabel, TRANSITION_ROLES, type TransitionTarget } from '../model/transitions';
+import {
+  allowedTransitions,
+  formatDuration,
+  formatPlannedFor,
+  transitionLabel,
+  TRANSITION_ROLES,
+  type TransitionTarget,
+} from '../model/transitions';
 import { OpenAlarmsBadge, RunStateBadge } from './RunStateBadge';
 
 const when = (iso: string | null) =>
-  iso ? new Date(iso).toLocaleString(undefined, { weekday: 'short', day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit' }) : '—';
+  iso
+    ? new Date(iso).toLocaleString(undefined, { weekday: 'short', day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit' })
+    : '—';
 
 /** What a transition records, said before the person confirms it. */
 function explanation(from: RunState, to: TransitionTarget): string {
@@ -70,11 +79,20 @@ export function StartGateReasons({ verdict, refused }: { verdict: StartGateVerdi
         {verdict.reasons.map((r, i) => (
           <List.Item key={`${r.code}-${i}`}>
             {r.message}
-            {r.subject ? <Text span c="dimmed"> — {r.subject}</Text> : null}
+            {r.subject ? (
+              <Text span c="dimmed">
+                {' '}
+                — {r.subject}
+              </Text>
+            ) : null}
           </List.Item>
         ))}
       </List>
-      {verdict.preLubeFreshUntil && <Text fz="sm" mt="xs">Pre-lube sign-off fresh until {when(verdict.preLubeFreshUntil)}.</Text>}
+      {verdict.preLubeFreshUntil && (
+        <Text fz="sm" mt="xs">
+          Pre-lube sign-off fresh until {when(verdict.preLubeFreshUntil)}.
+        </Text>
+      )}
     </Alert>
   );
 }
@@ -182,9 +200,7 @@ export function RunHeader({ run, onTransitioned, quietActions = false }: RunHead
           </Group>
         )}
         {run.state === 'abandoned' && (
-          <Text fz="sm">
-            Abandoned{run.abandonedReason ? `: ${run.abandonedReason}` : '.'} Its log is kept as it was.
-          </Text>
+          <Text fz="sm">Abandoned{run.abandonedReason ? `: ${run.abandonedReason}` : '.'} Its log is kept as it was.</Text>
         )}
         {waitingForCountersign && (
           <Text fz="sm" c="dimmed">
@@ -194,7 +210,10 @@ export function RunHeader({ run, onTransitioned, quietActions = false }: RunHead
         {refusal ? (
           <StartGateReasons verdict={refusal} refused />
         ) : (
-          canStart && gate.data && !gate.data.allowed && gate.data.reasons.length > 0 && <StartGateReasons verdict={gate.data} refused={false} />
+          canStart &&
+          gate.data &&
+          !gate.data.allowed &&
+          gate.data.reasons.length > 0 && <StartGateReasons verdict={gate.data} refused={false} />
         )}
       </Stack>
       <TransitionModal
@@ -303,7 +322,13 @@ function TransitionModal({
             <Button variant="default" size="lg" onClick={onClose}>
               Cancel
             </Button>
-            <Button type="submit" size="lg" color={target === 'abandoned' ? 'signal' : undefined} disabled={!ready} loading={transition.isPending}>
+            <Button
+              type="submit"
+              size="lg"
+              color={target === 'abandoned' ? 'signal' : undefined}
+              disabled={!ready}
+              loading={transition.isPending}
+            >
               {target === 'abandoned' ? 'Abandon run' : label}
             </Button>
           </Group>

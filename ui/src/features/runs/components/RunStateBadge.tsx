@@ -45,7 +45,13 @@ export function RunStateBadge({ state, size = 'lg' }: { state: RunState; size?: 
       );
     case 'abandoned':
       return (
-        <Badge size={size} color="gray" variant="light" leftSection={<IconX size={icon} />} styles={{ label: { textDecoration: 'line-through' } }}>
+        <Badge
+          size={size}
+          color="gray"
+          variant="light"
+          leftSection={<IconX size={icon} />}
+          styles={{ label: { textDecoration: 'line-through' } }}
+        >
           {label}
         </Badge>
       );

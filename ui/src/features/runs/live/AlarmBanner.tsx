@@ -35,7 +35,13 @@ export function AlarmBanner({
       role="alert"
       aria-label="Alarms waiting for acknowledgement"
       data-testid="alarm-banner"
-      style={{ position: 'sticky', top: 'calc(var(--app-shell-header-offset, 60px))', zIndex: 120, marginInline: 'calc(var(--app-shell-padding, 16px) * -1)', marginTop: 'calc(var(--app-shell-padding, 16px) * -1)' }}
+      style={{
+        position: 'sticky',
+        top: 'calc(var(--app-shell-header-offset, 60px))',
+        zIndex: 120,
+        marginInline: 'calc(var(--app-shell-padding, 16px) * -1)',
+        marginTop: 'calc(var(--app-shell-padding, 16px) * -1)',
+      }}
       mb="md"
     >
       <Stack gap={0}>
@@ -52,7 +58,9 @@ export function AlarmBanner({
               py={8}
               gap="md"
               style={{
-                background: filled ? `var(--mantine-color-${look.color}-${a.priority === 'high_high' ? 7 : 5})` : 'var(--mantine-color-body)',
+                background: filled
+                  ? `var(--mantine-color-${look.color}-${a.priority === 'high_high' ? 7 : 5})`
+                  : 'var(--mantine-color-body)',
                 border: filled ? undefined : `3px solid var(--mantine-color-amber-5)`,
                 borderBottom: '1px solid rgba(0,0,0,.25)',
                 color: fg,
@@ -94,7 +102,14 @@ export function AlarmBanner({
           );
         })}
         {more > 0 && (
-          <Text fz="sm" fw={700} px="md" py={6} bg="var(--mantine-color-default)" style={{ borderBottom: '1px solid var(--mantine-color-default-border)' }}>
+          <Text
+            fz="sm"
+            fw={700}
+            px="md"
+            py={6}
+            bg="var(--mantine-color-default)"
+            style={{ borderBottom: '1px solid var(--mantine-color-default-border)' }}
+          >
             and {more} more waiting — see the alarm list below
           </Text>
         )}

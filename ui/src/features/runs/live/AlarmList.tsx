@@ -40,7 +40,11 @@ function AlarmRow({ alarm: a, actions }: { alarm: AlarmDto; actions: AlarmAction
       className={shelved ? 'cj-shelved' : undefined}
       data-testid={`alarm-${a.id}`}
       data-state={a.state}
-      style={!shelved && !cleared && isUnacknowledged(a.state) ? { borderColor: `var(--mantine-color-${a.priority === 'high_high' ? 'signal' : 'amber'}-6)`, borderWidth: 2 } : undefined}
+      style={
+        !shelved && !cleared && isUnacknowledged(a.state)
+          ? { borderColor: `var(--mantine-color-${a.priority === 'high_high' ? 'signal' : 'amber'}-6)`, borderWidth: 2 }
+          : undefined
+      }
       opacity={cleared ? 0.8 : 1}
     >
       <Group justify="space-between" align="flex-start" wrap="wrap" gap="sm">
@@ -74,12 +78,25 @@ function AlarmRow({ alarm: a, actions }: { alarm: AlarmDto; actions: AlarmAction
         {(actions.canAcknowledge || actions.canShelve) && !cleared && (
           <Group gap="xs" wrap="wrap">
             {actions.canAcknowledge && isUnacknowledged(a.state) && (
-              <Button size="md" h={48} leftSection={<IconBellCheck size={18} />} loading={actions.busy === a.id} onClick={() => actions.onAcknowledge(a)}>
+              <Button
+                size="md"
+                h={48}
+                leftSection={<IconBellCheck size={18} />}
+                loading={actions.busy === a.id}
+                onClick={() => actions.onAcknowledge(a)}
+              >
                 Acknowledge
               </Button>
             )}
             {!actions.canShelve ? null : shelved ? (
-              <Button size="md" h={48} variant="default" leftSection={<IconClockPlay size={18} />} loading={actions.busy === a.id} onClick={() => actions.onUnshelve(a)}>
+              <Button
+                size="md"
+                h={48}
+                variant="default"
+                leftSection={<IconClockPlay size={18} />}
+                loading={actions.busy === a.id}
+                onClick={() => actions.onUnshelve(a)}
+              >
                 Unshelve
               </Button>
             ) : (
@@ -130,7 +147,17 @@ export function ShelveModal({
   const minutesOk = Number.isInteger(m) && m >= 1 && m <= MAX_SHELVE_MINUTES;
   const ready = reason.trim().length > 0 && minutesOk;
   return (
-    <Modal opened={!!alarm} onClose={onClose} centered size="lg" title={<Text fw={700} fz="lg">Shelve this alarm?</Text>}>
+    <Modal
+      opened={!!alarm}
+      onClose={onClose}
+      centered
+      size="lg"
+      title={
+        <Text fw={700} fz="lg">
+          Shelve this alarm?
+        </Text>
+      }
+    >
       {alarm && (
         <form
           onSubmit={(e) => {
@@ -143,15 +170,23 @@ export function ShelveModal({
               <b>{alarm.pointLabel}</b> — {alarm.message}
             </Text>
             <Text fz="sm">
-              A shelved alarm leaves the banner until the time runs out, then comes back if its condition is still there. Your name, the time,
-              the reason and the length are recorded with the alarm.
+              A shelved alarm leaves the banner until the time runs out, then comes back if its condition is still there. Your name, the
+              time, the reason and the length are recorded with the alarm.
             </Text>
             {error && (
               <Alert color="signal" role="alert">
                 {error}
               </Alert>
             )}
-            <Textarea label="Reason" required rows={2} value={reason} onChange={(e) => setReason(e.currentTarget.value)} data-autofocus placeholder="e.g. thermometer on MB2 being replaced" />
+            <Textarea
+              label="Reason"
+              required
+              rows={2}
+              value={reason}
+              onChange={(e) => setReason(e.currentTarget.value)}
+              data-autofocus
+              placeholder="e.g. thermometer on MB2 being replaced"
+            />
             <Stack gap={6}>
               <NumberInput
                 label="For how many minutes"

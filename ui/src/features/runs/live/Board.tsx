@@ -88,7 +88,9 @@ function BoardTile({ point, board }: { point: EnginePoint; board: BoardPoint | n
           {range ? `Normal ${range}` : 'No normal range set'}
           {board?.takenAt ? ` · at ${dayjs(board.takenAt).format('HH:mm')}` : ' · no reading yet'}
         </Text>
-        {board?.alarmState && board.alarmState !== 'normal' && <AlarmStateBadge state={board.alarmState} priority={board.alarmPriority} short size="md" />}
+        {board?.alarmState && board.alarmState !== 'normal' && (
+          <AlarmStateBadge state={board.alarmState} priority={board.alarmPriority} short size="md" />
+        )}
       </Stack>
     </Paper>
   );

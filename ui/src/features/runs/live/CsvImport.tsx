@@ -47,10 +47,16 @@ function tokenExpiresSoon(token: string, marginS = 30): boolean {
   }
 }
 
-type UploadOutcome = { ok: true; result: IngestResult; status: number } | { ok: false; message: string; result: IngestResult | null; status: number };
+type UploadOutcome =
+  { ok: true; result: IngestResult; status: number } | { ok: false; message: string; result: IngestResult | null; status: number };
 
 /** Sends the file as text/csv with XMLHttpRequest, for its upload progress. */
-export function uploadCsv(runId: string, file: Blob, onProgress: (fraction: number) => void, xhrRef?: { current: XMLHttpRequest | null }): Promise<UploadOutcome> {
+export function uploadCsv(
+  runId: string,
+  file: Blob,
+  onProgress: (fraction: number) => void,
+  xhrRef?: { current: XMLHttpRequest | null },
+): Promise<UploadOutcome> {
   return new Promise((resolve) => {
     const xhr = new XMLHttpRequest();
     if (xhrRef) xhrRef.current = xhr;
@@ -70,10 +76,15 @@ export function uploadCsv(runId: string, file: Blob, onProgress: (fraction: numb
       }
       if (xhr.status >= 200 && xhr.status < 300 && isIngestResult(body)) return resolve({ ok: true, result: body, status: xhr.status });
       const err = body as ApiError | null;
-      const message = err?.message ? (Array.isArray(err.message) ? err.message.join(' ') : err.message) : `The server answered ${xhr.status}.`;
+      const message = err?.message
+        ? Array.isArray(err.message)
+          ? err.message.join(' ')
+          : err.message
+        : `The server answered ${xhr.status}.`;
       resolve({ ok: false, message, result: isIngestResult(err?.details) ? err.details : null, status: xhr.status });
     };
-    xhr.onerror = () => resolve({ ok: false, message: 'Cannot reach the Crankjournal server. The file was not sent.', result: null, status: 0 });
+    xhr.onerror = () =>
+      resolve({ ok: false, message: 'Cannot reach the Crankjournal server. The file was not sent.', result: null, status: 0 });
     xhr.onabort = () => resolve({ ok: false, message: 'Upload cancelled. Nothing was stored.', result: null, status: 0 });
     xhr.send(file);
   });
@@ -110,13 +121,15 @@ function Report({ result }: { result: IngestResult }) {
               </Table.Tr>
             </Table.Thead>
             <Table.Tbody>
-              {[...result.rejected].sort((a, b) => (a.line ?? a.index ?? 0) - (b.line ?? b.index ?? 0)).map((r, i) => (
-                <Table.Tr key={i}>
-                  <Table.Td className="cj-num">{r.line ?? (r.index !== undefined ? r.index + 1 : '—')}</Table.Td>
-                  <Table.Td>{r.column ?? r.field ?? '—'}</Table.Td>
-                  <Table.Td>{r.reason}</Table.Td>
-                </Table.Tr>
-              ))}
+              {[...result.rejected]
+                .sort((a, b) => (a.line ?? a.index ?? 0) - (b.line ?? b.index ?? 0))
+                .map((r, i) => (
+                  <Table.Tr key={i}>
+                    <Table.Td className="cj-num">{r.line ?? (r.index !== undefined ? r.index + 1 : '—')}</Table.Td>
+                    <Table.Td>{r.column ?? r.field ?? '—'}</Table.Td>
+                    <Table.Td>{r.reason}</Table.Td>
+                  </Table.Tr>
+                ))}
             </Table.Tbody>
           </Table>
         </Table.ScrollContainer>
@@ -172,9 +185,10 @@ export function CsvImport({ runId, onImported }: { runId: string; onImported?: (
   return (
     <Stack gap="md">
       <Text fz="sm">
-        A logger file with a header line and the columns <Code>taken_at</Code>, <Code>point</Code>, <Code>value</Code> and optionally <Code>unit</Code>.{' '}
-        <Code>taken_at</Code> is an ISO time (e.g. <Code>2025-06-14T10:15:00Z</Code>), <Code>point</Code> the measurement point’s code (e.g.{' '}
-        <Code>MB1-T</Code>), <Code>unit</Code> when given must be the point’s unit. Rows already stored are counted, not stored twice.
+        A logger file with a header line and the columns <Code>taken_at</Code>, <Code>point</Code>, <Code>value</Code> and optionally{' '}
+        <Code>unit</Code>. <Code>taken_at</Code> is an ISO time (e.g. <Code>2025-06-14T10:15:00Z</Code>), <Code>point</Code> the measurement
+        point’s code (e.g. <Code>MB1-T</Code>), <Code>unit</Code> when given must be the point’s unit. Rows already stored are counted, not
+        stored twice.
       </Text>
       <FileInput
         label="Logger file (CSV)"
@@ -203,8 +217,8 @@ export function CsvImport({ runId, onImported }: { runId: string; onImported?: (
           </Group>
           {preview.missing.length > 0 && (
             <Alert color="signal" variant="light" icon={<IconAlertOctagon />} title="This file cannot be imported">
-              Missing column{preview.missing.length > 1 ? 's' : ''}: {preview.missing.join(', ')}. The first line must name the columns taken_at, point,
-              value (and optionally unit).
+              Missing column{preview.missing.length > 1 ? 's' : ''}: {preview.missing.join(', ')}. The first line must name the columns
+              taken_at, point, value (and optionally unit).
             </Alert>
           )}
           {preview.unknown.length > 0 && (
@@ -255,7 +269,13 @@ export function CsvImport({ runId, onImported }: { runId: string; onImported?: (
         </Stack>
       )}
       <Group>
-        <Button size="lg" leftSection={<IconUpload />} disabled={blocked || uploading || !file} loading={uploading} onClick={() => void send()}>
+        <Button
+          size="lg"
+          leftSection={<IconUpload />}
+          disabled={blocked || uploading || !file}
+          loading={uploading}
+          onClick={() => void send()}
+        >
           Import readings
         </Button>
         {uploading && (

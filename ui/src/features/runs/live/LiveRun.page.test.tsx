@@ -39,9 +39,32 @@ const engine = {
   mawpPsig: 150,
   overspeedRpm: 82,
   ratedSpeedRpm: 75,
-  measurementPoints: [{ id: 'p-mb2', code: 'MB2-T', label: 'Main bearing 2 temperature', kind: 'bearing_temperature', unit: 'degF', sequence: 1, normalLow: 70, normalHigh: 115, highLimit: 130, highHighLimit: 145 }],
+  measurementPoints: [
+    {
+      id: 'p-mb2',
+      code: 'MB2-T',
+      label: 'Main bearing 2 temperature',
+      kind: 'bearing_temperature',
+      unit: 'degF',
+      sequence: 1,
+      normalLow: 70,
+      normalHigh: 115,
+      highLimit: 130,
+      highHighLimit: 145,
+    },
+  ],
 } as unknown as EngineDetail;
-const board: BoardPoint[] = [{ pointId: 'p-mb2', value: 147, unit: 'degF', takenAt: '2025-06-14T10:10:00Z', trend: [120, 147], alarmState: 'active_unacknowledged', alarmPriority: 'high_high' }];
+const board: BoardPoint[] = [
+  {
+    pointId: 'p-mb2',
+    value: 147,
+    unit: 'degF',
+    takenAt: '2025-06-14T10:10:00Z',
+    trend: [120, 147],
+    alarmState: 'active_unacknowledged',
+    alarmPriority: 'high_high',
+  },
+];
 const alarm: AlarmDto = {
   id: 'a1',
   engineId: ENGINE,
@@ -80,13 +103,20 @@ function respond(url: string): unknown {
 }
 
 function signIn(role: Role) {
-  sessionStore.set({ accessToken: 'a.b.c', refreshToken: 'r', user: { id: 'u1', email: 'x@example.test', displayName: 'Test Person', role, unitSystem: 'imperial' } });
+  sessionStore.set({
+    accessToken: 'a.b.c',
+    refreshToken: 'r',
+    user: { id: 'u1', email: 'x@example.test', displayName: 'Test Person', role, unitSystem: 'imperial' },
+  });
 }
 
 beforeEach(() => {
   vi.stubGlobal(
     'fetch',
-    vi.fn(async (url: string) => new Response(JSON.stringify(respond(String(url))), { status: 200, headers: { 'content-type': 'application/json' } })),
+    vi.fn(
+      async (url: string) =>
+        new Response(JSON.stringify(respond(String(url))), { status: 200, headers: { 'content-type': 'application/json' } }),
+    ),
   );
 });
 afterEach(() => {
@@ -107,7 +137,9 @@ describe('live run page', () => {
     signIn('operator');
     page();
     const banner = await screen.findByTestId('alarm-banner');
-    const row = within(banner).getByText(/Main bearing 2 temperature · High-high/).closest('[data-priority]')!;
+    const row = within(banner)
+      .getByText(/Main bearing 2 temperature · High-high/)
+      .closest('[data-priority]')!;
     expect(row).toHaveAttribute('data-priority', 'high_high');
     expect(row.getAttribute('style')).toContain('--mantine-color-signal-7');
     expect(within(banner).getByText(/above its high-high limit 145/)).toBeInTheDocument();

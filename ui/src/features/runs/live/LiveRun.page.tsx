@@ -12,7 +12,15 @@ import { RUN_STATES_TAKING_READINGS, type AlarmDto, type IngestResult, type Read
 import { errorText } from '../../../api/http';
 import { useHasRole } from '../../auth/useSession';
 import { engineDetailQuery } from '../../engines/api/engines.api';
-import { downloadLogSheet, downloadReadingsCsv, runAlarmsQuery, runBoardQuery, runDetailQuery, runKeys, runReadingsQuery } from '../api/runs.api';
+import {
+  downloadLogSheet,
+  downloadReadingsCsv,
+  runAlarmsQuery,
+  runBoardQuery,
+  runDetailQuery,
+  runKeys,
+  runReadingsQuery,
+} from '../api/runs.api';
 import { RunHeader } from '../components/RunHeader';
 import { AlarmBanner } from './AlarmBanner';
 import { AlarmList, ShelveModal } from './AlarmList';
@@ -77,7 +85,13 @@ export default function LiveRunPage() {
   const points = useMemo(() => engine.data?.measurementPoints ?? [], [engine.data]);
   // While the run is live, alarms still open on the engine from an earlier run belong on this screen too.
   const alarmList = useMemo(
-    () => (finishedRun ? alarms.data ?? [] : mergeAlarms(alarms.data, engineAlarms.data?.filter((a) => a.runId === id || a.state !== 'normal'))),
+    () =>
+      finishedRun
+        ? (alarms.data ?? [])
+        : mergeAlarms(
+            alarms.data,
+            engineAlarms.data?.filter((a) => a.runId === id || a.state !== 'normal'),
+          ),
     [finishedRun, alarms.data, engineAlarms.data, id],
   );
   const waiting = alarmList.filter((a) => isUnacknowledged(a.state)).length;
@@ -90,7 +104,12 @@ export default function LiveRunPage() {
       </Center>
     );
   // A failed refetch keeps the data already shown; only a screen with nothing to show says so.
-  if (!run.data) return <Alert color="signal" title="Cannot open this run">{errorText(run.error)}</Alert>;
+  if (!run.data)
+    return (
+      <Alert color="signal" title="Cannot open this run">
+        {errorText(run.error)}
+      </Alert>
+    );
 
   const r = run.data;
   const finished = r.state === 'closed' || r.state === 'abandoned';
@@ -103,8 +122,11 @@ export default function LiveRunPage() {
       { onError: (e) => notifications.show({ color: 'signal', title: 'Not acknowledged', message: errorText(e) }) },
     );
   const unshelve = (a: AlarmDto) =>
-    alarmAction.mutate({ kind: 'unshelve', alarm: a }, { onError: (e) => notifications.show({ color: 'signal', title: 'Not unshelved', message: errorText(e) }) });
-  const busyAlarm = alarmAction.isPending && alarmAction.variables?.kind !== 'shelve' ? alarmAction.variables?.alarm.id ?? null : null;
+    alarmAction.mutate(
+      { kind: 'unshelve', alarm: a },
+      { onError: (e) => notifications.show({ color: 'signal', title: 'Not unshelved', message: errorText(e) }) },
+    );
+  const busyAlarm = alarmAction.isPending && alarmAction.variables?.kind !== 'shelve' ? (alarmAction.variables?.alarm.id ?? null) : null;
 
   const exportFile = async (kind: 'csv' | 'pdf') => {
     setDownloading(kind);
@@ -196,7 +218,17 @@ export default function LiveRunPage() {
           ) : !alarms.data ? (
             <Alert color="signal">{errorText(alarms.error)}</Alert>
           ) : (
-            <AlarmList alarms={alarmList} actions={{ canAcknowledge: canWrite, canShelve: mayWrite, busy: busyAlarm, onAcknowledge: ack, onShelve: setShelving, onUnshelve: unshelve }} />
+            <AlarmList
+              alarms={alarmList}
+              actions={{
+                canAcknowledge: canWrite,
+                canShelve: mayWrite,
+                busy: busyAlarm,
+                onAcknowledge: ack,
+                onShelve: setShelving,
+                onUnshelve: unshelve,
+              }}
+            />
           )}
         </Tabs.Panel>
 
@@ -236,7 +268,9 @@ export default function LiveRunPage() {
         }}
         busy={alarmAction.isPending && alarmAction.variables?.kind === 'shelve'}
         error={alarmAction.error && alarmAction.variables?.kind === 'shelve' ? errorText(alarmAction.error) : null}
-        onShelve={(a, reason, minutes) => alarmAction.mutate({ kind: 'shelve', alarm: a, reason, minutes }, { onSuccess: () => setShelving(null) })}
+        onShelve={(a, reason, minutes) =>
+          alarmAction.mutate({ kind: 'shelve', alarm: a, reason, minutes }, { onSuccess: () => setShelving(null) })
+        }
       />
       <AmendModal
         reading={amending}
@@ -252,15 +286,36 @@ export default function LiveRunPage() {
 
       <BottomBar label="Run actions">
         <Group gap="sm" wrap="nowrap">
-          <Button size="lg" h={56} variant="default" leftSection={<IconFileTypeCsv />} loading={downloading === 'csv'} onClick={() => void exportFile('csv')}>
+          <Button
+            size="lg"
+            h={56}
+            variant="default"
+            leftSection={<IconFileTypeCsv />}
+            loading={downloading === 'csv'}
+            onClick={() => void exportFile('csv')}
+          >
             Readings CSV
           </Button>
-          <Button size="lg" h={56} variant="default" leftSection={<IconFileTypePdf />} loading={downloading === 'pdf'} onClick={() => void exportFile('pdf')}>
+          <Button
+            size="lg"
+            h={56}
+            variant="default"
+            leftSection={<IconFileTypePdf />}
+            loading={downloading === 'pdf'}
+            onClick={() => void exportFile('pdf')}
+          >
             Log sheet PDF
           </Button>
         </Group>
         {q.pending.length > 0 && (
-          <Badge size="xl" color="amber" variant="light" leftSection={<IconCloudOff size={18} />} style={{ textTransform: 'none', flexShrink: 0 }} role="status">
+          <Badge
+            size="xl"
+            color="amber"
+            variant="light"
+            leftSection={<IconCloudOff size={18} />}
+            style={{ textTransform: 'none', flexShrink: 0 }}
+            role="status"
+          >
             {waitingText(q.pending.length)}
           </Badge>
         )}
@@ -270,7 +325,11 @@ export default function LiveRunPage() {
           </Button>
         ) : (
           <Text fz="sm" c="dimmed">
-            {finished ? 'This log is a record: read-only.' : !canWrite ? 'Read only.' : 'Readings are recorded once the run is being prepared.'}
+            {finished
+              ? 'This log is a record: read-only.'
+              : !canWrite
+                ? 'Read only.'
+                : 'Readings are recorded once the run is being prepared.'}
           </Text>
         )}
       </BottomBar>

@@ -10,7 +10,17 @@ export function waitingText(n: number) {
 }
 
 /** Rounds kept on this tablet until the server answers, and rounds the server refused. */
-export function QueueStatus({ pending, failed, sending, queue }: { pending: QueuedRound[]; failed: FailedRound[]; sending: boolean; queue: OfflineRoundQueue }) {
+export function QueueStatus({
+  pending,
+  failed,
+  sending,
+  queue,
+}: {
+  pending: QueuedRound[];
+  failed: FailedRound[];
+  sending: boolean;
+  queue: OfflineRoundQueue;
+}) {
   if (pending.length === 0 && failed.length === 0) return null;
   const last = pending.reduce<QueuedRound | null>((a, q) => (!a || (q.lastTriedAt ?? '') > (a.lastTriedAt ?? '') ? q : a), null);
   return (
@@ -22,13 +32,17 @@ export function QueueStatus({ pending, failed, sending, queue }: { pending: Queu
           variant="light"
           color="amber"
           icon={sending ? <IconCloudUpload /> : <IconCloudOff />}
-          title={<Text fw={700} fz="lg">{waitingText(pending.length)}</Text>}
+          title={
+            <Text fw={700} fz="lg">
+              {waitingText(pending.length)}
+            </Text>
+          }
         >
           <Group justify="space-between" align="center" wrap="wrap" gap="sm">
             <Stack gap={2}>
               <Text fz="sm">
-                Kept on this tablet and sent as soon as the server answers (tried every 10 s and when the connection comes back). Do not clear the
-                browser’s data until they are sent.
+                Kept on this tablet and sent as soon as the server answers (tried every 10 s and when the connection comes back). Do not
+                clear the browser’s data until they are sent.
               </Text>
               <Text fz="sm" c="dimmed">
                 {sending
@@ -43,11 +57,20 @@ export function QueueStatus({ pending, failed, sending, queue }: { pending: Queu
         </Alert>
       )}
       {failed.map((f) => (
-        <Alert key={f.id} role="alert" variant="light" color="signal" icon={<IconAlertOctagon />} title={`Round of ${time(f.round.takenAt)} refused by the server`}>
+        <Alert
+          key={f.id}
+          role="alert"
+          variant="light"
+          color="signal"
+          icon={<IconAlertOctagon />}
+          title={`Round of ${time(f.round.takenAt)} refused by the server`}
+        >
           <Stack gap={4}>
             <Text fz="sm">
               {f.error}
-              {f.result ? ` ${f.result.stored} reading(s) were stored; ${f.result.rejectedCount} refused.` : ' None of its readings were stored.'}
+              {f.result
+                ? ` ${f.result.stored} reading(s) were stored; ${f.result.rejectedCount} refused.`
+                : ' None of its readings were stored.'}
             </Text>
             {f.result && f.result.rejected.length > 0 && (
               <List size="sm">

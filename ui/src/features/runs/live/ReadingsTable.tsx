@@ -43,7 +43,8 @@ export function RecordedValue({ reading }: { reading: ReadingDto }) {
       </Group>
       {reading.amendments.map((a) => (
         <Text key={a.id} fz="xs" c="dimmed">
-          Amended {display(a.oldValue, reading.unit).text} → {display(a.newValue, reading.unit).text} by {a.byName}, {dayjs(a.at).format('D MMM HH:mm')}: “{a.reason}”
+          Amended {display(a.oldValue, reading.unit).text} → {display(a.newValue, reading.unit).text} by {a.byName},{' '}
+          {dayjs(a.at).format('D MMM HH:mm')}: “{a.reason}”
         </Text>
       ))}
     </Stack>
@@ -51,7 +52,17 @@ export function RecordedValue({ reading }: { reading: ReadingDto }) {
 }
 
 /** Every reading of the run, newest first, with amendment for those who may. */
-export function ReadingsTable({ readings, points, canAmend, onAmend }: { readings: ReadingDto[]; points: EnginePoint[]; canAmend: boolean; onAmend: (r: ReadingDto) => void }) {
+export function ReadingsTable({
+  readings,
+  points,
+  canAmend,
+  onAmend,
+}: {
+  readings: ReadingDto[];
+  points: EnginePoint[];
+  canAmend: boolean;
+  onAmend: (r: ReadingDto) => void;
+}) {
   const [pointId, setPointId] = useState<string | null>(null);
   const [shown, setShown] = useState(PAGE);
   const byId = useMemo(() => new Map(points.map((p) => [p.id, p])), [points]);
@@ -119,7 +130,14 @@ export function ReadingsTable({ readings, points, canAmend, onAmend }: { reading
                     </Table.Td>
                     {canAmend && (
                       <Table.Td ta="right">
-                        <Button variant="default" size="md" h={48} leftSection={<IconPencil size={18} />} onClick={() => onAmend(r)} aria-label={`Amend ${p?.label ?? ''} at ${dayjs(r.takenAt).format('HH:mm:ss')}`}>
+                        <Button
+                          variant="default"
+                          size="md"
+                          h={48}
+                          leftSection={<IconPencil size={18} />}
+                          onClick={() => onAmend(r)}
+                          aria-label={`Amend ${p?.label ?? ''} at ${dayjs(r.takenAt).format('HH:mm:ss')}`}
+                        >
                           Amend
                         </Button>
                       </Table.Td>
@@ -166,7 +184,17 @@ export function AmendModal({
   const valueOk = v !== null && !Number.isNaN(v);
   const ready = valueOk && reason.trim().length > 0 && v !== reading?.value;
   return (
-    <Modal opened={!!reading} onClose={onClose} centered size="lg" title={<Text fw={700} fz="lg">Amend a reading</Text>}>
+    <Modal
+      opened={!!reading}
+      onClose={onClose}
+      centered
+      size="lg"
+      title={
+        <Text fw={700} fz="lg">
+          Amend a reading
+        </Text>
+      }
+    >
       {reading && (
         <form
           onSubmit={(e) => {
@@ -182,8 +210,8 @@ export function AmendModal({
               </span>
             </Text>
             <Text fz="sm">
-              A log is a record: the value now shown is replaced, but the original stays visible, struck through, with your name, the time and
-              your reason. Enter the value in {unitLabel(reading.unit)}, the unit it was recorded in.
+              A log is a record: the value now shown is replaced, but the original stays visible, struck through, with your name, the time
+              and your reason. Enter the value in {unitLabel(reading.unit)}, the unit it was recorded in.
             </Text>
             {error && (
               <Alert color="signal" role="alert">
@@ -200,7 +228,14 @@ export function AmendModal({
               data-autofocus
               styles={{ input: { height: 56, fontSize: 26, fontVariantNumeric: 'tabular-nums' } }}
             />
-            <Textarea label="Reason for the amendment" required rows={2} value={reason} onChange={(e) => setReason(e.currentTarget.value)} placeholder="e.g. misread the gauge: 152, not 125" />
+            <Textarea
+              label="Reason for the amendment"
+              required
+              rows={2}
+              value={reason}
+              onChange={(e) => setReason(e.currentTarget.value)}
+              placeholder="e.g. misread the gauge: 152, not 125"
+            />
             <Group justify="flex-end">
               <Button variant="default" size="lg" onClick={onClose}>
                 Cancel

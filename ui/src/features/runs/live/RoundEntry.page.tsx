@@ -47,7 +47,12 @@ export default function RoundEntryPage() {
         <Loader />
       </Center>
     );
-  if (!run.data || !engine.data) return <Alert color="signal" title="Cannot open the round">{errorText(run.error ?? engine.error)}</Alert>;
+  if (!run.data || !engine.data)
+    return (
+      <Alert color="signal" title="Cannot open the round">
+        {errorText(run.error ?? engine.error)}
+      </Alert>
+    );
 
   const back = (
     <Button component={Link} to={`/runs/${id}`} variant="default" size="lg" h={56} leftSection={<IconArrowLeft />}>

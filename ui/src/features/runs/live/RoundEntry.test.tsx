@@ -5,13 +5,43 @@ import { OfflineRoundQueue } from './offline-queue';
 
 // Limits of the demo engine's bearing and throttle points (invented demo data, not a source value).
 const points: RoundPoint[] = [
-  { id: 'p-mb1', code: 'MB1-T', label: 'Main bearing 1', kind: 'bearing_temperature', unit: 'degF', sequence: 20, normalLow: 90, normalHigh: 160, highLimit: 180, highHighLimit: 200 },
-  { id: 'p-thr', code: 'THR-P', label: 'Throttle pressure', kind: 'throttle_pressure', unit: 'psig', sequence: 10, normalLow: 120, normalHigh: 140, highLimit: 145, highHighLimit: null },
+  {
+    id: 'p-mb1',
+    code: 'MB1-T',
+    label: 'Main bearing 1',
+    kind: 'bearing_temperature',
+    unit: 'degF',
+    sequence: 20,
+    normalLow: 90,
+    normalHigh: 160,
+    highLimit: 180,
+    highHighLimit: 200,
+  },
+  {
+    id: 'p-thr',
+    code: 'THR-P',
+    label: 'Throttle pressure',
+    kind: 'throttle_pressure',
+    unit: 'psig',
+    sequence: 10,
+    normalLow: 120,
+    normalHigh: 140,
+    highLimit: 145,
+    highHighLimit: null,
+  },
 ];
 
 function setup(send = vi.fn<(runId: string, r: RoundRequest) => Promise<IngestResult>>()) {
   const queue = new OfflineRoundQueue({ send, storage: window.localStorage, key: 'test-queue' });
-  render(<RoundEntry runId="run-1" points={points} previous={{ 'p-mb1': { value: 151, takenAt: '2025-06-14T10:00:00Z' } }} engine={{ mawpPsig: 150 }} queue={queue} />);
+  render(
+    <RoundEntry
+      runId="run-1"
+      points={points}
+      previous={{ 'p-mb1': { value: 151, takenAt: '2025-06-14T10:00:00Z' } }}
+      engine={{ mawpPsig: 150 }}
+      queue={queue}
+    />,
+  );
   return { send, queue };
 }
 
@@ -64,7 +94,13 @@ describe('RoundEntry', () => {
   });
 
   it('saves the entered points in one request, each reading with its own clientId', async () => {
-    const send = vi.fn(async (_id: string, r: RoundRequest) => ({ stored: r.readings.length, duplicates: 0, rejected: [], rejectedCount: 0, alarmsRaised: 0 }));
+    const send = vi.fn(async (_id: string, r: RoundRequest) => ({
+      stored: r.readings.length,
+      duplicates: 0,
+      rejected: [],
+      rejectedCount: 0,
+      alarmsRaised: 0,
+    }));
     setup(send);
     fireEvent.change(screen.getByLabelText('Throttle pressure (psig)'), { target: { value: '131,5' } });
     fireEvent.change(screen.getByLabelText('Main bearing 1 (°F)'), { target: { value: '152' } });

@@ -6,7 +6,16 @@ import type { IngestResult, MeasurementPointDto, RoundRequest } from '@crankjour
 import { errorText, HttpError } from '../../../api/http';
 import { BottomBar } from './BottomBar';
 import { newClientId, offlineQueue, type OfflineRoundQueue, type SubmitOutcome } from './offline-queue';
-import { limitsText, limitStanding, normalRangeText, parseEntered, STANDING_WORDS, unitLabel, type EngineCeilings, type LimitStanding } from './round-check';
+import {
+  limitsText,
+  limitStanding,
+  normalRangeText,
+  parseEntered,
+  STANDING_WORDS,
+  unitLabel,
+  type EngineCeilings,
+  type LimitStanding,
+} from './round-check';
 
 export type RoundPoint = MeasurementPointDto & { id: string };
 export interface PreviousValue {
@@ -132,7 +141,11 @@ export function RoundEntry({ runId, points, previous = {}, engine, secondaryActi
               data-standing={st.standing ?? 'empty'}
               style={
                 inAlarm
-                  ? { borderColor: `var(--mantine-color-${color}-6)`, borderWidth: 3, background: `color-mix(in srgb, var(--mantine-color-${color}-6) 12%, transparent)` }
+                  ? {
+                      borderColor: `var(--mantine-color-${color}-6)`,
+                      borderWidth: 3,
+                      background: `color-mix(in srgb, var(--mantine-color-${color}-6) 12%, transparent)`,
+                    }
                   : undefined
               }
             >
@@ -166,7 +179,11 @@ export function RoundEntry({ runId, points, previous = {}, engine, secondaryActi
                       focusNext(i);
                     }
                   }}
-                  rightSection={<Text fz="lg" c="dimmed" pr="sm">{u}</Text>}
+                  rightSection={
+                    <Text fz="lg" c="dimmed" pr="sm">
+                      {u}
+                    </Text>
+                  }
                   rightSectionWidth={84}
                   error={fieldError}
                   inputWrapperOrder={['label', 'input', 'description', 'error']}
@@ -259,7 +276,14 @@ export function RoundEntry({ runId, points, previous = {}, engine, secondaryActi
               </Text>
             )}
           </Stack>
-          <Button size="xl" h={60} leftSection={<IconDeviceFloppy />} loading={saving} disabled={filled.length === 0 || invalidCount > 0} onClick={() => void save()}>
+          <Button
+            size="xl"
+            h={60}
+            leftSection={<IconDeviceFloppy />}
+            loading={saving}
+            disabled={filled.length === 0 || invalidCount > 0}
+            onClick={() => void save()}
+          >
             Save round
           </Button>
         </Group>

@@ -8,7 +8,8 @@ import type { EnginePoint } from './Board';
 const SERIES_COLORS = ['copper.4', 'brass.5', 'blue.4', 'grape.4', 'teal.3', 'orange.3', 'gray.4', 'lime.4'];
 
 const localTime = (ms: number) => new Date(ms).toLocaleTimeString(undefined, { hour: '2-digit', minute: '2-digit' });
-const localTimeSeconds = (ms: number) => new Date(ms).toLocaleTimeString(undefined, { hour: '2-digit', minute: '2-digit', second: '2-digit' });
+const localTimeSeconds = (ms: number) =>
+  new Date(ms).toLocaleTimeString(undefined, { hour: '2-digit', minute: '2-digit', second: '2-digit' });
 
 interface ChartSpec {
   key: string;
@@ -38,13 +39,30 @@ export function chartRows(readings: ReadingDto[], points: EnginePoint[], convert
   return [...rows.values()].sort((a, b) => (a.t as number) - (b.t as number));
 }
 
-function TrendChart({ spec, points, readings, alarms, engine }: { spec: ChartSpec; points: EnginePoint[]; readings: ReadingDto[]; alarms: AlarmDto[]; engine: EngineDetail }) {
+function TrendChart({
+  spec,
+  points,
+  readings,
+  alarms,
+  engine,
+}: {
+  spec: ChartSpec;
+  points: EnginePoint[];
+  readings: ReadingDto[];
+  alarms: AlarmDto[];
+  engine: EngineDetail;
+}) {
   const { display } = useUnits();
   const unit = spec.unit || points[0]?.unit || '';
   const mine = points.filter((p) => p.unit === unit);
   const ids = new Set(mine.map((p) => p.id));
   const data = useMemo(
-    () => chartRows(readings.filter((r) => ids.has(r.pointId)), mine, (v, u) => display(v, u).value),
+    () =>
+      chartRows(
+        readings.filter((r) => ids.has(r.pointId)),
+        mine,
+        (v, u) => display(v, u).value,
+      ),
     // eslint-disable-next-line react-hooks/exhaustive-deps
     [readings, mine.map((p) => p.id).join(), display],
   );
@@ -107,14 +125,26 @@ function TrendChart({ spec, points, readings, alarms, engine }: { spec: ChartSpe
   // Alarms as marks on the time axis.
   const alarmLines: ChartReferenceLineProps[] = alarms
     .filter((a) => a.pointId && ids.has(a.pointId))
-    .map((a) => ({ x: Date.parse(a.raisedAt), color: a.priority === 'high_high' ? 'signal.6' : 'amber.6', strokeDasharray: '2 3', label: '▲', labelPosition: 'insideBottom' }) as ChartReferenceLineProps);
+    .map(
+      (a) =>
+        ({
+          x: Date.parse(a.raisedAt),
+          color: a.priority === 'high_high' ? 'signal.6' : 'amber.6',
+          strokeDasharray: '2 3',
+          label: '▲',
+          labelPosition: 'insideBottom',
+        }) as ChartReferenceLineProps,
+    );
 
   const times = data.map((d) => d.t as number);
   return (
     <Paper withBorder p="md" radius="md">
       <Group justify="space-between" mb="xs" wrap="wrap" gap="xs">
         <Title order={3} fz="md">
-          {spec.title} <Text span c="dimmed" fz="sm">({unitLabel})</Text>
+          {spec.title}{' '}
+          <Text span c="dimmed" fz="sm">
+            ({unitLabel})
+          </Text>
         </Title>
         {withLimits.length > 1 && focus && (
           <Select
@@ -163,8 +193,21 @@ function TrendChart({ spec, points, readings, alarms, engine }: { spec: ChartSpe
 }
 
 /** Trends of pressures, speed and bearing temperatures over the run, with limits as dashed lines. */
-export function TrendCharts({ points, readings, alarms, engine }: { points: EnginePoint[]; readings: ReadingDto[]; alarms: AlarmDto[]; engine: EngineDetail }) {
-  const specs = CHARTS.map((s) => ({ spec: s, points: points.filter((p) => s.kinds.includes(p.kind)).sort((a, b) => a.sequence - b.sequence) })).filter((x) => x.points.length > 0);
+export function TrendCharts({
+  points,
+  readings,
+  alarms,
+  engine,
+}: {
+  points: EnginePoint[];
+  readings: ReadingDto[];
+  alarms: AlarmDto[];
+  engine: EngineDetail;
+}) {
+  const specs = CHARTS.map((s) => ({
+    spec: s,
+    points: points.filter((p) => s.kinds.includes(p.kind)).sort((a, b) => a.sequence - b.sequence),
+  })).filter((x) => x.points.length > 0);
   return (
     <SimpleGrid cols={{ base: 1, lg: 2 }} spacing="md">
       {specs.map(({ spec, points: pts }) => (

@@ -25,11 +25,32 @@ export function alarmLook(state: AlarmState, priority: AlarmPriority | null | un
   const level = priority === 'high_high' ? 'High-high' : 'High';
   switch (state) {
     case 'active_unacknowledged':
-      return { color, variant: 'filled', Icon: priority === 'high_high' ? IconAlertOctagon : IconAlertTriangle, word: ALARM_STATE_WORDS[state], short: `${level} — not acknowledged`, shelved: false };
+      return {
+        color,
+        variant: 'filled',
+        Icon: priority === 'high_high' ? IconAlertOctagon : IconAlertTriangle,
+        word: ALARM_STATE_WORDS[state],
+        short: `${level} — not acknowledged`,
+        shelved: false,
+      };
     case 'active_acknowledged':
-      return { color, variant: 'light', Icon: IconBellCheck, word: ALARM_STATE_WORDS[state], short: `${level} — acknowledged`, shelved: false };
+      return {
+        color,
+        variant: 'light',
+        Icon: IconBellCheck,
+        word: ALARM_STATE_WORDS[state],
+        short: `${level} — acknowledged`,
+        shelved: false,
+      };
     case 'returned_unacknowledged':
-      return { color: 'amber', variant: 'outline', Icon: IconCircleDashedCheck, word: ALARM_STATE_WORDS[state], short: 'Returned — not acknowledged', shelved: false };
+      return {
+        color: 'amber',
+        variant: 'outline',
+        Icon: IconCircleDashedCheck,
+        word: ALARM_STATE_WORDS[state],
+        short: 'Returned — not acknowledged',
+        shelved: false,
+      };
     case 'shelved':
       return { color: 'gray', variant: 'outline', Icon: IconClockPause, word: ALARM_STATE_WORDS[state], short: 'Shelved', shelved: true };
     case 'normal':
@@ -43,7 +64,17 @@ export function isUnacknowledged(state: AlarmState): boolean {
 }
 
 /** The alarm state as a badge with icon and word. */
-export function AlarmStateBadge({ state, priority, short = false, size = 'lg' }: { state: AlarmState; priority: AlarmPriority | null | undefined; short?: boolean; size?: 'md' | 'lg' | 'xl' }) {
+export function AlarmStateBadge({
+  state,
+  priority,
+  short = false,
+  size = 'lg',
+}: {
+  state: AlarmState;
+  priority: AlarmPriority | null | undefined;
+  short?: boolean;
+  size?: 'md' | 'lg' | 'xl';
+}) {
   const look = alarmLook(state, priority);
   if (!look) return null;
   return (

@@ -7,14 +7,19 @@ import { openAlarmKeys, replaceReading, upsertAlarm } from './live-cache';
 export { mergeAlarms, openAlarmKeys } from './live-cache';
 
 export const openEngineAlarmsQuery = (engineId: string) =>
-  queryOptions({ queryKey: openAlarmKeys.engine(engineId), queryFn: () => api<AlarmDto[]>(`/alarms?engineId=${encodeURIComponent(engineId)}&open=true`) });
+  queryOptions({
+    queryKey: openAlarmKeys.engine(engineId),
+    queryFn: () => api<AlarmDto[]>(`/alarms?engineId=${encodeURIComponent(engineId)}&open=true`),
+  });
 
 export const acknowledgeAlarm = (id: string) => api<AlarmDto>(`/alarms/${id}/acknowledge`, { method: 'POST' });
 export const shelveAlarm = (id: string, req: ShelveAlarmRequest) => api<AlarmDto>(`/alarms/${id}/shelve`, { body: req });
 export const unshelveAlarm = (id: string) => api<AlarmDto>(`/alarms/${id}/unshelve`, { method: 'POST' });
 export const amendReading = (id: string, req: AmendReadingRequest) => api<ReadingDto>(`/readings/${id}/amendments`, { body: req });
 
-type AlarmAction = { alarm: AlarmDto } & ({ kind: 'acknowledge' } | { kind: 'unshelve' } | { kind: 'shelve'; reason: string; minutes: number });
+type AlarmAction = { alarm: AlarmDto } & (
+  { kind: 'acknowledge' } | { kind: 'unshelve' } | { kind: 'shelve'; reason: string; minutes: number }
+);
 
 /** Acknowledge, shelve and unshelve a run's alarms; the answer goes straight into the cache. */
 export function useAlarmAction(runId: string) {
@@ -39,7 +44,8 @@ export function useAlarmAction(runId: string) {
 export function useAmendReading(runId: string) {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: ({ reading, value, reason }: { reading: ReadingDto; value: number; reason: string }) => amendReading(reading.id, { value, reason }),
+    mutationFn: ({ reading, value, reason }: { reading: ReadingDto; value: number; reason: string }) =>
+      amendReading(reading.id, { value, reason }),
     onSuccess: (r) => {
       qc.setQueriesData<ReadingDto[]>({ queryKey: runKeys.readingsAll(runId) }, (old) => replaceReading(old, r));
       qc.invalidateQueries({ queryKey: runKeys.board(runId) });

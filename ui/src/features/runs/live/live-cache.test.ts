@@ -48,12 +48,26 @@ const alarm = (over: Partial<AlarmDto>): AlarmDto => ({
 describe('live cache updates', () => {
   it('adds new readings once each, in time order', () => {
     const list = [reading('1', 'p1', 150, '2025-06-14T10:00:00Z')];
-    const merged = mergeReadings(list, [reading('3', 'p1', 152, '2025-06-14T10:20:00Z'), reading('2', 'p1', 151, '2025-06-14T10:10:00Z'), reading('1', 'p1', 150, '2025-06-14T10:00:00Z')]);
+    const merged = mergeReadings(list, [
+      reading('3', 'p1', 152, '2025-06-14T10:20:00Z'),
+      reading('2', 'p1', 151, '2025-06-14T10:10:00Z'),
+      reading('1', 'p1', 150, '2025-06-14T10:00:00Z'),
+    ]);
     expect(merged!.map((r) => r.id)).toEqual(['1', '2', '3']);
   });
 
   it('moves the board on: latest value, trend capped at 20', () => {
-    const b: BoardPoint[] = [{ pointId: 'p1', value: 150, unit: 'degF', takenAt: '2025-06-14T10:00:00Z', trend: Array.from({ length: 20 }, (_, i) => i), alarmState: null, alarmPriority: null }];
+    const b: BoardPoint[] = [
+      {
+        pointId: 'p1',
+        value: 150,
+        unit: 'degF',
+        takenAt: '2025-06-14T10:00:00Z',
+        trend: Array.from({ length: 20 }, (_, i) => i),
+        alarmState: null,
+        alarmPriority: null,
+      },
+    ];
     const next = advanceBoard(b, [reading('2', 'p1', 153, '2025-06-14T10:10:00Z')])!;
     expect(next[0].value).toBe(153);
     expect(next[0].trend).toHaveLength(20);
@@ -65,7 +79,9 @@ describe('live cache updates', () => {
   it('applies a readings:new event to every cached readings query of the run and to its board', () => {
     const qc = new QueryClient();
     qc.setQueryData(runKeys.readings('run-1'), [reading('1', 'p1', 150, '2025-06-14T10:00:00Z')]);
-    qc.setQueryData(runKeys.board('run-1'), [{ pointId: 'p1', value: 150, unit: 'degF', takenAt: '2025-06-14T10:00:00Z', trend: [150], alarmState: null, alarmPriority: null }]);
+    qc.setQueryData(runKeys.board('run-1'), [
+      { pointId: 'p1', value: 150, unit: 'degF', takenAt: '2025-06-14T10:00:00Z', trend: [150], alarmState: null, alarmPriority: null },
+    ]);
     applyReadings(qc, 'run-1', { runId: 'run-1', readings: [reading('2', 'p1', 155, '2025-06-14T10:10:00Z')] });
     applyReadings(qc, 'run-1', { runId: 'run-2', readings: [reading('9', 'p1', 999, '2025-06-14T10:20:00Z')] });
     expect(qc.getQueryData<ReadingDto[]>(runKeys.readings('run-1'))!.map((r) => r.value)).toEqual([150, 155]);

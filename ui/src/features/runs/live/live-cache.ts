@@ -43,7 +43,13 @@ export function advanceBoard(board: BoardPoint[] | undefined, incoming: ReadingD
     if (mine.length === 0) return b;
     changed = true;
     const last = mine.at(-1)!;
-    return { ...b, value: last.value, unit: last.unit, takenAt: last.takenAt, trend: [...b.trend, ...mine.map((r) => r.value)].slice(-BOARD_TREND_LENGTH) };
+    return {
+      ...b,
+      value: last.value,
+      unit: last.unit,
+      takenAt: last.takenAt,
+      trend: [...b.trend, ...mine.map((r) => r.value)].slice(-BOARD_TREND_LENGTH),
+    };
   });
   return changed ? next : board;
 }
@@ -69,4 +75,3 @@ export function applyReadings(qc: QueryClient, runId: string, e: ReadingsEvent) 
   qc.setQueriesData<ReadingDto[]>({ queryKey: runKeys.readingsAll(runId) }, (old) => mergeReadings(old, e.readings));
   qc.setQueryData<BoardPoint[]>(runKeys.board(runId), (old) => advanceBoard(old, e.readings));
 }
-

@@ -114,7 +114,9 @@ describe('offline round queue', () => {
     await q.submit(RUN, round());
 
     fetchMock.mockReset();
-    fetchMock.mockResolvedValue(json(409, { statusCode: 409, error: 'Conflict', message: 'This run is closed and takes no more readings.' }));
+    fetchMock.mockResolvedValue(
+      json(409, { statusCode: 409, error: 'Conflict', message: 'This run is closed and takes no more readings.' }),
+    );
     await q.flush();
     expect(q.pending()).toHaveLength(0);
     expect(q.failed(RUN)).toHaveLength(1);
@@ -136,9 +138,17 @@ describe('offline round queue', () => {
     fetchMock.mockImplementation(offline);
     const q = new OfflineRoundQueue();
     await q.submit(RUN, round([120, -5]));
-    const partial: IngestResult = { stored: 1, duplicates: 0, rejected: [{ index: 1, field: 'value', reason: 'Below the gauge’s range.' }], rejectedCount: 1, alarmsRaised: 0 };
+    const partial: IngestResult = {
+      stored: 1,
+      duplicates: 0,
+      rejected: [{ index: 1, field: 'value', reason: 'Below the gauge’s range.' }],
+      rejectedCount: 1,
+      alarmsRaised: 0,
+    };
     fetchMock.mockReset();
-    fetchMock.mockResolvedValue(json(400, { statusCode: 400, error: 'Bad Request', message: 'Some readings were refused.', details: partial }));
+    fetchMock.mockResolvedValue(
+      json(400, { statusCode: 400, error: 'Bad Request', message: 'Some readings were refused.', details: partial }),
+    );
     await q.flush();
     expect(q.failed(RUN)[0].result).toEqual(partial);
   });

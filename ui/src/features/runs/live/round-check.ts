@@ -24,7 +24,11 @@ export function highHighCeiling(point: Limits & { kind?: MeasurementKind; unit: 
 }
 
 /** Like the server's rules: a value strictly above a high limit (strictly below a low limit) is in alarm. */
-export function limitStanding(point: Limits & { kind?: MeasurementKind; unit?: string }, value: number, engine?: EngineCeilings): LimitStanding {
+export function limitStanding(
+  point: Limits & { kind?: MeasurementKind; unit?: string },
+  value: number,
+  engine?: EngineCeilings,
+): LimitStanding {
   const hh = highHighCeiling({ ...point, unit: point.unit ?? '' }, engine);
   if (hh !== null && value > hh) return 'high_high';
   if (has(point.highLimit) && value > point.highLimit) return 'high';

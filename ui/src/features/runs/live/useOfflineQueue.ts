@@ -7,7 +7,10 @@ import { offlineQueue, type OfflineRoundQueue } from './offline-queue';
  * The offline queue's state for one run (or all), kept current; while mounted it retries on socket
  * reconnect, on `online` and every 10 s, and calls `onSent` when a waiting round reaches the server.
  */
-export function useOfflineQueue(runId?: string, opts: { onSent?: (runId: string, result: IngestResult) => void; queue?: OfflineRoundQueue } = {}) {
+export function useOfflineQueue(
+  runId?: string,
+  opts: { onSent?: (runId: string, result: IngestResult) => void; queue?: OfflineRoundQueue } = {},
+) {
   const queue = opts.queue ?? offlineQueue();
   const snap = useSyncExternalStore(queue.subscribe, queue.getSnapshot, queue.getSnapshot);
   const { onSent } = opts;

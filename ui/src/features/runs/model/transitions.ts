@@ -38,9 +38,10 @@ export function allowedTransitions(state: RunState, role: Role | undefined): Tra
   const next = RUN_TRANSITIONS[state] as TransitionTarget[];
   const forward = next.filter((t) => t !== 'abandoned' && !(state === 'cleared' && t === 'preparing'));
   const rest = next.filter((t) => !forward.includes(t));
-  return [...forward.sort((a, b) => order.indexOf(a) - order.indexOf(b)), ...rest.sort((a, b) => order.indexOf(a) - order.indexOf(b))].filter((t) =>
-    TRANSITION_ROLES[t].includes(role),
-  );
+  return [
+    ...forward.sort((a, b) => order.indexOf(a) - order.indexOf(b)),
+    ...rest.sort((a, b) => order.indexOf(a) - order.indexOf(b)),
+  ].filter((t) => TRANSITION_ROLES[t].includes(role));
 }
 
 /** States in which a run is over and its log is a record. */

@@ -20,7 +20,14 @@ export default function NewRunPage() {
   const create = useCreateRun();
   const [serverErrors, setServerErrors] = useState<string[]>([]);
   const form = useForm({
-    initialValues: { engineId: params.get('engine') ?? '', purpose: 'demonstration' as RunPurpose, title: '', plannedFor: '', notes: '', crewIds: [] as string[] },
+    initialValues: {
+      engineId: params.get('engine') ?? '',
+      purpose: 'demonstration' as RunPurpose,
+      title: '',
+      plannedFor: '',
+      notes: '',
+      crewIds: [] as string[],
+    },
     validate: {
       engineId: (v) => (v ? null : 'Choose the engine'),
       title: (v) => (v.trim() ? null : 'Give the run a title, e.g. “Open day, afternoon”'),
@@ -44,7 +51,14 @@ export default function NewRunPage() {
           onSubmit={form.onSubmit((v) => {
             setServerErrors([]);
             create.mutate(
-              { engineId: v.engineId, purpose: v.purpose, title: v.title.trim(), plannedFor: v.plannedFor || null, notes: v.notes.trim() || undefined, crewIds: v.crewIds },
+              {
+                engineId: v.engineId,
+                purpose: v.purpose,
+                title: v.title.trim(),
+                plannedFor: v.plannedFor || null,
+                notes: v.notes.trim() || undefined,
+                crewIds: v.crewIds,
+              },
               {
                 onSuccess: (run) => {
                   notifications.show({ title: 'Run planned', message: `${run.title} on ${run.engineName}.` });
@@ -74,12 +88,19 @@ export default function NewRunPage() {
             />
             <Select label="Purpose" required allowDeselect={false} data={purposeOptions} {...form.getInputProps('purpose')} />
             <TextInput label="Title" required placeholder="Open day, afternoon" {...form.getInputProps('title')} />
-            <TextInput label="Planned for" type="date" description="The day of the run. Leave empty if it is not fixed yet." {...form.getInputProps('plannedFor')} />
+            <TextInput
+              label="Planned for"
+              type="date"
+              description="The day of the run. Leave empty if it is not fixed yet."
+              {...form.getInputProps('plannedFor')}
+            />
             <MultiSelect
               label="Crew"
               description="Who works this run. Qualifications for each duty are checked when they sign and start."
               searchable
-              data={(crew.data ?? []).filter((c) => c.role !== 'observer').map((c) => ({ value: c.id, label: `${c.displayName} (${ROLE_LABELS[c.role]})` }))}
+              data={(crew.data ?? [])
+                .filter((c) => c.role !== 'observer')
+                .map((c) => ({ value: c.id, label: `${c.displayName} (${ROLE_LABELS[c.role]})` }))}
               {...form.getInputProps('crewIds')}
             />
             <Textarea label="Notes" rows={3} {...form.getInputProps('notes')} />

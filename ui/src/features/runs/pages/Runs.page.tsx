@@ -20,7 +20,14 @@ const stateOptions = RUN_STATES.map((s) => ({ value: s, label: RUN_STATE_LABELS[
 /** When a run is or was: its start, else its planned day. */
 export function runWhen(r: Pick<RunSummary, 'startedAt' | 'plannedFor'>): string {
   if (r.startedAt)
-    return new Date(r.startedAt).toLocaleString(undefined, { weekday: 'short', day: 'numeric', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit' });
+    return new Date(r.startedAt).toLocaleString(undefined, {
+      weekday: 'short',
+      day: 'numeric',
+      month: 'short',
+      year: 'numeric',
+      hour: '2-digit',
+      minute: '2-digit',
+    });
   return formatPlannedFor(r.plannedFor);
 }
 
@@ -123,7 +130,15 @@ export default function RunsPage() {
           value={engineId ?? null}
           onChange={(v) => setFilter('engine', v)}
         />
-        <Select label="State" placeholder="All states" clearable w={220} data={stateOptions} value={state ?? null} onChange={(v) => setFilter('state', v)} />
+        <Select
+          label="State"
+          placeholder="All states"
+          clearable
+          w={220}
+          data={stateOptions}
+          value={state ?? null}
+          onChange={(v) => setFilter('state', v)}
+        />
       </Group>
       {isLoading && <Loader />}
       {error && <Alert color="signal">{errorText(error)}</Alert>}

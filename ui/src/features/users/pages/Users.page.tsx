@@ -54,7 +54,11 @@ export default function UsersPage() {
           const u = c.row.original;
           return (
             <Group gap="xs" wrap="nowrap">
-              {u.invitationPending && <Badge color="brass" variant="light">Invited</Badge>}
+              {u.invitationPending && (
+                <Badge color="brass" variant="light">
+                  Invited
+                </Badge>
+              )}
               <Switch
                 size="lg"
                 aria-label={`${u.displayName} active`}
@@ -89,8 +93,8 @@ export default function UsersPage() {
       <Modal opened={!!confirm} onClose={() => setConfirm(null)} title="Deactivate this person?" centered>
         <Stack>
           <Text>
-            {confirm?.displayName} will be signed out at once and cannot sign in again until reactivated. Their entries in
-            the log stay as they are.
+            {confirm?.displayName} will be signed out at once and cannot sign in again until reactivated. Their entries in the log stay as
+            they are.
           </Text>
           <Group justify="flex-end">
             <Button variant="default" onClick={() => setConfirm(null)}>
@@ -134,7 +138,12 @@ function InviteModal({ opened, onClose }: { opened: boolean; onClose: () => void
   });
   return (
     <Modal opened={opened} onClose={onClose} title="Invite a person" centered size="lg">
-      <form onSubmit={form.onSubmit((v) => { setError(null); invite.mutate({ ...v, email: v.email.trim(), displayName: v.displayName.trim() }); })}>
+      <form
+        onSubmit={form.onSubmit((v) => {
+          setError(null);
+          invite.mutate({ ...v, email: v.email.trim(), displayName: v.displayName.trim() });
+        })}
+      >
         <Stack>
           {error && <Alert color="signal">{error}</Alert>}
           <TextInput label="E-mail" type="email" {...form.getInputProps('email')} />
