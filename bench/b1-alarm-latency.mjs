@@ -10,8 +10,8 @@
 import { fork } from 'node:child_process';
 import { randomUUID } from 'node:crypto';
 import { performance } from 'node:perf_hooks';
-import { io } from 'socket.io-client';
 import os from 'node:os';
+import { io } from 'socket.io-client';
 import { BASE, context, login, log, round, sleep, stats, writeResult, cpuSecondsOf, pgCpuSeconds, SERVER_PID } from './lib.mjs';
 
 const VIEWERS = Number(process.env.B1_VIEWERS ?? 50);

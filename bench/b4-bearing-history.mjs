@@ -6,8 +6,8 @@
 //   (the data of the drift chart); GET /api/maintenance/bearings — every bearing with its drift verdict.
 // Baseline: GET /api/engines/:id, a plain read through the same guards. Also: EXPLAIN (ANALYZE, BUFFERS)
 // of the query each view runs, and of the per-run aggregate it avoids (what a view costs without the kept figures).
-import pg from 'pg';
 import { performance } from 'node:perf_hooks';
+import pg from 'pg';
 import { DB_URL, context, login, log, round, sleep, stats, writeResult, BASE } from './lib.mjs';
 
 const N = Number(process.env.B4_REPEAT ?? 30);

@@ -3,8 +3,8 @@
 // temperatures, ambient, speed, steam pressure). The last run of the last season is stopped but not closed
 // (its figures are computed afresh on every view). Loaded the way a restore would be: the secondary
 // indexes and the foreign-key checks are set aside during the load and rebuilt after it, then VACUUM ANALYZE.
-import pg from 'pg';
 import { performance } from 'node:perf_hooks';
+import pg from 'pg';
 import { DB_URL, context, log, round, writeResult } from './lib.mjs';
 
 const SEASONS = 5;

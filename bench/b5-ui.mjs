@@ -4,9 +4,9 @@
 // compressing proxy would send). Time to a usable live run page: from navigation start until the board's
 // tiles are visible, in a fresh browser context each time (cold cache), and again with the cache warm.
 // Baseline: the same measurements of a blank HTML page with no script on the same server path.
-import { chromium } from 'playwright-core';
 import { gzipSync } from 'node:zlib';
 import { performance } from 'node:perf_hooks';
+import { chromium } from 'playwright-core';
 import { BASE, context, api, log, round, stats, writeResult, PASSWORD } from './lib.mjs';
 
 const ctx = context();

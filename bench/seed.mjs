@@ -1,11 +1,11 @@
 // Minimal data for the benchmarks: four people (straight into the database, with the service's own
 // password hashing), then through the API: one engine per benchmark, a run taking readings on each of
 // the first three, and a logger key. Writes .data/bench/context.json for the benchmark scripts.
-import pg from 'pg';
 import { writeFileSync } from 'node:fs';
 import { randomUUID } from 'node:crypto';
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
+import pg from 'pg';
 import { ROOT, WORK, DB_URL, PASSWORD, api, login, log } from './lib.mjs';
 
 const { hashPassword } = await import(pathToFileURL(join(ROOT, 'service/dist/modules/auth/password.util.js')).href);

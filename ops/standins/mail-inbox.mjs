@@ -1,12 +1,12 @@
 #!/usr/bin/env node
 // Local stand-in for a hosted mail service: an SMTP server on 127.0.0.1 that keeps every message
 // and shows them in the browser (http://127.0.0.1:<http-port>/) and as JSON (/messages).
-import { SMTPServer } from 'smtp-server';
-import { simpleParser } from 'mailparser';
 import http from 'node:http';
 import { appendFileSync, existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { randomUUID } from 'node:crypto';
+import { simpleParser } from 'mailparser';
+import { SMTPServer } from 'smtp-server';
 
 const arg = (name, dflt) => {
   const i = process.argv.indexOf(`--${name}`);

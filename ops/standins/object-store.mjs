@@ -1,7 +1,7 @@
 #!/usr/bin/env node
 // Local stand-in for a hosted object store: an S3-compatible server (s3rver) on 127.0.0.1.
-import S3rver from 's3rver';
 import { mkdirSync } from 'node:fs';
+import S3rver from 's3rver';
 
 const arg = (name, dflt) => {
   const i = process.argv.indexOf(`--${name}`);

@@ -1,12 +1,12 @@
 import 'reflect-metadata';
+import { existsSync } from 'node:fs';
+import { join } from 'node:path';
 import { NestFactory } from '@nestjs/core';
 import type { NestExpressApplication } from '@nestjs/platform-express';
 import { DocumentBuilder, SwaggerModule } from '@nestjs/swagger';
 import helmet from 'helmet';
 import { pinoHttp } from 'pino-http';
 import express from 'express';
-import { existsSync } from 'node:fs';
-import { join } from 'node:path';
 import { AppModule } from './app.module.js';
 import { AppConfig } from './config/app-config.service.js';
 

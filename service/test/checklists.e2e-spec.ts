@@ -507,15 +507,12 @@ describe('checklists and the start gate (API)', () => {
         .set(as(chief))
         .send({ itemKey: 'pressure', value: 35, reason: 'Gauge photo shows 35.' });
       expect(noOverride.status).toBe(400);
-      const ok = await t.http
-        .post(`/api/checklists/${c.id}/amendments`)
-        .set(as(chief))
-        .send({
-          itemKey: 'pressure',
-          value: 35,
-          reason: 'Gauge photo shows 35.',
-          overrideReason: 'Relief valve set high that day; reset since.',
-        });
+      const ok = await t.http.post(`/api/checklists/${c.id}/amendments`).set(as(chief)).send({
+        itemKey: 'pressure',
+        value: 35,
+        reason: 'Gauge photo shows 35.',
+        overrideReason: 'Relief valve set high that day; reset since.',
+      });
       expect(ok.status).toBe(201);
       const e = ok.body.entries.find((x: { itemKey: string }) => x.itemKey === 'pressure');
       expect(e.override.reason).toContain('Relief valve');

@@ -1,13 +1,13 @@
 import { randomUUID } from 'node:crypto';
 import { io, type Socket } from 'socket.io-client';
 import type { CardSetDto, CardTrace, EngineDetail, IndicatedPowerRequest, RunDetail, RunRecordEvent } from '@crankjournal/shared-types';
-import { bearer, startTestApp, type TestApp } from './utils/test-app.js';
-import { login, type SignedIn } from './factories/users.factory.js';
-import { createEngine, createPreparingRun, engineBody } from './factories/engine.factory.js';
 import { computeIndicatedPower } from '../src/calculations/indicated-power.js';
 import { calibrateTrace } from '../src/calculations/indicator-card.js';
 import { encodePng, drawIndicatorCard } from '../src/database/seeds/card-image.js';
 import { psigToPsia } from '../src/calculations/units.js';
+import { createEngine, createPreparingRun, engineBody } from './factories/engine.factory.js';
+import { login, type SignedIn } from './factories/users.factory.js';
+import { bearer, startTestApp, type TestApp } from './utils/test-app.js';
 
 const WAIT_MS = 5_000;
 

@@ -9,11 +9,11 @@ import type {
   OilDto,
   WorkRecordDto,
 } from '@crankjournal/shared-types';
+import { AppConfig } from '../src/config/app-config.service.js';
 import { bearer, startTestApp, type TestApp } from './utils/test-app.js';
 import { login, type SignedIn } from './factories/users.factory.js';
 import { createEngine, engineBody } from './factories/engine.factory.js';
 import { insertClosedRun, TINY_PDF, TINY_PNG } from './factories/maintenance.factory.js';
-import { AppConfig } from '../src/config/app-config.service.js';
 
 const DAY = 86_400_000;
 

@@ -1,7 +1,6 @@
 import { lazy, type ReactNode } from 'react';
 import { createBrowserRouter, Navigate, useLocation } from 'react-router-dom';
-import type { Role } from '@crankjournal/shared-types';
-import { MILL_WRITERS } from '@crankjournal/shared-types';
+import { type Role, MILL_WRITERS } from '@crankjournal/shared-types';
 // The shell (navigation, live channel) loads after sign-in, so the sign-in page stays small.
 const Shell = lazy(() => import('./components/AppShell/Shell').then((m) => ({ default: m.Shell })));
 import { ErrorBoundary } from './components/ErrorBoundary/ErrorBoundary';

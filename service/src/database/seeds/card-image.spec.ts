@@ -1,8 +1,8 @@
 import { inflateSync } from 'node:zlib';
-import { drawIndicatorCard, encodePng, realisticOutline, type CardDrawingSpec } from './card-image.js';
 import { calibrateTrace, shoelaceArea } from '../../calculations/indicator-card.js';
 import { idealMeanEffectivePressurePsi } from '../../calculations/ideal-card.js';
 import { psigToPsia } from '../../calculations/units.js';
+import { drawIndicatorCard, encodePng, realisticOutline, type CardDrawingSpec } from './card-image.js';
 
 /** Reads a PNG's chunks (W3C PNG Specification, 2nd ed., section 5.3: length, type, data, CRC). */
 function chunks(png: Buffer): { type: string; data: Buffer; crc: number }[] {

@@ -1,8 +1,7 @@
 import type { INestApplicationContext } from '@nestjs/common';
 import { DataSource } from 'typeorm';
-import { plainToInstance } from 'class-transformer';
+import { plainToInstance, type ClassConstructor } from 'class-transformer';
 import { validateSync } from 'class-validator';
-import type { ClassConstructor } from 'class-transformer';
 import type { AlarmKind } from '@crankjournal/shared-types';
 import type { Engine } from '../../modules/engines/engine.entity.js';
 import type { User } from '../../modules/users/user.entity.js';

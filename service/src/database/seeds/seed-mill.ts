@@ -1,6 +1,6 @@
+import { createHash } from 'node:crypto';
 import type { INestApplicationContext } from '@nestjs/common';
 import { DataSource } from 'typeorm';
-import { createHash } from 'node:crypto';
 import type { LotStatus, LotWriteRequest, MillWriteRequest, ScheduleWriteRequest, SectionDto } from '@crankjournal/shared-types';
 import { Mill } from '../../modules/mill/mill.entity.js';
 import { PassSchedule } from '../../modules/mill/pass-schedule.entity.js';

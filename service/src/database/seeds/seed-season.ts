@@ -1,6 +1,6 @@
+import { createHash } from 'node:crypto';
 import type { INestApplicationContext } from '@nestjs/common';
 import { DataSource } from 'typeorm';
-import { createHash } from 'node:crypto';
 import type { RunPurpose } from '@crankjournal/shared-types';
 import { Run } from '../../modules/runs/run.entity.js';
 import { RunStateChange } from '../../modules/runs/run-state-change.entity.js';
@@ -169,22 +169,18 @@ export async function seedSeason(app: INestApplicationContext, engine: Engine, u
   if (!(await db.getRepository(Run).exists({ where: { engineId: engine.id, title: season.today.title } }))) {
     const today = new Date().toISOString().slice(0, 10);
     const crew = season.today.crew.map((e) => users.get(e)!);
-    const run = await db
-      .getRepository(Run)
-      .save(
-        db
-          .getRepository(Run)
-          .create({
-            engineId: engine.id,
-            title: season.today.title,
-            purpose: season.today.purpose,
-            state: 'preparing',
-            plannedFor: today,
-            crewIds: crew.map((c) => c.id),
-            notes: season.today.notes,
-            createdBy: chief.id,
-          }),
-      );
+    const run = await db.getRepository(Run).save(
+      db.getRepository(Run).create({
+        engineId: engine.id,
+        title: season.today.title,
+        purpose: season.today.purpose,
+        state: 'preparing',
+        plannedFor: today,
+        crewIds: crew.map((c) => c.id),
+        notes: season.today.notes,
+        createdBy: chief.id,
+      }),
+    );
     await db.getRepository(RunStateChange).insert([
       { runId: run.id, fromState: null, toState: 'planned', byUser: chief.id, at: new Date(Date.now() - 7 * 86400_000), note: null },
       {

@@ -1,11 +1,11 @@
 import { Module } from '@nestjs/common';
 import { TypeOrmModule } from '@nestjs/typeorm';
+import { EnginesModule } from '../engines/engines.module.js';
+import { UsersModule } from '../users/users.module.js';
 import { Alarm } from './alarm.entity.js';
 import { AlarmEvent } from './alarm-event.entity.js';
 import { AlarmsService } from './alarms.service.js';
 import { AlarmsController } from './alarms.controller.js';
-import { EnginesModule } from '../engines/engines.module.js';
-import { UsersModule } from '../users/users.module.js';
 
 @Module({
   imports: [TypeOrmModule.forFeature([Alarm, AlarmEvent]), EnginesModule, UsersModule],

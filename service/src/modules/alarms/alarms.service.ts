@@ -1,18 +1,7 @@
 import { BadRequestException, Injectable, Logger, NotFoundException, type OnModuleDestroy, type OnModuleInit } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, EntityManager, In, Not } from 'typeorm';
-import type { AlarmDto, AlarmKind } from '@crankjournal/shared-types';
-import { ALARM_KIND_WORDS } from '@crankjournal/shared-types';
-import { Alarm } from './alarm.entity.js';
-import { AlarmEvent } from './alarm-event.entity.js';
-import { evaluateReading, type PointReading } from './alarm-rules.js';
-import {
-  AlarmTransitionError,
-  applyShelveExpiry,
-  transition,
-  type AlarmEvent as LifecycleEvent,
-  type AlarmLifecycle,
-} from './alarm-lifecycle.js';
+import { type AlarmDto, type AlarmKind, ALARM_KIND_WORDS } from '@crankjournal/shared-types';
 import { EnginesService } from '../engines/engines.service.js';
 import type { MeasurementPoint } from '../engines/measurement-point.entity.js';
 import { LiveService } from '../live/live.service.js';
@@ -21,6 +10,16 @@ import { UsersService } from '../users/users.service.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { celsiusToFahrenheit, fahrenheitToCelsius } from '../../calculations/units.js';
 import { AppConfig } from '../../config/app-config.service.js';
+import {
+  AlarmTransitionError,
+  applyShelveExpiry,
+  transition,
+  type AlarmEvent as LifecycleEvent,
+  type AlarmLifecycle,
+} from './alarm-lifecycle.js';
+import { evaluateReading, type PointReading } from './alarm-rules.js';
+import { AlarmEvent } from './alarm-event.entity.js';
+import { Alarm } from './alarm.entity.js';
 
 /** Rate of rise is judged over this window, long enough to hold two hand-taken rounds. */
 export const RATE_WINDOW_MINUTES = 15;

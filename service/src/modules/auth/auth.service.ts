@@ -1,8 +1,8 @@
+import { randomUUID } from 'node:crypto';
 import { Injectable, UnauthorizedException, BadRequestException } from '@nestjs/common';
 import { JwtService } from '@nestjs/jwt';
 import { InjectRepository } from '@nestjs/typeorm';
 import { IsNull, Repository } from 'typeorm';
-import { randomUUID } from 'node:crypto';
 import type { SessionUser, TokenPair } from '@crankjournal/shared-types';
 import { AppConfig } from '../../config/app-config.service.js';
 import { UsersService } from '../users/users.service.js';

@@ -1,5 +1,5 @@
-import { hash, verify } from '@node-rs/argon2';
 import { createHash, randomBytes } from 'node:crypto';
+import { hash, verify } from '@node-rs/argon2';
 
 /** argon2id with the library's defaults (19 MiB, 2 passes: the OWASP cheat sheet's minimum). */
 export function hashPassword(plain: string): Promise<string> {

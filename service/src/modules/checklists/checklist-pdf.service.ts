@@ -1,6 +1,6 @@
+import { PassThrough, type Readable } from 'node:stream';
 import { Injectable } from '@nestjs/common';
 import PDFDocument from 'pdfkit';
-import { PassThrough, type Readable } from 'node:stream';
 import {
   CHECKLIST_PURPOSE_LABELS,
   CHECKLIST_REQUIRED_WHEN_LABELS,
@@ -8,8 +8,8 @@ import {
   HAZARD_LABELS,
   type ChecklistItemDef,
 } from '@crankjournal/shared-types';
-import { ChecklistTemplatesService } from './checklist-templates.service.js';
 import { EnginesService } from '../engines/engines.service.js';
+import { ChecklistTemplatesService } from './checklist-templates.service.js';
 import { rangeText, unitText } from './checklist-rules.js';
 
 export const CHECKLIST_SAFETY_NOTE =

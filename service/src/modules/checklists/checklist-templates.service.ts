@@ -8,11 +8,11 @@ import type {
   ChecklistTemplateSummary,
   ChecklistTemplateVersionDto,
 } from '@crankjournal/shared-types';
-import { ChecklistTemplate, ChecklistTemplateVersion } from './checklist-template.entity.js';
-import { itemsOf, validateTemplateContent } from './checklist-rules.js';
 import { EnginesService } from '../engines/engines.service.js';
 import { User } from '../users/user.entity.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
+import { itemsOf, validateTemplateContent } from './checklist-rules.js';
+import { ChecklistTemplate, ChecklistTemplateVersion } from './checklist-template.entity.js';
 import type { CreateChecklistTemplateDto } from './dto/template.dto.js';
 
 /** Plain content (the DTO class instance carries nothing else, but stored JSON should be plain and trimmed). */

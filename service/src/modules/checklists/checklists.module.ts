@@ -1,5 +1,9 @@
 import { Module, type OnModuleInit } from '@nestjs/common';
 import { TypeOrmModule } from '@nestjs/typeorm';
+import { EnginesModule } from '../engines/engines.module.js';
+import { RunsModule } from '../runs/runs.module.js';
+import { StartGateService } from '../runs/start-gate.service.js';
+import { QualificationsModule } from '../qualifications/qualifications.module.js';
 import { ChecklistTemplate, ChecklistTemplateVersion } from './checklist-template.entity.js';
 import { Checklist, ChecklistAmendment, ChecklistEntry } from './checklist.entity.js';
 import { ChecklistTemplatesService } from './checklist-templates.service.js';
@@ -7,10 +11,6 @@ import { ChecklistsService } from './checklists.service.js';
 import { ChecklistPdfService } from './checklist-pdf.service.js';
 import { ChecklistTemplatesController } from './checklist-templates.controller.js';
 import { ChecklistsController } from './checklists.controller.js';
-import { EnginesModule } from '../engines/engines.module.js';
-import { RunsModule } from '../runs/runs.module.js';
-import { StartGateService } from '../runs/start-gate.service.js';
-import { QualificationsModule } from '../qualifications/qualifications.module.js';
 
 /**
  * Checklist templates (versioned) and a run's checklists. Registers the start gate's checklist rule

@@ -1,3 +1,6 @@
+import { randomUUID } from 'node:crypto';
+import { DataSource, In, type EntityManager } from 'typeorm';
+import { InjectDataSource } from '@nestjs/typeorm';
 import {
   BadRequestException,
   ConflictException,
@@ -7,9 +10,6 @@ import {
   Logger,
   NotFoundException,
 } from '@nestjs/common';
-import { InjectDataSource } from '@nestjs/typeorm';
-import { DataSource, In, type EntityManager } from 'typeorm';
-import { randomUUID } from 'node:crypto';
 import {
   CHECKLIST_RUN_STATES,
   RUN_STATE_LABELS,
@@ -22,9 +22,28 @@ import {
   type RunChecklistsOverview,
   type RunChecklistTemplateStatus,
 } from '@crankjournal/shared-types';
-import { Checklist, ChecklistAmendment, ChecklistEntry } from './checklist.entity.js';
-import { ChecklistTemplate, ChecklistTemplateVersion } from './checklist-template.entity.js';
-import { ChecklistTemplatesService } from './checklist-templates.service.js';
+import { RunsService } from '../runs/runs.service.js';
+import type { Run } from '../runs/run.entity.js';
+import { EnginesService } from '../engines/engines.service.js';
+import { QualificationsService } from '../qualifications/qualifications.service.js';
+import { isQualified, qualificationProblem } from '../qualifications/qualification-rules.js';
+import { AuthService } from '../auth/auth.service.js';
+import { StorageService } from '../storage/storage.service.js';
+import { LiveService } from '../live/live.service.js';
+import { User } from '../users/user.entity.js';
+import { KeyedMutex } from '../../common/util/keyed-mutex.js';
+import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
+import { IMAGE_EXTENSIONS, sniffImageType } from './image-type.js';
+import {
+  allStartChecklistsSigned,
+  evaluateCloseChecklists,
+  evaluateStartChecklists,
+  latestByTemplate,
+  preLubeFreshUntil,
+  type GateChecklist,
+  type GateTemplate,
+  type GateVerdictPart,
+} from './checklist-gate.js';
 import {
   isDone,
   isOutOfRange,
@@ -39,28 +58,9 @@ import {
   valueOf,
   type EntryState,
 } from './checklist-rules.js';
-import {
-  allStartChecklistsSigned,
-  evaluateCloseChecklists,
-  evaluateStartChecklists,
-  latestByTemplate,
-  preLubeFreshUntil,
-  type GateChecklist,
-  type GateTemplate,
-  type GateVerdictPart,
-} from './checklist-gate.js';
-import { IMAGE_EXTENSIONS, sniffImageType } from './image-type.js';
-import { RunsService } from '../runs/runs.service.js';
-import type { Run } from '../runs/run.entity.js';
-import { EnginesService } from '../engines/engines.service.js';
-import { QualificationsService } from '../qualifications/qualifications.service.js';
-import { isQualified, qualificationProblem } from '../qualifications/qualification-rules.js';
-import { AuthService } from '../auth/auth.service.js';
-import { StorageService } from '../storage/storage.service.js';
-import { LiveService } from '../live/live.service.js';
-import { User } from '../users/user.entity.js';
-import { KeyedMutex } from '../../common/util/keyed-mutex.js';
-import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
+import { ChecklistTemplatesService } from './checklist-templates.service.js';
+import { ChecklistTemplate, ChecklistTemplateVersion } from './checklist-template.entity.js';
+import { Checklist, ChecklistAmendment, ChecklistEntry } from './checklist.entity.js';
 import type { AmendChecklistDto, FillChecklistItemDto } from './dto/checklist.dto.js';
 
 interface Loaded {

@@ -2,6 +2,7 @@ import { BadRequestException, ConflictException, Injectable, NotFoundException }
 import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
 import { DataSource, EntityManager, In, Repository } from 'typeorm';
 import type { EngineDetail, EngineSummary, LimitChangeDto } from '@crankjournal/shared-types';
+import { User } from '../users/user.entity.js';
 import { Engine } from './engine.entity.js';
 import { Cylinder } from './cylinder.entity.js';
 import { Bearing } from './bearing.entity.js';
@@ -9,7 +10,6 @@ import { LubricationPoint } from './lubrication-point.entity.js';
 import { MeasurementPoint } from './measurement-point.entity.js';
 import { LimitChange } from './limit-change.entity.js';
 import type { EngineWriteDto } from './dto/engine-write.dto.js';
-import { User } from '../users/user.entity.js';
 
 /** Limit fields whose every change is kept for the record. */
 const POINT_LIMIT_FIELDS = [
@@ -86,18 +86,16 @@ export class EnginesService {
       flywheelMassLb: e.flywheelMassLb,
       flywheelRadiusOfGyrationFt: e.flywheelRadiusOfGyrationFt,
       rotatingWeightLb: e.rotatingWeightLb,
-      cylinders: (e.cylinders ?? [])
-        .sort(byPos)
-        .map(({ id, label, role, boreIn, strokeIn, pistonRodIn, tailRodIn, clearancePercent }) => ({
-          id,
-          label,
-          role,
-          boreIn,
-          strokeIn,
-          pistonRodIn,
-          tailRodIn,
-          clearancePercent,
-        })),
+      cylinders: (e.cylinders ?? []).sort(byPos).map(({ id, label, role, boreIn, strokeIn, pistonRodIn, tailRodIn, clearancePercent }) => ({
+        id,
+        label,
+        role,
+        boreIn,
+        strokeIn,
+        pistonRodIn,
+        tailRodIn,
+        clearancePercent,
+      })),
       lubricationPoints: (e.lubricationPoints ?? []).sort(byPos).map(({ id, label, kind, oilGrade }) => ({ id, label, kind, oilGrade })),
       bearings: (e.bearings ?? []).sort(byPos).map((b) => ({
         id: b.id,

@@ -2,8 +2,6 @@ import { Injectable, NotFoundException } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, In, type EntityManager } from 'typeorm';
 import type { BrakeFigureDto, BrakeFigureInput, RecordAmendmentDto } from '@crankjournal/shared-types';
-import { BrakeFigure } from './brake-figure.entity.js';
-import { CardRecordAmendment } from './card-record-amendment.entity.js';
 import { User } from '../users/user.entity.js';
 import {
   CalculationInputError,
@@ -12,6 +10,8 @@ import {
   ropeBrakeEffectiveRadiusFt,
 } from '../../calculations/indicated-power.js';
 import { hpToKw } from '../../calculations/units.js';
+import { CardRecordAmendment } from './card-record-amendment.entity.js';
+import { BrakeFigure } from './brake-figure.entity.js';
 
 /** A brake figure is compared with card sets taken no further than this from it. */
 export const BRAKE_FIGURE_WINDOW_MS = 60 * 60_000;

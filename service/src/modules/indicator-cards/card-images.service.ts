@@ -1,15 +1,15 @@
-import { BadRequestException, HttpException, Injectable, NotFoundException, UnsupportedMediaTypeException } from '@nestjs/common';
-import { InjectDataSource } from '@nestjs/typeorm';
-import { DataSource } from 'typeorm';
 import { createHash, randomUUID } from 'node:crypto';
 import type { Readable } from 'node:stream';
+import { DataSource } from 'typeorm';
+import { InjectDataSource } from '@nestjs/typeorm';
+import { BadRequestException, HttpException, Injectable, NotFoundException, UnsupportedMediaTypeException } from '@nestjs/common';
 import type { CardImageDto } from '@crankjournal/shared-types';
-import { CardImage } from './card-image.entity.js';
-import { sniffImage } from './image-sniff.js';
 import { StorageService } from '../storage/storage.service.js';
 import { RunsService } from '../runs/runs.service.js';
 import { AppConfig } from '../../config/app-config.service.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
+import { sniffImage } from './image-sniff.js';
+import { CardImage } from './card-image.entity.js';
 
 /** The body of a request, read whole but never beyond `maxBytes` (413 as soon as it is passed). */
 export function readLimited(stream: Readable, maxBytes: number): Promise<Buffer> {

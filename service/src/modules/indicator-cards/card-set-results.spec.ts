@@ -1,9 +1,9 @@
 import { create, all } from 'mathjs';
 import type { CardSetCylinder } from '@crankjournal/shared-types';
-import { calibrateCardTrace, computeCardSetResults, evaluateCard, type CardSetResultsInput, type ResultCard } from './card-set-results.js';
 import { CalculationInputError } from '../../calculations/indicated-power.js';
 import { PSI_PER_INCH_OF_MERCURY } from '../../calculations/vacuum.js';
 import { STANDARD_ATMOSPHERE_PSI, psiaToPsig } from '../../calculations/units.js';
+import { calibrateCardTrace, computeCardSetResults, evaluateCard, type CardSetResultsInput, type ResultCard } from './card-set-results.js';
 
 const math = create(all);
 const psi = (value: number, unit: string) => math.unit(value, unit).toNumber('psi');

@@ -19,13 +19,6 @@ import {
   type MeasurementKind,
   type RecordAmendmentDto,
 } from '@crankjournal/shared-types';
-import { CardSet } from './card-set.entity.js';
-import { IndicatorCard } from './indicator-card.entity.js';
-import { CardImage } from './card-image.entity.js';
-import { BrakeFigure } from './brake-figure.entity.js';
-import { CardRecordAmendment, type AmendedSubject } from './card-record-amendment.entity.js';
-import { BRAKE_FIELDS, BrakeFiguresService, brakeFigureFields } from './brake-figures.service.js';
-import { CYLINDER_END_WORDS, computeCardSetResults, evaluateCard, type EvaluatedCard, type ResultCard } from './card-set-results.js';
 import { RunsService } from '../runs/runs.service.js';
 import { ReadingsService } from '../runs/readings.service.js';
 import type { Run } from '../runs/run.entity.js';
@@ -36,6 +29,13 @@ import type { AuthUser } from '../../common/decorators/current-user.decorator.js
 import { CalculationInputError } from '../../calculations/indicated-power.js';
 import { KPA_PER_PSI, psiaToPsig } from '../../calculations/units.js';
 import { KPA_PER_INCH_OF_MERCURY } from '../../calculations/vacuum.js';
+import { CYLINDER_END_WORDS, computeCardSetResults, evaluateCard, type EvaluatedCard, type ResultCard } from './card-set-results.js';
+import { BRAKE_FIELDS, BrakeFiguresService, brakeFigureFields } from './brake-figures.service.js';
+import { CardRecordAmendment, type AmendedSubject } from './card-record-amendment.entity.js';
+import { BrakeFigure } from './brake-figure.entity.js';
+import { CardImage } from './card-image.entity.js';
+import { IndicatorCard } from './indicator-card.entity.js';
+import { CardSet } from './card-set.entity.js';
 
 /** Speed and pressures are taken from readings no further than this from the moment of the set. */
 export const NEAREST_READING_WINDOW_MS = 30 * 60_000;

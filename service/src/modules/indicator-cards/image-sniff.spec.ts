@@ -1,5 +1,5 @@
-import { sniffImage, MAX_IMAGE_SIDE_PX } from './image-sniff.js';
 import { encodePng } from '../../database/seeds/card-image.js';
+import { sniffImage, MAX_IMAGE_SIDE_PX } from './image-sniff.js';
 
 // Signatures and headers from the formats' own specifications: PNG (W3C, Portable Network Graphics
 // Specification, 2nd ed., sections 5.2 signature and 11.2.2 IHDR); JPEG (ITU-T T.81, Annex B: SOI FFD8,

@@ -1,5 +1,7 @@
 import { Module } from '@nestjs/common';
 import { TypeOrmModule } from '@nestjs/typeorm';
+import { RunsModule } from '../runs/runs.module.js';
+import { EnginesModule } from '../engines/engines.module.js';
 import { CardSet } from './card-set.entity.js';
 import { IndicatorCard } from './indicator-card.entity.js';
 import { CardImage } from './card-image.entity.js';
@@ -10,8 +12,6 @@ import { CardImagesService } from './card-images.service.js';
 import { BrakeFiguresService } from './brake-figures.service.js';
 import { CardSetsController } from './card-sets.controller.js';
 import { IndicatorCalculationsController } from './calculations.controller.js';
-import { RunsModule } from '../runs/runs.module.js';
-import { EnginesModule } from '../engines/engines.module.js';
 
 /** Indicator cards and indicated power: card sets of a run, traced images, brake figures, the calculator route. */
 @Module({

@@ -1,5 +1,4 @@
-import type { Role } from '@crankjournal/shared-types';
-import { ROLES } from '@crankjournal/shared-types';
+import { type Role, ROLES } from '@crankjournal/shared-types';
 
 const UUID = '[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}';
 

@@ -12,9 +12,6 @@ import type {
   PointConsumption,
   RunSummary,
 } from '@crankjournal/shared-types';
-import { Oil, LubricationPointOil } from './oil.entity.js';
-import { OilConsumptionEntry } from './oil-consumption.entity.js';
-import type { ConsumptionEntryDto, OilWriteDto } from './dto/lubrication.dto.js';
 import { EnginesService } from '../engines/engines.service.js';
 import { RunsService } from '../runs/runs.service.js';
 import { ReadingsService } from '../runs/readings.service.js';
@@ -28,6 +25,9 @@ import {
   oilViscosity,
 } from '../../calculations/lubrication.js';
 import { fahrenheitToCelsius } from '../../calculations/units.js';
+import type { ConsumptionEntryDto, OilWriteDto } from './dto/lubrication.dto.js';
+import { OilConsumptionEntry } from './oil-consumption.entity.js';
+import { Oil, LubricationPointOil } from './oil.entity.js';
 import { FRICTION_METHOD } from './calculations.controller.js';
 
 type LubePoint = EngineDetail['lubricationPoints'][number];

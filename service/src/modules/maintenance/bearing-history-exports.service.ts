@@ -1,9 +1,9 @@
+import { PassThrough, Readable } from 'node:stream';
 import { Injectable } from '@nestjs/common';
 import PDFDocument from 'pdfkit';
-import { PassThrough, Readable } from 'node:stream';
 import { ALARM_KIND_WORDS, INSPECTION_KIND_LABELS, type BearingHistory } from '@crankjournal/shared-types';
-import { BearingHistoryService } from './bearing-history.service.js';
 import { csvLine } from '../../common/util/csv.util.js';
+import { BearingHistoryService } from './bearing-history.service.js';
 
 const day = (iso: string | null) => (iso ? iso.slice(0, 10) : '');
 const fmt = (v: number | null | undefined, d = 1) => (v === null || v === undefined || !Number.isFinite(v) ? '' : v.toFixed(d));

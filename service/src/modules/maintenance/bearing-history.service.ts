@@ -9,16 +9,16 @@ import type {
   RunSummary,
   TimelineEntry,
 } from '@crankjournal/shared-types';
-import { EngineFactsService } from './engine-facts.service.js';
-import { InspectionsService } from './inspections.service.js';
-import { WorkRecordsService } from './work-records.service.js';
-import { RunStatsService } from './run-stats.service.js';
-import { IndicatedPowerSource } from './indicated-power.source.js';
 import { AlarmsService } from '../alarms/alarms.service.js';
 import type { MeasurementPoint } from '../engines/measurement-point.entity.js';
 import type { PointRunStat } from '../runs/readings.service.js';
 import { bandAt, driftHistory, driftRuleText, fitBand, type DriftBand } from '../../calculations/bearing-drift.js';
 import { celsiusToFahrenheit } from '../../calculations/units.js';
+import { EngineFactsService } from './engine-facts.service.js';
+import { InspectionsService } from './inspections.service.js';
+import { WorkRecordsService } from './work-records.service.js';
+import { RunStatsService } from './run-stats.service.js';
+import { IndicatedPowerSource } from './indicated-power.source.js';
 
 /** Band half-width in standard deviations and the margin above it (°F of rise) that flags drift. */
 export const DRIFT_SETTINGS = { bandK: 2, marginF: 5 } as const;

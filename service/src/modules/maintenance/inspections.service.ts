@@ -1,19 +1,19 @@
+import { randomUUID } from 'node:crypto';
 import { BadRequestException, HttpException, HttpStatus, Injectable, NotFoundException, PayloadTooLargeException } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, In } from 'typeorm';
-import { randomUUID } from 'node:crypto';
 import { fileTypeFromBuffer } from 'file-type';
 import type { AttachmentDto, InspectionDto, InspectionSummary, MeasurementItemDto, WorkRecordSummary } from '@crankjournal/shared-types';
+import { AlarmsService } from '../alarms/alarms.service.js';
+import { RunsService } from '../runs/runs.service.js';
+import { StorageService } from '../storage/storage.service.js';
+import { AppConfig } from '../../config/app-config.service.js';
 import { Inspection, InspectionAttachment, InspectionMeasurement } from './inspection.entity.js';
 import { WorkRecord } from './work-record.entity.js';
 import { EngineFactsService } from './engine-facts.service.js';
 import { PlansService } from './plans.service.js';
 import { toleranceStatus, webDeflectionSpread } from './tolerance.js';
 import type { InspectionCreateDto } from './dto/inspection.dto.js';
-import { AlarmsService } from '../alarms/alarms.service.js';
-import { RunsService } from '../runs/runs.service.js';
-import { StorageService } from '../storage/storage.service.js';
-import { AppConfig } from '../../config/app-config.service.js';
 
 /** What an upload may be, judged by its bytes (not its name or declared type). */
 export const ATTACHMENT_TYPES: Record<string, { kind: 'image' | 'pdf'; ext: string }> = {

@@ -29,6 +29,7 @@ import type {
 import { AnyRole, Roles } from '../../common/decorators/roles.decorator.js';
 import { CurrentUser, type AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { IdParamDto } from '../../common/dto/id-param.dto.js';
+import { DUE_RULE_TEXT } from '../../calculations/maintenance-due.js';
 import { PlansService } from './plans.service.js';
 import { InspectionsService } from './inspections.service.js';
 import { WorkRecordsService } from './work-records.service.js';
@@ -37,7 +38,6 @@ import { BearingHistoryExportsService } from './bearing-history-exports.service.
 import { PlanQueryDto, PlanUpdateDto, PlanWriteDto } from './dto/plan.dto.js';
 import { AttachmentUploadDto, InspectionCreateDto, InspectionQueryDto } from './dto/inspection.dto.js';
 import { CloseWorkRecordDto, WorkRecordCreateDto, WorkRecordQueryDto, WorkRecordUpdateDto } from './dto/work-record.dto.js';
-import { DUE_RULE_TEXT } from '../../calculations/maintenance-due.js';
 
 /** Who may write maintenance records: the maintenance lead and the chief engineer (everyone signed in reads). */
 const WRITERS = ['maintenance_lead', 'chief_engineer'] as const;

@@ -1,6 +1,12 @@
 import { Module } from '@nestjs/common';
 import { TypeOrmModule } from '@nestjs/typeorm';
 import { MulterModule } from '@nestjs/platform-express';
+import { EnginesModule } from '../engines/engines.module.js';
+import { RunsModule } from '../runs/runs.module.js';
+import { AlarmsModule } from '../alarms/alarms.module.js';
+import { UsersModule } from '../users/users.module.js';
+import { IndicatorCardsModule } from '../indicator-cards/indicator-cards.module.js';
+import { AppConfig } from '../../config/app-config.service.js';
 import { InspectionPlan } from './inspection-plan.entity.js';
 import { Inspection, InspectionAttachment, InspectionMeasurement } from './inspection.entity.js';
 import { WorkRecord } from './work-record.entity.js';
@@ -14,12 +20,6 @@ import { IndicatedPowerSource } from './indicated-power.source.js';
 import { BearingHistoryService } from './bearing-history.service.js';
 import { BearingHistoryExportsService } from './bearing-history-exports.service.js';
 import { MaintenanceController } from './maintenance.controller.js';
-import { EnginesModule } from '../engines/engines.module.js';
-import { RunsModule } from '../runs/runs.module.js';
-import { AlarmsModule } from '../alarms/alarms.module.js';
-import { UsersModule } from '../users/users.module.js';
-import { IndicatorCardsModule } from '../indicator-cards/indicator-cards.module.js';
-import { AppConfig } from '../../config/app-config.service.js';
 
 /** Maintenance: bearing histories and drift, inspection plans and what is due, inspections, work records. */
 @Module({

@@ -2,10 +2,10 @@ import { BadRequestException, Injectable, NotFoundException } from '@nestjs/comm
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, EntityManager, In } from 'typeorm';
 import type { DueList, InspectionPlanDto, PlanDue } from '@crankjournal/shared-types';
+import { DUE_RULE_TEXT, maintenanceDue, resetFromWorkRecord, type MaintenanceDueResult } from '../../calculations/maintenance-due.js';
 import { InspectionPlan } from './inspection-plan.entity.js';
 import { EngineFactsService, type Counters } from './engine-facts.service.js';
 import type { PlanUpdateDto, PlanWriteDto } from './dto/plan.dto.js';
-import { DUE_RULE_TEXT, maintenanceDue, resetFromWorkRecord, type MaintenanceDueResult } from '../../calculations/maintenance-due.js';
 
 const STATUS_ORDER = { overdue: 0, due_soon: 1, ok: 2 } as const;
 

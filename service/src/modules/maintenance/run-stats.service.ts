@@ -5,8 +5,8 @@ import type { RunSummary } from '@crankjournal/shared-types';
 import { ReadingsService, type PointRunStat } from '../runs/readings.service.js';
 import { EnginesService } from '../engines/engines.service.js';
 import { RunsService } from '../runs/runs.service.js';
-import { RunPointStat } from './run-point-stat.entity.js';
 import { AppConfig } from '../../config/app-config.service.js';
+import { RunPointStat } from './run-point-stat.entity.js';
 
 /** Points whose per-run figures the bearing histories use. */
 const HISTORY_KINDS = new Set(['bearing_temperature', 'ambient_temperature', 'speed']);

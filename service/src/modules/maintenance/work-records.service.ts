@@ -2,13 +2,13 @@ import { BadRequestException, ConflictException, Injectable, NotFoundException }
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource } from 'typeorm';
 import type { WorkRecordDto, WorkRecordSummary } from '@crankjournal/shared-types';
+import { AlarmsService } from '../alarms/alarms.service.js';
 import { WorkRecord } from './work-record.entity.js';
 import { Inspection } from './inspection.entity.js';
 import { EngineFactsService } from './engine-facts.service.js';
 import { PlansService } from './plans.service.js';
 import { workSummary } from './inspections.service.js';
 import type { CloseWorkRecordDto, WorkRecordCreateDto, WorkRecordUpdateDto } from './dto/work-record.dto.js';
-import { AlarmsService } from '../alarms/alarms.service.js';
 
 const FUTURE_SLACK_MS = 5 * 60_000;
 

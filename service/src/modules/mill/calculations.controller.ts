@@ -2,9 +2,9 @@ import { BadRequestException, Body, Controller, HttpCode, Post } from '@nestjs/c
 import { ApiBearerAuth, ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
 import type { RollingPassResponse } from '@crankjournal/shared-types';
 import { AnyRole } from '../../common/decorators/roles.decorator.js';
+import { MILL_LOAD_CAUTION } from '../../calculations/mill-pass.js';
 import { RollingPassDto } from './dto/rolling-pass.dto.js';
 import { calculatePass } from './pass-calculation.js';
-import { MILL_LOAD_CAUTION } from '../../calculations/mill-pass.js';
 import { DEFAULT_MILL_SETTINGS } from './mill.service.js';
 
 /** Stateless calculators of the mill. */

@@ -1,7 +1,7 @@
 import { Injectable } from '@nestjs/common';
 import type { CardSetDto } from '@crankjournal/shared-types';
-import type { Mill } from './mill.entity.js';
 import { CardSetsService } from '../indicator-cards/card-sets.service.js';
+import type { Mill } from './mill.entity.js';
 
 export interface IndicatedPowerFigure {
   indicatedHp: number;

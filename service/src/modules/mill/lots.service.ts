@@ -17,6 +17,11 @@ import {
   type QuoteRequest,
   type SendQuoteRequest,
 } from '@crankjournal/shared-types';
+import { RunsService } from '../runs/runs.service.js';
+import { MailService } from '../mail/mail.service.js';
+import { User } from '../users/user.entity.js';
+import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
+import { buildQuote } from '../../calculations/quote.js';
 import { CustomerLot } from './customer-lot.entity.js';
 import { LotStatusChange } from './lot-status-change.entity.js';
 import { LotRun } from './lot-run.entity.js';
@@ -25,11 +30,6 @@ import { MillBar } from './mill-bar.entity.js';
 import { MillService } from './mill.service.js';
 import { RollingLogService } from './rolling-log.service.js';
 import { QuotePdfService } from './quote-pdf.service.js';
-import { RunsService } from '../runs/runs.service.js';
-import { MailService } from '../mail/mail.service.js';
-import { User } from '../users/user.entity.js';
-import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
-import { buildQuote } from '../../calculations/quote.js';
 
 const label = (s: LotStatus) => LOT_STATUS_LABELS[s].toLowerCase();
 

@@ -1,5 +1,9 @@
 import { Module } from '@nestjs/common';
 import { TypeOrmModule } from '@nestjs/typeorm';
+import { EnginesModule } from '../engines/engines.module.js';
+import { RunsModule } from '../runs/runs.module.js';
+import { AlarmsModule } from '../alarms/alarms.module.js';
+import { IndicatorCardsModule } from '../indicator-cards/indicator-cards.module.js';
 import { Mill } from './mill.entity.js';
 import { MillStand } from './mill-stand.entity.js';
 import { PassSchedule } from './pass-schedule.entity.js';
@@ -20,10 +24,6 @@ import { MillController } from './mill.controller.js';
 import { RollingLogController } from './rolling-log.controller.js';
 import { LotsController } from './lots.controller.js';
 import { MillCalculationsController } from './calculations.controller.js';
-import { EnginesModule } from '../engines/engines.module.js';
-import { RunsModule } from '../runs/runs.module.js';
-import { AlarmsModule } from '../alarms/alarms.module.js';
-import { IndicatorCardsModule } from '../indicator-cards/indicator-cards.module.js';
 
 /** The mill: stands and settings, pass schedules, the rolling log of runs, customer lots and quotes. */
 @Module({

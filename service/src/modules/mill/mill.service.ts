@@ -2,10 +2,10 @@ import { BadRequestException, ConflictException, Injectable, NotFoundException }
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, type EntityManager } from 'typeorm';
 import type { MillDto, MillSettings, MillWriteRequest } from '@crankjournal/shared-types';
-import { Mill } from './mill.entity.js';
-import { MillStand } from './mill-stand.entity.js';
 import { EnginesService } from '../engines/engines.service.js';
 import type { Engine } from '../engines/engine.entity.js';
+import { Mill } from './mill.entity.js';
+import { MillStand } from './mill-stand.entity.js';
 
 /** Defaults for a new mill's settings (common practice, no source; every one is a site setting). */
 export const DEFAULT_MILL_SETTINGS: MillSettings = {

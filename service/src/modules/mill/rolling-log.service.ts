@@ -16,6 +16,15 @@ import {
   type TimelineReading,
   type UpdateBarRequest,
 } from '@crankjournal/shared-types';
+import { RunsService } from '../runs/runs.service.js';
+import { ReadingsService } from '../runs/readings.service.js';
+import type { Run } from '../runs/run.entity.js';
+import { AlarmsService } from '../alarms/alarms.service.js';
+import { EnginesService } from '../engines/engines.service.js';
+import { LiveService } from '../live/live.service.js';
+import { User } from '../users/user.entity.js';
+import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
+import { barLengthM, sectionAreaMm2 } from '../../calculations/rolling.js';
 import { MillBar } from './mill-bar.entity.js';
 import { MillPass } from './mill-pass.entity.js';
 import { PassSchedule } from './pass-schedule.entity.js';
@@ -26,15 +35,6 @@ import type { Mill } from './mill.entity.js';
 import { MillService } from './mill.service.js';
 import { IndicatedPowerSource } from './indicated-power.source.js';
 import { calculatePass } from './pass-calculation.js';
-import { RunsService } from '../runs/runs.service.js';
-import { ReadingsService } from '../runs/readings.service.js';
-import type { Run } from '../runs/run.entity.js';
-import { AlarmsService } from '../alarms/alarms.service.js';
-import { EnginesService } from '../engines/engines.service.js';
-import { LiveService } from '../live/live.service.js';
-import { User } from '../users/user.entity.js';
-import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
-import { barLengthM, sectionAreaMm2 } from '../../calculations/rolling.js';
 
 /** A speed reading older than this before a pass is not taken as the speed at the pass. */
 const SPEED_READING_MAX_AGE_MS = 30 * 60_000;

@@ -1,16 +1,16 @@
 import { Module, type OnModuleInit } from '@nestjs/common';
 import { TypeOrmModule } from '@nestjs/typeorm';
 import { ALARM_DUTY, START_DUTY } from '@crankjournal/shared-types';
-import { Qualification } from './qualification.entity.js';
-import { QualificationsService } from './qualifications.service.js';
-import { QualificationsController } from './qualifications.controller.js';
-import { starterReason } from './qualification-rules.js';
 import { EnginesModule } from '../engines/engines.module.js';
 import { EnginesService } from '../engines/engines.service.js';
 import { RunsModule } from '../runs/runs.module.js';
 import { StartGateService } from '../runs/start-gate.service.js';
 import { AlarmsModule } from '../alarms/alarms.module.js';
 import { AlarmsService } from '../alarms/alarms.service.js';
+import { starterReason } from './qualification-rules.js';
+import { QualificationsController } from './qualifications.controller.js';
+import { QualificationsService } from './qualifications.service.js';
+import { Qualification } from './qualification.entity.js';
 
 /**
  * Crew qualifications per person, engine and duty. Registers two checks at start-up: the start gate's

@@ -10,7 +10,9 @@ import {
   type QualificationMatrix,
   type QualificationMatrixRow,
 } from '@crankjournal/shared-types';
-import { Qualification } from './qualification.entity.js';
+import { EnginesService } from '../engines/engines.service.js';
+import { User } from '../users/user.entity.js';
+import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
 import {
   daysBetween,
   isQualified,
@@ -19,9 +21,7 @@ import {
   utcDateOf,
   type QualificationFinding,
 } from './qualification-rules.js';
-import { EnginesService } from '../engines/engines.service.js';
-import { User } from '../users/user.entity.js';
-import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
+import { Qualification } from './qualification.entity.js';
 import type { GrantQualificationDto, RenewQualificationDto } from './dto/qualification.dto.js';
 
 /** Roles that carry out duties on the engine (observers only read). */

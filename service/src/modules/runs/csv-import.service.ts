@@ -1,7 +1,7 @@
-import { BadRequestException, Injectable } from '@nestjs/common';
-import Papa from 'papaparse';
 import { createHash } from 'node:crypto';
 import type { Readable } from 'node:stream';
+import { BadRequestException, Injectable } from '@nestjs/common';
+import Papa from 'papaparse';
 import type { IngestResult, RejectedRow } from '@crankjournal/shared-types';
 import { IngestService } from './ingest.service.js';
 import { RunsService } from './runs.service.js';

@@ -4,9 +4,6 @@ import { plainToInstance } from 'class-transformer';
 import { isDateString, isUUID, validateSync } from 'class-validator';
 import { DataSource, EntityManager } from 'typeorm';
 import type { IngestResult, ReadingDto, ReadingSource, RejectedRow } from '@crankjournal/shared-types';
-import { ReadingInputDto } from './dto/reading.dto.js';
-import { Run } from './run.entity.js';
-import { RunsService } from './runs.service.js';
 import { EnginesService } from '../engines/engines.service.js';
 import type { MeasurementPoint } from '../engines/measurement-point.entity.js';
 import { AlarmsService, type NewReading, type RecentHistoryLoader } from '../alarms/alarms.service.js';
@@ -14,6 +11,9 @@ import { validateReadingValue, type PointReading } from '../alarms/alarm-rules.j
 import { LiveService } from '../live/live.service.js';
 import { KeyedMutex } from '../../common/util/keyed-mutex.js';
 import { flattenValidationErrors } from '../../common/pipes/validation.pipe.js';
+import { RunsService } from './runs.service.js';
+import { Run } from './run.entity.js';
+import { ReadingInputDto } from './dto/reading.dto.js';
 
 /** Readings may be stamped at most this far ahead of the server's clock (clock drift on a tablet). */
 const MAX_FUTURE_MS = 5 * 60_000;

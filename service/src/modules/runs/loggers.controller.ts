@@ -1,4 +1,4 @@
-import { Body, Controller, Get, HttpCode, Param, Post, Req, UseGuards } from '@nestjs/common';
+import { Body, Controller, Get, HttpCode, Param, Post, Req, UseGuards, ConflictException, BadRequestException } from '@nestjs/common';
 import { ApiBearerAuth, ApiHeader, ApiTags } from '@nestjs/swagger';
 import type { IngestResult, IssuedLoggerKey, LoggerDto } from '@crankjournal/shared-types';
 import { Roles } from '../../common/decorators/roles.decorator.js';
@@ -12,7 +12,6 @@ import { RunsService } from './runs.service.js';
 import { CreateLoggerDto, LoggerBatchDto } from './dto/reading.dto.js';
 import type { DataLogger } from './logger.entity.js';
 import { answerIngest } from './runs.controller.js';
-import { ConflictException, BadRequestException } from '@nestjs/common';
 
 @ApiTags('loggers')
 @Controller()

@@ -1,17 +1,16 @@
-import { Injectable, NotFoundException } from '@nestjs/common';
+import { Injectable, NotFoundException, BadRequestException } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, In } from 'typeorm';
 import type { AmendmentDto, BoardPoint, MeasurementKind, ReadingDto } from '@crankjournal/shared-types';
-import { Reading } from './reading.entity.js';
-import { ReadingAmendment } from './reading-amendment.entity.js';
-import { RunsService } from './runs.service.js';
 import { User } from '../users/user.entity.js';
 import { LiveService } from '../live/live.service.js';
 import { AlarmsService } from '../alarms/alarms.service.js';
 import { EnginesService } from '../engines/engines.service.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { validateReadingValue } from '../alarms/alarm-rules.js';
-import { BadRequestException } from '@nestjs/common';
+import { RunsService } from './runs.service.js';
+import { ReadingAmendment } from './reading-amendment.entity.js';
+import { Reading } from './reading.entity.js';
 
 /** Aggregates of one point's readings in one run (amended values count). */
 export interface PointRunStat {

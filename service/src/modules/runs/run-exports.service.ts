@@ -1,13 +1,12 @@
-import { Injectable } from '@nestjs/common';
+import { type Readable, PassThrough } from 'node:stream';
 import PDFDocument from 'pdfkit';
-import type { Readable } from 'node:stream';
-import { PassThrough } from 'node:stream';
+import { Injectable } from '@nestjs/common';
 import { RUN_PURPOSE_LABELS, RUN_STATE_LABELS, UNIT_LABELS, ALARM_KIND_WORDS, ALARM_STATE_WORDS } from '@crankjournal/shared-types';
-import { ReadingsService } from './readings.service.js';
-import { RunsService } from './runs.service.js';
 import { EnginesService } from '../engines/engines.service.js';
 import { AlarmsService } from '../alarms/alarms.service.js';
 import { csvLine } from '../../common/util/csv.util.js';
+import { RunsService } from './runs.service.js';
+import { ReadingsService } from './readings.service.js';
 
 const fmtTime = (d: Date | string | null) => (d ? new Date(d).toISOString().replace('T', ' ').slice(0, 16) + ' UTC' : '—');
 

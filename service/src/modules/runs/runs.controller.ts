@@ -19,12 +19,12 @@ import type { AlarmDto, BoardPoint, IngestResult, ReadingDto, RunDetail, RunSumm
 import { AnyRole, Roles } from '../../common/decorators/roles.decorator.js';
 import { CurrentUser, type AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { IdParamDto } from '../../common/dto/id-param.dto.js';
+import { AlarmsService } from '../alarms/alarms.service.js';
 import { RunsService } from './runs.service.js';
 import { ReadingsService } from './readings.service.js';
 import { IngestService } from './ingest.service.js';
 import { CsvImportService } from './csv-import.service.js';
 import { RunExportsService } from './run-exports.service.js';
-import { AlarmsService } from '../alarms/alarms.service.js';
 import { CreateRunDto, ReadingsQueryDto, RunQueryDto, RunTransitionDto, UpdateRunDto } from './dto/run.dto.js';
 import { RoundDto } from './dto/reading.dto.js';
 

@@ -1,8 +1,7 @@
-import { UseFilters, UsePipes } from '@nestjs/common';
+import { UseFilters, UsePipes, ForbiddenException, HttpException } from '@nestjs/common';
 import { ConnectedSocket, MessageBody, SubscribeMessage, WebSocketGateway } from '@nestjs/websockets';
 import { IsArray, IsObject, IsUUID, ArrayMinSize, ArrayMaxSize } from 'class-validator';
 import type { IngestResult, LiveAck, Role, RunDetail, StartGateVerdict } from '@crankjournal/shared-types';
-import { ForbiddenException, HttpException } from '@nestjs/common';
 import { wsValidationPipe } from '../live/ws-validation.pipe.js';
 import { WsErrorFilter } from '../live/ws-exception.filter.js';
 import type { LiveSocket } from '../live/live.gateway.js';

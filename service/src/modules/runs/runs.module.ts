@@ -1,5 +1,7 @@
 import { Module } from '@nestjs/common';
 import { TypeOrmModule } from '@nestjs/typeorm';
+import { EnginesModule } from '../engines/engines.module.js';
+import { AlarmsModule } from '../alarms/alarms.module.js';
 import { Run } from './run.entity.js';
 import { RunStateChange } from './run-state-change.entity.js';
 import { Reading } from './reading.entity.js';
@@ -17,8 +19,6 @@ import { ReadingsController } from './readings.controller.js';
 import { LoggersController } from './loggers.controller.js';
 import { LoggerKeyGuard } from './logger-key.guard.js';
 import { RunsGateway } from './runs.gateway.js';
-import { EnginesModule } from '../engines/engines.module.js';
-import { AlarmsModule } from '../alarms/alarms.module.js';
 
 /** The run log: runs and their states, readings from every source, loggers, exports. */
 @Module({

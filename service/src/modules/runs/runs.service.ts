@@ -10,17 +10,17 @@ import {
   type RunState,
   type RunSummary,
 } from '@crankjournal/shared-types';
-import { Run } from './run.entity.js';
-import { RunStateChange } from './run-state-change.entity.js';
-import { StartGateService } from './start-gate.service.js';
 import { EnginesService } from '../engines/engines.service.js';
 import { LiveService } from '../live/live.service.js';
 import { AuthService } from '../auth/auth.service.js';
 import { User } from '../users/user.entity.js';
 import { AlarmsService } from '../alarms/alarms.service.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
-import type { CreateRunDto, RunTransitionDto, UpdateRunDto } from './dto/run.dto.js';
 import { revolutionsFromSpeedRecord, runningSeconds } from '../../calculations/run-derived.js';
+import type { CreateRunDto, RunTransitionDto, UpdateRunDto } from './dto/run.dto.js';
+import { StartGateService } from './start-gate.service.js';
+import { RunStateChange } from './run-state-change.entity.js';
+import { Run } from './run.entity.js';
 
 /** Who may move a run into each state. */
 const TRANSITION_ROLES: Record<Exclude<RunState, 'planned'>, Role[]> = {

@@ -1,14 +1,14 @@
 import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
-import { IsNull, Repository } from 'typeorm';
+import { In, IsNull, Repository } from 'typeorm';
 import type { CrewMemberSummary, Role, UserSummary } from '@crankjournal/shared-types';
-import { User } from './user.entity.js';
-import { Invitation } from './invitation.entity.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { newSecret, sha256 } from '../auth/password.util.js';
 import { MailService } from '../mail/mail.service.js';
 import { AppConfig } from '../../config/app-config.service.js';
 import { LiveService } from '../live/live.service.js';
+import { Invitation } from './invitation.entity.js';
+import { User } from './user.entity.js';
 import type { InviteUserDto } from './dto/invite-user.dto.js';
 import type { UpdateUserDto } from './dto/update-user.dto.js';
 
@@ -35,6 +35,23 @@ export class UsersService {
     const user = u ? { id: u.id, email: u.email, displayName: u.displayName, role: u.role } : null;
     this.authCache.set(id, { user, at: Date.now() });
     return user;
+  }
+
+  /**
+   * Display names of several people in one query, for the modules that show who did what
+   * (they never read the users table themselves). Unknown ids are absent from the map.
+   */
+  async displayNames(ids: Iterable<string | null | undefined>): Promise<Map<string, string>> {
+    const wanted = [...new Set([...ids].filter((id): id is string => typeof id === 'string' && id.length > 0))];
+    if (wanted.length === 0) return new Map();
+    const rows = await this.users.find({ select: { id: true, displayName: true }, where: { id: In(wanted) } });
+    return new Map(rows.map((u) => [u.id, u.displayName]));
+  }
+
+  /** One person's display name, or null when the id is unknown. */
+  async displayName(id: string | null | undefined): Promise<string | null> {
+    if (!id) return null;
+    return (await this.displayNames([id])).get(id) ?? null;
   }
 
   forget(id: string) {

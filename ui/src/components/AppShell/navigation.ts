@@ -1,12 +1,25 @@
 import type { ComponentType } from 'react';
-import type { Role } from '@crankjournal/shared-types';
-import { ROLES } from '@crankjournal/shared-types';
-import { IconHome, IconUsers, IconUserCircle } from '@tabler/icons-react';
-import { IconEngine, IconPlugConnected, IconTimeline } from '@tabler/icons-react';
-import { IconCertificate, IconChecklist } from '@tabler/icons-react';
+import {
+  IconHome,
+  IconUsers,
+  IconUserCircle,
+  IconEngine,
+  IconPlugConnected,
+  IconTimeline,
+  IconCertificate,
+  IconChecklist,
+  IconCalendarDue,
+  IconCircleDot,
+  IconClipboardCheck,
+  IconDroplet,
+  IconTool,
+  IconBuildingFactory2,
+  IconClipboardList,
+  IconTimeline as IconRollingLog,
+  IconTruckDelivery,
+} from '@tabler/icons-react';
+import { ROLES, type Role } from '@crankjournal/shared-types';
 import { CALCULATORS } from '../../features/calculators/calculators';
-import { IconCalendarDue, IconCircleDot, IconClipboardCheck, IconDroplet, IconTool } from '@tabler/icons-react';
-import { IconBuildingFactory2, IconClipboardList, IconTimeline as IconRollingLog, IconTruckDelivery } from '@tabler/icons-react';
 
 export interface NavItem {
   label: string;

@@ -1,5 +1,5 @@
-import { CALCULATORS } from './calculators';
 import { navigationFor } from '../../components/AppShell/navigation';
+import { CALCULATORS } from './calculators';
 
 describe('the calculators registry', () => {
   it('lists indicated power under /calculators/, for every role', () => {

@@ -1,8 +1,6 @@
 import { lazy, type ComponentType, type LazyExoticComponent } from 'react';
+import { IconGauge, IconBarbell, IconArrowBigUpLines, IconCircleDot, IconDroplet } from '@tabler/icons-react';
 import { ROLES, type Role } from '@crankjournal/shared-types';
-import { IconGauge } from '@tabler/icons-react';
-import { IconBarbell } from '@tabler/icons-react';
-import { IconArrowBigUpLines, IconCircleDot, IconDroplet } from '@tabler/icons-react';
 
 /**
  * The calculators, in one list: the Calculators navigation group, the calculators page (/calculators) and

@@ -1,6 +1,5 @@
 import type { ComponentType } from 'react';
-import type { Role } from '@crankjournal/shared-types';
-import { ROLES } from '@crankjournal/shared-types';
+import { type Role, ROLES } from '@crankjournal/shared-types';
 import { TodayRuns } from '../../runs/components/TodayRuns';
 import { TodayQualifications } from '../../qualifications/components/TodayQualifications';
 import { MillToday } from '../../mill/components/MillToday';

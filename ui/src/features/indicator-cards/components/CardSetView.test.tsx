@@ -1,7 +1,7 @@
-import { fireEvent, render, screen, within } from '../../../test-utils/render';
 import type { CardSetDto } from '@crankjournal/shared-types';
-import { CardSetView } from './CardSetView';
+import { fireEvent, render, screen, within } from '../../../test-utils/render';
 import { upsertSet } from '../api/indicator-cards.api';
+import { CardSetView } from './CardSetView';
 
 // A stored set as the API returns it (figures invented for the display; the server computes them).
 function set(over: Partial<CardSetDto> = {}): CardSetDto {

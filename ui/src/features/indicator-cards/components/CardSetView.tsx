@@ -2,6 +2,7 @@ import { useState, type ReactNode } from 'react';
 import { Badge, Box, Button, Collapse, Group, Paper, SimpleGrid, Stack, Text, Title } from '@mantine/core';
 import { IconChevronDown, IconChevronUp, IconEye, IconPencil, IconPlus } from '@tabler/icons-react';
 import type { CardDto, CardSetDto } from '@crankjournal/shared-types';
+import { cardTitle, fmt, pct, timeOnly } from '../model/format';
 import { AmendmentList } from './AmendmentList';
 import { AmendCardModal } from './AmendCardModal';
 import { AmendSetModal } from './AmendSetModal';
@@ -9,7 +10,6 @@ import { AddCardModal, type MissingEnd } from './AddCardModal';
 import { CardSetSummary } from './CardSetSummary';
 import { PvDiagram } from './PvDiagram';
 import { TraceReviewModal } from './TraceReviewModal';
-import { cardTitle, fmt, pct, timeOnly } from '../model/format';
 
 function Stat({ label, children, testId }: { label: string; children: ReactNode; testId?: string }) {
   return (

@@ -1,5 +1,5 @@
-import { cardMissing, cardToDraft, draftToInput, emptyCard, parseOrdinates } from './card-draft';
 import type { CardDto } from '@crankjournal/shared-types';
+import { cardMissing, cardToDraft, draftToInput, emptyCard, parseOrdinates } from './card-draft';
 
 describe('a card as the form holds it', () => {
   it('reads ordinates separated by spaces, commas or semicolons, and refuses words', () => {

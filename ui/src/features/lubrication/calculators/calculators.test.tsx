@@ -1,8 +1,8 @@
 import { render, screen, waitFor } from '../../../test-utils/render';
-import OilViscosityCalculatorPage, { VISCOSITY_EXAMPLE, toViscosityRequest } from './OilViscosityCalculator.page';
-import JournalFrictionCalculatorPage, { FRICTION_EXAMPLE, toFrictionRequest } from './JournalFrictionCalculator.page';
 import { CALCULATORS } from '../../calculators/calculators';
 import { navigationFor } from '../../../components/AppShell/navigation';
+import OilViscosityCalculatorPage, { VISCOSITY_EXAMPLE, toViscosityRequest } from './OilViscosityCalculator.page';
+import JournalFrictionCalculatorPage, { FRICTION_EXAMPLE, toFrictionRequest } from './JournalFrictionCalculator.page';
 
 const json = (body: unknown, status = 200) =>
   new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
@@ -30,20 +30,18 @@ describe('the lubrication calculators', () => {
       densityKgM3At15C: 890,
     });
     expect(toViscosityRequest({ ...VISCOSITY_EXAMPLE, temperatureC: '' })).toBeNull();
-    const spy = vi
-      .spyOn(globalThis, 'fetch')
-      .mockImplementation(async (input) =>
-        String(input) === '/api/calculations/oil-viscosity'
-          ? json({
-              kinematicCst: 114.39,
-              densityKgM3: 872.6,
-              densityAssumed: false,
-              dynamicPaS: 0.0998,
-              dynamicReyn: 0.00001448,
-              method: 'ASTM D341',
-            })
-          : json([]),
-      );
+    const spy = vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) =>
+      String(input) === '/api/calculations/oil-viscosity'
+        ? json({
+            kinematicCst: 114.39,
+            densityKgM3: 872.6,
+            densityAssumed: false,
+            dynamicPaS: 0.0998,
+            dynamicReyn: 0.00001448,
+            method: 'ASTM D341',
+          })
+        : json([]),
+    );
     render(<OilViscosityCalculatorPage />);
     await waitFor(() => expect(screen.getByTestId('visc-cst')).toHaveTextContent('114.4'));
     expect(screen.getByTestId('visc-reyn')).toHaveTextContent('1.45e-5');

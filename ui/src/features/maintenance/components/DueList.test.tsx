@@ -1,8 +1,8 @@
 import { render, screen, within, waitFor } from '../../../test-utils/render';
 import { sessionStore } from '../../../api/session';
+import { plan } from '../test/fixtures';
 import { DueList } from './DueList';
 import { TodayMaintenance } from './TodayMaintenance';
-import { plan } from '../test/fixtures';
 
 const json = (body: unknown, status = 200) =>
   new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });

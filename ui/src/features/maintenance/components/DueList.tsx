@@ -1,8 +1,8 @@
 import { Link } from 'react-router-dom';
 import { Anchor, Group, Stack, Table, Text } from '@mantine/core';
 import { DUE_CRITERION_LABELS, type InspectionPlanDto } from '@crankjournal/shared-types';
-import { DueBadge } from './DueBadge';
 import { day, intervalText, remainingText } from '../model/format';
+import { DueBadge } from './DueBadge';
 
 /** Plans with their status: the governing criterion, what is left of it and the (estimated) due date. */
 export function DueList({

@@ -1,9 +1,9 @@
 import { Route, Routes } from 'react-router-dom';
 import { render, screen, waitFor, within } from '../../../test-utils/render';
 import { sessionStore } from '../../../api/session';
+import { HISTORY, INSPECTION } from '../test/fixtures';
 import BearingHistoryPage from './BearingHistory.page';
 import InspectionPage from './Inspection.page';
-import { HISTORY, INSPECTION } from '../test/fixtures';
 
 const json = (body: unknown, status = 200) =>
   new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });

@@ -1,6 +1,6 @@
 import { render, screen, waitFor } from '../../../test-utils/render';
-import RollingPassCalculatorPage, { EXAMPLE, toRollingPassRequest } from './RollingPassCalculator.page';
 import { json, overloaded } from '../test/fixtures';
+import RollingPassCalculatorPage, { EXAMPLE, toRollingPassRequest } from './RollingPassCalculator.page';
 
 // Rendering Mantine in jsdom is slow on a busy machine.
 vi.setConfig({ testTimeout: 30_000 });

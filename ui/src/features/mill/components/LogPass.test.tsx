@@ -1,9 +1,9 @@
 import type { Role } from '@crankjournal/shared-types';
 import { render, screen, fireEvent, waitFor } from '../../../test-utils/render';
 import { sessionStore } from '../../../api/session';
+import { bar, calc, json, overloaded, rect, schedule } from '../test/fixtures';
 import { LogPass } from './LogPass';
 import { nextBarCode } from './StartBar';
-import { bar, calc, json, overloaded, rect, schedule } from '../test/fixtures';
 
 function signIn(role: Role) {
   sessionStore.set({

@@ -1,8 +1,8 @@
 import type { Role } from '@crankjournal/shared-types';
 import { render, screen, fireEvent, waitFor } from '../../../test-utils/render';
 import { sessionStore } from '../../../api/session';
-import { LotStatusActions } from './LotStatusActions';
 import { json, lot } from '../test/fixtures';
+import { LotStatusActions } from './LotStatusActions';
 
 function signIn(role: Role) {
   sessionStore.set({

@@ -1,6 +1,6 @@
 import { Badge } from '@mantine/core';
 import {
-  IconCheck,
+  type IconCheck,
   IconFileInvoice,
   IconHelpCircle,
   IconCalendarEvent,

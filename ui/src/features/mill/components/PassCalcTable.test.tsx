@@ -1,6 +1,6 @@
 import { render, screen, fireEvent, within } from '../../../test-utils/render';
-import { PassCalcTable, type PassRow } from './PassCalcTable';
 import { calc, overloaded, rect } from '../test/fixtures';
+import { PassCalcTable, type PassRow } from './PassCalcTable';
 
 const row = (key: string, c = calc()): PassRow => ({
   key,

@@ -1,5 +1,5 @@
-import { render, screen, fireEvent, waitFor } from '../../../test-utils/render';
 import type { IngestResult, RoundRequest } from '@crankjournal/shared-types';
+import { render, screen, fireEvent, waitFor } from '../../../test-utils/render';
 import { RoundEntry, type RoundPoint } from './RoundEntry';
 import { OfflineRoundQueue } from './offline-queue';
 
