@@ -45,6 +45,16 @@ BUILD_RC=$?
 set -e
 [ "$BUILD_RC" = 0 ] || say "the build failed (exit $BUILD_RC); running the suites anyway"
 
+# The gates come first: formatting, type checks (specs, API and browser tests included) and lint. Any finding
+# fails npm test at once, before the suites spend their minutes.
+say "gates: prettier --check, tsc --noEmit (shared-types, service with its tests, ui with e2e), eslint"
+GATES_STARTED=$(date +%s)
+if ! (cd "$ROOT" && npm run --silent gates); then
+  say "a gate failed (see above): fix it, or run 'npm run format' / 'npm run lint -- --fix' for what they can fix"
+  exit 1
+fi
+say "the gates took $(( $(date +%s) - GATES_STARTED )) s"
+
 # The environment the service sees in the API tests and the browser tests.
 export NODE_ENV=test
 export JWT_SECRET="test-only-secret-0123456789abcdef"
