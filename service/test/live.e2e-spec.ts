@@ -122,4 +122,26 @@ describe('the live channel (socket.io)', () => {
     expect(s.connected).toBe(true);
     expect(await emitWithAck<JoinRoomAck>(s, 'room:join', { room: 'site' })).toEqual({ ok: true, room: 'site' });
   });
+
+  it("ends a person's open connection when an administrator deactivates them, and keeps everyone else's", async () => {
+    const admin = await login(t, 'administrator');
+    const operator = await login(t, 'operator');
+    const other = await login(t, 'operator');
+    const s = client(operator.accessToken);
+    const o = client(other.accessToken);
+    await connect(s);
+    await connect(o);
+
+    const closed = next<string>(s, 'disconnect');
+    const off = await t.http
+      .patch(`/api/users/${operator.user.id}`)
+      .set('Authorization', bearer(admin.accessToken))
+      .send({ active: false });
+    expect(off.status).toBe(200);
+    // The server closed the socket (not the client): socket.io reports "io server disconnect".
+    expect(await closed).toBe('io server disconnect');
+    expect(s.connected).toBe(false);
+    expect(o.connected).toBe(true);
+    expect(await emitWithAck<JoinRoomAck>(o, 'room:join', { room: 'site' })).toEqual({ ok: true, room: 'site' });
+  });
 });
