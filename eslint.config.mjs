@@ -29,7 +29,8 @@ const moduleBoundaryZones = featureModules.map((name) => ({
   from: featureModules.filter((other) => other !== name).map((other) => `${modulesDir}/${other}/**`),
   except: featureModules
     .filter((other) => other !== name)
-    .flatMap((other) => [`${modulesDir}/${other}/*.service.ts`, `${modulesDir}/${other}/*.module.ts`]),
+    // The plugin matches exception globs against the absolute path of the import, so they must be absolute too.
+    .flatMap((other) => [path.join(root, modulesDir, other, '*.service.ts'), path.join(root, modulesDir, other, '*.module.ts')]),
   message: 'A module uses another only through its exported service or module class (DEVELOPERS.md, "Module boundaries").',
 }));
 
