@@ -286,7 +286,10 @@ export function validateReadingValue(point: MeasurementPointSettings, value: num
       break;
     case 'inHg_vacuum':
       if (value < VACUUM_RANGE_INHG.min || value > VACUUM_RANGE_INHG.max) {
-        return `${point.name}: ${withUnit(value, point.unit)} is outside the vacuum gauge range ${VACUUM_RANGE_INHG.min}–${VACUUM_RANGE_INHG.max} inHg.`;
+        return (
+          `${point.name}: ${withUnit(value, point.unit)} is outside the vacuum gauge range ` +
+          `${VACUUM_RANGE_INHG.min}–${VACUUM_RANGE_INHG.max} inHg.`
+        );
       }
       break;
     case null:
@@ -296,12 +299,18 @@ export function validateReadingValue(point: MeasurementPointSettings, value: num
   if (scale !== null) {
     const valueF = scale === 'F' ? value : celsiusToFahrenheit(value);
     if (valueF < TEMPERATURE_SENSOR_RANGE_F.min || valueF > TEMPERATURE_SENSOR_RANGE_F.max) {
-      return `${point.name}: ${withUnit(value, point.unit)} is outside the sensor range (${TEMPERATURE_SENSOR_RANGE_F.min} to ${TEMPERATURE_SENSOR_RANGE_F.max} °F).`;
+      return (
+        `${point.name}: ${withUnit(value, point.unit)} is outside the sensor range ` +
+        `(${TEMPERATURE_SENSOR_RANGE_F.min} to ${TEMPERATURE_SENSOR_RANGE_F.max} °F).`
+      );
     }
   }
   if (point.kind === 'speed' || isRpm(point.unit)) {
     if (value < SPEED_RANGE_RPM.min || value > SPEED_RANGE_RPM.max) {
-      return `${point.name}: ${withUnit(value, point.unit)} is outside the plausible speed range ${SPEED_RANGE_RPM.min}–${SPEED_RANGE_RPM.max} rpm.`;
+      return (
+        `${point.name}: ${withUnit(value, point.unit)} is outside the plausible speed range ` +
+        `${SPEED_RANGE_RPM.min}–${SPEED_RANGE_RPM.max} rpm.`
+      );
     }
   }
   return null;
@@ -397,7 +406,8 @@ function levelDecision(check: LevelCheck, active: boolean, deadband: number, sub
   } else if (action === 'clear') {
     message =
       deadband > 0
-        ? `${subject} is back to normal: ${direction} ${check.limitName} ${withUnit(check.limit, check.unit)} less its deadband (${withUnit(clearAt, check.unit)}).`
+        ? `${subject} is back to normal: ${direction} ${check.limitName} ${withUnit(check.limit, check.unit)} ` +
+          `less its deadband (${withUnit(clearAt, check.unit)}).`
         : `${subject} is back to normal: ${direction} ${check.limitName} ${withUnit(check.limit, check.unit)}.`;
   } else if (active) {
     message = `${check.raised} Still in alarm until ${direction} ${withUnit(clearAt, check.unit)}.`;
@@ -577,12 +587,15 @@ export function evaluateReading(ctx: EvaluateReadingContext): ConditionDecision[
           'rate_of_rise',
           maxRate,
           rateUnit,
-          `${name}: rate of rise not checked — it needs an earlier reading at least ${fmt(minSpan)} min before this one and within the last ${fmt(windowMinutes)} min.`,
+          `${name}: rate of rise not checked — it needs an earlier reading at least ${fmt(minSpan)} min before this one ` +
+            `and within the last ${fmt(windowMinutes)} min.`,
         ),
       );
     } else {
       const action = decideHighSide(isActiveRate, rate.ratePerMin, maxRate, 0);
-      const over = `${name} is rising at ${withUnit(rate.ratePerMin, rateUnit)} over the last ${fmt(rate.spanMinutes)} min (${withUnit(rate.fromValue, unit)} to ${withUnit(value, unit)})`;
+      const over =
+        `${name} is rising at ${withUnit(rate.ratePerMin, rateUnit)} over the last ${fmt(rate.spanMinutes)} min ` +
+        `(${withUnit(rate.fromValue, unit)} to ${withUnit(value, unit)})`;
       const message =
         action === 'raise' || (action === 'hold' && isActiveRate)
           ? `${over}, above its limit ${withUnit(maxRate, rateUnit)}.`
@@ -621,7 +634,8 @@ export function evaluateReading(ctx: EvaluateReadingContext): ConditionDecision[
         action === 'raise' || (action === 'hold' && isActiveAmbient)
           ? `${base}, more than the allowed ${withUnit(maxRise, unit)}.`
           : action === 'clear'
-            ? `${base}; back within the allowed ${withUnit(maxRise, unit)}${deadband > 0 ? ` less its deadband ${withUnit(deadband, unit)}` : ''}.`
+            ? `${base}; back within the allowed ${withUnit(maxRise, unit)}` +
+              `${deadband > 0 ? ` less its deadband ${withUnit(deadband, unit)}` : ''}.`
             : `${base}; within the allowed ${withUnit(maxRise, unit)}.`;
       out.push({
         kind: 'above_ambient',

@@ -343,7 +343,8 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
         '',
         a.runId ? `Open the run: ${this.config.get('PUBLIC_URL')}/runs/${a.runId}` : '',
         '',
-        'Follow the engine house’s hot-bearing and over-pressure procedures. Crankjournal aids a qualified crew; it does not replace local codes, the insurer’s inspections or licensed practice.',
+        'Follow the engine house’s hot-bearing and over-pressure procedures. Crankjournal aids a qualified crew; ' +
+          'it does not replace local codes, the insurer’s inspections or licensed practice.',
       ].join('\n'),
     });
   }

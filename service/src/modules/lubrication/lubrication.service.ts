@@ -28,7 +28,7 @@ import { fahrenheitToCelsius } from '../../calculations/units.js';
 import type { ConsumptionEntryDto, OilWriteDto } from './dto/lubrication.dto.js';
 import { OilConsumptionEntry } from './oil-consumption.entity.js';
 import { Oil, LubricationPointOil } from './oil.entity.js';
-import { FRICTION_METHOD } from './calculations.controller.js';
+import { FRICTION_METHOD } from './lubrication-calculations.controller.js';
 
 type LubePoint = EngineDetail['lubricationPoints'][number];
 

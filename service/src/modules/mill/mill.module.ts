@@ -19,11 +19,11 @@ import { SchedulesService } from './schedules.service.js';
 import { RollingLogService } from './rolling-log.service.js';
 import { LotsService } from './lots.service.js';
 import { QuotePdfService } from './quote-pdf.service.js';
-import { IndicatedPowerSource } from './indicated-power.source.js';
+import { MillIndicatedPowerSource } from './mill-indicated-power.source.js';
 import { MillController } from './mill.controller.js';
 import { RollingLogController } from './rolling-log.controller.js';
 import { LotsController } from './lots.controller.js';
-import { MillCalculationsController } from './calculations.controller.js';
+import { MillCalculationsController } from './mill-calculations.controller.js';
 
 /** The mill: stands and settings, pass schedules, the rolling log of runs, customer lots and quotes. */
 @Module({
@@ -45,7 +45,7 @@ import { MillCalculationsController } from './calculations.controller.js';
     AlarmsModule,
     IndicatorCardsModule,
   ],
-  providers: [MillService, SchedulesService, RollingLogService, LotsService, QuotePdfService, IndicatedPowerSource],
+  providers: [MillService, SchedulesService, RollingLogService, LotsService, QuotePdfService, MillIndicatedPowerSource],
   controllers: [MillController, RollingLogController, LotsController, MillCalculationsController],
   exports: [MillService, SchedulesService, RollingLogService, LotsService],
 })

@@ -33,7 +33,7 @@ import { CustomerLot } from './customer-lot.entity.js';
 import { LotRun } from './lot-run.entity.js';
 import type { Mill } from './mill.entity.js';
 import { MillService } from './mill.service.js';
-import { IndicatedPowerSource } from './indicated-power.source.js';
+import { MillIndicatedPowerSource } from './mill-indicated-power.source.js';
 import { calculatePass } from './pass-calculation.js';
 
 /** A speed reading older than this before a pass is not taken as the speed at the pass. */
@@ -56,13 +56,16 @@ export class RollingLogService {
     private readonly alarms: AlarmsService,
     private readonly engines: EnginesService,
     private readonly live: LiveService,
-    private readonly power: IndicatedPowerSource,
+    private readonly power: MillIndicatedPowerSource,
   ) {}
 
   /** Passes are logged while the run is running, or stopped and not yet closed. */
   loggingRefusal(run: Run): string | null {
     if (RUN_STATES_LOGGING_PASSES.includes(run.state)) return null;
-    return `This run is ${RUN_STATE_LABELS[run.state].toLowerCase()}: passes are logged while the run is running, or stopped and not yet closed.`;
+    return (
+      `This run is ${RUN_STATE_LABELS[run.state].toLowerCase()}: ` +
+      'passes are logged while the run is running, or stopped and not yet closed.'
+    );
   }
   private assertLogging(run: Run) {
     const why = this.loggingRefusal(run);
@@ -93,7 +96,8 @@ export class RollingLogService {
     const wanted = all.filter((r) => byRun.has(r.id) || (millEngines.has(r.engineId) && ACTIVE.includes(r.state)));
     const lotRows: { run_id: string; reference: string }[] = wanted.length
       ? await this.db.query(
-          `SELECT lr.run_id, l.reference FROM mill_lot_runs lr JOIN mill_lots l ON l.id = lr.lot_id WHERE lr.run_id = ANY($1) ORDER BY l.reference`,
+          `SELECT lr.run_id, l.reference FROM mill_lot_runs lr JOIN mill_lots l ON l.id = lr.lot_id
+           WHERE lr.run_id = ANY($1) ORDER BY l.reference`,
           [wanted.map((r) => r.id)],
         )
       : [];

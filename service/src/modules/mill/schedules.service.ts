@@ -23,9 +23,11 @@ import { calculatePass } from './pass-calculation.js';
 function planAssumptions(mill: Mill, engine: Engine): string[] {
   const a = [
     `Each pass starts at the engine's rated speed, ${engine.ratedSpeedRpm} rpm (roll speed = engine speed × the stand's ratio).`,
-    `Indicated power ${mill.settings.defaultIndicatedHp} hp (site setting), mechanical efficiency ${Math.round(mill.settings.mechanicalEfficiency * 100)} %, base load ${mill.settings.baseLoadHp} hp.`,
+    `Indicated power ${mill.settings.defaultIndicatedHp} hp (site setting), ` +
+      `mechanical efficiency ${Math.round(mill.settings.mechanicalEfficiency * 100)} %, base load ${mill.settings.baseLoadHp} hp.`,
     `The flywheel supplies the whole pass; a warning below ${Math.round(mill.settings.minSpeedFraction * 100)} % of rated speed.`,
-    `Roll force allows ${Math.round((mill.settings.frictionFactor - 1) * 100)} % for friction; grooved passes use the nominal roll diameter.`,
+    `Roll force allows ${Math.round((mill.settings.frictionFactor - 1) * 100)} % for friction; ` +
+      'grooved passes use the nominal roll diameter.',
   ];
   if (engine.flywheelMassLb === null || engine.flywheelRadiusOfGyrationFt === null)
     a.push(`${engine.name} has no flywheel mass or radius of gyration recorded: the flywheel check is left out.`);

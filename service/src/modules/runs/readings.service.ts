@@ -198,8 +198,10 @@ export class ReadingsService {
       first_at: Date;
       last_at: Date;
     }[] = await this.db.query(
-      `SELECT run_id, point_id, max(v) AS peak, avg(v) AS mean, min(v) AS least, count(*)::int AS n, min(taken_at) AS first_at, max(taken_at) AS last_at
-         FROM (SELECT run_id, point_id, COALESCE(amended_value, value) AS v, taken_at FROM readings WHERE point_id = ANY($1::uuid[])${byRun}) r
+      `SELECT run_id, point_id, max(v) AS peak, avg(v) AS mean, min(v) AS least, count(*)::int AS n,
+              min(taken_at) AS first_at, max(taken_at) AS last_at
+         FROM (SELECT run_id, point_id, COALESCE(amended_value, value) AS v, taken_at FROM readings
+               WHERE point_id = ANY($1::uuid[])${byRun}) r
         GROUP BY run_id, point_id`,
       params,
     );

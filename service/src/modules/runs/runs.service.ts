@@ -121,7 +121,8 @@ export class RunsService {
     const users = userIds.length ? await this.db.getRepository(User).find({ where: { id: In(userIds) } }) : [];
     const name = new Map(users.map((u) => [u.id, u.displayName]));
     const peaks: { point_id: string; max: number; min: number; unit: string }[] = await this.db.query(
-      `SELECT point_id, max(COALESCE(amended_value, value)) AS max, min(COALESCE(amended_value, value)) AS min, max(unit) AS unit FROM readings WHERE run_id = $1 GROUP BY point_id`,
+      `SELECT point_id, max(COALESCE(amended_value, value)) AS max, min(COALESCE(amended_value, value)) AS min, max(unit) AS unit
+       FROM readings WHERE run_id = $1 GROUP BY point_id`,
       [id],
     );
     return {
