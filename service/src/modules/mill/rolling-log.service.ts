@@ -4,6 +4,7 @@ import { DataSource, In } from 'typeorm';
 import {
   RUN_STATE_LABELS,
   RUN_STATES_LOGGING_PASSES,
+  RUN_STATES_TAKING_READINGS,
   type BarDto,
   type CreateBarRequest,
   type LoggedPassDto,
@@ -40,7 +41,6 @@ import { calculatePass } from './pass-calculation.js';
 const SPEED_READING_MAX_AGE_MS = 30 * 60_000;
 /** Clocks on tablets drift: a pass may be logged this far ahead of the server's time. */
 const CLOCK_SLACK_MS = 5 * 60_000;
-const ACTIVE: RunState[] = ['preparing', 'cleared', 'running', 'stopped'];
 
 function fmtClock(d: Date): string {
   return d.toISOString().slice(11, 16) + ' UTC';
@@ -93,7 +93,7 @@ export class RollingLogService {
     const byRun = new Map(counts.map((c) => [c.run_id, c]));
     const millEngines = new Set((await this.mills.list()).map((m) => m.engineId));
     const all = await this.runs.list({});
-    const wanted = all.filter((r) => byRun.has(r.id) || (millEngines.has(r.engineId) && ACTIVE.includes(r.state)));
+    const wanted = all.filter((r) => byRun.has(r.id) || (millEngines.has(r.engineId) && RUN_STATES_TAKING_READINGS.includes(r.state)));
     const lotRows: { run_id: string; reference: string }[] = wanted.length
       ? await this.db.query(
           `SELECT lr.run_id, l.reference FROM mill_lot_runs lr JOIN mill_lots l ON l.id = lr.lot_id
@@ -101,7 +101,7 @@ export class RollingLogService {
           [wanted.map((r) => r.id)],
         )
       : [];
-    const rank = (s: RunState) => (s === 'running' ? 0 : s === 'stopped' ? 1 : ACTIVE.includes(s) ? 2 : 3);
+    const rank = (s: RunState) => (s === 'running' ? 0 : s === 'stopped' ? 1 : RUN_STATES_TAKING_READINGS.includes(s) ? 2 : 3);
     return wanted
       .map((r) => {
         const c = byRun.get(r.id);

@@ -3,7 +3,13 @@ import { InjectDataSource } from '@nestjs/typeorm';
 import { plainToInstance } from 'class-transformer';
 import { isDateString, isUUID, validateSync } from 'class-validator';
 import { DataSource, EntityManager } from 'typeorm';
-import type { IngestResult, ReadingDto, ReadingSource, RejectedRow } from '@crankjournal/shared-types';
+import {
+  RUN_STATES_TAKING_READINGS,
+  type IngestResult,
+  type ReadingDto,
+  type ReadingSource,
+  type RejectedRow,
+} from '@crankjournal/shared-types';
 import { EnginesService } from '../engines/engines.service.js';
 import type { MeasurementPoint } from '../engines/measurement-point.entity.js';
 import { AlarmsService, type NewReading, type RecentHistoryLoader } from '../alarms/alarms.service.js';
@@ -225,8 +231,7 @@ export class IngestService {
     try {
       ({ inserted, outcome } = await this.db.transaction(async (m) => {
         const [state] = await m.query(`SELECT state FROM runs WHERE id = $1 FOR SHARE`, [run.id]);
-        if (!state || !['preparing', 'cleared', 'running', 'stopped'].includes(state.state))
-          throw new ConflictException('This run no longer takes readings.');
+        if (!state || !RUN_STATES_TAKING_READINGS.includes(state.state)) throw new ConflictException('This run no longer takes readings.');
         // Columns go as delimited text (cheaper to build than array literals for thousands of rows); every
         // field is a uuid, a number, an ISO time, a source word or a unit, none of which holds the delimiter.
         const col = (f: (r: { job: number; g: GoodRow }) => string) => rows.map(f).join(SEP);

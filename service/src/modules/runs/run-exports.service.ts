@@ -1,7 +1,8 @@
 import { type Readable, PassThrough } from 'node:stream';
 import PDFDocument from 'pdfkit';
 import { Injectable } from '@nestjs/common';
-import { RUN_PURPOSE_LABELS, RUN_STATE_LABELS, UNIT_LABELS, ALARM_KIND_WORDS, ALARM_STATE_WORDS } from '@crankjournal/shared-types';
+import { RUN_PURPOSE_LABELS, RUN_STATE_LABELS, ALARM_KIND_WORDS, ALARM_STATE_WORDS } from '@crankjournal/shared-types';
+import { unitLabel } from '../../calculations/units.js';
 import { EnginesService } from '../engines/engines.service.js';
 import { AlarmsService } from '../alarms/alarms.service.js';
 import { csvLine } from '../../common/util/csv.util.js';
@@ -108,7 +109,7 @@ export class RunExportsService {
       const y = doc.y;
       doc.font('Helvetica-Bold').fontSize(7);
       doc.text('Time (UTC)', x0, y, { width: 90 });
-      cols.forEach((p, i) => doc.text(`${p.code} ${UNIT_LABELS[p.unit] ?? p.unit}`, x0 + 90 + i * colW, y, { width: colW }));
+      cols.forEach((p, i) => doc.text(`${p.code} ${unitLabel(p.unit)}`, x0 + 90 + i * colW, y, { width: colW }));
       doc.moveDown(0.3);
     };
     header();

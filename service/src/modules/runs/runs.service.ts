@@ -31,7 +31,6 @@ const TRANSITION_ROLES: Record<Exclude<RunState, 'planned'>, Role[]> = {
   closed: ['chief_engineer'],
   abandoned: ['operator', 'chief_engineer'],
 };
-const ACTIVE: RunState[] = ['preparing', 'cleared', 'running', 'stopped'];
 
 @Injectable()
 export class RunsService {
@@ -251,7 +250,9 @@ export class RunsService {
       if (!cur || cur.state !== run0.state)
         throw new ConflictException('Someone else changed this run a moment ago. Look again and retry.');
       if (to === 'preparing' && run0.state === 'planned') {
-        const other = await m.findOne(Run, { where: { engineId: cur.engineId, state: In(ACTIVE), id: Not(id) } });
+        const other = await m.findOne(Run, {
+          where: { engineId: cur.engineId, state: In(RUN_STATES_TAKING_READINGS as RunState[]), id: Not(id) },
+        });
         if (other)
           throw new ConflictException(
             `Another run of this engine ("${other.title}") is ${RUN_STATE_LABELS[other.state].toLowerCase()}. Close or abandon it first.`,
@@ -277,7 +278,7 @@ export class RunsService {
         at: now,
         note: dto.note?.trim() || null,
       });
-      if (ACTIVE.includes(to)) await this.engines.setActiveRun(cur.engineId, id, m);
+      if (RUN_STATES_TAKING_READINGS.includes(to)) await this.engines.setActiveRun(cur.engineId, id, m);
       if (to === 'closed' || to === 'abandoned') await this.engines.setActiveRun(cur.engineId, null, m);
       if (addTotals) await this.engines.addRunTotals(cur.engineId, addTotals.hours, addTotals.revs, m);
     });
