@@ -149,6 +149,16 @@ export function absoluteKpaOf(value: number, scale: PressureScale): number | nul
   }
 }
 
+/** A temperature in one unit expressed in another (°F or °C), or null when either is no temperature unit. */
+export function temperatureInUnit(value: number, fromUnit: string, toUnit: string): number | null {
+  if (fromUnit === toUnit) return value;
+  const from = temperatureScaleOf(fromUnit);
+  const to = temperatureScaleOf(toUnit);
+  if (from === null || to === null) return null;
+  if (from === to) return value;
+  return from === 'C' ? celsiusToFahrenheit(value) : fahrenheitToCelsius(value);
+}
+
 /** How a stored unit is written for people (°F for degF), or the unit itself when it has no label. */
 export function unitLabel(unit: string): string {
   return UNIT_LABELS[unit] ?? unit;

@@ -2,13 +2,12 @@ import { BadRequestException, Injectable, Logger, NotFoundException, type OnModu
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, EntityManager, In, Not } from 'typeorm';
 import { type AlarmDto, type AlarmKind, ALARM_KIND_WORDS } from '@crankjournal/shared-types';
-import { EnginesService } from '../engines/engines.service.js';
-import type { MeasurementPoint } from '../engines/measurement-point.entity.js';
+import { EnginesService, type EngineWithPoints } from '../engines/engines.service.js';
 import { LiveService } from '../live/live.service.js';
 import { MailService } from '../mail/mail.service.js';
 import { UsersService } from '../users/users.service.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
-import { celsiusToFahrenheit, fahrenheitToCelsius } from '../../calculations/units.js';
+import { temperatureInUnit } from '../../calculations/units.js';
 import { AppConfig } from '../../config/app-config.service.js';
 import {
   AlarmTransitionError,
@@ -17,9 +16,14 @@ import {
   type AlarmEvent as LifecycleEvent,
   type AlarmLifecycle,
 } from './alarm-lifecycle.js';
-import { evaluateReading, type PointReading } from './alarm-rules.js';
+import { evaluateReading, validateReadingValue, type MeasurementPointSettings, type PointReading } from './alarm-rules.js';
 import { AlarmEvent } from './alarm-event.entity.js';
 import { Alarm } from './alarm.entity.js';
+
+/** A measurement point as the engines module hands it out. */
+type EnginePoint = EngineWithPoints['points'][number];
+/** One reading of a point, as the alarm rules take it (for modules that keep recent history). */
+export type { PointReading };
 
 /** Rate of rise is judged over this window, long enough to hold two hand-taken rounds. */
 export const RATE_WINDOW_MINUTES = 15;
@@ -175,7 +179,7 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
     const sorted = [...readings].sort((a, b) => a.takenAt.getTime() - b.takenAt.getTime());
     // Built once per call rather than once per reading (a logger batch holds thousands of readings).
     const engineLimits = { maximumAllowableWorkingPressurePsig: engine.mawpPsig, overspeedRpm: engine.overspeedRpm };
-    const settingsById = new Map<string, MeasurementPoint & { name: string }>();
+    const settingsById = new Map<string, EnginePoint & { name: string }>();
     for (const r of sorted) {
       const point = pointById.get(r.pointId);
       if (!point) continue;
@@ -283,13 +287,9 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
     return { changed: [...changed.values()], raised, raisedReadingIds, toEmail };
   }
 
-  private ambientIn(st: EngineState, point: MeasurementPoint): number | null {
+  private ambientIn(st: EngineState, point: EnginePoint): number | null {
     if (!st.ambient || point.kind !== 'bearing_temperature') return null;
-    const { value, unit } = st.ambient;
-    if (unit === point.unit) return value;
-    if (unit === 'degC' && point.unit === 'degF') return celsiusToFahrenheit(value);
-    if (unit === 'degF' && point.unit === 'degC') return fahrenheitToCelsius(value);
-    return null;
+    return temperatureInUnit(st.ambient.value, st.ambient.unit, point.unit);
   }
 
   /** Applies a lifecycle event to an alarm in memory, recording the event. */
@@ -391,6 +391,14 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
       shelvedByName: await this.nameOf(a.shelvedBy),
       updatedAt: (a.updatedAt ?? new Date()).toISOString(),
     };
+  }
+
+  /**
+   * Why a value cannot be a real reading of the point (a mistyped figure or a failed sensor), else null. The
+   * reading paths refuse such a value before it is stored; the rule lives with the alarm rules.
+   */
+  implausibleReading(point: MeasurementPointSettings, value: number): string | null {
+    return validateReadingValue(point, value);
   }
 
   async list(filter: { engineId?: string; runId?: string; open?: boolean }): Promise<AlarmDto[]> {

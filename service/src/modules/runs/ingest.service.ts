@@ -10,16 +10,17 @@ import {
   type ReadingSource,
   type RejectedRow,
 } from '@crankjournal/shared-types';
-import { EnginesService } from '../engines/engines.service.js';
-import type { MeasurementPoint } from '../engines/measurement-point.entity.js';
-import { AlarmsService, type NewReading, type RecentHistoryLoader } from '../alarms/alarms.service.js';
-import { validateReadingValue, type PointReading } from '../alarms/alarm-rules.js';
+import { EnginesService, type EngineWithPoints } from '../engines/engines.service.js';
+import { AlarmsService, type NewReading, type PointReading, type RecentHistoryLoader } from '../alarms/alarms.service.js';
 import { LiveService } from '../live/live.service.js';
 import { KeyedMutex } from '../../common/util/keyed-mutex.js';
 import { flattenValidationErrors } from '../../common/pipes/validation.pipe.js';
 import { RunsService } from './runs.service.js';
 import { Run } from './run.entity.js';
 import { ReadingInputDto } from './dto/reading.dto.js';
+
+/** A measurement point as the engines module hands it out. */
+type EnginePoint = EngineWithPoints['points'][number];
 
 /** Readings may be stamped at most this far ahead of the server's clock (clock drift on a tablet). */
 const MAX_FUTURE_MS = 5 * 60_000;
@@ -81,7 +82,7 @@ export interface IngestContext {
 
 interface GoodRow {
   clientId: string;
-  point: MeasurementPoint;
+  point: EnginePoint;
   value: number;
   takenAt: Date;
 }
@@ -114,7 +115,7 @@ export class IngestService {
     let rejectedCount = 0;
     const good: GoodRow[] = [];
     const seen = new Set<string>();
-    const settingsOf = new Map<string, MeasurementPoint & { name: string }>();
+    const settingsOf = new Map<string, EnginePoint & { name: string }>();
     const now = Date.now();
     const earliest = ctx.run.createdAt.getTime() - MAX_PAST_MS;
     const col = ctx.columnOf ?? ((f: string) => f);
@@ -148,7 +149,7 @@ export class IngestService {
         return reject(index, 'unit', `${point.code} is recorded in ${point.unit}, not ${dto.unit}`);
       let settings = settingsOf.get(point.id);
       if (!settings) settingsOf.set(point.id, (settings = { ...point, name: point.label }));
-      const absurd = validateReadingValue(settings, dto.value);
+      const absurd = this.alarms.implausibleReading(settings, dto.value);
       if (absurd) return reject(index, 'value', absurd);
       const t = new Date(dto.takenAt);
       if (t.getTime() > now + MAX_FUTURE_MS) return reject(index, 'takenAt', 'takenAt is in the future; check the clock of the device');

@@ -2,12 +2,11 @@ import { Injectable, NotFoundException, BadRequestException } from '@nestjs/comm
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, In } from 'typeorm';
 import type { AmendmentDto, BoardPoint, MeasurementKind, ReadingDto } from '@crankjournal/shared-types';
-import { User } from '../users/user.entity.js';
+import { UsersService } from '../users/users.service.js';
 import { LiveService } from '../live/live.service.js';
 import { AlarmsService } from '../alarms/alarms.service.js';
 import { EnginesService } from '../engines/engines.service.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
-import { validateReadingValue } from '../alarms/alarm-rules.js';
 import { RunsService } from './runs.service.js';
 import { ReadingAmendment } from './reading-amendment.entity.js';
 import { Reading } from './reading.entity.js';
@@ -32,6 +31,7 @@ export class ReadingsService {
     private readonly live: LiveService,
     private readonly alarms: AlarmsService,
     private readonly engines: EnginesService,
+    private readonly users: UsersService,
   ) {}
 
   async list(runId: string, filter: { since?: string; pointId?: string; limit?: number }): Promise<ReadingDto[]> {
@@ -53,8 +53,7 @@ export class ReadingsService {
       ? await this.db.getRepository(ReadingAmendment).find({ where: { readingId: In(amendedIds) }, order: { at: 'ASC' } })
       : [];
     const userIds = [...new Set([...rows.map((r) => r.enteredBy).filter((x): x is string => !!x), ...amendments.map((a) => a.byUser)])];
-    const users = userIds.length ? await this.db.getRepository(User).find({ where: { id: In(userIds) } }) : [];
-    const name = new Map(users.map((u) => [u.id, u.displayName]));
+    const name = await this.users.displayNames(userIds);
     const byReading = new Map<string, AmendmentDto[]>();
     for (const a of amendments) {
       const list = byReading.get(a.readingId) ?? [];
@@ -137,7 +136,7 @@ export class ReadingsService {
     const { points } = await this.engines.withPoints(r0.engineId);
     const point = points.find((p) => p.id === r0.pointId);
     if (point) {
-      const absurd = validateReadingValue({ ...point, name: point.label }, value);
+      const absurd = this.alarms.implausibleReading({ ...point, name: point.label }, value);
       if (absurd) throw new BadRequestException(`value: ${absurd}`);
     }
     await this.db.transaction(async (m) => {

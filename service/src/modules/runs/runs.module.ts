@@ -2,6 +2,7 @@ import { Module } from '@nestjs/common';
 import { TypeOrmModule } from '@nestjs/typeorm';
 import { EnginesModule } from '../engines/engines.module.js';
 import { AlarmsModule } from '../alarms/alarms.module.js';
+import { UsersModule } from '../users/users.module.js';
 import { Run } from './run.entity.js';
 import { RunStateChange } from './run-state-change.entity.js';
 import { Reading } from './reading.entity.js';
@@ -22,7 +23,7 @@ import { RunsGateway } from './runs.gateway.js';
 
 /** The run log: runs and their states, readings from every source, loggers, exports. */
 @Module({
-  imports: [TypeOrmModule.forFeature([Run, RunStateChange, Reading, ReadingAmendment, DataLogger]), EnginesModule, AlarmsModule],
+  imports: [TypeOrmModule.forFeature([Run, RunStateChange, Reading, ReadingAmendment, DataLogger]), EnginesModule, AlarmsModule, UsersModule],
   providers: [
     RunsService,
     StartGateService,

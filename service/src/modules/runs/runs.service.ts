@@ -13,7 +13,7 @@ import {
 import { EnginesService } from '../engines/engines.service.js';
 import { LiveService } from '../live/live.service.js';
 import { AuthService } from '../auth/auth.service.js';
-import { User } from '../users/user.entity.js';
+import { UsersService } from '../users/users.service.js';
 import { AlarmsService } from '../alarms/alarms.service.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { revolutionsFromSpeedRecord, runningSeconds } from '../../calculations/run-derived.js';
@@ -41,6 +41,7 @@ export class RunsService {
     private readonly live: LiveService,
     private readonly auth: AuthService,
     private readonly alarms: AlarmsService,
+    private readonly users: UsersService,
   ) {}
 
   async get(id: string): Promise<Run> {
@@ -117,8 +118,7 @@ export class RunsService {
     const [summary] = await this.summaries([r]);
     const history = await this.db.getRepository(RunStateChange).find({ where: { runId: id }, order: { at: 'ASC' } });
     const userIds = [...new Set([...r.crewIds, ...history.map((h) => h.byUser), ...(r.countersignedBy ? [r.countersignedBy] : [])])];
-    const users = userIds.length ? await this.db.getRepository(User).find({ where: { id: In(userIds) } }) : [];
-    const name = new Map(users.map((u) => [u.id, u.displayName]));
+    const name = await this.users.displayNames(userIds);
     const peaks: { point_id: string; max: number; min: number; unit: string }[] = await this.db.query(
       `SELECT point_id, max(COALESCE(amended_value, value)) AS max, min(COALESCE(amended_value, value)) AS min, max(unit) AS unit
        FROM readings WHERE run_id = $1 GROUP BY point_id`,
@@ -147,8 +147,8 @@ export class RunsService {
 
   private async assertCrew(ids: string[] | undefined) {
     if (!ids?.length) return;
-    const found = await this.db.getRepository(User).count({ where: { id: In(ids) } });
-    if (found !== new Set(ids).size) throw new BadRequestException('crewIds holds someone who has no account.');
+    const found = await this.users.displayNames(ids);
+    if (found.size !== new Set(ids).size) throw new BadRequestException('crewIds holds someone who has no account.');
   }
 
   async create(dto: CreateRunDto, user: AuthUser): Promise<RunDetail> {
