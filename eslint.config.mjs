@@ -29,8 +29,9 @@ const moduleBoundaryZones = featureModules.map((name) => ({
   from: featureModules.filter((other) => other !== name).map((other) => `${modulesDir}/${other}/**`),
   except: featureModules
     .filter((other) => other !== name)
-    // The plugin matches exception globs against the absolute path of the import, so they must be absolute too.
-    .flatMap((other) => [path.join(root, modulesDir, other, '*.service.ts'), path.join(root, modulesDir, other, '*.module.ts')]),
+    .flatMap((other) => [`${modulesDir}/${other}/*.service.ts`, `${modulesDir}/${other}/*.module.ts`])
+    // With glob zones the plugin matches exceptions against the absolute import path, so they must be absolute too.
+    .map((pattern) => path.join(root, pattern)),
   message: 'A module uses another only through its exported service or module class (DEVELOPERS.md, "Module boundaries").',
 }));
 

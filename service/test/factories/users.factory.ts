@@ -2,7 +2,7 @@ import { randomUUID } from 'node:crypto';
 import type { DataSource } from 'typeorm';
 import type { Role, TokenPair } from '@crankjournal/shared-types';
 import { User } from '../../src/modules/users/user.entity.js';
-import { hashPassword } from '../../src/modules/auth/password.util.js';
+import { hashPassword } from '../../src/common/util/password.util.js';
 import type { TestApp } from '../utils/test-app.js';
 
 export interface CreatedUser {

@@ -1,7 +1,7 @@
 import type { EntityManager } from 'typeorm';
 import type { Role } from '@crankjournal/shared-types';
 import { User } from '../../modules/users/user.entity.js';
-import { hashPassword, verifyPassword } from '../../modules/auth/password.util.js';
+import { hashPassword, verifyPassword } from '../../common/util/password.util.js';
 import { readSample } from './samples.js';
 
 interface SiteSample {

@@ -1,4 +1,4 @@
-import { Global, Module } from '@nestjs/common';
+import { Module } from '@nestjs/common';
 import { JwtModule } from '@nestjs/jwt';
 import { PassportModule } from '@nestjs/passport';
 import { TypeOrmModule } from '@nestjs/typeorm';
@@ -9,7 +9,6 @@ import { AuthController } from './auth.controller.js';
 import { JwtStrategy } from './jwt.strategy.js';
 import { RefreshToken } from './refresh-token.entity.js';
 
-@Global()
 @Module({
   imports: [
     UsersModule,
@@ -22,6 +21,6 @@ import { RefreshToken } from './refresh-token.entity.js';
   ],
   providers: [AuthService, JwtStrategy],
   controllers: [AuthController],
-  exports: [AuthService, JwtModule, UsersModule],
+  exports: [AuthService, JwtModule],
 })
 export class AuthModule {}

@@ -5,10 +5,9 @@ import { InjectRepository } from '@nestjs/typeorm';
 import { IsNull, Repository } from 'typeorm';
 import type { SessionUser, TokenPair } from '@crankjournal/shared-types';
 import { AppConfig } from '../../config/app-config.service.js';
-import { UsersService } from '../users/users.service.js';
-import type { User } from '../users/user.entity.js';
+import { UsersService, type UserRecord } from '../users/users.service.js';
+import { hashPassword, newSecret, sha256, verifyPassword } from '../../common/util/password.util.js';
 import { RefreshToken } from './refresh-token.entity.js';
-import { hashPassword, newSecret, sha256, verifyPassword } from './password.util.js';
 
 const BAD_SIGN_IN = 'The e-mail or password is not right.';
 
@@ -86,11 +85,11 @@ export class AuthService {
     return this.issue(fresh!, randomUUID());
   }
 
-  sessionUser(u: User): SessionUser {
+  sessionUser(u: UserRecord): SessionUser {
     return { id: u.id, email: u.email, displayName: u.displayName, role: u.role, unitSystem: u.unitSystem };
   }
 
-  private async issue(user: User, familyId: string): Promise<TokenPair> {
+  private async issue(user: UserRecord, familyId: string): Promise<TokenPair> {
     const ttl = this.config.get('ACCESS_TOKEN_TTL_SECONDS');
     const accessToken = await this.jwt.signAsync({ sub: user.id, role: user.role }, { expiresIn: ttl });
     const id = randomUUID();

@@ -4,7 +4,7 @@ import { ThrottlerGuard } from '@nestjs/throttler';
 /** Limits sign-in attempts per address and e-mail, so one person's typing cannot lock out the crew's tablet. */
 @Injectable()
 export class LoginThrottlerGuard extends ThrottlerGuard {
-  protected async getTracker(req: Record<string, any>): Promise<string> {
+  protected async getTracker(req: { ip?: string; body?: { email?: unknown } }): Promise<string> {
     const email = typeof req.body?.email === 'string' ? req.body.email.trim().toLowerCase() : '';
     return `${req.ip}|${email}`;
   }

@@ -1,5 +1,4 @@
-import { Column, CreateDateColumn, Entity, Index, ManyToOne, JoinColumn, PrimaryGeneratedColumn } from 'typeorm';
-import { User } from '../users/user.entity.js';
+import { Column, CreateDateColumn, Entity, Index, PrimaryGeneratedColumn } from 'typeorm';
 
 /**
  * A refresh token, stored only as a SHA-256 hash. Tokens rotate on use: each use revokes the token and
@@ -10,13 +9,10 @@ export class RefreshToken {
   @PrimaryGeneratedColumn('uuid')
   id: string;
 
+  /** The person signed in; the foreign key to users (ON DELETE CASCADE) is in the migrations. */
   @Index()
   @Column({ name: 'user_id', type: 'uuid' })
   userId: string;
-
-  @ManyToOne(() => User, { onDelete: 'CASCADE' })
-  @JoinColumn({ name: 'user_id' })
-  user?: User;
 
   @Index()
   @Column({ name: 'family_id', type: 'uuid' })

@@ -4,6 +4,9 @@ import { EnginesModule } from '../engines/engines.module.js';
 import { RunsModule } from '../runs/runs.module.js';
 import { StartGateService } from '../runs/start-gate.service.js';
 import { QualificationsModule } from '../qualifications/qualifications.module.js';
+import { AuthModule } from '../auth/auth.module.js';
+import { StorageModule } from '../storage/storage.module.js';
+import { LiveModule } from '../live/live.module.js';
 import { ChecklistTemplate, ChecklistTemplateVersion } from './checklist-template.entity.js';
 import { Checklist, ChecklistAmendment, ChecklistEntry } from './checklist.entity.js';
 import { ChecklistTemplatesService } from './checklist-templates.service.js';
@@ -23,6 +26,9 @@ import { ChecklistsController } from './checklists.controller.js';
     EnginesModule,
     RunsModule,
     QualificationsModule,
+    AuthModule,
+    StorageModule,
+    LiveModule,
   ],
   providers: [ChecklistTemplatesService, ChecklistsService, ChecklistPdfService],
   controllers: [ChecklistTemplatesController, ChecklistsController],

@@ -1,5 +1,6 @@
 import { Module } from '@nestjs/common';
 import { TypeOrmModule } from '@nestjs/typeorm';
+import { UsersModule } from '../users/users.module.js';
 import { Engine } from './engine.entity.js';
 import { Cylinder } from './cylinder.entity.js';
 import { Bearing } from './bearing.entity.js';
@@ -11,7 +12,7 @@ import { EnginesController } from './engines.controller.js';
 import { UnitsController } from './units.controller.js';
 
 @Module({
-  imports: [TypeOrmModule.forFeature([Engine, Cylinder, Bearing, LubricationPoint, MeasurementPoint, LimitChange])],
+  imports: [TypeOrmModule.forFeature([Engine, Cylinder, Bearing, LubricationPoint, MeasurementPoint, LimitChange]), UsersModule],
   providers: [EnginesService],
   controllers: [EnginesController, UnitsController],
   exports: [EnginesService],

@@ -2,7 +2,7 @@ import { BadRequestException, ConflictException, Injectable, NotFoundException }
 import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
 import { DataSource, EntityManager, In, Repository } from 'typeorm';
 import type { EngineDetail, EngineSummary, LimitChangeDto } from '@crankjournal/shared-types';
-import { User } from '../users/user.entity.js';
+import { UsersService } from '../users/users.service.js';
 import { Engine } from './engine.entity.js';
 import { Cylinder } from './cylinder.entity.js';
 import { Bearing } from './bearing.entity.js';
@@ -40,6 +40,7 @@ export class EnginesService {
     @InjectRepository(Engine) private readonly engines: Repository<Engine>,
     @InjectRepository(MeasurementPoint) private readonly points: Repository<MeasurementPoint>,
     @InjectRepository(LimitChange) private readonly changes: Repository<LimitChange>,
+    private readonly users: UsersService,
   ) {}
 
   async list(): Promise<EngineSummary[]> {
@@ -236,7 +237,10 @@ export class EnginesService {
     };
   }
 
-  /** Parts with an id are updated (they must belong to this engine), without one created; omitted parts are removed, omitted points retired. */
+  /**
+   * Parts with an id are updated (they must belong to this engine), without one created; omitted parts are removed,
+   * omitted points retired.
+   */
   private async writeParts(m: EntityManager, e: Engine, dto: EngineWriteDto, userId: string, fresh: boolean) {
     const own = async <T extends { id: string }>(cls: new () => T, ids: (string | undefined)[], what: string) => {
       const want = ids.filter((x): x is string => !!x);
@@ -367,13 +371,8 @@ export class EnginesService {
 
   async limitChanges(engineId: string): Promise<LimitChangeDto[]> {
     await this.get(engineId);
-    const rows = await this.changes
-      .createQueryBuilder('c')
-      .leftJoinAndMapOne('c.user', User, 'u', 'u.id = c.changedBy')
-      .where('c.engineId = :engineId', { engineId })
-      .orderBy('c.changedAt', 'DESC')
-      .limit(500)
-      .getMany();
+    const rows = await this.changes.find({ where: { engineId }, order: { changedAt: 'DESC' }, take: 500 });
+    const names = await this.users.displayNames(rows.map((c) => c.changedBy));
     return rows.map((c) => {
       const num = (v: string | null) => (v !== null && v !== '' && Number.isFinite(Number(v)) ? Number(v) : v);
       return {
@@ -384,7 +383,7 @@ export class EnginesService {
         oldValue: num(c.oldValue),
         newValue: num(c.newValue),
         changedBy: c.changedBy,
-        changedByName: (c as LimitChange & { user?: User }).user?.displayName ?? 'unknown',
+        changedByName: names.get(c.changedBy) ?? 'unknown',
         changedAt: c.changedAt.toISOString(),
       };
     });

@@ -1,6 +1,5 @@
 import { Column, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, type Relation } from 'typeorm';
 import type { MeasurementKind, MeasurementUnit } from '@crankjournal/shared-types';
-import { numeric } from '../../common/transformers/numeric.transformer.js';
 import { Engine } from './engine.entity.js';
 
 @Entity({ name: 'measurement_points' })

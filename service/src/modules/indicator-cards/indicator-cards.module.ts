@@ -2,6 +2,8 @@ import { Module } from '@nestjs/common';
 import { TypeOrmModule } from '@nestjs/typeorm';
 import { RunsModule } from '../runs/runs.module.js';
 import { EnginesModule } from '../engines/engines.module.js';
+import { StorageModule } from '../storage/storage.module.js';
+import { LiveModule } from '../live/live.module.js';
 import { CardSet } from './card-set.entity.js';
 import { IndicatorCard } from './indicator-card.entity.js';
 import { CardImage } from './card-image.entity.js';
@@ -15,7 +17,13 @@ import { IndicatorCalculationsController } from './calculations.controller.js';
 
 /** Indicator cards and indicated power: card sets of a run, traced images, brake figures, the calculator route. */
 @Module({
-  imports: [TypeOrmModule.forFeature([CardSet, IndicatorCard, CardImage, BrakeFigure, CardRecordAmendment]), RunsModule, EnginesModule],
+  imports: [
+    TypeOrmModule.forFeature([CardSet, IndicatorCard, CardImage, BrakeFigure, CardRecordAmendment]),
+    RunsModule,
+    EnginesModule,
+    StorageModule,
+    LiveModule,
+  ],
   providers: [CardSetsService, CardImagesService, BrakeFiguresService],
   controllers: [CardSetsController, IndicatorCalculationsController],
   exports: [CardSetsService, CardImagesService],

@@ -1,11 +1,17 @@
 import { Injectable } from '@nestjs/common';
 import type { ServerToClientEvents } from '@crankjournal/shared-types';
+import { UserEvents } from '../../common/events/user-events.js';
 import type { LiveServer } from './live.gateway.js';
 
 /** Other modules send live events through this service, never through the gateway directly. */
 @Injectable()
 export class LiveService {
   private server: LiveServer | null = null;
+
+  constructor(events: UserEvents) {
+    // A deactivated person's open connections end at once: a socket checks the token only when it connects.
+    events.on('deactivated', (userId) => this.disconnectUser(userId));
+  }
 
   attach(server: LiveServer) {
     this.server = server;

@@ -6,6 +6,7 @@ import { RunsModule } from '../runs/runs.module.js';
 import { AlarmsModule } from '../alarms/alarms.module.js';
 import { UsersModule } from '../users/users.module.js';
 import { IndicatorCardsModule } from '../indicator-cards/indicator-cards.module.js';
+import { StorageModule } from '../storage/storage.module.js';
 import { AppConfig } from '../../config/app-config.service.js';
 import { InspectionPlan } from './inspection-plan.entity.js';
 import { Inspection, InspectionAttachment, InspectionMeasurement } from './inspection.entity.js';
@@ -36,6 +37,7 @@ import { MaintenanceController } from './maintenance.controller.js';
     AlarmsModule,
     UsersModule,
     IndicatorCardsModule,
+    StorageModule,
   ],
   providers: [
     EngineFactsService,

@@ -4,6 +4,8 @@ import { EnginesModule } from '../engines/engines.module.js';
 import { RunsModule } from '../runs/runs.module.js';
 import { AlarmsModule } from '../alarms/alarms.module.js';
 import { IndicatorCardsModule } from '../indicator-cards/indicator-cards.module.js';
+import { MailModule } from '../mail/mail.module.js';
+import { LiveModule } from '../live/live.module.js';
 import { Mill } from './mill.entity.js';
 import { MillStand } from './mill-stand.entity.js';
 import { PassSchedule } from './pass-schedule.entity.js';
@@ -44,6 +46,8 @@ import { MillCalculationsController } from './mill-calculations.controller.js';
     RunsModule,
     AlarmsModule,
     IndicatorCardsModule,
+    MailModule,
+    LiveModule,
   ],
   providers: [MillService, SchedulesService, RollingLogService, LotsService, QuotePdfService, MillIndicatedPowerSource],
   controllers: [MillController, RollingLogController, LotsController, MillCalculationsController],

@@ -2,6 +2,8 @@ import { Module } from '@nestjs/common';
 import { TypeOrmModule } from '@nestjs/typeorm';
 import { EnginesModule } from '../engines/engines.module.js';
 import { AlarmsModule } from '../alarms/alarms.module.js';
+import { LiveModule } from '../live/live.module.js';
+import { AuthModule } from '../auth/auth.module.js';
 import { UsersModule } from '../users/users.module.js';
 import { Run } from './run.entity.js';
 import { RunStateChange } from './run-state-change.entity.js';
@@ -23,7 +25,14 @@ import { RunsGateway } from './runs.gateway.js';
 
 /** The run log: runs and their states, readings from every source, loggers, exports. */
 @Module({
-  imports: [TypeOrmModule.forFeature([Run, RunStateChange, Reading, ReadingAmendment, DataLogger]), EnginesModule, AlarmsModule, UsersModule],
+  imports: [
+    TypeOrmModule.forFeature([Run, RunStateChange, Reading, ReadingAmendment, DataLogger]),
+    EnginesModule,
+    AlarmsModule,
+    LiveModule,
+    AuthModule,
+    UsersModule,
+  ],
   providers: [
     RunsService,
     StartGateService,

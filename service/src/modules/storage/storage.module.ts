@@ -1,6 +1,5 @@
-import { Global, Module } from '@nestjs/common';
+import { Module } from '@nestjs/common';
 import { StorageService } from './storage.service.js';
 
-@Global()
 @Module({ providers: [StorageService], exports: [StorageService] })
 export class StorageModule {}

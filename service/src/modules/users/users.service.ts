@@ -1,12 +1,12 @@
 import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
 import { In, IsNull, Repository } from 'typeorm';
-import type { CrewMemberSummary, Role, UserSummary } from '@crankjournal/shared-types';
+import type { CrewMemberSummary, Role, UnitSystem, UserSummary } from '@crankjournal/shared-types';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
-import { newSecret, sha256 } from '../auth/password.util.js';
+import { newSecret, sha256 } from '../../common/util/password.util.js';
+import { UserEvents } from '../../common/events/user-events.js';
 import { MailService } from '../mail/mail.service.js';
 import { AppConfig } from '../../config/app-config.service.js';
-import { LiveService } from '../live/live.service.js';
 import { Invitation } from './invitation.entity.js';
 import { User } from './user.entity.js';
 import type { InviteUserDto } from './dto/invite-user.dto.js';
@@ -15,6 +15,22 @@ import type { UpdateUserDto } from './dto/update-user.dto.js';
 const INVITATION_TTL_HOURS = 72;
 /** Auth lookups are cached briefly; any change to a user clears the entry at once. */
 const AUTH_CACHE_MS = 5_000;
+
+/** A person as other modules see them (no secrets). */
+export interface UserRecord {
+  id: string;
+  email: string;
+  displayName: string;
+  role: Role;
+  active: boolean;
+  unitSystem: UnitSystem;
+}
+
+/** A person with the password and signing-PIN hashes, for the sign-in checks of the auth module. */
+export interface UserWithSecrets extends UserRecord {
+  passwordHash: string | null;
+  pinHash: string | null;
+}
 
 @Injectable()
 export class UsersService {
@@ -25,7 +41,7 @@ export class UsersService {
     @InjectRepository(Invitation) private readonly invitations: Repository<Invitation>,
     private readonly mail: MailService,
     private readonly config: AppConfig,
-    private readonly live: LiveService,
+    private readonly events: UserEvents,
   ) {}
 
   async findActiveAuthUser(id: string): Promise<AuthUser | null> {
@@ -58,7 +74,7 @@ export class UsersService {
     this.authCache.delete(id);
   }
 
-  findByEmailWithSecrets(email: string): Promise<User | null> {
+  findByEmailWithSecrets(email: string): Promise<UserWithSecrets | null> {
     return this.users
       .createQueryBuilder('u')
       .addSelect(['u.passwordHash', 'u.pinHash'])
@@ -66,11 +82,19 @@ export class UsersService {
       .getOne();
   }
 
-  findByIdWithSecrets(id: string): Promise<User | null> {
+  findByIdWithSecrets(id: string): Promise<UserWithSecrets | null> {
+    return this.entityWithSecrets(id);
+  }
+
+  private entityWithSecrets(id: string): Promise<User | null> {
     return this.users.createQueryBuilder('u').addSelect(['u.passwordHash', 'u.pinHash']).where('u.id = :id', { id }).getOne();
   }
 
-  async get(id: string): Promise<User> {
+  async get(id: string): Promise<UserRecord> {
+    return this.entity(id);
+  }
+
+  private async entity(id: string): Promise<User> {
     const u = await this.users.findOne({ where: { id } });
     if (!u) throw new NotFoundException('No such user.');
     return u;
@@ -86,7 +110,7 @@ export class UsersService {
     return rows.map((u) => ({ id: u.id, displayName: u.displayName, role: u.role }));
   }
 
-  toSummary(u: User): UserSummary {
+  private toSummary(u: User): UserSummary {
     return {
       id: u.id,
       email: u.email,
@@ -127,7 +151,8 @@ export class UsersService {
       text: [
         `Hello ${user.displayName},`,
         '',
-        `You have been given a Crankjournal account at the engine house. Set your password here (the link works once, for ${INVITATION_TTL_HOURS} hours):`,
+        'You have been given a Crankjournal account at the engine house. ' +
+          `Set your password here (the link works once, for ${INVITATION_TTL_HOURS} hours):`,
         '',
         link,
         '',
@@ -138,7 +163,7 @@ export class UsersService {
   }
 
   /** Checks a one-time invitation and marks it used; returns the user. */
-  async consumeInvitation(token: string): Promise<User> {
+  async consumeInvitation(token: string): Promise<UserRecord> {
     const inv = await this.invitations.findOne({ where: { tokenHash: sha256(token) } });
     if (!inv || inv.usedAt || inv.expiresAt.getTime() < Date.now()) {
       throw new BadRequestException('This invitation link is not valid any more. Ask an administrator for a new one.');
@@ -158,7 +183,7 @@ export class UsersService {
   }
 
   async update(id: string, dto: UpdateUserDto, actingUserId: string): Promise<UserSummary> {
-    const u = await this.get(id);
+    const u = await this.entity(id);
     if (id === actingUserId && (dto.active === false || (dto.role && dto.role !== u.role))) {
       throw new BadRequestException('You cannot deactivate yourself or change your own role; ask another administrator.');
     }
@@ -167,12 +192,12 @@ export class UsersService {
     if (dto.displayName !== undefined) u.displayName = dto.displayName.trim();
     await this.users.save(u);
     this.forget(id);
-    if (dto.active === false) this.live.disconnectUser(id);
-    const withHash = await this.findByIdWithSecrets(id);
+    if (dto.active === false) this.events.announce('deactivated', id);
+    const withHash = await this.entityWithSecrets(id);
     return this.toSummary(withHash!);
   }
 
-  async updatePreferences(id: string, prefs: { unitSystem?: User['unitSystem']; displayName?: string }) {
+  async updatePreferences(id: string, prefs: { unitSystem?: UnitSystem; displayName?: string }): Promise<UserRecord> {
     const patch: Partial<User> = {};
     if (prefs.unitSystem) patch.unitSystem = prefs.unitSystem;
     if (prefs.displayName) patch.displayName = prefs.displayName.trim();
@@ -181,7 +206,7 @@ export class UsersService {
     return this.get(id);
   }
 
-  usersWithRoles(roles: Role[]): Promise<User[]> {
+  usersWithRoles(roles: Role[]): Promise<UserRecord[]> {
     return this.users.createQueryBuilder('u').where('u.role IN (:...roles)', { roles }).andWhere('u.active = true').getMany();
   }
 }
