@@ -4,6 +4,7 @@
  * arithmetic done by hand beside each case, and unit conversions against mathjs (npm reference library).
  */
 import { create, all } from 'mathjs';
+import { mawpInPointUnit } from '../../calculations/units.js';
 import {
   ALARM_CAUTION,
   ALARM_CONDITION_KINDS,
@@ -20,7 +21,6 @@ import {
   riseRatePerMinute,
   validateReadingValue,
 } from './alarm-rules.js';
-import { mawpInPointUnit } from '../../calculations/units.js';
 
 const math = create(all);
 /** mathjs's psi factor is truncated, so compare with a relative tolerance. */

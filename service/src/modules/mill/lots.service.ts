@@ -1,6 +1,6 @@
 import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
-import { DataSource, In, type EntityManager } from 'typeorm';
+import { DataSource, type EntityManager } from 'typeorm';
 import {
   LOT_STATUS_LABELS,
   LOT_STATUSES,
@@ -19,7 +19,7 @@ import {
 } from '@crankjournal/shared-types';
 import { RunsService } from '../runs/runs.service.js';
 import { MailService } from '../mail/mail.service.js';
-import { User } from '../users/user.entity.js';
+import { UsersService } from '../users/users.service.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { buildQuote } from '../../calculations/quote.js';
 import { CustomerLot } from './customer-lot.entity.js';
@@ -42,6 +42,7 @@ export class LotsService {
     private readonly runs: RunsService,
     private readonly pdf: QuotePdfService,
     private readonly mail: MailService,
+    private readonly users: UsersService,
   ) {}
 
   async get(id: string): Promise<CustomerLot> {
@@ -127,10 +128,7 @@ export class LotsService {
   }
 
   private async names(ids: string[]): Promise<Map<string, string>> {
-    const uniq = [...new Set(ids)];
-    if (!uniq.length) return new Map();
-    const users = await this.db.getRepository(User).find({ where: { id: In(uniq) } });
-    return new Map(users.map((u) => [u.id, u.displayName]));
+    return this.users.displayNames(ids);
   }
 
   /** LOT-<year>-<nnn>, numbered per year of the enquiry. */

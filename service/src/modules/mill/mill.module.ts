@@ -6,6 +6,7 @@ import { AlarmsModule } from '../alarms/alarms.module.js';
 import { IndicatorCardsModule } from '../indicator-cards/indicator-cards.module.js';
 import { MailModule } from '../mail/mail.module.js';
 import { LiveModule } from '../live/live.module.js';
+import { UsersModule } from '../users/users.module.js';
 import { Mill } from './mill.entity.js';
 import { MillStand } from './mill-stand.entity.js';
 import { PassSchedule } from './pass-schedule.entity.js';
@@ -48,6 +49,7 @@ import { MillCalculationsController } from './mill-calculations.controller.js';
     IndicatorCardsModule,
     MailModule,
     LiveModule,
+    UsersModule,
   ],
   providers: [MillService, SchedulesService, RollingLogService, LotsService, QuotePdfService, MillIndicatedPowerSource],
   controllers: [MillController, RollingLogController, LotsController, MillCalculationsController],

@@ -3,7 +3,6 @@ import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, type EntityManager } from 'typeorm';
 import type { MillDto, MillSettings, MillWriteRequest } from '@crankjournal/shared-types';
 import { EnginesService } from '../engines/engines.service.js';
-import type { Engine } from '../engines/engine.entity.js';
 import { Mill } from './mill.entity.js';
 import { MillStand } from './mill-stand.entity.js';
 
@@ -15,6 +14,9 @@ export const DEFAULT_MILL_SETTINGS: MillSettings = {
   defaultIndicatedHp: 600,
   frictionFactor: 1.2,
 };
+
+/** The engine that drives a mill, as the engines module hands it out. */
+export type MillEngine = Awaited<ReturnType<EnginesService['get']>>;
 
 @Injectable()
 export class MillService {
@@ -61,7 +63,7 @@ export class MillService {
     return s;
   }
 
-  engineOf(mill: Mill): Promise<Engine> {
+  engineOf(mill: Mill): Promise<MillEngine> {
     return this.engines.get(mill.engineId);
   }
 

@@ -17,13 +17,12 @@ import {
   type TimelineReading,
   type UpdateBarRequest,
 } from '@crankjournal/shared-types';
-import { RunsService } from '../runs/runs.service.js';
+import { RunsService, type RunRecord } from '../runs/runs.service.js';
 import { ReadingsService } from '../runs/readings.service.js';
-import type { Run } from '../runs/run.entity.js';
 import { AlarmsService } from '../alarms/alarms.service.js';
 import { EnginesService } from '../engines/engines.service.js';
 import { LiveService } from '../live/live.service.js';
-import { User } from '../users/user.entity.js';
+import { UsersService } from '../users/users.service.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { barLengthM, sectionAreaMm2 } from '../../calculations/rolling.js';
 import { MillBar } from './mill-bar.entity.js';
@@ -57,22 +56,23 @@ export class RollingLogService {
     private readonly engines: EnginesService,
     private readonly live: LiveService,
     private readonly power: MillIndicatedPowerSource,
+    private readonly users: UsersService,
   ) {}
 
   /** Passes are logged while the run is running, or stopped and not yet closed. */
-  loggingRefusal(run: Run): string | null {
+  loggingRefusal(run: RunRecord): string | null {
     if (RUN_STATES_LOGGING_PASSES.includes(run.state)) return null;
     return (
       `This run is ${RUN_STATE_LABELS[run.state].toLowerCase()}: ` +
       'passes are logged while the run is running, or stopped and not yet closed.'
     );
   }
-  private assertLogging(run: Run) {
+  private assertLogging(run: RunRecord) {
     const why = this.loggingRefusal(run);
     if (why) throw new ConflictException(why);
   }
 
-  private async millOfRun(run: Run): Promise<Mill> {
+  private async millOfRun(run: RunRecord): Promise<Mill> {
     const mill = await this.mills.forEngine(run.engineId);
     if (!mill) {
       const e = await this.engines.get(run.engineId);
@@ -374,25 +374,19 @@ export class RollingLogService {
   }
 
   /** The engine's speed as the bar entered: the latest speed reading before the pass, else rated speed. */
-  private async speedAt(run: Run, ratedSpeedRpm: number, at: Date): Promise<{ rpm: number; source: string }> {
+  private async speedAt(run: RunRecord, ratedSpeedRpm: number, at: Date): Promise<{ rpm: number; source: string }> {
     const { points } = await this.engines.withPoints(run.engineId);
     const speed = points.find((p) => p.kind === 'speed' && p.unit === 'rpm');
     if (speed) {
-      const rows: { v: number; t: Date }[] = await this.db.query(
-        `SELECT COALESCE(amended_value, value) AS v, taken_at AS t FROM readings
-          WHERE run_id = $1 AND point_id = $2 AND taken_at <= $3 AND taken_at >= $4 ORDER BY taken_at DESC LIMIT 1`,
-        [run.id, speed.id, at, new Date(at.getTime() - SPEED_READING_MAX_AGE_MS)],
-      );
-      if (rows.length && Number(rows[0].v) > 0)
-        return { rpm: Number(rows[0].v), source: `speed reading ${speed.code} at ${fmtClock(new Date(rows[0].t))}` };
+      const latest = await this.readings.latestValueBefore(run.id, speed.id, at, SPEED_READING_MAX_AGE_MS);
+      if (latest && latest.value > 0) return { rpm: latest.value, source: `speed reading ${speed.code} at ${fmtClock(latest.takenAt)}` };
     }
     return { rpm: ratedSpeedRpm, source: 'rated speed (no speed reading in the 30 minutes before the pass)' };
   }
 
   private async passDtos(rows: MillPass[], bars: MillBar[]): Promise<LoggedPassDto[]> {
     if (!rows.length) return [];
-    const users = await this.db.getRepository(User).find({ where: { id: In([...new Set(rows.map((r) => r.loggedBy))]) } });
-    const name = new Map(users.map((u) => [u.id, u.displayName]));
+    const name = await this.users.displayNames(rows.map((r) => r.loggedBy));
     const barCode = new Map(bars.map((b) => [b.id, b.barCode]));
     return rows.map((p) => ({
       id: p.id,
@@ -468,7 +462,7 @@ export class RollingLogService {
   }
 
   /** Used by lots: a run may be linked only if it exists. */
-  async assertRunExists(runId: string): Promise<Run> {
+  async assertRunExists(runId: string): Promise<RunRecord> {
     return this.runs.get(runId);
   }
 

@@ -9,18 +9,17 @@ import type {
   ScheduleWriteRequest,
 } from '@crankjournal/shared-types';
 import { barLengthM, sectionAreaMm2 } from '../../calculations/rolling.js';
-import type { Engine } from '../engines/engine.entity.js';
-import { User } from '../users/user.entity.js';
+import { UsersService } from '../users/users.service.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { PassSchedule } from './pass-schedule.entity.js';
 import { SchedulePass } from './schedule-pass.entity.js';
 import { CustomerLot } from './customer-lot.entity.js';
 import type { Mill } from './mill.entity.js';
-import { MillService } from './mill.service.js';
+import { MillService, type MillEngine } from './mill.service.js';
 import { calculatePass } from './pass-calculation.js';
 
 /** What a plan assumes where the run will tell the truth later. */
-function planAssumptions(mill: Mill, engine: Engine): string[] {
+function planAssumptions(mill: Mill, engine: MillEngine): string[] {
   const a = [
     `Each pass starts at the engine's rated speed, ${engine.ratedSpeedRpm} rpm (roll speed = engine speed × the stand's ratio).`,
     `Indicated power ${mill.settings.defaultIndicatedHp} hp (site setting), ` +
@@ -39,6 +38,7 @@ export class SchedulesService {
   constructor(
     @InjectDataSource() private readonly db: DataSource,
     private readonly mills: MillService,
+    private readonly users: UsersService,
   ) {}
 
   async getEntity(id: string): Promise<PassSchedule> {
@@ -67,16 +67,14 @@ export class SchedulesService {
   /** Summaries and passes with their calculations, for a set of schedules. */
   private async build(rows: PassSchedule[]): Promise<ScheduleDetail[]> {
     if (!rows.length) return [];
-    const millCache = new Map<string, { mill: Mill; engine: Engine }>();
+    const millCache = new Map<string, { mill: Mill; engine: MillEngine }>();
     const lotIds = [...new Set(rows.map((r) => r.lotId).filter((x): x is string => !!x))];
     const lots = lotIds.length ? await this.db.getRepository(CustomerLot).find({ where: { id: In(lotIds) } }) : [];
     const lotRef = new Map(lots.map((l) => [l.id, l.reference]));
     const templateIds = [...new Set(rows.map((r) => r.templateId).filter((x): x is string => !!x))];
     const templates = templateIds.length ? await this.db.getRepository(PassSchedule).find({ where: { id: In(templateIds) } }) : [];
     const templateName = new Map(templates.map((t) => [t.id, t.name]));
-    const userIds = [...new Set(rows.map((r) => r.createdBy))];
-    const users = await this.db.getRepository(User).find({ where: { id: In(userIds) } });
-    const userName = new Map(users.map((u) => [u.id, u.displayName]));
+    const userName = await this.users.displayNames(rows.map((r) => r.createdBy));
     const out: ScheduleDetail[] = [];
     for (const s of rows) {
       let ctx = millCache.get(s.millId);
@@ -123,7 +121,7 @@ export class SchedulesService {
     return out;
   }
 
-  private passDto(s: PassSchedule, p: SchedulePass, mill: Mill, engine: Engine): SchedulePassDto {
+  private passDto(s: PassSchedule, p: SchedulePass, mill: Mill, engine: MillEngine): SchedulePassDto {
     const stand = (mill.stands ?? []).find((x) => x.position === p.standPosition);
     const base = {
       id: p.id,

@@ -223,6 +223,19 @@ export class ReadingsService {
   }
 
   /**
+   * The latest reading of a point in a run at or before `at` and no older than `maxAgeMs` (an amended value wins);
+   * null when there is none. Used by the mill's rolling log for the engine's speed as a bar entered.
+   */
+  async latestValueBefore(runId: string, pointId: string, at: Date, maxAgeMs: number): Promise<{ value: number; takenAt: Date } | null> {
+    const rows: { v: number; t: Date }[] = await this.db.query(
+      `SELECT COALESCE(amended_value, value) AS v, taken_at AS t FROM readings
+        WHERE run_id = $1 AND point_id = $2 AND taken_at <= $3 AND taken_at >= $4 ORDER BY taken_at DESC LIMIT 1`,
+      [runId, pointId, at, new Date(at.getTime() - maxAgeMs)],
+    );
+    return rows.length ? { value: Number(rows[0].v), takenAt: new Date(rows[0].t) } : null;
+  }
+
+  /**
    * The run's reading of a point of `pointKind` nearest in time to `at` (an amended value wins), no further
    * than `withinMs` away; null when there is none. Used by the indicator cards for speed and pressures.
    */

@@ -32,6 +32,17 @@ const TRANSITION_ROLES: Record<Exclude<RunState, 'planned'>, Role[]> = {
   abandoned: ['operator', 'chief_engineer'],
 };
 
+/** What other modules read of a run (a stored run satisfies it); they never import the entity. */
+export interface RunRecord {
+  id: string;
+  engineId: string;
+  title: string;
+  state: RunState;
+  createdAt: Date;
+  startedAt: Date | null;
+  stoppedAt: Date | null;
+}
+
 @Injectable()
 export class RunsService {
   constructor(
