@@ -1,6 +1,6 @@
 import { BadRequestException, Injectable, Logger, NotFoundException, type OnModuleDestroy, type OnModuleInit } from '@nestjs/common';
-import { InjectDataSource } from '@nestjs/typeorm';
-import { DataSource, EntityManager, In, Not } from 'typeorm';
+import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
+import { DataSource, EntityManager, In, Not, Repository } from 'typeorm';
 import { type AlarmDto, type AlarmKind, ALARM_KIND_WORDS } from '@crankjournal/shared-types';
 import { EnginesService, type EngineWithPoints } from '../engines/engines.service.js';
 import { LiveService } from '../live/live.service.js';
@@ -110,6 +110,7 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
 
   constructor(
     @InjectDataSource() private readonly db: DataSource,
+    @InjectRepository(Alarm) private readonly alarmRepo: Repository<Alarm>,
     private readonly engines: EnginesService,
     private readonly live: LiveService,
     private readonly mail: MailService,
@@ -322,8 +323,7 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
   }
 
   private async emailOnce(a: Alarm) {
-    const claimed = await this.db
-      .getRepository(Alarm)
+    const claimed = await this.alarmRepo
       .createQueryBuilder()
       .update()
       .set({ emailedAt: () => 'now()' })
@@ -407,14 +407,14 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
     if (filter.engineId) where.engineId = filter.engineId;
     if (filter.runId) where.runId = filter.runId;
     if (filter.open) where.state = Not('normal');
-    const rows = await this.db.getRepository(Alarm).find({ where, order: { raisedAt: 'DESC' }, take: 500 });
+    const rows = await this.alarmRepo.find({ where, order: { raisedAt: 'DESC' }, take: 500 });
     return Promise.all(rows.map((a) => this.toDto(a)));
   }
 
   /** Every alarm raised on some points (e.g. one bearing's temperature points), oldest first. */
   async listByPoints(pointIds: string[], limit = 2000): Promise<AlarmDto[]> {
     if (!pointIds.length) return [];
-    const rows = await this.db.getRepository(Alarm).find({ where: { pointId: In(pointIds) }, order: { raisedAt: 'ASC' }, take: limit });
+    const rows = await this.alarmRepo.find({ where: { pointId: In(pointIds) }, order: { raisedAt: 'ASC' }, take: limit });
     return Promise.all(rows.map((a) => this.toDto(a)));
   }
 
@@ -429,11 +429,11 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
 
   /** True when a high-high priority alarm is active (condition present) on the engine. */
   async hasActiveHighHigh(engineId: string): Promise<Alarm[]> {
-    return this.db.getRepository(Alarm).find({ where: { engineId, priority: 'high_high', conditionActive: true, state: Not('normal') } });
+    return this.alarmRepo.find({ where: { engineId, priority: 'high_high', conditionActive: true, state: Not('normal') } });
   }
 
   private async change(alarmId: string, user: AuthUser, build: (a: Alarm) => LifecycleEvent, note?: string): Promise<AlarmDto> {
-    const a0 = await this.db.getRepository(Alarm).findOne({ where: { id: alarmId } });
+    const a0 = await this.alarmRepo.findOne({ where: { id: alarmId } });
     if (!a0) throw new NotFoundException('No such alarm.');
     if (this.ackPolicy) await this.ackPolicy.assertMayAcknowledge(user, a0);
     const engineId = a0.engineId;
@@ -474,11 +474,7 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
 
   /** Shelved alarms whose time is up go back to their real state. */
   async expireShelves() {
-    const due = await this.db
-      .getRepository(Alarm)
-      .createQueryBuilder('a')
-      .where(`a.state = 'shelved' AND a.shelved_until <= now()`)
-      .getMany();
+    const due = await this.alarmRepo.createQueryBuilder('a').where(`a.state = 'shelved' AND a.shelved_until <= now()`).getMany();
     for (const a0 of due) {
       // Decided on the row as it is now (locked): the readings may have changed its condition since.
       const a = await this.db.transaction(async (m) => {
@@ -515,7 +511,7 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
   }
 
   async get(id: string): Promise<Alarm> {
-    const a = await this.db.getRepository(Alarm).findOne({ where: { id } });
+    const a = await this.alarmRepo.findOne({ where: { id } });
     if (!a) throw new NotFoundException('No such alarm.');
     return a;
   }

@@ -1,6 +1,6 @@
 import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
-import { InjectDataSource } from '@nestjs/typeorm';
-import { DataSource, In } from 'typeorm';
+import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
+import { DataSource, In, Repository } from 'typeorm';
 import {
   RUN_STATE_LABELS,
   RUN_STATES_LOGGING_PASSES,
@@ -49,6 +49,12 @@ function fmtClock(d: Date): string {
 export class RollingLogService {
   constructor(
     @InjectDataSource() private readonly db: DataSource,
+    @InjectRepository(CustomerLot) private readonly customerLotRepo: Repository<CustomerLot>,
+    @InjectRepository(LotRun) private readonly lotRunRepo: Repository<LotRun>,
+    @InjectRepository(MillBar) private readonly millBarRepo: Repository<MillBar>,
+    @InjectRepository(MillPass) private readonly millPassRepo: Repository<MillPass>,
+    @InjectRepository(PassSchedule) private readonly passScheduleRepo: Repository<PassSchedule>,
+    @InjectRepository(SchedulePass) private readonly schedulePassRepo: Repository<SchedulePass>,
     private readonly mills: MillService,
     private readonly runs: RunsService,
     private readonly readings: ReadingsService,
@@ -154,16 +160,14 @@ export class RollingLogService {
     if (where.runId) w.runId = where.runId;
     if (where.lotId) w.lotId = where.lotId;
     if (where.ids) w.id = In(where.ids);
-    const bars = await this.db.getRepository(MillBar).find({ where: w, order: { createdAt: 'ASC', barCode: 'ASC' } });
+    const bars = await this.millBarRepo.find({ where: w, order: { createdAt: 'ASC', barCode: 'ASC' } });
     if (!bars.length) return [];
-    const passes = await this.db
-      .getRepository(MillPass)
-      .find({ where: { barId: In(bars.map((b) => b.id)) }, order: { passNumber: 'ASC' } });
+    const passes = await this.millPassRepo.find({ where: { barId: In(bars.map((b) => b.id)) }, order: { passNumber: 'ASC' } });
     const passDtos = await this.passDtos(passes, bars);
     const scheduleIds = [...new Set(bars.map((b) => b.scheduleId).filter((x): x is string => !!x))];
-    const schedules = scheduleIds.length ? await this.db.getRepository(PassSchedule).find({ where: { id: In(scheduleIds) } }) : [];
+    const schedules = scheduleIds.length ? await this.passScheduleRepo.find({ where: { id: In(scheduleIds) } }) : [];
     const lotIds = [...new Set(bars.map((b) => b.lotId).filter((x): x is string => !!x))];
-    const lots = lotIds.length ? await this.db.getRepository(CustomerLot).find({ where: { id: In(lotIds) } }) : [];
+    const lots = lotIds.length ? await this.customerLotRepo.find({ where: { id: In(lotIds) } }) : [];
     return bars.map((b) => ({
       id: b.id,
       runId: b.runId,
@@ -201,17 +205,17 @@ export class RollingLogService {
     const mill = await this.millOfRun(run);
     let schedule: PassSchedule | null = null;
     if (dto.scheduleId) {
-      schedule = await this.db.getRepository(PassSchedule).findOne({ where: { id: dto.scheduleId } });
+      schedule = await this.passScheduleRepo.findOne({ where: { id: dto.scheduleId } });
       if (!schedule) throw new BadRequestException('scheduleId names no pass schedule.');
     }
     const stock = dto.stock ?? schedule?.stock;
     const stockLengthMm = dto.stockLengthMm ?? schedule?.stockLengthMm;
     if (!stock || !stockLengthMm)
       throw new BadRequestException('Give the stock size and length, or choose the pass schedule the bar follows.');
-    if (dto.lotId && !(await this.db.getRepository(CustomerLot).exists({ where: { id: dto.lotId } })))
+    if (dto.lotId && !(await this.customerLotRepo.exists({ where: { id: dto.lotId } })))
       throw new BadRequestException('lotId names no customer lot.');
     const code = dto.barCode.trim();
-    if (await this.db.getRepository(MillBar).exists({ where: { runId, barCode: code } }))
+    if (await this.millBarRepo.exists({ where: { runId, barCode: code } }))
       throw new ConflictException(`Bar ${code} is already logged on this run; give the next bar its own id.`);
     const saved = await this.db.transaction(async (m) => {
       const b = await m.save(
@@ -237,11 +241,11 @@ export class RollingLogService {
   }
 
   async updateBar(barId: string, dto: UpdateBarRequest, user: AuthUser): Promise<BarDto> {
-    const bar = await this.db.getRepository(MillBar).findOne({ where: { id: barId } });
+    const bar = await this.millBarRepo.findOne({ where: { id: barId } });
     if (!bar) throw new NotFoundException('No such bar.');
     const run = await this.runs.get(bar.runId);
     this.runs.assertOpen(run);
-    if (dto.lotId && !(await this.db.getRepository(CustomerLot).exists({ where: { id: dto.lotId } })))
+    if (dto.lotId && !(await this.customerLotRepo.exists({ where: { id: dto.lotId } })))
       throw new BadRequestException('lotId names no customer lot.');
     const patch: Partial<MillBar> = {};
     if (dto.lotId !== undefined) patch.lotId = dto.lotId;
@@ -281,10 +285,10 @@ export class RollingLogService {
     user: Pick<AuthUser, 'id'>,
     opts: { allowClosedRun?: boolean } = {},
   ): Promise<LoggedPassDto> {
-    const bar = await this.db.getRepository(MillBar).findOne({ where: { id: barId } });
+    const bar = await this.millBarRepo.findOne({ where: { id: barId } });
     if (!bar) throw new NotFoundException('No such bar.');
     if (dto.clientId) {
-      const dup = await this.db.getRepository(MillPass).findOne({ where: { clientId: dto.clientId } });
+      const dup = await this.millPassRepo.findOne({ where: { clientId: dto.clientId } });
       if (dup) {
         if (dup.barId !== barId) throw new ConflictException('That clientId was used for a pass of another bar.');
         return (await this.passDtos([dup], [bar]))[0];
@@ -302,12 +306,12 @@ export class RollingLogService {
       if (run.startedAt && at < run.startedAt)
         throw new BadRequestException(`at is before the run started (${run.startedAt.toISOString()}).`);
     }
-    if (await this.db.getRepository(MillPass).exists({ where: { barId, passNumber: dto.passNumber } }))
+    if (await this.millPassRepo.exists({ where: { barId, passNumber: dto.passNumber } }))
       throw new ConflictException(`Pass ${dto.passNumber} of bar ${bar.barCode} is already logged. Log the next pass number.`);
     const planned = bar.scheduleId
-      ? await this.db.getRepository(SchedulePass).findOne({ where: { scheduleId: bar.scheduleId, seq: dto.passNumber } })
+      ? await this.schedulePassRepo.findOne({ where: { scheduleId: bar.scheduleId, seq: dto.passNumber } })
       : null;
-    const previous = await this.db.getRepository(MillPass).findOne({ where: { barId }, order: { passNumber: 'DESC' } });
+    const previous = await this.millPassRepo.findOne({ where: { barId }, order: { passNumber: 'DESC' } });
     const entry: SectionDto = dto.entry ?? planned?.entry ?? (previous && previous.passNumber < dto.passNumber ? previous.exit : bar.stock);
     const speed = await this.speedAt(run, engine.ratedSpeedRpm, at);
     const ihp = await this.power.forRun(run.id, mill, at);
@@ -337,8 +341,8 @@ export class RollingLogService {
           }
         : null,
     });
-    const row = await this.db.getRepository(MillPass).save(
-      this.db.getRepository(MillPass).create({
+    const row = await this.millPassRepo.save(
+      this.millPassRepo.create({
         clientId: dto.clientId ?? null,
         barId,
         runId: bar.runId,
@@ -363,11 +367,11 @@ export class RollingLogService {
   /** Carbon for the flow stress: the bar's schedule, else its lot, else 0.2 % (mild steel) when neither names one. */
   private async carbonOf(bar: MillBar): Promise<number> {
     if (bar.scheduleId) {
-      const s = await this.db.getRepository(PassSchedule).findOne({ where: { id: bar.scheduleId } });
+      const s = await this.passScheduleRepo.findOne({ where: { id: bar.scheduleId } });
       if (s) return s.carbonPct;
     }
     if (bar.lotId) {
-      const l = await this.db.getRepository(CustomerLot).findOne({ where: { id: bar.lotId } });
+      const l = await this.customerLotRepo.findOne({ where: { id: bar.lotId } });
       if (l?.carbonPct !== null && l?.carbonPct !== undefined) return l.carbonPct;
     }
     return 0.2;
@@ -441,7 +445,7 @@ export class RollingLogService {
 
   /** The bars of a lot (for the lot's page). */
   async lotBars(lotId: string) {
-    const bars = await this.db.getRepository(MillBar).find({ where: { lotId }, order: { createdAt: 'ASC' } });
+    const bars = await this.millBarRepo.find({ where: { lotId }, order: { createdAt: 'ASC' } });
     if (!bars.length) return [];
     const counts: { bar_id: string; n: number }[] = await this.db.query(
       `SELECT bar_id, count(*)::int AS n FROM mill_passes WHERE bar_id = ANY($1) GROUP BY bar_id`,
@@ -467,6 +471,6 @@ export class RollingLogService {
   }
 
   linkedRunIds(lotId: string): Promise<LotRun[]> {
-    return this.db.getRepository(LotRun).find({ where: { lotId }, order: { linkedAt: 'ASC' } });
+    return this.lotRunRepo.find({ where: { lotId }, order: { linkedAt: 'ASC' } });
   }
 }

@@ -1,6 +1,6 @@
 import { BadRequestException, HttpException, Injectable, NotFoundException } from '@nestjs/common';
-import { InjectDataSource } from '@nestjs/typeorm';
-import { DataSource, In } from 'typeorm';
+import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
+import { DataSource, In, Repository } from 'typeorm';
 import type {
   ScheduleCopyRequest,
   ScheduleDetail,
@@ -37,12 +37,14 @@ function planAssumptions(mill: Mill, engine: MillEngine): string[] {
 export class SchedulesService {
   constructor(
     @InjectDataSource() private readonly db: DataSource,
+    @InjectRepository(CustomerLot) private readonly customerLotRepo: Repository<CustomerLot>,
+    @InjectRepository(PassSchedule) private readonly passScheduleRepo: Repository<PassSchedule>,
     private readonly mills: MillService,
     private readonly users: UsersService,
   ) {}
 
   async getEntity(id: string): Promise<PassSchedule> {
-    const s = await this.db.getRepository(PassSchedule).findOne({ where: { id }, relations: { passes: true } });
+    const s = await this.passScheduleRepo.findOne({ where: { id }, relations: { passes: true } });
     if (!s) throw new NotFoundException('No such pass schedule.');
     s.passes = [...(s.passes ?? [])].sort((a, b) => a.seq - b.seq);
     return s;
@@ -52,9 +54,7 @@ export class SchedulesService {
     const where: Record<string, unknown> = {};
     if (filter.millId) where.millId = filter.millId;
     if (filter.templates !== undefined) where.isTemplate = filter.templates;
-    const rows = await this.db
-      .getRepository(PassSchedule)
-      .find({ where, relations: { passes: true }, order: { isTemplate: 'DESC', name: 'ASC' } });
+    const rows = await this.passScheduleRepo.find({ where, relations: { passes: true }, order: { isTemplate: 'DESC', name: 'ASC' } });
     const details = await this.build(rows);
     return details.map(({ passes, notes, totalElongation, finalLengthM, assumptions, createdByName, createdAt, ...summary }) => summary);
   }
@@ -69,10 +69,10 @@ export class SchedulesService {
     if (!rows.length) return [];
     const millCache = new Map<string, { mill: Mill; engine: MillEngine }>();
     const lotIds = [...new Set(rows.map((r) => r.lotId).filter((x): x is string => !!x))];
-    const lots = lotIds.length ? await this.db.getRepository(CustomerLot).find({ where: { id: In(lotIds) } }) : [];
+    const lots = lotIds.length ? await this.customerLotRepo.find({ where: { id: In(lotIds) } }) : [];
     const lotRef = new Map(lots.map((l) => [l.id, l.reference]));
     const templateIds = [...new Set(rows.map((r) => r.templateId).filter((x): x is string => !!x))];
-    const templates = templateIds.length ? await this.db.getRepository(PassSchedule).find({ where: { id: In(templateIds) } }) : [];
+    const templates = templateIds.length ? await this.passScheduleRepo.find({ where: { id: In(templateIds) } }) : [];
     const templateName = new Map(templates.map((t) => [t.id, t.name]));
     const userName = await this.users.displayNames(rows.map((r) => r.createdBy));
     const out: ScheduleDetail[] = [];
@@ -177,7 +177,7 @@ export class SchedulesService {
     const missing = [...new Set(dto.passes.map((p) => p.standPosition).filter((p) => !positions.has(p)))];
     if (missing.length)
       throw new BadRequestException(`${mill.name} has no stand ${missing.join(', ')}; its stands are ${[...positions].sort().join(', ')}.`);
-    if (dto.lotId && !(await this.db.getRepository(CustomerLot).exists({ where: { id: dto.lotId } })))
+    if (dto.lotId && !(await this.customerLotRepo.exists({ where: { id: dto.lotId } })))
       throw new BadRequestException('lotId names no customer lot.');
     return mill;
   }

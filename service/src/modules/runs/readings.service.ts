@@ -1,6 +1,6 @@
 import { Injectable, NotFoundException, BadRequestException } from '@nestjs/common';
-import { InjectDataSource } from '@nestjs/typeorm';
-import { DataSource, In } from 'typeorm';
+import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
+import { DataSource, In, Repository } from 'typeorm';
 import type { AmendmentDto, BoardPoint, MeasurementKind, ReadingDto } from '@crankjournal/shared-types';
 import { UsersService } from '../users/users.service.js';
 import { LiveService } from '../live/live.service.js';
@@ -27,6 +27,8 @@ export interface PointRunStat {
 export class ReadingsService {
   constructor(
     @InjectDataSource() private readonly db: DataSource,
+    @InjectRepository(Reading) private readonly readingRepo: Repository<Reading>,
+    @InjectRepository(ReadingAmendment) private readonly readingAmendmentRepo: Repository<ReadingAmendment>,
     private readonly runs: RunsService,
     private readonly live: LiveService,
     private readonly alarms: AlarmsService,
@@ -36,7 +38,7 @@ export class ReadingsService {
 
   async list(runId: string, filter: { since?: string; pointId?: string; limit?: number }): Promise<ReadingDto[]> {
     await this.runs.get(runId);
-    const qb = this.db.getRepository(Reading).createQueryBuilder('r').where('r.runId = :runId', { runId });
+    const qb = this.readingRepo.createQueryBuilder('r').where('r.runId = :runId', { runId });
     if (filter.since) qb.andWhere('r.receivedAt > :since', { since: new Date(filter.since) });
     if (filter.pointId) qb.andWhere('r.pointId = :pointId', { pointId: filter.pointId });
     const rows = await qb
@@ -50,7 +52,7 @@ export class ReadingsService {
   private async toDtos(rows: Reading[]): Promise<ReadingDto[]> {
     const amendedIds = rows.filter((r) => r.amendedValue !== null).map((r) => r.id);
     const amendments = amendedIds.length
-      ? await this.db.getRepository(ReadingAmendment).find({ where: { readingId: In(amendedIds) }, order: { at: 'ASC' } })
+      ? await this.readingAmendmentRepo.find({ where: { readingId: In(amendedIds) }, order: { at: 'ASC' } })
       : [];
     const userIds = [...new Set([...rows.map((r) => r.enteredBy).filter((x): x is string => !!x), ...amendments.map((a) => a.byUser)])];
     const name = await this.users.displayNames(userIds);
@@ -129,7 +131,7 @@ export class ReadingsService {
   /** A correction: the original stays, the amendment records the new value, reason, who and when. */
   async amend(readingId: string, value: number, reason: string, user: AuthUser): Promise<ReadingDto> {
     if (!/^\d{1,18}$/.test(readingId)) throw new BadRequestException('id must be a reading number');
-    const r0 = await this.db.getRepository(Reading).findOne({ where: { id: readingId } });
+    const r0 = await this.readingRepo.findOne({ where: { id: readingId } });
     if (!r0) throw new NotFoundException('No such reading.');
     const run = await this.runs.get(r0.runId);
     this.runs.assertOpen(run);
@@ -152,7 +154,7 @@ export class ReadingsService {
       });
       await m.update(Reading, { id: readingId }, { amendedValue: value });
     });
-    const [dto] = await this.toDtos([(await this.db.getRepository(Reading).findOne({ where: { id: readingId } }))!]);
+    const [dto] = await this.toDtos([(await this.readingRepo.findOne({ where: { id: readingId } }))!]);
     this.live.emitToRoom(`run:${r0.runId}`, 'reading:amended', dto);
     return dto;
   }
@@ -161,8 +163,7 @@ export class ReadingsService {
   async *iterate(runId: string, pageSize = 5000): AsyncGenerator<Reading[]> {
     let after = '0';
     for (;;) {
-      const page = await this.db
-        .getRepository(Reading)
+      const page = await this.readingRepo
         .createQueryBuilder('r')
         .where('r.runId = :runId AND r.id > :after', { runId, after })
         .orderBy('r.id', 'ASC')
@@ -218,7 +219,7 @@ export class ReadingsService {
 
   amendmentsOf(readingIds: string[]) {
     return readingIds.length
-      ? this.db.getRepository(ReadingAmendment).find({ where: { readingId: In(readingIds) }, order: { at: 'ASC' } })
+      ? this.readingAmendmentRepo.find({ where: { readingId: In(readingIds) }, order: { at: 'ASC' } })
       : Promise.resolve([]);
   }
 

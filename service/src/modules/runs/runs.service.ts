@@ -1,6 +1,6 @@
 import { BadRequestException, ConflictException, ForbiddenException, HttpException, Injectable, NotFoundException } from '@nestjs/common';
-import { InjectDataSource } from '@nestjs/typeorm';
-import { DataSource, In, Not } from 'typeorm';
+import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
+import { DataSource, In, Not, Repository } from 'typeorm';
 import {
   RUN_STATE_LABELS,
   RUN_STATES_TAKING_READINGS,
@@ -47,6 +47,8 @@ export interface RunRecord {
 export class RunsService {
   constructor(
     @InjectDataSource() private readonly db: DataSource,
+    @InjectRepository(Run) private readonly runRepo: Repository<Run>,
+    @InjectRepository(RunStateChange) private readonly runStateChangeRepo: Repository<RunStateChange>,
     private readonly engines: EnginesService,
     private readonly gate: StartGateService,
     private readonly live: LiveService,
@@ -56,7 +58,7 @@ export class RunsService {
   ) {}
 
   async get(id: string): Promise<Run> {
-    const r = await this.db.getRepository(Run).findOne({ where: { id } });
+    const r = await this.runRepo.findOne({ where: { id } });
     if (!r) throw new NotFoundException('No such run.');
     return r;
   }
@@ -78,7 +80,7 @@ export class RunsService {
     const where: Record<string, unknown> = {};
     if (filter.engineId) where.engineId = filter.engineId;
     if (filter.state) where.state = filter.state;
-    const runs = await this.db.getRepository(Run).find({ where, order: { createdAt: 'DESC' }, take: 300 });
+    const runs = await this.runRepo.find({ where, order: { createdAt: 'DESC' }, take: 300 });
     return this.summaries(runs);
   }
 
@@ -127,7 +129,7 @@ export class RunsService {
   async detail(id: string): Promise<RunDetail> {
     const r = await this.get(id);
     const [summary] = await this.summaries([r]);
-    const history = await this.db.getRepository(RunStateChange).find({ where: { runId: id }, order: { at: 'ASC' } });
+    const history = await this.runStateChangeRepo.find({ where: { runId: id }, order: { at: 'ASC' } });
     const userIds = [...new Set([...r.crewIds, ...history.map((h) => h.byUser), ...(r.countersignedBy ? [r.countersignedBy] : [])])];
     const name = await this.users.displayNames(userIds);
     const peaks: { point_id: string; max: number; min: number; unit: string }[] = await this.db.query(
@@ -196,7 +198,7 @@ export class RunsService {
     if (dto.plannedFor !== undefined) patch.plannedFor = dto.plannedFor;
     if (dto.crewIds !== undefined) patch.crewIds = [...new Set(dto.crewIds)];
     if (dto.notes !== undefined) patch.notes = dto.notes;
-    await this.db.getRepository(Run).update({ id }, patch);
+    await this.runRepo.update({ id }, patch);
     void user;
     return this.broadcast(id);
   }
@@ -305,8 +307,6 @@ export class RunsService {
 
   /** The run an engine is preparing or running now (for loggers that do not name a run). */
   async activeRunOf(engineId: string): Promise<Run | null> {
-    return this.db
-      .getRepository(Run)
-      .findOne({ where: { engineId, state: In(RUN_STATES_TAKING_READINGS as RunState[]) }, order: { createdAt: 'DESC' } });
+    return this.runRepo.findOne({ where: { engineId, state: In(RUN_STATES_TAKING_READINGS as RunState[]) }, order: { createdAt: 'DESC' } });
   }
 }
