@@ -4,6 +4,7 @@
  * arithmetic done by hand beside each case, and unit conversions against mathjs (npm reference library).
  */
 import { create, all } from 'mathjs';
+import { mawpInPointUnit } from '../../calculations/units.js';
 import {
   ALARM_CAUTION,
   ALARM_CONDITION_KINDS,
@@ -16,7 +17,6 @@ import {
   decideHighSide,
   decideLowSide,
   evaluateReading,
-  mawpInPointUnit,
   priorityOf,
   riseRatePerMinute,
   validateReadingValue,
@@ -346,6 +346,17 @@ describe('above maximum allowable working pressure', () => {
     expectRelClose(mawpInPointUnit(150, 'kPa abs'), abs);
   });
 
+  it('checks a point measured in bar (gauge): 150 psi in bar (mathjs) is its MAWP limit', () => {
+    // Before the unit rules were merged, 'bar' was no pressure unit to the alarm rules: no MAWP check at all.
+    const limitBar = math.unit(150, 'psi').toNumber('bar');
+    expectRelClose(mawpInPointUnit(150, 'bar'), limitBar);
+    const bar = { ...throttle, unit: 'bar' };
+    const below = decision(evaluate(bar, limitBar - 0.01), 'above_mawp');
+    expect(below.evaluated).toBe(true);
+    expect(below.action).toBe('hold');
+    expect(decision(evaluate(bar, limitBar + 0.01), 'above_mawp').action).toBe('raise');
+  });
+
   it('says so instead of guessing when the unit cannot be compared', () => {
     const d = decision(evaluate({ ...throttle, unit: 'furlongs' }, 999), 'above_mawp');
     expect(d.evaluated).toBe(false);
@@ -419,6 +430,12 @@ describe('validateReadingValue', () => {
     const atmKpa = math.unit(1, 'atm').toNumber('kPa');
     expect(validateReadingValue(p('kPa'), -atmKpa + 0.01)).toBeNull();
     expect(validateReadingValue(p('kPa'), -atmKpa - 0.01)).toMatch(/vacuum/);
+  });
+
+  it('a point in bar gets the same check: one atmosphere is 1.01325 bar (mathjs atm → bar)', () => {
+    const atmBar = math.unit(1, 'atm').toNumber('bar');
+    expect(validateReadingValue(p('bar'), -atmBar + 0.001)).toBeNull();
+    expect(validateReadingValue(p('bar'), -atmBar - 0.001)).toMatch(/vacuum/);
   });
 
   it('vacuum in inHg must be 0..30; a standard atmosphere is just under 30 inHg (mathjs atm → mmHg ÷ 25.4)', () => {

@@ -19,8 +19,15 @@
  * All limits are per-point (or per-engine) settings chosen by the chief engineer; none of them
  * comes from a published source.
  */
-import { UNIT_LABELS } from '@crankjournal/shared-types';
-import { KPA_PER_PSI, STANDARD_ATMOSPHERE_KPA, celsiusToFahrenheit, psigToPsia } from '../../calculations/units.js';
+import {
+  absoluteKpaOf,
+  celsiusToFahrenheit,
+  isRpm,
+  mawpInPointUnit,
+  pressureScaleOf,
+  temperatureScaleOf,
+  unitLabel,
+} from '../../calculations/units.js';
 
 /** Shown beside pressure, speed and bearing alarms. */
 export const ALARM_CAUTION =
@@ -167,85 +174,6 @@ export function priorityOf(kind: AlarmConditionKind): AlarmPriority {
 }
 
 // ---------------------------------------------------------------------------------------------
-// Units recognised in point settings
-// ---------------------------------------------------------------------------------------------
-
-export type PressureScale = 'psig' | 'psia' | 'kPa_gauge' | 'kPa_abs' | 'inHg_vacuum';
-export type TemperatureScale = 'F' | 'C';
-
-function normaliseUnit(unit: string): string {
-  return unit.toLowerCase().replace(/[\s().]/g, '');
-}
-
-/** Which pressure scale a unit string names, or null when it is not a pressure unit we know. */
-export function pressureScaleOf(unit: string): PressureScale | null {
-  switch (normaliseUnit(unit)) {
-    case 'psig':
-    case 'psi':
-    case 'lb/in2':
-      return 'psig';
-    case 'psia':
-      return 'psia';
-    case 'kpa':
-    case 'kpag':
-    case 'kpagauge':
-      return 'kPa_gauge';
-    case 'kpaa':
-    case 'kpaabs':
-    case 'kpaabsolute':
-      return 'kPa_abs';
-    case 'inhg':
-    case 'inhgvac':
-    case 'inhgvacuum':
-      return 'inHg_vacuum';
-    default:
-      return null;
-  }
-}
-
-/** 'F' or 'C' for a temperature unit string, else null. */
-export function temperatureScaleOf(unit: string): TemperatureScale | null {
-  switch (normaliseUnit(unit)) {
-    case '°f':
-    case 'degf':
-    case 'f':
-    case 'ºf':
-      return 'F';
-    case '°c':
-    case 'degc':
-    case 'c':
-    case 'ºc':
-      return 'C';
-    default:
-      return null;
-  }
-}
-
-function isRpm(unit: string): boolean {
-  const u = normaliseUnit(unit);
-  return u === 'rpm' || u === 'r/min' || u === 'rev/min';
-}
-
-/**
- * The engine's MAWP (psig) expressed in a pressure point's own unit, or null when that unit cannot
- * be compared with a gauge steam pressure.
- */
-export function mawpInPointUnit(mawpPsig: number, unit: string): number | null {
-  switch (pressureScaleOf(unit)) {
-    case 'psig':
-      return mawpPsig;
-    case 'psia':
-      return psigToPsia(mawpPsig);
-    case 'kPa_gauge':
-      return mawpPsig * KPA_PER_PSI;
-    case 'kPa_abs':
-      return psigToPsia(mawpPsig) * KPA_PER_PSI;
-    default:
-      return null;
-  }
-}
-
-// ---------------------------------------------------------------------------------------------
 // Reading plausibility
 // ---------------------------------------------------------------------------------------------
 
@@ -255,7 +183,7 @@ function fmt(n: number): string {
 }
 
 function withUnit(n: number, unit: string): string {
-  const label = UNIT_LABELS[unit] ?? unit;
+  const label = unitLabel(unit);
   return label ? `${fmt(n)} ${label}` : fmt(n);
 }
 
@@ -269,39 +197,38 @@ export function validateReadingValue(point: MeasurementPointSettings, value: num
   if (!Number.isFinite(value)) {
     return `${point.name}: the reading is not a number.`;
   }
-  switch (pressureScaleOf(point.unit)) {
-    case 'psia':
-    case 'kPa_abs':
-      if (value < 0) return `${point.name}: ${withUnit(value, point.unit)} is impossible — absolute pressure cannot be negative.`;
-      break;
-    case 'psig':
-      if (psigToPsia(value) < 0) {
-        return `${point.name}: ${withUnit(value, point.unit)} is impossible — it is below a perfect vacuum.`;
-      }
-      break;
-    case 'kPa_gauge':
-      if (value + STANDARD_ATMOSPHERE_KPA < 0) {
-        return `${point.name}: ${withUnit(value, point.unit)} is impossible — it is below a perfect vacuum.`;
-      }
-      break;
-    case 'inHg_vacuum':
-      if (value < VACUUM_RANGE_INHG.min || value > VACUUM_RANGE_INHG.max) {
-        return `${point.name}: ${withUnit(value, point.unit)} is outside the vacuum gauge range ${VACUUM_RANGE_INHG.min}–${VACUUM_RANGE_INHG.max} inHg.`;
-      }
-      break;
-    case null:
-      break;
+  const pressureScale = pressureScaleOf(point.unit);
+  if (pressureScale === 'inHg_vacuum') {
+    if (value < VACUUM_RANGE_INHG.min || value > VACUUM_RANGE_INHG.max) {
+      return (
+        `${point.name}: ${withUnit(value, point.unit)} is outside the vacuum gauge range ` +
+        `${VACUUM_RANGE_INHG.min}–${VACUUM_RANGE_INHG.max} inHg.`
+      );
+    }
+  } else if (pressureScale !== null) {
+    const absoluteKpa = absoluteKpaOf(value, pressureScale);
+    if (absoluteKpa !== null && absoluteKpa < 0) {
+      return pressureScale === 'psia' || pressureScale === 'kPa_abs'
+        ? `${point.name}: ${withUnit(value, point.unit)} is impossible — absolute pressure cannot be negative.`
+        : `${point.name}: ${withUnit(value, point.unit)} is impossible — it is below a perfect vacuum.`;
+    }
   }
   const scale = temperatureScaleOf(point.unit);
   if (scale !== null) {
     const valueF = scale === 'F' ? value : celsiusToFahrenheit(value);
     if (valueF < TEMPERATURE_SENSOR_RANGE_F.min || valueF > TEMPERATURE_SENSOR_RANGE_F.max) {
-      return `${point.name}: ${withUnit(value, point.unit)} is outside the sensor range (${TEMPERATURE_SENSOR_RANGE_F.min} to ${TEMPERATURE_SENSOR_RANGE_F.max} °F).`;
+      return (
+        `${point.name}: ${withUnit(value, point.unit)} is outside the sensor range ` +
+        `(${TEMPERATURE_SENSOR_RANGE_F.min} to ${TEMPERATURE_SENSOR_RANGE_F.max} °F).`
+      );
     }
   }
   if (point.kind === 'speed' || isRpm(point.unit)) {
     if (value < SPEED_RANGE_RPM.min || value > SPEED_RANGE_RPM.max) {
-      return `${point.name}: ${withUnit(value, point.unit)} is outside the plausible speed range ${SPEED_RANGE_RPM.min}–${SPEED_RANGE_RPM.max} rpm.`;
+      return (
+        `${point.name}: ${withUnit(value, point.unit)} is outside the plausible speed range ` +
+        `${SPEED_RANGE_RPM.min}–${SPEED_RANGE_RPM.max} rpm.`
+      );
     }
   }
   return null;
@@ -397,7 +324,8 @@ function levelDecision(check: LevelCheck, active: boolean, deadband: number, sub
   } else if (action === 'clear') {
     message =
       deadband > 0
-        ? `${subject} is back to normal: ${direction} ${check.limitName} ${withUnit(check.limit, check.unit)} less its deadband (${withUnit(clearAt, check.unit)}).`
+        ? `${subject} is back to normal: ${direction} ${check.limitName} ${withUnit(check.limit, check.unit)} ` +
+          `less its deadband (${withUnit(clearAt, check.unit)}).`
         : `${subject} is back to normal: ${direction} ${check.limitName} ${withUnit(check.limit, check.unit)}.`;
   } else if (active) {
     message = `${check.raised} Still in alarm until ${direction} ${withUnit(clearAt, check.unit)}.`;
@@ -577,12 +505,15 @@ export function evaluateReading(ctx: EvaluateReadingContext): ConditionDecision[
           'rate_of_rise',
           maxRate,
           rateUnit,
-          `${name}: rate of rise not checked — it needs an earlier reading at least ${fmt(minSpan)} min before this one and within the last ${fmt(windowMinutes)} min.`,
+          `${name}: rate of rise not checked — it needs an earlier reading at least ${fmt(minSpan)} min before this one ` +
+            `and within the last ${fmt(windowMinutes)} min.`,
         ),
       );
     } else {
       const action = decideHighSide(isActiveRate, rate.ratePerMin, maxRate, 0);
-      const over = `${name} is rising at ${withUnit(rate.ratePerMin, rateUnit)} over the last ${fmt(rate.spanMinutes)} min (${withUnit(rate.fromValue, unit)} to ${withUnit(value, unit)})`;
+      const over =
+        `${name} is rising at ${withUnit(rate.ratePerMin, rateUnit)} over the last ${fmt(rate.spanMinutes)} min ` +
+        `(${withUnit(rate.fromValue, unit)} to ${withUnit(value, unit)})`;
       const message =
         action === 'raise' || (action === 'hold' && isActiveRate)
           ? `${over}, above its limit ${withUnit(maxRate, rateUnit)}.`
@@ -621,7 +552,8 @@ export function evaluateReading(ctx: EvaluateReadingContext): ConditionDecision[
         action === 'raise' || (action === 'hold' && isActiveAmbient)
           ? `${base}, more than the allowed ${withUnit(maxRise, unit)}.`
           : action === 'clear'
-            ? `${base}; back within the allowed ${withUnit(maxRise, unit)}${deadband > 0 ? ` less its deadband ${withUnit(deadband, unit)}` : ''}.`
+            ? `${base}; back within the allowed ${withUnit(maxRise, unit)}` +
+              `${deadband > 0 ? ` less its deadband ${withUnit(deadband, unit)}` : ''}.`
             : `${base}; within the allowed ${withUnit(maxRise, unit)}.`;
       out.push({
         kind: 'above_ambient',

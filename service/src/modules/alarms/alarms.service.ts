@@ -1,14 +1,13 @@
 import { BadRequestException, Injectable, Logger, NotFoundException, type OnModuleDestroy, type OnModuleInit } from '@nestjs/common';
-import { InjectDataSource } from '@nestjs/typeorm';
-import { DataSource, EntityManager, In, Not } from 'typeorm';
+import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
+import { DataSource, EntityManager, In, Not, Repository } from 'typeorm';
 import { type AlarmDto, type AlarmKind, ALARM_KIND_WORDS } from '@crankjournal/shared-types';
-import { EnginesService } from '../engines/engines.service.js';
-import type { MeasurementPoint } from '../engines/measurement-point.entity.js';
+import { EnginesService, type EngineWithPoints } from '../engines/engines.service.js';
 import { LiveService } from '../live/live.service.js';
 import { MailService } from '../mail/mail.service.js';
 import { UsersService } from '../users/users.service.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
-import { celsiusToFahrenheit, fahrenheitToCelsius } from '../../calculations/units.js';
+import { temperatureInUnit } from '../../calculations/units.js';
 import { AppConfig } from '../../config/app-config.service.js';
 import {
   AlarmTransitionError,
@@ -17,9 +16,14 @@ import {
   type AlarmEvent as LifecycleEvent,
   type AlarmLifecycle,
 } from './alarm-lifecycle.js';
-import { evaluateReading, type PointReading } from './alarm-rules.js';
+import { evaluateReading, validateReadingValue, type MeasurementPointSettings, type PointReading } from './alarm-rules.js';
 import { AlarmEvent } from './alarm-event.entity.js';
 import { Alarm } from './alarm.entity.js';
+
+/** A measurement point as the engines module hands it out. */
+type EnginePoint = EngineWithPoints['points'][number];
+/** One reading of a point, as the alarm rules take it (for modules that keep recent history). */
+export type { PointReading };
 
 /** Rate of rise is judged over this window, long enough to hold two hand-taken rounds. */
 export const RATE_WINDOW_MINUTES = 15;
@@ -106,6 +110,7 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
 
   constructor(
     @InjectDataSource() private readonly db: DataSource,
+    @InjectRepository(Alarm) private readonly alarmRepo: Repository<Alarm>,
     private readonly engines: EnginesService,
     private readonly live: LiveService,
     private readonly mail: MailService,
@@ -175,7 +180,7 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
     const sorted = [...readings].sort((a, b) => a.takenAt.getTime() - b.takenAt.getTime());
     // Built once per call rather than once per reading (a logger batch holds thousands of readings).
     const engineLimits = { maximumAllowableWorkingPressurePsig: engine.mawpPsig, overspeedRpm: engine.overspeedRpm };
-    const settingsById = new Map<string, MeasurementPoint & { name: string }>();
+    const settingsById = new Map<string, EnginePoint & { name: string }>();
     for (const r of sorted) {
       const point = pointById.get(r.pointId);
       if (!point) continue;
@@ -283,13 +288,9 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
     return { changed: [...changed.values()], raised, raisedReadingIds, toEmail };
   }
 
-  private ambientIn(st: EngineState, point: MeasurementPoint): number | null {
+  private ambientIn(st: EngineState, point: EnginePoint): number | null {
     if (!st.ambient || point.kind !== 'bearing_temperature') return null;
-    const { value, unit } = st.ambient;
-    if (unit === point.unit) return value;
-    if (unit === 'degC' && point.unit === 'degF') return celsiusToFahrenheit(value);
-    if (unit === 'degF' && point.unit === 'degC') return fahrenheitToCelsius(value);
-    return null;
+    return temperatureInUnit(st.ambient.value, st.ambient.unit, point.unit);
   }
 
   /** Applies a lifecycle event to an alarm in memory, recording the event. */
@@ -322,8 +323,7 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
   }
 
   private async emailOnce(a: Alarm) {
-    const claimed = await this.db
-      .getRepository(Alarm)
+    const claimed = await this.alarmRepo
       .createQueryBuilder()
       .update()
       .set({ emailedAt: () => 'now()' })
@@ -343,7 +343,8 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
         '',
         a.runId ? `Open the run: ${this.config.get('PUBLIC_URL')}/runs/${a.runId}` : '',
         '',
-        'Follow the engine house’s hot-bearing and over-pressure procedures. Crankjournal aids a qualified crew; it does not replace local codes, the insurer’s inspections or licensed practice.',
+        'Follow the engine house’s hot-bearing and over-pressure procedures. Crankjournal aids a qualified crew; ' +
+          'it does not replace local codes, the insurer’s inspections or licensed practice.',
       ].join('\n'),
     });
   }
@@ -392,20 +393,28 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
     };
   }
 
+  /**
+   * Why a value cannot be a real reading of the point (a mistyped figure or a failed sensor), else null. The
+   * reading paths refuse such a value before it is stored; the rule lives with the alarm rules.
+   */
+  implausibleReading(point: MeasurementPointSettings, value: number): string | null {
+    return validateReadingValue(point, value);
+  }
+
   async list(filter: { engineId?: string; runId?: string; open?: boolean }): Promise<AlarmDto[]> {
     await this.expireShelves();
     const where: Record<string, unknown> = {};
     if (filter.engineId) where.engineId = filter.engineId;
     if (filter.runId) where.runId = filter.runId;
     if (filter.open) where.state = Not('normal');
-    const rows = await this.db.getRepository(Alarm).find({ where, order: { raisedAt: 'DESC' }, take: 500 });
+    const rows = await this.alarmRepo.find({ where, order: { raisedAt: 'DESC' }, take: 500 });
     return Promise.all(rows.map((a) => this.toDto(a)));
   }
 
   /** Every alarm raised on some points (e.g. one bearing's temperature points), oldest first. */
   async listByPoints(pointIds: string[], limit = 2000): Promise<AlarmDto[]> {
     if (!pointIds.length) return [];
-    const rows = await this.db.getRepository(Alarm).find({ where: { pointId: In(pointIds) }, order: { raisedAt: 'ASC' }, take: limit });
+    const rows = await this.alarmRepo.find({ where: { pointId: In(pointIds) }, order: { raisedAt: 'ASC' }, take: limit });
     return Promise.all(rows.map((a) => this.toDto(a)));
   }
 
@@ -420,11 +429,11 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
 
   /** True when a high-high priority alarm is active (condition present) on the engine. */
   async hasActiveHighHigh(engineId: string): Promise<Alarm[]> {
-    return this.db.getRepository(Alarm).find({ where: { engineId, priority: 'high_high', conditionActive: true, state: Not('normal') } });
+    return this.alarmRepo.find({ where: { engineId, priority: 'high_high', conditionActive: true, state: Not('normal') } });
   }
 
   private async change(alarmId: string, user: AuthUser, build: (a: Alarm) => LifecycleEvent, note?: string): Promise<AlarmDto> {
-    const a0 = await this.db.getRepository(Alarm).findOne({ where: { id: alarmId } });
+    const a0 = await this.alarmRepo.findOne({ where: { id: alarmId } });
     if (!a0) throw new NotFoundException('No such alarm.');
     if (this.ackPolicy) await this.ackPolicy.assertMayAcknowledge(user, a0);
     const engineId = a0.engineId;
@@ -465,11 +474,7 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
 
   /** Shelved alarms whose time is up go back to their real state. */
   async expireShelves() {
-    const due = await this.db
-      .getRepository(Alarm)
-      .createQueryBuilder('a')
-      .where(`a.state = 'shelved' AND a.shelved_until <= now()`)
-      .getMany();
+    const due = await this.alarmRepo.createQueryBuilder('a').where(`a.state = 'shelved' AND a.shelved_until <= now()`).getMany();
     for (const a0 of due) {
       // Decided on the row as it is now (locked): the readings may have changed its condition since.
       const a = await this.db.transaction(async (m) => {
@@ -506,7 +511,7 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
   }
 
   async get(id: string): Promise<Alarm> {
-    const a = await this.db.getRepository(Alarm).findOne({ where: { id } });
+    const a = await this.alarmRepo.findOne({ where: { id } });
     if (!a) throw new NotFoundException('No such alarm.');
     return a;
   }

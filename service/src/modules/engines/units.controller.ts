@@ -2,7 +2,7 @@ import { Controller, Get } from '@nestjs/common';
 import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
 import type { UnitConversionTable } from '@crankjournal/shared-types';
 import { AnyRole } from '../../common/decorators/roles.decorator.js';
-import { unitConversionTable } from './unit-conversions.js';
+import { unitConversionTable } from '../../calculations/units.js';
 
 @ApiTags('units')
 @ApiBearerAuth()

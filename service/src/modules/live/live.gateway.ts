@@ -1,18 +1,16 @@
 import { Logger, UseFilters, UsePipes } from '@nestjs/common';
 import { JwtService } from '@nestjs/jwt';
 import { ConnectedSocket, MessageBody, OnGatewayInit, SubscribeMessage, WebSocketGateway, WebSocketServer } from '@nestjs/websockets';
-import type { Server, Socket } from 'socket.io';
-import type { ClientToServerEvents, JoinRoomAck, ServerToClientEvents } from '@crankjournal/shared-types';
+import type { JoinRoomAck } from '@crankjournal/shared-types';
 import { UsersService } from '../users/users.service.js';
-import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
+import { wsValidationPipe } from '../../common/ws/ws-validation.pipe.js';
+import { WsErrorFilter } from '../../common/ws/ws-exception.filter.js';
+import type { LiveServer, LiveSocket } from '../../common/ws/live-socket.js';
 import { canJoinRoom } from './room-rules.js';
 import { JoinRoomDto } from './dto/join-room.dto.js';
-import { wsValidationPipe } from './ws-validation.pipe.js';
-import { WsErrorFilter } from './ws-exception.filter.js';
 import { LiveService } from './live.service.js';
 
-export type LiveServer = Server<ClientToServerEvents, ServerToClientEvents, Record<string, never>, { user: AuthUser }>;
-export type LiveSocket = Socket<ClientToServerEvents, ServerToClientEvents, Record<string, never>, { user: AuthUser }>;
+export type { LiveServer, LiveSocket };
 
 /** The live channel. A connection needs a valid access token (handshake `auth.token`); rooms follow ROOM_RULES. */
 @WebSocketGateway({ cors: { origin: false } })

@@ -7,7 +7,7 @@ import { Oil, LubricationPointOil } from './oil.entity.js';
 import { OilConsumptionEntry } from './oil-consumption.entity.js';
 import { LubricationService } from './lubrication.service.js';
 import { LubricationController } from './lubrication.controller.js';
-import { LubricationCalculationsController } from './calculations.controller.js';
+import { LubricationCalculationsController } from './lubrication-calculations.controller.js';
 
 /** The lubrication programme: oils, points and their oils, consumption and trends, bearing figures, calculators. */
 @Module({

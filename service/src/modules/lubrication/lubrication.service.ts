@@ -1,6 +1,6 @@
 import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
-import { InjectDataSource } from '@nestjs/typeorm';
-import { DataSource } from 'typeorm';
+import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
+import { DataSource, Repository } from 'typeorm';
 import type {
   BearingLubricationAnalysis,
   BearingLubricationRow,
@@ -28,7 +28,7 @@ import { fahrenheitToCelsius } from '../../calculations/units.js';
 import type { ConsumptionEntryDto, OilWriteDto } from './dto/lubrication.dto.js';
 import { OilConsumptionEntry } from './oil-consumption.entity.js';
 import { Oil, LubricationPointOil } from './oil.entity.js';
-import { FRICTION_METHOD } from './calculations.controller.js';
+import { FRICTION_METHOD } from './lubrication-calculations.controller.js';
 
 type LubePoint = EngineDetail['lubricationPoints'][number];
 
@@ -37,6 +37,9 @@ type LubePoint = EngineDetail['lubricationPoints'][number];
 export class LubricationService {
   constructor(
     @InjectDataSource() private readonly db: DataSource,
+    @InjectRepository(LubricationPointOil) private readonly lubricationPointOilRepo: Repository<LubricationPointOil>,
+    @InjectRepository(Oil) private readonly oilRepo: Repository<Oil>,
+    @InjectRepository(OilConsumptionEntry) private readonly oilConsumptionEntryRepo: Repository<OilConsumptionEntry>,
     private readonly engines: EnginesService,
     private readonly runs: RunsService,
     private readonly readings: ReadingsService,
@@ -59,7 +62,7 @@ export class LubricationService {
   }
 
   async oils(): Promise<OilDto[]> {
-    return (await this.db.getRepository(Oil).find({ order: { name: 'ASC' } })).map((o) => this.oilDto(o));
+    return (await this.oilRepo.find({ order: { name: 'ASC' } })).map((o) => this.oilDto(o));
   }
 
   private checkOil(dto: OilWriteDto) {
@@ -70,9 +73,8 @@ export class LubricationService {
   async createOil(dto: OilWriteDto): Promise<OilDto> {
     this.checkOil(dto);
     const name = dto.name.trim();
-    if (await this.db.getRepository(Oil).exists({ where: { name } }))
-      throw new ConflictException(`An oil called "${name}" already exists.`);
-    const saved = await this.db.getRepository(Oil).save({
+    if (await this.oilRepo.exists({ where: { name } })) throw new ConflictException(`An oil called "${name}" already exists.`);
+    const saved = await this.oilRepo.save({
       name,
       grade: dto.grade.trim(),
       viscosity40cSt: dto.viscosity40cSt,
@@ -86,10 +88,10 @@ export class LubricationService {
 
   async updateOil(id: string, dto: OilWriteDto): Promise<OilDto> {
     this.checkOil(dto);
-    const o = await this.db.getRepository(Oil).findOne({ where: { id } });
+    const o = await this.oilRepo.findOne({ where: { id } });
     if (!o) throw new NotFoundException('No such oil.');
     const name = dto.name.trim();
-    if (name !== o.name && (await this.db.getRepository(Oil).exists({ where: { name } })))
+    if (name !== o.name && (await this.oilRepo.exists({ where: { name } })))
       throw new ConflictException(`An oil called "${name}" already exists.`);
     Object.assign(o, {
       name,
@@ -100,17 +102,17 @@ export class LubricationService {
       figuresSource: dto.figuresSource.trim(),
       notes: dto.notes ?? '',
     });
-    return this.oilDto(await this.db.getRepository(Oil).save(o));
+    return this.oilDto(await this.oilRepo.save(o));
   }
 
   // --- Points and their oils ------------------------------------------------------------------------
 
   /** The oil of each lubrication point: the one assigned here, else the oil whose name is the point's grade text. */
   async pointOils(engine: EngineDetail): Promise<{ dtos: LubricationPointOilDto[]; oilOf: Map<string, Oil> }> {
-    const oils = await this.db.getRepository(Oil).find();
+    const oils = await this.oilRepo.find();
     const byId = new Map(oils.map((o) => [o.id, o]));
     const byName = new Map(oils.map((o) => [o.name.trim().toLowerCase(), o]));
-    const assigned = await this.db.getRepository(LubricationPointOil).find({ where: { engineId: engine.id } });
+    const assigned = await this.lubricationPointOilRepo.find({ where: { engineId: engine.id } });
     const oilOf = new Map<string, Oil>();
     const dtos = engine.lubricationPoints.map((l) => {
       const a = assigned.find((x) => x.lubricationPointId === l.id);
@@ -146,13 +148,12 @@ export class LubricationService {
   async assignOil(pointId: string, oilId: string | null, userId: string): Promise<LubricationPointOilDto> {
     const { engine } = await this.pointOwner(pointId);
     if (oilId === null) {
-      await this.db.getRepository(LubricationPointOil).delete({ lubricationPointId: pointId });
+      await this.lubricationPointOilRepo.delete({ lubricationPointId: pointId });
     } else {
-      if (!(await this.db.getRepository(Oil).exists({ where: { id: oilId } })))
-        throw new BadRequestException('oilId is not one of the oils.');
-      await this.db
-        .getRepository(LubricationPointOil)
-        .upsert({ lubricationPointId: pointId, engineId: engine.id, oilId, assignedBy: userId }, ['lubricationPointId']);
+      if (!(await this.oilRepo.exists({ where: { id: oilId } }))) throw new BadRequestException('oilId is not one of the oils.');
+      await this.lubricationPointOilRepo.upsert({ lubricationPointId: pointId, engineId: engine.id, oilId, assignedBy: userId }, [
+        'lubricationPointId',
+      ]);
     }
     const { dtos } = await this.pointOils(engine);
     return dtos.find((d) => d.lubricationPointId === pointId)!;
@@ -178,7 +179,7 @@ export class LubricationService {
         throw new BadRequestException('levelEndLitres is above levelStartLitres: if oil was put in during the run, log it as added.');
       used = dto.levelStartLitres - dto.levelEndLitres;
     }
-    const saved = await this.db.getRepository(OilConsumptionEntry).save({
+    const saved = await this.oilConsumptionEntryRepo.save({
       engineId: run.engineId,
       runId: run.id,
       lubricationPointId: dto.lubricationPointId,
@@ -219,7 +220,7 @@ export class LubricationService {
       .filter((r) => r.startedAt && r.state !== 'abandoned')
       .sort((a, b) => a.startedAt!.localeCompare(b.startedAt!));
     const runById = new Map(runs.map((r) => [r.id, r]));
-    const entries = await this.db.getRepository(OilConsumptionEntry).find({ where: { engineId }, order: { recordedAt: 'ASC' } });
+    const entries = await this.oilConsumptionEntryRepo.find({ where: { engineId }, order: { recordedAt: 'ASC' } });
     const consumption: PointConsumption[] = engine.lubricationPoints.map((l) => {
       const used = new Map<string, number>();
       for (const e of entries) if (e.lubricationPointId === l.id) used.set(e.runId, (used.get(e.runId) ?? 0) + e.usedLitres);

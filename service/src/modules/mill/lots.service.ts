@@ -1,6 +1,6 @@
 import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
-import { InjectDataSource } from '@nestjs/typeorm';
-import { DataSource, In, type EntityManager } from 'typeorm';
+import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
+import { DataSource, type EntityManager, Repository } from 'typeorm';
 import {
   LOT_STATUS_LABELS,
   LOT_STATUSES,
@@ -19,7 +19,7 @@ import {
 } from '@crankjournal/shared-types';
 import { RunsService } from '../runs/runs.service.js';
 import { MailService } from '../mail/mail.service.js';
-import { User } from '../users/user.entity.js';
+import { UsersService } from '../users/users.service.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { buildQuote } from '../../calculations/quote.js';
 import { CustomerLot } from './customer-lot.entity.js';
@@ -37,23 +37,30 @@ const label = (s: LotStatus) => LOT_STATUS_LABELS[s].toLowerCase();
 export class LotsService {
   constructor(
     @InjectDataSource() private readonly db: DataSource,
+    @InjectRepository(CustomerLot) private readonly customerLotRepo: Repository<CustomerLot>,
+    @InjectRepository(LotQuote) private readonly lotQuoteRepo: Repository<LotQuote>,
+    @InjectRepository(LotRun) private readonly lotRunRepo: Repository<LotRun>,
+    @InjectRepository(LotStatusChange) private readonly lotStatusChangeRepo: Repository<LotStatusChange>,
+    @InjectRepository(MillBar) private readonly millBarRepo: Repository<MillBar>,
     private readonly mills: MillService,
     private readonly rolling: RollingLogService,
     private readonly runs: RunsService,
     private readonly pdf: QuotePdfService,
     private readonly mail: MailService,
+    private readonly users: UsersService,
   ) {}
 
   async get(id: string): Promise<CustomerLot> {
-    const l = await this.db.getRepository(CustomerLot).findOne({ where: { id } });
+    const l = await this.customerLotRepo.findOne({ where: { id } });
     if (!l) throw new NotFoundException('No such customer lot.');
     return l;
   }
 
   async list(filter: { status?: LotStatus }): Promise<LotSummary[]> {
-    const rows = await this.db
-      .getRepository(CustomerLot)
-      .find({ where: filter.status ? { status: filter.status } : {}, order: { dueDate: 'ASC', reference: 'ASC' } });
+    const rows = await this.customerLotRepo.find({
+      where: filter.status ? { status: filter.status } : {},
+      order: { dueDate: 'ASC', reference: 'ASC' },
+    });
     return this.summaries(rows);
   }
 
@@ -91,7 +98,7 @@ export class LotsService {
   async detail(id: string): Promise<LotDetail> {
     const l = await this.get(id);
     const [summary] = await this.summaries([l]);
-    const history = await this.db.getRepository(LotStatusChange).find({ where: { lotId: id }, order: { at: 'ASC' } });
+    const history = await this.lotStatusChangeRepo.find({ where: { lotId: id }, order: { at: 'ASC' } });
     const links = await this.rolling.linkedRunIds(id);
     const runs = [];
     for (const link of links) {
@@ -99,7 +106,7 @@ export class LotsService {
       runs.push({ id: r.id, title: r.title, state: r.state, plannedFor: r.plannedFor });
     }
     const bars = await this.rolling.lotBars(id);
-    const barRows = await this.db.getRepository(MillBar).find({ where: { lotId: id } });
+    const barRows = await this.millBarRepo.find({ where: { lotId: id } });
     const kg = (scrapped: boolean) => barRows.filter((b) => b.scrapped === scrapped).reduce((s, b) => s + (b.weightKg ?? 0), 0);
     const quotes = await this.quotes(id);
     const names = await this.names(history.map((h) => h.byUser));
@@ -127,10 +134,7 @@ export class LotsService {
   }
 
   private async names(ids: string[]): Promise<Map<string, string>> {
-    const uniq = [...new Set(ids)];
-    if (!uniq.length) return new Map();
-    const users = await this.db.getRepository(User).find({ where: { id: In(uniq) } });
-    return new Map(users.map((u) => [u.id, u.displayName]));
+    return this.users.displayNames(ids);
   }
 
   /** LOT-<year>-<nnn>, numbered per year of the enquiry. */
@@ -214,7 +218,7 @@ export class LotsService {
       });
       patch.millId = dto.millId;
     }
-    if (Object.keys(patch).length) await this.db.getRepository(CustomerLot).update({ id }, patch);
+    if (Object.keys(patch).length) await this.customerLotRepo.update({ id }, patch);
     return this.detail(id);
   }
 
@@ -233,9 +237,9 @@ export class LotsService {
             : `Lot ${l.reference} is ${label(l.status)}; its next step is ${label(next)}, so it cannot skip to ${label(dto.to)}.`,
       );
     }
-    if (dto.to === 'quoted' && !(await this.db.getRepository(LotQuote).exists({ where: { lotId: id } })))
+    if (dto.to === 'quoted' && !(await this.lotQuoteRepo.exists({ where: { lotId: id } })))
       throw new ConflictException('Make a quote for the lot before marking it quoted.');
-    if (dto.to === 'scheduled' && !(await this.db.getRepository(LotRun).exists({ where: { lotId: id } })))
+    if (dto.to === 'scheduled' && !(await this.lotRunRepo.exists({ where: { lotId: id } })))
       throw new ConflictException('Link the run that will roll the lot before marking it scheduled.');
     if (dto.to === 'rolled' && !(l.producedTonnes > 0))
       throw new ConflictException('Record the tonnage produced before marking the lot rolled.');
@@ -269,9 +273,9 @@ export class LotsService {
   async unlinkRun(id: string, runId: string): Promise<LotDetail> {
     const l = await this.get(id);
     this.assertNotDelivered(l);
-    if (await this.db.getRepository(MillBar).exists({ where: { lotId: id, runId } }))
+    if (await this.millBarRepo.exists({ where: { lotId: id, runId } }))
       throw new ConflictException('Bars of this lot were rolled on that run; move the bars to another lot first.');
-    const r = await this.db.getRepository(LotRun).delete({ lotId: id, runId });
+    const r = await this.lotRunRepo.delete({ lotId: id, runId });
     if (!r.affected) throw new NotFoundException('That run is not linked to the lot.');
     return this.detail(id);
   }
@@ -279,7 +283,7 @@ export class LotsService {
   // ---- quotes --------------------------------------------------------------------------------------------
 
   async quotes(lotId: string): Promise<QuoteDto[]> {
-    const rows = await this.db.getRepository(LotQuote).find({ where: { lotId }, order: { number: 'DESC' } });
+    const rows = await this.lotQuoteRepo.find({ where: { lotId }, order: { number: 'DESC' } });
     const names = await this.names(rows.map((r) => r.createdBy));
     return rows.map((q) => this.quoteDto(q, names.get(q.createdBy) ?? 'unknown'));
   }
@@ -310,7 +314,7 @@ export class LotsService {
   }
 
   async getQuote(quoteId: string): Promise<LotQuote> {
-    const q = await this.db.getRepository(LotQuote).findOne({ where: { id: quoteId } });
+    const q = await this.lotQuoteRepo.findOne({ where: { id: quoteId } });
     if (!q) throw new NotFoundException('No such quote.');
     return q;
   }
@@ -379,7 +383,7 @@ export class LotsService {
   async sendQuote(quoteId: string, dto: SendQuoteRequest, user: AuthUser): Promise<QuoteDto> {
     const q = await this.getQuote(quoteId);
     const lot = await this.get(q.lotId);
-    const latest = await this.db.getRepository(LotQuote).findOne({ where: { lotId: lot.id }, order: { number: 'DESC' } });
+    const latest = await this.lotQuoteRepo.findOne({ where: { lotId: lot.id }, order: { number: 'DESC' } });
     if (latest && latest.id !== q.id)
       throw new ConflictException(`Quote ${q.number} has been replaced by quote ${latest.number}; send the latest.`);
     const to = (dto.to ?? lot.customerEmail).trim().toLowerCase();
@@ -404,7 +408,7 @@ export class LotsService {
       attachments: [{ filename, content: buffer, contentType: 'application/pdf' }],
     });
     const now = new Date();
-    await this.db.getRepository(LotQuote).update({ id: q.id }, { sentAt: now, sentTo: to });
+    await this.lotQuoteRepo.update({ id: q.id }, { sentAt: now, sentTo: to });
     if (lot.status === 'enquiry') await this.transition(lot.id, { to: 'quoted', note: `Quote ${q.number} sent to ${to}.` }, user, now);
     const names = await this.names([q.createdBy]);
     return this.quoteDto({ ...q, sentAt: now, sentTo: to }, names.get(q.createdBy) ?? 'unknown');

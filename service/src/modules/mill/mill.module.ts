@@ -6,6 +6,7 @@ import { AlarmsModule } from '../alarms/alarms.module.js';
 import { IndicatorCardsModule } from '../indicator-cards/indicator-cards.module.js';
 import { MailModule } from '../mail/mail.module.js';
 import { LiveModule } from '../live/live.module.js';
+import { UsersModule } from '../users/users.module.js';
 import { Mill } from './mill.entity.js';
 import { MillStand } from './mill-stand.entity.js';
 import { PassSchedule } from './pass-schedule.entity.js';
@@ -21,11 +22,11 @@ import { SchedulesService } from './schedules.service.js';
 import { RollingLogService } from './rolling-log.service.js';
 import { LotsService } from './lots.service.js';
 import { QuotePdfService } from './quote-pdf.service.js';
-import { IndicatedPowerSource } from './indicated-power.source.js';
+import { MillIndicatedPowerSource } from './mill-indicated-power.source.js';
 import { MillController } from './mill.controller.js';
 import { RollingLogController } from './rolling-log.controller.js';
 import { LotsController } from './lots.controller.js';
-import { MillCalculationsController } from './calculations.controller.js';
+import { MillCalculationsController } from './mill-calculations.controller.js';
 
 /** The mill: stands and settings, pass schedules, the rolling log of runs, customer lots and quotes. */
 @Module({
@@ -48,8 +49,9 @@ import { MillCalculationsController } from './calculations.controller.js';
     IndicatorCardsModule,
     MailModule,
     LiveModule,
+    UsersModule,
   ],
-  providers: [MillService, SchedulesService, RollingLogService, LotsService, QuotePdfService, IndicatedPowerSource],
+  providers: [MillService, SchedulesService, RollingLogService, LotsService, QuotePdfService, MillIndicatedPowerSource],
   controllers: [MillController, RollingLogController, LotsController, MillCalculationsController],
   exports: [MillService, SchedulesService, RollingLogService, LotsService],
 })

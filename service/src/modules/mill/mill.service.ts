@@ -1,9 +1,8 @@
 import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
-import { InjectDataSource } from '@nestjs/typeorm';
-import { DataSource, type EntityManager } from 'typeorm';
+import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
+import { DataSource, type EntityManager, Repository } from 'typeorm';
 import type { MillDto, MillSettings, MillWriteRequest } from '@crankjournal/shared-types';
 import { EnginesService } from '../engines/engines.service.js';
-import type { Engine } from '../engines/engine.entity.js';
 import { Mill } from './mill.entity.js';
 import { MillStand } from './mill-stand.entity.js';
 
@@ -16,20 +15,24 @@ export const DEFAULT_MILL_SETTINGS: MillSettings = {
   frictionFactor: 1.2,
 };
 
+/** The engine that drives a mill, as the engines module hands it out. */
+export type MillEngine = Awaited<ReturnType<EnginesService['get']>>;
+
 @Injectable()
 export class MillService {
   constructor(
     @InjectDataSource() private readonly db: DataSource,
+    @InjectRepository(Mill) private readonly millRepo: Repository<Mill>,
     private readonly engines: EnginesService,
   ) {}
 
   async list(): Promise<MillDto[]> {
-    const mills = await this.db.getRepository(Mill).find({ relations: { stands: true }, order: { name: 'ASC' } });
+    const mills = await this.millRepo.find({ relations: { stands: true }, order: { name: 'ASC' } });
     return Promise.all(mills.map((m) => this.toDto(m)));
   }
 
   async get(id: string): Promise<Mill> {
-    const m = await this.db.getRepository(Mill).findOne({ where: { id }, relations: { stands: true } });
+    const m = await this.millRepo.findOne({ where: { id }, relations: { stands: true } });
     if (!m) throw new NotFoundException('No such mill.');
     m.stands = [...(m.stands ?? [])].sort((a, b) => a.position - b.position);
     return m;
@@ -41,14 +44,14 @@ export class MillService {
 
   /** The mill driven by an engine (the first by name if there were several), or null. */
   async forEngine(engineId: string): Promise<Mill | null> {
-    const m = await this.db.getRepository(Mill).findOne({ where: { engineId }, relations: { stands: true }, order: { name: 'ASC' } });
+    const m = await this.millRepo.findOne({ where: { engineId }, relations: { stands: true }, order: { name: 'ASC' } });
     if (m) m.stands = [...(m.stands ?? [])].sort((a, b) => a.position - b.position);
     return m;
   }
 
   /** The site's first mill (most sites have one), for lots that name none. */
   async first(): Promise<Mill | null> {
-    const [m] = await this.db.getRepository(Mill).find({ order: { createdAt: 'ASC' }, take: 1 });
+    const [m] = await this.millRepo.find({ order: { createdAt: 'ASC' }, take: 1 });
     return m ? this.get(m.id) : null;
   }
 
@@ -61,7 +64,7 @@ export class MillService {
     return s;
   }
 
-  engineOf(mill: Mill): Promise<Engine> {
+  engineOf(mill: Mill): Promise<MillEngine> {
     return this.engines.get(mill.engineId);
   }
 
@@ -108,7 +111,7 @@ export class MillService {
     await this.engines.get(dto.engineId).catch(() => {
       throw new BadRequestException('engineId names no engine.');
     });
-    if (await this.db.getRepository(Mill).exists({ where: { name: dto.name.trim() } }))
+    if (await this.millRepo.exists({ where: { name: dto.name.trim() } }))
       throw new ConflictException(`A mill called "${dto.name.trim()}" already exists.`);
     const id = await this.db.transaction(async (m) => {
       const mill = await m.save(
@@ -133,7 +136,7 @@ export class MillService {
     await this.engines.get(dto.engineId).catch(() => {
       throw new BadRequestException('engineId names no engine.');
     });
-    const clash = await this.db.getRepository(Mill).findOne({ where: { name: dto.name.trim() } });
+    const clash = await this.millRepo.findOne({ where: { name: dto.name.trim() } });
     if (clash && clash.id !== id) throw new ConflictException(`A mill called "${dto.name.trim()}" already exists.`);
     await this.db.transaction(async (m) => {
       await m.update(

@@ -9,7 +9,8 @@ const R = MISAKA_VALID_RANGE;
 export const MISAKA_CITATION =
   'Misaka & Yoshimoto (1967), "Formularization of mean resistance to deformation of plain carbon steels at elevated temperature", ' +
   `J. JSTP 8 (79): mean flow stress of plain carbon steel from carbon, temperature, strain and strain rate; fitted over ` +
-  `${R.temperatureMinC}–${R.temperatureMaxC} °C, strain rates ${R.strainRateMinPerS}–${R.strainRateMaxPerS} /s, strain ≤ ${R.strainMax}, C ≤ ${R.carbonMaxPct} %.`;
+  `${R.temperatureMinC}–${R.temperatureMaxC} °C, strain rates ${R.strainRateMinPerS}–${R.strainRateMaxPerS} /s, ` +
+  `strain ≤ ${R.strainMax}, C ≤ ${R.carbonMaxPct} %.`;
 export const GIVEN_FLOW_STRESS_CITATION = 'Mean flow stress given by the user (not calculated).';
 
 /** Everything needed to check one pass, in the units the mill and the engine are described in. */

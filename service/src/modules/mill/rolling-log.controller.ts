@@ -13,7 +13,7 @@ import { CurrentUser, type AuthUser } from '../../common/decorators/current-user
 import { IdParamDto } from '../../common/dto/id-param.dto.js';
 import { RollingLogService } from './rolling-log.service.js';
 import { CreateBarDto, LogPassDto, UpdateBarDto } from './dto/bar.dto.js';
-import { RunIdParamDto } from './dto/lot.dto.js';
+import { MillRunIdParamDto } from './dto/lot.dto.js';
 
 /** The rolling log of a run: bars, their passes, and one timeline with the run's readings and alarms. */
 @ApiTags('mill')
@@ -30,21 +30,21 @@ export class RollingLogController {
 
   @Get('runs/:runId')
   @AnyRole()
-  runLog(@Param() p: RunIdParamDto): Promise<MillRunLog> {
+  runLog(@Param() p: MillRunIdParamDto): Promise<MillRunLog> {
     return this.log.runLog(p.runId);
   }
 
   @Get('runs/:runId/timeline')
   @AnyRole()
   @ApiOperation({ summary: 'Passes, rounds of readings and alarms of a run, in time order' })
-  timeline(@Param() p: RunIdParamDto): Promise<MillTimelineItem[]> {
+  timeline(@Param() p: MillRunIdParamDto): Promise<MillTimelineItem[]> {
     return this.log.timeline(p.runId);
   }
 
   @Post('runs/:runId/bars')
   @Roles(...MILL_WRITERS)
   @ApiOperation({ summary: 'Start a bar on a running (or stopped, not closed) run' })
-  createBar(@Param() p: RunIdParamDto, @Body() dto: CreateBarDto, @CurrentUser() me: AuthUser): Promise<BarDto> {
+  createBar(@Param() p: MillRunIdParamDto, @Body() dto: CreateBarDto, @CurrentUser() me: AuthUser): Promise<BarDto> {
     return this.log.createBar(p.runId, dto, me);
   }
 

@@ -1,9 +1,10 @@
 import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
-import { InjectDataSource } from '@nestjs/typeorm';
-import { DataSource, In } from 'typeorm';
+import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
+import { DataSource, In, Repository } from 'typeorm';
 import {
   RUN_STATE_LABELS,
   RUN_STATES_LOGGING_PASSES,
+  RUN_STATES_TAKING_READINGS,
   type BarDto,
   type CreateBarRequest,
   type LoggedPassDto,
@@ -16,13 +17,12 @@ import {
   type TimelineReading,
   type UpdateBarRequest,
 } from '@crankjournal/shared-types';
-import { RunsService } from '../runs/runs.service.js';
+import { RunsService, type RunRecord } from '../runs/runs.service.js';
 import { ReadingsService } from '../runs/readings.service.js';
-import type { Run } from '../runs/run.entity.js';
 import { AlarmsService } from '../alarms/alarms.service.js';
 import { EnginesService } from '../engines/engines.service.js';
 import { LiveService } from '../live/live.service.js';
-import { User } from '../users/user.entity.js';
+import { UsersService } from '../users/users.service.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { barLengthM, sectionAreaMm2 } from '../../calculations/rolling.js';
 import { MillBar } from './mill-bar.entity.js';
@@ -33,14 +33,13 @@ import { CustomerLot } from './customer-lot.entity.js';
 import { LotRun } from './lot-run.entity.js';
 import type { Mill } from './mill.entity.js';
 import { MillService } from './mill.service.js';
-import { IndicatedPowerSource } from './indicated-power.source.js';
+import { MillIndicatedPowerSource } from './mill-indicated-power.source.js';
 import { calculatePass } from './pass-calculation.js';
 
 /** A speed reading older than this before a pass is not taken as the speed at the pass. */
 const SPEED_READING_MAX_AGE_MS = 30 * 60_000;
 /** Clocks on tablets drift: a pass may be logged this far ahead of the server's time. */
 const CLOCK_SLACK_MS = 5 * 60_000;
-const ACTIVE: RunState[] = ['preparing', 'cleared', 'running', 'stopped'];
 
 function fmtClock(d: Date): string {
   return d.toISOString().slice(11, 16) + ' UTC';
@@ -50,26 +49,36 @@ function fmtClock(d: Date): string {
 export class RollingLogService {
   constructor(
     @InjectDataSource() private readonly db: DataSource,
+    @InjectRepository(CustomerLot) private readonly customerLotRepo: Repository<CustomerLot>,
+    @InjectRepository(LotRun) private readonly lotRunRepo: Repository<LotRun>,
+    @InjectRepository(MillBar) private readonly millBarRepo: Repository<MillBar>,
+    @InjectRepository(MillPass) private readonly millPassRepo: Repository<MillPass>,
+    @InjectRepository(PassSchedule) private readonly passScheduleRepo: Repository<PassSchedule>,
+    @InjectRepository(SchedulePass) private readonly schedulePassRepo: Repository<SchedulePass>,
     private readonly mills: MillService,
     private readonly runs: RunsService,
     private readonly readings: ReadingsService,
     private readonly alarms: AlarmsService,
     private readonly engines: EnginesService,
     private readonly live: LiveService,
-    private readonly power: IndicatedPowerSource,
+    private readonly power: MillIndicatedPowerSource,
+    private readonly users: UsersService,
   ) {}
 
   /** Passes are logged while the run is running, or stopped and not yet closed. */
-  loggingRefusal(run: Run): string | null {
+  loggingRefusal(run: RunRecord): string | null {
     if (RUN_STATES_LOGGING_PASSES.includes(run.state)) return null;
-    return `This run is ${RUN_STATE_LABELS[run.state].toLowerCase()}: passes are logged while the run is running, or stopped and not yet closed.`;
+    return (
+      `This run is ${RUN_STATE_LABELS[run.state].toLowerCase()}: ` +
+      'passes are logged while the run is running, or stopped and not yet closed.'
+    );
   }
-  private assertLogging(run: Run) {
+  private assertLogging(run: RunRecord) {
     const why = this.loggingRefusal(run);
     if (why) throw new ConflictException(why);
   }
 
-  private async millOfRun(run: Run): Promise<Mill> {
+  private async millOfRun(run: RunRecord): Promise<Mill> {
     const mill = await this.mills.forEngine(run.engineId);
     if (!mill) {
       const e = await this.engines.get(run.engineId);
@@ -90,14 +99,15 @@ export class RollingLogService {
     const byRun = new Map(counts.map((c) => [c.run_id, c]));
     const millEngines = new Set((await this.mills.list()).map((m) => m.engineId));
     const all = await this.runs.list({});
-    const wanted = all.filter((r) => byRun.has(r.id) || (millEngines.has(r.engineId) && ACTIVE.includes(r.state)));
+    const wanted = all.filter((r) => byRun.has(r.id) || (millEngines.has(r.engineId) && RUN_STATES_TAKING_READINGS.includes(r.state)));
     const lotRows: { run_id: string; reference: string }[] = wanted.length
       ? await this.db.query(
-          `SELECT lr.run_id, l.reference FROM mill_lot_runs lr JOIN mill_lots l ON l.id = lr.lot_id WHERE lr.run_id = ANY($1) ORDER BY l.reference`,
+          `SELECT lr.run_id, l.reference FROM mill_lot_runs lr JOIN mill_lots l ON l.id = lr.lot_id
+           WHERE lr.run_id = ANY($1) ORDER BY l.reference`,
           [wanted.map((r) => r.id)],
         )
       : [];
-    const rank = (s: RunState) => (s === 'running' ? 0 : s === 'stopped' ? 1 : ACTIVE.includes(s) ? 2 : 3);
+    const rank = (s: RunState) => (s === 'running' ? 0 : s === 'stopped' ? 1 : RUN_STATES_TAKING_READINGS.includes(s) ? 2 : 3);
     return wanted
       .map((r) => {
         const c = byRun.get(r.id);
@@ -150,16 +160,14 @@ export class RollingLogService {
     if (where.runId) w.runId = where.runId;
     if (where.lotId) w.lotId = where.lotId;
     if (where.ids) w.id = In(where.ids);
-    const bars = await this.db.getRepository(MillBar).find({ where: w, order: { createdAt: 'ASC', barCode: 'ASC' } });
+    const bars = await this.millBarRepo.find({ where: w, order: { createdAt: 'ASC', barCode: 'ASC' } });
     if (!bars.length) return [];
-    const passes = await this.db
-      .getRepository(MillPass)
-      .find({ where: { barId: In(bars.map((b) => b.id)) }, order: { passNumber: 'ASC' } });
+    const passes = await this.millPassRepo.find({ where: { barId: In(bars.map((b) => b.id)) }, order: { passNumber: 'ASC' } });
     const passDtos = await this.passDtos(passes, bars);
     const scheduleIds = [...new Set(bars.map((b) => b.scheduleId).filter((x): x is string => !!x))];
-    const schedules = scheduleIds.length ? await this.db.getRepository(PassSchedule).find({ where: { id: In(scheduleIds) } }) : [];
+    const schedules = scheduleIds.length ? await this.passScheduleRepo.find({ where: { id: In(scheduleIds) } }) : [];
     const lotIds = [...new Set(bars.map((b) => b.lotId).filter((x): x is string => !!x))];
-    const lots = lotIds.length ? await this.db.getRepository(CustomerLot).find({ where: { id: In(lotIds) } }) : [];
+    const lots = lotIds.length ? await this.customerLotRepo.find({ where: { id: In(lotIds) } }) : [];
     return bars.map((b) => ({
       id: b.id,
       runId: b.runId,
@@ -197,17 +205,17 @@ export class RollingLogService {
     const mill = await this.millOfRun(run);
     let schedule: PassSchedule | null = null;
     if (dto.scheduleId) {
-      schedule = await this.db.getRepository(PassSchedule).findOne({ where: { id: dto.scheduleId } });
+      schedule = await this.passScheduleRepo.findOne({ where: { id: dto.scheduleId } });
       if (!schedule) throw new BadRequestException('scheduleId names no pass schedule.');
     }
     const stock = dto.stock ?? schedule?.stock;
     const stockLengthMm = dto.stockLengthMm ?? schedule?.stockLengthMm;
     if (!stock || !stockLengthMm)
       throw new BadRequestException('Give the stock size and length, or choose the pass schedule the bar follows.');
-    if (dto.lotId && !(await this.db.getRepository(CustomerLot).exists({ where: { id: dto.lotId } })))
+    if (dto.lotId && !(await this.customerLotRepo.exists({ where: { id: dto.lotId } })))
       throw new BadRequestException('lotId names no customer lot.');
     const code = dto.barCode.trim();
-    if (await this.db.getRepository(MillBar).exists({ where: { runId, barCode: code } }))
+    if (await this.millBarRepo.exists({ where: { runId, barCode: code } }))
       throw new ConflictException(`Bar ${code} is already logged on this run; give the next bar its own id.`);
     const saved = await this.db.transaction(async (m) => {
       const b = await m.save(
@@ -233,11 +241,11 @@ export class RollingLogService {
   }
 
   async updateBar(barId: string, dto: UpdateBarRequest, user: AuthUser): Promise<BarDto> {
-    const bar = await this.db.getRepository(MillBar).findOne({ where: { id: barId } });
+    const bar = await this.millBarRepo.findOne({ where: { id: barId } });
     if (!bar) throw new NotFoundException('No such bar.');
     const run = await this.runs.get(bar.runId);
     this.runs.assertOpen(run);
-    if (dto.lotId && !(await this.db.getRepository(CustomerLot).exists({ where: { id: dto.lotId } })))
+    if (dto.lotId && !(await this.customerLotRepo.exists({ where: { id: dto.lotId } })))
       throw new BadRequestException('lotId names no customer lot.');
     const patch: Partial<MillBar> = {};
     if (dto.lotId !== undefined) patch.lotId = dto.lotId;
@@ -277,10 +285,10 @@ export class RollingLogService {
     user: Pick<AuthUser, 'id'>,
     opts: { allowClosedRun?: boolean } = {},
   ): Promise<LoggedPassDto> {
-    const bar = await this.db.getRepository(MillBar).findOne({ where: { id: barId } });
+    const bar = await this.millBarRepo.findOne({ where: { id: barId } });
     if (!bar) throw new NotFoundException('No such bar.');
     if (dto.clientId) {
-      const dup = await this.db.getRepository(MillPass).findOne({ where: { clientId: dto.clientId } });
+      const dup = await this.millPassRepo.findOne({ where: { clientId: dto.clientId } });
       if (dup) {
         if (dup.barId !== barId) throw new ConflictException('That clientId was used for a pass of another bar.');
         return (await this.passDtos([dup], [bar]))[0];
@@ -298,12 +306,12 @@ export class RollingLogService {
       if (run.startedAt && at < run.startedAt)
         throw new BadRequestException(`at is before the run started (${run.startedAt.toISOString()}).`);
     }
-    if (await this.db.getRepository(MillPass).exists({ where: { barId, passNumber: dto.passNumber } }))
+    if (await this.millPassRepo.exists({ where: { barId, passNumber: dto.passNumber } }))
       throw new ConflictException(`Pass ${dto.passNumber} of bar ${bar.barCode} is already logged. Log the next pass number.`);
     const planned = bar.scheduleId
-      ? await this.db.getRepository(SchedulePass).findOne({ where: { scheduleId: bar.scheduleId, seq: dto.passNumber } })
+      ? await this.schedulePassRepo.findOne({ where: { scheduleId: bar.scheduleId, seq: dto.passNumber } })
       : null;
-    const previous = await this.db.getRepository(MillPass).findOne({ where: { barId }, order: { passNumber: 'DESC' } });
+    const previous = await this.millPassRepo.findOne({ where: { barId }, order: { passNumber: 'DESC' } });
     const entry: SectionDto = dto.entry ?? planned?.entry ?? (previous && previous.passNumber < dto.passNumber ? previous.exit : bar.stock);
     const speed = await this.speedAt(run, engine.ratedSpeedRpm, at);
     const ihp = await this.power.forRun(run.id, mill, at);
@@ -333,8 +341,8 @@ export class RollingLogService {
           }
         : null,
     });
-    const row = await this.db.getRepository(MillPass).save(
-      this.db.getRepository(MillPass).create({
+    const row = await this.millPassRepo.save(
+      this.millPassRepo.create({
         clientId: dto.clientId ?? null,
         barId,
         runId: bar.runId,
@@ -359,36 +367,30 @@ export class RollingLogService {
   /** Carbon for the flow stress: the bar's schedule, else its lot, else 0.2 % (mild steel) when neither names one. */
   private async carbonOf(bar: MillBar): Promise<number> {
     if (bar.scheduleId) {
-      const s = await this.db.getRepository(PassSchedule).findOne({ where: { id: bar.scheduleId } });
+      const s = await this.passScheduleRepo.findOne({ where: { id: bar.scheduleId } });
       if (s) return s.carbonPct;
     }
     if (bar.lotId) {
-      const l = await this.db.getRepository(CustomerLot).findOne({ where: { id: bar.lotId } });
+      const l = await this.customerLotRepo.findOne({ where: { id: bar.lotId } });
       if (l?.carbonPct !== null && l?.carbonPct !== undefined) return l.carbonPct;
     }
     return 0.2;
   }
 
   /** The engine's speed as the bar entered: the latest speed reading before the pass, else rated speed. */
-  private async speedAt(run: Run, ratedSpeedRpm: number, at: Date): Promise<{ rpm: number; source: string }> {
+  private async speedAt(run: RunRecord, ratedSpeedRpm: number, at: Date): Promise<{ rpm: number; source: string }> {
     const { points } = await this.engines.withPoints(run.engineId);
     const speed = points.find((p) => p.kind === 'speed' && p.unit === 'rpm');
     if (speed) {
-      const rows: { v: number; t: Date }[] = await this.db.query(
-        `SELECT COALESCE(amended_value, value) AS v, taken_at AS t FROM readings
-          WHERE run_id = $1 AND point_id = $2 AND taken_at <= $3 AND taken_at >= $4 ORDER BY taken_at DESC LIMIT 1`,
-        [run.id, speed.id, at, new Date(at.getTime() - SPEED_READING_MAX_AGE_MS)],
-      );
-      if (rows.length && Number(rows[0].v) > 0)
-        return { rpm: Number(rows[0].v), source: `speed reading ${speed.code} at ${fmtClock(new Date(rows[0].t))}` };
+      const latest = await this.readings.latestValueBefore(run.id, speed.id, at, SPEED_READING_MAX_AGE_MS);
+      if (latest && latest.value > 0) return { rpm: latest.value, source: `speed reading ${speed.code} at ${fmtClock(latest.takenAt)}` };
     }
     return { rpm: ratedSpeedRpm, source: 'rated speed (no speed reading in the 30 minutes before the pass)' };
   }
 
   private async passDtos(rows: MillPass[], bars: MillBar[]): Promise<LoggedPassDto[]> {
     if (!rows.length) return [];
-    const users = await this.db.getRepository(User).find({ where: { id: In([...new Set(rows.map((r) => r.loggedBy))]) } });
-    const name = new Map(users.map((u) => [u.id, u.displayName]));
+    const name = await this.users.displayNames(rows.map((r) => r.loggedBy));
     const barCode = new Map(bars.map((b) => [b.id, b.barCode]));
     return rows.map((p) => ({
       id: p.id,
@@ -443,7 +445,7 @@ export class RollingLogService {
 
   /** The bars of a lot (for the lot's page). */
   async lotBars(lotId: string) {
-    const bars = await this.db.getRepository(MillBar).find({ where: { lotId }, order: { createdAt: 'ASC' } });
+    const bars = await this.millBarRepo.find({ where: { lotId }, order: { createdAt: 'ASC' } });
     if (!bars.length) return [];
     const counts: { bar_id: string; n: number }[] = await this.db.query(
       `SELECT bar_id, count(*)::int AS n FROM mill_passes WHERE bar_id = ANY($1) GROUP BY bar_id`,
@@ -464,11 +466,11 @@ export class RollingLogService {
   }
 
   /** Used by lots: a run may be linked only if it exists. */
-  async assertRunExists(runId: string): Promise<Run> {
+  async assertRunExists(runId: string): Promise<RunRecord> {
     return this.runs.get(runId);
   }
 
   linkedRunIds(lotId: string): Promise<LotRun[]> {
-    return this.db.getRepository(LotRun).find({ where: { lotId }, order: { linkedAt: 'ASC' } });
+    return this.lotRunRepo.find({ where: { lotId }, order: { linkedAt: 'ASC' } });
   }
 }

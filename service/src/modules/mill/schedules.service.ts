@@ -1,6 +1,6 @@
 import { BadRequestException, HttpException, Injectable, NotFoundException } from '@nestjs/common';
-import { InjectDataSource } from '@nestjs/typeorm';
-import { DataSource, In } from 'typeorm';
+import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
+import { DataSource, In, Repository } from 'typeorm';
 import type {
   ScheduleCopyRequest,
   ScheduleDetail,
@@ -9,23 +9,24 @@ import type {
   ScheduleWriteRequest,
 } from '@crankjournal/shared-types';
 import { barLengthM, sectionAreaMm2 } from '../../calculations/rolling.js';
-import type { Engine } from '../engines/engine.entity.js';
-import { User } from '../users/user.entity.js';
+import { UsersService } from '../users/users.service.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { PassSchedule } from './pass-schedule.entity.js';
 import { SchedulePass } from './schedule-pass.entity.js';
 import { CustomerLot } from './customer-lot.entity.js';
 import type { Mill } from './mill.entity.js';
-import { MillService } from './mill.service.js';
+import { MillService, type MillEngine } from './mill.service.js';
 import { calculatePass } from './pass-calculation.js';
 
 /** What a plan assumes where the run will tell the truth later. */
-function planAssumptions(mill: Mill, engine: Engine): string[] {
+function planAssumptions(mill: Mill, engine: MillEngine): string[] {
   const a = [
     `Each pass starts at the engine's rated speed, ${engine.ratedSpeedRpm} rpm (roll speed = engine speed × the stand's ratio).`,
-    `Indicated power ${mill.settings.defaultIndicatedHp} hp (site setting), mechanical efficiency ${Math.round(mill.settings.mechanicalEfficiency * 100)} %, base load ${mill.settings.baseLoadHp} hp.`,
+    `Indicated power ${mill.settings.defaultIndicatedHp} hp (site setting), ` +
+      `mechanical efficiency ${Math.round(mill.settings.mechanicalEfficiency * 100)} %, base load ${mill.settings.baseLoadHp} hp.`,
     `The flywheel supplies the whole pass; a warning below ${Math.round(mill.settings.minSpeedFraction * 100)} % of rated speed.`,
-    `Roll force allows ${Math.round((mill.settings.frictionFactor - 1) * 100)} % for friction; grooved passes use the nominal roll diameter.`,
+    `Roll force allows ${Math.round((mill.settings.frictionFactor - 1) * 100)} % for friction; ` +
+      'grooved passes use the nominal roll diameter.',
   ];
   if (engine.flywheelMassLb === null || engine.flywheelRadiusOfGyrationFt === null)
     a.push(`${engine.name} has no flywheel mass or radius of gyration recorded: the flywheel check is left out.`);
@@ -36,11 +37,14 @@ function planAssumptions(mill: Mill, engine: Engine): string[] {
 export class SchedulesService {
   constructor(
     @InjectDataSource() private readonly db: DataSource,
+    @InjectRepository(CustomerLot) private readonly customerLotRepo: Repository<CustomerLot>,
+    @InjectRepository(PassSchedule) private readonly passScheduleRepo: Repository<PassSchedule>,
     private readonly mills: MillService,
+    private readonly users: UsersService,
   ) {}
 
   async getEntity(id: string): Promise<PassSchedule> {
-    const s = await this.db.getRepository(PassSchedule).findOne({ where: { id }, relations: { passes: true } });
+    const s = await this.passScheduleRepo.findOne({ where: { id }, relations: { passes: true } });
     if (!s) throw new NotFoundException('No such pass schedule.');
     s.passes = [...(s.passes ?? [])].sort((a, b) => a.seq - b.seq);
     return s;
@@ -50,9 +54,7 @@ export class SchedulesService {
     const where: Record<string, unknown> = {};
     if (filter.millId) where.millId = filter.millId;
     if (filter.templates !== undefined) where.isTemplate = filter.templates;
-    const rows = await this.db
-      .getRepository(PassSchedule)
-      .find({ where, relations: { passes: true }, order: { isTemplate: 'DESC', name: 'ASC' } });
+    const rows = await this.passScheduleRepo.find({ where, relations: { passes: true }, order: { isTemplate: 'DESC', name: 'ASC' } });
     const details = await this.build(rows);
     return details.map(({ passes, notes, totalElongation, finalLengthM, assumptions, createdByName, createdAt, ...summary }) => summary);
   }
@@ -65,16 +67,14 @@ export class SchedulesService {
   /** Summaries and passes with their calculations, for a set of schedules. */
   private async build(rows: PassSchedule[]): Promise<ScheduleDetail[]> {
     if (!rows.length) return [];
-    const millCache = new Map<string, { mill: Mill; engine: Engine }>();
+    const millCache = new Map<string, { mill: Mill; engine: MillEngine }>();
     const lotIds = [...new Set(rows.map((r) => r.lotId).filter((x): x is string => !!x))];
-    const lots = lotIds.length ? await this.db.getRepository(CustomerLot).find({ where: { id: In(lotIds) } }) : [];
+    const lots = lotIds.length ? await this.customerLotRepo.find({ where: { id: In(lotIds) } }) : [];
     const lotRef = new Map(lots.map((l) => [l.id, l.reference]));
     const templateIds = [...new Set(rows.map((r) => r.templateId).filter((x): x is string => !!x))];
-    const templates = templateIds.length ? await this.db.getRepository(PassSchedule).find({ where: { id: In(templateIds) } }) : [];
+    const templates = templateIds.length ? await this.passScheduleRepo.find({ where: { id: In(templateIds) } }) : [];
     const templateName = new Map(templates.map((t) => [t.id, t.name]));
-    const userIds = [...new Set(rows.map((r) => r.createdBy))];
-    const users = await this.db.getRepository(User).find({ where: { id: In(userIds) } });
-    const userName = new Map(users.map((u) => [u.id, u.displayName]));
+    const userName = await this.users.displayNames(rows.map((r) => r.createdBy));
     const out: ScheduleDetail[] = [];
     for (const s of rows) {
       let ctx = millCache.get(s.millId);
@@ -121,7 +121,7 @@ export class SchedulesService {
     return out;
   }
 
-  private passDto(s: PassSchedule, p: SchedulePass, mill: Mill, engine: Engine): SchedulePassDto {
+  private passDto(s: PassSchedule, p: SchedulePass, mill: Mill, engine: MillEngine): SchedulePassDto {
     const stand = (mill.stands ?? []).find((x) => x.position === p.standPosition);
     const base = {
       id: p.id,
@@ -177,7 +177,7 @@ export class SchedulesService {
     const missing = [...new Set(dto.passes.map((p) => p.standPosition).filter((p) => !positions.has(p)))];
     if (missing.length)
       throw new BadRequestException(`${mill.name} has no stand ${missing.join(', ')}; its stands are ${[...positions].sort().join(', ')}.`);
-    if (dto.lotId && !(await this.db.getRepository(CustomerLot).exists({ where: { id: dto.lotId } })))
+    if (dto.lotId && !(await this.customerLotRepo.exists({ where: { id: dto.lotId } })))
       throw new BadRequestException('lotId names no customer lot.');
     return mill;
   }

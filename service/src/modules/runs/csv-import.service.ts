@@ -22,7 +22,8 @@ export function csvRowClientId(runId: string, point: string, takenAt: string): s
   const h = createHash('sha1')
     .update(`${runId}|${point.trim().toLowerCase()}|${new Date(takenAt).toISOString()}`)
     .digest('hex');
-  return `${h.slice(0, 8)}-${h.slice(8, 12)}-5${h.slice(13, 16)}-${((parseInt(h[16], 16) & 0x3) | 0x8).toString(16)}${h.slice(17, 20)}-${h.slice(20, 32)}`;
+  const variant = ((parseInt(h[16], 16) & 0x3) | 0x8).toString(16);
+  return `${h.slice(0, 8)}-${h.slice(8, 12)}-5${h.slice(13, 16)}-${variant}${h.slice(17, 20)}-${h.slice(20, 32)}`;
 }
 
 /**
@@ -64,7 +65,8 @@ export class CsvImportService {
     };
     // One chunk is stored while the next one is parsed (the database and the parser work side by side);
     // chunks are still stored one after another, in file order, and at most two are held at a time.
-    let storing: Promise<void> | null = null;
+    // Typed by assertion: `flush` assigns it from a closure, which narrowing after `= null` would not see.
+    let storing = null as Promise<void> | null;
     const flush = async () => {
       const rows = chunk;
       chunk = [];
@@ -85,7 +87,8 @@ export class CsvImportService {
           body.unpipe(parser);
           body.resume();
           throw new BadRequestException(
-            `The file's first line must name the columns taken_at, point, value (and optionally unit, client_id); missing: ${missing.join(', ')}.`,
+            "The file's first line must name the columns taken_at, point, value (and optionally unit, client_id); " +
+              `missing: ${missing.join(', ')}.`,
           );
         }
         headerChecked = true;

@@ -3,17 +3,24 @@ import { InjectDataSource } from '@nestjs/typeorm';
 import { plainToInstance } from 'class-transformer';
 import { isDateString, isUUID, validateSync } from 'class-validator';
 import { DataSource, EntityManager } from 'typeorm';
-import type { IngestResult, ReadingDto, ReadingSource, RejectedRow } from '@crankjournal/shared-types';
-import { EnginesService } from '../engines/engines.service.js';
-import type { MeasurementPoint } from '../engines/measurement-point.entity.js';
-import { AlarmsService, type NewReading, type RecentHistoryLoader } from '../alarms/alarms.service.js';
-import { validateReadingValue, type PointReading } from '../alarms/alarm-rules.js';
+import {
+  RUN_STATES_TAKING_READINGS,
+  type IngestResult,
+  type ReadingDto,
+  type ReadingSource,
+  type RejectedRow,
+} from '@crankjournal/shared-types';
+import { EnginesService, type EngineWithPoints } from '../engines/engines.service.js';
+import { AlarmsService, type NewReading, type PointReading, type RecentHistoryLoader } from '../alarms/alarms.service.js';
 import { LiveService } from '../live/live.service.js';
 import { KeyedMutex } from '../../common/util/keyed-mutex.js';
 import { flattenValidationErrors } from '../../common/pipes/validation.pipe.js';
 import { RunsService } from './runs.service.js';
 import { Run } from './run.entity.js';
 import { ReadingInputDto } from './dto/reading.dto.js';
+
+/** A measurement point as the engines module hands it out. */
+type EnginePoint = EngineWithPoints['points'][number];
 
 /** Readings may be stamped at most this far ahead of the server's clock (clock drift on a tablet). */
 const MAX_FUTURE_MS = 5 * 60_000;
@@ -75,7 +82,7 @@ export interface IngestContext {
 
 interface GoodRow {
   clientId: string;
-  point: MeasurementPoint;
+  point: EnginePoint;
   value: number;
   takenAt: Date;
 }
@@ -108,7 +115,7 @@ export class IngestService {
     let rejectedCount = 0;
     const good: GoodRow[] = [];
     const seen = new Set<string>();
-    const settingsOf = new Map<string, MeasurementPoint & { name: string }>();
+    const settingsOf = new Map<string, EnginePoint & { name: string }>();
     const now = Date.now();
     const earliest = ctx.run.createdAt.getTime() - MAX_PAST_MS;
     const col = ctx.columnOf ?? ((f: string) => f);
@@ -142,7 +149,7 @@ export class IngestService {
         return reject(index, 'unit', `${point.code} is recorded in ${point.unit}, not ${dto.unit}`);
       let settings = settingsOf.get(point.id);
       if (!settings) settingsOf.set(point.id, (settings = { ...point, name: point.label }));
-      const absurd = validateReadingValue(settings, dto.value);
+      const absurd = this.alarms.implausibleReading(settings, dto.value);
       if (absurd) return reject(index, 'value', absurd);
       const t = new Date(dto.takenAt);
       if (t.getTime() > now + MAX_FUTURE_MS) return reject(index, 'takenAt', 'takenAt is in the future; check the clock of the device');
@@ -225,8 +232,7 @@ export class IngestService {
     try {
       ({ inserted, outcome } = await this.db.transaction(async (m) => {
         const [state] = await m.query(`SELECT state FROM runs WHERE id = $1 FOR SHARE`, [run.id]);
-        if (!state || !['preparing', 'cleared', 'running', 'stopped'].includes(state.state))
-          throw new ConflictException('This run no longer takes readings.');
+        if (!state || !RUN_STATES_TAKING_READINGS.includes(state.state)) throw new ConflictException('This run no longer takes readings.');
         // Columns go as delimited text (cheaper to build than array literals for thousands of rows); every
         // field is a uuid, a number, an ISO time, a source word or a unit, none of which holds the delimiter.
         const col = (f: (r: { job: number; g: GoodRow }) => string) => rows.map(f).join(SEP);
@@ -323,7 +329,8 @@ export class IngestService {
   private readonly history: RecentHistoryLoader = async (engineId: string, windowMinutes: number, m: EntityManager) => {
     const rows: { point_id: string; value: number; taken_at: Date }[] = await m.query(
       `SELECT point_id, COALESCE(amended_value, value) AS value, taken_at FROM readings
-        WHERE engine_id = $1 AND taken_at > (SELECT COALESCE(max(taken_at), now()) FROM readings WHERE engine_id = $1) - make_interval(mins => $2)
+        WHERE engine_id = $1
+          AND taken_at > (SELECT COALESCE(max(taken_at), now()) FROM readings WHERE engine_id = $1) - make_interval(mins => $2)
         ORDER BY taken_at`,
       [engineId, windowMinutes],
     );
@@ -338,7 +345,8 @@ export class IngestService {
     let ambient = null;
     if (ambientIds.length) {
       const a: { value: number; unit: string; taken_at: Date }[] = await m.query(
-        `SELECT COALESCE(amended_value, value) AS value, unit, taken_at FROM readings WHERE point_id = ANY($1) ORDER BY taken_at DESC LIMIT 1`,
+        `SELECT COALESCE(amended_value, value) AS value, unit, taken_at FROM readings
+         WHERE point_id = ANY($1) ORDER BY taken_at DESC LIMIT 1`,
         [ambientIds],
       );
       if (a[0]) ambient = { value: Number(a[0].value), unit: a[0].unit, takenAt: new Date(a[0].taken_at) };

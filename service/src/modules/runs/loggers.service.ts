@@ -3,7 +3,7 @@ import { InjectRepository } from '@nestjs/typeorm';
 import { Repository } from 'typeorm';
 import type { IssuedLoggerKey, LoggerDto } from '@crankjournal/shared-types';
 import { EnginesService } from '../engines/engines.service.js';
-import { newSecret, sha256 } from '../auth/password.util.js';
+import { newSecret, sha256 } from '../../common/util/password.util.js';
 import { DataLogger } from './logger.entity.js';
 
 const KEY_CACHE_MS = 5_000;

@@ -1,13 +1,12 @@
 import { Injectable, NotFoundException, BadRequestException } from '@nestjs/common';
-import { InjectDataSource } from '@nestjs/typeorm';
-import { DataSource, In } from 'typeorm';
+import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
+import { DataSource, In, Repository } from 'typeorm';
 import type { AmendmentDto, BoardPoint, MeasurementKind, ReadingDto } from '@crankjournal/shared-types';
-import { User } from '../users/user.entity.js';
+import { UsersService } from '../users/users.service.js';
 import { LiveService } from '../live/live.service.js';
 import { AlarmsService } from '../alarms/alarms.service.js';
 import { EnginesService } from '../engines/engines.service.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
-import { validateReadingValue } from '../alarms/alarm-rules.js';
 import { RunsService } from './runs.service.js';
 import { ReadingAmendment } from './reading-amendment.entity.js';
 import { Reading } from './reading.entity.js';
@@ -28,15 +27,18 @@ export interface PointRunStat {
 export class ReadingsService {
   constructor(
     @InjectDataSource() private readonly db: DataSource,
+    @InjectRepository(Reading) private readonly readingRepo: Repository<Reading>,
+    @InjectRepository(ReadingAmendment) private readonly readingAmendmentRepo: Repository<ReadingAmendment>,
     private readonly runs: RunsService,
     private readonly live: LiveService,
     private readonly alarms: AlarmsService,
     private readonly engines: EnginesService,
+    private readonly users: UsersService,
   ) {}
 
   async list(runId: string, filter: { since?: string; pointId?: string; limit?: number }): Promise<ReadingDto[]> {
     await this.runs.get(runId);
-    const qb = this.db.getRepository(Reading).createQueryBuilder('r').where('r.runId = :runId', { runId });
+    const qb = this.readingRepo.createQueryBuilder('r').where('r.runId = :runId', { runId });
     if (filter.since) qb.andWhere('r.receivedAt > :since', { since: new Date(filter.since) });
     if (filter.pointId) qb.andWhere('r.pointId = :pointId', { pointId: filter.pointId });
     const rows = await qb
@@ -50,11 +52,10 @@ export class ReadingsService {
   private async toDtos(rows: Reading[]): Promise<ReadingDto[]> {
     const amendedIds = rows.filter((r) => r.amendedValue !== null).map((r) => r.id);
     const amendments = amendedIds.length
-      ? await this.db.getRepository(ReadingAmendment).find({ where: { readingId: In(amendedIds) }, order: { at: 'ASC' } })
+      ? await this.readingAmendmentRepo.find({ where: { readingId: In(amendedIds) }, order: { at: 'ASC' } })
       : [];
     const userIds = [...new Set([...rows.map((r) => r.enteredBy).filter((x): x is string => !!x), ...amendments.map((a) => a.byUser)])];
-    const users = userIds.length ? await this.db.getRepository(User).find({ where: { id: In(userIds) } }) : [];
-    const name = new Map(users.map((u) => [u.id, u.displayName]));
+    const name = await this.users.displayNames(userIds);
     const byReading = new Map<string, AmendmentDto[]>();
     for (const a of amendments) {
       const list = byReading.get(a.readingId) ?? [];
@@ -130,14 +131,14 @@ export class ReadingsService {
   /** A correction: the original stays, the amendment records the new value, reason, who and when. */
   async amend(readingId: string, value: number, reason: string, user: AuthUser): Promise<ReadingDto> {
     if (!/^\d{1,18}$/.test(readingId)) throw new BadRequestException('id must be a reading number');
-    const r0 = await this.db.getRepository(Reading).findOne({ where: { id: readingId } });
+    const r0 = await this.readingRepo.findOne({ where: { id: readingId } });
     if (!r0) throw new NotFoundException('No such reading.');
     const run = await this.runs.get(r0.runId);
     this.runs.assertOpen(run);
     const { points } = await this.engines.withPoints(r0.engineId);
     const point = points.find((p) => p.id === r0.pointId);
     if (point) {
-      const absurd = validateReadingValue({ ...point, name: point.label }, value);
+      const absurd = this.alarms.implausibleReading({ ...point, name: point.label }, value);
       if (absurd) throw new BadRequestException(`value: ${absurd}`);
     }
     await this.db.transaction(async (m) => {
@@ -153,7 +154,7 @@ export class ReadingsService {
       });
       await m.update(Reading, { id: readingId }, { amendedValue: value });
     });
-    const [dto] = await this.toDtos([(await this.db.getRepository(Reading).findOne({ where: { id: readingId } }))!]);
+    const [dto] = await this.toDtos([(await this.readingRepo.findOne({ where: { id: readingId } }))!]);
     this.live.emitToRoom(`run:${r0.runId}`, 'reading:amended', dto);
     return dto;
   }
@@ -162,8 +163,7 @@ export class ReadingsService {
   async *iterate(runId: string, pageSize = 5000): AsyncGenerator<Reading[]> {
     let after = '0';
     for (;;) {
-      const page = await this.db
-        .getRepository(Reading)
+      const page = await this.readingRepo
         .createQueryBuilder('r')
         .where('r.runId = :runId AND r.id > :after', { runId, after })
         .orderBy('r.id', 'ASC')
@@ -198,8 +198,10 @@ export class ReadingsService {
       first_at: Date;
       last_at: Date;
     }[] = await this.db.query(
-      `SELECT run_id, point_id, max(v) AS peak, avg(v) AS mean, min(v) AS least, count(*)::int AS n, min(taken_at) AS first_at, max(taken_at) AS last_at
-         FROM (SELECT run_id, point_id, COALESCE(amended_value, value) AS v, taken_at FROM readings WHERE point_id = ANY($1::uuid[])${byRun}) r
+      `SELECT run_id, point_id, max(v) AS peak, avg(v) AS mean, min(v) AS least, count(*)::int AS n,
+              min(taken_at) AS first_at, max(taken_at) AS last_at
+         FROM (SELECT run_id, point_id, COALESCE(amended_value, value) AS v, taken_at FROM readings
+               WHERE point_id = ANY($1::uuid[])${byRun}) r
         GROUP BY run_id, point_id`,
       params,
     );
@@ -217,8 +219,21 @@ export class ReadingsService {
 
   amendmentsOf(readingIds: string[]) {
     return readingIds.length
-      ? this.db.getRepository(ReadingAmendment).find({ where: { readingId: In(readingIds) }, order: { at: 'ASC' } })
+      ? this.readingAmendmentRepo.find({ where: { readingId: In(readingIds) }, order: { at: 'ASC' } })
       : Promise.resolve([]);
+  }
+
+  /**
+   * The latest reading of a point in a run at or before `at` and no older than `maxAgeMs` (an amended value wins);
+   * null when there is none. Used by the mill's rolling log for the engine's speed as a bar entered.
+   */
+  async latestValueBefore(runId: string, pointId: string, at: Date, maxAgeMs: number): Promise<{ value: number; takenAt: Date } | null> {
+    const rows: { v: number; t: Date }[] = await this.db.query(
+      `SELECT COALESCE(amended_value, value) AS v, taken_at AS t FROM readings
+        WHERE run_id = $1 AND point_id = $2 AND taken_at <= $3 AND taken_at >= $4 ORDER BY taken_at DESC LIMIT 1`,
+      [runId, pointId, at, new Date(at.getTime() - maxAgeMs)],
+    );
+    return rows.length ? { value: Number(rows[0].v), takenAt: new Date(rows[0].t) } : null;
   }
 
   /**

@@ -1,7 +1,8 @@
 import { type Readable, PassThrough } from 'node:stream';
 import PDFDocument from 'pdfkit';
 import { Injectable } from '@nestjs/common';
-import { RUN_PURPOSE_LABELS, RUN_STATE_LABELS, UNIT_LABELS, ALARM_KIND_WORDS, ALARM_STATE_WORDS } from '@crankjournal/shared-types';
+import { RUN_PURPOSE_LABELS, RUN_STATE_LABELS, ALARM_KIND_WORDS, ALARM_STATE_WORDS } from '@crankjournal/shared-types';
+import { unitLabel } from '../../calculations/units.js';
 import { EnginesService } from '../engines/engines.service.js';
 import { AlarmsService } from '../alarms/alarms.service.js';
 import { csvLine } from '../../common/util/csv.util.js';
@@ -26,14 +27,13 @@ export class RunExportsService {
     const { points } = await this.engines.withPoints(run.engineId);
     const byId = new Map(points.map((p) => [p.id, p]));
     const out = new PassThrough();
-    const self = this;
-    void (async function write() {
+    void (async () => {
       try {
         out.write(
           csvLine(['taken_at', 'point', 'point_label', 'value', 'unit', 'original_value', 'amendment_reason', 'source', 'reading_id']),
         );
-        for await (const page of self.readings.iterate(runId)) {
-          const am = await self.readings.amendmentsOf(page.filter((r) => r.amendedValue !== null).map((r) => r.id));
+        for await (const page of this.readings.iterate(runId)) {
+          const am = await this.readings.amendmentsOf(page.filter((r) => r.amendedValue !== null).map((r) => r.id));
           const reason = new Map<string, string>();
           for (const a of am) reason.set(a.readingId, a.reason);
           let chunk = '';
@@ -80,7 +80,8 @@ export class RunExportsService {
     doc.font('Helvetica').fontSize(10);
     doc.text(`${d.title} · ${RUN_PURPOSE_LABELS[d.purpose]} · state: ${RUN_STATE_LABELS[d.state]}`);
     doc.text(
-      `Started ${fmtTime(d.startedAt)} · stopped ${fmtTime(d.stoppedAt)} · running ${(d.runningSeconds / 3600).toFixed(2)} h · ${Math.round(d.revolutions)} revolutions`,
+      `Started ${fmtTime(d.startedAt)} · stopped ${fmtTime(d.stoppedAt)} · ` +
+        `running ${(d.runningSeconds / 3600).toFixed(2)} h · ${Math.round(d.revolutions)} revolutions`,
     );
     doc.text(`Crew: ${d.crew.map((c) => c.displayName).join(', ') || '—'}`);
     if (d.notes) doc.text(`Notes: ${d.notes}`);
@@ -89,7 +90,8 @@ export class RunExportsService {
     doc.font('Helvetica');
     for (const h of d.history)
       doc.text(
-        `${fmtTime(h.at)}  ${h.from ? RUN_STATE_LABELS[h.from] + ' → ' : ''}${RUN_STATE_LABELS[h.to]}  by ${h.byName}${h.note ? ` — ${h.note}` : ''}`,
+        `${fmtTime(h.at)}  ${h.from ? RUN_STATE_LABELS[h.from] + ' → ' : ''}${RUN_STATE_LABELS[h.to]}  ` +
+          `by ${h.byName}${h.note ? ` — ${h.note}` : ''}`,
       );
     // Readings grouped into rounds by minute, one column per point (as many as fit on the sheet).
     doc.moveDown(0.5).font('Helvetica-Bold').text('Readings');
@@ -107,7 +109,7 @@ export class RunExportsService {
       const y = doc.y;
       doc.font('Helvetica-Bold').fontSize(7);
       doc.text('Time (UTC)', x0, y, { width: 90 });
-      cols.forEach((p, i) => doc.text(`${p.code} ${UNIT_LABELS[p.unit] ?? p.unit}`, x0 + 90 + i * colW, y, { width: colW }));
+      cols.forEach((p, i) => doc.text(`${p.code} ${unitLabel(p.unit)}`, x0 + 90 + i * colW, y, { width: colW }));
       doc.moveDown(0.3);
     };
     header();
@@ -135,7 +137,8 @@ export class RunExportsService {
     if (!alarms.length) doc.text('None.');
     for (const a of alarms)
       doc.text(
-        `${fmtTime(a.raisedAt)}  ${ALARM_KIND_WORDS[a.kind]} — ${a.message}  [${ALARM_STATE_WORDS[a.state]}${a.acknowledgedByName ? `, acknowledged by ${a.acknowledgedByName} ${fmtTime(a.acknowledgedAt)}` : ''}]`,
+        `${fmtTime(a.raisedAt)}  ${ALARM_KIND_WORDS[a.kind]} — ${a.message}  [${ALARM_STATE_WORDS[a.state]}` +
+          `${a.acknowledgedByName ? `, acknowledged by ${a.acknowledgedByName} ${fmtTime(a.acknowledgedAt)}` : ''}]`,
       );
     doc.moveDown(0.5).font('Helvetica-Bold').fontSize(11).text('Amendments');
     doc.font('Helvetica').fontSize(9);
@@ -144,7 +147,8 @@ export class RunExportsService {
     for (const r of amended)
       for (const a of r.amendments)
         doc.text(
-          `${fmtTime(r.takenAt)} ${pointsBySeq.find((p) => p.id === r.pointId)?.code ?? ''}: ${a.oldValue} → ${a.newValue} by ${a.byName} at ${fmtTime(a.at)} — ${a.reason}`,
+          `${fmtTime(r.takenAt)} ${pointsBySeq.find((p) => p.id === r.pointId)?.code ?? ''}: ` +
+            `${a.oldValue} → ${a.newValue} by ${a.byName} at ${fmtTime(a.at)} — ${a.reason}`,
         );
     doc.moveDown(1).font('Helvetica-Bold').fontSize(11).text('Countersignature');
     doc
@@ -160,7 +164,8 @@ export class RunExportsService {
       .fontSize(8)
       .fillColor('#555')
       .text(
-        'Crankjournal aids a qualified crew. It never replaces local boiler and pressure-vessel law, the insurer’s inspections or licensed practice.',
+        'Crankjournal aids a qualified crew. It never replaces local boiler and pressure-vessel law, ' +
+          'the insurer’s inspections or licensed practice.',
       );
     doc.end();
     return { filename: `run-${d.title.replace(/[^A-Za-z0-9]+/g, '-').slice(0, 40)}-log-sheet.pdf`, stream: out };

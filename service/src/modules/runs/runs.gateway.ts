@@ -2,9 +2,9 @@ import { UseFilters, UsePipes, ForbiddenException, HttpException } from '@nestjs
 import { ConnectedSocket, MessageBody, SubscribeMessage, WebSocketGateway } from '@nestjs/websockets';
 import { IsArray, IsObject, IsUUID, ArrayMinSize, ArrayMaxSize } from 'class-validator';
 import type { IngestResult, LiveAck, Role, RunDetail, StartGateVerdict } from '@crankjournal/shared-types';
-import { wsValidationPipe } from '../live/ws-validation.pipe.js';
-import { WsErrorFilter } from '../live/ws-exception.filter.js';
-import type { LiveSocket } from '../live/live.gateway.js';
+import { wsValidationPipe } from '../../common/ws/ws-validation.pipe.js';
+import { WsErrorFilter } from '../../common/ws/ws-exception.filter.js';
+import type { LiveSocket } from '../../common/ws/live-socket.js';
 import { IngestService } from './ingest.service.js';
 import { RunsService } from './runs.service.js';
 

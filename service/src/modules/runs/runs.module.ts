@@ -4,6 +4,7 @@ import { EnginesModule } from '../engines/engines.module.js';
 import { AlarmsModule } from '../alarms/alarms.module.js';
 import { LiveModule } from '../live/live.module.js';
 import { AuthModule } from '../auth/auth.module.js';
+import { UsersModule } from '../users/users.module.js';
 import { Run } from './run.entity.js';
 import { RunStateChange } from './run-state-change.entity.js';
 import { Reading } from './reading.entity.js';
@@ -30,6 +31,7 @@ import { RunsGateway } from './runs.gateway.js';
     AlarmsModule,
     LiveModule,
     AuthModule,
+    UsersModule,
   ],
   providers: [
     RunsService,

@@ -1,6 +1,6 @@
 import { BadRequestException, ConflictException, ForbiddenException, HttpException, Injectable, NotFoundException } from '@nestjs/common';
-import { InjectDataSource } from '@nestjs/typeorm';
-import { DataSource, In, Not } from 'typeorm';
+import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
+import { DataSource, In, Not, Repository } from 'typeorm';
 import {
   RUN_STATE_LABELS,
   RUN_STATES_TAKING_READINGS,
@@ -13,7 +13,7 @@ import {
 import { EnginesService } from '../engines/engines.service.js';
 import { LiveService } from '../live/live.service.js';
 import { AuthService } from '../auth/auth.service.js';
-import { User } from '../users/user.entity.js';
+import { UsersService } from '../users/users.service.js';
 import { AlarmsService } from '../alarms/alarms.service.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { revolutionsFromSpeedRecord, runningSeconds } from '../../calculations/run-derived.js';
@@ -31,21 +31,34 @@ const TRANSITION_ROLES: Record<Exclude<RunState, 'planned'>, Role[]> = {
   closed: ['chief_engineer'],
   abandoned: ['operator', 'chief_engineer'],
 };
-const ACTIVE: RunState[] = ['preparing', 'cleared', 'running', 'stopped'];
+
+/** What other modules read of a run (a stored run satisfies it); they never import the entity. */
+export interface RunRecord {
+  id: string;
+  engineId: string;
+  title: string;
+  state: RunState;
+  createdAt: Date;
+  startedAt: Date | null;
+  stoppedAt: Date | null;
+}
 
 @Injectable()
 export class RunsService {
   constructor(
     @InjectDataSource() private readonly db: DataSource,
+    @InjectRepository(Run) private readonly runRepo: Repository<Run>,
+    @InjectRepository(RunStateChange) private readonly runStateChangeRepo: Repository<RunStateChange>,
     private readonly engines: EnginesService,
     private readonly gate: StartGateService,
     private readonly live: LiveService,
     private readonly auth: AuthService,
     private readonly alarms: AlarmsService,
+    private readonly users: UsersService,
   ) {}
 
   async get(id: string): Promise<Run> {
-    const r = await this.db.getRepository(Run).findOne({ where: { id } });
+    const r = await this.runRepo.findOne({ where: { id } });
     if (!r) throw new NotFoundException('No such run.');
     return r;
   }
@@ -67,7 +80,7 @@ export class RunsService {
     const where: Record<string, unknown> = {};
     if (filter.engineId) where.engineId = filter.engineId;
     if (filter.state) where.state = filter.state;
-    const runs = await this.db.getRepository(Run).find({ where, order: { createdAt: 'DESC' }, take: 300 });
+    const runs = await this.runRepo.find({ where, order: { createdAt: 'DESC' }, take: 300 });
     return this.summaries(runs);
   }
 
@@ -116,12 +129,12 @@ export class RunsService {
   async detail(id: string): Promise<RunDetail> {
     const r = await this.get(id);
     const [summary] = await this.summaries([r]);
-    const history = await this.db.getRepository(RunStateChange).find({ where: { runId: id }, order: { at: 'ASC' } });
+    const history = await this.runStateChangeRepo.find({ where: { runId: id }, order: { at: 'ASC' } });
     const userIds = [...new Set([...r.crewIds, ...history.map((h) => h.byUser), ...(r.countersignedBy ? [r.countersignedBy] : [])])];
-    const users = userIds.length ? await this.db.getRepository(User).find({ where: { id: In(userIds) } }) : [];
-    const name = new Map(users.map((u) => [u.id, u.displayName]));
+    const name = await this.users.displayNames(userIds);
     const peaks: { point_id: string; max: number; min: number; unit: string }[] = await this.db.query(
-      `SELECT point_id, max(COALESCE(amended_value, value)) AS max, min(COALESCE(amended_value, value)) AS min, max(unit) AS unit FROM readings WHERE run_id = $1 GROUP BY point_id`,
+      `SELECT point_id, max(COALESCE(amended_value, value)) AS max, min(COALESCE(amended_value, value)) AS min, max(unit) AS unit
+       FROM readings WHERE run_id = $1 GROUP BY point_id`,
       [id],
     );
     return {
@@ -147,8 +160,8 @@ export class RunsService {
 
   private async assertCrew(ids: string[] | undefined) {
     if (!ids?.length) return;
-    const found = await this.db.getRepository(User).count({ where: { id: In(ids) } });
-    if (found !== new Set(ids).size) throw new BadRequestException('crewIds holds someone who has no account.');
+    const found = await this.users.displayNames(ids);
+    if (found.size !== new Set(ids).size) throw new BadRequestException('crewIds holds someone who has no account.');
   }
 
   async create(dto: CreateRunDto, user: AuthUser): Promise<RunDetail> {
@@ -185,7 +198,7 @@ export class RunsService {
     if (dto.plannedFor !== undefined) patch.plannedFor = dto.plannedFor;
     if (dto.crewIds !== undefined) patch.crewIds = [...new Set(dto.crewIds)];
     if (dto.notes !== undefined) patch.notes = dto.notes;
-    await this.db.getRepository(Run).update({ id }, patch);
+    await this.runRepo.update({ id }, patch);
     void user;
     return this.broadcast(id);
   }
@@ -250,7 +263,9 @@ export class RunsService {
       if (!cur || cur.state !== run0.state)
         throw new ConflictException('Someone else changed this run a moment ago. Look again and retry.');
       if (to === 'preparing' && run0.state === 'planned') {
-        const other = await m.findOne(Run, { where: { engineId: cur.engineId, state: In(ACTIVE), id: Not(id) } });
+        const other = await m.findOne(Run, {
+          where: { engineId: cur.engineId, state: In(RUN_STATES_TAKING_READINGS as RunState[]), id: Not(id) },
+        });
         if (other)
           throw new ConflictException(
             `Another run of this engine ("${other.title}") is ${RUN_STATE_LABELS[other.state].toLowerCase()}. Close or abandon it first.`,
@@ -276,7 +291,7 @@ export class RunsService {
         at: now,
         note: dto.note?.trim() || null,
       });
-      if (ACTIVE.includes(to)) await this.engines.setActiveRun(cur.engineId, id, m);
+      if (RUN_STATES_TAKING_READINGS.includes(to)) await this.engines.setActiveRun(cur.engineId, id, m);
       if (to === 'closed' || to === 'abandoned') await this.engines.setActiveRun(cur.engineId, null, m);
       if (addTotals) await this.engines.addRunTotals(cur.engineId, addTotals.hours, addTotals.revs, m);
     });
@@ -292,8 +307,6 @@ export class RunsService {
 
   /** The run an engine is preparing or running now (for loggers that do not name a run). */
   async activeRunOf(engineId: string): Promise<Run | null> {
-    return this.db
-      .getRepository(Run)
-      .findOne({ where: { engineId, state: In(RUN_STATES_TAKING_READINGS as RunState[]) }, order: { createdAt: 'DESC' } });
+    return this.runRepo.findOne({ where: { engineId, state: In(RUN_STATES_TAKING_READINGS as RunState[]) }, order: { createdAt: 'DESC' } });
   }
 }

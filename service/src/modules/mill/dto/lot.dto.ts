@@ -120,6 +120,6 @@ export class LotRunParamDto {
   @IsUUID('all', { message: 'runId must be a UUID' }) runId: string;
 }
 
-export class RunIdParamDto {
+export class MillRunIdParamDto {
   @IsUUID('all', { message: 'runId must be a UUID' }) runId: string;
 }

@@ -10,7 +10,6 @@ import {
   IsUUID,
   MaxLength,
   MinLength,
-  ValidateNested,
   IsObject,
 } from 'class-validator';
 import type { AmendReadingRequest, LoggerBatchRequest, ReadingInput, RoundRequest } from '@crankjournal/shared-types';

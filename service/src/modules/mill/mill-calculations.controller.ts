@@ -19,9 +19,12 @@ export class MillCalculationsController {
     summary:
       'One rolling pass: reduction, elongation, contact length, mean flow stress, roll force, torque, power, and the flywheel’s share',
     description:
-      'Mean flow stress of hot plain carbon steel from Misaka & Yoshimoto (1967) unless meanFlowStressMPa is given; flagged as extrapolated ' +
-      'outside 750–1200 °C or strain rates 30–200 /s (a slow mill runs below that range). Roll force F = L·w·Y·frictionFactor with L = √(R·Δh); ' +
-      'torque per roll F·L/2; power for the roll pair 2π·F·L·N/60. Give all of the flywheel fields (flywheelMassLb, flywheelRadiusOfGyrationFt, ' +
+      'Mean flow stress of hot plain carbon steel from Misaka & Yoshimoto (1967) unless meanFlowStressMPa is given; ' +
+      'flagged as extrapolated ' +
+      'outside 750–1200 °C or strain rates 30–200 /s (a slow mill runs below that range). Roll force F = L·w·Y·frictionFactor ' +
+      'with L = √(R·Δh); ' +
+      'torque per roll F·L/2; power for the roll pair 2π·F·L·N/60. ' +
+      'Give all of the flywheel fields (flywheelMassLb, flywheelRadiusOfGyrationFt, ' +
       'engineSpeedRpm, ratedSpeedRpm, barExitLengthM, indicatedHp) for the speed drop and recovery time, or none. Warnings: stand_force, ' +
       'speed_drop, stall, no_surplus_power. Units are in every field name: Mm, C, Pct, Rpm, Kn, Lb, Ft, M, Hp, MPa.',
   })

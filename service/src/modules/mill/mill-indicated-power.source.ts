@@ -18,7 +18,7 @@ export interface IndicatedPowerFigure {
 const CACHE_MS = 5_000;
 
 @Injectable()
-export class IndicatedPowerSource {
+export class MillIndicatedPowerSource {
   private readonly cache = new Map<string, { at: number; sets: Promise<CardSetDto[]> }>();
 
   constructor(private readonly cardSets: CardSetsService) {}

@@ -1,7 +1,7 @@
 import { ValidationPipe, type ArgumentMetadata } from '@nestjs/common';
 import { WsException } from '@nestjs/websockets';
 import type { ValidationError } from 'class-validator';
-import { hiddenKeyPath } from '../../common/pipes/validation.pipe.js';
+import { hiddenKeyPath } from '../pipes/validation.pipe.js';
 
 function flatten(errors: ValidationError[], prefix = ''): string[] {
   return errors.flatMap((e) => [

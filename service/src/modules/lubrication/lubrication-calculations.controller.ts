@@ -23,11 +23,14 @@ import {
 } from './dto/calculations.dto.js';
 
 export const VISCOSITY_METHOD =
-  'ASTM D341 (Walther): log10 log10(\u03bd + 0.7) = A \u2212 B\u00b7log10 T, T in kelvin, A and B fixed by the 40 \u00b0C and 100 \u00b0C figures; ' +
+  'ASTM D341 (Walther): log10 log10(\u03bd + 0.7) = A \u2212 B\u00b7log10 T, T in kelvin, ' +
+  'A and B fixed by the 40 \u00b0C and 100 \u00b0C figures; ' +
   'absolute viscosity \u03bc = \u03bd\u00b7\u03c1 with \u03c1(T) = \u03c115\u00b7(1 \u2212 0.00065\u00b7(T \u2212 15 \u00b0C)).';
 export const FRICTION_METHOD =
-  'Petroff (concentric journal): T = 4\u03c0\u00b2\u03bcNr\u00b3l/c, f = 2\u03c0\u00b2(\u03bcN/P)(r/c), power = 2\u03c0NT, S = (r/c)\u00b2\u03bcN/P with N in rev/s and P = W/(D\u00b7L). ' +
-  'Petroff ignores the eccentricity of a loaded journal, so a slow, heavily loaded bearing (small S) really loses more than this: read it as the lower bound.';
+  'Petroff (concentric journal): T = 4\u03c0\u00b2\u03bcNr\u00b3l/c, f = 2\u03c0\u00b2(\u03bcN/P)(r/c), ' +
+  'power = 2\u03c0NT, S = (r/c)\u00b2\u03bcN/P with N in rev/s and P = W/(D\u00b7L). ' +
+  'Petroff ignores the eccentricity of a loaded journal, so a slow, heavily loaded bearing (small S) ' +
+  'really loses more than this: read it as the lower bound.';
 
 /** Pure-function errors (a value the formula cannot take) answer 400 with the reason. */
 function answer<T>(fn: () => T): T {
