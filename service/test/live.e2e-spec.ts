@@ -1,6 +1,7 @@
 import { io, type Socket } from 'socket.io-client';
 import type { JoinRoomAck, LiveErrorEvent, SiteNotice } from '@crankjournal/shared-types';
-import { bearer, startTestApp, type TestApp } from './utils/test-app.js';
+import { startTestApp, type TestApp } from './utils/test-app.js';
+import { signedIn } from './utils/signed-in.js';
 import { login } from './factories/users.factory.js';
 
 const WAIT_MS = 5_000;
@@ -83,7 +84,7 @@ describe('the live channel (socket.io)', () => {
 
     const message = `Boiler inspection at ten, notice ${Date.now()}`;
     const arrived = next<SiteNotice>(s, 'site:notice');
-    const res = await t.http.post('/api/live/notices').set('Authorization', bearer(chief.accessToken)).send({ message });
+    const res = await signedIn(t, chief).post('/api/live/notices').send({ message });
     expect(res.status).toBe(202);
     const notice = await arrived;
     expect(notice.message).toBe(message);

@@ -1,7 +1,8 @@
 import { randomUUID } from 'node:crypto';
 import { io, type Socket } from 'socket.io-client';
 import type { AlarmDto, EngineDetail, LiveAck, IngestResult, ReadingsEvent } from '@crankjournal/shared-types';
-import { bearer, startTestApp, type TestApp } from './utils/test-app.js';
+import { startTestApp, type TestApp } from './utils/test-app.js';
+import { signedIn } from './utils/signed-in.js';
 import { login, type SignedIn } from './factories/users.factory.js';
 import { createEngine, createPreparingRun, reading } from './factories/engine.factory.js';
 
@@ -69,9 +70,8 @@ describe('the run log live: readings and alarms reach everyone watching the run,
       c: collect<AlarmDto>(c, 'alarm:changed'),
     };
     const r = reading(point('THR'), 149);
-    const res = await t.http
+    const res = await signedIn(t, operator)
       .post(`/api/runs/${run.id}/rounds`)
-      .set('authorization', bearer(operator.accessToken))
       .send({ takenAt: r.takenAt, readings: [r] });
     expect(res.status).toBe(201);
     await until(() => got.a.length > 0 && got.b.length > 0 && alarms.a.length >= 2 && alarms.b.length >= 2);
@@ -89,9 +89,8 @@ describe('the run log live: readings and alarms reach everyone watching the run,
     const r = { ...reading(randomUUID(), 74), pointCode: 'SPD', pointId: undefined };
     const ack = (await s.timeout(WAIT_MS).emitWithAck('readings:submit', { runId: run.id, readings: [r] })) as LiveAck<IngestResult>;
     expect(ack).toMatchObject({ ok: true, data: { stored: 1, duplicates: 0 } });
-    const rest = await t.http
+    const rest = await signedIn(t, operator)
       .post(`/api/runs/${run.id}/rounds`)
-      .set('authorization', bearer(operator.accessToken))
       .send({ takenAt: r.takenAt, readings: [r] });
     expect(rest.body).toMatchObject({ stored: 0, duplicates: 1 });
     const denied = (await obs

@@ -9,7 +9,8 @@ import type {
   RunDetail,
   StartGateVerdict,
 } from '@crankjournal/shared-types';
-import { bearer, type TestApp } from '../utils/test-app.js';
+import { type TestApp } from '../utils/test-app.js';
+import { signedIn } from '../utils/signed-in.js';
 import type { SignedIn } from './users.factory.js';
 
 const DAY_MS = 86_400_000;
@@ -22,9 +23,8 @@ export async function createEngine(
   opts: { preLubeFreshnessMinutes?: number } = {},
 ): Promise<{ id: string; name: string; pointId: string }> {
   const name = `Test engine ${randomUUID().slice(0, 8)}`;
-  const res = await t.http
+  const res = await signedIn(t, chief)
     .post('/api/engines')
-    .set('Authorization', bearer(chief.accessToken))
     .send({
       name,
       builder: 'Test works',
@@ -65,9 +65,8 @@ export async function grant(
 ) {
   const out: string[] = [];
   for (const duty of duties) {
-    const res = await t.http
+    const res = await signedIn(t, chief)
       .post('/api/qualifications')
-      .set('Authorization', bearer(chief.accessToken))
       .send({ userId, engineId, duty, grantedOn: isoDate(dates.from ?? -100), expiresOn: isoDate(dates.to ?? 200) });
     if (res.status !== 201) throw new Error(`qualification not granted: ${res.status} ${JSON.stringify(res.body)}`);
     out.push(res.body.id);
@@ -157,9 +156,8 @@ export async function createTemplate(
   engineId: string,
   content: ChecklistTemplateContent,
 ): Promise<ChecklistTemplateDetail> {
-  const res = await t.http
+  const res = await signedIn(t, chief)
     .post('/api/checklist-templates')
-    .set('Authorization', bearer(chief.accessToken))
     .send({ ...content, engineId, publish: true });
   if (res.status !== 201) throw new Error(`template not created: ${res.status} ${JSON.stringify(res.body)}`);
   return res.body;
@@ -172,31 +170,27 @@ export async function preparingRun(t: TestApp, by: SignedIn, engineId: string): 
     [engineId],
   );
   await t.db.query(`UPDATE engines SET active_run_id = NULL WHERE id = $1`, [engineId]);
-  const created = await t.http
+  const created = await signedIn(t, by)
     .post('/api/runs')
-    .set('Authorization', bearer(by.accessToken))
     .send({ engineId, purpose: 'test', title: `Test run ${randomUUID().slice(0, 6)}` });
   if (created.status !== 201) throw new Error(`run not created: ${created.status} ${JSON.stringify(created.body)}`);
-  const moved = await t.http
-    .post(`/api/runs/${created.body.id}/transitions`)
-    .set('Authorization', bearer(by.accessToken))
-    .send({ to: 'preparing' });
+  const moved = await signedIn(t, by).post(`/api/runs/${created.body.id}/transitions`).send({ to: 'preparing' });
   if (moved.status !== 200) throw new Error(`run not prepared: ${moved.status} ${JSON.stringify(moved.body)}`);
   return moved.body;
 }
 
 export async function startChecklist(t: TestApp, by: SignedIn, runId: string, templateId: string): Promise<ChecklistDetail> {
-  const res = await t.http.post(`/api/runs/${runId}/checklists`).set('Authorization', bearer(by.accessToken)).send({ templateId });
+  const res = await signedIn(t, by).post(`/api/runs/${runId}/checklists`).send({ templateId });
   if (res.status !== 201) throw new Error(`checklist not started: ${res.status} ${JSON.stringify(res.body)}`);
   return res.body;
 }
 
 export function fill(t: TestApp, by: SignedIn, checklistId: string, itemKey: string, value: Record<string, unknown>) {
-  return t.http.put(`/api/checklists/${checklistId}/items/${itemKey}`).set('Authorization', bearer(by.accessToken)).send(value);
+  return signedIn(t, by).put(`/api/checklists/${checklistId}/items/${itemKey}`).send(value);
 }
 
 export function sign(t: TestApp, by: SignedIn, checklistId: string, signature = by.account.password) {
-  return t.http.post(`/api/checklists/${checklistId}/sign`).set('Authorization', bearer(by.accessToken)).send({ signature });
+  return signedIn(t, by).post(`/api/checklists/${checklistId}/sign`).send({ signature });
 }
 
 /** Good values for every required item of the test templates. */
@@ -234,7 +228,7 @@ export async function startByRest(
   by: SignedIn,
   runId: string,
 ): Promise<{ status: number; verdict: StartGateVerdict | null; run: RunDetail | null }> {
-  const res = await t.http.post(`/api/runs/${runId}/transitions`).set('Authorization', bearer(by.accessToken)).send({ to: 'running' });
+  const res = await signedIn(t, by).post(`/api/runs/${runId}/transitions`).send({ to: 'running' });
   return {
     status: res.status,
     verdict: res.status === 409 ? (res.body.details as StartGateVerdict) : null,

@@ -1,6 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import type { EngineDetail, EngineWriteRequest, RunDetail } from '@crankjournal/shared-types';
-import { bearer, type TestApp } from '../utils/test-app.js';
+import { type TestApp } from '../utils/test-app.js';
+import { signedIn } from '../utils/signed-in.js';
 
 /** A small engine with one of each kind of point the alarm rules care about. Test data, not demo data. */
 export function engineBody(name = `Test engine ${randomUUID().slice(0, 8)}`): EngineWriteRequest {
@@ -60,19 +61,18 @@ export function engineBody(name = `Test engine ${randomUUID().slice(0, 8)}`): En
 }
 
 export async function createEngine(t: TestApp, chiefToken: string, body = engineBody()): Promise<EngineDetail> {
-  const res = await t.http.post('/api/engines').set('authorization', bearer(chiefToken)).send(body);
+  const res = await signedIn(t, chiefToken).post('/api/engines').send(body);
   if (res.status !== 201) throw new Error(`engine not created: ${res.status} ${JSON.stringify(res.body)}`);
   return res.body as EngineDetail;
 }
 
 /** A run in `preparing` (readings are taken from preparation on). */
 export async function createPreparingRun(t: TestApp, token: string, engineId: string): Promise<RunDetail> {
-  const res = await t.http
+  const res = await signedIn(t, token)
     .post('/api/runs')
-    .set('authorization', bearer(token))
     .send({ engineId, purpose: 'test', title: `Run ${randomUUID().slice(0, 6)}` });
   if (res.status !== 201) throw new Error(`run not created: ${res.status} ${JSON.stringify(res.body)}`);
-  const prep = await t.http.post(`/api/runs/${res.body.id}/transitions`).set('authorization', bearer(token)).send({ to: 'preparing' });
+  const prep = await signedIn(t, token).post(`/api/runs/${res.body.id}/transitions`).send({ to: 'preparing' });
   if (prep.status !== 200) throw new Error(`run not preparing: ${prep.status} ${JSON.stringify(prep.body)}`);
   return prep.body as RunDetail;
 }

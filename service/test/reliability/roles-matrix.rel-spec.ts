@@ -7,6 +7,7 @@ import { randomUUID } from 'node:crypto';
 import { io, type Socket } from 'socket.io-client';
 import { ROLES, type Role } from '@crankjournal/shared-types';
 import { startTestApp } from '../utils/test-app.js';
+import { authHeader } from '../utils/signed-in.js';
 import { createEngine } from '../factories/engine.factory.js';
 import { ROUTE_ACCESS, SOCKET_ACCESS, type RouteAccess } from '../roles-matrix.table.js';
 import { ROOM_RULES } from '../../src/modules/live/room-rules.js';
@@ -28,7 +29,7 @@ const chief = sessions.chief_engineer.token;
 const engine = await createEngine(t, chief);
 const issued = await fetch(`${t.url}/api/loggers`, {
   method: 'POST',
-  headers: { 'content-type': 'application/json', authorization: `Bearer ${sessions.administrator.token}` },
+  headers: { 'content-type': 'application/json', ...authHeader(sessions.administrator.token) },
   body: JSON.stringify({ engineId: engine.id, name: 'Roles matrix logger' }),
 });
 const loggerKey = ((await issued.json()) as { key: string }).key;
@@ -70,7 +71,8 @@ describe('roles matrix: HTTP routes (router vs test/roles-matrix.table.ts)', () 
     const missing = served.filter((r) => !(r.key in ROUTE_ACCESS)).map((r) => `  '${r.key}': [...roles] | 'public' | 'logger-key',`);
     if (missing.length)
       throw new Error(
-        `${missing.length} route(s) have no row in ${TABLE_FILE}. Add, as each controller's @Roles/@AnyRole/@Public says:\n${missing.join('\n')}`,
+        `${missing.length} route(s) have no row in ${TABLE_FILE}. Add, as each controller's @Roles/@AnyRole/@Public ` +
+          `says:\n${missing.join('\n')}`,
       );
   });
 
@@ -91,7 +93,7 @@ describe('roles matrix: HTTP routes (router vs test/roles-matrix.table.ts)', () 
     const answers = await Promise.all(
       PRINCIPALS.map((p) => {
         const token = tokenOf(p);
-        return call(method, concretePath(path), token ? { authorization: `Bearer ${token}` } : {});
+        return call(method, concretePath(path), token ? authHeader(token) : {});
       }),
     );
     PRINCIPALS.forEach((p, i) => {
@@ -157,7 +159,8 @@ describe('roles matrix: socket events (gateways vs test/roles-matrix.table.ts)',
     const uncovered = ROOM_RULES.filter((r) => !samples.some((room) => r.pattern.test(room)));
     if (uncovered.length)
       throw new Error(
-        `room rule(s) with no 'room:join <example room>' row in ${TABLE_FILE}: ${uncovered.map((r) => `${r.pattern} (${r.what})`).join('; ')}`,
+        `room rule(s) with no 'room:join <example room>' row in ${TABLE_FILE}: ` +
+          `${uncovered.map((r) => `${r.pattern} (${r.what})`).join('; ')}`,
       );
   });
 
