@@ -8,7 +8,7 @@ import {
   PRE_LUBE,
   SHUTDOWN,
   completeChecklist,
-  createEngine,
+  gateEngine,
   createTemplate,
   fill,
   grant,
@@ -51,7 +51,7 @@ describe('checklists and the start gate (API)', () => {
     lapsed = await login(t, 'operator');
     unqualified = await login(t, 'operator');
     observer = await login(t, 'observer');
-    engine = await createEngine(t, chief);
+    engine = await gateEngine(t, chief);
     preLube = await createTemplate(t, chief, engine.id, PRE_LUBE);
     inspection = await createTemplate(t, chief, engine.id, INSPECTION);
     shutdown = await createTemplate(t, chief, engine.id, SHUTDOWN);

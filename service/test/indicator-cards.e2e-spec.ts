@@ -1,5 +1,5 @@
 import { randomUUID } from 'node:crypto';
-import { io, type Socket } from 'socket.io-client';
+import type { Socket } from 'socket.io-client';
 import type { CardSetDto, CardTrace, EngineDetail, IndicatedPowerRequest, RunDetail, RunRecordEvent } from '@crankjournal/shared-types';
 import { computeIndicatedPower } from '../src/calculations/indicated-power.js';
 import { calibrateTrace } from '../src/calculations/indicator-card.js';
@@ -8,6 +8,7 @@ import { psigToPsia } from '../src/calculations/units.js';
 import { createEngine, createPreparingRun, engineBody } from './factories/engine.factory.js';
 import { login, type SignedIn } from './factories/users.factory.js';
 import { startTestApp, type TestApp } from './utils/test-app.js';
+import { connected, socketAs } from './utils/socket.js';
 import { signedIn } from './utils/signed-in.js';
 
 const WAIT_MS = 5_000;
@@ -226,12 +227,9 @@ describe('indicator cards and indicated power', () => {
     const takenAt = () => new Date(Date.now() - 60_000).toISOString();
 
     async function observerSocket(runId: string): Promise<Socket> {
-      const s = io(t.url, { transports: ['websocket'], reconnection: false, forceNew: true, auth: { token: observer.accessToken } });
+      const s = socketAs(t.url, observer);
       sockets.push(s);
-      await new Promise<void>((resolve, reject) => {
-        s.once('connect', () => resolve());
-        s.once('connect_error', reject);
-      });
+      await connected(s);
       const ack = await s.timeout(WAIT_MS).emitWithAck('room:join', { room: `run:${runId}` });
       expect(ack).toMatchObject({ ok: true });
       return s;

@@ -14,7 +14,7 @@ import { startTestApp, type TestApp } from './utils/test-app.js';
 import { signedIn } from './utils/signed-in.js';
 import { login, type SignedIn } from './factories/users.factory.js';
 import { reading } from './factories/engine.factory.js';
-import { createMill, createRun, forceRunState, millBody, millEngine, scheduleBody } from './factories/mill.factory.js';
+import { createMill, createMillRun, forceRunState, millBody, millEngine, scheduleBody } from './factories/mill.factory.js';
 import { waitForMessage } from './utils/mail-inbox.js';
 
 const rect = (heightMm: number, widthMm: number) => ({ shape: 'rectangle' as const, heightMm, widthMm });
@@ -215,7 +215,7 @@ describe('the mill (API)', () => {
     const point = (code: string) => engine.measurementPoints.find((p) => p.code === code)!.id;
 
     beforeAll(async () => {
-      run = await createRun(t, chief.accessToken, engine.id);
+      run = await createMillRun(t, chief.accessToken, engine.id);
     });
 
     it('refuses bars while the run is only planned', async () => {
@@ -399,7 +399,7 @@ describe('the mill (API)', () => {
       const noRun = await move(lead, lot.id, 'scheduled');
       expect(noRun.status).toBe(409);
       expect(noRun.body.message).toMatch(/Link the run/);
-      const run = await createRun(t, chief.accessToken, engine.id);
+      const run = await createMillRun(t, chief.accessToken, engine.id);
       expect((await signedIn(t, lead).post(`/api/mill/lots/${lot.id}/runs`).send({ runId: run.id })).status).toBe(200);
       expect((await move(lead, lot.id, 'scheduled')).status).toBe(200);
       const notRolled = await move(lead, lot.id, 'rolled');

@@ -3,7 +3,7 @@ import type { QualificationDto, QualificationMatrix } from '@crankjournal/shared
 import { startTestApp, type TestApp } from './utils/test-app.js';
 import { signedIn } from './utils/signed-in.js';
 import { login, type SignedIn } from './factories/users.factory.js';
-import { createEngine, grant, isoDate, preparingRun } from './factories/checklists.factory.js';
+import { gateEngine, grant, isoDate, preparingRun } from './factories/checklists.factory.js';
 
 describe('crew qualifications (API)', () => {
   let t: TestApp;
@@ -20,7 +20,7 @@ describe('crew qualifications (API)', () => {
     operator = await login(t, 'operator');
     admin = await login(t, 'administrator');
     observer = await login(t, 'observer');
-    engine = await createEngine(t, chief);
+    engine = await gateEngine(t, chief);
   }, 180_000);
   afterAll(async () => {
     await t?.close();
@@ -158,7 +158,7 @@ describe('crew qualifications (API)', () => {
   describe('acknowledging alarms', () => {
     /** A run of a fresh engine with an active high-high alarm. */
     async function alarmOn() {
-      const e = await createEngine(t, chief);
+      const e = await gateEngine(t, chief);
       const starter = await login(t, 'operator');
       const run = await preparingRun(t, starter, e.id);
       const now = new Date().toISOString();

@@ -1,7 +1,8 @@
 import { randomUUID } from 'node:crypto';
-import { io, type Socket } from 'socket.io-client';
+import type { Socket } from 'socket.io-client';
 import type { AlarmDto, EngineDetail, LiveAck, IngestResult, ReadingsEvent } from '@crankjournal/shared-types';
 import { startTestApp, type TestApp } from './utils/test-app.js';
+import { connected, socketAs } from './utils/socket.js';
 import { signedIn } from './utils/signed-in.js';
 import { login, type SignedIn } from './factories/users.factory.js';
 import { createEngine, createPreparingRun, reading } from './factories/engine.factory.js';
@@ -18,12 +19,9 @@ describe('the run log live: readings and alarms reach everyone watching the run,
   const point = (code: string) => engine.measurementPoints.find((p) => p.code === code)!.id;
 
   const joined = async (token: string, room: string): Promise<Socket> => {
-    const s = io(t.url, { transports: ['websocket'], reconnection: false, forceNew: true, auth: { token } });
+    const s = socketAs(t.url, token);
     sockets.push(s);
-    await new Promise<void>((res, rej) => {
-      s.once('connect', () => res());
-      s.once('connect_error', rej);
-    });
+    await connected(s);
     const ack = await s.timeout(WAIT_MS).emitWithAck('room:join', { room });
     expect(ack).toMatchObject({ ok: true });
     return s;

@@ -2,7 +2,7 @@ import { randomUUID } from 'node:crypto';
 import type { EngineDetail, MillDto, MillWriteRequest, RunDetail, ScheduleWriteRequest } from '@crankjournal/shared-types';
 import { type TestApp } from '../utils/test-app.js';
 import { signedIn } from '../utils/signed-in.js';
-import { createEngine, engineBody } from './engine.factory.js';
+import { createEngine, createRun, engineBody } from './engine.factory.js';
 
 /** A test engine with a flywheel (the demo engine's invented figures: 156,800 lb at k = 9.9 ft, 75 rpm). */
 export function millEngine(t: TestApp, chiefToken: string): Promise<EngineDetail> {
@@ -70,13 +70,9 @@ export function scheduleBody(millId: string, isTemplate = true): ScheduleWriteRe
   };
 }
 
-/** A planned run of the engine. */
-export async function createRun(t: TestApp, token: string, engineId: string): Promise<RunDetail> {
-  const res = await signedIn(t, token)
-    .post('/api/runs')
-    .send({ engineId, purpose: 'production_lot', title: `Mill run ${randomUUID().slice(0, 6)}` });
-  if (res.status !== 201) throw new Error(`run not created: ${res.status} ${JSON.stringify(res.body)}`);
-  return res.body as RunDetail;
+/** A planned production run of the engine. */
+export function createMillRun(t: TestApp, token: string, engineId: string): Promise<RunDetail> {
+  return createRun(t, token, engineId, { purpose: 'production_lot', title: `Mill run ${randomUUID().slice(0, 6)}` });
 }
 
 /**

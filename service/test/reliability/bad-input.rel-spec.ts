@@ -7,9 +7,10 @@
  */
 import { randomUUID } from 'node:crypto';
 import { request as httpRequest } from 'node:http';
-import { io, type Socket } from 'socket.io-client';
+import type { Socket } from 'socket.io-client';
 import type { EngineDetail, ReadingDto } from '@crankjournal/shared-types';
 import { startTestApp } from '../utils/test-app.js';
+import { connected, socketAs } from '../utils/socket.js';
 import { authHeader } from '../utils/signed-in.js';
 import { createPreparingRun, engineBody } from '../factories/engine.factory.js';
 import { ROUTE_ACCESS } from '../roles-matrix.table.js';
@@ -725,11 +726,7 @@ function declaredOversizedUpload(path: string, contentType: string, declared: nu
 let socket: Socket;
 async function emit(event: string, payload: unknown): Promise<Answer> {
   if (!socket?.connected) {
-    socket = io(t.url, { transports: ['websocket'], reconnection: false, forceNew: true, auth: { token: operator } });
-    await new Promise<void>((res, rej) => {
-      socket.once('connect', () => res());
-      socket.once('connect_error', rej);
-    });
+    socket = await connected(socketAs(t.url, operator));
   }
   const errors: { message: unknown; status?: number }[] = [];
   const onError = (e: { message: unknown; status?: number }) => errors.push(e);

@@ -4,9 +4,10 @@
  * the table fails with a message saying which row to add.
  */
 import { randomUUID } from 'node:crypto';
-import { io, type Socket } from 'socket.io-client';
+import type { Socket } from 'socket.io-client';
 import { ROLES, type Role } from '@crankjournal/shared-types';
 import { startTestApp } from '../utils/test-app.js';
+import { connected, socketAs } from '../utils/socket.js';
 import { authHeader } from '../utils/signed-in.js';
 import { createEngine } from '../factories/engine.factory.js';
 import { ROUTE_ACCESS, SOCKET_ACCESS, type RouteAccess } from '../roles-matrix.table.js';
@@ -118,18 +119,14 @@ const sockets = new Map<string, Socket>();
 async function socketFor(role: Role): Promise<Socket> {
   const hit = sockets.get(role);
   if (hit?.connected) return hit;
-  const s = io(t.url, { transports: ['websocket'], reconnection: false, forceNew: true, auth: { token: sessions[role].token } });
-  await new Promise<void>((res, rej) => {
-    s.once('connect', () => res());
-    s.once('connect_error', rej);
-  });
+  const s = await connected(socketAs(t.url, sessions[role].token));
   sockets.set(role, s);
   return s;
 }
 
 /** The connect error a token gets, or null when the live channel lets it in. */
 async function connectRefusal(token: string | undefined): Promise<string | null> {
-  const s = io(t.url, { transports: ['websocket'], reconnection: false, forceNew: true, auth: token ? { token } : {} });
+  const s = socketAs(t.url, token);
   try {
     return await new Promise<string | null>((res) => {
       s.once('connect', () => res(null));

@@ -5,7 +5,7 @@ import { bearer, type TestApp } from './test-app.js';
 /** Who makes a request: a signed-in session or a bare access token (minted tokens, expired tokens). */
 export type Who = SignedIn | string;
 
-const tokenOf = (who: Who) => (typeof who === 'string' ? who : who.accessToken);
+export const tokenOf = (who: Who) => (typeof who === 'string' ? who : who.accessToken);
 
 /** Requests through the test app's supertest agent, each with the `Authorization` header of one person. */
 export interface SignedInClient {
