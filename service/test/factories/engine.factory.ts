@@ -61,7 +61,7 @@ export function engineBody(name = `Test engine ${randomUUID().slice(0, 8)}`): En
 }
 
 /** Creates an engine through the API as `chief` (a chief engineer's session or token). */
-export async function createEngine(t: TestApp, chief: Who, body: object = engineBody()): Promise<EngineDetail> {
+export async function createEngine(t: TestApp, chief: Who, body: EngineWriteRequest = engineBody()): Promise<EngineDetail> {
   const res = await signedIn(t, chief).post('/api/engines').send(body);
   if (res.status !== 201) throw new Error(`engine not created: ${res.status} ${JSON.stringify(res.body)}`);
   return res.body as EngineDetail;
