@@ -139,7 +139,8 @@ async function measure(url, label, viewerToken, submitToken, serverPid) {
     ackMs: roundStats(stats(ackLatencies)),
   };
   log(
-    `${label}: alarm event at viewer median ${out.latencyMs.median} ms, p99 ${out.latencyMs.p99} ms (${lat.n}/${expected} events, ${mismatched} out of order, rate ${out.achievedRate}/s, ${late} late sends)`,
+    `${label}: alarm event at viewer median ${out.latencyMs.median} ms, p99 ${out.latencyMs.p99} ms ` +
+      `(${lat.n}/${expected} events, ${mismatched} out of order, rate ${out.achievedRate}/s, ${late} late sends)`,
   );
   return out;
 }

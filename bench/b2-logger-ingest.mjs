@@ -59,7 +59,8 @@ for (let b = 0; b < BATCHES; b++) {
     slice
       .map(
         (r) =>
-          `${randomUUID()}\t${twinRun}\t${twin.id}\t${twin.points[r.code].id}\t${r.value}\t${twin.points[r.code].unit}\t${r.takenAt}\tlogger\t${ctx.loggerId}\n`,
+          `${randomUUID()}\t${twinRun}\t${twin.id}\t${twin.points[r.code].id}\t${r.value}\t` +
+          `${twin.points[r.code].unit}\t${r.takenAt}\tlogger\t${ctx.loggerId}\n`,
       )
       .join(''),
   );
@@ -128,7 +129,8 @@ const [{ n: alarms1 }] = (
 ).rows;
 await db.end();
 log(
-  `service: ${Math.round(rate)} readings/s (${stored} stored in ${pushSeconds.toFixed(1)} s, ${raised} alarms raised, ${alarms1 - alarms0} alarm events)`,
+  `service: ${Math.round(rate)} readings/s (${stored} stored in ${pushSeconds.toFixed(1)} s, ${raised} alarms raised, ` +
+    `${alarms1 - alarms0} alarm events)`,
 );
 if (stored !== total) throw new Error(`stored ${stored} of ${total}`);
 

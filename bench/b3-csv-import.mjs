@@ -32,7 +32,6 @@ import {
 
 const ROWS = Number(process.env.B3_ROWS ?? 1_000_000);
 const ctx = context();
-const eng = ctx.engines.csv;
 const runId = ctx.runs.csv;
 const codes = ['T1', 'T2', 'T3', 'T4', 'T5', 'T6', 'T7', 'T8', 'AMB', 'SPD', 'THR'];
 
@@ -95,7 +94,9 @@ if (res.statusCode !== 201 && res.statusCode !== 200)
 const rate = answer.stored / importSeconds;
 const peakMb = Math.max(sampled?.maxMb ?? 0, hwmReset ? after.hwmMb : 0);
 log(
-  `service: ${Math.round(rate)} rows/s (${answer.stored} stored, ${answer.rejectedCount} refused, ${answer.alarmsRaised} alarms in ${importSeconds.toFixed(1)} s); memory ${Math.round(before?.rssMb)} MB before, peak ${Math.round(peakMb)} MB`,
+  `service: ${Math.round(rate)} rows/s (${answer.stored} stored, ${answer.rejectedCount} refused, ` +
+    `${answer.alarmsRaised} alarms in ${importSeconds.toFixed(1)} s); memory ${Math.round(before?.rssMb)} MB before, ` +
+    `peak ${Math.round(peakMb)} MB`,
 );
 if (answer.stored !== ROWS) throw new Error(`stored ${answer.stored} of ${ROWS}`);
 

@@ -63,7 +63,8 @@ async function series(path, n) {
 const history = await series(`/api/maintenance/bearings/${bearingId}/history`, N);
 const parsed = JSON.parse(history.body);
 log(
-  `history of bearing 3: ${parsed.runs.length} runs, ${parsed.runs.filter((r) => r.drift?.flagged).length} flagged; median ${history.median} ms, p99 ${history.p99} ms (first ${history.first} ms)`,
+  `history of bearing 3: ${parsed.runs.length} runs, ${parsed.runs.filter((r) => r.drift?.flagged).length} flagged; ` +
+    `median ${history.median} ms, p99 ${history.p99} ms (first ${history.first} ms)`,
 );
 const list = await series(`/api/maintenance/bearings`, Math.max(10, Math.round(N / 2)));
 log(`bearings list: ${JSON.parse(list.body).length} bearings; median ${list.median} ms, p99 ${list.p99} ms (first ${list.first} ms)`);
@@ -79,9 +80,13 @@ const open = (
 ).rows.map((r) => r.id);
 const explain = async (sql, params) =>
   (await db.query(`EXPLAIN (ANALYZE, BUFFERS) ${sql}`, params)).rows.map((r) => r['QUERY PLAN']).join('\n');
-const keptSql = `SELECT run_id, point_id, peak, mean, least, count, first_at, last_at FROM run_point_stats WHERE point_id = ANY($1::uuid[]) AND run_id = ANY($2::uuid[])`;
-const aggSql = `SELECT run_id, point_id, max(v) AS peak, avg(v) AS mean, min(v) AS least, count(*)::int AS n, min(taken_at) AS first_at, max(taken_at) AS last_at
-  FROM (SELECT run_id, point_id, COALESCE(amended_value, value) AS v, taken_at FROM readings WHERE point_id = ANY($1::uuid[]) AND run_id = ANY($2::uuid[])) r
+const keptSql =
+  `SELECT run_id, point_id, peak, mean, least, count, first_at, last_at FROM run_point_stats WHERE ` +
+  `point_id = ANY($1::uuid[]) AND run_id = ANY($2::uuid[])`;
+const aggSql = `SELECT run_id, point_id, max(v) AS peak, avg(v) AS mean, min(v) AS least, count(*)::int AS n,
+       min(taken_at) AS first_at, max(taken_at) AS last_at
+  FROM (SELECT run_id, point_id, COALESCE(amended_value, value) AS v, taken_at FROM readings
+         WHERE point_id = ANY($1::uuid[]) AND run_id = ANY($2::uuid[])) r
  GROUP BY run_id, point_id`;
 const plans = {
   kept: await explain(keptSql, [own, closed]),
@@ -90,7 +95,8 @@ const plans = {
 };
 const execMs = (plan) => Number((plan.match(/Execution Time: ([\d.]+) ms/) ?? [])[1]);
 log(
-  `query times: kept figures ${execMs(plans.kept)} ms, open run ${execMs(plans.openRun)} ms, all runs without kept figures ${execMs(plans.withoutKeptFigures)} ms`,
+  `query times: kept figures ${execMs(plans.kept)} ms, open run ${execMs(plans.openRun)} ms, all runs without kept ` +
+    `figures ${execMs(plans.withoutKeptFigures)} ms`,
 );
 await db.end();
 

@@ -39,7 +39,8 @@ for (let s = 0; s < SEASONS; s++) {
   }
 }
 await q(
-  `INSERT INTO runs (engine_id, title, purpose, state, started_at, stopped_at, closed_at, revolutions, created_by, created_at, updated_at, version)
+  `INSERT INTO runs (engine_id, title, purpose, state, started_at, stopped_at, closed_at, revolutions, created_by, created_at,
+                     updated_at, version)
    SELECT $1, t, 'demonstration', 'stopped', a, b, NULL, 75 * extract(epoch FROM b - a) / 60, $2, a - interval '1 day', b, 1
      FROM unnest($3::text[], $4::text[], $5::timestamptz[], $6::timestamptz[]) AS x(t, st, a, b)`,
   [
@@ -55,13 +56,13 @@ await q(
 // Set the secondary indexes and the foreign-key triggers aside for the load.
 const indexes = (
   await q(
-    `SELECT indexname, indexdef FROM pg_indexes WHERE tablename = 'readings' AND indexname NOT IN (SELECT conname FROM pg_constraint WHERE conrelid = 'readings'::regclass)`,
+    `SELECT indexname, indexdef FROM pg_indexes WHERE tablename = 'readings' AND indexname NOT IN (SELECT conname ` +
+      `FROM pg_constraint WHERE conrelid = 'readings'::regclass)`,
   )
 ).rows;
 for (const i of indexes) await q(`DROP INDEX "${i.indexname}"`);
 await q(`ALTER TABLE readings DISABLE TRIGGER ALL`);
 await q(`SET work_mem = '256MB'`);
-let total = 0;
 try {
   for (let s = 0; s < SEASONS; s++) {
     const y = year - SEASONS + s;
@@ -72,7 +73,8 @@ try {
       `INSERT INTO readings (client_id, run_id, engine_id, point_id, value, unit, taken_at, source)
        SELECT gen_random_uuid(), r.id, r.engine_id, p.id,
               CASE p.kind
-                WHEN 'ambient_temperature' THEN 62 + 12 * sin(extract(doy FROM r.started_at) / 365.0 * 2 * pi() - 1.4) + 4 * s.s / $3::float + (random() - 0.5)
+                WHEN 'ambient_temperature' THEN 62 + 12 * sin(extract(doy FROM r.started_at) / 365.0 * 2 * pi() - 1.4)
+                                                + 4 * s.s / $3::float + (random() - 0.5)
                 WHEN 'speed' THEN 74 + 0.6 * sin(s.s / 97.0) + (random() - 0.5) * 0.4
                 WHEN 'throttle_pressure' THEN 125 + 4 * sin(s.s / 613.0) + (random() - 0.5)
                 ELSE 62 + 12 * sin(extract(doy FROM r.started_at) / 365.0 * 2 * pi() - 1.4)
@@ -87,7 +89,6 @@ try {
         ORDER BY r.started_at, s.s, p.sequence`,
       [eng.id, `Season ${y} %`, RUN_SECONDS, s === SEASONS - 1],
     );
-    total += r.rowCount;
     log(`season ${y}: ${r.rowCount} readings in ${((performance.now() - ts) / 1000).toFixed(0)} s`);
   }
 } finally {

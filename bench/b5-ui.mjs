@@ -64,7 +64,8 @@ let signIn;
   await c.close();
 }
 log(
-  `sign-in page: ${signIn.files.length} scripts, ${Math.round(signIn.bytes / 1024)} kB as sent, ${Math.round(signIn.gzipBytes / 1024)} kB gzip`,
+  `sign-in page: ${signIn.files.length} scripts, ${Math.round(signIn.bytes / 1024)} kB as sent, ` +
+    `${Math.round(signIn.gzipBytes / 1024)} kB gzip`,
 );
 
 // ---- live run page: JavaScript loaded, time to usable -------------------------------------------------------
@@ -109,7 +110,9 @@ const readingsIn = { rounds: await counts(ctx.runs.ui), busy: await counts(ctx.r
 log(`busy run (${readingsIn.busy} readings): usable after ${Math.round(busyStats.median)} ms (cold, median)`);
 const live = cold[cold.length - 1];
 log(
-  `live run page: ${live.files.length} scripts, ${Math.round(live.scripts.bytes / 1024)} kB as sent, ${Math.round(live.scripts.gzipBytes / 1024)} kB gzip; usable after ${Math.round(coldStats.median)} ms (cold, median), ${Math.round(warmStats.median)} ms (warm)`,
+  `live run page: ${live.files.length} scripts, ${Math.round(live.scripts.bytes / 1024)} kB as sent, ` +
+    `${Math.round(live.scripts.gzipBytes / 1024)} kB gzip; usable after ${Math.round(coldStats.median)} ms (cold, ` +
+    `median), ${Math.round(warmStats.median)} ms (warm)`,
 );
 if (live.errors.length) log(`page errors: ${live.errors.slice(0, 3).join(' | ')}`);
 

@@ -11,13 +11,13 @@ let alarmCounter = 0;
 
 io.on('connection', (socket) => {
   socket.on('room:join', (body, ack) => {
-    socket.join(body.room);
+    void socket.join(body.room);
     ack?.({ ok: true, room: body.room });
   });
   socket.on('readings:submit', (body, ack) => {
     const room = `run:${body.runId}`;
     const now = new Date().toISOString();
-    const readings = body.readings.map((r, i) => ({
+    const readings = body.readings.map((r) => ({
       id: String(++alarmCounter),
       clientId: r.clientId,
       runId: body.runId,
@@ -63,6 +63,6 @@ io.on('connection', (socket) => {
 
 http.listen(port, '127.0.0.1', () => process.send?.('ready'));
 process.on('SIGTERM', () => {
-  io.close();
+  void io.close();
   http.close(() => process.exit(0));
 });

@@ -120,10 +120,13 @@ const md = [];
 md.push('# Benchmarks');
 md.push('');
 md.push(
-  `Measured by \`npm run bench\` (bench/run.sh) on ${new Date().toISOString().slice(0, 10)}${seconds ? `, in ${Math.round(seconds / 60)} minutes` : ''}. ` +
-    'Each benchmark runs against the built service (`node service/dist/main.js`, NODE_ENV=production, LOG_LEVEL=warn) as its own process, ' +
+  `Measured by \`npm run bench\` (bench/run.sh) on ` +
+    `${new Date().toISOString().slice(0, 10)}${seconds ? `, in ${Math.round(seconds / 60)} minutes` : ''}. ` +
+    'Each benchmark runs against the built service (`node service/dist/main.js`, NODE_ENV=production, LOG_LEVEL=warn) ' +
+    'as its own process, ' +
     'a private PostgreSQL cluster with durable commits (fsync on, as in service) and a fresh database, all on 127.0.0.1. ' +
-    'The bench scripts (bench/*.mjs) are separate Node processes. The figures below are rewritten by every run; this page is generated (bench/report.mjs).',
+    'The bench scripts (bench/*.mjs) are separate Node processes. The figures below are rewritten by every run; this ' +
+    'page is generated (bench/report.mjs).',
 );
 md.push('');
 md.push('## Machine');
@@ -147,7 +150,8 @@ for (const n of [1, 2, 3, 4, 5]) {
   const f = failed(n);
   if (f)
     md.push(
-      `> Benchmark ${n} (${f.script}) failed in the run of ${f.at.slice(0, 16)}; its figures above are from an earlier run or missing. See the command's output.`,
+      `> Benchmark ${n} (${f.script}) failed in the run of ${f.at.slice(0, 16)}; its figures above are from an ` +
+        `earlier run or missing. See the command's output.`,
     );
 }
 md.push('');
@@ -161,7 +165,8 @@ if (b1) {
   md.push('');
   md.push(
     `${s.viewers} viewers joined the room of a run; ${s.clients} clients submitted readings on the live channel (\`readings:submit\`, ` +
-      `one reading each, with acknowledgement) at ${s.targetRate} readings/s together, each on its own measurement point (high limit 130 °F, ` +
+      `one reading each, with acknowledgement) at ${s.targetRate} readings/s together, each on its own measurement ` +
+      `point (high limit 130 °F, ` +
       'deadband 2 °F), alternating a value above the limit (raises or re-activates the alarm) and one below limit − deadband ' +
       '(returns it to normal). So every reading changes an alarm and every viewer gets one `alarm:changed` per reading. ' +
       'Measured: time from the submission to the `alarm:changed` at each viewer, all viewers and clients in one bench process ' +
@@ -193,7 +198,8 @@ if (b1) {
   md.push('');
   md.push(
     `Out-of-order or mismatched events: ${s.mismatched}. CPU per reading: service ${fmt(s.serverCpuMsPerReading, 2)} ms ` +
-      `(${fmt(s.serverCpuPercent)} % of one core), echo server ${fmt(b1.baseline.serverCpuMsPerReading, 2)} ms; PostgreSQL ${fmt(s.postgresCpuPercent)} % of one core. ` +
+      `(${fmt(s.serverCpuPercent)} % of one core), echo server ${fmt(b1.baseline.serverCpuMsPerReading, 2)} ms; ` +
+      `PostgreSQL ${fmt(s.postgresCpuPercent)} % of one core. ` +
       `Load average at the end: service part ${s.loadAvg?.join(' / ') ?? '—'}, baseline part ${b1.baseline.loadAvg?.join(' / ') ?? '—'}.`,
   );
 } else md.push('Not measured.');
@@ -207,7 +213,8 @@ if (b2) {
   md.push(`Measured ${when(b2)}${stale(b2)}.`);
   md.push('');
   md.push(
-    `A data logger pushed ${fmt(b2.design.readings)} readings (one-second logging of ${b2.design.points} points: eight bearing temperatures ` +
+    `A data logger pushed ${fmt(b2.design.readings)} readings (one-second logging of ${b2.design.points} points: ` +
+      `eight bearing temperatures ` +
       'with high, high-high, rate-of-rise and above-ambient limits, ambient, speed and steam pressure; one bearing swings through its ' +
       `high limit every half hour) as ${b2.design.batches} batches of ${fmt(b2.design.batch)} to \`POST /api/logger/readings\` with its ` +
       `x-logger-key, ${b2.design.inFlight} batches in flight. Every reading takes the whole path: row checks, INSERT once per client id, ` +
@@ -240,7 +247,9 @@ if (b2) {
   );
   md.push('');
   md.push(
-    `Ratio service / COPY: ${fmt(b2.ratio, 2)} as measured; ${fmt(s.cpuBoundRateOn2Cores / b2.baseline.cpuBoundRateOn2Cores, 2)} by CPU cost. Alarms raised: ${s.alarmsRaised}; alarm events recorded: ${s.alarmEvents}.`,
+    `Ratio service / COPY: ${fmt(b2.ratio, 2)} as measured; ` +
+      `${fmt(s.cpuBoundRateOn2Cores / b2.baseline.cpuBoundRateOn2Cores, 2)} by CPU cost. Alarms raised: ` +
+      `${s.alarmsRaised}; alarm events recorded: ${s.alarmEvents}.`,
   );
 } else md.push('Not measured.');
 md.push('');
@@ -254,7 +263,8 @@ if (b3) {
   md.push('');
   md.push(
     `A generated logger file of ${fmt(b3.design.rows)} rows (${fmt(b3.design.bytes / 1e6, 1)} MB; columns taken_at, point, value; ` +
-      `one-second logging of ${b3.design.points} points, about ${fmt(b3.design.rows / b3.design.points / 3600, 1)} hours) sent as the raw body of ` +
+      `one-second logging of ${b3.design.points} points, about ${fmt(b3.design.rows / b3.design.points / 3600, 1)} ` +
+      `hours) sent as the raw body of ` +
       '`POST /api/runs/:id/imports` (text/csv), as the UI sends it, to a service process started just before (benchmark 2 runs first ' +
       'and would otherwise have grown its heap). Rate: rows stored per second from the first byte sent to the answer. Memory: the ' +
       'peak resident set of the service process, VmHWM of /proc/<pid>/status after resetting it, and VmRSS polled every 20 ms.',
@@ -290,9 +300,12 @@ if (b4) {
   md.push('');
   if (b4d)
     md.push(
-      `Data: ${fmt(b4d.readings)} readings of one engine, ${b4d.seasons} seasons of ${b4d.runs / b4d.seasons} runs of ${fmt(b4d.runSeconds / 3600, 1)} h, ` +
-        `one-second logging of 11 points (readings table with its indexes: ${b4d.tableSize}), generated with generate_series straight into the ` +
-        `readings table (the secondary indexes and foreign-key checks set aside during the load and rebuilt, then VACUUM ANALYZE; ${fmt(b4d.loadSeconds)} s). ` +
+      `Data: ${fmt(b4d.readings)} readings of one engine, ${b4d.seasons} seasons of ${b4d.runs / b4d.seasons} runs of ` +
+        `${fmt(b4d.runSeconds / 3600, 1)} h, ` +
+        `one-second logging of 11 points (readings table with its indexes: ${b4d.tableSize}), generated with ` +
+        `generate_series straight into the ` +
+        `readings table (the secondary indexes and foreign-key checks set aside during the load and rebuilt, then ` +
+        `VACUUM ANALYZE; ${fmt(b4d.loadSeconds)} s). ` +
         'The last run is stopped, not closed: its figures are computed afresh on every view. The service was restarted after the load; ' +
         `its start-up pass kept the per-run figures of the closed runs (waited ${b4.design.waitedForBackgroundPassSeconds} s for it).`,
     );
@@ -330,7 +343,8 @@ if (b4) {
   );
   md.push('');
   md.push(
-    `Times are whole requests measured by the client on loopback, ${b4.design.repeat} in a row after a first one, so they include the transfer; the server time is at most this.`,
+    `Times are whole requests measured by the client on loopback, ${b4.design.repeat} in a row after a first one, so ` +
+      `they include the transfer; the server time is at most this.`,
   );
   md.push('');
   md.push('### Query plans (EXPLAIN (ANALYZE, BUFFERS), on the same data)');
@@ -344,7 +358,8 @@ if (b4) {
   md.push('```sql\n' + b4.queries.openRun.sql + '\n```\n\n```\n' + shortPlan(b4.plans.openRun) + '\n```');
   md.push('');
   md.push(
-    `Without the kept figures the same aggregate over every run of the bearing would take ${fmt(b4.queries.withoutKeptFigures.ms, 0)} ms (what the start-up and ten-minute background pass spends once per closed run):`,
+    `Without the kept figures the same aggregate over every run of the bearing would take ` +
+      `${fmt(b4.queries.withoutKeptFigures.ms, 0)} ms (what the start-up and ten-minute background pass spends once per closed run):`,
   );
   md.push('');
   md.push('```\n' + shortPlan(b4.plans.withoutKeptFigures) + '\n```');
@@ -359,9 +374,12 @@ if (b5) {
   md.push('');
   md.push(
     'Headless Chromium (playwright-core, /usr/bin/chromium) against the built UI served by the service on loopback. JavaScript: every ' +
-      'script file the page loaded, as sent (the service does not compress) and gzipped (zlib level 6, as a compressing proxy would send it). ' +
-      `Time to a usable live run page: from navigation start until the first tile of the run's board is visible, ${b5.design.runs} loads in a ` +
-      `fresh browser context each (cold cache) and as many with the cache warm, of a run kept by hand (${b5.liveRun.readings ?? '—'} readings: eight rounds of eleven points); ` +
+      'script file the page loaded, as sent (the service does not compress) and gzipped (zlib level 6, as a ' +
+      'compressing proxy would send it). ' +
+      `Time to a usable live run page: from navigation start until the first tile of the run's board is visible, ` +
+      `${b5.design.runs} loads in a ` +
+      `fresh browser context each (cold cache) and as many with the cache warm, of a run kept by hand ` +
+      `(${b5.liveRun.readings ?? '—'} readings: eight rounds of eleven points); ` +
       'then a few cold loads of the run of benchmark 1, which holds the thousands of readings and alarm changes that benchmark sent. ' +
       "Baseline: the sign-in route's HTML document with its scripts blocked.",
   );

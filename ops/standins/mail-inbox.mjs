@@ -17,7 +17,10 @@ const httpPort = Number(arg('http-port', 8025));
 const dir = arg('dir', '.data/mail');
 mkdirSync(dir, { recursive: true });
 const store = join(dir, 'messages.jsonl');
-/** @type {{id:string,receivedAt:string,from:string,to:string[],subject:string,text:string,attachments:{filename:string,contentType:string,size:number}[]}[]} */
+/** @typedef {{filename:string,contentType:string,size:number}} Attachment */
+/**
+ * @type {{id:string,receivedAt:string,from:string,to:string[],subject:string,text:string,attachments:Attachment[]}[]}
+ */
 let messages = existsSync(store)
   ? readFileSync(store, 'utf8')
       .split('\n')
@@ -55,13 +58,12 @@ const smtp = new SMTPServer({
 });
 
 const esc = (s) => String(s).replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]);
-const page = (
-  title,
-  body,
-) => `<!doctype html><html lang="en"><head><meta charset="utf-8"><meta name="viewport" content="width=device-width, initial-scale=1"><title>${esc(title)}</title>
+const page = (title, body) => `<!doctype html><html lang="en"><head><meta charset="utf-8">
+<meta name="viewport" content="width=device-width, initial-scale=1"><title>${esc(title)}</title>
 <style>body{font-family:system-ui,sans-serif;background:#ecebe6;color:#1d1f1e;margin:0;padding:24px}main{max-width:960px;margin:auto}
 table{width:100%;border-collapse:collapse;background:#fbfaf7}td,th{padding:10px;border-bottom:1px solid #d4d1c8;text-align:left}
-a{color:#2f6b5e}pre{white-space:pre-wrap;background:#fbfaf7;padding:16px;border:1px solid #d4d1c8}.note{color:#5b5e5c}</style></head><body><main>${body}</main></body></html>`;
+a{color:#2f6b5e}pre{white-space:pre-wrap;background:#fbfaf7;padding:16px;border:1px solid #d4d1c8}.note{color:#5b5e5c}</style>
+</head><body><main>${body}</main></body></html>`;
 
 const server = http.createServer((req, res) => {
   const url = new URL(req.url ?? '/', 'http://x');
@@ -86,29 +88,34 @@ const server = http.createServer((req, res) => {
     }
     res.writeHead(200, { 'content-type': 'text/html; charset=utf-8' });
     const linked = esc(msg.text).replace(/(https?:\/\/[^\s<]+)/g, '<a href="$1">$1</a>');
+    const attachmentList = msg.attachments.map((a) => `${esc(a.filename)} (${esc(a.contentType)}, ${a.size} bytes)`).join(', ');
+    const attachments = msg.attachments.length ? `<p>Attachments: ${attachmentList}</p>` : '';
     return res.end(
       page(
         msg.subject,
         `<p><a href="/">← Inbox</a></p><h1>${esc(msg.subject)}</h1>
       <p class="note">From ${esc(msg.from)} to ${esc(msg.to.join(', '))}, ${esc(msg.receivedAt)}</p><pre>${linked}</pre>
-      ${msg.attachments.length ? `<p>Attachments: ${msg.attachments.map((a) => `${esc(a.filename)} (${esc(a.contentType)}, ${a.size} bytes)`).join(', ')}</p>` : ''}`,
+      ${attachments}`,
       ),
     );
   }
   if (req.method === 'GET' && url.pathname === '/') {
     res.writeHead(200, { 'content-type': 'text/html; charset=utf-8' });
+    const empty = '<tr><td colspan="3">No messages yet.</td></tr>';
     const rows = [...messages]
       .reverse()
       .map(
         (x) =>
-          `<tr><td>${esc(x.receivedAt.replace('T', ' ').slice(0, 19))}</td><td>${esc(x.to.join(', '))}</td><td><a href="/messages/${x.id}">${esc(x.subject)}</a></td></tr>`,
+          `<tr><td>${esc(x.receivedAt.replace('T', ' ').slice(0, 19))}</td><td>${esc(x.to.join(', '))}</td><td><a ` +
+          `href="/messages/${x.id}">${esc(x.subject)}</a></td></tr>`,
       )
       .join('');
     return res.end(
       page(
         'Local mail inbox',
-        `<h1>Local mail inbox</h1><p class="note">Every e-mail Crankjournal sends on this machine lands here; nothing leaves the machine.</p>
-      <table><thead><tr><th>Received (UTC)</th><th>To</th><th>Subject</th></tr></thead><tbody>${rows || '<tr><td colspan="3">No messages yet.</td></tr>'}</tbody></table>`,
+        `<h1>Local mail inbox</h1><p class="note">Every e-mail Crankjournal sends on this machine lands here;
+      nothing leaves the machine.</p>
+      <table><thead><tr><th>Received (UTC)</th><th>To</th><th>Subject</th></tr></thead><tbody>${rows || empty}</tbody></table>`,
       ),
     );
   }

@@ -1,5 +1,6 @@
 import { JwtService } from '@nestjs/jwt';
-import { bearer, startTestApp, type TestApp } from './utils/test-app.js';
+import { startTestApp, type TestApp } from './utils/test-app.js';
+import { signedIn } from './utils/signed-in.js';
 import { createUser, login, signIn, uniqueEmail } from './factories/users.factory.js';
 
 describe('sign-in and tokens (API)', () => {
@@ -11,7 +12,7 @@ describe('sign-in and tokens (API)', () => {
     await t?.close();
   });
 
-  const me = (accessToken: string) => t.http.get('/api/auth/me').set('Authorization', bearer(accessToken));
+  const me = (accessToken: string) => signedIn(t, accessToken).get('/api/auth/me');
 
   it('signs in with the right password and returns a token pair', async () => {
     const u = await createUser(t.db, { role: 'operator' });
@@ -56,7 +57,7 @@ describe('sign-in and tokens (API)', () => {
     const before = await signIn(t, u);
     expect((await me(before.accessToken)).status).toBe(200);
 
-    const off = await t.http.patch(`/api/users/${u.id}`).set('Authorization', bearer(admin.accessToken)).send({ active: false });
+    const off = await signedIn(t, admin).patch(`/api/users/${u.id}`).send({ active: false });
     expect(off.status).toBe(200);
     expect(off.body.active).toBe(false);
 
@@ -138,7 +139,7 @@ describe('sign-in and tokens (API)', () => {
 
   it('logout revokes the refresh token', async () => {
     const s = await login(t, 'mill_lead');
-    const out = await t.http.post('/api/auth/logout').set('Authorization', bearer(s.accessToken)).send({ refreshToken: s.refreshToken });
+    const out = await signedIn(t, s).post('/api/auth/logout').send({ refreshToken: s.refreshToken });
     expect(out.status).toBe(204);
     const res = await t.http.post('/api/auth/refresh').send({ refreshToken: s.refreshToken });
     expect(res.status).toBe(401);
@@ -148,22 +149,13 @@ describe('sign-in and tokens (API)', () => {
     const s = await login(t, 'maintenance_lead');
     const newPassword = `new-${s.account.password}`;
 
-    const wrongCurrent = await t.http
-      .post('/api/auth/password')
-      .set('Authorization', bearer(s.accessToken))
-      .send({ currentPassword: 'not-my-password', newPassword });
+    const wrongCurrent = await signedIn(t, s).post('/api/auth/password').send({ currentPassword: 'not-my-password', newPassword });
     expect(wrongCurrent.status).toBe(400);
 
-    const tooShort = await t.http
-      .post('/api/auth/password')
-      .set('Authorization', bearer(s.accessToken))
-      .send({ currentPassword: s.account.password, newPassword: 'short' });
+    const tooShort = await signedIn(t, s).post('/api/auth/password').send({ currentPassword: s.account.password, newPassword: 'short' });
     expect(tooShort.status).toBe(400);
 
-    const ok = await t.http
-      .post('/api/auth/password')
-      .set('Authorization', bearer(s.accessToken))
-      .send({ currentPassword: s.account.password, newPassword });
+    const ok = await signedIn(t, s).post('/api/auth/password').send({ currentPassword: s.account.password, newPassword });
     expect(ok.status).toBe(204);
 
     const old = await t.http.post('/api/auth/login').send({ email: s.account.email, password: s.account.password });

@@ -1,13 +1,14 @@
 import { randomUUID } from 'node:crypto';
 import type { ChecklistDetail, ChecklistTemplateDetail, StartGateVerdict } from '@crankjournal/shared-types';
-import { bearer, startTestApp, type TestApp } from './utils/test-app.js';
+import { startTestApp, type TestApp } from './utils/test-app.js';
+import { signedIn } from './utils/signed-in.js';
 import { login, type SignedIn } from './factories/users.factory.js';
 import {
   INSPECTION,
   PRE_LUBE,
   SHUTDOWN,
   completeChecklist,
-  createEngine,
+  gateEngine,
   createTemplate,
   fill,
   grant,
@@ -36,13 +37,12 @@ describe('checklists and the start gate (API)', () => {
   let inspection: ChecklistTemplateDetail;
   let shutdown: ChecklistTemplateDetail;
 
-  const as = (who: SignedIn) => ({ Authorization: bearer(who.accessToken) });
-  const detail = async (id: string): Promise<ChecklistDetail> => (await t.http.get(`/api/checklists/${id}`).set(as(operator))).body;
+  const detail = async (id: string): Promise<ChecklistDetail> => (await signedIn(t, operator).get(`/api/checklists/${id}`)).body;
   const clearByChief = async (id: string) => {
-    const r = await t.http.post(`/api/runs/${id}/transitions`).set(as(chief)).send({ to: 'cleared' });
+    const r = await signedIn(t, chief).post(`/api/runs/${id}/transitions`).send({ to: 'cleared' });
     if (r.status !== 200) throw new Error(`not cleared: ${r.status} ${JSON.stringify(r.body)}`);
   };
-  const runState = async (id: string): Promise<string> => (await t.http.get(`/api/runs/${id}`).set(as(operator))).body.state;
+  const runState = async (id: string): Promise<string> => (await signedIn(t, operator).get(`/api/runs/${id}`)).body.state;
 
   beforeAll(async () => {
     t = await startTestApp();
@@ -51,7 +51,7 @@ describe('checklists and the start gate (API)', () => {
     lapsed = await login(t, 'operator');
     unqualified = await login(t, 'operator');
     observer = await login(t, 'observer');
-    engine = await createEngine(t, chief);
+    engine = await gateEngine(t, chief);
     preLube = await createTemplate(t, chief, engine.id, PRE_LUBE);
     inspection = await createTemplate(t, chief, engine.id, INSPECTION);
     shutdown = await createTemplate(t, chief, engine.id, SHUTDOWN);
@@ -86,17 +86,20 @@ describe('checklists and the start gate (API)', () => {
       expect(await runState(run.id)).toBe('running');
     });
 
-    it('is refused for a missing checklist alone (checklist_missing, naming it), even when the chief engineer cleared the run', async () => {
-      const run = await preparingRun(t, operator, engine.id);
-      await completeChecklist(t, operator, run.id, preLube.id);
-      await clearByChief(run.id);
-      const r = await start(t, operator, run.id);
-      expect(r.status).toBe(409);
-      expect(codes(r.verdict)).toEqual(['checklist_missing']);
-      expect(r.verdict!.reasons[0].subject).toBe('Pre-start inspection');
-      expect(r.verdict!.reasons[0].message).toContain('Pre-start inspection');
-      expect(await runState(run.id)).toBe('cleared');
-    });
+    it(
+      'is refused for a missing checklist alone (checklist_missing, naming it), even when the chief engineer cleared ' + 'the run',
+      async () => {
+        const run = await preparingRun(t, operator, engine.id);
+        await completeChecklist(t, operator, run.id, preLube.id);
+        await clearByChief(run.id);
+        const r = await start(t, operator, run.id);
+        expect(r.status).toBe(409);
+        expect(codes(r.verdict)).toEqual(['checklist_missing']);
+        expect(r.verdict!.reasons[0].subject).toBe('Pre-start inspection');
+        expect(r.verdict!.reasons[0].message).toContain('Pre-start inspection');
+        expect(await runState(run.id)).toBe('cleared');
+      },
+    );
 
     it('is refused for an unsigned checklist alone (checklist_unsigned, saying how far it got)', async () => {
       const run = await preparingRun(t, operator, engine.id);
@@ -140,9 +143,8 @@ describe('checklists and the start gate (API)', () => {
     it('is refused while a high-high alarm is active on the engine alone (active_high_high_alarm)', async () => {
       const { run } = await readyRun();
       const now = new Date().toISOString();
-      const round = await t.http
+      const round = await signedIn(t, operator)
         .post(`/api/runs/${run.id}/rounds`)
-        .set(as(operator))
         .send({ takenAt: now, readings: [{ clientId: randomUUID(), pointId: engine.pointId, value: 150, takenAt: now }] });
       expect(round.status).toBe(201);
       try {
@@ -152,9 +154,8 @@ describe('checklists and the start gate (API)', () => {
       } finally {
         // The condition clears with a reading back under the limit, for the tests that follow.
         const later = new Date(Date.now() + 1000).toISOString();
-        await t.http
+        await signedIn(t, operator)
           .post(`/api/runs/${run.id}/rounds`)
-          .set(as(operator))
           .send({ takenAt: later, readings: [{ clientId: randomUUID(), pointId: engine.pointId, value: 100, takenAt: later }] });
       }
       expect((await start(t, operator, run.id)).status).toBe(200);
@@ -163,10 +164,10 @@ describe('checklists and the start gate (API)', () => {
 
   it('GET /runs/:id/start-gate gives the same verdict and the pre-lube freshness while cleared', async () => {
     const { run, lube } = await readyRun();
-    const v = (await t.http.get(`/api/runs/${run.id}/start-gate`).set(as(operator))).body as StartGateVerdict;
+    const v = (await signedIn(t, operator).get(`/api/runs/${run.id}/start-gate`)).body as StartGateVerdict;
     expect(v.allowed).toBe(true);
     expect(Date.parse(v.preLubeFreshUntil!) - Date.parse(lube.signedAt!)).toBe(30 * 60_000);
-    const o = (await t.http.get(`/api/runs/${run.id}/checklists`).set(as(observer))).body;
+    const o = (await signedIn(t, observer).get(`/api/runs/${run.id}/checklists`)).body;
     expect(o.preLubeFreshUntil).toBe(v.preLubeFreshUntil);
     expect(o.templates.map((x: { progress: string }) => x.progress)).toEqual(['signed', 'signed', 'not_started']);
   });
@@ -176,7 +177,7 @@ describe('checklists and the start gate (API)', () => {
     await completeChecklist(t, operator, run.id, preLube.id);
     expect(await runState(run.id)).toBe('preparing');
     await completeChecklist(t, operator, run.id, inspection.id);
-    const d = (await t.http.get(`/api/runs/${run.id}`).set(as(operator))).body;
+    const d = (await signedIn(t, operator).get(`/api/runs/${run.id}`)).body;
     expect(d.state).toBe('cleared');
     const last = d.history[d.history.length - 1];
     expect(last).toMatchObject({ from: 'preparing', to: 'cleared', by: operator.account.id });
@@ -195,17 +196,15 @@ describe('checklists and the start gate (API)', () => {
     it('refuses to close until the shutdown checklist is signed, then closes', async () => {
       const { run } = await readyRun();
       expect((await startByRest(t, operator, run.id)).status).toBe(200);
-      expect((await t.http.post(`/api/runs/${run.id}/transitions`).set(as(operator)).send({ to: 'stopped' })).status).toBe(200);
-      const refused = await t.http
+      expect((await signedIn(t, operator).post(`/api/runs/${run.id}/transitions`).send({ to: 'stopped' })).status).toBe(200);
+      const refused = await signedIn(t, chief)
         .post(`/api/runs/${run.id}/transitions`)
-        .set(as(chief))
         .send({ to: 'closed', signature: chief.account.password });
       expect(refused.status).toBe(409);
       expect(refused.body.details.reasons.map((r: { code: string }) => r.code)).toEqual(['shutdown_checklist_missing']);
       await completeChecklist(t, operator, run.id, shutdown.id);
-      const closed = await t.http
+      const closed = await signedIn(t, chief)
         .post(`/api/runs/${run.id}/transitions`)
-        .set(as(chief))
         .send({ to: 'closed', signature: chief.account.password });
       expect(closed.status).toBe(200);
       expect(closed.body.state).toBe('closed');
@@ -213,7 +212,7 @@ describe('checklists and the start gate (API)', () => {
 
     it('does not let a shutdown checklist be filled before the stop', async () => {
       const run = await preparingRun(t, operator, engine.id);
-      const r = await t.http.post(`/api/runs/${run.id}/checklists`).set(as(operator)).send({ templateId: shutdown.id });
+      const r = await signedIn(t, operator).post(`/api/runs/${run.id}/checklists`).send({ templateId: shutdown.id });
       expect(r.status).toBe(409);
       expect(r.body.message).toContain('stopped');
     });
@@ -236,12 +235,11 @@ describe('checklists and the start gate (API)', () => {
       v2.requiredWhen = 'not_required';
       v2.sections[0].items[1] = { ...v2.sections[0].items[1], label: 'Line pressure after two minutes', min: 18, max: 28 };
       v2.sections[0].items.push({ key: 'drains', kind: 'tick', label: 'Drains open', required: true });
-      const draft = await t.http.put(`/api/checklist-templates/${tpl.id}/draft`).set(as(chief)).send(v2);
+      const draft = await signedIn(t, chief).put(`/api/checklist-templates/${tpl.id}/draft`).send(v2);
       expect(draft.status).toBe(200);
       expect(draft.body.currentVersion).toBe(1);
-      const published = await t.http
+      const published = await signedIn(t, chief)
         .post(`/api/checklist-templates/${tpl.id}/publish`)
-        .set(as(chief))
         .send({ changeNote: 'Tighter range, drains added.' });
       expect(published.status).toBe(200);
       expect(published.body.currentVersion).toBe(2);
@@ -256,18 +254,17 @@ describe('checklists and the start gate (API)', () => {
       const next = await startChecklist(t, operator, run.id, tpl.id);
       expect(next.version).toBe(2);
       expect(next.sections[0].items.map((i) => i.key)).toEqual(['valves', 'pressure', 'photo', 'drains']);
-      const v1 = await t.http.get(`/api/checklist-templates/${tpl.id}/versions/1`).set(as(observer));
+      const v1 = await signedIn(t, observer).get(`/api/checklist-templates/${tpl.id}/versions/1`);
       expect(v1.status).toBe(200);
       expect(v1.body.content.sections[0].items[1].label).toBe('Pre-lube line pressure');
     });
 
     it('refuses to publish without a draft and refuses a template whose content does not hold together', async () => {
-      expect((await t.http.post(`/api/checklist-templates/${preLube.id}/publish`).set(as(chief)).send({})).status).toBe(409);
+      expect((await signedIn(t, chief).post(`/api/checklist-templates/${preLube.id}/publish`).send({})).status).toBe(409);
       const bad = structuredClone(PRE_LUBE);
       bad.sections[0].items[1] = { ...bad.sections[0].items[1], min: 40, max: 30 };
-      const r = await t.http
+      const r = await signedIn(t, chief)
         .post('/api/checklist-templates')
-        .set(as(chief))
         .send({ ...bad, name: 'Bad ranges', engineId: engine.id });
       expect(r.status).toBe(400);
       expect(r.body.message.join(' ')).toContain('min must not be above max');
@@ -275,13 +272,12 @@ describe('checklists and the start gate (API)', () => {
 
     it('is written by the chief engineer only; everyone reads and prints', async () => {
       const body = { ...SHUTDOWN, name: `Role test ${randomUUID().slice(0, 6)}`, engineId: engine.id };
-      expect((await t.http.post('/api/checklist-templates').set(as(operator)).send(body)).status).toBe(403);
-      expect((await t.http.post('/api/checklist-templates').set(as(observer)).send(body)).status).toBe(403);
-      expect((await t.http.post('/api/checklist-templates').set(as(chief)).send(body)).status).toBe(201);
-      expect((await t.http.get(`/api/checklist-templates?engineId=${engine.id}`).set(as(observer))).status).toBe(200);
-      const pdf = await t.http
+      expect((await signedIn(t, operator).post('/api/checklist-templates').send(body)).status).toBe(403);
+      expect((await signedIn(t, observer).post('/api/checklist-templates').send(body)).status).toBe(403);
+      expect((await signedIn(t, chief).post('/api/checklist-templates').send(body)).status).toBe(201);
+      expect((await signedIn(t, observer).get(`/api/checklist-templates?engineId=${engine.id}`)).status).toBe(200);
+      const pdf = await signedIn(t, observer)
         .get(`/api/checklist-templates/${preLube.id}/blank.pdf`)
-        .set(as(observer))
         .buffer(true)
         .parse((res, cb) => {
           const chunks: Buffer[] = [];
@@ -312,16 +308,14 @@ describe('checklists and the start gate (API)', () => {
       expect(refused.status).toBe(409);
       expect(refused.body.message.join(' ')).toContain('12 psig is outside the acceptance range (15 to 30 psig)');
 
-      const byOperator = await t.http
+      const byOperator = await signedIn(t, operator)
         .post(`/api/checklists/${c.id}/items/pressure/override`)
-        .set(as(operator))
         .send({ reason: 'Gauge reads low, known fault.' });
       expect(byOperator.status).toBe(403);
-      const noReason = await t.http.post(`/api/checklists/${c.id}/items/pressure/override`).set(as(chief)).send({ reason: '' });
+      const noReason = await signedIn(t, chief).post(`/api/checklists/${c.id}/items/pressure/override`).send({ reason: '' });
       expect(noReason.status).toBe(400);
-      const byChief = await t.http
+      const byChief = await signedIn(t, chief)
         .post(`/api/checklists/${c.id}/items/pressure/override`)
-        .set(as(chief))
         .send({ reason: 'Gauge reads 4 psi low; checked against the test gauge.' });
       expect(byChief.status).toBe(200);
       const entry = byChief.body.entries.find((e: { itemKey: string }) => e.itemKey === 'pressure');
@@ -342,7 +336,7 @@ describe('checklists and the start gate (API)', () => {
       const c = await startChecklist(t, operator, run.id, preLube.id);
       await fill(t, operator, c.id, 'valves', { tick: true });
       await fill(t, operator, c.id, 'pressure', { value: 12 });
-      await t.http.post(`/api/checklists/${c.id}/items/pressure/override`).set(as(chief)).send({ reason: 'Accepted for today only.' });
+      await signedIn(t, chief).post(`/api/checklists/${c.id}/items/pressure/override`).send({ reason: 'Accepted for today only.' });
       const changed = await fill(t, operator, c.id, 'pressure', { value: 11 });
       expect(changed.body.entries.find((e: { itemKey: string }) => e.itemKey === 'pressure').override).toBeNull();
       expect((await sign(t, operator, c.id)).status).toBe(409);
@@ -368,7 +362,7 @@ describe('checklists and the start gate (API)', () => {
     it('accepts the signing PIN instead of the password', async () => {
       const pin = '482917';
       expect(
-        (await t.http.post('/api/auth/signing-pin').set(as(operator)).send({ currentPassword: operator.account.password, pin })).status,
+        (await signedIn(t, operator).post('/api/auth/signing-pin').send({ currentPassword: operator.account.password, pin })).status,
       ).toBeLessThan(300);
       const run = await preparingRun(t, operator, engine.id);
       const c = await startChecklist(t, operator, run.id, preLube.id);
@@ -394,10 +388,10 @@ describe('checklists and the start gate (API)', () => {
 
     it('refuses an observer anything but reading', async () => {
       const run = await preparingRun(t, operator, engine.id);
-      expect((await t.http.post(`/api/runs/${run.id}/checklists`).set(as(observer)).send({ templateId: preLube.id })).status).toBe(403);
+      expect((await signedIn(t, observer).post(`/api/runs/${run.id}/checklists`).send({ templateId: preLube.id })).status).toBe(403);
       const c = await startChecklist(t, operator, run.id, preLube.id);
       expect((await fill(t, observer, c.id, 'valves', { tick: true })).status).toBe(403);
-      expect((await t.http.get(`/api/checklists/${c.id}`).set(as(observer))).status).toBe(200);
+      expect((await signedIn(t, observer).get(`/api/checklists/${c.id}`)).status).toBe(200);
     });
   });
 
@@ -411,7 +405,7 @@ describe('checklists and the start gate (API)', () => {
       expect((await fill(t, operator, c.id, 'nope', { tick: true })).status).toBe(404);
       const done = await fill(t, operator, c.id, 'guards', { tick: true });
       expect(done.body).toMatchObject({ requiredDone: 2, requiredItems: 2, blockedItems: 0 });
-      const second = await t.http.post(`/api/runs/${run.id}/checklists`).set(as(operator)).send({ templateId: inspection.id });
+      const second = await signedIn(t, operator).post(`/api/runs/${run.id}/checklists`).send({ templateId: inspection.id });
       expect(second.status).toBe(409);
       expect(second.body.details.checklistId).toBe(c.id);
     });
@@ -419,16 +413,14 @@ describe('checklists and the start gate (API)', () => {
     it('take a photo by content type (PNG, JPEG, WebP), refuse other files and give the photo back', async () => {
       const run = await preparingRun(t, operator, engine.id);
       const c = await startChecklist(t, operator, run.id, preLube.id);
-      const up = await t.http
+      const up = await signedIn(t, operator)
         .put(`/api/checklists/${c.id}/items/photo/photo`)
-        .set(as(operator))
         .set('Content-Type', 'image/png')
         .send(PNG_1x1);
       expect(up.status).toBe(200);
       expect(up.body.entries.find((e: { itemKey: string }) => e.itemKey === 'photo').hasPhoto).toBe(true);
-      const back = await t.http
+      const back = await signedIn(t, observer)
         .get(`/api/checklists/${c.id}/items/photo/photo`)
-        .set(as(observer))
         .buffer(true)
         .parse((res, cb) => {
           const chunks: Buffer[] = [];
@@ -439,29 +431,25 @@ describe('checklists and the start gate (API)', () => {
       expect(back.headers['content-type']).toBe('image/png');
       expect(Buffer.compare(back.body as Buffer, PNG_1x1)).toBe(0);
 
-      const fake = await t.http
+      const fake = await signedIn(t, operator)
         .put(`/api/checklists/${c.id}/items/photo/photo`)
-        .set(as(operator))
         .set('Content-Type', 'image/png')
         .send(Buffer.from('<svg xmlns="http://www.w3.org/2000/svg"></svg>'));
       expect(fake.status).toBe(415);
-      const notImage = await t.http
+      const notImage = await signedIn(t, operator)
         .put(`/api/checklists/${c.id}/items/photo/photo`)
-        .set(as(operator))
         .set('Content-Type', 'text/plain')
         .send('hello');
       expect(notImage.status).toBe(415);
       const big = Buffer.alloc(10 * 1024 * 1024 + 1, 0);
       PNG_1x1.copy(big);
-      const tooBig = await t.http
+      const tooBig = await signedIn(t, operator)
         .put(`/api/checklists/${c.id}/items/photo/photo`)
-        .set(as(operator))
         .set('Content-Type', 'image/png')
         .send(big);
       expect(tooBig.status).toBe(413);
-      const wrongItem = await t.http
+      const wrongItem = await signedIn(t, operator)
         .put(`/api/checklists/${c.id}/items/valves/photo`)
-        .set(as(operator))
         .set('Content-Type', 'image/png')
         .send(PNG_1x1);
       expect(wrongItem.status).toBe(400);
@@ -473,12 +461,11 @@ describe('checklists and the start gate (API)', () => {
       const run = await preparingRun(t, operator, engine.id);
       const c = await completeChecklist(t, operator, run.id, preLube.id);
       expect((await fill(t, operator, c.id, 'pressure', { value: 25 })).status).toBe(409);
-      expect(
-        (await t.http.post(`/api/checklists/${c.id}/amendments`).set(as(operator)).send({ itemKey: 'pressure', value: 24 })).status,
-      ).toBe(400);
-      const am = await t.http
+      expect((await signedIn(t, operator).post(`/api/checklists/${c.id}/amendments`).send({ itemKey: 'pressure', value: 24 })).status).toBe(
+        400,
+      );
+      const am = await signedIn(t, operator)
         .post(`/api/checklists/${c.id}/amendments`)
-        .set(as(operator))
         .send({ itemKey: 'pressure', value: 24, reason: 'Misread the gauge; it was 24.' });
       expect(am.status).toBe(201);
       const e = am.body.entries.find((x: { itemKey: string }) => x.itemKey === 'pressure');
@@ -497,17 +484,15 @@ describe('checklists and the start gate (API)', () => {
     it('take an out-of-range amendment only from the chief engineer, with an override reason', async () => {
       const run = await preparingRun(t, operator, engine.id);
       const c = await completeChecklist(t, operator, run.id, preLube.id);
-      const byOperator = await t.http
+      const byOperator = await signedIn(t, operator)
         .post(`/api/checklists/${c.id}/amendments`)
-        .set(as(operator))
         .send({ itemKey: 'pressure', value: 35, reason: 'Gauge photo shows 35.' });
       expect(byOperator.status).toBe(409);
-      const noOverride = await t.http
+      const noOverride = await signedIn(t, chief)
         .post(`/api/checklists/${c.id}/amendments`)
-        .set(as(chief))
         .send({ itemKey: 'pressure', value: 35, reason: 'Gauge photo shows 35.' });
       expect(noOverride.status).toBe(400);
-      const ok = await t.http.post(`/api/checklists/${c.id}/amendments`).set(as(chief)).send({
+      const ok = await signedIn(t, chief).post(`/api/checklists/${c.id}/amendments`).send({
         itemKey: 'pressure',
         value: 35,
         reason: 'Gauge photo shows 35.',
@@ -521,10 +506,10 @@ describe('checklists and the start gate (API)', () => {
   });
 
   it('answers unknown ids with 404 and bad ids with 400', async () => {
-    expect((await t.http.get(`/api/checklists/${randomUUID()}`).set(as(operator))).status).toBe(404);
-    expect((await t.http.get('/api/checklists/not-an-id').set(as(operator))).status).toBe(400);
-    expect((await t.http.get(`/api/runs/${randomUUID()}/checklists`).set(as(operator))).status).toBe(404);
-    expect((await t.http.post(`/api/runs/${randomUUID()}/checklists`).set(as(operator)).send({ templateId: preLube.id })).status).toBe(404);
-    expect((await t.http.get(`/api/checklist-templates/${preLube.id}/versions/9`).set(as(operator))).status).toBe(404);
+    expect((await signedIn(t, operator).get(`/api/checklists/${randomUUID()}`)).status).toBe(404);
+    expect((await signedIn(t, operator).get('/api/checklists/not-an-id')).status).toBe(400);
+    expect((await signedIn(t, operator).get(`/api/runs/${randomUUID()}/checklists`)).status).toBe(404);
+    expect((await signedIn(t, operator).post(`/api/runs/${randomUUID()}/checklists`).send({ templateId: preLube.id })).status).toBe(404);
+    expect((await signedIn(t, operator).get(`/api/checklist-templates/${preLube.id}/versions/9`)).status).toBe(404);
   });
 });

@@ -1,5 +1,5 @@
 import { randomUUID } from 'node:crypto';
-import { io, type Socket } from 'socket.io-client';
+import type { Socket } from 'socket.io-client';
 import type { CardSetDto, CardTrace, EngineDetail, IndicatedPowerRequest, RunDetail, RunRecordEvent } from '@crankjournal/shared-types';
 import { computeIndicatedPower } from '../src/calculations/indicated-power.js';
 import { calibrateTrace } from '../src/calculations/indicator-card.js';
@@ -7,7 +7,9 @@ import { encodePng, drawIndicatorCard } from '../src/database/seeds/card-image.j
 import { psigToPsia } from '../src/calculations/units.js';
 import { createEngine, createPreparingRun, engineBody } from './factories/engine.factory.js';
 import { login, type SignedIn } from './factories/users.factory.js';
-import { bearer, startTestApp, type TestApp } from './utils/test-app.js';
+import { startTestApp, type TestApp } from './utils/test-app.js';
+import { connected, socketAs } from './utils/socket.js';
+import { signedIn } from './utils/signed-in.js';
 
 const WAIT_MS = 5_000;
 
@@ -54,7 +56,6 @@ describe('indicator cards and indicated power', () => {
   let engine: EngineDetail;
   let run: RunDetail;
   const sockets: Socket[] = [];
-  const auth = (s: SignedIn) => bearer(s.accessToken);
   const cyl = (label: string) => engine.cylinders.find((c) => c.label === label)!.id;
   const point = (code: string) => engine.measurementPoints.find((p) => p.code === code)!.id;
 
@@ -74,9 +75,8 @@ describe('indicator cards and indicated power', () => {
   // -----------------------------------------------------------------------------------------------
   describe('POST /api/calculations/indicated-power', () => {
     const post = (body: unknown, who: SignedIn = observer) =>
-      t.http
+      signedIn(t, who)
         .post('/api/calculations/indicated-power')
-        .set('authorization', auth(who))
         .send(body as object);
 
     it('answers the issue’s body with the module’s own numbers, for any signed-in role (an observer here)', async () => {
@@ -88,27 +88,31 @@ describe('indicator cards and indicated power', () => {
       expect(res.body.totalIndicatedKilowatts).toBeGreaterThan(0);
     });
 
-    it('39.81 psi, 400 in² piston, 5½ ft stroke, 40 rpm → 212.32 IHP (C. P. Brooks, Cotton Manufacturing, section on engines, transcribed online)', async () => {
-      const boreIn = Math.sqrt((4 * 400) / Math.PI);
-      const res = await post({
-        rpm: 40,
-        strokeIn: 66,
-        cylinders: [
-          {
-            label: 'Mill',
-            boreIn,
-            pistonRodIn: 0,
-            tailRodIn: 0,
-            cards: [
-              { end: 'head', meanEffectivePressurePsi: 39.81 },
-              { end: 'crank', meanEffectivePressurePsi: 39.81 },
-            ],
-          },
-        ],
-      });
-      expect(res.status).toBe(200);
-      expect(res.body.totalIndicatedHorsepower).toBeCloseTo(212.32, 2);
-    });
+    it(
+      '39.81 psi, 400 in² piston, 5½ ft stroke, 40 rpm → 212.32 IHP (C. P. Brooks, Cotton Manufacturing, section on ' +
+        'engines, transcribed online)',
+      async () => {
+        const boreIn = Math.sqrt((4 * 400) / Math.PI);
+        const res = await post({
+          rpm: 40,
+          strokeIn: 66,
+          cylinders: [
+            {
+              label: 'Mill',
+              boreIn,
+              pistonRodIn: 0,
+              tailRodIn: 0,
+              cards: [
+                { end: 'head', meanEffectivePressurePsi: 39.81 },
+                { end: 'crank', meanEffectivePressurePsi: 39.81 },
+              ],
+            },
+          ],
+        });
+        expect(res.status).toBe(200);
+        expect(res.body.totalIndicatedHorsepower).toBeCloseTo(212.32, 2);
+      },
+    );
 
     const bad: [string, (b: IndicatedPowerRequest) => void, RegExp][] = [
       [
@@ -177,16 +181,15 @@ describe('indicator cards and indicated power', () => {
   // -----------------------------------------------------------------------------------------------
   describe('card images', () => {
     const upload = (body: Buffer, contentType: string, who: SignedIn = operator, runId = run.id) =>
-      t.http.post(`/api/runs/${runId}/card-images`).set('authorization', auth(who)).set('content-type', contentType).send(body);
+      signedIn(t, who).post(`/api/runs/${runId}/card-images`).set('content-type', contentType).send(body);
 
     it('stores a PNG and gives it back with its size read from the bytes', async () => {
       const png = encodePng(40, 30, new Uint8Array(40 * 30 * 3).fill(200));
       const res = await upload(png, 'application/octet-stream');
       expect(res.status).toBe(201);
       expect(res.body).toMatchObject({ contentType: 'image/png', widthPx: 40, heightPx: 30, bytes: png.length, runId: run.id });
-      const back = await t.http
+      const back = await signedIn(t, observer)
         .get(`/api/card-images/${res.body.id}`)
-        .set('authorization', auth(observer))
         .buffer(true)
         .parse((r, cb) => {
           const parts: Buffer[] = [];
@@ -224,12 +227,9 @@ describe('indicator cards and indicated power', () => {
     const takenAt = () => new Date(Date.now() - 60_000).toISOString();
 
     async function observerSocket(runId: string): Promise<Socket> {
-      const s = io(t.url, { transports: ['websocket'], reconnection: false, forceNew: true, auth: { token: observer.accessToken } });
+      const s = socketAs(t.url, observer);
       sockets.push(s);
-      await new Promise<void>((resolve, reject) => {
-        s.once('connect', () => resolve());
-        s.once('connect_error', reject);
-      });
+      await connected(s);
       const ack = await s.timeout(WAIT_MS).emitWithAck('room:join', { room: `run:${runId}` });
       expect(ack).toMatchObject({ ok: true });
       return s;
@@ -258,20 +258,15 @@ describe('indicator cards and indicated power', () => {
         springPsiPerIn: 80,
         lengthIn: 3.5,
       });
-      const up = await t.http
-        .post(`/api/runs/${run.id}/card-images`)
-        .set('authorization', auth(operator))
-        .set('content-type', 'image/png')
-        .send(drawn.png);
+      const up = await signedIn(t, operator).post(`/api/runs/${run.id}/card-images`).set('content-type', 'image/png').send(drawn.png);
       expect(up.status).toBe(201);
       return { imageId: up.body.id as string, trace: drawn.trace };
     }
 
     it('takes a set (speed and pressures from the nearest readings), stores the results and broadcasts them to the run room', async () => {
       const at = new Date(Date.now() - 2 * 60_000);
-      const round = await t.http
+      const round = await signedIn(t, operator)
         .post(`/api/runs/${run.id}/rounds`)
-        .set('authorization', auth(operator))
         .send({
           takenAt: at.toISOString(),
           readings: [
@@ -287,9 +282,8 @@ describe('indicator cards and indicated power', () => {
       const arrived = nextRecord(s, 'card_set');
       const { imageId, trace } = await tracedCard();
       const ordinatesIn = [0.62, 0.6, 0.57, 0.55, 0.52, 0.49, 0.45, 0.41, 0.36, 0.3];
-      const res = await t.http
+      const res = await signedIn(t, operator)
         .post(`/api/runs/${run.id}/card-sets`)
-        .set('authorization', auth(operator))
         .send({
           takenAt: takenAt(),
           cutOffPercent: 35,
@@ -359,16 +353,15 @@ describe('indicator cards and indicated power', () => {
 
     it('a traced card comes back as stored: the same points, the same calibration (tracing round trip)', async () => {
       const { imageId, trace } = await tracedCard();
-      const res = await t.http
+      const res = await signedIn(t, operator)
         .post(`/api/runs/${run.id}/card-sets`)
-        .set('authorization', auth(operator))
         .send({
           takenAt: takenAt(),
           speedRpm: 75,
           cards: [{ cylinderId: cyl('HP'), end: 'head', springPsiPerIn: 80, lengthIn: 3.5, imageId, trace }],
         });
       expect(res.status).toBe(201);
-      const list = (await t.http.get(`/api/runs/${run.id}/card-sets`).set('authorization', auth(observer))).body as CardSetDto[];
+      const list = (await signedIn(t, observer).get(`/api/runs/${run.id}/card-sets`)).body as CardSetDto[];
       const card = list.find((s) => s.id === res.body.id)!.cards[0];
       expect(card.method).toBe('trace');
       expect(card.imageId).toBe(imageId);
@@ -388,9 +381,8 @@ describe('indicator cards and indicated power', () => {
     });
 
     it('amends a card: the new figures count, the old ones stay visible with who, when and why', async () => {
-      const created = await t.http
+      const created = await signedIn(t, operator)
         .post(`/api/runs/${run.id}/card-sets`)
-        .set('authorization', auth(operator))
         .send({
           takenAt: takenAt(),
           speedRpm: 75,
@@ -399,9 +391,8 @@ describe('indicator cards and indicated power', () => {
       const card = (created.body as CardSetDto).cards[0];
       const s = await observerSocket(run.id);
       const arrived = nextRecord(s, 'card_set');
-      const res = await t.http
+      const res = await signedIn(t, chief)
         .post(`/api/cards/${card.id}/amendments`)
-        .set('authorization', auth(chief))
         .send({ areaSqIn: 4.51, lengthIn: 3.5, springPsiPerIn: 20, reason: 'Planimeter run again with the arm set right.' });
       expect(res.status).toBe(201);
       const amended = (res.body as CardSetDto).cards[0];
@@ -417,55 +408,44 @@ describe('indicator cards and indicated power', () => {
       expect((await arrived).id).toBe(created.body.id);
 
       expect(
-        (
-          await t.http
-            .post(`/api/cards/${card.id}/amendments`)
-            .set('authorization', auth(chief))
-            .send({ areaSqIn: 4.51, lengthIn: 3.5, springPsiPerIn: 20 })
-        ).status,
+        (await signedIn(t, chief).post(`/api/cards/${card.id}/amendments`).send({ areaSqIn: 4.51, lengthIn: 3.5, springPsiPerIn: 20 }))
+          .status,
       ).toBe(400); // no reason
       expect(
         (
-          await t.http
+          await signedIn(t, observer)
             .post(`/api/cards/${card.id}/amendments`)
-            .set('authorization', auth(observer))
             .send({ areaSqIn: 4.5, lengthIn: 3.5, springPsiPerIn: 20, reason: 'observer try' })
         ).status,
       ).toBe(403);
     });
 
     it('adds a missing end, refuses a second card for an end (409) and a bad card (400 naming the field)', async () => {
-      const created = await t.http
+      const created = await signedIn(t, operator)
         .post(`/api/runs/${run.id}/card-sets`)
-        .set('authorization', auth(operator))
         .send({ takenAt: takenAt(), speedRpm: 75, cards: [{ cylinderId: cyl('HP'), end: 'head', meanEffectivePressurePsi: 55 }] });
       const id = created.body.id as string;
-      const add = await t.http
+      const add = await signedIn(t, operator)
         .post(`/api/card-sets/${id}/cards`)
-        .set('authorization', auth(operator))
         .send({ cylinderId: cyl('HP'), end: 'crank', meanEffectivePressurePsi: 53 });
       expect(add.status).toBe(201);
       expect((add.body as CardSetDto).cards).toHaveLength(2);
-      const again = await t.http
+      const again = await signedIn(t, operator)
         .post(`/api/card-sets/${id}/cards`)
-        .set('authorization', auth(operator))
         .send({ cylinderId: cyl('HP'), end: 'crank', meanEffectivePressurePsi: 50 });
       expect(again.status).toBe(409);
-      const twoWays = await t.http
+      const twoWays = await signedIn(t, operator)
         .post(`/api/card-sets/${id}/cards`)
-        .set('authorization', auth(operator))
         .send({ cylinderId: cyl('LP'), end: 'head', meanEffectivePressurePsi: 20, areaSqIn: 4, lengthIn: 3.5, springPsiPerIn: 20 });
       expect(twoWays.status).toBe(400);
       expect(twoWays.body.message.join(' ')).toMatch(/card\.areaSqIn/);
-      const foreign = await t.http
+      const foreign = await signedIn(t, operator)
         .post(`/api/card-sets/${id}/cards`)
-        .set('authorization', auth(operator))
         .send({ cylinderId: randomUUID(), end: 'head', meanEffectivePressurePsi: 20 });
       expect(foreign.status).toBe(400);
       expect(foreign.body.message.join(' ')).toMatch(/card\.cylinderId/);
-      const dup = await t.http
+      const dup = await signedIn(t, operator)
         .post(`/api/runs/${run.id}/card-sets`)
-        .set('authorization', auth(operator))
         .send({
           takenAt: takenAt(),
           speedRpm: 75,
@@ -479,14 +459,12 @@ describe('indicator cards and indicated power', () => {
     });
 
     it('amends a set’s speed with a reason and keeps the old figure', async () => {
-      const created = await t.http
+      const created = await signedIn(t, operator)
         .post(`/api/runs/${run.id}/card-sets`)
-        .set('authorization', auth(operator))
         .send({ takenAt: takenAt(), speedRpm: 70, cards: [{ cylinderId: cyl('HP'), end: 'head', meanEffectivePressurePsi: 55 }] });
       const before = (created.body as CardSetDto).results.totalIndicatedHorsepower;
-      const res = await t.http
+      const res = await signedIn(t, operator)
         .post(`/api/card-sets/${created.body.id}/amendments`)
-        .set('authorization', auth(operator))
         .send({ speedRpm: 75, reason: 'Speed read off the wrong counter.' });
       expect(res.status).toBe(201);
       const set = res.body as CardSetDto;
@@ -496,9 +474,8 @@ describe('indicator cards and indicated power', () => {
     });
 
     it('a brake figure gives the sets near it a mechanical efficiency', async () => {
-      const created = await t.http
+      const created = await signedIn(t, operator)
         .post(`/api/runs/${run.id}/card-sets`)
-        .set('authorization', auth(operator))
         .send({
           takenAt: takenAt(),
           speedRpm: 75,
@@ -508,17 +485,15 @@ describe('indicator cards and indicated power', () => {
           ],
         });
       const ihp = (created.body as CardSetDto).results.totalIndicatedHorsepower;
-      const res = await t.http
+      const res = await signedIn(t, chief)
         .post(`/api/runs/${run.id}/brake-figures`)
-        .set('authorization', auth(chief))
         .send({ measuredAt: takenAt(), method: 'direct', brakeHorsepower: 300 });
       expect(res.status).toBe(201);
-      const set = (await t.http.get(`/api/card-sets/${created.body.id}`).set('authorization', auth(observer))).body as CardSetDto;
+      const set = (await signedIn(t, observer).get(`/api/card-sets/${created.body.id}`)).body as CardSetDto;
       expect(set.results.brake?.brakeHorsepower).toBe(300);
       expect(set.results.brake?.mechanicalEfficiency).toBeCloseTo(300 / ihp, 12);
-      const missing = await t.http
+      const missing = await signedIn(t, chief)
         .post(`/api/runs/${run.id}/brake-figures`)
-        .set('authorization', auth(chief))
         .send({ measuredAt: takenAt(), method: 'torque', speedRpm: 75 });
       expect(missing.status).toBe(400);
       expect(missing.body.message.join(' ')).toMatch(/torqueLbfFt/);
@@ -526,55 +501,41 @@ describe('indicator cards and indicated power', () => {
 
     it('an observer cannot take a set (403); a set without a speed or reading is refused naming speedRpm', async () => {
       const body = { takenAt: takenAt(), speedRpm: 75, cards: [] };
-      expect((await t.http.post(`/api/runs/${run.id}/card-sets`).set('authorization', auth(observer)).send(body)).status).toBe(403);
+      expect((await signedIn(t, observer).post(`/api/runs/${run.id}/card-sets`).send(body)).status).toBe(403);
       const other = await createPreparingRun(t, operator.accessToken, (await createEngine(t, chief.accessToken, compoundBody())).id);
-      const res = await t.http
-        .post(`/api/runs/${other.id}/card-sets`)
-        .set('authorization', auth(operator))
-        .send({ takenAt: takenAt(), cards: [] });
+      const res = await signedIn(t, operator).post(`/api/runs/${other.id}/card-sets`).send({ takenAt: takenAt(), cards: [] });
       expect(res.status).toBe(400);
       expect(res.body.message.join(' ')).toMatch(/speedRpm: no speed reading/);
-      expect((await t.http.post(`/api/runs/${randomUUID()}/card-sets`).set('authorization', auth(operator)).send(body)).status).toBe(404);
+      expect((await signedIn(t, operator).post(`/api/runs/${randomUUID()}/card-sets`).send(body)).status).toBe(404);
     });
 
     it('a closed run refuses new sets and amendments (409)', async () => {
       const e = await createEngine(t, chief.accessToken, compoundBody());
       const r = await createPreparingRun(t, operator.accessToken, e.id);
-      const created = await t.http
+      const created = await signedIn(t, operator)
         .post(`/api/runs/${r.id}/card-sets`)
-        .set('authorization', auth(operator))
         .send({ takenAt: takenAt(), speedRpm: 75, cards: [{ cylinderId: e.cylinders[0].id, end: 'head', meanEffectivePressurePsi: 55 }] });
       expect(created.status).toBe(201);
       // Closing needs the whole start and close procedure; the state is arranged directly for this test.
       await t.db.query(`UPDATE runs SET state = 'closed', closed_at = now() WHERE id = $1`, [r.id]);
       expect(
-        (
-          await t.http
-            .post(`/api/runs/${r.id}/card-sets`)
-            .set('authorization', auth(operator))
-            .send({ takenAt: takenAt(), speedRpm: 75, cards: [] })
-        ).status,
+        (await signedIn(t, operator).post(`/api/runs/${r.id}/card-sets`).send({ takenAt: takenAt(), speedRpm: 75, cards: [] })).status,
       ).toBe(409);
       const cardId = (created.body as CardSetDto).cards[0].id;
       expect(
-        (
-          await t.http
-            .post(`/api/cards/${cardId}/amendments`)
-            .set('authorization', auth(chief))
-            .send({ meanEffectivePressurePsi: 54, reason: 'too late now' })
-        ).status,
+        (await signedIn(t, chief).post(`/api/cards/${cardId}/amendments`).send({ meanEffectivePressurePsi: 54, reason: 'too late now' }))
+          .status,
       ).toBe(409);
       expect(
         (
-          await t.http
+          await signedIn(t, operator)
             .post(`/api/runs/${r.id}/card-images`)
-            .set('authorization', auth(operator))
             .set('content-type', 'image/png')
             .send(encodePng(2, 2, new Uint8Array(12)))
         ).status,
       ).toBe(409);
       // Still readable.
-      expect((await t.http.get(`/api/runs/${r.id}/card-sets`).set('authorization', auth(observer))).status).toBe(200);
+      expect((await signedIn(t, observer).get(`/api/runs/${r.id}/card-sets`)).status).toBe(200);
     });
   });
 
@@ -590,9 +551,8 @@ describe('indicator cards and indicated power', () => {
         springPsiPerIn: 20,
         lengthIn: 3.5,
       });
-      const res = await t.http
+      const res = await signedIn(t, observer)
         .post('/api/calculations/indicator-trace')
-        .set('authorization', auth(observer))
         .send({ trace: drawn.trace, springPsiPerIn: 20, lengthIn: 3.5 });
       expect(res.status).toBe(200);
       const direct = calibrateTrace({
@@ -605,9 +565,8 @@ describe('indicator cards and indicated power', () => {
       });
       expect(res.body.meanEffectivePressurePsi).toBeCloseTo(direct.meanEffectivePressurePsi, 12);
       expect(res.body.lengthIn).toBeCloseTo(3.5, 9);
-      const bad = await t.http
+      const bad = await signedIn(t, observer)
         .post('/api/calculations/indicator-trace')
-        .set('authorization', auth(observer))
         .send({ trace: { ...drawn.trace, pointsPx: drawn.trace.pointsPx.slice(0, 2) }, springPsiPerIn: 20, lengthIn: 3.5 });
       expect(bad.status).toBe(400);
       expect(bad.body.message.join(' ')).toMatch(/pointsPx/);

@@ -1,4 +1,5 @@
-import { bearer, startTestApp, type TestApp } from './utils/test-app.js';
+import { startTestApp, type TestApp } from './utils/test-app.js';
+import { requestAs } from './utils/signed-in.js';
 import { login, uniqueEmail, type SignedIn } from './factories/users.factory.js';
 import { waitForMessage } from './utils/mail-inbox.js';
 
@@ -16,10 +17,7 @@ describe('invitations, health and API documentation (API)', () => {
 
   it('an invited person gets an e-mail, sets a password from its link once, and signs in with it', async () => {
     const email = uniqueEmail('invitee');
-    const invited = await t.http
-      .post('/api/users/invitations')
-      .set('Authorization', bearer(admin.accessToken))
-      .send({ email, displayName: 'Ivy Invitee', role: 'operator' });
+    const invited = await requestAs(t, admin).post('/api/users/invitations').send({ email, displayName: 'Ivy Invitee', role: 'operator' });
     expect(invited.status).toBe(201);
     expect(invited.body).toMatchObject({ email, role: 'operator', active: true, invitationPending: true });
 
@@ -53,7 +51,7 @@ describe('invitations, health and API documentation (API)', () => {
     expect(still.status).toBe(200);
 
     // The administrator's list no longer shows the invitation as pending.
-    const list = await t.http.get('/api/users').set('Authorization', bearer(admin.accessToken));
+    const list = await requestAs(t, admin).get('/api/users');
     expect(list.status).toBe(200);
     const row = (list.body as { email: string; invitationPending: boolean }[]).find((u) => u.email === email);
     expect(row?.invitationPending).toBe(false);
@@ -61,10 +59,7 @@ describe('invitations, health and API documentation (API)', () => {
 
   it('lets only one of two simultaneous uses of the same link through', async () => {
     const email = uniqueEmail('race');
-    const invited = await t.http
-      .post('/api/users/invitations')
-      .set('Authorization', bearer(admin.accessToken))
-      .send({ email, displayName: 'Rae Race', role: 'observer' });
+    const invited = await requestAs(t, admin).post('/api/users/invitations').send({ email, displayName: 'Rae Race', role: 'observer' });
     expect(invited.status).toBe(201);
     const mail = await waitForMessage(email);
     const token = decodeURIComponent(mail.text.match(/set-password\?token=([^\s]+)/)![1]);
@@ -85,9 +80,8 @@ describe('invitations, health and API documentation (API)', () => {
   });
 
   it('refuses to invite an address that already has an account (409)', async () => {
-    const res = await t.http
+    const res = await requestAs(t, admin)
       .post('/api/users/invitations')
-      .set('Authorization', bearer(admin.accessToken))
       .send({ email: admin.user.email, displayName: 'Again', role: 'observer' });
     expect(res.status).toBe(409);
   });

@@ -1,6 +1,8 @@
-import { io, type Socket } from 'socket.io-client';
+import type { Socket } from 'socket.io-client';
 import type { JoinRoomAck, LiveErrorEvent, SiteNotice } from '@crankjournal/shared-types';
-import { bearer, startTestApp, type TestApp } from './utils/test-app.js';
+import { startTestApp, type TestApp } from './utils/test-app.js';
+import { connected, socketAs } from './utils/socket.js';
+import { signedIn } from './utils/signed-in.js';
 import { login } from './factories/users.factory.js';
 
 const WAIT_MS = 5_000;
@@ -27,22 +29,10 @@ describe('the live channel (socket.io)', () => {
 
   /** A client that has not connected yet; closed after each test. */
   const client = (token?: string) => {
-    const s = io(t.url, {
-      transports: ['websocket'],
-      reconnection: false,
-      forceNew: true,
-      autoConnect: false,
-      ...(token ? { auth: { token } } : {}),
-    });
+    const s = socketAs(t.url, token, { autoConnect: false });
     sockets.push(s);
     return s;
   };
-  const connect = (s: Socket) =>
-    new Promise<void>((resolve, reject) => {
-      s.once('connect', () => resolve());
-      s.once('connect_error', (e) => reject(e));
-      s.connect();
-    });
 
   beforeAll(async () => {
     t = await startTestApp();
@@ -67,7 +57,7 @@ describe('the live channel (socket.io)', () => {
 
   it('refuses a connection with a token that is not valid', async () => {
     const s = client('not-a-valid-token');
-    await expect(connect(s)).rejects.toThrow();
+    await expect(connected(s)).rejects.toThrow();
     expect(s.connected).toBe(false);
   });
 
@@ -75,7 +65,7 @@ describe('the live channel (socket.io)', () => {
     const operator = await login(t, 'operator');
     const chief = await login(t, 'chief_engineer');
     const s = client(operator.accessToken);
-    await connect(s);
+    await connected(s);
     expect(s.connected).toBe(true);
 
     const ack = await emitWithAck<JoinRoomAck>(s, 'room:join', { room: 'site' });
@@ -83,7 +73,7 @@ describe('the live channel (socket.io)', () => {
 
     const message = `Boiler inspection at ten, notice ${Date.now()}`;
     const arrived = next<SiteNotice>(s, 'site:notice');
-    const res = await t.http.post('/api/live/notices').set('Authorization', bearer(chief.accessToken)).send({ message });
+    const res = await signedIn(t, chief).post('/api/live/notices').send({ message });
     expect(res.status).toBe(202);
     const notice = await arrived;
     expect(notice.message).toBe(message);
@@ -94,14 +84,14 @@ describe('the live channel (socket.io)', () => {
   it('refuses an observer joining the administration room (ack ok:false), but lets an administrator in', async () => {
     const observer = await login(t, 'observer');
     const s = client(observer.accessToken);
-    await connect(s);
+    await connected(s);
     const ack = await emitWithAck<JoinRoomAck>(s, 'room:join', { room: 'administration' });
     expect(ack.ok).toBe(false);
     expect(typeof ack.error).toBe('string');
 
     const admin = await login(t, 'administrator');
     const a = client(admin.accessToken);
-    await connect(a);
+    await connected(a);
     const adminAck = await emitWithAck<JoinRoomAck>(a, 'room:join', { room: 'administration' });
     expect(adminAck).toEqual({ ok: true, room: 'administration' });
   });
@@ -109,7 +99,7 @@ describe('the live channel (socket.io)', () => {
   it('answers an unknown field in the join payload with live:error and an error ack', async () => {
     const u = await login(t, 'mill_lead');
     const s = client(u.accessToken);
-    await connect(s);
+    await connected(s);
     const liveError = next<LiveErrorEvent>(s, 'live:error');
     const ack = await emitWithAck<JoinRoomAck & { status?: number }>(s, 'room:join', { room: 'site', sneaky: true });
     expect(ack.ok).toBe(false);

@@ -10,7 +10,8 @@ import type {
   WorkRecordDto,
 } from '@crankjournal/shared-types';
 import { AppConfig } from '../src/config/app-config.service.js';
-import { bearer, startTestApp, type TestApp } from './utils/test-app.js';
+import { startTestApp, type TestApp } from './utils/test-app.js';
+import { signedIn } from './utils/signed-in.js';
 import { login, type SignedIn } from './factories/users.factory.js';
 import { createEngine, engineBody } from './factories/engine.factory.js';
 import { insertClosedRun, TINY_PDF, TINY_PNG } from './factories/maintenance.factory.js';
@@ -25,7 +26,6 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
   let observer: SignedIn;
   let millLead: SignedIn;
   let engine: EngineDetail;
-  const auth = (s: SignedIn) => ({ authorization: bearer(s.accessToken) });
   const bearing = () => engine.bearings.find((b) => b.label === 'Main')!;
 
   beforeAll(async () => {
@@ -69,7 +69,7 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
 
   describe('inspections', () => {
     it('a measurement above its tolerance is marked out of tolerance, by how much, and kept so in the record', async () => {
-      const res = await t.http.post('/api/maintenance/inspections').set(auth(lead)).send(inspectionBody());
+      const res = await signedIn(t, lead).post('/api/maintenance/inspections').send(inspectionBody());
       expect(res.status).toBe(201);
       const i = res.body as InspectionDto;
       expect(i.outOfToleranceCount).toBe(1);
@@ -85,70 +85,67 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
         { label: 'Top, centre', out_of_tolerance: true },
         { label: 'Side', out_of_tolerance: false },
       ]);
-      const again = (await t.http.get(`/api/maintenance/inspections/${i.id}`).set(auth(observer))).body as InspectionDto;
+      const again = (await signedIn(t, observer).get(`/api/maintenance/inspections/${i.id}`)).body as InspectionDto;
       expect(again.measurements[0].outOfTolerance).toBe(true);
       expect(again.recordedByName).toBe(lead.account.displayName);
     });
 
-    it('refuses, naming the field, a range upside down, a web deflection without its crank angle and a bearing of another engine', async () => {
-      const upside = await t.http
-        .post('/api/maintenance/inspections')
-        .set(auth(lead))
-        .send(
-          inspectionBody({
-            measurements: [{ kind: 'shaft_level', label: 'MB', value: 0.001, unit: 'in/ft', toleranceMin: 0.002, toleranceMax: -0.002 }],
-          }),
-        );
-      expect(upside.status).toBe(400);
-      expect(JSON.stringify(upside.body.message)).toContain('measurements.0.toleranceMin');
-      const web = await t.http
-        .post('/api/maintenance/inspections')
-        .set(auth(lead))
-        .send(
-          inspectionBody({
-            kind: 'crank_web_deflection',
-            measurements: [{ kind: 'web_deflection', label: '90°', value: 0.001, unit: 'in' }],
-          }),
-        );
-      expect(web.status).toBe(400);
-      expect(JSON.stringify(web.body.message)).toContain('crankAngleDeg');
-      const other = await createEngine(t, chief.accessToken);
-      const wrong = await t.http
-        .post('/api/maintenance/inspections')
-        .set(auth(lead))
-        .send(inspectionBody({ engineId: other.id }));
-      expect(wrong.status).toBe(400);
-      expect(
-        (
-          await t.http
-            .post('/api/maintenance/inspections')
-            .set(auth(lead))
-            .send(inspectionBody({ unit: 'furlong' }))
-        ).status,
-      ).toBe(400);
-      expect(
-        (
-          await t.http
-            .post('/api/maintenance/inspections')
-            .set(auth(lead))
-            .send(inspectionBody({ engineId: '6f1c2d3e-4b5a-4c6d-8e7f-0a1b2c3d4e5f' }))
-        ).status,
-      ).toBe(404);
-      expect((await t.http.get('/api/maintenance/inspections/not-a-uuid').set(auth(lead))).status).toBe(400);
-    });
+    it(
+      'refuses, naming the field, a range upside down, a web deflection without its crank angle and a bearing of ' + 'another engine',
+      async () => {
+        const upside = await signedIn(t, lead)
+          .post('/api/maintenance/inspections')
+          .send(
+            inspectionBody({
+              measurements: [{ kind: 'shaft_level', label: 'MB', value: 0.001, unit: 'in/ft', toleranceMin: 0.002, toleranceMax: -0.002 }],
+            }),
+          );
+        expect(upside.status).toBe(400);
+        expect(JSON.stringify(upside.body.message)).toContain('measurements.0.toleranceMin');
+        const web = await signedIn(t, lead)
+          .post('/api/maintenance/inspections')
+          .send(
+            inspectionBody({
+              kind: 'crank_web_deflection',
+              measurements: [{ kind: 'web_deflection', label: '90°', value: 0.001, unit: 'in' }],
+            }),
+          );
+        expect(web.status).toBe(400);
+        expect(JSON.stringify(web.body.message)).toContain('crankAngleDeg');
+        const other = await createEngine(t, chief.accessToken);
+        const wrong = await signedIn(t, lead)
+          .post('/api/maintenance/inspections')
+          .send(inspectionBody({ engineId: other.id }));
+        expect(wrong.status).toBe(400);
+        expect(
+          (
+            await signedIn(t, lead)
+              .post('/api/maintenance/inspections')
+              .send(inspectionBody({ unit: 'furlong' }))
+          ).status,
+        ).toBe(400);
+        expect(
+          (
+            await signedIn(t, lead)
+              .post('/api/maintenance/inspections')
+              .send(inspectionBody({ engineId: '6f1c2d3e-4b5a-4c6d-8e7f-0a1b2c3d4e5f' }))
+          ).status,
+        ).toBe(404);
+        expect((await signedIn(t, lead).get('/api/maintenance/inspections/not-a-uuid')).status).toBe(400);
+      },
+    );
 
     it('observers, operators and the mill lead cannot record; the chief engineer can', async () => {
       for (const who of [observer, operator, millLead])
-        expect((await t.http.post('/api/maintenance/inspections').set(auth(who)).send(inspectionBody())).status).toBe(403);
+        expect((await signedIn(t, who).post('/api/maintenance/inspections').send(inspectionBody())).status).toBe(403);
       expect(
         (
-          await t.http
+          await signedIn(t, chief)
             .post('/api/maintenance/inspections')
-            .set(auth(chief))
             .send(inspectionBody({ title: 'By the chief' }))
         ).status,
       ).toBe(201);
-      expect((await t.http.get('/api/maintenance/inspections').set(auth(observer))).status).toBe(200);
+      expect((await signedIn(t, observer).get('/api/maintenance/inspections')).status).toBe(200);
       expect((await t.http.get('/api/maintenance/inspections')).status).toBe(401);
     });
   });
@@ -158,17 +155,15 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
     beforeAll(async () => {
       inspectionId = (
         (
-          await t.http
+          await signedIn(t, lead)
             .post('/api/maintenance/inspections')
-            .set(auth(lead))
             .send(inspectionBody({ title: 'With photos' }))
         ).body as InspectionDto
       ).id;
     });
     const upload = (who: SignedIn, body: Buffer, name: string, type: string) =>
-      t.http
+      signedIn(t, who)
         .post(`/api/maintenance/inspections/${inspectionId}/attachments`)
-        .set(auth(who))
         .field('caption', 'Top half as lifted')
         .attach('file', body, { filename: name, contentType: type });
 
@@ -181,9 +176,8 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
         sizeBytes: TINY_PNG.length,
         caption: 'Top half as lifted',
       });
-      const back = await t.http
+      const back = await signedIn(t, observer)
         .get(`/api/maintenance/attachments/${res.body.id}/content`)
-        .set(auth(observer))
         .buffer(true)
         .parse((r, cb) => {
           const chunks: Buffer[] = [];
@@ -220,19 +214,15 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
 
     it('an observer cannot upload; no file is a 400', async () => {
       expect((await upload(observer, TINY_PNG, 'shell.png', 'image/png')).status).toBe(403);
-      const none = await t.http
-        .post(`/api/maintenance/inspections/${inspectionId}/attachments`)
-        .set(auth(lead))
-        .field('caption', 'nothing');
+      const none = await signedIn(t, lead).post(`/api/maintenance/inspections/${inspectionId}/attachments`).field('caption', 'nothing');
       expect(none.status).toBe(400);
     });
   });
 
   describe('plans, the due list and work that resets them', () => {
     it('calendar: a 30-day plan last done 40 days ago is overdue in the due list, governed by the calendar', async () => {
-      const res = await t.http
+      const res = await signedIn(t, lead)
         .post('/api/maintenance/plans')
-        .set(auth(lead))
         .send({
           engineId: engine.id,
           componentKind: 'bearing',
@@ -247,16 +237,15 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
       const plan = res.body as InspectionPlanDto;
       expect(plan.due.status).toBe('overdue');
       expect(plan.due.governing).toBe('calendar_days');
-      const due = (await t.http.get(`/api/maintenance/due?engineId=${engine.id}`).set(auth(observer))).body as DueList;
+      const due = (await signedIn(t, observer).get(`/api/maintenance/due?engineId=${engine.id}`)).body as DueList;
       expect(due.items[0].id).toBe(plan.id);
       expect(due.ruleText).toMatch(/whichever/);
     });
 
     it('running hours: the hours run since it was last done count, and come due before the calendar', async () => {
       const plan = (
-        await t.http
+        await signedIn(t, chief)
           .post('/api/maintenance/plans')
-          .set(auth(chief))
           .send({
             engineId: engine.id,
             componentKind: 'crankshaft',
@@ -277,7 +266,7 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
         riseF: 40,
         speedRpm: 75,
       });
-      const after = (await t.http.get(`/api/maintenance/plans/${plan.id}`).set(auth(observer))).body as InspectionPlanDto;
+      const after = (await signedIn(t, observer).get(`/api/maintenance/plans/${plan.id}`)).body as InspectionPlanDto;
       expect(after.due.status).toBe('overdue');
       expect(after.due.governing).toBe('run_hours');
       const hours = after.due.criteria.find((c) => c.criterion === 'run_hours')!;
@@ -287,9 +276,8 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
 
     it('closing a work record resets the counters of the plans it satisfies; a closed record cannot change', async () => {
       const plan = (
-        await t.http
+        await signedIn(t, lead)
           .post('/api/maintenance/plans')
-          .set(auth(lead))
           .send({
             engineId: engine.id,
             componentKind: 'bearing',
@@ -301,9 +289,8 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
           })
       ).body as InspectionPlanDto;
       expect(plan.due.status).toBe('overdue');
-      const created = await t.http
+      const created = await signedIn(t, lead)
         .post('/api/maintenance/work-records')
-        .set(auth(lead))
         .send({
           engineId: engine.id,
           bearingId: bearing().id,
@@ -318,86 +305,82 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
       expect(created.status).toBe(201);
       const work = created.body as WorkRecordDto;
       expect(work.status).toBe('open');
-      expect((await t.http.post(`/api/maintenance/work-records/${work.id}/close`).set(auth(observer)).send({})).status).toBe(403);
+      expect((await signedIn(t, observer).post(`/api/maintenance/work-records/${work.id}/close`).send({})).status).toBe(403);
       const completedAt = new Date(Date.now() - DAY);
-      const closed = await t.http
+      const closed = await signedIn(t, lead)
         .post(`/api/maintenance/work-records/${work.id}/close`)
-        .set(auth(lead))
         .send({ completedAt: completedAt.toISOString(), note: 'Done' });
       expect(closed.status).toBe(200);
       const c = closed.body as WorkRecordDto;
-      const counters = (await t.http.get(`/api/engines/${engine.id}`).set(auth(lead))).body as EngineDetail;
+      const counters = (await signedIn(t, lead).get(`/api/engines/${engine.id}`)).body as EngineDetail;
       expect(c).toMatchObject({
         status: 'closed',
         resetPlans: [{ id: plan.id, title: plan.title }],
         closedByName: lead.account.displayName,
       });
       expect(c.runHoursAtCompletion).toBeCloseTo(counters.runningHours, 6);
-      const reset = (await t.http.get(`/api/maintenance/plans/${plan.id}`).set(auth(lead))).body as InspectionPlanDto;
+      const reset = (await signedIn(t, lead).get(`/api/maintenance/plans/${plan.id}`)).body as InspectionPlanDto;
       expect(reset.lastDoneAt).toBe(completedAt.toISOString());
       expect(reset.lastResetByWorkRecordId).toBe(work.id);
       expect(reset.lastDoneRunHours).toBeCloseTo(counters.runningHours, 6);
       expect(reset.due.status).toBe('ok');
-      expect((await t.http.post(`/api/maintenance/work-records/${work.id}/close`).set(auth(lead)).send({})).status).toBe(409);
-      expect((await t.http.patch(`/api/maintenance/work-records/${work.id}`).set(auth(lead)).send({ title: 'Changed' })).status).toBe(409);
+      expect((await signedIn(t, lead).post(`/api/maintenance/work-records/${work.id}/close`).send({})).status).toBe(409);
+      expect((await signedIn(t, lead).patch(`/api/maintenance/work-records/${work.id}`).send({ title: 'Changed' })).status).toBe(409);
     });
 
-    it('refuses a plan without an interval, a completion before the work started, and writers other than the maintenance lead and the chief', async () => {
-      const none = await t.http
-        .post('/api/maintenance/plans')
-        .set(auth(lead))
-        .send({ engineId: engine.id, componentKind: 'engine', title: 'No interval', inspectionKind: 'general' });
-      expect(none.status).toBe(400);
-      expect(JSON.stringify(none.body.message)).toMatch(/at least one interval/);
-      for (const who of [observer, operator]) {
+    it(
+      'refuses a plan without an interval, a completion before the work started, and writers other than the ' +
+        'maintenance lead and the chief',
+      async () => {
+        const none = await signedIn(t, lead)
+          .post('/api/maintenance/plans')
+          .send({ engineId: engine.id, componentKind: 'engine', title: 'No interval', inspectionKind: 'general' });
+        expect(none.status).toBe(400);
+        expect(JSON.stringify(none.body.message)).toMatch(/at least one interval/);
+        for (const who of [observer, operator]) {
+          expect(
+            (
+              await signedIn(t, who)
+                .post('/api/maintenance/plans')
+                .send({ engineId: engine.id, componentKind: 'engine', title: 'x', inspectionKind: 'general', intervalDays: 5 })
+            ).status,
+          ).toBe(403);
+          expect(
+            (await signedIn(t, who).post('/api/maintenance/work-records').send({ engineId: engine.id, title: 'x', performedBy: 'x' }))
+              .status,
+          ).toBe(403);
+        }
+        const w = (
+          await signedIn(t, chief)
+            .post('/api/maintenance/work-records')
+            .send({ engineId: engine.id, title: 'Early close', performedBy: 'Chief', startedAt: new Date(Date.now() - DAY).toISOString() })
+        ).body as WorkRecordDto;
         expect(
           (
-            await t.http
-              .post('/api/maintenance/plans')
-              .set(auth(who))
-              .send({ engineId: engine.id, componentKind: 'engine', title: 'x', inspectionKind: 'general', intervalDays: 5 })
+            await signedIn(t, chief)
+              .post(`/api/maintenance/work-records/${w.id}/close`)
+              .send({ completedAt: new Date(Date.now() - 3 * DAY).toISOString() })
           ).status,
-        ).toBe(403);
-        expect(
-          (await t.http.post('/api/maintenance/work-records').set(auth(who)).send({ engineId: engine.id, title: 'x', performedBy: 'x' }))
-            .status,
-        ).toBe(403);
-      }
-      const w = (
-        await t.http
-          .post('/api/maintenance/work-records')
-          .set(auth(chief))
-          .send({ engineId: engine.id, title: 'Early close', performedBy: 'Chief', startedAt: new Date(Date.now() - DAY).toISOString() })
-      ).body as WorkRecordDto;
-      expect(
-        (
-          await t.http
-            .post(`/api/maintenance/work-records/${w.id}/close`)
-            .set(auth(chief))
-            .send({ completedAt: new Date(Date.now() - 3 * DAY).toISOString() })
-        ).status,
-      ).toBe(400);
-    });
+        ).toBe(400);
+      },
+    );
 
     it('work prompted by an inspection carries out its follow-up actions', async () => {
       const i = (
-        await t.http
+        await signedIn(t, lead)
           .post('/api/maintenance/inspections')
-          .set(auth(lead))
           .send(inspectionBody({ title: 'Prompting inspection' }))
       ).body as InspectionDto;
-      const bad = await t.http
+      const bad = await signedIn(t, lead)
         .post('/api/maintenance/work-records')
-        .set(auth(lead))
         .send({ engineId: engine.id, title: 'Follow-up', performedBy: 'Crew', promptedByInspectionId: i.id, followUpActionIndexes: [3] });
       expect(bad.status).toBe(400);
       const w = (
-        await t.http
+        await signedIn(t, lead)
           .post('/api/maintenance/work-records')
-          .set(auth(lead))
           .send({ engineId: engine.id, title: 'Follow-up', performedBy: 'Crew', promptedByInspectionId: i.id, followUpActionIndexes: [0] })
       ).body as WorkRecordDto;
-      const after = (await t.http.get(`/api/maintenance/inspections/${i.id}`).set(auth(observer))).body as InspectionDto;
+      const after = (await signedIn(t, observer).get(`/api/maintenance/inspections/${i.id}`)).body as InspectionDto;
       expect(after.followUpActions[0].workRecordId).toBe(w.id);
       expect(after.workRecords.map((x) => x.id)).toContain(w.id);
     });
@@ -426,7 +409,7 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
 
     it('flags the run above the band and no other, and states the rule', async () => {
       const b = fresh.bearings[0];
-      const res = await t.http.get(`/api/maintenance/bearings/${b.id}/history`).set(auth(observer));
+      const res = await signedIn(t, observer).get(`/api/maintenance/bearings/${b.id}/history`);
       expect(res.status).toBe(200);
       const h = res.body as BearingHistory;
       expect(h.runs).toHaveLength(6);
@@ -441,17 +424,16 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
       // Closed runs' figures are kept for the next time.
       const [{ n }] = await t.db.query(`SELECT count(*)::int AS n FROM run_point_stats WHERE run_id = $1`, [hotRun]);
       expect(n).toBeGreaterThanOrEqual(3);
-      const again = (await t.http.get(`/api/maintenance/bearings/${b.id}/history`).set(auth(observer))).body as BearingHistory;
+      const again = (await signedIn(t, observer).get(`/api/maintenance/bearings/${b.id}/history`)).body as BearingHistory;
       expect(again.runs.map((r) => r.peakTemperature)).toEqual(h.runs.map((r) => r.peakTemperature));
     });
 
     it('puts inspections and work on the same timeline', async () => {
       const b = fresh.bearings[0];
-      await t.http
+      await signedIn(t, lead)
         .post('/api/maintenance/inspections')
-        .set(auth(lead))
         .send(inspectionBody({ engineId: fresh.id, bearingId: b.id, title: 'After the hot run', promptedByRunId: hotRun }));
-      const h = (await t.http.get(`/api/maintenance/bearings/${b.id}/history`).set(auth(observer))).body as BearingHistory;
+      const h = (await signedIn(t, observer).get(`/api/maintenance/bearings/${b.id}/history`)).body as BearingHistory;
       const kinds = h.timeline.map((e) => e.type);
       expect(kinds).toContain('inspection');
       const insp = h.timeline.find((e) => e.type === 'inspection')!;
@@ -461,11 +443,10 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
 
     it('gives the history as CSV (cells neutralised) and as a PDF report', async () => {
       const b = fresh.bearings[0];
-      await t.http
+      await signedIn(t, lead)
         .post('/api/maintenance/inspections')
-        .set(auth(lead))
         .send(inspectionBody({ engineId: fresh.id, bearingId: b.id, title: '=HYPERLINK("http://example.test")' }));
-      const csv = await t.http.get(`/api/maintenance/bearings/${b.id}/history.csv`).set(auth(observer));
+      const csv = await signedIn(t, observer).get(`/api/maintenance/bearings/${b.id}/history.csv`);
       expect(csv.status).toBe(200);
       expect(csv.headers['content-type']).toMatch(/text\/csv/);
       const text = csv.text;
@@ -474,9 +455,8 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
       // OWASP CSV-injection advice: a text cell a spreadsheet would run as a formula is prefixed with an apostrophe.
       expect(text).toContain(`"'=HYPERLINK(""http://example.test"")"`);
       expect(text).not.toMatch(/(^|,)=HYPERLINK/m);
-      const pdf = await t.http
+      const pdf = await signedIn(t, observer)
         .get(`/api/maintenance/bearings/${b.id}/history.pdf`)
-        .set(auth(observer))
         .buffer(true)
         .parse((r, cb) => {
           const chunks: Buffer[] = [];
@@ -485,9 +465,7 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
         });
       expect(pdf.status).toBe(200);
       expect((pdf.body as Buffer).subarray(0, 5).toString('latin1')).toBe('%PDF-');
-      expect((await t.http.get('/api/maintenance/bearings/6f1c2d3e-4b5a-4c6d-8e7f-0a1b2c3d4e5f/history').set(auth(observer))).status).toBe(
-        404,
-      );
+      expect((await signedIn(t, observer).get('/api/maintenance/bearings/6f1c2d3e-4b5a-4c6d-8e7f-0a1b2c3d4e5f/history')).status).toBe(404);
     });
   });
 
@@ -503,23 +481,19 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
         densityKgM3At15C: 890,
         figuresSource: 'typical of the grade',
       };
-      expect((await t.http.post('/api/lubrication/oils').set(auth(operator)).send(body)).status).toBe(403);
-      const res = await t.http.post('/api/lubrication/oils').set(auth(lead)).send(body);
+      expect((await signedIn(t, operator).post('/api/lubrication/oils').send(body)).status).toBe(403);
+      const res = await signedIn(t, lead).post('/api/lubrication/oils').send(body);
       expect(res.status).toBe(201);
       oil = res.body as OilDto;
-      expect((await t.http.post('/api/lubrication/oils').set(auth(lead)).send(body)).status).toBe(409);
+      expect((await signedIn(t, lead).post('/api/lubrication/oils').send(body)).status).toBe(409);
       expect(
         (
-          await t.http
+          await signedIn(t, lead)
             .post('/api/lubrication/oils')
-            .set(auth(lead))
             .send({ ...body, name: 'x', viscosity100cSt: 200 })
         ).status,
       ).toBe(400);
-      const assigned = await t.http
-        .put(`/api/lubrication/points/${engine.lubricationPoints[0].id}/oil`)
-        .set(auth(lead))
-        .send({ oilId: oil.id });
+      const assigned = await signedIn(t, lead).put(`/api/lubrication/points/${engine.lubricationPoints[0].id}/oil`).send({ oilId: oil.id });
       expect(assigned.status).toBe(200);
       expect(assigned.body).toMatchObject({ oilId: oil.id, matchedBy: 'assigned' });
     });
@@ -536,32 +510,28 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
       const point = engine.lubricationPoints[0].id;
       expect(
         (
-          await t.http
+          await signedIn(t, observer)
             .post('/api/lubrication/consumption')
-            .set(auth(observer))
             .send({ runId, lubricationPointId: point, method: 'added', quantityLitres: 1 })
         ).status,
       ).toBe(403);
       expect(
         (
-          await t.http
+          await signedIn(t, operator)
             .post('/api/lubrication/consumption')
-            .set(auth(operator))
             .send({ runId, lubricationPointId: point, method: 'levels', levelStartLitres: 3, levelEndLitres: 4 })
         ).status,
       ).toBe(400);
-      const a = await t.http
+      const a = await signedIn(t, operator)
         .post('/api/lubrication/consumption')
-        .set(auth(operator))
         .send({ runId, lubricationPointId: point, method: 'added', quantityLitres: 1.2 });
       expect(a.status).toBe(201);
-      const b = await t.http
+      const b = await signedIn(t, operator)
         .post('/api/lubrication/consumption')
-        .set(auth(operator))
         .send({ runId, lubricationPointId: point, method: 'levels', levelStartLitres: 5, levelEndLitres: 4.4 });
       expect(b.status).toBe(201);
       expect(b.body.usedLitres).toBeCloseTo(0.6, 9);
-      const l = (await t.http.get(`/api/lubrication/engines/${engine.id}`).set(auth(observer))).body as EngineLubrication;
+      const l = (await signedIn(t, observer).get(`/api/lubrication/engines/${engine.id}`)).body as EngineLubrication;
       const row = l.consumption.find((p) => p.lubricationPointId === point)!.runs.find((r) => r.runId === runId)!;
       // 1.8 L over 4 h at 75 rpm (18,000 revolutions): 0.45 L per hour, 0.1 L per thousand revolutions.
       expect(row.usedLitres).toBeCloseTo(1.8, 9);
@@ -570,7 +540,7 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
     });
 
     it('works out each main bearing at a run: load from the rotating weight × share, viscosity, Petroff friction', async () => {
-      const res = await t.http.get(`/api/lubrication/engines/${engine.id}/bearings?runId=${runId}`).set(auth(observer));
+      const res = await signedIn(t, observer).get(`/api/lubrication/engines/${engine.id}/bearings?runId=${runId}`);
       expect(res.status).toBe(200);
       const a = res.body as BearingLubricationAnalysis;
       const row = a.rows.find((r) => r.label === 'Main')!;
@@ -582,29 +552,32 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
       expect(row.powerLossHp).toBeGreaterThan(0);
       expect(row.missing).toEqual([]);
       const other = await createEngine(t, chief.accessToken);
-      expect((await t.http.get(`/api/lubrication/engines/${other.id}/bearings?runId=${runId}`).set(auth(observer))).status).toBe(400);
+      expect((await signedIn(t, observer).get(`/api/lubrication/engines/${other.id}/bearings?runId=${runId}`)).status).toBe(400);
     });
   });
 
   describe('stateless calculator routes', () => {
-    it('journal-friction: the centrifugal-pump bearing example loses 16.32 hp (V. S. Lobanoff & R. R. Ross, Centrifugal Pumps: Design and Application, 2nd ed., hydrodynamic bearings chapter; attribution from memory, seen in an online reproduction)', async () => {
-      const res = await t.http
-        .post('/api/calculations/journal-friction')
-        .set(auth(observer))
-        .send({ diameterIn: 5, lengthIn: 5, radialClearanceIn: 0.0025, speedRpm: 5000, viscosityReyn: 2e-6, loadLbf: 1000 });
-      expect(res.status).toBe(200);
-      expect(Object.keys(res.body)).toEqual(
-        expect.arrayContaining(['frictionTorqueLbfIn', 'frictionCoefficient', 'powerLossHp', 'sommerfeldNumber', 'unitLoadPsi']),
-      );
-      expect(res.body.powerLossHp).toBeCloseTo(16.32, 1);
-      expect(res.body.unitLoadPsi).toBeCloseTo(40, 9);
-    });
+    it(
+      'journal-friction: the centrifugal-pump bearing example loses 16.32 hp (V. S. Lobanoff & R. R. Ross, ' +
+        'Centrifugal Pumps: Design and Application, 2nd ed., hydrodynamic bearings chapter; attribution from memory, ' +
+        'seen in an online reproduction)',
+      async () => {
+        const res = await signedIn(t, observer)
+          .post('/api/calculations/journal-friction')
+          .send({ diameterIn: 5, lengthIn: 5, radialClearanceIn: 0.0025, speedRpm: 5000, viscosityReyn: 2e-6, loadLbf: 1000 });
+        expect(res.status).toBe(200);
+        expect(Object.keys(res.body)).toEqual(
+          expect.arrayContaining(['frictionTorqueLbfIn', 'frictionCoefficient', 'powerLossHp', 'sommerfeldNumber', 'unitLoadPsi']),
+        );
+        expect(res.body.powerLossHp).toBeCloseTo(16.32, 1);
+        expect(res.body.unitLoadPsi).toBeCloseTo(40, 9);
+      },
+    );
 
     it('oil-viscosity: gives back the data-sheet figure at 40 °C and answers every signed-in role', async () => {
       for (const who of [observer, operator, millLead]) {
-        const res = await t.http
+        const res = await signedIn(t, who)
           .post('/api/calculations/oil-viscosity')
-          .set(auth(who))
           .send({ viscosity40cSt: 150, viscosity100cSt: 14.5, temperatureC: 40 });
         expect(res.status).toBe(200);
         expect(res.body.kinematicCst).toBeCloseTo(150, 6);
@@ -617,45 +590,44 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
     });
 
     it('refuses bad figures with the field named', async () => {
-      const s = await t.http
+      const s = await signedIn(t, observer)
         .post('/api/calculations/journal-friction')
-        .set(auth(observer))
         .send({ diameterIn: '5', lengthIn: 5, radialClearanceIn: 0.0025, speedRpm: 5000, viscosityReyn: 2e-6, loadLbf: 1000 });
       expect(s.status).toBe(400);
       expect(JSON.stringify(s.body.message)).toContain('diameterIn');
-      const v = await t.http
+      const v = await signedIn(t, observer)
         .post('/api/calculations/oil-viscosity')
-        .set(auth(observer))
         .send({ viscosity40cSt: 10, viscosity100cSt: 20, temperatureC: 50 });
       expect(v.status).toBe(400);
       expect(JSON.stringify(v.body.message)).toContain('viscosity100cSt');
-      const extra = await t.http
+      const extra = await signedIn(t, observer)
         .post('/api/calculations/oil-viscosity')
-        .set(auth(observer))
         .send({ viscosity40cSt: 150, viscosity100cSt: 14.5, temperatureC: 40, temperatureF: 104 });
       expect(extra.status).toBe(400);
     });
 
-    it('lift-pressure and jack-capacity carry their rule and the caution; four 50-ton jacks under 225,000 lb give a margin of about 1.78 (common practice, no source)', async () => {
-      const lift = await t.http.post('/api/calculations/lift-pressure').set(auth(observer)).send({ loadLbf: 112500, pocketAreaIn2: 75 });
-      expect(lift.status).toBe(200);
-      expect(lift.body.liftPressurePsi).toBeCloseTo(1500, 9);
-      expect(lift.body.caution).toMatch(/licensed practice/);
-      const jacks = await t.http
-        .post('/api/calculations/jack-capacity')
-        .set(auth(observer))
-        .send({ jackCount: 4, jackCapacityShortTons: 50, loadLbf: 225000 });
-      expect(jacks.body.margin).toBeCloseTo(1.78, 2);
-      expect(jacks.body.belowRequiredMargin).toBe(false);
-      expect(
-        (
-          await t.http
-            .post('/api/calculations/jack-capacity')
-            .set(auth(observer))
-            .send({ jackCount: 2.5, jackCapacityShortTons: 50, loadLbf: 225000 })
-        ).status,
-      ).toBe(400);
-    });
+    it(
+      'lift-pressure and jack-capacity carry their rule and the caution; four 50-ton jacks under 225,000 lb give a ' +
+        'margin of about 1.78 (common practice, no source)',
+      async () => {
+        const lift = await signedIn(t, observer).post('/api/calculations/lift-pressure').send({ loadLbf: 112500, pocketAreaIn2: 75 });
+        expect(lift.status).toBe(200);
+        expect(lift.body.liftPressurePsi).toBeCloseTo(1500, 9);
+        expect(lift.body.caution).toMatch(/licensed practice/);
+        const jacks = await signedIn(t, observer)
+          .post('/api/calculations/jack-capacity')
+          .send({ jackCount: 4, jackCapacityShortTons: 50, loadLbf: 225000 });
+        expect(jacks.body.margin).toBeCloseTo(1.78, 2);
+        expect(jacks.body.belowRequiredMargin).toBe(false);
+        expect(
+          (
+            await signedIn(t, observer)
+              .post('/api/calculations/jack-capacity')
+              .send({ jackCount: 2.5, jackCapacityShortTons: 50, loadLbf: 225000 })
+          ).status,
+        ).toBe(400);
+      },
+    );
 
     it('are documented in OpenAPI with the unit field names', async () => {
       const doc = (await t.http.get('/api/docs-json')).body as {

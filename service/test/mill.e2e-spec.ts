@@ -10,10 +10,11 @@ import type {
   RunDetail,
   ScheduleDetail,
 } from '@crankjournal/shared-types';
-import { bearer, startTestApp, type TestApp } from './utils/test-app.js';
+import { startTestApp, type TestApp } from './utils/test-app.js';
+import { signedIn } from './utils/signed-in.js';
 import { login, type SignedIn } from './factories/users.factory.js';
 import { reading } from './factories/engine.factory.js';
-import { createMill, createRun, forceRunState, millBody, millEngine, scheduleBody } from './factories/mill.factory.js';
+import { createMill, createMillRun, forceRunState, millBody, millEngine, scheduleBody } from './factories/mill.factory.js';
 import { waitForMessage } from './utils/mail-inbox.js';
 
 const rect = (heightMm: number, widthMm: number) => ({ shape: 'rectangle' as const, heightMm, widthMm });
@@ -26,7 +27,6 @@ describe('the mill (API)', () => {
   let operator: SignedIn;
   let engine: EngineDetail;
   let mill: MillDto;
-  const auth = (s: SignedIn) => bearer(s.accessToken);
 
   beforeAll(async () => {
     t = await startTestApp();
@@ -48,13 +48,13 @@ describe('the mill (API)', () => {
         ...millBody(engine.id, mill.name),
         stands: mill.stands.map((s) => (s.position === 3 ? { ...s, maxSeparatingForceKn: 950 } : s)),
       };
-      const upd = await t.http.put(`/api/mill/mills/${mill.id}`).set('authorization', auth(lead)).send(body);
+      const upd = await signedIn(t, lead).put(`/api/mill/mills/${mill.id}`).send(body);
       expect(upd.status).toBe(200);
       expect((upd.body as MillDto).stands.find((s) => s.position === 3)!.maxSeparatingForceKn).toBe(950);
       expect((upd.body as MillDto).stands.find((s) => s.position === 3)!.id).toBe(mill.stands.find((s) => s.position === 3)!.id);
-      expect((await t.http.put(`/api/mill/mills/${mill.id}`).set('authorization', auth(observer)).send(body)).status).toBe(403);
-      expect((await t.http.post('/api/mill/mills').set('authorization', auth(operator)).send(millBody(engine.id))).status).toBe(403);
-      const read = await t.http.get(`/api/mill/mills/${mill.id}`).set('authorization', auth(observer));
+      expect((await signedIn(t, observer).put(`/api/mill/mills/${mill.id}`).send(body)).status).toBe(403);
+      expect((await signedIn(t, operator).post('/api/mill/mills').send(millBody(engine.id))).status).toBe(403);
+      const read = await signedIn(t, observer).get(`/api/mill/mills/${mill.id}`);
       expect(read.status).toBe(200);
       expect((read.body as MillDto).engineName).toBe(engine.name);
       expect((await t.http.get('/api/mill/mills')).status).toBe(401);
@@ -63,20 +63,19 @@ describe('the mill (API)', () => {
     it('refuses bad descriptions with messages a person can act on', async () => {
       const twice = millBody(engine.id);
       twice.stands[1].position = 1;
-      const r1 = await t.http.post('/api/mill/mills').set('authorization', auth(chief)).send(twice);
+      const r1 = await signedIn(t, chief).post('/api/mill/mills').send(twice);
       expect(r1.status).toBe(400);
       expect(JSON.stringify(r1.body.message)).toMatch(/same position/);
-      const r2 = await t.http.post('/api/mill/mills').set('authorization', auth(chief)).send(millBody(randomUUID()));
+      const r2 = await signedIn(t, chief).post('/api/mill/mills').send(millBody(randomUUID()));
       expect(r2.status).toBe(400);
       expect(JSON.stringify(r2.body.message)).toMatch(/engineId names no engine/);
-      const r3 = await t.http
+      const r3 = await signedIn(t, chief)
         .post('/api/mill/mills')
-        .set('authorization', auth(chief))
         .send({ ...millBody(engine.id), stands: [] });
       expect(r3.status).toBe(400);
       expect(r3.body.message).toContain('a mill needs at least one stand');
-      expect((await t.http.get(`/api/mill/mills/${randomUUID()}`).set('authorization', auth(chief))).status).toBe(404);
-      expect((await t.http.get('/api/mill/mills/not-a-uuid').set('authorization', auth(chief))).status).toBe(400);
+      expect((await signedIn(t, chief).get(`/api/mill/mills/${randomUUID()}`)).status).toBe(404);
+      expect((await signedIn(t, chief).get('/api/mill/mills/not-a-uuid')).status).toBe(400);
     });
   });
 
@@ -96,7 +95,7 @@ describe('the mill (API)', () => {
     it('reproduces the flat rolling example: F ≈ 1.59 MN, P ≈ 645 kW', async () => {
       // Kalpakjian & Schmid, Manufacturing Engineering and Technology, Example 13.1 (annealed copper, 228 mm wide,
       // 25 → 20 mm, R = 300 mm, 100 rpm, Y_avg = 180 MPa), as listed in REFERENCES.md.
-      const res = await t.http.post('/api/calculations/rolling-pass').set('authorization', auth(observer)).send(kalpakjian);
+      const res = await signedIn(t, observer).post('/api/calculations/rolling-pass').send(kalpakjian);
       expect(res.status).toBe(200);
       expect(res.body.forceKn / 1000).toBeCloseTo(1.59, 2);
       expect(res.body.powerRollPairKw).toBeCloseTo(645, 0);
@@ -108,7 +107,7 @@ describe('the mill (API)', () => {
     });
 
     it('hot steel uses the cited flow stress model, flags the extrapolation and both overloads', async () => {
-      const res = await t.http.post('/api/calculations/rolling-pass').set('authorization', auth(lead)).send({
+      const res = await signedIn(t, lead).post('/api/calculations/rolling-pass').send({
         rollDiameterMm: 406.4,
         entryThicknessMm: 40,
         exitThicknessMm: 25,
@@ -146,7 +145,7 @@ describe('the mill (API)', () => {
       ],
       ['a negative roll speed', { ...kalpakjian, rollSpeedRpm: -5 }, /rollSpeedRpm must be at least/],
     ])('answers 400 for %s', async (_what, body, message) => {
-      const res = await t.http.post('/api/calculations/rolling-pass').set('authorization', auth(lead)).send(body);
+      const res = await signedIn(t, lead).post('/api/calculations/rolling-pass').send(body);
       expect(res.status).toBe(400);
       expect(JSON.stringify(res.body.message)).toMatch(message);
     });
@@ -175,7 +174,7 @@ describe('the mill (API)', () => {
   describe('pass schedules and templates', () => {
     let template: ScheduleDetail;
     it('a template is saved with each pass calculated, and a schedule is planned from it', async () => {
-      const res = await t.http.post('/api/mill/schedules').set('authorization', auth(lead)).send(scheduleBody(mill.id, true));
+      const res = await signedIn(t, lead).post('/api/mill/schedules').send(scheduleBody(mill.id, true));
       expect(res.status).toBe(201);
       template = res.body;
       expect(template.isTemplate).toBe(true);
@@ -187,16 +186,13 @@ describe('the mill (API)', () => {
       expect(p1.calc!.flywheel!.startSpeedRpm).toBe(75);
       expect(template.totalElongation).toBeCloseTo((76.2 * 76.2) / (50.8 * 50.8), 9);
 
-      const copy = await t.http
-        .post(`/api/mill/schedules/${template.id}/copies`)
-        .set('authorization', auth(lead))
-        .send({ name: 'Planned from the template' });
+      const copy = await signedIn(t, lead).post(`/api/mill/schedules/${template.id}/copies`).send({ name: 'Planned from the template' });
       expect(copy.status).toBe(201);
       expect(copy.body.isTemplate).toBe(false);
       expect(copy.body.templateId).toBe(template.id);
       expect(copy.body.templateName).toBe(template.name);
       expect(copy.body.passes.map((p: { exit: unknown }) => p.exit)).toEqual(template.passes.map((p) => p.exit));
-      const list = await t.http.get(`/api/mill/schedules?millId=${mill.id}&templates=true`).set('authorization', auth(observer));
+      const list = await signedIn(t, observer).get(`/api/mill/schedules?millId=${mill.id}&templates=true`);
       expect(list.status).toBe(200);
       expect(list.body.map((s: { id: string }) => s.id)).toContain(template.id);
       expect(list.body.map((s: { id: string }) => s.id)).not.toContain(copy.body.id);
@@ -205,13 +201,11 @@ describe('the mill (API)', () => {
     it('refuses a stand the mill does not have, and writers only', async () => {
       const body = scheduleBody(mill.id);
       body.passes[0].standPosition = 7;
-      const res = await t.http.post('/api/mill/schedules').set('authorization', auth(chief)).send(body);
+      const res = await signedIn(t, chief).post('/api/mill/schedules').send(body);
       expect(res.status).toBe(400);
       expect(JSON.stringify(res.body.message)).toMatch(/has no stand 7/);
-      expect((await t.http.post('/api/mill/schedules').set('authorization', auth(observer)).send(scheduleBody(mill.id))).status).toBe(403);
-      expect(
-        (await t.http.post(`/api/mill/schedules/${template.id}/copies`).set('authorization', auth(operator)).send({ name: 'x' })).status,
-      ).toBe(403);
+      expect((await signedIn(t, observer).post('/api/mill/schedules').send(scheduleBody(mill.id))).status).toBe(403);
+      expect((await signedIn(t, operator).post(`/api/mill/schedules/${template.id}/copies`).send({ name: 'x' })).status).toBe(403);
     });
   });
 
@@ -221,13 +215,12 @@ describe('the mill (API)', () => {
     const point = (code: string) => engine.measurementPoints.find((p) => p.code === code)!.id;
 
     beforeAll(async () => {
-      run = await createRun(t, chief.accessToken, engine.id);
+      run = await createMillRun(t, chief.accessToken, engine.id);
     });
 
     it('refuses bars while the run is only planned', async () => {
-      const res = await t.http
+      const res = await signedIn(t, lead)
         .post(`/api/mill/runs/${run.id}/bars`)
-        .set('authorization', auth(lead))
         .send({ barCode: 'B-01', stock: rect(76.2, 76.2), stockLengthMm: 1500 });
       expect(res.status).toBe(409);
       expect(res.body.message).toMatch(/passes are logged while the run is running, or stopped and not yet closed/);
@@ -235,9 +228,8 @@ describe('the mill (API)', () => {
 
     it('logs a normal pass with its calculation, taking the speed from the run’s latest speed reading', async () => {
       await forceRunState(t, run.id, 'running');
-      const round = await t.http
+      const round = await signedIn(t, operator)
         .post(`/api/runs/${run.id}/rounds`)
-        .set('authorization', auth(operator))
         .send({
           takenAt: new Date(Date.now() - 10 * 60_000).toISOString(),
           readings: [
@@ -246,23 +238,20 @@ describe('the mill (API)', () => {
           ],
         });
       expect(round.status).toBe(201);
-      const b = await t.http
+      const b = await signedIn(t, lead)
         .post(`/api/mill/runs/${run.id}/bars`)
-        .set('authorization', auth(lead))
         .send({ barCode: 'B-01', stock: rect(76.2, 76.2), stockLengthMm: 1500 });
       expect(b.status).toBe(201);
       bar = b.body;
       expect(
         (
-          await t.http
+          await signedIn(t, lead)
             .post(`/api/mill/runs/${run.id}/bars`)
-            .set('authorization', auth(lead))
             .send({ barCode: 'B-01', stock: rect(76.2, 76.2), stockLengthMm: 1500 })
         ).status,
       ).toBe(409);
-      const res = await t.http
+      const res = await signedIn(t, lead)
         .post(`/api/mill/bars/${bar.id}/passes`)
-        .set('authorization', auth(lead))
         .send({ passNumber: 1, standPosition: 1, measuredTemperatureC: 1140, exit: rect(62, 80) });
       expect(res.status).toBe(201);
       const p = res.body as LoggedPassDto;
@@ -272,23 +261,20 @@ describe('the mill (API)', () => {
       expect(p.calc.flywheel!.startSpeedSource).toMatch(/speed reading SPD/);
       expect(p.calc.flywheel!.indicatedHpSource).toMatch(/site setting/);
       expect(p.calc.rollSpeedRpm).toBe(72);
-      const again = await t.http
+      const again = await signedIn(t, lead)
         .post(`/api/mill/bars/${bar.id}/passes`)
-        .set('authorization', auth(lead))
         .send({ passNumber: 1, standPosition: 1, measuredTemperatureC: 1140, exit: rect(62, 80) });
       expect(again.status).toBe(409);
       expect(again.body.message).toMatch(/Pass 1 of bar B-01 is already logged/);
     });
 
     it('flags an overloaded pass: stand force and the flywheel speed drop', async () => {
-      const b = await t.http
+      const b = await signedIn(t, chief)
         .post(`/api/mill/runs/${run.id}/bars`)
-        .set('authorization', auth(chief))
         .send({ barCode: 'B-02', stock: rect(40, 150), stockLengthMm: 6000 });
       expect(b.status).toBe(201);
-      const res = await t.http
+      const res = await signedIn(t, lead)
         .post(`/api/mill/bars/${b.body.id}/passes`)
-        .set('authorization', auth(lead))
         .send({ passNumber: 1, standPosition: 1, measuredTemperatureC: 850, exit: rect(25, 155) });
       expect(res.status).toBe(201);
       const codes = (res.body as LoggedPassDto).calc.warnings.map((w) => w.code);
@@ -298,29 +284,27 @@ describe('the mill (API)', () => {
 
     it('only the mill lead and the chief engineer log passes', async () => {
       const body = { passNumber: 2, standPosition: 2, measuredTemperatureC: 1100, exit: rect(60, 66), entry: rect(80, 62) };
-      expect((await t.http.post(`/api/mill/bars/${bar.id}/passes`).set('authorization', auth(observer)).send(body)).status).toBe(403);
-      expect((await t.http.post(`/api/mill/bars/${bar.id}/passes`).set('authorization', auth(operator)).send(body)).status).toBe(403);
-      expect((await t.http.post(`/api/mill/bars/${bar.id}/passes`).set('authorization', auth(chief)).send(body)).status).toBe(201);
+      expect((await signedIn(t, observer).post(`/api/mill/bars/${bar.id}/passes`).send(body)).status).toBe(403);
+      expect((await signedIn(t, operator).post(`/api/mill/bars/${bar.id}/passes`).send(body)).status).toBe(403);
+      expect((await signedIn(t, chief).post(`/api/mill/bars/${bar.id}/passes`).send(body)).status).toBe(201);
       expect(
         (
-          await t.http
+          await signedIn(t, lead)
             .post(`/api/mill/bars/${bar.id}/passes`)
-            .set('authorization', auth(lead))
             .send({ ...body, passNumber: 3, standPosition: 9 })
         ).status,
       ).toBe(400);
       expect(
         (
-          await t.http
+          await signedIn(t, lead)
             .post(`/api/mill/bars/${randomUUID()}/passes`)
-            .set('authorization', auth(lead))
             .send({ ...body, passNumber: 3 })
         ).status,
       ).toBe(404);
     });
 
     it('puts passes, rounds of readings and alarms of the run on one timeline', async () => {
-      const res = await t.http.get(`/api/mill/runs/${run.id}/timeline`).set('authorization', auth(observer));
+      const res = await signedIn(t, observer).get(`/api/mill/runs/${run.id}/timeline`);
       expect(res.status).toBe(200);
       const items = res.body as MillTimelineItem[];
       const kinds = new Set(items.map((i) => i.kind));
@@ -335,21 +319,19 @@ describe('the mill (API)', () => {
       await forceRunState(t, run.id, 'stopped');
       expect(
         (
-          await t.http
+          await signedIn(t, lead)
             .post(`/api/mill/bars/${bar.id}/passes`)
-            .set('authorization', auth(lead))
             .send({ passNumber: 3, standPosition: 3, measuredTemperatureC: 1050, exit: rect(50.8, 50.8) })
         ).status,
       ).toBe(201);
       await forceRunState(t, run.id, 'closed');
-      const res = await t.http
+      const res = await signedIn(t, lead)
         .post(`/api/mill/bars/${bar.id}/passes`)
-        .set('authorization', auth(lead))
         .send({ passNumber: 4, standPosition: 3, measuredTemperatureC: 1000, exit: rect(48, 48) });
       expect(res.status).toBe(409);
       expect(res.body.message).toMatch(/closed/);
-      expect((await t.http.patch(`/api/mill/bars/${bar.id}`).set('authorization', auth(lead)).send({ weightKg: 60 })).status).toBe(409);
-      const log = await t.http.get(`/api/mill/runs/${run.id}`).set('authorization', auth(observer));
+      expect((await signedIn(t, lead).patch(`/api/mill/bars/${bar.id}`).send({ weightKg: 60 })).status).toBe(409);
+      const log = await signedIn(t, observer).get(`/api/mill/runs/${run.id}`);
       expect(log.status).toBe(200);
       expect(log.body.canLog).toBe(false);
       expect(log.body.bars.map((b: BarDto) => b.passes.length)).toEqual([3, 1]);
@@ -369,33 +351,26 @@ describe('the mill (API)', () => {
       dueDate: '2027-03-31',
       millId: mill.id,
     });
-    const move = (s: SignedIn, id: string, to: string) =>
-      t.http.post(`/api/mill/lots/${id}/transitions`).set('authorization', auth(s)).send({ to });
+    const move = (s: SignedIn, id: string, to: string) => signedIn(t, s).post(`/api/mill/lots/${id}/transitions`).send({ to });
 
     it('only the mill lead and the chief engineer change lots; observers read', async () => {
-      expect((await t.http.post('/api/mill/lots').set('authorization', auth(observer)).send(lotBody())).status).toBe(403);
-      expect((await t.http.post('/api/mill/lots').set('authorization', auth(operator)).send(lotBody())).status).toBe(403);
-      const created = await t.http.post('/api/mill/lots').set('authorization', auth(chief)).send(lotBody());
+      expect((await signedIn(t, observer).post('/api/mill/lots').send(lotBody())).status).toBe(403);
+      expect((await signedIn(t, operator).post('/api/mill/lots').send(lotBody())).status).toBe(403);
+      const created = await signedIn(t, chief).post('/api/mill/lots').send(lotBody());
       expect(created.status).toBe(201);
       const id = created.body.id as string;
       expect(created.body.reference).toMatch(/^LOT-\d{4}-\d{3}$/);
-      expect((await t.http.patch(`/api/mill/lots/${id}`).set('authorization', auth(observer)).send({ notes: 'x' })).status).toBe(403);
-      expect(
-        (await t.http.patch(`/api/mill/lots/${id}`).set('authorization', auth(lead)).send({ notes: 'Call before delivery.' })).status,
-      ).toBe(200);
+      expect((await signedIn(t, observer).patch(`/api/mill/lots/${id}`).send({ notes: 'x' })).status).toBe(403);
+      expect((await signedIn(t, lead).patch(`/api/mill/lots/${id}`).send({ notes: 'Call before delivery.' })).status).toBe(200);
       expect((await move(operator, id, 'quoted')).status).toBe(403);
-      expect(
-        (await t.http.post(`/api/mill/lots/${id}/quotes`).set('authorization', auth(observer)).send({ engineHours: 1, crewHours: 1 }))
-          .status,
-      ).toBe(403);
-      const read = await t.http.get(`/api/mill/lots/${id}`).set('authorization', auth(observer));
+      expect((await signedIn(t, observer).post(`/api/mill/lots/${id}/quotes`).send({ engineHours: 1, crewHours: 1 })).status).toBe(403);
+      const read = await signedIn(t, observer).get(`/api/mill/lots/${id}`);
       expect(read.status).toBe(200);
       expect(read.body.notes).toBe('Call before delivery.');
-      expect((await t.http.get('/api/mill/lots').set('authorization', auth(observer))).status).toBe(200);
-      expect((await t.http.get(`/api/mill/lots/${randomUUID()}`).set('authorization', auth(observer))).status).toBe(404);
-      const bad = await t.http
+      expect((await signedIn(t, observer).get('/api/mill/lots')).status).toBe(200);
+      expect((await signedIn(t, observer).get(`/api/mill/lots/${randomUUID()}`)).status).toBe(404);
+      const bad = await signedIn(t, lead)
         .post('/api/mill/lots')
-        .set('authorization', auth(lead))
         .send({ ...lotBody(), dueDate: '31/03/2027', customerEmail: 'nobody' });
       expect(bad.status).toBe(400);
       expect(bad.body.message).toEqual(
@@ -404,7 +379,7 @@ describe('the mill (API)', () => {
     });
 
     it('the status flow goes one step at a time and refuses skipping with a message (409)', async () => {
-      const lot = (await t.http.post('/api/mill/lots').set('authorization', auth(lead)).send(lotBody())).body as LotDetail;
+      const lot = (await signedIn(t, lead).post('/api/mill/lots').send(lotBody())).body as LotDetail;
       expect(lot.status).toBe('enquiry');
       expect(lot.nextStatus).toBe('quoted');
       const skip = await move(lead, lot.id, 'accepted');
@@ -413,44 +388,33 @@ describe('the mill (API)', () => {
       const noQuote = await move(lead, lot.id, 'quoted');
       expect(noQuote.status).toBe(409);
       expect(noQuote.body.message).toMatch(/Make a quote/);
-      expect(
-        (await t.http.post(`/api/mill/lots/${lot.id}/quotes`).set('authorization', auth(lead)).send({ engineHours: 6, crewHours: 8 }))
-          .status,
-      ).toBe(201);
+      expect((await signedIn(t, lead).post(`/api/mill/lots/${lot.id}/quotes`).send({ engineHours: 6, crewHours: 8 })).status).toBe(201);
       expect((await move(lead, lot.id, 'quoted')).status).toBe(200);
       expect((await move(lead, lot.id, 'quoted')).status).toBe(409);
       expect((await move(lead, lot.id, 'delivered')).status).toBe(409);
       expect((await move(chief, lot.id, 'accepted')).status).toBe(200);
-      const late = await t.http
-        .post(`/api/mill/lots/${lot.id}/quotes`)
-        .set('authorization', auth(lead))
-        .send({ engineHours: 1, crewHours: 1 });
+      const late = await signedIn(t, lead).post(`/api/mill/lots/${lot.id}/quotes`).send({ engineHours: 1, crewHours: 1 });
       expect(late.status).toBe(409);
       expect(late.body.message).toMatch(/price is fixed/);
       const noRun = await move(lead, lot.id, 'scheduled');
       expect(noRun.status).toBe(409);
       expect(noRun.body.message).toMatch(/Link the run/);
-      const run = await createRun(t, chief.accessToken, engine.id);
-      expect((await t.http.post(`/api/mill/lots/${lot.id}/runs`).set('authorization', auth(lead)).send({ runId: run.id })).status).toBe(
-        200,
-      );
+      const run = await createMillRun(t, chief.accessToken, engine.id);
+      expect((await signedIn(t, lead).post(`/api/mill/lots/${lot.id}/runs`).send({ runId: run.id })).status).toBe(200);
       expect((await move(lead, lot.id, 'scheduled')).status).toBe(200);
       const notRolled = await move(lead, lot.id, 'rolled');
       expect(notRolled.status).toBe(409);
       expect(notRolled.body.message).toMatch(/tonnage produced/);
-      expect(
-        (await t.http.patch(`/api/mill/lots/${lot.id}`).set('authorization', auth(lead)).send({ producedTonnes: 9.6, scrappedTonnes: 0.3 }))
-          .status,
-      ).toBe(200);
-      expect((await t.http.patch(`/api/mill/lots/${lot.id}`).set('authorization', auth(lead)).send({ quantityTonnes: 12 })).status).toBe(
-        409,
+      expect((await signedIn(t, lead).patch(`/api/mill/lots/${lot.id}`).send({ producedTonnes: 9.6, scrappedTonnes: 0.3 })).status).toBe(
+        200,
       );
+      expect((await signedIn(t, lead).patch(`/api/mill/lots/${lot.id}`).send({ quantityTonnes: 12 })).status).toBe(409);
       for (const to of ['rolled', 'inspected', 'delivered']) expect((await move(lead, lot.id, to)).status).toBe(200);
       const back = await move(lead, lot.id, 'rolled');
       expect(back.status).toBe(409);
       expect(back.body.message).toMatch(/delivered/);
-      expect((await t.http.patch(`/api/mill/lots/${lot.id}`).set('authorization', auth(lead)).send({ notes: 'late' })).status).toBe(409);
-      const done = (await t.http.get(`/api/mill/lots/${lot.id}`).set('authorization', auth(observer))).body as LotDetail;
+      expect((await signedIn(t, lead).patch(`/api/mill/lots/${lot.id}`).send({ notes: 'late' })).status).toBe(409);
+      const done = (await signedIn(t, observer).get(`/api/mill/lots/${lot.id}`)).body as LotDetail;
       expect(done.history.map((h) => h.to)).toEqual(['enquiry', 'quoted', 'accepted', 'scheduled', 'rolled', 'inspected', 'delivered']);
       expect(done.runs.map((r) => r.id)).toEqual([run.id]);
       expect(done.producedTonnes).toBe(9.6);
@@ -461,11 +425,8 @@ describe('the mill (API)', () => {
       // Arithmetic of the quoting rules (common practice, no source), with the test mill's rates:
       // stock 10 t / (1 − 0.10) = 11.111 t × 900 = 10,000.00; engine 6 h × 250 = 1,500; crew 8 h × 5 × 22.50 = 900;
       // fixed 1,200 + 150; subtotal 13,750; contingency 10 % = 1,375; margin 15 % of 15,125 = 2,268.75; total 17,393.75.
-      const lot = (await t.http.post('/api/mill/lots').set('authorization', auth(lead)).send(lotBody())).body as LotDetail;
-      const res = await t.http
-        .post(`/api/mill/lots/${lot.id}/quotes`)
-        .set('authorization', auth(lead))
-        .send({ engineHours: 6, crewHours: 8 });
+      const lot = (await signedIn(t, lead).post('/api/mill/lots').send(lotBody())).body as LotDetail;
+      const res = await signedIn(t, lead).post(`/api/mill/lots/${lot.id}/quotes`).send({ engineHours: 6, crewHours: 8 });
       expect(res.status).toBe(201);
       const q = res.body as QuoteDto;
       expect(q.number).toBe(1);
@@ -476,25 +437,21 @@ describe('the mill (API)', () => {
       expect(q.margin.amount).toBe(2268.75);
       expect(q.total).toBe(17393.75);
       expect(q.currency).toBe('GBP');
-      const second = await t.http
+      const second = await signedIn(t, chief)
         .post(`/api/mill/lots/${lot.id}/quotes`)
-        .set('authorization', auth(chief))
         .send({ engineHours: 6, crewHours: 8, extraFixedCosts: [{ label: 'Haulage', amount: 100 }] });
       expect(second.body.number).toBe(2);
       // 100 more before contingency and margin: 100 × 1.10 × 1.15 = 126.50
       expect(second.body.total).toBe(17393.75 + 126.5);
-      expect((await t.http.get(`/api/mill/lots/${lot.id}`).set('authorization', auth(observer))).body.latestQuoteTotal).toBe(17520.25);
+      expect((await signedIn(t, observer).get(`/api/mill/lots/${lot.id}`)).body.latestQuoteTotal).toBe(17520.25);
     });
 
     it('the quote is a PDF, and e-mailing it sends the PDF to the customer and marks an enquiry quoted', async () => {
       const body = lotBody();
-      const lot = (await t.http.post('/api/mill/lots').set('authorization', auth(lead)).send(body)).body as LotDetail;
-      const q = (
-        await t.http.post(`/api/mill/lots/${lot.id}/quotes`).set('authorization', auth(lead)).send({ engineHours: 2, crewHours: 3 })
-      ).body as QuoteDto;
-      const pdf = await t.http
+      const lot = (await signedIn(t, lead).post('/api/mill/lots').send(body)).body as LotDetail;
+      const q = (await signedIn(t, lead).post(`/api/mill/lots/${lot.id}/quotes`).send({ engineHours: 2, crewHours: 3 })).body as QuoteDto;
+      const pdf = await signedIn(t, observer)
         .get(`/api/mill/quotes/${q.id}/quote.pdf`)
-        .set('authorization', auth(observer))
         .buffer(true)
         .parse((res, cb) => {
           const chunks: Buffer[] = [];
@@ -504,11 +461,8 @@ describe('the mill (API)', () => {
       expect(pdf.status).toBe(200);
       expect(pdf.headers['content-type']).toMatch(/application\/pdf/);
       expect((pdf.body as Buffer).subarray(0, 5).toString()).toBe('%PDF-');
-      expect((await t.http.post(`/api/mill/quotes/${q.id}/send`).set('authorization', auth(observer)).send({})).status).toBe(403);
-      const sent = await t.http
-        .post(`/api/mill/quotes/${q.id}/send`)
-        .set('authorization', auth(lead))
-        .send({ message: 'Our price for the square bar.' });
+      expect((await signedIn(t, observer).post(`/api/mill/quotes/${q.id}/send`).send({})).status).toBe(403);
+      const sent = await signedIn(t, lead).post(`/api/mill/quotes/${q.id}/send`).send({ message: 'Our price for the square bar.' });
       expect(sent.status).toBe(200);
       expect(sent.body.sentTo).toBe(body.customerEmail);
       const mail = await waitForMessage(body.customerEmail, { subject: lot.reference });
@@ -516,7 +470,7 @@ describe('the mill (API)', () => {
       expect(mail.attachments).toEqual([
         expect.objectContaining({ contentType: 'application/pdf', filename: `quote-${lot.reference}-Q1.pdf` }),
       ]);
-      const after = (await t.http.get(`/api/mill/lots/${lot.id}`).set('authorization', auth(lead))).body as LotDetail;
+      const after = (await signedIn(t, lead).get(`/api/mill/lots/${lot.id}`)).body as LotDetail;
       expect(after.status).toBe('quoted');
       expect(after.quotes[0].sentAt).not.toBeNull();
     });

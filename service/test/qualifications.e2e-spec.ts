@@ -1,8 +1,9 @@
 import { randomUUID } from 'node:crypto';
 import type { QualificationDto, QualificationMatrix } from '@crankjournal/shared-types';
-import { bearer, startTestApp, type TestApp } from './utils/test-app.js';
+import { startTestApp, type TestApp } from './utils/test-app.js';
+import { signedIn } from './utils/signed-in.js';
 import { login, type SignedIn } from './factories/users.factory.js';
-import { createEngine, grant, isoDate, preparingRun } from './factories/checklists.factory.js';
+import { gateEngine, grant, isoDate, preparingRun } from './factories/checklists.factory.js';
 
 describe('crew qualifications (API)', () => {
   let t: TestApp;
@@ -11,8 +12,7 @@ describe('crew qualifications (API)', () => {
   let admin: SignedIn;
   let observer: SignedIn;
   let engine: { id: string; name: string; pointId: string };
-  const as = (who: SignedIn) => ({ Authorization: bearer(who.accessToken) });
-  const post = (who: SignedIn, body: Record<string, unknown>) => t.http.post('/api/qualifications').set(as(who)).send(body);
+  const post = (who: SignedIn, body: Record<string, unknown>) => signedIn(t, who).post('/api/qualifications').send(body);
 
   beforeAll(async () => {
     t = await startTestApp();
@@ -20,7 +20,7 @@ describe('crew qualifications (API)', () => {
     operator = await login(t, 'operator');
     admin = await login(t, 'administrator');
     observer = await login(t, 'observer');
-    engine = await createEngine(t, chief);
+    engine = await gateEngine(t, chief);
   }, 180_000);
   afterAll(async () => {
     await t?.close();
@@ -66,14 +66,14 @@ describe('crew qualifications (API)', () => {
   it('shows everyone their own qualifications, observers included', async () => {
     const me = await login(t, 'operator');
     await grant(t, chief, me.account.id, engine.id, ['pre_lube', 'start_and_run']);
-    const mine = await t.http.get('/api/qualifications/mine').set(as(me));
+    const mine = await signedIn(t, me).get('/api/qualifications/mine');
     expect(mine.status).toBe(200);
     expect((mine.body as QualificationDto[]).map((q) => q.duty).sort()).toEqual(['pre_lube', 'start_and_run']);
     expect(mine.body.every((q: QualificationDto) => q.userId === me.account.id)).toBe(true);
-    const theirs = await t.http.get('/api/qualifications/mine').set(as(observer));
+    const theirs = await signedIn(t, observer).get('/api/qualifications/mine');
     expect(theirs.status).toBe(200);
     expect(theirs.body).toEqual([]);
-    expect((await t.http.get('/api/qualifications').set(as(me))).status).toBe(403);
+    expect((await signedIn(t, me).get('/api/qualifications')).status).toBe(403);
   });
 
   it('gives the chief engineer a matrix of the crew with what is about to expire or has expired', async () => {
@@ -82,7 +82,7 @@ describe('crew qualifications (API)', () => {
     await grant(t, chief, soon.account.id, engine.id, ['start_and_run'], { from: -300, to: 10 });
     await grant(t, chief, gone.account.id, engine.id, ['start_and_run'], { from: -400, to: -3 });
     await grant(t, chief, gone.account.id, engine.id, ['pre_lube'], { from: -30, to: 300 });
-    const res = await t.http.get(`/api/qualifications/matrix?engineId=${engine.id}`).set(as(chief));
+    const res = await signedIn(t, chief).get(`/api/qualifications/matrix?engineId=${engine.id}`);
     expect(res.status).toBe(200);
     const m = res.body as QualificationMatrix;
     expect(m.duties).toEqual(['pre_lube', 'start_and_run', 'shutdown', 'mill_operation']);
@@ -97,9 +97,9 @@ describe('crew qualifications (API)', () => {
     expect(attention).toEqual(expect.arrayContaining([soon.account.id, gone.account.id]));
     // Soonest first: the expired one before the one expiring in ten days.
     expect(attention.indexOf(gone.account.id)).toBeLessThan(attention.indexOf(soon.account.id));
-    expect((await t.http.get(`/api/qualifications/matrix?engineId=${engine.id}`).set(as(operator))).status).toBe(403);
-    expect((await t.http.get(`/api/qualifications/matrix?engineId=${engine.id}`).set(as(admin))).status).toBe(200);
-    expect((await t.http.get(`/api/qualifications/matrix?engineId=${randomUUID()}`).set(as(chief))).status).toBe(404);
+    expect((await signedIn(t, operator).get(`/api/qualifications/matrix?engineId=${engine.id}`)).status).toBe(403);
+    expect((await signedIn(t, admin).get(`/api/qualifications/matrix?engineId=${engine.id}`)).status).toBe(200);
+    expect((await signedIn(t, chief).get(`/api/qualifications/matrix?engineId=${randomUUID()}`)).status).toBe(404);
   });
 
   it('renews by withdrawing the old grant and granting a new one, so the old dates stay in the record', async () => {
@@ -107,19 +107,17 @@ describe('crew qualifications (API)', () => {
     const [id] = await grant(t, chief, p.account.id, engine.id, ['start_and_run'], { from: -360, to: -2 });
     expect(
       (
-        await t.http
+        await signedIn(t, operator)
           .post(`/api/qualifications/${id}/renew`)
-          .set(as(operator))
           .send({ expiresOn: isoDate(365) })
       ).status,
     ).toBe(403);
-    const renewed = await t.http
+    const renewed = await signedIn(t, chief)
       .post(`/api/qualifications/${id}/renew`)
-      .set(as(chief))
       .send({ expiresOn: isoDate(365) });
     expect(renewed.status).toBe(201);
     expect(renewed.body).toMatchObject({ status: 'current', grantedOn: isoDate(0), expiresOn: isoDate(365) });
-    const all = (await t.http.get(`/api/qualifications?userId=${p.account.id}&includeWithdrawn=true`).set(as(chief)))
+    const all = (await signedIn(t, chief).get(`/api/qualifications?userId=${p.account.id}&includeWithdrawn=true`))
       .body as QualificationDto[];
     expect(all).toHaveLength(2);
     const old = all.find((q) => q.id === id)!;
@@ -127,9 +125,8 @@ describe('crew qualifications (API)', () => {
     expect(old.withdrawnReason).toContain('Renewed until');
     expect(
       (
-        await t.http
+        await signedIn(t, chief)
           .post(`/api/qualifications/${id}/renew`)
-          .set(as(chief))
           .send({ expiresOn: isoDate(365) })
       ).status,
     ).toBe(409);
@@ -140,18 +137,18 @@ describe('crew qualifications (API)', () => {
       const p = await login(t, 'operator');
       const [id] = await grant(t, chief, p.account.id, engine.id, ['start_and_run']);
       const run = await preparingRun(t, p, engine.id);
-      await t.http.post(`/api/runs/${run.id}/transitions`).set(as(chief)).send({ to: 'cleared' });
-      const before = (await t.http.get(`/api/runs/${run.id}/start-gate`).set(as(p))).body;
+      await signedIn(t, chief).post(`/api/runs/${run.id}/transitions`).send({ to: 'cleared' });
+      const before = (await signedIn(t, p).get(`/api/runs/${run.id}/start-gate`)).body;
       expect(before.reasons.map((r: { code: string }) => r.code)).not.toContain('qualification_missing');
 
-      expect((await t.http.post(`/api/qualifications/${id}/withdraw`).set(as(chief)).send({ reason: '' })).status).toBe(400);
-      expect((await t.http.post(`/api/qualifications/${id}/withdraw`).set(as(operator)).send({ reason: 'Not allowed' })).status).toBe(403);
-      const w = await t.http.post(`/api/qualifications/${id}/withdraw`).set(as(chief)).send({ reason: 'Missed the refresher course.' });
+      expect((await signedIn(t, chief).post(`/api/qualifications/${id}/withdraw`).send({ reason: '' })).status).toBe(400);
+      expect((await signedIn(t, operator).post(`/api/qualifications/${id}/withdraw`).send({ reason: 'Not allowed' })).status).toBe(403);
+      const w = await signedIn(t, chief).post(`/api/qualifications/${id}/withdraw`).send({ reason: 'Missed the refresher course.' });
       expect(w.status).toBe(200);
       expect(w.body).toMatchObject({ status: 'withdrawn', withdrawnReason: 'Missed the refresher course.' });
-      expect((await t.http.post(`/api/qualifications/${id}/withdraw`).set(as(chief)).send({ reason: 'Twice' })).status).toBe(409);
+      expect((await signedIn(t, chief).post(`/api/qualifications/${id}/withdraw`).send({ reason: 'Twice' })).status).toBe(409);
 
-      const after = await t.http.post(`/api/runs/${run.id}/transitions`).set(as(p)).send({ to: 'running' });
+      const after = await signedIn(t, p).post(`/api/runs/${run.id}/transitions`).send({ to: 'running' });
       expect(after.status).toBe(409);
       const reason = after.body.details.reasons.find((r: { code: string }) => r.code === 'qualification_missing');
       expect(reason.message).toContain('was withdrawn');
@@ -161,15 +158,14 @@ describe('crew qualifications (API)', () => {
   describe('acknowledging alarms', () => {
     /** A run of a fresh engine with an active high-high alarm. */
     async function alarmOn() {
-      const e = await createEngine(t, chief);
+      const e = await gateEngine(t, chief);
       const starter = await login(t, 'operator');
       const run = await preparingRun(t, starter, e.id);
       const now = new Date().toISOString();
-      await t.http
+      await signedIn(t, starter)
         .post(`/api/runs/${run.id}/rounds`)
-        .set(as(starter))
         .send({ takenAt: now, readings: [{ clientId: randomUUID(), pointId: e.pointId, value: 150, takenAt: now }] });
-      const alarms = (await t.http.get(`/api/runs/${run.id}/alarms`).set(as(starter))).body;
+      const alarms = (await signedIn(t, starter).get(`/api/runs/${run.id}/alarms`)).body;
       expect(alarms.length).toBeGreaterThan(0);
       return { e, alarmId: alarms[0].id as string };
     }
@@ -177,23 +173,23 @@ describe('crew qualifications (API)', () => {
     it('needs a current start-and-run qualification on that engine; nobody is exempt', async () => {
       const { e, alarmId } = await alarmOn();
       const unq = await login(t, 'operator');
-      const refused = await t.http.post(`/api/alarms/${alarmId}/acknowledge`).set(as(unq)).send();
+      const refused = await signedIn(t, unq).post(`/api/alarms/${alarmId}/acknowledge`).send();
       expect(refused.status).toBe(403);
       expect(refused.body.message).toContain('start and run qualification for');
       expect(refused.body.message).toContain('answer alarms');
       const chiefWithout = await login(t, 'chief_engineer');
-      expect((await t.http.post(`/api/alarms/${alarmId}/acknowledge`).set(as(chiefWithout)).send()).status).toBe(403);
+      expect((await signedIn(t, chiefWithout).post(`/api/alarms/${alarmId}/acknowledge`).send()).status).toBe(403);
       const expired = await login(t, 'operator');
       await grant(t, chief, expired.account.id, e.id, ['start_and_run'], { from: -400, to: -1 });
-      const exp = await t.http.post(`/api/alarms/${alarmId}/acknowledge`).set(as(expired)).send();
+      const exp = await signedIn(t, expired).post(`/api/alarms/${alarmId}/acknowledge`).send();
       expect(exp.status).toBe(403);
       expect(exp.body.message).toContain('expired on');
       const qualifiedElsewhere = await login(t, 'operator');
       await grant(t, chief, qualifiedElsewhere.account.id, engine.id, ['start_and_run']);
-      expect((await t.http.post(`/api/alarms/${alarmId}/acknowledge`).set(as(qualifiedElsewhere)).send()).status).toBe(403);
+      expect((await signedIn(t, qualifiedElsewhere).post(`/api/alarms/${alarmId}/acknowledge`).send()).status).toBe(403);
       const ok = await login(t, 'operator');
       await grant(t, chief, ok.account.id, e.id, ['start_and_run']);
-      const acked = await t.http.post(`/api/alarms/${alarmId}/acknowledge`).set(as(ok)).send();
+      const acked = await signedIn(t, ok).post(`/api/alarms/${alarmId}/acknowledge`).send();
       expect(acked.status).toBe(200);
       expect(acked.body.acknowledgedByName).toBe(ok.account.displayName);
     });
@@ -202,7 +198,7 @@ describe('crew qualifications (API)', () => {
       const { alarmId } = await alarmOn();
       const unq = await login(t, 'operator');
       expect(
-        (await t.http.post(`/api/alarms/${alarmId}/shelve`).set(as(unq)).send({ reason: 'Known sensor fault.', minutes: 30 })).status,
+        (await signedIn(t, unq).post(`/api/alarms/${alarmId}/shelve`).send({ reason: 'Known sensor fault.', minutes: 30 })).status,
       ).toBe(403);
     });
   });

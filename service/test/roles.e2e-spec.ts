@@ -1,5 +1,7 @@
+import type { Response } from 'supertest';
 import { ROLES, type Role } from '@crankjournal/shared-types';
-import { bearer, startTestApp, type TestApp } from './utils/test-app.js';
+import { startTestApp, type TestApp } from './utils/test-app.js';
+import { requestAs, signedIn } from './utils/signed-in.js';
 import { createUser, login, uniqueEmail, type SignedIn } from './factories/users.factory.js';
 
 const NOT_ADMIN = ROLES.filter((r) => r !== 'administrator');
@@ -18,25 +20,25 @@ describe('who may call what (API)', () => {
   });
 
   /** The administration routes, each with a body that would be accepted. */
-  const adminRoutes: { name: string; ok: number; call: (token?: string) => Promise<{ status: number; body: any }> }[] = [
+  const adminRoutes: { name: string; ok: number; call: (token?: string) => Promise<Response> }[] = [
     {
       name: 'GET /api/users',
       ok: 200,
       call: (token) => {
-        const r = t.http.get('/api/users');
-        return token ? r.set('Authorization', bearer(token)) : r;
+        return requestAs(t, token).get('/api/users');
       },
     },
     {
       name: 'POST /api/users/invitations',
       ok: 201,
       call: (token) => {
-        const r = t.http.post('/api/users/invitations');
-        return (token ? r.set('Authorization', bearer(token)) : r).send({
-          email: uniqueEmail('invitee'),
-          displayName: 'Invited Person',
-          role: 'observer',
-        });
+        return requestAs(t, token)
+          .post('/api/users/invitations')
+          .send({
+            email: uniqueEmail('invitee'),
+            displayName: 'Invited Person',
+            role: 'observer',
+          });
       },
     },
     {
@@ -44,8 +46,7 @@ describe('who may call what (API)', () => {
       ok: 200,
       call: async (token) => {
         const target = await createUser(t.db, { role: 'observer' });
-        const r = t.http.patch(`/api/users/${target.id}`);
-        return (token ? r.set('Authorization', bearer(token)) : r).send({ displayName: 'Renamed By Test' });
+        return requestAs(t, token).patch(`/api/users/${target.id}`).send({ displayName: 'Renamed By Test' });
       },
     },
   ];
@@ -70,10 +71,7 @@ describe('who may call what (API)', () => {
 
   it('the administrator really changed something (PATCH answers the new name)', async () => {
     const target = await createUser(t.db, { role: 'observer' });
-    const res = await t.http
-      .patch(`/api/users/${target.id}`)
-      .set('Authorization', bearer(session.administrator.accessToken))
-      .send({ displayName: 'Renamed Observer' });
+    const res = await signedIn(t, session.administrator).patch(`/api/users/${target.id}`).send({ displayName: 'Renamed Observer' });
     expect(res.status).toBe(200);
     expect(res.body.displayName).toBe('Renamed Observer');
     const [row] = await t.db.query('SELECT display_name FROM users WHERE id = $1', [target.id]);
@@ -82,10 +80,7 @@ describe('who may call what (API)', () => {
 
   it('a refused PATCH changes nothing', async () => {
     const target = await createUser(t.db, { role: 'observer', displayName: 'Unchanged Name' });
-    const res = await t.http
-      .patch(`/api/users/${target.id}`)
-      .set('Authorization', bearer(session.operator.accessToken))
-      .send({ role: 'administrator' });
+    const res = await signedIn(t, session.operator).patch(`/api/users/${target.id}`).send({ role: 'administrator' });
     expect(res.status).toBe(403);
     const [row] = await t.db.query('SELECT display_name, role FROM users WHERE id = $1', [target.id]);
     expect(row).toEqual({ display_name: 'Unchanged Name', role: 'observer' });
@@ -93,8 +88,7 @@ describe('who may call what (API)', () => {
 
   describe('POST /api/live/notices', () => {
     const post = (token?: string) => {
-      const r = t.http.post('/api/live/notices');
-      return (token ? r.set('Authorization', bearer(token)) : r).send({ message: 'Engine house closes at four today.' });
+      return requestAs(t, token).post('/api/live/notices').send({ message: 'Engine house closes at four today.' });
     };
 
     it.each(NOTICE_ROLES)('is allowed to %s', async (role) => {

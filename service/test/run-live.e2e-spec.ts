@@ -1,7 +1,9 @@
 import { randomUUID } from 'node:crypto';
-import { io, type Socket } from 'socket.io-client';
+import type { Socket } from 'socket.io-client';
 import type { AlarmDto, EngineDetail, LiveAck, IngestResult, ReadingsEvent } from '@crankjournal/shared-types';
-import { bearer, startTestApp, type TestApp } from './utils/test-app.js';
+import { startTestApp, type TestApp } from './utils/test-app.js';
+import { connected, socketAs } from './utils/socket.js';
+import { signedIn } from './utils/signed-in.js';
 import { login, type SignedIn } from './factories/users.factory.js';
 import { createEngine, createPreparingRun, reading } from './factories/engine.factory.js';
 
@@ -17,12 +19,9 @@ describe('the run log live: readings and alarms reach everyone watching the run,
   const point = (code: string) => engine.measurementPoints.find((p) => p.code === code)!.id;
 
   const joined = async (token: string, room: string): Promise<Socket> => {
-    const s = io(t.url, { transports: ['websocket'], reconnection: false, forceNew: true, auth: { token } });
+    const s = socketAs(t.url, token);
     sockets.push(s);
-    await new Promise<void>((res, rej) => {
-      s.once('connect', () => res());
-      s.once('connect_error', rej);
-    });
+    await connected(s);
     const ack = await s.timeout(WAIT_MS).emitWithAck('room:join', { room });
     expect(ack).toMatchObject({ ok: true });
     return s;
@@ -69,9 +68,8 @@ describe('the run log live: readings and alarms reach everyone watching the run,
       c: collect<AlarmDto>(c, 'alarm:changed'),
     };
     const r = reading(point('THR'), 149);
-    const res = await t.http
+    const res = await signedIn(t, operator)
       .post(`/api/runs/${run.id}/rounds`)
-      .set('authorization', bearer(operator.accessToken))
       .send({ takenAt: r.takenAt, readings: [r] });
     expect(res.status).toBe(201);
     await until(() => got.a.length > 0 && got.b.length > 0 && alarms.a.length >= 2 && alarms.b.length >= 2);
@@ -89,9 +87,8 @@ describe('the run log live: readings and alarms reach everyone watching the run,
     const r = { ...reading(randomUUID(), 74), pointCode: 'SPD', pointId: undefined };
     const ack = (await s.timeout(WAIT_MS).emitWithAck('readings:submit', { runId: run.id, readings: [r] })) as LiveAck<IngestResult>;
     expect(ack).toMatchObject({ ok: true, data: { stored: 1, duplicates: 0 } });
-    const rest = await t.http
+    const rest = await signedIn(t, operator)
       .post(`/api/runs/${run.id}/rounds`)
-      .set('authorization', bearer(operator.accessToken))
       .send({ takenAt: r.takenAt, readings: [r] });
     expect(rest.body).toMatchObject({ stored: 0, duplicates: 1 });
     const denied = (await obs

@@ -1,6 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import type { AlarmDto, EngineDetail, IngestResult, ReadingDto, RunDetail } from '@crankjournal/shared-types';
-import { bearer, startTestApp, type TestApp } from './utils/test-app.js';
+import { startTestApp, type TestApp } from './utils/test-app.js';
+import { signedIn } from './utils/signed-in.js';
 import { login, type SignedIn } from './factories/users.factory.js';
 import { createEngine, createPreparingRun, engineBody, reading } from './factories/engine.factory.js';
 import { messagesTo, waitForMessage } from './utils/mail-inbox.js';
@@ -31,39 +32,35 @@ describe('the run log (engines, runs, readings, alarms) against PostgreSQL', () 
 
   describe('engines', () => {
     it('only the chief engineer edits an engine; others read', async () => {
-      expect((await t.http.post('/api/engines').set('authorization', bearer(operator.accessToken)).send(engineBody())).status).toBe(403);
-      expect((await t.http.get(`/api/engines/${engine.id}`).set('authorization', bearer(observer.accessToken))).status).toBe(200);
+      expect((await signedIn(t, operator).post('/api/engines').send(engineBody())).status).toBe(403);
+      expect((await signedIn(t, observer).get(`/api/engines/${engine.id}`)).status).toBe(200);
       expect((await t.http.get('/api/engines')).status).toBe(401);
     });
 
     it('keeps every change to a limit with who, when and the old value', async () => {
       const body = engineBody(engine.name);
-      const detail = (await t.http.get(`/api/engines/${engine.id}`).set('authorization', bearer(chief.accessToken))).body as EngineDetail;
+      const detail = (await signedIn(t, chief).get(`/api/engines/${engine.id}`)).body as EngineDetail;
       body.measurementPoints = detail.measurementPoints.map((p) => (p.code === 'MB' ? { ...p, highLimit: 128 } : p));
       body.cylinders = detail.cylinders;
       body.bearings = detail.bearings;
       body.lubricationPoints = detail.lubricationPoints;
-      const res = await t.http.put(`/api/engines/${engine.id}`).set('authorization', bearer(chief.accessToken)).send(body);
+      const res = await signedIn(t, chief).put(`/api/engines/${engine.id}`).send(body);
       expect(res.status).toBe(200);
-      const changes = (await t.http.get(`/api/engines/${engine.id}/limit-changes`).set('authorization', bearer(observer.accessToken))).body;
+      const changes = (await signedIn(t, observer).get(`/api/engines/${engine.id}/limit-changes`)).body;
       const c = changes.find((x: { field: string }) => x.field === 'highLimit');
       expect(c).toMatchObject({ oldValue: 130, newValue: 128, changedByName: chief.account.displayName });
       // Put it back for the alarm tests below.
       body.measurementPoints = res.body.measurementPoints.map((p: { code: string }) => (p.code === 'MB' ? { ...p, highLimit: 130 } : p));
-      engine = (await t.http.put(`/api/engines/${engine.id}`).set('authorization', bearer(chief.accessToken)).send(body)).body;
+      engine = (await signedIn(t, chief).put(`/api/engines/${engine.id}`).send(body)).body;
     });
 
     it('refuses a piston rod as big as its bore, with the field named, and changes nothing', async () => {
       const body = engineBody();
       body.cylinders[0].pistonRodIn = 20;
-      const res = await t.http.post('/api/engines').set('authorization', bearer(chief.accessToken)).send(body);
+      const res = await signedIn(t, chief).post('/api/engines').send(body);
       expect(res.status).toBe(400);
       expect(JSON.stringify(res.body.message)).toContain('cylinders.0.pistonRodIn');
-      expect(
-        (await t.http.get('/api/engines').set('authorization', bearer(chief.accessToken))).body.some(
-          (e: { name: string }) => e.name === body.name,
-        ),
-      ).toBe(false);
+      expect((await signedIn(t, chief).get('/api/engines')).body.some((e: { name: string }) => e.name === body.name)).toBe(false);
     });
   });
 
@@ -75,26 +72,23 @@ describe('the run log (engines, runs, readings, alarms) against PostgreSQL', () 
 
     it('a reading crossing high-high raises one alarm and one e-mail to the chief engineer and the maintenance lead', async () => {
       const t0 = Date.now() - 10 * 60_000;
-      const res = await t.http
+      const res = await signedIn(t, operator)
         .post(`/api/runs/${run.id}/rounds`)
-        .set('authorization', bearer(operator.accessToken))
         .send({
           takenAt: new Date(t0).toISOString(),
           readings: [reading(point('MB'), 120, new Date(t0)), reading(point('AMB'), 75, new Date(t0))],
         });
       expect(res.status).toBe(201);
-      const hot = await t.http
+      const hot = await signedIn(t, operator)
         .post(`/api/runs/${run.id}/rounds`)
-        .set('authorization', bearer(operator.accessToken))
         .send({ takenAt: new Date().toISOString(), readings: [reading(point('MB'), 150)] });
       expect(hot.status).toBe(201);
       expect(hot.body.stored).toBe(1);
-      const again = await t.http
+      const again = await signedIn(t, operator)
         .post(`/api/runs/${run.id}/rounds`)
-        .set('authorization', bearer(operator.accessToken))
         .send({ takenAt: new Date().toISOString(), readings: [reading(point('MB'), 151)] });
       expect(again.status).toBe(201);
-      const alarms = (await t.http.get(`/api/runs/${run.id}/alarms`).set('authorization', bearer(observer.accessToken))).body as AlarmDto[];
+      const alarms = (await signedIn(t, observer).get(`/api/runs/${run.id}/alarms`)).body as AlarmDto[];
       const hh = alarms.filter((a) => a.kind === 'high_high' && a.pointId === point('MB'));
       expect(hh).toHaveLength(1);
       expect(hh[0].state).toBe('active_unacknowledged');
@@ -107,58 +101,37 @@ describe('the run log (engines, runs, readings, alarms) against PostgreSQL', () 
     });
 
     it('an observer cannot acknowledge; an operator can, and it is recorded', async () => {
-      const [a] = (
-        (await t.http.get(`/api/runs/${run.id}/alarms`).set('authorization', bearer(observer.accessToken))).body as AlarmDto[]
-      ).filter((x) => x.kind === 'high_high');
-      expect((await t.http.post(`/api/alarms/${a.id}/acknowledge`).set('authorization', bearer(observer.accessToken))).status).toBe(403);
-      const ack = await t.http.post(`/api/alarms/${a.id}/acknowledge`).set('authorization', bearer(operator.accessToken));
+      const [a] = ((await signedIn(t, observer).get(`/api/runs/${run.id}/alarms`)).body as AlarmDto[]).filter(
+        (x) => x.kind === 'high_high',
+      );
+      expect((await signedIn(t, observer).post(`/api/alarms/${a.id}/acknowledge`)).status).toBe(403);
+      const ack = await signedIn(t, operator).post(`/api/alarms/${a.id}/acknowledge`);
       expect(ack.status).toBe(200);
       expect(ack.body).toMatchObject({ state: 'active_acknowledged', acknowledgedByName: operator.account.displayName });
-      const twice = await t.http.post(`/api/alarms/${a.id}/acknowledge`).set('authorization', bearer(operator.accessToken));
+      const twice = await signedIn(t, operator).post(`/api/alarms/${a.id}/acknowledge`);
       expect(twice.status).toBe(400);
     });
 
     it('shelving needs a reason and at most 24 hours', async () => {
-      const [a] = (
-        (await t.http.get(`/api/runs/${run.id}/alarms`).set('authorization', bearer(observer.accessToken))).body as AlarmDto[]
-      ).filter((x) => x.kind === 'high');
+      const [a] = ((await signedIn(t, observer).get(`/api/runs/${run.id}/alarms`)).body as AlarmDto[]).filter((x) => x.kind === 'high');
+      expect((await signedIn(t, operator).post(`/api/alarms/${a.id}/shelve`).send({ reason: '', minutes: 30 })).status).toBe(400);
       expect(
-        (
-          await t.http
-            .post(`/api/alarms/${a.id}/shelve`)
-            .set('authorization', bearer(operator.accessToken))
-            .send({ reason: '', minutes: 30 })
-        ).status,
+        (await signedIn(t, operator).post(`/api/alarms/${a.id}/shelve`).send({ reason: 'Gauge being changed', minutes: 2000 })).status,
       ).toBe(400);
-      expect(
-        (
-          await t.http
-            .post(`/api/alarms/${a.id}/shelve`)
-            .set('authorization', bearer(operator.accessToken))
-            .send({ reason: 'Gauge being changed', minutes: 2000 })
-        ).status,
-      ).toBe(400);
-      const ok = await t.http
-        .post(`/api/alarms/${a.id}/shelve`)
-        .set('authorization', bearer(operator.accessToken))
-        .send({ reason: 'Gauge being changed', minutes: 30 });
+      const ok = await signedIn(t, operator).post(`/api/alarms/${a.id}/shelve`).send({ reason: 'Gauge being changed', minutes: 30 });
       expect(ok.status).toBe(200);
       expect(ok.body).toMatchObject({ state: 'shelved', shelveReason: 'Gauge being changed' });
-      expect((await t.http.post(`/api/alarms/${a.id}/unshelve`).set('authorization', bearer(operator.accessToken))).body.state).not.toBe(
-        'shelved',
-      );
+      expect((await signedIn(t, operator).post(`/api/alarms/${a.id}/unshelve`)).body.state).not.toBe('shelved');
     });
 
     it('the same reading sent twice is stored once, whatever route it came by', async () => {
       const r = reading(point('THR'), 130);
-      const first = await t.http
+      const first = await signedIn(t, operator)
         .post(`/api/runs/${run.id}/rounds`)
-        .set('authorization', bearer(operator.accessToken))
         .send({ takenAt: r.takenAt, readings: [r] });
       expect(first.body).toMatchObject({ stored: 1, duplicates: 0 });
-      const second = await t.http
+      const second = await signedIn(t, operator)
         .post(`/api/runs/${run.id}/rounds`)
-        .set('authorization', bearer(operator.accessToken))
         .send({ takenAt: r.takenAt, readings: [r, r] });
       expect(second.body).toMatchObject({ stored: 0, duplicates: 1 });
       const [{ n }] = await t.db.query(`SELECT count(*)::int AS n FROM readings WHERE client_id = $1`, [r.clientId]);
@@ -167,29 +140,17 @@ describe('the run log (engines, runs, readings, alarms) against PostgreSQL', () 
 
     it('an amendment keeps both values, the reason, who and when', async () => {
       const r = reading(point('SPD'), 47);
-      await t.http
+      await signedIn(t, operator)
         .post(`/api/runs/${run.id}/rounds`)
-        .set('authorization', bearer(operator.accessToken))
         .send({ takenAt: r.takenAt, readings: [r] });
-      const list = (
-        await t.http.get(`/api/runs/${run.id}/readings?pointId=${point('SPD')}`).set('authorization', bearer(observer.accessToken))
-      ).body as ReadingDto[];
+      const list = (await signedIn(t, observer).get(`/api/runs/${run.id}/readings?pointId=${point('SPD')}`)).body as ReadingDto[];
       const stored = list.find((x) => x.clientId === r.clientId)!;
       expect(
-        (
-          await t.http
-            .post(`/api/readings/${stored.id}/amendments`)
-            .set('authorization', bearer(observer.accessToken))
-            .send({ value: 74, reason: 'Misread' })
-        ).status,
+        (await signedIn(t, observer).post(`/api/readings/${stored.id}/amendments`).send({ value: 74, reason: 'Misread' })).status,
       ).toBe(403);
-      expect(
-        (await t.http.post(`/api/readings/${stored.id}/amendments`).set('authorization', bearer(operator.accessToken)).send({ value: 74 }))
-          .status,
-      ).toBe(400);
-      const res = await t.http
+      expect((await signedIn(t, operator).post(`/api/readings/${stored.id}/amendments`).send({ value: 74 })).status).toBe(400);
+      const res = await signedIn(t, operator)
         .post(`/api/readings/${stored.id}/amendments`)
-        .set('authorization', bearer(operator.accessToken))
         .send({ value: 74, reason: 'Misread the counter: 47 for 74' });
       expect(res.status).toBe(201);
       expect(res.body).toMatchObject({ value: 74, originalValue: 47 });
@@ -205,9 +166,8 @@ describe('the run log (engines, runs, readings, alarms) against PostgreSQL', () 
 
     it('bad input gets a 400 naming the problem, and the good part of the batch is kept', async () => {
       const good = reading(point('THR'), 131);
-      const res = await t.http
+      const res = await signedIn(t, operator)
         .post(`/api/runs/${run.id}/rounds`)
-        .set('authorization', bearer(operator.accessToken))
         .send({
           takenAt: new Date().toISOString(),
           readings: [
@@ -240,11 +200,7 @@ describe('the run log (engines, runs, readings, alarms) against PostgreSQL', () 
         `${iso(5)},THR,130,bar`,
         `${iso(4)},MB,118.5,degF`,
       ].join('\n');
-      const res = await t.http
-        .post(`/api/runs/${run.id}/imports`)
-        .set('authorization', bearer(operator.accessToken))
-        .set('content-type', 'text/csv')
-        .send(csv);
+      const res = await signedIn(t, operator).post(`/api/runs/${run.id}/imports`).set('content-type', 'text/csv').send(csv);
       expect(res.status).toBe(201);
       expect(res.body.stored).toBe(3);
       expect(res.body.rejected.map((r: { line: number; column: string }) => [r.line, r.column])).toEqual([
@@ -253,35 +209,25 @@ describe('the run log (engines, runs, readings, alarms) against PostgreSQL', () 
         [5, 'point'],
         [7, 'unit'],
       ]);
-      const again = await t.http
-        .post(`/api/runs/${run.id}/imports`)
-        .set('authorization', bearer(operator.accessToken))
-        .set('content-type', 'text/csv')
-        .send(csv);
+      const again = await signedIn(t, operator).post(`/api/runs/${run.id}/imports`).set('content-type', 'text/csv').send(csv);
       expect(again.body).toMatchObject({ stored: 0, duplicates: 3 });
-      const wrongType = await t.http
+      const wrongType = await signedIn(t, operator)
         .post(`/api/runs/${run.id}/imports`)
-        .set('authorization', bearer(operator.accessToken))
         .set('content-type', 'application/json')
         .send({ a: 1 });
       expect(wrongType.status).toBe(415);
-      const noHeader = await t.http
-        .post(`/api/runs/${run.id}/imports`)
-        .set('authorization', bearer(operator.accessToken))
-        .set('content-type', 'text/csv')
-        .send('a,b\n1,2');
+      const noHeader = await signedIn(t, operator).post(`/api/runs/${run.id}/imports`).set('content-type', 'text/csv').send('a,b\n1,2');
       expect(noHeader.status).toBe(400);
     });
 
     it('exports CSV with formula-looking text neutralised, and the PDF log sheet', async () => {
-      const csv = await t.http.get(`/api/runs/${run.id}/readings.csv`).set('authorization', bearer(observer.accessToken));
+      const csv = await signedIn(t, observer).get(`/api/runs/${run.id}/readings.csv`);
       expect(csv.status).toBe(200);
       expect(csv.headers['content-type']).toContain('text/csv');
       expect(csv.text.split('\r\n')[0]).toBe('taken_at,point,point_label,value,unit,original_value,amendment_reason,source,reading_id');
       expect(csv.text).toContain('Misread the counter: 47 for 74');
-      const pdf = await t.http
+      const pdf = await signedIn(t, observer)
         .get(`/api/runs/${run.id}/log-sheet.pdf`)
-        .set('authorization', bearer(observer.accessToken))
         .buffer(true)
         .parse((res, cb) => {
           const chunks: Buffer[] = [];
@@ -294,14 +240,8 @@ describe('the run log (engines, runs, readings, alarms) against PostgreSQL', () 
 
     it('a data logger pushes with its own key; a revoked key is refused; a user token is not a logger key', async () => {
       const admin = await login(t, 'administrator');
-      expect(
-        (await t.http.post('/api/loggers').set('authorization', bearer(operator.accessToken)).send({ engineId: engine.id, name: 'L1' }))
-          .status,
-      ).toBe(403);
-      const issued = await t.http
-        .post('/api/loggers')
-        .set('authorization', bearer(admin.accessToken))
-        .send({ engineId: engine.id, name: 'Bearing logger' });
+      expect((await signedIn(t, operator).post('/api/loggers').send({ engineId: engine.id, name: 'L1' })).status).toBe(403);
+      const issued = await signedIn(t, admin).post('/api/loggers').send({ engineId: engine.id, name: 'Bearing logger' });
       expect(issued.status).toBe(201);
       const key = issued.body.key as string;
       const batch = {
@@ -311,17 +251,16 @@ describe('the run log (engines, runs, readings, alarms) against PostgreSQL', () 
       const ok = await t.http.post('/api/logger/readings').set('x-logger-key', key).send(batch);
       expect(ok.status).toBe(201);
       expect(ok.body.stored).toBe(1);
-      expect((await t.http.post('/api/logger/readings').set('authorization', bearer(operator.accessToken)).send(batch)).status).toBe(401);
-      expect((await t.http.post(`/api/loggers/${issued.body.id}/revoke`).set('authorization', bearer(admin.accessToken))).status).toBe(200);
+      expect((await signedIn(t, operator).post('/api/logger/readings').send(batch)).status).toBe(401);
+      expect((await signedIn(t, admin).post(`/api/loggers/${issued.body.id}/revoke`)).status).toBe(200);
       expect((await t.http.post('/api/logger/readings').set('x-logger-key', key).send(batch)).status).toBe(401);
     });
 
     it('a closed run refuses new readings and amendments', async () => {
       const other = await createPreparingRun(t, operator.accessToken, (await createEngine(t, chief.accessToken)).id);
       await t.db.query(`UPDATE runs SET state = 'closed' WHERE id = $1`, [other.id]);
-      const res = await t.http
+      const res = await signedIn(t, operator)
         .post(`/api/runs/${other.id}/rounds`)
-        .set('authorization', bearer(operator.accessToken))
         .send({ takenAt: new Date().toISOString(), readings: [reading(randomUUID(), 1)] });
       expect(res.status).toBe(409);
       const [{ n }] = await t.db.query(`SELECT count(*)::int AS n FROM readings WHERE run_id = $1`, [other.id]);
@@ -332,60 +271,33 @@ describe('the run log (engines, runs, readings, alarms) against PostgreSQL', () 
   describe('run states', () => {
     it('refuses a transition that skips a step, and one the role may not make', async () => {
       const run = await createPreparingRun(t, operator.accessToken, (await createEngine(t, chief.accessToken)).id);
-      expect(
-        (await t.http.post(`/api/runs/${run.id}/transitions`).set('authorization', bearer(operator.accessToken)).send({ to: 'closed' }))
-          .status,
-      ).toBe(403);
-      expect(
-        (await t.http.post(`/api/runs/${run.id}/transitions`).set('authorization', bearer(operator.accessToken)).send({ to: 'stopped' }))
-          .status,
-      ).toBe(409);
-      expect(
-        (await t.http.post(`/api/runs/${run.id}/transitions`).set('authorization', bearer(operator.accessToken)).send({ to: 'cleared' }))
-          .status,
-      ).toBe(403);
-      expect(
-        (
-          await t.http
-            .post(`/api/runs/${run.id}/transitions`)
-            .set('authorization', bearer(observer.accessToken))
-            .send({ to: 'abandoned', note: 'x' })
-        ).status,
-      ).toBe(403);
-      expect(
-        (await t.http.post(`/api/runs/${run.id}/transitions`).set('authorization', bearer(operator.accessToken)).send({ to: 'abandoned' }))
-          .status,
-      ).toBe(400);
-      const ab = await t.http
+      expect((await signedIn(t, operator).post(`/api/runs/${run.id}/transitions`).send({ to: 'closed' })).status).toBe(403);
+      expect((await signedIn(t, operator).post(`/api/runs/${run.id}/transitions`).send({ to: 'stopped' })).status).toBe(409);
+      expect((await signedIn(t, operator).post(`/api/runs/${run.id}/transitions`).send({ to: 'cleared' })).status).toBe(403);
+      expect((await signedIn(t, observer).post(`/api/runs/${run.id}/transitions`).send({ to: 'abandoned', note: 'x' })).status).toBe(403);
+      expect((await signedIn(t, operator).post(`/api/runs/${run.id}/transitions`).send({ to: 'abandoned' })).status).toBe(400);
+      const ab = await signedIn(t, operator)
         .post(`/api/runs/${run.id}/transitions`)
-        .set('authorization', bearer(operator.accessToken))
         .send({ to: 'abandoned', note: 'Boiler feed pump failed' });
       expect(ab.status).toBe(200);
       expect(ab.body).toMatchObject({ state: 'abandoned', abandonedReason: 'Boiler feed pump failed' });
-      expect(
-        (await t.http.patch(`/api/runs/${run.id}`).set('authorization', bearer(operator.accessToken)).send({ notes: 'later' })).status,
-      ).toBe(409);
+      expect((await signedIn(t, operator).patch(`/api/runs/${run.id}`).send({ notes: 'later' })).status).toBe(409);
     });
 
     it('an alarm left open by an earlier run is closed out, and the next run raises its own', async () => {
       const e = await createEngine(t, chief.accessToken);
       const mb = e.measurementPoints.find((p) => p.code === 'MB')!.id;
       const first = await createPreparingRun(t, operator.accessToken, e.id);
-      await t.http
+      await signedIn(t, operator)
         .post(`/api/runs/${first.id}/rounds`)
-        .set('authorization', bearer(operator.accessToken))
         .send({ takenAt: new Date().toISOString(), readings: [reading(mb, 135)] });
-      await t.http
-        .post(`/api/runs/${first.id}/transitions`)
-        .set('authorization', bearer(operator.accessToken))
-        .send({ to: 'abandoned', note: 'Called off' });
+      await signedIn(t, operator).post(`/api/runs/${first.id}/transitions`).send({ to: 'abandoned', note: 'Called off' });
       const second = await createPreparingRun(t, operator.accessToken, e.id);
-      await t.http
+      await signedIn(t, operator)
         .post(`/api/runs/${second.id}/rounds`)
-        .set('authorization', bearer(operator.accessToken))
         .send({ takenAt: new Date().toISOString(), readings: [reading(mb, 136)] });
-      const a1 = (await t.http.get(`/api/runs/${first.id}/alarms`).set('authorization', bearer(observer.accessToken))).body as AlarmDto[];
-      const a2 = (await t.http.get(`/api/runs/${second.id}/alarms`).set('authorization', bearer(observer.accessToken))).body as AlarmDto[];
+      const a1 = (await signedIn(t, observer).get(`/api/runs/${first.id}/alarms`)).body as AlarmDto[];
+      const a2 = (await signedIn(t, observer).get(`/api/runs/${second.id}/alarms`)).body as AlarmDto[];
       expect(a1.find((a) => a.kind === 'high')?.state).toBe('normal');
       expect(a2.find((a) => a.kind === 'high')?.state).toBe('active_unacknowledged');
     });
@@ -393,14 +305,8 @@ describe('the run log (engines, runs, readings, alarms) against PostgreSQL', () 
     it('only one run of an engine is under way at a time', async () => {
       const e = await createEngine(t, chief.accessToken);
       await createPreparingRun(t, operator.accessToken, e.id);
-      const second = await t.http
-        .post('/api/runs')
-        .set('authorization', bearer(operator.accessToken))
-        .send({ engineId: e.id, purpose: 'test', title: 'Second' });
-      const res = await t.http
-        .post(`/api/runs/${second.body.id}/transitions`)
-        .set('authorization', bearer(operator.accessToken))
-        .send({ to: 'preparing' });
+      const second = await signedIn(t, operator).post('/api/runs').send({ engineId: e.id, purpose: 'test', title: 'Second' });
+      const res = await signedIn(t, operator).post(`/api/runs/${second.body.id}/transitions`).send({ to: 'preparing' });
       expect(res.status).toBe(409);
     });
   });

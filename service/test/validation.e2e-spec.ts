@@ -1,4 +1,5 @@
-import { bearer, startTestApp, type TestApp } from './utils/test-app.js';
+import { startTestApp, type TestApp } from './utils/test-app.js';
+import { signedIn } from './utils/signed-in.js';
 import { createUser, login, uniqueEmail, type SignedIn } from './factories/users.factory.js';
 
 /** True when one of the answer's messages names `field`. */
@@ -20,9 +21,8 @@ describe('the API edge refuses bad input (API)', () => {
   const userCount = async () => Number((await t.db.query('SELECT count(*)::int AS n FROM users'))[0].n);
   const userExists = async (email: string) => (await t.db.query('SELECT 1 FROM users WHERE email = $1', [email.toLowerCase()])).length > 0;
   const invite = (body: unknown) =>
-    t.http
+    signedIn(t, admin)
       .post('/api/users/invitations')
-      .set('Authorization', bearer(admin.accessToken))
       .send(body as object);
 
   describe('POST /api/users/invitations', () => {
@@ -68,9 +68,8 @@ describe('the API edge refuses bad input (API)', () => {
 
     it('answers malformed JSON with 400, not 500, and writes nothing', async () => {
       const before = await userCount();
-      const res = await t.http
+      const res = await signedIn(t, admin)
         .post('/api/users/invitations')
-        .set('Authorization', bearer(admin.accessToken))
         .set('Content-Type', 'application/json')
         .send('{"email": "half@e2e.crankjournal.test", "role": ');
       expect(res.status).toBe(400);
@@ -111,22 +110,19 @@ describe('the API edge refuses bad input (API)', () => {
 
   describe('PATCH /api/users/:id', () => {
     it('refuses an id that is not a UUID with 400 naming id', async () => {
-      const res = await t.http.patch('/api/users/not-a-uuid').set('Authorization', bearer(admin.accessToken)).send({ displayName: 'X' });
+      const res = await signedIn(t, admin).patch('/api/users/not-a-uuid').send({ displayName: 'X' });
       expect(res.status).toBe(400);
       expect(names(res.body, 'id')).toBe(true);
     });
 
     it('answers 404 for a well-formed id nobody has (control: the 400 above is about the form)', async () => {
-      const res = await t.http
-        .patch('/api/users/00000000-0000-4000-8000-000000000000')
-        .set('Authorization', bearer(admin.accessToken))
-        .send({ displayName: 'X' });
+      const res = await signedIn(t, admin).patch('/api/users/00000000-0000-4000-8000-000000000000').send({ displayName: 'X' });
       expect(res.status).toBe(404);
     });
 
     it('refuses a wrong type in the body and leaves the user unchanged', async () => {
       const target = await createUser(t.db, { role: 'observer' });
-      const res = await t.http.patch(`/api/users/${target.id}`).set('Authorization', bearer(admin.accessToken)).send({ active: 'no' });
+      const res = await signedIn(t, admin).patch(`/api/users/${target.id}`).send({ active: 'no' });
       expect(res.status).toBe(400);
       expect(names(res.body, 'active')).toBe(true);
       const [row] = await t.db.query('SELECT active FROM users WHERE id = $1', [target.id]);

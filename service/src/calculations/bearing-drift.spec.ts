@@ -16,10 +16,14 @@ describe('least-squares fit', () => {
     expect(band.interceptF).toBeCloseTo(3.0, 2);
   });
 
-  it('Anscombe set I residual sum of squares 13.75 on 9 degrees of freedom (Anscombe 1973, printed to two decimals and shared by all four sets; from memory)', () => {
-    const band = fitBand(anscombe);
-    expect(band.residualSdF ** 2 * 9).toBeCloseTo(13.75, 1);
-  });
+  it(
+    'Anscombe set I residual sum of squares 13.75 on 9 degrees of freedom (Anscombe 1973, printed to two decimals ' +
+      'and shared by all four sets; from memory)',
+    () => {
+      const band = fitBand(anscombe);
+      expect(band.residualSdF ** 2 * 9).toBeCloseTo(13.75, 1);
+    },
+  );
 
   it('slope, intercept and residual SD agree with the normal equations solved by mathjs', () => {
     const X = math.matrix(anscombeX.map((x) => [1, x]));

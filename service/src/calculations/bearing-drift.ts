@@ -60,8 +60,10 @@ export function driftRuleText(
   const fmt = (v: number) => String(Number(v.toFixed(2)));
   const flat =
     spread > 0
-      ? `With fewer than ${MIN_POINTS_FOR_REGRESSION} earlier runs, or when their ${load} spans less than ${fmt(spread)}${unit} (comparable ${load}), the band is the mean rise \u00b1 ${fmt(k)}s instead.`
-      : `With fewer than ${MIN_POINTS_FOR_REGRESSION} earlier runs, or when they were all at the same ${load}, the band is the mean rise \u00b1 ${fmt(k)}s instead.`;
+      ? `With fewer than ${MIN_POINTS_FOR_REGRESSION} earlier runs, or when their ${load} spans less than ` +
+        `${fmt(spread)}${unit} (comparable ${load}), the band is the mean rise \u00b1 ${fmt(k)}s instead.`
+      : `With fewer than ${MIN_POINTS_FOR_REGRESSION} earlier runs, or when they were all at the same ${load}, the ` +
+        `band is the mean rise \u00b1 ${fmt(k)}s instead.`;
   return (
     `Each bearing is compared with its own history. A straight line, temperature rise = a + b \u00d7 ${load}, is ` +
     `fitted by least squares to the earlier runs, with s the standard deviation of the runs about that line. ` +

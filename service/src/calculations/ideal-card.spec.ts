@@ -55,16 +55,20 @@ describe('ideal hyperbolic card, mean effective pressure', () => {
     expect(factor).toBeCloseTo(0.72, 2);
   });
 
-  it('10 bar, expansion ratio 3, 1 bar → 6.0 bar; card 12.1/7.5 × 3 = 4.84 bar → diagram factor 0.807 (Agrawal & Agrawal, ch. 13, Ex. 8, p. 288)', () => {
-    const ideal = idealMeanEffectivePressurePsi({
-      admissionPressurePsia: barToPsi(10),
-      cutoffFraction: 1 / 3,
-      backPressurePsia: barToPsi(1),
-    });
-    expect(psiToBar(ideal)).toBeCloseTo(6.0, 2);
-    const actual = barToPsi((12.1 / 7.5) * 3);
-    expect(diagramFactor({ actualMeanEffectivePressurePsi: actual, idealMeanEffectivePressurePsi: ideal })).toBeCloseTo(0.807, 3);
-  });
+  it(
+    '10 bar, expansion ratio 3, 1 bar → 6.0 bar; card 12.1/7.5 × 3 = 4.84 bar → diagram factor 0.807 (Agrawal & ' +
+      'Agrawal, ch. 13, Ex. 8, p. 288)',
+    () => {
+      const ideal = idealMeanEffectivePressurePsi({
+        admissionPressurePsia: barToPsi(10),
+        cutoffFraction: 1 / 3,
+        backPressurePsia: barToPsi(1),
+      });
+      expect(psiToBar(ideal)).toBeCloseTo(6.0, 2);
+      const actual = barToPsi((12.1 / 7.5) * 3);
+      expect(diagramFactor({ actualMeanEffectivePressurePsi: actual, idealMeanEffectivePressurePsi: ideal })).toBeCloseTo(0.807, 3);
+    },
+  );
 
   it.each([
     [150, 0.25, 3, 0],

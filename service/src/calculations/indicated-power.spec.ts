@@ -45,59 +45,79 @@ function plainEngine(opts: { rpm: number; strokeIn: number; boreIn: number; mepP
 }
 
 describe('indicated horsepower, published examples', () => {
-  it('39.81 psi, 400 in² piston, 5½ ft stroke, 40 rpm → 212.32 IHP (C. P. Brooks, Cotton Manufacturing, section on engines, transcribed online)', () => {
-    const result = computeIndicatedPower(plainEngine({ rpm: 40, strokeIn: 66, boreIn: boreForAreaIn(400), mepPsi: 39.81 }));
-    expect(result.totalIndicatedHorsepower).toBeCloseTo(212.32, 2);
-    expect(result.cylinders[0].ends[0].effectiveAreaSqIn).toBeCloseTo(400, 9);
-    expect(endIndicatedHorsepower({ meanEffectivePressurePsi: 39.81, strokeIn: 66, effectiveAreaSqIn: 400, speedRpm: 40 })).toBeCloseTo(
-      212.32 / 2,
-      2,
-    );
-  });
+  it(
+    '39.81 psi, 400 in² piston, 5½ ft stroke, 40 rpm → 212.32 IHP (C. P. Brooks, Cotton Manufacturing, section on ' +
+      'engines, transcribed online)',
+    () => {
+      const result = computeIndicatedPower(plainEngine({ rpm: 40, strokeIn: 66, boreIn: boreForAreaIn(400), mepPsi: 39.81 }));
+      expect(result.totalIndicatedHorsepower).toBeCloseTo(212.32, 2);
+      expect(result.cylinders[0].ends[0].effectiveAreaSqIn).toBeCloseTo(400, 9);
+      expect(endIndicatedHorsepower({ meanEffectivePressurePsi: 39.81, strokeIn: 66, effectiveAreaSqIn: 400, speedRpm: 40 })).toBeCloseTo(
+        212.32 / 2,
+        2,
+      );
+    },
+  );
 
-  it('bore 300 mm, stroke 400 mm, 180 rpm, MEP 6.5 bar → 110.28 kW indicated (B. Agrawal & C. M. Agrawal, Basic Mechanical Engineering, Wiley India, ch. 13, Ex. 14, p. 294, seen in a worked-solutions reproduction)', () => {
-    const result = computeIndicatedPower(
-      plainEngine({ rpm: 180, strokeIn: inches(400, 'mm'), boreIn: inches(300, 'mm'), mepPsi: psi(6.5, 'bar') }),
-    );
-    // The worked reproduction takes π as 3.142; with exact π the figure is 110.27 kW, hence ±0.015.
-    expect(Math.abs(result.totalIndicatedKilowatts - 110.28)).toBeLessThan(0.015);
-  });
+  it(
+    'bore 300 mm, stroke 400 mm, 180 rpm, MEP 6.5 bar → 110.28 kW indicated (B. Agrawal & C. M. Agrawal, Basic ' +
+      'Mechanical Engineering, Wiley India, ch. 13, Ex. 14, p. 294, seen in a worked-solutions reproduction)',
+    () => {
+      const result = computeIndicatedPower(
+        plainEngine({ rpm: 180, strokeIn: inches(400, 'mm'), boreIn: inches(300, 'mm'), mepPsi: psi(6.5, 'bar') }),
+      );
+      // The worked reproduction takes π as 3.142; with exact π the figure is 110.27 kW, hence ±0.015.
+      expect(Math.abs(result.totalIndicatedKilowatts - 110.28)).toBeLessThan(0.015);
+    },
+  );
 
-  it('same engine: brake drum 1.5 m effective diameter, net load 6.2 kN → 87.66 kW brake, mechanical efficiency 79.5 % (Agrawal & Agrawal, ch. 13, Ex. 14, p. 294)', () => {
-    const indicated = computeIndicatedPower(
-      plainEngine({ rpm: 180, strokeIn: inches(400, 'mm'), boreIn: inches(300, 'mm'), mepPsi: psi(6.5, 'bar') }),
-    );
-    const torqueLbfFt = brakeTorqueLbfFt({
-      netBrakeLoadLbf: lbf(6.2, 'kN'),
-      effectiveRadiusFt: ropeBrakeEffectiveRadiusFt({ drumDiameterFt: feet(1.5, 'm') }),
-    });
-    expect(math.unit(torqueLbfFt, 'lbf ft').toNumber('N m')).toBeCloseTo(4650, 6);
-    const brakeHp = brakeHorsepower({ torqueLbfFt, speedRpm: 180 });
-    expect(Math.abs(hpToKw(brakeHp) - 87.66)).toBeLessThan(0.015);
-    const efficiency = mechanicalEfficiency({ brakeHorsepower: brakeHp, indicatedHorsepower: indicated.totalIndicatedHorsepower });
-    expect(efficiency * 100).toBeCloseTo(79.5, 1);
-  });
+  it(
+    'same engine: brake drum 1.5 m effective diameter, net load 6.2 kN → 87.66 kW brake, mechanical efficiency 79.5 ' +
+      '% (Agrawal & Agrawal, ch. 13, Ex. 14, p. 294)',
+    () => {
+      const indicated = computeIndicatedPower(
+        plainEngine({ rpm: 180, strokeIn: inches(400, 'mm'), boreIn: inches(300, 'mm'), mepPsi: psi(6.5, 'bar') }),
+      );
+      const torqueLbfFt = brakeTorqueLbfFt({
+        netBrakeLoadLbf: lbf(6.2, 'kN'),
+        effectiveRadiusFt: ropeBrakeEffectiveRadiusFt({ drumDiameterFt: feet(1.5, 'm') }),
+      });
+      expect(math.unit(torqueLbfFt, 'lbf ft').toNumber('N m')).toBeCloseTo(4650, 6);
+      const brakeHp = brakeHorsepower({ torqueLbfFt, speedRpm: 180 });
+      expect(Math.abs(hpToKw(brakeHp) - 87.66)).toBeLessThan(0.015);
+      const efficiency = mechanicalEfficiency({ brakeHorsepower: brakeHp, indicatedHorsepower: indicated.totalIndicatedHorsepower });
+      expect(efficiency * 100).toBeCloseTo(79.5, 1);
+    },
+  );
 
-  it('bore 200 mm, stroke 300 mm, 200 rpm, 7 bar admission, cut-off 40 %, 0.38 bar exhaust, diagram factor 0.8 → 25.06 kW (Agrawal & Agrawal, ch. 13, Ex. 9, p. 289)', () => {
-    const ideal = idealMeanEffectivePressurePsi({
-      admissionPressurePsia: psi(7, 'bar'),
-      cutoffFraction: 0.4,
-      backPressurePsia: psi(0.38, 'bar'),
-    });
-    const result = computeIndicatedPower(
-      plainEngine({ rpm: 200, strokeIn: inches(300, 'mm'), boreIn: inches(200, 'mm'), mepPsi: 0.8 * ideal }),
-    );
-    expect(result.totalIndicatedKilowatts).toBeCloseTo(25.06, 2);
-  });
+  it(
+    'bore 200 mm, stroke 300 mm, 200 rpm, 7 bar admission, cut-off 40 %, 0.38 bar exhaust, diagram factor 0.8 → ' +
+      '25.06 kW (Agrawal & Agrawal, ch. 13, Ex. 9, p. 289)',
+    () => {
+      const ideal = idealMeanEffectivePressurePsi({
+        admissionPressurePsia: psi(7, 'bar'),
+        cutoffFraction: 0.4,
+        backPressurePsia: psi(0.38, 'bar'),
+      });
+      const result = computeIndicatedPower(
+        plainEngine({ rpm: 200, strokeIn: inches(300, 'mm'), boreIn: inches(200, 'mm'), mepPsi: 0.8 * ideal }),
+      );
+      expect(result.totalIndicatedKilowatts).toBeCloseTo(25.06, 2);
+    },
+  );
 
-  it('rope brake: drum 900 mm, rope 50 mm, 105 kg dead load, 7 kg spring balance, 240 rpm → 456.66 N·m, 11.48 kW (Agrawal & Agrawal, ch. 13, Ex. 13, p. 293)', () => {
-    const torqueLbfFt = brakeTorqueLbfFt({
-      netBrakeLoadLbf: lbf((105 - 7) * 9.81, 'N'),
-      effectiveRadiusFt: ropeBrakeEffectiveRadiusFt({ drumDiameterFt: feet(900, 'mm'), ropeDiameterFt: feet(50, 'mm') }),
-    });
-    expect(math.unit(torqueLbfFt, 'lbf ft').toNumber('N m')).toBeCloseTo(456.66, 2);
-    expect(hpToKw(brakeHorsepower({ torqueLbfFt, speedRpm: 240 }))).toBeCloseTo(11.48, 2);
-  });
+  it(
+    'rope brake: drum 900 mm, rope 50 mm, 105 kg dead load, 7 kg spring balance, 240 rpm → 456.66 N·m, 11.48 kW ' +
+      '(Agrawal & Agrawal, ch. 13, Ex. 13, p. 293)',
+    () => {
+      const torqueLbfFt = brakeTorqueLbfFt({
+        netBrakeLoadLbf: lbf((105 - 7) * 9.81, 'N'),
+        effectiveRadiusFt: ropeBrakeEffectiveRadiusFt({ drumDiameterFt: feet(900, 'mm'), ropeDiameterFt: feet(50, 'mm') }),
+      });
+      expect(math.unit(torqueLbfFt, 'lbf ft').toNumber('N m')).toBeCloseTo(456.66, 2);
+      expect(hpToKw(brakeHorsepower({ torqueLbfFt, speedRpm: 240 }))).toBeCloseTo(11.48, 2);
+    },
+  );
 
   // "Indicated horse-power for each pound average pressure … for different diameters and speeds of
   // pistons", table in Bepler's Handy Manual of Knowledge, section "Mechanical Horse Power" (transcribed
@@ -123,31 +143,35 @@ describe('indicated horsepower, published examples', () => {
 });
 
 describe('effective areas and the two ends', () => {
-  it('averaging the ends gives (2A − a)/2 for a rod on one side only (Machinery’s Reference Series No. 70, Steam Engines, section on indicated horsepower)', () => {
-    const A = pistonAreaSqIn(24);
-    const a = pistonAreaSqIn(5.5);
-    const result = computeIndicatedPower({
-      rpm: 75,
-      strokeIn: 48,
-      cylinders: [
-        {
-          label: 'HP',
-          boreIn: 24,
-          pistonRodIn: 5.5,
-          tailRodIn: 0,
-          cards: [
-            { end: 'head', meanEffectivePressurePsi: 40 },
-            { end: 'crank', meanEffectivePressurePsi: 40 },
-          ],
-        },
-      ],
-    });
-    const [head, crank] = result.cylinders[0].ends;
-    expect(head.effectiveAreaSqIn).toBeCloseTo(A, 9);
-    expect(crank.effectiveAreaSqIn).toBeCloseTo(A - a, 9);
-    // P · L · (2A − a)/2 · 2N / 33,000
-    expect(result.totalIndicatedHorsepower).toBeCloseTo((40 * 4 * ((2 * A - a) / 2) * 150) / 33000, 9);
-  });
+  it(
+    'averaging the ends gives (2A − a)/2 for a rod on one side only (Machinery’s Reference Series No. 70, Steam ' +
+      'Engines, section on indicated horsepower)',
+    () => {
+      const A = pistonAreaSqIn(24);
+      const a = pistonAreaSqIn(5.5);
+      const result = computeIndicatedPower({
+        rpm: 75,
+        strokeIn: 48,
+        cylinders: [
+          {
+            label: 'HP',
+            boreIn: 24,
+            pistonRodIn: 5.5,
+            tailRodIn: 0,
+            cards: [
+              { end: 'head', meanEffectivePressurePsi: 40 },
+              { end: 'crank', meanEffectivePressurePsi: 40 },
+            ],
+          },
+        ],
+      });
+      const [head, crank] = result.cylinders[0].ends;
+      expect(head.effectiveAreaSqIn).toBeCloseTo(A, 9);
+      expect(crank.effectiveAreaSqIn).toBeCloseTo(A - a, 9);
+      // P · L · (2A − a)/2 · 2N / 33,000
+      expect(result.totalIndicatedHorsepower).toBeCloseTo((40 * 4 * ((2 * A - a) / 2) * 150) / 33000, 9);
+    },
+  );
 
   it('a tail rod reduces the head-end area; the crank end loses the piston rod (common practice, no source)', () => {
     expect(effectiveAreaSqIn(44, 4)).toBeCloseTo((Math.PI / 4) * (44 * 44 - 4 * 4), 9);
@@ -172,25 +196,28 @@ describe('effective areas and the two ends', () => {
     expect(byEnd.crank).toBeCloseTo((Math.PI / 4) * (44 ** 2 - 5.5 ** 2), 9);
   });
 
-  it('a card by planimeter, by ordinates and by MEP give the same power when they agree (Machinery’s 2.6 in² / 3.6 in / 60-lb card)', () => {
-    const base = { rpm: 70, strokeIn: 36 };
-    const cylinder = { label: 'c', boreIn: 16, pistonRodIn: 3, tailRodIn: 0 };
-    const byArea = computeIndicatedPower({
-      ...base,
-      cylinders: [{ ...cylinder, cards: [{ end: 'head', areaSqIn: 2.6, lengthIn: 3.6, springPsiPerIn: 60 }] }],
-    });
-    const byOrdinates = computeIndicatedPower({
-      ...base,
-      cylinders: [{ ...cylinder, cards: [{ end: 'head', ordinatesIn: [2.6 / 3.6, 2.6 / 3.6], springPsiPerIn: 60 }] }],
-    });
-    const byMep = computeIndicatedPower({
-      ...base,
-      cylinders: [{ ...cylinder, cards: [{ end: 'head', meanEffectivePressurePsi: (2.6 / 3.6) * 60 }] }],
-    });
-    expect(byArea.cylinders[0].ends[0].meanEffectivePressurePsi).toBeCloseTo(43.3, 1);
-    expect(byArea.totalIndicatedHorsepower).toBeCloseTo(byMep.totalIndicatedHorsepower, 9);
-    expect(byOrdinates.totalIndicatedHorsepower).toBeCloseTo(byMep.totalIndicatedHorsepower, 9);
-  });
+  it(
+    'a card by planimeter, by ordinates and by MEP give the same power when they agree (Machinery’s 2.6 in² / 3.6 in ' + '/ 60-lb card)',
+    () => {
+      const base = { rpm: 70, strokeIn: 36 };
+      const cylinder = { label: 'c', boreIn: 16, pistonRodIn: 3, tailRodIn: 0 };
+      const byArea = computeIndicatedPower({
+        ...base,
+        cylinders: [{ ...cylinder, cards: [{ end: 'head', areaSqIn: 2.6, lengthIn: 3.6, springPsiPerIn: 60 }] }],
+      });
+      const byOrdinates = computeIndicatedPower({
+        ...base,
+        cylinders: [{ ...cylinder, cards: [{ end: 'head', ordinatesIn: [2.6 / 3.6, 2.6 / 3.6], springPsiPerIn: 60 }] }],
+      });
+      const byMep = computeIndicatedPower({
+        ...base,
+        cylinders: [{ ...cylinder, cards: [{ end: 'head', meanEffectivePressurePsi: (2.6 / 3.6) * 60 }] }],
+      });
+      expect(byArea.cylinders[0].ends[0].meanEffectivePressurePsi).toBeCloseTo(43.3, 1);
+      expect(byArea.totalIndicatedHorsepower).toBeCloseTo(byMep.totalIndicatedHorsepower, 9);
+      expect(byOrdinates.totalIndicatedHorsepower).toBeCloseTo(byMep.totalIndicatedHorsepower, 9);
+    },
+  );
 });
 
 describe('compound engine referred to the low-pressure cylinder', () => {

@@ -13,20 +13,28 @@ import {
 const math = create(all);
 
 describe('planimeter figure → mean height → MEP', () => {
-  it('2.6 in² card, 3.6 in long, 60-lb spring → mean ordinate 0.722 in, MEP 43.3 psi (Machinery’s Reference Series No. 70, Steam Engines, section on indicated horsepower)', () => {
-    const result = mepFromPlanimeter({ areaSqIn: 2.6, lengthIn: 3.6, springPsiPerIn: 60 });
-    expect(result.meanHeightIn).toBeCloseTo(0.722, 3);
-    expect(result.meanEffectivePressurePsi).toBeCloseTo(43.3, 1);
-  });
+  it(
+    '2.6 in² card, 3.6 in long, 60-lb spring → mean ordinate 0.722 in, MEP 43.3 psi (Machinery’s Reference Series ' +
+      'No. 70, Steam Engines, section on indicated horsepower)',
+    () => {
+      const result = mepFromPlanimeter({ areaSqIn: 2.6, lengthIn: 3.6, springPsiPerIn: 60 });
+      expect(result.meanHeightIn).toBeCloseTo(0.722, 3);
+      expect(result.meanEffectivePressurePsi).toBeCloseTo(43.3, 1);
+    },
+  );
 
-  it('cover-end card 1200 mm² and crank-end card 1100 mm², 75 mm long, spring 0.15 bar/mm → 2.4 and 2.2 bar (B. Agrawal & C. M. Agrawal, Basic Mechanical Engineering, ch. 13, Ex. 4, p. 286, seen in a worked-solutions reproduction)', () => {
-    const lengthIn = math.unit(75, 'mm').toNumber('inch');
-    const springPsiPerIn = math.unit(0.15, 'bar/mm').toNumber('psi/inch');
-    const cover = mepFromPlanimeter({ areaSqIn: math.unit(1200, 'mm^2').toNumber('inch^2'), lengthIn, springPsiPerIn });
-    const crank = mepFromPlanimeter({ areaSqIn: math.unit(1100, 'mm^2').toNumber('inch^2'), lengthIn, springPsiPerIn });
-    expect(math.unit(cover.meanEffectivePressurePsi, 'psi').toNumber('bar')).toBeCloseTo(2.4, 6);
-    expect(math.unit(crank.meanEffectivePressurePsi, 'psi').toNumber('bar')).toBeCloseTo(2.2, 6);
-  });
+  it(
+    'cover-end card 1200 mm² and crank-end card 1100 mm², 75 mm long, spring 0.15 bar/mm → 2.4 and 2.2 bar (B. ' +
+      'Agrawal & C. M. Agrawal, Basic Mechanical Engineering, ch. 13, Ex. 4, p. 286, seen in a worked-solutions reproduction)',
+    () => {
+      const lengthIn = math.unit(75, 'mm').toNumber('inch');
+      const springPsiPerIn = math.unit(0.15, 'bar/mm').toNumber('psi/inch');
+      const cover = mepFromPlanimeter({ areaSqIn: math.unit(1200, 'mm^2').toNumber('inch^2'), lengthIn, springPsiPerIn });
+      const crank = mepFromPlanimeter({ areaSqIn: math.unit(1100, 'mm^2').toNumber('inch^2'), lengthIn, springPsiPerIn });
+      expect(math.unit(cover.meanEffectivePressurePsi, 'psi').toNumber('bar')).toBeCloseTo(2.4, 6);
+      expect(math.unit(crank.meanEffectivePressurePsi, 'psi').toNumber('bar')).toBeCloseTo(2.2, 6);
+    },
+  );
 
   it('refuses a zero length or spring and a negative area', () => {
     expect(() => mepFromPlanimeter({ areaSqIn: 2.6, lengthIn: 0, springPsiPerIn: 60 })).toThrow(RangeError);
@@ -36,13 +44,17 @@ describe('planimeter figure → mean height → MEP', () => {
 });
 
 describe('mid-ordinate rule', () => {
-  it('ten ordinates stand at equal spacing with the end ones half a spacing from the ends (J. Rose, Modern Machine Shop Practice, section on the indicator, Fig. 3372)', () => {
-    const stations = midOrdinateStationsFraction(10);
-    expect(stations).toHaveLength(10);
-    expect(stations[0]).toBeCloseTo(0.05, 12);
-    expect(stations[9]).toBeCloseTo(0.95, 12);
-    for (let i = 1; i < 10; i++) expect(stations[i] - stations[i - 1]).toBeCloseTo(0.1, 12);
-  });
+  it(
+    'ten ordinates stand at equal spacing with the end ones half a spacing from the ends (J. Rose, Modern Machine ' +
+      'Shop Practice, section on the indicator, Fig. 3372)',
+    () => {
+      const stations = midOrdinateStationsFraction(10);
+      expect(stations).toHaveLength(10);
+      expect(stations[0]).toBeCloseTo(0.05, 12);
+      expect(stations[9]).toBeCloseTo(0.95, 12);
+      for (let i = 1; i < 10; i++) expect(stations[i] - stations[i - 1]).toBeCloseTo(0.1, 12);
+    },
+  );
 
   it('the mean height is the sum of the ordinates divided by their number (J. Rose, Modern Machine Shop Practice, same section)', () => {
     expect(meanHeightFromOrdinatesIn([0.5, 1.0, 1.5, 2.0])).toBeCloseTo(1.25, 12);
@@ -50,23 +62,31 @@ describe('mid-ordinate rule', () => {
     expect(result.meanEffectivePressurePsi).toBeCloseTo(50, 12);
   });
 
-  it('is exact for a card with straight top and bottom lines (the midpoint rule integrates straight lines exactly; common practice, no source)', () => {
-    // Top line from 1.6 in down to 0.4 in, bottom line at 0.1 in, over a 3.6 in card: a trapezoid.
-    const lengthIn = 3.6;
-    const height = (x: number) => 1.6 - (1.2 * x) / lengthIn - 0.1;
-    const ordinates = midOrdinateStationsFraction(10).map((f) => height(f * lengthIn));
-    const trapezoidAreaSqIn = ((1.5 + 0.3) / 2) * lengthIn;
-    expect(meanHeightFromOrdinatesIn(ordinates)).toBeCloseTo(trapezoidAreaSqIn / lengthIn, 12);
-  });
+  it(
+    'is exact for a card with straight top and bottom lines (the midpoint rule integrates straight lines exactly; ' +
+      'common practice, no source)',
+    () => {
+      // Top line from 1.6 in down to 0.4 in, bottom line at 0.1 in, over a 3.6 in card: a trapezoid.
+      const lengthIn = 3.6;
+      const height = (x: number) => 1.6 - (1.2 * x) / lengthIn - 0.1;
+      const ordinates = midOrdinateStationsFraction(10).map((f) => height(f * lengthIn));
+      const trapezoidAreaSqIn = ((1.5 + 0.3) / 2) * lengthIn;
+      expect(meanHeightFromOrdinatesIn(ordinates)).toBeCloseTo(trapezoidAreaSqIn / lengthIn, 12);
+    },
+  );
 
-  it('on a hyperbolic expansion line converges to the exact integral as ordinates are added (analytic ∫ dx/(x+c) = ln; midpoint-rule error falls as 1/n²)', () => {
-    const c = 0.05;
-    const exact = Math.log((1 + c) / c); // mean of 1/(x + c) over x in [0, 1]
-    const errorWith = (n: number) =>
-      Math.abs(meanHeightFromOrdinatesIn(midOrdinateStationsFraction(n).map((x) => 1 / (x + c))) - exact) / exact;
-    expect(errorWith(10)).toBeLessThan(0.05);
-    expect(errorWith(40)).toBeLessThan(errorWith(10) / 8);
-  });
+  it(
+    'on a hyperbolic expansion line converges to the exact integral as ordinates are added (analytic ∫ dx/(x+c) = ' +
+      'ln; midpoint-rule error falls as 1/n²)',
+    () => {
+      const c = 0.05;
+      const exact = Math.log((1 + c) / c); // mean of 1/(x + c) over x in [0, 1]
+      const errorWith = (n: number) =>
+        Math.abs(meanHeightFromOrdinatesIn(midOrdinateStationsFraction(n).map((x) => 1 / (x + c))) - exact) / exact;
+      expect(errorWith(10)).toBeLessThan(0.05);
+      expect(errorWith(40)).toBeLessThan(errorWith(10) / 8);
+    },
+  );
 
   it('refuses fewer than two ordinates', () => {
     expect(() => meanHeightFromOrdinatesIn([1])).toThrow(RangeError);

@@ -153,12 +153,15 @@ describe('journal bearing: unit load, Sommerfeld number, Petroff', () => {
     const power = math.evaluate('t * 2 * pi * n', { t: torque, n: scope.n });
     expect(r.powerLossHp).toBeCloseTo(power.toNumber('hp'), 6);
   });
-  it('Petroff identities: f·(r/c) = 2π²·S and T = f·W·r (Shigley, Mechanical Engineering Design, Petroff\u2019s equation, from memory)', () => {
-    const r = journalFriction({ ...pumpExample, loadLbf: 2500 });
-    expect(r.frictionCoefficient * (2.5 / 0.0025)).toBeCloseTo(2 * Math.PI ** 2 * r.sommerfeldNumber, 9);
-    expect(r.frictionCoefficient * 2500 * 2.5).toBeCloseTo(r.frictionTorqueLbfIn, 6);
-    expect(r.unitLoadPsi).toBeCloseTo(2500 / 25, 9);
-  });
+  it(
+    'Petroff identities: f·(r/c) = 2π²·S and T = f·W·r (Shigley, Mechanical Engineering Design, Petroff\u2019s ' + 'equation, from memory)',
+    () => {
+      const r = journalFriction({ ...pumpExample, loadLbf: 2500 });
+      expect(r.frictionCoefficient * (2.5 / 0.0025)).toBeCloseTo(2 * Math.PI ** 2 * r.sommerfeldNumber, 9);
+      expect(r.frictionCoefficient * 2500 * 2.5).toBeCloseTo(r.frictionTorqueLbfIn, 6);
+      expect(r.unitLoadPsi).toBeCloseTo(2500 / 25, 9);
+    },
+  );
   it('the individual Petroff pieces match journalFriction', () => {
     const t = petroffTorqueLbfIn({ radiusIn: 8, lengthIn: 26, radialClearanceIn: 0.008, viscosityReyn: 5e-6, speedRevPerS: 75 / 60 });
     const r = journalFriction({

@@ -95,12 +95,16 @@ describe('roll force, torque and power', () => {
 });
 
 describe('mean flow stress', () => {
-  it('power law Y_avg = K·εⁿ/(1 + n): K = 275 MPa, n = 0.15, ε = ln(25/22) → 175.7 MPa (Groover, Fundamentals of Modern Manufacturing, flat rolling example; from memory)', () => {
-    expect(powerLawMeanFlowStressMPa({ strengthCoefficientMPa: 275, hardeningExponent: 0.15, strain: Math.log(25 / 22) })).toBeCloseTo(
-      175.7,
-      0,
-    );
-  });
+  it(
+    'power law Y_avg = K·εⁿ/(1 + n): K = 275 MPa, n = 0.15, ε = ln(25/22) → 175.7 MPa (Groover, Fundamentals of ' +
+      'Modern Manufacturing, flat rolling example; from memory)',
+    () => {
+      expect(powerLawMeanFlowStressMPa({ strengthCoefficientMPa: 275, hardeningExponent: 0.15, strain: Math.log(25 / 22) })).toBeCloseTo(
+        175.7,
+        0,
+      );
+    },
+  );
 
   // Misaka & Yoshimoto, "Formularization of mean resistance to deformation of plain carbon steels at elevated
   // temperature", J. JSTP 8 (79), 1967 (original in Japanese, not seen; the constants as reproduced in the

@@ -1,5 +1,4 @@
 import { randomUUID } from 'node:crypto';
-import { io, type Socket } from 'socket.io-client';
 import type {
   ChecklistDetail,
   ChecklistTemplateContent,
@@ -9,49 +8,48 @@ import type {
   RunDetail,
   StartGateVerdict,
 } from '@crankjournal/shared-types';
-import { bearer, type TestApp } from '../utils/test-app.js';
+import { type TestApp } from '../utils/test-app.js';
+import { connected, socketAs } from '../utils/socket.js';
+import { signedIn } from '../utils/signed-in.js';
+import { createEngine, createPreparingRun } from './engine.factory.js';
 import type { SignedIn } from './users.factory.js';
 
 const DAY_MS = 86_400_000;
 export const isoDate = (offsetDays: number) => new Date(Date.now() + offsetDays * DAY_MS).toISOString().slice(0, 10);
 
 /** A small engine of the tests' own, with one bearing temperature point that can raise a high-high alarm. */
-export async function createEngine(
+export async function gateEngine(
   t: TestApp,
   chief: SignedIn,
   opts: { preLubeFreshnessMinutes?: number } = {},
 ): Promise<{ id: string; name: string; pointId: string }> {
   const name = `Test engine ${randomUUID().slice(0, 8)}`;
-  const res = await t.http
-    .post('/api/engines')
-    .set('Authorization', bearer(chief.accessToken))
-    .send({
-      name,
-      builder: 'Test works',
-      yearBuilt: '1900',
-      type: 'simple',
-      ratedSpeedRpm: 70,
-      overspeedRpm: 80,
-      mawpPsig: 150,
-      preLubeFreshnessMinutes: opts.preLubeFreshnessMinutes ?? 30,
-      cylinders: [{ label: 'C', role: 'single', boreIn: 20, strokeIn: 40, pistonRodIn: 4, tailRodIn: 0, clearancePercent: 6 }],
-      lubricationPoints: [],
-      bearings: [],
-      measurementPoints: [
-        {
-          code: 'MB1-T',
-          label: 'Main bearing temperature',
-          kind: 'bearing_temperature',
-          unit: 'degF',
-          sequence: 1,
-          highLimit: 130,
-          highHighLimit: 145,
-          deadband: 2,
-        },
-      ],
-    });
-  if (res.status !== 201) throw new Error(`engine not created: ${res.status} ${JSON.stringify(res.body)}`);
-  return { id: res.body.id, name, pointId: res.body.measurementPoints[0].id };
+  const engine = await createEngine(t, chief, {
+    name,
+    builder: 'Test works',
+    yearBuilt: '1900',
+    type: 'simple',
+    ratedSpeedRpm: 70,
+    overspeedRpm: 80,
+    mawpPsig: 150,
+    preLubeFreshnessMinutes: opts.preLubeFreshnessMinutes ?? 30,
+    cylinders: [{ label: 'C', role: 'single', boreIn: 20, strokeIn: 40, pistonRodIn: 4, tailRodIn: 0, clearancePercent: 6 }],
+    lubricationPoints: [],
+    bearings: [],
+    measurementPoints: [
+      {
+        code: 'MB1-T',
+        label: 'Main bearing temperature',
+        kind: 'bearing_temperature',
+        unit: 'degF',
+        sequence: 1,
+        highLimit: 130,
+        highHighLimit: 145,
+        deadband: 2,
+      },
+    ],
+  });
+  return { id: engine.id, name, pointId: engine.measurementPoints[0].id };
 }
 
 /** Grants qualifications through the API as the chief engineer (dates relative to today). */
@@ -65,9 +63,8 @@ export async function grant(
 ) {
   const out: string[] = [];
   for (const duty of duties) {
-    const res = await t.http
+    const res = await signedIn(t, chief)
       .post('/api/qualifications')
-      .set('Authorization', bearer(chief.accessToken))
       .send({ userId, engineId, duty, grantedOn: isoDate(dates.from ?? -100), expiresOn: isoDate(dates.to ?? 200) });
     if (res.status !== 201) throw new Error(`qualification not granted: ${res.status} ${JSON.stringify(res.body)}`);
     out.push(res.body.id);
@@ -157,9 +154,8 @@ export async function createTemplate(
   engineId: string,
   content: ChecklistTemplateContent,
 ): Promise<ChecklistTemplateDetail> {
-  const res = await t.http
+  const res = await signedIn(t, chief)
     .post('/api/checklist-templates')
-    .set('Authorization', bearer(chief.accessToken))
     .send({ ...content, engineId, publish: true });
   if (res.status !== 201) throw new Error(`template not created: ${res.status} ${JSON.stringify(res.body)}`);
   return res.body;
@@ -172,31 +168,21 @@ export async function preparingRun(t: TestApp, by: SignedIn, engineId: string): 
     [engineId],
   );
   await t.db.query(`UPDATE engines SET active_run_id = NULL WHERE id = $1`, [engineId]);
-  const created = await t.http
-    .post('/api/runs')
-    .set('Authorization', bearer(by.accessToken))
-    .send({ engineId, purpose: 'test', title: `Test run ${randomUUID().slice(0, 6)}` });
-  if (created.status !== 201) throw new Error(`run not created: ${created.status} ${JSON.stringify(created.body)}`);
-  const moved = await t.http
-    .post(`/api/runs/${created.body.id}/transitions`)
-    .set('Authorization', bearer(by.accessToken))
-    .send({ to: 'preparing' });
-  if (moved.status !== 200) throw new Error(`run not prepared: ${moved.status} ${JSON.stringify(moved.body)}`);
-  return moved.body;
+  return createPreparingRun(t, by, engineId, { title: `Test run ${randomUUID().slice(0, 6)}` });
 }
 
 export async function startChecklist(t: TestApp, by: SignedIn, runId: string, templateId: string): Promise<ChecklistDetail> {
-  const res = await t.http.post(`/api/runs/${runId}/checklists`).set('Authorization', bearer(by.accessToken)).send({ templateId });
+  const res = await signedIn(t, by).post(`/api/runs/${runId}/checklists`).send({ templateId });
   if (res.status !== 201) throw new Error(`checklist not started: ${res.status} ${JSON.stringify(res.body)}`);
   return res.body;
 }
 
 export function fill(t: TestApp, by: SignedIn, checklistId: string, itemKey: string, value: Record<string, unknown>) {
-  return t.http.put(`/api/checklists/${checklistId}/items/${itemKey}`).set('Authorization', bearer(by.accessToken)).send(value);
+  return signedIn(t, by).put(`/api/checklists/${checklistId}/items/${itemKey}`).send(value);
 }
 
 export function sign(t: TestApp, by: SignedIn, checklistId: string, signature = by.account.password) {
-  return t.http.post(`/api/checklists/${checklistId}/sign`).set('Authorization', bearer(by.accessToken)).send({ signature });
+  return signedIn(t, by).post(`/api/checklists/${checklistId}/sign`).send({ signature });
 }
 
 /** Good values for every required item of the test templates. */
@@ -234,7 +220,7 @@ export async function startByRest(
   by: SignedIn,
   runId: string,
 ): Promise<{ status: number; verdict: StartGateVerdict | null; run: RunDetail | null }> {
-  const res = await t.http.post(`/api/runs/${runId}/transitions`).set('Authorization', bearer(by.accessToken)).send({ to: 'running' });
+  const res = await signedIn(t, by).post(`/api/runs/${runId}/transitions`).send({ to: 'running' });
   return {
     status: res.status,
     verdict: res.status === 409 ? (res.body.details as StartGateVerdict) : null,
@@ -248,12 +234,9 @@ export async function startBySocket(
   by: SignedIn,
   runId: string,
 ): Promise<{ status: number; verdict: StartGateVerdict | null; run: RunDetail | null }> {
-  const s: Socket = io(t.url, { transports: ['websocket'], reconnection: false, forceNew: true, auth: { token: by.accessToken } });
+  const s = socketAs(t.url, by);
   try {
-    await new Promise<void>((resolve, reject) => {
-      s.once('connect', () => resolve());
-      s.once('connect_error', reject);
-    });
+    await connected(s);
     const ack = (await s.timeout(10_000).emitWithAck('run:start', { runId })) as LiveAck<RunDetail | StartGateVerdict>;
     if (ack.ok) return { status: 200, verdict: null, run: ack.data as RunDetail };
     return { status: ack.status ?? 500, verdict: (ack.details as StartGateVerdict) ?? null, run: null };

@@ -1,6 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import type { EngineDetail, EngineWriteRequest, RunDetail } from '@crankjournal/shared-types';
-import { bearer, type TestApp } from '../utils/test-app.js';
+import { type TestApp } from '../utils/test-app.js';
+import { signedIn, type Who } from '../utils/signed-in.js';
 
 /** A small engine with one of each kind of point the alarm rules care about. Test data, not demo data. */
 export function engineBody(name = `Test engine ${randomUUID().slice(0, 8)}`): EngineWriteRequest {
@@ -59,20 +60,31 @@ export function engineBody(name = `Test engine ${randomUUID().slice(0, 8)}`): En
   };
 }
 
-export async function createEngine(t: TestApp, chiefToken: string, body = engineBody()): Promise<EngineDetail> {
-  const res = await t.http.post('/api/engines').set('authorization', bearer(chiefToken)).send(body);
+/** Creates an engine through the API as `chief` (a chief engineer's session or token). */
+export async function createEngine(t: TestApp, chief: Who, body: EngineWriteRequest = engineBody()): Promise<EngineDetail> {
+  const res = await signedIn(t, chief).post('/api/engines').send(body);
   if (res.status !== 201) throw new Error(`engine not created: ${res.status} ${JSON.stringify(res.body)}`);
   return res.body as EngineDetail;
 }
 
-/** A run in `preparing` (readings are taken from preparation on). */
-export async function createPreparingRun(t: TestApp, token: string, engineId: string): Promise<RunDetail> {
-  const res = await t.http
+export interface RunOptions {
+  purpose?: string;
+  title?: string;
+}
+
+/** A planned run of the engine, created through the API as `who`. */
+export async function createRun(t: TestApp, who: Who, engineId: string, opts: RunOptions = {}): Promise<RunDetail> {
+  const res = await signedIn(t, who)
     .post('/api/runs')
-    .set('authorization', bearer(token))
-    .send({ engineId, purpose: 'test', title: `Run ${randomUUID().slice(0, 6)}` });
+    .send({ engineId, purpose: opts.purpose ?? 'test', title: opts.title ?? `Run ${randomUUID().slice(0, 6)}` });
   if (res.status !== 201) throw new Error(`run not created: ${res.status} ${JSON.stringify(res.body)}`);
-  const prep = await t.http.post(`/api/runs/${res.body.id}/transitions`).set('authorization', bearer(token)).send({ to: 'preparing' });
+  return res.body as RunDetail;
+}
+
+/** A run in `preparing` (readings are taken from preparation on). */
+export async function createPreparingRun(t: TestApp, who: Who, engineId: string, opts: RunOptions = {}): Promise<RunDetail> {
+  const run = await createRun(t, who, engineId, opts);
+  const prep = await signedIn(t, who).post(`/api/runs/${run.id}/transitions`).send({ to: 'preparing' });
   if (prep.status !== 200) throw new Error(`run not preparing: ${prep.status} ${JSON.stringify(prep.body)}`);
   return prep.body as RunDetail;
 }

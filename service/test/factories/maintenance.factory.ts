@@ -43,7 +43,8 @@ export async function insertClosedRun(
   }
   for (const [p, value, at] of rows as [{ id: string; unit: string }, number, Date][]) {
     await t.db.query(
-      `INSERT INTO readings (client_id, run_id, engine_id, point_id, value, unit, taken_at, source) VALUES ($1, $2, $3, $4, $5, $6, $7, 'import')`,
+      `INSERT INTO readings (client_id, run_id, engine_id, point_id, value, unit, taken_at, source) VALUES ($1, $2, ` +
+        `$3, $4, $5, $6, $7, 'import')`,
       [randomUUID(), id, engine.id, p.id, value, p.unit, at],
     );
   }

@@ -1,7 +1,8 @@
 import { randomUUID } from 'node:crypto';
 import type { EngineDetail, MillDto, MillWriteRequest, RunDetail, ScheduleWriteRequest } from '@crankjournal/shared-types';
-import { bearer, type TestApp } from '../utils/test-app.js';
-import { createEngine, engineBody } from './engine.factory.js';
+import { type TestApp } from '../utils/test-app.js';
+import { signedIn } from '../utils/signed-in.js';
+import { createEngine, createRun, engineBody } from './engine.factory.js';
 
 /** A test engine with a flywheel (the demo engine's invented figures: 156,800 lb at k = 9.9 ft, 75 rpm). */
 export function millEngine(t: TestApp, chiefToken: string): Promise<EngineDetail> {
@@ -42,7 +43,7 @@ export function millBody(engineId: string, name = `Test mill ${randomUUID().slic
 }
 
 export async function createMill(t: TestApp, token: string, engineId: string): Promise<MillDto> {
-  const res = await t.http.post('/api/mill/mills').set('authorization', bearer(token)).send(millBody(engineId));
+  const res = await signedIn(t, token).post('/api/mill/mills').send(millBody(engineId));
   if (res.status !== 201) throw new Error(`mill not created: ${res.status} ${JSON.stringify(res.body)}`);
   return res.body as MillDto;
 }
@@ -69,14 +70,9 @@ export function scheduleBody(millId: string, isTemplate = true): ScheduleWriteRe
   };
 }
 
-/** A planned run of the engine. */
-export async function createRun(t: TestApp, token: string, engineId: string): Promise<RunDetail> {
-  const res = await t.http
-    .post('/api/runs')
-    .set('authorization', bearer(token))
-    .send({ engineId, purpose: 'production_lot', title: `Mill run ${randomUUID().slice(0, 6)}` });
-  if (res.status !== 201) throw new Error(`run not created: ${res.status} ${JSON.stringify(res.body)}`);
-  return res.body as RunDetail;
+/** A planned production run of the engine. */
+export function createMillRun(t: TestApp, token: string, engineId: string): Promise<RunDetail> {
+  return createRun(t, token, engineId, { purpose: 'production_lot', title: `Mill run ${randomUUID().slice(0, 6)}` });
 }
 
 /**

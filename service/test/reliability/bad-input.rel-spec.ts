@@ -7,9 +7,11 @@
  */
 import { randomUUID } from 'node:crypto';
 import { request as httpRequest } from 'node:http';
-import { io, type Socket } from 'socket.io-client';
+import type { Socket } from 'socket.io-client';
 import type { EngineDetail, ReadingDto } from '@crankjournal/shared-types';
 import { startTestApp } from '../utils/test-app.js';
+import { connected, socketAs } from '../utils/socket.js';
+import { authHeader } from '../utils/signed-in.js';
 import { createPreparingRun, engineBody } from '../factories/engine.factory.js';
 import { ROUTE_ACCESS } from '../roles-matrix.table.js';
 import { CORPUS_SNAPSHOT, diffSnapshots, snapshotter, type Query, type Snapshot } from './support/db-snapshot.js';
@@ -54,9 +56,8 @@ async function http(
   method: string,
   path: string,
   o: { token?: string; json?: unknown; raw?: string | Buffer; contentType?: string; headers?: Record<string, string> } = {},
-): Promise<Answer & { body: any }> {
-  const headers: Record<string, string> = { ...(o.headers ?? {}) };
-  if (o.token) headers.authorization = `Bearer ${o.token}`;
+): Promise<Answer & { body: unknown }> {
+  const headers: Record<string, string> = { ...(o.headers ?? {}), ...(o.token ? authHeader(o.token) : {}) };
   let body: string | Buffer | undefined;
   if (o.json !== undefined) {
     body = JSON.stringify(o.json);
@@ -72,13 +73,14 @@ async function http(
     return { status: 0, message: `no answer within ${ANSWER_WITHIN_MS} ms (${(e as Error).name})`, body: null };
   }
   const text = await res.text();
-  let parsed: any = text;
+  let parsed: unknown = text;
   try {
     parsed = JSON.parse(text);
   } catch {
     /* not JSON */
   }
-  return { status: res.status, message: parsed?.message, body: parsed };
+  const message = typeof parsed === 'object' && parsed !== null ? (parsed as { message?: unknown }).message : undefined;
+  return { status: res.status, message, body: parsed };
 }
 
 const withExtraPoints = (name: string, extra: EngineDetail['measurementPoints'] | object[]) => {
@@ -108,7 +110,7 @@ const pointB = (code: string) => engineB.measurementPoints.find((p) => p.code ==
 // An abandoned run of A (part of the record, closed to changes), then the active run of A.
 const runC = (
   await http('POST', '/api/runs', { token: operator, json: { engineId: engineA.id, purpose: 'test', title: 'Abandoned corpus run' } })
-).body;
+).body as { id: string };
 await http('POST', `/api/runs/${runC.id}/transitions`, { token: operator, json: { to: 'abandoned', note: 'Feed pump failed' } });
 const runA = await createPreparingRun(t, operator, engineA.id);
 const runB = await createPreparingRun(t, operator, engineB.id);
@@ -121,7 +123,7 @@ await http('POST', '/api/qualifications', {
 });
 const runP = (
   await http('POST', '/api/runs', { token: operator, json: { engineId: engineB.id, purpose: 'test', title: 'Planned corpus run' } })
-).body;
+).body as { id: string };
 
 const loggerA = (await http('POST', '/api/loggers', { token: admin, json: { engineId: engineA.id, name: 'Corpus logger A' } })).body as {
   id: string;
@@ -156,7 +158,7 @@ function credentialsFor(routeKey: string): { headers: Record<string, string>; is
   if (access === 'public') return { headers: {}, isPublic: true };
   if (access === 'logger-key') return { headers: { 'x-logger-key': loggerA.key }, isPublic: false };
   const role = PREFERRED_ROLES.find((r) => !access || access.includes(r)) ?? 'chief_engineer';
-  return { headers: { authorization: `Bearer ${s[role].token}` }, isPublic: false };
+  return { headers: authHeader(s[role].token), isPublic: false };
 }
 
 const fromGeneric = (c: HttpCase): BadCase => {
@@ -696,7 +698,7 @@ function declaredOversizedUpload(path: string, contentType: string, declared: nu
         port: u.port,
         path: u.pathname,
         method: 'POST',
-        headers: { authorization: `Bearer ${operator}`, 'content-type': contentType, 'content-length': String(declared) },
+        headers: { ...authHeader(operator), 'content-type': contentType, 'content-length': String(declared) },
       },
       (res) => {
         const chunks: Buffer[] = [];
@@ -724,11 +726,7 @@ function declaredOversizedUpload(path: string, contentType: string, declared: nu
 let socket: Socket;
 async function emit(event: string, payload: unknown): Promise<Answer> {
   if (!socket?.connected) {
-    socket = io(t.url, { transports: ['websocket'], reconnection: false, forceNew: true, auth: { token: operator } });
-    await new Promise<void>((res, rej) => {
-      socket.once('connect', () => res());
-      socket.once('connect_error', rej);
-    });
+    socket = await connected(socketAs(t.url, operator));
   }
   const errors: { message: unknown; status?: number }[] = [];
   const onError = (e: { message: unknown; status?: number }) => errors.push(e);
@@ -801,7 +799,8 @@ const socketCases: BadCase[] = [
       emit(
         'readings:submit',
         JSON.parse(
-          `{"__proto__": {"x": 1}, "runId": "${runA.id}", "readings": [{"clientId": "${randomUUID()}", "pointId": "${pointA('THR')}", "value": 120, "takenAt": "${now()}"}]}`,
+          `{"__proto__": {"x": 1}, "runId": "${runA.id}", "readings": [{"clientId": "${randomUUID()}", "pointId": ` +
+            `"${pointA('THR')}", "value": 120, "takenAt": "${now()}"}]}`,
         ),
       ),
   },

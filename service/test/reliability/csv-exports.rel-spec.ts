@@ -8,6 +8,7 @@ import { randomUUID } from 'node:crypto';
 import Papa from 'papaparse';
 import { INSPECTION_KINDS, type EngineDetail, type ReadingDto } from '@crankjournal/shared-types';
 import { startTestApp } from '../utils/test-app.js';
+import { authHeader, fetchJson } from '../utils/signed-in.js';
 import { engineBody } from '../factories/engine.factory.js';
 import { concretePath, routerRoutes } from './support/routes.js';
 import { sessionsForEveryRole } from './support/sessions.js';
@@ -21,16 +22,7 @@ const DANGEROUS_START = /^[=+\-@\t\r]/;
 const t = await startTestApp();
 const s = await sessionsForEveryRole(t.db);
 
-async function api(method: string, path: string, token: string, body?: unknown): Promise<any> {
-  const res = await fetch(`${t.url}${path}`, {
-    method,
-    headers: { authorization: `Bearer ${token}`, 'content-type': 'application/json' },
-    body: body === undefined ? undefined : JSON.stringify(body),
-  });
-  const json = await res.json().catch(() => null);
-  if (res.status >= 300) throw new Error(`${method} ${path}: ${res.status} ${JSON.stringify(json)}`);
-  return json;
-}
+const api = <T = unknown>(method: string, path: string, token: string, body?: unknown) => fetchJson<T>(t.url, method, path, token, body);
 
 /** An engine whose measurement point labels and bearing label are formulas. */
 async function formulaEngine(): Promise<EngineDetail> {
@@ -41,7 +33,7 @@ async function formulaEngine(): Promise<EngineDetail> {
     label: FORMULAS[i % FORMULAS.length],
     ...(p.bearingLabel ? { bearingLabel: FORMULAS[3] } : {}),
   }));
-  return api('POST', '/api/engines', s.chief_engineer.token, body);
+  return api<EngineDetail>('POST', '/api/engines', s.chief_engineer.token, body);
 }
 
 type Fixture = () => Promise<{ path: string; planted: string[] }>;
@@ -51,7 +43,12 @@ const FIXTURES: Record<string, Fixture> = {
   'GET /api/runs/:id/readings.csv': async () => {
     const engine = await formulaEngine();
     const op = s.operator.token;
-    const run = await api('POST', '/api/runs', op, { engineId: engine.id, purpose: 'test', title: FORMULAS[0], notes: FORMULAS[1] });
+    const run = await api<{ id: string }>('POST', '/api/runs', op, {
+      engineId: engine.id,
+      purpose: 'test',
+      title: FORMULAS[0],
+      notes: FORMULAS[1],
+    });
     await api('POST', `/api/runs/${run.id}/transitions`, op, { to: 'preparing', note: FORMULAS[2] });
     const thr = engine.measurementPoints.find((p) => p.code === 'THR')!.id;
     const readings = [120, 121, 122, 123, 124].map((value) => ({
@@ -63,7 +60,7 @@ const FIXTURES: Record<string, Fixture> = {
     // A negative gauge reading: a number, which stays a number.
     readings.push({ clientId: randomUUID(), pointId: thr, value: -5, takenAt: new Date().toISOString() });
     await api('POST', `/api/runs/${run.id}/rounds`, op, { takenAt: new Date().toISOString(), readings, note: FORMULAS[3] });
-    const stored = (await api('GET', `/api/runs/${run.id}/readings`, op)) as ReadingDto[];
+    const stored = await api<ReadingDto[]>('GET', `/api/runs/${run.id}/readings`, op);
     for (const [i, r] of stored.filter((x) => x.value > 0).entries()) {
       await api('POST', `/api/readings/${r.id}/amendments`, op, { value: 130 + i, reason: FORMULAS[i % FORMULAS.length] });
     }
@@ -106,10 +103,11 @@ describe('CSV exports neutralise formula text', () => {
     const fixture = FIXTURES[key];
     if (!fixture)
       throw new Error(
-        `${key} serves a CSV but test/reliability/csv-exports.rel-spec.ts has no fixture for it: add one to FIXTURES that puts text beginning with =, +, - or @ into what it exports`,
+        `${key} serves a CSV but test/reliability/csv-exports.rel-spec.ts has no fixture for it: add one to FIXTURES ` +
+          `that puts text beginning with =, +, - or @ into what it exports`,
       );
     const { path, planted } = await fixture();
-    const res = await fetch(`${t.url}${concretePath(path)}`, { headers: { authorization: `Bearer ${s.observer.token}` } });
+    const res = await fetch(`${t.url}${concretePath(path)}`, { headers: authHeader(s.observer.token) });
     expect(res.status).toBe(200);
     expect(res.headers.get('content-type')).toContain('text/csv');
     const text = await res.text();

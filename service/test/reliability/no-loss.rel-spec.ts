@@ -16,6 +16,7 @@ import { join } from 'node:path';
 import { promisify } from 'node:util';
 import { io, type Socket } from 'socket.io-client';
 import { engineBody } from '../factories/engine.factory.js';
+import { authHeader, fetchJson } from '../utils/signed-in.js';
 import { dropDatabase, freshDatabase, serviceDir, siblingDatabaseUrl, withClient } from './support/env.js';
 import { freePort, ServiceProcess } from './support/service-process.js';
 import { accessToken } from './support/sessions.js';
@@ -25,7 +26,10 @@ const READINGS_PER_CLIENT = 2000;
 const BATCH = 20;
 const HIGH_LIMIT = 50;
 const DEADBAND = 2;
-/** Values in the point's unit (psig): normal, just under the clear point, at the clear point, in the band, at the limit, just above, clearly above. */
+/**
+ * Values in the point's unit (psig): normal, just under the clear point, at the clear point, in the band, at the limit,
+ * just above, clearly above.
+ */
 const LEVELS = [40, 47.9, 48, 49, 50, 50.1, 55];
 /** Kill the service when this share of all readings has been acknowledged. */
 const KILL_AT = [0.3, 0.65];
@@ -107,16 +111,8 @@ describe('no loss, no doubles: 10,000 readings from five clients while the servi
     const chief = await accessToken(people.chief, 'chief_engineer', 7200);
     const operator = await accessToken(people.operator, 'operator', 7200);
     const admin = await accessToken(people.admin, 'administrator', 7200);
-    const api = async (method: string, path: string, token: string, body?: unknown): Promise<any> => {
-      const res = await fetch(`${svc.url}${path}`, {
-        method,
-        headers: { authorization: `Bearer ${token}`, 'content-type': 'application/json' },
-        body: body === undefined ? undefined : JSON.stringify(body),
-      });
-      const json = await res.json().catch(() => null);
-      if (res.status >= 300) throw new Error(`${method} ${path}: ${res.status} ${JSON.stringify(json)}`);
-      return json;
-    };
+    const api = <T = unknown>(method: string, path: string, token: string, body?: unknown) =>
+      fetchJson<T>(svc.url, method, path, token, body);
 
     // One engine, run and logger key per client.
     let clientsDone = false;
@@ -141,10 +137,17 @@ describe('no loss, no doubles: 10,000 readings from five clients while the servi
           deadband: DEADBAND,
         },
       ];
-      const engine = await api('POST', '/api/engines', chief, body);
-      const run = await api('POST', '/api/runs', operator, { engineId: engine.id, purpose: 'test', title: `Crash test ${c + 1}` });
+      const engine = await api<{ id: string }>('POST', '/api/engines', chief, body);
+      const run = await api<{ id: string }>('POST', '/api/runs', operator, {
+        engineId: engine.id,
+        purpose: 'test',
+        title: `Crash test ${c + 1}`,
+      });
       await api('POST', `/api/runs/${run.id}/transitions`, operator, { to: 'preparing' });
-      const logger = await api('POST', '/api/loggers', admin, { engineId: engine.id, name: `Crash test logger ${c + 1}` });
+      const logger = await api<{ id: string; key: string }>('POST', '/api/loggers', admin, {
+        engineId: engine.id,
+        name: `Crash test logger ${c + 1}`,
+      });
       // The operator answers alarms on this engine (the qualifications module asks for the start-and-run duty).
       const today = new Date().toISOString().slice(0, 10);
       await api('POST', '/api/qualifications', chief, {
@@ -162,9 +165,9 @@ describe('no loss, no doubles: 10,000 readings from five clients while the servi
         takenAt: new Date(start + c * 7 + i * 1000).toISOString(),
       }));
       clients.push({
-        engineId: engine.id as string,
-        runId: run.id as string,
-        loggerKey: logger.key as string,
+        engineId: engine.id,
+        runId: run.id,
+        loggerKey: logger.key,
         series,
         expected: expectedEvents(series),
       });
@@ -201,7 +204,7 @@ describe('no loss, no doubles: 10,000 readings from five clients while the servi
         const [path, headers, body] =
           channel === 'logger'
             ? ['/api/logger/readings', { 'x-logger-key': c.loggerKey }, { runId: c.runId, readings: batch }]
-            : [`/api/runs/${c.runId}/rounds`, { authorization: `Bearer ${operator}` }, { takenAt: batch[0].takenAt, readings: batch }];
+            : [`/api/runs/${c.runId}/rounds`, authHeader(operator), { takenAt: batch[0].takenAt, readings: batch }];
         const res = await fetch(`${svc.url}${path}`, {
           method: 'POST',
           headers: { ...headers, 'content-type': 'application/json' },
@@ -270,7 +273,7 @@ describe('no loss, no doubles: 10,000 readings from five clients while the servi
         for (const c of clients) {
           try {
             const res = await fetch(`${svc.url}/api/alarms?engineId=${c.engineId}&open=true`, {
-              headers: { authorization: `Bearer ${operator}` },
+              headers: authHeader(operator),
               signal: AbortSignal.timeout(ACK_TIMEOUT_MS),
             });
             if (res.status !== 200) continue;
@@ -278,7 +281,7 @@ describe('no loss, no doubles: 10,000 readings from five clients while the servi
               if (a.state !== 'active_unacknowledged' && a.state !== 'returned_unacknowledged') continue;
               const r = await fetch(`${svc.url}/api/alarms/${a.id}/acknowledge`, {
                 method: 'POST',
-                headers: { authorization: `Bearer ${operator}` },
+                headers: authHeader(operator),
                 signal: AbortSignal.timeout(ACK_TIMEOUT_MS),
               });
               if (r.status === 200) acknowledgements++;
@@ -393,8 +396,10 @@ describe('no loss, no doubles: 10,000 readings from five clients while the servi
     });
 
     console.log(
-      `no-loss: ${total} readings in ${seconds.toFixed(1)} s; ${stats.requests} requests, ${stats.retries} retries, ${stats.duplicatesReported} readings answered as duplicates; ` +
-        `by channel ${JSON.stringify(stats.byChannel)}; kills at ${kills.map((k) => `${k.ackedBefore} acknowledged (restart ${k.restartMs} ms)`).join(', ')}; ` +
+      `no-loss: ${total} readings in ${seconds.toFixed(1)} s; ${stats.requests} requests, ${stats.retries} retries, ` +
+        `${stats.duplicatesReported} readings answered as duplicates; ` +
+        `by channel ${JSON.stringify(stats.byChannel)}; kills at ` +
+        `${kills.map((k) => `${k.ackedBefore} acknowledged (restart ${k.restartMs} ms)`).join(', ')}; ` +
         `${expectedRaises} crossings expected and found; ${acknowledgements} acknowledgements by the crew meanwhile`,
     );
   }, 290_000);

@@ -4,9 +4,11 @@
  * the table fails with a message saying which row to add.
  */
 import { randomUUID } from 'node:crypto';
-import { io, type Socket } from 'socket.io-client';
+import type { Socket } from 'socket.io-client';
 import { ROLES, type Role } from '@crankjournal/shared-types';
 import { startTestApp } from '../utils/test-app.js';
+import { connected, socketAs } from '../utils/socket.js';
+import { authHeader } from '../utils/signed-in.js';
 import { createEngine } from '../factories/engine.factory.js';
 import { ROUTE_ACCESS, SOCKET_ACCESS, type RouteAccess } from '../roles-matrix.table.js';
 import { ROOM_RULES } from '../../src/modules/live/room-rules.js';
@@ -28,7 +30,7 @@ const chief = sessions.chief_engineer.token;
 const engine = await createEngine(t, chief);
 const issued = await fetch(`${t.url}/api/loggers`, {
   method: 'POST',
-  headers: { 'content-type': 'application/json', authorization: `Bearer ${sessions.administrator.token}` },
+  headers: { 'content-type': 'application/json', ...authHeader(sessions.administrator.token) },
   body: JSON.stringify({ engineId: engine.id, name: 'Roles matrix logger' }),
 });
 const loggerKey = ((await issued.json()) as { key: string }).key;
@@ -70,7 +72,8 @@ describe('roles matrix: HTTP routes (router vs test/roles-matrix.table.ts)', () 
     const missing = served.filter((r) => !(r.key in ROUTE_ACCESS)).map((r) => `  '${r.key}': [...roles] | 'public' | 'logger-key',`);
     if (missing.length)
       throw new Error(
-        `${missing.length} route(s) have no row in ${TABLE_FILE}. Add, as each controller's @Roles/@AnyRole/@Public says:\n${missing.join('\n')}`,
+        `${missing.length} route(s) have no row in ${TABLE_FILE}. Add, as each controller's @Roles/@AnyRole/@Public ` +
+          `says:\n${missing.join('\n')}`,
       );
   });
 
@@ -91,7 +94,7 @@ describe('roles matrix: HTTP routes (router vs test/roles-matrix.table.ts)', () 
     const answers = await Promise.all(
       PRINCIPALS.map((p) => {
         const token = tokenOf(p);
-        return call(method, concretePath(path), token ? { authorization: `Bearer ${token}` } : {});
+        return call(method, concretePath(path), token ? authHeader(token) : {});
       }),
     );
     PRINCIPALS.forEach((p, i) => {
@@ -116,18 +119,14 @@ const sockets = new Map<string, Socket>();
 async function socketFor(role: Role): Promise<Socket> {
   const hit = sockets.get(role);
   if (hit?.connected) return hit;
-  const s = io(t.url, { transports: ['websocket'], reconnection: false, forceNew: true, auth: { token: sessions[role].token } });
-  await new Promise<void>((res, rej) => {
-    s.once('connect', () => res());
-    s.once('connect_error', rej);
-  });
+  const s = await connected(socketAs(t.url, sessions[role].token));
   sockets.set(role, s);
   return s;
 }
 
 /** The connect error a token gets, or null when the live channel lets it in. */
 async function connectRefusal(token: string | undefined): Promise<string | null> {
-  const s = io(t.url, { transports: ['websocket'], reconnection: false, forceNew: true, auth: token ? { token } : {} });
+  const s = socketAs(t.url, token);
   try {
     return await new Promise<string | null>((res) => {
       s.once('connect', () => res(null));
@@ -157,7 +156,8 @@ describe('roles matrix: socket events (gateways vs test/roles-matrix.table.ts)',
     const uncovered = ROOM_RULES.filter((r) => !samples.some((room) => r.pattern.test(room)));
     if (uncovered.length)
       throw new Error(
-        `room rule(s) with no 'room:join <example room>' row in ${TABLE_FILE}: ${uncovered.map((r) => `${r.pattern} (${r.what})`).join('; ')}`,
+        `room rule(s) with no 'room:join <example room>' row in ${TABLE_FILE}: ` +
+          `${uncovered.map((r) => `${r.pattern} (${r.what})`).join('; ')}`,
       );
   });
 

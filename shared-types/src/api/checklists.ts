@@ -11,7 +11,10 @@ export const CHECKLIST_PURPOSE_LABELS: Record<ChecklistPurpose, string> = {
   other: 'Other',
 };
 
-/** When a template's checklist must be signed for a run: before it may start, after a stop before it may close, or never (kept for the record). */
+/**
+ * When a template's checklist must be signed for a run: before it may start, after a stop before it may close, or never
+ * (kept for the record).
+ */
 export const CHECKLIST_REQUIRED_WHEN = ['before_start', 'after_stop', 'not_required'] as const;
 export type ChecklistRequiredWhen = (typeof CHECKLIST_REQUIRED_WHEN)[number];
 export const CHECKLIST_REQUIRED_WHEN_LABELS: Record<ChecklistRequiredWhen, string> = {

@@ -83,18 +83,22 @@ export const WORK_HAZARD_LABELS: Record<WorkHazard, string> = {
 const DEFER = 'Crankjournal aids a qualified crew; it never replaces local codes, the insurer\u2019s requirements or licensed practice.';
 export const WORK_HAZARD_CAUTIONS: Record<WorkHazard, string> = {
   lockout:
-    'Before anyone works on or in the engine: close and lock the stop valve, open the drains, take the barring gear out or lock it, and put a personal lock and tag on each isolation. A flywheel can turn on a whiff of steam or its own weight. ' +
+    'Before anyone works on or in the engine: close and lock the stop valve, open the drains, take the barring gear ' +
+    'out or lock it, and put a personal lock and tag on each isolation. A flywheel can turn on a whiff of steam or its own weight. ' +
     DEFER,
   lifting:
-    'Bearing caps, shells and rods are heavy and awkward: use rated slings and lifting points, check the gear before use, keep hands out from under the load and clear the area. ' +
+    'Bearing caps, shells and rods are heavy and awkward: use rated slings and lifting points, check the gear before ' +
+    'use, keep hands out from under the load and clear the area. ' +
     DEFER,
   jacking:
-    'Jacking a shaft or flywheel can kill: crib and pack under the load as it rises, never rely on hydraulics alone, use jacks rated with margin for the load they carry and lift evenly. ' +
+    'Jacking a shaft or flywheel can kill: crib and pack under the load as it rises, never rely on hydraulics alone, ' +
+    'use jacks rated with margin for the load they carry and lift evenly. ' +
     DEFER,
   raised_load:
     'Never work under a load held only by a crane, a block or hydraulics: land it on packing or support it mechanically first. ' + DEFER,
   hot_work:
-    'Hot work needs a permit, a fire watch, the oil cleaned away and an extinguisher to hand; molten white metal burns and spits on damp surfaces. ' +
+    'Hot work needs a permit, a fire watch, the oil cleaned away and an extinguisher to hand; molten white metal ' +
+    'burns and spits on damp surfaces. ' +
     DEFER,
   confined_space: 'Confined spaces need the air tested, a person outside, and a way out: do not enter alone. ' + DEFER,
 };

@@ -58,7 +58,10 @@ const mmText = (mm: number) => `${Number(mm.toFixed(1))} mm`;
 /** "Round bar 38.1 mm (1½ in)", "Flat bar 50.8 × 12.7 mm (2 × ½ in)". */
 export function productLabel(shape: ProductShape, heightMm: number, widthMm: number): string {
   if (shape === 'flat') {
-    return `${PRODUCT_SHAPE_LABELS.flat} ${Number(widthMm.toFixed(1))} × ${mmText(heightMm)} (${inchesText(widthMm).replace(' in', '')} × ${inchesText(heightMm)})`;
+    return (
+      `${PRODUCT_SHAPE_LABELS.flat} ${Number(widthMm.toFixed(1))} × ${mmText(heightMm)} ` +
+      `(${inchesText(widthMm).replace(' in', '')} × ${inchesText(heightMm)})`
+    );
   }
   return `${PRODUCT_SHAPE_LABELS[shape]} ${mmText(heightMm)} (${inchesText(heightMm)})`;
 }

@@ -1,3 +1,4 @@
+import type { MigrationInterface } from 'typeorm';
 import { Foundation1796162547067 } from './1796162547067-Foundation.js';
 import { RunLog1796163443370 } from './1796163443370-RunLog.js';
 import { Mill1796164211009 } from './1796164211009-Mill.js';
@@ -7,7 +8,7 @@ import { Maintenance1796166275712 } from './1796166275712-Maintenance.js';
 import { ReadingsPointRunIndex1796169344642 } from './1796169344642-ReadingsPointRunIndex.js';
 
 /** Every migration in order. Add new ones at the end; never edit one that has been committed. */
-export const MIGRATIONS: Function[] = [
+export const MIGRATIONS: (new () => MigrationInterface)[] = [
   Foundation1796162547067,
   RunLog1796163443370,
   Mill1796164211009,

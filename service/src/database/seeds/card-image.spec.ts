@@ -21,15 +21,19 @@ function chunks(png: Buffer): { type: string; data: Buffer; crc: number }[] {
 }
 
 describe('our PNG encoder', () => {
-  it('writes the signature, IHDR, IDAT and IEND; IEND’s CRC is AE 42 60 82 (W3C PNG Specification, 2nd ed., sections 5.2, 5.6 and 11.2.5)', () => {
-    const png = encodePng(2, 2, new Uint8Array([255, 0, 0, 0, 255, 0, 0, 0, 255, 10, 20, 30]));
-    expect([...png.subarray(0, 8)]).toEqual([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]);
-    const c = chunks(png);
-    expect(c.map((x) => x.type)).toEqual(['IHDR', 'IDAT', 'IEND']);
-    expect(c[2].crc).toBe(0xae426082);
-    expect(c[0].data.readUInt32BE(0)).toBe(2);
-    expect(c[0].data[9]).toBe(2); // colour type 2: truecolour
-  });
+  it(
+    'writes the signature, IHDR, IDAT and IEND; IEND’s CRC is AE 42 60 82 (W3C PNG Specification, 2nd ed., sections ' +
+      '5.2, 5.6 and 11.2.5)',
+    () => {
+      const png = encodePng(2, 2, new Uint8Array([255, 0, 0, 0, 255, 0, 0, 0, 255, 10, 20, 30]));
+      expect([...png.subarray(0, 8)]).toEqual([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]);
+      const c = chunks(png);
+      expect(c.map((x) => x.type)).toEqual(['IHDR', 'IDAT', 'IEND']);
+      expect(c[2].crc).toBe(0xae426082);
+      expect(c[0].data.readUInt32BE(0)).toBe(2);
+      expect(c[0].data[9]).toBe(2); // colour type 2: truecolour
+    },
+  );
 
   it('the image data inflates back to the pixels under the "Up" filter (section 9.2: Up(x) + Prior(x))', () => {
     const rgb = new Uint8Array([255, 0, 0, 0, 255, 0, 0, 0, 255, 10, 20, 30]);

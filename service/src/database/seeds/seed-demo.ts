@@ -25,5 +25,8 @@ export async function seedDemo(app: INestApplicationContext): Promise<string> {
   // After the season: the inspections refer to its runs and alarms.
   const maintenance = await seedMaintenance(app, engine, users);
   const lubrication = await seedLubrication(app, engine, users);
-  return `${users.size} users, engine "${engine.name}", ${runs} new runs, ${checklists}, ${mill}, ${cardSets} new card sets, ${maintenance}, ${lubrication}`;
+  return (
+    `${users.size} users, engine "${engine.name}", ${runs} new runs, ${checklists}, ${mill}, ${cardSets} new ` +
+    `card sets, ${maintenance}, ${lubrication}`
+  );
 }

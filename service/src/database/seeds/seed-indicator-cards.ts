@@ -106,15 +106,18 @@ export async function seedIndicatorCards(app: INestApplicationContext, engine: E
 
   // Keep the record's order plausible: a seeded card's creation time is the moment its set was taken.
   await db.query(
-    `UPDATE card_sets SET created_at = taken_at + interval '10 minutes' WHERE created_at > taken_at + interval '1 day' AND run_id IN (SELECT id FROM runs WHERE engine_id = $1)`,
+    `UPDATE card_sets SET created_at = taken_at + interval '10 minutes' WHERE created_at > taken_at + interval '1 ` +
+      `day' AND run_id IN (SELECT id FROM runs WHERE engine_id = $1)`,
     [engine.id],
   );
   await db.query(
-    `UPDATE indicator_cards c SET created_at = s.taken_at + interval '10 minutes' FROM card_sets s WHERE c.card_set_id = s.id AND c.created_at > s.taken_at + interval '1 day' AND s.engine_id = $1`,
+    `UPDATE indicator_cards c SET created_at = s.taken_at + interval '10 minutes' FROM card_sets s WHERE ` +
+      `c.card_set_id = s.id AND c.created_at > s.taken_at + interval '1 day' AND s.engine_id = $1`,
     [engine.id],
   );
   await db.query(
-    `UPDATE brake_figures SET created_at = measured_at + interval '5 minutes' WHERE created_at > measured_at + interval '1 day' AND run_id IN (SELECT id FROM runs WHERE engine_id = $1)`,
+    `UPDATE brake_figures SET created_at = measured_at + interval '5 minutes' WHERE created_at > measured_at + ` +
+      `interval '1 day' AND run_id IN (SELECT id FROM runs WHERE engine_id = $1)`,
     [engine.id],
   );
   return created;

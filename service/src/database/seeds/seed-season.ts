@@ -157,7 +157,8 @@ export async function seedSeason(app: INestApplicationContext, engine: Engine, u
         [run.id, operator.id],
       );
       await m.query(
-        `UPDATE alarms SET state = 'normal', condition_active = false, returned_at = COALESCE(returned_at, $2) WHERE run_id = $1 AND state <> 'normal'`,
+        `UPDATE alarms SET state = 'normal', condition_active = false, returned_at = COALESCE(returned_at, $2) WHERE ` +
+          `run_id = $1 AND state <> 'normal'`,
         [run.id, stop],
       );
     });
