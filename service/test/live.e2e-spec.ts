@@ -117,16 +117,14 @@ describe('the live channel (socket.io)', () => {
     const admin = await login(t, 'administrator');
     const operator = await login(t, 'operator');
     const other = await login(t, 'operator');
-    const s = client(operator.accessToken);
-    const o = client(other.accessToken);
-    await connect(s);
-    await connect(o);
+    const s = socketAs(t.url, operator);
+    const o = socketAs(t.url, other);
+    sockets.push(s, o);
+    await connected(s);
+    await connected(o);
 
     const closed = next<string>(s, 'disconnect');
-    const off = await t.http
-      .patch(`/api/users/${operator.user.id}`)
-      .set('Authorization', bearer(admin.accessToken))
-      .send({ active: false });
+    const off = await signedIn(t, admin).patch(`/api/users/${operator.user.id}`).send({ active: false });
     expect(off.status).toBe(200);
     // The server closed the socket (not the client): socket.io reports "io server disconnect".
     expect(await closed).toBe('io server disconnect');
