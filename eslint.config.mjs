@@ -29,7 +29,8 @@ const moduleBoundaryZones = featureModules.map((name) => ({
   from: featureModules.filter((other) => other !== name).map((other) => `${modulesDir}/${other}/**`),
   except: featureModules
     .filter((other) => other !== name)
-    .flatMap((other) => [`${modulesDir}/${other}/*.service.ts`, `${modulesDir}/${other}/*.module.ts`]),
+    // The rule matches exception globs against absolute file paths, so they must be absolute too.
+    .flatMap((other) => [`${root}/${modulesDir}/${other}/*.service.ts`, `${root}/${modulesDir}/${other}/*.module.ts`]),
   message: 'A module uses another only through its exported service or module class (DEVELOPERS.md, "Module boundaries").',
 }));
 
