@@ -1,6 +1,6 @@
 import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
-import { DataSource, In, IsNull, Not, type EntityManager } from 'typeorm';
+import { DataSource, IsNull, Not, type EntityManager } from 'typeorm';
 import type {
   ChecklistRequiredWhen,
   ChecklistTemplateContent,
@@ -9,7 +9,7 @@ import type {
   ChecklistTemplateVersionDto,
 } from '@crankjournal/shared-types';
 import { EnginesService } from '../engines/engines.service.js';
-import { User } from '../users/user.entity.js';
+import { UsersService } from '../users/users.service.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { itemsOf, validateTemplateContent } from './checklist-rules.js';
 import { ChecklistTemplate, ChecklistTemplateVersion } from './checklist-template.entity.js';
@@ -48,6 +48,7 @@ export class ChecklistTemplatesService {
   constructor(
     @InjectDataSource() private readonly db: DataSource,
     private readonly engines: EnginesService,
+    private readonly users: UsersService,
   ) {}
 
   async get(id: string, m: EntityManager = this.db.manager): Promise<ChecklistTemplate> {
@@ -120,11 +121,8 @@ export class ChecklistTemplatesService {
     };
   }
 
-  private async names(ids: string[]): Promise<Map<string, string>> {
-    const want = [...new Set(ids)];
-    if (!want.length) return new Map();
-    const users = await this.db.getRepository(User).find({ where: { id: In(want) } });
-    return new Map(users.map((u) => [u.id, u.displayName]));
+  private names(ids: string[]): Promise<Map<string, string>> {
+    return this.users.displayNames(ids);
   }
 
   async detail(id: string): Promise<ChecklistTemplateDetail> {

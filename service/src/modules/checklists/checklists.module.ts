@@ -3,6 +3,7 @@ import { TypeOrmModule } from '@nestjs/typeorm';
 import { EnginesModule } from '../engines/engines.module.js';
 import { RunsModule } from '../runs/runs.module.js';
 import { StartGateService } from '../runs/start-gate.service.js';
+import { UsersModule } from '../users/users.module.js';
 import { QualificationsModule } from '../qualifications/qualifications.module.js';
 import { ChecklistTemplate, ChecklistTemplateVersion } from './checklist-template.entity.js';
 import { Checklist, ChecklistAmendment, ChecklistEntry } from './checklist.entity.js';
@@ -23,6 +24,7 @@ import { ChecklistsController } from './checklists.controller.js';
     EnginesModule,
     RunsModule,
     QualificationsModule,
+    UsersModule,
   ],
   providers: [ChecklistTemplatesService, ChecklistsService, ChecklistPdfService],
   controllers: [ChecklistTemplatesController, ChecklistsController],

@@ -23,14 +23,13 @@ import {
   type RunChecklistTemplateStatus,
 } from '@crankjournal/shared-types';
 import { RunsService } from '../runs/runs.service.js';
-import type { Run } from '../runs/run.entity.js';
+import type { GateRule } from '../runs/start-gate.service.js';
 import { EnginesService } from '../engines/engines.service.js';
 import { QualificationsService } from '../qualifications/qualifications.service.js';
-import { isQualified, qualificationProblem } from '../qualifications/qualification-rules.js';
 import { AuthService } from '../auth/auth.service.js';
 import { StorageService } from '../storage/storage.service.js';
 import { LiveService } from '../live/live.service.js';
-import { User } from '../users/user.entity.js';
+import { UsersService } from '../users/users.service.js';
 import { KeyedMutex } from '../../common/util/keyed-mutex.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { IMAGE_EXTENSIONS, sniffImageType } from './image-type.js';
@@ -72,6 +71,9 @@ const toState = (e: ChecklistEntry | undefined): EntryState | undefined =>
   e ? { tick: e.tick, value: e.value, choice: e.choice, text: e.text, hasPhoto: !!e.photoKey, overrideValue: e.overrideValue } : undefined;
 
 /** A run's checklists: started against a template version, filled in any order, signed, amended; and the gate rules built on them. */
+/** A run as the start gate and RunsService hand it over. */
+type Run = Parameters<GateRule['check']>[0];
+
 @Injectable()
 export class ChecklistsService {
   private readonly logger = new Logger('Checklists');
@@ -87,6 +89,7 @@ export class ChecklistsService {
     private readonly auth: AuthService,
     private readonly storage: StorageService,
     private readonly live: LiveService,
+    private readonly users: UsersService,
   ) {}
 
   // ---- reading -------------------------------------------------------------------------------------
@@ -105,11 +108,8 @@ export class ChecklistsService {
     return it;
   }
 
-  private async names(ids: (string | null | undefined)[]): Promise<Map<string, string>> {
-    const want = [...new Set(ids.filter((x): x is string => !!x))];
-    if (!want.length) return new Map();
-    const users = await this.db.getRepository(User).find({ where: { id: In(want) } });
-    return new Map(users.map((u) => [u.id, u.displayName]));
+  private names(ids: (string | null | undefined)[]): Promise<Map<string, string>> {
+    return this.users.displayNames(ids);
   }
 
   private async build(
@@ -317,11 +317,8 @@ export class ChecklistsService {
       if (!s) continue;
       const row = rows.find((r) => r.id === s.id)!;
       const duty = summaries.find((x) => x.id === s.id)!.requiredDuty;
-      const f = await this.quals.finding(row.signedBy!, run.engineId, duty, now);
-      signerProblems.set(
-        s.id,
-        isQualified(f.status) ? null : (qualificationProblem(f, duty, engine.name, s.signedByName ?? 'The signer')?.message ?? null),
-      );
+      const problem = await this.quals.problemOf(row.signedBy!, run.engineId, duty, engine.name, s.signedByName ?? 'The signer', now);
+      signerProblems.set(s.id, problem);
     }
     return evaluateStartChecklists({
       templates: this.gateTemplates(active),

@@ -2,7 +2,7 @@ import { Injectable, NotFoundException } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, In, type EntityManager } from 'typeorm';
 import type { BrakeFigureDto, BrakeFigureInput, RecordAmendmentDto } from '@crankjournal/shared-types';
-import { User } from '../users/user.entity.js';
+import { UsersService } from '../users/users.service.js';
 import {
   CalculationInputError,
   brakeHorsepower,
@@ -71,7 +71,10 @@ export function brakeFigureFields(input: BrakeFigureInput) {
 /** Brake or measured output figures of a run (written through CardSetsService, which recomputes the sets). */
 @Injectable()
 export class BrakeFiguresService {
-  constructor(@InjectDataSource() private readonly db: DataSource) {}
+  constructor(
+    @InjectDataSource() private readonly db: DataSource,
+    private readonly users: UsersService,
+  ) {}
 
   async get(id: string, m?: EntityManager): Promise<BrakeFigure> {
     const f = await (m ?? this.db.manager).findOne(BrakeFigure, { where: { id } });
@@ -100,8 +103,7 @@ export class BrakeFiguresService {
       order: { at: 'ASC' },
     });
     const ids = [...new Set([...figures.map((f) => f.createdBy), ...amendments.map((a) => a.byUser)])];
-    const users = await this.db.getRepository(User).find({ where: { id: In(ids) } });
-    const name = new Map(users.map((u) => [u.id, u.displayName]));
+    const name = await this.users.displayNames(ids);
     const byFigure = new Map<string, RecordAmendmentDto[]>();
     for (const a of amendments) {
       const list = byFigure.get(a.subjectId) ?? [];

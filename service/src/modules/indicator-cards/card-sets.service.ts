@@ -21,10 +21,10 @@ import {
 } from '@crankjournal/shared-types';
 import { RunsService } from '../runs/runs.service.js';
 import { ReadingsService } from '../runs/readings.service.js';
-import type { Run } from '../runs/run.entity.js';
+import type { GateRule } from '../runs/start-gate.service.js';
 import { EnginesService } from '../engines/engines.service.js';
 import { LiveService } from '../live/live.service.js';
-import { User } from '../users/user.entity.js';
+import { UsersService } from '../users/users.service.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { CalculationInputError } from '../../calculations/indicated-power.js';
 import { KPA_PER_PSI, psiaToPsig } from '../../calculations/units.js';
@@ -147,6 +147,9 @@ interface PreparedSet {
   cards: PreparedCard[];
 }
 
+/** A run as RunsService hands it over. */
+type Run = Parameters<GateRule['check']>[0];
+
 /**
  * Card sets of a run: taking them, adding a card, amending a card or a set (never erasing), brake figures,
  * and the results of each set (computed from the pure calculations, stored with the set, broadcast live).
@@ -160,6 +163,7 @@ export class CardSetsService {
     private readonly engines: EnginesService,
     private readonly live: LiveService,
     private readonly brakes: BrakeFiguresService,
+    private readonly users: UsersService,
   ) {}
 
   // ------------------------------------------------------------------------------------------
@@ -700,8 +704,7 @@ export class CardSetsService {
       order: { at: 'ASC' },
     });
     const userIds = [...new Set([...sets.map((s) => s.createdBy), ...cards.map((c) => c.createdBy), ...amendments.map((a) => a.byUser)])];
-    const users = userIds.length ? await this.db.getRepository(User).find({ where: { id: In(userIds) } }) : [];
-    const name = new Map(users.map((u) => [u.id, u.displayName]));
+    const name = await this.users.displayNames(userIds);
     const bySubject = new Map<string, RecordAmendmentDto[]>();
     for (const a of amendments) {
       const list = bySubject.get(a.subjectId) ?? [];

@@ -1,6 +1,7 @@
 import { Module } from '@nestjs/common';
 import { TypeOrmModule } from '@nestjs/typeorm';
 import { RunsModule } from '../runs/runs.module.js';
+import { UsersModule } from '../users/users.module.js';
 import { EnginesModule } from '../engines/engines.module.js';
 import { CardSet } from './card-set.entity.js';
 import { IndicatorCard } from './indicator-card.entity.js';
@@ -15,7 +16,7 @@ import { IndicatorCalculationsController } from './calculations.controller.js';
 
 /** Indicator cards and indicated power: card sets of a run, traced images, brake figures, the calculator route. */
 @Module({
-  imports: [TypeOrmModule.forFeature([CardSet, IndicatorCard, CardImage, BrakeFigure, CardRecordAmendment]), RunsModule, EnginesModule],
+  imports: [TypeOrmModule.forFeature([CardSet, IndicatorCard, CardImage, BrakeFigure, CardRecordAmendment]), RunsModule, EnginesModule, UsersModule],
   providers: [CardSetsService, CardImagesService, BrakeFiguresService],
   controllers: [CardSetsController, IndicatorCalculationsController],
   exports: [CardSetsService, CardImagesService],

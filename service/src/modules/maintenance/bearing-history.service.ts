@@ -10,11 +10,10 @@ import type {
   TimelineEntry,
 } from '@crankjournal/shared-types';
 import { AlarmsService } from '../alarms/alarms.service.js';
-import type { MeasurementPoint } from '../engines/measurement-point.entity.js';
 import type { PointRunStat } from '../runs/readings.service.js';
 import { bandAt, driftHistory, driftRuleText, fitBand, type DriftBand } from '../../calculations/bearing-drift.js';
 import { celsiusToFahrenheit } from '../../calculations/units.js';
-import { EngineFactsService } from './engine-facts.service.js';
+import { EngineFactsService, type MeasurementPoint } from './engine-facts.service.js';
 import { InspectionsService } from './inspections.service.js';
 import { WorkRecordsService } from './work-records.service.js';
 import { RunStatsService } from './run-stats.service.js';
