@@ -1,7 +1,7 @@
-import { BadRequestException, Body, Controller, HttpCode, Post } from '@nestjs/common';
+import { Body, Controller, HttpCode, Post } from '@nestjs/common';
 import { ApiBadRequestResponse, ApiBearerAuth, ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
 import { AnyRole } from '../../common/decorators/roles.decorator.js';
-import { CalculationInputError, computeIndicatedPower } from '../../calculations/indicated-power.js';
+import { computeIndicatedPower } from '../../calculations/indicated-power.js';
 import {
   IndicatedPowerRequestDto,
   IndicatedPowerResponseDto,
@@ -9,15 +9,6 @@ import {
   TraceCalibrationResponseDto,
 } from './dto/calculations.dto.js';
 import { calibrateCardTrace } from './card-set-results.js';
-
-function answer<T>(fn: () => T): T {
-  try {
-    return fn();
-  } catch (e) {
-    if (e instanceof CalculationInputError) throw new BadRequestException({ statusCode: 400, error: 'Bad Request', message: [e.message] });
-    throw e;
-  }
-}
 
 /** Stateless calculators for indicator cards (nothing is stored). */
 @ApiTags('calculations')
@@ -38,7 +29,7 @@ export class IndicatorCalculationsController {
   @ApiOkResponse({ type: IndicatedPowerResponseDto })
   @ApiBadRequestResponse({ description: 'The body is not valid; the message names the field, e.g. "cylinders[0].cards[1].areaSqIn: …".' })
   indicatedPower(@Body() dto: IndicatedPowerRequestDto): IndicatedPowerResponseDto {
-    return answer(() => computeIndicatedPower(dto));
+    return computeIndicatedPower(dto);
   }
 
   @Post('indicator-trace')
@@ -53,6 +44,6 @@ export class IndicatorCalculationsController {
   @ApiOkResponse({ type: TraceCalibrationResponseDto })
   @ApiBadRequestResponse({ description: 'The trace or scale is not valid; the message names the field.' })
   indicatorTrace(@Body() dto: TraceCalibrationRequestDto): TraceCalibrationResponseDto {
-    return answer(() => calibrateCardTrace(dto.trace, dto.springPsiPerIn, dto.lengthIn));
+    return calibrateCardTrace(dto.trace, dto.springPsiPerIn, dto.lengthIn);
   }
 }

@@ -26,7 +26,6 @@ import { EnginesService } from '../engines/engines.service.js';
 import { LiveService } from '../live/live.service.js';
 import { UsersService } from '../users/users.service.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
-import { CalculationInputError } from '../../calculations/indicated-power.js';
 import { KPA_PER_PSI, psiaToPsig } from '../../calculations/units.js';
 import { KPA_PER_INCH_OF_MERCURY } from '../../calculations/vacuum.js';
 import { CYLINDER_END_WORDS, computeCardSetResults, evaluateCard, type EvaluatedCard, type ResultCard } from './card-set-results.js';
@@ -68,16 +67,6 @@ const SET_FIELDS = [
   'vacuumInHg',
   'notes',
 ] as const;
-
-/** Turns a calculation's input error into a 400 that names the field. */
-function badRequest<T>(fn: () => T): T {
-  try {
-    return fn();
-  } catch (e) {
-    if (e instanceof CalculationInputError) throw new BadRequestException({ statusCode: 400, error: 'Bad Request', message: [e.message] });
-    throw e;
-  }
-}
 
 /** JSON with object keys in order (jsonb keeps its own key order, so plain JSON.stringify would see changes that are not). */
 function stableJson(v: unknown): string {
@@ -251,7 +240,7 @@ export class CardSetsService {
         });
       }
     }
-    const evaluated = badRequest(() => evaluateCard(card, path));
+    const evaluated = evaluateCard(card, path);
     return { input: card, cylinder, evaluated };
   }
 
@@ -629,7 +618,7 @@ export class CardSetsService {
   ): Promise<BrakeFigureDto> {
     const run = await this.runs.get(runId);
     if (!opts.seed) this.runs.assertOpen(run);
-    const fields = badRequest(() => brakeFigureFields(dto));
+    const fields = brakeFigureFields(dto);
     const saved = await this.db
       .getRepository(BrakeFigure)
       .save(this.db.getRepository(BrakeFigure).create({ runId, ...fields, createdBy: user.id }));
@@ -655,7 +644,7 @@ export class CardSetsService {
       speedRpm: given.speedRpm !== undefined ? given.speedRpm : f0.speedRpm,
       note: given.note !== undefined ? given.note : f0.note,
     };
-    const next = badRequest(() => brakeFigureFields(merged));
+    const next = brakeFigureFields(merged);
     await this.db.transaction(async (m) => {
       const cur = await m.findOne(BrakeFigure, { where: { id }, lock: { mode: 'pessimistic_write' } });
       const changes = changesBetween(cur!, next, BRAKE_FIELDS);

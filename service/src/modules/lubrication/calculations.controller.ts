@@ -29,16 +29,6 @@ export const FRICTION_METHOD =
   'Petroff (concentric journal): T = 4\u03c0\u00b2\u03bcNr\u00b3l/c, f = 2\u03c0\u00b2(\u03bcN/P)(r/c), power = 2\u03c0NT, S = (r/c)\u00b2\u03bcN/P with N in rev/s and P = W/(D\u00b7L). ' +
   'Petroff ignores the eccentricity of a loaded journal, so a slow, heavily loaded bearing (small S) really loses more than this: read it as the lower bound.';
 
-/** Pure-function errors (a value the formula cannot take) answer 400 with the reason. */
-function answer<T>(fn: () => T): T {
-  try {
-    return fn();
-  } catch (e) {
-    if (e instanceof RangeError) throw new BadRequestException({ statusCode: 400, error: 'Bad Request', message: [e.message] });
-    throw e;
-  }
-}
-
 /** Stateless lubrication calculators (nothing is stored): viscosity, journal friction, lift pressure, jacks. */
 @ApiTags('calculations')
 @ApiBearerAuth()
@@ -59,7 +49,7 @@ export class LubricationCalculationsController {
         error: 'Bad Request',
         message: ['viscosity100cSt must be lower than viscosity40cSt (oil thins as it warms)'],
       });
-    return answer(() => ({ ...oilViscosity(dto), method: VISCOSITY_METHOD }));
+    return { ...oilViscosity(dto), method: VISCOSITY_METHOD };
   }
 
   @Post('journal-friction')
@@ -75,10 +65,8 @@ export class LubricationCalculationsController {
         error: 'Bad Request',
         message: ['radialClearanceIn must be far smaller than the journal'],
       });
-    return answer(() => {
-      const r = journalFriction(dto);
-      return { ...r, powerLossKw: hpToKw(r.powerLossHp), method: FRICTION_METHOD };
-    });
+    const r = journalFriction(dto);
+    return { ...r, powerLossKw: hpToKw(r.powerLossHp), method: FRICTION_METHOD };
   }
 
   @Post('lift-pressure')
@@ -91,7 +79,7 @@ export class LubricationCalculationsController {
   @ApiOkResponse({ type: LiftPressureResponseDto })
   @ApiBadRequestResponse({ description: 'A field is missing or out of range; the message names the field.' })
   liftPressure(@Body() dto: LiftPressureRequestDto): LiftPressureResponseDto {
-    return answer(() => ({ ...liftPressure(dto), rule: LIFT_PRESSURE_RULE_TEXT, caution: JACKING_CAUTION }));
+    return { ...liftPressure(dto), rule: LIFT_PRESSURE_RULE_TEXT, caution: JACKING_CAUTION };
   }
 
   @Post('jack-capacity')
@@ -101,6 +89,6 @@ export class LubricationCalculationsController {
   @ApiOkResponse({ type: JackCapacityResponseDto })
   @ApiBadRequestResponse({ description: 'A field is missing or out of range; the message names the field.' })
   jackCapacity(@Body() dto: JackCapacityRequestDto): JackCapacityResponseDto {
-    return answer(() => ({ ...jackCapacityCheck(dto), rule: JACK_MARGIN_RULE_TEXT, caution: JACKING_CAUTION }));
+    return { ...jackCapacityCheck(dto), rule: JACK_MARGIN_RULE_TEXT, caution: JACKING_CAUTION };
   }
 }

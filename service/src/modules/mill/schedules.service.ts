@@ -17,7 +17,8 @@ import { SchedulePass } from './schedule-pass.entity.js';
 import { CustomerLot } from './customer-lot.entity.js';
 import type { Mill } from './mill.entity.js';
 import { MillService } from './mill.service.js';
-import { calculatePass } from './pass-calculation.js';
+import { calculatePass, passErrorMessage } from './pass-calculation.js';
+import { CalculationInputError } from '../../calculations/errors.js';
 
 /** What a plan assumes where the run will tell the truth later. */
 function planAssumptions(mill: Mill, engine: Engine): string[] {
@@ -163,6 +164,7 @@ export class SchedulesService {
       });
       return { ...base, calc, calcError: null };
     } catch (e) {
+      if (e instanceof CalculationInputError) return { ...base, calc: null, calcError: passErrorMessage(e) };
       if (e instanceof HttpException)
         return { ...base, calc: null, calcError: String((e.getResponse() as { message?: string }).message ?? e.message) };
       throw e;
