@@ -32,7 +32,7 @@ import { LiveService } from '../live/live.service.js';
 import { UsersService } from '../users/users.service.js';
 import { KeyedMutex } from '../../common/util/keyed-mutex.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
-import { IMAGE_EXTENSIONS, sniffImageType } from './image-type.js';
+import { IMAGE_EXTENSIONS, sniffImageType } from '../../common/util/image-sniff.js';
 import {
   allStartChecklistsSigned,
   evaluateCloseChecklists,
@@ -436,7 +436,7 @@ export class ChecklistsService {
   }
 
   async putPhoto(id: string, itemKey: string, body: Buffer, user: AuthUser): Promise<ChecklistDetail> {
-    const type = sniffImageType(body);
+    const type = await sniffImageType(body);
     if (!type)
       throw new HttpException(
         {

@@ -8,7 +8,7 @@ import { StorageService } from '../storage/storage.service.js';
 import { RunsService } from '../runs/runs.service.js';
 import { AppConfig } from '../../config/app-config.service.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
-import { sniffImage } from './image-sniff.js';
+import { sniffImage } from '../../common/util/image-sniff.js';
 import { CardImage } from './card-image.entity.js';
 
 /** The body of a request, read whole but never beyond `maxBytes` (413 as soon as it is passed). */
@@ -87,7 +87,7 @@ export class CardImagesService {
         { statusCode: 413, error: 'Payload Too Large', message: `The image is larger than ${this.maxBytes} bytes.` },
         413,
       );
-    const sniffed = sniffImage(body);
+    const sniffed = await sniffImage(body);
     if (!sniffed) {
       throw new UnsupportedMediaTypeException(
         'That file is not a PNG, JPEG or WebP image (checked by its content, not its name). Photograph or scan the card as one of those.',
