@@ -12,7 +12,7 @@ import { CardSetsService } from './card-sets.service.js';
 import { CardImagesService } from './card-images.service.js';
 import { BrakeFiguresService } from './brake-figures.service.js';
 import { CardSetsController } from './card-sets.controller.js';
-import { IndicatorCalculationsController } from './calculations.controller.js';
+import { IndicatorCalculationsController } from './indicator-calculations.controller.js';
 
 /** Indicator cards and indicated power: card sets of a run, traced images, brake figures, the calculator route. */
 @Module({

@@ -17,7 +17,7 @@ import { EngineFactsService, type MeasurementPoint } from './engine-facts.servic
 import { InspectionsService } from './inspections.service.js';
 import { WorkRecordsService } from './work-records.service.js';
 import { RunStatsService } from './run-stats.service.js';
-import { IndicatedPowerSource } from './indicated-power.source.js';
+import { MaintenanceIndicatedPowerSource } from './maintenance-indicated-power.source.js';
 
 /** Band half-width in standard deviations and the margin above it (°F of rise) that flags drift. */
 export const DRIFT_SETTINGS = { bandK: 2, marginF: 5 } as const;
@@ -99,7 +99,7 @@ export class BearingHistoryService {
     private readonly alarms: AlarmsService,
     private readonly inspections: InspectionsService,
     private readonly work: WorkRecordsService,
-    private readonly ihp: IndicatedPowerSource,
+    private readonly ihp: MaintenanceIndicatedPowerSource,
   ) {}
 
   /** What every bearing of an engine shares: its points, started runs (oldest first) and their indicated power. */
