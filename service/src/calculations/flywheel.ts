@@ -104,7 +104,8 @@ export function surplusPowerW(p: { indicatedHp: number; mechanicalEfficiency: nu
   assertNonNegative('indicatedHp', p.indicatedHp);
   assertNonNegative('baseLoadHp', p.baseLoadHp);
   assertFinite('mechanicalEfficiency', p.mechanicalEfficiency);
-  if (p.mechanicalEfficiency <= 0 || p.mechanicalEfficiency > 1) throw new CalculationInputError(null, 'mechanicalEfficiency must be in (0, 1]');
+  if (p.mechanicalEfficiency <= 0 || p.mechanicalEfficiency > 1)
+    throw new CalculationInputError(null, 'mechanicalEfficiency must be in (0, 1]');
   return (p.indicatedHp * p.mechanicalEfficiency - p.baseLoadHp) * WATTS_PER_HP;
 }
 

@@ -115,7 +115,8 @@ export function maintenanceDue(
   assertFinite('current.runHours', current.runHours);
   assertFinite('current.revolutions', current.revolutions);
   if (current.runHours < lastDone.runHours) throw new CalculationInputError(null, 'run-hour counter is below its value when last done');
-  if (current.revolutions < lastDone.revolutions) throw new CalculationInputError(null, 'revolution counter is below its value when last done');
+  if (current.revolutions < lastDone.revolutions)
+    throw new CalculationInputError(null, 'revolution counter is below its value when last done');
   const o = {
     dueSoonFraction: options.dueSoonFraction ?? DEFAULT_DUE_SOON_FRACTION,
     dueSoonDays: options.dueSoonDays ?? DEFAULT_DUE_SOON_DAYS,
@@ -186,7 +187,8 @@ export function resetFromWorkRecord(record: {
   assertDate('completedAt', record.completedAt);
   assertFinite('runHoursAtCompletion', record.runHoursAtCompletion);
   assertFinite('revolutionsAtCompletion', record.revolutionsAtCompletion);
-  if (record.runHoursAtCompletion < 0 || record.revolutionsAtCompletion < 0) throw new CalculationInputError(null, 'counters cannot be negative');
+  if (record.runHoursAtCompletion < 0 || record.revolutionsAtCompletion < 0)
+    throw new CalculationInputError(null, 'counters cannot be negative');
   return {
     runHours: record.runHoursAtCompletion,
     revolutions: record.revolutionsAtCompletion,

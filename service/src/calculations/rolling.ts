@@ -72,7 +72,8 @@ export function passGeometry(p: {
   assertPositive('entryWidthMm', p.entryWidthMm);
   const exitWidthMm = p.exitWidthMm ?? p.entryWidthMm;
   assertPositive('exitWidthMm', exitWidthMm);
-  if (p.exitThicknessMm >= p.entryThicknessMm) throw new CalculationInputError(
+  if (p.exitThicknessMm >= p.entryThicknessMm)
+    throw new CalculationInputError(
       null,
       'exitThicknessMm must be less than entryThicknessMm',
       'The exit height must be less than the entry height: a pass has to reduce the bar (turn the bar, or check the sizes).',

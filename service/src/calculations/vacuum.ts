@@ -22,7 +22,8 @@ export const PSI_PER_INCH_OF_MERCURY = KPA_PER_INCH_OF_MERCURY / KPA_PER_PSI;
  */
 export function vacuumInHgToPsia(vacuumInHg: number, atmosphericPsia = STANDARD_ATMOSPHERE_PSI): number {
   if (!Number.isFinite(vacuumInHg) || vacuumInHg < 0) throw new CalculationInputError(null, 'vacuumInHg must be a number of at least 0');
-  if (!(Number.isFinite(atmosphericPsia) && atmosphericPsia > 0)) throw new CalculationInputError(null, 'atmosphericPsia must be greater than zero');
+  if (!(Number.isFinite(atmosphericPsia) && atmosphericPsia > 0))
+    throw new CalculationInputError(null, 'atmosphericPsia must be greater than zero');
   const absolutePsia = atmosphericPsia - vacuumInHg * PSI_PER_INCH_OF_MERCURY;
   if (absolutePsia <= 0) throw new CalculationInputError(null, 'vacuumInHg is deeper than the atmosphere allows');
   return absolutePsia;

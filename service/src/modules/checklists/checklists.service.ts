@@ -581,8 +581,10 @@ export class ChecklistsService {
       if (user.role !== 'chief_engineer')
         throw new ConflictException(
           it.kind === 'reading'
-            ? `${it.label}: ${next.value} ${unitText(it.unit)} is outside the acceptance range (${rangeText(it)}). Only the chief engineer can amend it to that, recording an override with a reason.`
-            : `${it.label}: "${next.choice}" is not acceptable. Only the chief engineer can amend it to that, recording an override with a reason.`,
+            ? `${it.label}: ${next.value} ${unitText(it.unit)} is outside the acceptance range (${rangeText(it)}). ` +
+                'Only the chief engineer can amend it to that, recording an override with a reason.'
+            : `${it.label}: "${next.choice}" is not acceptable. ` +
+                'Only the chief engineer can amend it to that, recording an override with a reason.',
         );
       if (!dto.overrideReason?.trim()) throw new BadRequestException('overrideReason must say why the out-of-range value is acceptable');
     }

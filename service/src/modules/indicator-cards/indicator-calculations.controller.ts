@@ -21,10 +21,12 @@ export class IndicatorCalculationsController {
   @ApiOperation({
     summary: 'Indicated power of a set of cards',
     description:
-      'Each card gives exactly one of: meanEffectivePressurePsi; areaSqIn with lengthIn and springPsiPerIn; ordinatesIn with springPsiPerIn. ' +
+      'Each card gives exactly one of: meanEffectivePressurePsi; areaSqIn with lengthIn and springPsiPerIn; ' +
+      'ordinatesIn with springPsiPerIn. ' +
       'IHP per end = P·L·A·N/33,000 (head end less any tail rod, crank end less the piston rod, N = rpm); ' +
       "referredMeanEffectivePressurePsi refers every cylinder's work to the largest cylinder's area. " +
-      'A card with two ways or none, a non-positive dimension, a rod not smaller than its bore or two cards for one end answers 400 naming the field.',
+      'A card with two ways or none, a non-positive dimension, a rod not smaller than its bore or two cards for one end ' +
+      'answers 400 naming the field.',
   })
   @ApiOkResponse({ type: IndicatedPowerResponseDto })
   @ApiBadRequestResponse({ description: 'The body is not valid; the message names the field, e.g. "cylinders[0].cards[1].areaSqIn: …".' })

@@ -16,7 +16,12 @@ import { IndicatorCalculationsController } from './indicator-calculations.contro
 
 /** Indicator cards and indicated power: card sets of a run, traced images, brake figures, the calculator route. */
 @Module({
-  imports: [TypeOrmModule.forFeature([CardSet, IndicatorCard, CardImage, BrakeFigure, CardRecordAmendment]), RunsModule, EnginesModule, UsersModule],
+  imports: [
+    TypeOrmModule.forFeature([CardSet, IndicatorCard, CardImage, BrakeFigure, CardRecordAmendment]),
+    RunsModule,
+    EnginesModule,
+    UsersModule,
+  ],
   providers: [CardSetsService, CardImagesService, BrakeFiguresService],
   controllers: [CardSetsController, IndicatorCalculationsController],
   exports: [CardSetsService, CardImagesService],

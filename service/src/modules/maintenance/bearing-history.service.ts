@@ -40,7 +40,8 @@ export function historyRuleText(measure: LoadMeasure): string {
       loadName: LOAD_NAME[measure],
       loadUnit: LOAD_UNIT[measure],
     }) +
-    ' Rise above ambient is the run\u2019s peak bearing temperature less its mean ambient temperature. Each run is judged against the runs before it; ' +
+    ' Rise above ambient is the run\u2019s peak bearing temperature less its mean ambient temperature.' +
+    ' Each run is judged against the runs before it; ' +
     'a run already flagged is left out of the band for the runs after it, so one hot run does not hide the next.'
   );
 }
@@ -246,7 +247,10 @@ export class BearingHistoryService {
         type: 'run' as const,
         id: r.runId,
         title: r.title,
-        detail: `Peak ${f1(r.peakTemperature)} ${r.unit === 'degC' ? '\u00b0C' : '\u00b0F'}, rise ${f1(r.riseAtPeakF)} \u00b0F${r.alarms.length ? `, ${r.alarms.length} alarm${r.alarms.length > 1 ? 's' : ''}` : ''}${r.drift?.flagged ? ' \u2014 drift' : ''}`,
+        detail:
+          `Peak ${f1(r.peakTemperature)} ${r.unit === 'degC' ? '\u00b0C' : '\u00b0F'}, rise ${f1(r.riseAtPeakF)} \u00b0F` +
+          `${r.alarms.length ? `, ${r.alarms.length} alarm${r.alarms.length > 1 ? 's' : ''}` : ''}` +
+          `${r.drift?.flagged ? ' \u2014 drift' : ''}`,
         attention: !!r.drift?.flagged,
       })),
       ...inspections.map((i) => ({

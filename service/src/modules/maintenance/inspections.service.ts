@@ -71,7 +71,8 @@ export class InspectionsService {
     if (!rows.length) return [];
     const ids = rows.map((r) => r.id);
     const counts: { inspection_id: string; n: number; out: number }[] = await this.db.query(
-      `SELECT inspection_id, count(*)::int AS n, count(*) FILTER (WHERE out_of_tolerance)::int AS out FROM inspection_measurements WHERE inspection_id = ANY($1) GROUP BY inspection_id`,
+      'SELECT inspection_id, count(*)::int AS n, count(*) FILTER (WHERE out_of_tolerance)::int AS out ' +
+        'FROM inspection_measurements WHERE inspection_id = ANY($1) GROUP BY inspection_id',
       [ids],
     );
     const files: { inspection_id: string; n: number }[] = await this.db.query(

@@ -12,13 +12,13 @@ import { barLengthM, sectionAreaMm2 } from '../../calculations/rolling.js';
 import type { Engine } from '../engines/engine.entity.js';
 import { User } from '../users/user.entity.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
+import { CalculationInputError } from '../../calculations/errors.js';
 import { PassSchedule } from './pass-schedule.entity.js';
 import { SchedulePass } from './schedule-pass.entity.js';
 import { CustomerLot } from './customer-lot.entity.js';
 import type { Mill } from './mill.entity.js';
 import { MillService } from './mill.service.js';
 import { calculatePass, passErrorMessage } from './pass-calculation.js';
-import { CalculationInputError } from '../../calculations/errors.js';
 
 /** What a plan assumes where the run will tell the truth later. */
 function planAssumptions(mill: Mill, engine: Engine): string[] {
