@@ -1,7 +1,7 @@
 import { Injectable, NotFoundException } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, In, type EntityManager } from 'typeorm';
-import type { BrakeFigureDto, BrakeFigureInput, RecordAmendmentDto } from '@crankjournal/shared-types';
+import type { BrakeFigureDto, BrakeFigureInput } from '@crankjournal/shared-types';
 import { UsersService } from '../users/users.service.js';
 import {
   CalculationInputError,
@@ -11,6 +11,7 @@ import {
 } from '../../calculations/indicated-power.js';
 import { hpToKw } from '../../calculations/units.js';
 import { CardRecordAmendment } from './card-record-amendment.entity.js';
+import { amendmentsBySubject } from './card-set-amendments.js';
 import { BrakeFigure } from './brake-figure.entity.js';
 
 /** A brake figure is compared with card sets taken no further than this from it. */
@@ -104,19 +105,7 @@ export class BrakeFiguresService {
     });
     const ids = [...new Set([...figures.map((f) => f.createdBy), ...amendments.map((a) => a.byUser)])];
     const name = await this.users.displayNames(ids);
-    const byFigure = new Map<string, RecordAmendmentDto[]>();
-    for (const a of amendments) {
-      const list = byFigure.get(a.subjectId) ?? [];
-      list.push({
-        id: a.id,
-        reason: a.reason,
-        by: a.byUser,
-        byName: name.get(a.byUser) ?? 'unknown',
-        at: a.at.toISOString(),
-        changes: a.changes,
-      });
-      byFigure.set(a.subjectId, list);
-    }
+    const byFigure = amendmentsBySubject(amendments, name);
     return figures.map((f) => ({
       id: f.id,
       runId: f.runId,

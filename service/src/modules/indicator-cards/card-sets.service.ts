@@ -1,6 +1,6 @@
 import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
-import { DataSource, In, type EntityManager } from 'typeorm';
+import { DataSource, type EntityManager } from 'typeorm';
 import {
   CARD_RECORD_KINDS,
   type AmendBrakeFigureRequest,
@@ -8,29 +8,26 @@ import {
   type AmendCardSetRequest,
   type BrakeFigureDto,
   type BrakeFigureInput,
-  type CardDto,
   type CardInput,
   type CardSetCylinder,
   type CardSetDto,
   type CardSetPreviewDto,
   type CreateCardSetRequest,
-  type FieldChange,
   type FigureSource,
   type MeasurementKind,
-  type RecordAmendmentDto,
 } from '@crankjournal/shared-types';
 import { RunsService } from '../runs/runs.service.js';
 import { ReadingsService } from '../runs/readings.service.js';
 import type { GateRule } from '../runs/start-gate.service.js';
 import { EnginesService } from '../engines/engines.service.js';
 import { LiveService } from '../live/live.service.js';
-import { UsersService } from '../users/users.service.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
-import { KPA_PER_PSI, psiaToPsig } from '../../calculations/units.js';
-import { KPA_PER_INCH_OF_MERCURY } from '../../calculations/vacuum.js';
 import { CYLINDER_END_WORDS, computeCardSetResults, evaluateCard, type EvaluatedCard, type ResultCard } from './card-set-results.js';
 import { BRAKE_FIELDS, BrakeFiguresService, brakeFigureFields } from './brake-figures.service.js';
-import { CardRecordAmendment, type AmendedSubject } from './card-record-amendment.entity.js';
+import { CARD_FIELDS, SET_FIELDS, changesBetween } from './card-set-diff.js';
+import { asInHg, asPsig } from './card-set-units.js';
+import { recordAmendment } from './card-set-amendments.js';
+import { CardSetMapper } from './card-set-mapper.js';
 import { BrakeFigure } from './brake-figure.entity.js';
 import { CardImage } from './card-image.entity.js';
 import { IndicatorCard } from './indicator-card.entity.js';
@@ -40,78 +37,6 @@ import { CardSet } from './card-set.entity.js';
 export const NEAREST_READING_WINDOW_MS = 30 * 60_000;
 /** A set may be stamped at most this far ahead of the server's clock (a tablet's clock drift). */
 const MAX_FUTURE_MS = 5 * 60_000;
-
-/** The figures of a card that an amendment compares. */
-const CARD_FIELDS = [
-  'method',
-  'springPsiPerIn',
-  'lengthIn',
-  'areaSqIn',
-  'ordinatesIn',
-  'givenMeanEffectivePressurePsi',
-  'imageId',
-  'trace',
-  'cutOffPercent',
-  'compressionPercent',
-  'admissionPressurePsig',
-  'note',
-  'meanEffectivePressurePsi',
-] as const;
-const SET_FIELDS = [
-  'takenAt',
-  'speedRpm',
-  'speedSource',
-  'cutOffPercent',
-  'throttlePressurePsig',
-  'receiverPressurePsig',
-  'vacuumInHg',
-  'notes',
-] as const;
-
-/** JSON with object keys in order (jsonb keeps its own key order, so plain JSON.stringify would see changes that are not). */
-function stableJson(v: unknown): string {
-  if (Array.isArray(v)) return `[${v.map(stableJson).join(',')}]`;
-  if (v && typeof v === 'object') {
-    const o = v as Record<string, unknown>;
-    return `{${Object.keys(o)
-      .filter((k) => o[k] !== undefined)
-      .sort()
-      .map((k) => `${JSON.stringify(k)}:${stableJson(o[k])}`)
-      .join(',')}}`;
-  }
-  return JSON.stringify(v ?? null);
-}
-const same = (a: unknown, b: unknown) => stableJson(a ?? null) === stableJson(b ?? null);
-const plain = (v: unknown) => (v instanceof Date ? v.toISOString() : (v ?? null));
-
-/** The fields that differ between two records, as stored. */
-export function changesBetween<T extends object>(before: T, after: Partial<T>, fields: readonly (keyof T & string)[]): FieldChange[] {
-  return fields
-    .filter((f) => f in after && !same(plain(before[f]), plain(after[f])))
-    .map((f) => ({ field: f, from: plain(before[f]), to: plain(after[f]) }));
-}
-
-/** A reading's value on the psi gauge basis (pressure points may be logged in other units). */
-function asPsig(value: number, unit: string): number | null {
-  switch (unit) {
-    case 'psig':
-    case 'psi':
-      return value;
-    case 'psia':
-      return psiaToPsig(value);
-    case 'kPa':
-      return value / KPA_PER_PSI;
-    case 'bar':
-      return (value * 100) / KPA_PER_PSI;
-    default:
-      return null;
-  }
-}
-function asInHg(value: number, unit: string): number | null {
-  if (unit === 'inHg') return value;
-  if (unit === 'kPa') return value / KPA_PER_INCH_OF_MERCURY;
-  return null;
-}
 
 interface PreparedCard {
   input: CardInput;
@@ -152,7 +77,7 @@ export class CardSetsService {
     private readonly engines: EnginesService,
     private readonly live: LiveService,
     private readonly brakes: BrakeFiguresService,
-    private readonly users: UsersService,
+    private readonly mapper: CardSetMapper,
   ) {}
 
   // ------------------------------------------------------------------------------------------
@@ -162,11 +87,11 @@ export class CardSetsService {
   async list(runId: string): Promise<CardSetDto[]> {
     await this.runs.get(runId);
     const sets = await this.db.getRepository(CardSet).find({ where: { runId }, order: { takenAt: 'ASC', createdAt: 'ASC' } });
-    return this.toDtos(sets);
+    return this.mapper.toDtos(sets);
   }
 
   async get(id: string): Promise<CardSetDto> {
-    const [dto] = await this.toDtos([await this.load(id)]);
+    const [dto] = await this.mapper.toDtos([await this.load(id)]);
     return dto;
   }
 
@@ -525,7 +450,7 @@ export class CardSetsService {
       const cards = await m.find(IndicatorCard, { where: { cardSetId: set0.id } });
       const results = await this.recompute(m, set!, cards);
       changes.push({ field: 'totalIndicatedHorsepower', from: before, to: results.totalIndicatedHorsepower });
-      await this.recordAmendment(m, 'card', cardId, set0.runId, changes, reason, user.id, opts.at);
+      await recordAmendment(m, 'card', cardId, set0.runId, changes, reason, user.id, opts.at);
     });
     return this.broadcast(set0.id);
   }
@@ -575,7 +500,7 @@ export class CardSetsService {
       await m.update(CardSet, { id: setId }, patch);
       const results = await this.recompute(m, set!, await m.find(IndicatorCard, { where: { cardSetId: setId } }));
       changes.push({ field: 'totalIndicatedHorsepower', from: before, to: results.totalIndicatedHorsepower });
-      await this.recordAmendment(m, 'card_set', setId, set0.runId, changes, dto.reason, user.id);
+      await recordAmendment(m, 'card_set', setId, set0.runId, changes, dto.reason, user.id);
     });
     return this.broadcast(setId);
   }
@@ -588,22 +513,6 @@ export class CardSetsService {
     );
     await m.update(CardSet, { id: set.id }, { results });
     return results;
-  }
-
-  private async recordAmendment(
-    m: EntityManager,
-    subjectType: AmendedSubject,
-    subjectId: string,
-    runId: string,
-    changes: FieldChange[],
-    reason: string,
-    byUser: string,
-    at = new Date(),
-  ) {
-    await m.save(
-      CardRecordAmendment,
-      m.create(CardRecordAmendment, { subjectType, subjectId, runId, changes, reason: reason.trim(), byUser, at }),
-    );
   }
 
   // ------------------------------------------------------------------------------------------
@@ -650,7 +559,7 @@ export class CardSetsService {
       const changes = changesBetween(cur!, next, BRAKE_FIELDS);
       if (!changes.length) throw new BadRequestException('Nothing would change: the figures given are the ones recorded.');
       await m.update(BrakeFigure, { id }, next);
-      await this.recordAmendment(m, 'brake_figure', id, f0.runId, changes, reason, user.id);
+      await recordAmendment(m, 'brake_figure', id, f0.runId, changes, reason, user.id);
     });
     await this.recomputeRun(f0.runId);
     const [out] = await this.brakes.toDtos([await this.brakes.get(id)]);
@@ -678,92 +587,5 @@ export class CardSetsService {
     const dto = await this.get(setId);
     this.live.emitToRoom(`run:${dto.runId}`, 'run:record', { runId: dto.runId, kind: CARD_RECORD_KINDS.cardSet, id: dto.id, data: dto });
     return dto;
-  }
-
-  private async toDtos(sets: CardSet[]): Promise<CardSetDto[]> {
-    if (!sets.length) return [];
-    const cards = await this.db
-      .getRepository(IndicatorCard)
-      .find({ where: { cardSetId: In(sets.map((s) => s.id)) }, order: { createdAt: 'ASC' } });
-    const amendments = await this.db.getRepository(CardRecordAmendment).find({
-      where: [
-        { subjectType: 'card_set', subjectId: In(sets.map((s) => s.id)) },
-        ...(cards.length ? [{ subjectType: 'card' as const, subjectId: In(cards.map((c) => c.id)) }] : []),
-      ],
-      order: { at: 'ASC' },
-    });
-    const userIds = [...new Set([...sets.map((s) => s.createdBy), ...cards.map((c) => c.createdBy), ...amendments.map((a) => a.byUser)])];
-    const name = await this.users.displayNames(userIds);
-    const bySubject = new Map<string, RecordAmendmentDto[]>();
-    for (const a of amendments) {
-      const list = bySubject.get(a.subjectId) ?? [];
-      list.push({
-        id: a.id,
-        reason: a.reason,
-        by: a.byUser,
-        byName: name.get(a.byUser) ?? 'unknown',
-        at: a.at.toISOString(),
-        changes: a.changes,
-      });
-      bySubject.set(a.subjectId, list);
-    }
-    const endOrder = { head: 0, crank: 1 } as const;
-    return sets.map((s) => {
-      const position = new Map(s.cylinders.map((c, i) => [c.label, i]));
-      const mine: CardDto[] = cards
-        .filter((c) => c.cardSetId === s.id)
-        .sort((a, b) => (position.get(a.cylinderLabel) ?? 99) - (position.get(b.cylinderLabel) ?? 99) || endOrder[a.end] - endOrder[b.end])
-        .map((c) => ({
-          id: c.id,
-          cardSetId: c.cardSetId,
-          cylinderId: c.cylinderId,
-          cylinderLabel: c.cylinderLabel,
-          end: c.end,
-          method: c.method,
-          springPsiPerIn: c.springPsiPerIn,
-          lengthIn: c.lengthIn,
-          areaSqIn: c.areaSqIn,
-          ordinatesIn: c.ordinatesIn,
-          givenMeanEffectivePressurePsi: c.givenMeanEffectivePressurePsi,
-          imageId: c.imageId,
-          trace: c.trace,
-          cutOffPercent: c.cutOffPercent,
-          compressionPercent: c.compressionPercent,
-          admissionPressurePsig: c.admissionPressurePsig,
-          note: c.note,
-          meanHeightIn: c.meanHeightIn,
-          meanEffectivePressurePsi: c.meanEffectivePressurePsi,
-          tracedAreaSqIn: c.tracedAreaSqIn,
-          outline: c.outline,
-          createdBy: c.createdBy,
-          createdByName: name.get(c.createdBy) ?? 'unknown',
-          createdAt: c.createdAt.toISOString(),
-          amendments: bySubject.get(c.id) ?? [],
-        }));
-      return {
-        id: s.id,
-        runId: s.runId,
-        engineId: s.engineId,
-        takenAt: s.takenAt.toISOString(),
-        speedRpm: s.speedRpm,
-        speedSource: s.speedSource,
-        speedReadingAt: s.speedReadingAt?.toISOString() ?? null,
-        cutOffPercent: s.cutOffPercent,
-        throttlePressurePsig: s.throttlePressurePsig,
-        throttleSource: s.throttleSource,
-        receiverPressurePsig: s.receiverPressurePsig,
-        receiverSource: s.receiverSource,
-        vacuumInHg: s.vacuumInHg,
-        vacuumSource: s.vacuumSource,
-        notes: s.notes,
-        cylinders: s.cylinders,
-        cards: mine,
-        results: s.results,
-        createdBy: s.createdBy,
-        createdByName: name.get(s.createdBy) ?? 'unknown',
-        createdAt: s.createdAt.toISOString(),
-        amendments: bySubject.get(s.id) ?? [],
-      };
-    });
   }
 }

@@ -9,6 +9,7 @@ import { CardImage } from './card-image.entity.js';
 import { BrakeFigure } from './brake-figure.entity.js';
 import { CardRecordAmendment } from './card-record-amendment.entity.js';
 import { CardSetsService } from './card-sets.service.js';
+import { CardSetMapper } from './card-set-mapper.js';
 import { CardImagesService } from './card-images.service.js';
 import { BrakeFiguresService } from './brake-figures.service.js';
 import { CardSetsController } from './card-sets.controller.js';
@@ -22,7 +23,7 @@ import { IndicatorCalculationsController } from './indicator-calculations.contro
     EnginesModule,
     UsersModule,
   ],
-  providers: [CardSetsService, CardImagesService, BrakeFiguresService],
+  providers: [CardSetsService, CardSetMapper, CardImagesService, BrakeFiguresService],
   controllers: [CardSetsController, IndicatorCalculationsController],
   exports: [CardSetsService, CardImagesService],
 })
