@@ -1,6 +1,6 @@
 import { Injectable, NotFoundException } from '@nestjs/common';
-import { InjectDataSource } from '@nestjs/typeorm';
-import { DataSource, In, type EntityManager } from 'typeorm';
+import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
+import { DataSource, Repository, In, type EntityManager } from 'typeorm';
 import type { BrakeFigureDto, BrakeFigureInput } from '@crankjournal/shared-types';
 import { UsersService } from '../users/users.service.js';
 import {
@@ -74,6 +74,7 @@ export function brakeFigureFields(input: BrakeFigureInput) {
 export class BrakeFiguresService {
   constructor(
     @InjectDataSource() private readonly db: DataSource,
+    @InjectRepository(CardRecordAmendment) private readonly cardRecordAmendmentRepo: Repository<CardRecordAmendment>,
     private readonly users: UsersService,
   ) {}
 
@@ -99,7 +100,7 @@ export class BrakeFiguresService {
 
   async toDtos(figures: BrakeFigure[]): Promise<BrakeFigureDto[]> {
     if (!figures.length) return [];
-    const amendments = await this.db.getRepository(CardRecordAmendment).find({
+    const amendments = await this.cardRecordAmendmentRepo.find({
       where: { subjectType: 'brake_figure', subjectId: In(figures.map((f) => f.id)) },
       order: { at: 'ASC' },
     });

@@ -1,6 +1,6 @@
 import { BadRequestException, ConflictException, ForbiddenException, Injectable, NotFoundException } from '@nestjs/common';
-import { InjectDataSource } from '@nestjs/typeorm';
-import { DataSource, IsNull, type EntityManager } from 'typeorm';
+import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
+import { DataSource, Repository, IsNull, type EntityManager } from 'typeorm';
 import {
   DUTIES,
   QUALIFICATION_EXPIRY_WARNING_DAYS,
@@ -31,6 +31,7 @@ const CREW_ROLES = ['chief_engineer', 'operator', 'maintenance_lead', 'mill_lead
 export class QualificationsService {
   constructor(
     @InjectDataSource() private readonly db: DataSource,
+    @InjectRepository(Qualification) private readonly qualificationRepo: Repository<Qualification>,
     private readonly engines: EnginesService,
     private readonly users: UsersService,
   ) {}
@@ -70,7 +71,7 @@ export class QualificationsService {
     duty: Duty,
     at = new Date(),
   ): Promise<QualificationFinding & { qualificationId: string | null }> {
-    const repo = this.db.getRepository(Qualification);
+    const repo = this.qualificationRepo;
     const standing = await repo.findOne({ where: { userId, engineId, duty, withdrawnAt: IsNull() } });
     const q = standing ?? (await repo.findOne({ where: { userId, engineId, duty }, order: { withdrawnAt: 'DESC' } }));
     if (!q) return { status: 'none', qualificationId: null };
@@ -108,13 +109,13 @@ export class QualificationsService {
     if (filter.userId) where.userId = filter.userId;
     if (filter.engineId) where.engineId = filter.engineId;
     if (!filter.includeWithdrawn) where.withdrawnAt = IsNull();
-    const rows = await this.db.getRepository(Qualification).find({ where, order: { expiresOn: 'ASC' }, take: 2000 });
+    const rows = await this.qualificationRepo.find({ where, order: { expiresOn: 'ASC' }, take: 2000 });
     return this.toDtos(rows);
   }
 
   /** A person's own qualifications, standing ones first, then the withdrawn history. */
   async mine(userId: string): Promise<QualificationDto[]> {
-    const rows = await this.db.getRepository(Qualification).find({ where: { userId }, order: { createdAt: 'DESC' } });
+    const rows = await this.qualificationRepo.find({ where: { userId }, order: { createdAt: 'DESC' } });
     const dtos = await this.toDtos(rows);
     return [
       ...dtos.filter((d) => !d.withdrawnAt).sort((a, b) => a.expiresOn.localeCompare(b.expiresOn)),
@@ -126,7 +127,7 @@ export class QualificationsService {
     const engine = await this.engines.get(engineId);
     const today = utcDateOf(new Date());
     const crew = (await this.users.crew()).filter((u) => (CREW_ROLES as readonly string[]).includes(u.role));
-    const rows = await this.db.getRepository(Qualification).find({ where: { engineId, withdrawnAt: IsNull() } });
+    const rows = await this.qualificationRepo.find({ where: { engineId, withdrawnAt: IsNull() } });
     const dtos = await this.toDtos(rows, today);
     const byUser = new Map<string, QualificationDto[]>();
     for (const d of dtos) byUser.set(d.userId, [...(byUser.get(d.userId) ?? []), d]);
