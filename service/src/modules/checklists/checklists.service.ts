@@ -1,6 +1,6 @@
 import { randomUUID } from 'node:crypto';
-import { DataSource, In, type EntityManager } from 'typeorm';
-import { InjectDataSource } from '@nestjs/typeorm';
+import { DataSource, Repository, In, type EntityManager } from 'typeorm';
+import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
 import {
   BadRequestException,
   ConflictException,
@@ -82,6 +82,10 @@ export class ChecklistsService {
 
   constructor(
     @InjectDataSource() private readonly db: DataSource,
+    @InjectRepository(Checklist) private readonly checklistRepo: Repository<Checklist>,
+    @InjectRepository(ChecklistAmendment) private readonly checklistAmendmentRepo: Repository<ChecklistAmendment>,
+    @InjectRepository(ChecklistEntry) private readonly checklistEntryRepo: Repository<ChecklistEntry>,
+    @InjectRepository(ChecklistTemplateVersion) private readonly checklistTemplateVersionRepo: Repository<ChecklistTemplateVersion>,
     private readonly templates: ChecklistTemplatesService,
     private readonly runs: RunsService,
     private readonly engines: EnginesService,
@@ -123,14 +127,13 @@ export class ChecklistsService {
     if (!rows.length) return { summaries: [], entries: new Map(), versions: new Map() };
     const ids = rows.map((c) => c.id);
     const versions = new Map(
-      (
-        await this.db
-          .getRepository(ChecklistTemplateVersion)
-          .find({ where: { id: In([...new Set(rows.map((c) => c.templateVersionId))]) } })
-      ).map((v) => [v.id, v]),
+      (await this.checklistTemplateVersionRepo.find({ where: { id: In([...new Set(rows.map((c) => c.templateVersionId))]) } })).map((v) => [
+        v.id,
+        v,
+      ]),
     );
-    const entries = await this.db.getRepository(ChecklistEntry).find({ where: { checklistId: In(ids) } });
-    const amendments = await this.db.getRepository(ChecklistAmendment).find({ where: { checklistId: In(ids) }, order: { at: 'ASC' } });
+    const entries = await this.checklistEntryRepo.find({ where: { checklistId: In(ids) } });
+    const amendments = await this.checklistAmendmentRepo.find({ where: { checklistId: In(ids) }, order: { at: 'ASC' } });
     const names = await this.names([
       ...rows.flatMap((c) => [c.startedBy, c.signedBy]),
       ...(full ? entries.flatMap((e) => [e.filledBy, e.overrideBy]) : []),
@@ -224,12 +227,12 @@ export class ChecklistsService {
   }
 
   private async summary(id: string): Promise<ChecklistSummary> {
-    const c = await this.db.getRepository(Checklist).findOneOrFail({ where: { id } });
+    const c = await this.checklistRepo.findOneOrFail({ where: { id } });
     return (await this.build([c], false)).summaries[0];
   }
 
   private async runChecklists(runId: string): Promise<ChecklistSummary[]> {
-    const rows = await this.db.getRepository(Checklist).find({ where: { runId }, order: { startedAt: 'ASC' } });
+    const rows = await this.checklistRepo.find({ where: { runId }, order: { startedAt: 'ASC' } });
     return (await this.build(rows, false)).summaries;
   }
 
@@ -306,7 +309,7 @@ export class ChecklistsService {
     const active = await this.templates.activeFor(run.engineId);
     if (!active.some((t) => t.requiredWhen === 'before_start')) return { reasons: [] };
     const engine = await this.engines.get(run.engineId);
-    const rows = await this.db.getRepository(Checklist).find({ where: { runId: run.id } });
+    const rows = await this.checklistRepo.find({ where: { runId: run.id } });
     const { summaries } = await this.build(rows, false);
     const gate = summaries.map((s) => this.gateView(s));
     // Is each signer of the checklists the gate relies on still qualified for its duty?
@@ -463,7 +466,7 @@ export class ChecklistsService {
   async photo(id: string, itemKey: string): Promise<{ body: Buffer; type: string }> {
     const { version } = await this.load(id);
     this.item(version, itemKey);
-    const e = await this.db.getRepository(ChecklistEntry).findOne({ where: { checklistId: id, itemKey } });
+    const e = await this.checklistEntryRepo.findOne({ where: { checklistId: id, itemKey } });
     if (!e?.photoKey) throw new NotFoundException('No photo has been taken for this item.');
     const o = await this.storage.get(e.photoKey);
     return { body: o.body, type: e.photoType ?? o.contentType };

@@ -1,6 +1,6 @@
 import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
-import { InjectDataSource } from '@nestjs/typeorm';
-import { DataSource, type EntityManager } from 'typeorm';
+import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
+import { DataSource, Repository, type EntityManager } from 'typeorm';
 import {
   CARD_RECORD_KINDS,
   type AmendBrakeFigureRequest,
@@ -72,6 +72,10 @@ type Run = Parameters<GateRule['check']>[0];
 export class CardSetsService {
   constructor(
     @InjectDataSource() private readonly db: DataSource,
+    @InjectRepository(BrakeFigure) private readonly brakeFigureRepo: Repository<BrakeFigure>,
+    @InjectRepository(CardImage) private readonly cardImageRepo: Repository<CardImage>,
+    @InjectRepository(CardSet) private readonly cardSetRepo: Repository<CardSet>,
+    @InjectRepository(IndicatorCard) private readonly indicatorCardRepo: Repository<IndicatorCard>,
     private readonly runs: RunsService,
     private readonly readings: ReadingsService,
     private readonly engines: EnginesService,
@@ -86,7 +90,7 @@ export class CardSetsService {
 
   async list(runId: string): Promise<CardSetDto[]> {
     await this.runs.get(runId);
-    const sets = await this.db.getRepository(CardSet).find({ where: { runId }, order: { takenAt: 'ASC', createdAt: 'ASC' } });
+    const sets = await this.cardSetRepo.find({ where: { runId }, order: { takenAt: 'ASC', createdAt: 'ASC' } });
     return this.mapper.toDtos(sets);
   }
 
@@ -156,7 +160,7 @@ export class CardSetsService {
         message: [`${path}.cylinderId: not a cylinder of this run's engine`],
       });
     if (card.imageId) {
-      const image = await this.db.getRepository(CardImage).findOne({ where: { id: card.imageId } });
+      const image = await this.cardImageRepo.findOne({ where: { id: card.imageId } });
       if (!image || image.runId !== run.id) {
         throw new BadRequestException({
           statusCode: 400,
@@ -429,7 +433,7 @@ export class CardSetsService {
     user: AuthUser | { id: string },
     opts: { seed?: boolean; at?: Date } = {},
   ): Promise<CardSetDto> {
-    const card0 = await this.db.getRepository(IndicatorCard).findOne({ where: { id: cardId } });
+    const card0 = await this.indicatorCardRepo.findOne({ where: { id: cardId } });
     if (!card0) throw new NotFoundException('No such card.');
     const set0 = await this.load(card0.cardSetId);
     const run = await this.runs.get(set0.runId);
@@ -528,9 +532,7 @@ export class CardSetsService {
     const run = await this.runs.get(runId);
     if (!opts.seed) this.runs.assertOpen(run);
     const fields = brakeFigureFields(dto);
-    const saved = await this.db
-      .getRepository(BrakeFigure)
-      .save(this.db.getRepository(BrakeFigure).create({ runId, ...fields, createdBy: user.id }));
+    const saved = await this.brakeFigureRepo.save(this.brakeFigureRepo.create({ runId, ...fields, createdBy: user.id }));
     await this.recomputeRun(runId);
     const [out] = await this.brakes.toDtos([saved]);
     this.live.emitToRoom(`run:${runId}`, 'run:record', { runId, kind: CARD_RECORD_KINDS.brakeFigure, id: out.id, data: out });
@@ -569,7 +571,7 @@ export class CardSetsService {
 
   /** Recomputes every set of a run (after its brake figures change) and broadcasts them. */
   private async recomputeRun(runId: string) {
-    const sets = await this.db.getRepository(CardSet).find({ where: { runId } });
+    const sets = await this.cardSetRepo.find({ where: { runId } });
     for (const s of sets) {
       await this.db.transaction(async (m) => {
         const set = await m.findOne(CardSet, { where: { id: s.id }, lock: { mode: 'pessimistic_write' } });
