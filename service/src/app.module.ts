@@ -8,6 +8,7 @@ import { typeOrmOptions } from './database/typeorm-options.js';
 import { JwtAuthGuard } from './common/guards/jwt-auth.guard.js';
 import { RolesGuard } from './common/guards/roles.guard.js';
 import { AllExceptionsFilter } from './common/filters/all-exceptions.filter.js';
+import { CalculationInputFilter } from './common/filters/calculation-input.filter.js';
 import { validationPipe } from './common/pipes/validation.pipe.js';
 import { AuthModule } from './modules/auth/auth.module.js';
 import { UsersModule } from './modules/users/users.module.js';
@@ -54,6 +55,7 @@ import { LubricationModule } from './modules/lubrication/lubrication.module.js';
     { provide: APP_GUARD, useClass: RolesGuard },
     { provide: APP_PIPE, useValue: validationPipe },
     { provide: APP_FILTER, useClass: AllExceptionsFilter },
+    { provide: APP_FILTER, useClass: CalculationInputFilter },
   ],
 })
 export class AppModule {}

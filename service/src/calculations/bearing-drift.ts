@@ -1,4 +1,5 @@
 import { assertFinite } from './input-checks.js';
+import { CalculationInputError } from './errors.js';
 /**
  * Bearing temperature drift: is this run's temperature rise out of line with the bearing's own history
  * at comparable load?
@@ -74,13 +75,13 @@ export function driftRuleText(
 
 /** Fit the normal band to a bearing's earlier runs. */
 export function fitBand(points: DriftPoint[], options: { k?: number; minLoadSpread?: number } = {}): DriftBand {
-  if (points.length === 0) throw new RangeError('at least one earlier run is needed to fit a band');
+  if (points.length === 0) throw new CalculationInputError(null, 'at least one earlier run is needed to fit a band');
   const k = options.k ?? DEFAULT_BAND_K;
   assertFinite('k', k);
-  if (k <= 0) throw new RangeError('k must be greater than zero');
+  if (k <= 0) throw new CalculationInputError(null, 'k must be greater than zero');
   const minLoadSpread = options.minLoadSpread ?? DEFAULT_MIN_LOAD_SPREAD;
   assertFinite('minLoadSpread', minLoadSpread);
-  if (minLoadSpread < 0) throw new RangeError('minLoadSpread must be zero or greater');
+  if (minLoadSpread < 0) throw new CalculationInputError(null, 'minLoadSpread must be zero or greater');
   for (const p of points) {
     assertFinite('load', p.load);
     assertFinite('temperatureRiseF', p.temperatureRiseF);

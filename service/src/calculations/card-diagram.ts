@@ -6,6 +6,7 @@
  * The outline is a closed polygon in card coordinates: stroke fraction across, pressure (psig) up.
  * Pure functions; fractions of the stroke and psi gauge as named.
  */
+import { CalculationInputError } from './errors.js';
 
 export interface CardOutlinePoint {
   /** Position along the stroke, 0 at the admission end of the diagram and 1 at the release end. */
@@ -15,10 +16,10 @@ export interface CardOutlinePoint {
 }
 
 function requireOutline(points: readonly CardOutlinePoint[]): void {
-  if (!Array.isArray(points) || points.length < 3) throw new RangeError('an outline needs at least three points');
+  if (!Array.isArray(points) || points.length < 3) throw new CalculationInputError(null, 'an outline needs at least three points');
   points.forEach((p, i) => {
     if (!Number.isFinite(p?.strokeFraction) || !Number.isFinite(p?.pressurePsig)) {
-      throw new RangeError(`points[${i}] must have finite strokeFraction and pressurePsig`);
+      throw new CalculationInputError(null, `points[${i}] must have finite strokeFraction and pressurePsig`);
     }
   });
 }
@@ -29,7 +30,7 @@ function requireOutline(points: readonly CardOutlinePoint[]): void {
  */
 export function outlineCrossingsPsig(points: readonly CardOutlinePoint[], strokeFraction: number): number[] {
   requireOutline(points);
-  if (!Number.isFinite(strokeFraction)) throw new RangeError('strokeFraction must be a finite number');
+  if (!Number.isFinite(strokeFraction)) throw new CalculationInputError(null, 'strokeFraction must be a finite number');
   const out: number[] = [];
   const n = points.length;
   for (let i = 0; i < n; i++) {

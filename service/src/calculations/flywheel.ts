@@ -12,6 +12,7 @@
  */
 import { WATTS_PER_HP } from './units.js';
 import { assertFinite, assertPositive, assertNonNegative } from './input-checks.js';
+import { CalculationInputError } from './errors.js';
 
 /** Lowest speed after a pass, as a fraction of rated speed, before a warning (common practice, no source; set per engine). */
 export const DEFAULT_MIN_SPEED_FRACTION = 0.9;
@@ -103,7 +104,8 @@ export function surplusPowerW(p: { indicatedHp: number; mechanicalEfficiency: nu
   assertNonNegative('indicatedHp', p.indicatedHp);
   assertNonNegative('baseLoadHp', p.baseLoadHp);
   assertFinite('mechanicalEfficiency', p.mechanicalEfficiency);
-  if (p.mechanicalEfficiency <= 0 || p.mechanicalEfficiency > 1) throw new RangeError('mechanicalEfficiency must be in (0, 1]');
+  if (p.mechanicalEfficiency <= 0 || p.mechanicalEfficiency > 1)
+    throw new CalculationInputError(null, 'mechanicalEfficiency must be in (0, 1]');
   return (p.indicatedHp * p.mechanicalEfficiency - p.baseLoadHp) * WATTS_PER_HP;
 }
 
@@ -152,7 +154,7 @@ export interface PassFlywheelResult extends SpeedAfterDraw {
 export function passFlywheelCheck(p: PassFlywheelInput): PassFlywheelResult {
   assertPositive('ratedSpeedRpm', p.ratedSpeedRpm);
   const minSpeedFraction = p.minSpeedFraction ?? DEFAULT_MIN_SPEED_FRACTION;
-  if (!(minSpeedFraction > 0 && minSpeedFraction <= 1)) throw new RangeError('minSpeedFraction must be in (0, 1]');
+  if (!(minSpeedFraction > 0 && minSpeedFraction <= 1)) throw new CalculationInputError(null, 'minSpeedFraction must be in (0, 1]');
   const inertia = flywheelInertiaKgM2(p.massKg, p.radiusOfGyrationM);
   const durationS = passDurationS(p.barExitLengthM, p.rollSurfaceSpeedMPerS);
   const energyJ = passEnergyJ(p.rollPowerW, durationS);

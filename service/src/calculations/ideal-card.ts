@@ -15,6 +15,7 @@
  *
  * Diagram factor = actual MEP (from the card) ÷ ideal MEP.
  */
+import { CalculationInputError } from './errors.js';
 
 export interface IdealCardInput {
   /** Admission (steam-chest side of the card) pressure, psia. */
@@ -35,10 +36,10 @@ export const IDEAL_CARD_CAUTION =
 function validate(input: IdealCardInput): Required<IdealCardInput> {
   const { admissionPressurePsia: p1, cutoffFraction: k, backPressurePsia: pb } = input;
   const c = input.clearanceFraction ?? 0;
-  if (!(Number.isFinite(p1) && p1 > 0)) throw new RangeError('admissionPressurePsia must be greater than zero');
-  if (!(Number.isFinite(k) && k > 0 && k <= 1)) throw new RangeError('cutoffFraction must be above 0 and at most 1');
-  if (!(Number.isFinite(pb) && pb >= 0)) throw new RangeError('backPressurePsia must not be negative (absolute)');
-  if (!(Number.isFinite(c) && c >= 0)) throw new RangeError('clearanceFraction must not be negative');
+  if (!(Number.isFinite(p1) && p1 > 0)) throw new CalculationInputError(null, 'admissionPressurePsia must be greater than zero');
+  if (!(Number.isFinite(k) && k > 0 && k <= 1)) throw new CalculationInputError(null, 'cutoffFraction must be above 0 and at most 1');
+  if (!(Number.isFinite(pb) && pb >= 0)) throw new CalculationInputError(null, 'backPressurePsia must not be negative (absolute)');
+  if (!(Number.isFinite(c) && c >= 0)) throw new CalculationInputError(null, 'clearanceFraction must not be negative');
   return { admissionPressurePsia: p1, cutoffFraction: k, backPressurePsia: pb, clearanceFraction: c };
 }
 
@@ -56,7 +57,7 @@ export function idealMeanEffectivePressurePsi(input: IdealCardInput): number {
 /** Diagram factor: actual MEP ÷ ideal MEP (a fraction, typically 0.6–0.9). */
 export function diagramFactor(input: { actualMeanEffectivePressurePsi: number; idealMeanEffectivePressurePsi: number }): number {
   if (!(input.idealMeanEffectivePressurePsi > 0)) {
-    throw new RangeError('idealMeanEffectivePressurePsi must be greater than zero');
+    throw new CalculationInputError(null, 'idealMeanEffectivePressurePsi must be greater than zero');
   }
   return input.actualMeanEffectivePressurePsi / input.idealMeanEffectivePressurePsi;
 }
@@ -77,7 +78,7 @@ export interface IdealCardPoint {
 export function idealCardPoints(input: IdealCardInput & { expansionSegments?: number }): IdealCardPoint[] {
   const { admissionPressurePsia: p1, cutoffFraction: k, backPressurePsia: pb, clearanceFraction: c } = validate(input);
   const segments = input.expansionSegments ?? 32;
-  if (!Number.isInteger(segments) || segments < 1) throw new RangeError('expansionSegments must be a positive integer');
+  if (!Number.isInteger(segments) || segments < 1) throw new CalculationInputError(null, 'expansionSegments must be a positive integer');
   const at = (x: number, p: number): IdealCardPoint => ({ strokeFraction: x, volumeFraction: x + c, pressurePsia: p });
   const points: IdealCardPoint[] = [at(0, p1)];
   const chords = k < 1 ? segments : 0; // cut-off at the end of the stroke: no expansion line

@@ -303,7 +303,7 @@ describe('input errors name the field', () => {
       computeIndicatedPower(input);
     } catch (error) {
       expect(error).toBeInstanceOf(CalculationInputError);
-      return (error as CalculationInputError).fieldPath;
+      return (error as CalculationInputError).fieldPath ?? '';
     }
     throw new Error('expected a CalculationInputError');
   }

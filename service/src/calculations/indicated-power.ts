@@ -19,17 +19,9 @@
  */
 import { FT_LBF_PER_MIN_PER_HP, hpToKw } from './units.js';
 import { mepFromOrdinates, mepFromPlanimeter } from './indicator-card.js';
+import { CalculationInputError } from './errors.js';
 
-/** Bad input, with the path of the offending field in the request body (e.g. `cylinders[0].cards[1].areaSqIn`). */
-export class CalculationInputError extends RangeError {
-  constructor(
-    public readonly fieldPath: string,
-    message: string,
-  ) {
-    super(`${fieldPath}: ${message}`);
-    this.name = 'CalculationInputError';
-  }
-}
+export { CalculationInputError };
 
 /** Caution shown beside power and brake figures. */
 export const INDICATED_POWER_CAUTION =
@@ -64,7 +56,7 @@ export function endIndicatedHorsepower(input: {
 
 /** Mechanical efficiency (fraction): brake or measured output horsepower ÷ indicated horsepower. */
 export function mechanicalEfficiency(input: { brakeHorsepower: number; indicatedHorsepower: number }): number {
-  if (!(input.indicatedHorsepower > 0)) throw new RangeError('indicatedHorsepower must be greater than zero');
+  if (!(input.indicatedHorsepower > 0)) throw new CalculationInputError(null, 'indicatedHorsepower must be greater than zero');
   return input.brakeHorsepower / input.indicatedHorsepower;
 }
 
@@ -96,7 +88,7 @@ export function workShareByCylinder(
   cylinders: readonly { label: string; indicatedHorsepower: number }[],
 ): { label: string; share: number }[] {
   const total = cylinders.reduce((sum, c) => sum + c.indicatedHorsepower, 0);
-  if (total === 0) throw new RangeError('total indicated horsepower is zero; shares are undefined');
+  if (total === 0) throw new CalculationInputError(null, 'total indicated horsepower is zero; shares are undefined');
   return cylinders.map((c) => ({ label: c.label, share: c.indicatedHorsepower / total }));
 }
 

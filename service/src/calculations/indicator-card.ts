@@ -11,6 +11,7 @@
  *
  * Pure functions; lengths in inches, pressures in psi. Invalid input throws RangeError.
  */
+import { CalculationInputError } from './errors.js';
 
 /** A point in a plane. In image space x grows to the right and y grows DOWNWARD (pixels). */
 export interface Point {
@@ -25,13 +26,13 @@ export const INDICATOR_CARD_CAUTION =
 
 function requireFinite(value: number, name: string): void {
   if (typeof value !== 'number' || !Number.isFinite(value)) {
-    throw new RangeError(`${name} must be a finite number`);
+    throw new CalculationInputError(null, `${name} must be a finite number`);
   }
 }
 
 function requirePositive(value: number, name: string): void {
   requireFinite(value, name);
-  if (value <= 0) throw new RangeError(`${name} must be greater than zero`);
+  if (value <= 0) throw new CalculationInputError(null, `${name} must be greater than zero`);
 }
 
 /** Mean effective pressure (psi) from a card's mean height (in) and the spring scale (psi per in). */
@@ -44,7 +45,7 @@ export function mepFromMeanHeight(meanHeightIn: number, springPsiPerIn: number):
 /** Mean height (in) of a card from its enclosed area (in²) and its length (in). */
 export function meanHeightFromAreaIn(areaSqIn: number, lengthIn: number): number {
   requireFinite(areaSqIn, 'areaSqIn');
-  if (areaSqIn < 0) throw new RangeError('areaSqIn must not be negative');
+  if (areaSqIn < 0) throw new CalculationInputError(null, 'areaSqIn must not be negative');
   requirePositive(lengthIn, 'lengthIn');
   return areaSqIn / lengthIn;
 }
@@ -65,7 +66,7 @@ export function mepFromPlanimeter(input: { areaSqIn: number; lengthIn: number; s
  * stand half a spacing in from the ends of the diagram (ten is the usual count).
  */
 export function midOrdinateStationsFraction(count: number): number[] {
-  if (!Number.isInteger(count) || count < 2) throw new RangeError('count must be an integer of at least 2');
+  if (!Number.isInteger(count) || count < 2) throw new CalculationInputError(null, 'count must be an integer of at least 2');
   return Array.from({ length: count }, (_, i) => (i + 0.5) / count);
 }
 
@@ -76,7 +77,7 @@ export function midOrdinateStationsFraction(count: number): number[] {
  */
 export function meanHeightFromOrdinatesIn(ordinatesIn: readonly number[]): number {
   if (!Array.isArray(ordinatesIn) || ordinatesIn.length < 2) {
-    throw new RangeError('ordinatesIn needs at least two ordinates');
+    throw new CalculationInputError(null, 'ordinatesIn needs at least two ordinates');
   }
   ordinatesIn.forEach((o, i) => requireFinite(o, `ordinatesIn[${i}]`));
   return ordinatesIn.reduce((sum, o) => sum + o, 0) / ordinatesIn.length;
@@ -94,7 +95,7 @@ export function mepFromOrdinates(input: { ordinatesIn: readonly number[]; spring
  * repeating the first vertex at the end changes nothing.
  */
 export function signedShoelaceArea(points: readonly Point[]): number {
-  if (!Array.isArray(points) || points.length < 3) throw new RangeError('a polygon needs at least three points');
+  if (!Array.isArray(points) || points.length < 3) throw new CalculationInputError(null, 'a polygon needs at least three points');
   let twiceArea = 0;
   for (let i = 0; i < points.length; i++) {
     const a = points[i];
@@ -170,7 +171,7 @@ export interface TraceCalibrationResult {
 }
 
 function requirePoint(p: Point, name: string): void {
-  if (p == null || typeof p !== 'object') throw new RangeError(`${name} must be a point {x, y}`);
+  if (p == null || typeof p !== 'object') throw new CalculationInputError(null, `${name} must be a point {x, y}`);
   requireFinite(p.x, `${name}.x`);
   requireFinite(p.y, `${name}.y`);
 }
@@ -179,12 +180,12 @@ function requirePoint(p: Point, name: string): void {
 export function calibrateTrace(input: TraceCalibrationInput): TraceCalibrationResult {
   const { atmosphericLine, tracePx } = input;
   if (!Array.isArray(atmosphericLine) || atmosphericLine.length !== 2) {
-    throw new RangeError('atmosphericLine needs exactly two points');
+    throw new CalculationInputError(null, 'atmosphericLine needs exactly two points');
   }
   requirePoint(atmosphericLine[0], 'atmosphericLine[0]');
   requirePoint(atmosphericLine[1], 'atmosphericLine[1]');
   requirePositive(input.springPsiPerIn, 'springPsiPerIn');
-  if (!Array.isArray(tracePx) || tracePx.length < 3) throw new RangeError('tracePx needs at least three points');
+  if (!Array.isArray(tracePx) || tracePx.length < 3) throw new CalculationInputError(null, 'tracePx needs at least three points');
   tracePx.forEach((p, i) => requirePoint(p, `tracePx[${i}]`));
 
   // Orient the atmospheric line left to right on screen, so "up" is unambiguous.
@@ -192,8 +193,8 @@ export function calibrateTrace(input: TraceCalibrationInput): TraceCalibrationRe
   const dx = a1.x - a0.x;
   const dy = a1.y - a0.y;
   const lineLengthPx = Math.hypot(dx, dy);
-  if (lineLengthPx === 0) throw new RangeError('atmosphericLine points must differ');
-  if (Math.abs(dy) >= Math.abs(dx)) throw new RangeError('atmosphericLine must be closer to horizontal than vertical');
+  if (lineLengthPx === 0) throw new CalculationInputError(null, 'atmosphericLine points must differ');
+  if (Math.abs(dy) >= Math.abs(dx)) throw new CalculationInputError(null, 'atmosphericLine must be closer to horizontal than vertical');
   const ex = dx / lineLengthPx; // unit vector along the line
   const ey = dy / lineLengthPx;
   // Upward normal in a y-down image: (ey, -ex).
@@ -212,7 +213,7 @@ export function calibrateTrace(input: TraceCalibrationInput): TraceCalibrationRe
   const startAlongPx = endAlong(input.diagramStartPx, 'diagramStartPx');
   const endAlongPx = endAlong(input.diagramEndPx, 'diagramEndPx');
   const extentPx = endAlongPx - startAlongPx;
-  if (extentPx === 0) throw new RangeError('diagramStartPx and diagramEndPx must differ');
+  if (extentPx === 0) throw new CalculationInputError(null, 'diagramStartPx and diagramEndPx must differ');
 
   let horizontalPixelsPerInch: number;
   if (input.pixelsPerInch != null) {
@@ -222,7 +223,7 @@ export function calibrateTrace(input: TraceCalibrationInput): TraceCalibrationRe
     requirePositive(input.cardLengthIn, 'cardLengthIn');
     horizontalPixelsPerInch = Math.abs(extentPx) / input.cardLengthIn;
   } else {
-    throw new RangeError('give cardLengthIn or pixelsPerInch to set the scale');
+    throw new CalculationInputError(null, 'give cardLengthIn or pixelsPerInch to set the scale');
   }
   let verticalPixelsPerInch = horizontalPixelsPerInch;
   if (input.verticalPixelsPerInch != null) {

@@ -8,6 +8,7 @@
 import { KPA_PER_PSI } from './units.js';
 import { brakeHorsepower } from './indicated-power.js';
 import { assertFinite, assertPositive, assertNonNegative } from './input-checks.js';
+import { CalculationInputError } from './errors.js';
 
 /** Offset between the Celsius and kelvin scales. */
 export const KELVIN_OFFSET = 273.15;
@@ -74,7 +75,7 @@ export function waltherFit(p: {
   assertPositive('temperature2K', p.temperature2K);
   assertPositive('viscosity1Cst', p.viscosity1Cst);
   assertPositive('viscosity2Cst', p.viscosity2Cst);
-  if (p.temperature1K === p.temperature2K) throw new RangeError('the two temperatures must differ');
+  if (p.temperature1K === p.temperature2K) throw new CalculationInputError(null, 'the two temperatures must differ');
   const b = (loglog(p.viscosity1Cst) - loglog(p.viscosity2Cst)) / (Math.log10(p.temperature2K) - Math.log10(p.temperature1K));
   const a = loglog(p.viscosity1Cst) + b * Math.log10(p.temperature1K);
   return { a, b };
@@ -106,7 +107,7 @@ export const ISO_VG_GRADES = [2, 3, 5, 7, 10, 15, 22, 32, 46, 68, 100, 150, 220,
  */
 export function isoVgMidpointCst(grade: number): { midpointCst: number; minCst: number; maxCst: number } {
   if (!(ISO_VG_GRADES as readonly number[]).includes(grade)) {
-    throw new RangeError(`ISO VG ${grade} is not an ISO 3448 grade`);
+    throw new CalculationInputError(null, `ISO VG ${grade} is not an ISO 3448 grade`);
   }
   return { midpointCst: grade, minCst: grade * 0.9, maxCst: grade * 1.1 };
 }
@@ -288,7 +289,7 @@ export function liftPressure(p: { loadLbf: number; pocketAreaIn2: number; breaka
   assertPositive('pocketAreaIn2', p.pocketAreaIn2);
   const breakawayFactor = p.breakawayFactor ?? DEFAULT_BREAKAWAY_FACTOR;
   assertFinite('breakawayFactor', breakawayFactor);
-  if (breakawayFactor < 1) throw new RangeError('breakawayFactor must be at least 1');
+  if (breakawayFactor < 1) throw new CalculationInputError(null, 'breakawayFactor must be at least 1');
   const liftPressurePsi = p.loadLbf / p.pocketAreaIn2;
   return {
     liftPressurePsi,
@@ -313,7 +314,7 @@ export function jackCapacityCheck(p: { jackCount: number; jackCapacityShortTons:
 } {
   assertPositive('jackCapacityShortTons', p.jackCapacityShortTons);
   assertPositive('loadLbf', p.loadLbf);
-  if (!Number.isInteger(p.jackCount) || p.jackCount < 1) throw new RangeError('jackCount must be a positive integer');
+  if (!Number.isInteger(p.jackCount) || p.jackCount < 1) throw new CalculationInputError(null, 'jackCount must be a positive integer');
   const requiredMargin = p.requiredMargin ?? DEFAULT_REQUIRED_JACK_MARGIN;
   assertPositive('requiredMargin', requiredMargin);
   const capacityShortTons = p.jackCount * p.jackCapacityShortTons;

@@ -1,4 +1,5 @@
 import { assertFinite } from './input-checks.js';
+import { CalculationInputError } from './errors.js';
 /**
  * When is maintenance due? A plan has intervals by running hours, revolutions and/or calendar days;
  * whichever criterion comes due first governs.
@@ -69,12 +70,12 @@ export interface MaintenanceDueResult {
 const STATUS_RANK: Record<DueStatus, number> = { ok: 0, due_soon: 1, overdue: 2 };
 
 function assertDate(name: string, value: Date): void {
-  if (!(value instanceof Date) || Number.isNaN(value.getTime())) throw new RangeError(`${name} must be a valid date`);
+  if (!(value instanceof Date) || Number.isNaN(value.getTime())) throw new CalculationInputError(null, `${name} must be a valid date`);
 }
 function assertInterval(name: string, value: number | undefined): void {
   if (value === undefined) return;
   assertFinite(name, value);
-  if (value <= 0) throw new RangeError(`${name} must be greater than zero`);
+  if (value <= 0) throw new CalculationInputError(null, `${name} must be greater than zero`);
 }
 
 export function addDays(date: Date, days: number): Date {
@@ -107,14 +108,15 @@ export function maintenanceDue(
   assertInterval('intervalRevolutions', plan.intervalRevolutions);
   assertInterval('intervalDays', plan.intervalDays);
   if (plan.intervalRunHours === undefined && plan.intervalRevolutions === undefined && plan.intervalDays === undefined) {
-    throw new RangeError('a plan needs at least one interval');
+    throw new CalculationInputError(null, 'a plan needs at least one interval');
   }
   assertDate('lastDone.date', lastDone.date);
   assertDate('current.now', current.now);
   assertFinite('current.runHours', current.runHours);
   assertFinite('current.revolutions', current.revolutions);
-  if (current.runHours < lastDone.runHours) throw new RangeError('run-hour counter is below its value when last done');
-  if (current.revolutions < lastDone.revolutions) throw new RangeError('revolution counter is below its value when last done');
+  if (current.runHours < lastDone.runHours) throw new CalculationInputError(null, 'run-hour counter is below its value when last done');
+  if (current.revolutions < lastDone.revolutions)
+    throw new CalculationInputError(null, 'revolution counter is below its value when last done');
   const o = {
     dueSoonFraction: options.dueSoonFraction ?? DEFAULT_DUE_SOON_FRACTION,
     dueSoonDays: options.dueSoonDays ?? DEFAULT_DUE_SOON_DAYS,
@@ -185,7 +187,8 @@ export function resetFromWorkRecord(record: {
   assertDate('completedAt', record.completedAt);
   assertFinite('runHoursAtCompletion', record.runHoursAtCompletion);
   assertFinite('revolutionsAtCompletion', record.revolutionsAtCompletion);
-  if (record.runHoursAtCompletion < 0 || record.revolutionsAtCompletion < 0) throw new RangeError('counters cannot be negative');
+  if (record.runHoursAtCompletion < 0 || record.revolutionsAtCompletion < 0)
+    throw new CalculationInputError(null, 'counters cannot be negative');
   return {
     runHours: record.runHoursAtCompletion,
     revolutions: record.revolutionsAtCompletion,

@@ -1,4 +1,5 @@
 import { assertFinite, assertNonNegative } from './input-checks.js';
+import { CalculationInputError } from './errors.js';
 /**
  * Quote for a customer lot rolled on the mill.
  *
@@ -59,7 +60,7 @@ export function roundToCents(amount: number): number {
 export function stockTonnesRequired(productTonnes: number, yieldLossFraction: number): number {
   assertNonNegative('productTonnes', productTonnes);
   assertFinite('yieldLossFraction', yieldLossFraction);
-  if (yieldLossFraction < 0 || yieldLossFraction >= 1) throw new RangeError('yieldLossFraction must be in [0, 1)');
+  if (yieldLossFraction < 0 || yieldLossFraction >= 1) throw new CalculationInputError(null, 'yieldLossFraction must be in [0, 1)');
   return productTonnes / (1 - yieldLossFraction);
 }
 

@@ -23,6 +23,7 @@ import { WATTS_PER_HP } from './units.js';
 import { celsiusToKelvin } from './lubrication.js';
 import { rpmToRadPerS } from './flywheel.js';
 import { assertFinite, assertPositive, assertNonNegative } from './input-checks.js';
+import { CalculationInputError } from './errors.js';
 
 /** 1 lbf in newtons (exact: 0.45359237 kg × 9.80665 m/s²). */
 export const NEWTONS_PER_LBF = 4.4482216152605;
@@ -71,7 +72,12 @@ export function passGeometry(p: {
   assertPositive('entryWidthMm', p.entryWidthMm);
   const exitWidthMm = p.exitWidthMm ?? p.entryWidthMm;
   assertPositive('exitWidthMm', exitWidthMm);
-  if (p.exitThicknessMm >= p.entryThicknessMm) throw new RangeError('exitThicknessMm must be less than entryThicknessMm');
+  if (p.exitThicknessMm >= p.entryThicknessMm)
+    throw new CalculationInputError(
+      null,
+      'exitThicknessMm must be less than entryThicknessMm',
+      'The exit height must be less than the entry height: a pass has to reduce the bar (turn the bar, or check the sizes).',
+    );
   const draftMm = p.entryThicknessMm - p.exitThicknessMm;
   const rollRadiusMm = p.rollDiameterMm / 2;
   return {
@@ -101,7 +107,7 @@ export function sectionAreaMm2(s: BarSection): number {
   assertPositive('widthMm', s.widthMm);
   if (s.shape === 'rectangle') return s.heightMm * s.widthMm;
   if (s.shape === 'round' || s.shape === 'oval') return (Math.PI * s.heightMm * s.widthMm) / 4;
-  throw new RangeError(`shape must be rectangle, round or oval`);
+  throw new CalculationInputError(null, `shape must be rectangle, round or oval`);
 }
 
 /** Elongation (coefficient of elongation) of a pass: entry area / exit area (constant volume). */
@@ -151,7 +157,7 @@ export function misakaMeanFlowStressMPa(p: {
   assertPositive('strainRatePerS', p.strainRatePerS);
   const c = p.carbonPct;
   const temperatureK = celsiusToKelvin(p.temperatureC);
-  if (temperatureK <= 0) throw new RangeError('temperatureC must be above absolute zero');
+  if (temperatureK <= 0) throw new CalculationInputError(null, 'temperatureC must be above absolute zero');
   const exponent = 0.126 - 1.75 * c + 0.594 * c ** 2 + (2851 + 2968 * c - 1120 * c ** 2) / temperatureK;
   const kgfPerMm2 = Math.exp(exponent) * p.strain ** 0.21 * p.strainRatePerS ** 0.13;
   const r = MISAKA_VALID_RANGE;
@@ -201,7 +207,7 @@ export function rollLoad(p: {
   assertNonNegative('rollSpeedRpm', p.rollSpeedRpm);
   const frictionFactor = p.frictionFactor ?? 1;
   assertFinite('frictionFactor', frictionFactor);
-  if (frictionFactor < 1) throw new RangeError('frictionFactor must be at least 1');
+  if (frictionFactor < 1) throw new CalculationInputError(null, 'frictionFactor must be at least 1');
   const contactLengthM = p.contactLengthMm / 1000;
   // MPa × mm² = N
   const forceN = p.contactLengthMm * p.widthMm * p.meanFlowStressMPa * frictionFactor;

@@ -12,6 +12,7 @@
  * SI inside (K, MPa, m³/kg); imperial wrappers (°F, psia, ft³/lb) for the crew's units.
  */
 import { KPA_PER_PSI, celsiusToFahrenheit, fahrenheitToCelsius } from './units.js';
+import { CalculationInputError } from './errors.js';
 
 /** Caution shown beside steam-property figures. */
 export const STEAM_PROPERTIES_CAUTION =
@@ -47,7 +48,7 @@ const [n1, n2, n3, n4, n5, n6, n7, n8, n9, n10] = N4;
 /** IF97 eq. 30: saturation pressure (MPa) at temperature T (K), 273.15 K ≤ T ≤ 647.096 K. */
 export function saturationPressureMPa(temperatureK: number): number {
   if (!(temperatureK >= SATURATION_TEMPERATURE_MIN_K && temperatureK <= CRITICAL_TEMPERATURE_K)) {
-    throw new RangeError(`temperatureK must be between ${SATURATION_TEMPERATURE_MIN_K} and ${CRITICAL_TEMPERATURE_K}`);
+    throw new CalculationInputError(null, `temperatureK must be between ${SATURATION_TEMPERATURE_MIN_K} and ${CRITICAL_TEMPERATURE_K}`);
   }
   const theta = temperatureK + n9 / (temperatureK - n10);
   const A = theta * theta + n1 * theta + n2;
@@ -59,7 +60,7 @@ export function saturationPressureMPa(temperatureK: number): number {
 /** IF97 eq. 31: saturation temperature (K) at pressure p (MPa), 611.213 Pa ≤ p ≤ 22.064 MPa. */
 export function saturationTemperatureK(pressureMPa: number): number {
   if (!(pressureMPa >= SATURATION_PRESSURE_MIN_MPA && pressureMPa <= CRITICAL_PRESSURE_MPA)) {
-    throw new RangeError(`pressureMPa must be between ${SATURATION_PRESSURE_MIN_MPA} and ${CRITICAL_PRESSURE_MPA}`);
+    throw new CalculationInputError(null, `pressureMPa must be between ${SATURATION_PRESSURE_MIN_MPA} and ${CRITICAL_PRESSURE_MPA}`);
   }
   const beta = Math.pow(pressureMPa, 0.25);
   const E = beta * beta + n3 * beta + n6;
@@ -122,7 +123,7 @@ const REGION2_RESIDUAL: readonly (readonly [number, number, number])[] = [
  * region boundaries beyond requiring positive T and p.
  */
 export function region2SpecificVolumeM3PerKg(temperatureK: number, pressureMPa: number): number {
-  if (!(temperatureK > 0 && pressureMPa > 0)) throw new RangeError('temperatureK and pressureMPa must be positive');
+  if (!(temperatureK > 0 && pressureMPa > 0)) throw new CalculationInputError(null, 'temperatureK and pressureMPa must be positive');
   const pi = pressureMPa; // p* = 1 MPa
   const tauShift = 540 / temperatureK - 0.5;
   let residualGammaPi = 0;
@@ -137,7 +138,7 @@ export function region2SpecificVolumeM3PerKg(temperatureK: number, pressureMPa: 
 export function saturatedVapourSpecificVolumeM3PerKg(pressureMPa: number): number {
   const temperatureK = saturationTemperatureK(pressureMPa);
   if (temperatureK > REGION2_SATURATION_TEMPERATURE_MAX_K) {
-    throw new RangeError('above 623.15 K the saturated vapour lies in IF97 region 3, which is not implemented');
+    throw new CalculationInputError(null, 'above 623.15 K the saturated vapour lies in IF97 region 3, which is not implemented');
   }
   return region2SpecificVolumeM3PerKg(temperatureK, pressureMPa);
 }
@@ -207,10 +208,10 @@ export function steamAccountedForFromSpecificVolumes(input: {
     'indicatedHorsepower',
   ];
   for (const key of positive) {
-    if (!(Number.isFinite(input[key]) && input[key] > 0)) throw new RangeError(`${key} must be greater than zero`);
+    if (!(Number.isFinite(input[key]) && input[key] > 0)) throw new CalculationInputError(null, `${key} must be greater than zero`);
   }
   if (!(Number.isFinite(input.compressionVolumeFt3) && input.compressionVolumeFt3 >= 0)) {
-    throw new RangeError('compressionVolumeFt3 must not be negative');
+    throw new CalculationInputError(null, 'compressionVolumeFt3 must not be negative');
   }
   const steamPerStrokeLb =
     input.expansionVolumeFt3 / input.expansionSpecificVolumeFt3PerLb - input.compressionVolumeFt3 / input.compressionSpecificVolumeFt3PerLb;

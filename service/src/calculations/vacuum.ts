@@ -8,6 +8,7 @@
  * Pure functions; psi and inches of mercury as named.
  */
 import { KPA_PER_PSI, STANDARD_ATMOSPHERE_PSI } from './units.js';
+import { CalculationInputError } from './errors.js';
 
 /** 1 inHg (conventional) in kilopascals (NIST SP 811, 2008, appendix B.8). */
 export const KPA_PER_INCH_OF_MERCURY = 3.386389;
@@ -20,9 +21,10 @@ export const PSI_PER_INCH_OF_MERCURY = KPA_PER_INCH_OF_MERCURY / KPA_PER_PSI;
  * reading, or one deeper than the atmosphere itself.
  */
 export function vacuumInHgToPsia(vacuumInHg: number, atmosphericPsia = STANDARD_ATMOSPHERE_PSI): number {
-  if (!Number.isFinite(vacuumInHg) || vacuumInHg < 0) throw new RangeError('vacuumInHg must be a number of at least 0');
-  if (!(Number.isFinite(atmosphericPsia) && atmosphericPsia > 0)) throw new RangeError('atmosphericPsia must be greater than zero');
+  if (!Number.isFinite(vacuumInHg) || vacuumInHg < 0) throw new CalculationInputError(null, 'vacuumInHg must be a number of at least 0');
+  if (!(Number.isFinite(atmosphericPsia) && atmosphericPsia > 0))
+    throw new CalculationInputError(null, 'atmosphericPsia must be greater than zero');
   const absolutePsia = atmosphericPsia - vacuumInHg * PSI_PER_INCH_OF_MERCURY;
-  if (absolutePsia <= 0) throw new RangeError('vacuumInHg is deeper than the atmosphere allows');
+  if (absolutePsia <= 0) throw new CalculationInputError(null, 'vacuumInHg is deeper than the atmosphere allows');
   return absolutePsia;
 }

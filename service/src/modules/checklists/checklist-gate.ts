@@ -64,7 +64,9 @@ function missingOrUnsigned(
     };
   return {
     code: codes.unsigned,
-    message: `${t.name}: started but not signed (${open.requiredDone} of ${open.requiredItems} required items done). Finish it and sign it ${when}.`,
+    message:
+      `${t.name}: started but not signed (${open.requiredDone} of ${open.requiredItems} required items done). ` +
+      `Finish it and sign it ${when}.`,
     subject: t.name,
   };
 }
@@ -115,7 +117,10 @@ export function evaluateStartChecklists(input: StartChecklistInput): GateVerdict
       if (until.getTime() <= input.now.getTime()) {
         reasons.push({
           code: GATE_REASON_CODES.preLubeStale,
-          message: `The pre-lube sign-off (${t.name}) is ${formatAge(input.now.getTime() - signed.signedAt.getTime())} old; ${input.engineName}'s window is ${input.preLubeFreshnessMinutes} min, because oil drains from under the loaded journals. Pre-lube again and sign a new ${t.name} checklist.`,
+          message:
+            `The pre-lube sign-off (${t.name}) is ${formatAge(input.now.getTime() - signed.signedAt.getTime())} old; ` +
+            `${input.engineName}'s window is ${input.preLubeFreshnessMinutes} min, because oil drains from under the loaded journals. ` +
+            `Pre-lube again and sign a new ${t.name} checklist.`,
           subject: t.name,
         });
       }

@@ -13,7 +13,9 @@ import { ChecklistTemplatesService } from './checklist-templates.service.js';
 import { rangeText, unitText } from './checklist-rules.js';
 
 export const CHECKLIST_SAFETY_NOTE =
-  'Crankjournal aids a qualified crew. It never replaces local boiler and pressure-vessel law, the insurer’s inspections or licensed practice. Lock out the engine before working on it.';
+  'Crankjournal aids a qualified crew. It never replaces local boiler and pressure-vessel law, ' +
+  'the insurer’s inspections or licensed practice. ' +
+  'Lock out the engine before working on it.';
 
 const BOX = 11;
 
@@ -50,8 +52,13 @@ export class ChecklistPdfService {
 
     doc.font('Helvetica-Bold').fontSize(17).text(`${content.name} — ${engine.name}`, left, doc.y, { width });
     doc.font('Helvetica').fontSize(9.5).fillColor('#333');
+    const versionText = published
+      ? `Version ${published.version}, published ${published.publishedAt.toISOString().slice(0, 10)}`
+      : 'DRAFT — not published';
     doc.text(
-      `${published ? `Version ${published.version}, published ${published.publishedAt.toISOString().slice(0, 10)}` : 'DRAFT — not published'} · ${CHECKLIST_PURPOSE_LABELS[content.purpose]} · ${CHECKLIST_REQUIRED_WHEN_LABELS[content.requiredWhen]} · the signer must hold a current ${DUTY_LABELS[content.requiredDuty].toLowerCase()} qualification for this engine.`,
+      `${versionText} · ` +
+        `${CHECKLIST_PURPOSE_LABELS[content.purpose]} · ${CHECKLIST_REQUIRED_WHEN_LABELS[content.requiredWhen]} · ` +
+        `the signer must hold a current ${DUTY_LABELS[content.requiredDuty].toLowerCase()} qualification for this engine.`,
       { width },
     );
     doc.fillColor('black').moveDown(0.6);
@@ -69,7 +76,8 @@ export class ChecklistPdfService {
       .fontSize(8.5)
       .fillColor('#555')
       .text(
-        'Paper copy for when the tablet is not available. Enter every value into Crankjournal afterwards; the start gate only counts checklists signed there.',
+        'Paper copy for when the tablet is not available. Enter every value into Crankjournal afterwards; ' +
+          'the start gate only counts checklists signed there.',
         left,
         doc.y,
         { width },

@@ -166,8 +166,10 @@ export function signBlockers(sections: ChecklistSectionDef[], entries: Map<strin
     else if (isOutOfRange(it, e) && !overrideHolds(it, e)) {
       out.push(
         it.kind === 'reading'
-          ? `${it.label}: ${e!.value} ${unitText(it.unit)} is outside the acceptance range (${rangeText(it)}). Put it right and read again, or the chief engineer records an override with a reason.`
-          : `${it.label}: "${e!.choice}" is not acceptable (acceptable: ${(it.acceptable ?? []).join(', ')}). Put it right, or the chief engineer records an override with a reason.`,
+          ? `${it.label}: ${e!.value} ${unitText(it.unit)} is outside the acceptance range (${rangeText(it)}). ` +
+              'Put it right and read again, or the chief engineer records an override with a reason.'
+          : `${it.label}: "${e!.choice}" is not acceptable (acceptable: ${(it.acceptable ?? []).join(', ')}). ` +
+              'Put it right, or the chief engineer records an override with a reason.',
       );
     }
   }

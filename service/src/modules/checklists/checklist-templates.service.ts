@@ -1,6 +1,6 @@
 import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
-import { InjectDataSource } from '@nestjs/typeorm';
-import { DataSource, In, IsNull, Not, type EntityManager } from 'typeorm';
+import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
+import { DataSource, Repository, IsNull, Not, type EntityManager } from 'typeorm';
 import type {
   ChecklistRequiredWhen,
   ChecklistTemplateContent,
@@ -9,7 +9,7 @@ import type {
   ChecklistTemplateVersionDto,
 } from '@crankjournal/shared-types';
 import { EnginesService } from '../engines/engines.service.js';
-import { User } from '../users/user.entity.js';
+import { UsersService } from '../users/users.service.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { itemsOf, validateTemplateContent } from './checklist-rules.js';
 import { ChecklistTemplate, ChecklistTemplateVersion } from './checklist-template.entity.js';
@@ -47,7 +47,10 @@ export function cleanContent(c: ChecklistTemplateContent): ChecklistTemplateCont
 export class ChecklistTemplatesService {
   constructor(
     @InjectDataSource() private readonly db: DataSource,
+    @InjectRepository(ChecklistTemplate) private readonly checklistTemplateRepo: Repository<ChecklistTemplate>,
+    @InjectRepository(ChecklistTemplateVersion) private readonly checklistTemplateVersionRepo: Repository<ChecklistTemplateVersion>,
     private readonly engines: EnginesService,
+    private readonly users: UsersService,
   ) {}
 
   async get(id: string, m: EntityManager = this.db.manager): Promise<ChecklistTemplate> {
@@ -57,13 +60,13 @@ export class ChecklistTemplatesService {
   }
 
   async versionRow(templateId: string, version: number): Promise<ChecklistTemplateVersion> {
-    const v = await this.db.getRepository(ChecklistTemplateVersion).findOne({ where: { templateId, version } });
+    const v = await this.checklistTemplateVersionRepo.findOne({ where: { templateId, version } });
     if (!v) throw new NotFoundException(`This template has no version ${version}.`);
     return v;
   }
 
   async versionById(id: string): Promise<ChecklistTemplateVersion> {
-    const v = await this.db.getRepository(ChecklistTemplateVersion).findOne({ where: { id } });
+    const v = await this.checklistTemplateVersionRepo.findOne({ where: { id } });
     if (!v) throw new NotFoundException('No such template version.');
     return v;
   }
@@ -73,7 +76,7 @@ export class ChecklistTemplatesService {
     const engineNames = new Map((await this.engines.list()).map((e) => [e.id, e.name]));
     const published = rows.filter((t) => t.currentVersion > 0);
     const versions = published.length
-      ? await this.db.getRepository(ChecklistTemplateVersion).find({
+      ? await this.checklistTemplateVersionRepo.find({
           where: published.map((t) => ({ templateId: t.id, version: t.currentVersion })),
         })
       : [];
@@ -101,7 +104,7 @@ export class ChecklistTemplatesService {
   async list(filter: { engineId?: string }): Promise<ChecklistTemplateSummary[]> {
     const where: Record<string, unknown> = {};
     if (filter.engineId) where.engineId = filter.engineId;
-    const rows = await this.db.getRepository(ChecklistTemplate).find({ where, order: { createdAt: 'ASC' } });
+    const rows = await this.checklistTemplateRepo.find({ where, order: { createdAt: 'ASC' } });
     const order: ChecklistRequiredWhen[] = ['before_start', 'not_required', 'after_stop'];
     return (await this.summaries(rows)).sort(
       (a, b) => Number(a.retired) - Number(b.retired) || order.indexOf(a.requiredWhen) - order.indexOf(b.requiredWhen),
@@ -120,17 +123,14 @@ export class ChecklistTemplatesService {
     };
   }
 
-  private async names(ids: string[]): Promise<Map<string, string>> {
-    const want = [...new Set(ids)];
-    if (!want.length) return new Map();
-    const users = await this.db.getRepository(User).find({ where: { id: In(want) } });
-    return new Map(users.map((u) => [u.id, u.displayName]));
+  private names(ids: string[]): Promise<Map<string, string>> {
+    return this.users.displayNames(ids);
   }
 
   async detail(id: string): Promise<ChecklistTemplateDetail> {
     const t = await this.get(id);
     const [summary] = await this.summaries([t]);
-    const versions = await this.db.getRepository(ChecklistTemplateVersion).find({ where: { templateId: id }, order: { version: 'DESC' } });
+    const versions = await this.checklistTemplateVersionRepo.find({ where: { templateId: id }, order: { version: 'DESC' } });
     const names = await this.names(versions.map((v) => v.publishedBy));
     const cur = versions.find((v) => v.version === t.currentVersion);
     return {
@@ -220,7 +220,7 @@ export class ChecklistTemplatesService {
     if (!t.draft) throw new ConflictException('There is no draft to discard.');
     if (t.currentVersion === 0)
       throw new ConflictException('Nothing is published yet: the draft is all this template has. Retire the template instead.');
-    await this.db.getRepository(ChecklistTemplate).update({ id }, { draft: null, draftUpdatedAt: null });
+    await this.checklistTemplateRepo.update({ id }, { draft: null, draftUpdatedAt: null });
     return this.detail(id);
   }
 
@@ -276,9 +276,10 @@ export class ChecklistTemplatesService {
 
   /** Published, not retired templates of an engine (what the gates and a run's checklists work from). */
   async activeFor(engineId: string): Promise<ChecklistTemplate[]> {
-    return this.db
-      .getRepository(ChecklistTemplate)
-      .find({ where: { engineId, retiredAt: IsNull(), currentVersion: Not(0) }, order: { createdAt: 'ASC' } });
+    return this.checklistTemplateRepo.find({
+      where: { engineId, retiredAt: IsNull(), currentVersion: Not(0) },
+      order: { createdAt: 'ASC' },
+    });
   }
 
   async summariesOf(rows: ChecklistTemplate[]): Promise<ChecklistTemplateSummary[]> {

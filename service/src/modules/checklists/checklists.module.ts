@@ -3,6 +3,7 @@ import { TypeOrmModule } from '@nestjs/typeorm';
 import { EnginesModule } from '../engines/engines.module.js';
 import { RunsModule } from '../runs/runs.module.js';
 import { StartGateService } from '../runs/start-gate.service.js';
+import { UsersModule } from '../users/users.module.js';
 import { QualificationsModule } from '../qualifications/qualifications.module.js';
 import { AuthModule } from '../auth/auth.module.js';
 import { StorageModule } from '../storage/storage.module.js';
@@ -29,6 +30,7 @@ import { ChecklistsController } from './checklists.controller.js';
     AuthModule,
     StorageModule,
     LiveModule,
+    UsersModule,
   ],
   providers: [ChecklistTemplatesService, ChecklistsService, ChecklistPdfService],
   controllers: [ChecklistTemplatesController, ChecklistsController],

@@ -1,6 +1,6 @@
 import { randomUUID } from 'node:crypto';
-import { DataSource, In, type EntityManager } from 'typeorm';
-import { InjectDataSource } from '@nestjs/typeorm';
+import { DataSource, Repository, In, type EntityManager } from 'typeorm';
+import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
 import {
   BadRequestException,
   ConflictException,
@@ -23,17 +23,16 @@ import {
   type RunChecklistTemplateStatus,
 } from '@crankjournal/shared-types';
 import { RunsService } from '../runs/runs.service.js';
-import type { Run } from '../runs/run.entity.js';
+import type { GateRule } from '../runs/start-gate.service.js';
 import { EnginesService } from '../engines/engines.service.js';
 import { QualificationsService } from '../qualifications/qualifications.service.js';
-import { isQualified, qualificationProblem } from '../qualifications/qualification-rules.js';
 import { AuthService } from '../auth/auth.service.js';
 import { StorageService } from '../storage/storage.service.js';
 import { LiveService } from '../live/live.service.js';
-import { User } from '../users/user.entity.js';
+import { UsersService } from '../users/users.service.js';
 import { KeyedMutex } from '../../common/util/keyed-mutex.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
-import { IMAGE_EXTENSIONS, sniffImageType } from './image-type.js';
+import { IMAGE_EXTENSIONS, sniffImageType } from '../../common/util/image-sniff.js';
 import {
   allStartChecklistsSigned,
   evaluateCloseChecklists,
@@ -72,6 +71,9 @@ const toState = (e: ChecklistEntry | undefined): EntryState | undefined =>
   e ? { tick: e.tick, value: e.value, choice: e.choice, text: e.text, hasPhoto: !!e.photoKey, overrideValue: e.overrideValue } : undefined;
 
 /** A run's checklists: started against a template version, filled in any order, signed, amended; and the gate rules built on them. */
+/** A run as the start gate and RunsService hand it over. */
+type Run = Parameters<GateRule['check']>[0];
+
 @Injectable()
 export class ChecklistsService {
   private readonly logger = new Logger('Checklists');
@@ -80,6 +82,10 @@ export class ChecklistsService {
 
   constructor(
     @InjectDataSource() private readonly db: DataSource,
+    @InjectRepository(Checklist) private readonly checklistRepo: Repository<Checklist>,
+    @InjectRepository(ChecklistAmendment) private readonly checklistAmendmentRepo: Repository<ChecklistAmendment>,
+    @InjectRepository(ChecklistEntry) private readonly checklistEntryRepo: Repository<ChecklistEntry>,
+    @InjectRepository(ChecklistTemplateVersion) private readonly checklistTemplateVersionRepo: Repository<ChecklistTemplateVersion>,
     private readonly templates: ChecklistTemplatesService,
     private readonly runs: RunsService,
     private readonly engines: EnginesService,
@@ -87,6 +93,7 @@ export class ChecklistsService {
     private readonly auth: AuthService,
     private readonly storage: StorageService,
     private readonly live: LiveService,
+    private readonly users: UsersService,
   ) {}
 
   // ---- reading -------------------------------------------------------------------------------------
@@ -105,11 +112,8 @@ export class ChecklistsService {
     return it;
   }
 
-  private async names(ids: (string | null | undefined)[]): Promise<Map<string, string>> {
-    const want = [...new Set(ids.filter((x): x is string => !!x))];
-    if (!want.length) return new Map();
-    const users = await this.db.getRepository(User).find({ where: { id: In(want) } });
-    return new Map(users.map((u) => [u.id, u.displayName]));
+  private names(ids: (string | null | undefined)[]): Promise<Map<string, string>> {
+    return this.users.displayNames(ids);
   }
 
   private async build(
@@ -123,14 +127,13 @@ export class ChecklistsService {
     if (!rows.length) return { summaries: [], entries: new Map(), versions: new Map() };
     const ids = rows.map((c) => c.id);
     const versions = new Map(
-      (
-        await this.db
-          .getRepository(ChecklistTemplateVersion)
-          .find({ where: { id: In([...new Set(rows.map((c) => c.templateVersionId))]) } })
-      ).map((v) => [v.id, v]),
+      (await this.checklistTemplateVersionRepo.find({ where: { id: In([...new Set(rows.map((c) => c.templateVersionId))]) } })).map((v) => [
+        v.id,
+        v,
+      ]),
     );
-    const entries = await this.db.getRepository(ChecklistEntry).find({ where: { checklistId: In(ids) } });
-    const amendments = await this.db.getRepository(ChecklistAmendment).find({ where: { checklistId: In(ids) }, order: { at: 'ASC' } });
+    const entries = await this.checklistEntryRepo.find({ where: { checklistId: In(ids) } });
+    const amendments = await this.checklistAmendmentRepo.find({ where: { checklistId: In(ids) }, order: { at: 'ASC' } });
     const names = await this.names([
       ...rows.flatMap((c) => [c.startedBy, c.signedBy]),
       ...(full ? entries.flatMap((e) => [e.filledBy, e.overrideBy]) : []),
@@ -224,12 +227,12 @@ export class ChecklistsService {
   }
 
   private async summary(id: string): Promise<ChecklistSummary> {
-    const c = await this.db.getRepository(Checklist).findOneOrFail({ where: { id } });
+    const c = await this.checklistRepo.findOneOrFail({ where: { id } });
     return (await this.build([c], false)).summaries[0];
   }
 
   private async runChecklists(runId: string): Promise<ChecklistSummary[]> {
-    const rows = await this.db.getRepository(Checklist).find({ where: { runId }, order: { startedAt: 'ASC' } });
+    const rows = await this.checklistRepo.find({ where: { runId }, order: { startedAt: 'ASC' } });
     return (await this.build(rows, false)).summaries;
   }
 
@@ -306,7 +309,7 @@ export class ChecklistsService {
     const active = await this.templates.activeFor(run.engineId);
     if (!active.some((t) => t.requiredWhen === 'before_start')) return { reasons: [] };
     const engine = await this.engines.get(run.engineId);
-    const rows = await this.db.getRepository(Checklist).find({ where: { runId: run.id } });
+    const rows = await this.checklistRepo.find({ where: { runId: run.id } });
     const { summaries } = await this.build(rows, false);
     const gate = summaries.map((s) => this.gateView(s));
     // Is each signer of the checklists the gate relies on still qualified for its duty?
@@ -317,11 +320,8 @@ export class ChecklistsService {
       if (!s) continue;
       const row = rows.find((r) => r.id === s.id)!;
       const duty = summaries.find((x) => x.id === s.id)!.requiredDuty;
-      const f = await this.quals.finding(row.signedBy!, run.engineId, duty, now);
-      signerProblems.set(
-        s.id,
-        isQualified(f.status) ? null : (qualificationProblem(f, duty, engine.name, s.signedByName ?? 'The signer')?.message ?? null),
-      );
+      const problem = await this.quals.problemOf(row.signedBy!, run.engineId, duty, engine.name, s.signedByName ?? 'The signer', now);
+      signerProblems.set(s.id, problem);
     }
     return evaluateStartChecklists({
       templates: this.gateTemplates(active),
@@ -439,7 +439,7 @@ export class ChecklistsService {
   }
 
   async putPhoto(id: string, itemKey: string, body: Buffer, user: AuthUser): Promise<ChecklistDetail> {
-    const type = sniffImageType(body);
+    const type = await sniffImageType(body);
     if (!type)
       throw new HttpException(
         {
@@ -466,7 +466,7 @@ export class ChecklistsService {
   async photo(id: string, itemKey: string): Promise<{ body: Buffer; type: string }> {
     const { version } = await this.load(id);
     this.item(version, itemKey);
-    const e = await this.db.getRepository(ChecklistEntry).findOne({ where: { checklistId: id, itemKey } });
+    const e = await this.checklistEntryRepo.findOne({ where: { checklistId: id, itemKey } });
     if (!e?.photoKey) throw new NotFoundException('No photo has been taken for this item.');
     const o = await this.storage.get(e.photoKey);
     return { body: o.body, type: e.photoType ?? o.contentType };
@@ -584,8 +584,10 @@ export class ChecklistsService {
       if (user.role !== 'chief_engineer')
         throw new ConflictException(
           it.kind === 'reading'
-            ? `${it.label}: ${next.value} ${unitText(it.unit)} is outside the acceptance range (${rangeText(it)}). Only the chief engineer can amend it to that, recording an override with a reason.`
-            : `${it.label}: "${next.choice}" is not acceptable. Only the chief engineer can amend it to that, recording an override with a reason.`,
+            ? `${it.label}: ${next.value} ${unitText(it.unit)} is outside the acceptance range (${rangeText(it)}). ` +
+                'Only the chief engineer can amend it to that, recording an override with a reason.'
+            : `${it.label}: "${next.choice}" is not acceptable. ` +
+                'Only the chief engineer can amend it to that, recording an override with a reason.',
         );
       if (!dto.overrideReason?.trim()) throw new BadRequestException('overrideReason must say why the out-of-range value is acceptable');
     }

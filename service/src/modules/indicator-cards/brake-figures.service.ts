@@ -1,8 +1,8 @@
 import { Injectable, NotFoundException } from '@nestjs/common';
-import { InjectDataSource } from '@nestjs/typeorm';
-import { DataSource, In, type EntityManager } from 'typeorm';
-import type { BrakeFigureDto, BrakeFigureInput, RecordAmendmentDto } from '@crankjournal/shared-types';
-import { User } from '../users/user.entity.js';
+import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
+import { DataSource, Repository, In, type EntityManager } from 'typeorm';
+import type { BrakeFigureDto, BrakeFigureInput } from '@crankjournal/shared-types';
+import { UsersService } from '../users/users.service.js';
 import {
   CalculationInputError,
   brakeHorsepower,
@@ -11,6 +11,7 @@ import {
 } from '../../calculations/indicated-power.js';
 import { hpToKw } from '../../calculations/units.js';
 import { CardRecordAmendment } from './card-record-amendment.entity.js';
+import { amendmentsBySubject } from './card-set-amendments.js';
 import { BrakeFigure } from './brake-figure.entity.js';
 
 /** A brake figure is compared with card sets taken no further than this from it. */
@@ -71,7 +72,11 @@ export function brakeFigureFields(input: BrakeFigureInput) {
 /** Brake or measured output figures of a run (written through CardSetsService, which recomputes the sets). */
 @Injectable()
 export class BrakeFiguresService {
-  constructor(@InjectDataSource() private readonly db: DataSource) {}
+  constructor(
+    @InjectDataSource() private readonly db: DataSource,
+    @InjectRepository(CardRecordAmendment) private readonly cardRecordAmendmentRepo: Repository<CardRecordAmendment>,
+    private readonly users: UsersService,
+  ) {}
 
   async get(id: string, m?: EntityManager): Promise<BrakeFigure> {
     const f = await (m ?? this.db.manager).findOne(BrakeFigure, { where: { id } });
@@ -95,26 +100,13 @@ export class BrakeFiguresService {
 
   async toDtos(figures: BrakeFigure[]): Promise<BrakeFigureDto[]> {
     if (!figures.length) return [];
-    const amendments = await this.db.getRepository(CardRecordAmendment).find({
+    const amendments = await this.cardRecordAmendmentRepo.find({
       where: { subjectType: 'brake_figure', subjectId: In(figures.map((f) => f.id)) },
       order: { at: 'ASC' },
     });
     const ids = [...new Set([...figures.map((f) => f.createdBy), ...amendments.map((a) => a.byUser)])];
-    const users = await this.db.getRepository(User).find({ where: { id: In(ids) } });
-    const name = new Map(users.map((u) => [u.id, u.displayName]));
-    const byFigure = new Map<string, RecordAmendmentDto[]>();
-    for (const a of amendments) {
-      const list = byFigure.get(a.subjectId) ?? [];
-      list.push({
-        id: a.id,
-        reason: a.reason,
-        by: a.byUser,
-        byName: name.get(a.byUser) ?? 'unknown',
-        at: a.at.toISOString(),
-        changes: a.changes,
-      });
-      byFigure.set(a.subjectId, list);
-    }
+    const name = await this.users.displayNames(ids);
+    const byFigure = amendmentsBySubject(amendments, name);
     return figures.map((f) => ({
       id: f.id,
       runId: f.runId,

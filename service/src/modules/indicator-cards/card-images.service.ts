@@ -1,14 +1,14 @@
 import { createHash, randomUUID } from 'node:crypto';
 import type { Readable } from 'node:stream';
-import { DataSource } from 'typeorm';
-import { InjectDataSource } from '@nestjs/typeorm';
+import { Repository } from 'typeorm';
+import { InjectRepository } from '@nestjs/typeorm';
 import { BadRequestException, HttpException, Injectable, NotFoundException, UnsupportedMediaTypeException } from '@nestjs/common';
 import type { CardImageDto } from '@crankjournal/shared-types';
 import { StorageService } from '../storage/storage.service.js';
 import { RunsService } from '../runs/runs.service.js';
 import { AppConfig } from '../../config/app-config.service.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
-import { sniffImage } from './image-sniff.js';
+import { sniffImage } from '../../common/util/image-sniff.js';
 import { CardImage } from './card-image.entity.js';
 
 /** The body of a request, read whole but never beyond `maxBytes` (413 as soon as it is passed). */
@@ -50,7 +50,7 @@ export function readLimited(stream: Readable, maxBytes: number): Promise<Buffer>
 @Injectable()
 export class CardImagesService {
   constructor(
-    @InjectDataSource() private readonly db: DataSource,
+    @InjectRepository(CardImage) private readonly cardImageRepo: Repository<CardImage>,
     private readonly storage: StorageService,
     private readonly runs: RunsService,
     private readonly config: AppConfig,
@@ -87,7 +87,7 @@ export class CardImagesService {
         { statusCode: 413, error: 'Payload Too Large', message: `The image is larger than ${this.maxBytes} bytes.` },
         413,
       );
-    const sniffed = sniffImage(body);
+    const sniffed = await sniffImage(body);
     if (!sniffed) {
       throw new UnsupportedMediaTypeException(
         'That file is not a PNG, JPEG or WebP image (checked by its content, not its name). Photograph or scan the card as one of those.',
@@ -97,8 +97,8 @@ export class CardImagesService {
     const id = randomUUID();
     const storageKey = `runs/${runId}/cards/${id}.${sniffed.contentType.split('/')[1]}`;
     await this.storage.put(storageKey, body, sniffed.contentType);
-    const saved = await this.db.getRepository(CardImage).save(
-      this.db.getRepository(CardImage).create({
+    const saved = await this.cardImageRepo.save(
+      this.cardImageRepo.create({
         id,
         runId,
         storageKey,
@@ -115,7 +115,7 @@ export class CardImagesService {
   }
 
   async meta(id: string): Promise<CardImage> {
-    const i = await this.db.getRepository(CardImage).findOne({ where: { id } });
+    const i = await this.cardImageRepo.findOne({ where: { id } });
     if (!i) throw new NotFoundException('No such card image.');
     return i;
   }
@@ -135,6 +135,6 @@ export class CardImagesService {
 
   /** An image already stored for the same run, by content hash (the seed uses it to stay idempotent). */
   findByHash(runId: string, sha256: string): Promise<CardImage | null> {
-    return this.db.getRepository(CardImage).findOne({ where: { runId, sha256 } });
+    return this.cardImageRepo.findOne({ where: { runId, sha256 } });
   }
 }

@@ -47,7 +47,8 @@ const input = (over: Partial<CardSetResultsInput>): CardSetResultsInput => ({
 });
 
 describe('one card: which way, and what it comes to', () => {
-  it('planimeter: 2.6 in², 3.6 in, 60-lb spring → 43.3 psi (Machinery’s Reference Series No. 70, Steam Engines, section on indicated horsepower)', () => {
+  // Machinery’s Reference Series No. 70, Steam Engines, section on indicated horsepower.
+  it('planimeter: 2.6 in², 3.6 in, 60-lb spring → 43.3 psi', () => {
     const e = evaluateCard({ areaSqIn: 2.6, lengthIn: 3.6, springPsiPerIn: 60 }, 'cards[0]');
     expect(e.method).toBe('planimeter');
     expect(e.meanEffectivePressurePsi).toBeCloseTo(43.3, 1);
@@ -92,7 +93,8 @@ describe('one card: which way, and what it comes to', () => {
     expect(err(() => evaluateCard({ trace, springPsiPerIn: 60, lengthIn: 3.6 }, 'cards[3]')).fieldPath).toBe('cards[3].imageId');
   });
 
-  it('a trace is calibrated on the atmospheric line: a 3.6 × 0.722 in rectangle at 100 px/in on a 60-lb spring gives 43.3 psi (Machinery’s example as a drawn card)', () => {
+  // Machinery’s example as a drawn card.
+  it('a trace is calibrated on the atmospheric line: a 3.6 × 0.722 in rectangle at 100 px/in on a 60-lb spring gives 43.3 psi', () => {
     // Atmospheric line at y = 500 px; card from x = 100 to 460 px (3.6 in); rectangle from 0.1 to 0.822 in high.
     const top = 500 - 82.2;
     const bottom = 500 - 10;
@@ -141,7 +143,8 @@ describe('one card: which way, and what it comes to', () => {
 });
 
 describe('a set’s results', () => {
-  it('both ends at 39.81 psi on a 400 in² piston, 5½ ft stroke, 40 rpm → 212.32 IHP (C. P. Brooks, Cotton Manufacturing, section on engines, transcribed online)', () => {
+  // C. P. Brooks, Cotton Manufacturing, section on engines, transcribed online.
+  it('both ends at 39.81 psi on a 400 in² piston, 5½ ft stroke, 40 rpm → 212.32 IHP', () => {
     const r = computeCardSetResults(
       input({
         speedRpm: 40,
@@ -155,7 +158,8 @@ describe('a set’s results', () => {
     expect(r.cylinders[0].workShare).toBeCloseTo(1, 12);
   });
 
-  it('300 mm × 400 mm at 180 rpm and 6.5 bar → 110.28 kW; 87.66 kW brake → mechanical efficiency 79.5 % (B. Agrawal & C. M. Agrawal, Basic Mechanical Engineering, Wiley India, ch. 13, Ex. 14, p. 294, seen in a worked-solutions reproduction)', () => {
+  // B. Agrawal & C. M. Agrawal, Basic Mechanical Engineering, Wiley India, ch. 13, Ex. 14, p. 294, seen in a worked-solutions reproduction.
+  it('300 mm × 400 mm at 180 rpm and 6.5 bar → 110.28 kW; 87.66 kW brake → mechanical efficiency 79.5 %', () => {
     const brakeHorsepower = math.unit(87.66, 'kW').toNumber('hp');
     const r = computeCardSetResults(
       input({
@@ -173,7 +177,8 @@ describe('a set’s results', () => {
     expect(r.brake!.mechanicalEfficiency * 100).toBeCloseTo(79.5, 1);
   });
 
-  it('ideal card and diagram factor: 10 bar admission, cut-off ⅓, 1 bar back → 6.0 bar ideal; a 4.84 bar card → 0.807 (Agrawal & Agrawal, ch. 13, Ex. 8, p. 288)', () => {
+  // Agrawal & Agrawal, ch. 13, Ex. 8, p. 288.
+  it('ideal card and diagram factor: 10 bar admission, cut-off ⅓, 1 bar back → 6.0 bar ideal; a 4.84 bar card → 0.807', () => {
     const backPsia = psi(1, 'bar');
     const r = computeCardSetResults(
       input({

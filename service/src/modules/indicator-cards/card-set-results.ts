@@ -139,7 +139,8 @@ export function evaluateCard(card: CardFigures, path: string): EvaluatedCard {
   if (given.length === 0) {
     throw new CalculationInputError(
       path,
-      'give one of meanEffectivePressurePsi; areaSqIn with lengthIn and springPsiPerIn; ordinatesIn with springPsiPerIn; trace with imageId and springPsiPerIn',
+      'give one of meanEffectivePressurePsi; areaSqIn with lengthIn and springPsiPerIn; ordinatesIn with springPsiPerIn; ' +
+        'trace with imageId and springPsiPerIn',
     );
   }
   if (given.length > 1) {

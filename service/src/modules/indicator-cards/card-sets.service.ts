@@ -1,6 +1,6 @@
 import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
-import { InjectDataSource } from '@nestjs/typeorm';
-import { DataSource, In, type EntityManager } from 'typeorm';
+import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
+import { DataSource, Repository, type EntityManager } from 'typeorm';
 import {
   CARD_RECORD_KINDS,
   type AmendBrakeFigureRequest,
@@ -8,30 +8,26 @@ import {
   type AmendCardSetRequest,
   type BrakeFigureDto,
   type BrakeFigureInput,
-  type CardDto,
   type CardInput,
   type CardSetCylinder,
   type CardSetDto,
   type CardSetPreviewDto,
   type CreateCardSetRequest,
-  type FieldChange,
   type FigureSource,
   type MeasurementKind,
-  type RecordAmendmentDto,
 } from '@crankjournal/shared-types';
 import { RunsService } from '../runs/runs.service.js';
 import { ReadingsService } from '../runs/readings.service.js';
-import type { Run } from '../runs/run.entity.js';
+import type { GateRule } from '../runs/start-gate.service.js';
 import { EnginesService } from '../engines/engines.service.js';
 import { LiveService } from '../live/live.service.js';
-import { User } from '../users/user.entity.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
-import { CalculationInputError } from '../../calculations/indicated-power.js';
-import { KPA_PER_PSI, psiaToPsig } from '../../calculations/units.js';
-import { KPA_PER_INCH_OF_MERCURY } from '../../calculations/vacuum.js';
 import { CYLINDER_END_WORDS, computeCardSetResults, evaluateCard, type EvaluatedCard, type ResultCard } from './card-set-results.js';
 import { BRAKE_FIELDS, BrakeFiguresService, brakeFigureFields } from './brake-figures.service.js';
-import { CardRecordAmendment, type AmendedSubject } from './card-record-amendment.entity.js';
+import { CARD_FIELDS, SET_FIELDS, changesBetween } from './card-set-diff.js';
+import { asInHg, asPsig } from './card-set-units.js';
+import { recordAmendment } from './card-set-amendments.js';
+import { CardSetMapper } from './card-set-mapper.js';
 import { BrakeFigure } from './brake-figure.entity.js';
 import { CardImage } from './card-image.entity.js';
 import { IndicatorCard } from './indicator-card.entity.js';
@@ -41,88 +37,6 @@ import { CardSet } from './card-set.entity.js';
 export const NEAREST_READING_WINDOW_MS = 30 * 60_000;
 /** A set may be stamped at most this far ahead of the server's clock (a tablet's clock drift). */
 const MAX_FUTURE_MS = 5 * 60_000;
-
-/** The figures of a card that an amendment compares. */
-const CARD_FIELDS = [
-  'method',
-  'springPsiPerIn',
-  'lengthIn',
-  'areaSqIn',
-  'ordinatesIn',
-  'givenMeanEffectivePressurePsi',
-  'imageId',
-  'trace',
-  'cutOffPercent',
-  'compressionPercent',
-  'admissionPressurePsig',
-  'note',
-  'meanEffectivePressurePsi',
-] as const;
-const SET_FIELDS = [
-  'takenAt',
-  'speedRpm',
-  'speedSource',
-  'cutOffPercent',
-  'throttlePressurePsig',
-  'receiverPressurePsig',
-  'vacuumInHg',
-  'notes',
-] as const;
-
-/** Turns a calculation's input error into a 400 that names the field. */
-function badRequest<T>(fn: () => T): T {
-  try {
-    return fn();
-  } catch (e) {
-    if (e instanceof CalculationInputError) throw new BadRequestException({ statusCode: 400, error: 'Bad Request', message: [e.message] });
-    throw e;
-  }
-}
-
-/** JSON with object keys in order (jsonb keeps its own key order, so plain JSON.stringify would see changes that are not). */
-function stableJson(v: unknown): string {
-  if (Array.isArray(v)) return `[${v.map(stableJson).join(',')}]`;
-  if (v && typeof v === 'object') {
-    const o = v as Record<string, unknown>;
-    return `{${Object.keys(o)
-      .filter((k) => o[k] !== undefined)
-      .sort()
-      .map((k) => `${JSON.stringify(k)}:${stableJson(o[k])}`)
-      .join(',')}}`;
-  }
-  return JSON.stringify(v ?? null);
-}
-const same = (a: unknown, b: unknown) => stableJson(a ?? null) === stableJson(b ?? null);
-const plain = (v: unknown) => (v instanceof Date ? v.toISOString() : (v ?? null));
-
-/** The fields that differ between two records, as stored. */
-export function changesBetween<T extends object>(before: T, after: Partial<T>, fields: readonly (keyof T & string)[]): FieldChange[] {
-  return fields
-    .filter((f) => f in after && !same(plain(before[f]), plain(after[f])))
-    .map((f) => ({ field: f, from: plain(before[f]), to: plain(after[f]) }));
-}
-
-/** A reading's value on the psi gauge basis (pressure points may be logged in other units). */
-function asPsig(value: number, unit: string): number | null {
-  switch (unit) {
-    case 'psig':
-    case 'psi':
-      return value;
-    case 'psia':
-      return psiaToPsig(value);
-    case 'kPa':
-      return value / KPA_PER_PSI;
-    case 'bar':
-      return (value * 100) / KPA_PER_PSI;
-    default:
-      return null;
-  }
-}
-function asInHg(value: number, unit: string): number | null {
-  if (unit === 'inHg') return value;
-  if (unit === 'kPa') return value / KPA_PER_INCH_OF_MERCURY;
-  return null;
-}
 
 interface PreparedCard {
   input: CardInput;
@@ -147,6 +61,9 @@ interface PreparedSet {
   cards: PreparedCard[];
 }
 
+/** A run as RunsService hands it over. */
+type Run = Parameters<GateRule['check']>[0];
+
 /**
  * Card sets of a run: taking them, adding a card, amending a card or a set (never erasing), brake figures,
  * and the results of each set (computed from the pure calculations, stored with the set, broadcast live).
@@ -155,11 +72,16 @@ interface PreparedSet {
 export class CardSetsService {
   constructor(
     @InjectDataSource() private readonly db: DataSource,
+    @InjectRepository(BrakeFigure) private readonly brakeFigureRepo: Repository<BrakeFigure>,
+    @InjectRepository(CardImage) private readonly cardImageRepo: Repository<CardImage>,
+    @InjectRepository(CardSet) private readonly cardSetRepo: Repository<CardSet>,
+    @InjectRepository(IndicatorCard) private readonly indicatorCardRepo: Repository<IndicatorCard>,
     private readonly runs: RunsService,
     private readonly readings: ReadingsService,
     private readonly engines: EnginesService,
     private readonly live: LiveService,
     private readonly brakes: BrakeFiguresService,
+    private readonly mapper: CardSetMapper,
   ) {}
 
   // ------------------------------------------------------------------------------------------
@@ -168,12 +90,12 @@ export class CardSetsService {
 
   async list(runId: string): Promise<CardSetDto[]> {
     await this.runs.get(runId);
-    const sets = await this.db.getRepository(CardSet).find({ where: { runId }, order: { takenAt: 'ASC', createdAt: 'ASC' } });
-    return this.toDtos(sets);
+    const sets = await this.cardSetRepo.find({ where: { runId }, order: { takenAt: 'ASC', createdAt: 'ASC' } });
+    return this.mapper.toDtos(sets);
   }
 
   async get(id: string): Promise<CardSetDto> {
-    const [dto] = await this.toDtos([await this.load(id)]);
+    const [dto] = await this.mapper.toDtos([await this.load(id)]);
     return dto;
   }
 
@@ -238,7 +160,7 @@ export class CardSetsService {
         message: [`${path}.cylinderId: not a cylinder of this run's engine`],
       });
     if (card.imageId) {
-      const image = await this.db.getRepository(CardImage).findOne({ where: { id: card.imageId } });
+      const image = await this.cardImageRepo.findOne({ where: { id: card.imageId } });
       if (!image || image.runId !== run.id) {
         throw new BadRequestException({
           statusCode: 400,
@@ -247,7 +169,7 @@ export class CardSetsService {
         });
       }
     }
-    const evaluated = badRequest(() => evaluateCard(card, path));
+    const evaluated = evaluateCard(card, path);
     return { input: card, cylinder, evaluated };
   }
 
@@ -511,7 +433,7 @@ export class CardSetsService {
     user: AuthUser | { id: string },
     opts: { seed?: boolean; at?: Date } = {},
   ): Promise<CardSetDto> {
-    const card0 = await this.db.getRepository(IndicatorCard).findOne({ where: { id: cardId } });
+    const card0 = await this.indicatorCardRepo.findOne({ where: { id: cardId } });
     if (!card0) throw new NotFoundException('No such card.');
     const set0 = await this.load(card0.cardSetId);
     const run = await this.runs.get(set0.runId);
@@ -532,7 +454,7 @@ export class CardSetsService {
       const cards = await m.find(IndicatorCard, { where: { cardSetId: set0.id } });
       const results = await this.recompute(m, set!, cards);
       changes.push({ field: 'totalIndicatedHorsepower', from: before, to: results.totalIndicatedHorsepower });
-      await this.recordAmendment(m, 'card', cardId, set0.runId, changes, reason, user.id, opts.at);
+      await recordAmendment(m, 'card', cardId, set0.runId, changes, reason, user.id, opts.at);
     });
     return this.broadcast(set0.id);
   }
@@ -582,7 +504,7 @@ export class CardSetsService {
       await m.update(CardSet, { id: setId }, patch);
       const results = await this.recompute(m, set!, await m.find(IndicatorCard, { where: { cardSetId: setId } }));
       changes.push({ field: 'totalIndicatedHorsepower', from: before, to: results.totalIndicatedHorsepower });
-      await this.recordAmendment(m, 'card_set', setId, set0.runId, changes, dto.reason, user.id);
+      await recordAmendment(m, 'card_set', setId, set0.runId, changes, dto.reason, user.id);
     });
     return this.broadcast(setId);
   }
@@ -597,22 +519,6 @@ export class CardSetsService {
     return results;
   }
 
-  private async recordAmendment(
-    m: EntityManager,
-    subjectType: AmendedSubject,
-    subjectId: string,
-    runId: string,
-    changes: FieldChange[],
-    reason: string,
-    byUser: string,
-    at = new Date(),
-  ) {
-    await m.save(
-      CardRecordAmendment,
-      m.create(CardRecordAmendment, { subjectType, subjectId, runId, changes, reason: reason.trim(), byUser, at }),
-    );
-  }
-
   // ------------------------------------------------------------------------------------------
   // Brake figures (each change recomputes the run's sets)
   // ------------------------------------------------------------------------------------------
@@ -625,10 +531,8 @@ export class CardSetsService {
   ): Promise<BrakeFigureDto> {
     const run = await this.runs.get(runId);
     if (!opts.seed) this.runs.assertOpen(run);
-    const fields = badRequest(() => brakeFigureFields(dto));
-    const saved = await this.db
-      .getRepository(BrakeFigure)
-      .save(this.db.getRepository(BrakeFigure).create({ runId, ...fields, createdBy: user.id }));
+    const fields = brakeFigureFields(dto);
+    const saved = await this.brakeFigureRepo.save(this.brakeFigureRepo.create({ runId, ...fields, createdBy: user.id }));
     await this.recomputeRun(runId);
     const [out] = await this.brakes.toDtos([saved]);
     this.live.emitToRoom(`run:${runId}`, 'run:record', { runId, kind: CARD_RECORD_KINDS.brakeFigure, id: out.id, data: out });
@@ -651,13 +555,13 @@ export class CardSetsService {
       speedRpm: given.speedRpm !== undefined ? given.speedRpm : f0.speedRpm,
       note: given.note !== undefined ? given.note : f0.note,
     };
-    const next = badRequest(() => brakeFigureFields(merged));
+    const next = brakeFigureFields(merged);
     await this.db.transaction(async (m) => {
       const cur = await m.findOne(BrakeFigure, { where: { id }, lock: { mode: 'pessimistic_write' } });
       const changes = changesBetween(cur!, next, BRAKE_FIELDS);
       if (!changes.length) throw new BadRequestException('Nothing would change: the figures given are the ones recorded.');
       await m.update(BrakeFigure, { id }, next);
-      await this.recordAmendment(m, 'brake_figure', id, f0.runId, changes, reason, user.id);
+      await recordAmendment(m, 'brake_figure', id, f0.runId, changes, reason, user.id);
     });
     await this.recomputeRun(f0.runId);
     const [out] = await this.brakes.toDtos([await this.brakes.get(id)]);
@@ -667,7 +571,7 @@ export class CardSetsService {
 
   /** Recomputes every set of a run (after its brake figures change) and broadcasts them. */
   private async recomputeRun(runId: string) {
-    const sets = await this.db.getRepository(CardSet).find({ where: { runId } });
+    const sets = await this.cardSetRepo.find({ where: { runId } });
     for (const s of sets) {
       await this.db.transaction(async (m) => {
         const set = await m.findOne(CardSet, { where: { id: s.id }, lock: { mode: 'pessimistic_write' } });
@@ -685,93 +589,5 @@ export class CardSetsService {
     const dto = await this.get(setId);
     this.live.emitToRoom(`run:${dto.runId}`, 'run:record', { runId: dto.runId, kind: CARD_RECORD_KINDS.cardSet, id: dto.id, data: dto });
     return dto;
-  }
-
-  private async toDtos(sets: CardSet[]): Promise<CardSetDto[]> {
-    if (!sets.length) return [];
-    const cards = await this.db
-      .getRepository(IndicatorCard)
-      .find({ where: { cardSetId: In(sets.map((s) => s.id)) }, order: { createdAt: 'ASC' } });
-    const amendments = await this.db.getRepository(CardRecordAmendment).find({
-      where: [
-        { subjectType: 'card_set', subjectId: In(sets.map((s) => s.id)) },
-        ...(cards.length ? [{ subjectType: 'card' as const, subjectId: In(cards.map((c) => c.id)) }] : []),
-      ],
-      order: { at: 'ASC' },
-    });
-    const userIds = [...new Set([...sets.map((s) => s.createdBy), ...cards.map((c) => c.createdBy), ...amendments.map((a) => a.byUser)])];
-    const users = userIds.length ? await this.db.getRepository(User).find({ where: { id: In(userIds) } }) : [];
-    const name = new Map(users.map((u) => [u.id, u.displayName]));
-    const bySubject = new Map<string, RecordAmendmentDto[]>();
-    for (const a of amendments) {
-      const list = bySubject.get(a.subjectId) ?? [];
-      list.push({
-        id: a.id,
-        reason: a.reason,
-        by: a.byUser,
-        byName: name.get(a.byUser) ?? 'unknown',
-        at: a.at.toISOString(),
-        changes: a.changes,
-      });
-      bySubject.set(a.subjectId, list);
-    }
-    const endOrder = { head: 0, crank: 1 } as const;
-    return sets.map((s) => {
-      const position = new Map(s.cylinders.map((c, i) => [c.label, i]));
-      const mine: CardDto[] = cards
-        .filter((c) => c.cardSetId === s.id)
-        .sort((a, b) => (position.get(a.cylinderLabel) ?? 99) - (position.get(b.cylinderLabel) ?? 99) || endOrder[a.end] - endOrder[b.end])
-        .map((c) => ({
-          id: c.id,
-          cardSetId: c.cardSetId,
-          cylinderId: c.cylinderId,
-          cylinderLabel: c.cylinderLabel,
-          end: c.end,
-          method: c.method,
-          springPsiPerIn: c.springPsiPerIn,
-          lengthIn: c.lengthIn,
-          areaSqIn: c.areaSqIn,
-          ordinatesIn: c.ordinatesIn,
-          givenMeanEffectivePressurePsi: c.givenMeanEffectivePressurePsi,
-          imageId: c.imageId,
-          trace: c.trace,
-          cutOffPercent: c.cutOffPercent,
-          compressionPercent: c.compressionPercent,
-          admissionPressurePsig: c.admissionPressurePsig,
-          note: c.note,
-          meanHeightIn: c.meanHeightIn,
-          meanEffectivePressurePsi: c.meanEffectivePressurePsi,
-          tracedAreaSqIn: c.tracedAreaSqIn,
-          outline: c.outline,
-          createdBy: c.createdBy,
-          createdByName: name.get(c.createdBy) ?? 'unknown',
-          createdAt: c.createdAt.toISOString(),
-          amendments: bySubject.get(c.id) ?? [],
-        }));
-      return {
-        id: s.id,
-        runId: s.runId,
-        engineId: s.engineId,
-        takenAt: s.takenAt.toISOString(),
-        speedRpm: s.speedRpm,
-        speedSource: s.speedSource,
-        speedReadingAt: s.speedReadingAt?.toISOString() ?? null,
-        cutOffPercent: s.cutOffPercent,
-        throttlePressurePsig: s.throttlePressurePsig,
-        throttleSource: s.throttleSource,
-        receiverPressurePsig: s.receiverPressurePsig,
-        receiverSource: s.receiverSource,
-        vacuumInHg: s.vacuumInHg,
-        vacuumSource: s.vacuumSource,
-        notes: s.notes,
-        cylinders: s.cylinders,
-        cards: mine,
-        results: s.results,
-        createdBy: s.createdBy,
-        createdByName: name.get(s.createdBy) ?? 'unknown',
-        createdAt: s.createdAt.toISOString(),
-        amendments: bySubject.get(s.id) ?? [],
-      };
-    });
   }
 }

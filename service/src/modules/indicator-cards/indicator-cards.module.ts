@@ -1,6 +1,7 @@
 import { Module } from '@nestjs/common';
 import { TypeOrmModule } from '@nestjs/typeorm';
 import { RunsModule } from '../runs/runs.module.js';
+import { UsersModule } from '../users/users.module.js';
 import { EnginesModule } from '../engines/engines.module.js';
 import { StorageModule } from '../storage/storage.module.js';
 import { LiveModule } from '../live/live.module.js';
@@ -10,10 +11,11 @@ import { CardImage } from './card-image.entity.js';
 import { BrakeFigure } from './brake-figure.entity.js';
 import { CardRecordAmendment } from './card-record-amendment.entity.js';
 import { CardSetsService } from './card-sets.service.js';
+import { CardSetMapper } from './card-set-mapper.js';
 import { CardImagesService } from './card-images.service.js';
 import { BrakeFiguresService } from './brake-figures.service.js';
 import { CardSetsController } from './card-sets.controller.js';
-import { IndicatorCalculationsController } from './calculations.controller.js';
+import { IndicatorCalculationsController } from './indicator-calculations.controller.js';
 
 /** Indicator cards and indicated power: card sets of a run, traced images, brake figures, the calculator route. */
 @Module({
@@ -23,8 +25,9 @@ import { IndicatorCalculationsController } from './calculations.controller.js';
     EnginesModule,
     StorageModule,
     LiveModule,
+    UsersModule,
   ],
-  providers: [CardSetsService, CardImagesService, BrakeFiguresService],
+  providers: [CardSetsService, CardSetMapper, CardImagesService, BrakeFiguresService],
   controllers: [CardSetsController, IndicatorCalculationsController],
   exports: [CardSetsService, CardImagesService],
 })

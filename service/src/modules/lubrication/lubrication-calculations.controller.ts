@@ -32,16 +32,6 @@ export const FRICTION_METHOD =
   'Petroff ignores the eccentricity of a loaded journal, so a slow, heavily loaded bearing (small S) ' +
   'really loses more than this: read it as the lower bound.';
 
-/** Pure-function errors (a value the formula cannot take) answer 400 with the reason. */
-function answer<T>(fn: () => T): T {
-  try {
-    return fn();
-  } catch (e) {
-    if (e instanceof RangeError) throw new BadRequestException({ statusCode: 400, error: 'Bad Request', message: [e.message] });
-    throw e;
-  }
-}
-
 /** Stateless lubrication calculators (nothing is stored): viscosity, journal friction, lift pressure, jacks. */
 @ApiTags('calculations')
 @ApiBearerAuth()
@@ -62,7 +52,7 @@ export class LubricationCalculationsController {
         error: 'Bad Request',
         message: ['viscosity100cSt must be lower than viscosity40cSt (oil thins as it warms)'],
       });
-    return answer(() => ({ ...oilViscosity(dto), method: VISCOSITY_METHOD }));
+    return { ...oilViscosity(dto), method: VISCOSITY_METHOD };
   }
 
   @Post('journal-friction')
@@ -78,10 +68,8 @@ export class LubricationCalculationsController {
         error: 'Bad Request',
         message: ['radialClearanceIn must be far smaller than the journal'],
       });
-    return answer(() => {
-      const r = journalFriction(dto);
-      return { ...r, powerLossKw: hpToKw(r.powerLossHp), method: FRICTION_METHOD };
-    });
+    const r = journalFriction(dto);
+    return { ...r, powerLossKw: hpToKw(r.powerLossHp), method: FRICTION_METHOD };
   }
 
   @Post('lift-pressure')
@@ -94,7 +82,7 @@ export class LubricationCalculationsController {
   @ApiOkResponse({ type: LiftPressureResponseDto })
   @ApiBadRequestResponse({ description: 'A field is missing or out of range; the message names the field.' })
   liftPressure(@Body() dto: LiftPressureRequestDto): LiftPressureResponseDto {
-    return answer(() => ({ ...liftPressure(dto), rule: LIFT_PRESSURE_RULE_TEXT, caution: JACKING_CAUTION }));
+    return { ...liftPressure(dto), rule: LIFT_PRESSURE_RULE_TEXT, caution: JACKING_CAUTION };
   }
 
   @Post('jack-capacity')
@@ -104,6 +92,6 @@ export class LubricationCalculationsController {
   @ApiOkResponse({ type: JackCapacityResponseDto })
   @ApiBadRequestResponse({ description: 'A field is missing or out of range; the message names the field.' })
   jackCapacity(@Body() dto: JackCapacityRequestDto): JackCapacityResponseDto {
-    return answer(() => ({ ...jackCapacityCheck(dto), rule: JACK_MARGIN_RULE_TEXT, caution: JACKING_CAUTION }));
+    return { ...jackCapacityCheck(dto), rule: JACK_MARGIN_RULE_TEXT, caution: JACKING_CAUTION };
   }
 }

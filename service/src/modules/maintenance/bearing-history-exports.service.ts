@@ -192,8 +192,10 @@ export class BearingHistoryExportsService {
     doc.font('Helvetica').fontSize(10);
     doc.text(
       `${h.bearing.engineName} \u00b7 journal ${h.bearing.journalDiameterIn} in \u00d7 ${h.bearing.journalLengthIn} in` +
-        `${h.bearing.radialClearanceIn ? ` \u00b7 radial clearance ${h.bearing.radialClearanceIn} in` : ''} \u00b7 ${h.bearing.loadSharePercent} % of the rotating load` +
-        ` \u00b7 points ${h.bearing.points.map((p) => p.code).join(', ') || '\u2014'} \u00b7 printed ${new Date().toISOString().slice(0, 10)}`,
+        `${h.bearing.radialClearanceIn ? ` \u00b7 radial clearance ${h.bearing.radialClearanceIn} in` : ''}` +
+        ` \u00b7 ${h.bearing.loadSharePercent} % of the rotating load` +
+        ` \u00b7 points ${h.bearing.points.map((p) => p.code).join(', ') || '\u2014'}` +
+        ` \u00b7 printed ${new Date().toISOString().slice(0, 10)}`,
     );
     doc.moveDown(0.5);
 
@@ -250,8 +252,10 @@ export class BearingHistoryExportsService {
     doc.text(h.loadMeasureNote, x0, doc.y, { width });
     if (h.band)
       doc.text(
-        `Usual band now (${h.band.pointCount} runs, ${h.band.kind === 'mean' ? 'mean rise' : 'straight line'}): expected rise ${fmt(h.band.interceptF)} \u00b0F` +
-          `${h.band.kind === 'regression' ? ` + ${h.band.slopeFPerLoad.toFixed(4)} \u00b0F per unit of load` : ''}, s = ${fmt(h.band.residualSdF, 2)} \u00b0F.`,
+        `Usual band now (${h.band.pointCount} runs, ${h.band.kind === 'mean' ? 'mean rise' : 'straight line'}): ` +
+          `expected rise ${fmt(h.band.interceptF)} \u00b0F` +
+          `${h.band.kind === 'regression' ? ` + ${h.band.slopeFPerLoad.toFixed(4)} \u00b0F per unit of load` : ''}` +
+          `, s = ${fmt(h.band.residualSdF, 2)} \u00b0F.`,
         x0,
         doc.y,
         { width },
@@ -282,7 +286,8 @@ export class BearingHistoryExportsService {
       .fontSize(8)
       .fillColor('#555')
       .text(
-        'Crankjournal aids a qualified crew. It never replaces local boiler and pressure-vessel law, the insurer\u2019s inspections or licensed practice.',
+        'Crankjournal aids a qualified crew. It never replaces local boiler and pressure-vessel law, ' +
+          'the insurer\u2019s inspections or licensed practice.',
         x0,
         doc.y,
         { width },

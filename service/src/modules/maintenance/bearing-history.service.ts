@@ -10,15 +10,14 @@ import type {
   TimelineEntry,
 } from '@crankjournal/shared-types';
 import { AlarmsService } from '../alarms/alarms.service.js';
-import type { MeasurementPoint } from '../engines/measurement-point.entity.js';
 import type { PointRunStat } from '../runs/readings.service.js';
 import { bandAt, driftHistory, driftRuleText, fitBand, type DriftBand } from '../../calculations/bearing-drift.js';
 import { celsiusToFahrenheit } from '../../calculations/units.js';
-import { EngineFactsService } from './engine-facts.service.js';
+import { EngineFactsService, type MeasurementPoint } from './engine-facts.service.js';
 import { InspectionsService } from './inspections.service.js';
 import { WorkRecordsService } from './work-records.service.js';
 import { RunStatsService } from './run-stats.service.js';
-import { IndicatedPowerSource } from './indicated-power.source.js';
+import { MaintenanceIndicatedPowerSource } from './maintenance-indicated-power.source.js';
 
 /** Band half-width in standard deviations and the margin above it (°F of rise) that flags drift. */
 export const DRIFT_SETTINGS = { bandK: 2, marginF: 5 } as const;
@@ -41,7 +40,8 @@ export function historyRuleText(measure: LoadMeasure): string {
       loadName: LOAD_NAME[measure],
       loadUnit: LOAD_UNIT[measure],
     }) +
-    ' Rise above ambient is the run\u2019s peak bearing temperature less its mean ambient temperature. Each run is judged against the runs before it; ' +
+    ' Rise above ambient is the run\u2019s peak bearing temperature less its mean ambient temperature.' +
+    ' Each run is judged against the runs before it; ' +
     'a run already flagged is left out of the band for the runs after it, so one hot run does not hide the next.'
   );
 }
@@ -100,7 +100,7 @@ export class BearingHistoryService {
     private readonly alarms: AlarmsService,
     private readonly inspections: InspectionsService,
     private readonly work: WorkRecordsService,
-    private readonly ihp: IndicatedPowerSource,
+    private readonly ihp: MaintenanceIndicatedPowerSource,
   ) {}
 
   /** What every bearing of an engine shares: its points, started runs (oldest first) and their indicated power. */
@@ -247,7 +247,10 @@ export class BearingHistoryService {
         type: 'run' as const,
         id: r.runId,
         title: r.title,
-        detail: `Peak ${f1(r.peakTemperature)} ${r.unit === 'degC' ? '\u00b0C' : '\u00b0F'}, rise ${f1(r.riseAtPeakF)} \u00b0F${r.alarms.length ? `, ${r.alarms.length} alarm${r.alarms.length > 1 ? 's' : ''}` : ''}${r.drift?.flagged ? ' \u2014 drift' : ''}`,
+        detail:
+          `Peak ${f1(r.peakTemperature)} ${r.unit === 'degC' ? '\u00b0C' : '\u00b0F'}, rise ${f1(r.riseAtPeakF)} \u00b0F` +
+          `${r.alarms.length ? `, ${r.alarms.length} alarm${r.alarms.length > 1 ? 's' : ''}` : ''}` +
+          `${r.drift?.flagged ? ' \u2014 drift' : ''}`,
         attention: !!r.drift?.flagged,
       })),
       ...inspections.map((i) => ({

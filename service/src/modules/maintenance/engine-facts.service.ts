@@ -1,9 +1,11 @@
 import { Injectable, NotFoundException } from '@nestjs/common';
 import type { EngineDetail, EngineSummary, RunSummary } from '@crankjournal/shared-types';
-import { EnginesService } from '../engines/engines.service.js';
-import type { MeasurementPoint } from '../engines/measurement-point.entity.js';
+import { EnginesService, type EngineWithPoints } from '../engines/engines.service.js';
 import { RunsService } from '../runs/runs.service.js';
 import { UsersService } from '../users/users.service.js';
+
+/** A measurement point of an engine, as EnginesService hands it over. */
+export type MeasurementPoint = EngineWithPoints['points'][number];
 
 export interface Counters {
   runHours: number;

@@ -1,7 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import { BadRequestException, HttpException, HttpStatus, Injectable, NotFoundException, PayloadTooLargeException } from '@nestjs/common';
-import { InjectDataSource } from '@nestjs/typeorm';
-import { DataSource, In } from 'typeorm';
+import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
+import { DataSource, Repository, In } from 'typeorm';
 import { fileTypeFromBuffer } from 'file-type';
 import type { AttachmentDto, InspectionDto, InspectionSummary, MeasurementItemDto, WorkRecordSummary } from '@crankjournal/shared-types';
 import { AlarmsService } from '../alarms/alarms.service.js';
@@ -45,6 +45,9 @@ export function workSummary(w: WorkRecord, bearingLabel: string | null): WorkRec
 export class InspectionsService {
   constructor(
     @InjectDataSource() private readonly db: DataSource,
+    @InjectRepository(Inspection) private readonly inspectionRepo: Repository<Inspection>,
+    @InjectRepository(InspectionAttachment) private readonly inspectionAttachmentRepo: Repository<InspectionAttachment>,
+    @InjectRepository(WorkRecord) private readonly workRecordRepo: Repository<WorkRecord>,
     private readonly facts: EngineFactsService,
     private readonly plans: PlansService,
     private readonly alarms: AlarmsService,
@@ -54,7 +57,7 @@ export class InspectionsService {
   ) {}
 
   async get(id: string): Promise<Inspection> {
-    const i = await this.db.getRepository(Inspection).findOne({ where: { id } });
+    const i = await this.inspectionRepo.findOne({ where: { id } });
     if (!i) throw new NotFoundException('No such inspection.');
     return i;
   }
@@ -63,7 +66,7 @@ export class InspectionsService {
     const where: Record<string, unknown> = {};
     if (filter.engineId) where.engineId = filter.engineId;
     if (filter.bearingId) where.bearingId = filter.bearingId;
-    const rows = await this.db.getRepository(Inspection).find({ where, order: { inspectedAt: 'DESC' }, take: 500 });
+    const rows = await this.inspectionRepo.find({ where, order: { inspectedAt: 'DESC' }, take: 500 });
     return this.summaries(rows);
   }
 
@@ -71,7 +74,8 @@ export class InspectionsService {
     if (!rows.length) return [];
     const ids = rows.map((r) => r.id);
     const counts: { inspection_id: string; n: number; out: number }[] = await this.db.query(
-      `SELECT inspection_id, count(*)::int AS n, count(*) FILTER (WHERE out_of_tolerance)::int AS out FROM inspection_measurements WHERE inspection_id = ANY($1) GROUP BY inspection_id`,
+      'SELECT inspection_id, count(*)::int AS n, count(*) FILTER (WHERE out_of_tolerance)::int AS out ' +
+        'FROM inspection_measurements WHERE inspection_id = ANY($1) GROUP BY inspection_id',
       [ids],
     );
     const files: { inspection_id: string; n: number }[] = await this.db.query(
@@ -110,10 +114,8 @@ export class InspectionsService {
     const measurements = await this.db
       .getRepository(InspectionMeasurement)
       .find({ where: { inspectionId: id }, order: { sequence: 'ASC' } });
-    const attachments = await this.db
-      .getRepository(InspectionAttachment)
-      .find({ where: { inspectionId: id }, order: { uploadedAt: 'ASC' } });
-    const work = await this.db.getRepository(WorkRecord).find({ where: { promptedByInspectionId: id }, order: { startedAt: 'ASC' } });
+    const attachments = await this.inspectionAttachmentRepo.find({ where: { inspectionId: id }, order: { uploadedAt: 'ASC' } });
+    const work = await this.workRecordRepo.find({ where: { promptedByInspectionId: id }, order: { startedAt: 'ASC' } });
     const names = await this.facts.userNames();
     const engineNames = await this.facts.engineNames();
     const planTitle = i.planId ? ((await this.plans.titles([i.planId])).get(i.planId) ?? null) : null;
@@ -275,7 +277,7 @@ export class InspectionsService {
       .trim()
       .slice(0, 150);
     const filename = base ? (base.toLowerCase().endsWith(`.${type.ext}`) ? base : `${base}.${type.ext}`) : `attachment.${type.ext}`;
-    const saved = await this.db.getRepository(InspectionAttachment).save({
+    const saved = await this.inspectionAttachmentRepo.save({
       inspectionId,
       kind: type.kind,
       contentType: sniffed.mime,
@@ -289,7 +291,7 @@ export class InspectionsService {
   }
 
   async attachmentContent(id: string): Promise<{ attachment: InspectionAttachment; body: Buffer }> {
-    const a = await this.db.getRepository(InspectionAttachment).findOne({ where: { id } });
+    const a = await this.inspectionAttachmentRepo.findOne({ where: { id } });
     if (!a) throw new NotFoundException('No such attachment.');
     const { body } = await this.storage.get(a.storageKey);
     return { attachment: a, body };
@@ -297,7 +299,7 @@ export class InspectionsService {
 
   /** Inspections of a bearing, oldest first (for its history). */
   async ofBearing(bearingId: string, bearingLabel?: string): Promise<InspectionSummary[]> {
-    const rows = await this.db.getRepository(Inspection).find({ where: { bearingId }, order: { inspectedAt: 'ASC' } });
+    const rows = await this.inspectionRepo.find({ where: { bearingId }, order: { inspectedAt: 'ASC' } });
     return this.summaries(rows, bearingLabel !== undefined ? new Map([[bearingId, bearingLabel]]) : undefined);
   }
 
@@ -312,6 +314,6 @@ export class InspectionsService {
   }
 
   async exists(ids: string[]): Promise<Inspection[]> {
-    return ids.length ? this.db.getRepository(Inspection).find({ where: { id: In(ids) } }) : [];
+    return ids.length ? this.inspectionRepo.find({ where: { id: In(ids) } }) : [];
   }
 }

@@ -17,7 +17,7 @@ import { PlansService } from './plans.service.js';
 import { InspectionsService } from './inspections.service.js';
 import { WorkRecordsService } from './work-records.service.js';
 import { RunStatsService } from './run-stats.service.js';
-import { IndicatedPowerSource } from './indicated-power.source.js';
+import { MaintenanceIndicatedPowerSource } from './maintenance-indicated-power.source.js';
 import { BearingHistoryService } from './bearing-history.service.js';
 import { BearingHistoryExportsService } from './bearing-history-exports.service.js';
 import { MaintenanceController } from './maintenance.controller.js';
@@ -45,7 +45,7 @@ import { MaintenanceController } from './maintenance.controller.js';
     InspectionsService,
     WorkRecordsService,
     RunStatsService,
-    IndicatedPowerSource,
+    MaintenanceIndicatedPowerSource,
     BearingHistoryService,
     BearingHistoryExportsService,
   ],

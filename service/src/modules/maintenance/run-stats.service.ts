@@ -85,7 +85,8 @@ export class RunStatsService implements OnApplicationBootstrap, OnModuleDestroy 
     }[] = closed.length
       ? (
           await this.db.query(
-            `SELECT run_id, point_id, peak, mean, least, count, first_at, last_at FROM run_point_stats WHERE point_id = ANY($1::uuid[]) AND run_id = ANY($2::uuid[])`,
+            'SELECT run_id, point_id, peak, mean, least, count, first_at, last_at FROM run_point_stats ' +
+              'WHERE point_id = ANY($1::uuid[]) AND run_id = ANY($2::uuid[])',
             [pointIds, closed],
           )
         ).map(

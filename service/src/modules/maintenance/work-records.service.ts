@@ -1,6 +1,6 @@
 import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
-import { InjectDataSource } from '@nestjs/typeorm';
-import { DataSource } from 'typeorm';
+import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
+import { DataSource, Repository } from 'typeorm';
 import type { WorkRecordDto, WorkRecordSummary } from '@crankjournal/shared-types';
 import { AlarmsService } from '../alarms/alarms.service.js';
 import { WorkRecord } from './work-record.entity.js';
@@ -17,13 +17,15 @@ const FUTURE_SLACK_MS = 5 * 60_000;
 export class WorkRecordsService {
   constructor(
     @InjectDataSource() private readonly db: DataSource,
+    @InjectRepository(Inspection) private readonly inspectionRepo: Repository<Inspection>,
+    @InjectRepository(WorkRecord) private readonly workRecordRepo: Repository<WorkRecord>,
     private readonly facts: EngineFactsService,
     private readonly plans: PlansService,
     private readonly alarms: AlarmsService,
   ) {}
 
   async get(id: string): Promise<WorkRecord> {
-    const w = await this.db.getRepository(WorkRecord).findOne({ where: { id } });
+    const w = await this.workRecordRepo.findOne({ where: { id } });
     if (!w) throw new NotFoundException('No such work record.');
     return w;
   }
@@ -39,14 +41,14 @@ export class WorkRecordsService {
     if (filter.engineId) where.engineId = filter.engineId;
     if (filter.bearingId) where.bearingId = filter.bearingId;
     if (filter.status) where.status = filter.status;
-    const rows = await this.db.getRepository(WorkRecord).find({ where, order: { startedAt: 'DESC' }, take: 500 });
+    const rows = await this.workRecordRepo.find({ where, order: { startedAt: 'DESC' }, take: 500 });
     const labels = await this.bearingLabels(rows.map((r) => r.engineId));
     return rows.map((w) => workSummary(w, w.bearingId ? (labels.get(w.bearingId) ?? null) : null));
   }
 
   /** Work on a bearing, oldest first (for its history). */
   async ofBearing(bearingId: string, bearingLabel: string): Promise<WorkRecordSummary[]> {
-    const rows = await this.db.getRepository(WorkRecord).find({ where: { bearingId }, order: { startedAt: 'ASC' } });
+    const rows = await this.workRecordRepo.find({ where: { bearingId }, order: { startedAt: 'ASC' } });
     return rows.map((w) => workSummary(w, bearingLabel));
   }
 
@@ -56,9 +58,7 @@ export class WorkRecordsService {
     const names = await this.facts.userNames();
     const engineNames = await this.facts.engineNames();
     const titles = await this.plans.titles([...new Set([...w.satisfiesPlanIds, ...w.resetPlanIds])]);
-    const inspection = w.promptedByInspectionId
-      ? await this.db.getRepository(Inspection).findOne({ where: { id: w.promptedByInspectionId } })
-      : null;
+    const inspection = w.promptedByInspectionId ? await this.inspectionRepo.findOne({ where: { id: w.promptedByInspectionId } }) : null;
     const alarm = w.promptedByAlarmId ? await this.alarms.get(w.promptedByAlarmId).catch(() => null) : null;
     return {
       ...workSummary(w, w.bearingId ? (labels.get(w.bearingId) ?? null) : null),
@@ -87,7 +87,7 @@ export class WorkRecordsService {
     if (dto.bearingId && !engine.bearings.some((b) => b.id === dto.bearingId))
       throw new BadRequestException('bearingId is not a bearing of this engine.');
     if (dto.promptedByInspectionId) {
-      const i = await this.db.getRepository(Inspection).findOne({ where: { id: dto.promptedByInspectionId } });
+      const i = await this.inspectionRepo.findOne({ where: { id: dto.promptedByInspectionId } });
       if (!i || i.engineId !== engineId) throw new BadRequestException('promptedByInspectionId is not an inspection of this engine.');
     }
     if (dto.promptedByAlarmId) {
@@ -121,8 +121,8 @@ export class WorkRecordsService {
     await this.checkLinks(dto.engineId, dto);
     if (dto.followUpActionIndexes?.length && !dto.promptedByInspectionId)
       throw new BadRequestException('followUpActionIndexes needs promptedByInspectionId.');
-    const saved = await this.db.getRepository(WorkRecord).save(
-      this.db.getRepository(WorkRecord).create({
+    const saved = await this.workRecordRepo.save(
+      this.workRecordRepo.create({
         engineId: dto.engineId,
         bearingId: dto.bearingId ?? null,
         title: dto.title.trim(),
@@ -160,7 +160,7 @@ export class WorkRecordsService {
     if (dto.hazards !== undefined) w.hazards = [...new Set(dto.hazards)];
     if (dto.startedAt !== undefined) w.startedAt = new Date(dto.startedAt);
     if (dto.satisfiesPlanIds !== undefined) w.satisfiesPlanIds = [...new Set(dto.satisfiesPlanIds)];
-    await this.db.getRepository(WorkRecord).save(w);
+    await this.workRecordRepo.save(w);
     await this.linkFollowUps(id, w.promptedByInspectionId, dto.followUpActionIndexes);
     return this.detail(id);
   }

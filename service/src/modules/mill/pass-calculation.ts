@@ -1,8 +1,8 @@
-import { BadRequestException } from '@nestjs/common';
 import type { PassCalculationDto, PassWarningCode, SectionDto } from '@crankjournal/shared-types';
 import { millPassCheck, type MillPassResult } from '../../calculations/mill-pass.js';
 import { MISAKA_VALID_RANGE, TYPICAL_FRICTION_FACTOR } from '../../calculations/rolling.js';
 import { WATTS_PER_HP } from '../../calculations/units.js';
+import { CalculationInputError } from '../../calculations/errors.js';
 
 const R = MISAKA_VALID_RANGE;
 /** The hot flow stress model, named and cited, with the range it was fitted over. */
@@ -44,14 +44,9 @@ const kilo = (j: number) => j / 1000;
 
 /** Runs the pure pass check and shapes its result for the API. Impossible input (exit not thinner…) is a 400. */
 export function calculatePass(input: PassCalculationInput): PassCalculationDto {
-  let r: MillPassResult;
   const frictionFactor = input.frictionFactor ?? TYPICAL_FRICTION_FACTOR;
-  try {
-    r = millPassCheck({ ...input, frictionFactor });
-  } catch (e) {
-    if (e instanceof RangeError) throw new BadRequestException(passErrorMessage(e));
-    throw e;
-  }
+  // Impossible input throws CalculationInputError, which the HTTP edge answers as a 400.
+  const r: MillPassResult = millPassCheck({ ...input, frictionFactor });
   const l = r.load;
   const f = r.flywheel;
   return {
@@ -110,9 +105,7 @@ export function calculatePass(input: PassCalculationInput): PassCalculationDto {
   };
 }
 
-/** A RangeError from the calculation, in words for the person who typed the sizes. */
-export function passErrorMessage(e: RangeError): string {
-  if (/exitThicknessMm must be less than entryThicknessMm/.test(e.message))
-    return 'The exit height must be less than the entry height: a pass has to reduce the bar (turn the bar, or check the sizes).';
-  return `The pass cannot be calculated: ${e.message}.`;
+/** A calculation's refusal of a pass, in words for the person who typed the sizes (shown beside a schedule's pass). */
+export function passErrorMessage(e: CalculationInputError): string {
+  return e.advice ?? `The pass cannot be calculated: ${e.message}.`;
 }

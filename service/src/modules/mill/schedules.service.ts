@@ -11,12 +11,13 @@ import type {
 import { barLengthM, sectionAreaMm2 } from '../../calculations/rolling.js';
 import { UsersService } from '../users/users.service.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
+import { CalculationInputError } from '../../calculations/errors.js';
 import { PassSchedule } from './pass-schedule.entity.js';
 import { SchedulePass } from './schedule-pass.entity.js';
 import { CustomerLot } from './customer-lot.entity.js';
 import type { Mill } from './mill.entity.js';
 import { MillService, type MillEngine } from './mill.service.js';
-import { calculatePass } from './pass-calculation.js';
+import { calculatePass, passErrorMessage } from './pass-calculation.js';
 
 /** What a plan assumes where the run will tell the truth later. */
 function planAssumptions(mill: Mill, engine: MillEngine): string[] {
@@ -163,6 +164,7 @@ export class SchedulesService {
       });
       return { ...base, calc, calcError: null };
     } catch (e) {
+      if (e instanceof CalculationInputError) return { ...base, calc: null, calcError: passErrorMessage(e) };
       if (e instanceof HttpException)
         return { ...base, calc: null, calcError: String((e.getResponse() as { message?: string }).message ?? e.message) };
       throw e;

@@ -94,7 +94,9 @@ export function qualificationProblem(
     case 'withdrawn':
       return {
         code: GATE_REASON_CODES.qualificationMissing,
-        message: `${whose} ${dutyWords} was withdrawn${finding.withdrawnAt ? ` on ${utcDateOf(finding.withdrawnAt)}` : ''}. Only the chief engineer can grant it again.`,
+        message:
+          `${whose} ${dutyWords} was withdrawn${finding.withdrawnAt ? ` on ${utcDateOf(finding.withdrawnAt)}` : ''}. ` +
+          'Only the chief engineer can grant it again.',
       };
     default:
       return {

@@ -5,6 +5,7 @@ import { EnginesModule } from '../engines/engines.module.js';
 import { EnginesService } from '../engines/engines.service.js';
 import { RunsModule } from '../runs/runs.module.js';
 import { StartGateService } from '../runs/start-gate.service.js';
+import { UsersModule } from '../users/users.module.js';
 import { AlarmsModule } from '../alarms/alarms.module.js';
 import { AlarmsService } from '../alarms/alarms.service.js';
 import { starterReason } from './qualification-rules.js';
@@ -18,7 +19,7 @@ import { Qualification } from './qualification.entity.js';
  * policy (acknowledge, shelve, unshelve need the same duty on the alarm's engine). Nobody is exempt.
  */
 @Module({
-  imports: [TypeOrmModule.forFeature([Qualification]), EnginesModule, RunsModule, AlarmsModule],
+  imports: [TypeOrmModule.forFeature([Qualification]), EnginesModule, RunsModule, AlarmsModule, UsersModule],
   providers: [QualificationsService],
   controllers: [QualificationsController],
   exports: [QualificationsService],

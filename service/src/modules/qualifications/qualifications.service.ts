@@ -1,6 +1,6 @@
 import { BadRequestException, ConflictException, ForbiddenException, Injectable, NotFoundException } from '@nestjs/common';
-import { InjectDataSource } from '@nestjs/typeorm';
-import { DataSource, In, IsNull, type EntityManager } from 'typeorm';
+import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
+import { DataSource, Repository, IsNull, type EntityManager } from 'typeorm';
 import {
   DUTIES,
   QUALIFICATION_EXPIRY_WARNING_DAYS,
@@ -11,7 +11,7 @@ import {
   type QualificationMatrixRow,
 } from '@crankjournal/shared-types';
 import { EnginesService } from '../engines/engines.service.js';
-import { User } from '../users/user.entity.js';
+import { UsersService } from '../users/users.service.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
 import {
   daysBetween,
@@ -31,14 +31,13 @@ const CREW_ROLES = ['chief_engineer', 'operator', 'maintenance_lead', 'mill_lead
 export class QualificationsService {
   constructor(
     @InjectDataSource() private readonly db: DataSource,
+    @InjectRepository(Qualification) private readonly qualificationRepo: Repository<Qualification>,
     private readonly engines: EnginesService,
+    private readonly users: UsersService,
   ) {}
 
-  private async names(ids: (string | null | undefined)[]): Promise<Map<string, string>> {
-    const want = [...new Set(ids.filter((x): x is string => !!x))];
-    if (!want.length) return new Map();
-    const users = await this.db.getRepository(User).find({ where: { id: In(want) } });
-    return new Map(users.map((u) => [u.id, u.displayName]));
+  private names(ids: (string | null | undefined)[]): Promise<Map<string, string>> {
+    return this.users.displayNames(ids);
   }
 
   private async toDtos(rows: Qualification[], today = utcDateOf(new Date())): Promise<QualificationDto[]> {
@@ -72,7 +71,7 @@ export class QualificationsService {
     duty: Duty,
     at = new Date(),
   ): Promise<QualificationFinding & { qualificationId: string | null }> {
-    const repo = this.db.getRepository(Qualification);
+    const repo = this.qualificationRepo;
     const standing = await repo.findOne({ where: { userId, engineId, duty, withdrawnAt: IsNull() } });
     const q = standing ?? (await repo.findOne({ where: { userId, engineId, duty }, order: { withdrawnAt: 'DESC' } }));
     if (!q) return { status: 'none', qualificationId: null };
@@ -83,6 +82,12 @@ export class QualificationsService {
       withdrawnAt: q.withdrawnAt,
       qualificationId: q.id,
     };
+  }
+
+  /** What keeps a person from a duty on an engine at a time, in words naming them as `who`; null when qualified. */
+  async problemOf(userId: string, engineId: string, duty: Duty, engineName: string, who: string, at = new Date()): Promise<string | null> {
+    const f = await this.finding(userId, engineId, duty, at);
+    return isQualified(f.status) ? null : (qualificationProblem(f, duty, engineName, who)?.message ?? null);
   }
 
   /** The id of the current qualification that allows the duty, or a 403 with what is missing, in words. */
@@ -104,13 +109,13 @@ export class QualificationsService {
     if (filter.userId) where.userId = filter.userId;
     if (filter.engineId) where.engineId = filter.engineId;
     if (!filter.includeWithdrawn) where.withdrawnAt = IsNull();
-    const rows = await this.db.getRepository(Qualification).find({ where, order: { expiresOn: 'ASC' }, take: 2000 });
+    const rows = await this.qualificationRepo.find({ where, order: { expiresOn: 'ASC' }, take: 2000 });
     return this.toDtos(rows);
   }
 
   /** A person's own qualifications, standing ones first, then the withdrawn history. */
   async mine(userId: string): Promise<QualificationDto[]> {
-    const rows = await this.db.getRepository(Qualification).find({ where: { userId }, order: { createdAt: 'DESC' } });
+    const rows = await this.qualificationRepo.find({ where: { userId }, order: { createdAt: 'DESC' } });
     const dtos = await this.toDtos(rows);
     return [
       ...dtos.filter((d) => !d.withdrawnAt).sort((a, b) => a.expiresOn.localeCompare(b.expiresOn)),
@@ -121,10 +126,8 @@ export class QualificationsService {
   async matrix(engineId: string): Promise<QualificationMatrix> {
     const engine = await this.engines.get(engineId);
     const today = utcDateOf(new Date());
-    const crew = await this.db
-      .getRepository(User)
-      .find({ where: { active: true, role: In([...CREW_ROLES]) }, order: { displayName: 'ASC' } });
-    const rows = await this.db.getRepository(Qualification).find({ where: { engineId, withdrawnAt: IsNull() } });
+    const crew = (await this.users.crew()).filter((u) => (CREW_ROLES as readonly string[]).includes(u.role));
+    const rows = await this.qualificationRepo.find({ where: { engineId, withdrawnAt: IsNull() } });
     const dtos = await this.toDtos(rows, today);
     const byUser = new Map<string, QualificationDto[]>();
     for (const d of dtos) byUser.set(d.userId, [...(byUser.get(d.userId) ?? []), d]);
@@ -163,8 +166,10 @@ export class QualificationsService {
   async grant(dto: GrantQualificationDto, by: AuthUser): Promise<QualificationDto> {
     this.assertDates(dto.grantedOn, dto.expiresOn);
     const engine = await this.engines.get(dto.engineId);
-    const person = await this.db.getRepository(User).findOne({ where: { id: dto.userId } });
-    if (!person) throw new NotFoundException('No such person.');
+    const person = await this.users.get(dto.userId).catch((e: unknown) => {
+      if (e instanceof NotFoundException) throw new NotFoundException('No such person.');
+      throw e;
+    });
     if (!person.active) throw new BadRequestException(`${person.displayName}'s account is deactivated.`);
     if (!(CREW_ROLES as readonly string[]).includes(person.role))
       throw new BadRequestException(

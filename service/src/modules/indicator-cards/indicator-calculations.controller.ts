@@ -1,7 +1,7 @@
-import { BadRequestException, Body, Controller, HttpCode, Post } from '@nestjs/common';
+import { Body, Controller, HttpCode, Post } from '@nestjs/common';
 import { ApiBadRequestResponse, ApiBearerAuth, ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
 import { AnyRole } from '../../common/decorators/roles.decorator.js';
-import { CalculationInputError, computeIndicatedPower } from '../../calculations/indicated-power.js';
+import { computeIndicatedPower } from '../../calculations/indicated-power.js';
 import {
   IndicatedPowerRequestDto,
   IndicatedPowerResponseDto,
@@ -9,15 +9,6 @@ import {
   TraceCalibrationResponseDto,
 } from './dto/calculations.dto.js';
 import { calibrateCardTrace } from './card-set-results.js';
-
-function answer<T>(fn: () => T): T {
-  try {
-    return fn();
-  } catch (e) {
-    if (e instanceof CalculationInputError) throw new BadRequestException({ statusCode: 400, error: 'Bad Request', message: [e.message] });
-    throw e;
-  }
-}
 
 /** Stateless calculators for indicator cards (nothing is stored). */
 @ApiTags('calculations')
@@ -30,15 +21,17 @@ export class IndicatorCalculationsController {
   @ApiOperation({
     summary: 'Indicated power of a set of cards',
     description:
-      'Each card gives exactly one of: meanEffectivePressurePsi; areaSqIn with lengthIn and springPsiPerIn; ordinatesIn with springPsiPerIn. ' +
+      'Each card gives exactly one of: meanEffectivePressurePsi; areaSqIn with lengthIn and springPsiPerIn; ' +
+      'ordinatesIn with springPsiPerIn. ' +
       'IHP per end = P·L·A·N/33,000 (head end less any tail rod, crank end less the piston rod, N = rpm); ' +
       "referredMeanEffectivePressurePsi refers every cylinder's work to the largest cylinder's area. " +
-      'A card with two ways or none, a non-positive dimension, a rod not smaller than its bore or two cards for one end answers 400 naming the field.',
+      'A card with two ways or none, a non-positive dimension, a rod not smaller than its bore or two cards for one end ' +
+      'answers 400 naming the field.',
   })
   @ApiOkResponse({ type: IndicatedPowerResponseDto })
   @ApiBadRequestResponse({ description: 'The body is not valid; the message names the field, e.g. "cylinders[0].cards[1].areaSqIn: …".' })
   indicatedPower(@Body() dto: IndicatedPowerRequestDto): IndicatedPowerResponseDto {
-    return answer(() => computeIndicatedPower(dto));
+    return computeIndicatedPower(dto);
   }
 
   @Post('indicator-trace')
@@ -53,6 +46,6 @@ export class IndicatorCalculationsController {
   @ApiOkResponse({ type: TraceCalibrationResponseDto })
   @ApiBadRequestResponse({ description: 'The trace or scale is not valid; the message names the field.' })
   indicatorTrace(@Body() dto: TraceCalibrationRequestDto): TraceCalibrationResponseDto {
-    return answer(() => calibrateCardTrace(dto.trace, dto.springPsiPerIn, dto.lengthIn));
+    return calibrateCardTrace(dto.trace, dto.springPsiPerIn, dto.lengthIn);
   }
 }

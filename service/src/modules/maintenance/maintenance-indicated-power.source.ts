@@ -13,7 +13,7 @@ const NONE_TTL_MS = 10 * 60_000;
  * sets can no longer change, so its figure is remembered.
  */
 @Injectable()
-export class IndicatedPowerSource {
+export class MaintenanceIndicatedPowerSource {
   private readonly logger = new Logger('Maintenance');
   private readonly closed = new Map<string, { hp: number | null; at: number }>();
   constructor(private readonly cardSets: CardSetsService) {}
