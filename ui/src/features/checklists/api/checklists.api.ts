@@ -58,9 +58,9 @@ export function useApplyChecklist() {
   const qc = useQueryClient();
   return (c: ChecklistDetail) => {
     qc.setQueryData(checklistKeys.checklist(c.id), c);
-    qc.invalidateQueries({ queryKey: checklistKeys.runOverview(c.runId) });
-    qc.invalidateQueries({ queryKey: runKeys.startGate(c.runId) });
-    qc.invalidateQueries({ queryKey: runKeys.detail(c.runId) });
+    void qc.invalidateQueries({ queryKey: checklistKeys.runOverview(c.runId) });
+    void qc.invalidateQueries({ queryKey: runKeys.startGate(c.runId) });
+    void qc.invalidateQueries({ queryKey: runKeys.detail(c.runId) });
   };
 }
 
@@ -107,7 +107,7 @@ export function useTemplateWrite() {
   const qc = useQueryClient();
   const done = (t: ChecklistTemplateDetail) => {
     qc.setQueryData(checklistKeys.template(t.id), t);
-    qc.invalidateQueries({ queryKey: [...checklistKeys.templates, 'list'] });
+    void qc.invalidateQueries({ queryKey: [...checklistKeys.templates, 'list'] });
   };
   return {
     create: useMutation({

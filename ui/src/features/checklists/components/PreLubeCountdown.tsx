@@ -57,7 +57,8 @@ export function PreLubeCountdownView({
           <Text fz="sm" c={c.expired ? 'signal' : 'dimmed'}>
             {c.expired
               ? 'Oil has drained from under the journals: pre-lube again and sign a new pre-lube checklist before starting.'
-              : `until ${new Date(until).toLocaleTimeString(undefined, { hour: '2-digit', minute: '2-digit' })}${windowMinutes ? ` (window ${windowMinutes} min)` : ''}`}
+              : `until ${new Date(until).toLocaleTimeString(undefined, { hour: '2-digit', minute: '2-digit' })}` +
+                (windowMinutes ? ` (window ${windowMinutes} min)` : '')}
           </Text>
         </Stack>
       </Group>

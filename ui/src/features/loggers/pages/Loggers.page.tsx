@@ -76,7 +76,10 @@ export default function LoggersPage() {
     <>
       <PageHeader
         title="Data loggers"
-        subtitle="Each logger that sends readings over HTTP has its own key. A key is shown once, when issued; a revoked key is refused from then on."
+        subtitle={
+          'Each logger that sends readings over HTTP has its own key. A key is shown once, when issued; a ' +
+          'revoked key is refused from then on.'
+        }
         action={
           <Button size="lg" leftSection={<IconKey />} onClick={() => setIssuing(true)}>
             Issue a logger key

@@ -197,7 +197,7 @@ export default function NewInspectionPage() {
           rows,
         }),
       );
-      navigate(`/maintenance/inspections/${made.id}`);
+      void navigate(`/maintenance/inspections/${made.id}`);
     } catch (e) {
       setError(errorText(e));
     }

@@ -86,8 +86,8 @@ export function useSaveMill(id: string | undefined) {
       id ? api<MillDto>(`/mill/mills/${id}`, { method: 'PUT', body: req }) : api<MillDto>('/mill/mills', { body: req }),
     onSuccess: (m) => {
       qc.setQueryData(millKeys.mill(m.id), m);
-      qc.invalidateQueries({ queryKey: millKeys.mills() });
-      qc.invalidateQueries({ queryKey: millKeys.schedules() });
+      void qc.invalidateQueries({ queryKey: millKeys.mills() });
+      void qc.invalidateQueries({ queryKey: millKeys.schedules() });
     },
   });
 }
@@ -101,7 +101,7 @@ export function useSaveSchedule(id: string | undefined) {
         : api<ScheduleDetail>('/mill/schedules', { body: req }),
     onSuccess: (s) => {
       qc.setQueryData(millKeys.schedule(s.id), s);
-      qc.invalidateQueries({ queryKey: [...millKeys.schedules(), 'list'] });
+      void qc.invalidateQueries({ queryKey: [...millKeys.schedules(), 'list'] });
     },
   });
 }
@@ -113,7 +113,7 @@ export function useCopySchedule() {
       api<ScheduleDetail>(`/mill/schedules/${id}/copies`, { body: req }),
     onSuccess: (s) => {
       qc.setQueryData(millKeys.schedule(s.id), s);
-      qc.invalidateQueries({ queryKey: [...millKeys.schedules(), 'list'] });
+      void qc.invalidateQueries({ queryKey: [...millKeys.schedules(), 'list'] });
     },
   });
 }
@@ -121,9 +121,9 @@ export function useCopySchedule() {
 function useRefreshRun(runId: string) {
   const qc = useQueryClient();
   return () => {
-    qc.invalidateQueries({ queryKey: millKeys.run(runId) });
-    qc.invalidateQueries({ queryKey: millKeys.runs() });
-    qc.invalidateQueries({ queryKey: millKeys.lots() });
+    void qc.invalidateQueries({ queryKey: millKeys.run(runId) });
+    void qc.invalidateQueries({ queryKey: millKeys.runs() });
+    void qc.invalidateQueries({ queryKey: millKeys.lots() });
   };
 }
 
@@ -152,8 +152,8 @@ function useLotMutation<T>(fn: (v: T) => Promise<unknown>) {
     mutationFn: fn,
     onSuccess: (d) => {
       if (d && typeof d === 'object' && 'reference' in (d as object)) qc.setQueryData(millKeys.lot((d as LotDetail).id), d);
-      qc.invalidateQueries({ queryKey: millKeys.lots() });
-      qc.invalidateQueries({ queryKey: millKeys.runs() });
+      void qc.invalidateQueries({ queryKey: millKeys.lots() });
+      void qc.invalidateQueries({ queryKey: millKeys.runs() });
     },
   });
 }

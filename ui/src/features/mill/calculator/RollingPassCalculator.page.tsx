@@ -172,7 +172,11 @@ export default function RollingPassCalculatorPage() {
     <>
       <PageHeader
         title="Rolling pass"
-        subtitle="Reduction, elongation, contact length L = √(R·Δh), mean flow stress of hot carbon steel (Misaka & Yoshimoto), roll force F = L·w·Y, torque and power; and how far the flywheel’s speed falls over the pass."
+        subtitle={
+          'Reduction, elongation, contact length L = √(R·Δh), mean flow stress of hot carbon steel (Misaka & ' +
+          'Yoshimoto), roll force F = L·w·Y, torque and power; and how far the flywheel’s speed falls over the ' +
+          'pass.'
+        }
         action={
           <Button component={Link} to="/calculators" variant="default">
             All calculators

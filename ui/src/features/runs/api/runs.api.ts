@@ -80,9 +80,9 @@ export function useApplyRun() {
   const qc = useQueryClient();
   return (run: RunDetail) => {
     qc.setQueryData(runKeys.detail(run.id), run);
-    qc.invalidateQueries({ queryKey: runKeys.lists() });
-    qc.invalidateQueries({ queryKey: runKeys.startGate(run.id) });
-    qc.invalidateQueries({ queryKey: engineKeys.list() });
+    void qc.invalidateQueries({ queryKey: runKeys.lists() });
+    void qc.invalidateQueries({ queryKey: runKeys.startGate(run.id) });
+    void qc.invalidateQueries({ queryKey: engineKeys.list() });
   };
 }
 

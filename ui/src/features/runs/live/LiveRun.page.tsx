@@ -1,6 +1,3 @@
-import { RunChecklistsLink } from '../../checklists/components/RunChecklistsLink';
-import { PreLubeCountdown } from '../../checklists/components/PreLubeCountdown';
-import { CardSetsPanel } from '../../indicator-cards';
 import '@mantine/charts/styles.css';
 import { useCallback, useEffect, useMemo, useState } from 'react';
 import { Link, useSearchParams, useParams } from 'react-router-dom';
@@ -9,6 +6,9 @@ import { Alert, Badge, Button, Center, Group, Loader, Stack, Tabs, Text } from '
 import { notifications } from '@mantine/notifications';
 import { IconClipboardList, IconCloudOff, IconFileTypeCsv, IconFileTypePdf, IconPlugConnectedX } from '@tabler/icons-react';
 import { RUN_STATES_TAKING_READINGS, type AlarmDto, type IngestResult, type ReadingDto } from '@crankjournal/shared-types';
+import { RunChecklistsLink } from '../../checklists/components/RunChecklistsLink';
+import { PreLubeCountdown } from '../../checklists/components/PreLubeCountdown';
+import { CardSetsPanel } from '../../indicator-cards';
 import { errorText } from '../../../api/http';
 import { useHasRole } from '../../auth/useSession';
 import { engineDetailQuery } from '../../engines/api/engines.api';

@@ -34,8 +34,8 @@ export function useAlarmAction(runId: string) {
     onSuccess: (alarm) => {
       if (alarm.runId === runId) qc.setQueryData<AlarmDto[]>(runKeys.alarms(runId), (old) => upsertAlarm(old, alarm));
       qc.setQueryData<AlarmDto[]>(openAlarmKeys.engine(alarm.engineId), (old) => upsertAlarm(old, alarm));
-      qc.invalidateQueries({ queryKey: runKeys.board(runId) });
-      qc.invalidateQueries({ queryKey: runKeys.detail(runId) });
+      void qc.invalidateQueries({ queryKey: runKeys.board(runId) });
+      void qc.invalidateQueries({ queryKey: runKeys.detail(runId) });
     },
   });
 }
@@ -48,8 +48,8 @@ export function useAmendReading(runId: string) {
       amendReading(reading.id, { value, reason }),
     onSuccess: (r) => {
       qc.setQueriesData<ReadingDto[]>({ queryKey: runKeys.readingsAll(runId) }, (old) => replaceReading(old, r));
-      qc.invalidateQueries({ queryKey: runKeys.board(runId) });
-      qc.invalidateQueries({ queryKey: runKeys.alarms(runId) });
+      void qc.invalidateQueries({ queryKey: runKeys.board(runId) });
+      void qc.invalidateQueries({ queryKey: runKeys.alarms(runId) });
     },
   });
 }

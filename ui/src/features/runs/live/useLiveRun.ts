@@ -28,14 +28,14 @@ export function useLiveRun(runId: string, engineId?: string): { connected: boole
     const onAmended = (r: ReadingDto) => {
       if (r.runId !== runId) return;
       qc.setQueriesData<ReadingDto[]>({ queryKey: runKeys.readingsAll(runId) }, (old) => replaceReading(old, r));
-      qc.invalidateQueries({ queryKey: runKeys.board(runId) });
+      void qc.invalidateQueries({ queryKey: runKeys.board(runId) });
     };
     const onAlarm = (a: AlarmDto) => {
       if (engineId && a.engineId === engineId) qc.setQueryData<AlarmDto[]>(openAlarmKeys.engine(engineId), (old) => upsertAlarm(old, a));
       if (a.runId !== runId) return;
       qc.setQueryData<AlarmDto[]>(runKeys.alarms(runId), (old) => upsertAlarm(old, a));
-      qc.invalidateQueries({ queryKey: runKeys.board(runId) });
-      qc.invalidateQueries({ queryKey: runKeys.detail(runId) });
+      void qc.invalidateQueries({ queryKey: runKeys.board(runId) });
+      void qc.invalidateQueries({ queryKey: runKeys.detail(runId) });
     };
     const onRun = (r: RunDetail) => {
       if (r.id === runId) applyRun(r);
@@ -43,8 +43,8 @@ export function useLiveRun(runId: string, engineId?: string): { connected: boole
     const onConnect = () => {
       setConnected(true);
       if (missed) {
-        qc.invalidateQueries({ queryKey: runKeys.run(runId) });
-        if (engineId) qc.invalidateQueries({ queryKey: openAlarmKeys.engine(engineId) });
+        void qc.invalidateQueries({ queryKey: runKeys.run(runId) });
+        if (engineId) void qc.invalidateQueries({ queryKey: openAlarmKeys.engine(engineId) });
       }
       missed = false;
     };

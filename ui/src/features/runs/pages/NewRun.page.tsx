@@ -62,7 +62,7 @@ export default function NewRunPage() {
               {
                 onSuccess: (run) => {
                   notifications.show({ title: 'Run planned', message: `${run.title} on ${run.engineName}.` });
-                  navigate(`/runs/${run.id}`);
+                  void navigate(`/runs/${run.id}`);
                 },
                 onError: (e) => setServerErrors(e instanceof HttpError ? e.messages : [errorText(e)]),
               },
