@@ -132,7 +132,7 @@ export default function IndicatedPowerCalculatorPage() {
       live = false;
       clearTimeout(t);
     };
-    // eslint-disable-next-line react-hooks/exhaustive-deps
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- key is the JSON of request: ask only when the figures change
   }, [key]);
 
   const setCyl = (i: number, patch: Partial<CylinderForm>) =>

@@ -1,3 +1,4 @@
+import { useCallback } from 'react';
 import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
 import type {
   AmendChecklistRequest,
@@ -56,12 +57,15 @@ export async function fetchPhotoUrl(checklistId: string, itemKey: string): Promi
 /** Puts a changed checklist into the cache and refreshes the run's overview and start gate. */
 export function useApplyChecklist() {
   const qc = useQueryClient();
-  return (c: ChecklistDetail) => {
-    qc.setQueryData(checklistKeys.checklist(c.id), c);
-    void qc.invalidateQueries({ queryKey: checklistKeys.runOverview(c.runId) });
-    void qc.invalidateQueries({ queryKey: runKeys.startGate(c.runId) });
-    void qc.invalidateQueries({ queryKey: runKeys.detail(c.runId) });
-  };
+  return useCallback(
+    (c: ChecklistDetail) => {
+      qc.setQueryData(checklistKeys.checklist(c.id), c);
+      void qc.invalidateQueries({ queryKey: checklistKeys.runOverview(c.runId) });
+      void qc.invalidateQueries({ queryKey: runKeys.startGate(c.runId) });
+      void qc.invalidateQueries({ queryKey: runKeys.detail(c.runId) });
+    },
+    [qc],
+  );
 }
 
 export function useStartChecklist(runId: string) {

@@ -31,6 +31,5 @@ export function useRunChecklistsLive(runId: string) {
       socket.off('run:changed', onRun);
       leave();
     };
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [runId, qc]);
+  }, [runId, qc, applyRun]);
 }

@@ -121,8 +121,7 @@ export function CardSetForm({
       clearTimeout(timer);
       ctrl.abort();
     };
-    // The request is compared by its content.
-    // eslint-disable-next-line react-hooks/exhaustive-deps
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- requestKey: preview again only when the content changes
   }, [runId, requestKey]);
 
   const setCard = (key: string, next: CardDraft) => setDraft((d) => ({ ...d, cards: { ...d.cards, [key]: next } }));

@@ -124,7 +124,7 @@ function IssueModal({ opened, onClose, engines }: { opened: boolean; onClose: ()
   const only = engines.length === 1 ? engines[0]!.value : '';
   useEffect(() => {
     if (only && !form.values.engineId) form.setFieldValue('engineId', only);
-    // eslint-disable-next-line react-hooks/exhaustive-deps
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- form is new each render; choose the engine once per opening
   }, [only, opened]);
   return (
     <Modal

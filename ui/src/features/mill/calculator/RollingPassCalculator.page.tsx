@@ -133,7 +133,7 @@ export default function RollingPassCalculatorPage() {
       live = false;
       clearTimeout(t);
     };
-    // eslint-disable-next-line react-hooks/exhaustive-deps
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- key is the JSON of request: ask only when the figures change
   }, [key]);
 
   const stands = (mills.data ?? []).flatMap((m) => m.stands.map((s) => ({ mill: m, stand: s })));

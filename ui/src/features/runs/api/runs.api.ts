@@ -1,3 +1,4 @@
+import { useCallback } from 'react';
 import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
 import type {
   AlarmDto,
@@ -78,12 +79,15 @@ export function startRefusal(e: unknown): StartGateVerdict | null {
 /** Puts a changed run into the cache (e.g. from the 'run:changed' live event) and refreshes the lists. */
 export function useApplyRun() {
   const qc = useQueryClient();
-  return (run: RunDetail) => {
-    qc.setQueryData(runKeys.detail(run.id), run);
-    void qc.invalidateQueries({ queryKey: runKeys.lists() });
-    void qc.invalidateQueries({ queryKey: runKeys.startGate(run.id) });
-    void qc.invalidateQueries({ queryKey: engineKeys.list() });
-  };
+  return useCallback(
+    (run: RunDetail) => {
+      qc.setQueryData(runKeys.detail(run.id), run);
+      void qc.invalidateQueries({ queryKey: runKeys.lists() });
+      void qc.invalidateQueries({ queryKey: runKeys.startGate(run.id) });
+      void qc.invalidateQueries({ queryKey: engineKeys.list() });
+    },
+    [qc],
+  );
 }
 
 export function useCreateRun() {

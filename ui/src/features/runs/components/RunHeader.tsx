@@ -258,6 +258,7 @@ function TransitionModal({
   onDone: (r: RunDetail) => void;
 }) {
   const transition = useTransitionRun(run.id);
+  const { reset: resetTransition } = transition;
   const [note, setNote] = useState('');
   const [signature, setSignature] = useState('');
   const [error, setError] = useState<string | null>(null);
@@ -266,9 +267,8 @@ function TransitionModal({
     setNote('');
     setSignature('');
     setError(null);
-    transition.reset();
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [target]);
+    resetTransition();
+  }, [target, resetTransition]);
 
   if (!target) return <Modal opened={false} onClose={onClose} title="" />;
   const label = transitionLabel(run.state, target);

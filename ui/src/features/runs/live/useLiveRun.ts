@@ -70,9 +70,7 @@ export function useLiveRun(runId: string, engineId?: string): { connected: boole
       leave();
       leaveEngine();
     };
-    // applyRun is a new function each render; the handlers only need the latest query client.
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [runId, engineId, qc]);
+  }, [runId, engineId, qc, applyRun]);
 
   return { connected };
 }

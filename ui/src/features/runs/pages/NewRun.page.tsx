@@ -38,7 +38,7 @@ export default function NewRunPage() {
   const only = engines.data?.length === 1 ? engines.data[0]!.id : null;
   useEffect(() => {
     if (only && !form.values.engineId) form.setFieldValue('engineId', only);
-    // eslint-disable-next-line react-hooks/exhaustive-deps
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- form is new each render; choose the only engine once
   }, [only]);
 
   return (
