@@ -11,7 +11,7 @@ import type {
   FillChecklistItemRequest,
   RunChecklistsOverview,
 } from '@crankjournal/shared-types';
-import { api, download } from '../../../api/http';
+import { api, withQuery, download } from '../../../api/http';
 import { runKeys } from '../../runs/api/runs.api';
 
 /** Keys: a run's checklists sit under the run's key, so a run refresh takes them too; templates under ['checklist-templates']. */
@@ -31,7 +31,7 @@ export const checklistQuery = (id: string) =>
 export const templatesQuery = (engineId?: string) =>
   queryOptions({
     queryKey: checklistKeys.templateList(engineId),
-    queryFn: () => api<ChecklistTemplateSummary[]>(`/checklist-templates${engineId ? `?engineId=${engineId}` : ''}`),
+    queryFn: () => api<ChecklistTemplateSummary[]>(withQuery('/checklist-templates', { engineId })),
   });
 export const templateQuery = (id: string) =>
   queryOptions({ queryKey: checklistKeys.template(id), queryFn: () => api<ChecklistTemplateDetail>(`/checklist-templates/${id}`) });

@@ -26,7 +26,7 @@ import type {
   SendQuoteRequest,
   UpdateBarRequest,
 } from '@crankjournal/shared-types';
-import { api, download } from '../../../api/http';
+import { api, withQuery, download } from '../../../api/http';
 
 export interface ScheduleFilters {
   millId?: string;
@@ -56,13 +56,7 @@ export const millQuery = (id: string) => queryOptions({ queryKey: millKeys.mill(
 export const schedulesQuery = (f: ScheduleFilters = {}) =>
   queryOptions({
     queryKey: millKeys.scheduleList(f),
-    queryFn: () => {
-      const q = new URLSearchParams();
-      if (f.millId) q.set('millId', f.millId);
-      if (f.templates !== undefined) q.set('templates', String(f.templates));
-      const s = q.toString();
-      return api<ScheduleSummary[]>(`/mill/schedules${s ? `?${s}` : ''}`);
-    },
+    queryFn: () => api<ScheduleSummary[]>(withQuery('/mill/schedules', { millId: f.millId, templates: f.templates })),
   });
 export const scheduleQuery = (id: string) =>
   queryOptions({ queryKey: millKeys.schedule(id), queryFn: () => api<ScheduleDetail>(`/mill/schedules/${id}`) });
@@ -72,7 +66,7 @@ export const runLogQuery = (runId: string) =>
 export const timelineQuery = (runId: string) =>
   queryOptions({ queryKey: millKeys.timeline(runId), queryFn: () => api<MillTimelineItem[]>(`/mill/runs/${runId}/timeline`) });
 export const lotsQuery = (status?: LotStatus) =>
-  queryOptions({ queryKey: millKeys.lotList(status), queryFn: () => api<LotSummary[]>(`/mill/lots${status ? `?status=${status}` : ''}`) });
+  queryOptions({ queryKey: millKeys.lotList(status), queryFn: () => api<LotSummary[]>(withQuery('/mill/lots', { status })) });
 export const lotQuery = (id: string) => queryOptions({ queryKey: millKeys.lot(id), queryFn: () => api<LotDetail>(`/mill/lots/${id}`) });
 
 export const calculateRollingPass = (req: RollingPassRequest) => api<RollingPassResponse>('/calculations/rolling-pass', { body: req });

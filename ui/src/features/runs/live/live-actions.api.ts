@@ -1,6 +1,6 @@
 import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
 import type { AlarmDto, AmendReadingRequest, ReadingDto, ShelveAlarmRequest } from '@crankjournal/shared-types';
-import { api } from '../../../api/http';
+import { api, withQuery } from '../../../api/http';
 import { runKeys } from '../api/runs.api';
 import { openAlarmKeys, replaceReading, upsertAlarm } from './live-cache';
 
@@ -9,7 +9,7 @@ export { mergeAlarms, openAlarmKeys } from './live-cache';
 export const openEngineAlarmsQuery = (engineId: string) =>
   queryOptions({
     queryKey: openAlarmKeys.engine(engineId),
-    queryFn: () => api<AlarmDto[]>(`/alarms?engineId=${encodeURIComponent(engineId)}&open=true`),
+    queryFn: () => api<AlarmDto[]>(withQuery('/alarms', { engineId, open: true })),
   });
 
 export const acknowledgeAlarm = (id: string) => api<AlarmDto>(`/alarms/${id}/acknowledge`, { method: 'POST' });
