@@ -44,7 +44,7 @@ CALCULATORS.push({
   path: '/calculators/rolling-pass',
   icon: IconBarbell,
   roles: ROLES,
-  Page: lazy(() => import('../mill/calculator/RollingPassCalculator.page')),
+  Page: lazy(() => import('../mill/calculators/RollingPassCalculator.page')),
 });
 
 // Lubrication (stateless: POST /api/calculations/oil-viscosity, /journal-friction, /lift-pressure, /jack-capacity).

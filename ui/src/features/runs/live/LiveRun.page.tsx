@@ -22,13 +22,14 @@ import {
   runReadingsQuery,
 } from '../api/runs.api';
 import { RunHeader } from '../components/RunHeader';
-import { AlarmBanner } from './AlarmBanner';
-import { AlarmList, ShelveModal } from './AlarmList';
-import { isUnacknowledged } from './alarm-look';
+import { AlarmBanner } from '../../alarms/components/AlarmBanner';
+import { AlarmList, ShelveModal } from '../../alarms/components/AlarmList';
+import { isUnacknowledged } from '../../alarms/components/alarm-look';
+import { mergeAlarms, openEngineAlarmsQuery, useAlarmAction } from '../../alarms/api/alarms.api';
 import { Board } from './Board';
 import { BottomBar } from './BottomBar';
 import { CsvImport } from './CsvImport';
-import { mergeAlarms, openEngineAlarmsQuery, useAlarmAction, useAmendReading } from './live-actions.api';
+import { useAmendReading } from './live-actions.api';
 import { QueueStatus, waitingText } from './QueueStatus';
 import { AmendModal, ReadingsTable } from './ReadingsTable';
 import { TrendCharts } from './TrendCharts';

@@ -3,7 +3,8 @@ import { useQueryClient } from '@tanstack/react-query';
 import type { AlarmDto, ReadingDto, ReadingsEvent, RunDetail } from '@crankjournal/shared-types';
 import { getSocket, joinRoom } from '../../../api/socket';
 import { runKeys, useApplyRun } from '../api/runs.api';
-import { applyReadings, openAlarmKeys, replaceReading, upsertAlarm } from './live-cache';
+import { openAlarmKeys, upsertAlarm } from '../../alarms/api/alarms.api';
+import { applyReadings, replaceReading } from './live-cache';
 
 /**
  * Keeps a run's queries current from the live channel: joins `run:<id>`, applies readings, amendments,
