@@ -47,7 +47,7 @@ import {
   toWriteRequest,
   validateEngine,
   type EngineFormValues,
-} from './engine-form';
+} from '../model/engine-form';
 
 type Form = UseFormReturnType<EngineFormValues>;
 
