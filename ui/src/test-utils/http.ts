@@ -2,11 +2,8 @@ import type { Role, SessionUser } from '@crankjournal/shared-types';
 import { sessionStore } from '../api/session';
 
 /** A JSON response as the service sends it. */
-export function json(body: unknown, init: ResponseInit = {}): Response {
-  return new Response(JSON.stringify(body), {
-    ...init,
-    headers: { 'content-type': 'application/json', ...(init.headers ?? {}) },
-  });
+export function json(body: unknown, status = 200): Response {
+  return new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
 }
 
 /** Signs a demo person of the given role in (tokens are never checked by the stubbed fetch). */
@@ -75,7 +72,7 @@ export function stubFetch(routes: Record<string, Handler | unknown> = {}) {
       if (r.method !== '*' && r.method !== req.method) continue;
       if (r.pattern.test(path)) return r.handler(req);
     }
-    return json({ message: `No stub for ${req.method} ${path}` }, { status: 404 });
+    return json({ statusCode: 404, message: `No stub for ${req.method} ${path}` }, 404);
   });
   return {
     spy,

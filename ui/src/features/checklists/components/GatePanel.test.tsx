@@ -1,6 +1,8 @@
+import userEvent from '@testing-library/user-event';
 import type { Role, RunDetail, RunState } from '@crankjournal/shared-types';
-import { render, screen, fireEvent, within } from '../../../test-utils/render';
+import { render, screen, within } from '../../../test-utils/render';
 import { sessionStore } from '../../../api/session';
+import { json } from '../../../test-utils/http';
 import { GatePanel } from './GatePanel';
 
 const run = (state: RunState): RunDetail => ({
@@ -27,8 +29,6 @@ const run = (state: RunState): RunDetail => ({
   peaks: [],
   createdAt: '2026-12-01T08:00:00Z',
 });
-const json = (body: unknown, status = 200) =>
-  new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
 const signIn = (role: Role) =>
   sessionStore.set({
     accessToken: 'a',
@@ -53,6 +53,7 @@ describe('GatePanel', () => {
   });
 
   it('shows the server’s refusal with every reason when a start is refused', async () => {
+    const user = userEvent.setup();
     signIn('operator');
     vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
       if (String(input).endsWith('/start-gate'))
@@ -72,8 +73,8 @@ describe('GatePanel', () => {
       );
     });
     render(<GatePanel run={run('cleared')} />);
-    fireEvent.click(await screen.findByRole('button', { name: 'Start engine' }));
-    fireEvent.click(within(await screen.findByRole('dialog')).getByRole('button', { name: 'Start engine' }));
+    await user.click(await screen.findByRole('button', { name: 'Start engine' }));
+    await user.click(within(await screen.findByRole('dialog')).getByRole('button', { name: 'Start engine' }));
     const refused = await screen.findByTestId('start-refused');
     expect(refused).toHaveTextContent('Start refused');
     expect(refused).toHaveTextContent('The pre-lube sign-off (Pre-lube) is 31 min old.');

@@ -2,6 +2,7 @@ import { Route, Routes } from 'react-router-dom';
 import type { EngineDetail, LimitChangeDto, UnitConversionTable } from '@crankjournal/shared-types';
 import { render, screen, within } from '../../../test-utils/render';
 import { sessionStore } from '../../../api/session';
+import { json } from '../../../test-utils/http';
 import EngineDetailPage from './EngineDetail.page';
 
 const engine: EngineDetail = {
@@ -42,7 +43,6 @@ const changes: LimitChangeDto[] = [
   },
 ];
 const table: UnitConversionTable = { imperial: {}, metric: { degF: { from: 'degF', to: 'degC', factor: 5 / 9, offset: -17.7778 } } };
-const json = (body: unknown) => new Response(JSON.stringify(body), { headers: { 'content-type': 'application/json' } });
 
 describe('engine detail page', () => {
   beforeEach(() => {

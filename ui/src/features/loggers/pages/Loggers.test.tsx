@@ -1,10 +1,10 @@
+import userEvent from '@testing-library/user-event';
 import type { LoggerDto } from '@crankjournal/shared-types';
-import { render, screen, fireEvent, within } from '../../../test-utils/render';
+import { render, screen, within } from '../../../test-utils/render';
 import { sessionStore } from '../../../api/session';
+import { json } from '../../../test-utils/http';
 import LoggersPage from './Loggers.page';
 
-const json = (body: unknown, status = 200) =>
-  new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
 const logger: LoggerDto = {
   id: 'l1',
   engineId: 'e1',
@@ -29,6 +29,7 @@ describe('data loggers page', () => {
   });
 
   it('shows an issued key once, with a copy button and a warning', async () => {
+    const user = userEvent.setup();
     const fetchSpy = vi.spyOn(globalThis, 'fetch').mockImplementation(async (input, init) => {
       const url = String(input);
       if (url === '/api/engines') return json([{ id: 'e1', name: 'No. 2 engine' }]);
@@ -38,10 +39,11 @@ describe('data loggers page', () => {
     });
     render(<LoggersPage />);
     expect(await screen.findByText('Bearing thermocouples', {}, { timeout: 8000 })).toBeInTheDocument();
-    fireEvent.click(screen.getByRole('button', { name: 'Issue a logger key' }));
+    await user.click(screen.getByRole('button', { name: 'Issue a logger key' }));
     const dialog = await screen.findByRole('dialog');
-    fireEvent.change(within(dialog).getByLabelText(/Logger name/), { target: { value: 'Oil pressure logger' } });
-    fireEvent.click(within(dialog).getByRole('button', { name: 'Issue key' }));
+    await user.clear(within(dialog).getByLabelText(/Logger name/));
+    await user.type(within(dialog).getByLabelText(/Logger name/), 'Oil pressure logger');
+    await user.click(within(dialog).getByRole('button', { name: 'Issue key' }));
     expect(await screen.findByTestId('issued-key', {}, { timeout: 8000 })).toHaveTextContent('cjl_secret_key_123');
     expect(screen.getByText(/only time the key is shown/)).toBeInTheDocument();
     expect(screen.getByRole('button', { name: 'Copy key' })).toBeInTheDocument();
@@ -50,6 +52,7 @@ describe('data loggers page', () => {
   }, 20_000);
 
   it('asks before revoking a key', async () => {
+    const user = userEvent.setup();
     const fetchSpy = vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
       const url = String(input);
       if (url === '/api/engines') return json([{ id: 'e1', name: 'No. 2 engine' }]);
@@ -57,11 +60,11 @@ describe('data loggers page', () => {
       return json([logger]);
     });
     render(<LoggersPage />);
-    fireEvent.click(await screen.findByRole('button', { name: 'Revoke key' }, { timeout: 8000 }));
+    await user.click(await screen.findByRole('button', { name: 'Revoke key' }, { timeout: 8000 }));
     const dialog = await screen.findByRole('dialog');
     expect(dialog).toHaveTextContent('will be refused from now on');
     expect(fetchSpy.mock.calls.some(([u]) => String(u).endsWith('/revoke'))).toBe(false);
-    fireEvent.click(within(dialog).getByRole('button', { name: 'Revoke key' }));
+    await user.click(within(dialog).getByRole('button', { name: 'Revoke key' }));
     await vi.waitFor(() => expect(fetchSpy.mock.calls.some(([u]) => String(u) === '/api/loggers/l1/revoke')).toBe(true));
   }, 20_000);
 });

@@ -1,11 +1,9 @@
 import { render, screen, within, waitFor } from '../../../test-utils/render';
 import { sessionStore } from '../../../api/session';
 import { plan } from '../test/fixtures';
+import { json } from '../../../test-utils/http';
 import { DueList } from './DueList';
 import { TodayMaintenance } from './TodayMaintenance';
-
-const json = (body: unknown, status = 200) =>
-  new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
 
 describe('the due list', () => {
   afterEach(() => {

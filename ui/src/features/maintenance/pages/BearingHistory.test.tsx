@@ -2,11 +2,9 @@ import { Route, Routes } from 'react-router-dom';
 import { render, screen, waitFor, within } from '../../../test-utils/render';
 import { sessionStore } from '../../../api/session';
 import { HISTORY, INSPECTION } from '../test/fixtures';
+import { json } from '../../../test-utils/http';
 import BearingHistoryPage from './BearingHistory.page';
 import InspectionPage from './Inspection.page';
-
-const json = (body: unknown, status = 200) =>
-  new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
 
 describe('a bearing’s history', () => {
   beforeEach(() => {

@@ -1,5 +1,6 @@
+import userEvent from '@testing-library/user-event';
 import type { Role } from '@crankjournal/shared-types';
-import { render, screen, fireEvent, waitFor } from '../../../test-utils/render';
+import { render, screen, waitFor } from '../../../test-utils/render';
 import { sessionStore } from '../../../api/session';
 import { bar, calc, json, overloaded, rect, schedule } from '../test/fixtures';
 import { LogPass } from './LogPass';
@@ -45,6 +46,7 @@ describe('LogPass', () => {
   });
 
   it('prefills the next pass from the bar’s schedule and sends the measured figures', async () => {
+    const user = userEvent.setup();
     const fetchSpy = vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
       if (String(input).includes('/mill/schedules/')) return json(schedule());
       return json(logged(), 201);
@@ -55,9 +57,11 @@ describe('LogPass', () => {
     expect(screen.getByLabelText('Pass number')).toHaveValue('2');
     expect(screen.getByLabelText('Entry: height, mm')).toHaveValue('80');
     expect(screen.getByLabelText('Measured exit: height, mm')).toHaveValue('60');
-    fireEvent.change(screen.getByLabelText('Measured temperature, °C'), { target: { value: '1096' } });
-    fireEvent.change(screen.getByLabelText('Measured exit: width, mm'), { target: { value: '66.5' } });
-    fireEvent.click(screen.getByRole('button', { name: 'Log pass' }));
+    await user.clear(screen.getByLabelText('Measured temperature, °C'));
+    await user.type(screen.getByLabelText('Measured temperature, °C'), '1096');
+    await user.clear(screen.getByLabelText('Measured exit: width, mm'));
+    await user.type(screen.getByLabelText('Measured exit: width, mm'), '66.5');
+    await user.click(screen.getByRole('button', { name: 'Log pass' }));
     await waitFor(() => expect(fetchSpy.mock.calls.some(([u]) => String(u).endsWith('/mill/bars/bar-1/passes'))).toBe(true));
     const [, init] = fetchSpy.mock.calls.find(([u]) => String(u).endsWith('/mill/bars/bar-1/passes'))!;
     const body = JSON.parse(String(init?.body));
@@ -66,13 +70,14 @@ describe('LogPass', () => {
   });
 
   it('shows the warnings of an overloaded pass as soon as it is logged', async () => {
+    const user = userEvent.setup();
     vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
       if (String(input).includes('/mill/schedules/')) return json(schedule());
       return json(logged(overloaded()), 201);
     });
     render(<LogPass runId="run-1" bars={[bar()]} stands={stands} barId="bar-1" onBarChange={() => {}} />);
     await waitFor(() => expect(screen.getByLabelText('Measured temperature, °C')).toHaveValue('1150'), { timeout: 8000 });
-    fireEvent.click(screen.getByRole('button', { name: 'Log pass' }));
+    await user.click(screen.getByRole('button', { name: 'Log pass' }));
     const result = await screen.findByTestId('last-pass-result');
     expect(result).toHaveTextContent('Flywheel speed drop');
     expect(result).toHaveTextContent('below 67.5 rpm');

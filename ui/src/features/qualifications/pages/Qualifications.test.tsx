@@ -1,10 +1,10 @@
+import userEvent from '@testing-library/user-event';
 import type { QualificationDto, QualificationMatrix, Role } from '@crankjournal/shared-types';
-import { render, screen, fireEvent, within } from '../../../test-utils/render';
+import { render, screen, within } from '../../../test-utils/render';
 import { sessionStore } from '../../../api/session';
+import { json } from '../../../test-utils/http';
 import QualificationsPage from './Qualifications.page';
 
-const json = (body: unknown, status = 200) =>
-  new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
 const signIn = (role: Role) =>
   sessionStore.set({
     accessToken: 'a',
@@ -58,6 +58,7 @@ describe('QualificationsPage', () => {
   });
 
   it('gives the chief engineer the crew matrix, with what has expired, and a way to grant', async () => {
+    const user = userEvent.setup();
     signIn('chief_engineer');
     vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
       const url = String(input);
@@ -70,7 +71,7 @@ describe('QualificationsPage', () => {
     expect(within(table).getByText('Cyril Dunnock')).toBeInTheDocument();
     expect(within(table).getByText('Expired')).toBeInTheDocument();
     expect(screen.getByTestId('qualifications-attention')).toHaveTextContent('Cyril Dunnock — Start and run');
-    fireEvent.click(within(table).getByRole('button', { name: 'Cyril Dunnock, Pre-lube: not qualified' }));
+    await user.click(within(table).getByRole('button', { name: 'Cyril Dunnock, Pre-lube: not qualified' }));
     expect(await screen.findByRole('button', { name: 'Grant qualification' })).toBeInTheDocument();
   }, 20_000);
 
