@@ -10,8 +10,8 @@ export function json(body: unknown, status = 200): Response {
 export function signIn(role: Role, over: Partial<SessionUser> = {}): SessionUser {
   const user: SessionUser = {
     id: 'u1',
-    email: `${role}@alderforge.example`,
-    displayName: 'Demo person',
+    email: 'x@alderforge.example',
+    displayName: 'Test Person',
     role,
     unitSystem: 'imperial',
     ...over,

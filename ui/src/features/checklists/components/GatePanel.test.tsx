@@ -1,8 +1,7 @@
 import userEvent from '@testing-library/user-event';
-import type { Role, RunDetail, RunState } from '@crankjournal/shared-types';
+import type { RunDetail, RunState } from '@crankjournal/shared-types';
 import { render, screen, within } from '../../../test-utils/render';
-import { sessionStore } from '../../../api/session';
-import { json } from '../../../test-utils/http';
+import { json, signIn, signOut } from '../../../test-utils/http';
 import { GatePanel } from './GatePanel';
 
 const run = (state: RunState): RunDetail => ({
@@ -29,17 +28,11 @@ const run = (state: RunState): RunDetail => ({
   peaks: [],
   createdAt: '2026-12-01T08:00:00Z',
 });
-const signIn = (role: Role) =>
-  sessionStore.set({
-    accessToken: 'a',
-    refreshToken: 'r',
-    user: { id: 'u1', email: 'x@alderforge.example', displayName: 'Test Person', role, unitSystem: 'imperial' },
-  });
 
 describe('GatePanel', () => {
   afterEach(() => {
     vi.restoreAllMocks();
-    sessionStore.set(null);
+    signOut();
   });
 
   it('shows the countdown of the pre-lube window while the run is cleared', async () => {

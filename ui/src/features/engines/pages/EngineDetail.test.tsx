@@ -1,8 +1,7 @@
 import { Route, Routes } from 'react-router-dom';
 import type { EngineDetail, LimitChangeDto, UnitConversionTable } from '@crankjournal/shared-types';
 import { render, screen, within } from '../../../test-utils/render';
-import { sessionStore } from '../../../api/session';
-import { json } from '../../../test-utils/http';
+import { json, signIn, signOut } from '../../../test-utils/http';
 import EngineDetailPage from './EngineDetail.page';
 
 const engine: EngineDetail = {
@@ -46,11 +45,7 @@ const table: UnitConversionTable = { imperial: {}, metric: { degF: { from: 'degF
 
 describe('engine detail page', () => {
   beforeEach(() => {
-    sessionStore.set({
-      accessToken: 'a',
-      refreshToken: 'r',
-      user: { id: 'u2', email: 'op@alderforge.example', displayName: 'Operator', role: 'operator', unitSystem: 'metric' },
-    });
+    signIn('operator', { id: 'u2', email: 'op@alderforge.example', displayName: 'Operator', unitSystem: 'metric' });
     vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
       const url = String(input);
       if (url.endsWith('/limit-changes')) return json(changes);
@@ -60,7 +55,7 @@ describe('engine detail page', () => {
   });
   afterEach(() => {
     vi.restoreAllMocks();
-    sessionStore.set(null);
+    signOut();
   });
 
   it('shows limits in the person’s units, the pressure caution, and each limit change as old struck through → new', async () => {

@@ -2,8 +2,7 @@ import userEvent from '@testing-library/user-event';
 import { Route, Routes } from 'react-router-dom';
 import type { EngineDetail } from '@crankjournal/shared-types';
 import { render, screen, waitFor } from '../../../test-utils/render';
-import { sessionStore } from '../../../api/session';
-import { json } from '../../../test-utils/http';
+import { json, signIn, signOut } from '../../../test-utils/http';
 import EngineEditPage from './EngineEdit.page';
 
 const engine: EngineDetail = {
@@ -32,16 +31,10 @@ const engine: EngineDetail = {
 };
 
 describe('engine edit page', () => {
-  beforeEach(() =>
-    sessionStore.set({
-      accessToken: 'a',
-      refreshToken: 'r',
-      user: { id: 'u1', email: 'chief@alderforge.example', displayName: 'Chief', role: 'chief_engineer', unitSystem: 'imperial' },
-    }),
-  );
+  beforeEach(() => signIn('chief_engineer', { id: 'u1', email: 'chief@alderforge.example', displayName: 'Chief', unitSystem: 'imperial' }));
   afterEach(() => {
     vi.restoreAllMocks();
-    sessionStore.set(null);
+    signOut();
   });
 
   it('puts the whole engine and shows the server’s 400 messages', async () => {

@@ -1,8 +1,7 @@
 import userEvent from '@testing-library/user-event';
 import type { LoggerDto } from '@crankjournal/shared-types';
 import { render, screen, within } from '../../../test-utils/render';
-import { sessionStore } from '../../../api/session';
-import { json } from '../../../test-utils/http';
+import { json, signIn, signOut } from '../../../test-utils/http';
 import LoggersPage from './Loggers.page';
 
 const logger: LoggerDto = {
@@ -17,15 +16,11 @@ const logger: LoggerDto = {
 
 describe('data loggers page', () => {
   beforeEach(() => {
-    sessionStore.set({
-      accessToken: 'a',
-      refreshToken: 'r',
-      user: { id: 'u1', email: 'admin@alderforge.example', displayName: 'Admin', role: 'administrator', unitSystem: 'imperial' },
-    });
+    signIn('administrator', { id: 'u1', email: 'admin@alderforge.example', displayName: 'Admin', unitSystem: 'imperial' });
   });
   afterEach(() => {
     vi.restoreAllMocks();
-    sessionStore.set(null);
+    signOut();
   });
 
   it('shows an issued key once, with a copy button and a warning', async () => {

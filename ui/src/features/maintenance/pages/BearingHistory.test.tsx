@@ -1,18 +1,13 @@
 import { Route, Routes } from 'react-router-dom';
 import { render, screen, waitFor, within } from '../../../test-utils/render';
-import { sessionStore } from '../../../api/session';
 import { HISTORY, INSPECTION } from '../test/fixtures';
-import { json } from '../../../test-utils/http';
+import { json, signIn, signOut } from '../../../test-utils/http';
 import BearingHistoryPage from './BearingHistory.page';
 import InspectionPage from './Inspection.page';
 
 describe('a bearing’s history', () => {
   beforeEach(() => {
-    sessionStore.set({
-      accessToken: 'a',
-      refreshToken: 'r',
-      user: { id: 'u1', email: 'o@alderforge.example', displayName: 'Test Observer', role: 'observer', unitSystem: 'imperial' },
-    });
+    signIn('observer', { id: 'u1', email: 'o@alderforge.example', displayName: 'Test Observer', unitSystem: 'imperial' });
     vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
       const url = String(input);
       if (url === '/api/maintenance/bearings/b2/history') return json(HISTORY);
@@ -22,7 +17,7 @@ describe('a bearing’s history', () => {
   });
   afterEach(() => {
     vi.restoreAllMocks();
-    sessionStore.set(null);
+    signOut();
   });
 
   it('flags the run above the band, states the rule, and leaves the others unflagged', async () => {

@@ -1,18 +1,10 @@
 import userEvent from '@testing-library/user-event';
-import type { Role } from '@crankjournal/shared-types';
 import { render, screen, waitFor } from '../../../test-utils/render';
-import { sessionStore } from '../../../api/session';
 import { bar, calc, json, overloaded, rect, schedule } from '../test/fixtures';
+import { signIn, signOut } from '../../../test-utils/http';
 import { LogPass } from './LogPass';
 import { nextBarCode } from './StartBar';
 
-function signIn(role: Role) {
-  sessionStore.set({
-    accessToken: 'a',
-    refreshToken: 'r',
-    user: { id: 'u1', email: 'x@alderforge.example', displayName: 'Test Person', role, unitSystem: 'imperial' },
-  });
-}
 const stands = [
   { id: 's1', position: 1, name: 'Stand 1', rollDiameterMm: 406.4, barrelLengthMm: 762, rollSpeedRatio: 1, maxSeparatingForceKn: 900 },
   { id: 's2', position: 2, name: 'Stand 2', rollDiameterMm: 406.4, barrelLengthMm: 762, rollSpeedRatio: 1, maxSeparatingForceKn: 800 },
@@ -42,7 +34,7 @@ describe('LogPass', () => {
   beforeEach(() => signIn('mill_lead'));
   afterEach(() => {
     vi.restoreAllMocks();
-    sessionStore.set(null);
+    signOut();
   });
 
   it('prefills the next pass from the bar’s schedule and sends the measured figures', async () => {

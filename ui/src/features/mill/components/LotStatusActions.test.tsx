@@ -1,17 +1,9 @@
 import userEvent from '@testing-library/user-event';
 import type { Role } from '@crankjournal/shared-types';
 import { render, screen, waitFor } from '../../../test-utils/render';
-import { sessionStore } from '../../../api/session';
 import { json, lot } from '../test/fixtures';
+import { signIn, signOut } from '../../../test-utils/http';
 import { LotStatusActions } from './LotStatusActions';
-
-function signIn(role: Role) {
-  sessionStore.set({
-    accessToken: 'a',
-    refreshToken: 'r',
-    user: { id: 'u1', email: 'x@alderforge.example', displayName: 'Test Person', role, unitSystem: 'imperial' },
-  });
-}
 
 // Rendering Mantine in jsdom is slow on a busy machine.
 vi.setConfig({ testTimeout: 30_000 });
@@ -19,7 +11,7 @@ vi.setConfig({ testTimeout: 30_000 });
 describe('LotStatusActions', () => {
   afterEach(() => {
     vi.restoreAllMocks();
-    sessionStore.set(null);
+    signOut();
   });
 
   it.each([

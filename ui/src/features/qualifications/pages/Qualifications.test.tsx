@@ -1,16 +1,8 @@
 import userEvent from '@testing-library/user-event';
-import type { QualificationDto, QualificationMatrix, Role } from '@crankjournal/shared-types';
+import type { QualificationDto, QualificationMatrix } from '@crankjournal/shared-types';
 import { render, screen, within } from '../../../test-utils/render';
-import { sessionStore } from '../../../api/session';
-import { json } from '../../../test-utils/http';
+import { json, signIn, signOut } from '../../../test-utils/http';
 import QualificationsPage from './Qualifications.page';
-
-const signIn = (role: Role) =>
-  sessionStore.set({
-    accessToken: 'a',
-    refreshToken: 'r',
-    user: { id: 'u1', email: 'x@alderforge.example', displayName: 'Test Person', role, unitSystem: 'imperial' },
-  });
 
 const q = (p: Partial<QualificationDto>): QualificationDto => ({
   id: 'q1',
@@ -54,7 +46,7 @@ const matrix: QualificationMatrix = {
 describe('QualificationsPage', () => {
   afterEach(() => {
     vi.restoreAllMocks();
-    sessionStore.set(null);
+    signOut();
   });
 
   it('gives the chief engineer the crew matrix, with what has expired, and a way to grant', async () => {

@@ -1,8 +1,7 @@
 import userEvent from '@testing-library/user-event';
 import type { Role, RunDetail, RunState } from '@crankjournal/shared-types';
 import { render, screen, waitFor, within } from '../../../test-utils/render';
-import { sessionStore } from '../../../api/session';
-import { json } from '../../../test-utils/http';
+import { json, signIn, signOut } from '../../../test-utils/http';
 import { RunHeader } from './RunHeader';
 
 const run = (state: RunState, extra: Partial<RunDetail> = {}): RunDetail => ({
@@ -31,14 +30,6 @@ const run = (state: RunState, extra: Partial<RunDetail> = {}): RunDetail => ({
   ...extra,
 });
 
-function signIn(role: Role) {
-  sessionStore.set({
-    accessToken: 'a',
-    refreshToken: 'r',
-    user: { id: 'u1', email: 'x@alderforge.example', displayName: 'Test Person', role, unitSystem: 'imperial' },
-  });
-}
-
 function buttonsShown(): string[] {
   const group = screen.queryByRole('group', { name: 'Run actions' });
   if (!group) return [];
@@ -57,7 +48,7 @@ describe('RunHeader transition buttons', () => {
   });
   afterEach(() => {
     vi.restoreAllMocks();
-    sessionStore.set(null);
+    signOut();
   });
 
   const cases: [RunState, Role, string[]][] = [
