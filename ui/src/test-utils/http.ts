@@ -54,7 +54,8 @@ function parseKey(key: string, value: unknown): Route {
 
 /**
  * The one fetch stub of the UI tests: routes by `METHOD /path` (or `/path` for any method; `:name` matches a
- * segment, `*` anything); a value answers as JSON, a function gets the request. The first route added later wins.
+ * segment, `*` anything); a value answers as JSON, a function gets the request. A later route wins over an earlier
+ * one, so put a catch-all `*` first.
  * An unrouted request answers 404 so a test sees it. `calls` lists what was asked, in order.
  */
 export function stubFetch(routes: Record<string, Handler | unknown> = {}) {
@@ -68,7 +69,7 @@ export function stubFetch(routes: Record<string, Handler | unknown> = {}) {
     const body = typeof raw === 'string' ? (JSON.parse(raw) as unknown) : raw;
     const req: StubRequest = { method: (init?.method ?? 'GET').toUpperCase(), url, path, query: u.searchParams, body, init };
     calls.push(req);
-    for (const r of table) {
+    for (const r of [...table].reverse()) {
       if (r.method !== '*' && r.method !== req.method) continue;
       if (r.pattern.test(path)) return r.handler(req);
     }
@@ -79,7 +80,7 @@ export function stubFetch(routes: Record<string, Handler | unknown> = {}) {
     calls,
     /** Adds or replaces a route (e.g. a later answer in the same test). */
     on(key: string, value: Handler | unknown) {
-      table.unshift(parseKey(key, value));
+      table.push(parseKey(key, value));
     },
   };
 }

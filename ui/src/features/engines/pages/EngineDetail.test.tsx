@@ -1,7 +1,7 @@
 import { Route, Routes } from 'react-router-dom';
 import type { EngineDetail, LimitChangeDto, UnitConversionTable } from '@crankjournal/shared-types';
 import { render, screen, within } from '../../../test-utils/render';
-import { json, signIn, signOut } from '../../../test-utils/http';
+import { signIn, signOut, stubFetch } from '../../../test-utils/http';
 import EngineDetailPage from './EngineDetail.page';
 
 const engine: EngineDetail = {
@@ -46,12 +46,7 @@ const table: UnitConversionTable = { imperial: {}, metric: { degF: { from: 'degF
 describe('engine detail page', () => {
   beforeEach(() => {
     signIn('operator', { id: 'u2', email: 'op@alderforge.example', displayName: 'Operator', unitSystem: 'metric' });
-    vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
-      const url = String(input);
-      if (url.endsWith('/limit-changes')) return json(changes);
-      if (url.endsWith('/units/conversions')) return json(table);
-      return json(engine);
-    });
+    stubFetch({ '*': engine, '*/limit-changes': changes, '/units/conversions': table });
   });
   afterEach(() => {
     vi.restoreAllMocks();

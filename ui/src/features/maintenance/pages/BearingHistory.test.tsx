@@ -1,18 +1,17 @@
 import { Route, Routes } from 'react-router-dom';
 import { render, screen, waitFor, within } from '../../../test-utils/render';
 import { HISTORY, INSPECTION } from '../test/fixtures';
-import { json, signIn, signOut } from '../../../test-utils/http';
+import { signIn, signOut, stubFetch } from '../../../test-utils/http';
 import BearingHistoryPage from './BearingHistory.page';
 import InspectionPage from './Inspection.page';
 
 describe('a bearing’s history', () => {
   beforeEach(() => {
     signIn('observer', { id: 'u1', email: 'o@alderforge.example', displayName: 'Test Observer', unitSystem: 'imperial' });
-    vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
-      const url = String(input);
-      if (url === '/api/maintenance/bearings/b2/history') return json(HISTORY);
-      if (url === '/api/maintenance/inspections/i1') return json(INSPECTION);
-      return json({ imperial: {}, metric: {} });
+    stubFetch({
+      '*': { imperial: {}, metric: {} },
+      '/maintenance/bearings/b2/history': HISTORY,
+      '/maintenance/inspections/i1': INSPECTION,
     });
   });
   afterEach(() => {

@@ -1,7 +1,7 @@
 import userEvent from '@testing-library/user-event';
 import { render, screen, waitFor } from '../../../test-utils/render';
 import { bar, calc, json, overloaded, rect, schedule } from '../test/fixtures';
-import { signIn, signOut } from '../../../test-utils/http';
+import { signIn, signOut, stubFetch } from '../../../test-utils/http';
 import { LogPass } from './LogPass';
 import { nextBarCode } from './StartBar';
 
@@ -39,10 +39,7 @@ describe('LogPass', () => {
 
   it('prefills the next pass from the bar’s schedule and sends the measured figures', async () => {
     const user = userEvent.setup();
-    const fetchSpy = vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
-      if (String(input).includes('/mill/schedules/')) return json(schedule());
-      return json(logged(), 201);
-    });
+    const { spy: fetchSpy } = stubFetch({ '*': () => json(logged(), 201), '/mill/schedules/*': schedule() });
     const b = bar({ passes: [{ ...logged(), id: 'lp1', passNumber: 1, standPosition: 1, entry: rect(76.2, 76.2), exit: rect(62, 80) }] });
     render(<LogPass runId="run-1" bars={[b]} stands={stands} barId="bar-1" onBarChange={() => {}} />);
     await waitFor(() => expect(screen.getByLabelText('Measured temperature, °C')).toHaveValue('1110'), { timeout: 8000 });
@@ -63,10 +60,7 @@ describe('LogPass', () => {
 
   it('shows the warnings of an overloaded pass as soon as it is logged', async () => {
     const user = userEvent.setup();
-    vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
-      if (String(input).includes('/mill/schedules/')) return json(schedule());
-      return json(logged(overloaded()), 201);
-    });
+    stubFetch({ '*': () => json(logged(overloaded()), 201), '/mill/schedules/*': schedule() });
     render(<LogPass runId="run-1" bars={[bar()]} stands={stands} barId="bar-1" onBarChange={() => {}} />);
     await waitFor(() => expect(screen.getByLabelText('Measured temperature, °C')).toHaveValue('1150'), { timeout: 8000 });
     await user.click(screen.getByRole('button', { name: 'Log pass' }));
