@@ -1,7 +1,7 @@
 import userEvent from '@testing-library/user-event';
 import type { LoggerDto } from '@crankjournal/shared-types';
 import { render, screen, within } from '../../../test-utils/render';
-import { json, signIn, signOut } from '../../../test-utils/http';
+import { signIn, signOut, stubFetch } from '../../../test-utils/http';
 import LoggersPage from './Loggers.page';
 
 const logger: LoggerDto = {
@@ -25,12 +25,10 @@ describe('data loggers page', () => {
 
   it('shows an issued key once, with a copy button and a warning', async () => {
     const user = userEvent.setup();
-    const fetchSpy = vi.spyOn(globalThis, 'fetch').mockImplementation(async (input, init) => {
-      const url = String(input);
-      if (url === '/api/engines') return json([{ id: 'e1', name: 'No. 2 engine' }]);
-      if (url === '/api/loggers' && init?.method === 'POST')
-        return json({ ...logger, id: 'l2', name: 'Oil pressure logger', key: 'cjl_secret_key_123' });
-      return json([logger]);
+    const { spy: fetchSpy } = stubFetch({
+      '*': [logger],
+      '/engines': [{ id: 'e1', name: 'No. 2 engine' }],
+      'POST /loggers': { ...logger, id: 'l2', name: 'Oil pressure logger', key: 'cjl_secret_key_123' },
     });
     render(<LoggersPage />);
     expect(await screen.findByText('Bearing thermocouples', {}, { timeout: 8000 })).toBeInTheDocument();
@@ -48,11 +46,10 @@ describe('data loggers page', () => {
 
   it('asks before revoking a key', async () => {
     const user = userEvent.setup();
-    const fetchSpy = vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
-      const url = String(input);
-      if (url === '/api/engines') return json([{ id: 'e1', name: 'No. 2 engine' }]);
-      if (url === '/api/loggers/l1/revoke') return json({ ...logger, revokedAt: '2026-05-02T08:00:00Z' });
-      return json([logger]);
+    const { spy: fetchSpy } = stubFetch({
+      '*': [logger],
+      '/engines': [{ id: 'e1', name: 'No. 2 engine' }],
+      '/loggers/l1/revoke': { ...logger, revokedAt: '2026-05-02T08:00:00Z' },
     });
     render(<LoggersPage />);
     await user.click(await screen.findByRole('button', { name: 'Revoke key' }, { timeout: 8000 }));

@@ -1,7 +1,7 @@
 import userEvent from '@testing-library/user-event';
 import type { QualificationDto, QualificationMatrix } from '@crankjournal/shared-types';
 import { render, screen, within } from '../../../test-utils/render';
-import { json, signIn, signOut } from '../../../test-utils/http';
+import { signIn, signOut, stubFetch } from '../../../test-utils/http';
 import QualificationsPage from './Qualifications.page';
 
 const q = (p: Partial<QualificationDto>): QualificationDto => ({
@@ -52,12 +52,7 @@ describe('QualificationsPage', () => {
   it('gives the chief engineer the crew matrix, with what has expired, and a way to grant', async () => {
     const user = userEvent.setup();
     signIn('chief_engineer');
-    vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
-      const url = String(input);
-      if (url.endsWith('/engines')) return json([{ id: 'e1', name: 'No. 2 engine' }]);
-      if (url.includes('/qualifications/matrix')) return json(matrix);
-      return json([]);
-    });
+    stubFetch({ '*': [], '*/engines': [{ id: 'e1', name: 'No. 2 engine' }], '/qualifications/matrix': matrix });
     render(<QualificationsPage />);
     const table = await screen.findByTestId('qualifications-matrix');
     expect(within(table).getByText('Cyril Dunnock')).toBeInTheDocument();
@@ -69,11 +64,7 @@ describe('QualificationsPage', () => {
 
   it('shows an operator their own qualifications only', async () => {
     signIn('operator');
-    const spy = vi
-      .spyOn(globalThis, 'fetch')
-      .mockImplementation(async () =>
-        json([q({ status: 'current', daysToExpiry: 200, expiresOn: '2027-06-19', userName: 'Test Person' })]),
-      );
+    const { spy } = stubFetch({ '*': [q({ status: 'current', daysToExpiry: 200, expiresOn: '2027-06-19', userName: 'Test Person' })] });
     render(<QualificationsPage />);
     expect(await screen.findByRole('table', { name: 'Your qualifications' })).toHaveTextContent('Start and run');
     expect(screen.queryByRole('tab', { name: 'Crew' })).toBeNull();
