@@ -1,7 +1,7 @@
 import userEvent from '@testing-library/user-event';
 import type { RunDetail, RunState } from '@crankjournal/shared-types';
 import { render, screen, within } from '../../../test-utils/render';
-import { json, signIn, signOut } from '../../../test-utils/http';
+import { json, signIn, signOut, stubFetch } from '../../../test-utils/http';
 import { GatePanel } from './GatePanel';
 
 const run = (state: RunState): RunDetail => ({
@@ -38,7 +38,7 @@ describe('GatePanel', () => {
   it('shows the countdown of the pre-lube window while the run is cleared', async () => {
     signIn('operator');
     const until = new Date(Date.now() + 12 * 60_000 + 30_000).toISOString();
-    vi.spyOn(globalThis, 'fetch').mockImplementation(async () => json({ allowed: true, reasons: [], preLubeFreshUntil: until }));
+    stubFetch({ '*': () => json({ allowed: true, reasons: [], preLubeFreshUntil: until }) });
     render(<GatePanel run={run('cleared')} />);
     expect(await screen.findByTestId('pre-lube-remaining')).toHaveTextContent(/^12:(30|29)$/);
     expect(screen.getByTestId('gate-clear')).toBeInTheDocument();
@@ -93,7 +93,7 @@ describe('GatePanel', () => {
 
   it('shows nothing once the run is running', () => {
     signIn('operator');
-    vi.spyOn(globalThis, 'fetch').mockImplementation(async () => json({ allowed: true, reasons: [] }));
+    stubFetch({ '*': () => json({ allowed: true, reasons: [] }) });
     render(<GatePanel run={run('running')} />);
     expect(screen.queryByTestId('gate-panel')).toBeNull();
   });

@@ -2,7 +2,7 @@ import userEvent from '@testing-library/user-event';
 import { Route, Routes } from 'react-router-dom';
 import type { EngineDetail } from '@crankjournal/shared-types';
 import { render, screen, waitFor } from '../../../test-utils/render';
-import { json, signIn, signOut } from '../../../test-utils/http';
+import { json, signIn, signOut, stubFetch } from '../../../test-utils/http';
 import EngineEditPage from './EngineEdit.page';
 
 const engine: EngineDetail = {
@@ -76,7 +76,7 @@ describe('engine edit page', () => {
 
   it('does not send when a required field is empty', async () => {
     const user = userEvent.setup();
-    const fetchSpy = vi.spyOn(globalThis, 'fetch').mockImplementation(async () => json(engine));
+    const { spy: fetchSpy } = stubFetch({ '*': () => json(engine) });
     render(
       <Routes>
         <Route path="/engines/:id/edit" element={<EngineEditPage />} />

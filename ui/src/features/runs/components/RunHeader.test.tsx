@@ -1,7 +1,7 @@
 import userEvent from '@testing-library/user-event';
 import type { Role, RunDetail, RunState } from '@crankjournal/shared-types';
 import { render, screen, waitFor, within } from '../../../test-utils/render';
-import { json, signIn, signOut } from '../../../test-utils/http';
+import { json, signIn, signOut, stubFetch } from '../../../test-utils/http';
 import { RunHeader } from './RunHeader';
 
 const run = (state: RunState, extra: Partial<RunDetail> = {}): RunDetail => ({
@@ -92,7 +92,7 @@ describe('RunHeader transition buttons', () => {
   it('asks the chief engineer for a password or PIN to close, and sends it as the signature', async () => {
     const user = userEvent.setup();
     signIn('chief_engineer');
-    const fetchSpy = vi.spyOn(globalThis, 'fetch').mockImplementation(async () => json(run('closed')));
+    const { spy: fetchSpy } = stubFetch({ '*': () => json(run('closed')) });
     render(<RunHeader run={run('stopped')} />);
     await user.click(screen.getByRole('button', { name: 'Close and countersign' }));
     const dialog = await screen.findByRole('dialog');
