@@ -1,8 +1,6 @@
 import { render, screen, waitFor } from '../../../test-utils/render';
+import { json } from '../../../test-utils/http';
 import IndicatedPowerCalculatorPage, { EXAMPLE, toCalculatorRequest } from './IndicatedPowerCalculator.page';
-
-const json = (body: unknown, status = 200) =>
-  new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
 
 describe('the indicated power calculator', () => {
   afterEach(() => vi.restoreAllMocks());

@@ -1,6 +1,7 @@
-import type { Role, RunDetail, RunState } from '@crankjournal/shared-types';
-import { render, screen, fireEvent, within } from '../../../test-utils/render';
-import { sessionStore } from '../../../api/session';
+import userEvent from '@testing-library/user-event';
+import type { RunDetail, RunState } from '@crankjournal/shared-types';
+import { render, screen, within } from '../../../test-utils/render';
+import { json, signIn, signOut, stubFetch } from '../../../test-utils/http';
 import { GatePanel } from './GatePanel';
 
 const run = (state: RunState): RunDetail => ({
@@ -27,25 +28,17 @@ const run = (state: RunState): RunDetail => ({
   peaks: [],
   createdAt: '2026-12-01T08:00:00Z',
 });
-const json = (body: unknown, status = 200) =>
-  new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
-const signIn = (role: Role) =>
-  sessionStore.set({
-    accessToken: 'a',
-    refreshToken: 'r',
-    user: { id: 'u1', email: 'x@alderforge.example', displayName: 'Test Person', role, unitSystem: 'imperial' },
-  });
 
 describe('GatePanel', () => {
   afterEach(() => {
     vi.restoreAllMocks();
-    sessionStore.set(null);
+    signOut();
   });
 
   it('shows the countdown of the pre-lube window while the run is cleared', async () => {
     signIn('operator');
     const until = new Date(Date.now() + 12 * 60_000 + 30_000).toISOString();
-    vi.spyOn(globalThis, 'fetch').mockImplementation(async () => json({ allowed: true, reasons: [], preLubeFreshUntil: until }));
+    stubFetch({ '*': () => json({ allowed: true, reasons: [], preLubeFreshUntil: until }) });
     render(<GatePanel run={run('cleared')} />);
     expect(await screen.findByTestId('pre-lube-remaining')).toHaveTextContent(/^12:(30|29)$/);
     expect(screen.getByTestId('gate-clear')).toBeInTheDocument();
@@ -53,6 +46,7 @@ describe('GatePanel', () => {
   });
 
   it('shows the server’s refusal with every reason when a start is refused', async () => {
+    const user = userEvent.setup();
     signIn('operator');
     vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
       if (String(input).endsWith('/start-gate'))
@@ -72,8 +66,8 @@ describe('GatePanel', () => {
       );
     });
     render(<GatePanel run={run('cleared')} />);
-    fireEvent.click(await screen.findByRole('button', { name: 'Start engine' }));
-    fireEvent.click(within(await screen.findByRole('dialog')).getByRole('button', { name: 'Start engine' }));
+    await user.click(await screen.findByRole('button', { name: 'Start engine' }));
+    await user.click(within(await screen.findByRole('dialog')).getByRole('button', { name: 'Start engine' }));
     const refused = await screen.findByTestId('start-refused');
     expect(refused).toHaveTextContent('Start refused');
     expect(refused).toHaveTextContent('The pre-lube sign-off (Pre-lube) is 31 min old.');
@@ -99,7 +93,7 @@ describe('GatePanel', () => {
 
   it('shows nothing once the run is running', () => {
     signIn('operator');
-    vi.spyOn(globalThis, 'fetch').mockImplementation(async () => json({ allowed: true, reasons: [] }));
+    stubFetch({ '*': () => json({ allowed: true, reasons: [] }) });
     render(<GatePanel run={run('running')} />);
     expect(screen.queryByTestId('gate-panel')).toBeNull();
   });

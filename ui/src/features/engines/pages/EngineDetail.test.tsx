@@ -1,7 +1,7 @@
 import { Route, Routes } from 'react-router-dom';
 import type { EngineDetail, LimitChangeDto, UnitConversionTable } from '@crankjournal/shared-types';
 import { render, screen, within } from '../../../test-utils/render';
-import { sessionStore } from '../../../api/session';
+import { signIn, signOut, stubFetch } from '../../../test-utils/http';
 import EngineDetailPage from './EngineDetail.page';
 
 const engine: EngineDetail = {
@@ -42,25 +42,15 @@ const changes: LimitChangeDto[] = [
   },
 ];
 const table: UnitConversionTable = { imperial: {}, metric: { degF: { from: 'degF', to: 'degC', factor: 5 / 9, offset: -17.7778 } } };
-const json = (body: unknown) => new Response(JSON.stringify(body), { headers: { 'content-type': 'application/json' } });
 
 describe('engine detail page', () => {
   beforeEach(() => {
-    sessionStore.set({
-      accessToken: 'a',
-      refreshToken: 'r',
-      user: { id: 'u2', email: 'op@alderforge.example', displayName: 'Operator', role: 'operator', unitSystem: 'metric' },
-    });
-    vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
-      const url = String(input);
-      if (url.endsWith('/limit-changes')) return json(changes);
-      if (url.endsWith('/units/conversions')) return json(table);
-      return json(engine);
-    });
+    signIn('operator', { id: 'u2', email: 'op@alderforge.example', displayName: 'Operator', unitSystem: 'metric' });
+    stubFetch({ '*': engine, '*/limit-changes': changes, '/units/conversions': table });
   });
   afterEach(() => {
     vi.restoreAllMocks();
-    sessionStore.set(null);
+    signOut();
   });
 
   it('shows limits in the person’s units, the pressure caution, and each limit change as old struck through → new', async () => {

@@ -1,11 +1,9 @@
 import { render, screen, waitFor } from '../../../test-utils/render';
 import { CALCULATORS } from '../../calculators/calculators';
 import { navigationFor } from '../../../components/AppShell/navigation';
+import { json } from '../../../test-utils/http';
 import OilViscosityCalculatorPage, { VISCOSITY_EXAMPLE, toViscosityRequest } from './OilViscosityCalculator.page';
 import JournalFrictionCalculatorPage, { FRICTION_EXAMPLE, toFrictionRequest } from './JournalFrictionCalculator.page';
-
-const json = (body: unknown, status = 200) =>
-  new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
 
 describe('the lubrication calculators', () => {
   afterEach(() => vi.restoreAllMocks());

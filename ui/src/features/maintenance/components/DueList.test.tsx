@@ -1,16 +1,13 @@
 import { render, screen, within, waitFor } from '../../../test-utils/render';
-import { sessionStore } from '../../../api/session';
 import { plan } from '../test/fixtures';
+import { json, signIn, signOut } from '../../../test-utils/http';
 import { DueList } from './DueList';
 import { TodayMaintenance } from './TodayMaintenance';
-
-const json = (body: unknown, status = 200) =>
-  new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
 
 describe('the due list', () => {
   afterEach(() => {
     vi.restoreAllMocks();
-    sessionStore.set(null);
+    signOut();
   });
 
   it('marks an overdue plan by word, with how far over, and a due-soon one apart from the ones in date', () => {
@@ -33,11 +30,7 @@ describe('the due list', () => {
   });
 
   it('on the Today screen shows only what needs someone, overdue marked, and bearings that drifted', async () => {
-    sessionStore.set({
-      accessToken: 'a',
-      refreshToken: 'r',
-      user: { id: 'u1', email: 'm@alderforge.example', displayName: 'Test Lead', role: 'maintenance_lead', unitSystem: 'imperial' },
-    });
+    signIn('maintenance_lead', { id: 'u1', email: 'm@alderforge.example', displayName: 'Test Lead', unitSystem: 'imperial' });
     vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
       const url = String(input);
       if (url.startsWith('/api/maintenance/due'))

@@ -2,6 +2,7 @@ import { Route, Routes } from 'react-router-dom';
 import type { AlarmDto, BoardPoint, EngineDetail, Role, RunDetail } from '@crankjournal/shared-types';
 import { render, screen, within } from '../../../test-utils/render';
 import { sessionStore } from '../../../api/session';
+import { signOut } from '../../../test-utils/http';
 import LiveRunPage from './LiveRun.page';
 
 vi.mock('../../../api/socket', () => ({ getSocket: () => null, joinRoom: () => () => {}, closeSocket: () => {} }));
@@ -121,7 +122,7 @@ beforeEach(() => {
 });
 afterEach(() => {
   vi.unstubAllGlobals();
-  sessionStore.set(null);
+  signOut();
 });
 
 const page = () =>
