@@ -6,8 +6,15 @@ export function json(body: unknown, status = 200): Response {
   return new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
 }
 
-/** Signs a demo person of the given role in (tokens are never checked by the stubbed fetch). */
-export function signIn(role: Role, over: Partial<SessionUser> = {}): SessionUser {
+/**
+ * Signs a demo person of the given role in (tokens are never checked by the stubbed fetch). Give `tokens` when the
+ * code under test looks at the token's shape (e.g. a three-part JWT-like `a.b.c`).
+ */
+export function signIn(
+  role: Role,
+  over: Partial<SessionUser> = {},
+  tokens: { accessToken?: string; refreshToken?: string } = {},
+): SessionUser {
   const user: SessionUser = {
     id: 'u1',
     email: 'x@alderforge.example',
@@ -16,7 +23,7 @@ export function signIn(role: Role, over: Partial<SessionUser> = {}): SessionUser
     unitSystem: 'imperial',
     ...over,
   };
-  sessionStore.set({ accessToken: 'a', refreshToken: 'r', user });
+  sessionStore.set({ accessToken: 'a', refreshToken: 'r', ...tokens, user });
   return user;
 }
 
@@ -81,6 +88,11 @@ export function stubFetch(routes: Record<string, Handler | unknown> = {}) {
     /** Adds or replaces a route (e.g. a later answer in the same test). */
     on(key: string, value: Handler | unknown) {
       table.push(parseKey(key, value));
+    },
+    /** Forgets the requests asked so far (routes stay). */
+    clearCalls() {
+      calls.length = 0;
+      spy.mockClear();
     },
   };
 }

@@ -1,7 +1,7 @@
 import type { UnitConversionTable, UnitSystem } from '@crankjournal/shared-types';
 import { render, screen } from '../../test-utils/render';
 import { UnitValue } from '../../components/UnitValue/UnitValue';
-import { signIn, signOut } from '../../test-utils/http';
+import { signIn, signOut, stubFetch } from '../../test-utils/http';
 import { convertForDisplay } from './units';
 
 // A table shaped like the server's answer to GET /units/conversions.
@@ -54,9 +54,7 @@ describe('<UnitValue />', () => {
 
   it('renders a stored °F reading in °C for a metric user, with the unit beside it', async () => {
     signInAs('metric');
-    const fetchSpy = vi
-      .spyOn(globalThis, 'fetch')
-      .mockImplementation(async () => new Response(JSON.stringify(table), { headers: { 'content-type': 'application/json' } }));
+    const { spy: fetchSpy } = stubFetch({ '*': table });
     render(<UnitValue value={212} unit="degF" />);
     expect(await screen.findByText('100.0')).toBeInTheDocument();
     expect(screen.getByText('°C')).toBeInTheDocument();
@@ -66,9 +64,7 @@ describe('<UnitValue />', () => {
 
   it('renders the stored unit for an imperial user', async () => {
     signInAs('imperial');
-    vi.spyOn(globalThis, 'fetch').mockImplementation(
-      async () => new Response(JSON.stringify(table), { headers: { 'content-type': 'application/json' } }),
-    );
+    stubFetch({ '*': table });
     render(<UnitValue value={212} unit="degF" />);
     expect(await screen.findByText('212')).toBeInTheDocument();
     expect(screen.getByText('°F')).toBeInTheDocument();

@@ -1,6 +1,6 @@
 import userEvent from '@testing-library/user-event';
 import { render, screen, waitFor } from '../../../test-utils/render';
-import { json } from '../../../test-utils/http';
+import { json, stubFetch } from '../../../test-utils/http';
 import SignInPage from './SignIn.page';
 
 describe('sign-in page', () => {
@@ -8,7 +8,7 @@ describe('sign-in page', () => {
 
   it('asks for an e-mail and password before calling the server', async () => {
     const user = userEvent.setup();
-    const fetchSpy = vi.spyOn(globalThis, 'fetch');
+    const { spy: fetchSpy } = stubFetch();
     render(<SignInPage />);
     await user.click(screen.getByRole('button', { name: 'Sign in' }));
     expect(await screen.findByText('Enter your e-mail address')).toBeInTheDocument();
@@ -17,9 +17,7 @@ describe('sign-in page', () => {
 
   it('shows the server’s reason when sign-in is refused', async () => {
     const user = userEvent.setup();
-    vi.spyOn(globalThis, 'fetch').mockResolvedValue(
-      json({ statusCode: 401, error: 'Unauthorized', message: 'The e-mail or password is not right.' }, 401),
-    );
+    stubFetch({ '*': () => json({ statusCode: 401, error: 'Unauthorized', message: 'The e-mail or password is not right.' }, 401) });
     render(<SignInPage />);
     await user.clear(screen.getByLabelText('E-mail'));
     await user.type(screen.getByLabelText('E-mail'), 'operator@alderforge.example');

@@ -1,33 +1,18 @@
 import { Route, Routes } from 'react-router-dom';
-import type { EngineDetail, LimitChangeDto, UnitConversionTable } from '@crankjournal/shared-types';
+import type { LimitChangeDto, UnitConversionTable } from '@crankjournal/shared-types';
 import { render, screen, within } from '../../../test-utils/render';
+import { buildEngine } from '../../../test-utils/builders';
 import { signIn, signOut, stubFetch } from '../../../test-utils/http';
 import EngineDetailPage from './EngineDetail.page';
 
-const engine: EngineDetail = {
-  id: 'e1',
-  name: 'No. 2 engine',
-  builder: 'Demo builder',
-  yearBuilt: '1911',
+const engine = buildEngine({
   type: 'tandem_compound',
-  ratedSpeedRpm: 75,
-  overspeedRpm: 82,
-  mawpPsig: 150,
-  preLubeFreshnessMinutes: 30,
   runningHours: 12.5,
   revolutions: 56250,
-  activeRunId: null,
-  notes: '',
-  flywheelMassLb: null,
-  flywheelRadiusOfGyrationFt: null,
-  rotatingWeightLb: null,
-  cylinders: [],
-  lubricationPoints: [],
-  bearings: [],
   measurementPoints: [
     { id: 'p1', code: 'MB1-T', label: 'Main bearing 1', kind: 'bearing_temperature', unit: 'degF', sequence: 1, highLimit: 212 },
   ],
-};
+});
 const changes: LimitChangeDto[] = [
   {
     id: 'c1',

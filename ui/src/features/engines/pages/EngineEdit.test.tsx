@@ -1,34 +1,15 @@
 import userEvent from '@testing-library/user-event';
 import { Route, Routes } from 'react-router-dom';
-import type { EngineDetail } from '@crankjournal/shared-types';
 import { render, screen, waitFor } from '../../../test-utils/render';
+import { buildEngine } from '../../../test-utils/builders';
 import { json, signIn, signOut, stubFetch } from '../../../test-utils/http';
 import EngineEditPage from './EngineEdit.page';
 
-const engine: EngineDetail = {
-  id: 'e1',
-  name: 'No. 2 engine',
-  builder: 'Demo builder',
-  yearBuilt: '1911',
-  type: 'simple',
-  ratedSpeedRpm: 75,
-  overspeedRpm: 82,
-  mawpPsig: 150,
-  preLubeFreshnessMinutes: 30,
-  runningHours: 0,
-  revolutions: 0,
-  activeRunId: null,
-  notes: '',
-  flywheelMassLb: null,
-  flywheelRadiusOfGyrationFt: null,
-  rotatingWeightLb: null,
-  cylinders: [],
-  lubricationPoints: [],
-  bearings: [],
+const engine = buildEngine({
   measurementPoints: [
     { id: 'p1', code: 'MB1-T', label: 'Main bearing 1', kind: 'bearing_temperature', unit: 'degF', sequence: 1, highLimit: 130 },
   ],
-};
+});
 
 describe('engine edit page', () => {
   beforeEach(() => signIn('chief_engineer', { id: 'u1', email: 'chief@alderforge.example', displayName: 'Chief', unitSystem: 'imperial' }));
@@ -39,17 +20,17 @@ describe('engine edit page', () => {
 
   it('puts the whole engine and shows the server’s 400 messages', async () => {
     const user = userEvent.setup();
-    const fetchSpy = vi.spyOn(globalThis, 'fetch').mockImplementation(async (input, init) => {
-      if (init?.method === 'PUT')
-        return json(
+    const { spy: fetchSpy } = stubFetch({
+      '*': () => json(engine),
+      'PUT *': () =>
+        json(
           {
             statusCode: 400,
             error: 'Bad Request',
             message: ['highHighLimit of MB1-T must be above its highLimit', 'mawpPsig must be positive'],
           },
           400,
-        );
-      return json(engine);
+        ),
     });
     render(
       <Routes>

@@ -1,6 +1,6 @@
 import { Route, Routes } from 'react-router-dom';
 import { render, screen, waitFor, within } from '../../../test-utils/render';
-import { HISTORY, INSPECTION } from '../test/fixtures';
+import { HISTORY, INSPECTION } from '../../../test-utils/fixtures/maintenance';
 import { signIn, signOut, stubFetch } from '../../../test-utils/http';
 import BearingHistoryPage from './BearingHistory.page';
 import InspectionPage from './Inspection.page';

@@ -1,7 +1,7 @@
 import userEvent from '@testing-library/user-event';
 import { render, screen, waitFor } from '../../../test-utils/render';
-import { bar, calc, json, overloaded, rect, schedule } from '../test/fixtures';
-import { signIn, signOut, stubFetch } from '../../../test-utils/http';
+import { bar, calc, overloaded, rect, schedule } from '../../../test-utils/fixtures/mill';
+import { json, signIn, signOut, stubFetch } from '../../../test-utils/http';
 import { LogPass } from './LogPass';
 import { nextBarCode } from './StartBar';
 

@@ -1,8 +1,8 @@
 import userEvent from '@testing-library/user-event';
 import type { Role } from '@crankjournal/shared-types';
 import { render, screen, waitFor } from '../../../test-utils/render';
-import { json, lot } from '../test/fixtures';
-import { signIn, signOut } from '../../../test-utils/http';
+import { lot } from '../../../test-utils/fixtures/mill';
+import { json, signIn, signOut, stubFetch } from '../../../test-utils/http';
 import { LotStatusActions } from './LotStatusActions';
 
 // Rendering Mantine in jsdom is slow on a busy machine.
@@ -35,9 +35,7 @@ describe('LotStatusActions', () => {
   it('moves the lot one step with the note', async () => {
     const user = userEvent.setup();
     signIn('mill_lead');
-    const fetchSpy = vi
-      .spyOn(globalThis, 'fetch')
-      .mockImplementation(async () => json(lot({ status: 'accepted', nextStatus: 'scheduled' })));
+    const { spy: fetchSpy } = stubFetch({ '*': lot({ status: 'accepted', nextStatus: 'scheduled' }) });
     render(<LotStatusActions lot={lot()} />);
     await user.click(screen.getByRole('button', { name: 'Mark accepted' }));
     const dialog = await screen.findByRole('dialog');
@@ -53,13 +51,10 @@ describe('LotStatusActions', () => {
   it('asks for the tonnage when marking rolled, records it, then moves the lot; shows the server’s refusal', async () => {
     const user = userEvent.setup();
     signIn('chief_engineer');
-    const fetchSpy = vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
-      if (String(input).endsWith('/transitions'))
-        return json(
-          { statusCode: 409, error: 'Conflict', message: 'Someone else moved this lot a moment ago. Look again and retry.' },
-          409,
-        );
-      return json(lot({ status: 'scheduled', producedTonnes: 1.9 }));
+    const { spy: fetchSpy } = stubFetch({
+      '*': lot({ status: 'scheduled', producedTonnes: 1.9 }),
+      '*/transitions': () =>
+        json({ statusCode: 409, error: 'Conflict', message: 'Someone else moved this lot a moment ago. Look again and retry.' }, 409),
     });
     render(<LotStatusActions lot={lot({ status: 'scheduled', nextStatus: 'rolled' })} />);
     await user.click(screen.getByRole('button', { name: 'Mark rolled' }));

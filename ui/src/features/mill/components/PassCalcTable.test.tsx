@@ -1,6 +1,6 @@
 import userEvent from '@testing-library/user-event';
 import { render, screen, within } from '../../../test-utils/render';
-import { calc, overloaded, rect } from '../test/fixtures';
+import { calc, overloaded, rect } from '../../../test-utils/fixtures/mill';
 import { PassCalcTable, type PassRow } from './PassCalcTable';
 
 const row = (key: string, c = calc()): PassRow => ({

@@ -1,34 +1,12 @@
 import userEvent from '@testing-library/user-event';
 import type { Role, RunDetail, RunState } from '@crankjournal/shared-types';
 import { render, screen, waitFor, within } from '../../../test-utils/render';
+import { buildRun } from '../../../test-utils/builders';
 import { json, signIn, signOut, stubFetch } from '../../../test-utils/http';
 import { RunHeader } from './RunHeader';
 
-const run = (state: RunState, extra: Partial<RunDetail> = {}): RunDetail => ({
-  id: 'run-1',
-  engineId: 'eng-1',
-  engineName: 'No. 2 engine',
-  purpose: 'demonstration',
-  state,
-  title: 'Open day demonstration',
-  plannedFor: null,
-  startedAt: null,
-  stoppedAt: null,
-  closedAt: null,
-  runningSeconds: 0,
-  revolutions: 0,
-  openAlarms: 0,
-  notes: '',
-  crew: [],
-  countersignedBy: null,
-  countersignedByName: null,
-  countersignedAt: null,
-  abandonedReason: null,
-  history: [],
-  peaks: [],
-  createdAt: '2026-05-01T08:00:00Z',
-  ...extra,
-});
+const run = (state: RunState, extra: Partial<RunDetail> = {}) =>
+  buildRun({ title: 'Open day demonstration', createdAt: '2026-05-01T08:00:00Z', state, ...extra });
 
 function buttonsShown(): string[] {
   const group = screen.queryByRole('group', { name: 'Run actions' });
@@ -40,10 +18,9 @@ function buttonsShown(): string[] {
 
 describe('RunHeader transition buttons', () => {
   beforeEach(() => {
-    vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
-      const url = String(input);
-      if (url.endsWith('/start-gate')) return json({ allowed: true, reasons: [] });
-      return json({ statusCode: 404, error: 'Not Found', message: 'no' }, 404);
+    stubFetch({
+      '*': () => json({ statusCode: 404, error: 'Not Found', message: 'no' }, 404),
+      '*/start-gate': { allowed: true, reasons: [] },
     });
   });
   afterEach(() => {
@@ -111,24 +88,24 @@ describe('RunHeader transition buttons', () => {
   it('shows the start gate’s reasons when the server refuses a start (409)', async () => {
     const user = userEvent.setup();
     signIn('operator');
-    vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
-      const url = String(input);
-      if (url.endsWith('/start-gate')) return json({ allowed: true, reasons: [] });
-      return json(
-        {
-          statusCode: 409,
-          error: 'Conflict',
-          message: 'The run may not start.',
-          details: {
-            allowed: false,
-            reasons: [
-              { code: 'checklist_incomplete', message: 'The pre-start checklist is not complete.', subject: 'Pre-start checks v3' },
-              { code: 'prelube_stale', message: 'The pre-lube sign-off is no longer fresh.' },
-            ],
+    stubFetch({
+      '*': () =>
+        json(
+          {
+            statusCode: 409,
+            error: 'Conflict',
+            message: 'The run may not start.',
+            details: {
+              allowed: false,
+              reasons: [
+                { code: 'checklist_incomplete', message: 'The pre-start checklist is not complete.', subject: 'Pre-start checks v3' },
+                { code: 'prelube_stale', message: 'The pre-lube sign-off is no longer fresh.' },
+              ],
+            },
           },
-        },
-        409,
-      );
+          409,
+        ),
+      '*/start-gate': { allowed: true, reasons: [] },
     });
     render(<RunHeader run={run('cleared')} />);
     await user.click(screen.getByRole('button', { name: 'Start engine' }));
