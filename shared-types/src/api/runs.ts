@@ -1,4 +1,4 @@
-import type { AlarmKind, AlarmPriority, AlarmState, ReadingSource, RunPurpose, RunState } from '../domain/run.js';
+import type { AlarmKind, AlarmPriority, AlarmState, AlarmSuppression, ReadingSource, RunPurpose, RunState } from '../domain/run.js';
 
 export interface CrewMember {
   id: string;
@@ -162,6 +162,12 @@ export interface AlarmDto {
   shelvedUntil: string | null;
   shelveReason: string | null;
   shelvedByName: string | null;
+  /** Suppressed alarms are recorded but not annunciated nor waiting: 'design' (by a higher alarm of the point) or 'state'. */
+  suppression: AlarmSuppression | null;
+  /** The alarm that suppresses this one (design suppression). */
+  suppressedById: string | null;
+  /** e.g. "High-high" (design) or "run state Preparing" (state). */
+  suppressedByLabel: string | null;
   updatedAt: string;
 }
 export interface ShelveAlarmRequest {

@@ -99,7 +99,8 @@ export class ReadingsService {
     const alarms = await this.alarms.list({ runId, open: true });
     const worst = new Map<string, { state: BoardPoint['alarmState']; priority: BoardPoint['alarmPriority'] }>();
     for (const a of alarms) {
-      if (!a.pointId) continue;
+      // Suppressed alarms are recorded but not annunciated: the board shows the one that matters.
+      if (!a.pointId || a.suppression) continue;
       const cur = worst.get(a.pointId);
       if (!cur || (a.priority === 'high_high' && cur.priority !== 'high_high'))
         worst.set(a.pointId, { state: a.state, priority: a.priority });
