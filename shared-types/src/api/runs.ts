@@ -202,3 +202,23 @@ export interface BoardPoint {
   alarmState: AlarmState | null;
   alarmPriority: AlarmPriority | null;
 }
+/** The alarm system's own figures for a run or a season, against the standards' suggested targets. */
+export interface AlarmFiguresDto {
+  from: string;
+  to: string;
+  minutes: number;
+  runs: number;
+  total: number;
+  averagePerTenMinutes: number;
+  peakPerTenMinutes: number;
+  floods: number;
+  floodSharePercent: number;
+  topTen: { key: string; count: number; sharePercent: number }[];
+  chattering: { key: string; count: number; suggestedDeadband: number | null; unit: string }[];
+  stale: { key: string; minutes: number }[];
+  standingAtStart: number;
+  /** One row per figure, with its target and whether it is met (also the log sheet's section). */
+  rows: { label: string; value: string; target: string; met: boolean }[];
+  /** Where the targets come from, in words. */
+  basis: string;
+}

@@ -84,3 +84,19 @@ describe('chattering', () => {
     expect(suggestDeadband([], 130, 'high')).toBeNull();
   });
 });
+
+describe('season figures', () => {
+  it('add the runs: two 30-minute runs with 12 and 2 alarms → 14 in 60 min, one flood, 10 of 60 min in flood', () => {
+    const runs = [
+      { from: at(0), to: at(30) },
+      { from: at(600), to: at(630) },
+    ];
+    const ann = [...burst(0, 12), ...burst(600, 2)];
+    const f = alarmFigures(runs, ann, [], [], 0);
+    expect(f.total).toBe(14);
+    expect(f.minutes).toBe(60);
+    expect(f.averagePerTenMinutes).toBeCloseTo(14 / 6, 9);
+    expect(f.floods).toBe(1);
+    expect(f.floodSharePercent).toBeCloseTo((100 * 10) / 60, 9);
+  });
+});

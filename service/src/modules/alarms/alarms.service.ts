@@ -1,7 +1,14 @@
 import { BadRequestException, Injectable, Logger, NotFoundException, type OnModuleDestroy, type OnModuleInit } from '@nestjs/common';
 import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
 import { DataSource, EntityManager, In, Not, Repository } from 'typeorm';
-import { type AlarmDto, type AlarmKind, type AlarmSuppression, type RunState, ALARM_KIND_WORDS } from '@crankjournal/shared-types';
+import {
+  type AlarmDto,
+  type AlarmFiguresDto,
+  type AlarmKind,
+  type AlarmSuppression,
+  type RunState,
+  ALARM_KIND_WORDS,
+} from '@crankjournal/shared-types';
 import { EnginesService, type EngineWithPoints } from '../engines/engines.service.js';
 import { LiveService } from '../live/live.service.js';
 import { MailService } from '../mail/mail.service.js';
@@ -24,6 +31,15 @@ import {
   type PointReading,
 } from './alarm-rules.js';
 import { designSuppressor, suppressedByState } from './alarm-suppression.js';
+import {
+  ALARM_FIGURE_BASIS,
+  alarmFigureRows,
+  alarmFigures,
+  detectChattering,
+  suggestDeadband,
+  type AlarmSpan,
+  type Annunciation,
+} from './alarm-performance.js';
 import { AlarmEvent } from './alarm-event.entity.js';
 import { Alarm } from './alarm.entity.js';
 
@@ -632,6 +648,96 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
       }
       await this.broadcast(a);
     }
+  }
+
+  /**
+   * The alarm system's figures over some runs (one run, or a season's): each run counted from its opening to its
+   * close (or now). Annunciated alarms only: a raise suppressed at once is not counted, a release is.
+   */
+  async figures(runs: { id: string; from: Date; to: Date; startedAt: Date | null }[]): Promise<AlarmFiguresDto> {
+    const ids = runs.map((r) => r.id);
+    const alarms = ids.length ? await this.alarmRepo.find({ where: { runId: In(ids) } }) : [];
+    const events = alarms.length
+      ? await this.db.getRepository(AlarmEvent).find({ where: { alarmId: In(alarms.map((a) => a.id)) }, order: { at: 'ASC' } })
+      : [];
+    const points = new Map<string, EnginePoint>();
+    for (const engineId of new Set(alarms.map((a) => a.engineId)))
+      for (const p of (await this.engines.withPoints(engineId)).points) points.set(p.id, p);
+    const keyOf = (a: Alarm) => `${(a.pointId && points.get(a.pointId)?.label) || 'engine'} · ${ALARM_KIND_WORDS[a.kind]}`;
+    const byAlarm = new Map<string, AlarmEvent[]>();
+    for (const e of events) byAlarm.set(e.alarmId, [...(byAlarm.get(e.alarmId) ?? []), e]);
+    const annunciations: Annunciation[] = [];
+    const spans: AlarmSpan[] = [];
+    const chatter: AlarmFiguresDto['chattering'] = [];
+    const activations = new Map<string, { alarm: Alarm; at: Date[] }>();
+    for (const a of alarms) {
+      const evs = byAlarm.get(a.id) ?? [];
+      let suppressed = false;
+      let annunciated = false;
+      for (const e of evs) {
+        const suppressedNow = evs.some((x) => x.event === 'suppress' && x.at.getTime() === e.at.getTime());
+        if (e.event === 'raise' || e.event === 'reactivate') {
+          if (!suppressed && !suppressedNow) annunciations.push({ at: e.at, key: keyOf(a) });
+          const k = `${a.pointId}:${a.kind}`;
+          const act = activations.get(k) ?? { alarm: a, at: [] };
+          act.at.push(e.at);
+          activations.set(k, act);
+          annunciated ||= !suppressed && !suppressedNow;
+        }
+        if (e.event === 'suppress') suppressed = true;
+        if (e.event === 'release') {
+          suppressed = false;
+          annunciated = true;
+          annunciations.push({ at: e.at, key: keyOf(a) });
+        }
+        if (e.event === 'return_to_normal') suppressed = false;
+      }
+      if (annunciated) spans.push({ key: keyOf(a), raisedAt: a.raisedAt, endedAt: a.returnedAt });
+    }
+    const opts = { maxActivations: this.config.get('ALARM_CHATTER_COUNT'), windowMinutes: this.config.get('ALARM_CHATTER_MINUTES') };
+    for (const { alarm, at } of activations.values()) {
+      const c = detectChattering(at, opts);
+      if (!c.chattering) continue;
+      const p = alarm.pointId ? points.get(alarm.pointId) : undefined;
+      let suggested: number | null = null;
+      if (p && alarm.limit !== null && alarm.kind !== 'rate_of_rise') {
+        // The readings that cleared it: those of the point when its alarm of this kind returned to normal.
+        const clears = alarms
+          .filter((x) => x.pointId === alarm.pointId && x.kind === alarm.kind && x.returnedAt)
+          .map((x) => x.returnedAt as Date);
+        const rows: { value: number }[] = clears.length
+          ? await this.db.query(`SELECT value FROM readings WHERE point_id = $1 AND taken_at = ANY($2)`, [p.id, clears])
+          : [];
+        suggested = suggestDeadband(
+          rows.map((r) => Number(r.value)),
+          alarm.limit,
+          alarm.kind === 'low' ? 'low' : 'high',
+        );
+      }
+      chatter.push({ key: keyOf(alarm), count: c.worst, suggestedDeadband: suggested, unit: alarm.unit });
+    }
+    const standing = runs.reduce((n, r) => {
+      if (!r.startedAt) return n;
+      const t = r.startedAt.getTime();
+      return n + spans.filter((s) => s.raisedAt.getTime() < t && (!s.endedAt || s.endedAt.getTime() > t)).length;
+    }, 0);
+    // Readings may be entered with an earlier time than the run's opening (a round written up late): the span
+    // starts at the earliest alarm when that is earlier.
+    const firstOf = (runId: string) => Math.min(...alarms.filter((a) => a.runId === runId).map((a) => a.raisedAt.getTime()));
+    const f = alarmFigures(
+      runs.map((r) => ({ from: new Date(Math.min(r.from.getTime(), firstOf(r.id))), to: r.to })),
+      annunciations,
+      spans,
+      chatter,
+      standing,
+      { staleMinutes: this.config.get('ALARM_STALE_MINUTES') },
+    );
+    return { ...f, runs: runs.length, chattering: chatter, rows: alarmFigureRows(f), basis: ALARM_FIGURE_BASIS };
+  }
+
+  /** The log sheet's alarm-figures section as plain rows (any PDF layout can place them). */
+  logSheetAlarmRows(f: AlarmFiguresDto): { label: string; value: string; target: string }[] {
+    return f.rows.map((r) => ({ label: r.label, value: r.value, target: `${r.target}${r.met ? '' : ' (not met)'}` }));
   }
 
   async get(id: string): Promise<Alarm> {
