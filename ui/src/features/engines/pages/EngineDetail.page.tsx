@@ -72,6 +72,7 @@ function Setting({ label, children }: { label: string; children: ReactNode }) {
 export default function EngineDetailPage() {
   const { id = '' } = useParams();
   const isChief = useHasRole('chief_engineer');
+  const isMaintenanceLead = useHasRole('maintenance_lead');
   const { data: engine, isLoading, error } = useQuery(engineDetailQuery(id));
   if (isLoading) return <Loader />;
   if (error || !engine) return <Alert color="signal">{errorText(error)}</Alert>;
@@ -90,10 +91,22 @@ export default function EngineDetailPage() {
           ) : undefined
         }
         action={
-          isChief && (
-            <Button component={Link} to={`/engines/${engine.id}/edit`} size="lg" leftSection={<IconPencil />}>
-              Edit engine
-            </Button>
+          (isChief || isMaintenanceLead) && (
+            <Group>
+              <Button
+                component={Link}
+                to={`/alarm-figures?engineId=${engine.id}&year=${new Date().getFullYear()}`}
+                size="lg"
+                variant="default"
+              >
+                Alarm figures
+              </Button>
+              {isChief && (
+                <Button component={Link} to={`/engines/${engine.id}/edit`} size="lg" leftSection={<IconPencil />}>
+                  Edit engine
+                </Button>
+              )}
+            </Group>
           )
         }
       />
