@@ -1,4 +1,4 @@
-import type { AlarmFiguresDto, EngineDetail } from '@crankjournal/shared-types';
+import type { AlarmFiguresDto, BoardPoint, EngineDetail } from '@crankjournal/shared-types';
 import { startTestApp, type TestApp } from './utils/test-app.js';
 import { signedIn } from './utils/signed-in.js';
 import { login, type SignedIn } from './factories/users.factory.js';
@@ -70,5 +70,25 @@ describe('alarm system figures', () => {
     const bad = await signedIn(t, chief).get(`/api/runs/alarm-figures?engineId=${engine.id}&year=next`);
     expect(bad.status).toBe(400);
     expect(JSON.stringify(bad.body)).toMatch(/year must be a whole number/);
+  });
+
+  it('the live board forecasts a steady rise: 110 °F + 1.5 °F/min for 10 min reaches high 130 in about 3.3 min, a pre-alarm', async () => {
+    const other = await createEngine(t, chief.accessToken);
+    const mb = other.measurementPoints.find((p) => p.code === 'MB')!.id;
+    const run = await createPreparingRun(t, operator.accessToken, other.id);
+    const T = Date.now() - 11 * 60_000;
+    const rows = Array.from({ length: 21 }, (_, i) => reading(mb, 110 + 1.5 * (i * 0.5), new Date(T + i * 30_000)));
+    expect(
+      (
+        await signedIn(t, operator)
+          .post(`/api/runs/${run.id}/rounds`)
+          .send({ takenAt: new Date(T).toISOString(), readings: rows })
+      ).status,
+    ).toBe(201);
+    const board = (await signedIn(t, operator).get(`/api/runs/${run.id}/board`)).body as BoardPoint[];
+    const f = board.find((b) => b.pointId === mb)!.forecast!;
+    expect(f).toMatchObject({ limitKind: 'high', limit: 130, preAlarm: true, preAlarmMinutes: 10 });
+    expect(Math.abs(f.minutesToLimit - 5 / 1.5)).toBeLessThan(0.1 * (5 / 1.5));
+    expect(f.method).toMatch(/Theil–Sen/);
   });
 });

@@ -201,6 +201,21 @@ export interface BoardPoint {
   trend: number[];
   alarmState: AlarmState | null;
   alarmPriority: AlarmPriority | null;
+  /** Time to the next limit at the present trend, when the trend is steady enough to say so. */
+  forecast?: LimitForecastDto | null;
+}
+export interface LimitForecastDto {
+  /** e.g. 'high_high'. */
+  limitKind: AlarmKind;
+  limit: number;
+  unit: string;
+  minutesToLimit: number;
+  ratePerMin: number;
+  /** Under the pre-alarm setting: an advisory pre-alarm, the lowest priority (not in the alarm record). */
+  preAlarm: boolean;
+  preAlarmMinutes: number;
+  /** The method and its window, in words, for the screen. */
+  method: string;
 }
 /** The alarm system's own figures for a run or a season, against the standards' suggested targets. */
 export interface AlarmFiguresDto {

@@ -6,6 +6,7 @@ import {
   type AlarmFiguresDto,
   type AlarmKind,
   type AlarmSuppression,
+  type LimitForecastDto,
   type RunState,
   ALARM_KIND_WORDS,
 } from '@crankjournal/shared-types';
@@ -31,6 +32,7 @@ import {
   type PointReading,
 } from './alarm-rules.js';
 import { designSuppressor, suppressedByState } from './alarm-suppression.js';
+import { forecastForPoint } from './alarm-forecast.js';
 import {
   ALARM_FIGURE_BASIS,
   alarmFigureRows,
@@ -733,6 +735,14 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
       { staleMinutes: this.config.get('ALARM_STALE_MINUTES') },
     );
     return { ...f, runs: runs.length, chattering: chatter, rows: alarmFigureRows(f), basis: ALARM_FIGURE_BASIS };
+  }
+
+  /**
+   * Time to the point's next limit at the present trend (readings of the last minutes, oldest first), with the
+   * advisory pre-alarm under ALARM_FORECAST_MINUTES; null when the trend is not steady enough to say.
+   */
+  forecast(point: EnginePoint, readings: readonly { value: number; takenAt: Date }[], now: Date): LimitForecastDto | null {
+    return forecastForPoint(point, readings, now, this.config.get('ALARM_FORECAST_MINUTES'));
   }
 
   /** The log sheet's alarm-figures section as plain rows (any PDF layout can place them). */
