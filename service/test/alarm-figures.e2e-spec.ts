@@ -67,6 +67,9 @@ describe('alarm system figures', () => {
     expect(season.body).toMatchObject({ runs: 1, total: 32, floods: 1 });
     expect((await signedIn(t, operator).get(`/api/runs/${runId}/alarm-figures`)).status).toBe(403);
     expect((await signedIn(t, operator).get(`/api/runs/alarm-figures?engineId=${engine.id}&year=${year}`)).status).toBe(403);
+    const none = await signedIn(t, chief).get(`/api/runs/alarm-figures?engineId=${engine.id}&year=1990`);
+    expect(none.status).toBe(200);
+    expect(none.body).toMatchObject({ runs: 0, total: 0, floods: 0, averagePerTenMinutes: 0 });
     const bad = await signedIn(t, chief).get(`/api/runs/alarm-figures?engineId=${engine.id}&year=next`);
     expect(bad.status).toBe(400);
     expect(JSON.stringify(bad.body)).toMatch(/year must be a whole number/);

@@ -727,7 +727,10 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
     // starts at the earliest alarm when that is earlier.
     const firstOf = (runId: string) => Math.min(...alarms.filter((a) => a.runId === runId).map((a) => a.raisedAt.getTime()));
     const f = alarmFigures(
-      runs.map((r) => ({ from: new Date(Math.min(r.from.getTime(), firstOf(r.id))), to: r.to })),
+      // No runs (a season not yet begun): one empty span, so every figure is zero.
+      runs.length
+        ? runs.map((r) => ({ from: new Date(Math.min(r.from.getTime(), firstOf(r.id))), to: r.to }))
+        : [{ from: new Date(), to: new Date() }],
       annunciations,
       spans,
       chatter,
