@@ -138,8 +138,18 @@ export class RunExportsService {
     for (const a of alarms)
       doc.text(
         `${fmtTime(a.raisedAt)}  ${ALARM_KIND_WORDS[a.kind]} — ${a.message}  [${ALARM_STATE_WORDS[a.state]}` +
+          `${a.suppression ? `, suppressed by ${a.suppressedByLabel ?? a.suppression}` : ''}` +
           `${a.acknowledgedByName ? `, acknowledged by ${a.acknowledgedByName} ${fmtTime(a.acknowledgedAt)}` : ''}]`,
       );
+    // The alarm system's own figures (rows from AlarmsService, so any layout can place them).
+    const run = await this.runs.get(runId);
+    const figures = await this.alarms.figures([
+      { id: run.id, from: run.createdAt, to: run.closedAt ?? run.stoppedAt ?? new Date(), startedAt: run.startedAt },
+    ]);
+    doc.moveDown(0.5).font('Helvetica-Bold').fontSize(11).text('Alarm system figures');
+    doc.font('Helvetica').fontSize(9);
+    for (const r of this.alarms.logSheetAlarmRows(figures)) doc.text(`${r.label}: ${r.value}   target ${r.target}`);
+    doc.fontSize(8).text(figures.basis);
     doc.moveDown(0.5).font('Helvetica-Bold').fontSize(11).text('Amendments');
     doc.font('Helvetica').fontSize(9);
     const amended = readings.filter((r) => r.amendments.length);

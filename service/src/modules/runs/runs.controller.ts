@@ -15,7 +15,16 @@ import {
 } from '@nestjs/common';
 import { ApiBearerAuth, ApiConsumes, ApiTags } from '@nestjs/swagger';
 import type { Request, Response } from 'express';
-import type { AlarmDto, BoardPoint, IngestResult, ReadingDto, RunDetail, RunSummary, StartGateVerdict } from '@crankjournal/shared-types';
+import type {
+  AlarmDto,
+  AlarmFiguresDto,
+  BoardPoint,
+  IngestResult,
+  ReadingDto,
+  RunDetail,
+  RunSummary,
+  StartGateVerdict,
+} from '@crankjournal/shared-types';
 import { AnyRole, Roles } from '../../common/decorators/roles.decorator.js';
 import { CurrentUser, type AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { IdParamDto } from '../../common/dto/id-param.dto.js';
@@ -25,7 +34,8 @@ import { ReadingsService } from './readings.service.js';
 import { IngestService } from './ingest.service.js';
 import { CsvImportService } from './csv-import.service.js';
 import { RunExportsService } from './run-exports.service.js';
-import { CreateRunDto, ReadingsQueryDto, RunQueryDto, RunTransitionDto, UpdateRunDto } from './dto/run.dto.js';
+import { CreateRunDto, ReadingsQueryDto, RunQueryDto, RunTransitionDto, SeasonFiguresQueryDto, UpdateRunDto } from './dto/run.dto.js';
+import type { Run } from './run.entity.js';
 import { RoundDto } from './dto/reading.dto.js';
 
 const MAX_CSV_BYTES = 200 * 1024 * 1024;
@@ -65,6 +75,14 @@ export class RunsController {
   @AnyRole()
   list(@Query() q: RunQueryDto): Promise<RunSummary[]> {
     return this.runs.list(q);
+  }
+
+  /** The alarm system's own figures for an engine's season (its runs of a calendar year). */
+  @Get('alarm-figures')
+  @Roles('chief_engineer', 'maintenance_lead')
+  async seasonAlarmFigures(@Query() q: SeasonFiguresQueryDto): Promise<AlarmFiguresDto> {
+    const runs = await this.runs.season(q.engineId, q.year);
+    return this.alarms.figures(runs.map((r) => this.runSpan(r)));
   }
 
   @Post()
@@ -109,6 +127,18 @@ export class RunsController {
   @AnyRole()
   board(@Param() p: IdParamDto): Promise<BoardPoint[]> {
     return this.readings.board(p.id);
+  }
+
+  /** The alarm system's own figures for this run, against the standards' targets. */
+  @Get(':id/alarm-figures')
+  @Roles('chief_engineer', 'maintenance_lead')
+  async runAlarmFigures(@Param() p: IdParamDto): Promise<AlarmFiguresDto> {
+    const run = await this.runs.get(p.id);
+    return this.alarms.figures([this.runSpan(run)]);
+  }
+
+  private runSpan(run: Run) {
+    return { id: run.id, from: run.createdAt, to: run.closedAt ?? run.stoppedAt ?? new Date(), startedAt: run.startedAt };
   }
 
   @Get(':id/alarms')
