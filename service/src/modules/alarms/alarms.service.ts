@@ -132,6 +132,12 @@ function oldestInWindow(list: readonly PointReading[], takenAt: Date, windowMinu
   return [];
 }
 
+/**
+ * The recorded values of a point at given instants (the readings module answers it: alarms never read its table).
+ * Used for the deadband a chattering alarm would have needed.
+ */
+export type ReadingValuesAt = (pointId: string, at: Date[]) => Promise<number[]>;
+
 @Injectable()
 export class AlarmsService implements OnModuleInit, OnModuleDestroy {
   private readonly logger = new Logger('Alarms');
@@ -656,7 +662,10 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
    * The alarm system's figures over some runs (one run, or a season's): each run counted from its opening to its
    * close (or now). Annunciated alarms only: a raise suppressed at once is not counted, a release is.
    */
-  async figures(runs: { id: string; from: Date; to: Date; startedAt: Date | null }[]): Promise<AlarmFiguresDto> {
+  async figures(
+    runs: { id: string; from: Date; to: Date; startedAt: Date | null }[],
+    readingValuesAt: ReadingValuesAt,
+  ): Promise<AlarmFiguresDto> {
     const ids = runs.map((r) => r.id);
     const alarms = ids.length ? await this.alarmRepo.find({ where: { runId: In(ids) } }) : [];
     const events = alarms.length
@@ -707,14 +716,8 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
         const clears = alarms
           .filter((x) => x.pointId === alarm.pointId && x.kind === alarm.kind && x.returnedAt)
           .map((x) => x.returnedAt as Date);
-        const rows: { value: number }[] = clears.length
-          ? await this.db.query(`SELECT value FROM readings WHERE point_id = $1 AND taken_at = ANY($2)`, [p.id, clears])
-          : [];
-        suggested = suggestDeadband(
-          rows.map((r) => Number(r.value)),
-          alarm.limit,
-          alarm.kind === 'low' ? 'low' : 'high',
-        );
+        const values = clears.length ? await readingValuesAt(p.id, clears) : [];
+        suggested = suggestDeadband(values, alarm.limit, alarm.kind === 'low' ? 'low' : 'high');
       }
       chatter.push({ key: keyOf(alarm), count: c.worst, suggestedDeadband: suggested, unit: alarm.unit });
     }

@@ -254,6 +254,16 @@ export class ReadingsService {
     return rows.length ? { value: Number(rows[0].v), takenAt: new Date(rows[0].t) } : null;
   }
 
+  /** The values a point recorded at exactly these instants (the original values, as the alarm rules saw them). */
+  async valuesAt(pointId: string, at: Date[]): Promise<number[]> {
+    if (at.length === 0) return [];
+    const rows: { value: number }[] = await this.db.query(`SELECT value FROM readings WHERE point_id = $1 AND taken_at = ANY($2)`, [
+      pointId,
+      at,
+    ]);
+    return rows.map((r) => Number(r.value));
+  }
+
   /**
    * The run's reading of a point of `pointKind` nearest in time to `at` (an amended value wins), no further
    * than `withinMs` away; null when there is none. Used by the indicator cards for speed and pressures.

@@ -143,9 +143,10 @@ export class RunExportsService {
       );
     // The alarm system's own figures (rows from AlarmsService, so any layout can place them).
     const run = await this.runs.get(runId);
-    const figures = await this.alarms.figures([
-      { id: run.id, from: run.createdAt, to: run.closedAt ?? run.stoppedAt ?? new Date(), startedAt: run.startedAt },
-    ]);
+    const figures = await this.alarms.figures(
+      [{ id: run.id, from: run.createdAt, to: run.closedAt ?? run.stoppedAt ?? new Date(), startedAt: run.startedAt }],
+      (pointId, at) => this.readings.valuesAt(pointId, at),
+    );
     doc.moveDown(0.5).font('Helvetica-Bold').fontSize(11).text('Alarm system figures');
     doc.font('Helvetica').fontSize(9);
     for (const r of this.alarms.logSheetAlarmRows(figures)) doc.text(`${r.label}: ${r.value}   target ${r.target}`);

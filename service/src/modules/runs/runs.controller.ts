@@ -82,7 +82,10 @@ export class RunsController {
   @Roles('chief_engineer', 'maintenance_lead')
   async seasonAlarmFigures(@Query() q: SeasonFiguresQueryDto): Promise<AlarmFiguresDto> {
     const runs = await this.runs.season(q.engineId, q.year);
-    return this.alarms.figures(runs.map((r) => this.runSpan(r)));
+    return this.alarms.figures(
+      runs.map((r) => this.runSpan(r)),
+      (pointId, at) => this.readings.valuesAt(pointId, at),
+    );
   }
 
   @Post()
@@ -134,7 +137,7 @@ export class RunsController {
   @Roles('chief_engineer', 'maintenance_lead')
   async runAlarmFigures(@Param() p: IdParamDto): Promise<AlarmFiguresDto> {
     const run = await this.runs.get(p.id);
-    return this.alarms.figures([this.runSpan(run)]);
+    return this.alarms.figures([this.runSpan(run)], (pointId, at) => this.readings.valuesAt(pointId, at));
   }
 
   private runSpan(run: Run) {
