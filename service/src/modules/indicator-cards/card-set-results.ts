@@ -25,6 +25,7 @@ import {
   CalculationInputError,
   computeIndicatedPower,
   effectiveAreaSqIn,
+  incompleteSetReason,
   mechanicalEfficiency,
   receiverDropPsi,
   workShareByCylinder,
@@ -414,19 +415,24 @@ export function computeCardSetResults(input: CardSetResultsInput): CardSetResult
   });
 
   const total = power?.totalIndicatedHorsepower ?? 0;
-  const everyCylinderCarded = cylinders.length > 0 && carded.length === cylinders.length;
   if (missingEnds.length)
-    notes.push(`Not yet taken: ${missingEnds.map((m) => `${m.cylinderLabel} ${CYLINDER_END_WORDS[m.end]}`).join(', ')}.`);
+    notes.push(
+      `Not yet taken: ${missingEnds.map((m) => `${m.cylinderLabel} ${CYLINDER_END_WORDS[m.end]}`).join(', ')}. ` +
+        "The totals are the sum of the cards present, not the engine's indicated power.",
+    );
 
-  // Share of the work (indicated-power.ts), once every cylinder has a card.
-  if (everyCylinderCarded && total > 0) {
+  // Share of the work and the referred MEP (indicated-power.ts): only from a complete set.
+  const complete = missingEnds.length === 0 && cylinders.length > 0;
+  const incompleteReason = complete ? null : cylinders.length === 0 ? 'the engine has no cylinders' : incompleteSetReason(missingEnds);
+  let workSharesMissing: string | null = incompleteReason;
+  if (complete && total > 0) {
     const shares = workShareByCylinder(cylinderResults.map((c) => ({ label: c.label, indicatedHorsepower: c.indicatedHorsepower })));
     cylinderResults.forEach((c, i) => (c.workShare = shares[i].share));
-  }
+  } else if (complete) workSharesMissing = 'the cards give no indicated power';
 
   // The largest cylinder by swept volume, which the referred MEP is referred to.
   let referredToCylinderLabel: string | null = null;
-  if (everyCylinderCarded && power) {
+  if (complete && power) {
     const swept = (c: CardSetCylinder) =>
       ((effectiveAreaSqIn(c.boreIn, c.tailRodIn) + effectiveAreaSqIn(c.boreIn, c.pistonRodIn)) / 2) * c.strokeIn;
     referredToCylinderLabel = cylinders.reduce((a, b) => (swept(b) > swept(a) ? b : a)).label;
@@ -450,12 +456,25 @@ export function computeCardSetResults(input: CardSetResultsInput): CardSetResult
     else notes.push('No admission pressure read off the low-pressure cards: no receiver drop.');
   }
 
-  // Mechanical efficiency against the nearest brake or measured output figure (indicated-power.ts).
+  // Mechanical efficiency against the nearest brake or measured output figure (indicated-power.ts): only from a
+  // complete set, and never above 1 (that is an error in the inputs, said so).
   let brake: CardSetResults['brake'] = null;
-  if (input.brake && total > 0) {
+  if (input.brake) {
+    let efficiency: number | null = null;
+    let efficiencyMissing: string | null = incompleteReason;
+    if (complete && total > 0) {
+      try {
+        efficiency = mechanicalEfficiency({ brakeHorsepower: input.brake.brakeHorsepower, indicatedHorsepower: total });
+      } catch (err) {
+        if (!(err instanceof CalculationInputError)) throw err;
+        efficiencyMissing = `input error: ${err.message}`;
+      }
+    } else if (complete) efficiencyMissing = 'the cards give no indicated power';
+    if (efficiencyMissing) notes.push(`No mechanical efficiency: ${efficiencyMissing}.`);
     brake = {
       ...input.brake,
-      mechanicalEfficiency: mechanicalEfficiency({ brakeHorsepower: input.brake.brakeHorsepower, indicatedHorsepower: total }),
+      mechanicalEfficiency: efficiency,
+      mechanicalEfficiencyMissing: efficiency === null ? efficiencyMissing : null,
     };
   }
 
@@ -473,13 +492,15 @@ export function computeCardSetResults(input: CardSetResultsInput): CardSetResult
 
   return {
     speedRpm,
-    complete: missingEnds.length === 0,
+    complete,
     missingEnds,
     cylinders: cylinderResults,
     totalIndicatedHorsepower: total,
     totalIndicatedKilowatts: hpToKw(total),
-    referredMeanEffectivePressurePsi: everyCylinderCarded && power ? power.referredMeanEffectivePressurePsi : null,
+    referredMeanEffectivePressurePsi: complete && power ? power.referredMeanEffectivePressurePsi : null,
     referredToCylinderLabel,
+    referredMeanEffectivePressureMissing: complete && power ? null : (incompleteReason ?? 'the cards give no indicated power'),
+    workSharesMissing,
     receiverPressurePsig: input.receiverPressurePsig,
     lowPressureAdmissionPsig,
     receiverDropPsi: drop,

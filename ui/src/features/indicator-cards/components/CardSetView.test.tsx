@@ -109,6 +109,8 @@ function set(over: Partial<CardSetDto> = {}): CardSetDto {
       totalIndicatedKilowatts: 166.3,
       referredMeanEffectivePressurePsi: null,
       referredToCylinderLabel: null,
+      referredMeanEffectivePressureMissing: 'needs a card from every end; missing: HP crank end',
+      workSharesMissing: 'needs a card from every end; missing: HP crank end',
       receiverPressurePsig: 26.9,
       lowPressureAdmissionPsig: null,
       receiverDropPsi: null,
@@ -126,6 +128,13 @@ function set(over: Partial<CardSetDto> = {}): CardSetDto {
 }
 
 describe('CardSetView', () => {
+  it('marks an incomplete set: total = sum of the cards present, the missing end named, referred MEP absent with its reason', () => {
+    render(<CardSetView set={set()} canWrite={false} defaultOpen={false} />);
+    expect(screen.getByTestId('card-set-total-basis')).toHaveTextContent('Sum of the cards present');
+    expect(screen.getByTestId('card-set-incomplete')).toHaveTextContent("Incomplete set, not the engine's power. Missing: HP crank end.");
+    expect(screen.getByTestId('stat-referred')).toHaveTextContent('Not shown: needs a card from every end; missing: HP crank end');
+  });
+
   it('shows the total, the summary table, the card over its ideal card and the amendment with the old value struck through', () => {
     render(<CardSetView set={set()} canWrite={false} defaultOpen />);
     expect(screen.getByTestId('card-set-total')).toHaveTextContent('223 ihp');
