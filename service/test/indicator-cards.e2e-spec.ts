@@ -44,6 +44,7 @@ function compoundBody() {
   b.measurementPoints.push(
     { code: 'RCV', label: 'Receiver', kind: 'receiver_pressure', unit: 'psig', sequence: 5 },
     { code: 'VAC', label: 'Vacuum', kind: 'vacuum', unit: 'inHg', sequence: 6 },
+    { code: 'BAR', label: 'Barometer', kind: 'barometer', unit: 'inHg', sequence: 7 },
   );
   return b;
 }
@@ -480,6 +481,29 @@ describe('indicator cards and indicated power', () => {
       // IHP is proportional to speed (P·L·A·N/33,000).
       expect(set.results.totalIndicatedHorsepower).toBeCloseTo((before * 75) / 70, 9);
       expect(set.amendments[0].changes).toEqual(expect.arrayContaining([{ field: 'speedRpm', from: 70, to: 75 }]));
+    });
+
+    it('turns the vacuum absolute against the run’s barometer reading: 24 inHg under 28.9 inHg is 2.41 psia', async () => {
+      const sets = (body: object) => signedIn(t, operator).post(`/api/runs/${run.id}/card-sets/preview`).send(body);
+      const cards = [
+        { cylinderId: cyl('HP'), end: 'head', meanEffectivePressurePsi: 55 },
+        { cylinderId: cyl('HP'), end: 'crank', meanEffectivePressurePsi: 53 },
+      ];
+      const entered = await sets({ takenAt: takenAt(), speedRpm: 75, vacuumInHg: 24, barometerInHg: 28.9, cards });
+      expect(entered.status).toBe(200);
+      expect(entered.body.barometerSource).toBe('entered');
+      expect(entered.body.results.atmosphereBasis).toBe('barometer');
+      expect(entered.body.results.cylinders[1].backPressurePsia).toBeCloseTo(2.41, 2);
+
+      const at = new Date(Date.now() - 10 * 60_000).toISOString();
+      const round = await signedIn(t, operator)
+        .post(`/api/runs/${run.id}/rounds`)
+        .send({ takenAt: at, readings: [{ clientId: randomUUID(), pointId: point('BAR'), value: 28.9, takenAt: at }] });
+      expect(round.status).toBe(201);
+      const read = await sets({ takenAt: takenAt(), speedRpm: 75, vacuumInHg: 24, cards });
+      expect(read.body.barometerSource).toBe('reading');
+      expect(read.body.barometerInHg).toBe(28.9);
+      expect(read.body.results.cylinders[1].backPressurePsia).toBeCloseTo(2.41, 2);
     });
 
     it('a brake figure gives the complete sets near it a mechanical efficiency; an incomplete set none, with the reason', async () => {

@@ -173,6 +173,8 @@ export interface CreateCardSetRequest {
   receiverPressurePsig?: number | null;
   /** Leave out to use the nearest vacuum reading. */
   vacuumInHg?: number | null;
+  /** The site barometer, inHg absolute; leave out to use the nearest barometer reading (else the standard atmosphere). */
+  barometerInHg?: number | null;
   notes?: string | null;
   cards: CardInput[];
 }
@@ -184,6 +186,7 @@ export interface AmendCardSetRequest {
   throttlePressurePsig?: number | null;
   receiverPressurePsig?: number | null;
   vacuumInHg?: number | null;
+  barometerInHg?: number | null;
   notes?: string | null;
   reason: string;
 }
@@ -327,6 +330,10 @@ export interface CardSetResults {
   brake: BrakeComparison | null;
   /** Steam accounted for by the first cylinder's diagrams, lb per indicated horsepower-hour of the engine. */
   steamAccountedForLbPerIhpHour: number | null;
+  /** The atmosphere vacuum and gauge readings were turned absolute with, psia. */
+  atmosphericPressurePsia: number;
+  /** 'barometer': the site's barometer reading; 'standard': no barometer known, the standard atmosphere (see notes). */
+  atmosphereBasis: 'barometer' | 'standard';
   /** What could not be worked out, and why. */
   notes: string[];
   computedAt: string;
@@ -347,6 +354,9 @@ export interface CardSetDto {
   receiverSource: FigureSource | null;
   vacuumInHg: number | null;
   vacuumSource: FigureSource | null;
+  /** The site barometer the vacuum and gauge readings were turned absolute with, inHg (null: the standard atmosphere). */
+  barometerInHg: number | null;
+  barometerSource: FigureSource | null;
   notes: string | null;
   cylinders: CardSetCylinder[];
   cards: CardDto[];
@@ -368,6 +378,8 @@ export interface CardSetPreviewDto {
   receiverSource: FigureSource | null;
   vacuumInHg: number | null;
   vacuumSource: FigureSource | null;
+  barometerInHg: number | null;
+  barometerSource: FigureSource | null;
   cylinders: CardSetCylinder[];
   cards: {
     cylinderId: string;

@@ -356,3 +356,23 @@ describe('figures that need every card (issue: numbers a chief engineer can sign
     expect(Math.abs(r.steamAccountedForLbPerIhpHour! - 26.5) / 26.5).toBeLessThan(0.02);
   });
 });
+
+describe('pressures against the local barometer', () => {
+  const cards = [card({ end: 'head' }), card({ end: 'crank' })];
+
+  it('a 28.9 inHg barometer: 24 inHg of vacuum is 2.41 psia of back pressure, gauge pressures are added to 14.19 psia', () => {
+    const r = computeCardSetResults(input({ cards, vacuumInHg: 24, barometerInHg: 28.9, throttlePressurePsig: 120 }));
+    expect(r.atmosphereBasis).toBe('barometer');
+    expect(r.atmosphericPressurePsia).toBeCloseTo(28.9 * PSI_PER_INCH_OF_MERCURY, 12);
+    expect(r.cylinders[0].backPressurePsia).toBeCloseTo(2.41, 2);
+    expect(r.cylinders[0].admissionPressurePsia).toBeCloseTo(120 + 28.9 * PSI_PER_INCH_OF_MERCURY, 9);
+    expect(r.notes.join(' ')).not.toMatch(/standard atmosphere/);
+  });
+
+  it('no barometer: the standard atmosphere, with a visible note', () => {
+    const r = computeCardSetResults(input({ cards, vacuumInHg: 24 }));
+    expect(r.atmosphereBasis).toBe('standard');
+    expect(r.cylinders[0].backPressurePsia).toBeCloseTo(2.91, 2);
+    expect(r.notes.join(' ')).toMatch(/No barometer reading: .* standard atmosphere \(29\.92 inHg, 14\.696 psia\)/);
+  });
+});

@@ -38,7 +38,7 @@ import {
   upperLinePressurePsig,
   type CardOutlinePoint,
 } from '../../calculations/card-diagram.js';
-import { vacuumInHgToPsia } from '../../calculations/vacuum.js';
+import { PSI_PER_INCH_OF_MERCURY, vacuumInHgToPsia } from '../../calculations/vacuum.js';
 import { STANDARD_ATMOSPHERE_PSI, hpToKw, psiaToPsig, psigToPsia } from '../../calculations/units.js';
 
 /** Points the ideal card is drawn with along its expansion line. */
@@ -241,6 +241,8 @@ export interface CardSetResultsInput {
   throttlePressurePsig: number | null;
   receiverPressurePsig: number | null;
   vacuumInHg: number | null;
+  /** The site barometer, inHg absolute; null: the standard atmosphere (with a note). */
+  barometerInHg?: number | null;
   /** The engine logs a vacuum (condensing); without one the exhaust is taken as atmospheric. */
   condensing: boolean;
   brake: { figureId: string; measuredAt: string; brakeHorsepower: number } | null;
@@ -261,17 +263,27 @@ export function computeCardSetResults(input: CardSetResultsInput): CardSetResult
   const ranks = [...new Set(cylinders.map((c) => STAGE_RANK[c.role]))].sort((a, b) => a - b);
   const stageOf = (c: CardSetCylinder) => ranks.indexOf(STAGE_RANK[c.role]);
   const stages = ranks.length;
-  const throttlePsia = input.throttlePressurePsig !== null ? psigToPsia(input.throttlePressurePsig) : null;
-  const receiverPsia = input.receiverPressurePsig !== null ? psigToPsia(input.receiverPressurePsig) : null;
+  // Gauge and vacuum readings are turned absolute against the site's barometer where one is known.
+  const barometerInHg = input.barometerInHg ?? null;
+  const atmosphericPsia = barometerInHg !== null ? barometerInHg * PSI_PER_INCH_OF_MERCURY : STANDARD_ATMOSPHERE_PSI;
+  if (barometerInHg === null) {
+    notes.push(
+      'No barometer reading: vacuum and gauge pressures are turned absolute against the standard atmosphere ' +
+        `(${fixed(STANDARD_ATMOSPHERE_PSI / PSI_PER_INCH_OF_MERCURY, 2)} inHg, ${fixed(STANDARD_ATMOSPHERE_PSI, 3)} psia).`,
+    );
+  }
+  const toPsia = (psig: number) => psigToPsia(psig, atmosphericPsia);
+  const throttlePsia = input.throttlePressurePsig !== null ? toPsia(input.throttlePressurePsig) : null;
+  const receiverPsia = input.receiverPressurePsig !== null ? toPsia(input.receiverPressurePsig) : null;
   let exhaustPsia: number | null = null;
   if (input.vacuumInHg !== null) {
     try {
-      exhaustPsia = vacuumInHgToPsia(input.vacuumInHg);
+      exhaustPsia = vacuumInHgToPsia(input.vacuumInHg, atmosphericPsia);
     } catch (e) {
       notes.push(`The vacuum of ${input.vacuumInHg} inHg cannot be right (${(e as Error).message}); no exhaust pressure.`);
     }
   } else if (!input.condensing) {
-    exhaustPsia = STANDARD_ATMOSPHERE_PSI;
+    exhaustPsia = atmosphericPsia;
   }
   const admissionOf = (s: number): number | null => (s === 0 ? throttlePsia : s === 1 && stages === 2 ? receiverPsia : null);
   const backOf = (s: number): number | null => (s === stages - 1 ? exhaustPsia : s === 0 && stages === 2 ? receiverPsia : null);
@@ -332,7 +344,7 @@ export function computeCardSetResults(input: CardSetResultsInput): CardSetResult
             meanEffectivePressureWithClearancePsi: idealMeanEffectivePressurePsi({ ...basis, clearanceFraction }),
             outline: idealCardPoints({ ...basis, expansionSegments: IDEAL_CARD_SEGMENTS }).map((p) => ({
               strokeFraction: p.strokeFraction,
-              pressurePsig: psiaToPsig(p.pressurePsia),
+              pressurePsig: psiaToPsig(p.pressurePsia, atmosphericPsia),
             })),
           };
           factor = diagramFactor({ actualMeanEffectivePressurePsi: e.meanEffectivePressurePsi, idealMeanEffectivePressurePsi: mep });
@@ -352,14 +364,14 @@ export function computeCardSetResults(input: CardSetResultsInput): CardSetResult
         let expansionPressureBasis: DiagramSteamDto['expansionPressureBasis'] = 'logged';
         const traced = card.outline ? upperLinePressurePsig(card.outline, k) : null;
         if (traced !== null) {
-          expansionPsia = psigToPsia(traced);
+          expansionPsia = toPsia(traced);
           expansionPressureBasis = 'trace';
         } else if (card.admissionPressurePsig !== null) {
-          expansionPsia = psigToPsia(card.admissionPressurePsig);
+          expansionPsia = toPsia(card.admissionPressurePsig);
           expansionPressureBasis = 'card';
         } else expansionPsia = admissionPsia;
         const tracedLow = card.outline && kc > 0 ? lowerLinePressurePsig(card.outline, kc) : null;
-        const compressionPsia = tracedLow !== null ? psigToPsia(tracedLow) : backPsia;
+        const compressionPsia = tracedLow !== null ? toPsia(tracedLow) : backPsia;
         if (expansionPsia !== null && compressionPsia !== null) {
           const geometry = { effectiveAreaSqIn: e.effectiveAreaSqIn, strokeIn: cyl.strokeIn, clearanceFraction };
           const expansionVolumeFt3 = cylinderVolumeFt3({ ...geometry, strokeFraction: k });
@@ -506,6 +518,8 @@ export function computeCardSetResults(input: CardSetResultsInput): CardSetResult
     receiverDropPsi: drop,
     brake,
     steamAccountedForLbPerIhpHour,
+    atmosphericPressurePsia: atmosphericPsia,
+    atmosphereBasis: barometerInHg !== null ? 'barometer' : 'standard',
     notes,
     computedAt: input.computedAt.toISOString(),
   };

@@ -112,7 +112,14 @@ export function CardSetView({ set, canWrite, defaultOpen }: { set: CardSetDto; c
         <Stat label="Throttle / receiver">
           {fmt(set.throttlePressurePsig, 1)} / {fmt(set.receiverPressurePsig, 1)} psig
         </Stat>
-        <Stat label="Vacuum">{fmt(set.vacuumInHg, 1)} inHg</Stat>
+        <Stat label="Vacuum" testId="stat-vacuum">
+          {fmt(set.vacuumInHg, 1)} inHg
+          <Text fz="xs" c={r.atmosphereBasis === 'standard' ? 'amber.8' : 'dimmed'} lh={1.2}>
+            {r.atmosphereBasis === 'barometer'
+              ? `against the barometer, ${fmt(set.barometerInHg, 2)} inHg${source(set.barometerSource)}`
+              : 'no barometer: against the standard atmosphere, 29.92 inHg'}
+          </Text>
+        </Stat>
         <Stat label="Referred MEP" testId="stat-referred">
           {r.referredMeanEffectivePressurePsi !== null
             ? `${fmt(r.referredMeanEffectivePressurePsi, 1)} psi on ${r.referredToCylinderLabel}`
