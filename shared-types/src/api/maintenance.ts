@@ -124,12 +124,17 @@ export interface DueCriterionDto {
   remaining: number;
   fractionRemaining: number;
   estimatedDueDate: string | null;
+  /** Why there is no estimated date (a counter without a usage rate: "cannot be predicted"). */
+  estimateNote: string | null;
   status: DueStatus;
 }
 export interface PlanDue {
   status: DueStatus;
   governing: DueCriterion;
+  /** Never a future date for an overdue plan. */
   dueDate: string | null;
+  /** Said beside or instead of the date: overdue on a counter, or "cannot be predicted". */
+  dueDateNote: string | null;
   criteria: DueCriterionDto[];
 }
 

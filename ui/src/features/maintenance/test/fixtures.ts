@@ -4,6 +4,7 @@ const due = (status: PlanDue['status'], remaining: number, dueDate: string): Pla
   status,
   governing: 'calendar_days',
   dueDate,
+  dueDateNote: status === 'overdue' ? 'overdue on the calendar' : null,
   criteria: [
     {
       criterion: 'calendar_days',
@@ -12,6 +13,7 @@ const due = (status: PlanDue['status'], remaining: number, dueDate: string): Pla
       remaining,
       fractionRemaining: remaining / 365,
       estimatedDueDate: dueDate,
+      estimateNote: null,
       status,
     },
   ],
