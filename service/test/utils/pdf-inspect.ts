@@ -126,6 +126,6 @@ export function compareWithGolden(pdf: Buffer, page: number, goldenPath: string)
   const a = PNG.sync.read(png);
   const b = PNG.sync.read(readFileSync(goldenPath));
   if (a.width !== b.width || a.height !== b.height) return 1;
-  const diff = pixelmatch(a.data, b.data, null, a.width, a.height, { threshold: 0.1 });
+  const diff = pixelmatch(a.data, b.data, undefined, a.width, a.height, { threshold: 0.1 });
   return diff / (a.width * a.height);
 }

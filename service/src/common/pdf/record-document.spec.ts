@@ -22,9 +22,19 @@ describe('the record layout layer', () => {
       printedAt: new Date('2026-08-14T08:30:00Z'),
       printedBy: 'Tess Printer',
       blocks: [
-        { kind: 'facts', items: [{ label: 'Started', value: long }, { label: 'State', value: 'closed' }] },
+        {
+          kind: 'facts',
+          items: [
+            { label: 'Started', value: long },
+            { label: 'State', value: 'closed' },
+          ],
+        },
         { kind: 'heading', text: 'Readings' },
-        { kind: 'table', columns: [{ head: 'Time', width: 50 }, { head: 'Steam chest, psig', width: 70, align: 'right' }, { head: 'Remark' }], rows },
+        {
+          kind: 'table',
+          columns: [{ head: 'Time', width: 50 }, { head: 'Steam chest, psig', width: 70, align: 'right' }, { head: 'Remark' }],
+          rows,
+        },
         { kind: 'box', label: 'CAUTION:', text: long },
       ],
     });
@@ -52,7 +62,9 @@ describe('the record layout layer', () => {
   });
 
   it('names files stably from kind, local date and name', () => {
-    expect(recordFileName('run-log', '2026-08-14', 'August demonstration: day 1')).toBe('run-log-2026-08-14-august-demonstration-day-1.pdf');
+    expect(recordFileName('run-log', '2026-08-14', 'August demonstration: day 1')).toBe(
+      'run-log-2026-08-14-august-demonstration-day-1.pdf',
+    );
     expect(recordFileName('quote', null, '')).toBe('quote-record.pdf');
   });
 

@@ -24,6 +24,11 @@ export const PALETTE = {
   ok: '#2f6b5e',
 } as const;
 
+/** Printed at the end of every record that bears on the engine's safety. */
+export const RECORD_DISCLAIMER =
+  'Crankjournal aids a qualified crew. It never replaces local boiler and pressure-vessel law, ' +
+  'the insurer\u2019s inspections or licensed practice.';
+
 export type Tone = 'normal' | 'muted' | 'warning' | 'danger' | 'ok';
 
 /** A table cell: its text, and for an amended value the original (printed struck through under it). */
@@ -112,7 +117,8 @@ const SUBSTITUTES: Record<string, string> = {
   '\u2717': 'no',
   '\u00a0': ' ',
 };
-const IN_FONT = /[\u0020-\u007e\u00a1-\u00ff\u0131\u0152\u0153\u02bb\u02bc\u02c6\u02da\u02dc\u2010-\u2027\u2030-\u205e\u20ac\u2122\u2191\u2193\u2212\u2215\n]/u;
+const IN_FONT =
+  /[\u0020-\u007e\u00a1-\u00ff\u0131\u0152\u0153\u02bb\u02bc\u02c6\u02da\u02dc\u2010-\u2027\u2030-\u205e\u20ac\u2122\u2191\u2193\u2212\u2215\n]/u;
 export function printable(s: string): string {
   let out = '';
   for (const ch of s.normalize('NFC')) {
@@ -288,7 +294,10 @@ export function renderRecord(spec: RecordDocument): Promise<RenderedRecord> {
         const colour = TONE[b.tone ?? 'warning'];
         doc.save().rect(x, y, w, h).lineWidth(0.8).strokeColor(colour).stroke().restore();
         if (label) {
-          doc.font('bold').fillColor(colour).text(label, x + 5, y + 4, { width: w - 10 });
+          doc
+            .font('bold')
+            .fillColor(colour)
+            .text(label, x + 5, y + 4, { width: w - 10 });
         }
         doc
           .font('regular')
@@ -306,8 +315,8 @@ export function renderRecord(spec: RecordDocument): Promise<RenderedRecord> {
         for (const fld of b.fields) {
           const fw = w * fld.share;
           const label = printable(fld.label);
-          const lw = Math.min(doc.widthOfString(label) + 4, fw * 0.6);
-          doc.fillColor(PALETTE.muted).text(label, cx, y + 8, { width: lw, height: lineH, ellipsis: true, lineBreak: false });
+          const lw = Math.min(doc.widthOfString(label) + 4, fw - 40);
+          doc.fillColor(PALETTE.muted).text(label, cx, y + 8, { width: lw, height: doc.currentLineHeight(), ellipsis: true });
           rule(cx + lw + 2, y + 19, fw - lw - 12, PALETTE.text, 0.5);
           cx += fw;
         }
@@ -331,7 +340,13 @@ export function renderRecord(spec: RecordDocument): Promise<RenderedRecord> {
               y = doc.y;
             }
           }
-          doc.save().rect(cx, y + 1, boxS, boxS).lineWidth(0.8).strokeColor(PALETTE.text).stroke().restore();
+          doc
+            .save()
+            .rect(cx, y + 1, boxS, boxS)
+            .lineWidth(0.8)
+            .strokeColor(PALETTE.text)
+            .stroke()
+            .restore();
           doc.fillColor(PALETTE.text).text(o, cx + boxS + 4, y, { lineBreak: false });
           cx += ow;
         }
@@ -345,9 +360,24 @@ export function renderRecord(spec: RecordDocument): Promise<RenderedRecord> {
         const lh = doc.heightOfString(label, { width: w - indent });
         room(lh + 30);
         const y = doc.y;
-        doc.font('regular').fontSize(8).fillColor(PALETTE.muted).text(printable(b.marker), x, y + 1, { width: 14 });
-        if (b.tickBox) doc.save().rect(x + 17, y, 11, 11).lineWidth(0.8).strokeColor(PALETTE.text).stroke().restore();
-        doc.font('bold').fontSize(10).fillColor(PALETTE.text).text(label, x + indent, y, { width: w - indent });
+        doc
+          .font('regular')
+          .fontSize(8)
+          .fillColor(PALETTE.muted)
+          .text(printable(b.marker), x, y + 1, { width: 14 });
+        if (b.tickBox)
+          doc
+            .save()
+            .rect(x + 17, y, 11, 11)
+            .lineWidth(0.8)
+            .strokeColor(PALETTE.text)
+            .stroke()
+            .restore();
+        doc
+          .font('bold')
+          .fontSize(10)
+          .fillColor(PALETTE.text)
+          .text(label, x + indent, y, { width: w - indent });
         doc.y = Math.max(doc.y, y + 13) + 1;
         renderBlocks(b.blocks, x + indent, w - indent);
         doc.y += 5;
@@ -397,7 +427,10 @@ export function renderRecord(spec: RecordDocument): Promise<RenderedRecord> {
         doc.fillColor(head ? PALETTE.text : TONE[c.tone ?? 'normal']);
         doc.text(printable(c.text), cx + PAD, y + PAD, { width: cw - 2 * PAD, align, features: ['tnum'] });
         if (c.original !== undefined) {
-          doc.font('narrow').fontSize(TABLE_SIZE - 1).fillColor(PALETTE.muted);
+          doc
+            .font('narrow')
+            .fontSize(TABLE_SIZE - 1)
+            .fillColor(PALETTE.muted);
           doc.text(printable(c.original), cx + PAD, doc.y, { width: cw - 2 * PAD, align, strike: true, features: ['tnum'] });
         }
         cx += cw;
@@ -426,7 +459,6 @@ export function renderRecord(spec: RecordDocument): Promise<RenderedRecord> {
   // Header and footer on every page, now that the page count is known.
   const range = doc.bufferedPageRange();
   const total = range.count;
-  const zoneNow = clock.zoneName(spec.printedAt);
   for (let i = range.start; i < range.start + total; i++) {
     doc.switchToPage(i);
     const keep = doc.page.margins;
@@ -439,7 +471,7 @@ export function renderRecord(spec: RecordDocument): Promise<RenderedRecord> {
     doc.font('regular').fontSize(9).fillColor(PALETTE.muted);
     doc.text(printable(spec.engine ?? ''), SIDE, SIDE + 12, { width: half - 6, lineBreak: false, ellipsis: true });
     doc.text(printable(spec.title), SIDE + half + 6, SIDE, { width: half - 6, align: 'right', lineBreak: false, ellipsis: true });
-    doc.text(`Times: ${spec.timeZone} (${zoneNow})`, SIDE + half + 6, SIDE + 12, {
+    doc.text(`Times: ${spec.timeZone} local time`, SIDE + half + 6, SIDE + 12, {
       width: half - 6,
       align: 'right',
       lineBreak: false,
@@ -448,13 +480,14 @@ export function renderRecord(spec: RecordDocument): Promise<RenderedRecord> {
     const fy = ph - SIDE - FOOTER_H + 12;
     rule(SIDE, fy, pw - 2 * SIDE, PALETTE.rule, 0.5);
     doc.font('regular').fontSize(8).fillColor(PALETTE.muted);
-    doc.text(
-      printable(`Printed ${clock.dateTime(spec.printedAt)} by ${spec.printedBy} \u00b7 times in ${spec.timeZone}`),
-      SIDE,
-      fy + 5,
-      { width: pw - 2 * SIDE - 90, lineBreak: false, ellipsis: true },
-    );
-    doc.font('bold').text(`page ${i - range.start + 1} of ${total}`, pw - SIDE - 88, fy + 5, { width: 88, align: 'right', lineBreak: false });
+    doc.text(printable(`Printed ${clock.dateTime(spec.printedAt)} by ${spec.printedBy} \u00b7 times in ${spec.timeZone}`), SIDE, fy + 5, {
+      width: pw - 2 * SIDE - 90,
+      lineBreak: false,
+      ellipsis: true,
+    });
+    doc
+      .font('bold')
+      .text(`page ${i - range.start + 1} of ${total}`, pw - SIDE - 88, fy + 5, { width: 88, align: 'right', lineBreak: false });
     doc.page.margins = keep;
   }
   doc.flushPages();

@@ -40,12 +40,23 @@ export function zonedClock(zone: string): ZonedClock {
     hourCycle: 'h23',
     timeZoneName: 'short',
   });
+  // British English names European zones (BST, CET), American English the American ones (CDT, EST);
+  // where neither has a name the offset stays (GMT+10).
+  const usName = new Intl.DateTimeFormat('en-US', { timeZone: zone, timeZoneName: 'short' });
   const partsOf = (at: Date | string) => {
     const p: Record<string, string> = {};
     for (const x of fmt.formatToParts(new Date(at))) p[x.type] = x.value;
+    if (/^GMT[+-]/.test(p.timeZoneName ?? '')) {
+      const us = usName.formatToParts(new Date(at)).find((x) => x.type === 'timeZoneName')?.value ?? '';
+      if (us && !/^GMT[+-]/.test(us)) p.timeZoneName = us;
+    }
     return p;
   };
-  const monthNo = (m: string) => String(['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'].indexOf(m.slice(0, 3)) + 1).padStart(2, '0');
+  const monthNo = (m: string) =>
+    String(['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'].indexOf(m.slice(0, 3)) + 1).padStart(
+      2,
+      '0',
+    );
   return {
     zone,
     dateTime: (at) => {
