@@ -486,7 +486,7 @@ describe('the mill (API)', () => {
       const mail = await waitForMessage(body.customerEmail, { subject: lot.reference });
       expect(mail.text).toContain('Our price for the square bar.');
       expect(mail.attachments).toEqual([
-        expect.objectContaining({ contentType: 'application/pdf', filename: `quote-${lot.reference}-Q1.pdf` }),
+        expect.objectContaining({ contentType: 'application/pdf', filename: `quote-${lot.reference.toLowerCase()}-q1.pdf` }),
       ]);
       const after = (await signedIn(t, lead).get(`/api/mill/lots/${lot.id}`)).body as LotDetail;
       expect(after.status).toBe('quoted');

@@ -84,6 +84,9 @@ export const ROUTE_ACCESS: Record<string, RouteAccess> = {
   'POST /api/runs/:id/imports': ENGINE_CREW,
   'GET /api/runs/:id/readings.csv': ANY_ROLE,
   'GET /api/runs/:id/log-sheet.pdf': ANY_ROLE,
+  // The works' settings (name, time zone of printed records, wet-signature block)
+  'GET /api/site/settings': ANY_ROLE,
+  'PUT /api/site/settings': ADMIN,
   'POST /api/readings/:id/amendments': ENGINE_CREW,
 
   // data loggers

@@ -8,6 +8,7 @@ import { Maintenance1796166275712 } from './1796166275712-Maintenance.js';
 import { CardSetBarometer1796414559444 } from './1796414559444-CardSetBarometer.js';
 import { ReadingsPointRunIndex1796169344642 } from './1796169344642-ReadingsPointRunIndex.js';
 import { AlarmSuppression1796170500000 } from './1796170500000-AlarmSuppression.js';
+import { SiteSettings1796413937879 } from './1796413937879-SiteSettings.js';
 
 /** Every migration in order. Add new ones at the end; never edit one that has been committed. */
 export const MIGRATIONS: (new () => MigrationInterface)[] = [
@@ -19,5 +20,6 @@ export const MIGRATIONS: (new () => MigrationInterface)[] = [
   Maintenance1796166275712,
   ReadingsPointRunIndex1796169344642,
   AlarmSuppression1796170500000,
+  SiteSettings1796413937879,
   CardSetBarometer1796414559444,
 ];

@@ -91,18 +91,22 @@ export class ChecklistTemplatesController {
   /** The printable blank checklist of the current version (or the draft while nothing is published). */
   @Get(':id/blank.pdf')
   @AnyRole()
-  async blank(@Param() p: IdParamDto, @Res({ passthrough: true }) res: Response): Promise<StreamableFile> {
-    const { filename, stream } = await this.pdf.blank(p.id);
+  async blank(@Param() p: IdParamDto, @CurrentUser() user: AuthUser, @Res({ passthrough: true }) res: Response): Promise<StreamableFile> {
+    const { filename, buffer } = await this.pdf.blank(p.id, undefined, user.displayName);
     res.setHeader('content-disposition', `attachment; filename="${filename}"`);
-    return new StreamableFile(stream, { type: 'application/pdf' });
+    return new StreamableFile(buffer, { type: 'application/pdf' });
   }
 
   @Get(':id/versions/:version/blank.pdf')
   @AnyRole()
-  async blankVersion(@Param() p: TemplateVersionParamDto, @Res({ passthrough: true }) res: Response): Promise<StreamableFile> {
+  async blankVersion(
+    @Param() p: TemplateVersionParamDto,
+    @CurrentUser() user: AuthUser,
+    @Res({ passthrough: true }) res: Response,
+  ): Promise<StreamableFile> {
     await this.templates.versionRow(p.id, p.version);
-    const { filename, stream } = await this.pdf.blank(p.id, p.version);
+    const { filename, buffer } = await this.pdf.blank(p.id, p.version, user.displayName);
     res.setHeader('content-disposition', `attachment; filename="${filename}"`);
-    return new StreamableFile(stream, { type: 'application/pdf' });
+    return new StreamableFile(buffer, { type: 'application/pdf' });
   }
 }

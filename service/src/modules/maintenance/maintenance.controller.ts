@@ -82,10 +82,14 @@ export class MaintenanceController {
 
   @Get('bearings/:id/history.pdf')
   @AnyRole()
-  async bearingHistoryPdf(@Param() p: IdParamDto, @Res({ passthrough: true }) res: Response): Promise<StreamableFile> {
-    const { filename, stream } = await this.exports.pdf(p.id);
+  async bearingHistoryPdf(
+    @Param() p: IdParamDto,
+    @CurrentUser() me: AuthUser,
+    @Res({ passthrough: true }) res: Response,
+  ): Promise<StreamableFile> {
+    const { filename, buffer } = await this.exports.pdf(p.id, me.displayName);
     res.setHeader('content-disposition', `attachment; filename="${filename}"`);
-    return new StreamableFile(stream, { type: 'application/pdf' });
+    return new StreamableFile(buffer, { type: 'application/pdf' });
   }
 
   // --- Plans and the due list ---------------------------------------------------------------------

@@ -187,12 +187,4 @@ export class RunsController {
     res.setHeader('content-disposition', `attachment; filename="${filename}"`);
     return new StreamableFile(stream, { type: 'text/csv; charset=utf-8' });
   }
-
-  @Get(':id/log-sheet.pdf')
-  @AnyRole()
-  async pdf(@Param() p: IdParamDto, @Res({ passthrough: true }) res: Response): Promise<StreamableFile> {
-    const { filename, stream } = await this.exports.logSheetPdf(p.id);
-    res.setHeader('content-disposition', `attachment; filename="${filename}"`);
-    return new StreamableFile(stream, { type: 'application/pdf' });
-  }
 }
