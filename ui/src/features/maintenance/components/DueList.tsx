@@ -16,7 +16,7 @@ export function DueList({
 }) {
   return (
     <Table.ScrollContainer minWidth={compact ? 420 : 760}>
-      <Table verticalSpacing="sm" aria-label="Inspections due" data-testid="due-list">
+      <Table verticalSpacing="sm" aria-label="Due and plans" data-testid="due-list">
         <Table.Thead>
           <Table.Tr>
             <Table.Th>Status</Table.Th>
