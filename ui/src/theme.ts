@@ -125,6 +125,7 @@ export const cssVariablesResolver: CSSVariablesResolver = () => {
     '--mantine-color-body': s.surface,
     '--mantine-color-text': s.text,
     '--mantine-color-dimmed': s.quiet,
+    '--mantine-color-anchor': s.copper,
   });
   return { variables: {}, light: vars(SCHEME.light), dark: vars(SCHEME.dark) };
 };
@@ -180,6 +181,8 @@ export const theme = createTheme({
     Select: { defaultProps: { size: 'md' } },
     Textarea: { defaultProps: { size: 'md' } },
     ActionIcon: { defaultProps: { size: 'xl' } },
+    // Links are underlined, so they read without colour (WCAG 1.4.1).
+    Anchor: { defaultProps: { underline: 'always' } },
   },
   other: { touchTarget: 48 },
 });

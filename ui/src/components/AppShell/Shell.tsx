@@ -100,7 +100,7 @@ export function Shell() {
       </AppShell.Header>
       <AppShell.Navbar aria-label="Main navigation" className="cj-rail">
         <ScrollArea scrollbarSize={6}>
-          <nav>
+          <div>
             {groups.map((g) => (
               <div key={g.label} className="cj-rail-group" role="group" aria-label={g.label}>
                 {g.items.length > 1 && (
@@ -116,7 +116,7 @@ export function Shell() {
                 ))}
               </div>
             ))}
-          </nav>
+          </div>
         </ScrollArea>
       </AppShell.Navbar>
       <AppShell.Main>
