@@ -50,7 +50,12 @@ export function DueList({
                   <Group gap={4} wrap="nowrap">
                     <Text fz="sm">{DUE_CRITERION_LABELS[p.due.governing]}</Text>
                     {gov && (
-                      <Text fz="sm" c={gov.remaining <= 0 ? 'signal.7' : 'dimmed'} className="cj-num" style={{ whiteSpace: 'nowrap' }}>
+                      <Text
+                        fz="sm"
+                        c={gov.remaining <= 0 ? 'var(--cj-signal)' : 'dimmed'}
+                        className="cj-num"
+                        style={{ whiteSpace: 'nowrap' }}
+                      >
                         · {remainingText(gov)}
                       </Text>
                     )}
