@@ -27,6 +27,7 @@ describe('invitations, health and API documentation (API)', () => {
 
     const mail = await waitForMessage(email, { subject: 'invited' });
     expect(mail.to).toContain(email);
+    expect(mail.text).toContain('on the engine house crew list as engine operator');
     const publicUrl = process.env.PUBLIC_URL!.replace(/\/$/, '');
     const escaped = publicUrl.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
     const link = mail.text.match(new RegExp(`${escaped}/set-password\\?token=([^\\s]+)`));

@@ -3,7 +3,7 @@ import { RouterProvider } from 'react-router-dom';
 import { Center, Loader, MantineProvider } from '@mantine/core';
 import { Notifications } from '@mantine/notifications';
 import { QueryClientProvider } from '@tanstack/react-query';
-import { theme } from './theme';
+import { cssVariablesResolver, defaultColorScheme, theme } from './theme';
 import { createQueryClient } from './api/queryClient';
 import { setSignedOutHandler } from './api/http';
 import { createRouter } from './Router';
@@ -17,7 +17,7 @@ export function App() {
     void router.navigate('/sign-in', { replace: true, state: { from: window.location.pathname } });
   });
   return (
-    <MantineProvider theme={theme} defaultColorScheme="auto">
+    <MantineProvider theme={theme} defaultColorScheme={defaultColorScheme()} cssVariablesResolver={cssVariablesResolver}>
       <Notifications position="top-right" />
       <QueryClientProvider client={queryClient}>
         <Suspense

@@ -1,7 +1,7 @@
 import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
 import { In, IsNull, Repository } from 'typeorm';
-import type { CrewMemberSummary, Role, UnitSystem, UserSummary } from '@crankjournal/shared-types';
+import { ROLE_LABELS, type CrewMemberSummary, type Role, type UnitSystem, type UserSummary } from '@crankjournal/shared-types';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { newSecret, sha256 } from '../../common/util/password.util.js';
 import { UserEvents } from '../../common/events/user-events.js';
@@ -147,16 +147,18 @@ export class UsersService {
     const link = `${this.config.get('PUBLIC_URL')}/set-password?token=${encodeURIComponent(secret)}`;
     await this.mail.send({
       to: email,
-      subject: 'You have been invited to Crankjournal',
+      subject: 'Crankjournal: you are invited onto the engine house crew list',
       text: [
         `Hello ${user.displayName},`,
         '',
-        'You have been given a Crankjournal account at the engine house. ' +
-          `Set your password here (the link works once, for ${INVITATION_TTL_HOURS} hours):`,
+        `You have been put on the engine house crew list as ${ROLE_LABELS[user.role].toLowerCase()}. ` +
+          'Before your first watch, choose a password for the engine log:',
         '',
         link,
         '',
-        'If you did not expect this, ignore this message.',
+        `The link opens once and lapses after ${INVITATION_TTL_HOURS} hours; if it has lapsed, ask the administrator for a new one.`,
+        'Crankjournal keeps the run log, the pre-start checklists and the alarms of the engine.',
+        'If nobody told you to expect this, leave it: nothing is set up until a password is chosen.',
       ].join('\n'),
     });
     return this.toSummary(user);

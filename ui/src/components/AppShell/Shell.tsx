@@ -8,7 +8,6 @@ import {
   Center,
   Group,
   Loader,
-  NavLink,
   ScrollArea,
   Stack,
   Text,
@@ -24,7 +23,7 @@ import { Brand } from '../Brand';
 import { useSession } from '../../features/auth/useSession';
 import { signOut } from '../../features/auth/api/auth.api';
 import { getSocket } from '../../api/socket';
-import { navigationFor } from './navigation';
+import { navigationFor, shortLabel } from './navigation';
 
 export function Shell() {
   const session = useSession()!;
@@ -56,17 +55,17 @@ export function Shell() {
 
   const groups = navigationFor(session.user.role);
   return (
-    <AppShell header={{ height: 60 }} navbar={{ width: 240, breakpoint: 'md', collapsed: { mobile: !opened } }} padding="md">
+    <AppShell header={{ height: 48 }} navbar={{ width: 92, breakpoint: 'md', collapsed: { mobile: !opened } }} padding="md">
       <AppShell.Header>
         <Group h="100%" px="md" justify="space-between" wrap="nowrap">
           <Group wrap="nowrap">
             <Burger opened={opened} onClick={toggle} hiddenFrom="md" size="md" aria-label="Open navigation" />
-            <Brand />
+            <Brand size={24} />
           </Group>
           <Group gap="xs" wrap="nowrap">
-            <Tooltip label={live ? 'Live updates connected' : 'Live updates not connected'}>
-              <Badge variant="dot" color={live ? 'copper' : 'amber'} size="lg" visibleFrom="sm">
-                {live ? 'Live' : 'Offline'}
+            <Tooltip label={live ? 'Readings and alarms arrive as they happen' : 'Reload a page to see new readings and alarms'}>
+              <Badge variant="outline" color={live ? 'gray' : 'amber'} size="lg" visibleFrom="sm" data-testid="live-state">
+                {live ? 'Live updates on' : 'Live updates off'}
               </Badge>
             </Tooltip>
             <Stack gap={0} visibleFrom="sm" align="flex-end">
@@ -99,26 +98,25 @@ export function Shell() {
           </Group>
         </Group>
       </AppShell.Header>
-      <AppShell.Navbar p="xs" aria-label="Main navigation">
-        <ScrollArea>
-          {groups.map((g) => (
-            <Stack key={g.label} gap={2} mb="sm">
-              <Text fz="xs" tt="uppercase" c="dimmed" fw={700} px="sm" pt="xs">
-                {g.label}
-              </Text>
-              {g.items.map((i) => (
-                <NavLink
-                  key={i.path}
-                  component={RouterLink}
-                  to={i.path}
-                  end={i.path === '/'}
-                  label={i.label}
-                  leftSection={<i.icon size={22} stroke={1.6} />}
-                  styles={{ root: { minHeight: 48, borderRadius: 6 }, label: { fontSize: 16 } }}
-                />
-              ))}
-            </Stack>
-          ))}
+      <AppShell.Navbar aria-label="Main navigation" className="cj-rail">
+        <ScrollArea scrollbarSize={6}>
+          <div>
+            {groups.map((g) => (
+              <div key={g.label} className="cj-rail-group" role="group" aria-label={g.label}>
+                {g.items.length > 1 && (
+                  <Text className="cj-rail-heading" aria-hidden>
+                    {g.label}
+                  </Text>
+                )}
+                {g.items.map((i) => (
+                  <RouterLink key={i.path} to={i.path} end={i.path === '/'} className="cj-rail-item" aria-label={i.label} title={i.label}>
+                    <i.icon size={24} stroke={1.6} />
+                    <span className="cj-rail-label">{shortLabel(i)}</span>
+                  </RouterLink>
+                ))}
+              </div>
+            ))}
+          </div>
         </ScrollArea>
       </AppShell.Navbar>
       <AppShell.Main>

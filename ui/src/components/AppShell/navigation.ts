@@ -26,6 +26,8 @@ export interface NavItem {
   path: string;
   icon: ComponentType<{ size?: number | string; stroke?: number }>;
   roles: readonly Role[];
+  /** The rail's label under the icon (a word or two); the full label is the link's accessible name. */
+  short?: string;
 }
 export interface NavGroup {
   label: string;
@@ -104,6 +106,30 @@ NAVIGATION.splice(
     ],
   },
 );
+
+/** Short rail labels by path; items not listed show their own label. */
+const SHORT: Record<string, string> = {
+  '/maintenance/due': 'Due',
+  '/maintenance/inspections': 'Inspect',
+  '/maintenance/work': 'Work',
+  '/lubrication': 'Lube',
+  '/qualifications': 'Quals',
+  '/mill/schedules': 'Passes',
+  '/mill/rolling': 'Rolling',
+  '/mill/lots': 'Lots',
+  '/admin/users': 'People',
+  '/admin/loggers': 'Loggers',
+  '/account': 'You',
+  '/calculators/indicated-power': 'Power',
+  '/calculators/rolling-pass': 'Pass',
+  '/calculators/oil-viscosity': 'Oil',
+  '/calculators/journal-friction': 'Friction',
+  '/calculators/lift-and-jacks': 'Pre-lube',
+};
+
+export function shortLabel(item: NavItem): string {
+  return item.short ?? SHORT[item.path] ?? item.label;
+}
 
 export function navigationFor(role: Role): NavGroup[] {
   return NAVIGATION.map((g) => ({ ...g, items: g.items.filter((i) => i.roles.includes(role)) })).filter((g) => g.items.length > 0);

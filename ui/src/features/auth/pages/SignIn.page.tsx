@@ -1,6 +1,6 @@
 import { useState } from 'react';
 import { useLocation, useNavigate } from 'react-router-dom';
-import { Alert, Anchor, Button, Center, Paper, PasswordInput, Stack, Text, TextInput, Title } from '@mantine/core';
+import { Alert, Button, Center, Paper, PasswordInput, Stack, Text, TextInput, Title } from '@mantine/core';
 import { useForm } from '@mantine/form';
 import { Brand } from '../../../components/Brand';
 import { errorText } from '../../../api/http';
@@ -59,10 +59,7 @@ export default function SignInPage() {
             </Stack>
           </form>
           <Text fz="xs" c="dimmed">
-            Forgotten your password? Ask an administrator to send you a new invitation.{' '}
-            <Anchor href="/api/docs" fz="xs">
-              API documentation
-            </Anchor>
+            Forgotten your password? Ask an administrator to send you a new invitation.
           </Text>
         </Stack>
       </Paper>

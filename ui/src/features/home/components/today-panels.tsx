@@ -1,6 +1,6 @@
 import type { ComponentType } from 'react';
 import { type Role, ROLES } from '@crankjournal/shared-types';
-import { TodayRuns } from '../../runs/components/TodayRuns';
+import { ShiftNow } from '../../runs/components/ShiftNow';
 import { TodayQualifications } from '../../qualifications/components/TodayQualifications';
 import { MillToday } from '../../mill/components/MillToday';
 import { TodayMaintenance } from '../../maintenance/components/TodayMaintenance';
@@ -13,14 +13,14 @@ export interface TodayPanel {
 }
 export const todayPanels: TodayPanel[] = [];
 
-// Runs now and next: everyone sees what the engine is doing today.
-todayPanels.push({ key: 'runs', roles: ROLES, Component: TodayRuns });
+// The engine now, open alarms and what the next run needs before it may start: first, as the crew acts in that order.
+todayPanels.push({ key: 'runs', roles: ROLES, Component: ShiftNow });
 
 // The mill lead's day: runs to log passes on and the open customer lots.
 todayPanels.push({ key: 'mill', roles: ['mill_lead', 'chief_engineer'], Component: MillToday });
 
-// Qualifications that have ended or end soon: everyone's own; the crew's for the chief engineer.
-todayPanels.push({ key: 'qualifications', roles: ROLES, Component: TodayQualifications });
-
 // What is due or overdue, and bearings that drifted: the maintenance lead's and the chief engineer's start screen.
 todayPanels.push({ key: 'maintenance', roles: ['maintenance_lead', 'chief_engineer'], Component: TodayMaintenance });
+
+// Qualifications that have ended or end soon: everyone's own; the crew's for the chief engineer.
+todayPanels.push({ key: 'qualifications', roles: ROLES, Component: TodayQualifications });

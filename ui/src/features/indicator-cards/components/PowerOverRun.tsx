@@ -1,8 +1,8 @@
 import { Paper, Text, Title } from '@mantine/core';
 import { LineChart } from '@mantine/charts';
 import type { CardSetDto } from '@crankjournal/shared-types';
+import { endLabel, lastIndexOf, pen } from '../../../components/charts/pens';
 
-const COLORS = ['copper.5', 'brass.5', 'blue.4', 'grape.4'];
 const localTime = (ms: number) => new Date(ms).toLocaleTimeString(undefined, { hour: '2-digit', minute: '2-digit' });
 
 /** Rows for the chart: one per set, in time order, with the engine's and each cylinder's indicated power. */
@@ -26,6 +26,14 @@ export function PowerOverRun({ sets }: { sets: CardSetDto[] }) {
   const labels = [...new Set(sets.flatMap((s) => s.results.cylinders.map((c) => c.label)))];
   const withBrake = data.some((d) => d.Brake !== null);
   const times = data.map((d) => d.t as number);
+  // Pens from our palette with dash patterns; each line named at its end, so no legend is needed.
+  const series = [
+    { name: 'Engine', color: pen(0).color },
+    ...labels.map((l, i) => ({ name: l, color: pen(i + 1).color, strokeDasharray: pen(i + 1).dash })),
+    ...(withBrake
+      ? [{ name: 'Brake', label: 'Brake hp', color: pen(labels.length + 1).color, strokeDasharray: pen(labels.length + 1).dash }]
+      : []),
+  ];
   return (
     <Paper withBorder p="md" radius="md" data-testid="power-over-run">
       <Title order={3} fz="md" mb="xs">
@@ -43,13 +51,11 @@ export function PowerOverRun({ sets }: { sets: CardSetDto[] }) {
           h={240}
           data={data}
           dataKey="t"
-          series={[
-            { name: 'Engine', color: COLORS[0] },
-            ...labels.map((l, i) => ({ name: l, color: COLORS[(i + 1) % COLORS.length], strokeDasharray: '4 3' })),
-            ...(withBrake ? [{ name: 'Brake', label: 'Brake hp', color: 'gray.5' }] : []),
-          ]}
-          withLegend
-          legendProps={{ verticalAlign: 'bottom', height: 40 }}
+          series={series}
+          lineProps={(sr) => ({
+            label: endLabel(sr.label ?? sr.name, lastIndexOf(data, sr.name), series.find((x) => x.name === sr.name)?.color ?? 'gray.6'),
+          })}
+          lineChartProps={{ margin: { right: 72 } }}
           withDots
           connectNulls
           curveType="linear"

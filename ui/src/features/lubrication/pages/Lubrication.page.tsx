@@ -21,6 +21,7 @@ import {
 import { LineChart } from '@mantine/charts';
 import { IconMinus, IconPlus, IconTrendingDown, IconTrendingUp } from '@tabler/icons-react';
 import type { ConsumptionMethod, ConsumptionTrend, EngineDetail, EngineLubrication, OilWriteRequest } from '@crankjournal/shared-types';
+import { endLabel, lastIndexOf, pen } from '../../../components/charts/pens';
 import { errorText } from '../../../api/http';
 import { PageHeader } from '../../../components/PageHeader';
 import { UnitValue } from '../../../components/UnitValue/UnitValue';
@@ -240,7 +241,6 @@ function ConsumptionCard({ data, engineId, canLog }: { data: EngineLubrication; 
       }
     return [...rows.values()].sort((a, b) => String(a.t).localeCompare(String(b.t)));
   }, [data]);
-  const colors = ['copper.5', 'brass.5', 'blue.4', 'grape.4', 'teal.4', 'orange.4', 'gray.5'];
   const withRuns = data.consumption.filter((p) => p.runs.length);
   return (
     <Card withBorder padding="lg" radius="md">
@@ -300,9 +300,11 @@ function ConsumptionCard({ data, engineId, canLog }: { data: EngineLubrication; 
             mb="md"
             data={chart}
             dataKey="run"
-            series={withRuns.map((p, i) => ({ name: p.label, color: colors[i % colors.length] }))}
-            withLegend
-            legendProps={{ verticalAlign: 'bottom', height: 96 }}
+            series={withRuns.map((p, i) => ({ name: p.label, color: pen(i).color, strokeDasharray: pen(i).dash }))}
+            lineProps={(sr) => ({
+              label: endLabel(sr.name, lastIndexOf(chart, sr.name), pen(withRuns.findIndex((p) => p.label === sr.name)).color),
+            })}
+            lineChartProps={{ margin: { right: 96 } }}
             curveType="linear"
             connectNulls
             valueFormatter={(v) => fmtN(v, 3)}

@@ -21,7 +21,14 @@ export function DueBadge({ status, size = 'md' }: { status: DueStatus; size?: 's
     );
   if (status === 'due_soon')
     return (
-      <Badge color="amber" variant="light" size={size} styles={noCut} leftSection={<IconAlertTriangle size={14} />} data-testid="due-soon">
+      <Badge
+        color="amber"
+        variant="outline"
+        size={size}
+        styles={noCut}
+        leftSection={<IconAlertTriangle size={14} />}
+        data-testid="due-soon"
+      >
         {DUE_STATUS_LABELS.due_soon}
       </Badge>
     );

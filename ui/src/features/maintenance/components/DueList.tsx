@@ -16,7 +16,7 @@ export function DueList({
 }) {
   return (
     <Table.ScrollContainer minWidth={compact ? 420 : 760}>
-      <Table verticalSpacing="sm" aria-label="Inspections due" data-testid="due-list">
+      <Table verticalSpacing="sm" aria-label="Due and plans" data-testid="due-list">
         <Table.Thead>
           <Table.Tr>
             <Table.Th>Status</Table.Th>
@@ -50,7 +50,12 @@ export function DueList({
                   <Group gap={4} wrap="nowrap">
                     <Text fz="sm">{DUE_CRITERION_LABELS[p.due.governing]}</Text>
                     {gov && (
-                      <Text fz="sm" c={gov.remaining <= 0 ? 'signal.7' : 'dimmed'} className="cj-num" style={{ whiteSpace: 'nowrap' }}>
+                      <Text
+                        fz="sm"
+                        c={gov.remaining <= 0 ? 'var(--cj-signal)' : 'dimmed'}
+                        className="cj-num"
+                        style={{ whiteSpace: 'nowrap' }}
+                      >
                         · {remainingText(gov)}
                       </Text>
                     )}

@@ -6,14 +6,14 @@ import { useUnits } from '../../units/useUnits';
 import { fmt } from '../model/format';
 
 const C = {
-  peak: 'var(--mantine-color-copper-5)',
-  mean: 'var(--mantine-color-gray-5)',
-  rise: 'var(--mantine-color-brass-5)',
+  peak: 'var(--mantine-color-copper-6)',
+  mean: 'var(--mantine-color-gray-6)',
+  rise: 'var(--mantine-color-brass-6)',
   flag: 'var(--mantine-color-amber-6)',
   limit: 'var(--mantine-color-amber-6)',
   band: 'var(--mantine-color-gray-5)',
-  inspection: 'var(--mantine-color-blue-5)',
-  work: 'var(--mantine-color-teal-5)',
+  inspection: 'var(--mantine-color-copper-3)',
+  work: 'var(--mantine-color-brass-4)',
   grid: 'var(--mantine-color-default-border)',
   text: 'var(--mantine-color-dimmed)',
 };

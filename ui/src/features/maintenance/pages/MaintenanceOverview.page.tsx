@@ -17,7 +17,7 @@ export default function MaintenanceOverviewPage() {
   return (
     <Stack gap="lg">
       <PageHeader
-        title="Inspections due"
+        title="Due and plans"
         subtitle={data ? `${overdue} overdue · ${soon} due soon · ${data.items.length} plans` : undefined}
         action={
           canWrite && (

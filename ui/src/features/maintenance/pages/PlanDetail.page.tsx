@@ -130,7 +130,7 @@ export default function PlanDetailPage() {
                 <Anchor component={Link} to={`/maintenance/inspections/${i.id}`}>
                   {i.title}
                 </Anchor>
-                <Text fz="sm" c={i.outOfToleranceCount ? 'signal.7' : 'dimmed'}>
+                <Text fz="sm" c={i.outOfToleranceCount ? 'var(--cj-signal)' : 'dimmed'}>
                   {INSPECTION_KIND_LABELS[i.kind]} · {i.outOfToleranceCount} of {i.measurementCount} out of tolerance
                 </Text>
               </Group>

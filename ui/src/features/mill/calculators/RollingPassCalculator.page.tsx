@@ -103,7 +103,7 @@ function Tile({ label, children, danger }: { label: string; children: ReactNode;
       <Text fz="xs" tt="uppercase" fw={700} c="dimmed">
         {label}
       </Text>
-      <Text className="cj-num" fz={26} fw={600} c={danger ? 'signal.7' : undefined}>
+      <Text className="cj-num" fz={26} fw={600} c={danger ? 'var(--cj-signal)' : undefined}>
         {children}
       </Text>
     </Paper>

@@ -168,7 +168,7 @@ export function PassCalcTable({ rows, leadHeader, caption }: { rows: PassRow[]; 
                   </Table.Td>
                   {r.calcError || !c ? (
                     <Table.Td colSpan={6}>
-                      <Text c="signal.7">{r.calcError ?? 'Not calculated.'}</Text>
+                      <Text c="var(--cj-signal)">{r.calcError ?? 'Not calculated.'}</Text>
                     </Table.Td>
                   ) : (
                     <>
@@ -188,7 +188,7 @@ export function PassCalcTable({ rows, leadHeader, caption }: { rows: PassRow[]; 
                         className="cj-num"
                         style={{ whiteSpace: 'nowrap' }}
                         fw={c.exceedsStandForce ? 700 : undefined}
-                        c={c.exceedsStandForce ? 'signal.7' : undefined}
+                        c={c.exceedsStandForce ? 'var(--cj-signal)' : undefined}
                       >
                         {fmt(c.forceKn, 0)} kN
                         <Text fz="xs" c="dimmed">
@@ -203,7 +203,7 @@ export function PassCalcTable({ rows, leadHeader, caption }: { rows: PassRow[]; 
                       </Table.Td>
                       <Table.Td
                         className="cj-num"
-                        c={c.flywheel?.belowMinSpeed ? 'signal.7' : undefined}
+                        c={c.flywheel?.belowMinSpeed ? 'var(--cj-signal)' : undefined}
                         fw={c.flywheel?.belowMinSpeed ? 700 : undefined}
                       >
                         {c.flywheel ? (

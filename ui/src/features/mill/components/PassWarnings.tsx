@@ -22,7 +22,7 @@ export function PassWarnings({ warnings, compact = false }: { warnings: PassWarn
           <Badge
             key={w.code}
             color={DANGER.includes(w.code) ? 'signal' : 'amber'}
-            variant="filled"
+            variant="outline"
             size="md"
             leftSection={DANGER.includes(w.code) ? <IconAlertOctagon size={14} /> : <IconAlertTriangle size={14} />}
             title={w.message}

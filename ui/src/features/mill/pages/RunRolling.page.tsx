@@ -43,7 +43,7 @@ function BarCard({ bar, defaultOpen, editable }: { bar: BarDto; defaultOpen: boo
             {speeds.length ? ` · lowest speed ${fmt(Math.min(...speeds), 1)} rpm` : ''}
           </Text>
           {flagged > 0 && (
-            <Badge color="signal" variant="filled">
+            <Badge color="amber" variant="outline">
               {flagged} flagged
             </Badge>
           )}

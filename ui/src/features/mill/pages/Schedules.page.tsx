@@ -46,7 +46,7 @@ export default function SchedulesPage() {
         header: 'Flagged',
         cell: (c) =>
           c.getValue() > 0 ? (
-            <Badge color="signal" variant="filled">
+            <Badge color="amber" variant="outline">
               {c.getValue()} flagged
             </Badge>
           ) : (

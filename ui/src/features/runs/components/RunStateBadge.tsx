@@ -1,15 +1,34 @@
 import { Badge } from '@mantine/core';
-import { IconCalendar, IconCheck, IconChecklist, IconLock, IconPlayerPlayFilled, IconPlayerStop, IconX } from '@tabler/icons-react';
+import {
+  IconBan,
+  IconBell,
+  IconCalendar,
+  IconCheck,
+  IconChecklist,
+  IconLock,
+  IconPlayerPlayFilled,
+  IconPlayerStop,
+} from '@tabler/icons-react';
 import { RUN_STATE_LABELS, type RunState } from '@crankjournal/shared-types';
 
-/** A run's state as a word with an icon. Colour only while the engine is running; a closed run looks closed. */
+/**
+ * A run's state as a word with an icon. Normal states are neutral outlines (running included: the running time is
+ * what shows it); a closed run carries a lock; an abandoned run has its own dashed mark, not the struck-through
+ * mark of an amended value.
+ */
 export function RunStateBadge({ state, size = 'lg' }: { state: RunState; size?: 'md' | 'lg' | 'xl' }) {
   const label = RUN_STATE_LABELS[state];
   const icon = 14;
   switch (state) {
     case 'running':
       return (
-        <Badge size={size} color="copper" variant="filled" leftSection={<IconPlayerPlayFilled size={icon} />}>
+        <Badge
+          size={size}
+          color="gray"
+          variant="outline"
+          leftSection={<IconPlayerPlayFilled size={icon} color="var(--cj-copper)" />}
+          data-state="running"
+        >
           {label}
         </Badge>
       );
@@ -39,30 +58,35 @@ export function RunStateBadge({ state, size = 'lg' }: { state: RunState; size?: 
       );
     case 'closed':
       return (
-        <Badge size={size} color="iron" variant="filled" leftSection={<IconLock size={icon} />}>
+        <Badge size={size} color="gray" variant="light" leftSection={<IconLock size={icon} />}>
           {label}
         </Badge>
       );
     case 'abandoned':
       return (
-        <Badge
-          size={size}
-          color="gray"
-          variant="light"
-          leftSection={<IconX size={icon} />}
-          styles={{ label: { textDecoration: 'line-through' } }}
-        >
+        <Badge size={size} color="gray" variant="outline" className="cj-abandoned" leftSection={<IconBan size={icon} />}>
           {label}
         </Badge>
       );
   }
 }
 
-/** Open alarms on a run: red with a word, shown only when there are any. */
-export function OpenAlarmsBadge({ count, size = 'lg' }: { count: number; size?: 'md' | 'lg' | 'xl' }) {
+/**
+ * Open alarms on a run, shown only when there are any: filled red on the run itself (a live abnormal state), an
+ * amber outline in planning lists (`planning`), where it is a warning to look, not the alarm.
+ */
+export function OpenAlarmsBadge({
+  count,
+  size = 'lg',
+  planning = false,
+}: {
+  count: number;
+  size?: 'md' | 'lg' | 'xl';
+  planning?: boolean;
+}) {
   if (count <= 0) return null;
   return (
-    <Badge size={size} color="signal" variant="filled">
+    <Badge size={size} color={planning ? 'amber' : 'signal'} variant={planning ? 'outline' : 'filled'} leftSection={<IconBell size={14} />}>
       {count === 1 ? '1 open alarm' : `${count} open alarms`}
     </Badge>
   );

@@ -60,7 +60,7 @@ export function TodayRuns() {
                     {r.title}
                   </Text>
                   <RunStateBadge state={r.state} size="md" />
-                  <OpenAlarmsBadge count={r.openAlarms} size="md" />
+                  <OpenAlarmsBadge count={r.openAlarms} size="md" planning />
                 </Group>
                 <Text fz="sm" c="dimmed" className="cj-num">
                   {r.engineName} · {when(r)}

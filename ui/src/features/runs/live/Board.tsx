@@ -1,6 +1,7 @@
 import { Box, Group, Paper, SimpleGrid, Stack, Text, Title } from '@mantine/core';
 import { Sparkline } from '@mantine/charts';
 import dayjs from 'dayjs';
+import { IconAlertOctagon, IconAlertTriangle } from '@tabler/icons-react';
 import {
   ALARM_KIND_WORDS,
   type BoardPoint,
@@ -10,6 +11,7 @@ import {
 } from '@crankjournal/shared-types';
 import { useUnits } from '../../units/useUnits';
 import { AlarmStateBadge, alarmLook } from '../../alarms/components/alarm-look';
+import { GaugeGlass, LIMIT_MARK_WORDS, limitMark } from './GaugeGlass';
 
 export type EnginePoint = MeasurementPointDto & { id: string };
 
@@ -46,6 +48,8 @@ function BoardTile({ point, board }: { point: EnginePoint; board: BoardPoint | n
         : lo !== null
           ? `≥ ${display(lo, point.unit).label}`
           : null;
+  // Marked on every board (closed runs too), whether or not an alarm is open: the value against its limits.
+  const mark = limitMark(board?.value ?? null, point);
   const border = look && !look.shelved ? `var(--mantine-color-${look.color}-${look.variant === 'outline' ? 5 : 6})` : undefined;
   const trend = board?.trend ?? [];
   return (
@@ -56,7 +60,14 @@ function BoardTile({ point, board }: { point: EnginePoint; board: BoardPoint | n
       className={look?.shelved ? 'cj-shelved' : undefined}
       data-testid={`board-${point.code}`}
       data-alarm={board?.alarmState ?? 'none'}
-      style={border ? { borderColor: border, borderWidth: look?.variant === 'filled' ? 3 : 2 } : undefined}
+      data-limit={mark ?? 'within'}
+      style={
+        border
+          ? { borderColor: border, borderWidth: look?.variant === 'filled' ? 3 : 2 }
+          : mark
+            ? { borderColor: mark === 'high_high' ? 'var(--cj-signal)' : 'var(--cj-amber)', borderWidth: 2 }
+            : undefined
+      }
     >
       <Stack gap={4}>
         <Group justify="space-between" wrap="nowrap" gap="xs" align="flex-start">
@@ -69,7 +80,13 @@ function BoardTile({ point, board }: { point: EnginePoint; board: BoardPoint | n
         </Group>
         <Group justify="space-between" wrap="nowrap" align="flex-end" gap="xs">
           <Group gap={6} align="baseline" wrap="nowrap">
-            <Text className="cj-num" fz={40} fw={600} lh={1}>
+            <Text
+              className="cj-num"
+              fz={40}
+              fw={600}
+              lh={1}
+              c={mark ? (mark === 'high_high' ? 'var(--cj-signal)' : 'var(--cj-amber)') : undefined}
+            >
               {value.text}
             </Text>
             <Text fz="md" c="dimmed">
@@ -81,7 +98,7 @@ function BoardTile({ point, board }: { point: EnginePoint; board: BoardPoint | n
               <Sparkline
                 h={40}
                 data={trend.map((v) => display(v, point.unit).value)}
-                color={look && !look.shelved ? `${look.color}.6` : 'gray.5'}
+                color={look && !look.shelved ? `${look.color}.6` : 'gray.6'}
                 withGradient={false}
                 fillOpacity={0.15}
                 strokeWidth={2}
@@ -90,6 +107,24 @@ function BoardTile({ point, board }: { point: EnginePoint; board: BoardPoint | n
             </Box>
           )}
         </Group>
+        <GaugeGlass value={board?.value ?? null} point={point} mark={mark} />
+        {mark && (
+          <Group gap={4} wrap="nowrap" data-testid={`limit-mark-${point.code}`}>
+            {mark === 'high_high' ? (
+              <IconAlertOctagon size={16} color="var(--cj-signal)" aria-hidden />
+            ) : (
+              <IconAlertTriangle size={16} color="var(--cj-amber)" aria-hidden />
+            )}
+            <Text fz="sm" fw={700} c={mark === 'high_high' ? 'var(--cj-signal)' : 'var(--cj-amber)'}>
+              {LIMIT_MARK_WORDS[mark]}
+              {mark !== 'low' && point.highLimit != null
+                ? ` (${display(mark === 'high_high' ? (point.highHighLimit ?? point.highLimit) : point.highLimit, point.unit).label})`
+                : mark === 'low' && point.lowLimit != null
+                  ? ` (${display(point.lowLimit, point.unit).label})`
+                  : ''}
+            </Text>
+          </Group>
+        )}
         <Text fz="xs" c="dimmed">
           {range ? `Normal ${range}` : 'No normal range set'}
           {board?.takenAt ? ` · at ${dayjs(board.takenAt).format('HH:mm')}` : ' · no reading yet'}

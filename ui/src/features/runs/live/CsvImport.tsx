@@ -222,12 +222,12 @@ export function CsvImport({ runId, onImported }: { runId: string; onImported?: (
             </Alert>
           )}
           {preview.unknown.length > 0 && (
-            <Text fz="sm" c="amber.7">
+            <Text fz="sm" c="var(--cj-amber)">
               Columns the import does not use: {preview.unknown.join(', ')}.
             </Text>
           )}
           {preview.parseErrors.length > 0 && (
-            <Text fz="sm" c="amber.7">
+            <Text fz="sm" c="var(--cj-amber)">
               {preview.parseErrors.slice(0, 3).join(' · ')}
             </Text>
           )}

@@ -24,7 +24,7 @@ import {
 import { RunHeader } from '../components/RunHeader';
 import { AlarmBanner } from '../../alarms/components/AlarmBanner';
 import { AlarmList, ShelveModal } from '../../alarms/components/AlarmList';
-import { isUnacknowledged } from '../../alarms/components/alarm-look';
+import { isUnacknowledged, priorityColor } from '../../alarms/components/alarm-look';
 import { mergeAlarms, openEngineAlarmsQuery, useAlarmAction } from '../../alarms/api/alarms.api';
 import { Board } from './Board';
 import { BottomBar } from './BottomBar';
@@ -95,7 +95,10 @@ export default function LiveRunPage() {
           ),
     [finishedRun, alarms.data, engineAlarms.data, id],
   );
-  const waiting = alarmList.filter((a) => isUnacknowledged(a.state)).length;
+  const waitingAlarms = alarmList.filter((a) => isUnacknowledged(a.state));
+  const waiting = waitingAlarms.length;
+  // The counter takes the colour of the highest priority waiting: red only when a high-high waits.
+  const waitingColor = priorityColor(waitingAlarms.some((a) => a.priority === 'high_high') ? 'high_high' : 'high');
   const open = alarmList.filter((a) => a.state !== 'normal').length;
 
   if (run.isLoading)
@@ -166,7 +169,7 @@ export default function LiveRunPage() {
             h={52}
             rightSection={
               waiting > 0 ? (
-                <Badge color="signal" size="md" circle>
+                <Badge color={waitingColor} size="md" circle data-testid="alarm-tab-count">
                   {waiting}
                 </Badge>
               ) : open > 0 ? (

@@ -266,12 +266,12 @@ export function RoundEntry({ runId, points, previous = {}, engine, secondaryActi
               {filled.length} of {ordered.length} entered
             </Text>
             {alarming.length > 0 && (
-              <Text fz="sm" c="signal.6" fw={700}>
+              <Text fz="sm" c="var(--cj-signal)" fw={700}>
                 {alarming.length === 1 ? '1 value beyond a limit' : `${alarming.length} values beyond a limit`}
               </Text>
             )}
             {invalidCount > 0 && (
-              <Text fz="sm" c="signal.6" fw={700}>
+              <Text fz="sm" c="var(--cj-signal)" fw={700}>
                 Correct {invalidCount === 1 ? 'the value' : `${invalidCount} values`} that {invalidCount === 1 ? 'is' : 'are'} not a number
               </Text>
             )}

@@ -3,9 +3,8 @@ import { Group, Paper, Select, SimpleGrid, Text, Title } from '@mantine/core';
 import { LineChart, type ChartReferenceLineProps } from '@mantine/charts';
 import type { AlarmDto, EngineDetail, MeasurementKind, ReadingDto } from '@crankjournal/shared-types';
 import { useUnits } from '../../units/useUnits';
+import { endLabel, lastIndexOf, pen } from '../../../components/charts/pens';
 import type { EnginePoint } from './Board';
-
-const SERIES_COLORS = ['copper.4', 'brass.5', 'blue.4', 'grape.4', 'teal.3', 'orange.3', 'gray.4', 'lime.4'];
 
 const localTime = (ms: number) => new Date(ms).toLocaleTimeString(undefined, { hour: '2-digit', minute: '2-digit' });
 const localTimeSeconds = (ms: number) =>
@@ -167,9 +166,12 @@ function TrendChart({
           h={240}
           data={data}
           dataKey="t"
-          series={mine.map((p, i) => ({ name: p.code, label: p.label, color: SERIES_COLORS[i % SERIES_COLORS.length] }))}
-          withLegend={mine.length > 1}
-          legendProps={{ verticalAlign: 'bottom', height: 40 }}
+          series={mine.map((p, i) => ({ name: p.code, label: p.label, color: pen(i).color, strokeDasharray: pen(i).dash }))}
+          lineProps={(sr) => {
+            const i = mine.findIndex((p) => p.code === sr.name);
+            return { label: endLabel(sr.name, lastIndexOf(data, sr.name), pen(i).color) };
+          }}
+          lineChartProps={{ margin: { right: 64 } }}
           withDots={data.length < 40}
           curveType="linear"
           connectNulls
