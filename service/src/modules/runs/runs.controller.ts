@@ -19,6 +19,7 @@ import type { AlarmDto, BoardPoint, IngestResult, ReadingDto, RunDetail, RunSumm
 import { AnyRole, Roles } from '../../common/decorators/roles.decorator.js';
 import { CurrentUser, type AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { IdParamDto } from '../../common/dto/id-param.dto.js';
+import { AppConfig } from '../../config/app-config.service.js';
 import { AlarmsService } from '../alarms/alarms.service.js';
 import { RunsService } from './runs.service.js';
 import { ReadingsService } from './readings.service.js';
@@ -27,8 +28,6 @@ import { CsvImportService } from './csv-import.service.js';
 import { RunExportsService } from './run-exports.service.js';
 import { CreateRunDto, ReadingsQueryDto, RunQueryDto, RunTransitionDto, UpdateRunDto } from './dto/run.dto.js';
 import { RoundDto } from './dto/reading.dto.js';
-
-const MAX_CSV_BYTES = 200 * 1024 * 1024;
 
 /** A batch with rejected rows answers 400 with the full report; its good rows are kept. */
 export function answerIngest(r: IngestResult): IngestResult {
@@ -59,6 +58,7 @@ export class RunsController {
     private readonly csv: CsvImportService,
     private readonly exports: RunExportsService,
     private readonly alarms: AlarmsService,
+    private readonly config: AppConfig,
   ) {}
 
   @Get()
@@ -136,9 +136,11 @@ export class RunsController {
       req.resume();
       throw new UnsupportedMediaTypeException('Send the CSV file itself as the body, with Content-Type text/csv.');
     }
-    if (Number(req.headers['content-length'] ?? 0) > MAX_CSV_BYTES) {
+    const max = this.config.get('CSV_IMPORT_MAX_BYTES');
+    if (Number(req.headers['content-length'] ?? 0) > max) {
       req.resume();
-      throw new HttpException({ statusCode: 413, error: 'Payload Too Large', message: 'The file is larger than 200 MB; split it.' }, 413);
+      const mb = Math.round(max / (1024 * 1024));
+      throw new HttpException({ statusCode: 413, error: 'Payload Too Large', message: `The file is larger than ${mb} MB; split it.` }, 413);
     }
     const run = await this.runs.get(p.id);
     const result = await this.csv.import(run, req, me.id);

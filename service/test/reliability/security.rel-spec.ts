@@ -1,0 +1,134 @@
+/**
+ * Security findings, one test each: every one failed before its fix. Large uploads that must not stall the
+ * service, the secrets the scripts write, the start-up refusal of the published development JWT secret.
+ */
+import { request as httpRequest } from 'node:http';
+import { startTestApp } from '../utils/test-app.js';
+import { createEngine, createPreparingRun, engineBody } from '../factories/engine.factory.js';
+import { validateEnvironment } from '../../src/config/env.validation.js';
+import { sessionsForEveryRole } from './support/sessions.js';
+
+// A small byte cap for this file's app, so a chunked body over it costs a few MB, not 200.
+const CAP_BYTES = 3 * 1024 * 1024;
+process.env.CSV_IMPORT_MAX_BYTES = String(CAP_BYTES);
+const t = await startTestApp();
+delete process.env.CSV_IMPORT_MAX_BYTES;
+const s = await sessionsForEveryRole(t.db);
+const chief = s.chief_engineer.token;
+const operator = s.operator.token;
+const engine = await createEngine(t, chief, engineBody());
+const run = await createPreparingRun(t, operator, engine.id);
+
+afterAll(() => t.close());
+
+interface Sent {
+  status: number;
+  body: { message?: unknown };
+  ms: number;
+}
+
+/** POSTs a CSV body as chunked transfer (no Content-Length), written piece by piece with back-pressure. */
+function postChunked(path: string, pieces: () => Iterable<Buffer>): Promise<Sent> {
+  const started = performance.now();
+  return new Promise((resolve, reject) => {
+    const u = new URL(`${t.url}${path}`);
+    const req = httpRequest(
+      {
+        host: u.hostname,
+        port: u.port,
+        path: u.pathname,
+        method: 'POST',
+        headers: { 'content-type': 'text/csv', 'transfer-encoding': 'chunked', authorization: `Bearer ${operator}` },
+      },
+      (res) => {
+        let text = '';
+        res.setEncoding('utf8');
+        res.on('data', (d: string) => (text += d));
+        res.on('end', () => {
+          let body: Sent['body'] = {};
+          try {
+            body = JSON.parse(text) as Sent['body'];
+          } catch {
+            body = { message: text };
+          }
+          resolve({ status: res.statusCode ?? 0, body, ms: performance.now() - started });
+        });
+      },
+    );
+    req.on('error', reject);
+    const it = pieces()[Symbol.iterator]();
+    const write = () => {
+      for (;;) {
+        const next = it.next();
+        if (next.done) return req.end();
+        if (!req.write(next.value)) return req.once('drain', write);
+      }
+    };
+    write();
+  });
+}
+
+/** Health answers during `work`: the slowest answer, asked every 50 ms. */
+async function slowestHealthDuring(work: Promise<unknown>): Promise<number> {
+  let done = false;
+  let slowest = 0;
+  void work.finally(() => (done = true));
+  while (!done) {
+    const t0 = performance.now();
+    await fetch(`${t.url}/api/health`);
+    slowest = Math.max(slowest, performance.now() - t0);
+    await new Promise((r) => setTimeout(r, 50));
+  }
+  return slowest;
+}
+
+describe('CSV import cannot stall the service', () => {
+  it('a body of one 8 MB line is refused with a 400 naming the line, and health stays responsive', async () => {
+    const line = Buffer.alloc(64 * 1024, 'x');
+    const upload = postChunked(`/api/runs/${run.id}/imports`, function* () {
+      yield Buffer.from('taken_at,point,value\n');
+      for (let i = 0; i < 128; i++) yield line; // 8 MB, no newline
+    });
+    const slowest = await slowestHealthDuring(upload);
+    const res = await upload;
+    expect(res.status).toBe(400);
+    expect(String(res.body.message)).toMatch(/^Line 2 is longer than 64 kB/);
+    expect(res.ms).toBeLessThan(5000);
+    expect(slowest).toBeLessThan(500);
+  });
+
+  it('a chunked body (no Content-Length) over the byte cap is refused with 413', async () => {
+    const lines = Buffer.from(',,\n'.repeat(40_000)); // 120 kB of empty lines, skipped by the parser
+    const res = await postChunked(`/api/runs/${run.id}/imports`, function* () {
+      yield Buffer.from('taken_at,point,value\n');
+      for (let sent = 0; sent < CAP_BYTES + 2 * lines.length; sent += lines.length) yield lines;
+    });
+    expect(res.status).toBe(413);
+    expect(String(res.body.message)).toMatch(/larger than 3 MB/);
+  });
+
+  it('a good file split into many small chunks, lines cut anywhere, is imported whole', async () => {
+    const base = Date.now() - 3_600_000;
+    const text =
+      'taken_at,point,value\n' +
+      Array.from({ length: 300 }, (_, i) => `${new Date(base + i * 1000).toISOString()},THR,${100 + (i % 7)}`).join('\n');
+    const bytes = Buffer.from(text);
+    const res = await postChunked(`/api/runs/${run.id}/imports`, function* () {
+      for (let i = 0; i < bytes.length; i += 37) yield bytes.subarray(i, i + 37);
+    });
+    expect(res.status).toBe(201);
+    expect(res.body).toMatchObject({ stored: 300, rejectedCount: 0 });
+  });
+});
+
+describe('the published development JWT secret', () => {
+  it.each(['development', 'production'])('NODE_ENV=%s without JWT_SECRET refuses to start', (mode) => {
+    expect(() => validateEnvironment({ NODE_ENV: mode })).toThrow(/JWT_SECRET is not set/);
+    expect(() => validateEnvironment({ NODE_ENV: mode, JWT_SECRET: 'development-only-secret-change-me' })).toThrow(/JWT_SECRET/);
+  });
+
+  it('the test suite may use it, and any mode accepts a secret of its own', () => {
+    expect(validateEnvironment({ NODE_ENV: 'test' }).JWT_SECRET).toBe('development-only-secret-change-me');
+    expect(validateEnvironment({ NODE_ENV: 'development', JWT_SECRET: 'a-secret-of-our-own-1234' }).NODE_ENV).toBe('development');
+  });
+});
