@@ -2,11 +2,18 @@
  * Security findings, one test each: every one failed before its fix. Large uploads that must not stall the
  * service, the secrets the scripts write, the start-up refusal of the published development JWT secret.
  */
+import { execFile } from 'node:child_process';
+import { mkdtempSync, rmSync, statSync } from 'node:fs';
 import { request as httpRequest } from 'node:http';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { promisify } from 'node:util';
+import pg from 'pg';
 import { startTestApp } from '../utils/test-app.js';
 import { createEngine, createPreparingRun, engineBody } from '../factories/engine.factory.js';
 import { validateEnvironment } from '../../src/config/env.validation.js';
 import { sessionsForEveryRole } from './support/sessions.js';
+import { adminUrl, repoRoot, suiteDatabaseUrl } from './support/env.js';
 
 // A small byte cap for this file's app, so a chunked body over it costs a few MB, not 200.
 const CAP_BYTES = 3 * 1024 * 1024;
@@ -130,5 +137,70 @@ describe('the published development JWT secret', () => {
   it('the test suite may use it, and any mode accepts a secret of its own', () => {
     expect(validateEnvironment({ NODE_ENV: 'test' }).JWT_SECRET).toBe('development-only-secret-change-me');
     expect(validateEnvironment({ NODE_ENV: 'development', JWT_SECRET: 'a-secret-of-our-own-1234' }).NODE_ENV).toBe('development');
+  });
+});
+
+const execFileAsync = promisify(execFile);
+const modeOf = (path: string) => (statSync(path).mode & 0o777).toString(8);
+
+describe('the private cluster asks for a password', () => {
+  const tryConnect = async (url: string) => {
+    const c = new pg.Client({ connectionString: url });
+    try {
+      await c.connect();
+      await c.end();
+      return 'connected';
+    } catch (e) {
+      return (e as Error).message;
+    }
+  };
+
+  it('the superuser without a password, or with a wrong one, is refused over TCP', async () => {
+    const u = new URL(adminUrl());
+    u.password = '';
+    expect(await tryConnect(u.toString())).toMatch(/password/);
+    u.password = 'not-the-password';
+    expect(await tryConnect(u.toString())).toMatch(/password authentication failed/);
+  });
+
+  it('the service role with the old fixed password is refused; with its generated one it connects', async () => {
+    const u = new URL(suiteDatabaseUrl());
+    const generated = u.password;
+    u.password = 'crankjournal';
+    expect(generated).not.toBe('crankjournal');
+    expect(await tryConnect(u.toString())).toMatch(/password authentication failed/);
+    u.password = generated;
+    expect(await tryConnect(u.toString())).toBe('connected');
+  });
+});
+
+describe('secrets on disk are readable by their owner only', () => {
+  it('a secret the scripts generate (the JWT secret) is 0600 and .data/ is not readable by others', async () => {
+    const { stdout } = await execFileAsync('bash', ['-c', 'source ops/lib.sh && secret_file jwt-secret'], { cwd: repoRoot() });
+    expect(stdout.trim()).toMatch(/^[0-9a-f]{32}$/);
+    expect(modeOf(join(repoRoot(), '.data', 'jwt-secret'))).toBe('600');
+    // 0711 only as root with a cluster inside (postgres must pass through to its data), else 0700.
+    expect(['700', '711']).toContain(modeOf(join(repoRoot(), '.data')));
+    for (const f of ['pg-superuser-password', 'pg-crankjournal-password']) expect(modeOf(join(repoRoot(), '.data', f))).toBe('600');
+  });
+
+  it('a backup is written 0600 in a 0700 directory', async () => {
+    const out = join(mkdtempSync(join(tmpdir(), 'crankjournal-sec-')), 'backups');
+    try {
+      const { stdout } = await execFileAsync(
+        'bash',
+        [join(repoRoot(), 'ops', 'backup.sh'), '--database-url', suiteDatabaseUrl(), '--out', out],
+        {
+          cwd: repoRoot(),
+          env: { ...process.env, NODE_OPTIONS: '' },
+        },
+      );
+      const file = stdout.trim().split('\n').pop()!.trim();
+      expect(file.endsWith('.dump')).toBe(true);
+      expect(modeOf(file)).toBe('600');
+      expect(modeOf(out)).toBe('700');
+    } finally {
+      rmSync(join(out, '..'), { recursive: true, force: true });
+    }
   });
 });
