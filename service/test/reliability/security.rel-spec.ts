@@ -12,7 +12,10 @@ import pg from 'pg';
 import { startTestApp } from '../utils/test-app.js';
 import { createEngine, createPreparingRun, engineBody } from '../factories/engine.factory.js';
 import { validateEnvironment } from '../../src/config/env.validation.js';
-import { sessionsForEveryRole } from './support/sessions.js';
+import { createUser } from '../factories/users.factory.js';
+import { connected, socketAs } from '../utils/socket.js';
+import { authHeader } from '../utils/signed-in.js';
+import { accessToken, sessionsForEveryRole } from './support/sessions.js';
 import { adminUrl, repoRoot, suiteDatabaseUrl } from './support/env.js';
 
 // A small byte cap for this file's app, so a chunked body over it costs a few MB, not 200.
@@ -202,5 +205,82 @@ describe('secrets on disk are readable by their owner only', () => {
     } finally {
       rmSync(join(out, '..'), { recursive: true, force: true });
     }
+  });
+});
+
+describe('sessions end everywhere at once', () => {
+  const admin = s.administrator.token;
+  const me = (token: string) => fetch(`${t.url}/api/auth/me`, { headers: authHeader(token) }).then((r) => r.status);
+  /** A connected socket of `token`, and a promise that resolves when the server disconnects it. */
+  async function openSocket(token: string) {
+    const socket = await connected(socketAs(t.url, token));
+    const closed = new Promise<string>((resolve) => socket.once('disconnect', (reason) => resolve(reason)));
+    return { socket, closed };
+  }
+  const within = <T>(p: Promise<T>, ms: number) =>
+    Promise.race([p, new Promise<string>((r) => setTimeout(() => r(`still open after ${ms} ms`), ms))]);
+
+  it('a lowered role ends the open socket and the access token at once; the socket cannot start a run on the way out', async () => {
+    const u = await createUser(t.db, { role: 'operator' });
+    const token = await accessToken(u.id, 'operator');
+    const { socket, closed } = await openSocket(token);
+    expect(await me(token)).toBe(200);
+    const res = await fetch(`${t.url}/api/users/${u.id}`, {
+      method: 'PATCH',
+      headers: { ...authHeader(admin), 'content-type': 'application/json' },
+      body: JSON.stringify({ role: 'observer' }),
+    });
+    expect(res.status).toBe(200);
+    expect(await within(closed, 2000)).toBe('io server disconnect');
+    expect(socket.connected).toBe(false);
+    expect(await me(token)).toBe(401);
+  });
+
+  it('sign-out everywhere ends every access token and socket of the person', async () => {
+    const u = await createUser(t.db, { role: 'chief_engineer' });
+    const a = await accessToken(u.id, 'chief_engineer');
+    const b = await accessToken(u.id, 'chief_engineer');
+    const { closed } = await openSocket(b);
+    const out = await fetch(`${t.url}/api/auth/logout-everywhere`, { method: 'POST', headers: authHeader(a) });
+    expect(out.status).toBe(204);
+    expect(await within(closed, 2000)).toBe('io server disconnect');
+    expect(await me(a)).toBe(401);
+    expect(await me(b)).toBe(401);
+    // A new sign-in works (and carries the new session version).
+    const login = await fetch(`${t.url}/api/auth/login`, {
+      method: 'POST',
+      headers: { 'content-type': 'application/json' },
+      body: JSON.stringify({ email: u.email, password: u.password }),
+    });
+    expect(login.status).toBe(200);
+    const { accessToken: fresh } = (await login.json()) as { accessToken: string };
+    expect(await me(fresh)).toBe(200);
+  });
+
+  it('a password change ends the access tokens and sockets of every device', async () => {
+    const u = await createUser(t.db, { role: 'operator' });
+    const token = await accessToken(u.id, 'operator');
+    const other = await accessToken(u.id, 'operator');
+    const { closed } = await openSocket(other);
+    const res = await fetch(`${t.url}/api/auth/password`, {
+      method: 'POST',
+      headers: { ...authHeader(token), 'content-type': 'application/json' },
+      body: JSON.stringify({ currentPassword: u.password, newPassword: 'a-new-password-of-mine-42' }),
+    });
+    expect(res.status).toBe(204);
+    expect(await within(closed, 2000)).toBe('io server disconnect');
+    expect(await me(other)).toBe(401);
+  });
+
+  it('a socket event is checked against the role as it is now, not as it was at connection', async () => {
+    const u = await createUser(t.db, { role: 'operator' });
+    const token = await accessToken(u.id, 'operator');
+    const { socket } = await openSocket(token);
+    // Lowered straight in the database (no announcement): only the per-event check can see it, once the cache is cleared.
+    await t.db.query(`UPDATE users SET role = 'observer' WHERE id = $1`, [u.id]);
+    await new Promise((r) => setTimeout(r, 5_100)); // the auth cache keeps an entry at most 5 s
+    const ack = (await socket.timeout(3000).emitWithAck('run:start', { runId: run.id })) as { ok: boolean; status?: number };
+    expect(ack).toMatchObject({ ok: false, status: 403 });
+    socket.disconnect();
   });
 });

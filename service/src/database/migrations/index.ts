@@ -6,6 +6,7 @@ import { ChecklistsQualifications1796164498769 } from './1796164498769-Checklist
 import { IndicatorCards1796164976631 } from './1796164976631-IndicatorCards.js';
 import { Maintenance1796166275712 } from './1796166275712-Maintenance.js';
 import { ReadingsPointRunIndex1796169344642 } from './1796169344642-ReadingsPointRunIndex.js';
+import { UserSessionVersion1796414632333 } from './1796414632333-UserSessionVersion.js';
 
 /** Every migration in order. Add new ones at the end; never edit one that has been committed. */
 export const MIGRATIONS: (new () => MigrationInterface)[] = [
@@ -16,4 +17,5 @@ export const MIGRATIONS: (new () => MigrationInterface)[] = [
   IndicatorCards1796164976631,
   Maintenance1796166275712,
   ReadingsPointRunIndex1796169344642,
+  UserSessionVersion1796414632333,
 ];
