@@ -42,6 +42,18 @@ export class EnvironmentVariables {
   @Min(1)
   LOGIN_RATE_LIMIT_PER_MINUTE = 10;
 
+  /** Sign-in attempts from one address, whatever the e-mail (password spraying). */
+  @Transform(({ value }) => Number(value))
+  @IsInt()
+  @Min(1)
+  LOGIN_ADDRESS_LIMIT_PER_MINUTE = 30;
+
+  /** Sign-in attempts for one account, whatever the address. */
+  @Transform(({ value }) => Number(value))
+  @IsInt()
+  @Min(1)
+  LOGIN_ACCOUNT_LIMIT_PER_HOUR = 30;
+
   @IsString()
   PUBLIC_URL = 'http://127.0.0.1:3000';
 

@@ -20,9 +20,14 @@ import { adminUrl, repoRoot, suiteDatabaseUrl } from './support/env.js';
 
 // A small byte cap for this file's app, so a chunked body over it costs a few MB, not 200.
 const CAP_BYTES = 3 * 1024 * 1024;
-process.env.CSV_IMPORT_MAX_BYTES = String(CAP_BYTES);
+// Low sign-in limits too (every other test file runs with them out of the way).
+const LIMITS = { CSV_IMPORT_MAX_BYTES: String(CAP_BYTES), LOGIN_ADDRESS_LIMIT_PER_MINUTE: '8', LOGIN_ACCOUNT_LIMIT_PER_HOUR: '6' };
+const before = Object.fromEntries(Object.keys(LIMITS).map((k) => [k, process.env[k]]));
+Object.assign(process.env, LIMITS);
 const t = await startTestApp();
-delete process.env.CSV_IMPORT_MAX_BYTES;
+for (const [k, v] of Object.entries(before))
+  if (v === undefined) delete process.env[k];
+  else process.env[k] = v;
 const s = await sessionsForEveryRole(t.db);
 const chief = s.chief_engineer.token;
 const operator = s.operator.token;
@@ -282,5 +287,41 @@ describe('sessions end everywhere at once', () => {
     const ack = (await socket.timeout(3000).emitWithAck('run:start', { runId: run.id })) as { ok: boolean; status?: number };
     expect(ack).toMatchObject({ ok: false, status: 403 });
     socket.disconnect();
+  });
+});
+
+describe('sign-in limits across e-mails and across addresses', () => {
+  const signIn = (email: string, from: string) =>
+    fetch(`${t.url}/api/auth/login`, {
+      method: 'POST',
+      headers: { 'content-type': 'application/json', 'x-forwarded-for': from },
+      body: JSON.stringify({ email, password: 'one-common-password' }),
+    });
+
+  it('one address trying one password on many accounts is stopped after 8 attempts with 429 and Retry-After', async () => {
+    const statuses: number[] = [];
+    let last: Response | null = null;
+    for (let i = 0; i < 9; i++) {
+      last = await signIn(`sprayed-${i}@example.test`, '10.9.8.7');
+      statuses.push(last.status);
+    }
+    expect(statuses.slice(0, 8)).toEqual(Array(8).fill(401));
+    expect(statuses[8]).toBe(429);
+    expect(Number(last!.headers.get('retry-after'))).toBeGreaterThan(0);
+    // Another address is not affected.
+    expect((await signIn('sprayed-0@example.test', '10.9.8.8')).status).toBe(401);
+  });
+
+  it('one account tried from many addresses is stopped after 6 attempts with 429 and Retry-After', async () => {
+    const u = await createUser(t.db, { role: 'observer' });
+    const statuses: number[] = [];
+    let last: Response | null = null;
+    for (let i = 0; i < 7; i++) {
+      last = await signIn(u.email, `10.1.2.${i + 1}`);
+      statuses.push(last.status);
+    }
+    expect(statuses.slice(0, 6)).toEqual(Array(6).fill(401));
+    expect(statuses[6]).toBe(429);
+    expect(Number(last!.headers.get('retry-after'))).toBeGreaterThan(0);
   });
 });

@@ -23,6 +23,9 @@ export const TEST_ENV_DEFAULTS: Record<string, string> = {
   MAIL_INBOX_URL: 'http://127.0.0.1:8035',
   S3_ENDPOINT: 'http://127.0.0.1:4579',
   LOGIN_RATE_LIMIT_PER_MINUTE: '5',
+  // Every test signs in from 127.0.0.1: the per-address and per-account limits are tested where they are set low.
+  LOGIN_ADDRESS_LIMIT_PER_MINUTE: '100000',
+  LOGIN_ACCOUNT_LIMIT_PER_HOUR: '100000',
   PUBLIC_URL: 'http://127.0.0.1:3100',
 };
 
