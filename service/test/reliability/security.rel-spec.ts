@@ -12,6 +12,7 @@ import pg from 'pg';
 import { startTestApp } from '../utils/test-app.js';
 import { createEngine, createPreparingRun, engineBody } from '../factories/engine.factory.js';
 import { validateEnvironment } from '../../src/config/env.validation.js';
+import { seedUsers } from '../../src/database/seeds/seed-users.js';
 import { createUser } from '../factories/users.factory.js';
 import { connected, socketAs } from '../utils/socket.js';
 import { authHeader } from '../utils/signed-in.js';
@@ -323,5 +324,24 @@ describe('sign-in limits across e-mails and across addresses', () => {
     expect(statuses.slice(0, 6)).toEqual(Array(6).fill(401));
     expect(statuses[6]).toBe(429);
     expect(Number(last!.headers.get('retry-after'))).toBeGreaterThan(0);
+  });
+});
+
+describe('demo accounts are seeded once', () => {
+  it('a deactivated demo account with a changed password stays so when the seed runs again', async () => {
+    const email = 'observer@alderforge.example';
+    await t.db.transaction((m) => seedUsers(m));
+    const [before] = (await t.db.query(`SELECT id FROM users WHERE email = $1`, [email])) as { id: string }[];
+    await t.db.query(`UPDATE users SET active = false, password_hash = 'changed-by-an-administrator' WHERE id = $1`, [before.id]);
+    try {
+      await t.db.transaction((m) => seedUsers(m));
+      const [after] = (await t.db.query(`SELECT active, password_hash FROM users WHERE id = $1`, [before.id])) as {
+        active: boolean;
+        password_hash: string;
+      }[];
+      expect(after).toEqual({ active: false, password_hash: 'changed-by-an-administrator' });
+    } finally {
+      await t.db.query(`DELETE FROM users WHERE id = $1`, [before.id]).catch(() => undefined);
+    }
   });
 });
