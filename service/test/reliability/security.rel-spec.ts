@@ -12,6 +12,7 @@ import pg from 'pg';
 import { startTestApp } from '../utils/test-app.js';
 import { createEngine, createPreparingRun, engineBody } from '../factories/engine.factory.js';
 import { validateEnvironment } from '../../src/config/env.validation.js';
+import { sha256 } from '../../src/common/util/password.util.js';
 import { seedUsers } from '../../src/database/seeds/seed-users.js';
 import { createUser } from '../factories/users.factory.js';
 import { connected, socketAs } from '../utils/socket.js';
@@ -343,5 +344,35 @@ describe('demo accounts are seeded once', () => {
     } finally {
       await t.db.query(`DELETE FROM users WHERE id = $1`, [before.id]).catch(() => undefined);
     }
+  });
+});
+
+describe('deactivated accounts', () => {
+  const post = (path: string, body: unknown) =>
+    fetch(`${t.url}${path}`, {
+      method: 'POST',
+      headers: { 'content-type': 'application/json', 'x-forwarded-for': '10.3.3.3' },
+      body: JSON.stringify(body),
+    });
+
+  it('sign-in of a deactivated account answers the same whether the password is right or not', async () => {
+    const u = await createUser(t.db, { role: 'operator', active: false });
+    const right = await post('/api/auth/login', { email: u.email, password: u.password });
+    const wrong = await post('/api/auth/login', { email: u.email, password: 'surely-not-the-password' });
+    expect(right.status).toBe(401);
+    expect(wrong.status).toBe(401);
+    expect(await right.json()).toEqual(await wrong.json());
+  });
+
+  it('an invitation of a person deactivated since cannot be accepted', async () => {
+    const u = await createUser(t.db, { role: 'operator', active: false });
+    const token = 'invitation-token-of-a-deactivated-person';
+    await t.db.query(`INSERT INTO invitations (user_id, token_hash, expires_at) VALUES ($1, $2, now() + interval '1 day')`, [
+      u.id,
+      sha256(token),
+    ]);
+    const res = await post('/api/auth/accept-invitation', { token, password: 'a-password-of-my-own-1' });
+    expect(res.status).toBe(400);
+    expect(((await res.json()) as { message: string }).message).toMatch(/not active/);
   });
 });

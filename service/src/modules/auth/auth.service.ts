@@ -24,8 +24,8 @@ export class AuthService {
     const user = await this.users.findByEmailWithSecrets(email);
     // Verify even for unknown users so timing does not reveal who has an account.
     const ok = await verifyPassword(user?.passwordHash ?? DUMMY_HASH, password);
-    if (!user || !ok || !user.passwordHash) throw new UnauthorizedException(BAD_SIGN_IN);
-    if (!user.active) throw new UnauthorizedException('This account has been deactivated. Ask an administrator.');
+    // A deactivated account gets the same answer whether the password was right or not: the answer confirms nothing.
+    if (!user || !ok || !user.passwordHash || !user.active) throw new UnauthorizedException(BAD_SIGN_IN);
     return this.issue(user, randomUUID());
   }
 

@@ -199,9 +199,11 @@ export class UsersService {
     if (!inv || inv.usedAt || inv.expiresAt.getTime() < Date.now()) {
       throw new BadRequestException('This invitation link is not valid any more. Ask an administrator for a new one.');
     }
+    const person = await this.get(inv.userId);
+    if (!person.active) throw new BadRequestException('This invitation was withdrawn: the account is not active. Ask an administrator.');
     const res = await this.invitations.update({ id: inv.id, usedAt: IsNull() }, { usedAt: new Date() });
     if (!res.affected) throw new BadRequestException('This invitation link has already been used.');
-    return this.get(inv.userId);
+    return person;
   }
 
   async setPasswordHash(id: string, passwordHash: string) {
