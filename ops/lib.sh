@@ -82,18 +82,68 @@ pg_up() {
   if [ ! -f "$PGDATA_DIR/PG_VERSION" ]; then
     say "creating a private PostgreSQL cluster in $PGDATA_DIR"
     mkdir -p "$PGDATA_DIR"
-    if [ "$(id -u)" = 0 ]; then chown -R postgres:postgres "$(dirname "$PGDATA_DIR")"; chmod 711 "$(dirname "$PGDATA_DIR")"; fi
+    if [ "$(id -u)" = 0 ]; then chown -R postgres:postgres "$PGDATA_DIR"; chmod 711 "$(dirname "$PGDATA_DIR")"; fi
     chmod 700 "$PGDATA_DIR"
-    pg_run "$PG_BIN/initdb" -D "$PGDATA_DIR" -U postgres --auth-local=trust --auth-host=trust -E UTF8 --no-locale >/dev/null
+    # Peer authentication on the socket, passwords (scram-sha-256) over TCP; the superuser's password is
+    # generated once and kept in .data/ (0600). initdb reads it from a file only the cluster's owner can read.
+    local pwfile="$PGDATA_DIR.pwfile"
+    (umask 077; secret_file pg-superuser-password > "$pwfile")
+    if [ "$(id -u)" = 0 ]; then chown postgres "$pwfile"; fi
+    pg_run "$PG_BIN/initdb" -D "$PGDATA_DIR" -U postgres --auth-local=peer --auth-host=scram-sha-256 --pwfile="$pwfile" \
+      -E UTF8 --no-locale >/dev/null
+    rm -f "$pwfile"
     case "$PGDATA_DIR" in "$ROOT"/*) ;; *) ln -sfn "$PGDATA_DIR" "$ROOT/.data/pg-$name" ;; esac
   fi
+  # The socket lives in a directory of the cluster's own (0700), not in a world-writable /tmp.
+  local sockets="$PGDATA_DIR/sockets"
   if ! pg_run "$PG_BIN/pg_ctl" -D "$PGDATA_DIR" status >/dev/null 2>&1; then
     say "starting PostgreSQL on 127.0.0.1:$port"
+    pg_run mkdir -p "$sockets"
+    pg_run chmod 700 "$sockets"
     pg_run "$PG_BIN/pg_ctl" -D "$PGDATA_DIR" -l "$PGDATA_DIR/server.log" -w -t 60 \
-      -o "-p $port -k /tmp -c listen_addresses=127.0.0.1 -c fsync=${PG_FSYNC:-on} -c max_connections=200" start >/dev/null
+      -o "-p $port -k $sockets -c listen_addresses=127.0.0.1 -c fsync=${PG_FSYNC:-on} -c max_connections=200" start >/dev/null
     PG_STARTED_BY_US="$PGDATA_DIR"
   fi
+  pg_harden "$port"
 }
+
+# A cluster made before passwords were asked for (trust in pg_hba.conf): the superuser gets the generated
+# password, then the same rules as a new cluster (peer on the socket, scram-sha-256 over TCP) are loaded.
+pg_harden() {
+  local port="$1" hba="$PGDATA_DIR/pg_hba.conf"
+  if ! pg_run grep -qE '^[^#]*[[:space:]]trust([[:space:]]|$)' "$hba"; then return 0; fi
+  say "asking for passwords on the cluster in $PGDATA_DIR (it trusted every local user)"
+  PGPASSWORD="" "$PG_BIN/psql" -h 127.0.0.1 -p "$port" -U postgres -d postgres -v ON_ERROR_STOP=1 -qtA \
+    -c "SET password_encryption = 'scram-sha-256'" -c "ALTER ROLE postgres PASSWORD '$(secret_file pg-superuser-password)'" >/dev/null
+  pg_run sed -i -E -e 's/^(local[[:space:]].*[[:space:]])trust([[:space:]]*)$/\1peer\2/' \
+    -e 's/^(host[[:space:]].*[[:space:]])trust([[:space:]]*)$/\1scram-sha-256\2/' "$hba"
+  pg_run "$PG_BIN/pg_ctl" -D "$PGDATA_DIR" reload >/dev/null
+}
+
+# .data/ holds secrets: readable by its owner only. As root the cluster's data may live inside it and belongs
+# to `postgres`, which must then be able to pass through (0711: enter, not list).
+secure_data_dir() {
+  mkdir -p "$ROOT/.data"
+  if [ "$(id -u)" = 0 ] && ls -d "$ROOT"/.data/pg-* >/dev/null 2>&1; then chmod 711 "$ROOT/.data"; else chmod 700 "$ROOT/.data"; fi
+}
+
+# secret_file NAME: prints the secret kept in .data/NAME (0600), generating it (32 random hex characters) the first time.
+secret_file() {
+  local file="$ROOT/.data/$1"
+  secure_data_dir
+  if [ ! -s "$file" ]; then (umask 077; head -c 16 /dev/urandom | od -An -tx1 | tr -d ' \n' > "$file.tmp" && mv "$file.tmp" "$file"); fi
+  chmod 600 "$file"
+  cat "$file"
+}
+
+# pg_admin PORT [psql arguments]: psql as the cluster's superuser over TCP, with the generated password.
+pg_admin() {
+  local port="$1"; shift
+  PGPASSWORD="$(secret_file pg-superuser-password)" "$PG_BIN/psql" -h 127.0.0.1 -p "$port" -U postgres -d postgres -v ON_ERROR_STOP=1 -qtA "$@"
+}
+
+# db_url PORT DB: the service's DATABASE_URL for database DB of the private cluster (role crankjournal, its generated password).
+db_url() { echo "postgres://crankjournal:$(secret_file pg-crankjournal-password)@127.0.0.1:$1/$2"; }
 
 pg_down() {
   if [ -n "${PG_STARTED_BY_US:-}" ]; then
@@ -102,11 +152,16 @@ pg_down() {
   fi
 }
 
-# pg_database PORT DB [fresh]: make sure role crankjournal owns database DB (dropped first when fresh).
+# pg_database PORT DB [fresh]: make sure role crankjournal (password in .data/pg-crankjournal-password) owns database DB
+# (dropped first when fresh).
 pg_database() {
   local port="$1" db="$2" fresh="${3:-}"
-  local psql=("$PG_BIN/psql" -h 127.0.0.1 -p "$port" -U postgres -d postgres -v ON_ERROR_STOP=1 -qtA)
-  "${psql[@]}" -c "DO \$\$BEGIN IF NOT EXISTS (SELECT FROM pg_roles WHERE rolname='crankjournal') THEN CREATE ROLE crankjournal LOGIN PASSWORD 'crankjournal'; END IF; END\$\$;" >/dev/null
+  local psql=(pg_admin "$port")
+  local pw; pw="$(secret_file pg-crankjournal-password)"
+  # The role's password is the generated one in .data/ (set again each time, so an older cluster follows).
+  "${psql[@]}" -c "SET password_encryption = 'scram-sha-256'" \
+    -c "DO \$\$BEGIN IF NOT EXISTS (SELECT FROM pg_roles WHERE rolname='crankjournal') THEN CREATE ROLE crankjournal LOGIN; END IF; END\$\$;" \
+    -c "ALTER ROLE crankjournal PASSWORD '$pw'" >/dev/null
   if [ "$fresh" = fresh ]; then "${psql[@]}" -c "DROP DATABASE IF EXISTS $db WITH (FORCE)" >/dev/null; fi
   if [ -z "$("${psql[@]}" -c "SELECT 1 FROM pg_database WHERE datname='$db'")" ]; then
     "${psql[@]}" -c "CREATE DATABASE $db OWNER crankjournal" >/dev/null

@@ -34,7 +34,14 @@ import { RecordsModule } from './modules/records/records.module.js';
     TypeOrmModule.forRootAsync({ inject: [AppConfig], useFactory: (c: AppConfig) => typeOrmOptions(c.get('DATABASE_URL')) }),
     ThrottlerModule.forRootAsync({
       inject: [AppConfig],
-      useFactory: (c: AppConfig) => ({ throttlers: [{ name: 'login', ttl: 60_000, limit: c.get('LOGIN_RATE_LIMIT_PER_MINUTE') }] }),
+      // Sign-in limits (LoginThrottlerGuard gives each its key): per address and e-mail, per address, per account.
+      useFactory: (c: AppConfig) => ({
+        throttlers: [
+          { name: 'login', ttl: 60_000, limit: c.get('LOGIN_RATE_LIMIT_PER_MINUTE') },
+          { name: 'login-address', ttl: 60_000, limit: c.get('LOGIN_ADDRESS_LIMIT_PER_MINUTE') },
+          { name: 'login-account', ttl: 3_600_000, limit: c.get('LOGIN_ACCOUNT_LIMIT_PER_HOUR') },
+        ],
+      }),
     }),
     MailModule,
     StorageModule,

@@ -40,6 +40,7 @@ export const ROUTE_ACCESS: Record<string, RouteAccess> = {
   'POST /api/auth/refresh': 'public',
   'POST /api/auth/accept-invitation': 'public',
   'POST /api/auth/logout': ANY_ROLE,
+  'POST /api/auth/logout-everywhere': ANY_ROLE,
   'GET /api/auth/me': ANY_ROLE,
   'PATCH /api/auth/me': ANY_ROLE,
   'POST /api/auth/password': ANY_ROLE,

@@ -1,6 +1,9 @@
 import { plainToInstance, Transform } from 'class-transformer';
 import { IsIn, IsInt, IsOptional, IsString, Max, Min, MinLength, validateSync } from 'class-validator';
 
+/** The built-in JWT secret: accepted only when NODE_ENV=test. */
+export const DEVELOPMENT_JWT_SECRET = 'development-only-secret-change-me';
+
 const toBool = ({ value }: { value: unknown }) => value === true || value === 'true' || value === '1';
 
 /** Every environment variable the service reads, with its default. Checked once at start-up. */
@@ -22,7 +25,7 @@ export class EnvironmentVariables {
 
   @IsString()
   @MinLength(16, { message: 'JWT_SECRET must be at least 16 characters' })
-  JWT_SECRET = 'development-only-secret-change-me';
+  JWT_SECRET = DEVELOPMENT_JWT_SECRET;
 
   @Transform(({ value }) => Number(value))
   @IsInt()
@@ -61,6 +64,18 @@ export class EnvironmentVariables {
   @IsInt()
   @Min(1)
   ALARM_FORECAST_MINUTES = 10;
+
+  /** Sign-in attempts from one address, whatever the e-mail (password spraying). */
+  @Transform(({ value }) => Number(value))
+  @IsInt()
+  @Min(1)
+  LOGIN_ADDRESS_LIMIT_PER_MINUTE = 30;
+
+  /** Sign-in attempts for one account, whatever the address. */
+  @Transform(({ value }) => Number(value))
+  @IsInt()
+  @Min(1)
+  LOGIN_ACCOUNT_LIMIT_PER_HOUR = 30;
 
   @IsString()
   PUBLIC_URL = 'http://127.0.0.1:3000';
@@ -108,6 +123,18 @@ export class EnvironmentVariables {
   @IsInt()
   @Min(1)
   UPLOAD_MAX_BYTES = 10 * 1024 * 1024;
+
+  /** A logger's CSV file: at most this many bytes, counted as they arrive (chunked bodies too). */
+  @Transform(({ value }) => Number(value))
+  @IsInt()
+  @Min(1)
+  CSV_IMPORT_MAX_BYTES = 200 * 1024 * 1024;
+
+  /** A CSV line longer than this is refused with a 400 naming the line. */
+  @Transform(({ value }) => Number(value))
+  @IsInt()
+  @Min(256)
+  CSV_IMPORT_MAX_LINE_BYTES = 64 * 1024;
 }
 
 export function validateEnvironment(config: Record<string, unknown>): EnvironmentVariables {
@@ -117,8 +144,12 @@ export function validateEnvironment(config: Record<string, unknown>): Environmen
     const lines = errors.flatMap((e) => Object.values(e.constraints ?? {}));
     throw new Error(`Crankjournal cannot start, the environment is not valid:\n  ${lines.join('\n  ')}`);
   }
-  if (validated.NODE_ENV === 'production' && validated.JWT_SECRET === 'development-only-secret-change-me') {
-    throw new Error('Crankjournal cannot start: set JWT_SECRET to a secret of your own in production.');
+  // The built-in value is published with the code: only the test suite's own runs may sign tokens with it.
+  if (validated.NODE_ENV !== 'test' && validated.JWT_SECRET === DEVELOPMENT_JWT_SECRET) {
+    throw new Error(
+      'Crankjournal cannot start: JWT_SECRET is not set (or is the published development value). ' +
+        'Set it to a long random secret of your own (npm start generates one in .data/jwt-secret).',
+    );
   }
   return validated;
 }

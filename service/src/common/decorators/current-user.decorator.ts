@@ -7,6 +7,8 @@ export interface AuthUser {
   email: string;
   displayName: string;
   role: Role;
+  /** The person's session version: a token or socket of another version has ended. */
+  sessionVersion: number;
 }
 
 export const CurrentUser = createParamDecorator((_: unknown, ctx: ExecutionContext): AuthUser => {

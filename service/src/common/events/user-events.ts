@@ -5,6 +5,8 @@ import { Injectable, Module } from '@nestjs/common';
 export interface UserEventMap {
   /** The account was deactivated: whatever the person still holds open should end. */
   deactivated: [userId: string];
+  /** Every session of the person ended (session version raised): open connections should close at once. */
+  sessionsEnded: [userId: string];
 }
 
 /**

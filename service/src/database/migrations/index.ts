@@ -9,6 +9,7 @@ import { CardSetBarometer1796414559444 } from './1796414559444-CardSetBarometer.
 import { ReadingsPointRunIndex1796169344642 } from './1796169344642-ReadingsPointRunIndex.js';
 import { AlarmSuppression1796170500000 } from './1796170500000-AlarmSuppression.js';
 import { SiteSettings1796413937879 } from './1796413937879-SiteSettings.js';
+import { UserSessionVersion1796414632333 } from './1796414632333-UserSessionVersion.js';
 
 /** Every migration in order. Add new ones at the end; never edit one that has been committed. */
 export const MIGRATIONS: (new () => MigrationInterface)[] = [
@@ -22,4 +23,5 @@ export const MIGRATIONS: (new () => MigrationInterface)[] = [
   AlarmSuppression1796170500000,
   SiteSettings1796413937879,
   CardSetBarometer1796414559444,
+  UserSessionVersion1796414632333,
 ];

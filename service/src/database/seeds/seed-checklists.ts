@@ -54,7 +54,13 @@ export async function seedChecklists(app: INestApplicationContext, engine: Engin
   const db = app.get(DataSource);
   const templates = app.get(ChecklistTemplatesService);
   const chiefUser = users.get('chief@alderforge.example')!;
-  const chief: AuthUser = { id: chiefUser.id, email: chiefUser.email, displayName: chiefUser.displayName, role: chiefUser.role };
+  const chief: AuthUser = {
+    id: chiefUser.id,
+    email: chiefUser.email,
+    displayName: chiefUser.displayName,
+    role: chiefUser.role,
+    sessionVersion: chiefUser.sessionVersion,
+  };
 
   let newTemplates = 0;
   for (const t of sample.templates) {

@@ -47,7 +47,7 @@ const round1 = (x: number) => Math.round(x * 10) / 10;
 const noon = (day: string) => new Date(`${day}T12:00:00Z`);
 
 function asAuth(u: User): AuthUser {
-  return { id: u.id, email: u.email, displayName: u.displayName, role: u.role };
+  return { id: u.id, email: u.email, displayName: u.displayName, role: u.role, sessionVersion: u.sessionVersion };
 }
 
 /** The mill, its templates, working schedules, the season's bars and passes, and the customer lots. */

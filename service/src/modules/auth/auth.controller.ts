@@ -53,6 +53,15 @@ export class AuthController {
     await this.auth.logout(dto.refreshToken, me.id);
   }
 
+  /** Ends every sign-in of the caller, on every device: tokens and live connections. */
+  @ApiBearerAuth()
+  @AnyRole()
+  @Post('logout-everywhere')
+  @HttpCode(204)
+  async logoutEverywhere(@CurrentUser() me: AuthUser): Promise<void> {
+    await this.auth.endEverySession(me.id);
+  }
+
   @ApiBearerAuth()
   @AnyRole()
   @Get('me')

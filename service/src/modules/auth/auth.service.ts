@@ -5,7 +5,7 @@ import { InjectRepository } from '@nestjs/typeorm';
 import { IsNull, Repository } from 'typeorm';
 import type { SessionUser, TokenPair } from '@crankjournal/shared-types';
 import { AppConfig } from '../../config/app-config.service.js';
-import { UsersService, type UserRecord } from '../users/users.service.js';
+import { UsersService, type UserRecord, type UserWithSecrets } from '../users/users.service.js';
 import { hashPassword, newSecret, sha256, verifyPassword } from '../../common/util/password.util.js';
 import { RefreshToken } from './refresh-token.entity.js';
 
@@ -24,8 +24,8 @@ export class AuthService {
     const user = await this.users.findByEmailWithSecrets(email);
     // Verify even for unknown users so timing does not reveal who has an account.
     const ok = await verifyPassword(user?.passwordHash ?? DUMMY_HASH, password);
-    if (!user || !ok || !user.passwordHash) throw new UnauthorizedException(BAD_SIGN_IN);
-    if (!user.active) throw new UnauthorizedException('This account has been deactivated. Ask an administrator.');
+    // A deactivated account gets the same answer whether the password was right or not: the answer confirms nothing.
+    if (!user || !ok || !user.passwordHash || !user.active) throw new UnauthorizedException(BAD_SIGN_IN);
     return this.issue(user, randomUUID());
   }
 
@@ -60,8 +60,14 @@ export class AuthService {
     const user = await this.users.findByIdWithSecrets(userId);
     if (!user || !(await verifyPassword(user.passwordHash, current))) throw new BadRequestException('Your current password is not right.');
     await this.users.setPasswordHash(userId, await hashPassword(next));
-    // End every other sign-in of this person.
+    // End every sign-in of this person, this one included: access tokens, refresh tokens and live connections.
+    await this.endEverySession(userId);
+  }
+
+  /** Sign-out everywhere: every refresh token revoked, the session version raised (access tokens and sockets end at once). */
+  async endEverySession(userId: string): Promise<void> {
     await this.refreshTokens.update({ userId, revokedAt: IsNull() }, { revokedAt: new Date() });
+    await this.users.endSessions(userId);
   }
 
   async setPin(userId: string, current: string, pin: string): Promise<void> {
@@ -89,9 +95,9 @@ export class AuthService {
     return { id: u.id, email: u.email, displayName: u.displayName, role: u.role, unitSystem: u.unitSystem };
   }
 
-  private async issue(user: UserRecord, familyId: string): Promise<TokenPair> {
+  private async issue(user: UserWithSecrets, familyId: string): Promise<TokenPair> {
     const ttl = this.config.get('ACCESS_TOKEN_TTL_SECONDS');
-    const accessToken = await this.jwt.signAsync({ sub: user.id, role: user.role }, { expiresIn: ttl });
+    const accessToken = await this.jwt.signAsync({ sub: user.id, role: user.role, sv: user.sessionVersion }, { expiresIn: ttl });
     const id = randomUUID();
     const { secret } = newSecret();
     const refreshToken = `${id}.${secret}`;

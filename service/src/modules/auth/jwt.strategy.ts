@@ -8,6 +8,8 @@ import type { AuthUser } from '../../common/decorators/current-user.decorator.js
 export interface AccessTokenPayload {
   sub: string;
   role: string;
+  /** The person's session version when the token was issued (absent in tokens of before: version 1). */
+  sv?: number;
 }
 
 @Injectable()
@@ -24,10 +26,11 @@ export class JwtStrategy extends PassportStrategy(Strategy) {
     });
   }
 
-  /** Checked on every request, so a deactivated user's tokens stop working at once. */
+  /** Checked on every request, so the tokens of a deactivated person, or of a session that ended, stop working at once. */
   async validate(payload: AccessTokenPayload): Promise<AuthUser> {
     const user = await this.users.findActiveAuthUser(payload.sub);
     if (!user) throw new UnauthorizedException('Your account is not active. Ask an administrator.');
+    if (user.sessionVersion !== (payload.sv ?? 1)) throw new UnauthorizedException('This sign-in has ended. Please sign in again.');
     return user;
   }
 }

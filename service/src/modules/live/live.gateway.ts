@@ -32,9 +32,9 @@ export class LiveGateway implements OnGatewayInit {
       try {
         const token = (socket.handshake.auth as { token?: unknown })?.token;
         if (typeof token !== 'string' || !token) return next(new Error('Sign in first: the live channel needs an access token.'));
-        const payload = await this.jwt.verifyAsync<{ sub: string }>(token, { algorithms: ['HS256'] });
-        const user = await this.users.findActiveAuthUser(payload.sub);
-        if (!user) return next(new Error('Your account is not active.'));
+        const payload = await this.jwt.verifyAsync<{ sub: string; sv?: number }>(token, { algorithms: ['HS256'] });
+        const user = await this.users.currentSessionUser(payload.sub, payload.sv);
+        if (!user) return next(new Error('Your account is not active, or this sign-in has ended. Sign in again.'));
         socket.data.user = user;
         await socket.join(['site', `user:${user.id}`]);
         next();
@@ -46,7 +46,8 @@ export class LiveGateway implements OnGatewayInit {
 
   @SubscribeMessage('room:join')
   async join(@ConnectedSocket() socket: LiveSocket, @MessageBody() body: JoinRoomDto): Promise<JoinRoomAck> {
-    const verdict = canJoinRoom(socket.data.user.role, body.room);
+    const user = await this.users.socketUser(socket);
+    const verdict = canJoinRoom(user.role, body.room);
     if (!verdict.ok) {
       socket.emit('live:error', { event: 'room:join', message: verdict.reason, status: verdict.status });
       return { ok: false, error: verdict.reason, status: verdict.status };

@@ -11,6 +11,7 @@ export class LiveService {
   constructor(events: UserEvents) {
     // A deactivated person's open connections end at once: a socket checks the token only when it connects.
     events.on('deactivated', (userId) => this.disconnectUser(userId));
+    events.on('sessionsEnded', (userId) => this.disconnectUser(userId));
   }
 
   attach(server: LiveServer) {

@@ -3,7 +3,9 @@ import type { Readable } from 'node:stream';
 import { BadRequestException, Injectable } from '@nestjs/common';
 import Papa from 'papaparse';
 import type { IngestResult, RejectedRow } from '@crankjournal/shared-types';
+import { AppConfig } from '../../config/app-config.service.js';
 import { IngestService } from './ingest.service.js';
+import { CsvLineLimiter } from './csv-lines.js';
 import { RunsService } from './runs.service.js';
 import type { Run } from './run.entity.js';
 
@@ -36,6 +38,7 @@ export class CsvImportService {
   constructor(
     private readonly ingest: IngestService,
     private readonly runs: RunsService,
+    private readonly config: AppConfig,
   ) {}
 
   async import(run: Run, body: Readable, userId: string): Promise<IngestResult> {
@@ -46,7 +49,15 @@ export class CsvImportService {
       skipEmptyLines: 'greedy',
       transformHeader: (h: string) => h.trim().toLowerCase(),
     }) as unknown as NodeJS.ReadWriteStream;
-    body.pipe(parser);
+    // Bytes are counted and lines bounded before the parser sees them (see CsvLineLimiter).
+    const limiter = new CsvLineLimiter(this.config.get('CSV_IMPORT_MAX_BYTES'), this.config.get('CSV_IMPORT_MAX_LINE_BYTES'));
+    limiter.on('refused', (e: Error) => {
+      body.unpipe(limiter);
+      limiter.unpipe(parser);
+      body.resume(); // the rest of the upload is read and dropped, so the answer reaches the client
+      (parser as unknown as { destroy(e: Error): void }).destroy(e);
+    });
+    body.pipe(limiter).pipe(parser);
     let headerChecked = false;
     let line = 1;
     let chunk: { row: Record<string, unknown>; line: number }[] = [];
@@ -78,13 +89,21 @@ export class CsvImportService {
       total.rejectedCount++;
       if (total.rejected.length < 1000) total.rejected.push(row);
     };
-    for await (const raw of parser as unknown as AsyncIterable<Record<string, string>>) {
+    const rows = async function* () {
+      try {
+        yield* parser as unknown as AsyncIterable<Record<string, string>>;
+      } catch (e) {
+        throw limiter.refusal ?? e;
+      }
+      if (limiter.refusal) throw limiter.refusal;
+    };
+    for await (const raw of rows()) {
       line++;
       if (!headerChecked) {
         const cols = Object.keys(raw);
         const missing = ['taken_at', 'point', 'value'].filter((c) => !cols.includes(c));
         if (missing.length) {
-          body.unpipe(parser);
+          body.unpipe(limiter);
           body.resume();
           throw new BadRequestException(
             "The file's first line must name the columns taken_at, point, value (and optionally unit, client_id); " +

@@ -28,6 +28,7 @@ import type {
 import { AnyRole, Roles } from '../../common/decorators/roles.decorator.js';
 import { CurrentUser, type AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { IdParamDto } from '../../common/dto/id-param.dto.js';
+import { AppConfig } from '../../config/app-config.service.js';
 import { AlarmsService } from '../alarms/alarms.service.js';
 import { RunsService } from './runs.service.js';
 import { ReadingsService } from './readings.service.js';
@@ -37,8 +38,6 @@ import { RunExportsService } from './run-exports.service.js';
 import { CreateRunDto, ReadingsQueryDto, RunQueryDto, RunTransitionDto, SeasonFiguresQueryDto, UpdateRunDto } from './dto/run.dto.js';
 import type { Run } from './run.entity.js';
 import { RoundDto } from './dto/reading.dto.js';
-
-const MAX_CSV_BYTES = 200 * 1024 * 1024;
 
 /** A batch with rejected rows answers 400 with the full report; its good rows are kept. */
 export function answerIngest(r: IngestResult): IngestResult {
@@ -69,6 +68,7 @@ export class RunsController {
     private readonly csv: CsvImportService,
     private readonly exports: RunExportsService,
     private readonly alarms: AlarmsService,
+    private readonly config: AppConfig,
   ) {}
 
   @Get()
@@ -169,9 +169,11 @@ export class RunsController {
       req.resume();
       throw new UnsupportedMediaTypeException('Send the CSV file itself as the body, with Content-Type text/csv.');
     }
-    if (Number(req.headers['content-length'] ?? 0) > MAX_CSV_BYTES) {
+    const max = this.config.get('CSV_IMPORT_MAX_BYTES');
+    if (Number(req.headers['content-length'] ?? 0) > max) {
       req.resume();
-      throw new HttpException({ statusCode: 413, error: 'Payload Too Large', message: 'The file is larger than 200 MB; split it.' }, 413);
+      const mb = Math.round(max / (1024 * 1024));
+      throw new HttpException({ statusCode: 413, error: 'Payload Too Large', message: `The file is larger than ${mb} MB; split it.` }, 413);
     }
     const run = await this.runs.get(p.id);
     const result = await this.csv.import(run, req, me.id);

@@ -5,6 +5,8 @@ import type { IngestResult, LiveAck, Role, RunDetail, StartGateVerdict } from '@
 import { wsValidationPipe } from '../../common/ws/ws-validation.pipe.js';
 import { WsErrorFilter } from '../../common/ws/ws-exception.filter.js';
 import type { LiveSocket } from '../../common/ws/live-socket.js';
+import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
+import { UsersService } from '../users/users.service.js';
 import { IngestService } from './ingest.service.js';
 import { RunsService } from './runs.service.js';
 
@@ -26,9 +28,12 @@ export const SOCKET_EVENT_ROLES: Record<string, readonly Role[]> = {
   'run:start': ['operator', 'chief_engineer'],
 };
 
-function assertRole(socket: LiveSocket, event: string) {
+/** The sender as they are now (session and role checked again, like every HTTP request), if their role may send `event`. */
+async function allowedSender(users: UsersService, socket: LiveSocket, event: string): Promise<AuthUser> {
+  const user = await users.socketUser(socket);
   // 403 like the HTTP edge (WsErrorFilter answers an HttpException with its status).
-  if (!SOCKET_EVENT_ROLES[event].includes(socket.data.user.role)) throw new ForbiddenException(`Your role may not send ${event}.`);
+  if (!SOCKET_EVENT_ROLES[event].includes(user.role)) throw new ForbiddenException(`Your role may not send ${event}.`);
+  return user;
 }
 
 /** Run-log events on the live channel; they take the same paths as the REST routes. */
@@ -39,13 +44,14 @@ export class RunsGateway {
   constructor(
     private readonly ingest: IngestService,
     private readonly runs: RunsService,
+    private readonly users: UsersService,
   ) {}
 
   @SubscribeMessage('readings:submit')
   async submit(@ConnectedSocket() socket: LiveSocket, @MessageBody() body: SubmitReadingsDto): Promise<LiveAck<IngestResult>> {
-    assertRole(socket, 'readings:submit');
+    const me = await allowedSender(this.users, socket, 'readings:submit');
     const run = await this.runs.get(body.runId);
-    const r = await this.ingest.ingest({ run, source: 'live', enteredBy: socket.data.user.id }, body.readings);
+    const r = await this.ingest.ingest({ run, source: 'live', enteredBy: me.id }, body.readings);
     if (r.rejectedCount) {
       socket.emit('live:error', {
         event: 'readings:submit',
@@ -60,9 +66,9 @@ export class RunsGateway {
   /** Starting from the live channel asks the same start gate as the REST route. */
   @SubscribeMessage('run:start')
   async start(@ConnectedSocket() socket: LiveSocket, @MessageBody() body: StartRunDto): Promise<LiveAck<RunDetail | StartGateVerdict>> {
-    assertRole(socket, 'run:start');
+    const me = await allowedSender(this.users, socket, 'run:start');
     try {
-      return { ok: true, data: await this.runs.transition(body.runId, { to: 'running' }, socket.data.user) };
+      return { ok: true, data: await this.runs.transition(body.runId, { to: 'running' }, me) };
     } catch (e) {
       if (e instanceof HttpException && e.getStatus() === 409) {
         // A refused start gate answers a list of reasons; a refused state change (ConflictException) one sentence.

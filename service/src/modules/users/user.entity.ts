@@ -31,6 +31,10 @@ export class User {
   @Column({ name: 'unit_system', type: 'varchar', length: 16, default: 'imperial' })
   unitSystem: UnitSystem;
 
+  /** Raised whenever every session must end (sign-out everywhere, password or role change, deactivation). */
+  @Column({ name: 'session_version', type: 'integer', default: 1 })
+  sessionVersion: number;
+
   @CreateDateColumn({ name: 'created_at', type: 'timestamptz' })
   createdAt: Date;
 

@@ -1,4 +1,4 @@
-import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
+import { BadRequestException, ConflictException, Injectable, NotFoundException, UnauthorizedException } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
 import { In, IsNull, Repository } from 'typeorm';
 import { ROLE_LABELS, type CrewMemberSummary, type Role, type UnitSystem, type UserSummary } from '@crankjournal/shared-types';
@@ -28,6 +28,7 @@ export interface UserRecord {
 
 /** A person with the password and signing-PIN hashes, for the sign-in checks of the auth module. */
 export interface UserWithSecrets extends UserRecord {
+  sessionVersion: number;
   passwordHash: string | null;
   pinHash: string | null;
 }
@@ -48,9 +49,39 @@ export class UsersService {
     const hit = this.authCache.get(id);
     if (hit && Date.now() - hit.at < AUTH_CACHE_MS) return hit.user;
     const u = await this.users.findOne({ where: { id, active: true } });
-    const user = u ? { id: u.id, email: u.email, displayName: u.displayName, role: u.role } : null;
+    const user = u ? { id: u.id, email: u.email, displayName: u.displayName, role: u.role, sessionVersion: u.sessionVersion } : null;
     this.authCache.set(id, { user, at: Date.now() });
     return user;
+  }
+
+  /**
+   * The person behind a token or socket, now: active, and of the session version the token carries (a token
+   * without one counts as version 1, the first). From the same short cache as every request, cleared on any change.
+   */
+  async currentSessionUser(id: string, sessionVersion: number | undefined): Promise<AuthUser | null> {
+    const user = await this.findActiveAuthUser(id);
+    return user && user.sessionVersion === (sessionVersion ?? 1) ? user : null;
+  }
+
+  /**
+   * The person behind a live socket, checked again for each event like each HTTP request: still active, same session
+   * version, and the role as it is now. A socket whose session ended is disconnected and the event refused (401).
+   */
+  async socketUser(socket: { data: { user: AuthUser }; disconnect(close?: boolean): unknown }): Promise<AuthUser> {
+    const user = await this.currentSessionUser(socket.data.user.id, socket.data.user.sessionVersion);
+    if (!user) {
+      socket.disconnect(true);
+      throw new UnauthorizedException('This sign-in has ended. Please sign in again.');
+    }
+    socket.data.user = user;
+    return user;
+  }
+
+  /** Ends every session of the person: their access tokens stop working and their live connections close at once. */
+  async endSessions(id: string): Promise<void> {
+    await this.users.increment({ id }, 'sessionVersion', 1);
+    this.forget(id);
+    this.events.announce('sessionsEnded', id);
   }
 
   /**
@@ -170,9 +201,11 @@ export class UsersService {
     if (!inv || inv.usedAt || inv.expiresAt.getTime() < Date.now()) {
       throw new BadRequestException('This invitation link is not valid any more. Ask an administrator for a new one.');
     }
+    const person = await this.get(inv.userId);
+    if (!person.active) throw new BadRequestException('This invitation was withdrawn: the account is not active. Ask an administrator.');
     const res = await this.invitations.update({ id: inv.id, usedAt: IsNull() }, { usedAt: new Date() });
     if (!res.affected) throw new BadRequestException('This invitation link has already been used.');
-    return this.get(inv.userId);
+    return person;
   }
 
   async setPasswordHash(id: string, passwordHash: string) {
@@ -189,12 +222,14 @@ export class UsersService {
     if (id === actingUserId && (dto.active === false || (dto.role && dto.role !== u.role))) {
       throw new BadRequestException('You cannot deactivate yourself or change your own role; ask another administrator.');
     }
+    const roleChanged = dto.role !== undefined && dto.role !== u.role;
     if (dto.role !== undefined) u.role = dto.role as Role;
     if (dto.active !== undefined) u.active = dto.active;
     if (dto.displayName !== undefined) u.displayName = dto.displayName.trim();
     await this.users.save(u);
     this.forget(id);
     if (dto.active === false) this.events.announce('deactivated', id);
+    if (roleChanged || dto.active === false) await this.endSessions(id);
     const withHash = await this.entityWithSecrets(id);
     return this.toSummary(withHash!);
   }

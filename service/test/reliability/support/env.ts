@@ -1,7 +1,7 @@
 import { existsSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import pg from 'pg';
-import { applyTestEnv } from '../../utils/test-app.js';
+import { applyTestEnv, privateClusterPassword } from '../../utils/test-app.js';
 
 /** The service workspace (where dist/main.js is), found from the working directory Jest runs in. */
 export function serviceDir(): string {
@@ -38,13 +38,13 @@ export const databaseName = (url: string) => new URL(url).pathname.slice(1);
 
 /**
  * The cluster's superuser (creating and dropping databases): RELIABILITY_PG_ADMIN_URL, or user postgres
- * on the suite's host and port (the private clusters of ops/ trust local connections).
+ * on the suite's host and port with the password ops/ generated for the private clusters (.data/pg-superuser-password).
  */
 export function adminUrl(): string {
   if (process.env.RELIABILITY_PG_ADMIN_URL) return process.env.RELIABILITY_PG_ADMIN_URL;
   const u = new URL(suiteDatabaseUrl());
   u.username = 'postgres';
-  u.password = '';
+  u.password = privateClusterPassword('pg-superuser-password');
   u.pathname = '/postgres';
   return u.toString();
 }

@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import { useNavigate } from 'react-router-dom';
 import { Alert, Button, Card, PasswordInput, SegmentedControl, Stack, Text, TextInput, Title } from '@mantine/core';
 import { useForm } from '@mantine/form';
 import { notifications } from '@mantine/notifications';
@@ -6,10 +7,11 @@ import { MIN_PASSWORD_LENGTH, ROLE_LABELS, type UnitSystem } from '@crankjournal
 import { PageHeader } from '../../../components/PageHeader';
 import { errorText } from '../../../api/http';
 import { useSession } from '../../auth/useSession';
-import { changePassword, setSigningPin, updateMe } from '../../auth/api/auth.api';
+import { changePassword, setSigningPin, signOut, updateMe } from '../../auth/api/auth.api';
 
 export default function AccountPage() {
   const session = useSession()!;
+  const navigate = useNavigate();
   const [pwError, setPwError] = useState<string | null>(null);
   const [pinError, setPinError] = useState<string | null>(null);
   const pw = useForm({
@@ -61,7 +63,10 @@ export default function AccountPage() {
             try {
               await changePassword(v.currentPassword, v.newPassword);
               pw.reset();
-              notifications.show({ message: 'Password changed. Other devices will need to sign in again.' });
+              notifications.show({ message: 'Password changed. Every sign-in has ended, this one too: sign in with the new password.' });
+              // The server ended every session of this person (its tokens no longer work): back to the sign-in page.
+              await signOut();
+              void navigate('/sign-in', { replace: true });
             } catch (e) {
               setPwError(errorText(e));
             }

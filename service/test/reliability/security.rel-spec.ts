@@ -1,0 +1,378 @@
+/**
+ * Security findings, one test each: every one failed before its fix. Large uploads that must not stall the
+ * service, the secrets the scripts write, the start-up refusal of the published development JWT secret.
+ */
+import { execFile } from 'node:child_process';
+import { mkdtempSync, rmSync, statSync } from 'node:fs';
+import { request as httpRequest } from 'node:http';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { promisify } from 'node:util';
+import pg from 'pg';
+import { startTestApp } from '../utils/test-app.js';
+import { createEngine, createPreparingRun, engineBody } from '../factories/engine.factory.js';
+import { validateEnvironment } from '../../src/config/env.validation.js';
+import { sha256 } from '../../src/common/util/password.util.js';
+import { seedUsers } from '../../src/database/seeds/seed-users.js';
+import { createUser } from '../factories/users.factory.js';
+import { connected, socketAs } from '../utils/socket.js';
+import { authHeader } from '../utils/signed-in.js';
+import { accessToken, sessionsForEveryRole } from './support/sessions.js';
+import { adminUrl, repoRoot, suiteDatabaseUrl } from './support/env.js';
+
+// A small byte cap for this file's app, so a chunked body over it costs a few MB, not 200.
+const CAP_BYTES = 3 * 1024 * 1024;
+// Low sign-in limits too (every other test file runs with them out of the way).
+const LIMITS = { CSV_IMPORT_MAX_BYTES: String(CAP_BYTES), LOGIN_ADDRESS_LIMIT_PER_MINUTE: '8', LOGIN_ACCOUNT_LIMIT_PER_HOUR: '6' };
+const before = Object.fromEntries(Object.keys(LIMITS).map((k) => [k, process.env[k]]));
+Object.assign(process.env, LIMITS);
+const t = await startTestApp();
+for (const [k, v] of Object.entries(before))
+  if (v === undefined) delete process.env[k];
+  else process.env[k] = v;
+const s = await sessionsForEveryRole(t.db);
+const chief = s.chief_engineer.token;
+const operator = s.operator.token;
+const engine = await createEngine(t, chief, engineBody());
+const run = await createPreparingRun(t, operator, engine.id);
+
+afterAll(() => t.close());
+
+interface Sent {
+  status: number;
+  body: { message?: unknown };
+  ms: number;
+}
+
+/** POSTs a CSV body as chunked transfer (no Content-Length), written piece by piece with back-pressure. */
+function postChunked(path: string, pieces: () => Iterable<Buffer>): Promise<Sent> {
+  const started = performance.now();
+  return new Promise((resolve, reject) => {
+    const u = new URL(`${t.url}${path}`);
+    const req = httpRequest(
+      {
+        host: u.hostname,
+        port: u.port,
+        path: u.pathname,
+        method: 'POST',
+        headers: { 'content-type': 'text/csv', 'transfer-encoding': 'chunked', authorization: `Bearer ${operator}` },
+      },
+      (res) => {
+        let text = '';
+        res.setEncoding('utf8');
+        res.on('data', (d: string) => (text += d));
+        res.on('end', () => {
+          let body: Sent['body'] = {};
+          try {
+            body = JSON.parse(text) as Sent['body'];
+          } catch {
+            body = { message: text };
+          }
+          resolve({ status: res.statusCode ?? 0, body, ms: performance.now() - started });
+        });
+      },
+    );
+    req.on('error', reject);
+    const it = pieces()[Symbol.iterator]();
+    const write = () => {
+      for (;;) {
+        const next = it.next();
+        if (next.done) return req.end();
+        if (!req.write(next.value)) return req.once('drain', write);
+      }
+    };
+    write();
+  });
+}
+
+/** Health answers during `work`: the slowest answer, asked every 50 ms. */
+async function slowestHealthDuring(work: Promise<unknown>): Promise<number> {
+  let done = false;
+  let slowest = 0;
+  void work.finally(() => (done = true));
+  while (!done) {
+    const t0 = performance.now();
+    await fetch(`${t.url}/api/health`);
+    slowest = Math.max(slowest, performance.now() - t0);
+    await new Promise((r) => setTimeout(r, 50));
+  }
+  return slowest;
+}
+
+describe('CSV import cannot stall the service', () => {
+  it('a body of one 8 MB line is refused with a 400 naming the line, and health stays responsive', async () => {
+    const line = Buffer.alloc(64 * 1024, 'x');
+    const upload = postChunked(`/api/runs/${run.id}/imports`, function* () {
+      yield Buffer.from('taken_at,point,value\n');
+      for (let i = 0; i < 128; i++) yield line; // 8 MB, no newline
+    });
+    const slowest = await slowestHealthDuring(upload);
+    const res = await upload;
+    expect(res.status).toBe(400);
+    expect(String(res.body.message)).toMatch(/^Line 2 is longer than 64 kB/);
+    expect(res.ms).toBeLessThan(5000);
+    expect(slowest).toBeLessThan(500);
+  });
+
+  it('a chunked body (no Content-Length) over the byte cap is refused with 413', async () => {
+    const lines = Buffer.from(',,\n'.repeat(40_000)); // 120 kB of empty lines, skipped by the parser
+    const res = await postChunked(`/api/runs/${run.id}/imports`, function* () {
+      yield Buffer.from('taken_at,point,value\n');
+      for (let sent = 0; sent < CAP_BYTES + 2 * lines.length; sent += lines.length) yield lines;
+    });
+    expect(res.status).toBe(413);
+    expect(String(res.body.message)).toMatch(/larger than 3 MB/);
+  });
+
+  it('a good file split into many small chunks, lines cut anywhere, is imported whole', async () => {
+    const base = Date.now() - 3_600_000;
+    const text =
+      'taken_at,point,value\n' +
+      Array.from({ length: 300 }, (_, i) => `${new Date(base + i * 1000).toISOString()},THR,${100 + (i % 7)}`).join('\n');
+    const bytes = Buffer.from(text);
+    const res = await postChunked(`/api/runs/${run.id}/imports`, function* () {
+      for (let i = 0; i < bytes.length; i += 37) yield bytes.subarray(i, i + 37);
+    });
+    expect(res.status).toBe(201);
+    expect(res.body).toMatchObject({ stored: 300, rejectedCount: 0 });
+  });
+});
+
+describe('the published development JWT secret', () => {
+  it.each(['development', 'production'])('NODE_ENV=%s without JWT_SECRET refuses to start', (mode) => {
+    expect(() => validateEnvironment({ NODE_ENV: mode })).toThrow(/JWT_SECRET is not set/);
+    expect(() => validateEnvironment({ NODE_ENV: mode, JWT_SECRET: 'development-only-secret-change-me' })).toThrow(/JWT_SECRET/);
+  });
+
+  it('the test suite may use it, and any mode accepts a secret of its own', () => {
+    expect(validateEnvironment({ NODE_ENV: 'test' }).JWT_SECRET).toBe('development-only-secret-change-me');
+    expect(validateEnvironment({ NODE_ENV: 'development', JWT_SECRET: 'a-secret-of-our-own-1234' }).NODE_ENV).toBe('development');
+  });
+});
+
+const execFileAsync = promisify(execFile);
+const modeOf = (path: string) => (statSync(path).mode & 0o777).toString(8);
+
+describe('the private cluster asks for a password', () => {
+  const tryConnect = async (url: string) => {
+    const c = new pg.Client({ connectionString: url });
+    try {
+      await c.connect();
+      await c.end();
+      return 'connected';
+    } catch (e) {
+      return (e as Error).message;
+    }
+  };
+
+  it('the superuser without a password, or with a wrong one, is refused over TCP', async () => {
+    const u = new URL(adminUrl());
+    u.password = '';
+    expect(await tryConnect(u.toString())).toMatch(/password/);
+    u.password = 'not-the-password';
+    expect(await tryConnect(u.toString())).toMatch(/password authentication failed/);
+  });
+
+  it('the service role with the old fixed password is refused; with its generated one it connects', async () => {
+    const u = new URL(suiteDatabaseUrl());
+    const generated = u.password;
+    u.password = 'crankjournal';
+    expect(generated).not.toBe('crankjournal');
+    expect(await tryConnect(u.toString())).toMatch(/password authentication failed/);
+    u.password = generated;
+    expect(await tryConnect(u.toString())).toBe('connected');
+  });
+});
+
+describe('secrets on disk are readable by their owner only', () => {
+  it('a secret the scripts generate (the JWT secret) is 0600 and .data/ is not readable by others', async () => {
+    const { stdout } = await execFileAsync('bash', ['-c', 'source ops/lib.sh && secret_file jwt-secret'], { cwd: repoRoot() });
+    expect(stdout.trim()).toMatch(/^[0-9a-f]{32}$/);
+    expect(modeOf(join(repoRoot(), '.data', 'jwt-secret'))).toBe('600');
+    // 0711 only as root with a cluster inside (postgres must pass through to its data), else 0700.
+    expect(['700', '711']).toContain(modeOf(join(repoRoot(), '.data')));
+    for (const f of ['pg-superuser-password', 'pg-crankjournal-password']) expect(modeOf(join(repoRoot(), '.data', f))).toBe('600');
+  });
+
+  it('a backup is written 0600 in a 0700 directory', async () => {
+    const out = join(mkdtempSync(join(tmpdir(), 'crankjournal-sec-')), 'backups');
+    try {
+      const { stdout } = await execFileAsync(
+        'bash',
+        [join(repoRoot(), 'ops', 'backup.sh'), '--database-url', suiteDatabaseUrl(), '--out', out],
+        {
+          cwd: repoRoot(),
+          env: { ...process.env, NODE_OPTIONS: '' },
+        },
+      );
+      const file = stdout.trim().split('\n').pop()!.trim();
+      expect(file.endsWith('.dump')).toBe(true);
+      expect(modeOf(file)).toBe('600');
+      expect(modeOf(out)).toBe('700');
+    } finally {
+      rmSync(join(out, '..'), { recursive: true, force: true });
+    }
+  });
+});
+
+describe('sessions end everywhere at once', () => {
+  const admin = s.administrator.token;
+  const me = (token: string) => fetch(`${t.url}/api/auth/me`, { headers: authHeader(token) }).then((r) => r.status);
+  /** A connected socket of `token`, and a promise that resolves when the server disconnects it. */
+  async function openSocket(token: string) {
+    const socket = await connected(socketAs(t.url, token));
+    const closed = new Promise<string>((resolve) => socket.once('disconnect', (reason) => resolve(reason)));
+    return { socket, closed };
+  }
+  const within = <T>(p: Promise<T>, ms: number) =>
+    Promise.race([p, new Promise<string>((r) => setTimeout(() => r(`still open after ${ms} ms`), ms))]);
+
+  it('a lowered role ends the open socket and the access token at once; the socket cannot start a run on the way out', async () => {
+    const u = await createUser(t.db, { role: 'operator' });
+    const token = await accessToken(u.id, 'operator');
+    const { socket, closed } = await openSocket(token);
+    expect(await me(token)).toBe(200);
+    const res = await fetch(`${t.url}/api/users/${u.id}`, {
+      method: 'PATCH',
+      headers: { ...authHeader(admin), 'content-type': 'application/json' },
+      body: JSON.stringify({ role: 'observer' }),
+    });
+    expect(res.status).toBe(200);
+    expect(await within(closed, 2000)).toBe('io server disconnect');
+    expect(socket.connected).toBe(false);
+    expect(await me(token)).toBe(401);
+  });
+
+  it('sign-out everywhere ends every access token and socket of the person', async () => {
+    const u = await createUser(t.db, { role: 'chief_engineer' });
+    const a = await accessToken(u.id, 'chief_engineer');
+    const b = await accessToken(u.id, 'chief_engineer');
+    const { closed } = await openSocket(b);
+    const out = await fetch(`${t.url}/api/auth/logout-everywhere`, { method: 'POST', headers: authHeader(a) });
+    expect(out.status).toBe(204);
+    expect(await within(closed, 2000)).toBe('io server disconnect');
+    expect(await me(a)).toBe(401);
+    expect(await me(b)).toBe(401);
+    // A new sign-in works (and carries the new session version).
+    const login = await fetch(`${t.url}/api/auth/login`, {
+      method: 'POST',
+      headers: { 'content-type': 'application/json' },
+      body: JSON.stringify({ email: u.email, password: u.password }),
+    });
+    expect(login.status).toBe(200);
+    const { accessToken: fresh } = (await login.json()) as { accessToken: string };
+    expect(await me(fresh)).toBe(200);
+  });
+
+  it('a password change ends the access tokens and sockets of every device', async () => {
+    const u = await createUser(t.db, { role: 'operator' });
+    const token = await accessToken(u.id, 'operator');
+    const other = await accessToken(u.id, 'operator');
+    const { closed } = await openSocket(other);
+    const res = await fetch(`${t.url}/api/auth/password`, {
+      method: 'POST',
+      headers: { ...authHeader(token), 'content-type': 'application/json' },
+      body: JSON.stringify({ currentPassword: u.password, newPassword: 'a-new-password-of-mine-42' }),
+    });
+    expect(res.status).toBe(204);
+    expect(await within(closed, 2000)).toBe('io server disconnect');
+    expect(await me(other)).toBe(401);
+  });
+
+  it('a socket event is checked against the role as it is now, not as it was at connection', async () => {
+    const u = await createUser(t.db, { role: 'operator' });
+    const token = await accessToken(u.id, 'operator');
+    const { socket } = await openSocket(token);
+    // Lowered straight in the database (no announcement): only the per-event check can see it, once the cache is cleared.
+    await t.db.query(`UPDATE users SET role = 'observer' WHERE id = $1`, [u.id]);
+    await new Promise((r) => setTimeout(r, 5_100)); // the auth cache keeps an entry at most 5 s
+    const ack = (await socket.timeout(3000).emitWithAck('run:start', { runId: run.id })) as { ok: boolean; status?: number };
+    expect(ack).toMatchObject({ ok: false, status: 403 });
+    socket.disconnect();
+  });
+});
+
+describe('sign-in limits across e-mails and across addresses', () => {
+  const signIn = (email: string, from: string) =>
+    fetch(`${t.url}/api/auth/login`, {
+      method: 'POST',
+      headers: { 'content-type': 'application/json', 'x-forwarded-for': from },
+      body: JSON.stringify({ email, password: 'one-common-password' }),
+    });
+
+  it('one address trying one password on many accounts is stopped after 8 attempts with 429 and Retry-After', async () => {
+    const statuses: number[] = [];
+    let last: Response | null = null;
+    for (let i = 0; i < 9; i++) {
+      last = await signIn(`sprayed-${i}@example.test`, '10.9.8.7');
+      statuses.push(last.status);
+    }
+    expect(statuses.slice(0, 8)).toEqual(Array(8).fill(401));
+    expect(statuses[8]).toBe(429);
+    expect(Number(last!.headers.get('retry-after'))).toBeGreaterThan(0);
+    // Another address is not affected.
+    expect((await signIn('sprayed-0@example.test', '10.9.8.8')).status).toBe(401);
+  });
+
+  it('one account tried from many addresses is stopped after 6 attempts with 429 and Retry-After', async () => {
+    const u = await createUser(t.db, { role: 'observer' });
+    const statuses: number[] = [];
+    let last: Response | null = null;
+    for (let i = 0; i < 7; i++) {
+      last = await signIn(u.email, `10.1.2.${i + 1}`);
+      statuses.push(last.status);
+    }
+    expect(statuses.slice(0, 6)).toEqual(Array(6).fill(401));
+    expect(statuses[6]).toBe(429);
+    expect(Number(last!.headers.get('retry-after'))).toBeGreaterThan(0);
+  });
+});
+
+describe('demo accounts are seeded once', () => {
+  it('a deactivated demo account with a changed password stays so when the seed runs again', async () => {
+    const email = 'observer@alderforge.example';
+    await t.db.transaction((m) => seedUsers(m));
+    const [before] = (await t.db.query(`SELECT id FROM users WHERE email = $1`, [email])) as { id: string }[];
+    await t.db.query(`UPDATE users SET active = false, password_hash = 'changed-by-an-administrator' WHERE id = $1`, [before.id]);
+    try {
+      await t.db.transaction((m) => seedUsers(m));
+      const [after] = (await t.db.query(`SELECT active, password_hash FROM users WHERE id = $1`, [before.id])) as {
+        active: boolean;
+        password_hash: string;
+      }[];
+      expect(after).toEqual({ active: false, password_hash: 'changed-by-an-administrator' });
+    } finally {
+      await t.db.query(`DELETE FROM users WHERE id = $1`, [before.id]).catch(() => undefined);
+    }
+  });
+});
+
+describe('deactivated accounts', () => {
+  const post = (path: string, body: unknown) =>
+    fetch(`${t.url}${path}`, {
+      method: 'POST',
+      headers: { 'content-type': 'application/json', 'x-forwarded-for': '10.3.3.3' },
+      body: JSON.stringify(body),
+    });
+
+  it('sign-in of a deactivated account answers the same whether the password is right or not', async () => {
+    const u = await createUser(t.db, { role: 'operator', active: false });
+    const right = await post('/api/auth/login', { email: u.email, password: u.password });
+    const wrong = await post('/api/auth/login', { email: u.email, password: 'surely-not-the-password' });
+    expect(right.status).toBe(401);
+    expect(wrong.status).toBe(401);
+    expect(await right.json()).toEqual(await wrong.json());
+  });
+
+  it('an invitation of a person deactivated since cannot be accepted', async () => {
+    const u = await createUser(t.db, { role: 'operator', active: false });
+    const token = 'invitation-token-of-a-deactivated-person';
+    await t.db.query(`INSERT INTO invitations (user_id, token_hash, expires_at) VALUES ($1, $2, now() + interval '1 day')`, [
+      u.id,
+      sha256(token),
+    ]);
+    const res = await post('/api/auth/accept-invitation', { token, password: 'a-password-of-my-own-1' });
+    expect(res.status).toBe(400);
+    expect(((await res.json()) as { message: string }).message).toMatch(/not active/);
+  });
+});
