@@ -29,6 +29,7 @@ const AlarmFiguresPage = lazy(() => import('./features/alarms/pages/AlarmFigures
 const RunsPage = lazy(() => import('./features/runs/pages/Runs.page'));
 const NewRunPage = lazy(() => import('./features/runs/pages/NewRun.page'));
 const LoggersPage = lazy(() => import('./features/loggers/pages/Loggers.page'));
+const SiteSettingsPage = lazy(() => import('./features/site/pages/SiteSettings.page'));
 const LiveRunPage = lazy(() => import('./features/runs/live/LiveRun.page'));
 const RoundEntryPage = lazy(() => import('./features/runs/live/RoundEntry.page'));
 const RunChecklistsPage = lazy(() => import('./features/checklists/pages/RunChecklists.page'));
@@ -198,6 +199,14 @@ export const routes = [
         element: (
           <RequireRole roles={['chief_engineer', 'operator']}>
             <NewRunPage />
+          </RequireRole>
+        ),
+      },
+      {
+        path: 'admin/site',
+        element: (
+          <RequireRole roles={['administrator']}>
+            <SiteSettingsPage />
           </RequireRole>
         ),
       },

@@ -1,13 +1,11 @@
 import { Injectable } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
 import type { Repository } from 'typeorm';
+import type { SiteSettings as SiteSettingsAnswer } from '@crankjournal/shared-types';
 import { SiteSettings } from './site-settings.entity.js';
 
-export interface SiteSettingsView {
-  worksName: string;
-  timeZone: string;
-  wetSignature: boolean;
-}
+/** The settings as the API answers them (shared with the UI). */
+export type SiteSettingsView = SiteSettingsAnswer;
 
 /** The works' settings, read by every printed record. */
 @Injectable()

@@ -54,6 +54,14 @@ NAVIGATION.find((g) => g.label === 'Administration')?.items.push({
   roles: ['administrator'],
 });
 
+// The works' own settings (name, time zone of printed records) sit there too.
+NAVIGATION.find((g) => g.label === 'Administration')?.items.push({
+  label: 'Works settings',
+  path: '/admin/site',
+  icon: IconBuildingFactory2,
+  roles: ['administrator'],
+});
+
 // Checklist templates and crew qualifications sit with the engines they belong to.
 NAVIGATION.find((g) => g.label === 'Engines')?.items.push(
   { label: 'Checklists', path: '/checklists', icon: IconChecklist, roles: ROLES },
@@ -119,6 +127,7 @@ const SHORT: Record<string, string> = {
   '/mill/lots': 'Lots',
   '/admin/users': 'People',
   '/admin/loggers': 'Loggers',
+  '/admin/site': 'Works',
   '/account': 'You',
   '/calculators/indicated-power': 'Power',
   '/calculators/rolling-pass': 'Pass',

@@ -1,4 +1,5 @@
 import { IsBoolean, IsOptional, IsString, Length, Validate, ValidatorConstraint, type ValidatorConstraintInterface } from 'class-validator';
+import type { UpdateSiteSettingsRequest } from '@crankjournal/shared-types';
 import { isKnownTimeZone } from '../../../common/pdf/zoned-time.js';
 
 @ValidatorConstraint({ name: 'timeZone' })
@@ -11,7 +12,7 @@ class KnownTimeZone implements ValidatorConstraintInterface {
   }
 }
 
-export class UpdateSiteSettingsDto {
+export class UpdateSiteSettingsDto implements UpdateSiteSettingsRequest {
   @IsOptional() @IsString() @Length(1, 120) worksName?: string;
   @IsOptional() @IsString() @Validate(KnownTimeZone) timeZone?: string;
   @IsOptional() @IsBoolean() wetSignature?: boolean;
