@@ -5,6 +5,7 @@ import { Public } from '../../common/decorators/public.decorator.js';
 import { AnyRole } from '../../common/decorators/roles.decorator.js';
 import { CurrentUser, type AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { UsersService } from '../users/users.service.js';
+import { ApiAnswer, ApiNoContent } from '../../common/openapi/api-answer.decorator.js';
 import { AuthService } from './auth.service.js';
 import { LoginDto } from './dto/login.dto.js';
 import { RefreshDto } from './dto/refresh.dto.js';
@@ -22,6 +23,7 @@ export class AuthController {
     private readonly users: UsersService,
   ) {}
 
+  @ApiAnswer('TokenPair')
   @Public()
   @UseGuards(LoginThrottlerGuard)
   @Post('login')
@@ -30,6 +32,7 @@ export class AuthController {
     return this.auth.login(dto.email, dto.password);
   }
 
+  @ApiAnswer('TokenPair')
   @Public()
   @Post('refresh')
   @HttpCode(200)
@@ -37,6 +40,7 @@ export class AuthController {
     return this.auth.refresh(dto.refreshToken);
   }
 
+  @ApiAnswer('TokenPair')
   @Public()
   @UseGuards(LoginThrottlerGuard)
   @Post('accept-invitation')
@@ -45,6 +49,7 @@ export class AuthController {
     return this.auth.acceptInvitation(dto.token, dto.password);
   }
 
+  @ApiNoContent()
   @ApiBearerAuth()
   @AnyRole()
   @Post('logout')
@@ -53,6 +58,7 @@ export class AuthController {
     await this.auth.logout(dto.refreshToken, me.id);
   }
 
+  @ApiAnswer('SessionUser')
   @ApiBearerAuth()
   @AnyRole()
   @Get('me')
@@ -60,6 +66,7 @@ export class AuthController {
     return this.auth.sessionUser(await this.users.get(me.id));
   }
 
+  @ApiAnswer('SessionUser')
   @ApiBearerAuth()
   @AnyRole()
   @Patch('me')
@@ -67,6 +74,7 @@ export class AuthController {
     return this.auth.sessionUser(await this.users.updatePreferences(me.id, dto));
   }
 
+  @ApiNoContent()
   @ApiBearerAuth()
   @AnyRole()
   @Post('password')
@@ -75,6 +83,7 @@ export class AuthController {
     await this.auth.changePassword(me.id, dto.currentPassword, dto.newPassword);
   }
 
+  @ApiNoContent()
   @ApiBearerAuth()
   @AnyRole()
   @Post('signing-pin')

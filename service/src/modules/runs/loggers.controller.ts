@@ -5,6 +5,7 @@ import { Roles } from '../../common/decorators/roles.decorator.js';
 import { Public } from '../../common/decorators/public.decorator.js';
 import { CurrentUser, type AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { IdParamDto } from '../../common/dto/id-param.dto.js';
+import { ApiAnswer } from '../../common/openapi/api-answer.decorator.js';
 import { LoggersService } from './loggers.service.js';
 import { LoggerKeyGuard } from './logger-key.guard.js';
 import { IngestService } from './ingest.service.js';
@@ -22,6 +23,7 @@ export class LoggersController {
     private readonly runs: RunsService,
   ) {}
 
+  @ApiAnswer('LoggerDto', { array: true })
   @Get('loggers')
   @ApiBearerAuth()
   @Roles('administrator', 'chief_engineer')
@@ -29,6 +31,7 @@ export class LoggersController {
     return this.loggers.list();
   }
 
+  @ApiAnswer('IssuedLoggerKey')
   @Post('loggers')
   @ApiBearerAuth()
   @Roles('administrator')
@@ -36,6 +39,7 @@ export class LoggersController {
     return this.loggers.issue(dto.engineId, dto.name, me.id);
   }
 
+  @ApiAnswer('LoggerDto')
   @Post('loggers/:id/revoke')
   @HttpCode(200)
   @ApiBearerAuth()
@@ -45,6 +49,7 @@ export class LoggersController {
   }
 
   /** Batch push from a data logger, authenticated by its key (header x-logger-key), not a user token. */
+  @ApiAnswer('IngestResult')
   @Post('logger/readings')
   @Public()
   @UseGuards(LoggerKeyGuard)

@@ -20,6 +20,7 @@ import { AnyRole, Roles } from '../../common/decorators/roles.decorator.js';
 import { CurrentUser, type AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { IdParamDto } from '../../common/dto/id-param.dto.js';
 import { AlarmsService } from '../alarms/alarms.service.js';
+import { ApiAnswer, ApiFileAnswer } from '../../common/openapi/api-answer.decorator.js';
 import { RunsService } from './runs.service.js';
 import { ReadingsService } from './readings.service.js';
 import { IngestService } from './ingest.service.js';
@@ -61,24 +62,28 @@ export class RunsController {
     private readonly alarms: AlarmsService,
   ) {}
 
+  @ApiAnswer('RunSummary', { array: true })
   @Get()
   @AnyRole()
   list(@Query() q: RunQueryDto): Promise<RunSummary[]> {
     return this.runs.list(q);
   }
 
+  @ApiAnswer('RunDetail')
   @Post()
   @Roles('chief_engineer', 'operator')
   create(@Body() dto: CreateRunDto, @CurrentUser() me: AuthUser): Promise<RunDetail> {
     return this.runs.create(dto, me);
   }
 
+  @ApiAnswer('RunDetail')
   @Get(':id')
   @AnyRole()
   detail(@Param() p: IdParamDto): Promise<RunDetail> {
     return this.runs.detail(p.id);
   }
 
+  @ApiAnswer('RunDetail')
   @Patch(':id')
   @Roles('chief_engineer', 'operator')
   update(@Param() p: IdParamDto, @Body() dto: UpdateRunDto, @CurrentUser() me: AuthUser): Promise<RunDetail> {
@@ -86,6 +91,7 @@ export class RunsController {
   }
 
   /** Moves the run on; to running only through the start gate (409 with reasons when refused). */
+  @ApiAnswer('RunDetail')
   @Post(':id/transitions')
   @HttpCode(200)
   @Roles('chief_engineer', 'operator')
@@ -93,24 +99,28 @@ export class RunsController {
     return this.runs.transition(p.id, dto, me);
   }
 
+  @ApiAnswer('StartGateVerdict')
   @Get(':id/start-gate')
   @AnyRole()
   startGate(@Param() p: IdParamDto, @CurrentUser() me: AuthUser): Promise<StartGateVerdict> {
     return this.runs.startGate(p.id, me);
   }
 
+  @ApiAnswer('ReadingDto', { array: true })
   @Get(':id/readings')
   @AnyRole()
   readingsList(@Param() p: IdParamDto, @Query() q: ReadingsQueryDto): Promise<ReadingDto[]> {
     return this.readings.list(p.id, q);
   }
 
+  @ApiAnswer('BoardPoint', { array: true })
   @Get(':id/board')
   @AnyRole()
   board(@Param() p: IdParamDto): Promise<BoardPoint[]> {
     return this.readings.board(p.id);
   }
 
+  @ApiAnswer('AlarmDto', { array: true })
   @Get(':id/alarms')
   @AnyRole()
   async runAlarms(@Param() p: IdParamDto): Promise<AlarmDto[]> {
@@ -119,6 +129,7 @@ export class RunsController {
   }
 
   /** A round of readings from the tablet. */
+  @ApiAnswer('IngestResult')
   @Post(':id/rounds')
   @Roles('chief_engineer', 'operator')
   async round(@Param() p: IdParamDto, @Body() dto: RoundDto, @CurrentUser() me: AuthUser): Promise<IngestResult> {
@@ -127,6 +138,7 @@ export class RunsController {
   }
 
   /** A logger's CSV file, sent as the raw body (text/csv), streamed. */
+  @ApiAnswer('IngestResult')
   @Post(':id/imports')
   @ApiConsumes('text/csv')
   @Roles('chief_engineer', 'operator')
@@ -147,6 +159,7 @@ export class RunsController {
     return result;
   }
 
+  @ApiFileAnswer('text/csv', "The run's readings as CSV")
   @Get(':id/readings.csv')
   @AnyRole()
   async csvExport(@Param() p: IdParamDto, @Res({ passthrough: true }) res: Response): Promise<StreamableFile> {
@@ -155,6 +168,7 @@ export class RunsController {
     return new StreamableFile(stream, { type: 'text/csv; charset=utf-8' });
   }
 
+  @ApiFileAnswer('application/pdf', 'The run log as a PDF')
   @Get(':id/log-sheet.pdf')
   @AnyRole()
   async pdf(@Param() p: IdParamDto, @Res({ passthrough: true }) res: Response): Promise<StreamableFile> {
