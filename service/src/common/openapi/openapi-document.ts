@@ -34,10 +34,11 @@ export function undocumentedOperations(doc: OpenAPIObject): string[] {
 
 function addError(op: Operation, status: ErrorStatus): void {
   op.responses ??= {};
-  op.responses[String(status)] ??= {
-    description: ERROR_DESCRIPTIONS[status],
-    content: { 'application/json': { schema: schemaRef('ApiError') } },
-  };
+  const existing = op.responses[String(status)];
+  const content = { 'application/json': { schema: schemaRef('ApiError') } };
+  if (!existing) op.responses[String(status)] = { description: ERROR_DESCRIPTIONS[status], content };
+  // A route's own description of the error (ApiBadRequestResponse) keeps its words and gets the error shape.
+  else if (!('$ref' in existing) && !existing.content) existing.content = content;
 }
 
 /**

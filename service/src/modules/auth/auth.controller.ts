@@ -1,5 +1,5 @@
 import { Body, Controller, Get, HttpCode, Patch, Post, UseGuards } from '@nestjs/common';
-import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
+import { ApiBearerAuth, ApiTags, ApiBody } from '@nestjs/swagger';
 import type { SessionUser, TokenPair } from '@crankjournal/shared-types';
 import { Public } from '../../common/decorators/public.decorator.js';
 import { AnyRole } from '../../common/decorators/roles.decorator.js';
@@ -26,6 +26,15 @@ export class AuthController {
   @ApiAnswer('TokenPair')
   @Public()
   @UseGuards(LoginThrottlerGuard)
+  @ApiBody({
+    type: LoginDto,
+    examples: {
+      demoOperator: {
+        summary: 'The demo operator (demo data only)',
+        value: { email: 'operator@alderforge.example', password: 'crankjournal-demo' },
+      },
+    },
+  })
   @Post('login')
   @HttpCode(200)
   login(@Body() dto: LoginDto): Promise<TokenPair> {

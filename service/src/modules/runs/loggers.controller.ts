@@ -1,5 +1,5 @@
 import { Body, Controller, Get, HttpCode, Param, Post, Req, UseGuards, ConflictException, BadRequestException } from '@nestjs/common';
-import { ApiBearerAuth, ApiHeader, ApiTags } from '@nestjs/swagger';
+import { ApiBearerAuth, ApiHeader, ApiTags, ApiBody } from '@nestjs/swagger';
 import type { IngestResult, IssuedLoggerKey, LoggerDto } from '@crankjournal/shared-types';
 import { Roles } from '../../common/decorators/roles.decorator.js';
 import { Public } from '../../common/decorators/public.decorator.js';
@@ -53,6 +53,20 @@ export class LoggersController {
   @Post('logger/readings')
   @Public()
   @UseGuards(LoggerKeyGuard)
+  @ApiBody({
+    type: LoggerBatchDto,
+    examples: {
+      twoBearings: {
+        summary: "Two bearing temperatures into the engine's current run",
+        value: {
+          readings: [
+            { clientId: '6f1c2a54-0b7e-4d55-9a39-2f0f5d1e7a01', pointCode: 'MB1-T', value: 118.5, takenAt: '2026-06-13T10:15:00Z' },
+            { clientId: '6f1c2a54-0b7e-4d55-9a39-2f0f5d1e7a02', pointCode: 'MB2-T', value: 121, takenAt: '2026-06-13T10:15:00Z' },
+          ],
+        },
+      },
+    },
+  })
   @ApiHeader({ name: 'x-logger-key', required: true })
   async push(@Body() dto: LoggerBatchDto, @Req() req: { logger: DataLogger }): Promise<IngestResult> {
     const logger = req.logger;

@@ -13,7 +13,7 @@ import {
   StreamableFile,
   UnsupportedMediaTypeException,
 } from '@nestjs/common';
-import { ApiBearerAuth, ApiConsumes, ApiTags } from '@nestjs/swagger';
+import { ApiBearerAuth, ApiConsumes, ApiTags, ApiBody } from '@nestjs/swagger';
 import type { Request, Response } from 'express';
 import type { AlarmDto, BoardPoint, IngestResult, ReadingDto, RunDetail, RunSummary, StartGateVerdict } from '@crankjournal/shared-types';
 import { AnyRole, Roles } from '../../common/decorators/roles.decorator.js';
@@ -130,6 +130,22 @@ export class RunsController {
 
   /** A round of readings from the tablet. */
   @ApiAnswer('IngestResult')
+  @ApiBody({
+    type: RoundDto,
+    examples: {
+      round: {
+        summary: 'A round from the tablet: speed and a bearing temperature',
+        value: {
+          takenAt: '2026-06-13T10:30:00Z',
+          note: 'All steady',
+          readings: [
+            { clientId: '0b5e7d2c-3f0a-4e8e-8f7e-3d9b1c2a4f10', pointCode: 'SPD', value: 64, takenAt: '2026-06-13T10:30:00Z' },
+            { clientId: '0b5e7d2c-3f0a-4e8e-8f7e-3d9b1c2a4f11', pointCode: 'MB1-T', value: 119, takenAt: '2026-06-13T10:30:00Z' },
+          ],
+        },
+      },
+    },
+  })
   @Post(':id/rounds')
   @Roles('chief_engineer', 'operator')
   async round(@Param() p: IdParamDto, @Body() dto: RoundDto, @CurrentUser() me: AuthUser): Promise<IngestResult> {
