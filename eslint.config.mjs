@@ -64,6 +64,7 @@ export default tseslint.config(
     settings: {
       'import-x/resolver-next': [
         createTypeScriptImportResolver({
+          noWarnOnMultipleProjects: true,
           project: ['service/tsconfig.json', 'ui/tsconfig.json', 'ui/e2e/tsconfig.json', 'shared-types/tsconfig.json'],
         }),
       ],

@@ -43,79 +43,81 @@ async function signOpenChecklist(page: Page) {
   await expect(page.getByTestId('signature')).toContainText('Signed by Tobias Wrenfield');
 }
 
-test('an operator completes the pre-lube and pre-start checklists on the tablet; the run is cleared, the countdown shows, the run starts', async ({
-  page,
-  request,
-}) => {
-  test.setTimeout(120_000);
-  const op = await token(request, 'operator@alderforge.example');
-  const runs = (await (await request.get('/api/runs', { headers: auth(op) })).json()) as RunSummary[];
-  const run = runs.find((r) => r.title === 'Winter open day');
-  expect(run?.state).toBe('preparing');
+test(
+  'an operator completes the pre-lube and pre-start checklists on the tablet; ' + 'the run is cleared, the countdown shows, the run starts',
+  async ({ page, request }) => {
+    test.setTimeout(120_000);
+    const op = await token(request, 'operator@alderforge.example');
+    const runs = (await (await request.get('/api/runs', { headers: auth(op) })).json()) as RunSummary[];
+    const run = runs.find((r) => r.title === 'Winter open day');
+    expect(run?.state).toBe('preparing');
 
-  await signIn(page, 'operator@alderforge.example');
-  await page.goto(`/runs/${run!.id}/checklists`);
-  await expect(page.getByRole('heading', { name: 'Checklists — Winter open day' })).toBeVisible();
-  await expect(page.getByTestId('gate-reasons')).toContainText('Pre-lube: no checklist has been started');
+    await signIn(page, 'operator@alderforge.example');
+    await page.goto(`/runs/${run!.id}/checklists`);
+    await expect(page.getByRole('heading', { name: 'Checklists — Winter open day' })).toBeVisible();
+    await expect(page.getByTestId('gate-reasons')).toContainText('Pre-lube: no checklist has been started');
 
-  // Pre-lube, in any order; a low line pressure first shows up as outside its range and blocks signing.
-  await page.getByTestId('template-Pre-lube').getByRole('button', { name: 'Start checklist' }).click();
-  await expect(page.getByRole('heading', { name: 'Pre-lube', exact: true })).toBeVisible();
-  await expect(page.getByTestId('item-line-pressure')).toContainText('Acceptance range: 15 to 30 psig');
-  await expect(page.getByTestId('item-line-pressure')).toContainText('Caution — Pressure');
-  await doItem(page, 'line-pressure', { value: 12 });
-  await expect(page.getByTestId('item-line-pressure')).toContainText('signing is blocked');
-  await doItem(page, 'pump-stopped', { tick: true });
-  await doItem(page, 'tank-filled', { tick: true });
-  await doItem(page, 'tank-temp', { value: 68 });
-  await doItem(page, 'strainer', { tick: true });
-  await doItem(page, 'valves-open', { tick: true });
-  await doItem(page, 'pump-minutes', { value: 10 });
-  await doItem(page, 'oil-at-ends', { choice: 'Both bearings' });
-  await doItem(page, 'sight-feeds', { tick: true });
-  await doItem(page, 'crankpin-drops', { value: 8 });
-  await doItem(page, 'grease-cups', { tick: true });
-  await doItem(page, 'cyl-lubricator', { tick: true });
-  await expect(page.getByRole('navigation', { name: 'Checklist actions' })).toContainText('outside the acceptance range');
-  await expect(page.getByRole('navigation', { name: 'Checklist actions' }).getByRole('button', { name: 'Sign checklist' })).toBeDisabled();
-  await doItem(page, 'line-pressure', { value: 22 });
-  await expect(page.getByTestId('item-line-pressure')).not.toContainText('signing is blocked');
-  await signOpenChecklist(page);
+    // Pre-lube, in any order; a low line pressure first shows up as outside its range and blocks signing.
+    await page.getByTestId('template-Pre-lube').getByRole('button', { name: 'Start checklist' }).click();
+    await expect(page.getByRole('heading', { name: 'Pre-lube', exact: true })).toBeVisible();
+    await expect(page.getByTestId('item-line-pressure')).toContainText('Acceptance range: 15 to 30 psig');
+    await expect(page.getByTestId('item-line-pressure')).toContainText('Caution — Pressure');
+    await doItem(page, 'line-pressure', { value: 12 });
+    await expect(page.getByTestId('item-line-pressure')).toContainText('signing is blocked');
+    await doItem(page, 'pump-stopped', { tick: true });
+    await doItem(page, 'tank-filled', { tick: true });
+    await doItem(page, 'tank-temp', { value: 68 });
+    await doItem(page, 'strainer', { tick: true });
+    await doItem(page, 'valves-open', { tick: true });
+    await doItem(page, 'pump-minutes', { value: 10 });
+    await doItem(page, 'oil-at-ends', { choice: 'Both bearings' });
+    await doItem(page, 'sight-feeds', { tick: true });
+    await doItem(page, 'crankpin-drops', { value: 8 });
+    await doItem(page, 'grease-cups', { tick: true });
+    await doItem(page, 'cyl-lubricator', { tick: true });
+    await expect(page.getByRole('navigation', { name: 'Checklist actions' })).toContainText('outside the acceptance range');
+    await expect(
+      page.getByRole('navigation', { name: 'Checklist actions' }).getByRole('button', { name: 'Sign checklist' }),
+    ).toBeDisabled();
+    await doItem(page, 'line-pressure', { value: 22 });
+    await expect(page.getByTestId('item-line-pressure')).not.toContainText('signing is blocked');
+    await signOpenChecklist(page);
 
-  // Pre-start inspection.
-  await page.getByRole('link', { name: 'All checklists of this run' }).click();
-  await expect(page.getByTestId('template-Pre-lube')).toContainText('Signed by Tobias Wrenfield');
-  await page.getByTestId('template-Pre-start inspection').getByRole('button', { name: 'Start checklist' }).click();
-  await expect(page.getByRole('heading', { name: 'Pre-start inspection' })).toBeVisible();
-  await doItem(page, 'guards', { tick: true });
-  await doItem(page, 'barring', { choice: 'Disengaged and locked out of mesh' });
-  await doItem(page, 'bed-clear', { tick: true });
-  await doItem(page, 'crew-told', { tick: true });
-  await doItem(page, 'drain-cocks', { choice: 'All open' });
-  await doItem(page, 'line-drains', { tick: true });
-  await doItem(page, 'boiler-pressure', { value: 135 });
-  await doItem(page, 'throttle', { tick: true });
-  await doItem(page, 'governor', { tick: true });
-  await doItem(page, 'condenser', { tick: true });
-  await doItem(page, 'mill-clutch', { tick: true });
-  await signOpenChecklist(page);
+    // Pre-start inspection.
+    await page.getByRole('link', { name: 'All checklists of this run' }).click();
+    await expect(page.getByTestId('template-Pre-lube')).toContainText('Signed by Tobias Wrenfield');
+    await page.getByTestId('template-Pre-start inspection').getByRole('button', { name: 'Start checklist' }).click();
+    await expect(page.getByRole('heading', { name: 'Pre-start inspection' })).toBeVisible();
+    await doItem(page, 'guards', { tick: true });
+    await doItem(page, 'barring', { choice: 'Disengaged and locked out of mesh' });
+    await doItem(page, 'bed-clear', { tick: true });
+    await doItem(page, 'crew-told', { tick: true });
+    await doItem(page, 'drain-cocks', { choice: 'All open' });
+    await doItem(page, 'line-drains', { tick: true });
+    await doItem(page, 'boiler-pressure', { value: 135 });
+    await doItem(page, 'throttle', { tick: true });
+    await doItem(page, 'governor', { tick: true });
+    await doItem(page, 'condenser', { tick: true });
+    await doItem(page, 'mill-clutch', { tick: true });
+    await signOpenChecklist(page);
 
-  // Signing the last pre-start checklist clears the run; the pre-lube window counts down.
-  await page.getByRole('link', { name: 'All checklists of this run' }).click();
-  await expect(page.getByText('Cleared to start', { exact: true })).toBeVisible();
-  const countdown = page.getByTestId('pre-lube-countdown');
-  await expect(countdown).toBeVisible();
-  await expect(countdown).toContainText('Pre-lube fresh for');
-  const first = await page.getByTestId('pre-lube-remaining').textContent();
-  expect(first).toMatch(/^(29|30|2\d):\d\d$/);
-  await expect(page.getByTestId('pre-lube-remaining')).not.toHaveText(first!, { timeout: 5_000 });
-  await expect(page.getByTestId('gate-clear')).toBeVisible();
+    // Signing the last pre-start checklist clears the run; the pre-lube window counts down.
+    await page.getByRole('link', { name: 'All checklists of this run' }).click();
+    await expect(page.getByText('Cleared to start', { exact: true })).toBeVisible();
+    const countdown = page.getByTestId('pre-lube-countdown');
+    await expect(countdown).toBeVisible();
+    await expect(countdown).toContainText('Pre-lube fresh for');
+    const first = await page.getByTestId('pre-lube-remaining').textContent();
+    expect(first).toMatch(/^(29|30|2\d):\d\d$/);
+    await expect(page.getByTestId('pre-lube-remaining')).not.toHaveText(first!, { timeout: 5_000 });
+    await expect(page.getByTestId('gate-clear')).toBeVisible();
 
-  await page.getByTestId('gate-panel').getByRole('button', { name: 'Start engine' }).click();
-  await page.getByRole('dialog').getByRole('button', { name: 'Start engine' }).click();
-  await expect(page).toHaveURL(new RegExp(`/runs/${run!.id}$`));
-  await expect(page.getByTestId('run-header')).toContainText('Running');
-});
+    await page.getByTestId('gate-panel').getByRole('button', { name: 'Start engine' }).click();
+    await page.getByRole('dialog').getByRole('button', { name: 'Start engine' }).click();
+    await expect(page).toHaveURL(new RegExp(`/runs/${run!.id}$`));
+    await expect(page.getByTestId('run-header')).toContainText('Running');
+  },
+);
 
 test('a second attempt with a stale pre-lube is refused, with the reason shown', async ({ page, request }) => {
   // The window is set to 1 minute on an engine of the test's own (the demo engine keeps its 30 minutes).

@@ -45,81 +45,81 @@ async function clickImage(surface: Locator, p: TracePoint) {
   await surface.click({ position: { x: p.x * scale, y: p.y * scale } });
 }
 
-test('an operator uploads a card photo, calibrates and traces it, sees MEP and horsepower; a second viewer sees the set’s total arrive live', async ({
-  page,
-  browser,
-  request,
-}) => {
-  test.setTimeout(120_000);
-  const operatorToken = await token(request, 'operator@alderforge.example');
-  const run = await openRun(request, operatorToken);
+test(
+  'an operator uploads a card photo, calibrates and traces it, sees MEP and horsepower; ' +
+    'a second viewer sees the set’s total arrive live',
+  async ({ page, browser, request }) => {
+    test.setTimeout(120_000);
+    const operatorToken = await token(request, 'operator@alderforge.example');
+    const run = await openRun(request, operatorToken);
 
-  // A second viewer (an observer, read-only) watches the run's cards in another browser context.
-  const watcherContext = await browser.newContext();
-  const watcher = await watcherContext.newPage();
-  await signIn(watcher, 'observer@alderforge.example');
-  await watcher.goto(`/runs/${run.id}/cards`);
-  await expect(watcher.getByTestId('card-sets-panel')).toBeVisible();
-  await expect(watcher.getByRole('button', { name: 'Take a card set' })).toHaveCount(0);
-  const setsBefore = await watcher.getByTestId('card-set').count();
+    // A second viewer (an observer, read-only) watches the run's cards in another browser context.
+    const watcherContext = await browser.newContext();
+    const watcher = await watcherContext.newPage();
+    await signIn(watcher, 'observer@alderforge.example');
+    await watcher.goto(`/runs/${run.id}/cards`);
+    await expect(watcher.getByTestId('card-sets-panel')).toBeVisible();
+    await expect(watcher.getByRole('button', { name: 'Take a card set' })).toHaveCount(0);
+    const setsBefore = await watcher.getByTestId('card-set').count();
 
-  await signIn(page, 'operator@alderforge.example');
-  await page.goto(`/runs/${run.id}/cards`);
-  await page.getByRole('button', { name: 'Take a card set' }).click();
-  await page.getByLabel('Speed, rpm').fill('75');
+    await signIn(page, 'operator@alderforge.example');
+    await page.goto(`/runs/${run.id}/cards`);
+    await page.getByRole('button', { name: 'Take a card set' }).click();
+    await page.getByLabel('Speed, rpm').fill('75');
 
-  const editor = page.getByTestId('card-editor-HP-head');
-  await editor.getByText('Image', { exact: true }).click();
-  await editor.getByLabel('Spring, psi per inch').fill(String(sample.springPsiPerIn));
-  await editor.getByLabel('Card length, in').fill(String(sample.lengthIn));
-  await editor.locator('input[type=file]').setInputFiles(`${CARDS_DIR}${CARD}.png`);
+    const editor = page.getByTestId('card-editor-HP-head');
+    await editor.getByText('Image', { exact: true }).click();
+    await editor.getByLabel('Spring, psi per inch').fill(String(sample.springPsiPerIn));
+    await editor.getByLabel('Card length, in').fill(String(sample.lengthIn));
+    await editor.locator('input[type=file]').setInputFiles(`${CARDS_DIR}${CARD}.png`);
 
-  const surface = editor.getByTestId('card-tracer-surface');
-  await expect(surface).toBeVisible();
-  await expect(editor.getByTestId('tracer-step')).toHaveText('Atmospheric line 0/2');
+    const surface = editor.getByTestId('card-tracer-surface');
+    await expect(surface).toBeVisible();
+    await expect(editor.getByTestId('tracer-step')).toHaveText('Atmospheric line 0/2');
 
-  // Calibrate: two points on the atmospheric line, then the admission and release ends of the diagram.
-  const t = sample.trace;
-  await clickImage(surface, t.atmosphericLine[0]);
-  await clickImage(surface, t.atmosphericLine[1]);
-  await expect(editor.getByTestId('tracer-atm-mark')).toHaveCount(2);
-  await clickImage(surface, t.admissionEndPx);
-  await clickImage(surface, t.releaseEndPx);
-  await expect(editor.getByTestId('tracer-step')).toHaveText('Outline: 0 points');
+    // Calibrate: two points on the atmospheric line, then the admission and release ends of the diagram.
+    const t = sample.trace;
+    await clickImage(surface, t.atmosphericLine[0]);
+    await clickImage(surface, t.atmosphericLine[1]);
+    await expect(editor.getByTestId('tracer-atm-mark')).toHaveCount(2);
+    await clickImage(surface, t.admissionEndPx);
+    await clickImage(surface, t.releaseEndPx);
+    await expect(editor.getByTestId('tracer-step')).toHaveText('Outline: 0 points');
 
-  // Trace the outline; one stray click is taken back with Undo.
-  const outline = spaced(t.pointsPx, 30);
-  for (const p of outline) await clickImage(surface, p);
-  await clickImage(surface, { x: sample.widthPx * 0.05, y: sample.heightPx * 0.05 });
-  await expect(editor.getByTestId('tracer-point')).toHaveCount(outline.length + 1);
-  await editor.getByRole('button', { name: 'Undo' }).click();
-  await expect(editor.getByTestId('tracer-point')).toHaveCount(outline.length);
+    // Trace the outline; one stray click is taken back with Undo.
+    const outline = spaced(t.pointsPx, 30);
+    for (const p of outline) await clickImage(surface, p);
+    await clickImage(surface, { x: sample.widthPx * 0.05, y: sample.heightPx * 0.05 });
+    await expect(editor.getByTestId('tracer-point')).toHaveCount(outline.length + 1);
+    await editor.getByRole('button', { name: 'Undo' }).click();
+    await expect(editor.getByTestId('tracer-point')).toHaveCount(outline.length);
 
-  // The mean pressure shown is the server's calibration of these very clicks.
-  const expected = await request.post('/api/calculations/indicator-trace', {
-    headers: { authorization: `Bearer ${operatorToken}` },
-    data: { trace: { ...t, pointsPx: outline }, springPsiPerIn: sample.springPsiPerIn, lengthIn: sample.lengthIn },
-  });
-  const expectedMep = ((await expected.json()) as { meanEffectivePressurePsi: number }).meanEffectivePressurePsi;
-  const mepText = editor.getByTestId('card-mep');
-  await expect(mepText).toHaveText(/MEP \d+(\.\d)? psi/);
-  const shownMep = Number((await mepText.textContent())!.replace(/[^\d.]/g, ''));
-  expect(Math.abs(shownMep - expectedMep) / expectedMep).toBeLessThan(0.01);
-  await expect(editor.getByTestId('card-ihp')).toHaveText(/\d+ ihp/);
-  const totalText = page.getByTestId('preview-total-ihp');
-  await expect(totalText).toHaveText(/[1-9][\d,]* ihp/);
+    // The mean pressure shown is the server's calibration of these very clicks.
+    const expected = await request.post('/api/calculations/indicator-trace', {
+      headers: { authorization: `Bearer ${operatorToken}` },
+      data: { trace: { ...t, pointsPx: outline }, springPsiPerIn: sample.springPsiPerIn, lengthIn: sample.lengthIn },
+    });
+    const expectedMep = ((await expected.json()) as { meanEffectivePressurePsi: number }).meanEffectivePressurePsi;
+    const mepText = editor.getByTestId('card-mep');
+    await expect(mepText).toHaveText(/MEP \d+(\.\d)? psi/);
+    const shownMep = Number((await mepText.textContent())!.replace(/[^\d.]/g, ''));
+    expect(Math.abs(shownMep - expectedMep) / expectedMep).toBeLessThan(0.01);
+    await expect(editor.getByTestId('card-ihp')).toHaveText(/\d+ ihp/);
+    const totalText = page.getByTestId('preview-total-ihp');
+    await expect(totalText).toHaveText(/[1-9][\d,]* ihp/);
 
-  await page.getByRole('button', { name: 'Save card set' }).click();
-  const saved = page.getByTestId('card-set').first();
-  await expect(saved).toBeVisible();
-  const total = (await saved.getByTestId('card-set-total').textContent())!;
-  expect(total).toMatch(/[1-9][\d,]* ihp/);
+    await page.getByRole('button', { name: 'Save card set' }).click();
+    const saved = page.getByTestId('card-set').first();
+    await expect(saved).toBeVisible();
+    const total = (await saved.getByTestId('card-set-total').textContent())!;
+    expect(total).toMatch(/[1-9][\d,]* ihp/);
 
-  // The watcher's page gains the set without reloading, with the same total.
-  await expect(watcher.getByTestId('card-set')).toHaveCount(setsBefore + 1);
-  await expect(watcher.getByTestId('card-set').first().getByTestId('card-set-total')).toHaveText(total);
-  await watcherContext.close();
-});
+    // The watcher's page gains the set without reloading, with the same total.
+    await expect(watcher.getByTestId('card-set')).toHaveCount(setsBefore + 1);
+    await expect(watcher.getByTestId('card-set').first().getByTestId('card-set-total')).toHaveText(total);
+    await watcherContext.close();
+  },
+);
 
 test('the indicated power calculator works out the example and names a bad field', async ({ page }) => {
   await signIn(page, 'observer@alderforge.example');

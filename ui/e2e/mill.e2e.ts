@@ -96,76 +96,76 @@ async function choose(page: Page, label: string | RegExp, option: string | RegEx
   await page.getByRole('option', { name: option }).click();
 }
 
-test('the mill lead plans a schedule from a template, logs passes during a run, and sees the flywheel warning on an overloaded pass', async ({
-  page,
-  request,
-}) => {
-  test.setTimeout(150_000);
-  const { run, mill } = await runningRunWithMill(request);
-  const scheduleName = `Open day rounds ${Date.now().toString(36)}`;
+test(
+  'the mill lead plans a schedule from a template, logs passes during a run, ' + 'and sees the flywheel warning on an overloaded pass',
+  async ({ page, request }) => {
+    test.setTimeout(150_000);
+    const { run, mill } = await runningRunWithMill(request);
+    const scheduleName = `Open day rounds ${Date.now().toString(36)}`;
 
-  await signIn(page, 'mill@alderforge.example');
-  const nav = page.getByRole('navigation', { name: 'Main navigation' });
-  await nav.getByRole('link', { name: 'Pass schedules' }).click();
-  await expect(page.getByRole('heading', { name: 'Pass schedules' })).toBeVisible();
-  await expect(page.getByRole('link', { name: '3 in square billet to 1½ in round' })).toBeVisible();
+    await signIn(page, 'mill@alderforge.example');
+    const nav = page.getByRole('navigation', { name: 'Main navigation' });
+    await nav.getByRole('link', { name: 'Pass schedules' }).click();
+    await expect(page.getByRole('heading', { name: 'Pass schedules' })).toBeVisible();
+    await expect(page.getByRole('link', { name: '3 in square billet to 1½ in round' })).toBeVisible();
 
-  // Plan from the template, on the mill the run drives.
-  await page.getByRole('button', { name: 'Plan from a template' }).click();
-  const dialog = page.getByRole('dialog');
-  await choose(page, 'Template', /3 in square billet to 1½ in round/);
-  await choose(page, 'Mill to roll it on', mill.name);
-  await dialog.getByLabel('Name of the new schedule').fill(scheduleName);
-  await dialog.getByRole('button', { name: 'Plan the schedule' }).click();
-  await expect(page.getByRole('heading', { name: scheduleName })).toBeVisible();
-  await expect(page.getByRole('link', { name: '3 in square billet to 1½ in round' })).toBeVisible();
-  await expect(page.getByRole('table', { name: 'Passes of the schedule' }).locator('tbody tr[data-flagged]')).toHaveCount(8);
-  await expect(page.getByTestId('flow-stress-extrapolated').first()).toBeVisible();
+    // Plan from the template, on the mill the run drives.
+    await page.getByRole('button', { name: 'Plan from a template' }).click();
+    const dialog = page.getByRole('dialog');
+    await choose(page, 'Template', /3 in square billet to 1½ in round/);
+    await choose(page, 'Mill to roll it on', mill.name);
+    await dialog.getByLabel('Name of the new schedule').fill(scheduleName);
+    await dialog.getByRole('button', { name: 'Plan the schedule' }).click();
+    await expect(page.getByRole('heading', { name: scheduleName })).toBeVisible();
+    await expect(page.getByRole('link', { name: '3 in square billet to 1½ in round' })).toBeVisible();
+    await expect(page.getByRole('table', { name: 'Passes of the schedule' }).locator('tbody tr[data-flagged]')).toHaveCount(8);
+    await expect(page.getByTestId('flow-stress-extrapolated').first()).toBeVisible();
 
-  // The run is in the rolling log; start a bar on the schedule and log its first pass as planned.
-  await nav.getByRole('link', { name: 'Rolling log' }).click();
-  await page.getByRole('link', { name: run.title }).click();
-  await expect(page.getByRole('heading', { name: `Rolling log: ${run.title}` })).toBeVisible();
-  await choose(page, 'Pass schedule', scheduleName);
-  await page.getByRole('button', { name: 'Start bar' }).click();
-  await expect(page.getByTestId('bar-B-01')).toBeVisible();
-  await expect(page.getByLabel('Measured temperature, °C')).toHaveValue('1150');
-  await page.getByLabel('Measured temperature, °C').fill('1138');
-  await page.getByLabel('Measured exit: height, mm').fill('61.5');
-  await page.getByRole('button', { name: 'Log pass' }).click();
-  const result = page.getByTestId('last-pass-result');
-  await expect(result).toContainText('Pass 1 of B-01 logged');
-  await expect(result.getByRole('alert')).toHaveCount(0);
+    // The run is in the rolling log; start a bar on the schedule and log its first pass as planned.
+    await nav.getByRole('link', { name: 'Rolling log' }).click();
+    await page.getByRole('link', { name: run.title }).click();
+    await expect(page.getByRole('heading', { name: `Rolling log: ${run.title}` })).toBeVisible();
+    await choose(page, 'Pass schedule', scheduleName);
+    await page.getByRole('button', { name: 'Start bar' }).click();
+    await expect(page.getByTestId('bar-B-01')).toBeVisible();
+    await expect(page.getByLabel('Measured temperature, °C')).toHaveValue('1150');
+    await page.getByLabel('Measured temperature, °C').fill('1138');
+    await page.getByLabel('Measured exit: height, mm').fill('61.5');
+    await page.getByRole('button', { name: 'Log pass' }).click();
+    const result = page.getByTestId('last-pass-result');
+    await expect(result).toContainText('Pass 1 of B-01 logged');
+    await expect(result.getByRole('alert')).toHaveCount(0);
 
-  // The next pass is offered from the schedule.
-  await expect(page.getByLabel('Pass number')).toHaveValue('2');
-  await page.getByRole('button', { name: 'Log pass' }).click();
-  await expect(result).toContainText('Pass 2 of B-01 logged');
+    // The next pass is offered from the schedule.
+    await expect(page.getByLabel('Pass number')).toHaveValue('2');
+    await page.getByRole('button', { name: 'Log pass' }).click();
+    await expect(result).toContainText('Pass 2 of B-01 logged');
 
-  // A wide flat bar rolled cold with a heavy draft and a long bar: the flywheel cannot carry it.
-  await page.getByLabel('Bar id').fill('B-02');
-  // This bar follows no schedule: clear the one kept from the last bar and give the stock.
-  await choose(page, 'Pass schedule', 'None (give the stock)');
-  await page.getByLabel('Stock: height, mm').fill('40');
-  await page.getByLabel('Stock: width, mm').fill('150');
-  await page.getByLabel('Stock length, mm').fill('6000');
-  await page.getByRole('button', { name: 'Start bar' }).click();
-  await expect(page.getByTestId('bar-B-02')).toBeVisible();
-  await expect(page.getByLabel('Entry: height, mm')).toHaveValue('40');
-  await page.getByLabel('Measured temperature, °C').fill('850');
-  await page.getByLabel('Measured exit: height, mm').fill('25');
-  await page.getByLabel('Measured exit: width, mm').fill('155');
-  await page.getByRole('button', { name: 'Log pass' }).click();
-  await expect(result).toContainText('Pass 1 of B-02 logged');
-  const speedWarning = result.getByTestId('pass-warning-speed_drop');
-  await expect(speedWarning).toContainText('Flywheel speed drop');
-  await expect(speedWarning).toContainText('below 67.5 rpm (90 % of rated)');
-  await expect(result.getByTestId('pass-warning-stand_force')).toContainText('Stand overloaded');
+    // A wide flat bar rolled cold with a heavy draft and a long bar: the flywheel cannot carry it.
+    await page.getByLabel('Bar id').fill('B-02');
+    // This bar follows no schedule: clear the one kept from the last bar and give the stock.
+    await choose(page, 'Pass schedule', 'None (give the stock)');
+    await page.getByLabel('Stock: height, mm').fill('40');
+    await page.getByLabel('Stock: width, mm').fill('150');
+    await page.getByLabel('Stock length, mm').fill('6000');
+    await page.getByRole('button', { name: 'Start bar' }).click();
+    await expect(page.getByTestId('bar-B-02')).toBeVisible();
+    await expect(page.getByLabel('Entry: height, mm')).toHaveValue('40');
+    await page.getByLabel('Measured temperature, °C').fill('850');
+    await page.getByLabel('Measured exit: height, mm').fill('25');
+    await page.getByLabel('Measured exit: width, mm').fill('155');
+    await page.getByRole('button', { name: 'Log pass' }).click();
+    await expect(result).toContainText('Pass 1 of B-02 logged');
+    const speedWarning = result.getByTestId('pass-warning-speed_drop');
+    await expect(speedWarning).toContainText('Flywheel speed drop');
+    await expect(speedWarning).toContainText('below 67.5 rpm (90 % of rated)');
+    await expect(result.getByTestId('pass-warning-stand_force')).toContainText('Stand overloaded');
 
-  // The flagged pass stays marked in the bar's passes and on the run's timeline.
-  await expect(page.getByTestId('bar-B-02').locator('tr[data-flagged="true"]')).toHaveCount(1);
-  await page.getByText('Timeline with readings and alarms').click();
-  const timeline = page.getByRole('list', { name: 'Timeline of the run' });
-  await expect(timeline.locator('[data-kind="pass"]')).toHaveCount(3);
-  await expect(timeline.getByTestId('pass-warning-speed_drop')).toBeVisible();
-});
+    // The flagged pass stays marked in the bar's passes and on the run's timeline.
+    await expect(page.getByTestId('bar-B-02').locator('tr[data-flagged="true"]')).toHaveCount(1);
+    await page.getByText('Timeline with readings and alarms').click();
+    const timeline = page.getByRole('list', { name: 'Timeline of the run' });
+    await expect(timeline.locator('[data-kind="pass"]')).toHaveCount(3);
+    await expect(timeline.getByTestId('pass-warning-speed_drop')).toBeVisible();
+  },
+);

@@ -14,7 +14,7 @@ export function App() {
   const router = useMemo(() => createRouter(), []);
   setSignedOutHandler(() => {
     queryClient.clear();
-    router.navigate('/sign-in', { replace: true, state: { from: window.location.pathname } });
+    void router.navigate('/sign-in', { replace: true, state: { from: window.location.pathname } });
   });
   return (
     <MantineProvider theme={theme} defaultColorScheme="auto">

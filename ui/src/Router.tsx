@@ -46,7 +46,7 @@ const PlanEditPage = lazy(() => import('./features/maintenance/pages/PlanEdit.pa
 const InspectionsPage = lazy(() => import('./features/maintenance/pages/Inspections.page'));
 const InspectionPage = lazy(() => import('./features/maintenance/pages/Inspection.page'));
 const NewInspectionPage = lazy(() => import('./features/maintenance/pages/NewInspection.page'));
-const WorkRecordsPage = lazy(() => import('./features/maintenance/pages/Inspections.page').then((m) => ({ default: m.WorkRecordsPage })));
+const WorkRecordsPage = lazy(() => import('./features/maintenance/pages/WorkRecords.page'));
 const WorkRecordPage = lazy(() => import('./features/maintenance/pages/WorkRecord.page'));
 const NewWorkRecordPage = lazy(() => import('./features/maintenance/pages/NewWorkRecord.page'));
 const LubricationPage = lazy(() => import('./features/lubrication/pages/Lubrication.page'));

@@ -45,6 +45,17 @@ async function refreshOnce(): Promise<boolean> {
   return refreshing;
 }
 
+/** A query-string value; undefined, null and '' leave the parameter out. */
+export type QueryValue = string | number | boolean | null | undefined;
+
+/** The path with its query string (`/runs?engineId=…&state=…`), values encoded, empty ones left out. */
+export function withQuery(path: string, params: Record<string, QueryValue>): string {
+  const q = new URLSearchParams();
+  for (const [k, v] of Object.entries(params)) if (v !== undefined && v !== null && v !== '') q.set(k, String(v));
+  const s = q.toString();
+  return s ? `${path}?${s}` : path;
+}
+
 export interface RequestOptions {
   method?: string;
   body?: unknown;

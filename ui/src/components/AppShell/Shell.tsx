@@ -91,7 +91,7 @@ export function Shell() {
               aria-label="Sign out"
               onClick={async () => {
                 await signOut();
-                navigate('/sign-in', { replace: true });
+                void navigate('/sign-in', { replace: true });
               }}
             >
               <IconLogout />

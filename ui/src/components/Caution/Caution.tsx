@@ -12,4 +12,5 @@ export function Caution({ title = 'Caution', children }: { title?: string; child
 }
 
 export const SAFETY_NOTE =
-  'Crankjournal aids a qualified crew. It never replaces local boiler and pressure-vessel law, the insurer’s inspections or licensed practice.';
+  'Crankjournal aids a qualified crew. It never replaces local boiler and pressure-vessel law, the ' +
+  'insurer’s inspections or licensed practice.';

@@ -26,7 +26,8 @@ CALCULATORS.push({
   key: 'indicated-power',
   title: 'Indicated power',
   description:
-    'Mean effective pressure of each card (planimeter area, mid-ordinates or typed in) and the indicated horsepower per end, per cylinder and for the engine, referred to the largest cylinder.',
+    'Mean effective pressure of each card (planimeter area, mid-ordinates or typed in) and the indicated ' +
+    'horsepower per end, per cylinder and for the engine, referred to the largest cylinder.',
   path: '/calculators/indicated-power',
   icon: IconGauge,
   roles: ROLES,
@@ -38,11 +39,12 @@ CALCULATORS.push({
   key: 'rolling-pass',
   title: 'Rolling pass',
   description:
-    'Reduction, elongation, contact length, mean flow stress of hot carbon steel, roll force, torque and power for a pass, and how far the flywheel’s speed falls over it.',
+    'Reduction, elongation, contact length, mean flow stress of hot carbon steel, roll force, torque and ' +
+    'power for a pass, and how far the flywheel’s speed falls over it.',
   path: '/calculators/rolling-pass',
   icon: IconBarbell,
   roles: ROLES,
-  Page: lazy(() => import('../mill/calculator/RollingPassCalculator.page')),
+  Page: lazy(() => import('../mill/calculators/RollingPassCalculator.page')),
 });
 
 // Lubrication (stateless: POST /api/calculations/oil-viscosity, /journal-friction, /lift-pressure, /jack-capacity).

@@ -34,11 +34,17 @@ export const options = <K extends string>(labels: Record<K, string>) =>
 
 /** Beside every place where pressure limits are shown or set. */
 export const PRESSURE_LIMITS_CAUTION =
-  'Crankjournal aids a qualified crew; it does not set safe limits. The maximum allowable working pressure is the figure on the boiler’s current certificate, under local boiler and pressure-vessel law and the insurer’s inspection — not a figure this app decides. The limits here only make the app raise alarms: check them against the certificate whenever it is renewed.';
+  'Crankjournal aids a qualified crew; it does not set safe limits. The maximum allowable working ' +
+  'pressure is the figure on the boiler’s current certificate, under local boiler and pressure-vessel ' +
+  'law and the insurer’s inspection — not a figure this app decides. The limits here only make the app ' +
+  'raise alarms: check them against the certificate whenever it is renewed.';
 
 /** Beside the table of measurement points and their limits. */
 export const LIMITS_CAUTION =
-  'These limits make the app raise alarms; they do not make the engine safe. Pressure limits must stay within the boiler’s certified maximum allowable working pressure, and a hot bearing calls for the crew’s practised response, whatever the screen shows. Crankjournal aids a qualified crew and never replaces local boiler and pressure-vessel law, the insurer’s inspections or licensed practice.';
+  'These limits make the app raise alarms; they do not make the engine safe. Pressure limits must stay ' +
+  'within the boiler’s certified maximum allowable working pressure, and a hot bearing calls for the ' +
+  'crew’s practised response, whatever the screen shows. Crankjournal aids a qualified crew and never ' +
+  'replaces local boiler and pressure-vessel law, the insurer’s inspections or licensed practice.';
 
 /** Plain words for the engine settings and limit fields that the limit-change history names. */
 export const FIELD_LABELS: Record<string, string> = {

@@ -1,7 +1,7 @@
 import type { UnitConversionTable, UnitSystem } from '@crankjournal/shared-types';
 import { render, screen } from '../../test-utils/render';
-import { sessionStore } from '../../api/session';
 import { UnitValue } from '../../components/UnitValue/UnitValue';
+import { signIn, signOut, stubFetch } from '../../test-utils/http';
 import { convertForDisplay } from './units';
 
 // A table shaped like the server's answer to GET /units/conversions.
@@ -48,20 +48,13 @@ describe('convertForDisplay', () => {
 describe('<UnitValue />', () => {
   afterEach(() => {
     vi.restoreAllMocks();
-    sessionStore.set(null);
+    signOut();
   });
-  const signIn = (unitSystem: UnitSystem) =>
-    sessionStore.set({
-      accessToken: 'a',
-      refreshToken: 'r',
-      user: { id: 'u1', email: 'x@alderforge.example', displayName: 'Test Person', role: 'operator', unitSystem },
-    });
+  const signInAs = (unitSystem: UnitSystem) => signIn('operator', { unitSystem });
 
   it('renders a stored °F reading in °C for a metric user, with the unit beside it', async () => {
-    signIn('metric');
-    const fetchSpy = vi
-      .spyOn(globalThis, 'fetch')
-      .mockImplementation(async () => new Response(JSON.stringify(table), { headers: { 'content-type': 'application/json' } }));
+    signInAs('metric');
+    const { spy: fetchSpy } = stubFetch({ '*': table });
     render(<UnitValue value={212} unit="degF" />);
     expect(await screen.findByText('100.0')).toBeInTheDocument();
     expect(screen.getByText('°C')).toBeInTheDocument();
@@ -70,10 +63,8 @@ describe('<UnitValue />', () => {
   });
 
   it('renders the stored unit for an imperial user', async () => {
-    signIn('imperial');
-    vi.spyOn(globalThis, 'fetch').mockImplementation(
-      async () => new Response(JSON.stringify(table), { headers: { 'content-type': 'application/json' } }),
-    );
+    signInAs('imperial');
+    stubFetch({ '*': table });
     render(<UnitValue value={212} unit="degF" />);
     expect(await screen.findByText('212')).toBeInTheDocument();
     expect(screen.getByText('°F')).toBeInTheDocument();

@@ -42,7 +42,7 @@ export default function SetPasswordPage() {
               setError(null);
               try {
                 await acceptInvitation(token, v.password);
-                navigate('/', { replace: true });
+                void navigate('/', { replace: true });
               } catch (e) {
                 setError(errorText(e));
               } finally {

@@ -42,7 +42,7 @@ export default function SignInPage() {
               setError(null);
               try {
                 await signIn({ email: v.email.trim(), password: v.password });
-                navigate(from, { replace: true });
+                void navigate(from, { replace: true });
               } catch (e) {
                 setError(errorText(e));
               } finally {

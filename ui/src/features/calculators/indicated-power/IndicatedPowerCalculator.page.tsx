@@ -102,7 +102,8 @@ export function toCalculatorRequest(f: CalculatorForm): IndicatedPowerRequest {
 }
 
 const CAUTION =
-  'Power figures aid a qualified crew in judging the engine; they do not clear it to run harder. Cards are taken at live steam cocks; follow the site procedure, local codes and licensed practice.';
+  'Power figures aid a qualified crew in judging the engine; they do not clear it to run harder. Cards ' +
+  'are taken at live steam cocks; follow the site procedure, local codes and licensed practice.';
 
 /** /calculators/indicated-power: the stateless calculator over POST /api/calculations/indicated-power. */
 export default function IndicatedPowerCalculatorPage() {
@@ -131,7 +132,7 @@ export default function IndicatedPowerCalculatorPage() {
       live = false;
       clearTimeout(t);
     };
-    // eslint-disable-next-line react-hooks/exhaustive-deps
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- key is the JSON of request: ask only when the figures change
   }, [key]);
 
   const setCyl = (i: number, patch: Partial<CylinderForm>) =>
@@ -154,7 +155,10 @@ export default function IndicatedPowerCalculatorPage() {
     <>
       <PageHeader
         title="Indicated power"
-        subtitle="From each card’s planimeter area, mid-ordinates or mean effective pressure: IHP = P·L·A·N / 33,000 per end (head end less any tail rod, crank end less the piston rod)."
+        subtitle={
+          'From each card’s planimeter area, mid-ordinates or mean effective pressure: IHP = P·L·A·N / 33,000 ' +
+          'per end (head end less any tail rod, crank end less the piston rod).'
+        }
         action={
           <Button component={Link} to="/calculators" variant="default">
             All calculators

@@ -1,8 +1,6 @@
 import { render, screen, waitFor } from '../../../test-utils/render';
+import { json, stubFetch } from '../../../test-utils/http';
 import IndicatedPowerCalculatorPage, { EXAMPLE, toCalculatorRequest } from './IndicatedPowerCalculator.page';
-
-const json = (body: unknown, status = 200) =>
-  new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
 
 describe('the indicated power calculator', () => {
   afterEach(() => vi.restoreAllMocks());
@@ -28,8 +26,8 @@ describe('the indicated power calculator', () => {
   });
 
   it('shows the server’s answer: total, kW, referred MEP and each end', async () => {
-    const fetchSpy = vi.spyOn(globalThis, 'fetch').mockImplementation(async () =>
-      json({
+    const { spy: fetchSpy } = stubFetch({
+      'POST /calculations/indicated-power': {
         cylinders: [
           {
             label: 'HP',
@@ -40,8 +38,8 @@ describe('the indicated power calculator', () => {
         totalIndicatedHorsepower: 335.9,
         totalIndicatedKilowatts: 250.5,
         referredMeanEffectivePressurePsi: 16.71,
-      }),
-    );
+      },
+    });
     render(<IndicatedPowerCalculatorPage />);
     await waitFor(() => expect(screen.getByTestId('calc-total')).toHaveTextContent('335.9 ihp'));
     const [url, init] = fetchSpy.mock.calls[0]!;
@@ -52,9 +50,10 @@ describe('the indicated power calculator', () => {
   });
 
   it('shows the server’s message naming the field when it refuses', async () => {
-    vi.spyOn(globalThis, 'fetch').mockImplementation(async () =>
-      json({ statusCode: 400, error: 'Bad Request', message: ['cylinders[0].pistonRodIn: must be smaller than the bore'] }, 400),
-    );
+    stubFetch({
+      'POST /calculations/indicated-power': () =>
+        json({ statusCode: 400, error: 'Bad Request', message: ['cylinders[0].pistonRodIn: must be smaller than the bore'] }, 400),
+    });
     render(<IndicatedPowerCalculatorPage />);
     await waitFor(() =>
       expect(screen.getByTestId('calc-error')).toHaveTextContent('cylinders[0].pistonRodIn: must be smaller than the bore'),

@@ -1,3 +1,4 @@
+import { useCallback } from 'react';
 import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
 import type {
   AmendChecklistRequest,
@@ -10,7 +11,7 @@ import type {
   FillChecklistItemRequest,
   RunChecklistsOverview,
 } from '@crankjournal/shared-types';
-import { api, download } from '../../../api/http';
+import { api, withQuery, download } from '../../../api/http';
 import { runKeys } from '../../runs/api/runs.api';
 
 /** Keys: a run's checklists sit under the run's key, so a run refresh takes them too; templates under ['checklist-templates']. */
@@ -30,7 +31,7 @@ export const checklistQuery = (id: string) =>
 export const templatesQuery = (engineId?: string) =>
   queryOptions({
     queryKey: checklistKeys.templateList(engineId),
-    queryFn: () => api<ChecklistTemplateSummary[]>(`/checklist-templates${engineId ? `?engineId=${engineId}` : ''}`),
+    queryFn: () => api<ChecklistTemplateSummary[]>(withQuery('/checklist-templates', { engineId })),
   });
 export const templateQuery = (id: string) =>
   queryOptions({ queryKey: checklistKeys.template(id), queryFn: () => api<ChecklistTemplateDetail>(`/checklist-templates/${id}`) });
@@ -56,12 +57,15 @@ export async function fetchPhotoUrl(checklistId: string, itemKey: string): Promi
 /** Puts a changed checklist into the cache and refreshes the run's overview and start gate. */
 export function useApplyChecklist() {
   const qc = useQueryClient();
-  return (c: ChecklistDetail) => {
-    qc.setQueryData(checklistKeys.checklist(c.id), c);
-    qc.invalidateQueries({ queryKey: checklistKeys.runOverview(c.runId) });
-    qc.invalidateQueries({ queryKey: runKeys.startGate(c.runId) });
-    qc.invalidateQueries({ queryKey: runKeys.detail(c.runId) });
-  };
+  return useCallback(
+    (c: ChecklistDetail) => {
+      qc.setQueryData(checklistKeys.checklist(c.id), c);
+      void qc.invalidateQueries({ queryKey: checklistKeys.runOverview(c.runId) });
+      void qc.invalidateQueries({ queryKey: runKeys.startGate(c.runId) });
+      void qc.invalidateQueries({ queryKey: runKeys.detail(c.runId) });
+    },
+    [qc],
+  );
 }
 
 export function useStartChecklist(runId: string) {
@@ -107,7 +111,7 @@ export function useTemplateWrite() {
   const qc = useQueryClient();
   const done = (t: ChecklistTemplateDetail) => {
     qc.setQueryData(checklistKeys.template(t.id), t);
-    qc.invalidateQueries({ queryKey: [...checklistKeys.templates, 'list'] });
+    void qc.invalidateQueries({ queryKey: [...checklistKeys.templates, 'list'] });
   };
   return {
     create: useMutation({

@@ -1,51 +1,22 @@
-import type { Role, RunDetail, RunState } from '@crankjournal/shared-types';
-import { render, screen, fireEvent, within } from '../../../test-utils/render';
-import { sessionStore } from '../../../api/session';
+import userEvent from '@testing-library/user-event';
+import type { RunState } from '@crankjournal/shared-types';
+import { render, screen, within } from '../../../test-utils/render';
+import { buildRun } from '../../../test-utils/builders';
+import { json, signIn, signOut, stubFetch } from '../../../test-utils/http';
 import { GatePanel } from './GatePanel';
 
-const run = (state: RunState): RunDetail => ({
-  id: 'run-1',
-  engineId: 'eng-1',
-  engineName: 'No. 2 engine',
-  purpose: 'demonstration',
-  state,
-  title: 'Winter open day',
-  plannedFor: null,
-  startedAt: null,
-  stoppedAt: null,
-  closedAt: null,
-  runningSeconds: 0,
-  revolutions: 0,
-  openAlarms: 0,
-  notes: '',
-  crew: [],
-  countersignedBy: null,
-  countersignedByName: null,
-  countersignedAt: null,
-  abandonedReason: null,
-  history: [],
-  peaks: [],
-  createdAt: '2026-12-01T08:00:00Z',
-});
-const json = (body: unknown, status = 200) =>
-  new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
-const signIn = (role: Role) =>
-  sessionStore.set({
-    accessToken: 'a',
-    refreshToken: 'r',
-    user: { id: 'u1', email: 'x@alderforge.example', displayName: 'Test Person', role, unitSystem: 'imperial' },
-  });
+const run = (state: RunState) => buildRun({ state });
 
 describe('GatePanel', () => {
   afterEach(() => {
     vi.restoreAllMocks();
-    sessionStore.set(null);
+    signOut();
   });
 
   it('shows the countdown of the pre-lube window while the run is cleared', async () => {
     signIn('operator');
     const until = new Date(Date.now() + 12 * 60_000 + 30_000).toISOString();
-    vi.spyOn(globalThis, 'fetch').mockImplementation(async () => json({ allowed: true, reasons: [], preLubeFreshUntil: until }));
+    stubFetch({ '*': () => json({ allowed: true, reasons: [], preLubeFreshUntil: until }) });
     render(<GatePanel run={run('cleared')} />);
     expect(await screen.findByTestId('pre-lube-remaining')).toHaveTextContent(/^12:(30|29)$/);
     expect(screen.getByTestId('gate-clear')).toBeInTheDocument();
@@ -53,27 +24,28 @@ describe('GatePanel', () => {
   });
 
   it('shows the server’s refusal with every reason when a start is refused', async () => {
+    const user = userEvent.setup();
     signIn('operator');
-    vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
-      if (String(input).endsWith('/start-gate'))
-        return json({ allowed: true, reasons: [], preLubeFreshUntil: new Date(Date.now() + 60_000).toISOString() });
-      return json(
-        {
-          statusCode: 409,
-          error: 'Conflict',
-          message: ['stale'],
-          details: {
-            allowed: false,
-            reasons: [{ code: 'pre_lube_stale', message: 'The pre-lube sign-off (Pre-lube) is 31 min old.', subject: 'Pre-lube' }],
-            preLubeFreshUntil: null,
+    stubFetch({
+      '*': () =>
+        json(
+          {
+            statusCode: 409,
+            error: 'Conflict',
+            message: ['stale'],
+            details: {
+              allowed: false,
+              reasons: [{ code: 'pre_lube_stale', message: 'The pre-lube sign-off (Pre-lube) is 31 min old.', subject: 'Pre-lube' }],
+              preLubeFreshUntil: null,
+            },
           },
-        },
-        409,
-      );
+          409,
+        ),
+      '*/start-gate': () => json({ allowed: true, reasons: [], preLubeFreshUntil: new Date(Date.now() + 60_000).toISOString() }),
     });
     render(<GatePanel run={run('cleared')} />);
-    fireEvent.click(await screen.findByRole('button', { name: 'Start engine' }));
-    fireEvent.click(within(await screen.findByRole('dialog')).getByRole('button', { name: 'Start engine' }));
+    await user.click(await screen.findByRole('button', { name: 'Start engine' }));
+    await user.click(within(await screen.findByRole('dialog')).getByRole('button', { name: 'Start engine' }));
     const refused = await screen.findByTestId('start-refused');
     expect(refused).toHaveTextContent('Start refused');
     expect(refused).toHaveTextContent('The pre-lube sign-off (Pre-lube) is 31 min old.');
@@ -81,15 +53,15 @@ describe('GatePanel', () => {
 
   it('does not tell an observer about their own missing start qualification, nor offer a start', async () => {
     signIn('observer');
-    vi.spyOn(globalThis, 'fetch').mockImplementation(async () =>
-      json({
+    stubFetch({
+      '*': {
         allowed: false,
         reasons: [
           { code: 'qualification_missing', message: 'You hold no start and run qualification for No. 2 engine.' },
           { code: 'checklist_missing', message: 'Pre-lube: no checklist has been started for this run.', subject: 'Pre-lube' },
         ],
-      }),
-    );
+      },
+    });
     render(<GatePanel run={run('cleared')} />);
     const reasons = await screen.findByTestId('gate-reasons');
     expect(reasons).toHaveTextContent('Pre-lube: no checklist has been started');
@@ -99,7 +71,7 @@ describe('GatePanel', () => {
 
   it('shows nothing once the run is running', () => {
     signIn('operator');
-    vi.spyOn(globalThis, 'fetch').mockImplementation(async () => json({ allowed: true, reasons: [] }));
+    stubFetch({ '*': () => json({ allowed: true, reasons: [] }) });
     render(<GatePanel run={run('running')} />);
     expect(screen.queryByTestId('gate-panel')).toBeNull();
   });

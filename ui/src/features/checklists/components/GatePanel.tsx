@@ -91,13 +91,13 @@ export function GatePanel({ run, overview }: { run: RunDetail; overview?: RunChe
       {
         onSuccess: (r) => {
           setConfirming(false);
-          navigate(`/runs/${r.id}`);
+          void navigate(`/runs/${r.id}`);
         },
         onError: (e) => {
           setConfirming(false);
           const refused = startRefusal(e);
           setRefusal(refused ?? { allowed: false, reasons: [{ code: 'error', message: errorText(e) }] });
-          qc.invalidateQueries({ queryKey: runKeys.startGate(run.id) });
+          void qc.invalidateQueries({ queryKey: runKeys.startGate(run.id) });
         },
       },
     );

@@ -1,5 +1,6 @@
+import userEvent from '@testing-library/user-event';
 import type { ChecklistEntryDto, ChecklistItemDef } from '@crankjournal/shared-types';
-import { render, screen, fireEvent } from '../../../test-utils/render';
+import { render, screen } from '../../../test-utils/render';
 import { ItemCard, valueWords, type ItemCardProps } from './ItemCard';
 
 const reading: ChecklistItemDef = {
@@ -54,12 +55,13 @@ describe('ItemCard', () => {
     expect(screen.getByRole('note')).toHaveTextContent('Lines under pressure while the pump runs.');
   });
 
-  it('flags an out-of-range reading as blocking the signature, and offers the chief engineer an override', () => {
+  it('flags an out-of-range reading as blocking the signature, and offers the chief engineer an override', async () => {
+    const user = userEvent.setup();
     const onOverride = vi.fn();
     render(<ItemCard {...props({ entry: entry({ value: 12, done: true, outOfRange: true }), canOverride: true, onOverride })} />);
     expect(screen.getByText(/signing is blocked/)).toBeInTheDocument();
     expect(screen.getByTestId('item-line-pressure')).toHaveStyle({ borderWidth: '2px' });
-    fireEvent.click(screen.getByRole('button', { name: 'Record override' }));
+    await user.click(screen.getByRole('button', { name: 'Record override' }));
     expect(onOverride).toHaveBeenCalled();
   });
 
@@ -86,19 +88,22 @@ describe('ItemCard', () => {
     expect(screen.getByTestId('override-line-pressure')).toHaveTextContent('Gauge reads low.');
   });
 
-  it('saves a reading when the field is left, as a number', () => {
+  it('saves a reading when the field is left, as a number', async () => {
+    const user = userEvent.setup();
     const onFill = vi.fn();
     render(<ItemCard {...props({ onFill })} />);
     const input = screen.getByTestId('reading-line-pressure');
-    fireEvent.change(input, { target: { value: '22' } });
-    fireEvent.blur(input);
+    await user.clear(input);
+    await user.type(input, '22');
+    await user.tab();
     expect(onFill).toHaveBeenCalledWith({ value: 22 });
   });
 
-  it('toggles a tick with one big button', () => {
+  it('toggles a tick with one big button', async () => {
+    const user = userEvent.setup();
     const onFill = vi.fn();
     render(<ItemCard {...props({ item: tick, entry: entry({ itemKey: 'valves' }), onFill })} />);
-    fireEvent.click(screen.getByRole('button', { name: 'Mark done' }));
+    await user.click(screen.getByRole('button', { name: 'Mark done' }));
     expect(onFill).toHaveBeenCalledWith({ tick: true });
   });
 

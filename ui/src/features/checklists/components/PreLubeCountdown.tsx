@@ -1,4 +1,4 @@
-import { useEffect } from 'react';
+import { useEffect, useRef } from 'react';
 import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { Group, Paper, Stack, Text } from '@mantine/core';
 import { IconDroplet, IconDropletOff } from '@tabler/icons-react';
@@ -24,10 +24,13 @@ export function PreLubeCountdownView({
 }) {
   const now = useNow(1000);
   const c = countdown(until, now);
+  // Called once when the window runs out, with the caller's latest callback (an inline function is new each render).
+  const onExpiredRef = useRef(onExpired);
   useEffect(() => {
-    if (!c.expired || !onExpired) return;
-    onExpired();
-    // eslint-disable-next-line react-hooks/exhaustive-deps
+    onExpiredRef.current = onExpired;
+  });
+  useEffect(() => {
+    if (c.expired) onExpiredRef.current?.();
   }, [c.expired]);
   const warn = !c.expired && c.remainingMs < PRE_LUBE_WARNING_MINUTES * 60_000;
   const color = c.expired ? 'signal' : warn ? 'amber' : undefined;
@@ -57,7 +60,8 @@ export function PreLubeCountdownView({
           <Text fz="sm" c={c.expired ? 'signal' : 'dimmed'}>
             {c.expired
               ? 'Oil has drained from under the journals: pre-lube again and sign a new pre-lube checklist before starting.'
-              : `until ${new Date(until).toLocaleTimeString(undefined, { hour: '2-digit', minute: '2-digit' })}${windowMinutes ? ` (window ${windowMinutes} min)` : ''}`}
+              : `until ${new Date(until).toLocaleTimeString(undefined, { hour: '2-digit', minute: '2-digit' })}` +
+                (windowMinutes ? ` (window ${windowMinutes} min)` : '')}
           </Text>
         </Stack>
       </Group>

@@ -15,14 +15,14 @@ export function useRunChecklistsLive(runId: string) {
     const leave = joinRoom(`run:${runId}`);
     const onRecord = (e: RunRecordEvent) => {
       if (e.runId !== runId || e.kind !== 'checklist') return;
-      qc.invalidateQueries({ queryKey: checklistKeys.runOverview(runId) });
-      qc.invalidateQueries({ queryKey: checklistKeys.checklist(e.id) });
-      qc.invalidateQueries({ queryKey: runKeys.startGate(runId) });
+      void qc.invalidateQueries({ queryKey: checklistKeys.runOverview(runId) });
+      void qc.invalidateQueries({ queryKey: checklistKeys.checklist(e.id) });
+      void qc.invalidateQueries({ queryKey: runKeys.startGate(runId) });
     };
     const onRun = (r: RunDetail) => {
       if (r.id !== runId) return;
       applyRun(r);
-      qc.invalidateQueries({ queryKey: checklistKeys.runOverview(runId) });
+      void qc.invalidateQueries({ queryKey: checklistKeys.runOverview(runId) });
     };
     socket.on('run:record', onRecord);
     socket.on('run:changed', onRun);
@@ -31,6 +31,5 @@ export function useRunChecklistsLive(runId: string) {
       socket.off('run:changed', onRun);
       leave();
     };
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [runId, qc]);
+  }, [runId, qc, applyRun]);
 }

@@ -110,7 +110,12 @@ export default function ChecklistTemplatePage() {
       </Anchor>
       <PageHeader
         title={d.name}
-        subtitle={`${d.engineName} · ${CHECKLIST_PURPOSE_LABELS[d.purpose]} · ${CHECKLIST_REQUIRED_WHEN_LABELS[d.requiredWhen]} · signer needs ${DUTY_LABELS[d.requiredDuty].toLowerCase()}`}
+        subtitle={[
+          d.engineName,
+          CHECKLIST_PURPOSE_LABELS[d.purpose],
+          CHECKLIST_REQUIRED_WHEN_LABELS[d.requiredWhen],
+          `signer needs ${DUTY_LABELS[d.requiredDuty].toLowerCase()}`,
+        ].join(' · ')}
         state={
           <Group gap="xs">
             {d.currentVersion > 0 ? (

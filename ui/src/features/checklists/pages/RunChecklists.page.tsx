@@ -88,8 +88,8 @@ function TemplateCard({
               {t.name}
             </Title>
             <Text fz="sm" c="dimmed">
-              {t.name === CHECKLIST_PURPOSE_LABELS[t.purpose] ? '' : `${CHECKLIST_PURPOSE_LABELS[t.purpose]} · `}version {t.currentVersion}{' '}
-              · the signer needs a {DUTY_LABELS[t.requiredDuty].toLowerCase()} qualification
+              {t.name === CHECKLIST_PURPOSE_LABELS[t.purpose] ? '' : `${CHECKLIST_PURPOSE_LABELS[t.purpose]} · `}
+              version {t.currentVersion} · the signer needs a {DUTY_LABELS[t.requiredDuty].toLowerCase()} qualification
             </Text>
           </Stack>
           {s.progress === 'signed' ? (
@@ -184,10 +184,10 @@ export default function RunChecklistsPage() {
   const finished = r.state === 'closed' || r.state === 'abandoned';
   const start = (templateId: string) =>
     startChecklist.mutate(templateId, {
-      onSuccess: (c) => navigate(`/runs/${id}/checklists/${c.id}`),
+      onSuccess: (c) => void navigate(`/runs/${id}/checklists/${c.id}`),
       onError: (e) => {
         const existing = e instanceof HttpError ? (e.body?.details as { checklistId?: string } | undefined)?.checklistId : undefined;
-        if (existing) navigate(`/runs/${id}/checklists/${existing}`);
+        if (existing) void navigate(`/runs/${id}/checklists/${existing}`);
         else notifications.show({ color: 'signal', title: 'Not started', message: errorText(e) });
       },
     });

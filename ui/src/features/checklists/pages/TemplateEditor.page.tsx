@@ -276,7 +276,7 @@ export default function TemplateEditorPage() {
           onSuccess: (t) => {
             setDirty(false);
             notifications.show({ title: 'Draft saved', message: `${t.name}: not published yet.` });
-            navigate(`/checklists/templates/${t.id}/edit`, { replace: true });
+            void navigate(`/checklists/templates/${t.id}/edit`, { replace: true });
             then?.(t.id);
           },
           onError: fail,
@@ -307,7 +307,7 @@ export default function TemplateEditorPage() {
               title: `Version ${t.currentVersion} published`,
               message: 'New checklists use it; completed ones keep theirs.',
             });
-            navigate(`/checklists/templates/${t.id}`);
+            void navigate(`/checklists/templates/${t.id}`);
           },
           onError: (e) => {
             setPublishing(false);

@@ -27,8 +27,8 @@ export function useSaveEngine(id: string | undefined) {
     mutationFn: (req: EngineWriteRequest) => (id ? updateEngine(id, req) : createEngine(req)),
     onSuccess: (engine) => {
       qc.setQueryData(engineKeys.detail(engine.id), engine);
-      qc.invalidateQueries({ queryKey: engineKeys.list() });
-      qc.invalidateQueries({ queryKey: engineKeys.limitChanges(engine.id) });
+      void qc.invalidateQueries({ queryKey: engineKeys.list() });
+      void qc.invalidateQueries({ queryKey: engineKeys.limitChanges(engine.id) });
     },
   });
 }

@@ -323,7 +323,10 @@ function MeasurementPoints({ engine }: { engine: EngineDetail }) {
   return (
     <Section
       title="Measurement points and limits"
-      subtitle="In the order of a round of readings. The server raises an alarm when a reading passes a limit, rises faster than the rate, or rises too far above ambient."
+      subtitle={
+        'In the order of a round of readings. The server raises an alarm when a reading passes a limit, ' +
+        'rises faster than the rate, or rises too far above ambient.'
+      }
     >
       <Caution title="Limits">{LIMITS_CAUTION}</Caution>
       <DataTable

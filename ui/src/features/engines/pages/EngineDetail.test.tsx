@@ -1,33 +1,18 @@
 import { Route, Routes } from 'react-router-dom';
-import type { EngineDetail, LimitChangeDto, UnitConversionTable } from '@crankjournal/shared-types';
+import type { LimitChangeDto, UnitConversionTable } from '@crankjournal/shared-types';
 import { render, screen, within } from '../../../test-utils/render';
-import { sessionStore } from '../../../api/session';
+import { buildEngine } from '../../../test-utils/builders';
+import { signIn, signOut, stubFetch } from '../../../test-utils/http';
 import EngineDetailPage from './EngineDetail.page';
 
-const engine: EngineDetail = {
-  id: 'e1',
-  name: 'No. 2 engine',
-  builder: 'Demo builder',
-  yearBuilt: '1911',
+const engine = buildEngine({
   type: 'tandem_compound',
-  ratedSpeedRpm: 75,
-  overspeedRpm: 82,
-  mawpPsig: 150,
-  preLubeFreshnessMinutes: 30,
   runningHours: 12.5,
   revolutions: 56250,
-  activeRunId: null,
-  notes: '',
-  flywheelMassLb: null,
-  flywheelRadiusOfGyrationFt: null,
-  rotatingWeightLb: null,
-  cylinders: [],
-  lubricationPoints: [],
-  bearings: [],
   measurementPoints: [
     { id: 'p1', code: 'MB1-T', label: 'Main bearing 1', kind: 'bearing_temperature', unit: 'degF', sequence: 1, highLimit: 212 },
   ],
-};
+});
 const changes: LimitChangeDto[] = [
   {
     id: 'c1',
@@ -42,25 +27,15 @@ const changes: LimitChangeDto[] = [
   },
 ];
 const table: UnitConversionTable = { imperial: {}, metric: { degF: { from: 'degF', to: 'degC', factor: 5 / 9, offset: -17.7778 } } };
-const json = (body: unknown) => new Response(JSON.stringify(body), { headers: { 'content-type': 'application/json' } });
 
 describe('engine detail page', () => {
   beforeEach(() => {
-    sessionStore.set({
-      accessToken: 'a',
-      refreshToken: 'r',
-      user: { id: 'u2', email: 'op@alderforge.example', displayName: 'Operator', role: 'operator', unitSystem: 'metric' },
-    });
-    vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
-      const url = String(input);
-      if (url.endsWith('/limit-changes')) return json(changes);
-      if (url.endsWith('/units/conversions')) return json(table);
-      return json(engine);
-    });
+    signIn('operator', { id: 'u2', email: 'op@alderforge.example', displayName: 'Operator', unitSystem: 'metric' });
+    stubFetch({ '*': engine, '*/limit-changes': changes, '/units/conversions': table });
   });
   afterEach(() => {
     vi.restoreAllMocks();
-    sessionStore.set(null);
+    signOut();
   });
 
   it('shows limits in the person’s units, the pressure caution, and each limit change as old struck through → new', async () => {

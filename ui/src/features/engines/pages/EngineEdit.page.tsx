@@ -47,7 +47,7 @@ import {
   toWriteRequest,
   validateEngine,
   type EngineFormValues,
-} from './engine-form';
+} from '../model/engine-form';
 
 type Form = UseFormReturnType<EngineFormValues>;
 
@@ -90,7 +90,7 @@ function EngineForm({ engineId, initial }: { engineId?: string; initial: EngineF
       save.mutate(toWriteRequest(values), {
         onSuccess: (engine) => {
           notifications.show({ title: 'Engine saved', message: `${engine.name}: every change to a limit is kept in its history.` });
-          navigate(`/engines/${engine.id}`);
+          void navigate(`/engines/${engine.id}`);
         },
         onError: (e) => setServerErrors(e instanceof HttpError ? e.messages : [errorText(e)]),
       });
@@ -103,7 +103,10 @@ function EngineForm({ engineId, initial }: { engineId?: string; initial: EngineF
       <Stack gap="lg" pb={120}>
         <PageHeader
           title={engineId ? `Edit ${initial.name}` : 'Describe a new engine'}
-          subtitle="The engine, its parts and the limits the server checks every reading against. Saving replaces the whole description; every limit change is kept with your name."
+          subtitle={
+            'The engine, its parts and the limits the server checks every reading against. Saving replaces the ' +
+            'whole description; every limit change is kept with your name.'
+          }
         />
         <EngineSection form={form} />
         <CylindersSection form={form} />
@@ -379,7 +382,10 @@ function PointsSection({ form }: { form: Form }) {
   return (
     <Section
       title="Measurement points and limits"
-      subtitle="Each point is read in a round or sent by a logger under its code. Limits are in the point's own unit; rates and rises are differences in that unit."
+      subtitle={
+        "Each point is read in a round or sent by a logger under its code. Limits are in the point's own " +
+        'unit; rates and rises are differences in that unit.'
+      }
       action={
         <AddButton onClick={() => form.insertListItem('measurementPoints', emptyPoint(nextSequence))}>Add measurement point</AddButton>
       }

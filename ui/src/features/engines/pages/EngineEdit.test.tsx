@@ -1,61 +1,36 @@
+import userEvent from '@testing-library/user-event';
 import { Route, Routes } from 'react-router-dom';
-import type { EngineDetail } from '@crankjournal/shared-types';
-import { render, screen, fireEvent, waitFor } from '../../../test-utils/render';
-import { sessionStore } from '../../../api/session';
+import { render, screen, waitFor } from '../../../test-utils/render';
+import { buildEngine } from '../../../test-utils/builders';
+import { json, signIn, signOut, stubFetch } from '../../../test-utils/http';
 import EngineEditPage from './EngineEdit.page';
 
-const engine: EngineDetail = {
-  id: 'e1',
-  name: 'No. 2 engine',
-  builder: 'Demo builder',
-  yearBuilt: '1911',
-  type: 'simple',
-  ratedSpeedRpm: 75,
-  overspeedRpm: 82,
-  mawpPsig: 150,
-  preLubeFreshnessMinutes: 30,
-  runningHours: 0,
-  revolutions: 0,
-  activeRunId: null,
-  notes: '',
-  flywheelMassLb: null,
-  flywheelRadiusOfGyrationFt: null,
-  rotatingWeightLb: null,
-  cylinders: [],
-  lubricationPoints: [],
-  bearings: [],
+const engine = buildEngine({
   measurementPoints: [
     { id: 'p1', code: 'MB1-T', label: 'Main bearing 1', kind: 'bearing_temperature', unit: 'degF', sequence: 1, highLimit: 130 },
   ],
-};
-const json = (body: unknown, status = 200) =>
-  new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
+});
 
 describe('engine edit page', () => {
-  beforeEach(() =>
-    sessionStore.set({
-      accessToken: 'a',
-      refreshToken: 'r',
-      user: { id: 'u1', email: 'chief@alderforge.example', displayName: 'Chief', role: 'chief_engineer', unitSystem: 'imperial' },
-    }),
-  );
+  beforeEach(() => signIn('chief_engineer', { id: 'u1', email: 'chief@alderforge.example', displayName: 'Chief', unitSystem: 'imperial' }));
   afterEach(() => {
     vi.restoreAllMocks();
-    sessionStore.set(null);
+    signOut();
   });
 
   it('puts the whole engine and shows the server’s 400 messages', async () => {
-    const fetchSpy = vi.spyOn(globalThis, 'fetch').mockImplementation(async (input, init) => {
-      if (init?.method === 'PUT')
-        return json(
+    const user = userEvent.setup();
+    const { spy: fetchSpy } = stubFetch({
+      '*': () => json(engine),
+      'PUT *': () =>
+        json(
           {
             statusCode: 400,
             error: 'Bad Request',
             message: ['highHighLimit of MB1-T must be above its highLimit', 'mawpPsig must be positive'],
           },
           400,
-        );
-      return json(engine);
+        ),
     });
     render(
       <Routes>
@@ -65,7 +40,7 @@ describe('engine edit page', () => {
     );
     expect(await screen.findByDisplayValue('No. 2 engine', {}, { timeout: 8000 })).toBeInTheDocument();
     expect(screen.getByLabelText(/High limit \(°F\)/)).toHaveValue('130');
-    fireEvent.click(screen.getByRole('button', { name: 'Save engine' }));
+    await user.click(screen.getByRole('button', { name: 'Save engine' }));
     const alert = await screen.findByRole('alert');
     expect(alert).toHaveTextContent('highHighLimit of MB1-T must be above its highLimit');
     expect(alert).toHaveTextContent('mawpPsig must be positive');
@@ -81,7 +56,8 @@ describe('engine edit page', () => {
   }, 20_000);
 
   it('does not send when a required field is empty', async () => {
-    const fetchSpy = vi.spyOn(globalThis, 'fetch').mockImplementation(async () => json(engine));
+    const user = userEvent.setup();
+    const { spy: fetchSpy } = stubFetch({ '*': () => json(engine) });
     render(
       <Routes>
         <Route path="/engines/:id/edit" element={<EngineEditPage />} />
@@ -89,8 +65,8 @@ describe('engine edit page', () => {
       { route: '/engines/e1/edit' },
     );
     const name = await screen.findByDisplayValue('No. 2 engine', {}, { timeout: 8000 });
-    fireEvent.change(name, { target: { value: '' } });
-    fireEvent.click(screen.getByRole('button', { name: 'Save engine' }));
+    await user.clear(name);
+    await user.click(screen.getByRole('button', { name: 'Save engine' }));
     await waitFor(() => expect(screen.getByRole('alert')).toHaveTextContent('Some fields need attention'));
     expect(fetchSpy.mock.calls.some(([, init]) => init?.method === 'PUT')).toBe(false);
   }, 20_000);

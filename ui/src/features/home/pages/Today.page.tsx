@@ -6,7 +6,7 @@ import { PageHeader } from '../../../components/PageHeader';
 import { Caution, SAFETY_NOTE } from '../../../components/Caution/Caution';
 import { useSession } from '../../auth/useSession';
 import { navigationFor } from '../../../components/AppShell/navigation';
-import { todayPanels } from './today-panels';
+import { todayPanels } from '../components/today-panels';
 
 /** The start screen: what needs this person today. Feature areas add their panels in today-panels.tsx. */
 export default function TodayPage() {

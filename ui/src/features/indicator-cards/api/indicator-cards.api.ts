@@ -109,7 +109,7 @@ export function useAddBrakeFigure(runId: string) {
     mutationFn: (req: BrakeFigureInput) => api<BrakeFigureDto>(`/runs/${runId}/brake-figures`, { body: req }),
     onSuccess: (f) => {
       qc.setQueryData<BrakeFigureDto[]>(cardKeys.brakeFigures(runId), (old) => upsertBrakeFigure(old, f));
-      qc.invalidateQueries({ queryKey: cardKeys.sets(runId) });
+      void qc.invalidateQueries({ queryKey: cardKeys.sets(runId) });
     },
   });
 }
@@ -120,7 +120,7 @@ export function useAmendBrakeFigure(runId: string) {
       api<BrakeFigureDto>(`/brake-figures/${id}/amendments`, { body: req }),
     onSuccess: (f) => {
       qc.setQueryData<BrakeFigureDto[]>(cardKeys.brakeFigures(runId), (old) => upsertBrakeFigure(old, f));
-      qc.invalidateQueries({ queryKey: cardKeys.sets(runId) });
+      void qc.invalidateQueries({ queryKey: cardKeys.sets(runId) });
     },
   });
 }

@@ -22,7 +22,7 @@ export function AddCardModal({ set, missing, onClose }: { set: CardSetDto; missi
     const sibling = set.cards.find((c) => c.cylinderLabel === missing.cylinderLabel);
     setDraft(emptyCard({ method: 'planimeter', springPsiPerIn: sibling?.springPsiPerIn ?? '', lengthIn: sibling?.lengthIn ?? '' }));
     add.reset();
-    // eslint-disable-next-line react-hooks/exhaustive-deps
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- reset only for another missing end; a refetch must not wipe the draft
   }, [missing?.cylinderId, missing?.end]);
   if (!missing) return null;
   const title = `${missing.cylinderLabel} ${endLabel(missing.end).toLowerCase()}`;

@@ -23,7 +23,7 @@ export function AmendCardModal({ set, card, onClose }: { set: CardSetDto; card: 
     setReason('');
     setPreview(null);
     amend.reset();
-    // eslint-disable-next-line react-hooks/exhaustive-deps
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- reset only for another card; a refetch must not wipe the draft
   }, [card?.id]);
 
   const figures = draft ? draftFigures(draft) : null;
@@ -57,7 +57,7 @@ export function AmendCardModal({ set, card, onClose }: { set: CardSetDto; card: 
       clearTimeout(t);
       ctrl.abort();
     };
-    // eslint-disable-next-line react-hooks/exhaustive-deps
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- key is the JSON of the figures: preview only when they change
   }, [key, card?.id]);
 
   if (!card || !draft) return null;

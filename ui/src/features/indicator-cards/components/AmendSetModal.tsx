@@ -28,7 +28,7 @@ export function AmendSetModal({ set, opened, onClose }: { set: CardSetDto; opene
       setReason('');
       amend.reset();
     }
-    // eslint-disable-next-line react-hooks/exhaustive-deps
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- reset on opening or another set; a refetch must not wipe the edits
   }, [opened, set.id]);
 
   const i = initial();

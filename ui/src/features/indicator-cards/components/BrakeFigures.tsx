@@ -16,7 +16,8 @@ import { AmendmentList } from './AmendmentList';
 import { localNow } from './CardSetForm';
 
 const BRAKE_CAUTION =
-  'Brake and load tests put the engine under deliberate load. Crankjournal aids a qualified crew; such tests follow the site procedure, local codes and licensed practice.';
+  'Brake and load tests put the engine under deliberate load. Crankjournal aids a qualified crew; such ' +
+  'tests follow the site procedure, local codes and licensed practice.';
 
 /** Brake or measured output figures of the run, against which the sets near them get a mechanical efficiency. */
 export function BrakeFigures({ runId, figures, canWrite }: { runId: string; figures: BrakeFigureDto[]; canWrite: boolean }) {

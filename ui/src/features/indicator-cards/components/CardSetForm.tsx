@@ -10,7 +10,8 @@ import { CardEditor } from './CardEditor';
 import { cardMissing, draftToInput, emptyCard, type CardDraft } from './card-draft';
 
 export const CARD_CAUTION =
-  'Cards are taken at the cylinder cocks under live steam. Crankjournal aids a qualified crew; fitting and removing indicators follows the site procedure, local codes and licensed practice.';
+  'Cards are taken at the cylinder cocks under live steam. Crankjournal aids a qualified crew; fitting ' +
+  'and removing indicators follows the site procedure, local codes and licensed practice.';
 
 type Num = number | '';
 export interface SetDraft {
@@ -78,7 +79,10 @@ export function newSetDraft(cylinders: FormCylinder[], previous?: CardSetDto): S
   };
 }
 
-/** Taking a card set: the moment, speed and pressures (or the nearest readings), and a card per cylinder end, worked out as they are entered. */
+/**
+ * Taking a card set: the moment, speed and pressures (or the nearest readings), and a card per cylinder end,
+ * worked out as they are entered.
+ */
 export function CardSetForm({
   runId,
   cylinders,
@@ -117,8 +121,7 @@ export function CardSetForm({
       clearTimeout(timer);
       ctrl.abort();
     };
-    // The request is compared by its content.
-    // eslint-disable-next-line react-hooks/exhaustive-deps
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- requestKey: preview again only when the content changes
   }, [runId, requestKey]);
 
   const setCard = (key: string, next: CardDraft) => setDraft((d) => ({ ...d, cards: { ...d.cards, [key]: next } }));
@@ -165,7 +168,7 @@ export function CardSetForm({
             placeholder="nearest reading"
             description={
               preview?.speedSource === 'reading'
-                ? `From the reading of ${new Date(preview.speedReadingAt!).toLocaleTimeString(undefined, { hour: '2-digit', minute: '2-digit' })}: ${fmt(preview.speedRpm, 1)} rpm`
+                ? `From the reading of ${clockTime(preview.speedReadingAt!)}: ${fmt(preview.speedRpm, 1)} rpm`
                 : 'Leave empty to use the nearest speed reading'
             }
             {...numberField('speedRpm')}
@@ -275,4 +278,8 @@ export function CardSetForm({
       </Group>
     </Stack>
   );
+}
+
+function clockTime(iso: string): string {
+  return new Date(iso).toLocaleTimeString(undefined, { hour: '2-digit', minute: '2-digit' });
 }

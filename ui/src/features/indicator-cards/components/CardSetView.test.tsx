@@ -1,5 +1,6 @@
+import userEvent from '@testing-library/user-event';
 import type { CardSetDto } from '@crankjournal/shared-types';
-import { fireEvent, render, screen, within } from '../../../test-utils/render';
+import { render, screen, within } from '../../../test-utils/render';
 import { upsertSet } from '../api/indicator-cards.api';
 import { CardSetView } from './CardSetView';
 
@@ -150,9 +151,10 @@ describe('CardSetView', () => {
     expect(screen.getByRole('button', { name: /Add the HP crank end card/ })).toBeInTheDocument();
   });
 
-  it('folds away the cards of older sets until asked', () => {
+  it('folds away the cards of older sets until asked', async () => {
+    const user = userEvent.setup();
     render(<CardSetView set={set()} canWrite={false} defaultOpen={false} />);
-    fireEvent.click(screen.getByRole('button', { name: 'Show the cards and the summary' }));
+    await user.click(screen.getByRole('button', { name: 'Show the cards and the summary' }));
     expect(screen.getByRole('button', { name: 'Hide the cards' })).toBeInTheDocument();
   });
 });

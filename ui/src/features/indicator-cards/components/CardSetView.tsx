@@ -27,7 +27,10 @@ function Stat({ label, children, testId }: { label: string; children: ReactNode;
 const source = (s: 'entered' | 'reading' | null, at?: string | null) =>
   s === 'reading' ? (at ? ` (reading ${timeOnly(at)})` : ' (reading)') : s === 'entered' ? ' (entered)' : '';
 
-/** One card set: its moment and figures, the summary table, each card as a p–V diagram over its ideal card, and the record of amendments. */
+/**
+ * One card set: its moment and figures, the summary table, each card as a p–V diagram over its ideal card, and
+ * the record of amendments.
+ */
 export function CardSetView({ set, canWrite, defaultOpen }: { set: CardSetDto; canWrite: boolean; defaultOpen: boolean }) {
   const [open, setOpen] = useState(defaultOpen);
   const [amending, setAmending] = useState<CardDto | null>(null);

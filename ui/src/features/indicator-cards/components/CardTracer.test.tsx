@@ -1,3 +1,4 @@
+import userEvent from '@testing-library/user-event';
 import { useState } from 'react';
 import { fireEvent, render, screen } from '../../../test-utils/render';
 import { CardTracer } from './CardTracer';
@@ -64,7 +65,8 @@ describe('CardTracer', () => {
     ]);
   });
 
-  it('undoes the last change, and drags a point to move it without adding one', () => {
+  it('undoes the last change, and drags a point to move it without adding one', async () => {
+    const user = userEvent.setup();
     const initial: TraceDraft = {
       atmosphericLine: [
         { x: 10, y: 150 },
@@ -82,7 +84,7 @@ describe('CardTracer', () => {
     const svg = surface();
     clickAt(svg, 40, 130);
     expect(screen.getAllByTestId('tracer-point')).toHaveLength(3);
-    fireEvent.click(screen.getByRole('button', { name: 'Undo' }));
+    await user.click(screen.getByRole('button', { name: 'Undo' }));
     expect(screen.getAllByTestId('tracer-point')).toHaveLength(2);
 
     // Press on the point at (360, 120), drag to (300, 100) image pixels, let go.
@@ -91,21 +93,22 @@ describe('CardTracer', () => {
     fireEvent.pointerUp(svg, { clientX: RECT.left + 600, clientY: RECT.top + 200, button: 0, pointerId: 1 });
     expect(screen.getAllByTestId('tracer-point')).toHaveLength(2);
     expect(seen[seen.length - 1].pointsPx[1]).toEqual({ x: 300, y: 100 });
-    fireEvent.click(screen.getByRole('button', { name: 'Undo' }));
+    await user.click(screen.getByRole('button', { name: 'Undo' }));
     expect(seen[seen.length - 1].pointsPx[1]).toEqual({ x: 360, y: 120 });
   });
 
-  it('zooms in and out and back to the width', () => {
+  it('zooms in and out and back to the width', async () => {
+    const user = userEvent.setup();
     render(<Harness />);
     const before = screen.getByTestId('tracer-zoom').textContent;
-    fireEvent.click(screen.getByRole('button', { name: 'Zoom in' }));
+    await user.click(screen.getByRole('button', { name: 'Zoom in' }));
     const zoomed = screen.getByTestId('tracer-zoom').textContent;
     expect(zoomed).not.toBe(before);
     expect(Number(zoomed!.replace('%', ''))).toBeGreaterThan(Number(before!.replace('%', '')));
-    fireEvent.click(screen.getByRole('button', { name: 'Zoom out' }));
-    fireEvent.click(screen.getByRole('button', { name: 'Zoom out' }));
+    await user.click(screen.getByRole('button', { name: 'Zoom out' }));
+    await user.click(screen.getByRole('button', { name: 'Zoom out' }));
     expect(Number(screen.getByTestId('tracer-zoom').textContent!.replace('%', ''))).toBeLessThan(Number(zoomed!.replace('%', '')));
-    fireEvent.click(screen.getByRole('button', { name: 'Fit the width' }));
+    await user.click(screen.getByRole('button', { name: 'Fit the width' }));
     expect(screen.getByTestId('tracer-zoom').textContent).toBe(before);
   });
 

@@ -76,7 +76,10 @@ export default function LoggersPage() {
     <>
       <PageHeader
         title="Data loggers"
-        subtitle="Each logger that sends readings over HTTP has its own key. A key is shown once, when issued; a revoked key is refused from then on."
+        subtitle={
+          'Each logger that sends readings over HTTP has its own key. A key is shown once, when issued; a ' +
+          'revoked key is refused from then on.'
+        }
         action={
           <Button size="lg" leftSection={<IconKey />} onClick={() => setIssuing(true)}>
             Issue a logger key
@@ -121,7 +124,7 @@ function IssueModal({ opened, onClose, engines }: { opened: boolean; onClose: ()
   const only = engines.length === 1 ? engines[0]!.value : '';
   useEffect(() => {
     if (only && !form.values.engineId) form.setFieldValue('engineId', only);
-    // eslint-disable-next-line react-hooks/exhaustive-deps
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- form is new each render; choose the engine once per opening
   }, [only, opened]);
   return (
     <Modal

@@ -1,10 +1,9 @@
+import userEvent from '@testing-library/user-event';
 import type { LoggerDto } from '@crankjournal/shared-types';
-import { render, screen, fireEvent, within } from '../../../test-utils/render';
-import { sessionStore } from '../../../api/session';
+import { render, screen, within } from '../../../test-utils/render';
+import { signIn, signOut, stubFetch } from '../../../test-utils/http';
 import LoggersPage from './Loggers.page';
 
-const json = (body: unknown, status = 200) =>
-  new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
 const logger: LoggerDto = {
   id: 'l1',
   engineId: 'e1',
@@ -17,31 +16,27 @@ const logger: LoggerDto = {
 
 describe('data loggers page', () => {
   beforeEach(() => {
-    sessionStore.set({
-      accessToken: 'a',
-      refreshToken: 'r',
-      user: { id: 'u1', email: 'admin@alderforge.example', displayName: 'Admin', role: 'administrator', unitSystem: 'imperial' },
-    });
+    signIn('administrator', { id: 'u1', email: 'admin@alderforge.example', displayName: 'Admin', unitSystem: 'imperial' });
   });
   afterEach(() => {
     vi.restoreAllMocks();
-    sessionStore.set(null);
+    signOut();
   });
 
   it('shows an issued key once, with a copy button and a warning', async () => {
-    const fetchSpy = vi.spyOn(globalThis, 'fetch').mockImplementation(async (input, init) => {
-      const url = String(input);
-      if (url === '/api/engines') return json([{ id: 'e1', name: 'No. 2 engine' }]);
-      if (url === '/api/loggers' && init?.method === 'POST')
-        return json({ ...logger, id: 'l2', name: 'Oil pressure logger', key: 'cjl_secret_key_123' });
-      return json([logger]);
+    const user = userEvent.setup();
+    const { spy: fetchSpy } = stubFetch({
+      '*': [logger],
+      '/engines': [{ id: 'e1', name: 'No. 2 engine' }],
+      'POST /loggers': { ...logger, id: 'l2', name: 'Oil pressure logger', key: 'cjl_secret_key_123' },
     });
     render(<LoggersPage />);
     expect(await screen.findByText('Bearing thermocouples', {}, { timeout: 8000 })).toBeInTheDocument();
-    fireEvent.click(screen.getByRole('button', { name: 'Issue a logger key' }));
+    await user.click(screen.getByRole('button', { name: 'Issue a logger key' }));
     const dialog = await screen.findByRole('dialog');
-    fireEvent.change(within(dialog).getByLabelText(/Logger name/), { target: { value: 'Oil pressure logger' } });
-    fireEvent.click(within(dialog).getByRole('button', { name: 'Issue key' }));
+    await user.clear(within(dialog).getByLabelText(/Logger name/));
+    await user.type(within(dialog).getByLabelText(/Logger name/), 'Oil pressure logger');
+    await user.click(within(dialog).getByRole('button', { name: 'Issue key' }));
     expect(await screen.findByTestId('issued-key', {}, { timeout: 8000 })).toHaveTextContent('cjl_secret_key_123');
     expect(screen.getByText(/only time the key is shown/)).toBeInTheDocument();
     expect(screen.getByRole('button', { name: 'Copy key' })).toBeInTheDocument();
@@ -50,18 +45,18 @@ describe('data loggers page', () => {
   }, 20_000);
 
   it('asks before revoking a key', async () => {
-    const fetchSpy = vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
-      const url = String(input);
-      if (url === '/api/engines') return json([{ id: 'e1', name: 'No. 2 engine' }]);
-      if (url === '/api/loggers/l1/revoke') return json({ ...logger, revokedAt: '2026-05-02T08:00:00Z' });
-      return json([logger]);
+    const user = userEvent.setup();
+    const { spy: fetchSpy } = stubFetch({
+      '*': [logger],
+      '/engines': [{ id: 'e1', name: 'No. 2 engine' }],
+      '/loggers/l1/revoke': { ...logger, revokedAt: '2026-05-02T08:00:00Z' },
     });
     render(<LoggersPage />);
-    fireEvent.click(await screen.findByRole('button', { name: 'Revoke key' }, { timeout: 8000 }));
+    await user.click(await screen.findByRole('button', { name: 'Revoke key' }, { timeout: 8000 }));
     const dialog = await screen.findByRole('dialog');
     expect(dialog).toHaveTextContent('will be refused from now on');
     expect(fetchSpy.mock.calls.some(([u]) => String(u).endsWith('/revoke'))).toBe(false);
-    fireEvent.click(within(dialog).getByRole('button', { name: 'Revoke key' }));
+    await user.click(within(dialog).getByRole('button', { name: 'Revoke key' }));
     await vi.waitFor(() => expect(fetchSpy.mock.calls.some(([u]) => String(u) === '/api/loggers/l1/revoke')).toBe(true));
   }, 20_000);
 });

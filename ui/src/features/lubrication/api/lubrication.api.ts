@@ -16,7 +16,7 @@ import type {
   OilViscosityResponse,
   OilWriteRequest,
 } from '@crankjournal/shared-types';
-import { api } from '../../../api/http';
+import { api, withQuery } from '../../../api/http';
 
 export const lubricationKeys = {
   all: ['lubrication'] as const,
@@ -31,7 +31,7 @@ export const engineLubricationQuery = (engineId: string) =>
 export const bearingAnalysisQuery = (engineId: string, runId?: string) =>
   queryOptions({
     queryKey: lubricationKeys.bearings(engineId, runId),
-    queryFn: () => api<BearingLubricationAnalysis>(`/lubrication/engines/${engineId}/bearings${runId ? `?runId=${runId}` : ''}`),
+    queryFn: () => api<BearingLubricationAnalysis>(withQuery(`/lubrication/engines/${engineId}/bearings`, { runId })),
   });
 
 export const calculateOilViscosity = (req: OilViscosityRequest) => api<OilViscosityResponse>('/calculations/oil-viscosity', { body: req });

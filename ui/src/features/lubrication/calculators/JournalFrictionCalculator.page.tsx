@@ -9,7 +9,10 @@ import { ResultFigure, fmtN, fmtSci } from '../components/ResultFigure';
 
 type Num = number | '';
 export type FrictionForm = Record<keyof JournalFrictionRequest, Num>;
-/** A main bearing of the demo engine: 16 × 26 in, 0.008 in radial clearance, 75 rpm, half of 225,000 lb; ISO VG 150 (150 / 14.5 cSt, 890 kg/m³) at 45 °C is 1.45 × 10⁻⁵ reyn by the oil-viscosity calculator. */
+/**
+ * A main bearing of the demo engine: 16 × 26 in, 0.008 in radial clearance, 75 rpm, half of 225,000 lb; ISO VG
+ * 150 (150 / 14.5 cSt, 890 kg/m³) at 45 °C is 1.45 × 10⁻⁵ reyn by the oil-viscosity calculator.
+ */
 export const FRICTION_EXAMPLE: FrictionForm = {
   diameterIn: 16,
   lengthIn: 26,

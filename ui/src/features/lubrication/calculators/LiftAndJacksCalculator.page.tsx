@@ -9,7 +9,10 @@ export default function LiftAndJacksCalculatorPage() {
     <>
       <PageHeader
         title="Pre-lube lift and jacks"
-        subtitle="The oil pressure that lifts a journal off its bearing, and whether a set of jacks is rated with margin for the rotating mass."
+        subtitle={
+          'The oil pressure that lifts a journal off its bearing, and whether a set of jacks is rated with ' +
+          'margin for the rotating mass.'
+        }
         action={
           <Button component={Link} to="/calculators" variant="default">
             All calculators

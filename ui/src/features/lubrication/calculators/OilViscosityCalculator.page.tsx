@@ -47,7 +47,10 @@ export default function OilViscosityCalculatorPage() {
     <>
       <PageHeader
         title="Oil viscosity at temperature"
-        subtitle="From the two data-sheet figures at 40 °C and 100 °C by the ASTM D341 (Walther) relation, and the absolute viscosity from the density."
+        subtitle={
+          'From the two data-sheet figures at 40 °C and 100 °C by the ASTM D341 (Walther) relation, and the ' +
+          'absolute viscosity from the density.'
+        }
         action={
           <Button component={Link} to="/calculators" variant="default">
             All calculators

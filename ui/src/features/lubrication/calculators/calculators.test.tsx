@@ -1,11 +1,9 @@
 import { render, screen, waitFor } from '../../../test-utils/render';
 import { CALCULATORS } from '../../calculators/calculators';
 import { navigationFor } from '../../../components/AppShell/navigation';
+import { json, stubFetch } from '../../../test-utils/http';
 import OilViscosityCalculatorPage, { VISCOSITY_EXAMPLE, toViscosityRequest } from './OilViscosityCalculator.page';
 import JournalFrictionCalculatorPage, { FRICTION_EXAMPLE, toFrictionRequest } from './JournalFrictionCalculator.page';
-
-const json = (body: unknown, status = 200) =>
-  new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
 
 describe('the lubrication calculators', () => {
   afterEach(() => vi.restoreAllMocks());
@@ -30,18 +28,17 @@ describe('the lubrication calculators', () => {
       densityKgM3At15C: 890,
     });
     expect(toViscosityRequest({ ...VISCOSITY_EXAMPLE, temperatureC: '' })).toBeNull();
-    const spy = vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) =>
-      String(input) === '/api/calculations/oil-viscosity'
-        ? json({
-            kinematicCst: 114.39,
-            densityKgM3: 872.6,
-            densityAssumed: false,
-            dynamicPaS: 0.0998,
-            dynamicReyn: 0.00001448,
-            method: 'ASTM D341',
-          })
-        : json([]),
-    );
+    const { spy } = stubFetch({
+      '*': [],
+      '/calculations/oil-viscosity': {
+        kinematicCst: 114.39,
+        densityKgM3: 872.6,
+        densityAssumed: false,
+        dynamicPaS: 0.0998,
+        dynamicReyn: 0.00001448,
+        method: 'ASTM D341',
+      },
+    });
     render(<OilViscosityCalculatorPage />);
     await waitFor(() => expect(screen.getByTestId('visc-cst')).toHaveTextContent('114.4'));
     expect(screen.getByTestId('visc-reyn')).toHaveTextContent('1.45e-5');
@@ -58,9 +55,7 @@ describe('the lubrication calculators', () => {
       viscosityReyn: 0.0000145,
       loadLbf: 112500,
     });
-    vi.spyOn(globalThis, 'fetch').mockImplementation(async () =>
-      json({ statusCode: 400, error: 'Bad Request', message: ['radialClearanceIn must be at least 0.00001'] }, 400),
-    );
+    stubFetch({ '*': () => json({ statusCode: 400, error: 'Bad Request', message: ['radialClearanceIn must be at least 0.00001'] }, 400) });
     render(<JournalFrictionCalculatorPage />);
     await waitFor(() => expect(screen.getByTestId('calc-error')).toHaveTextContent('radialClearanceIn must be at least 0.00001'));
   });

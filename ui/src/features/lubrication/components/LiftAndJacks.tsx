@@ -115,7 +115,9 @@ export function LiftAndJacks({ journalLoadLbf, rotatingWeightLb }: { journalLoad
       <Caution title="Jacking and lifting">
         {lift.result?.caution ??
           jack.result?.caution ??
-          'Jacking and hydraulic lift of a loaded journal can kill or maim. These figures aid a qualified crew; they do not replace the jack and pump makers’ ratings, local codes, the insurer’s requirements or licensed practice.'}
+          'Jacking and hydraulic lift of a loaded journal can kill or maim. These figures aid a qualified ' +
+            'crew; they do not replace the jack and pump makers’ ratings, local codes, the insurer’s ' +
+            'requirements or licensed practice.'}
       </Caution>
     </Stack>
   );

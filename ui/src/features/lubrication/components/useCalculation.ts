@@ -33,7 +33,7 @@ export function useCalculation<Req, Res>(call: (req: Req) => Promise<Res>, reque
       live = false;
       clearTimeout(t);
     };
-    // eslint-disable-next-line react-hooks/exhaustive-deps
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- callers build request inline; ask again only when its JSON changes
   }, [key]);
   return { result, error };
 }

@@ -487,7 +487,10 @@ function mainJournalLoad(engine: EngineDetail | undefined): number | null {
   return shares.length ? (engine.rotatingWeightLb * Math.max(...shares)) / 100 : null;
 }
 
-/** /lubrication — oils and points, oil used with its rates and trends, each bearing's viscosity, load and friction at a run, pre-lube and jacks. */
+/**
+ * /lubrication — oils and points, oil used with its rates and trends, each bearing's viscosity, load and
+ * friction at a run, pre-lube and jacks.
+ */
 export default function LubricationPage() {
   const canWrite = useHasRole('maintenance_lead', 'chief_engineer');
   const canLog = useHasRole('operator', 'maintenance_lead', 'chief_engineer');

@@ -15,14 +15,7 @@ import type {
   WorkRecordDto,
   WorkRecordSummary,
 } from '@crankjournal/shared-types';
-import { api, download } from '../../../api/http';
-
-function query(params: Record<string, string | undefined>): string {
-  const q = new URLSearchParams();
-  for (const [k, v] of Object.entries(params)) if (v) q.set(k, v);
-  const s = q.toString();
-  return s ? `?${s}` : '';
-}
+import { api, withQuery, download } from '../../../api/http';
 
 /** Keys: everything of the maintenance area sits under ['maintenance'], so one invalidation refreshes it all. */
 export const maintenanceKeys = {
@@ -45,23 +38,23 @@ export const bearingsQuery = () =>
 export const bearingHistoryQuery = (id: string) =>
   queryOptions({ queryKey: maintenanceKeys.history(id), queryFn: () => api<BearingHistory>(`/maintenance/bearings/${id}/history`) });
 export const dueListQuery = (engineId?: string) =>
-  queryOptions({ queryKey: maintenanceKeys.due(engineId), queryFn: () => api<DueList>(`/maintenance/due${query({ engineId })}`) });
+  queryOptions({ queryKey: maintenanceKeys.due(engineId), queryFn: () => api<DueList>(withQuery('/maintenance/due', { engineId })) });
 export const plansQuery = (engineId?: string) =>
   queryOptions({
     queryKey: maintenanceKeys.plans(engineId),
-    queryFn: () => api<InspectionPlanDto[]>(`/maintenance/plans${query({ engineId })}`),
+    queryFn: () => api<InspectionPlanDto[]>(withQuery('/maintenance/plans', { engineId })),
   });
 export const planQuery = (id: string) =>
   queryOptions({ queryKey: maintenanceKeys.plan(id), queryFn: () => api<InspectionPlanDto>(`/maintenance/plans/${id}`) });
 export const inspectionsQuery = (f: { engineId?: string; bearingId?: string } = {}) =>
   queryOptions({
     queryKey: maintenanceKeys.inspections(f),
-    queryFn: () => api<InspectionSummary[]>(`/maintenance/inspections${query(f)}`),
+    queryFn: () => api<InspectionSummary[]>(withQuery('/maintenance/inspections', f)),
   });
 export const inspectionQuery = (id: string) =>
   queryOptions({ queryKey: maintenanceKeys.inspection(id), queryFn: () => api<InspectionDto>(`/maintenance/inspections/${id}`) });
 export const workRecordsQuery = (f: { engineId?: string; bearingId?: string; status?: 'open' | 'closed' } = {}) =>
-  queryOptions({ queryKey: maintenanceKeys.work(f), queryFn: () => api<WorkRecordSummary[]>(`/maintenance/work-records${query(f)}`) });
+  queryOptions({ queryKey: maintenanceKeys.work(f), queryFn: () => api<WorkRecordSummary[]>(withQuery('/maintenance/work-records', f)) });
 export const workRecordQuery = (id: string) =>
   queryOptions({ queryKey: maintenanceKeys.workRecord(id), queryFn: () => api<WorkRecordDto>(`/maintenance/work-records/${id}`) });
 

@@ -1,16 +1,13 @@
 import { render, screen, within, waitFor } from '../../../test-utils/render';
-import { sessionStore } from '../../../api/session';
-import { plan } from '../test/fixtures';
+import { plan } from '../../../test-utils/fixtures/maintenance';
+import { signIn, signOut, stubFetch } from '../../../test-utils/http';
 import { DueList } from './DueList';
 import { TodayMaintenance } from './TodayMaintenance';
-
-const json = (body: unknown, status = 200) =>
-  new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
 
 describe('the due list', () => {
   afterEach(() => {
     vi.restoreAllMocks();
-    sessionStore.set(null);
+    signOut();
   });
 
   it('marks an overdue plan by word, with how far over, and a due-soon one apart from the ones in date', () => {
@@ -33,36 +30,29 @@ describe('the due list', () => {
   });
 
   it('on the Today screen shows only what needs someone, overdue marked, and bearings that drifted', async () => {
-    sessionStore.set({
-      accessToken: 'a',
-      refreshToken: 'r',
-      user: { id: 'u1', email: 'm@alderforge.example', displayName: 'Test Lead', role: 'maintenance_lead', unitSystem: 'imperial' },
-    });
-    vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
-      const url = String(input);
-      if (url.startsWith('/api/maintenance/due'))
-        return json({
-          items: [plan('p1', 'Main bearing 1 clearance', 'overdue', -45), plan('p3', 'Crank webs', 'ok', 500)],
-          ruleText: 'Whichever comes first.',
-          generatedAt: '2026-12-01T00:00:00Z',
-        });
-      if (url.startsWith('/api/maintenance/bearings'))
-        return json([
-          {
-            id: 'b2',
-            engineId: 'e1',
-            engineName: 'No. 2 engine',
-            label: 'Main bearing 2',
-            kind: 'main',
-            pointCodes: ['MB2-T'],
-            runCount: 6,
-            lastRunAt: null,
-            latestRunDrift: true,
-            driftRuns: 1,
-            lastInspectionAt: null,
-          },
-        ]);
-      return json({ imperial: {}, metric: {} });
+    signIn('maintenance_lead', { id: 'u1', email: 'm@alderforge.example', displayName: 'Test Lead', unitSystem: 'imperial' });
+    stubFetch({
+      '*': { imperial: {}, metric: {} },
+      '/maintenance/due*': {
+        items: [plan('p1', 'Main bearing 1 clearance', 'overdue', -45), plan('p3', 'Crank webs', 'ok', 500)],
+        ruleText: 'Whichever comes first.',
+        generatedAt: '2026-12-01T00:00:00Z',
+      },
+      '/maintenance/bearings*': [
+        {
+          id: 'b2',
+          engineId: 'e1',
+          engineName: 'No. 2 engine',
+          label: 'Main bearing 2',
+          kind: 'main',
+          pointCodes: ['MB2-T'],
+          runCount: 6,
+          lastRunAt: null,
+          latestRunDrift: true,
+          driftRuns: 1,
+          lastInspectionAt: null,
+        },
+      ],
     });
     render(<TodayMaintenance />);
     await waitFor(() => expect(screen.getByText('Main bearing 1 clearance')).toBeInTheDocument());

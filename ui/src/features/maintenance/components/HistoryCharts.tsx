@@ -36,7 +36,10 @@ function PeakDot(props: { cx?: number; cy?: number; index?: number; payload?: { 
   return <circle key={index} cx={cx} cy={cy} r={4} fill={C.peak} />;
 }
 
-/** Peak and mean temperature and the rise above ambient of every run across the seasons, with inspections and work marked on the time axis. */
+/**
+ * Peak and mean temperature and the rise above ambient of every run across the seasons, with inspections and
+ * work marked on the time axis.
+ */
 export function SeasonsChart({ history }: { history: BearingHistory }) {
   const { display } = useUnits();
   const unit = history.runs[0]?.unit ?? 'degF';

@@ -14,7 +14,10 @@ import { RiseVsLoadChart, SeasonsChart } from '../components/HistoryCharts';
 import { day, fmt } from '../model/format';
 
 const HOT_BEARING_CAUTION =
-  'A bearing running above its usual band is a warning, not a verdict: follow the engine house’s hot-bearing procedure (ease the load, open the feed, never cool a hot journal suddenly) and stop the engine if the rise keeps on. Crankjournal aids a qualified crew; it never replaces local codes, the insurer’s inspections or licensed practice.';
+  'A bearing running above its usual band is a warning, not a verdict: follow the engine house’s ' +
+  'hot-bearing procedure (ease the load, open the feed, never cool a hot journal suddenly) and stop ' +
+  'the engine if the rise keeps on. Crankjournal aids a qualified crew; it never replaces local codes, ' +
+  'the insurer’s inspections or licensed practice.';
 
 function DriftCell({ r }: { r: BearingRunRow }) {
   if (!r.drift)
@@ -158,7 +161,10 @@ function Timeline({ entries }: { entries: TimelineEntry[] }) {
   );
 }
 
-/** /maintenance/bearings/:id — every run of the bearing with its temperatures at load, the drift flag and its rule, the charts, and inspections and work on one timeline. */
+/**
+ * /maintenance/bearings/:id — every run of the bearing with its temperatures at load, the drift flag and its
+ * rule, the charts, and inspections and work on one timeline.
+ */
 export default function BearingHistoryPage() {
   const { id = '' } = useParams();
   const canWrite = useHasRole('maintenance_lead', 'chief_engineer');
@@ -171,7 +177,11 @@ export default function BearingHistoryPage() {
     <Stack gap="lg">
       <PageHeader
         title={b.label}
-        subtitle={`${b.engineName} · journal ${b.journalDiameterIn} × ${b.journalLengthIn} in${b.radialClearanceIn ? ` · radial clearance ${b.radialClearanceIn} in` : ''} · ${b.loadSharePercent} % of the rotating load · points ${b.points.map((p) => p.code).join(', ') || '—'}`}
+        subtitle={
+          `${b.engineName} · journal ${b.journalDiameterIn} × ${b.journalLengthIn} in` +
+          (b.radialClearanceIn ? ` · radial clearance ${b.radialClearanceIn} in` : '') +
+          ` · ${b.loadSharePercent} % of the rotating load · points ${b.points.map((p) => p.code).join(', ') || '—'}`
+        }
         state={flagged.length ? <DriftBadge /> : undefined}
         action={
           <Group gap="sm">

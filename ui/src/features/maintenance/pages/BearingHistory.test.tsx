@@ -1,30 +1,22 @@
 import { Route, Routes } from 'react-router-dom';
 import { render, screen, waitFor, within } from '../../../test-utils/render';
-import { sessionStore } from '../../../api/session';
-import { HISTORY, INSPECTION } from '../test/fixtures';
+import { HISTORY, INSPECTION } from '../../../test-utils/fixtures/maintenance';
+import { signIn, signOut, stubFetch } from '../../../test-utils/http';
 import BearingHistoryPage from './BearingHistory.page';
 import InspectionPage from './Inspection.page';
 
-const json = (body: unknown, status = 200) =>
-  new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
-
 describe('a bearing’s history', () => {
   beforeEach(() => {
-    sessionStore.set({
-      accessToken: 'a',
-      refreshToken: 'r',
-      user: { id: 'u1', email: 'o@alderforge.example', displayName: 'Test Observer', role: 'observer', unitSystem: 'imperial' },
-    });
-    vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
-      const url = String(input);
-      if (url === '/api/maintenance/bearings/b2/history') return json(HISTORY);
-      if (url === '/api/maintenance/inspections/i1') return json(INSPECTION);
-      return json({ imperial: {}, metric: {} });
+    signIn('observer', { id: 'u1', email: 'o@alderforge.example', displayName: 'Test Observer', unitSystem: 'imperial' });
+    stubFetch({
+      '*': { imperial: {}, metric: {} },
+      '/maintenance/bearings/b2/history': HISTORY,
+      '/maintenance/inspections/i1': INSPECTION,
     });
   });
   afterEach(() => {
     vi.restoreAllMocks();
-    sessionStore.set(null);
+    signOut();
   });
 
   it('flags the run above the band, states the rule, and leaves the others unflagged', async () => {

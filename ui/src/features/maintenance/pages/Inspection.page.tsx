@@ -98,7 +98,8 @@ function Measurements({ inspection }: { inspection: InspectionDto }) {
               <Table.Td>
                 {m.toleranceMin === null && m.toleranceMax === null
                   ? '—'
-                  : `${m.toleranceMin === null ? '…' : measure(m.toleranceMin, m.unit)} to ${m.toleranceMax === null ? '…' : measure(m.toleranceMax, m.unit)}`}
+                  : `${m.toleranceMin === null ? '…' : measure(m.toleranceMin, m.unit)} to ` +
+                    (m.toleranceMax === null ? '…' : measure(m.toleranceMax, m.unit))}
               </Table.Td>
               <Table.Td>
                 <ToleranceCell m={m} />

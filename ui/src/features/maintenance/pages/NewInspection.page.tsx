@@ -164,7 +164,7 @@ export default function NewInspectionPage() {
     setKind(p.inspectionKind);
     if (!title) setTitle(p.title);
     if (p.bearingId) setBearingId(p.bearingId);
-    // eslint-disable-next-line react-hooks/exhaustive-deps
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- prefill on choosing a plan, not as the title is typed
   }, [planId, plans.data]);
 
   const setRow = (i: number, patch: Partial<ItemRow>) => setRows((rs) => rs.map((r, j) => (j === i ? { ...r, ...patch } : r)));
@@ -197,7 +197,7 @@ export default function NewInspectionPage() {
           rows,
         }),
       );
-      navigate(`/maintenance/inspections/${made.id}`);
+      void navigate(`/maintenance/inspections/${made.id}`);
     } catch (e) {
       setError(errorText(e));
     }

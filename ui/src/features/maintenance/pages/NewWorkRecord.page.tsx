@@ -85,7 +85,7 @@ export default function NewWorkRecordPage() {
         startedAt: new Date(startedAt).toISOString(),
         satisfiesPlanIds: planIds,
       });
-      navigate(`/maintenance/work/${made.id}`);
+      void navigate(`/maintenance/work/${made.id}`);
     } catch (e) {
       setError(errorText(e));
     }

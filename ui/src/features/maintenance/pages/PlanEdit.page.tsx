@@ -128,7 +128,7 @@ export default function PlanEditPage() {
             ...(existing.data && form.lastDoneAt !== existing.data.lastDoneAt.slice(0, 10) ? { lastDoneAt } : {}),
           })
         : await create.mutateAsync({ ...body, engineId: form.engineId, lastDoneAt });
-      navigate(`/maintenance/plans/${saved.id}`);
+      void navigate(`/maintenance/plans/${saved.id}`);
     } catch (e) {
       setError(errorText(e));
     }

@@ -32,7 +32,10 @@ const localNow = () => {
   return d.toISOString().slice(0, 16);
 };
 
-/** /maintenance/work/:id — a work record: what, who, parts, hours, what prompted it, its hazards; closing it resets the plans it satisfies. */
+/**
+ * /maintenance/work/:id — a work record: what, who, parts, hours, what prompted it, its hazards; closing it
+ * resets the plans it satisfies.
+ */
 export default function WorkRecordPage() {
   const { id = '' } = useParams();
   const canWrite = useHasRole('maintenance_lead', 'chief_engineer');

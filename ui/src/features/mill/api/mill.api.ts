@@ -26,7 +26,7 @@ import type {
   SendQuoteRequest,
   UpdateBarRequest,
 } from '@crankjournal/shared-types';
-import { api, download } from '../../../api/http';
+import { api, withQuery, download } from '../../../api/http';
 
 export interface ScheduleFilters {
   millId?: string;
@@ -56,13 +56,7 @@ export const millQuery = (id: string) => queryOptions({ queryKey: millKeys.mill(
 export const schedulesQuery = (f: ScheduleFilters = {}) =>
   queryOptions({
     queryKey: millKeys.scheduleList(f),
-    queryFn: () => {
-      const q = new URLSearchParams();
-      if (f.millId) q.set('millId', f.millId);
-      if (f.templates !== undefined) q.set('templates', String(f.templates));
-      const s = q.toString();
-      return api<ScheduleSummary[]>(`/mill/schedules${s ? `?${s}` : ''}`);
-    },
+    queryFn: () => api<ScheduleSummary[]>(withQuery('/mill/schedules', { millId: f.millId, templates: f.templates })),
   });
 export const scheduleQuery = (id: string) =>
   queryOptions({ queryKey: millKeys.schedule(id), queryFn: () => api<ScheduleDetail>(`/mill/schedules/${id}`) });
@@ -72,7 +66,7 @@ export const runLogQuery = (runId: string) =>
 export const timelineQuery = (runId: string) =>
   queryOptions({ queryKey: millKeys.timeline(runId), queryFn: () => api<MillTimelineItem[]>(`/mill/runs/${runId}/timeline`) });
 export const lotsQuery = (status?: LotStatus) =>
-  queryOptions({ queryKey: millKeys.lotList(status), queryFn: () => api<LotSummary[]>(`/mill/lots${status ? `?status=${status}` : ''}`) });
+  queryOptions({ queryKey: millKeys.lotList(status), queryFn: () => api<LotSummary[]>(withQuery('/mill/lots', { status })) });
 export const lotQuery = (id: string) => queryOptions({ queryKey: millKeys.lot(id), queryFn: () => api<LotDetail>(`/mill/lots/${id}`) });
 
 export const calculateRollingPass = (req: RollingPassRequest) => api<RollingPassResponse>('/calculations/rolling-pass', { body: req });
@@ -86,8 +80,8 @@ export function useSaveMill(id: string | undefined) {
       id ? api<MillDto>(`/mill/mills/${id}`, { method: 'PUT', body: req }) : api<MillDto>('/mill/mills', { body: req }),
     onSuccess: (m) => {
       qc.setQueryData(millKeys.mill(m.id), m);
-      qc.invalidateQueries({ queryKey: millKeys.mills() });
-      qc.invalidateQueries({ queryKey: millKeys.schedules() });
+      void qc.invalidateQueries({ queryKey: millKeys.mills() });
+      void qc.invalidateQueries({ queryKey: millKeys.schedules() });
     },
   });
 }
@@ -101,7 +95,7 @@ export function useSaveSchedule(id: string | undefined) {
         : api<ScheduleDetail>('/mill/schedules', { body: req }),
     onSuccess: (s) => {
       qc.setQueryData(millKeys.schedule(s.id), s);
-      qc.invalidateQueries({ queryKey: [...millKeys.schedules(), 'list'] });
+      void qc.invalidateQueries({ queryKey: [...millKeys.schedules(), 'list'] });
     },
   });
 }
@@ -113,7 +107,7 @@ export function useCopySchedule() {
       api<ScheduleDetail>(`/mill/schedules/${id}/copies`, { body: req }),
     onSuccess: (s) => {
       qc.setQueryData(millKeys.schedule(s.id), s);
-      qc.invalidateQueries({ queryKey: [...millKeys.schedules(), 'list'] });
+      void qc.invalidateQueries({ queryKey: [...millKeys.schedules(), 'list'] });
     },
   });
 }
@@ -121,9 +115,9 @@ export function useCopySchedule() {
 function useRefreshRun(runId: string) {
   const qc = useQueryClient();
   return () => {
-    qc.invalidateQueries({ queryKey: millKeys.run(runId) });
-    qc.invalidateQueries({ queryKey: millKeys.runs() });
-    qc.invalidateQueries({ queryKey: millKeys.lots() });
+    void qc.invalidateQueries({ queryKey: millKeys.run(runId) });
+    void qc.invalidateQueries({ queryKey: millKeys.runs() });
+    void qc.invalidateQueries({ queryKey: millKeys.lots() });
   };
 }
 
@@ -152,8 +146,8 @@ function useLotMutation<T>(fn: (v: T) => Promise<unknown>) {
     mutationFn: fn,
     onSuccess: (d) => {
       if (d && typeof d === 'object' && 'reference' in (d as object)) qc.setQueryData(millKeys.lot((d as LotDetail).id), d);
-      qc.invalidateQueries({ queryKey: millKeys.lots() });
-      qc.invalidateQueries({ queryKey: millKeys.runs() });
+      void qc.invalidateQueries({ queryKey: millKeys.lots() });
+      void qc.invalidateQueries({ queryKey: millKeys.runs() });
     },
   });
 }

@@ -1,17 +1,10 @@
-import type { Role } from '@crankjournal/shared-types';
-import { render, screen, fireEvent, waitFor } from '../../../test-utils/render';
-import { sessionStore } from '../../../api/session';
-import { bar, calc, json, overloaded, rect, schedule } from '../test/fixtures';
+import userEvent from '@testing-library/user-event';
+import { render, screen, waitFor } from '../../../test-utils/render';
+import { bar, calc, overloaded, rect, schedule } from '../../../test-utils/fixtures/mill';
+import { json, signIn, signOut, stubFetch } from '../../../test-utils/http';
 import { LogPass } from './LogPass';
 import { nextBarCode } from './StartBar';
 
-function signIn(role: Role) {
-  sessionStore.set({
-    accessToken: 'a',
-    refreshToken: 'r',
-    user: { id: 'u1', email: 'x@alderforge.example', displayName: 'Test Person', role, unitSystem: 'imperial' },
-  });
-}
 const stands = [
   { id: 's1', position: 1, name: 'Stand 1', rollDiameterMm: 406.4, barrelLengthMm: 762, rollSpeedRatio: 1, maxSeparatingForceKn: 900 },
   { id: 's2', position: 2, name: 'Stand 2', rollDiameterMm: 406.4, barrelLengthMm: 762, rollSpeedRatio: 1, maxSeparatingForceKn: 800 },
@@ -41,23 +34,23 @@ describe('LogPass', () => {
   beforeEach(() => signIn('mill_lead'));
   afterEach(() => {
     vi.restoreAllMocks();
-    sessionStore.set(null);
+    signOut();
   });
 
   it('prefills the next pass from the bar’s schedule and sends the measured figures', async () => {
-    const fetchSpy = vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
-      if (String(input).includes('/mill/schedules/')) return json(schedule());
-      return json(logged(), 201);
-    });
+    const user = userEvent.setup();
+    const { spy: fetchSpy } = stubFetch({ '*': () => json(logged(), 201), '/mill/schedules/*': schedule() });
     const b = bar({ passes: [{ ...logged(), id: 'lp1', passNumber: 1, standPosition: 1, entry: rect(76.2, 76.2), exit: rect(62, 80) }] });
     render(<LogPass runId="run-1" bars={[b]} stands={stands} barId="bar-1" onBarChange={() => {}} />);
     await waitFor(() => expect(screen.getByLabelText('Measured temperature, °C')).toHaveValue('1110'), { timeout: 8000 });
     expect(screen.getByLabelText('Pass number')).toHaveValue('2');
     expect(screen.getByLabelText('Entry: height, mm')).toHaveValue('80');
     expect(screen.getByLabelText('Measured exit: height, mm')).toHaveValue('60');
-    fireEvent.change(screen.getByLabelText('Measured temperature, °C'), { target: { value: '1096' } });
-    fireEvent.change(screen.getByLabelText('Measured exit: width, mm'), { target: { value: '66.5' } });
-    fireEvent.click(screen.getByRole('button', { name: 'Log pass' }));
+    await user.clear(screen.getByLabelText('Measured temperature, °C'));
+    await user.type(screen.getByLabelText('Measured temperature, °C'), '1096');
+    await user.clear(screen.getByLabelText('Measured exit: width, mm'));
+    await user.type(screen.getByLabelText('Measured exit: width, mm'), '66.5');
+    await user.click(screen.getByRole('button', { name: 'Log pass' }));
     await waitFor(() => expect(fetchSpy.mock.calls.some(([u]) => String(u).endsWith('/mill/bars/bar-1/passes'))).toBe(true));
     const [, init] = fetchSpy.mock.calls.find(([u]) => String(u).endsWith('/mill/bars/bar-1/passes'))!;
     const body = JSON.parse(String(init?.body));
@@ -66,13 +59,11 @@ describe('LogPass', () => {
   });
 
   it('shows the warnings of an overloaded pass as soon as it is logged', async () => {
-    vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
-      if (String(input).includes('/mill/schedules/')) return json(schedule());
-      return json(logged(overloaded()), 201);
-    });
+    const user = userEvent.setup();
+    stubFetch({ '*': () => json(logged(overloaded()), 201), '/mill/schedules/*': schedule() });
     render(<LogPass runId="run-1" bars={[bar()]} stands={stands} barId="bar-1" onBarChange={() => {}} />);
     await waitFor(() => expect(screen.getByLabelText('Measured temperature, °C')).toHaveValue('1150'), { timeout: 8000 });
-    fireEvent.click(screen.getByRole('button', { name: 'Log pass' }));
+    await user.click(screen.getByRole('button', { name: 'Log pass' }));
     const result = await screen.findByTestId('last-pass-result');
     expect(result).toHaveTextContent('Flywheel speed drop');
     expect(result).toHaveTextContent('below 67.5 rpm');

@@ -56,7 +56,7 @@ export function LogPass({
       setTemperature('');
     }
     setNotes('');
-    // eslint-disable-next-line react-hooks/exhaustive-deps
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- prefill on another bar or pass; a refetch must not overwrite typing
   }, [barId, passNumber, planned?.id, bar?.passes.length]);
 
   const submit = () => {

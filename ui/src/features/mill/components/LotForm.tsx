@@ -41,7 +41,7 @@ export function NewLotButton() {
       dueDate: f.dueDate,
       notes: f.notes,
     };
-    create.mutate(req, { onSuccess: (lot) => navigate(`/mill/lots/${(lot as { id: string }).id}`) });
+    create.mutate(req, { onSuccess: (lot) => void navigate(`/mill/lots/${(lot as { id: string }).id}`) });
   };
   return (
     <>

@@ -1,16 +1,9 @@
+import userEvent from '@testing-library/user-event';
 import type { Role } from '@crankjournal/shared-types';
-import { render, screen, fireEvent, waitFor } from '../../../test-utils/render';
-import { sessionStore } from '../../../api/session';
-import { json, lot } from '../test/fixtures';
+import { render, screen, waitFor } from '../../../test-utils/render';
+import { lot } from '../../../test-utils/fixtures/mill';
+import { json, signIn, signOut, stubFetch } from '../../../test-utils/http';
 import { LotStatusActions } from './LotStatusActions';
-
-function signIn(role: Role) {
-  sessionStore.set({
-    accessToken: 'a',
-    refreshToken: 'r',
-    user: { id: 'u1', email: 'x@alderforge.example', displayName: 'Test Person', role, unitSystem: 'imperial' },
-  });
-}
 
 // Rendering Mantine in jsdom is slow on a busy machine.
 vi.setConfig({ testTimeout: 30_000 });
@@ -18,7 +11,7 @@ vi.setConfig({ testTimeout: 30_000 });
 describe('LotStatusActions', () => {
   afterEach(() => {
     vi.restoreAllMocks();
-    sessionStore.set(null);
+    signOut();
   });
 
   it.each([
@@ -40,15 +33,15 @@ describe('LotStatusActions', () => {
   });
 
   it('moves the lot one step with the note', async () => {
+    const user = userEvent.setup();
     signIn('mill_lead');
-    const fetchSpy = vi
-      .spyOn(globalThis, 'fetch')
-      .mockImplementation(async () => json(lot({ status: 'accepted', nextStatus: 'scheduled' })));
+    const { spy: fetchSpy } = stubFetch({ '*': lot({ status: 'accepted', nextStatus: 'scheduled' }) });
     render(<LotStatusActions lot={lot()} />);
-    fireEvent.click(screen.getByRole('button', { name: 'Mark accepted' }));
+    await user.click(screen.getByRole('button', { name: 'Mark accepted' }));
     const dialog = await screen.findByRole('dialog');
-    fireEvent.change(screen.getByLabelText('Note (optional)'), { target: { value: 'Accepted by telephone' } });
-    fireEvent.click(dialog.querySelectorAll('button')[dialog.querySelectorAll('button').length - 1]);
+    await user.clear(screen.getByLabelText('Note (optional)'));
+    await user.type(screen.getByLabelText('Note (optional)'), 'Accepted by telephone');
+    await user.click(dialog.querySelectorAll('button')[dialog.querySelectorAll('button').length - 1]);
     await waitFor(() => expect(fetchSpy).toHaveBeenCalled(), { timeout: 5000 });
     const [url, init] = fetchSpy.mock.calls[0]!;
     expect(String(url)).toBe('/api/mill/lots/lot-1/transitions');
@@ -56,22 +49,21 @@ describe('LotStatusActions', () => {
   });
 
   it('asks for the tonnage when marking rolled, records it, then moves the lot; shows the server’s refusal', async () => {
+    const user = userEvent.setup();
     signIn('chief_engineer');
-    const fetchSpy = vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
-      if (String(input).endsWith('/transitions'))
-        return json(
-          { statusCode: 409, error: 'Conflict', message: 'Someone else moved this lot a moment ago. Look again and retry.' },
-          409,
-        );
-      return json(lot({ status: 'scheduled', producedTonnes: 1.9 }));
+    const { spy: fetchSpy } = stubFetch({
+      '*': lot({ status: 'scheduled', producedTonnes: 1.9 }),
+      '*/transitions': () =>
+        json({ statusCode: 409, error: 'Conflict', message: 'Someone else moved this lot a moment ago. Look again and retry.' }, 409),
     });
     render(<LotStatusActions lot={lot({ status: 'scheduled', nextStatus: 'rolled' })} />);
-    fireEvent.click(screen.getByRole('button', { name: 'Mark rolled' }));
+    await user.click(screen.getByRole('button', { name: 'Mark rolled' }));
     const dialog = await screen.findByRole('dialog');
     expect(screen.getByLabelText('Produced, tonnes')).toHaveValue('1.9');
-    fireEvent.change(screen.getByLabelText('Produced, tonnes'), { target: { value: '1.95' } });
+    await user.clear(screen.getByLabelText('Produced, tonnes'));
+    await user.type(screen.getByLabelText('Produced, tonnes'), '1.95');
     const confirm = [...dialog.querySelectorAll('button')].find((b) => b.textContent === 'Mark rolled')!;
-    fireEvent.click(confirm);
+    await user.click(confirm);
     await waitFor(() => expect(fetchSpy).toHaveBeenCalledTimes(2), { timeout: 5000 });
     const [url1, init1] = fetchSpy.mock.calls[0]!;
     expect(String(url1)).toBe('/api/mill/lots/lot-1');

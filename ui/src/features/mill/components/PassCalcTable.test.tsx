@@ -1,5 +1,6 @@
-import { render, screen, fireEvent, within } from '../../../test-utils/render';
-import { calc, overloaded, rect } from '../test/fixtures';
+import userEvent from '@testing-library/user-event';
+import { render, screen, within } from '../../../test-utils/render';
+import { calc, overloaded, rect } from '../../../test-utils/fixtures/mill';
 import { PassCalcTable, type PassRow } from './PassCalcTable';
 
 const row = (key: string, c = calc()): PassRow => ({
@@ -36,10 +37,11 @@ describe('PassCalcTable', () => {
     expect(alerts.map((a) => a.textContent).join(' ')).toMatch(/over the stand's maximum of 900 kN/);
   });
 
-  it('shows the working, with the sources and the cited model, on demand', () => {
+  it('shows the working, with the sources and the cited model, on demand', async () => {
+    const user = userEvent.setup();
     render(<PassCalcTable caption="Passes" rows={[row('c')]} />);
     expect(screen.queryByText(/Misaka & Yoshimoto \(1967\), test citation/)).not.toBeInTheDocument();
-    fireEvent.click(screen.getByRole('button', { name: 'Show the working of pass 1' }));
+    await user.click(screen.getByRole('button', { name: 'Show the working of pass 1' }));
     expect(screen.getByText(/Misaka & Yoshimoto \(1967\), test citation/)).toBeInTheDocument();
     expect(screen.getByText(/Indicated power: site setting/)).toBeInTheDocument();
   });

@@ -23,7 +23,7 @@ export function PlanFromTemplate({ templateId, size = 'lg' }: { templateId?: str
     chosen &&
     copy.mutate(
       { id: chosen, req: { name: name.trim(), lotId: lotId ?? undefined, millId: millId ?? undefined } },
-      { onSuccess: (s) => navigate(`/mill/schedules/${s.id}`) },
+      { onSuccess: (s) => void navigate(`/mill/schedules/${s.id}`) },
     );
   return (
     <>

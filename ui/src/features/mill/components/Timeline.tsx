@@ -1,7 +1,7 @@
 import { Badge, Group, Paper, Stack, Text } from '@mantine/core';
 import { IconGauge, IconTimeline } from '@tabler/icons-react';
 import { ALARM_KIND_WORDS, UNIT_LABELS, type MillTimelineItem } from '@crankjournal/shared-types';
-import { AlarmStateBadge } from '../../runs/live/alarm-look';
+import { AlarmStateBadge } from '../../alarms/components/alarm-look';
 import { fmt, sectionText } from '../model/format';
 import { PassWarnings } from './PassWarnings';
 

@@ -158,13 +158,16 @@ export default function MillEditPage() {
   if (id && existing.isLoading) return <Loader />;
   const setStand = (i: number, patch: Partial<StandForm>) =>
     setForm((f) => ({ ...f, stands: f.stands.map((s, j) => (j === i ? { ...s, ...patch } : s)) }));
-  const submit = () => save.mutate(toMillRequest(form), { onSuccess: () => navigate('/mill') });
+  const submit = () => save.mutate(toMillRequest(form), { onSuccess: () => void navigate('/mill') });
 
   return (
     <Stack gap="lg">
       <PageHeader
         title={id ? `Edit ${existing.data?.name ?? 'the mill'}` : 'Describe a mill'}
-        subtitle="Stands from the entry side, the engine that drives them, the figures the pass checks use and the rates quotes are made from."
+        subtitle={
+          'Stands from the entry side, the engine that drives them, the figures the pass checks use and the ' +
+          'rates quotes are made from.'
+        }
       />
       <Card withBorder padding="lg">
         <SimpleGrid cols={{ base: 1, sm: 2 }} spacing="md">

@@ -60,7 +60,10 @@ export default function RollingRunsPage() {
     <>
       <PageHeader
         title="Rolling log"
-        subtitle="Bars and passes of each run, beside the run’s readings and alarms. Passes are logged while a run is running, or stopped and not yet closed."
+        subtitle={
+          'Bars and passes of each run, beside the run’s readings and alarms. Passes are logged while a run is ' +
+          'running, or stopped and not yet closed.'
+        }
       />
       <DataTable data={data} columns={columns} caption="Runs with rolling" empty="No run has rolled bars yet." getRowId={(r) => r.runId} />
     </>

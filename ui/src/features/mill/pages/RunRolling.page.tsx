@@ -1,7 +1,7 @@
 import { useEffect, useState } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { useQuery } from '@tanstack/react-query';
-import { Alert, Anchor, Badge, Button, Card, Grid, Group, Loader, SegmentedControl, Stack, Text, Title } from '@mantine/core';
+import { Alert, Anchor, Badge, Button, Card, Grid, Group, Loader, SegmentedControl, Stack, Text } from '@mantine/core';
 import { IconArrowRight, IconChevronDown, IconChevronRight } from '@tabler/icons-react';
 import { MILL_WRITERS, type BarDto } from '@crankjournal/shared-types';
 import { PageHeader } from '../../../components/PageHeader';
@@ -125,7 +125,10 @@ export default function RunRollingPage() {
     <Stack gap="lg">
       <PageHeader
         title={`Rolling log: ${data.run.title}`}
-        subtitle={`${data.run.engineName}${data.mill ? ` driving ${data.mill.name}` : ''} · ${data.bars.length} bar(s), ${data.bars.reduce((s, b) => s + b.passes.length, 0)} pass(es)${flagged ? `, ${flagged} flagged` : ''}`}
+        subtitle={
+          `${data.run.engineName}${data.mill ? ` driving ${data.mill.name}` : ''} · ${data.bars.length} bar(s), ` +
+          `${data.bars.reduce((s, b) => s + b.passes.length, 0)} pass(es)${flagged ? `, ${flagged} flagged` : ''}`
+        }
         state={<RunStateBadge state={data.run.state} />}
         action={
           <Button component={Link} to={`/runs/${data.run.id}`} variant="default" rightSection={<IconArrowRight size={18} />}>

@@ -154,7 +154,7 @@ export default function ScheduleEditPage() {
   const mill = mills.data?.find((m) => m.id === form.millId);
   const setPass = (i: number, patch: Partial<PassForm>) =>
     setForm((f) => ({ ...f, passes: f.passes.map((p, j) => (j === i ? { ...p, ...patch } : p)) }));
-  const submit = () => save.mutate(toScheduleRequest(form), { onSuccess: (s) => navigate(`/mill/schedules/${s.id}`) });
+  const submit = () => save.mutate(toScheduleRequest(form), { onSuccess: (s) => void navigate(`/mill/schedules/${s.id}`) });
 
   return (
     <Stack gap="lg">

@@ -75,7 +75,10 @@ export default function SchedulesPage() {
     <Stack gap="lg">
       <PageHeader
         title="Pass schedules"
-        subtitle="Each pass of a product from its stock: stand, entry and exit section, reduction and temperature, with the roll load and the flywheel’s share worked out."
+        subtitle={
+          'Each pass of a product from its stock: stand, entry and exit section, reduction and temperature, ' +
+          'with the roll load and the flywheel’s share worked out.'
+        }
         action={
           canWrite && (
             <Group>

@@ -5,7 +5,7 @@ import type {
   QualificationMatrix,
   RenewQualificationRequest,
 } from '@crankjournal/shared-types';
-import { api } from '../../../api/http';
+import { api, withQuery } from '../../../api/http';
 
 export const qualificationKeys = {
   all: ['qualifications'] as const,
@@ -19,12 +19,12 @@ export const myQualificationsQuery = () =>
 export const qualificationMatrixQuery = (engineId: string) =>
   queryOptions({
     queryKey: qualificationKeys.matrix(engineId),
-    queryFn: () => api<QualificationMatrix>(`/qualifications/matrix?engineId=${engineId}`),
+    queryFn: () => api<QualificationMatrix>(withQuery('/qualifications/matrix', { engineId })),
   });
 export const qualificationHistoryQuery = (userId: string, engineId: string) =>
   queryOptions({
     queryKey: qualificationKeys.history(userId, engineId),
-    queryFn: () => api<QualificationDto[]>(`/qualifications?userId=${userId}&engineId=${engineId}&includeWithdrawn=true`),
+    queryFn: () => api<QualificationDto[]>(withQuery('/qualifications', { userId, engineId, includeWithdrawn: true })),
   });
 
 export function useQualificationWrite() {

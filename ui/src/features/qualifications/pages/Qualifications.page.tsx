@@ -357,7 +357,10 @@ export default function QualificationsPage() {
     <>
       <PageHeader
         title="Qualifications"
-        subtitle="Per person, per engine and per duty. Signing a checklist, starting a run and answering alarms each need a current one; nobody is exempt."
+        subtitle={
+          'Per person, per engine and per duty. Signing a checklist, starting a run and answering alarms each ' +
+          'need a current one; nobody is exempt.'
+        }
       />
       {seesMatrix ? (
         <Tabs value={tab} onChange={setTab}>

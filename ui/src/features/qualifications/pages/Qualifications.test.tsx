@@ -1,16 +1,8 @@
-import type { QualificationDto, QualificationMatrix, Role } from '@crankjournal/shared-types';
-import { render, screen, fireEvent, within } from '../../../test-utils/render';
-import { sessionStore } from '../../../api/session';
+import userEvent from '@testing-library/user-event';
+import type { QualificationDto, QualificationMatrix } from '@crankjournal/shared-types';
+import { render, screen, within } from '../../../test-utils/render';
+import { signIn, signOut, stubFetch } from '../../../test-utils/http';
 import QualificationsPage from './Qualifications.page';
-
-const json = (body: unknown, status = 200) =>
-  new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
-const signIn = (role: Role) =>
-  sessionStore.set({
-    accessToken: 'a',
-    refreshToken: 'r',
-    user: { id: 'u1', email: 'x@alderforge.example', displayName: 'Test Person', role, unitSystem: 'imperial' },
-  });
 
 const q = (p: Partial<QualificationDto>): QualificationDto => ({
   id: 'q1',
@@ -54,33 +46,25 @@ const matrix: QualificationMatrix = {
 describe('QualificationsPage', () => {
   afterEach(() => {
     vi.restoreAllMocks();
-    sessionStore.set(null);
+    signOut();
   });
 
   it('gives the chief engineer the crew matrix, with what has expired, and a way to grant', async () => {
+    const user = userEvent.setup();
     signIn('chief_engineer');
-    vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
-      const url = String(input);
-      if (url.endsWith('/engines')) return json([{ id: 'e1', name: 'No. 2 engine' }]);
-      if (url.includes('/qualifications/matrix')) return json(matrix);
-      return json([]);
-    });
+    stubFetch({ '*': [], '*/engines': [{ id: 'e1', name: 'No. 2 engine' }], '/qualifications/matrix': matrix });
     render(<QualificationsPage />);
     const table = await screen.findByTestId('qualifications-matrix');
     expect(within(table).getByText('Cyril Dunnock')).toBeInTheDocument();
     expect(within(table).getByText('Expired')).toBeInTheDocument();
     expect(screen.getByTestId('qualifications-attention')).toHaveTextContent('Cyril Dunnock — Start and run');
-    fireEvent.click(within(table).getByRole('button', { name: 'Cyril Dunnock, Pre-lube: not qualified' }));
+    await user.click(within(table).getByRole('button', { name: 'Cyril Dunnock, Pre-lube: not qualified' }));
     expect(await screen.findByRole('button', { name: 'Grant qualification' })).toBeInTheDocument();
   }, 20_000);
 
   it('shows an operator their own qualifications only', async () => {
     signIn('operator');
-    const spy = vi
-      .spyOn(globalThis, 'fetch')
-      .mockImplementation(async () =>
-        json([q({ status: 'current', daysToExpiry: 200, expiresOn: '2027-06-19', userName: 'Test Person' })]),
-      );
+    const { spy } = stubFetch({ '*': [q({ status: 'current', daysToExpiry: 200, expiresOn: '2027-06-19', userName: 'Test Person' })] });
     render(<QualificationsPage />);
     expect(await screen.findByRole('table', { name: 'Your qualifications' })).toHaveTextContent('Start and run');
     expect(screen.queryByRole('tab', { name: 'Crew' })).toBeNull();

@@ -1,3 +1,4 @@
+import { useCallback } from 'react';
 import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
 import type {
   AlarmDto,
@@ -11,7 +12,7 @@ import type {
   StartGateVerdict,
   UpdateRunRequest,
 } from '@crankjournal/shared-types';
-import { api, download, HttpError } from '../../../api/http';
+import { api, withQuery, download, HttpError } from '../../../api/http';
 import { engineKeys } from '../../engines/api/engines.api';
 
 export interface RunFilters {
@@ -22,13 +23,6 @@ export interface ReadingFilters {
   /** ISO time: only readings taken after it. */
   since?: string;
   pointId?: string;
-}
-
-function query(params: Record<string, string | undefined>): string {
-  const q = new URLSearchParams();
-  for (const [k, v] of Object.entries(params)) if (v) q.set(k, v);
-  const s = q.toString();
-  return s ? `?${s}` : '';
 }
 
 /** Keys: everything about one run sits under ['runs', id], so invalidating that refreshes all of it. */
@@ -47,14 +41,17 @@ export const runKeys = {
 };
 
 export const runsListQuery = (f: RunFilters = {}) =>
-  queryOptions({ queryKey: runKeys.list(f), queryFn: () => api<RunSummary[]>(`/runs${query({ engineId: f.engineId, state: f.state })}`) });
+  queryOptions({
+    queryKey: runKeys.list(f),
+    queryFn: () => api<RunSummary[]>(withQuery('/runs', { engineId: f.engineId, state: f.state })),
+  });
 export const runDetailQuery = (id: string) => queryOptions({ queryKey: runKeys.detail(id), queryFn: () => api<RunDetail>(`/runs/${id}`) });
 export const runBoardQuery = (id: string) =>
   queryOptions({ queryKey: runKeys.board(id), queryFn: () => api<BoardPoint[]>(`/runs/${id}/board`) });
 export const runReadingsQuery = (id: string, f: ReadingFilters = {}) =>
   queryOptions({
     queryKey: runKeys.readings(id, f),
-    queryFn: () => api<ReadingDto[]>(`/runs/${id}/readings${query({ since: f.since, pointId: f.pointId })}`),
+    queryFn: () => api<ReadingDto[]>(withQuery(`/runs/${id}/readings`, { since: f.since, pointId: f.pointId })),
   });
 export const runAlarmsQuery = (id: string) =>
   queryOptions({ queryKey: runKeys.alarms(id), queryFn: () => api<AlarmDto[]>(`/runs/${id}/alarms`) });
@@ -78,12 +75,15 @@ export function startRefusal(e: unknown): StartGateVerdict | null {
 /** Puts a changed run into the cache (e.g. from the 'run:changed' live event) and refreshes the lists. */
 export function useApplyRun() {
   const qc = useQueryClient();
-  return (run: RunDetail) => {
-    qc.setQueryData(runKeys.detail(run.id), run);
-    qc.invalidateQueries({ queryKey: runKeys.lists() });
-    qc.invalidateQueries({ queryKey: runKeys.startGate(run.id) });
-    qc.invalidateQueries({ queryKey: engineKeys.list() });
-  };
+  return useCallback(
+    (run: RunDetail) => {
+      qc.setQueryData(runKeys.detail(run.id), run);
+      void qc.invalidateQueries({ queryKey: runKeys.lists() });
+      void qc.invalidateQueries({ queryKey: runKeys.startGate(run.id) });
+      void qc.invalidateQueries({ queryKey: engineKeys.list() });
+    },
+    [qc],
+  );
 }
 
 export function useCreateRun() {

@@ -1,44 +1,12 @@
+import userEvent from '@testing-library/user-event';
 import type { Role, RunDetail, RunState } from '@crankjournal/shared-types';
-import { render, screen, fireEvent, waitFor, within } from '../../../test-utils/render';
-import { sessionStore } from '../../../api/session';
+import { render, screen, waitFor, within } from '../../../test-utils/render';
+import { buildRun } from '../../../test-utils/builders';
+import { json, signIn, signOut, stubFetch } from '../../../test-utils/http';
 import { RunHeader } from './RunHeader';
 
-const run = (state: RunState, extra: Partial<RunDetail> = {}): RunDetail => ({
-  id: 'run-1',
-  engineId: 'eng-1',
-  engineName: 'No. 2 engine',
-  purpose: 'demonstration',
-  state,
-  title: 'Open day demonstration',
-  plannedFor: null,
-  startedAt: null,
-  stoppedAt: null,
-  closedAt: null,
-  runningSeconds: 0,
-  revolutions: 0,
-  openAlarms: 0,
-  notes: '',
-  crew: [],
-  countersignedBy: null,
-  countersignedByName: null,
-  countersignedAt: null,
-  abandonedReason: null,
-  history: [],
-  peaks: [],
-  createdAt: '2026-05-01T08:00:00Z',
-  ...extra,
-});
-
-function signIn(role: Role) {
-  sessionStore.set({
-    accessToken: 'a',
-    refreshToken: 'r',
-    user: { id: 'u1', email: 'x@alderforge.example', displayName: 'Test Person', role, unitSystem: 'imperial' },
-  });
-}
-
-const json = (body: unknown, status = 200) =>
-  new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
+const run = (state: RunState, extra: Partial<RunDetail> = {}) =>
+  buildRun({ title: 'Open day demonstration', createdAt: '2026-05-01T08:00:00Z', state, ...extra });
 
 function buttonsShown(): string[] {
   const group = screen.queryByRole('group', { name: 'Run actions' });
@@ -50,15 +18,14 @@ function buttonsShown(): string[] {
 
 describe('RunHeader transition buttons', () => {
   beforeEach(() => {
-    vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
-      const url = String(input);
-      if (url.endsWith('/start-gate')) return json({ allowed: true, reasons: [] });
-      return json({ statusCode: 404, error: 'Not Found', message: 'no' }, 404);
+    stubFetch({
+      '*': () => json({ statusCode: 404, error: 'Not Found', message: 'no' }, 404),
+      '*/start-gate': { allowed: true, reasons: [] },
     });
   });
   afterEach(() => {
     vi.restoreAllMocks();
-    sessionStore.set(null);
+    signOut();
   });
 
   const cases: [RunState, Role, string[]][] = [
@@ -88,26 +55,30 @@ describe('RunHeader transition buttons', () => {
   });
 
   it('asks for a reason before abandoning', async () => {
+    const user = userEvent.setup();
     signIn('operator');
     render(<RunHeader run={run('preparing')} />);
-    fireEvent.click(screen.getByRole('button', { name: 'Abandon' }));
+    await user.click(screen.getByRole('button', { name: 'Abandon' }));
     const confirm = await screen.findByRole('button', { name: 'Abandon run' });
     expect(confirm).toBeDisabled();
-    fireEvent.change(screen.getByLabelText(/Reason for abandoning/), { target: { value: 'Boiler inspection not passed' } });
+    await user.clear(screen.getByLabelText(/Reason for abandoning/));
+    await user.type(screen.getByLabelText(/Reason for abandoning/), 'Boiler inspection not passed');
     expect(confirm).toBeEnabled();
   }, 20_000);
 
   it('asks the chief engineer for a password or PIN to close, and sends it as the signature', async () => {
+    const user = userEvent.setup();
     signIn('chief_engineer');
-    const fetchSpy = vi.spyOn(globalThis, 'fetch').mockImplementation(async () => json(run('closed')));
+    const { spy: fetchSpy } = stubFetch({ '*': () => json(run('closed')) });
     render(<RunHeader run={run('stopped')} />);
-    fireEvent.click(screen.getByRole('button', { name: 'Close and countersign' }));
+    await user.click(screen.getByRole('button', { name: 'Close and countersign' }));
     const dialog = await screen.findByRole('dialog');
     expect(dialog).toHaveTextContent(/Records your countersignature/);
     const confirm = within(dialog).getByRole('button', { name: 'Close and countersign' });
     expect(confirm).toBeDisabled();
-    fireEvent.change(screen.getByLabelText('Your password or signing PIN'), { target: { value: '4821' } });
-    fireEvent.click(confirm);
+    await user.clear(screen.getByLabelText('Your password or signing PIN'));
+    await user.type(screen.getByLabelText('Your password or signing PIN'), '4821');
+    await user.click(confirm);
     await waitFor(() => expect(fetchSpy).toHaveBeenCalled());
     const [url, init] = fetchSpy.mock.calls[0]!;
     expect(String(url)).toBe('/api/runs/run-1/transitions');
@@ -115,30 +86,31 @@ describe('RunHeader transition buttons', () => {
   }, 20_000);
 
   it('shows the start gate’s reasons when the server refuses a start (409)', async () => {
+    const user = userEvent.setup();
     signIn('operator');
-    vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
-      const url = String(input);
-      if (url.endsWith('/start-gate')) return json({ allowed: true, reasons: [] });
-      return json(
-        {
-          statusCode: 409,
-          error: 'Conflict',
-          message: 'The run may not start.',
-          details: {
-            allowed: false,
-            reasons: [
-              { code: 'checklist_incomplete', message: 'The pre-start checklist is not complete.', subject: 'Pre-start checks v3' },
-              { code: 'prelube_stale', message: 'The pre-lube sign-off is no longer fresh.' },
-            ],
+    stubFetch({
+      '*': () =>
+        json(
+          {
+            statusCode: 409,
+            error: 'Conflict',
+            message: 'The run may not start.',
+            details: {
+              allowed: false,
+              reasons: [
+                { code: 'checklist_incomplete', message: 'The pre-start checklist is not complete.', subject: 'Pre-start checks v3' },
+                { code: 'prelube_stale', message: 'The pre-lube sign-off is no longer fresh.' },
+              ],
+            },
           },
-        },
-        409,
-      );
+          409,
+        ),
+      '*/start-gate': { allowed: true, reasons: [] },
     });
     render(<RunHeader run={run('cleared')} />);
-    fireEvent.click(screen.getByRole('button', { name: 'Start engine' }));
+    await user.click(screen.getByRole('button', { name: 'Start engine' }));
     const dialog = await screen.findByRole('dialog');
-    fireEvent.click(within(dialog).getByRole('button', { name: 'Start engine' }));
+    await user.click(within(dialog).getByRole('button', { name: 'Start engine' }));
     const alert = await screen.findByRole('alert');
     expect(alert).toHaveTextContent('Start refused');
     expect(alert).toHaveTextContent('The pre-start checklist is not complete.');

@@ -31,13 +31,22 @@ function explanation(from: RunState, to: TransitionTarget): string {
         ? 'The clearance to start is withdrawn and the run goes back to preparing. Your name, the time and your note are recorded.'
         : 'The run moves to preparing: the pre-start checklists can be worked through and signed. Your name and the time are recorded.';
     case 'cleared':
-      return 'Records that you cleared this run to start, with your name and the time. The server still checks every required checklist and the pre-lube sign-off before the engine may start.';
+      return (
+        'Records that you cleared this run to start, with your name and the time. The server still checks ' +
+        'every required checklist and the pre-lube sign-off before the engine may start.'
+      );
     case 'running':
-      return 'Records the start time and your name. The server first checks the start gate: every required checklist complete and signed by a qualified person, and the pre-lube sign-off still fresh.';
+      return (
+        'Records the start time and your name. The server first checks the start gate: every required ' +
+        'checklist complete and signed by a qualified person, and the pre-lube sign-off still fresh.'
+      );
     case 'stopped':
       return 'Records the stop time and your name. A stopped run cannot be started again; the next start needs a new run.';
     case 'closed':
-      return 'Records your countersignature: your name, the time, and that you confirmed it with your password or signing PIN. The log then becomes read-only; nothing in it can be corrected afterwards.';
+      return (
+        'Records your countersignature: your name, the time, and that you confirmed it with your password or ' +
+        'signing PIN. The log then becomes read-only; nothing in it can be corrected afterwards.'
+      );
     case 'abandoned':
       return 'Records the reason, your name and the time. The run cannot be resumed; anything already logged stays in the record.';
   }
@@ -223,7 +232,7 @@ export function RunHeader({ run, onTransitioned, quietActions = false }: RunHead
         onRefused={(v) => {
           setPending(null);
           setRefusal(v);
-          gate.refetch();
+          void gate.refetch();
         }}
         onDone={(r) => {
           setPending(null);
@@ -249,6 +258,7 @@ function TransitionModal({
   onDone: (r: RunDetail) => void;
 }) {
   const transition = useTransitionRun(run.id);
+  const { reset: resetTransition } = transition;
   const [note, setNote] = useState('');
   const [signature, setSignature] = useState('');
   const [error, setError] = useState<string | null>(null);
@@ -257,9 +267,8 @@ function TransitionModal({
     setNote('');
     setSignature('');
     setError(null);
-    transition.reset();
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [target]);
+    resetTransition();
+  }, [target, resetTransition]);
 
   if (!target) return <Modal opened={false} onClose={onClose} title="" />;
   const label = transitionLabel(run.state, target);

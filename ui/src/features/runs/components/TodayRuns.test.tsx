@@ -1,21 +1,9 @@
-import type { RunState, RunSummary } from '@crankjournal/shared-types';
+import type { RunState } from '@crankjournal/shared-types';
+import { buildRunSummary } from '../../../test-utils/builders';
 import { currentAndNextRuns } from './TodayRuns';
 
-const r = (id: string, state: RunState, plannedFor: string | null = null): RunSummary => ({
-  id,
-  engineId: 'e1',
-  engineName: 'No. 2 engine',
-  purpose: 'demonstration',
-  state,
-  title: id,
-  plannedFor,
-  startedAt: null,
-  stoppedAt: null,
-  closedAt: null,
-  runningSeconds: 0,
-  revolutions: 0,
-  openAlarms: 0,
-});
+const r = (id: string, state: RunState, plannedFor: string | null = null) =>
+  buildRunSummary({ id, engineId: 'e1', state, title: id, plannedFor });
 
 describe('runs now and next', () => {
   it('puts a running run first, then runs being prepared, then planned ones by date, and leaves finished runs out', () => {

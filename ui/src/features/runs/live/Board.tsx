@@ -3,7 +3,7 @@ import { Sparkline } from '@mantine/charts';
 import dayjs from 'dayjs';
 import type { BoardPoint, MeasurementKind, MeasurementPointDto } from '@crankjournal/shared-types';
 import { useUnits } from '../../units/useUnits';
-import { AlarmStateBadge, alarmLook } from './alarm-look';
+import { AlarmStateBadge, alarmLook } from '../../alarms/components/alarm-look';
 
 export type EnginePoint = MeasurementPointDto & { id: string };
 

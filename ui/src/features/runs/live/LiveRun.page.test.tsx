@@ -1,7 +1,8 @@
 import { Route, Routes } from 'react-router-dom';
-import type { AlarmDto, BoardPoint, EngineDetail, Role, RunDetail } from '@crankjournal/shared-types';
+import type { AlarmDto, BoardPoint, Role } from '@crankjournal/shared-types';
 import { render, screen, within } from '../../../test-utils/render';
-import { sessionStore } from '../../../api/session';
+import { buildEngine, buildRun } from '../../../test-utils/builders';
+import { signIn as signInAs, signOut, stubFetch } from '../../../test-utils/http';
 import LiveRunPage from './LiveRun.page';
 
 vi.mock('../../../api/socket', () => ({ getSocket: () => null, joinRoom: () => () => {}, closeSocket: () => {} }));
@@ -9,36 +10,18 @@ vi.mock('@mantine/charts', () => ({ LineChart: () => null, Sparkline: () => null
 
 const RUN = 'run-1';
 const ENGINE = 'eng-1';
-const run: RunDetail = {
+const run = buildRun({
   id: RUN,
   engineId: ENGINE,
-  engineName: 'No. 2 engine',
-  purpose: 'demonstration',
   state: 'running',
-  title: 'Winter open day',
-  plannedFor: null,
   startedAt: '2025-06-14T10:00:00Z',
-  stoppedAt: null,
-  closedAt: null,
   runningSeconds: 600,
   revolutions: 750,
   openAlarms: 1,
-  notes: '',
-  crew: [],
-  countersignedBy: null,
-  countersignedByName: null,
-  countersignedAt: null,
-  abandonedReason: null,
-  history: [],
-  peaks: [],
   createdAt: '2025-06-14T09:00:00Z',
-};
-const engine = {
+});
+const engine = buildEngine({
   id: ENGINE,
-  name: 'No. 2 engine',
-  mawpPsig: 150,
-  overspeedRpm: 82,
-  ratedSpeedRpm: 75,
   measurementPoints: [
     {
       id: 'p-mb2',
@@ -53,7 +36,7 @@ const engine = {
       highHighLimit: 145,
     },
   ],
-} as unknown as EngineDetail;
+});
 const board: BoardPoint[] = [
   {
     pointId: 'p-mb2',
@@ -89,39 +72,24 @@ const alarm: AlarmDto = {
   updatedAt: '2025-06-14T10:10:00Z',
 };
 
-function respond(url: string): unknown {
-  const path = url.replace(/^.*\/api/, '');
-  if (path === `/runs/${RUN}`) return run;
-  if (path === `/engines/${ENGINE}`) return engine;
-  if (path === `/runs/${RUN}/board`) return board;
-  if (path.startsWith(`/runs/${RUN}/readings`)) return [];
-  if (path === `/runs/${RUN}/alarms`) return [alarm];
-  if (path.startsWith('/alarms?')) return [alarm];
-  if (path === `/runs/${RUN}/start-gate`) return { allowed: true, reasons: [] };
-  if (path === '/units/conversions') return { imperial: {}, metric: {} };
-  throw new Error(`unexpected ${path}`);
-}
-
-function signIn(role: Role) {
-  sessionStore.set({
-    accessToken: 'a.b.c',
-    refreshToken: 'r',
-    user: { id: 'u1', email: 'x@example.test', displayName: 'Test Person', role, unitSystem: 'imperial' },
-  });
-}
+/** Signs in with a three-part access token, shaped like the service's. */
+const signIn = (role: Role) => signInAs(role, { email: 'x@example.test' }, { accessToken: 'a.b.c' });
 
 beforeEach(() => {
-  vi.stubGlobal(
-    'fetch',
-    vi.fn(
-      async (url: string) =>
-        new Response(JSON.stringify(respond(String(url))), { status: 200, headers: { 'content-type': 'application/json' } }),
-    ),
-  );
+  stubFetch({
+    [`GET /runs/${RUN}`]: run,
+    [`GET /engines/${ENGINE}`]: engine,
+    [`GET /runs/${RUN}/board`]: board,
+    [`GET /runs/${RUN}/readings*`]: [],
+    [`GET /runs/${RUN}/alarms`]: [alarm],
+    'GET /alarms': [alarm],
+    [`GET /runs/${RUN}/start-gate`]: { allowed: true, reasons: [] },
+    'GET /units/conversions': { imperial: {}, metric: {} },
+  });
 });
 afterEach(() => {
-  vi.unstubAllGlobals();
-  sessionStore.set(null);
+  vi.restoreAllMocks();
+  signOut();
 });
 
 const page = () =>

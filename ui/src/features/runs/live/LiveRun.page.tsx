@@ -1,6 +1,3 @@
-import { RunChecklistsLink } from '../../checklists/components/RunChecklistsLink';
-import { PreLubeCountdown } from '../../checklists/components/PreLubeCountdown';
-import { CardSetsPanel } from '../../indicator-cards';
 import '@mantine/charts/styles.css';
 import { useCallback, useEffect, useMemo, useState } from 'react';
 import { Link, useSearchParams, useParams } from 'react-router-dom';
@@ -9,6 +6,9 @@ import { Alert, Badge, Button, Center, Group, Loader, Stack, Tabs, Text } from '
 import { notifications } from '@mantine/notifications';
 import { IconClipboardList, IconCloudOff, IconFileTypeCsv, IconFileTypePdf, IconPlugConnectedX } from '@tabler/icons-react';
 import { RUN_STATES_TAKING_READINGS, type AlarmDto, type IngestResult, type ReadingDto } from '@crankjournal/shared-types';
+import { RunChecklistsLink } from '../../checklists/components/RunChecklistsLink';
+import { PreLubeCountdown } from '../../checklists/components/PreLubeCountdown';
+import { CardSetsPanel } from '../../indicator-cards';
 import { errorText } from '../../../api/http';
 import { useHasRole } from '../../auth/useSession';
 import { engineDetailQuery } from '../../engines/api/engines.api';
@@ -22,13 +22,14 @@ import {
   runReadingsQuery,
 } from '../api/runs.api';
 import { RunHeader } from '../components/RunHeader';
-import { AlarmBanner } from './AlarmBanner';
-import { AlarmList, ShelveModal } from './AlarmList';
-import { isUnacknowledged } from './alarm-look';
+import { AlarmBanner } from '../../alarms/components/AlarmBanner';
+import { AlarmList, ShelveModal } from '../../alarms/components/AlarmList';
+import { isUnacknowledged } from '../../alarms/components/alarm-look';
+import { mergeAlarms, openEngineAlarmsQuery, useAlarmAction } from '../../alarms/api/alarms.api';
 import { Board } from './Board';
 import { BottomBar } from './BottomBar';
 import { CsvImport } from './CsvImport';
-import { mergeAlarms, openEngineAlarmsQuery, useAlarmAction, useAmendReading } from './live-actions.api';
+import { useAmendReading } from './live-actions.api';
 import { QueueStatus, waitingText } from './QueueStatus';
 import { AmendModal, ReadingsTable } from './ReadingsTable';
 import { TrendCharts } from './TrendCharts';

@@ -47,7 +47,8 @@ export function QueueStatus({
               <Text fz="sm" c="dimmed">
                 {sending
                   ? 'Sending now…'
-                  : `Oldest taken ${time(pending[0].round.takenAt)}${last?.lastTriedAt ? ` · last try ${time(last.lastTriedAt)}: ${last.lastError ?? ''}` : ''}`}
+                  : `Oldest taken ${time(pending[0].round.takenAt)}` +
+                    (last?.lastTriedAt ? ` · last try ${time(last.lastTriedAt)}: ${last.lastError ?? ''}` : '')}
               </Text>
             </Stack>
             <Button variant="default" size="lg" loading={sending} onClick={() => void queue.flush()}>

@@ -63,10 +63,12 @@ export default function RoundEntryPage() {
 
   const saved = (o: SubmitOutcome) => {
     if (o.kind === 'sent') {
-      qc.invalidateQueries({ queryKey: runKeys.run(id) });
+      void qc.invalidateQueries({ queryKey: runKeys.run(id) });
       notifications.show({
         title: 'Round saved',
-        message: `${o.result.stored} reading(s) stored${o.result.duplicates ? `, ${o.result.duplicates} already there` : ''}${o.result.alarmsRaised ? ` — ${o.result.alarmsRaised} alarm(s) raised` : ''}.`,
+        message:
+          `${o.result.stored} reading(s) stored${o.result.duplicates ? `, ${o.result.duplicates} already there` : ''}` +
+          `${o.result.alarmsRaised ? ` — ${o.result.alarmsRaised} alarm(s) raised` : ''}.`,
         color: o.result.alarmsRaised ? 'signal' : 'copper',
       });
     } else {
@@ -78,7 +80,7 @@ export default function RoundEntryPage() {
         autoClose: 10_000,
       });
     }
-    navigate(`/runs/${id}`);
+    void navigate(`/runs/${id}`);
   };
 
   return (

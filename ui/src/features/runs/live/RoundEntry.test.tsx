@@ -1,5 +1,6 @@
+import userEvent from '@testing-library/user-event';
 import type { IngestResult, RoundRequest } from '@crankjournal/shared-types';
-import { render, screen, fireEvent, waitFor } from '../../../test-utils/render';
+import { render, screen, waitFor } from '../../../test-utils/render';
 import { RoundEntry, type RoundPoint } from './RoundEntry';
 import { OfflineRoundQueue } from './offline-queue';
 
@@ -58,42 +59,51 @@ describe('RoundEntry', () => {
     expect(screen.getByTestId('round-row-MB1-T')).toHaveTextContent('Normal 90–160 °F');
   });
 
-  it('marks a value above high-high in red and one above high in amber before anything is saved', () => {
+  it('marks a value above high-high in red and one above high in amber before anything is saved', async () => {
+    const user = userEvent.setup();
     const { send } = setup();
     const bearing = screen.getByLabelText('Main bearing 1 (°F)');
 
-    fireEvent.change(bearing, { target: { value: '205' } });
+    await user.clear(bearing);
+    await user.type(bearing, '205');
     expect(screen.getByTestId('round-row-MB1-T')).toHaveAttribute('data-standing', 'high_high');
     expect(screen.getByTestId('round-standing-MB1-T')).toHaveTextContent('High-high');
     expect(screen.getByTestId('round-row-MB1-T').getAttribute('style')).toContain('--mantine-color-signal-6');
     expect(bearing).toHaveAccessibleDescription(/High-high/);
 
-    fireEvent.change(bearing, { target: { value: '185' } });
+    await user.clear(bearing);
+    await user.type(bearing, '185');
     expect(screen.getByTestId('round-row-MB1-T')).toHaveAttribute('data-standing', 'high');
     expect(screen.getByTestId('round-standing-MB1-T')).toHaveTextContent(/^High —/);
     expect(screen.getByTestId('round-row-MB1-T').getAttribute('style')).toContain('--mantine-color-amber-6');
 
-    fireEvent.change(bearing, { target: { value: '150' } });
+    await user.clear(bearing);
+    await user.type(bearing, '150');
     expect(screen.getByTestId('round-row-MB1-T')).toHaveAttribute('data-standing', 'normal');
     expect(screen.queryByTestId('round-standing-MB1-T')).toBeNull();
 
     expect(send).not.toHaveBeenCalled();
   });
 
-  it('treats a steam pressure above the engine’s maximum allowable working pressure as high-high', () => {
+  it('treats a steam pressure above the engine’s maximum allowable working pressure as high-high', async () => {
+    const user = userEvent.setup();
     setup();
-    fireEvent.change(screen.getByLabelText('Throttle pressure (psig)'), { target: { value: '152' } });
+    await user.clear(screen.getByLabelText('Throttle pressure (psig)'));
+    await user.type(screen.getByLabelText('Throttle pressure (psig)'), '152');
     expect(screen.getByTestId('round-row-THR-P')).toHaveAttribute('data-standing', 'high_high');
   });
 
-  it('refuses to save a value that is not a number', () => {
+  it('refuses to save a value that is not a number', async () => {
+    const user = userEvent.setup();
     setup();
-    fireEvent.change(screen.getByLabelText('Main bearing 1 (°F)'), { target: { value: '15o' } });
+    await user.clear(screen.getByLabelText('Main bearing 1 (°F)'));
+    await user.type(screen.getByLabelText('Main bearing 1 (°F)'), '15o');
     expect(screen.getByText(/Not a number/)).toBeInTheDocument();
     expect(screen.getByRole('button', { name: 'Save round' })).toBeDisabled();
   });
 
   it('saves the entered points in one request, each reading with its own clientId', async () => {
+    const user = userEvent.setup();
     const send = vi.fn(async (_id: string, r: RoundRequest) => ({
       stored: r.readings.length,
       duplicates: 0,
@@ -102,9 +112,11 @@ describe('RoundEntry', () => {
       alarmsRaised: 0,
     }));
     setup(send);
-    fireEvent.change(screen.getByLabelText('Throttle pressure (psig)'), { target: { value: '131,5' } });
-    fireEvent.change(screen.getByLabelText('Main bearing 1 (°F)'), { target: { value: '152' } });
-    fireEvent.click(screen.getByRole('button', { name: 'Save round' }));
+    await user.clear(screen.getByLabelText('Throttle pressure (psig)'));
+    await user.type(screen.getByLabelText('Throttle pressure (psig)'), '131,5');
+    await user.clear(screen.getByLabelText('Main bearing 1 (°F)'));
+    await user.type(screen.getByLabelText('Main bearing 1 (°F)'), '152');
+    await user.click(screen.getByRole('button', { name: 'Save round' }));
     await waitFor(() => expect(send).toHaveBeenCalledTimes(1));
     const [runId, round] = send.mock.calls[0];
     expect(runId).toBe('run-1');

@@ -63,7 +63,7 @@ function TrendChart({
         mine,
         (v, u) => display(v, u).value,
       ),
-    // eslint-disable-next-line react-hooks/exhaustive-deps
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- mine is filtered anew each render; its ids say when it changed
     [readings, mine.map((p) => p.id).join(), display],
   );
   const unitLabel = display(0, unit).unitLabel;
@@ -83,7 +83,7 @@ function TrendChart({
       }
     }
     return best;
-    // eslint-disable-next-line react-hooks/exhaustive-deps
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- withLimits is new each render; its ids say when it changed
   }, [readings, withLimits.map((p) => p.id).join()]);
   const [chosen, setChosen] = useState<string | null>(null);
   const focus = withLimits.find((p) => p.id === chosen) ?? nearest;

@@ -1,9 +1,10 @@
 import { QueryClient } from '@tanstack/react-query';
 import type { AlarmDto, BoardPoint, ReadingDto } from '@crankjournal/shared-types';
 import { runKeys } from '../api/runs.api';
-import { advanceBoard, applyReadings, mergeReadings, upsertAlarm } from './live-cache';
+import { upsertAlarm } from '../../alarms/api/alarms.api';
+import { bannerOrder } from '../../alarms/components/AlarmBanner';
+import { advanceBoard, applyReadings, mergeReadings } from './live-cache';
 import { previewCsv } from './CsvImport';
-import { bannerOrder } from './AlarmBanner';
 import { limitStanding, parseEntered } from './round-check';
 
 const reading = (id: string, pointId: string, value: number, takenAt: string): ReadingDto => ({

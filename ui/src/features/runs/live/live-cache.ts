@@ -1,21 +1,6 @@
 import type { QueryClient } from '@tanstack/react-query';
-import type { AlarmDto, BoardPoint, ReadingDto, ReadingsEvent } from '@crankjournal/shared-types';
+import type { BoardPoint, ReadingDto, ReadingsEvent } from '@crankjournal/shared-types';
 import { runKeys } from '../api/runs.api';
-
-/** Open alarms of an engine, whichever run raised them (an alarm stays open across runs until it is cleared and acknowledged). */
-export const openAlarmKeys = {
-  engine: (engineId: string) => ['alarms', 'open', { engineId }] as const,
-};
-/** A run's own alarms together with the engine's open ones (latest copy of each). */
-export function mergeAlarms(...lists: (AlarmDto[] | undefined)[]): AlarmDto[] {
-  const m = new Map<string, AlarmDto>();
-  for (const list of lists)
-    for (const a of list ?? []) {
-      const cur = m.get(a.id);
-      if (!cur || cur.updatedAt <= a.updatedAt) m.set(a.id, a);
-    }
-  return [...m.values()];
-}
 
 /** How many recent values the board keeps per point for its sparkline (the server sends the last 20). */
 export const BOARD_TREND_LENGTH = 20;
@@ -52,16 +37,6 @@ export function advanceBoard(board: BoardPoint[] | undefined, incoming: ReadingD
     };
   });
   return changed ? next : board;
-}
-
-export function upsertAlarm(list: AlarmDto[] | undefined, alarm: AlarmDto): AlarmDto[] | undefined {
-  if (!list) return list;
-  const i = list.findIndex((a) => a.id === alarm.id);
-  if (i === -1) return [alarm, ...list];
-  if (list[i].updatedAt > alarm.updatedAt) return list; // an older event arriving late
-  const next = [...list];
-  next[i] = alarm;
-  return next;
 }
 
 export function replaceReading(list: ReadingDto[] | undefined, reading: ReadingDto): ReadingDto[] | undefined {

@@ -1,4 +1,5 @@
 import type { IngestResult, RoundRequest } from '@crankjournal/shared-types';
+import { json, stubFetch } from '../../../test-utils/http';
 import { OFFLINE_QUEUE_STORAGE_KEY, OfflineRoundQueue, newClientId } from './offline-queue';
 
 const RUN = 'run-1';
@@ -12,31 +13,29 @@ function round(values: number[] = [120, 74.5]): RoundRequest {
 }
 
 const ok = (stored: number): IngestResult => ({ stored, duplicates: 0, rejected: [], rejectedCount: 0, alarmsRaised: 0 });
-const json = (status: number, body: unknown) =>
-  new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
 
 /** fetch that fails the way a browser does when the server is unreachable. */
 const offline = () => Promise.reject(new TypeError('Failed to fetch'));
 
-let fetchMock: ReturnType<typeof vi.fn>;
+const ROUNDS = `POST /runs/${RUN}/rounds`;
+let net: ReturnType<typeof stubFetch>;
 
 beforeEach(() => {
   localStorage.clear();
-  fetchMock = vi.fn();
-  vi.stubGlobal('fetch', fetchMock);
+  net = stubFetch();
 });
 afterEach(() => {
-  vi.unstubAllGlobals();
+  vi.restoreAllMocks();
   vi.useRealTimers();
 });
 
 function roundPosts() {
-  return fetchMock.mock.calls.filter(([url]) => String(url).endsWith(`/api/runs/${RUN}/rounds`));
+  return net.calls.filter((c) => c.url.endsWith(`/api/runs/${RUN}/rounds`));
 }
 
 describe('offline round queue', () => {
   it('queues a round when the server cannot be reached, and stores it in localStorage', async () => {
-    fetchMock.mockImplementation(offline);
+    net.on(ROUNDS, offline);
     const q = new OfflineRoundQueue();
     const r = round();
     const outcome = await q.submit(RUN, r);
@@ -48,7 +47,7 @@ describe('offline round queue', () => {
   });
 
   it('sends straight away when the server answers, queueing nothing', async () => {
-    fetchMock.mockResolvedValue(json(201, ok(2)));
+    net.on(ROUNDS, () => json(ok(2), 201));
     const q = new OfflineRoundQueue();
     const outcome = await q.submit(RUN, round());
     expect(outcome).toEqual({ kind: 'sent', result: ok(2) });
@@ -57,7 +56,7 @@ describe('offline round queue', () => {
   });
 
   it('survives a reload: a fresh module instance reads the waiting round back', async () => {
-    fetchMock.mockImplementation(offline);
+    net.on(ROUNDS, offline);
     const first = new OfflineRoundQueue();
     const r = round([131]);
     await first.submit(RUN, r);
@@ -70,13 +69,13 @@ describe('offline round queue', () => {
   });
 
   it('sends a waiting round once when the server is back, with the same clientIds, then removes it', async () => {
-    fetchMock.mockImplementation(offline);
+    net.on(ROUNDS, offline);
     const q = new OfflineRoundQueue();
     const r = round([120, 74.5, 96]);
     await q.submit(RUN, r);
 
-    fetchMock.mockReset();
-    fetchMock.mockResolvedValue(json(201, ok(3)));
+    net.clearCalls();
+    net.on(ROUNDS, () => json(ok(3), 201));
     const sent = vi.fn();
     q.onSent(sent);
     // Two triggers at once (socket reconnect and `online`) share one pass.
@@ -85,7 +84,7 @@ describe('offline round queue', () => {
 
     const posts = roundPosts();
     expect(posts).toHaveLength(1);
-    const body = JSON.parse(posts[0][1].body as string) as RoundRequest;
+    const body = posts[0].body as RoundRequest;
     expect(body.readings.map((x) => x.clientId)).toEqual(r.readings.map((x) => x.clientId));
     expect(q.pending()).toHaveLength(0);
     expect(localStorage.getItem(OFFLINE_QUEUE_STORAGE_KEY)).toBeNull();
@@ -93,12 +92,12 @@ describe('offline round queue', () => {
   });
 
   it('keeps the round when the server answers with a 5xx', async () => {
-    fetchMock.mockImplementation(offline);
+    net.on(ROUNDS, offline);
     const q = new OfflineRoundQueue();
     await q.submit(RUN, round());
 
-    fetchMock.mockReset();
-    fetchMock.mockResolvedValue(json(503, { statusCode: 503, error: 'Service Unavailable', message: 'Database is down.' }));
+    net.clearCalls();
+    net.on(ROUNDS, () => json({ statusCode: 503, error: 'Service Unavailable', message: 'Database is down.' }, 503));
     await q.flush();
     expect(roundPosts()).toHaveLength(1);
     expect(q.pending(RUN)).toHaveLength(1);
@@ -109,14 +108,12 @@ describe('offline round queue', () => {
   });
 
   it('drops the round on a 4xx and keeps the error visible until dismissed', async () => {
-    fetchMock.mockImplementation(offline);
+    net.on(ROUNDS, offline);
     const q = new OfflineRoundQueue();
     await q.submit(RUN, round());
 
-    fetchMock.mockReset();
-    fetchMock.mockResolvedValue(
-      json(409, { statusCode: 409, error: 'Conflict', message: 'This run is closed and takes no more readings.' }),
-    );
+    net.clearCalls();
+    net.on(ROUNDS, () => json({ statusCode: 409, error: 'Conflict', message: 'This run is closed and takes no more readings.' }, 409));
     await q.flush();
     expect(q.pending()).toHaveLength(0);
     expect(q.failed(RUN)).toHaveLength(1);
@@ -135,7 +132,7 @@ describe('offline round queue', () => {
   });
 
   it('keeps the rejected rows when a 400 says some rows were refused', async () => {
-    fetchMock.mockImplementation(offline);
+    net.on(ROUNDS, offline);
     const q = new OfflineRoundQueue();
     await q.submit(RUN, round([120, -5]));
     const partial: IngestResult = {
@@ -145,27 +142,25 @@ describe('offline round queue', () => {
       rejectedCount: 1,
       alarmsRaised: 0,
     };
-    fetchMock.mockReset();
-    fetchMock.mockResolvedValue(
-      json(400, { statusCode: 400, error: 'Bad Request', message: 'Some readings were refused.', details: partial }),
-    );
+    net.clearCalls();
+    net.on(ROUNDS, () => json({ statusCode: 400, error: 'Bad Request', message: 'Some readings were refused.', details: partial }, 400));
     await q.flush();
     expect(q.failed(RUN)[0].result).toEqual(partial);
   });
 
   it('retries on its own every 10 s and when `online` fires', async () => {
     vi.useFakeTimers();
-    fetchMock.mockImplementation(offline);
+    net.on(ROUNDS, offline);
     const q = new OfflineRoundQueue();
     await q.submit(RUN, round());
     const stop = q.startAutoRetry(null);
     await vi.advanceTimersByTimeAsync(0);
-    const afterStart = fetchMock.mock.calls.length;
+    const afterStart = net.calls.length;
     await vi.advanceTimersByTimeAsync(10_000);
-    expect(fetchMock.mock.calls.length).toBe(afterStart + 1);
+    expect(net.calls.length).toBe(afterStart + 1);
 
-    fetchMock.mockReset();
-    fetchMock.mockResolvedValue(json(201, ok(2)));
+    net.clearCalls();
+    net.on(ROUNDS, () => json(ok(2), 201));
     window.dispatchEvent(new Event('online'));
     await vi.advanceTimersByTimeAsync(0);
     expect(roundPosts()).toHaveLength(1);
@@ -176,15 +171,15 @@ describe('offline round queue', () => {
   });
 
   it('retries when the live socket reconnects', async () => {
-    fetchMock.mockImplementation(offline);
+    net.on(ROUNDS, offline);
     const q = new OfflineRoundQueue();
     await q.submit(RUN, round());
     const handlers: Array<() => void> = [];
     const socket = { on: (_: 'connect', fn: () => void) => handlers.push(fn), off: vi.fn() };
     const stop = q.startAutoRetry(socket, 60_000);
     await q.flush();
-    fetchMock.mockReset();
-    fetchMock.mockResolvedValue(json(201, ok(2)));
+    net.clearCalls();
+    net.on(ROUNDS, () => json(ok(2), 201));
     handlers.forEach((h) => h());
     await q.flush();
     expect(roundPosts()).toHaveLength(1);

@@ -3,7 +3,8 @@ import { useQueryClient } from '@tanstack/react-query';
 import type { AlarmDto, ReadingDto, ReadingsEvent, RunDetail } from '@crankjournal/shared-types';
 import { getSocket, joinRoom } from '../../../api/socket';
 import { runKeys, useApplyRun } from '../api/runs.api';
-import { applyReadings, openAlarmKeys, replaceReading, upsertAlarm } from './live-cache';
+import { openAlarmKeys, upsertAlarm } from '../../alarms/api/alarms.api';
+import { applyReadings, replaceReading } from './live-cache';
 
 /**
  * Keeps a run's queries current from the live channel: joins `run:<id>`, applies readings, amendments,
@@ -28,14 +29,14 @@ export function useLiveRun(runId: string, engineId?: string): { connected: boole
     const onAmended = (r: ReadingDto) => {
       if (r.runId !== runId) return;
       qc.setQueriesData<ReadingDto[]>({ queryKey: runKeys.readingsAll(runId) }, (old) => replaceReading(old, r));
-      qc.invalidateQueries({ queryKey: runKeys.board(runId) });
+      void qc.invalidateQueries({ queryKey: runKeys.board(runId) });
     };
     const onAlarm = (a: AlarmDto) => {
       if (engineId && a.engineId === engineId) qc.setQueryData<AlarmDto[]>(openAlarmKeys.engine(engineId), (old) => upsertAlarm(old, a));
       if (a.runId !== runId) return;
       qc.setQueryData<AlarmDto[]>(runKeys.alarms(runId), (old) => upsertAlarm(old, a));
-      qc.invalidateQueries({ queryKey: runKeys.board(runId) });
-      qc.invalidateQueries({ queryKey: runKeys.detail(runId) });
+      void qc.invalidateQueries({ queryKey: runKeys.board(runId) });
+      void qc.invalidateQueries({ queryKey: runKeys.detail(runId) });
     };
     const onRun = (r: RunDetail) => {
       if (r.id === runId) applyRun(r);
@@ -43,8 +44,8 @@ export function useLiveRun(runId: string, engineId?: string): { connected: boole
     const onConnect = () => {
       setConnected(true);
       if (missed) {
-        qc.invalidateQueries({ queryKey: runKeys.run(runId) });
-        if (engineId) qc.invalidateQueries({ queryKey: openAlarmKeys.engine(engineId) });
+        void qc.invalidateQueries({ queryKey: runKeys.run(runId) });
+        if (engineId) void qc.invalidateQueries({ queryKey: openAlarmKeys.engine(engineId) });
       }
       missed = false;
     };
@@ -70,9 +71,7 @@ export function useLiveRun(runId: string, engineId?: string): { connected: boole
       leave();
       leaveEngine();
     };
-    // applyRun is a new function each render; the handlers only need the latest query client.
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [runId, engineId, qc]);
+  }, [runId, engineId, qc, applyRun]);
 
   return { connected };
 }

@@ -38,7 +38,7 @@ export default function NewRunPage() {
   const only = engines.data?.length === 1 ? engines.data[0]!.id : null;
   useEffect(() => {
     if (only && !form.values.engineId) form.setFieldValue('engineId', only);
-    // eslint-disable-next-line react-hooks/exhaustive-deps
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- form is new each render; choose the only engine once
   }, [only]);
 
   return (
@@ -62,7 +62,7 @@ export default function NewRunPage() {
               {
                 onSuccess: (run) => {
                   notifications.show({ title: 'Run planned', message: `${run.title} on ${run.engineName}.` });
-                  navigate(`/runs/${run.id}`);
+                  void navigate(`/runs/${run.id}`);
                 },
                 onError: (e) => setServerErrors(e instanceof HttpError ? e.messages : [errorText(e)]),
               },

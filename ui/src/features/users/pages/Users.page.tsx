@@ -24,7 +24,7 @@ export default function UsersPage() {
   const update = useMutation({
     mutationFn: ({ id, ...req }: { id: string; role?: Role; active?: boolean }) => updateUser(id, req),
     onSuccess: (u) => {
-      qc.invalidateQueries({ queryKey: userKeys.all });
+      void qc.invalidateQueries({ queryKey: userKeys.all });
       notifications.show({ message: `${u.displayName}: ${ROLE_LABELS[u.role]}, ${u.active ? 'active' : 'deactivated'}` });
     },
     onError: (e) => notifications.show({ color: 'signal', title: 'Not changed', message: errorText(e) }),
@@ -79,7 +79,10 @@ export default function UsersPage() {
     <>
       <PageHeader
         title="People and roles"
-        subtitle="Who may sign in, and what each person may do. Qualifications for duties on an engine are granted separately by the chief engineer."
+        subtitle={
+          'Who may sign in, and what each person may do. Qualifications for duties on an engine are granted ' +
+          'separately by the chief engineer.'
+        }
         action={
           <Button leftSection={<IconMailForward />} onClick={() => setInviting(true)}>
             Invite a person
@@ -129,7 +132,7 @@ function InviteModal({ opened, onClose }: { opened: boolean; onClose: () => void
   const invite = useMutation({
     mutationFn: inviteUser,
     onSuccess: (u) => {
-      qc.invalidateQueries({ queryKey: userKeys.all });
+      void qc.invalidateQueries({ queryKey: userKeys.all });
       notifications.show({ title: 'Invitation sent', message: `${u.email} will receive a link to set a password.` });
       form.reset();
       onClose();

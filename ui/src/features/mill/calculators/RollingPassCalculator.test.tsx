@@ -1,5 +1,6 @@
 import { render, screen, waitFor } from '../../../test-utils/render';
-import { json, overloaded } from '../test/fixtures';
+import { overloaded } from '../../../test-utils/fixtures/mill';
+import { stubFetch } from '../../../test-utils/http';
 import RollingPassCalculatorPage, { EXAMPLE, toRollingPassRequest } from './RollingPassCalculator.page';
 
 // Rendering Mantine in jsdom is slow on a busy machine.
@@ -35,9 +36,9 @@ describe('rolling pass calculator', () => {
   });
 
   it('shows the server’s figures and its warnings', async () => {
-    const fetchSpy = vi.spyOn(globalThis, 'fetch').mockImplementation(async (input) => {
-      if (String(input).endsWith('/calculations/rolling-pass')) return json({ ...overloaded(), caution: 'Test caution from the server.' });
-      return json([]);
+    const { spy: fetchSpy } = stubFetch({
+      '*': [],
+      '/calculations/rolling-pass': { ...overloaded(), caution: 'Test caution from the server.' },
     });
     render(<RollingPassCalculatorPage />);
     const result = await screen.findByTestId('rolling-pass-result', {}, { timeout: 10000 });

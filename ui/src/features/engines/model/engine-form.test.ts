@@ -1,23 +1,10 @@
-import type { EngineDetail } from '@crankjournal/shared-types';
+import { buildEngine } from '../../../test-utils/builders';
 import { fromEngine, toWriteRequest, validateEngine } from './engine-form';
 
-const engine: EngineDetail = {
-  id: 'e1',
-  name: 'No. 2 engine',
-  builder: 'Demo builder',
-  yearBuilt: '1911',
+const engine = buildEngine({
   type: 'tandem_compound',
-  ratedSpeedRpm: 75,
-  overspeedRpm: 82,
-  mawpPsig: 150,
-  preLubeFreshnessMinutes: 30,
   runningHours: 10,
   revolutions: 45000,
-  activeRunId: null,
-  notes: '',
-  flywheelMassLb: null,
-  flywheelRadiusOfGyrationFt: null,
-  rotatingWeightLb: null,
   cylinders: [{ id: 'c1', label: 'HP', role: 'high', boreIn: 24, strokeIn: 48, pistonRodIn: 5.5, tailRodIn: 0, clearancePercent: 8 }],
   lubricationPoints: [{ id: 'l1', label: 'MB1 line', kind: 'pressure_line', oilGrade: 'VG 150' }],
   bearings: [
@@ -46,7 +33,7 @@ const engine: EngineDetail = {
     },
     { id: 'p2', code: 'THR-P', label: 'Throttle', kind: 'throttle_pressure', unit: 'psig', sequence: 1, cylinderId: 'c1' },
   ],
-};
+});
 
 describe('engine form ↔ EngineWriteRequest', () => {
   it('keeps part ids, refers to parts by label and leaves empty limits as null', () => {

@@ -133,7 +133,7 @@ export default function RollingPassCalculatorPage() {
       live = false;
       clearTimeout(t);
     };
-    // eslint-disable-next-line react-hooks/exhaustive-deps
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- key is the JSON of request: ask only when the figures change
   }, [key]);
 
   const stands = (mills.data ?? []).flatMap((m) => m.stands.map((s) => ({ mill: m, stand: s })));
@@ -172,7 +172,11 @@ export default function RollingPassCalculatorPage() {
     <>
       <PageHeader
         title="Rolling pass"
-        subtitle="Reduction, elongation, contact length L = √(R·Δh), mean flow stress of hot carbon steel (Misaka & Yoshimoto), roll force F = L·w·Y, torque and power; and how far the flywheel’s speed falls over the pass."
+        subtitle={
+          'Reduction, elongation, contact length L = √(R·Δh), mean flow stress of hot carbon steel (Misaka & ' +
+          'Yoshimoto), roll force F = L·w·Y, torque and power; and how far the flywheel’s speed falls over the ' +
+          'pass.'
+        }
         action={
           <Button component={Link} to="/calculators" variant="default">
             All calculators
