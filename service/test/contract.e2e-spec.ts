@@ -159,6 +159,14 @@ describe('the OpenAPI description', () => {
     expect(committed === fresh).toBe(true);
   });
 
+  it('the README documents every live event of shared-types', () => {
+    const events = readFileSync(join(process.cwd(), '..', 'shared-types', 'src', 'events', 'live-events.ts'), 'utf8');
+    const names = [...events.matchAll(/^\s+'([a-z]+:[a-z]+)':/gm)].map((m) => m[1]);
+    const readme = readFileSync(join(process.cwd(), '..', 'README.md'), 'utf8');
+    expect(names.length).toBeGreaterThan(5);
+    expect(names.filter((n) => !readme.includes(`\`${n}\``))).toEqual([]);
+  });
+
   it('every $ref points at a schema it holds', () => {
     const refs = [...JSON.stringify(doc).matchAll(/"\$ref":"#\/components\/schemas\/([^"]+)"/g)].map((m) => m[1]);
     const missing = [...new Set(refs)].filter((r) => !doc.components?.schemas?.[r]);
