@@ -1343,25 +1343,6 @@ export interface components {
     FollowUpActionDto: {
       text: string;
     };
-    MeasurementItemDto: {
-      kind: components["schemas"]["MeasurementItemKind"];
-      /** @description Where it was taken, e.g. "Top, crank end" or "Web 1". */
-      label: string;
-      /** @description For crank web deflection: the crank angle of the reading, degrees. */
-      crankAngleDeg: number | null;
-      value: number;
-      unit: components["schemas"]["MaintenanceUnit"];
-      nominal: number | null;
-      /** @description The acceptance range; either end may be open. */
-      toleranceMin: number | null;
-      toleranceMax: number | null;
-      note: string;
-      id: string;
-      status: components["schemas"]["ToleranceStatus"];
-      outOfTolerance: boolean;
-      /** @description How far beyond the nearer limit (same unit), 0 when within. */
-      excess: number;
-    };
     InspectionCreateDto: {
       engineId: string;
       bearingId?: Record<string, never> | null;
@@ -1376,7 +1357,7 @@ export interface components {
       inspectorName?: string;
       findings?: string;
       followUpActions?: components["schemas"]["FollowUpActionDto"][];
-      measurements?: components["schemas"]["MeasurementItemDto"][];
+      measurements?: components["schemas"]["MeasurementItemDtoBody"][];
       promptedByAlarmId?: Record<string, never> | null;
       promptedByRunId?: Record<string, never> | null;
     };
@@ -1454,20 +1435,6 @@ export interface components {
     AssignPointOilDto: {
       /** @description null clears the assignment */
       oilId: Record<string, never> | null;
-    };
-    ConsumptionEntryDto: {
-      id: string;
-      runId: string;
-      runTitle: string;
-      lubricationPointId: string;
-      method: components["schemas"]["ConsumptionMethod"];
-      quantityLitres: number | null;
-      levelStartLitres: number | null;
-      levelEndLitres: number | null;
-      usedLitres: number;
-      note: string;
-      recordedByName: string;
-      recordedAt: string;
     };
     OilViscosityRequestDto: {
       /**
@@ -1561,6 +1528,40 @@ export interface components {
        * @example 1.5
        */
       requiredMargin?: number;
+    };
+    MeasurementItemDtoBody: {
+      /** @enum {string} */
+      kind: "clearance_lead_wire" | "clearance_feeler" | "web_deflection" | "shaft_level" | "squareness" | "bedplate_level" | "alignment_offset" | "other";
+      /** @example Top, crank end */
+      label: string;
+      /** @description crank angle of a web deflection reading, degrees */
+      crankAngleDeg?: Record<string, never>;
+      /** @example 0.026 */
+      value: number;
+      /** @enum {string} */
+      unit: "in" | "mm" | "in/ft" | "mm/m";
+      nominal?: Record<string, never>;
+      /** @description lowest acceptable value */
+      toleranceMin?: Record<string, never>;
+      /** @description highest acceptable value */
+      toleranceMax?: Record<string, never>;
+      note?: string;
+    };
+    ConsumptionEntryDtoBody: {
+      runId: string;
+      lubricationPointId: string;
+      /**
+       * @description added: quantity put in; levels: reservoir contents before and after
+       * @enum {string}
+       */
+      method: "added" | "levels";
+      /** @description litres added (method added) */
+      quantityLitres?: Record<string, never>;
+      /** @description litres in the reservoir before the run (method levels) */
+      levelStartLitres?: Record<string, never>;
+      /** @description litres in the reservoir after the run (method levels) */
+      levelEndLitres?: Record<string, never>;
+      note?: string;
     };
     AcceptInvitationRequest: {
       token: string;
@@ -2312,6 +2313,20 @@ export interface components {
     };
     /** @enum {string} */
     ComponentKind: "engine" | "bearing" | "crankshaft" | "cylinder" | "valve_gear" | "lubrication" | "bed_plate" | "other";
+    ConsumptionEntryDto: {
+      id: string;
+      runId: string;
+      runTitle: string;
+      lubricationPointId: string;
+      method: components["schemas"]["ConsumptionMethod"];
+      quantityLitres: number | null;
+      levelStartLitres: number | null;
+      levelEndLitres: number | null;
+      usedLitres: number;
+      note: string;
+      recordedByName: string;
+      recordedAt: string;
+    };
     ConsumptionEntryRequest: {
       runId: string;
       lubricationPointId: string;
@@ -3123,6 +3138,25 @@ export interface components {
     };
     /** @enum {string} */
     MaintenanceUnit: "in" | "mm" | "in/ft" | "mm/m";
+    MeasurementItemDto: {
+      kind: components["schemas"]["MeasurementItemKind"];
+      /** @description Where it was taken, e.g. "Top, crank end" or "Web 1". */
+      label: string;
+      /** @description For crank web deflection: the crank angle of the reading, degrees. */
+      crankAngleDeg: number | null;
+      value: number;
+      unit: components["schemas"]["MaintenanceUnit"];
+      nominal: number | null;
+      /** @description The acceptance range; either end may be open. */
+      toleranceMin: number | null;
+      toleranceMax: number | null;
+      note: string;
+      id: string;
+      status: components["schemas"]["ToleranceStatus"];
+      outOfTolerance: boolean;
+      /** @description How far beyond the nearer limit (same unit), 0 when within. */
+      excess: number;
+    };
     MeasurementItemInput: {
       kind: components["schemas"]["MeasurementItemKind"];
       /** @description Where it was taken, e.g. "Top, crank end" or "Web 1". */
@@ -8303,7 +8337,7 @@ export interface operations {
   LubricationController_addConsumption: {
     requestBody: {
       content: {
-        "application/json": components["schemas"]["ConsumptionEntryDto"];
+        "application/json": components["schemas"]["ConsumptionEntryDtoBody"];
       };
     };
     responses: {

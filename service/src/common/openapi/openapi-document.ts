@@ -64,7 +64,22 @@ export function buildApiDocument(app: INestApplication): OpenAPIObject {
       .build(),
   );
   doc.components ??= {};
-  doc.components.schemas = { ...doc.components.schemas, ...(sharedSchemas as NonNullable<typeof doc.components.schemas>) };
+  // A request class named like a shared type (e.g. ConsumptionEntryDto) keeps its own schema as `<name>Body`;
+  // request bodies and the classes' own schemas point there, answers point at the shared type.
+  const own = doc.components.schemas ?? {};
+  for (const name of Object.keys(own).filter((n) => n in sharedSchemas)) {
+    const from = `"#/components/schemas/${name}"`;
+    const to = `"#/components/schemas/${name}Body"`;
+    const rewrite = <T>(node: T): T => JSON.parse(JSON.stringify(node).split(from).join(to)) as T;
+    own[`${name}Body`] = own[name];
+    delete own[name];
+    for (const key of Object.keys(own)) own[key] = rewrite(own[key]);
+    for (const { op } of operationsOf(doc)) {
+      if (op.requestBody) op.requestBody = rewrite(op.requestBody);
+      if (op.parameters) op.parameters = rewrite(op.parameters);
+    }
+  }
+  doc.components.schemas = { ...own, ...(sharedSchemas as NonNullable<typeof doc.components.schemas>) };
   for (const { path, op } of operationsOf(doc)) {
     const takesInput = !!op.requestBody || (op.parameters ?? []).length > 0;
     if (takesInput) addError(op, 400);
