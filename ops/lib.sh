@@ -28,6 +28,11 @@ ensure_chromium() {
   if [ ! -x /usr/bin/chromium ]; then apt_install chromium; fi
 }
 
+# pdffonts, pdftotext, pdfinfo and pdftoppm: the printed-record tests check every PDF with them.
+ensure_poppler() {
+  if ! command -v pdffonts >/dev/null || ! command -v pdftoppm >/dev/null; then apt_install poppler-utils; fi
+}
+
 # npm packages from the lock file; reinstalled when the lock file changes.
 ensure_node_modules() {
   local stamp="$ROOT/node_modules/.crankjournal-lock.sha"

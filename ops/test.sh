@@ -33,6 +33,7 @@ done
 
 ensure_node_modules
 ensure_chromium
+ensure_poppler
 pg_up test "$PG_PORT"
 rm -rf "$STANDINS_DIR" "$RESULTS"
 mkdir -p "$STANDINS_DIR" "$RESULTS"

@@ -25,6 +25,8 @@ import { MillModule } from './modules/mill/mill.module.js';
 import { IndicatorCardsModule } from './modules/indicator-cards/indicator-cards.module.js';
 import { MaintenanceModule } from './modules/maintenance/maintenance.module.js';
 import { LubricationModule } from './modules/lubrication/lubrication.module.js';
+import { SiteModule } from './modules/site/site.module.js';
+import { RecordsModule } from './modules/records/records.module.js';
 
 @Module({
   imports: [
@@ -49,6 +51,8 @@ import { LubricationModule } from './modules/lubrication/lubrication.module.js';
     IndicatorCardsModule,
     MaintenanceModule,
     LubricationModule,
+    SiteModule,
+    RecordsModule,
   ],
   providers: [
     { provide: APP_GUARD, useClass: JwtAuthGuard },

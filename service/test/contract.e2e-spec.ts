@@ -263,7 +263,10 @@ describe('live answers keep to the description', () => {
       }
       const query = (doc.paths[path].get?.parameters ?? [])
         .filter((q) => 'in' in q && q.in === 'query' && q.required)
-        .map((q) => `${(q as { name: string }).name}=${(q as { name: string }).name === 'engineId' ? engines[0].id : ''}`);
+        .map(
+          (q) =>
+            `${(q as { name: string }).name}=${{ engineId: engines[0].id, year: String(new Date().getFullYear()) }[(q as { name: string }).name] ?? ''}`,
+        );
       if (query.length) real += `?${query.join('&')}`;
       const res = await call('get', path, real);
       if (res.status >= 400) problems.push(`GET ${real} answered ${res.status}: ${JSON.stringify(res.body).slice(0, 300)}`);

@@ -44,6 +44,7 @@ function compoundBody() {
   b.measurementPoints.push(
     { code: 'RCV', label: 'Receiver', kind: 'receiver_pressure', unit: 'psig', sequence: 5 },
     { code: 'VAC', label: 'Vacuum', kind: 'vacuum', unit: 'inHg', sequence: 6 },
+    { code: 'BAR', label: 'Barometer', kind: 'barometer', unit: 'inHg', sequence: 7 },
   );
   return b;
 }
@@ -86,6 +87,15 @@ describe('indicator cards and indicated power', () => {
       // The HP head card is Machinery’s Reference Series No. 70 example: 2.6 in², 3.6 in, 60 lb → 43.3 psi.
       expect(res.body.cylinders[0].ends[0].meanEffectivePressurePsi).toBeCloseTo(43.3, 1);
       expect(res.body.totalIndicatedKilowatts).toBeGreaterThan(0);
+    });
+
+    it('says the set is incomplete: the LP crank end has no card, so no referred MEP and the total is the cards present', async () => {
+      const res = await post(ISSUE_BODY);
+      expect(res.status).toBe(200);
+      expect(res.body.complete).toBe(false);
+      expect(res.body.missingEnds).toEqual([{ cylinderLabel: 'LP', end: 'crank' }]);
+      expect(res.body.referredMeanEffectivePressurePsi).toBeNull();
+      expect(res.body.referredMeanEffectivePressureMissing).toMatch(/missing: LP crank end/);
     });
 
     it(
@@ -337,7 +347,7 @@ describe('indicator cards and indicated power', () => {
         ],
       });
       expect(set.results.totalIndicatedHorsepower).toBeCloseTo(expected.totalIndicatedHorsepower, 9);
-      expect(set.results.referredMeanEffectivePressurePsi).toBeCloseTo(expected.referredMeanEffectivePressurePsi, 9);
+      expect(set.results.referredMeanEffectivePressurePsi).toBeCloseTo(expected.referredMeanEffectivePressurePsi!, 9);
       expect(set.results.complete).toBe(true);
       // Receiver drop: 27 psig less the LP cards' mean admission (24.5 + 23.5)/2 = 3 psi.
       expect(set.results.receiverDropPsi).toBeCloseTo(3, 9);
@@ -473,25 +483,55 @@ describe('indicator cards and indicated power', () => {
       expect(set.amendments[0].changes).toEqual(expect.arrayContaining([{ field: 'speedRpm', from: 70, to: 75 }]));
     });
 
-    it('a brake figure gives the sets near it a mechanical efficiency', async () => {
-      const created = await signedIn(t, operator)
-        .post(`/api/runs/${run.id}/card-sets`)
-        .send({
-          takenAt: takenAt(),
-          speedRpm: 75,
-          cards: [
-            { cylinderId: cyl('HP'), end: 'head', meanEffectivePressurePsi: 55 },
-            { cylinderId: cyl('HP'), end: 'crank', meanEffectivePressurePsi: 53 },
-          ],
-        });
+    it('turns the vacuum absolute against the run’s barometer reading: 24 inHg under 28.9 inHg is 2.41 psia', async () => {
+      const sets = (body: object) => signedIn(t, operator).post(`/api/runs/${run.id}/card-sets/preview`).send(body);
+      const cards = [
+        { cylinderId: cyl('HP'), end: 'head', meanEffectivePressurePsi: 55 },
+        { cylinderId: cyl('HP'), end: 'crank', meanEffectivePressurePsi: 53 },
+      ];
+      const entered = await sets({ takenAt: takenAt(), speedRpm: 75, vacuumInHg: 24, barometerInHg: 28.9, cards });
+      expect(entered.status).toBe(200);
+      expect(entered.body.barometerSource).toBe('entered');
+      expect(entered.body.results.atmosphereBasis).toBe('barometer');
+      expect(entered.body.results.cylinders[1].backPressurePsia).toBeCloseTo(2.41, 2);
+
+      const at = new Date(Date.now() - 10 * 60_000).toISOString();
+      const round = await signedIn(t, operator)
+        .post(`/api/runs/${run.id}/rounds`)
+        .send({ takenAt: at, readings: [{ clientId: randomUUID(), pointId: point('BAR'), value: 28.9, takenAt: at }] });
+      expect(round.status).toBe(201);
+      const read = await sets({ takenAt: takenAt(), speedRpm: 75, vacuumInHg: 24, cards });
+      expect(read.body.barometerSource).toBe('reading');
+      expect(read.body.barometerInHg).toBe(28.9);
+      expect(read.body.results.cylinders[1].backPressurePsia).toBeCloseTo(2.41, 2);
+    });
+
+    it('a brake figure gives the complete sets near it a mechanical efficiency; an incomplete set none, with the reason', async () => {
+      const post = (cards: object[]) =>
+        signedIn(t, operator).post(`/api/runs/${run.id}/card-sets`).send({ takenAt: takenAt(), speedRpm: 75, cards });
+      const hpCards = [
+        { cylinderId: cyl('HP'), end: 'head', meanEffectivePressurePsi: 55 },
+        { cylinderId: cyl('HP'), end: 'crank', meanEffectivePressurePsi: 53 },
+      ];
+      const partial = await post(hpCards);
+      const created = await post([
+        ...hpCards,
+        { cylinderId: cyl('LP'), end: 'head', meanEffectivePressurePsi: 26 },
+        { cylinderId: cyl('LP'), end: 'crank', meanEffectivePressurePsi: 25 },
+      ]);
       const ihp = (created.body as CardSetDto).results.totalIndicatedHorsepower;
       const res = await signedIn(t, chief)
         .post(`/api/runs/${run.id}/brake-figures`)
         .send({ measuredAt: takenAt(), method: 'direct', brakeHorsepower: 300 });
       expect(res.status).toBe(201);
       const set = (await signedIn(t, observer).get(`/api/card-sets/${created.body.id}`)).body as CardSetDto;
+      expect(set.results.complete).toBe(true);
       expect(set.results.brake?.brakeHorsepower).toBe(300);
       expect(set.results.brake?.mechanicalEfficiency).toBeCloseTo(300 / ihp, 12);
+      const incomplete = (await signedIn(t, observer).get(`/api/card-sets/${partial.body.id}`)).body as CardSetDto;
+      expect(incomplete.results.complete).toBe(false);
+      expect(incomplete.results.brake?.mechanicalEfficiency).toBeNull();
+      expect(incomplete.results.brake?.mechanicalEfficiencyMissing).toMatch(/missing: LP head end, LP crank end/);
       const missing = await signedIn(t, chief)
         .post(`/api/runs/${run.id}/brake-figures`)
         .send({ measuredAt: takenAt(), method: 'torque', speedRpm: 75 });

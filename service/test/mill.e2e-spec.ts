@@ -92,6 +92,24 @@ describe('the mill (API)', () => {
       frictionFactor: 1,
       meanFlowStressMPa: 180,
     };
+    it('refuses the hot flow-stress equation at 20 °C with a 400 naming temperatureC (it once answered 770,000 MPa)', async () => {
+      const { meanFlowStressMPa: _given, ...withoutFlowStress } = kalpakjian;
+      const res = await signedIn(t, observer).post('/api/calculations/rolling-pass').send(withoutFlowStress);
+      expect(res.status).toBe(400);
+      expect(JSON.stringify(res.body.message)).toMatch(/temperatureC: 20 °C is below 750 °C/);
+    });
+
+    it('says which model each figure used, and warns of a draft the rolls cannot bite', async () => {
+      const res = await signedIn(t, observer)
+        .post('/api/calculations/rolling-pass')
+        .send({ ...kalpakjian, frictionCoefficient: 0.1, forceModel: 'plane_strain' });
+      expect(res.status).toBe(200);
+      expect(res.body.bites).toBe(false);
+      expect(res.body.warnings.map((w: { code: string }) => w.code)).toContain('bite');
+      expect(res.body.models.force).toMatch(/plane strain/);
+      expect(res.body.geometryFactor).toBeGreaterThan(0);
+    });
+
     it('reproduces the flat rolling example: F ≈ 1.59 MN, P ≈ 645 kW', async () => {
       // Kalpakjian & Schmid, Manufacturing Engineering and Technology, Example 13.1 (annealed copper, 228 mm wide,
       // 25 → 20 mm, R = 300 mm, 100 rpm, Y_avg = 180 MPa), as listed in REFERENCES.md.
@@ -468,7 +486,7 @@ describe('the mill (API)', () => {
       const mail = await waitForMessage(body.customerEmail, { subject: lot.reference });
       expect(mail.text).toContain('Our price for the square bar.');
       expect(mail.attachments).toEqual([
-        expect.objectContaining({ contentType: 'application/pdf', filename: `quote-${lot.reference}-Q1.pdf` }),
+        expect.objectContaining({ contentType: 'application/pdf', filename: `quote-${lot.reference.toLowerCase()}-q1.pdf` }),
       ]);
       const after = (await signedIn(t, lead).get(`/api/mill/lots/${lot.id}`)).body as LotDetail;
       expect(after.status).toBe('quoted');

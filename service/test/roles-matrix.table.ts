@@ -78,10 +78,15 @@ export const ROUTE_ACCESS: Record<string, RouteAccess> = {
   'GET /api/runs/:id/readings': ANY_ROLE,
   'GET /api/runs/:id/board': ANY_ROLE,
   'GET /api/runs/:id/alarms': ANY_ROLE,
+  'GET /api/runs/:id/alarm-figures': ['chief_engineer', 'maintenance_lead'],
+  'GET /api/runs/alarm-figures': ['chief_engineer', 'maintenance_lead'],
   'POST /api/runs/:id/rounds': ENGINE_CREW,
   'POST /api/runs/:id/imports': ENGINE_CREW,
   'GET /api/runs/:id/readings.csv': ANY_ROLE,
   'GET /api/runs/:id/log-sheet.pdf': ANY_ROLE,
+  // The works' settings (name, time zone of printed records, wet-signature block)
+  'GET /api/site/settings': ANY_ROLE,
+  'PUT /api/site/settings': ADMIN,
   'POST /api/readings/:id/amendments': ENGINE_CREW,
 
   // data loggers

@@ -25,6 +25,7 @@ const MillLotDetailPage = lazy(() => import('./features/mill/pages/LotDetail.pag
 const EnginesPage = lazy(() => import('./features/engines/pages/Engines.page'));
 const EngineDetailPage = lazy(() => import('./features/engines/pages/EngineDetail.page'));
 const EngineEditPage = lazy(() => import('./features/engines/pages/EngineEdit.page'));
+const AlarmFiguresPage = lazy(() => import('./features/alarms/pages/AlarmFigures.page'));
 const RunsPage = lazy(() => import('./features/runs/pages/Runs.page'));
 const NewRunPage = lazy(() => import('./features/runs/pages/NewRun.page'));
 const LoggersPage = lazy(() => import('./features/loggers/pages/Loggers.page'));
@@ -175,6 +176,14 @@ export const routes = [
         ),
       },
       { path: 'engines/:id', element: <EngineDetailPage /> },
+      {
+        path: 'alarm-figures',
+        element: (
+          <RequireRole roles={['chief_engineer', 'maintenance_lead']}>
+            <AlarmFiguresPage />
+          </RequireRole>
+        ),
+      },
       {
         path: 'engines/:id/edit',
         element: (

@@ -259,7 +259,7 @@ describe('compound engine referred to the low-pressure cylinder', () => {
   it('IHP from the referred MEP on the LP cylinder equals the sum of the cylinders (definition in REFERENCES: compound engines)', () => {
     const result = computeIndicatedPower(input);
     const meanLp = (Math.PI / 4) * (44 ** 2 - (5.5 ** 2 + 4 ** 2) / 2);
-    const fromReferred = (result.referredMeanEffectivePressurePsi * (48 / 12) * meanLp * 2 * 75) / 33000;
+    const fromReferred = (result.referredMeanEffectivePressurePsi! * (48 / 12) * meanLp * 2 * 75) / 33000;
     const sum = result.cylinders.reduce((s, c) => s + c.indicatedHorsepower, 0);
     expect(fromReferred).toBeCloseTo(sum, 9);
     expect(result.totalIndicatedHorsepower).toBeCloseTo(sum, 9);
@@ -369,5 +369,51 @@ describe('input errors name the field', () => {
 
   it('mechanical efficiency refuses a zero IHP', () => {
     expect(() => mechanicalEfficiency({ brakeHorsepower: 10, indicatedHorsepower: 0 })).toThrow(RangeError);
+  });
+
+  it('mechanical efficiency above 1 is an error in the inputs, never a figure (common practice, no source)', () => {
+    expect(() => mechanicalEfficiency({ brakeHorsepower: 410, indicatedHorsepower: 400 })).toThrow(CalculationInputError);
+    expect(() => mechanicalEfficiency({ brakeHorsepower: 410, indicatedHorsepower: 400 })).toThrow(/above 1 is an error in the inputs/);
+    expect(mechanicalEfficiency({ brakeHorsepower: 400, indicatedHorsepower: 400 })).toBe(1);
+  });
+});
+
+describe('an incomplete set says so', () => {
+  const twoCylinders = (): IndicatedPowerInput => ({
+    rpm: 75,
+    strokeIn: 48,
+    cylinders: [
+      {
+        label: 'HP',
+        boreIn: 24,
+        pistonRodIn: 5.5,
+        tailRodIn: 0,
+        cards: [
+          { end: 'head', meanEffectivePressurePsi: 42 },
+          { end: 'crank', meanEffectivePressurePsi: 42 },
+        ],
+      },
+      { label: 'LP', boreIn: 44, pistonRodIn: 5.5, tailRodIn: 4, cards: [{ end: 'head', meanEffectivePressurePsi: 11 }] },
+    ],
+  });
+
+  it('a missing low-pressure end: complete false, the end listed, no referred MEP, with the reason', () => {
+    const r = computeIndicatedPower(twoCylinders());
+    expect(r.complete).toBe(false);
+    expect(r.missingEnds).toEqual([{ cylinderLabel: 'LP', end: 'crank' }]);
+    expect(r.referredMeanEffectivePressurePsi).toBeNull();
+    expect(r.referredMeanEffectivePressureMissing).toMatch(/missing: LP crank end/);
+    // the total is still the sum of the cards present
+    expect(r.totalIndicatedHorsepower).toBeCloseTo(r.cylinders[0].indicatedHorsepower + r.cylinders[1].indicatedHorsepower, 12);
+  });
+
+  it('a set with every end is complete and has its referred MEP', () => {
+    const input = twoCylinders();
+    input.cylinders[1].cards.push({ end: 'crank', meanEffectivePressurePsi: 11 });
+    const r = computeIndicatedPower(input);
+    expect(r.complete).toBe(true);
+    expect(r.missingEnds).toEqual([]);
+    expect(r.referredMeanEffectivePressurePsi).not.toBeNull();
+    expect(r.referredMeanEffectivePressureMissing).toBeNull();
   });
 });

@@ -54,10 +54,25 @@ export function endIndicatedHorsepower(input: {
   return (input.meanEffectivePressurePsi * strokeFt * input.effectiveAreaSqIn * input.speedRpm) / FT_LBF_PER_MIN_PER_HP;
 }
 
-/** Mechanical efficiency (fraction): brake or measured output horsepower ÷ indicated horsepower. */
+/**
+ * Mechanical efficiency (fraction): brake or measured output horsepower ÷ indicated horsepower.
+ * An engine cannot put out more at the shaft than its cylinders indicate, so a ratio above 1 is an error in the
+ * inputs (a brake figure from another load, a card set missing ends, a wrong spring) and throws rather than being shown.
+ */
 export function mechanicalEfficiency(input: { brakeHorsepower: number; indicatedHorsepower: number }): number {
   if (!(input.indicatedHorsepower > 0)) throw new CalculationInputError(null, 'indicatedHorsepower must be greater than zero');
-  return input.brakeHorsepower / input.indicatedHorsepower;
+  if (!(Number.isFinite(input.brakeHorsepower) && input.brakeHorsepower >= 0))
+    throw new CalculationInputError(null, 'brakeHorsepower must be a number of at least 0');
+  const efficiency = input.brakeHorsepower / input.indicatedHorsepower;
+  if (efficiency > 1) {
+    throw new CalculationInputError(
+      null,
+      `the brake figure (${input.brakeHorsepower.toFixed(1)} hp) is more than the indicated power ` +
+        `(${input.indicatedHorsepower.toFixed(1)} ihp): a mechanical efficiency above 1 is an error in the inputs ` +
+        '(check the brake figure, the springs and that every card of the set is taken)',
+    );
+  }
+  return efficiency;
 }
 
 /** Effective radius of a rope brake: half of (drum diameter + rope diameter), ft. */
@@ -141,10 +156,24 @@ export interface CylinderResult {
 
 export interface IndicatedPowerResult {
   cylinders: CylinderResult[];
+  /** Every end of every cylinder has a card. When false the totals are the sum of the cards present, not the engine's power. */
+  complete: boolean;
+  /** The ends without a card, by cylinder label. */
+  missingEnds: { cylinderLabel: string; end: CylinderEnd }[];
   totalIndicatedHorsepower: number;
   totalIndicatedKilowatts: number;
-  /** Total work referred to the largest cylinder (greatest swept volume), psi; see module notes. */
-  referredMeanEffectivePressurePsi: number;
+  /**
+   * Total work referred to the largest cylinder (greatest swept volume), psi; see module notes. Only for a complete
+   * set (null otherwise, with the reason in referredMeanEffectivePressureMissing).
+   */
+  referredMeanEffectivePressurePsi: number | null;
+  referredMeanEffectivePressureMissing: string | null;
+}
+
+/** Why a figure that needs every card is absent: names the missing ends. */
+export function incompleteSetReason(missingEnds: readonly { cylinderLabel: string; end: CylinderEnd }[]): string {
+  const words: Record<CylinderEnd, string> = { head: 'head end', crank: 'crank end' };
+  return `needs a card from every end; missing: ${missingEnds.map((m) => `${m.cylinderLabel} ${words[m.end]}`).join(', ')}`;
 }
 
 const isGiven = (v: unknown) => v !== undefined && v !== null;
@@ -213,7 +242,8 @@ function cardMeanEffectivePressurePsi(card: IndicatorCardInput, path: string): n
 
 /**
  * Indicated power of a set of cards: per end, per cylinder, in total (hp and kW) and the mean
- * effective pressure referred to the largest cylinder. Ends without a card contribute nothing.
+ * effective pressure referred to the largest cylinder. Ends without a card contribute nothing; they are listed
+ * in missingEnds, `complete` is false, the totals are the sum of the cards present and the referred MEP is null.
  * Throws CalculationInputError for a card giving two ways or none, non-positive dimensions or speed,
  * a rod not smaller than its bore, or two cards for the same end of a cylinder.
  */
@@ -284,12 +314,18 @@ export function computeIndicatedPower(input: IndicatedPowerInput): IndicatedPowe
       effectiveAreaSqIn: largest.meanAreaSqIn,
       speedRpm,
     });
-  const referredMeanEffectivePressurePsi = totalIndicatedHorsepower / largestHorsepowerPerPsi;
+  const missingEnds = cylinders.flatMap((c) =>
+    (['head', 'crank'] as const).filter((end) => !c.ends.some((e) => e.end === end)).map((end) => ({ cylinderLabel: c.label, end })),
+  );
+  const complete = missingEnds.length === 0;
 
   return {
     cylinders,
+    complete,
+    missingEnds,
     totalIndicatedHorsepower,
     totalIndicatedKilowatts: hpToKw(totalIndicatedHorsepower),
-    referredMeanEffectivePressurePsi,
+    referredMeanEffectivePressurePsi: complete ? totalIndicatedHorsepower / largestHorsepowerPerPsi : null,
+    referredMeanEffectivePressureMissing: complete ? null : incompleteSetReason(missingEnds),
   };
 }

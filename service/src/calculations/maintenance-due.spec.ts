@@ -1,4 +1,4 @@
-import { maintenanceDue, resetFromWorkRecord, addDays, DUE_RULE_TEXT, type LastDone } from './maintenance-due.js';
+import { maintenanceDue, resetFromWorkRecord, addDays, DUE_RULE_TEXT, MS_PER_DAY, type LastDone } from './maintenance-due.js';
 
 // Due rules are the product's own (10 % of interval or 7 days; common practice, no source).
 const lastDone: LastDone = { runHours: 1000, revolutions: 4_000_000, date: new Date('2025-05-01T00:00:00Z') };
@@ -120,5 +120,36 @@ describe('reset from the closing work record', () => {
     const r = maintenanceDue(plan, next, { runHours: 1203.5, revolutions: 4_910_000, now: completedAt });
     expect(r.status).toBe('ok');
     expect(r.criteria.every((c) => c.used === 0)).toBe(true);
+  });
+});
+
+describe('an overdue plan never shows a future date', () => {
+  const now = new Date('2026-09-01T00:00:00Z');
+  const lastDone = { runHours: 0, revolutions: 0, date: new Date('2026-08-01T00:00:00Z') };
+
+  it('overdue on revolutions with no usage rate: no due date (not the calendar date ahead), and says so', () => {
+    const r = maintenanceDue({ intervalRevolutions: 100_000, intervalDays: 365 }, lastDone, { runHours: 10, revolutions: 120_000, now });
+    expect(r.status).toBe('overdue');
+    expect(r.dueDate).toBeNull();
+    expect(r.dueDateNote).toBe('overdue on revolutions; when it fell due is not known');
+    expect(r.criteria.find((c) => c.criterion === 'revolutions')!.estimateNote).toMatch(/cannot be predicted: no usage rate/);
+  });
+
+  it('overdue on hours with a usage rate: the date it fell due, in the past', () => {
+    const r = maintenanceDue(
+      { intervalRunHours: 100, intervalDays: 365 },
+      lastDone,
+      { runHours: 120, revolutions: 0, now },
+      { runHoursPerDay: 4 },
+    );
+    expect(r.status).toBe('overdue');
+    expect(r.dueDate!.getTime()).toBe(now.getTime() - 5 * MS_PER_DAY);
+    expect(r.dueDateNote).toBe('overdue on running hours');
+  });
+
+  it('not overdue, counters only, no rate: the date cannot be predicted', () => {
+    const r = maintenanceDue({ intervalRunHours: 100 }, lastDone, { runHours: 10, revolutions: 0, now });
+    expect(r.dueDate).toBeNull();
+    expect(r.dueDateNote).toMatch(/cannot be predicted/);
   });
 });

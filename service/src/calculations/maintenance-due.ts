@@ -55,19 +55,31 @@ export interface CriterionDue {
   remaining: number;
   fractionRemaining: number;
   estimatedDueDate: Date | null;
+  /** Why there is no estimated due date (a counter without a usage rate cannot be predicted), else null. */
+  estimateNote: string | null;
   status: DueStatus;
 }
 
 export interface MaintenanceDueResult {
   status: DueStatus;
-  /** earliest estimated due date over the criteria that have one */
+  /**
+   * Earliest estimated due date over the criteria that have one; never a future date for an overdue plan (then the
+   * earliest date an overdue criterion fell due, or null when none of them can be dated: see dueDateNote).
+   */
   dueDate: Date | null;
+  /** Said beside (or instead of) the due date: overdue on a counter, or a date that cannot be predicted. */
+  dueDateNote: string | null;
   /** the criterion that governs: worst status, then earliest due date, then least fraction remaining */
   governing: DueCriterion;
   criteria: CriterionDue[];
 }
 
 const STATUS_RANK: Record<DueStatus, number> = { ok: 0, due_soon: 1, overdue: 2 };
+const COUNTER_WORDS: Record<DueCriterion, string> = {
+  run_hours: 'running hours',
+  revolutions: 'revolutions',
+  calendar_days: 'the calendar',
+};
 
 function assertDate(name: string, value: Date): void {
   if (!(value instanceof Date) || Number.isNaN(value.getTime())) throw new CalculationInputError(null, `${name} must be a valid date`);
@@ -138,6 +150,7 @@ export function maintenanceDue(
       remaining,
       fractionRemaining: remaining / interval,
       estimatedDueDate,
+      estimateNote: estimatedDueDate === null ? `the date cannot be predicted: no usage rate for ${COUNTER_WORDS[criterion]}` : null,
       status: classify(remaining, interval, daysToDue, o),
     });
   };
@@ -157,6 +170,7 @@ export function maintenanceDue(
       remaining,
       fractionRemaining: remaining / plan.intervalDays,
       estimatedDueDate: addDays(lastDone.date, plan.intervalDays),
+      estimateNote: null,
       status: classify(remaining, plan.intervalDays, remaining, o),
     });
   }
@@ -169,13 +183,19 @@ export function maintenanceDue(
     if (ta !== tb) return ta - tb;
     return a.fractionRemaining - b.fractionRemaining;
   });
-  const dated = criteria.filter((c) => c.estimatedDueDate !== null).map((c) => (c.estimatedDueDate as Date).getTime());
-  return {
-    status: ordered[0].status,
-    dueDate: dated.length > 0 ? new Date(Math.min(...dated)) : null,
-    governing: ordered[0].criterion,
-    criteria,
-  };
+  const status = ordered[0].status;
+  // An overdue plan is dated only by its overdue criteria (a calendar date still ahead would read as "not yet due").
+  const candidates = status === 'overdue' ? criteria.filter((c) => c.status === 'overdue') : criteria;
+  const dated = candidates.filter((c) => c.estimatedDueDate !== null).map((c) => (c.estimatedDueDate as Date).getTime());
+  const dueDate = dated.length > 0 ? new Date(Math.min(...dated)) : null;
+  let dueDateNote: string | null = null;
+  if (status === 'overdue') {
+    const overdueOn = candidates.map((c) => COUNTER_WORDS[c.criterion]).join(' and ');
+    dueDateNote = dueDate === null ? `overdue on ${overdueOn}; when it fell due is not known` : `overdue on ${overdueOn}`;
+  } else if (dueDate === null) {
+    dueDateNote = 'the date cannot be predicted: no usage rate for the counters';
+  }
+  return { status, dueDate, dueDateNote, governing: ordered[0].criterion, criteria };
 }
 
 /** New "last done" from the work record that closed the task. */

@@ -165,3 +165,31 @@ describe('millPassCheck: the pass as a whole', () => {
     expect(() => millPassCheck({ ...normal, exit: { shape: 'rectangle', heightMm: 80, widthMm: 80 } })).toThrow(RangeError);
   });
 });
+
+describe('grooved passes and bite', () => {
+  const base = {
+    rollDiameterMm: 406.4,
+    temperatureC: 1050,
+    carbonPct: 0.2,
+    rollSpeedRpm: 90,
+    standMaxForceKn: 5000,
+  };
+
+  it('an oval into a round: the strain is ln(entry area / exit area), not the height ratio', () => {
+    const entry = { shape: 'oval' as const, heightMm: 30, widthMm: 60 };
+    const exit = { shape: 'round' as const, heightMm: 38, widthMm: 38 };
+    const r = millPassCheck({ ...base, entry: { ...entry, heightMm: 60, widthMm: 30 }, exit });
+    expect(r.load.trueStrain).toBeCloseTo(Math.log((Math.PI * 60 * 30) / 4 / ((Math.PI * 38 * 38) / 4)), 12);
+    expect(r.load.models.strain).toMatch(/area/);
+  });
+
+  it('a draft the rolls cannot bite carries a warning with the word "bite"', () => {
+    const r = millPassCheck({
+      ...base,
+      entry: { shape: 'rectangle', heightMm: 60, widthMm: 60 },
+      exit: { shape: 'rectangle', heightMm: 45, widthMm: 64 },
+      frictionCoefficient: 0.2,
+    });
+    expect(r.warnings.find((w) => w.code === 'bite')?.message).toMatch(/will not bite a 15\.0 mm draft.*8\.1 mm at μ = 0\.2/);
+  });
+});

@@ -18,6 +18,7 @@ import {
   MILL_LOAD_CAUTION,
   type BarSection,
   type PassLoadResult,
+  type RollForceModel,
   METRES_PER_FOOT,
 } from './rolling.js';
 import { passFlywheelCheck, flywheelInertiaKgM2, kineticEnergyJ, DEFAULT_MIN_SPEED_FRACTION, type PassFlywheelResult } from './flywheel.js';
@@ -53,10 +54,13 @@ export interface MillPassInput {
   standMaxForceKn: number;
   frictionFactor?: number;
   meanFlowStressMPa?: number;
+  /** roll–stock friction coefficient for the bite check; default HOT_ROLLING_FRICTION_COEFFICIENT (rolling.ts) */
+  frictionCoefficient?: number;
+  forceModel?: RollForceModel;
   flywheel?: MillPassFlywheelInput | null;
 }
 
-export type MillPassWarningCode = 'stand_force' | 'speed_drop' | 'stall' | 'no_surplus_power';
+export type MillPassWarningCode = 'stand_force' | 'bite' | 'speed_drop' | 'stall' | 'no_surplus_power';
 export interface MillPassWarning {
   code: MillPassWarningCode;
   message: string;
@@ -91,6 +95,9 @@ export function millPassCheck(input: MillPassInput): MillPassResult {
   const entryAreaMm2 = sectionAreaMm2(input.entry);
   const exitAreaMm2 = sectionAreaMm2(input.exit);
   const elongation = areaElongation(entryAreaMm2, exitAreaMm2);
+  // Grooved passes (an oval or a round on either side): the strain is the area reduction's, ln(A0/A1), not the
+  // height ratio, which a round-oval-round sequence makes meaningless. Rectangles (flat and box passes) keep ln(h0/h1).
+  const grooved = input.entry.shape !== 'rectangle' || input.exit.shape !== 'rectangle';
   const load = passLoad({
     rollDiameterMm: input.rollDiameterMm,
     entryThicknessMm: input.entry.heightMm,
@@ -103,8 +110,20 @@ export function millPassCheck(input: MillPassInput): MillPassResult {
     standMaxForceKn: input.standMaxForceKn,
     frictionFactor: input.frictionFactor,
     meanFlowStressMPa: input.meanFlowStressMPa,
+    trueStrain: grooved ? Math.log(elongation) : undefined,
+    frictionCoefficient: input.frictionCoefficient,
+    forceModel: input.forceModel,
   });
   const warnings: MillPassWarning[] = [];
+  if (!load.bites) {
+    warnings.push({
+      code: 'bite',
+      message:
+        `The rolls will not bite a ${load.draftMm.toFixed(1)} mm draft: the most they take unaided is μ²·R = ` +
+        `${load.maxBiteDraftMm.toFixed(1)} mm at μ = ${load.frictionCoefficient}. Take a lighter draft, or give the friction coefficient ` +
+        'if the rolls are ragged.',
+    });
+  }
   if (load.exceedsStandForce) {
     warnings.push({
       code: 'stand_force',

@@ -1,5 +1,10 @@
 import { create, all } from 'mathjs';
+import { CalculationInputError } from './errors.js';
 import {
+  biteCheck,
+  rollGapGeometryFactor,
+  PLANE_STRAIN_FACTOR,
+  HOT_ROLLING_FRICTION_COEFFICIENT,
   passGeometry,
   rollSurfaceSpeedMPerS,
   meanStrainRatePerS,
@@ -176,5 +181,54 @@ describe('strain rate and the complete pass', () => {
   });
   it('exports a mill load caution', () => {
     expect(MILL_LOAD_CAUTION).toMatch(/qualified crew/);
+  });
+});
+
+describe('the models kept inside their range', () => {
+  const hot = {
+    rollDiameterMm: 406.4,
+    entryWidthMm: 60,
+    entryThicknessMm: 60,
+    exitThicknessMm: 45,
+    temperatureC: 1050,
+    carbonPct: 0.2,
+    rollSpeedRpm: 90,
+    standMaxForceKn: 2000,
+  };
+
+  it('refuses the hot flow-stress equation below 750 °C, naming temperatureC, unless a mean flow stress is given', () => {
+    const cold = () => passLoad({ ...hot, temperatureC: 20 });
+    expect(cold).toThrow(CalculationInputError);
+    try {
+      cold();
+    } catch (e) {
+      expect((e as CalculationInputError).fieldPath).toBe('temperatureC');
+      expect((e as Error).message).toMatch(/below 750 °C.*give meanFlowStressMPa/);
+    }
+    expect(passLoad({ ...hot, temperatureC: 20, meanFlowStressMPa: 300 }).meanFlowStressMPa).toBe(300);
+  });
+
+  it('bite: Δh_max = μ²·R; a 15 mm draft on 203.2 mm radius rolls bites at μ = 0.3 (18.3 mm), not at μ = 0.2 (8.1 mm)', () => {
+    expect(biteCheck({ rollDiameterMm: 406.4, draftMm: 15, frictionCoefficient: 0.3 })).toEqual({
+      maxDraftMm: expect.closeTo(0.09 * 203.2, 9),
+      bites: true,
+    });
+    expect(biteCheck({ rollDiameterMm: 406.4, draftMm: 15, frictionCoefficient: 0.2 }).bites).toBe(false);
+    const r = passLoad(hot);
+    expect(r.frictionCoefficient).toBe(HOT_ROLLING_FRICTION_COEFFICIENT);
+    expect(r.bites).toBe(true);
+    expect(passLoad({ ...hot, frictionCoefficient: 0.2 }).bites).toBe(false);
+  });
+
+  it('plane-strain force: F = L·w·(2/√3)·σ̄·Q, Q from contact length over mean height (Hosford & Caddell, from memory)', () => {
+    expect(PLANE_STRAIN_FACTOR).toBeCloseTo(1.1547, 4);
+    expect(rollGapGeometryFactor({ contactLengthMm: 100, meanHeightMm: 50, frictionCoefficient: 0.3 })).toBeCloseTo(1.15, 12);
+    expect(rollGapGeometryFactor({ contactLengthMm: 25, meanHeightMm: 50, frictionCoefficient: 0.3 })).toBeCloseTo(1.2, 12);
+    const r = passLoad({ ...hot, forceModel: 'plane_strain' });
+    const q = rollGapGeometryFactor({ contactLengthMm: r.contactLengthMm, meanHeightMm: 52.5, frictionCoefficient: 0.3 });
+    expect(r.geometryFactor).toBeCloseTo(q, 12);
+    expect(r.forceN).toBeCloseTo(r.contactLengthMm * 60 * r.meanFlowStressMPa * PLANE_STRAIN_FACTOR * q, 6);
+    expect(r.models.force).toMatch(/plane strain/);
+    expect(passLoad(hot).models.force).toMatch(/simple slab estimate/);
   });
 });

@@ -44,6 +44,47 @@ export const MISAKA_VALID_RANGE = {
 /** Allowance on the frictionless roll force for friction (about 20 %, per the manufacturing texts). */
 export const TYPICAL_FRICTION_FACTOR = 1.2;
 
+/**
+ * Coefficient of friction between hot steel and iron or steel rolls used for the bite check, unless the user gives
+ * another. Hot rolling runs with high friction (the texts give roughly 0.2 to sticking, ~0.7); 0.3 is a cautious middle
+ * figure (from memory, S. Kalpakjian & S. R. Schmid, Manufacturing Engineering and Technology, section on flat rolling).
+ */
+export const HOT_ROLLING_FRICTION_COEFFICIENT = 0.3;
+
+/** Von Mises plane-strain constraint on the uniaxial flow stress: 2/√3 (common practice, no source). */
+export const PLANE_STRAIN_FACTOR = 2 / Math.sqrt(3);
+
+/**
+ * The largest draft the rolls can bite without help: Δh_max = μ²·R (Kalpakjian & Schmid, Manufacturing Engineering
+ * and Technology, flat rolling, "maximum draft"; from memory). Answers whether a draft is bitten.
+ */
+export function biteCheck(p: { rollDiameterMm: number; draftMm: number; frictionCoefficient: number }): {
+  maxDraftMm: number;
+  bites: boolean;
+} {
+  assertPositive('rollDiameterMm', p.rollDiameterMm);
+  assertNonNegative('draftMm', p.draftMm);
+  assertPositive('frictionCoefficient', p.frictionCoefficient);
+  if (p.frictionCoefficient > 1) throw new CalculationInputError('frictionCoefficient', 'must be at most 1');
+  const maxDraftMm = p.frictionCoefficient ** 2 * (p.rollDiameterMm / 2);
+  return { maxDraftMm, bites: p.draftMm <= maxDraftMm };
+}
+
+/**
+ * Geometry factor on the plane-strain flow stress for the mean roll pressure, from the shape of the roll gap
+ * Δ = mean height / contact length (from memory, W. F. Hosford & R. M. Caddell, Metal Forming: Mechanics and
+ * Metallurgy, chapter on flat rolling; no page seen):
+ *   thin gap (L ≥ h̄): Q = 1 + μ·L/(4·h̄), the friction hill of a slab analysis;
+ *   thick gap (L < h̄): Q = 0.8 + 0.2·h̄/L, the inhomogeneous deformation of a thick bar.
+ */
+export function rollGapGeometryFactor(p: { contactLengthMm: number; meanHeightMm: number; frictionCoefficient: number }): number {
+  assertPositive('contactLengthMm', p.contactLengthMm);
+  assertPositive('meanHeightMm', p.meanHeightMm);
+  assertNonNegative('frictionCoefficient', p.frictionCoefficient);
+  const ratio = p.contactLengthMm / p.meanHeightMm;
+  return ratio >= 1 ? 1 + (p.frictionCoefficient * ratio) / 4 : 0.8 + 0.2 / ratio;
+}
+
 export const MILL_LOAD_CAUTION =
   'Roll force, torque and power here are estimates from a simple model. A stand loaded past its rating can ' +
   'break a roll, a neck or a housing, and hot stock can kill. Keep within the stand and engine ratings, ' +
@@ -200,14 +241,17 @@ export function rollLoad(p: {
   meanFlowStressMPa: number;
   rollSpeedRpm: number;
   frictionFactor?: number;
+  /** a factor on the flow stress given directly (plane strain × geometry), used instead of frictionFactor */
+  forceFactor?: number;
 }): RollLoad {
   assertPositive('contactLengthMm', p.contactLengthMm);
   assertPositive('widthMm', p.widthMm);
   assertPositive('meanFlowStressMPa', p.meanFlowStressMPa);
   assertNonNegative('rollSpeedRpm', p.rollSpeedRpm);
-  const frictionFactor = p.frictionFactor ?? 1;
+  const frictionFactor = p.forceFactor ?? p.frictionFactor ?? 1;
   assertFinite('frictionFactor', frictionFactor);
-  if (frictionFactor < 1) throw new CalculationInputError(null, 'frictionFactor must be at least 1');
+  if (p.forceFactor === undefined && frictionFactor < 1) throw new CalculationInputError(null, 'frictionFactor must be at least 1');
+  if (p.forceFactor !== undefined) assertPositive('forceFactor', p.forceFactor);
   const contactLengthM = p.contactLengthMm / 1000;
   // MPa × mm² = N
   const forceN = p.contactLengthMm * p.widthMm * p.meanFlowStressMPa * frictionFactor;
@@ -242,7 +286,18 @@ export interface PassLoadInput {
   frictionFactor?: number;
   /** overrides the Misaka flow stress (e.g. a power-law figure for cold metal, or a measured value) */
   meanFlowStressMPa?: number;
+  /** true strain of the pass where the heights alone do not give it (grooved passes: ln of the area ratio) */
+  trueStrain?: number;
+  /** roll–stock friction coefficient for the bite check and the geometry factor; default HOT_ROLLING_FRICTION_COEFFICIENT */
+  frictionCoefficient?: number;
+  /**
+   * 'simple' (default): F = L·w·σ̄·frictionFactor. 'plane_strain': F = L·w·(2/√3)·σ̄·Q with Q the roll-gap geometry
+   * factor (rollGapGeometryFactor); frictionFactor is then not used.
+   */
+  forceModel?: RollForceModel;
 }
+
+export type RollForceModel = 'simple' | 'plane_strain';
 
 export interface PassLoadResult extends PassGeometry, RollLoad {
   rollSurfaceSpeedMPerS: number;
@@ -252,12 +307,28 @@ export interface PassLoadResult extends PassGeometry, RollLoad {
   flowStressOutOfRange: string[];
   exceedsStandForce: boolean;
   standForceUtilisation: number;
+  /** the friction coefficient the bite check (and a plane-strain force) used */
+  frictionCoefficient: number;
+  /** Δh_max = μ²·R */
+  maxBiteDraftMm: number;
+  bites: boolean;
+  forceModel: RollForceModel;
+  /** the factor on the flow stress the force used: frictionFactor (simple) or (2/√3)·Q (plane strain) */
+  forceFactor: number;
+  /** Q, only for the plane-strain model */
+  geometryFactor: number | null;
+  /** which model each figure used, in words */
+  models: { strain: string; flowStress: string; force: string; bite: string };
 }
 
 /** Everything for one pass, with a check against the stand's rated force. */
 export function passLoad(input: PassLoadInput): PassLoadResult {
   assertPositive('standMaxForceKn', input.standMaxForceKn);
-  const geometry = passGeometry(input);
+  const heightGeometry = passGeometry(input);
+  if (input.trueStrain !== undefined) assertPositive('trueStrain', input.trueStrain);
+  const geometry = input.trueStrain !== undefined ? { ...heightGeometry, trueStrain: input.trueStrain } : heightGeometry;
+  const frictionCoefficient = input.frictionCoefficient ?? HOT_ROLLING_FRICTION_COEFFICIENT;
+  const bite = biteCheck({ rollDiameterMm: input.rollDiameterMm, draftMm: geometry.draftMm, frictionCoefficient });
   const surfaceSpeed = rollSurfaceSpeedMPerS(input.rollDiameterMm, input.rollSpeedRpm);
   const strainRate = meanStrainRatePerS({
     rollSurfaceSpeedMPerS: surfaceSpeed,
@@ -272,6 +343,14 @@ export function passLoad(input: PassLoadInput): PassLoadResult {
     meanFlowStressMPa = input.meanFlowStressMPa;
     flowStressSource = 'given';
   } else {
+    if (input.temperatureC < MISAKA_VALID_RANGE.temperatureMinC) {
+      throw new CalculationInputError(
+        'temperatureC',
+        `${input.temperatureC} °C is below ${MISAKA_VALID_RANGE.temperatureMinC} °C, the lowest temperature the hot flow-stress ` +
+          `equation (Misaka & Yoshimoto) was fitted at (${MISAKA_VALID_RANGE.temperatureMinC}–${MISAKA_VALID_RANGE.temperatureMaxC} °C); ` +
+          'give meanFlowStressMPa for cold or warm metal',
+      );
+    }
     const m = misakaMeanFlowStressMPa({
       carbonPct: input.carbonPct,
       temperatureC: input.temperatureC,
@@ -282,16 +361,44 @@ export function passLoad(input: PassLoadInput): PassLoadResult {
     flowStressSource = 'misaka';
     flowStressOutOfRange = m.outOfRange;
   }
+  const forceModel: RollForceModel = input.forceModel ?? 'simple';
+  let geometryFactor: number | null = null;
+  let forceFactor = input.frictionFactor ?? 1;
+  if (forceModel === 'plane_strain') {
+    geometryFactor = rollGapGeometryFactor({
+      contactLengthMm: geometry.contactLengthMm,
+      meanHeightMm: (input.entryThicknessMm + input.exitThicknessMm) / 2,
+      frictionCoefficient,
+    });
+    forceFactor = PLANE_STRAIN_FACTOR * geometryFactor;
+  }
   const load = rollLoad({
     contactLengthMm: geometry.contactLengthMm,
     widthMm: geometry.meanWidthMm,
     meanFlowStressMPa,
     rollSpeedRpm: input.rollSpeedRpm,
-    frictionFactor: input.frictionFactor,
+    frictionFactor: forceModel === 'plane_strain' ? undefined : input.frictionFactor,
+    forceFactor: forceModel === 'plane_strain' ? forceFactor : undefined,
   });
+  const models = {
+    strain: input.trueStrain !== undefined ? 'ln(entry area / exit area), grooved pass' : 'ln(entry height / exit height), flat pass',
+    flowStress: flowStressSource === 'misaka' ? 'Misaka & Yoshimoto hot flow stress' : 'mean flow stress given',
+    force:
+      forceModel === 'plane_strain'
+        ? `L·w·(2/√3)·σ̄·Q, plane strain with the roll-gap geometry factor Q = ${geometryFactor!.toFixed(3)} (μ = ${frictionCoefficient})`
+        : `L·w·σ̄ × friction factor ${forceFactor}, simple slab estimate`,
+    bite: `Δh ≤ μ²·R with μ = ${frictionCoefficient}`,
+  };
   return {
     ...geometry,
     ...load,
+    frictionCoefficient,
+    maxBiteDraftMm: bite.maxDraftMm,
+    bites: bite.bites,
+    forceModel,
+    forceFactor,
+    geometryFactor,
+    models,
     rollSurfaceSpeedMPerS: surfaceSpeed,
     meanStrainRatePerS: strainRate,
     meanFlowStressMPa,

@@ -1,4 +1,5 @@
 import { create, all } from 'mathjs';
+import { CalculationInputError } from './errors.js';
 import {
   FT3_PER_LB_PER_M3_PER_KG,
   cylinderVolumeFt3,
@@ -17,21 +18,21 @@ const math = create(all);
 const relativeError = (actual: number, expected: number) => Math.abs(actual - expected) / Math.abs(expected);
 
 describe('IF97 region 4, saturation line', () => {
-  // IAPWS R7-97(2012), Table 35: computer-program verification values of eq. 31.
+  // IAPWS R7-97(2012), Table 36: saturation temperatures calculated from eq. 31 (computer-program verification).
   it.each([
     [0.1, 372.755919],
     [1, 453.035632],
     [10, 584.149488],
-  ])('saturation temperature at %p MPa is %p K (IAPWS R7-97(2012), Table 35)', (pMPa, tK) => {
+  ])('saturation temperature at %p MPa is %p K (IAPWS R7-97(2012), Table 36)', (pMPa, tK) => {
     expect(saturationTemperatureK(pMPa)).toBeCloseTo(tK, 5);
   });
 
-  // IAPWS R7-97(2012), Table 34 (Table 35 in some printings): verification values of eq. 30.
+  // IAPWS R7-97(2012), Table 35: saturation pressures calculated from eq. 30 (computer-program verification).
   it.each([
     [300, 0.353658941e-2],
     [500, 0.263889776e1],
     [600, 0.123443146e2],
-  ])('saturation pressure at %p K is %p MPa (IAPWS R7-97(2012), saturation-pressure verification table)', (tK, pMPa) => {
+  ])('saturation pressure at %p K is %p MPa (IAPWS R7-97(2012), Table 35)', (tK, pMPa) => {
     expect(relativeError(saturationPressureMPa(tK), pMPa)).toBeLessThan(1e-8);
   });
 
@@ -143,5 +144,14 @@ describe('steam accounted for by the indicator diagram', () => {
     expect(() =>
       steamAccountedForByDiagram({ ...example, expansionPressurePsia: 48.6, compressionPressurePsia: 48.6, speedRpm: -1 }),
     ).toThrow(RangeError);
+  });
+
+  it('refuses steam accounted for that comes out negative (expansion pressure below compression pressure)', () => {
+    const negative = () => steamAccountedForByDiagram({ ...example, expansionPressurePsia: 10, compressionPressurePsia: 100 });
+    expect(negative).toThrow(CalculationInputError);
+    expect(negative).toThrow(/comes out negative: the expansion pressure \(10\.0 psia\) is below the compression pressure \(100\.0 psia\)/);
+    expect(() =>
+      steamAccountedForFromSpecificVolumes({ ...example, expansionSpecificVolumeFt3PerLb: 40, compressionSpecificVolumeFt3PerLb: 4 }),
+    ).toThrow(/comes out negative/);
   });
 });

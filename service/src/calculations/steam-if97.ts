@@ -213,8 +213,17 @@ export function steamAccountedForFromSpecificVolumes(input: {
   if (!(Number.isFinite(input.compressionVolumeFt3) && input.compressionVolumeFt3 >= 0)) {
     throw new CalculationInputError(null, 'compressionVolumeFt3 must not be negative');
   }
-  const steamPerStrokeLb =
-    input.expansionVolumeFt3 / input.expansionSpecificVolumeFt3PerLb - input.compressionVolumeFt3 / input.compressionSpecificVolumeFt3PerLb;
+  const presentLb = input.expansionVolumeFt3 / input.expansionSpecificVolumeFt3PerLb;
+  const keptLb = input.compressionVolumeFt3 / input.compressionSpecificVolumeFt3PerLb;
+  const steamPerStrokeLb = presentLb - keptLb;
+  if (!(steamPerStrokeLb > 0)) {
+    throw new CalculationInputError(
+      null,
+      `steam accounted for comes out negative: the steam kept at compression (${keptLb.toPrecision(3)} lb) is not less than ` +
+        `the steam present on the expansion line (${presentLb.toPrecision(3)} lb); check the expansion and compression points ` +
+        'and their pressures',
+    );
+  }
   const steamPerHourLb = steamPerStrokeLb * input.speedRpm * input.strokesPerRevolution * 60;
   return { steamPerStrokeLb, steamPerHourLb, steamPerIhpHourLb: steamPerHourLb / input.indicatedHorsepower };
 }
@@ -242,6 +251,16 @@ export function steamAccountedForByDiagram(input: DiagramSteamInput): DiagramSte
 } {
   const expansionSpecificVolumeFt3PerLb = saturatedVapourSpecificVolumeFt3PerLb(input.expansionPressurePsia);
   const compressionSpecificVolumeFt3PerLb = saturatedVapourSpecificVolumeFt3PerLb(input.compressionPressurePsia);
+  if (
+    input.expansionVolumeFt3 / expansionSpecificVolumeFt3PerLb <= input.compressionVolumeFt3 / compressionSpecificVolumeFt3PerLb &&
+    input.expansionPressurePsia < input.compressionPressurePsia
+  ) {
+    throw new CalculationInputError(
+      null,
+      `steam accounted for comes out negative: the expansion pressure (${input.expansionPressurePsia.toFixed(1)} psia) is below ` +
+        `the compression pressure (${input.compressionPressurePsia.toFixed(1)} psia); check the cut-off, compression and pressure readings`,
+    );
+  }
   return {
     ...steamAccountedForFromSpecificVolumes({
       expansionVolumeFt3: input.expansionVolumeFt3,

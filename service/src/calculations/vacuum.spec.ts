@@ -33,3 +33,13 @@ describe('vacuum in inches of mercury → absolute pressure', () => {
     expect(() => vacuumInHgToPsia(Number.NaN)).toThrow(RangeError);
   });
 });
+
+describe('vacuum against the local barometer', () => {
+  // A vacuum gauge reads the depression below the local atmosphere, so absolute = barometer − vacuum (common practice, no source):
+  // 28.9 inHg − 24 inHg = 4.9 inHg × 0.491154 psi/inHg (NIST SP 811, 2008, appendix B.8) = 2.41 psia.
+  it('24 inHg of vacuum under a 28.9 inHg barometer is 2.41 psia, not the 2.91 psia of the standard atmosphere', () => {
+    const psia = vacuumInHgToPsia(24, 28.9 * PSI_PER_INCH_OF_MERCURY);
+    expect(psia).toBeCloseTo(2.41, 2);
+    expect(vacuumInHgToPsia(24)).toBeCloseTo(2.91, 2);
+  });
+});

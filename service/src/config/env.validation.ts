@@ -39,6 +39,29 @@ export class EnvironmentVariables {
   @Min(1)
   LOGIN_RATE_LIMIT_PER_MINUTE = 10;
 
+  /** An alarm activated more than this many times within ALARM_CHATTER_MINUTES is chattering (ISA-18.2 TR5, from memory: 3 in 1 min). */
+  @Transform(({ value }) => Number(value))
+  @IsInt()
+  @Min(1)
+  ALARM_CHATTER_COUNT = 2;
+
+  @Transform(({ value }) => Number(value))
+  @IsInt()
+  @Min(1)
+  ALARM_CHATTER_MINUTES = 1;
+
+  /** An alarm active longer than this is stale in the alarm figures (product setting). */
+  @Transform(({ value }) => Number(value))
+  @IsInt()
+  @Min(1)
+  ALARM_STALE_MINUTES = 60;
+
+  /** A forecast crossing sooner than this raises an advisory pre-alarm on the live board. */
+  @Transform(({ value }) => Number(value))
+  @IsInt()
+  @Min(1)
+  ALARM_FORECAST_MINUTES = 10;
+
   @IsString()
   PUBLIC_URL = 'http://127.0.0.1:3000';
 

@@ -40,6 +40,7 @@ import { WorkRecord } from '../modules/maintenance/work-record.entity.js';
 import { RunPointStat } from '../modules/maintenance/run-point-stat.entity.js';
 import { Oil, LubricationPointOil } from '../modules/lubrication/oil.entity.js';
 import { OilConsumptionEntry } from '../modules/lubrication/oil-consumption.entity.js';
+import { SiteSettings } from '../modules/site/site-settings.entity.js';
 /** Every entity, in one list for the application and the migration CLI. Add new ones here. */
 export const ENTITIES = [
   User,
@@ -88,4 +89,5 @@ export const ENTITIES = [
   Oil,
   LubricationPointOil,
   OilConsumptionEntry,
+  SiteSettings,
 ];

@@ -1,3 +1,4 @@
+import type { RunState } from '../domain/run.js';
 import type { BearingKind, CylinderRole, EngineType, LubricationKind, MeasurementKind, MeasurementUnit } from '../domain/engine.js';
 
 export interface CylinderDto {
@@ -46,6 +47,10 @@ export interface MeasurementPointDto {
   maxRiseRatePerMin?: number | null;
   maxRiseAboveAmbient?: number | null;
   deadband?: number | null;
+  /** An absolute limit (high-high, high) suppresses this point's rise-above-ambient and rate-of-rise alarms; default true. */
+  relatedSuppression?: boolean;
+  /** Run states in which this point's alarms are suppressed (not meaningful), e.g. oil pressure low while 'preparing'. */
+  suppressedInStates?: RunState[];
   bearingLabel?: string | null;
   bearingId?: string | null;
   cylinderLabel?: string | null;

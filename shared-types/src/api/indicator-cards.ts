@@ -62,10 +62,16 @@ export interface IndicatedPowerCylinderResult {
 }
 export interface IndicatedPowerResponse {
   cylinders: IndicatedPowerCylinderResult[];
+  /** Every end of every cylinder has a card. When false the totals are the sum of the cards present, not the engine's power. */
+  complete: boolean;
+  /** The ends without a card. */
+  missingEnds: { cylinderLabel: string; end: CylinderEnd }[];
   totalIndicatedHorsepower: number;
   totalIndicatedKilowatts: number;
-  /** Every cylinder's work referred to the largest cylinder's area, psi. */
-  referredMeanEffectivePressurePsi: number;
+  /** Every cylinder's work referred to the largest cylinder's area, psi; null for an incomplete set. */
+  referredMeanEffectivePressurePsi: number | null;
+  /** Why the referred MEP is absent (null when it is given). */
+  referredMeanEffectivePressureMissing: string | null;
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -167,6 +173,8 @@ export interface CreateCardSetRequest {
   receiverPressurePsig?: number | null;
   /** Leave out to use the nearest vacuum reading. */
   vacuumInHg?: number | null;
+  /** The site barometer, inHg absolute; leave out to use the nearest barometer reading (else the standard atmosphere). */
+  barometerInHg?: number | null;
   notes?: string | null;
   cards: CardInput[];
 }
@@ -178,6 +186,7 @@ export interface AmendCardSetRequest {
   throttlePressurePsig?: number | null;
   receiverPressurePsig?: number | null;
   vacuumInHg?: number | null;
+  barometerInHg?: number | null;
   notes?: string | null;
   reason: string;
 }
@@ -283,7 +292,7 @@ export interface CardSetCylinderResult {
   role: CylinderRole;
   indicatedHorsepower: number;
   indicatedKilowatts: number;
-  /** Share of the engine's indicated work (fraction), when every cylinder has cards. */
+  /** Share of the engine's indicated work (fraction), only for a complete set (see CardSetResults.workSharesMissing). */
   workShare: number | null;
   admissionPressurePsia: number | null;
   backPressurePsia: number | null;
@@ -293,8 +302,10 @@ export interface BrakeComparison {
   figureId: string;
   measuredAt: string;
   brakeHorsepower: number;
-  /** Fraction (brake ÷ indicated). */
-  mechanicalEfficiency: number;
+  /** Fraction (brake ÷ indicated); null for an incomplete set or inputs that give more than 1 (see mechanicalEfficiencyMissing). */
+  mechanicalEfficiency: number | null;
+  /** Why there is no mechanical efficiency (null when it is given). */
+  mechanicalEfficiencyMissing: string | null;
 }
 export interface CardSetResults {
   speedRpm: number;
@@ -302,11 +313,16 @@ export interface CardSetResults {
   complete: boolean;
   missingEnds: { cylinderId: string; cylinderLabel: string; end: CylinderEnd }[];
   cylinders: CardSetCylinderResult[];
+  /** The engine's indicated power for a complete set; for an incomplete one, the sum of the cards present. */
   totalIndicatedHorsepower: number;
   totalIndicatedKilowatts: number;
-  /** All the work referred to the largest cylinder, psi (null until every cylinder has a card). */
+  /** All the work referred to the largest cylinder, psi (null until every end of every cylinder has a card). */
   referredMeanEffectivePressurePsi: number | null;
   referredToCylinderLabel: string | null;
+  /** Why there is no referred MEP (null when it is given). */
+  referredMeanEffectivePressureMissing: string | null;
+  /** Why the cylinders carry no work share (null when they do). */
+  workSharesMissing: string | null;
   receiverPressurePsig: number | null;
   lowPressureAdmissionPsig: number | null;
   /** Receiver pressure less the low-pressure cylinder's admission pressure read off its cards, psi. */
@@ -314,6 +330,10 @@ export interface CardSetResults {
   brake: BrakeComparison | null;
   /** Steam accounted for by the first cylinder's diagrams, lb per indicated horsepower-hour of the engine. */
   steamAccountedForLbPerIhpHour: number | null;
+  /** The atmosphere vacuum and gauge readings were turned absolute with, psia. */
+  atmosphericPressurePsia: number;
+  /** 'barometer': the site's barometer reading; 'standard': no barometer known, the standard atmosphere (see notes). */
+  atmosphereBasis: 'barometer' | 'standard';
   /** What could not be worked out, and why. */
   notes: string[];
   computedAt: string;
@@ -334,6 +354,9 @@ export interface CardSetDto {
   receiverSource: FigureSource | null;
   vacuumInHg: number | null;
   vacuumSource: FigureSource | null;
+  /** The site barometer the vacuum and gauge readings were turned absolute with, inHg (null: the standard atmosphere). */
+  barometerInHg: number | null;
+  barometerSource: FigureSource | null;
   notes: string | null;
   cylinders: CardSetCylinder[];
   cards: CardDto[];
@@ -355,6 +378,8 @@ export interface CardSetPreviewDto {
   receiverSource: FigureSource | null;
   vacuumInHg: number | null;
   vacuumSource: FigureSource | null;
+  barometerInHg: number | null;
+  barometerSource: FigureSource | null;
   cylinders: CardSetCylinder[];
   cards: {
     cylinderId: string;

@@ -124,12 +124,17 @@ export interface DueCriterionDto {
   remaining: number;
   fractionRemaining: number;
   estimatedDueDate: string | null;
+  /** Why there is no estimated date (a counter without a usage rate: "cannot be predicted"). */
+  estimateNote: string | null;
   status: DueStatus;
 }
 export interface PlanDue {
   status: DueStatus;
   governing: DueCriterion;
+  /** Never a future date for an overdue plan. */
   dueDate: string | null;
+  /** Said beside or instead of the date: overdue on a counter, or "cannot be predicted". */
+  dueDateNote: string | null;
   criteria: DueCriterionDto[];
 }
 
@@ -272,6 +277,20 @@ export interface WebDeflectionSummary {
   spread: number;
   unit: MaintenanceUnit;
   readings: number;
+  /**
+   * The trade's judgement, pair by pair: vertical (90° against 270°) and horizontal (head-end dead centre against the
+   * mean of the readings either side of crank-end dead centre), each against its own limit (the tolerance given on that
+   * pair's readings). A pair without both readings is absent.
+   */
+  pairs: WebDeflectionPair[];
+}
+export interface WebDeflectionPair {
+  pair: 'vertical' | 'horizontal';
+  /** |difference| of the pair's readings, in their unit */
+  deflection: number;
+  /** the limit given on the pair's readings (null: none given) */
+  limit: number | null;
+  status: 'within' | 'above' | 'no_tolerance';
 }
 export interface InspectionDto extends InspectionSummary {
   engineName: string;

@@ -121,6 +121,17 @@ export interface PassCalculationDto {
   meanStrainRatePerS: number;
   flowStress: FlowStressDto;
   frictionFactor: number;
+  /** roll–stock friction coefficient the bite check (and a plane-strain force) used */
+  frictionCoefficient: number;
+  /** the largest draft the rolls bite unaided, μ²·R, mm */
+  maxBiteDraftMm: number;
+  bites: boolean;
+  /** 'simple': L·w·σ̄·frictionFactor; 'plane_strain': L·w·(2/√3)·σ̄·Q */
+  forceModel: 'simple' | 'plane_strain';
+  /** Q, the roll-gap geometry factor (plane-strain model only) */
+  geometryFactor: number | null;
+  /** which model each figure used, in words */
+  models: { strain: string; flowStress: string; force: string; bite: string };
   forceKn: number;
   forceLbf: number;
   torquePerRollKnM: number;
@@ -149,6 +160,9 @@ export interface RollingPassRequest {
   standMaxForceKn: number;
   frictionFactor?: number;
   meanFlowStressMPa?: number;
+  /** roll–stock friction coefficient for the bite check; default 0.3 (hot rolling) */
+  frictionCoefficient?: number;
+  forceModel?: 'simple' | 'plane_strain';
   /** the flywheel group: give all of flywheelMassLb … indicatedHp, or none */
   flywheelMassLb?: number;
   flywheelRadiusOfGyrationFt?: number;

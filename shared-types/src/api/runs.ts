@@ -1,4 +1,4 @@
-import type { AlarmKind, AlarmPriority, AlarmState, ReadingSource, RunPurpose, RunState } from '../domain/run.js';
+import type { AlarmKind, AlarmPriority, AlarmState, AlarmSuppression, ReadingSource, RunPurpose, RunState } from '../domain/run.js';
 
 export interface CrewMember {
   id: string;
@@ -162,6 +162,12 @@ export interface AlarmDto {
   shelvedUntil: string | null;
   shelveReason: string | null;
   shelvedByName: string | null;
+  /** Suppressed alarms are recorded but not annunciated nor waiting: 'design' (by a higher alarm of the point) or 'state'. */
+  suppression: AlarmSuppression | null;
+  /** The alarm that suppresses this one (design suppression). */
+  suppressedById: string | null;
+  /** e.g. "High-high" (design) or "run state Preparing" (state). */
+  suppressedByLabel: string | null;
   updatedAt: string;
 }
 export interface ShelveAlarmRequest {
@@ -195,4 +201,39 @@ export interface BoardPoint {
   trend: number[];
   alarmState: AlarmState | null;
   alarmPriority: AlarmPriority | null;
+  /** Time to the next limit at the present trend, when the trend is steady enough to say so. */
+  forecast?: LimitForecastDto | null;
+}
+export interface LimitForecastDto {
+  /** e.g. 'high_high'. */
+  limitKind: AlarmKind;
+  limit: number;
+  unit: string;
+  minutesToLimit: number;
+  ratePerMin: number;
+  /** Under the pre-alarm setting: an advisory pre-alarm, the lowest priority (not in the alarm record). */
+  preAlarm: boolean;
+  preAlarmMinutes: number;
+  /** The method and its window, in words, for the screen. */
+  method: string;
+}
+/** The alarm system's own figures for a run or a season, against the standards' suggested targets. */
+export interface AlarmFiguresDto {
+  from: string;
+  to: string;
+  minutes: number;
+  runs: number;
+  total: number;
+  averagePerTenMinutes: number;
+  peakPerTenMinutes: number;
+  floods: number;
+  floodSharePercent: number;
+  topTen: { key: string; count: number; sharePercent: number }[];
+  chattering: { key: string; count: number; suggestedDeadband: number | null; unit: string }[];
+  stale: { key: string; minutes: number }[];
+  standingAtStart: number;
+  /** One row per figure, with its target and whether it is met (also the log sheet's section). */
+  rows: { label: string; value: string; target: string; met: boolean }[];
+  /** Where the targets come from, in words. */
+  basis: string;
 }

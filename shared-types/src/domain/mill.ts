@@ -38,7 +38,7 @@ export const LOT_STATUSES_OPEN_TO_QUOTES: readonly LotStatus[] = ['enquiry', 'qu
 export const RUN_STATES_LOGGING_PASSES: readonly RunState[] = ['running', 'stopped'];
 
 /** Codes of the warnings on a pass. */
-export const PASS_WARNING_CODES = ['stand_force', 'speed_drop', 'stall', 'no_surplus_power'] as const;
+export const PASS_WARNING_CODES = ['stand_force', 'bite', 'speed_drop', 'stall', 'no_surplus_power'] as const;
 export type PassWarningCode = (typeof PASS_WARNING_CODES)[number];
 
 const MM_PER_INCH = 25.4;

@@ -39,6 +39,7 @@ export type AlarmKind = (typeof ALARM_KINDS)[number];
 export const ALARM_STATES = ['active_unacknowledged', 'active_acknowledged', 'returned_unacknowledged', 'normal', 'shelved'] as const;
 export type AlarmState = (typeof ALARM_STATES)[number];
 export type AlarmPriority = 'high' | 'high_high';
+export type AlarmSuppression = 'design' | 'state';
 export const ALARM_STATE_WORDS: Record<AlarmState, string> = {
   active_unacknowledged: 'Active — not acknowledged',
   active_acknowledged: 'Active — acknowledged',
@@ -55,3 +56,15 @@ export const ALARM_KIND_WORDS: Record<AlarmKind, string> = {
   above_mawp: 'Above maximum allowable working pressure',
   overspeed: 'Overspeed',
 };
+
+/**
+ * Suppression by design, in words for the engine page. The service's rule table (alarm-suppression.ts) is checked
+ * against these words by its unit test.
+ */
+export const DESIGN_SUPPRESSION_RULE_WORDS: readonly string[] = [
+  'While high-high is active on a point, its high alarm is recorded but suppressed.',
+  'While high-high is active on a point, its rising too fast alarm is recorded but suppressed (where marked related).',
+  'While high-high is active on a point, its too far above ambient alarm is recorded but suppressed (where marked related).',
+  'While high is active on a point, its rising too fast alarm is recorded but suppressed (where marked related).',
+  'While high is active on a point, its too far above ambient alarm is recorded but suppressed (where marked related).',
+];

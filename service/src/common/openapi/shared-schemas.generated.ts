@@ -2,9 +2,11 @@
 export type SharedSchemaName =
   | 'AcceptInvitationRequest'
   | 'AlarmDto'
+  | 'AlarmFiguresDto'
   | 'AlarmKind'
   | 'AlarmPriority'
   | 'AlarmState'
+  | 'AlarmSuppression'
   | 'AmendBrakeFigureRequest'
   | 'AmendCardRequest'
   | 'AmendCardSetRequest'
@@ -125,6 +127,7 @@ export type SharedSchemaName =
   | 'LiftPressureRequest'
   | 'LiftPressureResponse'
   | 'LimitChangeDto'
+  | 'LimitForecastDto'
   | 'LinkRunRequest'
   | 'LiveAck_RunDetail_StartGateVerdict'
   | 'LiveAck_IngestResult'
@@ -240,6 +243,7 @@ export type SharedSchemaName =
   | 'UpdateRunRequest'
   | 'UpdateUserRequest'
   | 'UserSummary'
+  | 'WebDeflectionPair'
   | 'WebDeflectionSummary'
   | 'WithdrawQualificationRequest'
   | 'WorkHazard'
@@ -278,6 +282,13 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       shelvedUntil: { type: ['string', 'null'] },
       shelveReason: { type: ['string', 'null'] },
       shelvedByName: { type: ['string', 'null'] },
+      suppression: {
+        anyOf: [{ $ref: '#/components/schemas/AlarmSuppression' }, { type: 'null' }],
+        description:
+          "Suppressed alarms are recorded but not annunciated nor waiting: 'design' (by a higher alarm of the point) or 'state'.",
+      },
+      suppressedById: { type: ['string', 'null'], description: 'The alarm that suppresses this one (design suppression).' },
+      suppressedByLabel: { type: ['string', 'null'], description: 'e.g. "High-high" (design) or "run state Preparing" (state).' },
       updatedAt: { type: 'string' },
     },
     required: [
@@ -301,13 +312,94 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       'shelvedUntil',
       'shelveReason',
       'shelvedByName',
+      'suppression',
+      'suppressedById',
+      'suppressedByLabel',
       'updatedAt',
     ],
     additionalProperties: false,
   },
+  AlarmFiguresDto: {
+    type: 'object',
+    properties: {
+      from: { type: 'string' },
+      to: { type: 'string' },
+      minutes: { type: 'number' },
+      runs: { type: 'number' },
+      total: { type: 'number' },
+      averagePerTenMinutes: { type: 'number' },
+      peakPerTenMinutes: { type: 'number' },
+      floods: { type: 'number' },
+      floodSharePercent: { type: 'number' },
+      topTen: {
+        type: 'array',
+        items: {
+          type: 'object',
+          properties: { key: { type: 'string' }, count: { type: 'number' }, sharePercent: { type: 'number' } },
+          required: ['key', 'count', 'sharePercent'],
+          additionalProperties: false,
+        },
+      },
+      chattering: {
+        type: 'array',
+        items: {
+          type: 'object',
+          properties: {
+            key: { type: 'string' },
+            count: { type: 'number' },
+            suggestedDeadband: { type: ['number', 'null'] },
+            unit: { type: 'string' },
+          },
+          required: ['key', 'count', 'suggestedDeadband', 'unit'],
+          additionalProperties: false,
+        },
+      },
+      stale: {
+        type: 'array',
+        items: {
+          type: 'object',
+          properties: { key: { type: 'string' }, minutes: { type: 'number' } },
+          required: ['key', 'minutes'],
+          additionalProperties: false,
+        },
+      },
+      standingAtStart: { type: 'number' },
+      rows: {
+        type: 'array',
+        items: {
+          type: 'object',
+          properties: { label: { type: 'string' }, value: { type: 'string' }, target: { type: 'string' }, met: { type: 'boolean' } },
+          required: ['label', 'value', 'target', 'met'],
+          additionalProperties: false,
+        },
+        description: "One row per figure, with its target and whether it is met (also the log sheet's section).",
+      },
+      basis: { type: 'string', description: 'Where the targets come from, in words.' },
+    },
+    required: [
+      'from',
+      'to',
+      'minutes',
+      'runs',
+      'total',
+      'averagePerTenMinutes',
+      'peakPerTenMinutes',
+      'floods',
+      'floodSharePercent',
+      'topTen',
+      'chattering',
+      'stale',
+      'standingAtStart',
+      'rows',
+      'basis',
+    ],
+    additionalProperties: false,
+    description: "The alarm system's own figures for a run or a season, against the standards' suggested targets.",
+  },
   AlarmKind: { type: 'string', enum: ['high', 'high_high', 'low', 'rate_of_rise', 'above_ambient', 'above_mawp', 'overspeed'] },
   AlarmPriority: { type: 'string', enum: ['high', 'high_high'] },
   AlarmState: { type: 'string', enum: ['active_unacknowledged', 'active_acknowledged', 'returned_unacknowledged', 'normal', 'shelved'] },
+  AlarmSuppression: { type: 'string', enum: ['design', 'state'] },
   AmendBrakeFigureRequest: {
     type: 'object',
     additionalProperties: false,
@@ -363,6 +455,7 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       throttlePressurePsig: { type: ['number', 'null'] },
       receiverPressurePsig: { type: ['number', 'null'] },
       vacuumInHg: { type: ['number', 'null'] },
+      barometerInHg: { type: ['number', 'null'] },
       notes: { type: ['string', 'null'] },
       reason: { type: 'string' },
     },
@@ -731,6 +824,10 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       trend: { type: 'array', items: { type: 'number' } },
       alarmState: { anyOf: [{ $ref: '#/components/schemas/AlarmState' }, { type: 'null' }] },
       alarmPriority: { anyOf: [{ $ref: '#/components/schemas/AlarmPriority' }, { type: 'null' }] },
+      forecast: {
+        anyOf: [{ $ref: '#/components/schemas/LimitForecastDto' }, { type: 'null' }],
+        description: 'Time to the next limit at the present trend, when the trend is steady enough to say so.',
+      },
     },
     required: ['pointId', 'value', 'unit', 'takenAt', 'trend', 'alarmState', 'alarmPriority'],
     additionalProperties: false,
@@ -742,9 +839,17 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       figureId: { type: 'string' },
       measuredAt: { type: 'string' },
       brakeHorsepower: { type: 'number' },
-      mechanicalEfficiency: { type: 'number', description: 'Fraction (brake ÷ indicated).' },
+      mechanicalEfficiency: {
+        type: ['number', 'null'],
+        description:
+          'Fraction (brake ÷ indicated); null for an incomplete set or inputs that give more than 1 (see mechanicalEfficiencyMissing).',
+      },
+      mechanicalEfficiencyMissing: {
+        type: ['string', 'null'],
+        description: 'Why there is no mechanical efficiency (null when it is given).',
+      },
     },
-    required: ['figureId', 'measuredAt', 'brakeHorsepower', 'mechanicalEfficiency'],
+    required: ['figureId', 'measuredAt', 'brakeHorsepower', 'mechanicalEfficiency', 'mechanicalEfficiencyMissing'],
     additionalProperties: false,
   },
   BrakeFigureDto: {
@@ -945,7 +1050,7 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       indicatedKilowatts: { type: 'number' },
       workShare: {
         type: ['number', 'null'],
-        description: "Share of the engine's indicated work (fraction), when every cylinder has cards.",
+        description: "Share of the engine's indicated work (fraction), only for a complete set (see CardSetResults.workSharesMissing).",
       },
       admissionPressurePsia: { type: ['number', 'null'] },
       backPressurePsia: { type: ['number', 'null'] },
@@ -981,6 +1086,11 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       receiverSource: { anyOf: [{ $ref: '#/components/schemas/FigureSource' }, { type: 'null' }] },
       vacuumInHg: { type: ['number', 'null'] },
       vacuumSource: { anyOf: [{ $ref: '#/components/schemas/FigureSource' }, { type: 'null' }] },
+      barometerInHg: {
+        type: ['number', 'null'],
+        description: 'The site barometer the vacuum and gauge readings were turned absolute with, inHg (null: the standard atmosphere).',
+      },
+      barometerSource: { anyOf: [{ $ref: '#/components/schemas/FigureSource' }, { type: 'null' }] },
       notes: { type: ['string', 'null'] },
       cylinders: { type: 'array', items: { $ref: '#/components/schemas/CardSetCylinder' } },
       cards: { type: 'array', items: { $ref: '#/components/schemas/CardDto' } },
@@ -1005,6 +1115,8 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       'receiverSource',
       'vacuumInHg',
       'vacuumSource',
+      'barometerInHg',
+      'barometerSource',
       'notes',
       'cylinders',
       'cards',
@@ -1054,6 +1166,8 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       receiverSource: { anyOf: [{ $ref: '#/components/schemas/FigureSource' }, { type: 'null' }] },
       vacuumInHg: { type: ['number', 'null'] },
       vacuumSource: { anyOf: [{ $ref: '#/components/schemas/FigureSource' }, { type: 'null' }] },
+      barometerInHg: { type: ['number', 'null'] },
+      barometerSource: { anyOf: [{ $ref: '#/components/schemas/FigureSource' }, { type: 'null' }] },
       cylinders: { type: 'array', items: { $ref: '#/components/schemas/CardSetCylinder' } },
       cards: {
         type: 'array',
@@ -1084,6 +1198,8 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       'receiverSource',
       'vacuumInHg',
       'vacuumSource',
+      'barometerInHg',
+      'barometerSource',
       'cylinders',
       'cards',
       'results',
@@ -1110,13 +1226,21 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
         },
       },
       cylinders: { type: 'array', items: { $ref: '#/components/schemas/CardSetCylinderResult' } },
-      totalIndicatedHorsepower: { type: 'number' },
+      totalIndicatedHorsepower: {
+        type: 'number',
+        description: "The engine's indicated power for a complete set; for an incomplete one, the sum of the cards present.",
+      },
       totalIndicatedKilowatts: { type: 'number' },
       referredMeanEffectivePressurePsi: {
         type: ['number', 'null'],
-        description: 'All the work referred to the largest cylinder, psi (null until every cylinder has a card).',
+        description: 'All the work referred to the largest cylinder, psi (null until every end of every cylinder has a card).',
       },
       referredToCylinderLabel: { type: ['string', 'null'] },
+      referredMeanEffectivePressureMissing: {
+        type: ['string', 'null'],
+        description: 'Why there is no referred MEP (null when it is given).',
+      },
+      workSharesMissing: { type: ['string', 'null'], description: 'Why the cylinders carry no work share (null when they do).' },
       receiverPressurePsig: { type: ['number', 'null'] },
       lowPressureAdmissionPsig: { type: ['number', 'null'] },
       receiverDropPsi: {
@@ -1127,6 +1251,12 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       steamAccountedForLbPerIhpHour: {
         type: ['number', 'null'],
         description: "Steam accounted for by the first cylinder's diagrams, lb per indicated horsepower-hour of the engine.",
+      },
+      atmosphericPressurePsia: { type: 'number', description: 'The atmosphere vacuum and gauge readings were turned absolute with, psia.' },
+      atmosphereBasis: {
+        type: 'string',
+        enum: ['barometer', 'standard'],
+        description: "'barometer': the site's barometer reading; 'standard': no barometer known, the standard atmosphere (see notes).",
       },
       notes: { type: 'array', items: { type: 'string' }, description: 'What could not be worked out, and why.' },
       computedAt: { type: 'string' },
@@ -1140,11 +1270,15 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       'totalIndicatedKilowatts',
       'referredMeanEffectivePressurePsi',
       'referredToCylinderLabel',
+      'referredMeanEffectivePressureMissing',
+      'workSharesMissing',
       'receiverPressurePsig',
       'lowPressureAdmissionPsig',
       'receiverDropPsi',
       'brake',
       'steamAccountedForLbPerIhpHour',
+      'atmosphericPressurePsia',
+      'atmosphereBasis',
       'notes',
       'computedAt',
     ],
@@ -1732,6 +1866,10 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       },
       receiverPressurePsig: { type: ['number', 'null'], description: 'Leave out to use the nearest receiver-pressure reading.' },
       vacuumInHg: { type: ['number', 'null'], description: 'Leave out to use the nearest vacuum reading.' },
+      barometerInHg: {
+        type: ['number', 'null'],
+        description: 'The site barometer, inHg absolute; leave out to use the nearest barometer reading (else the standard atmosphere).',
+      },
       notes: { type: ['string', 'null'] },
       cards: { type: 'array', items: { $ref: '#/components/schemas/CardInput' } },
     },
@@ -1884,9 +2022,13 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       remaining: { type: 'number', description: "In the criterion's own unit (hours, revolutions, days); negative when overdue." },
       fractionRemaining: { type: 'number' },
       estimatedDueDate: { type: ['string', 'null'] },
+      estimateNote: {
+        type: ['string', 'null'],
+        description: 'Why there is no estimated date (a counter without a usage rate: "cannot be predicted").',
+      },
       status: { $ref: '#/components/schemas/DueStatus' },
     },
-    required: ['criterion', 'interval', 'used', 'remaining', 'fractionRemaining', 'estimatedDueDate', 'status'],
+    required: ['criterion', 'interval', 'used', 'remaining', 'fractionRemaining', 'estimatedDueDate', 'estimateNote', 'status'],
     additionalProperties: false,
   },
   DueList: {
@@ -1998,6 +2140,17 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
             maxRiseRatePerMin: { type: ['number', 'null'] },
             maxRiseAboveAmbient: { type: ['number', 'null'] },
             deadband: { type: ['number', 'null'] },
+            relatedSuppression: {
+              type: 'boolean',
+              description:
+                "An absolute limit (high-high, high) suppresses this point's rise-above-ambient and rate-of-rise alarms; default true.",
+            },
+            suppressedInStates: {
+              type: 'array',
+              items: { $ref: '#/components/schemas/RunState' },
+              description:
+                "Run states in which this point's alarms are suppressed (not meaningful), e.g. oil pressure low while 'preparing'.",
+            },
             bearingLabel: { type: ['string', 'null'] },
             bearingId: { type: ['string', 'null'] },
             cylinderLabel: { type: ['string', 'null'] },
@@ -2259,14 +2412,41 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
     type: 'object',
     properties: {
       cylinders: { type: 'array', items: { $ref: '#/components/schemas/IndicatedPowerCylinderResult' } },
+      complete: {
+        type: 'boolean',
+        description:
+          "Every end of every cylinder has a card. When false the totals are the sum of the cards present, not the engine's power.",
+      },
+      missingEnds: {
+        type: 'array',
+        items: {
+          type: 'object',
+          properties: { cylinderLabel: { type: 'string' }, end: { $ref: '#/components/schemas/CylinderEnd' } },
+          required: ['cylinderLabel', 'end'],
+          additionalProperties: false,
+        },
+        description: 'The ends without a card.',
+      },
       totalIndicatedHorsepower: { type: 'number' },
       totalIndicatedKilowatts: { type: 'number' },
       referredMeanEffectivePressurePsi: {
-        type: 'number',
-        description: "Every cylinder's work referred to the largest cylinder's area, psi.",
+        type: ['number', 'null'],
+        description: "Every cylinder's work referred to the largest cylinder's area, psi; null for an incomplete set.",
+      },
+      referredMeanEffectivePressureMissing: {
+        type: ['string', 'null'],
+        description: 'Why the referred MEP is absent (null when it is given).',
       },
     },
-    required: ['cylinders', 'totalIndicatedHorsepower', 'totalIndicatedKilowatts', 'referredMeanEffectivePressurePsi'],
+    required: [
+      'cylinders',
+      'complete',
+      'missingEnds',
+      'totalIndicatedHorsepower',
+      'totalIndicatedKilowatts',
+      'referredMeanEffectivePressurePsi',
+      'referredMeanEffectivePressureMissing',
+    ],
     additionalProperties: false,
   },
   IngestResult: {
@@ -2633,6 +2813,24 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
     required: ['id', 'engineId', 'subject', 'field', 'oldValue', 'newValue', 'changedBy', 'changedByName', 'changedAt'],
     additionalProperties: false,
     description: 'One change to a limit or engine setting, kept for the record.',
+  },
+  LimitForecastDto: {
+    type: 'object',
+    properties: {
+      limitKind: { $ref: '#/components/schemas/AlarmKind', description: "e.g. 'high_high'." },
+      limit: { type: 'number' },
+      unit: { type: 'string' },
+      minutesToLimit: { type: 'number' },
+      ratePerMin: { type: 'number' },
+      preAlarm: {
+        type: 'boolean',
+        description: 'Under the pre-alarm setting: an advisory pre-alarm, the lowest priority (not in the alarm record).',
+      },
+      preAlarmMinutes: { type: 'number' },
+      method: { type: 'string', description: 'The method and its window, in words, for the screen.' },
+    },
+    required: ['limitKind', 'limit', 'unit', 'minutesToLimit', 'ratePerMin', 'preAlarm', 'preAlarmMinutes', 'method'],
+    additionalProperties: false,
   },
   LinkRunRequest: { type: 'object', properties: { runId: { type: 'string' } }, required: ['runId'], additionalProperties: false },
   LiveAck_RunDetail_StartGateVerdict: {
@@ -3070,6 +3268,7 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       'throttle_pressure',
       'receiver_pressure',
       'vacuum',
+      'barometer',
       'speed',
       'bearing_temperature',
       'oil_pressure',
@@ -3095,6 +3294,16 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       maxRiseRatePerMin: { type: ['number', 'null'] },
       maxRiseAboveAmbient: { type: ['number', 'null'] },
       deadband: { type: ['number', 'null'] },
+      relatedSuppression: {
+        type: 'boolean',
+        description:
+          "An absolute limit (high-high, high) suppresses this point's rise-above-ambient and rate-of-rise alarms; default true.",
+      },
+      suppressedInStates: {
+        type: 'array',
+        items: { $ref: '#/components/schemas/RunState' },
+        description: "Run states in which this point's alarms are suppressed (not meaningful), e.g. oil pressure low while 'preparing'.",
+      },
       bearingLabel: { type: ['string', 'null'] },
       bearingId: { type: ['string', 'null'] },
       cylinderLabel: { type: ['string', 'null'] },
@@ -3389,6 +3598,25 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       meanStrainRatePerS: { type: 'number' },
       flowStress: { $ref: '#/components/schemas/FlowStressDto' },
       frictionFactor: { type: 'number' },
+      frictionCoefficient: {
+        type: 'number',
+        description: 'roll–stock friction coefficient the bite check (and a plane-strain force) used',
+      },
+      maxBiteDraftMm: { type: 'number', description: 'the largest draft the rolls bite unaided, μ²·R, mm' },
+      bites: { type: 'boolean' },
+      forceModel: {
+        type: 'string',
+        enum: ['simple', 'plane_strain'],
+        description: "'simple': L·w·σ̄·frictionFactor; 'plane_strain': L·w·(2/√3)·σ̄·Q",
+      },
+      geometryFactor: { type: ['number', 'null'], description: 'Q, the roll-gap geometry factor (plane-strain model only)' },
+      models: {
+        type: 'object',
+        properties: { strain: { type: 'string' }, flowStress: { type: 'string' }, force: { type: 'string' }, bite: { type: 'string' } },
+        required: ['strain', 'flowStress', 'force', 'bite'],
+        additionalProperties: false,
+        description: 'which model each figure used, in words',
+      },
       forceKn: { type: 'number' },
       forceLbf: { type: 'number' },
       torquePerRollKnM: { type: 'number' },
@@ -3416,6 +3644,12 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       'meanStrainRatePerS',
       'flowStress',
       'frictionFactor',
+      'frictionCoefficient',
+      'maxBiteDraftMm',
+      'bites',
+      'forceModel',
+      'geometryFactor',
+      'models',
       'forceKn',
       'forceLbf',
       'torquePerRollKnM',
@@ -3472,7 +3706,7 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
     ],
     additionalProperties: false,
   },
-  PassWarningCode: { type: 'string', enum: ['stand_force', 'speed_drop', 'stall', 'no_surplus_power'] },
+  PassWarningCode: { type: 'string', enum: ['stand_force', 'bite', 'speed_drop', 'stall', 'no_surplus_power'] },
   PassWarningDto: {
     type: 'object',
     properties: { code: { $ref: '#/components/schemas/PassWarningCode' }, message: { type: 'string' } },
@@ -3484,10 +3718,14 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
     properties: {
       status: { $ref: '#/components/schemas/DueStatus' },
       governing: { $ref: '#/components/schemas/DueCriterion' },
-      dueDate: { type: ['string', 'null'] },
+      dueDate: { type: ['string', 'null'], description: 'Never a future date for an overdue plan.' },
+      dueDateNote: {
+        type: ['string', 'null'],
+        description: 'Said beside or instead of the date: overdue on a counter, or "cannot be predicted".',
+      },
       criteria: { type: 'array', items: { $ref: '#/components/schemas/DueCriterionDto' } },
     },
-    required: ['status', 'governing', 'dueDate', 'criteria'],
+    required: ['status', 'governing', 'dueDate', 'dueDateNote', 'criteria'],
     additionalProperties: false,
   },
   PointConsumption: {
@@ -3807,6 +4045,8 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       standMaxForceKn: { type: 'number' },
       frictionFactor: { type: 'number' },
       meanFlowStressMPa: { type: 'number' },
+      frictionCoefficient: { type: 'number', description: 'roll–stock friction coefficient for the bite check; default 0.3 (hot rolling)' },
+      forceModel: { type: 'string', enum: ['simple', 'plane_strain'] },
       flywheelMassLb: { type: 'number', description: 'the flywheel group: give all of flywheelMassLb … indicatedHp, or none' },
       flywheelRadiusOfGyrationFt: { type: 'number' },
       engineSpeedRpm: { type: 'number' },
@@ -3848,6 +4088,25 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       meanStrainRatePerS: { type: 'number' },
       flowStress: { $ref: '#/components/schemas/FlowStressDto' },
       frictionFactor: { type: 'number' },
+      frictionCoefficient: {
+        type: 'number',
+        description: 'roll–stock friction coefficient the bite check (and a plane-strain force) used',
+      },
+      maxBiteDraftMm: { type: 'number', description: 'the largest draft the rolls bite unaided, μ²·R, mm' },
+      bites: { type: 'boolean' },
+      forceModel: {
+        type: 'string',
+        enum: ['simple', 'plane_strain'],
+        description: "'simple': L·w·σ̄·frictionFactor; 'plane_strain': L·w·(2/√3)·σ̄·Q",
+      },
+      geometryFactor: { type: ['number', 'null'], description: 'Q, the roll-gap geometry factor (plane-strain model only)' },
+      models: {
+        type: 'object',
+        properties: { strain: { type: 'string' }, flowStress: { type: 'string' }, force: { type: 'string' }, bite: { type: 'string' } },
+        required: ['strain', 'flowStress', 'force', 'bite'],
+        additionalProperties: false,
+        description: 'which model each figure used, in words',
+      },
       forceKn: { type: 'number' },
       forceLbf: { type: 'number' },
       torquePerRollKnM: { type: 'number' },
@@ -3863,6 +4122,7 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
     },
     required: [
       'areaReduction',
+      'bites',
       'caution',
       'contactLengthMm',
       'draftMm',
@@ -3874,9 +4134,14 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       'flywheel',
       'forceKn',
       'forceLbf',
+      'forceModel',
+      'frictionCoefficient',
       'frictionFactor',
+      'geometryFactor',
+      'maxBiteDraftMm',
       'meanStrainRatePerS',
       'meanWidthMm',
+      'models',
       'powerRollPairHp',
       'powerRollPairKw',
       'reduction',
@@ -4558,14 +4823,31 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
     required: ['id', 'email', 'displayName', 'role', 'active', 'unitSystem', 'invitationPending', 'createdAt'],
     additionalProperties: false,
   },
+  WebDeflectionPair: {
+    type: 'object',
+    properties: {
+      pair: { type: 'string', enum: ['vertical', 'horizontal'] },
+      deflection: { type: 'number', description: "|difference| of the pair's readings, in their unit" },
+      limit: { type: ['number', 'null'], description: "the limit given on the pair's readings (null: none given)" },
+      status: { type: 'string', enum: ['within', 'above', 'no_tolerance'] },
+    },
+    required: ['pair', 'deflection', 'limit', 'status'],
+    additionalProperties: false,
+  },
   WebDeflectionSummary: {
     type: 'object',
     properties: {
       spread: { type: 'number', description: 'max − min of the web deflection readings, in their unit.' },
       unit: { $ref: '#/components/schemas/MaintenanceUnit' },
       readings: { type: 'number' },
+      pairs: {
+        type: 'array',
+        items: { $ref: '#/components/schemas/WebDeflectionPair' },
+        description:
+          "The trade's judgement, pair by pair: vertical (90° against 270°) and horizontal (head-end dead centre against the mean of the readings either side of crank-end dead centre), each against its own limit (the tolerance given on that pair's readings). A pair without both readings is absent.",
+      },
     },
-    required: ['spread', 'unit', 'readings'],
+    required: ['spread', 'unit', 'readings', 'pairs'],
     additionalProperties: false,
   },
   WithdrawQualificationRequest: {

@@ -5,7 +5,10 @@ import { Mill1796164211009 } from './1796164211009-Mill.js';
 import { ChecklistsQualifications1796164498769 } from './1796164498769-ChecklistsQualifications.js';
 import { IndicatorCards1796164976631 } from './1796164976631-IndicatorCards.js';
 import { Maintenance1796166275712 } from './1796166275712-Maintenance.js';
+import { CardSetBarometer1796414559444 } from './1796414559444-CardSetBarometer.js';
 import { ReadingsPointRunIndex1796169344642 } from './1796169344642-ReadingsPointRunIndex.js';
+import { AlarmSuppression1796170500000 } from './1796170500000-AlarmSuppression.js';
+import { SiteSettings1796413937879 } from './1796413937879-SiteSettings.js';
 
 /** Every migration in order. Add new ones at the end; never edit one that has been committed. */
 export const MIGRATIONS: (new () => MigrationInterface)[] = [
@@ -16,4 +19,7 @@ export const MIGRATIONS: (new () => MigrationInterface)[] = [
   IndicatorCards1796164976631,
   Maintenance1796166275712,
   ReadingsPointRunIndex1796169344642,
+  AlarmSuppression1796170500000,
+  SiteSettings1796413937879,
+  CardSetBarometer1796414559444,
 ];

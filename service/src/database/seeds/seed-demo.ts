@@ -1,5 +1,6 @@
 import type { INestApplicationContext } from '@nestjs/common';
 import { DataSource } from 'typeorm';
+import { SiteService } from '../../modules/site/site.service.js';
 import { seedUsers } from './seed-users.js';
 import { seedEngine } from './seed-engine.js';
 import { seedSeason } from './seed-season.js';
@@ -15,6 +16,8 @@ import { seedLubrication } from './seed-lubrication.js';
  */
 export async function seedDemo(app: INestApplicationContext): Promise<string> {
   const db = app.get(DataSource);
+  // The invented works and its clock: every printed record names it and prints its times in this zone.
+  await app.get(SiteService).update({ worksName: 'Alder Forge', timeZone: 'Europe/London' });
   const users = await db.transaction((m) => seedUsers(m));
   const engine = await seedEngine(app, users.get('chief@alderforge.example')!.id);
   const runs = await seedSeason(app, engine, users);

@@ -39,6 +39,7 @@ export type MeasurementKind =
   | 'throttle_pressure'
   | 'receiver_pressure'
   | 'vacuum'
+  | 'barometer'
   | 'speed'
   | 'bearing_temperature'
   | 'oil_pressure'

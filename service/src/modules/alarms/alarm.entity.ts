@@ -1,5 +1,5 @@
 import { Column, Entity, Index, PrimaryGeneratedColumn, UpdateDateColumn } from 'typeorm';
-import type { AlarmKind, AlarmPriority, AlarmState } from '@crankjournal/shared-types';
+import type { AlarmKind, AlarmPriority, AlarmState, AlarmSuppression } from '@crankjournal/shared-types';
 
 /** One alarm: one crossing of one condition of one point, through its whole lifecycle. */
 @Entity({ name: 'alarms' })
@@ -28,6 +28,9 @@ export class Alarm {
   @Column({ name: 'shelved_until', type: 'timestamptz', nullable: true }) shelvedUntil: Date | null;
   @Column({ name: 'shelve_reason', type: 'text', nullable: true }) shelveReason: string | null;
   @Column({ name: 'shelved_by', type: 'uuid', nullable: true }) shelvedBy: string | null;
+  /** Suppressed alarms are recorded but not annunciated: 'design' (by `suppressedBy`) or 'state'. */
+  @Column({ type: 'varchar', length: 8, nullable: true }) suppression: AlarmSuppression | null;
+  @Column({ name: 'suppressed_by', type: 'uuid', nullable: true }) suppressedBy: string | null;
   @Column({ name: 'emailed_at', type: 'timestamptz', nullable: true }) emailedAt: Date | null;
   @UpdateDateColumn({ name: 'updated_at', type: 'timestamptz' }) updatedAt: Date;
 }

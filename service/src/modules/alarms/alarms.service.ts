@@ -1,7 +1,15 @@
 import { BadRequestException, Injectable, Logger, NotFoundException, type OnModuleDestroy, type OnModuleInit } from '@nestjs/common';
 import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
 import { DataSource, EntityManager, In, Not, Repository } from 'typeorm';
-import { type AlarmDto, type AlarmKind, ALARM_KIND_WORDS } from '@crankjournal/shared-types';
+import {
+  type AlarmDto,
+  type AlarmFiguresDto,
+  type AlarmKind,
+  type AlarmSuppression,
+  type LimitForecastDto,
+  type RunState,
+  ALARM_KIND_WORDS,
+} from '@crankjournal/shared-types';
 import { EnginesService, type EngineWithPoints } from '../engines/engines.service.js';
 import { LiveService } from '../live/live.service.js';
 import { MailService } from '../mail/mail.service.js';
@@ -16,7 +24,24 @@ import {
   type AlarmEvent as LifecycleEvent,
   type AlarmLifecycle,
 } from './alarm-lifecycle.js';
-import { evaluateReading, validateReadingValue, type MeasurementPointSettings, type PointReading } from './alarm-rules.js';
+import {
+  evaluateReading,
+  validateReadingValue,
+  type AlarmConditionKind,
+  type MeasurementPointSettings,
+  type PointReading,
+} from './alarm-rules.js';
+import { designSuppressor, suppressedByState } from './alarm-suppression.js';
+import { forecastForPoint } from './alarm-forecast.js';
+import {
+  ALARM_FIGURE_BASIS,
+  alarmFigureRows,
+  alarmFigures,
+  detectChattering,
+  suggestDeadband,
+  type AlarmSpan,
+  type Annunciation,
+} from './alarm-performance.js';
 import { AlarmEvent } from './alarm-event.entity.js';
 import { Alarm } from './alarm.entity.js';
 
@@ -33,6 +58,13 @@ export interface NewReading {
   pointId: string;
   value: number;
   takenAt: Date;
+}
+
+interface Suppression {
+  kind: AlarmSuppression;
+  /** The suppressing alarm (design). */
+  by: string | null;
+  label: string;
 }
 
 interface EngineState {
@@ -100,6 +132,12 @@ function oldestInWindow(list: readonly PointReading[], takenAt: Date, windowMinu
   return [];
 }
 
+/**
+ * The recorded values of a point at given instants (the readings module answers it: alarms never read its table).
+ * Used for the deadband a chattering alarm would have needed.
+ */
+export type ReadingValuesAt = (pointId: string, at: Date[]) => Promise<number[]>;
+
 @Injectable()
 export class AlarmsService implements OnModuleInit, OnModuleDestroy {
   private readonly logger = new Logger('Alarms');
@@ -159,6 +197,8 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
     readings: NewReading[],
     m: EntityManager,
     history: RecentHistoryLoader,
+    /** The run's state, for suppression by state; none = no state suppression. */
+    runState?: RunState | null,
   ): Promise<EvaluationOutcome> {
     const { engine, points } = await this.engines.withPoints(engineId);
     const pointById = new Map(points.map((p) => [p.id, p]));
@@ -231,11 +271,13 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
         const key = `${point.id}:${d.kind}`;
         const open = st.open.get(key);
         if (d.action === 'raise') {
+          const sup = this.suppressionFor(point, d.kind, st, runState);
           if (open) {
             const next = this.apply(open, { type: 'reactivate' }, null, r.takenAt, events);
             next.value = d.value;
             next.limit = d.limit;
             next.message = d.message;
+            if (sup && !next.suppression) this.suppress(next, sup, r.takenAt, events);
             changed.set(next.id, next);
           } else {
             const a = m.create(Alarm, {
@@ -252,6 +294,8 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
               unit: d.unit,
               readingId: r.id,
               raisedAt: r.takenAt,
+              suppression: null,
+              suppressedBy: null,
             });
             const saved = await m.save(Alarm, a);
             events.push({
@@ -265,10 +309,34 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
             });
             st.open.set(key, saved);
             changed.set(saved.id, saved);
-            raised++;
-            raisedReadingIds.push(r.id);
-            if (saved.priority === 'high_high') toEmail.push(saved);
+            if (sup) {
+              // Recorded, not annunciated: neither counted as raised for the crew nor e-mailed.
+              this.suppress(saved, sup, r.takenAt, events);
+            } else {
+              raised++;
+              raisedReadingIds.push(r.id);
+              if (saved.priority === 'high_high') toEmail.push(saved);
+            }
           }
+        } else if (d.action === 'clear' && open && open.conditionActive && open.suppression && open.state !== 'shelved') {
+          // Never annunciated, so nothing waits for the crew: straight back to normal, on the record.
+          events.push({
+            alarmId: open.id,
+            event: 'return_to_normal',
+            fromState: open.state,
+            toState: 'normal',
+            byUser: null,
+            at: r.takenAt,
+            note: 'Returned to normal while suppressed.',
+          });
+          open.state = 'normal';
+          open.conditionActive = false;
+          open.returnedAt = r.takenAt;
+          open.suppression = null;
+          open.suppressedBy = null;
+          await m.save(Alarm, open);
+          changed.set(open.id, open);
+          st.open.delete(key);
         } else if (d.action === 'clear' && open && open.conditionActive) {
           const next = this.apply(open, { type: 'return_to_normal' }, null, r.takenAt, events);
           changed.set(next.id, next);
@@ -280,12 +348,82 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
           }
         }
       }
+      for (const a of this.releaseSuppressed(point, st, runState, r.takenAt, events)) {
+        changed.set(a.id, a);
+        if (a.suppression) continue;
+        // Released: annunciated from now on, so it counts as raised by this reading.
+        raised++;
+        raisedReadingIds.push(r.id);
+        if (a.priority === 'high_high') toEmail.push(a);
+      }
     }
     if (changed.size) {
       await m.save(Alarm, [...changed.values()]);
     }
     if (events.length) await m.insert(AlarmEvent, events);
     return { changed: [...changed.values()], raised, raisedReadingIds, toEmail };
+  }
+
+  /** Why a new `kind` alarm of the point is suppressed (state first, then design), or null to annunciate it. */
+  private suppressionFor(
+    point: EnginePoint,
+    kind: AlarmConditionKind,
+    st: EngineState,
+    runState: RunState | null | undefined,
+  ): Suppression | null {
+    if (suppressedByState(point.suppressedInStates, runState)) return { kind: 'state', by: null, label: `run state ${runState}` };
+    const others = [...st.open.values()].filter((a) => a.pointId === point.id && a.kind !== kind);
+    const hit = designSuppressor(kind, others, point.relatedSuppression !== false);
+    return hit ? { kind: 'design', by: hit.id, label: ALARM_KIND_WORDS[hit.kind] } : null;
+  }
+
+  private suppress(a: Alarm, s: Suppression, at: Date, events: Partial<AlarmEvent>[]) {
+    a.suppression = s.kind;
+    a.suppressedBy = s.by;
+    events.push({
+      alarmId: a.id,
+      event: 'suppress',
+      fromState: a.state,
+      toState: a.state,
+      byUser: null,
+      at,
+      note: `Suppressed by ${s.label}.`,
+    });
+  }
+
+  /**
+   * After a reading of the point: suppressed alarms whose reason is gone are re-pointed to the next higher active
+   * alarm or released (annunciated from then on). Returns the alarms changed (released ones have no suppression).
+   */
+  private releaseSuppressed(
+    point: EnginePoint,
+    st: EngineState,
+    runState: RunState | null | undefined,
+    at: Date,
+    events: Partial<AlarmEvent>[],
+  ): Alarm[] {
+    const released: Alarm[] = [];
+    for (const a of st.open.values()) {
+      if (a.pointId !== point.id || !a.suppression || !a.conditionActive) continue;
+      if (a.suppression === 'state' && suppressedByState(point.suppressedInStates, runState)) continue;
+      if (a.suppression === 'design') {
+        const by = [...st.open.values()].find((o) => o.id === a.suppressedBy);
+        if (by && by.conditionActive) continue;
+      }
+      const next = this.suppressionFor(point, a.kind, st, runState);
+      if (next && next.by !== a.id) {
+        if (next.by === a.suppressedBy && next.kind === a.suppression) continue;
+        this.suppress(a, next, at, events);
+        released.push(a);
+        continue;
+      }
+      const was = a.suppression === 'state' ? 'the run state changed' : 'the alarm that suppressed it cleared';
+      events.push({ alarmId: a.id, event: 'release', fromState: a.state, toState: a.state, byUser: null, at, note: `Released: ${was}.` });
+      a.suppression = null;
+      a.suppressedBy = null;
+      released.push(a);
+    }
+    return released;
   }
 
   private ambientIn(st: EngineState, point: EnginePoint): number | null {
@@ -365,6 +503,13 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
     return n;
   }
 
+  private async suppressorLabel(a: Alarm): Promise<string | null> {
+    if (a.suppression === 'state') return 'the run state';
+    if (a.suppression !== 'design' || !a.suppressedBy) return null;
+    const by = await this.alarmRepo.findOne({ where: { id: a.suppressedBy }, select: { id: true, kind: true } });
+    return by ? ALARM_KIND_WORDS[by.kind] : 'a higher alarm';
+  }
+
   async toDto(a: Alarm): Promise<AlarmDto> {
     const { points } = await this.engines.withPoints(a.engineId);
     const p = points.find((x) => x.id === a.pointId);
@@ -389,6 +534,9 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
       shelvedUntil: a.shelvedUntil?.toISOString() ?? null,
       shelveReason: a.shelveReason,
       shelvedByName: await this.nameOf(a.shelvedBy),
+      suppression: a.suppression ?? null,
+      suppressedById: a.suppressedBy ?? null,
+      suppressedByLabel: await this.suppressorLabel(a),
       updatedAt: (a.updatedAt ?? new Date()).toISOString(),
     };
   }
@@ -421,7 +569,7 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
   async openCountByRun(runIds: string[]): Promise<Map<string, number>> {
     if (!runIds.length) return new Map();
     const rows: { run_id: string; n: number }[] = await this.db.query(
-      `SELECT run_id, count(*)::int AS n FROM alarms WHERE run_id = ANY($1) AND state <> 'normal' GROUP BY run_id`,
+      `SELECT run_id, count(*)::int AS n FROM alarms WHERE run_id = ANY($1) AND state <> 'normal' AND suppression IS NULL GROUP BY run_id`,
       [runIds],
     );
     return new Map(rows.map((o) => [o.run_id, o.n]));
@@ -508,6 +656,104 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
       }
       await this.broadcast(a);
     }
+  }
+
+  /**
+   * The alarm system's figures over some runs (one run, or a season's): each run counted from its opening to its
+   * close (or now). Annunciated alarms only: a raise suppressed at once is not counted, a release is.
+   */
+  async figures(
+    runs: { id: string; from: Date; to: Date; startedAt: Date | null }[],
+    readingValuesAt: ReadingValuesAt,
+  ): Promise<AlarmFiguresDto> {
+    const ids = runs.map((r) => r.id);
+    const alarms = ids.length ? await this.alarmRepo.find({ where: { runId: In(ids) } }) : [];
+    const events = alarms.length
+      ? await this.db.getRepository(AlarmEvent).find({ where: { alarmId: In(alarms.map((a) => a.id)) }, order: { at: 'ASC' } })
+      : [];
+    const points = new Map<string, EnginePoint>();
+    for (const engineId of new Set(alarms.map((a) => a.engineId)))
+      for (const p of (await this.engines.withPoints(engineId)).points) points.set(p.id, p);
+    const keyOf = (a: Alarm) => `${(a.pointId && points.get(a.pointId)?.label) || 'engine'} · ${ALARM_KIND_WORDS[a.kind]}`;
+    const byAlarm = new Map<string, AlarmEvent[]>();
+    for (const e of events) byAlarm.set(e.alarmId, [...(byAlarm.get(e.alarmId) ?? []), e]);
+    const annunciations: Annunciation[] = [];
+    const spans: AlarmSpan[] = [];
+    const chatter: AlarmFiguresDto['chattering'] = [];
+    const activations = new Map<string, { alarm: Alarm; at: Date[] }>();
+    for (const a of alarms) {
+      const evs = byAlarm.get(a.id) ?? [];
+      let suppressed = false;
+      let annunciated = false;
+      for (const e of evs) {
+        const suppressedNow = evs.some((x) => x.event === 'suppress' && x.at.getTime() === e.at.getTime());
+        if (e.event === 'raise' || e.event === 'reactivate') {
+          if (!suppressed && !suppressedNow) annunciations.push({ at: e.at, key: keyOf(a) });
+          const k = `${a.pointId}:${a.kind}`;
+          const act = activations.get(k) ?? { alarm: a, at: [] };
+          act.at.push(e.at);
+          activations.set(k, act);
+          annunciated ||= !suppressed && !suppressedNow;
+        }
+        if (e.event === 'suppress') suppressed = true;
+        if (e.event === 'release') {
+          suppressed = false;
+          annunciated = true;
+          annunciations.push({ at: e.at, key: keyOf(a) });
+        }
+        if (e.event === 'return_to_normal') suppressed = false;
+      }
+      if (annunciated) spans.push({ key: keyOf(a), raisedAt: a.raisedAt, endedAt: a.returnedAt });
+    }
+    const opts = { maxActivations: this.config.get('ALARM_CHATTER_COUNT'), windowMinutes: this.config.get('ALARM_CHATTER_MINUTES') };
+    for (const { alarm, at } of activations.values()) {
+      const c = detectChattering(at, opts);
+      if (!c.chattering) continue;
+      const p = alarm.pointId ? points.get(alarm.pointId) : undefined;
+      let suggested: number | null = null;
+      if (p && alarm.limit !== null && alarm.kind !== 'rate_of_rise') {
+        // The readings that cleared it: those of the point when its alarm of this kind returned to normal.
+        const clears = alarms
+          .filter((x) => x.pointId === alarm.pointId && x.kind === alarm.kind && x.returnedAt)
+          .map((x) => x.returnedAt as Date);
+        const values = clears.length ? await readingValuesAt(p.id, clears) : [];
+        suggested = suggestDeadband(values, alarm.limit, alarm.kind === 'low' ? 'low' : 'high');
+      }
+      chatter.push({ key: keyOf(alarm), count: c.worst, suggestedDeadband: suggested, unit: alarm.unit });
+    }
+    const standing = runs.reduce((n, r) => {
+      if (!r.startedAt) return n;
+      const t = r.startedAt.getTime();
+      return n + spans.filter((s) => s.raisedAt.getTime() < t && (!s.endedAt || s.endedAt.getTime() > t)).length;
+    }, 0);
+    // Readings may be entered with an earlier time than the run's opening (a round written up late): the span
+    // starts at the earliest alarm when that is earlier.
+    const firstOf = (runId: string) => Math.min(...alarms.filter((a) => a.runId === runId).map((a) => a.raisedAt.getTime()));
+    const f = alarmFigures(
+      // No runs (a season not yet begun): one empty span, so every figure is zero.
+      runs.length
+        ? runs.map((r) => ({ from: new Date(Math.min(r.from.getTime(), firstOf(r.id))), to: r.to }))
+        : [{ from: new Date(), to: new Date() }],
+      annunciations,
+      spans,
+      chatter,
+      standing,
+      { staleMinutes: this.config.get('ALARM_STALE_MINUTES') },
+    );
+    return { ...f, runs: runs.length, chattering: chatter, rows: alarmFigureRows(f), basis: ALARM_FIGURE_BASIS };
+  }
+
+  /**
+   * Time to the point's next limit at the present trend (readings of the last minutes, oldest first), with the
+   * advisory pre-alarm under ALARM_FORECAST_MINUTES; null when the trend is not steady enough to say.
+   */
+  forecast(point: EnginePoint, readings: readonly { value: number; takenAt: Date }[], now: Date): LimitForecastDto | null {
+    return forecastForPoint(point, readings, now, this.config.get('ALARM_FORECAST_MINUTES'));
+  }
+
+  /** The log sheet's alarm-figures section as plain rows (any PDF layout can place them). */
+  logSheetAlarmRows(f: AlarmFiguresDto): { label: string; value: string; target: string }[] {
+    return f.rows.map((r) => ({ label: r.label, value: r.value, target: `${r.target}${r.met ? '' : ' (not met)'}` }));
   }
 
   async get(id: string): Promise<Alarm> {

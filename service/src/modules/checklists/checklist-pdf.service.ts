@@ -1,6 +1,4 @@
-import { PassThrough, type Readable } from 'node:stream';
 import { Injectable } from '@nestjs/common';
-import PDFDocument from 'pdfkit';
 import {
   CHECKLIST_PURPOSE_LABELS,
   CHECKLIST_REQUIRED_WHEN_LABELS,
@@ -8,7 +6,10 @@ import {
   HAZARD_LABELS,
   type ChecklistItemDef,
 } from '@crankjournal/shared-types';
+import { renderRecord, recordFileName, type Block } from '../../common/pdf/record-document.js';
+import { zonedClock } from '../../common/pdf/zoned-time.js';
 import { EnginesService } from '../engines/engines.service.js';
+import { SiteService } from '../site/site.service.js';
 import { ChecklistTemplatesService } from './checklist-templates.service.js';
 import { rangeText, unitText } from './checklist-rules.js';
 
@@ -17,202 +18,120 @@ export const CHECKLIST_SAFETY_NOTE =
   'the insurer’s inspections or licensed practice. ' +
   'Lock out the engine before working on it.';
 
-const BOX = 11;
-
 /** A printable blank checklist of a template version, for the day the tablet fails. */
 @Injectable()
 export class ChecklistPdfService {
   constructor(
     private readonly templates: ChecklistTemplatesService,
     private readonly engines: EnginesService,
+    private readonly site: SiteService,
   ) {}
 
-  async blank(templateId: string, version?: number): Promise<{ filename: string; stream: Readable }> {
+  async blank(
+    templateId: string,
+    version: number | undefined,
+    printedBy: string,
+    printedAt = new Date(),
+  ): Promise<{ filename: string; buffer: Buffer }> {
     const t = await this.templates.get(templateId);
     const wanted = version ?? t.currentVersion;
     const published = wanted > 0 ? await this.templates.versionRow(templateId, wanted) : null;
     const content = published?.content ?? t.draft!;
     const engine = await this.engines.get(t.engineId);
-    const doc = new PDFDocument({ size: 'A4', margin: 42, info: { Title: `${content.name} — blank checklist`, Author: 'Crankjournal' } });
-    const out = new PassThrough();
-    doc.pipe(out);
-    const left = doc.page.margins.left;
-    const width = doc.page.width - doc.page.margins.left - doc.page.margins.right;
-    const bottom = () => doc.page.height - doc.page.margins.bottom;
-    const room = (h: number) => {
-      if (doc.y + h > bottom()) doc.addPage();
-    };
-    const box = (x: number, y: number) => doc.rect(x, y, BOX, BOX).lineWidth(0.8).stroke();
-    const line = (x: number, y: number, w: number) =>
-      doc
-        .moveTo(x, y)
-        .lineTo(x + w, y)
-        .lineWidth(0.5)
-        .stroke();
-
-    doc.font('Helvetica-Bold').fontSize(17).text(`${content.name} — ${engine.name}`, left, doc.y, { width });
-    doc.font('Helvetica').fontSize(9.5).fillColor('#333');
-    const versionText = published
-      ? `Version ${published.version}, published ${published.publishedAt.toISOString().slice(0, 10)}`
-      : 'DRAFT — not published';
-    doc.text(
-      `${versionText} · ` +
-        `${CHECKLIST_PURPOSE_LABELS[content.purpose]} · ${CHECKLIST_REQUIRED_WHEN_LABELS[content.requiredWhen]} · ` +
-        `the signer must hold a current ${DUTY_LABELS[content.requiredDuty].toLowerCase()} qualification for this engine.`,
-      { width },
-    );
-    doc.fillColor('black').moveDown(0.6);
-    const y0 = doc.y;
-    doc.fontSize(10).text('Run:', left, y0);
-    line(left + 28, y0 + 10, 200);
-    doc.text('Date:', left + 250, y0);
-    line(left + 280, y0 + 10, 90);
-    doc.text('Started (time):', left + 385, y0);
-    line(left + 455, y0 + 10, width - 455);
-    doc.x = left;
-    doc.y = y0 + 22;
-    if (content.description) doc.fontSize(10).text(content.description, left, doc.y, { width }).moveDown(0.4);
-    doc
-      .fontSize(8.5)
-      .fillColor('#555')
-      .text(
-        'Paper copy for when the tablet is not available. Enter every value into Crankjournal afterwards; ' +
+    const site = await this.site.settings();
+    const clock = zonedClock(site.timeZone);
+    const versionText = published ? `Version ${published.version}, published ${clock.date(published.publishedAt)}` : 'DRAFT: not published';
+    const blocks: Block[] = [
+      {
+        kind: 'text',
+        text:
+          `${CHECKLIST_PURPOSE_LABELS[content.purpose]} \u00b7 ${CHECKLIST_REQUIRED_WHEN_LABELS[content.requiredWhen]} \u00b7 ` +
+          `the signer must hold a current ${DUTY_LABELS[content.requiredDuty].toLowerCase()} qualification for this engine.`,
+        tone: 'muted',
+      },
+      {
+        kind: 'writeIn',
+        fields: [
+          { label: 'Run', share: 0.45 },
+          { label: 'Date', share: 0.25 },
+          { label: `Started (${site.timeZone})`, share: 0.3 },
+        ],
+      },
+      ...(content.description ? [{ kind: 'text', text: content.description } as Block] : []),
+      {
+        kind: 'text',
+        size: 8.5,
+        tone: 'muted',
+        text:
+          'Paper copy for when the tablet is not available. Enter every value into Crankjournal afterwards; ' +
           'the start gate only counts checklists signed there.',
-        left,
-        doc.y,
-        { width },
-      );
-    doc.fillColor('black').moveDown(0.6);
-
+      },
+    ];
     let n = 0;
     for (const s of content.sections) {
-      room(50);
-      doc.font('Helvetica-Bold').fontSize(12).text(s.title, left, doc.y, { width });
-      line(left, doc.y + 1, width);
-      doc.moveDown(0.4);
-      for (const it of s.items) {
-        n++;
-        this.item(doc, it, n, left, width, room, box, line);
-      }
-      doc.moveDown(0.4);
+      blocks.push({ kind: 'heading', text: s.title });
+      for (const it of s.items) blocks.push(this.item(it, ++n));
     }
-
-    room(150);
-    doc
-      .moveDown(0.6)
-      .font('Helvetica-Bold')
-      .fontSize(11)
-      .text('Out-of-range values accepted by the chief engineer', left, doc.y, { width });
-    doc
-      .font('Helvetica')
-      .fontSize(9)
-      .text('Item, value, reason:', left, doc.y + 4);
-    for (let i = 0; i < 2; i++) line(left, doc.y + 14 + i * 18, width);
-    doc.y += 44;
-    doc.text('Chief engineer (name and signature):', left, doc.y);
-    line(left + 175, doc.y, width - 175);
-    doc.moveDown(1.4).font('Helvetica-Bold').fontSize(11).text('Signature', left, doc.y, { width });
-    doc.font('Helvetica').fontSize(9.5);
-    const ys = doc.y + 6;
-    doc.text('Signed by (name):', left, ys);
-    line(left + 85, ys + 10, 170);
-    doc.text('Signature:', left + 270, ys);
-    line(left + 320, ys + 10, width - 320);
-    doc.text('Date and time:', left, ys + 24);
-    line(left + 85, ys + 34, 170);
-    doc.text('Qualification current (checked by):', left + 270, ys + 24);
-    line(left + 430, ys + 34, width - 430);
-    doc.x = left;
-    doc.y = ys + 52;
-    doc.fontSize(8).fillColor('#555').text(CHECKLIST_SAFETY_NOTE, left, doc.y, { width });
-    doc.end();
-    const slug =
-      content.name
-        .replace(/[^A-Za-z0-9]+/g, '-')
-        .replace(/^-|-$/g, '')
-        .slice(0, 40) || 'checklist';
-    return { filename: `checklist-${slug}-v${published?.version ?? 'draft'}.pdf`, stream: out };
+    blocks.push(
+      { kind: 'heading', text: 'Out-of-range values accepted by the chief engineer' },
+      { kind: 'writeIn', fields: [{ label: 'Item, value, reason', share: 1 }] },
+      { kind: 'writeIn', fields: [{ label: 'Item, value, reason', share: 1 }] },
+      { kind: 'writeIn', fields: [{ label: 'Chief engineer (name and signature)', share: 1 }] },
+      { kind: 'heading', text: 'Signature' },
+      {
+        kind: 'writeIn',
+        fields: [
+          { label: 'Signed by (name)', share: 0.5 },
+          { label: 'Signature', share: 0.5 },
+        ],
+      },
+      {
+        kind: 'writeIn',
+        fields: [
+          { label: 'Date and time', share: 0.5 },
+          { label: 'Qualification current (checked by)', share: 0.5 },
+        ],
+      },
+      { kind: 'space', size: 6 },
+      { kind: 'text', text: CHECKLIST_SAFETY_NOTE, size: 8, tone: 'muted' },
+    );
+    const { buffer } = await renderRecord({
+      title: `${content.name}: blank checklist`,
+      subtitle: `${engine.name} \u00b7 ${versionText}`,
+      works: site.worksName,
+      engine: engine.name,
+      timeZone: site.timeZone,
+      printedAt,
+      printedBy,
+      subject: 'Blank checklist',
+      blocks,
+    });
+    return { filename: recordFileName('checklist', null, `${content.name} v${published?.version ?? 'draft'}`), buffer };
   }
 
-  private item(
-    doc: PDFKit.PDFDocument,
-    it: ChecklistItemDef,
-    n: number,
-    left: number,
-    width: number,
-    room: (h: number) => void,
-    box: (x: number, y: number) => void,
-    line: (x: number, y: number, w: number) => void,
-  ) {
-    const textX = left + 40;
-    const textW = width - 40;
-    const estimate = 34 + (it.help ? 12 : 0) + (it.caution ? 26 : 0) + (it.kind === 'note' ? 30 : 0);
-    room(estimate);
-    const y = doc.y;
-    doc
-      .font('Helvetica')
-      .fontSize(8)
-      .fillColor('#666')
-      .text(String(n), left, y + 1, { width: 14 });
-    doc.fillColor('black');
-    if (it.kind === 'tick') box(left + 20, y);
-    doc
-      .font('Helvetica-Bold')
-      .fontSize(10)
-      .text(`${it.label}${it.required ? '' : ' (optional)'}`, textX, y, { width: textW });
-    doc.font('Helvetica').fontSize(8.5);
-    if (it.help) doc.fillColor('#444').text(it.help, textX, doc.y, { width: textW }).fillColor('black');
+  private item(it: ChecklistItemDef, n: number): Block {
+    const blocks: Block[] = [];
+    if (it.help) blocks.push({ kind: 'text', text: it.help, size: 8.5, tone: 'muted' });
     if (it.kind === 'reading') {
-      const yy = doc.y + 4;
-      doc.fontSize(9.5).text('Reading:', textX, yy);
-      line(textX + 45, yy + 10, 90);
-      doc.text(unitText(it.unit), textX + 140, yy);
       const r = rangeText(it);
-      if (r)
-        doc
-          .font('Helvetica-Bold')
-          .text(`Acceptance range: ${r}`, textX + 200, yy)
-          .font('Helvetica');
-      doc.x = textX;
-      doc.y = yy + 16;
+      blocks.push({ kind: 'writeIn', fields: [{ label: `Reading, ${unitText(it.unit)}`, share: 0.5 }] });
+      if (r) blocks.push({ kind: 'text', text: `Acceptance range: ${r}`, bold: true, size: 9 });
     } else if (it.kind === 'choice') {
-      const yy = doc.y + 4;
-      let x = textX;
-      for (const ch of it.choices ?? []) {
-        box(x, yy);
-        doc.fontSize(9.5).text(ch, x + BOX + 4, yy, { lineBreak: false });
-        x += BOX + 12 + doc.widthOfString(ch);
-        if (x > left + width - 80) break;
-      }
-      doc.x = textX;
-      doc.y = yy + 16;
-      if (it.acceptable?.length) doc.fontSize(8.5).text(`Acceptable: ${it.acceptable.join(', ')}.`, textX, doc.y, { width: textW });
+      blocks.push({ kind: 'options', options: it.choices ?? [] });
+      if (it.acceptable?.length) blocks.push({ kind: 'text', text: `Acceptable: ${it.acceptable.join(', ')}.`, size: 8.5 });
     } else if (it.kind === 'note') {
-      const yy = doc.y + 4;
-      line(textX, yy + 12, textW);
-      line(textX, yy + 28, textW);
-      doc.y = yy + 34;
+      blocks.push({ kind: 'writeIn', fields: [{ label: 'Note', share: 1 }] }, { kind: 'writeIn', fields: [{ label: '', share: 1 }] });
     } else if (it.kind === 'photo') {
-      const yy = doc.y + 4;
-      box(textX, yy);
-      doc.fontSize(9.5).text('Photo taken (add it in Crankjournal afterwards)', textX + BOX + 4, yy);
-      doc.x = textX;
-      doc.y = yy + 16;
+      blocks.push({ kind: 'options', options: ['Photo taken (add it in Crankjournal afterwards)'] });
     }
-    if (it.caution) {
-      const yy = doc.y + 2;
-      const label = `CAUTION — ${HAZARD_LABELS[it.caution.hazard]}: `;
-      const h = doc.heightOfString(label + it.caution.text, { width: textW - 10 }) + 8;
-      doc.rect(textX, yy, textW, h).lineWidth(0.8).stroke();
-      doc
-        .font('Helvetica-Bold')
-        .fontSize(8.5)
-        .text(label, textX + 5, yy + 4, { continued: true, width: textW - 10 })
-        .font('Helvetica')
-        .text(it.caution.text);
-      doc.y = yy + h + 2;
-    }
-    doc.x = left;
-    doc.moveDown(0.5);
+    if (it.caution)
+      blocks.push({ kind: 'box', label: `CAUTION: ${HAZARD_LABELS[it.caution.hazard]}.`, text: it.caution.text, tone: 'warning' });
+    return {
+      kind: 'item',
+      marker: String(n),
+      tickBox: it.kind === 'tick',
+      label: `${it.label}${it.required ? '' : ' (optional)'}`,
+      blocks,
+    };
   }
 }

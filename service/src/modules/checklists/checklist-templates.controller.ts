@@ -102,19 +102,23 @@ export class ChecklistTemplatesController {
   @ApiFileAnswer('application/pdf', 'The blank checklist as a printable PDF')
   @Get(':id/blank.pdf')
   @AnyRole()
-  async blank(@Param() p: IdParamDto, @Res({ passthrough: true }) res: Response): Promise<StreamableFile> {
-    const { filename, stream } = await this.pdf.blank(p.id);
+  async blank(@Param() p: IdParamDto, @CurrentUser() user: AuthUser, @Res({ passthrough: true }) res: Response): Promise<StreamableFile> {
+    const { filename, buffer } = await this.pdf.blank(p.id, undefined, user.displayName);
     res.setHeader('content-disposition', `attachment; filename="${filename}"`);
-    return new StreamableFile(stream, { type: 'application/pdf' });
+    return new StreamableFile(buffer, { type: 'application/pdf' });
   }
 
   @ApiFileAnswer('application/pdf', 'That version of the blank checklist as a printable PDF')
   @Get(':id/versions/:version/blank.pdf')
   @AnyRole()
-  async blankVersion(@Param() p: TemplateVersionParamDto, @Res({ passthrough: true }) res: Response): Promise<StreamableFile> {
+  async blankVersion(
+    @Param() p: TemplateVersionParamDto,
+    @CurrentUser() user: AuthUser,
+    @Res({ passthrough: true }) res: Response,
+  ): Promise<StreamableFile> {
     await this.templates.versionRow(p.id, p.version);
-    const { filename, stream } = await this.pdf.blank(p.id, p.version);
+    const { filename, buffer } = await this.pdf.blank(p.id, p.version, user.displayName);
     res.setHeader('content-disposition', `attachment; filename="${filename}"`);
-    return new StreamableFile(stream, { type: 'application/pdf' });
+    return new StreamableFile(buffer, { type: 'application/pdf' });
   }
 }

@@ -8,6 +8,7 @@ import { QualificationsModule } from '../qualifications/qualifications.module.js
 import { AuthModule } from '../auth/auth.module.js';
 import { StorageModule } from '../storage/storage.module.js';
 import { LiveModule } from '../live/live.module.js';
+import { SiteModule } from '../site/site.module.js';
 import { ChecklistTemplate, ChecklistTemplateVersion } from './checklist-template.entity.js';
 import { Checklist, ChecklistAmendment, ChecklistEntry } from './checklist.entity.js';
 import { ChecklistTemplatesService } from './checklist-templates.service.js';
@@ -23,6 +24,7 @@ import { ChecklistsController } from './checklists.controller.js';
  */
 @Module({
   imports: [
+    SiteModule,
     TypeOrmModule.forFeature([ChecklistTemplate, ChecklistTemplateVersion, Checklist, ChecklistEntry, ChecklistAmendment]),
     EnginesModule,
     RunsModule,

@@ -1,5 +1,5 @@
 import { Column, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, type Relation } from 'typeorm';
-import type { MeasurementKind, MeasurementUnit } from '@crankjournal/shared-types';
+import type { MeasurementKind, MeasurementUnit, RunState } from '@crankjournal/shared-types';
 import { Engine } from './engine.entity.js';
 
 @Entity({ name: 'measurement_points' })
@@ -23,6 +23,10 @@ export class MeasurementPoint {
   @Column({ name: 'max_rise_rate_per_min', type: 'double precision', nullable: true }) maxRiseRatePerMin: number | null;
   @Column({ name: 'max_rise_above_ambient', type: 'double precision', nullable: true }) maxRiseAboveAmbient: number | null;
   @Column({ type: 'double precision', nullable: true }) deadband: number | null;
+  /** An absolute limit suppresses this point's rise-above-ambient and rate-of-rise alarms. */
+  @Column({ name: 'related_suppression', type: 'boolean', default: true }) relatedSuppression: boolean;
+  /** Run states in which this point's alarms are suppressed by state. */
+  @Column({ name: 'suppressed_in_states', type: 'text', array: true, default: () => "'{}'" }) suppressedInStates: RunState[];
   @Column({ name: 'bearing_id', type: 'uuid', nullable: true }) bearingId: string | null;
   @Column({ name: 'cylinder_id', type: 'uuid', nullable: true }) cylinderId: string | null;
   /** Retired points keep their readings but leave the round. */

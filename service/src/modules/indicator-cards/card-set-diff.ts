@@ -29,6 +29,7 @@ export const SET_FIELDS = [
   'throttlePressurePsig',
   'receiverPressurePsig',
   'vacuumInHg',
+  'barometerInHg',
   'notes',
 ] as const;
 

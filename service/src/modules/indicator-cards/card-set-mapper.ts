@@ -78,6 +78,8 @@ export class CardSetMapper {
         receiverSource: s.receiverSource,
         vacuumInHg: s.vacuumInHg,
         vacuumSource: s.vacuumSource,
+        barometerInHg: s.barometerInHg,
+        barometerSource: s.barometerSource,
         notes: s.notes,
         cylinders: s.cylinders,
         cards: mine,

@@ -174,7 +174,7 @@ describe('a set’s results', () => {
     );
     // The reproduction takes π as 3.142; exact π gives 110.27 kW.
     expect(Math.abs(r.totalIndicatedKilowatts - 110.28)).toBeLessThan(0.015);
-    expect(r.brake!.mechanicalEfficiency * 100).toBeCloseTo(79.5, 1);
+    expect(r.brake!.mechanicalEfficiency! * 100).toBeCloseTo(79.5, 1);
   });
 
   // Agrawal & Agrawal, ch. 13, Ex. 8, p. 288.
@@ -246,7 +246,9 @@ describe('a set’s results', () => {
       // Expansion point at cut-off incl. 8 % clearance: A/144 · L/12 · (0.35 + 0.08) ft³.
       expect(hpHead.steam!.expansionVolumeFt3).toBeCloseTo((((Math.PI / 4) * 24 ** 2) / 144) * 4 * 0.43, 9);
       expect(r.cylinders[1].ends[0].steam!.expansionPressureBasis).toBe('card');
-      expect(r.steamAccountedForLbPerIhpHour).toBeGreaterThan(0);
+      // The set's figure is the first cylinder's steam per hour charged to the engine's whole indicated power.
+      const hpSteamPerHourLb = r.cylinders[0].ends.reduce((sum, e) => sum + e.steam!.steamPerHourLb, 0);
+      expect(r.steamAccountedForLbPerIhpHour).toBeCloseTo(hpSteamPerHourLb / r.totalIndicatedHorsepower, 9);
     });
 
     it('without the LP cards the set is incomplete: no referred MEP, no shares', () => {
@@ -258,5 +260,119 @@ describe('a set’s results', () => {
       expect(partial.cylinders[1].indicatedHorsepower).toBe(0);
       expect(partial.steamAccountedForLbPerIhpHour).toBeNull();
     });
+  });
+});
+
+describe('figures that need every card (issue: numbers a chief engineer can sign)', () => {
+  const hp = cylinder({ cylinderId: 'hp', label: 'HP', role: 'high', boreIn: 24, pistonRodIn: 5.5 });
+  const lp = cylinder({ cylinderId: 'lp', label: 'LP', role: 'low', boreIn: 44, pistonRodIn: 5.5, tailRodIn: 4 });
+  // Every cylinder has a card but the LP crank end is missing.
+  const threeCards = [
+    card({ cylinderId: 'hp', end: 'head', meanEffectivePressurePsi: 55 }),
+    card({ cylinderId: 'hp', end: 'crank', meanEffectivePressurePsi: 53 }),
+    card({ cylinderId: 'lp', end: 'head', meanEffectivePressurePsi: 26 }),
+  ];
+  const brake = { figureId: 'b1', measuredAt: '2026-06-13T11:05:00Z', brakeHorsepower: 300 };
+
+  it('one end missing: no referred MEP, no work shares, no mechanical efficiency, each with the reason', () => {
+    const r = computeCardSetResults(input({ cylinders: [hp, lp], cards: threeCards, brake }));
+    expect(r.complete).toBe(false);
+    expect(r.referredMeanEffectivePressurePsi).toBeNull();
+    expect(r.referredToCylinderLabel).toBeNull();
+    expect(r.referredMeanEffectivePressureMissing).toMatch(/missing: LP crank end/);
+    expect(r.cylinders.map((c) => c.workShare)).toEqual([null, null]);
+    expect(r.workSharesMissing).toMatch(/missing: LP crank end/);
+    expect(r.brake!.mechanicalEfficiency).toBeNull();
+    expect(r.brake!.mechanicalEfficiencyMissing).toMatch(/missing: LP crank end/);
+    expect(r.notes.join(' ')).toMatch(/sum of the cards present/);
+  });
+
+  it('a brake figure above the indicated power: no efficiency, an input error said so', () => {
+    const r = computeCardSetResults(
+      input({
+        cylinders: [cylinder()],
+        cards: [card({ end: 'head', meanEffectivePressurePsi: 40 }), card({ end: 'crank', meanEffectivePressurePsi: 40 })],
+        brake: { ...brake, brakeHorsepower: 5000 },
+      }),
+    );
+    expect(r.complete).toBe(true);
+    expect(r.brake!.mechanicalEfficiency).toBeNull();
+    expect(r.brake!.mechanicalEfficiencyMissing).toMatch(/^input error: .*above 1 is an error in the inputs/);
+    expect(r.notes.join(' ')).toMatch(/No mechanical efficiency: input error/);
+  });
+
+  it('steam accounted for that would come out negative is refused with a message, not returned', () => {
+    // A traced outline whose expansion line at cut-off (5 psig at 50 %) lies below its compression line (60 psig at 40 %).
+    const outline = [
+      [0, 100],
+      [0.42, 100],
+      [0.48, 5],
+      [1, 5],
+      [1, 0],
+      [0.48, 0],
+      [0.42, 60],
+      [0, 60],
+    ].map(([strokeFraction, pressurePsig]) => ({ strokeFraction, pressurePsig }));
+    const r = computeCardSetResults(
+      input({
+        cards: [
+          card({ end: 'head', cutOffPercent: 50, compressionPercent: 40, outline }),
+          card({ end: 'crank', cutOffPercent: 50, compressionPercent: 40, outline }),
+        ],
+      }),
+    );
+    expect(r.cylinders[0].ends[0].steam).toBeNull();
+    expect(r.steamAccountedForLbPerIhpHour).toBeNull();
+    expect(r.notes.join(' ')).toMatch(/no steam figure \(steam accounted for comes out negative/);
+  });
+
+  // Machinery's Reference Series No. 70, "Steam Engines" (Industrial Press), steam consumption from the indicator
+  // diagram, Fig. 53 example: 201 in² piston, stroke 2.49 ft on the diagram's scale with 6 % clearance, point C on the
+  // expansion line at 2.27 ft and point Q on the compression line at 0.30 ft from the clearance line, both at 48.6 psia;
+  // 150 rpm, 217 IHP → 26.5 lb per IHP-hour (the book's steam table: 0.116 lb/ft³; IF97 lands within 2 %).
+  it('steam accounted for of a whole set matches the published worked example within 2 %', () => {
+    const strokeIn = 2.49 * 12;
+    const clearance = 0.06;
+    const cutOff = 2.27 / 2.49 - clearance;
+    const compression = 0.3 / 2.49 - clearance;
+    const pointPsig = psiaToPsig(48.6);
+    // Upper line flat at 48.6 psia; lower line through 48.6 psia at the compression point.
+    const outline = [
+      { strokeFraction: 0, pressurePsig: pointPsig },
+      { strokeFraction: 1, pressurePsig: pointPsig },
+      { strokeFraction: 1, pressurePsig: -10 },
+      { strokeFraction: 0, pressurePsig: -10 + (pointPsig + 10) / (1 - compression) },
+    ];
+    const meanEffectivePressurePsi = (217 * 33000) / (2 * (strokeIn / 12) * 201 * 150);
+    const ends = (['head', 'crank'] as const).map((end) =>
+      card({ end, meanEffectivePressurePsi, cutOffPercent: cutOff * 100, compressionPercent: compression * 100, outline }),
+    );
+    const r = computeCardSetResults(
+      input({ speedRpm: 150, cylinders: [cylinder({ boreIn: boreForAreaIn(201), strokeIn, clearancePercent: 6 })], cards: ends }),
+    );
+    expect(r.totalIndicatedHorsepower).toBeCloseTo(217, 9);
+    expect(r.cylinders[0].ends[0].steam!.expansionPressurePsia).toBeCloseTo(48.6, 9);
+    expect(r.cylinders[0].ends[0].steam!.compressionPressurePsia).toBeCloseTo(48.6, 9);
+    expect(Math.abs(r.steamAccountedForLbPerIhpHour! - 26.5) / 26.5).toBeLessThan(0.02);
+  });
+});
+
+describe('pressures against the local barometer', () => {
+  const cards = [card({ end: 'head' }), card({ end: 'crank' })];
+
+  it('a 28.9 inHg barometer: 24 inHg of vacuum is 2.41 psia of back pressure, gauge pressures are added to 14.19 psia', () => {
+    const r = computeCardSetResults(input({ cards, vacuumInHg: 24, barometerInHg: 28.9, throttlePressurePsig: 120 }));
+    expect(r.atmosphereBasis).toBe('barometer');
+    expect(r.atmosphericPressurePsia).toBeCloseTo(28.9 * PSI_PER_INCH_OF_MERCURY, 12);
+    expect(r.cylinders[0].backPressurePsia).toBeCloseTo(2.41, 2);
+    expect(r.cylinders[0].admissionPressurePsia).toBeCloseTo(120 + 28.9 * PSI_PER_INCH_OF_MERCURY, 9);
+    expect(r.notes.join(' ')).not.toMatch(/standard atmosphere/);
+  });
+
+  it('no barometer: the standard atmosphere, with a visible note', () => {
+    const r = computeCardSetResults(input({ cards, vacuumInHg: 24 }));
+    expect(r.atmosphereBasis).toBe('standard');
+    expect(r.cylinders[0].backPressurePsia).toBeCloseTo(2.91, 2);
+    expect(r.notes.join(' ')).toMatch(/No barometer reading: .* standard atmosphere \(29\.92 inHg, 14\.696 psia\)/);
   });
 });

@@ -25,6 +25,7 @@ import {
   CalculationInputError,
   computeIndicatedPower,
   effectiveAreaSqIn,
+  incompleteSetReason,
   mechanicalEfficiency,
   receiverDropPsi,
   workShareByCylinder,
@@ -37,7 +38,7 @@ import {
   upperLinePressurePsig,
   type CardOutlinePoint,
 } from '../../calculations/card-diagram.js';
-import { vacuumInHgToPsia } from '../../calculations/vacuum.js';
+import { PSI_PER_INCH_OF_MERCURY, vacuumInHgToPsia } from '../../calculations/vacuum.js';
 import { STANDARD_ATMOSPHERE_PSI, hpToKw, psiaToPsig, psigToPsia } from '../../calculations/units.js';
 
 /** Points the ideal card is drawn with along its expansion line. */
@@ -240,6 +241,8 @@ export interface CardSetResultsInput {
   throttlePressurePsig: number | null;
   receiverPressurePsig: number | null;
   vacuumInHg: number | null;
+  /** The site barometer, inHg absolute; null: the standard atmosphere (with a note). */
+  barometerInHg?: number | null;
   /** The engine logs a vacuum (condensing); without one the exhaust is taken as atmospheric. */
   condensing: boolean;
   brake: { figureId: string; measuredAt: string; brakeHorsepower: number } | null;
@@ -260,17 +263,27 @@ export function computeCardSetResults(input: CardSetResultsInput): CardSetResult
   const ranks = [...new Set(cylinders.map((c) => STAGE_RANK[c.role]))].sort((a, b) => a - b);
   const stageOf = (c: CardSetCylinder) => ranks.indexOf(STAGE_RANK[c.role]);
   const stages = ranks.length;
-  const throttlePsia = input.throttlePressurePsig !== null ? psigToPsia(input.throttlePressurePsig) : null;
-  const receiverPsia = input.receiverPressurePsig !== null ? psigToPsia(input.receiverPressurePsig) : null;
+  // Gauge and vacuum readings are turned absolute against the site's barometer where one is known.
+  const barometerInHg = input.barometerInHg ?? null;
+  const atmosphericPsia = barometerInHg !== null ? barometerInHg * PSI_PER_INCH_OF_MERCURY : STANDARD_ATMOSPHERE_PSI;
+  if (barometerInHg === null) {
+    notes.push(
+      'No barometer reading: vacuum and gauge pressures are turned absolute against the standard atmosphere ' +
+        `(${fixed(STANDARD_ATMOSPHERE_PSI / PSI_PER_INCH_OF_MERCURY, 2)} inHg, ${fixed(STANDARD_ATMOSPHERE_PSI, 3)} psia).`,
+    );
+  }
+  const toPsia = (psig: number) => psigToPsia(psig, atmosphericPsia);
+  const throttlePsia = input.throttlePressurePsig !== null ? toPsia(input.throttlePressurePsig) : null;
+  const receiverPsia = input.receiverPressurePsig !== null ? toPsia(input.receiverPressurePsig) : null;
   let exhaustPsia: number | null = null;
   if (input.vacuumInHg !== null) {
     try {
-      exhaustPsia = vacuumInHgToPsia(input.vacuumInHg);
+      exhaustPsia = vacuumInHgToPsia(input.vacuumInHg, atmosphericPsia);
     } catch (e) {
       notes.push(`The vacuum of ${input.vacuumInHg} inHg cannot be right (${(e as Error).message}); no exhaust pressure.`);
     }
   } else if (!input.condensing) {
-    exhaustPsia = STANDARD_ATMOSPHERE_PSI;
+    exhaustPsia = atmosphericPsia;
   }
   const admissionOf = (s: number): number | null => (s === 0 ? throttlePsia : s === 1 && stages === 2 ? receiverPsia : null);
   const backOf = (s: number): number | null => (s === stages - 1 ? exhaustPsia : s === 0 && stages === 2 ? receiverPsia : null);
@@ -331,7 +344,7 @@ export function computeCardSetResults(input: CardSetResultsInput): CardSetResult
             meanEffectivePressureWithClearancePsi: idealMeanEffectivePressurePsi({ ...basis, clearanceFraction }),
             outline: idealCardPoints({ ...basis, expansionSegments: IDEAL_CARD_SEGMENTS }).map((p) => ({
               strokeFraction: p.strokeFraction,
-              pressurePsig: psiaToPsig(p.pressurePsia),
+              pressurePsig: psiaToPsig(p.pressurePsia, atmosphericPsia),
             })),
           };
           factor = diagramFactor({ actualMeanEffectivePressurePsi: e.meanEffectivePressurePsi, idealMeanEffectivePressurePsi: mep });
@@ -351,14 +364,14 @@ export function computeCardSetResults(input: CardSetResultsInput): CardSetResult
         let expansionPressureBasis: DiagramSteamDto['expansionPressureBasis'] = 'logged';
         const traced = card.outline ? upperLinePressurePsig(card.outline, k) : null;
         if (traced !== null) {
-          expansionPsia = psigToPsia(traced);
+          expansionPsia = toPsia(traced);
           expansionPressureBasis = 'trace';
         } else if (card.admissionPressurePsig !== null) {
-          expansionPsia = psigToPsia(card.admissionPressurePsig);
+          expansionPsia = toPsia(card.admissionPressurePsig);
           expansionPressureBasis = 'card';
         } else expansionPsia = admissionPsia;
         const tracedLow = card.outline && kc > 0 ? lowerLinePressurePsig(card.outline, kc) : null;
-        const compressionPsia = tracedLow !== null ? psigToPsia(tracedLow) : backPsia;
+        const compressionPsia = tracedLow !== null ? toPsia(tracedLow) : backPsia;
         if (expansionPsia !== null && compressionPsia !== null) {
           const geometry = { effectiveAreaSqIn: e.effectiveAreaSqIn, strokeIn: cyl.strokeIn, clearanceFraction };
           const expansionVolumeFt3 = cylinderVolumeFt3({ ...geometry, strokeFraction: k });
@@ -414,19 +427,24 @@ export function computeCardSetResults(input: CardSetResultsInput): CardSetResult
   });
 
   const total = power?.totalIndicatedHorsepower ?? 0;
-  const everyCylinderCarded = cylinders.length > 0 && carded.length === cylinders.length;
   if (missingEnds.length)
-    notes.push(`Not yet taken: ${missingEnds.map((m) => `${m.cylinderLabel} ${CYLINDER_END_WORDS[m.end]}`).join(', ')}.`);
+    notes.push(
+      `Not yet taken: ${missingEnds.map((m) => `${m.cylinderLabel} ${CYLINDER_END_WORDS[m.end]}`).join(', ')}. ` +
+        "The totals are the sum of the cards present, not the engine's indicated power.",
+    );
 
-  // Share of the work (indicated-power.ts), once every cylinder has a card.
-  if (everyCylinderCarded && total > 0) {
+  // Share of the work and the referred MEP (indicated-power.ts): only from a complete set.
+  const complete = missingEnds.length === 0 && cylinders.length > 0;
+  const incompleteReason = complete ? null : cylinders.length === 0 ? 'the engine has no cylinders' : incompleteSetReason(missingEnds);
+  let workSharesMissing: string | null = incompleteReason;
+  if (complete && total > 0) {
     const shares = workShareByCylinder(cylinderResults.map((c) => ({ label: c.label, indicatedHorsepower: c.indicatedHorsepower })));
     cylinderResults.forEach((c, i) => (c.workShare = shares[i].share));
-  }
+  } else if (complete) workSharesMissing = 'the cards give no indicated power';
 
   // The largest cylinder by swept volume, which the referred MEP is referred to.
   let referredToCylinderLabel: string | null = null;
-  if (everyCylinderCarded && power) {
+  if (complete && power) {
     const swept = (c: CardSetCylinder) =>
       ((effectiveAreaSqIn(c.boreIn, c.tailRodIn) + effectiveAreaSqIn(c.boreIn, c.pistonRodIn)) / 2) * c.strokeIn;
     referredToCylinderLabel = cylinders.reduce((a, b) => (swept(b) > swept(a) ? b : a)).label;
@@ -450,12 +468,25 @@ export function computeCardSetResults(input: CardSetResultsInput): CardSetResult
     else notes.push('No admission pressure read off the low-pressure cards: no receiver drop.');
   }
 
-  // Mechanical efficiency against the nearest brake or measured output figure (indicated-power.ts).
+  // Mechanical efficiency against the nearest brake or measured output figure (indicated-power.ts): only from a
+  // complete set, and never above 1 (that is an error in the inputs, said so).
   let brake: CardSetResults['brake'] = null;
-  if (input.brake && total > 0) {
+  if (input.brake) {
+    let efficiency: number | null = null;
+    let efficiencyMissing: string | null = incompleteReason;
+    if (complete && total > 0) {
+      try {
+        efficiency = mechanicalEfficiency({ brakeHorsepower: input.brake.brakeHorsepower, indicatedHorsepower: total });
+      } catch (err) {
+        if (!(err instanceof CalculationInputError)) throw err;
+        efficiencyMissing = `input error: ${err.message}`;
+      }
+    } else if (complete) efficiencyMissing = 'the cards give no indicated power';
+    if (efficiencyMissing) notes.push(`No mechanical efficiency: ${efficiencyMissing}.`);
     brake = {
       ...input.brake,
-      mechanicalEfficiency: mechanicalEfficiency({ brakeHorsepower: input.brake.brakeHorsepower, indicatedHorsepower: total }),
+      mechanicalEfficiency: efficiency,
+      mechanicalEfficiencyMissing: efficiency === null ? efficiencyMissing : null,
     };
   }
 
@@ -473,18 +504,22 @@ export function computeCardSetResults(input: CardSetResultsInput): CardSetResult
 
   return {
     speedRpm,
-    complete: missingEnds.length === 0,
+    complete,
     missingEnds,
     cylinders: cylinderResults,
     totalIndicatedHorsepower: total,
     totalIndicatedKilowatts: hpToKw(total),
-    referredMeanEffectivePressurePsi: everyCylinderCarded && power ? power.referredMeanEffectivePressurePsi : null,
+    referredMeanEffectivePressurePsi: complete && power ? power.referredMeanEffectivePressurePsi : null,
     referredToCylinderLabel,
+    referredMeanEffectivePressureMissing: complete && power ? null : (incompleteReason ?? 'the cards give no indicated power'),
+    workSharesMissing,
     receiverPressurePsig: input.receiverPressurePsig,
     lowPressureAdmissionPsig,
     receiverDropPsi: drop,
     brake,
     steamAccountedForLbPerIhpHour,
+    atmosphericPressurePsia: atmosphericPsia,
+    atmosphereBasis: barometerInHg !== null ? 'barometer' : 'standard',
     notes,
     computedAt: input.computedAt.toISOString(),
   };

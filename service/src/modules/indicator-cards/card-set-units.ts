@@ -18,6 +18,22 @@ export function asPsig(value: number, unit: string): number | null {
   }
 }
 
+/** A barometer reading in inches of mercury absolute (barometer points may be logged in kPa, psia or bar). */
+export function asBarometerInHg(value: number, unit: string): number | null {
+  switch (unit) {
+    case 'inHg':
+      return value;
+    case 'kPa':
+      return value / KPA_PER_INCH_OF_MERCURY;
+    case 'psia':
+      return (value * KPA_PER_PSI) / KPA_PER_INCH_OF_MERCURY;
+    case 'bar':
+      return (value * 100) / KPA_PER_INCH_OF_MERCURY;
+    default:
+      return null;
+  }
+}
+
 /** A reading's value in inches of mercury of vacuum (vacuum points may be logged in kPa). */
 export function asInHg(value: number, unit: string): number | null {
   if (unit === 'inHg') return value;

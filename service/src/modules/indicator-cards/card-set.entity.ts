@@ -24,6 +24,9 @@ export class CardSet {
   @Column({ name: 'receiver_source', type: 'varchar', length: 8, nullable: true }) receiverSource: FigureSource | null;
   @Column({ name: 'vacuum_in_hg', type: 'double precision', nullable: true }) vacuumInHg: number | null;
   @Column({ name: 'vacuum_source', type: 'varchar', length: 8, nullable: true }) vacuumSource: FigureSource | null;
+  /** The site barometer, inHg absolute (null: none known, the standard atmosphere is used). */
+  @Column({ name: 'barometer_in_hg', type: 'double precision', nullable: true }) barometerInHg: number | null;
+  @Column({ name: 'barometer_source', type: 'varchar', length: 8, nullable: true }) barometerSource: FigureSource | null;
   @Column({ type: 'text', nullable: true }) notes: string | null;
   /** The engine's cylinders when the set was taken. */
   @Column({ type: 'jsonb' }) cylinders: CardSetCylinder[];

@@ -25,7 +25,7 @@ import type { AuthUser } from '../../common/decorators/current-user.decorator.js
 import { CYLINDER_END_WORDS, computeCardSetResults, evaluateCard, type EvaluatedCard, type ResultCard } from './card-set-results.js';
 import { BRAKE_FIELDS, BrakeFiguresService, brakeFigureFields } from './brake-figures.service.js';
 import { CARD_FIELDS, SET_FIELDS, changesBetween } from './card-set-diff.js';
-import { asInHg, asPsig } from './card-set-units.js';
+import { asBarometerInHg, asInHg, asPsig } from './card-set-units.js';
 import { recordAmendment } from './card-set-amendments.js';
 import { CardSetMapper } from './card-set-mapper.js';
 import { BrakeFigure } from './brake-figure.entity.js';
@@ -35,6 +35,8 @@ import { CardSet } from './card-set.entity.js';
 
 /** Speed and pressures are taken from readings no further than this from the moment of the set. */
 export const NEAREST_READING_WINDOW_MS = 30 * 60_000;
+/** The barometer is read once or twice a run: any reading of the run within this of the set stands for it. */
+export const BAROMETER_WINDOW_MS = 24 * 60 * 60_000;
 /** A set may be stamped at most this far ahead of the server's clock (a tablet's clock drift). */
 const MAX_FUTURE_MS = 5 * 60_000;
 
@@ -55,6 +57,8 @@ interface PreparedSet {
   receiverSource: FigureSource | null;
   vacuumInHg: number | null;
   vacuumSource: FigureSource | null;
+  barometerInHg: number | null;
+  barometerSource: FigureSource | null;
   notes: string | null;
   cylinders: CardSetCylinder[];
   condensing: boolean;
@@ -115,7 +119,7 @@ export class CardSetsService {
   // ------------------------------------------------------------------------------------------
 
   private async nearest(run: Run, kind: MeasurementKind, at: Date) {
-    return this.readings.nearestValue(run.id, kind, at, NEAREST_READING_WINDOW_MS);
+    return this.readings.nearestValue(run.id, kind, at, kind === 'barometer' ? BAROMETER_WINDOW_MS : NEAREST_READING_WINDOW_MS);
   }
 
   private async figure(
@@ -193,6 +197,7 @@ export class CardSetsService {
     const throttle = await this.figure(run, 'throttle_pressure', takenAt, dto.throttlePressurePsig, asPsig);
     const receiver = await this.figure(run, 'receiver_pressure', takenAt, dto.receiverPressurePsig, asPsig);
     const vacuum = await this.figure(run, 'vacuum', takenAt, dto.vacuumInHg, asInHg);
+    const barometer = await this.figure(run, 'barometer', takenAt, dto.barometerInHg, asBarometerInHg);
 
     const cards: PreparedCard[] = [];
     const seen = new Set<string>();
@@ -221,6 +226,8 @@ export class CardSetsService {
       receiverSource: receiver.source,
       vacuumInHg: vacuum.value,
       vacuumSource: vacuum.source,
+      barometerInHg: barometer.value,
+      barometerSource: barometer.source,
       notes: dto.notes?.trim() || null,
       cylinders,
       condensing,
@@ -231,7 +238,15 @@ export class CardSetsService {
   private resultsFor(
     set: Pick<
       PreparedSet,
-      'takenAt' | 'speedRpm' | 'cylinders' | 'cutOffPercent' | 'throttlePressurePsig' | 'receiverPressurePsig' | 'vacuumInHg' | 'condensing'
+      | 'takenAt'
+      | 'speedRpm'
+      | 'cylinders'
+      | 'cutOffPercent'
+      | 'throttlePressurePsig'
+      | 'receiverPressurePsig'
+      | 'vacuumInHg'
+      | 'barometerInHg'
+      | 'condensing'
     >,
     cards: ResultCard[],
     figures: BrakeFigure[],
@@ -245,6 +260,7 @@ export class CardSetsService {
       throttlePressurePsig: set.throttlePressurePsig,
       receiverPressurePsig: set.receiverPressurePsig,
       vacuumInHg: set.vacuumInHg,
+      barometerInHg: set.barometerInHg,
       condensing: set.condensing,
       brake: b ? { figureId: b.id, measuredAt: b.measuredAt.toISOString(), brakeHorsepower: b.brakeHorsepower } : null,
       computedAt: new Date(),
@@ -319,6 +335,8 @@ export class CardSetsService {
       receiverSource: p.receiverSource,
       vacuumInHg: p.vacuumInHg,
       vacuumSource: p.vacuumSource,
+      barometerInHg: p.barometerInHg,
+      barometerSource: p.barometerSource,
       cylinders: p.cylinders,
       cards: p.cards.map((c) => ({
         cylinderId: c.cylinder.cylinderId,
@@ -366,6 +384,8 @@ export class CardSetsService {
           receiverSource: p.receiverSource,
           vacuumInHg: p.vacuumInHg,
           vacuumSource: p.vacuumSource,
+          barometerInHg: p.barometerInHg,
+          barometerSource: p.barometerSource,
           notes: p.notes,
           cylinders: p.cylinders,
           condensing: p.condensing,
@@ -493,6 +513,10 @@ export class CardSetsService {
     if (dto.vacuumInHg !== undefined) {
       const f = await pressure('vacuum', dto.vacuumInHg, asInHg);
       Object.assign(patch, { vacuumInHg: f.value, vacuumSource: f.source });
+    }
+    if (dto.barometerInHg !== undefined) {
+      const f = await pressure('barometer', dto.barometerInHg, asBarometerInHg);
+      Object.assign(patch, { barometerInHg: f.value, barometerSource: f.source });
     }
     if (dto.notes !== undefined) patch.notes = dto.notes?.trim() || null;
     await this.db.transaction(async (m) => {

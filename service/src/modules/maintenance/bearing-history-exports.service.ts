@@ -1,8 +1,10 @@
-import { PassThrough, Readable } from 'node:stream';
+import { Readable } from 'node:stream';
 import { Injectable } from '@nestjs/common';
-import PDFDocument from 'pdfkit';
 import { ALARM_KIND_WORDS, INSPECTION_KIND_LABELS, type BearingHistory } from '@crankjournal/shared-types';
 import { csvLine } from '../../common/util/csv.util.js';
+import { PALETTE, RECORD_DISCLAIMER, renderRecord, type Block } from '../../common/pdf/record-document.js';
+import { zonedClock, type ZonedClock } from '../../common/pdf/zoned-time.js';
+import { SiteService } from '../site/site.service.js';
 import { BearingHistoryService } from './bearing-history.service.js';
 
 const day = (iso: string | null) => (iso ? iso.slice(0, 10) : '');
@@ -17,7 +19,10 @@ const fileStem = (h: BearingHistory) =>
 /** Records out: a bearing's history as CSV (one row per run, then inspections and work) and as a PDF report. */
 @Injectable()
 export class BearingHistoryExportsService {
-  constructor(private readonly history: BearingHistoryService) {}
+  constructor(
+    private readonly history: BearingHistoryService,
+    private readonly site: SiteService,
+  ) {}
 
   async csv(bearingId: string): Promise<{ filename: string; stream: Readable }> {
     const h = await this.history.history(bearingId);
@@ -121,100 +126,89 @@ export class BearingHistoryExportsService {
   }
 
   /** Rise above ambient run by run, each run's drift limit dashed, flagged runs in red (drawn with the PDF's own lines). */
-  private riseChart(doc: PDFKit.PDFDocument, h: BearingHistory, x0: number, width: number) {
+  private riseChart(h: BearingHistory, clock: ZonedClock): Block[] {
     const runs = h.runs.filter((r) => r.riseAtPeakF !== null);
-    if (runs.length < 2) return;
+    if (runs.length < 2) return [];
     const height = 130;
-    if (doc.y + height + 40 > doc.page.height - doc.page.margins.bottom) doc.addPage();
-    doc
-      .moveDown(0.6)
-      .font('Helvetica-Bold')
-      .fontSize(10)
-      .text('Rise above ambient at peak, \u00b0F, run by run (dashed: the drift limit each run was judged against)', x0);
-    const top = doc.y + 6;
-    const left = x0 + 36;
-    const w = Math.min(width - 40, 560);
-    const values = runs.flatMap((r) => [r.riseAtPeakF!, ...(r.drift ? [r.drift.limitF] : [])]);
-    const lo = Math.floor(Math.min(0, ...values) / 10) * 10;
-    const hi = Math.ceil((Math.max(...values) * 1.1) / 10) * 10;
-    const y = (v: number) => top + height - ((v - lo) / (hi - lo || 1)) * height;
-    const x = (i: number) => left + (runs.length === 1 ? w / 2 : (i * w) / (runs.length - 1));
-    doc.lineWidth(0.5).strokeColor('#999');
-    doc.rect(left, top, w, height).stroke();
-    doc.font('Helvetica').fontSize(7).fillColor('#555');
-    for (let v = lo; v <= hi; v += Math.max(10, Math.round((hi - lo) / 50) * 10)) {
-      doc.text(String(v), x0, y(v) - 3, { width: 30, align: 'right' });
-      doc
-        .moveTo(left, y(v))
-        .lineTo(left + w, y(v))
-        .strokeColor('#ddd')
-        .stroke();
-    }
-    runs.forEach((r, i) => (i === 0 ? doc.moveTo(x(i), y(r.riseAtPeakF!)) : doc.lineTo(x(i), y(r.riseAtPeakF!))));
-    doc.strokeColor('#2f6b5e').lineWidth(1).stroke();
-    runs.forEach((r, i) => {
-      if (r.drift) {
-        doc
-          .moveTo(x(i) - 8, y(r.drift.limitF))
-          .lineTo(x(i) + 8, y(r.drift.limitF))
-          .dash(2, { space: 2 })
-          .strokeColor('#b37100')
-          .stroke()
-          .undash();
-      }
-      doc
-        .circle(x(i), y(r.riseAtPeakF!), 3)
-        .fillColor(r.drift?.flagged ? '#b01e1e' : '#2f6b5e')
-        .fill();
-      doc
-        .fillColor('#555')
-        .fontSize(6.5)
-        .text(day(r.startedAt), x(i) - 25, top + height + 3, { width: 50, align: 'center' });
-    });
-    doc.fillColor('black').strokeColor('black').lineWidth(1);
-    doc.x = x0;
-    doc.y = top + height + 16;
+    return [
+      { kind: 'subheading', text: 'Rise above ambient at peak, \u00b0F, run by run (dashed: the drift limit each run was judged against)' },
+      {
+        kind: 'drawing',
+        height: height + 26,
+        draw: (doc, box) => {
+          const top = box.y + 4;
+          const left = box.x + 36;
+          const w = Math.min(box.w - 40, 560);
+          const values = runs.flatMap((r) => [r.riseAtPeakF!, ...(r.drift ? [r.drift.limitF] : [])]);
+          const lo = Math.floor(Math.min(0, ...values) / 10) * 10;
+          const hi = Math.ceil((Math.max(...values) * 1.1) / 10) * 10;
+          const y = (v: number) => top + height - ((v - lo) / (hi - lo || 1)) * height;
+          const x = (i: number) => left + (i * w) / (runs.length - 1);
+          doc.lineWidth(0.5).strokeColor(PALETTE.rule);
+          doc.rect(left, top, w, height).stroke();
+          doc.font('narrow').fontSize(7).fillColor(PALETTE.muted);
+          for (let v = lo; v <= hi; v += Math.max(10, Math.round((hi - lo) / 50) * 10)) {
+            doc.text(String(v), box.x, y(v) - 3, { width: 30, align: 'right', lineBreak: false });
+            doc
+              .moveTo(left, y(v))
+              .lineTo(left + w, y(v))
+              .strokeColor(PALETTE.surface)
+              .stroke();
+          }
+          runs.forEach((r, i) => (i === 0 ? doc.moveTo(x(i), y(r.riseAtPeakF!)) : doc.lineTo(x(i), y(r.riseAtPeakF!))));
+          doc.strokeColor(PALETTE.copper).lineWidth(1).stroke();
+          // Date labels only where they have room (about 50 pt each).
+          const every = Math.max(1, Math.ceil((runs.length * 50) / w));
+          runs.forEach((r, i) => {
+            if (r.drift) {
+              doc
+                .moveTo(x(i) - 8, y(r.drift.limitF))
+                .lineTo(x(i) + 8, y(r.drift.limitF))
+                .dash(2, { space: 2 })
+                .strokeColor(PALETTE.amber)
+                .stroke()
+                .undash();
+            }
+            doc
+              .circle(x(i), y(r.riseAtPeakF!), 3)
+              .fillColor(r.drift?.flagged ? PALETTE.red : PALETTE.copper)
+              .fill();
+            if (i % every === 0)
+              doc
+                .fillColor(PALETTE.muted)
+                .fontSize(6.5)
+                .text(clock.date(r.startedAt).slice(0, 6), x(i) - 25, top + height + 9, { width: 50, align: 'center', lineBreak: false });
+          });
+        },
+      },
+    ];
   }
 
-  async pdf(bearingId: string): Promise<{ filename: string; stream: Readable }> {
+  async pdf(bearingId: string, printedBy: string, printedAt = new Date()): Promise<{ filename: string; buffer: Buffer }> {
     const h = await this.history.history(bearingId);
-    const doc = new PDFDocument({
-      size: 'A4',
-      layout: 'landscape',
-      margin: 36,
-      info: { Title: `Bearing history: ${h.bearing.label}`, Author: 'Crankjournal' },
-    });
-    const out = new PassThrough();
-    doc.pipe(out);
-    const x0 = doc.page.margins.left;
-    const width = doc.page.width - doc.page.margins.left - doc.page.margins.right;
-    doc.font('Helvetica-Bold').fontSize(16).text(`Bearing history \u2014 ${h.bearing.label}`);
-    doc.font('Helvetica').fontSize(10);
-    doc.text(
-      `${h.bearing.engineName} \u00b7 journal ${h.bearing.journalDiameterIn} in \u00d7 ${h.bearing.journalLengthIn} in` +
-        `${h.bearing.radialClearanceIn ? ` \u00b7 radial clearance ${h.bearing.radialClearanceIn} in` : ''}` +
-        ` \u00b7 ${h.bearing.loadSharePercent} % of the rotating load` +
-        ` \u00b7 points ${h.bearing.points.map((p) => p.code).join(', ') || '\u2014'}` +
-        ` \u00b7 printed ${new Date().toISOString().slice(0, 10)}`,
-    );
-    doc.moveDown(0.5);
-
-    // Runs table
-    doc.font('Helvetica-Bold').fontSize(11).text('Runs');
-    const cols: { head: string; w: number; cell: (r: BearingHistory['runs'][number]) => string }[] = [
-      { head: 'Date', w: 62, cell: (r) => day(r.startedAt) },
-      { head: 'Run', w: 150, cell: (r) => r.title },
-      { head: 'Hours', w: 40, cell: (r) => fmt(r.runningHours, 2) },
-      { head: 'Peak', w: 48, cell: (r) => `${fmt(r.peakTemperature)} ${unitWord(r.unit)}` },
-      { head: 'Mean', w: 48, cell: (r) => `${fmt(r.meanTemperature)} ${unitWord(r.unit)}` },
-      { head: 'Ambient', w: 50, cell: (r) => (r.ambientMean === null ? '\u2014' : `${fmt(r.ambientMean)} ${unitWord(r.unit)}`) },
-      { head: 'Rise \u00b0F', w: 44, cell: (r) => fmt(r.riseAtPeakF) },
-      { head: 'Speed rpm', w: 50, cell: (r) => fmt(r.meanSpeedRpm) },
-      { head: 'IHP', w: 40, cell: (r) => fmt(r.indicatedHp, 0) },
-      { head: 'Alarms', w: 120, cell: (r) => r.alarms.map((a) => ALARM_KIND_WORDS[a.kind]).join(', ') || '\u2014' },
+    const site = await this.site.settings();
+    const clock = zonedClock(site.timeZone);
+    const date = (iso: string | null) => (iso ? clock.date(iso) : '\u2014');
+    type RunRow = BearingHistory['runs'][number];
+    const cols: { head: string; width?: number; align?: 'right'; cell: (r: RunRow) => string }[] = [
+      { head: 'Date', width: 60, cell: (r) => date(r.startedAt) },
+      { head: 'Run', cell: (r) => r.title },
+      { head: 'Hours', width: 40, align: 'right', cell: (r) => fmt(r.runningHours, 2) },
+      { head: 'Peak', width: 50, align: 'right', cell: (r) => `${fmt(r.peakTemperature)} ${unitWord(r.unit)}` },
+      { head: 'Mean', width: 50, align: 'right', cell: (r) => `${fmt(r.meanTemperature)} ${unitWord(r.unit)}` },
+      {
+        head: 'Ambient',
+        width: 50,
+        align: 'right',
+        cell: (r) => (r.ambientMean === null ? '\u2014' : `${fmt(r.ambientMean)} ${unitWord(r.unit)}`),
+      },
+      { head: 'Rise \u00b0F', width: 44, align: 'right', cell: (r) => fmt(r.riseAtPeakF) },
+      { head: 'Speed rpm', width: 50, align: 'right', cell: (r) => fmt(r.meanSpeedRpm) },
+      { head: 'IHP', width: 40, align: 'right', cell: (r) => fmt(r.indicatedHp, 0) },
+      { head: 'Alarms', width: 110, cell: (r) => r.alarms.map((a) => ALARM_KIND_WORDS[a.kind]).join(', ') || '\u2014' },
       {
         head: 'Drift',
-        w: 0,
+        width: 120,
         cell: (r) =>
           r.drift
             ? r.drift.flagged
@@ -223,76 +217,78 @@ export class BearingHistoryExportsService {
             : '\u2014',
       },
     ];
-    const fixed = cols.reduce((s, c) => s + c.w, 0);
-    cols[cols.length - 1].w = Math.max(80, width - fixed);
-    const row = (cells: string[], bold = false) => {
-      if (doc.y > doc.page.height - 60) doc.addPage();
-      const y = doc.y;
-      let x = x0;
-      doc.font(bold ? 'Helvetica-Bold' : 'Helvetica').fontSize(8);
-      let bottom = y;
-      cells.forEach((c, i) => {
-        doc.text(c, x, y, { width: cols[i].w - 4 });
-        bottom = Math.max(bottom, doc.y);
-        x += cols[i].w;
-      });
-      doc.x = x0;
-      doc.y = bottom + 2;
-    };
-    row(
-      cols.map((c) => c.head),
-      true,
+    const blocks: Block[] = [
+      {
+        kind: 'facts',
+        columns: 3,
+        items: [
+          { label: 'Engine', value: h.bearing.engineName },
+          { label: 'Journal', value: `${h.bearing.journalDiameterIn} in \u00d7 ${h.bearing.journalLengthIn} in` },
+          { label: 'Radial clearance', value: h.bearing.radialClearanceIn ? `${h.bearing.radialClearanceIn} in` : '\u2014' },
+          { label: 'Load share', value: `${h.bearing.loadSharePercent} % of the rotating load` },
+          { label: 'Points', value: h.bearing.points.map((p) => p.code).join(', ') },
+        ],
+      },
+      { kind: 'heading', text: 'Runs' },
+      {
+        kind: 'table',
+        empty: 'No run has readings of this bearing.',
+        columns: cols.map((c) => ({ head: c.head, width: c.width, align: c.align })),
+        rows: h.runs.map((r) => cols.map((c) => ({ text: c.cell(r), tone: r.drift?.flagged ? ('danger' as const) : undefined }))),
+      },
+      { kind: 'text', size: 8, text: `Drift rule: ${h.ruleText}` },
+      { kind: 'text', size: 8, text: h.loadMeasureNote },
+      ...(h.band
+        ? [
+            {
+              kind: 'text' as const,
+              size: 8,
+              text:
+                `Usual band now (${h.band.pointCount} runs, ${h.band.kind === 'mean' ? 'mean rise' : 'straight line'}): ` +
+                `expected rise ${fmt(h.band.interceptF)} \u00b0F` +
+                `${h.band.kind === 'regression' ? ` + ${h.band.slopeFPerLoad.toFixed(4)} \u00b0F per unit of load` : ''}` +
+                `, s = ${fmt(h.band.residualSdF, 2)} \u00b0F.`,
+            },
+          ]
+        : []),
+      ...this.riseChart(h, clock),
+      { kind: 'heading', text: 'Inspections and work on the same timeline' },
+      {
+        kind: 'table',
+        empty: 'None.',
+        columns: [{ head: 'Date', width: 60 }, { head: 'Kind', width: 60 }, { head: 'Title', width: 200 }, { head: 'Detail' }],
+        rows: h.timeline.map((t) => {
+          const tone = t.attention ? ('danger' as const) : undefined;
+          const kind = t.type === 'run' ? 'Run' : t.type === 'inspection' ? 'Inspection' : 'Work';
+          return [date(t.at), kind, t.title, t.detail].map((text) => ({ text, tone }));
+        }),
+      },
+    ];
+    for (const i of h.inspections.filter((x) => x.findings))
+      blocks.push({ kind: 'subheading', text: `Findings, ${date(i.inspectedAt)}: ${i.title}` }, { kind: 'text', text: i.findings });
+    blocks.push(
+      { kind: 'space', size: 8 },
+      {
+        kind: 'text',
+        size: 8,
+        tone: 'muted',
+        text: RECORD_DISCLAIMER,
+      },
     );
-    for (const r of h.runs) {
-      if (r.drift?.flagged) doc.fillColor('#b01e1e');
-      row(cols.map((c) => c.cell(r)));
-      doc.fillColor('black');
-    }
-    doc.moveDown(0.5).font('Helvetica').fontSize(8).text(`Drift rule: ${h.ruleText}`, x0, doc.y, { width });
-    doc.text(h.loadMeasureNote, x0, doc.y, { width });
-    if (h.band)
-      doc.text(
-        `Usual band now (${h.band.pointCount} runs, ${h.band.kind === 'mean' ? 'mean rise' : 'straight line'}): ` +
-          `expected rise ${fmt(h.band.interceptF)} \u00b0F` +
-          `${h.band.kind === 'regression' ? ` + ${h.band.slopeFPerLoad.toFixed(4)} \u00b0F per unit of load` : ''}` +
-          `, s = ${fmt(h.band.residualSdF, 2)} \u00b0F.`,
-        x0,
-        doc.y,
-        { width },
-      );
-
-    this.riseChart(doc, h, x0, width);
-
-    doc.moveDown(0.8).font('Helvetica-Bold').fontSize(11).text('Inspections and work on the same timeline', x0);
-    doc.font('Helvetica').fontSize(9);
-    if (!h.timeline.length) doc.text('None.');
-    for (const t of h.timeline) {
-      if (doc.y > doc.page.height - 50) doc.addPage();
-      const kind = t.type === 'run' ? 'Run' : t.type === 'inspection' ? 'Inspection' : 'Work';
-      doc.fillColor(t.attention ? '#b01e1e' : 'black').text(`${day(t.at)}  ${kind}: ${t.title} \u2014 ${t.detail}`, x0, doc.y, { width });
-    }
-    doc.fillColor('black');
-    for (const i of h.inspections.filter((x) => x.findings)) {
-      if (doc.y > doc.page.height - 60) doc.addPage();
-      doc
-        .moveDown(0.4)
-        .font('Helvetica-Bold')
-        .fontSize(9)
-        .text(`Findings, ${day(i.inspectedAt)} \u2014 ${i.title}`, x0, doc.y, { width });
-      doc.font('Helvetica').text(i.findings, x0, doc.y, { width });
-    }
-    doc
-      .moveDown(1)
-      .fontSize(8)
-      .fillColor('#555')
-      .text(
-        'Crankjournal aids a qualified crew. It never replaces local boiler and pressure-vessel law, ' +
-          'the insurer\u2019s inspections or licensed practice.',
-        x0,
-        doc.y,
-        { width },
-      );
-    doc.end();
-    return { filename: `${fileStem(h)}.pdf`, stream: out };
+    const { buffer } = await renderRecord({
+      title: `Bearing history: ${h.bearing.label}`,
+      subtitle:
+        `${h.bearing.engineName} \u00b7 ${h.runs.length} runs, ` +
+        `${h.inspections.length} inspections, ${h.workRecords.length} work records`,
+      works: site.worksName,
+      engine: h.bearing.engineName,
+      timeZone: site.timeZone,
+      printedAt,
+      printedBy,
+      landscape: true,
+      subject: 'Bearing history report',
+      blocks,
+    });
+    return { filename: `${fileStem(h)}.pdf`, buffer };
   }
 }

@@ -87,10 +87,14 @@ export class MaintenanceController {
   @ApiFileAnswer('application/pdf', 'The bearing history as a PDF report')
   @Get('bearings/:id/history.pdf')
   @AnyRole()
-  async bearingHistoryPdf(@Param() p: IdParamDto, @Res({ passthrough: true }) res: Response): Promise<StreamableFile> {
-    const { filename, stream } = await this.exports.pdf(p.id);
+  async bearingHistoryPdf(
+    @Param() p: IdParamDto,
+    @CurrentUser() me: AuthUser,
+    @Res({ passthrough: true }) res: Response,
+  ): Promise<StreamableFile> {
+    const { filename, buffer } = await this.exports.pdf(p.id, me.displayName);
     res.setHeader('content-disposition', `attachment; filename="${filename}"`);
-    return new StreamableFile(stream, { type: 'application/pdf' });
+    return new StreamableFile(buffer, { type: 'application/pdf' });
   }
 
   // --- Plans and the due list ---------------------------------------------------------------------

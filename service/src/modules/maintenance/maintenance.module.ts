@@ -8,6 +8,7 @@ import { UsersModule } from '../users/users.module.js';
 import { IndicatorCardsModule } from '../indicator-cards/indicator-cards.module.js';
 import { StorageModule } from '../storage/storage.module.js';
 import { AppConfig } from '../../config/app-config.service.js';
+import { SiteModule } from '../site/site.module.js';
 import { InspectionPlan } from './inspection-plan.entity.js';
 import { Inspection, InspectionAttachment, InspectionMeasurement } from './inspection.entity.js';
 import { WorkRecord } from './work-record.entity.js';
@@ -25,6 +26,7 @@ import { MaintenanceController } from './maintenance.controller.js';
 /** Maintenance: bearing histories and drift, inspection plans and what is due, inspections, work records. */
 @Module({
   imports: [
+    SiteModule,
     TypeOrmModule.forFeature([InspectionPlan, Inspection, InspectionMeasurement, InspectionAttachment, WorkRecord, RunPointStat]),
     // Uploads are held in memory (multer's default without a destination; they go straight on to the object
     // store), at most UPLOAD_MAX_BYTES each.

@@ -14,6 +14,7 @@ export function dueToDto(r: MaintenanceDueResult): PlanDue {
     status: r.status,
     governing: r.governing,
     dueDate: r.dueDate?.toISOString() ?? null,
+    dueDateNote: r.dueDateNote,
     criteria: r.criteria.map((c) => ({ ...c, estimatedDueDate: c.estimatedDueDate?.toISOString() ?? null })),
   };
 }

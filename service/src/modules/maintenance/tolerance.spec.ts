@@ -1,4 +1,4 @@
-import { toleranceStatus, webDeflectionSpread } from './tolerance.js';
+import { toleranceStatus, webDeflectionPairs, webDeflectionSpread } from './tolerance.js';
 
 // The acceptance rule is the product's own (a limit is the last acceptable figure; common practice, no source).
 describe('measurement against tolerance', () => {
@@ -39,5 +39,32 @@ describe('crank web deflection spread', () => {
   });
   it('needs two readings', () => {
     expect(webDeflectionSpread([{ kind: 'web_deflection', value: 0, unit: 'in' }])).toBeNull();
+  });
+});
+
+describe('crank web deflection judged pair by pair (common practice, no source)', () => {
+  it('vertical and horizontal pairs each against their own limit: a spread over one limit is not a fault of the other pair', () => {
+    const pairs = webDeflectionPairs([
+      { crankAngleDeg: 0, value: 0, toleranceMax: 0.004 },
+      { crankAngleDeg: 90, value: 0.0015, toleranceMax: 0.002 },
+      { crankAngleDeg: 165, value: 0.003, toleranceMax: 0.004 },
+      { crankAngleDeg: 195, value: 0.0035, toleranceMax: 0.004 },
+      { crankAngleDeg: 270, value: -0.001, toleranceMax: 0.002 },
+    ]);
+    // vertical: |0.0015 − (−0.001)| = 0.0025 > 0.002; horizontal: |0 − (0.003 + 0.0035)/2| = 0.00325 ≤ 0.004
+    expect(pairs).toEqual([
+      { pair: 'vertical', deflection: expect.closeTo(0.0025, 12), limit: 0.002, status: 'above' },
+      { pair: 'horizontal', deflection: expect.closeTo(0.00325, 12), limit: 0.004, status: 'within' },
+    ]);
+  });
+
+  it('a pair without both readings is left out; no limit given says so', () => {
+    expect(
+      webDeflectionPairs([
+        { crankAngleDeg: 90, value: 0.001 },
+        { crankAngleDeg: 270, value: 0 },
+        { crankAngleDeg: 0, value: 0 },
+      ]),
+    ).toEqual([{ pair: 'vertical', deflection: 0.001, limit: null, status: 'no_tolerance' }]);
   });
 });

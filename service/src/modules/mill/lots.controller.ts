@@ -97,8 +97,8 @@ export class LotsController {
   @ApiFileAnswer('application/pdf', 'The lot sheet as a PDF')
   @Get('quotes/:id/quote.pdf')
   @AnyRole()
-  async pdf(@Param() p: IdParamDto, @Res({ passthrough: true }) res: Response): Promise<StreamableFile> {
-    const { filename, buffer } = await this.lots.quotePdf(p.id);
+  async pdf(@Param() p: IdParamDto, @CurrentUser() me: AuthUser, @Res({ passthrough: true }) res: Response): Promise<StreamableFile> {
+    const { filename, buffer } = await this.lots.quotePdf(p.id, me.displayName);
     res.setHeader('content-disposition', `attachment; filename="${filename}"`);
     return new StreamableFile(buffer, { type: 'application/pdf' });
   }

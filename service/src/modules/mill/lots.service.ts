@@ -371,12 +371,11 @@ export class LotsService {
     return this.quoteDto(saved, user.displayName);
   }
 
-  async quotePdf(quoteId: string): Promise<{ filename: string; buffer: Buffer }> {
+  async quotePdf(quoteId: string, printedBy: string, printedAt = new Date()): Promise<{ filename: string; buffer: Buffer }> {
     const q = await this.getQuote(quoteId);
     const lot = await this.get(q.lotId);
     const mill = lot.millId ? await this.mills.get(lot.millId) : await this.mills.first();
-    const buffer = await this.pdf.render({ quote: q, lot, millName: mill?.name ?? 'The mill' });
-    return { filename: `quote-${lot.reference}-Q${q.number}.pdf`, buffer };
+    return this.pdf.render({ quote: q, lot, millName: mill?.name ?? 'The mill', printedBy, printedAt });
   }
 
   /** E-mails the quote as a PDF to the customer; a lot still an enquiry becomes quoted. */
@@ -387,7 +386,7 @@ export class LotsService {
     if (latest && latest.id !== q.id)
       throw new ConflictException(`Quote ${q.number} has been replaced by quote ${latest.number}; send the latest.`);
     const to = (dto.to ?? lot.customerEmail).trim().toLowerCase();
-    const { filename, buffer } = await this.quotePdf(quoteId);
+    const { filename, buffer } = await this.quotePdf(quoteId, user.displayName);
     const money = new Intl.NumberFormat('en-GB', { style: 'currency', currency: q.currency });
     const text = [
       `Dear ${lot.customerContact || lot.customerName},`,

@@ -65,6 +65,8 @@ export class MillCalculationsController {
       standMaxForceKn: dto.standMaxForceKn,
       frictionFactor: dto.frictionFactor,
       meanFlowStressMPa: dto.meanFlowStressMPa,
+      frictionCoefficient: dto.frictionCoefficient,
+      forceModel: dto.forceModel,
       flywheel,
     });
     return { ...calc, caution: MILL_LOAD_CAUTION };

@@ -7,6 +7,7 @@ import { IndicatorCardsModule } from '../indicator-cards/indicator-cards.module.
 import { MailModule } from '../mail/mail.module.js';
 import { LiveModule } from '../live/live.module.js';
 import { UsersModule } from '../users/users.module.js';
+import { SiteModule } from '../site/site.module.js';
 import { Mill } from './mill.entity.js';
 import { MillStand } from './mill-stand.entity.js';
 import { PassSchedule } from './pass-schedule.entity.js';
@@ -31,6 +32,7 @@ import { MillCalculationsController } from './mill-calculations.controller.js';
 /** The mill: stands and settings, pass schedules, the rolling log of runs, customer lots and quotes. */
 @Module({
   imports: [
+    SiteModule,
     TypeOrmModule.forFeature([
       Mill,
       MillStand,

@@ -24,6 +24,8 @@ export interface PassCalculationInput {
   standMaxForceKn: number;
   frictionFactor?: number;
   meanFlowStressMPa?: number;
+  frictionCoefficient?: number;
+  forceModel?: 'simple' | 'plane_strain';
   flywheel?: {
     flywheelMassLb: number;
     flywheelRadiusOfGyrationFt: number;
@@ -70,6 +72,12 @@ export function calculatePass(input: PassCalculationInput): PassCalculationDto {
       outOfRange: l.flowStressOutOfRange,
     },
     frictionFactor,
+    frictionCoefficient: l.frictionCoefficient,
+    maxBiteDraftMm: l.maxBiteDraftMm,
+    bites: l.bites,
+    forceModel: l.forceModel,
+    geometryFactor: l.geometryFactor,
+    models: l.models,
     forceKn: l.forceKn,
     forceLbf: l.forceLbf,
     torquePerRollKnM: l.torquePerRollKnM,

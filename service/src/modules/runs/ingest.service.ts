@@ -274,7 +274,7 @@ export class IngestService {
           value: row.value,
           takenAt: row.taken_at,
         }));
-        const o = await this.alarms.evaluate(engineId, run.id, fresh, m, this.history);
+        const o = await this.alarms.evaluate(engineId, run.id, fresh, m, this.history, run.state);
         return { inserted: ins, outcome: o };
       }));
     } catch (e) {

@@ -99,11 +99,28 @@ export class ReadingsService {
     const alarms = await this.alarms.list({ runId, open: true });
     const worst = new Map<string, { state: BoardPoint['alarmState']; priority: BoardPoint['alarmPriority'] }>();
     for (const a of alarms) {
-      if (!a.pointId) continue;
+      // Suppressed alarms are recorded but not annunciated: the board shows the one that matters.
+      if (!a.pointId || a.suppression) continue;
       const cur = worst.get(a.pointId);
       if (!cur || (a.priority === 'high_high' && cur.priority !== 'high_high'))
         worst.set(a.pointId, { state: a.state, priority: a.priority });
     }
+    // The last 10 minutes of each point (before its latest reading), for the forecast; thinned to 120 readings.
+    const recent: { point_id: string; value: number; taken_at: Date }[] = await this.db.query(
+      `SELECT r.point_id, COALESCE(r.amended_value, r.value) AS value, r.taken_at
+         FROM readings r
+         JOIN (SELECT point_id, max(taken_at) AS last FROM readings WHERE run_id = $1 GROUP BY point_id) m
+           ON m.point_id = r.point_id AND r.taken_at > m.last - interval '10 minutes'
+        WHERE r.run_id = $1 ORDER BY r.point_id, r.taken_at`,
+      [runId],
+    );
+    const recentBy = new Map<string, { value: number; takenAt: Date }[]>();
+    for (const r of recent) {
+      const list = recentBy.get(r.point_id) ?? [];
+      list.push({ value: Number(r.value), takenAt: new Date(r.taken_at) });
+      recentBy.set(r.point_id, list);
+    }
+    const thin = <T>(xs: T[]) => (xs.length <= 120 ? xs : xs.filter((_, i) => i % Math.ceil(xs.length / 120) === 0 || i === xs.length - 1));
     const byPoint = new Map<string, { value: number; taken_at: Date }[]>();
     for (const r of rows) {
       const list = byPoint.get(r.point_id) ?? [];
@@ -124,6 +141,7 @@ export class ReadingsService {
           trend: list.map((x) => x.value),
           alarmState: w?.state ?? null,
           alarmPriority: w?.priority ?? null,
+          forecast: last ? this.alarms.forecast(p, thin(recentBy.get(p.id) ?? []), last.taken_at) : null,
         };
       });
   }
@@ -234,6 +252,16 @@ export class ReadingsService {
       [runId, pointId, at, new Date(at.getTime() - maxAgeMs)],
     );
     return rows.length ? { value: Number(rows[0].v), takenAt: new Date(rows[0].t) } : null;
+  }
+
+  /** The values a point recorded at exactly these instants (the original values, as the alarm rules saw them). */
+  async valuesAt(pointId: string, at: Date[]): Promise<number[]> {
+    if (at.length === 0) return [];
+    const rows: { value: number }[] = await this.db.query(`SELECT value FROM readings WHERE point_id = $1 AND taken_at = ANY($2)`, [
+      pointId,
+      at,
+    ]);
+    return rows.map((r) => Number(r.value));
   }
 
   /**

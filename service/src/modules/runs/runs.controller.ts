@@ -15,7 +15,16 @@ import {
 } from '@nestjs/common';
 import { ApiBearerAuth, ApiConsumes, ApiTags, ApiBody } from '@nestjs/swagger';
 import type { Request, Response } from 'express';
-import type { AlarmDto, BoardPoint, IngestResult, ReadingDto, RunDetail, RunSummary, StartGateVerdict } from '@crankjournal/shared-types';
+import type {
+  AlarmDto,
+  AlarmFiguresDto,
+  BoardPoint,
+  IngestResult,
+  ReadingDto,
+  RunDetail,
+  RunSummary,
+  StartGateVerdict,
+} from '@crankjournal/shared-types';
 import { AnyRole, Roles } from '../../common/decorators/roles.decorator.js';
 import { CurrentUser, type AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { IdParamDto } from '../../common/dto/id-param.dto.js';
@@ -26,7 +35,8 @@ import { ReadingsService } from './readings.service.js';
 import { IngestService } from './ingest.service.js';
 import { CsvImportService } from './csv-import.service.js';
 import { RunExportsService } from './run-exports.service.js';
-import { CreateRunDto, ReadingsQueryDto, RunQueryDto, RunTransitionDto, UpdateRunDto } from './dto/run.dto.js';
+import { CreateRunDto, ReadingsQueryDto, RunQueryDto, RunTransitionDto, SeasonFiguresQueryDto, UpdateRunDto } from './dto/run.dto.js';
+import type { Run } from './run.entity.js';
 import { RoundDto } from './dto/reading.dto.js';
 
 const MAX_CSV_BYTES = 200 * 1024 * 1024;
@@ -67,6 +77,18 @@ export class RunsController {
   @AnyRole()
   list(@Query() q: RunQueryDto): Promise<RunSummary[]> {
     return this.runs.list(q);
+  }
+
+  /** The alarm system's own figures for an engine's season (its runs of a calendar year). */
+  @ApiAnswer('AlarmFiguresDto')
+  @Get('alarm-figures')
+  @Roles('chief_engineer', 'maintenance_lead')
+  async seasonAlarmFigures(@Query() q: SeasonFiguresQueryDto): Promise<AlarmFiguresDto> {
+    const runs = await this.runs.season(q.engineId, q.year);
+    return this.alarms.figures(
+      runs.map((r) => this.runSpan(r)),
+      (pointId, at) => this.readings.valuesAt(pointId, at),
+    );
   }
 
   @ApiAnswer('RunDetail')
@@ -118,6 +140,19 @@ export class RunsController {
   @AnyRole()
   board(@Param() p: IdParamDto): Promise<BoardPoint[]> {
     return this.readings.board(p.id);
+  }
+
+  /** The alarm system's own figures for this run, against the standards' targets. */
+  @ApiAnswer('AlarmFiguresDto')
+  @Get(':id/alarm-figures')
+  @Roles('chief_engineer', 'maintenance_lead')
+  async runAlarmFigures(@Param() p: IdParamDto): Promise<AlarmFiguresDto> {
+    const run = await this.runs.get(p.id);
+    return this.alarms.figures([this.runSpan(run)], (pointId, at) => this.readings.valuesAt(pointId, at));
+  }
+
+  private runSpan(run: Run) {
+    return { id: run.id, from: run.createdAt, to: run.closedAt ?? run.stoppedAt ?? new Date(), startedAt: run.startedAt };
   }
 
   @ApiAnswer('AlarmDto', { array: true })
@@ -182,14 +217,5 @@ export class RunsController {
     const { filename, stream } = await this.exports.readingsCsv(p.id);
     res.setHeader('content-disposition', `attachment; filename="${filename}"`);
     return new StreamableFile(stream, { type: 'text/csv; charset=utf-8' });
-  }
-
-  @ApiFileAnswer('application/pdf', 'The run log as a PDF')
-  @Get(':id/log-sheet.pdf')
-  @AnyRole()
-  async pdf(@Param() p: IdParamDto, @Res({ passthrough: true }) res: Response): Promise<StreamableFile> {
-    const { filename, stream } = await this.exports.logSheetPdf(p.id);
-    res.setHeader('content-disposition', `attachment; filename="${filename}"`);
-    return new StreamableFile(stream, { type: 'application/pdf' });
   }
 }

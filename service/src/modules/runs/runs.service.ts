@@ -63,6 +63,19 @@ export class RunsService {
     return r;
   }
 
+  /** The runs of an engine opened in a calendar year (UTC), abandoned ones left out: a season. */
+  async season(engineId: string, year: number): Promise<Run[]> {
+    return this.runRepo
+      .createQueryBuilder('r')
+      .where('r.engine_id = :engineId AND r.state <> :ab', { engineId, ab: 'abandoned' })
+      .andWhere('r.created_at >= :from AND r.created_at < :to', {
+        from: new Date(Date.UTC(year, 0, 1)),
+        to: new Date(Date.UTC(year + 1, 0, 1)),
+      })
+      .orderBy('r.created_at', 'ASC')
+      .getMany();
+  }
+
   /** Refuses changes to a closed or abandoned run: it is part of the record. */
   assertOpen(run: Run) {
     if (run.state === 'closed' || run.state === 'abandoned')

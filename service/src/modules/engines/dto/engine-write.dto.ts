@@ -3,6 +3,7 @@ import { Type } from 'class-transformer';
 import {
   ArrayMaxSize,
   IsArray,
+  IsBoolean,
   IsIn,
   IsInt,
   IsOptional,
@@ -22,6 +23,8 @@ import {
   LUBRICATION_KINDS,
   MEASUREMENT_KINDS,
   MEASUREMENT_UNITS,
+  RUN_STATES,
+  type RunState,
   type BearingDto,
   type BearingKind,
   type CylinderDto,
@@ -87,6 +90,16 @@ export class MeasurementPointWriteDto implements MeasurementPointDto {
   @IsOptional() @IsFiniteNumberIn(0, 1e6) maxRiseRatePerMin?: number | null;
   @IsOptional() @IsFiniteNumberIn(0, 1e6) maxRiseAboveAmbient?: number | null;
   @IsOptional() @IsFiniteNumberIn(0, 1e6) deadband?: number | null;
+  @ApiPropertyOptional({ description: 'an absolute limit suppresses the rise-above-ambient and rate-of-rise alarms' })
+  @IsOptional()
+  @IsBoolean()
+  relatedSuppression?: boolean;
+  @ApiPropertyOptional({ enum: RUN_STATES, isArray: true, description: "run states in which the point's alarms are suppressed" })
+  @IsOptional()
+  @IsArray()
+  @ArrayMaxSize(RUN_STATES.length)
+  @IsIn(RUN_STATES, { each: true, message: `each of suppressedInStates must be one of: ${RUN_STATES.join(', ')}` })
+  suppressedInStates?: RunState[];
   @IsOptional() @IsString() @MaxLength(80) bearingLabel?: string | null;
   @IsOptional() @IsUUID('all', { message: 'bearingId must be a UUID' }) bearingId?: string | null;
   @IsOptional() @IsString() @MaxLength(40) cylinderLabel?: string | null;

@@ -106,12 +106,26 @@ export class IndicatedPowerCylinderResultDto implements IndicatedPowerCylinderRe
   @ApiProperty({ description: 'hp' }) indicatedHorsepower: number;
   @ApiProperty({ type: [IndicatedPowerEndResultDto] }) ends: IndicatedPowerEndResultDto[];
 }
+export class MissingEndDto {
+  @ApiProperty() cylinderLabel: string;
+  @ApiProperty({ enum: CYLINDER_ENDS }) end: CylinderEnd;
+}
+
 export class IndicatedPowerResponseDto implements IndicatedPowerResponse {
   @ApiProperty({ type: [IndicatedPowerCylinderResultDto] }) cylinders: IndicatedPowerCylinderResultDto[];
-  @ApiProperty({ description: 'hp' }) totalIndicatedHorsepower: number;
-  @ApiProperty({ description: 'kW' }) totalIndicatedKilowatts: number;
-  @ApiProperty({ description: "Every cylinder's work referred to the largest cylinder's area, psi" })
-  referredMeanEffectivePressurePsi: number;
+  @ApiProperty({ description: 'Every end of every cylinder has a card; when false the totals are the sum of the cards present' })
+  complete: boolean;
+  @ApiProperty({ type: [MissingEndDto], description: 'The ends without a card' }) missingEnds: MissingEndDto[];
+  @ApiProperty({ description: 'hp (the sum of the cards present when the set is not complete)' }) totalIndicatedHorsepower: number;
+  @ApiProperty({ description: 'kW (the sum of the cards present when the set is not complete)' }) totalIndicatedKilowatts: number;
+  @ApiProperty({
+    type: Number,
+    nullable: true,
+    description: "Every cylinder's work referred to the largest cylinder's area, psi; null for an incomplete set",
+  })
+  referredMeanEffectivePressurePsi: number | null;
+  @ApiProperty({ type: String, nullable: true, description: 'Why the referred MEP is absent' })
+  referredMeanEffectivePressureMissing: string | null;
 }
 
 // ---------------------------------------------------------------------------------------------

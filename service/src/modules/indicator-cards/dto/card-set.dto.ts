@@ -97,6 +97,13 @@ export class CreateCardSetDto implements CreateCardSetRequest {
   receiverPressurePsig?: number | null;
   @ApiPropertyOptional({ description: 'inHg; leave out to use the nearest reading' }) @IsOptional() @IsFiniteNumberIn(0, 30) vacuumInHg?:
     number | null;
+  @ApiPropertyOptional({
+    description:
+      "The site barometer, inHg absolute; leave out to use the run's nearest barometer reading, else the standard atmosphere (29.92 inHg)",
+  })
+  @IsOptional()
+  @IsFiniteNumberIn(20, 32)
+  barometerInHg?: number | null;
   @ApiPropertyOptional() @IsOptional() @IsString() @MaxLength(5000) notes?: string | null;
   @ApiProperty({ type: [CardInputDto], description: 'One card per cylinder end (more may be added later)' })
   @IsArray({ message: 'cards must be a list' })

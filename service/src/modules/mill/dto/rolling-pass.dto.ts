@@ -45,6 +45,20 @@ export class RollingPassDto implements RollingPassRequest {
   @IsOptional()
   @IsFiniteNumberIn(1, 2)
   frictionFactor?: number;
+  @ApiPropertyOptional({
+    description:
+      'roll–stock friction coefficient for the bite check (Δh ≤ μ²·R) and the plane-strain geometry factor; default 0.3 (hot rolling)',
+  })
+  @IsOptional()
+  @IsFiniteNumberIn(0.01, 1)
+  frictionCoefficient?: number;
+  @ApiPropertyOptional({
+    enum: ['simple', 'plane_strain'],
+    description: "'simple' (default): L·w·σ̄·frictionFactor; 'plane_strain': L·w·(2/√3)·σ̄·Q with the roll-gap geometry factor Q",
+  })
+  @IsOptional()
+  @IsIn(['simple', 'plane_strain'], { message: "forceModel must be 'simple' or 'plane_strain'" })
+  forceModel?: 'simple' | 'plane_strain';
   @ApiPropertyOptional({ description: 'mean flow stress, MPa, to use instead of the hot-steel equation' })
   @IsOptional()
   @IsFiniteNumberIn(0.1, 5000)

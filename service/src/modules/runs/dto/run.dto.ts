@@ -1,5 +1,19 @@
 import { ApiProperty, ApiPropertyOptional, PartialType } from '@nestjs/swagger';
-import { ArrayMaxSize, IsArray, IsDateString, IsIn, IsOptional, IsString, IsUUID, MaxLength, MinLength } from 'class-validator';
+import { Type } from 'class-transformer';
+import {
+  ArrayMaxSize,
+  IsArray,
+  IsDateString,
+  IsIn,
+  IsInt,
+  IsOptional,
+  IsString,
+  IsUUID,
+  Max,
+  MaxLength,
+  Min,
+  MinLength,
+} from 'class-validator';
 import {
   RUN_PURPOSES,
   RUN_STATES,
@@ -45,6 +59,15 @@ export class RunTransitionDto implements RunTransitionRequest {
 export class RunQueryDto {
   @IsOptional() @IsUUID('all', { message: 'engineId must be a UUID' }) engineId?: string;
   @IsOptional() @IsIn(RUN_STATES, { message: `state must be one of: ${RUN_STATES.join(', ')}` }) state?: RunState;
+}
+
+export class SeasonFiguresQueryDto {
+  @IsUUID('all', { message: 'engineId must be a UUID' }) engineId: string;
+  @Type(() => Number)
+  @IsInt({ message: 'year must be a whole number, e.g. 2026' })
+  @Min(1900, { message: 'year must be 1900 or later' })
+  @Max(2200, { message: 'year must be 2200 or earlier' })
+  year: number;
 }
 
 export class ReadingsQueryDto {

@@ -26,7 +26,8 @@ export function AlarmBanner({
   acknowledging: string | null;
   max?: number;
 }) {
-  const waiting = alarms.filter((a) => isUnacknowledged(a.state)).sort(bannerOrder);
+  // Suppressed alarms (by a higher alarm of the point, or by the run state) are recorded but not annunciated.
+  const waiting = alarms.filter((a) => isUnacknowledged(a.state) && !a.suppression).sort(bannerOrder);
   if (waiting.length === 0) return null;
   const shown = waiting.slice(0, max);
   const more = waiting.length - shown.length;

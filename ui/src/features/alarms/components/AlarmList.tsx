@@ -69,6 +69,12 @@ function AlarmRow({ alarm: a, actions }: { alarm: AlarmDto; actions: AlarmAction
             {a.acknowledgedAt && ` · acknowledged ${t(a.acknowledgedAt)} by ${a.acknowledgedByName ?? '—'}`}
             {a.returnedAt && ` · returned to normal ${t(a.returnedAt)}`}
           </Text>
+          {a.suppression && (
+            <Text fz="sm" fw={600} data-testid="suppressed-by">
+              Suppressed by {a.suppressedByLabel ?? (a.suppression === 'state' ? 'the run state' : 'a higher alarm')} — recorded, not
+              annunciated
+            </Text>
+          )}
           {shelved && (
             <Text fz="sm" fw={600}>
               Shelved until {t(a.shelvedUntil)} by {a.shelvedByName ?? '—'}: {a.shelveReason}
@@ -77,7 +83,7 @@ function AlarmRow({ alarm: a, actions }: { alarm: AlarmDto; actions: AlarmAction
         </Stack>
         {(actions.canAcknowledge || actions.canShelve) && !cleared && (
           <Group gap="xs" wrap="wrap">
-            {actions.canAcknowledge && isUnacknowledged(a.state) && (
+            {actions.canAcknowledge && isUnacknowledged(a.state) && !a.suppression && (
               <Button
                 size="md"
                 h={48}
@@ -111,14 +117,25 @@ function AlarmRow({ alarm: a, actions }: { alarm: AlarmDto; actions: AlarmAction
   );
 }
 
-/** The run's alarms: waiting ones first, then acknowledged, shelved (hatched) and cleared. */
+/**
+ * The run's alarms: waiting ones first, then acknowledged, shelved (hatched) and cleared. Alarms suppressed by
+ * design or by state are a click away ("Show suppressed").
+ */
 export function AlarmList({ alarms, actions }: { alarms: AlarmDto[]; actions: AlarmActions }) {
+  const [showSuppressed, setShowSuppressed] = useState(false);
   if (alarms.length === 0) return <Text c="dimmed">No alarms on this run.</Text>;
+  const suppressed = alarms.filter((a) => a.suppression && a.state !== 'normal');
+  const shown = showSuppressed ? alarms : alarms.filter((a) => !(a.suppression && a.state !== 'normal'));
   return (
     <Stack gap="xs">
-      {[...alarms].sort(alarmListOrder).map((a) => (
+      {[...shown].sort(alarmListOrder).map((a) => (
         <AlarmRow key={a.id} alarm={a} actions={actions} />
       ))}
+      {suppressed.length > 0 && (
+        <Button variant="subtle" onClick={() => setShowSuppressed((v) => !v)} aria-expanded={showSuppressed}>
+          {showSuppressed ? 'Hide suppressed alarms' : `Show ${suppressed.length} suppressed alarm${suppressed.length === 1 ? '' : 's'}`}
+        </Button>
+      )}
     </Stack>
   );
 }

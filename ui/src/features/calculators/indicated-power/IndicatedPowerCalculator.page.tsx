@@ -271,14 +271,35 @@ export default function IndicatedPowerCalculatorPage() {
             </Alert>
           ) : result ? (
             <Stack gap="sm">
+              {!result.complete && (
+                <Alert color="amber" variant="outline" title="Incomplete set" data-testid="calc-incomplete">
+                  No card for: {result.missingEnds.map((m) => `${m.cylinderLabel} ${CYLINDER_END_LABELS[m.end].toLowerCase()}`).join(', ')}.
+                  The total below is the sum of the cards present, not the engine&apos;s indicated power.
+                </Alert>
+              )}
               <Group gap="xl" align="baseline">
-                <Text fz={36} fw={700} className="cj-num" data-testid="calc-total">
-                  {fmt(result.totalIndicatedHorsepower, 1)} ihp
-                </Text>
+                <Stack gap={0}>
+                  {!result.complete && (
+                    <Text fz="xs" fw={700} c="amber.8" data-testid="calc-total-basis">
+                      Sum of the cards present
+                    </Text>
+                  )}
+                  <Text fz={36} fw={700} className="cj-num" data-testid="calc-total">
+                    {fmt(result.totalIndicatedHorsepower, 1)} ihp
+                  </Text>
+                </Stack>
                 <Text fz="xl" c="dimmed" className="cj-num">
                   {fmt(result.totalIndicatedKilowatts, 1)} kW
                 </Text>
-                <Text className="cj-num">referred MEP {fmt(result.referredMeanEffectivePressurePsi, 2)} psi (on the largest cylinder)</Text>
+                {result.referredMeanEffectivePressurePsi !== null ? (
+                  <Text className="cj-num">
+                    referred MEP {fmt(result.referredMeanEffectivePressurePsi, 2)} psi (on the largest cylinder)
+                  </Text>
+                ) : (
+                  <Text c="dimmed" data-testid="calc-referred-missing">
+                    No referred MEP: {result.referredMeanEffectivePressureMissing}
+                  </Text>
+                )}
               </Group>
               <Table className="cj-num" aria-label="Indicated power by end">
                 <Table.Thead>

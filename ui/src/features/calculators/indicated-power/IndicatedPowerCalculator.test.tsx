@@ -35,9 +35,12 @@ describe('the indicated power calculator', () => {
             ends: [{ end: 'head', meanEffectivePressurePsi: 43.33, effectiveAreaSqIn: 400.09, indicatedHorsepower: 115.6 }],
           },
         ],
+        complete: true,
+        missingEnds: [],
         totalIndicatedHorsepower: 335.9,
         totalIndicatedKilowatts: 250.5,
         referredMeanEffectivePressurePsi: 16.71,
+        referredMeanEffectivePressureMissing: null,
       },
     });
     render(<IndicatedPowerCalculatorPage />);
@@ -47,6 +50,34 @@ describe('the indicated power calculator', () => {
     expect(JSON.parse(String((init as RequestInit).body))).toEqual(toCalculatorRequest(EXAMPLE));
     expect(screen.getByRole('row', { name: /HP head end/ })).toHaveTextContent('43.33');
     expect(screen.getByText(/referred MEP 16.71 psi/)).toBeInTheDocument();
+    expect(screen.queryByTestId('calc-incomplete')).not.toBeInTheDocument();
+  });
+
+  it('marks the example’s answer as incomplete: the LP crank end named, the total the cards present, no referred MEP', async () => {
+    stubFetch({
+      'POST /calculations/indicated-power': {
+        cylinders: [
+          {
+            label: 'HP',
+            indicatedHorsepower: 211.2,
+            ends: [{ end: 'head', meanEffectivePressurePsi: 43.33, effectiveAreaSqIn: 400.09, indicatedHorsepower: 115.6 }],
+          },
+        ],
+        complete: false,
+        missingEnds: [{ cylinderLabel: 'LP', end: 'crank' }],
+        totalIndicatedHorsepower: 335.9,
+        totalIndicatedKilowatts: 250.5,
+        referredMeanEffectivePressurePsi: null,
+        referredMeanEffectivePressureMissing: 'needs a card from every end; missing: LP crank end',
+      },
+    });
+    render(<IndicatedPowerCalculatorPage />);
+    await waitFor(() => expect(screen.getByTestId('calc-incomplete')).toHaveTextContent('No card for: LP crank end.'));
+    expect(screen.getByTestId('calc-total-basis')).toHaveTextContent('Sum of the cards present');
+    expect(screen.getByTestId('calc-referred-missing')).toHaveTextContent(
+      'No referred MEP: needs a card from every end; missing: LP crank end',
+    );
+    expect(screen.queryByText(/referred MEP 16/)).not.toBeInTheDocument();
   });
 
   it('shows the server’s message naming the field when it refuses', async () => {

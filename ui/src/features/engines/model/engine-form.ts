@@ -7,6 +7,7 @@ import {
   type LubricationKind,
   type MeasurementKind,
   type MeasurementUnit,
+  type RunState,
 } from '@crankjournal/shared-types';
 
 /** A number field as the form holds it: '' while empty. */
@@ -63,6 +64,10 @@ export interface PointRow {
   maxRiseRatePerMin: Num;
   maxRiseAboveAmbient: Num;
   deadband: Num;
+  /** Absolute limits suppress this point's rise-above-ambient and rate-of-rise alarms. */
+  relatedSuppression: boolean;
+  /** Run states in which the point's alarms are suppressed. */
+  suppressedInStates: RunState[];
   /** "b:<bearing label>", "c:<cylinder label>" or null. */
   attachedTo: string | null;
 }
@@ -137,6 +142,8 @@ export const emptyPoint = (sequence: number): PointRow => ({
   maxRiseRatePerMin: '',
   maxRiseAboveAmbient: '',
   deadband: '',
+  relatedSuppression: true,
+  suppressedInStates: [],
   attachedTo: null,
 });
 
@@ -224,6 +231,8 @@ export function fromEngine(e: EngineDetail): EngineFormValues {
           maxRiseRatePerMin: n(p.maxRiseRatePerMin),
           maxRiseAboveAmbient: n(p.maxRiseAboveAmbient),
           deadband: n(p.deadband),
+          relatedSuppression: p.relatedSuppression ?? true,
+          suppressedInStates: p.suppressedInStates ?? [],
           attachedTo: bl ? `b:${bl}` : cl ? `c:${cl}` : null,
         };
       }),
@@ -288,6 +297,8 @@ export function toWriteRequest(v: EngineFormValues): EngineWriteRequest {
         maxRiseRatePerMin: orNull(p.maxRiseRatePerMin),
         maxRiseAboveAmbient: orNull(p.maxRiseAboveAmbient),
         deadband: orNull(p.deadband),
+        relatedSuppression: p.relatedSuppression,
+        suppressedInStates: p.suppressedInStates,
         bearingLabel: p.attachedTo?.startsWith('b:') ? p.attachedTo.slice(2) : null,
         cylinderLabel: p.attachedTo?.startsWith('c:') ? p.attachedTo.slice(2) : null,
       })),

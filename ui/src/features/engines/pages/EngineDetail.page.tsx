@@ -1,10 +1,12 @@
 import { useMemo, type ReactNode } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { useQuery } from '@tanstack/react-query';
-import { Alert, Badge, Button, Card, Grid, Group, Loader, SimpleGrid, Stack, Text, Title } from '@mantine/core';
+import { Alert, Badge, Button, Card, Grid, Group, List, Loader, SimpleGrid, Stack, Text, Title } from '@mantine/core';
 import { IconArrowRight, IconPencil } from '@tabler/icons-react';
 import {
+  DESIGN_SUPPRESSION_RULE_WORDS,
   MEASUREMENT_KIND_LABELS,
+  RUN_STATE_LABELS,
   type BearingDto,
   type CylinderDto,
   type EngineDetail,
@@ -70,6 +72,7 @@ function Setting({ label, children }: { label: string; children: ReactNode }) {
 export default function EngineDetailPage() {
   const { id = '' } = useParams();
   const isChief = useHasRole('chief_engineer');
+  const isMaintenanceLead = useHasRole('maintenance_lead');
   const { data: engine, isLoading, error } = useQuery(engineDetailQuery(id));
   if (isLoading) return <Loader />;
   if (error || !engine) return <Alert color="signal">{errorText(error)}</Alert>;
@@ -88,10 +91,22 @@ export default function EngineDetailPage() {
           ) : undefined
         }
         action={
-          isChief && (
-            <Button component={Link} to={`/engines/${engine.id}/edit`} size="lg" leftSection={<IconPencil />}>
-              Edit engine
-            </Button>
+          (isChief || isMaintenanceLead) && (
+            <Group>
+              <Button
+                component={Link}
+                to={`/alarm-figures?engineId=${engine.id}&year=${new Date().getFullYear()}`}
+                size="lg"
+                variant="default"
+              >
+                Alarm figures
+              </Button>
+              {isChief && (
+                <Button component={Link} to={`/engines/${engine.id}/edit`} size="lg" leftSection={<IconPencil />}>
+                  Edit engine
+                </Button>
+              )}
+            </Group>
           )
         }
       />
@@ -317,6 +332,21 @@ function MeasurementPoints({ engine }: { engine: EngineDetail }) {
         header: 'Deadband',
         cell: (c) => limit(c.row.original.deadband, c.row.original.unit, true),
       }),
+      ptCol.accessor((p) => (p.suppressedInStates ?? []).join(','), {
+        id: 'suppression',
+        header: 'Suppression',
+        enableSorting: false,
+        cell: (c) => {
+          const p = c.row.original;
+          const states = (p.suppressedInStates ?? []).map((s) => RUN_STATE_LABELS[s]).join(', ');
+          return (
+            <Text fz="sm">
+              {p.relatedSuppression === false ? 'Related: no' : 'Related: yes'}
+              {states ? ` · while ${states}` : ''}
+            </Text>
+          );
+        },
+      }),
     ];
   }, [display, engine]);
   const points = useMemo(() => [...engine.measurementPoints].sort((a, b) => a.sequence - b.sequence), [engine.measurementPoints]);
@@ -329,6 +359,18 @@ function MeasurementPoints({ engine }: { engine: EngineDetail }) {
       }
     >
       <Caution title="Limits">{LIMITS_CAUTION}</Caution>
+      <Stack gap={4} data-testid="suppression-rules">
+        <Text fw={700}>Suppression by design</Text>
+        <List size="sm">
+          {DESIGN_SUPPRESSION_RULE_WORDS.map((w) => (
+            <List.Item key={w}>{w}</List.Item>
+          ))}
+          <List.Item>
+            A suppressed alarm is recorded and listed as &quot;suppressed by&quot; the other, is not annunciated nor waiting, and is
+            released when the other clears. A point can also be suppressed in chosen run states (column Suppression).
+          </List.Item>
+        </List>
+      </Stack>
       <DataTable
         data={points}
         columns={columns}

@@ -6,10 +6,12 @@ import {
   Badge,
   Button,
   Card,
+  Checkbox,
   Grid,
   Group,
   List,
   Loader,
+  MultiSelect,
   NumberInput,
   Paper,
   Select,
@@ -23,7 +25,7 @@ import {
 import { useForm, type UseFormReturnType } from '@mantine/form';
 import { notifications } from '@mantine/notifications';
 import { IconPlus, IconTrash, IconArrowBackUp } from '@tabler/icons-react';
-import { MEASUREMENT_KIND_LABELS, MEASUREMENT_UNITS, UNIT_LABELS } from '@crankjournal/shared-types';
+import { MEASUREMENT_KIND_LABELS, MEASUREMENT_UNITS, RUN_STATES, RUN_STATE_LABELS, UNIT_LABELS } from '@crankjournal/shared-types';
 import { PageHeader } from '../../../components/PageHeader';
 import { Caution } from '../../../components/Caution/Caution';
 import { HttpError, errorText } from '../../../api/http';
@@ -476,6 +478,19 @@ function PointsSection({ form }: { form: Form }) {
                 <Num form={form} path={`${base}.maxRiseRatePerMin`} label={`Rise per minute (${u}/min)`} />
                 <Num form={form} path={`${base}.maxRiseAboveAmbient`} label={`Rise above ambient (${u})`} />
                 <Num form={form} path={`${base}.deadband`} label={`Deadband (${u})`} />
+              </SimpleGrid>
+              <SimpleGrid cols={{ base: 1, sm: 2 }}>
+                <Checkbox
+                  label="Related conditions suppressed: high-high and high suppress this point's rise-above-ambient and rate-of-rise alarms"
+                  {...form.getInputProps(`${base}.relatedSuppression`, { type: 'checkbox' })}
+                />
+                <MultiSelect
+                  label="Alarms suppressed while the run is"
+                  description="e.g. oil pressure low while preparing, before pre-lube"
+                  data={RUN_STATES.map((s) => ({ value: s, label: RUN_STATE_LABELS[s] }))}
+                  clearable
+                  {...form.getInputProps(`${base}.suppressedInStates`)}
+                />
               </SimpleGrid>
             </Stack>
           </Row>

@@ -41,6 +41,7 @@ export function AmendCardModal({ set, card, onClose }: { set: CardSetDto; card: 
           throttlePressurePsig: set.throttlePressurePsig,
           receiverPressurePsig: set.receiverPressurePsig,
           vacuumInHg: set.vacuumInHg,
+          barometerInHg: set.barometerInHg,
           cards: [{ ...figures, cylinderId: card.cylinderId ?? '', end: card.end }],
         },
         ctrl.signal,

@@ -22,6 +22,7 @@ export interface SetDraft {
   throttlePressurePsig: Num;
   receiverPressurePsig: Num;
   vacuumInHg: Num;
+  barometerInHg: Num;
   notes: string;
   cards: Record<string, CardDraft>;
 }
@@ -54,6 +55,7 @@ export function toRequest(d: SetDraft, cylinders: FormCylinder[]): CreateCardSet
     throttlePressurePsig: num(d.throttlePressurePsig),
     receiverPressurePsig: num(d.receiverPressurePsig),
     vacuumInHg: num(d.vacuumInHg),
+    barometerInHg: num(d.barometerInHg),
     notes: d.notes.trim() || null,
     cards,
   };
@@ -74,6 +76,7 @@ export function newSetDraft(cylinders: FormCylinder[], previous?: CardSetDto): S
     throttlePressurePsig: '',
     receiverPressurePsig: '',
     vacuumInHg: '',
+    barometerInHg: previous?.barometerSource === 'entered' ? (previous.barometerInHg ?? '') : '',
     notes: '',
     cards,
   };
@@ -125,7 +128,9 @@ export function CardSetForm({
   }, [runId, requestKey]);
 
   const setCard = (key: string, next: CardDraft) => setDraft((d) => ({ ...d, cards: { ...d.cards, [key]: next } }));
-  const numberField = (field: 'speedRpm' | 'cutOffPercent' | 'throttlePressurePsig' | 'receiverPressurePsig' | 'vacuumInHg') => ({
+  const numberField = (
+    field: 'speedRpm' | 'cutOffPercent' | 'throttlePressurePsig' | 'receiverPressurePsig' | 'vacuumInHg' | 'barometerInHg',
+  ) => ({
     value: draft[field],
     onChange: (v: string | number) => setDraft((d) => ({ ...d, [field]: v === '' ? '' : Number(v) })),
     inputMode: 'decimal' as const,
@@ -191,6 +196,18 @@ export function CardSetForm({
             placeholder="nearest reading"
             description={preview?.vacuumSource === 'reading' ? `Reading: ${fmt(preview.vacuumInHg, 1)} inHg` : undefined}
             {...numberField('vacuumInHg')}
+          />
+          <NumberInput
+            label="Barometer, inHg"
+            placeholder="nearest reading"
+            description={
+              preview?.barometerSource === 'reading'
+                ? `Reading: ${fmt(preview.barometerInHg, 2)} inHg`
+                : preview && preview.barometerInHg === null
+                  ? 'None: the standard atmosphere, 29.92 inHg'
+                  : undefined
+            }
+            {...numberField('barometerInHg')}
           />
         </SimpleGrid>
         <Textarea

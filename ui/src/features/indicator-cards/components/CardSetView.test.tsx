@@ -34,6 +34,8 @@ function set(over: Partial<CardSetDto> = {}): CardSetDto {
     receiverSource: 'reading',
     vacuumInHg: 24.9,
     vacuumSource: 'reading',
+    barometerInHg: null,
+    barometerSource: null,
     notes: null,
     cylinders: [
       { cylinderId: 'hp', label: 'HP', role: 'high', boreIn: 24, strokeIn: 48, pistonRodIn: 5.5, tailRodIn: 0, clearancePercent: 8 },
@@ -109,11 +111,15 @@ function set(over: Partial<CardSetDto> = {}): CardSetDto {
       totalIndicatedKilowatts: 166.3,
       referredMeanEffectivePressurePsi: null,
       referredToCylinderLabel: null,
+      referredMeanEffectivePressureMissing: 'needs a card from every end; missing: HP crank end',
+      workSharesMissing: 'needs a card from every end; missing: HP crank end',
       receiverPressurePsig: 26.9,
       lowPressureAdmissionPsig: null,
       receiverDropPsi: null,
       brake: null,
       steamAccountedForLbPerIhpHour: null,
+      atmosphericPressurePsia: 14.696,
+      atmosphereBasis: 'standard',
       notes: ['Not yet taken: HP crank end.'],
       computedAt: '2026-09-12T12:30:00Z',
     },
@@ -126,6 +132,14 @@ function set(over: Partial<CardSetDto> = {}): CardSetDto {
 }
 
 describe('CardSetView', () => {
+  it('marks an incomplete set: total = sum of the cards present, the missing end named, referred MEP absent with its reason', () => {
+    render(<CardSetView set={set()} canWrite={false} defaultOpen={false} />);
+    expect(screen.getByTestId('card-set-total-basis')).toHaveTextContent('Sum of the cards present');
+    expect(screen.getByTestId('card-set-incomplete')).toHaveTextContent("Incomplete set, not the engine's power. Missing: HP crank end.");
+    expect(screen.getByTestId('stat-referred')).toHaveTextContent('Not shown: needs a card from every end; missing: HP crank end');
+    expect(screen.getByTestId('stat-vacuum')).toHaveTextContent('no barometer: against the standard atmosphere, 29.92 inHg');
+  });
+
   it('shows the total, the summary table, the card over its ideal card and the amendment with the old value struck through', () => {
     render(<CardSetView set={set()} canWrite={false} defaultOpen />);
     expect(screen.getByTestId('card-set-total')).toHaveTextContent('223 ihp');

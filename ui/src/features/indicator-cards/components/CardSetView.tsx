@@ -24,6 +24,15 @@ function Stat({ label, children, testId }: { label: string; children: ReactNode;
   );
 }
 
+/** Why a figure is not shown, under its dash. */
+function Absent({ reason }: { reason: string }) {
+  return (
+    <Text fz="xs" c="dimmed" lh={1.2}>
+      Not shown: {reason}
+    </Text>
+  );
+}
+
 const source = (s: 'entered' | 'reading' | null, at?: string | null) =>
   s === 'reading' ? (at ? ` (reading ${timeOnly(at)})` : ' (reading)') : s === 'entered' ? ' (entered)' : '';
 
@@ -73,6 +82,11 @@ export function CardSetView({ set, canWrite, defaultOpen }: { set: CardSetDto; c
           </Group>
         </Stack>
         <Stack gap={0} align="flex-end">
+          {!r.complete && (
+            <Text fz="xs" fw={700} c="amber.8" data-testid="card-set-total-basis">
+              Sum of the cards present
+            </Text>
+          )}
           <Text fz={32} fw={700} className="cj-num" lh={1.1} data-testid="card-set-total">
             {fmt(r.totalIndicatedHorsepower, 0)} ihp
           </Text>
@@ -81,6 +95,11 @@ export function CardSetView({ set, canWrite, defaultOpen }: { set: CardSetDto; c
           </Text>
         </Stack>
       </Group>
+      {!r.complete && (
+        <Text fz="sm" mt={4} data-testid="card-set-incomplete">
+          Incomplete set, not the engine&apos;s power. Missing: {r.missingEnds.map((m) => `${m.cylinderLabel} ${m.end} end`).join(', ')}.
+        </Text>
+      )}
 
       <SimpleGrid cols={{ base: 2, sm: 3, lg: 5 }} mt="sm" spacing="sm">
         <Stat label="Speed">
@@ -93,15 +112,24 @@ export function CardSetView({ set, canWrite, defaultOpen }: { set: CardSetDto; c
         <Stat label="Throttle / receiver">
           {fmt(set.throttlePressurePsig, 1)} / {fmt(set.receiverPressurePsig, 1)} psig
         </Stat>
-        <Stat label="Vacuum">{fmt(set.vacuumInHg, 1)} inHg</Stat>
+        <Stat label="Vacuum" testId="stat-vacuum">
+          {fmt(set.vacuumInHg, 1)} inHg
+          <Text fz="xs" c={r.atmosphereBasis === 'standard' ? 'amber.8' : 'dimmed'} lh={1.2}>
+            {r.atmosphereBasis === 'barometer'
+              ? `against the barometer, ${fmt(set.barometerInHg, 2)} inHg${source(set.barometerSource)}`
+              : 'no barometer: against the standard atmosphere, 29.92 inHg'}
+          </Text>
+        </Stat>
         <Stat label="Referred MEP" testId="stat-referred">
           {r.referredMeanEffectivePressurePsi !== null
             ? `${fmt(r.referredMeanEffectivePressurePsi, 1)} psi on ${r.referredToCylinderLabel}`
             : '—'}
+          {r.referredMeanEffectivePressureMissing && <Absent reason={r.referredMeanEffectivePressureMissing} />}
         </Stat>
         <Stat label="Receiver drop">{fmt(r.receiverDropPsi, 1)} psi</Stat>
         <Stat label="Mechanical efficiency" testId="stat-mech-eff">
-          {r.brake ? `${pct(r.brake.mechanicalEfficiency, 1)} (${fmt(r.brake.brakeHorsepower, 0)} bhp)` : '—'}
+          {r.brake?.mechanicalEfficiency != null ? `${pct(r.brake.mechanicalEfficiency, 1)} (${fmt(r.brake.brakeHorsepower, 0)} bhp)` : '—'}
+          {r.brake?.mechanicalEfficiencyMissing && <Absent reason={r.brake.mechanicalEfficiencyMissing} />}
         </Stat>
         <Stat label="Steam accounted for">
           {r.steamAccountedForLbPerIhpHour !== null ? `${fmt(r.steamAccountedForLbPerIhpHour, 1)} lb/ihp·h` : '—'}
@@ -109,6 +137,7 @@ export function CardSetView({ set, canWrite, defaultOpen }: { set: CardSetDto; c
         {r.cylinders.map((c) => (
           <Stat key={c.cylinderId} label={`${c.label} share`}>
             {pct(c.workShare)}
+            {c.workShare === null && r.workSharesMissing && <Absent reason={r.workSharesMissing} />}
           </Stat>
         ))}
       </SimpleGrid>

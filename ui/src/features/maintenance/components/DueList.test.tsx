@@ -29,6 +29,15 @@ describe('the due list', () => {
     expect(rows[0]).toHaveAttribute('data-status', 'overdue');
   });
 
+  it('an overdue plan on revolutions with no rate shows no date, only that it is overdue and cannot be dated', () => {
+    const p = plan('p1', 'Crosshead guides', 'overdue', -45);
+    p.due = { ...p.due, governing: 'revolutions', dueDate: null, dueDateNote: 'overdue on revolutions; when it fell due is not known' };
+    render(<DueList plans={[p]} />);
+    const cell = screen.getByTestId('due-date');
+    expect(cell).toHaveTextContent('—');
+    expect(cell).toHaveTextContent('overdue on revolutions; when it fell due is not known');
+  });
+
   it('on the Today screen shows only what needs someone, overdue marked, and bearings that drifted', async () => {
     signIn('maintenance_lead', { id: 'u1', email: 'm@alderforge.example', displayName: 'Test Lead', unitSystem: 'imperial' });
     stubFetch({

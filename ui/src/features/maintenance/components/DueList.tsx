@@ -56,7 +56,14 @@ export function DueList({
                     )}
                   </Group>
                 </Table.Td>
-                <Table.Td className="cj-num">{day(p.due.dueDate)}</Table.Td>
+                <Table.Td className="cj-num" data-testid="due-date">
+                  {p.due.dueDate ? day(p.due.dueDate) : '—'}
+                  {p.due.dueDateNote && (
+                    <Text fz="xs" c={p.due.status === 'overdue' ? 'signal.7' : 'dimmed'}>
+                      {p.due.dueDateNote}
+                    </Text>
+                  )}
+                </Table.Td>
               </Table.Tr>
             );
           })}

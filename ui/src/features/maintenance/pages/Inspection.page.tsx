@@ -310,6 +310,15 @@ export default function InspectionPage() {
             {i.webDeflection.readings} readings.
           </Text>
         )}
+        {i.webDeflection?.pairs.map((p) => (
+          <Text key={p.pair} className="cj-num" c={p.status === 'above' ? 'signal.7' : undefined} data-testid={`web-pair-${p.pair}`}>
+            {p.pair === 'vertical' ? 'Vertical pair (90° / 270°)' : 'Horizontal pair (dead centres)'}:{' '}
+            {measure(p.deflection, i.webDeflection!.unit)}
+            {p.limit !== null
+              ? ` against its limit of ${measure(p.limit, i.webDeflection!.unit)}: ${p.status === 'above' ? 'over the limit' : 'within'}`
+              : ', no limit given'}
+          </Text>
+        ))}
       </Card>
       <SimpleGrid cols={{ base: 1, md: 2 }} spacing="md">
         <Card withBorder padding="lg" radius="md">

@@ -69,7 +69,14 @@ export default function PlanDetailPage() {
                       <Table.Td>{fmt(c.interval, d)}</Table.Td>
                       <Table.Td>{fmt(c.used, d)}</Table.Td>
                       <Table.Td>{remainingText(c)}</Table.Td>
-                      <Table.Td>{day(c.estimatedDueDate)}</Table.Td>
+                      <Table.Td>
+                        {c.estimatedDueDate ? day(c.estimatedDueDate) : '—'}
+                        {c.estimateNote && (
+                          <Text fz="xs" c="dimmed">
+                            {c.estimateNote}
+                          </Text>
+                        )}
+                      </Table.Td>
                       <Table.Td>
                         <DueBadge status={c.status} size="sm" />
                       </Table.Td>

@@ -23,6 +23,8 @@ export interface RollingPassForm {
   rollSpeedRpm: Num;
   standMaxForceKn: Num;
   frictionFactor: Num;
+  /** roll–stock friction coefficient for the bite check (hot rolling: 0.3 unless changed) */
+  frictionCoefficient: Num;
   flywheel: boolean;
   flywheelMassLb: Num;
   flywheelRadiusOfGyrationFt: Num;
@@ -45,6 +47,7 @@ export const EXAMPLE: RollingPassForm = {
   rollSpeedRpm: 75,
   standMaxForceKn: 900,
   frictionFactor: 1.2,
+  frictionCoefficient: 0.3,
   flywheel: true,
   flywheelMassLb: 156800,
   flywheelRadiusOfGyrationFt: 9.9,
@@ -76,6 +79,7 @@ export function toRollingPassRequest(f: RollingPassForm): RollingPassRequest {
     rollSpeedRpm: n(f.rollSpeedRpm) as number,
     standMaxForceKn: n(f.standMaxForceKn) as number,
     frictionFactor: n(f.frictionFactor),
+    frictionCoefficient: n(f.frictionCoefficient),
   };
   if (f.flywheel) {
     Object.assign(body, {
@@ -208,6 +212,7 @@ export default function RollingPassCalculatorPage() {
             {num('Roll speed, rpm', 'rollSpeedRpm')}
             {num('Stand maximum force, kN', 'standMaxForceKn', 200)}
             {num('Friction allowance (×)', 'frictionFactor')}
+            {num('Friction coefficient μ (bite)', 'frictionCoefficient', 200)}
             {num('Temperature, °C', 'temperatureC')}
             {num('Carbon, %', 'carbonPct')}
           </Group>
@@ -261,6 +266,17 @@ export default function RollingPassCalculatorPage() {
               {f && <Tile label="Back to speed in">{f.recoveryTimeS === null ? 'never' : seconds(f.recoveryTimeS)}</Tile>}
             </SimpleGrid>
             <PassWarnings warnings={result.warnings} />
+            <Paper withBorder p="md" radius="md" data-testid="rolling-pass-models">
+              <Title order={3} fz="md" mb={4}>
+                Models used
+              </Title>
+              <Text fz="sm">Strain: {result.models.strain}</Text>
+              <Text fz="sm">Flow stress: {result.models.flowStress}</Text>
+              <Text fz="sm">Roll force: {result.models.force}</Text>
+              <Text fz="sm">
+                Bite: {result.models.bite} — largest draft {fmt(result.maxBiteDraftMm, 1)} mm
+              </Text>
+            </Paper>
             <Paper withBorder p="md" radius="md">
               <PassWorking calc={result} />
             </Paper>

@@ -25,6 +25,7 @@ describe('rolling pass calculator', () => {
       flywheelRadiusOfGyrationFt: 9.9,
       barExitLengthM: 2.1,
       indicatedHp: 650,
+      frictionCoefficient: 0.3,
     });
   });
 
@@ -51,6 +52,10 @@ describe('rolling pass calculator', () => {
         .join(' '),
     ).toMatch(/Flywheel speed drop/);
     expect(screen.getByText('Test caution from the server.')).toBeInTheDocument();
+    // Which model each figure used, and the bite limit with its friction coefficient.
+    const models = screen.getByTestId('rolling-pass-models');
+    expect(models).toHaveTextContent('Roll force: L·w·σ̄ × friction factor 1.2, simple slab estimate');
+    expect(models).toHaveTextContent('Bite: Δh ≤ μ²·R with μ = 0.3 — largest draft 18.3 mm');
     await waitFor(() => expect(fetchSpy.mock.calls.some(([u]) => String(u).endsWith('/calculations/rolling-pass'))).toBe(true));
   });
 });

@@ -4,6 +4,7 @@ import type { FlowStressDto, PassWarningCode, PassWarningDto } from '@crankjourn
 
 /** The warning's short name, so that shape and words carry it as well as colour. */
 export const PASS_WARNING_TITLES: Record<PassWarningCode, string> = {
+  bite: 'The rolls will not bite',
   stand_force: 'Stand overloaded',
   speed_drop: 'Flywheel speed drop',
   stall: 'Engine would stall',

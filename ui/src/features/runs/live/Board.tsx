@@ -1,7 +1,13 @@
 import { Box, Group, Paper, SimpleGrid, Stack, Text, Title } from '@mantine/core';
 import { Sparkline } from '@mantine/charts';
 import dayjs from 'dayjs';
-import type { BoardPoint, MeasurementKind, MeasurementPointDto } from '@crankjournal/shared-types';
+import {
+  ALARM_KIND_WORDS,
+  type BoardPoint,
+  type LimitForecastDto,
+  type MeasurementKind,
+  type MeasurementPointDto,
+} from '@crankjournal/shared-types';
 import { useUnits } from '../../units/useUnits';
 import { AlarmStateBadge, alarmLook } from '../../alarms/components/alarm-look';
 
@@ -91,8 +97,29 @@ function BoardTile({ point, board }: { point: EnginePoint; board: BoardPoint | n
         {board?.alarmState && board.alarmState !== 'normal' && (
           <AlarmStateBadge state={board.alarmState} priority={board.alarmPriority} short size="md" />
         )}
+        {board?.forecast && <ForecastLine forecast={board.forecast} />}
       </Stack>
     </Paper>
+  );
+}
+
+/**
+ * Time to the next limit at the present trend ("High-high in about 7 min"); under the setting it is an advisory
+ * pre-alarm (the lowest priority: no banner, no acknowledgement). The method and window are stated with it.
+ */
+export function ForecastLine({ forecast: f }: { forecast: LimitForecastDto }) {
+  const minutes = Math.max(1, Math.round(f.minutesToLimit));
+  return (
+    <Stack gap={0} data-testid="forecast" data-pre-alarm={f.preAlarm}>
+      <Text fz="sm" fw={f.preAlarm ? 700 : 500}>
+        {f.preAlarm ? 'Pre-alarm (advisory): ' : ''}
+        {ALARM_KIND_WORDS[f.limitKind]} in about {minutes} min at the present trend
+      </Text>
+      <Text fz="xs" c="dimmed">
+        {f.method}
+        {f.preAlarm ? '' : ` Pre-alarm under ${f.preAlarmMinutes} min.`}
+      </Text>
+    </Stack>
   );
 }
 

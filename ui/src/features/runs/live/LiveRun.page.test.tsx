@@ -69,6 +69,9 @@ const alarm: AlarmDto = {
   shelvedUntil: null,
   shelveReason: null,
   shelvedByName: null,
+  suppression: null,
+  suppressedById: null,
+  suppressedByLabel: null,
   updatedAt: '2025-06-14T10:10:00Z',
 };
 

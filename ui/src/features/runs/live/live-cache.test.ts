@@ -42,6 +42,9 @@ const alarm = (over: Partial<AlarmDto>): AlarmDto => ({
   shelvedUntil: null,
   shelveReason: null,
   shelvedByName: null,
+  suppression: null,
+  suppressedById: null,
+  suppressedByLabel: null,
   updatedAt: '2025-06-14T10:00:00Z',
   ...over,
 });

@@ -1,0 +1,31 @@
+import { Injectable } from '@nestjs/common';
+import { InjectRepository } from '@nestjs/typeorm';
+import type { Repository } from 'typeorm';
+import { SiteSettings } from './site-settings.entity.js';
+
+export interface SiteSettingsView {
+  worksName: string;
+  timeZone: string;
+  wetSignature: boolean;
+}
+
+/** The works' settings, read by every printed record. */
+@Injectable()
+export class SiteService {
+  constructor(@InjectRepository(SiteSettings) private readonly repo: Repository<SiteSettings>) {}
+
+  async settings(): Promise<SiteSettingsView> {
+    const row = await this.repo.findOne({ where: { id: 1 } });
+    return {
+      worksName: row?.worksName ?? 'The works',
+      timeZone: row?.timeZone ?? 'UTC',
+      wetSignature: row?.wetSignature ?? true,
+    };
+  }
+
+  async update(patch: Partial<SiteSettingsView>): Promise<SiteSettingsView> {
+    const now = await this.settings();
+    await this.repo.save(this.repo.create({ id: 1, ...now, ...patch }));
+    return this.settings();
+  }
+}
