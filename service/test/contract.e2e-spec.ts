@@ -243,6 +243,7 @@ describe('live answers keep to the description', () => {
       '/api/maintenance/work-records/{id}': await first('/api/maintenance/work-records'),
     };
     const version = String(template.versions[0]?.version ?? 1);
+    const queryValues: Record<string, string> = { engineId: engines[0].id, year: String(new Date().getFullYear()) };
 
     const problems: string[] = [];
     const noData: string[] = [];
@@ -263,10 +264,8 @@ describe('live answers keep to the description', () => {
       }
       const query = (doc.paths[path].get?.parameters ?? [])
         .filter((q) => 'in' in q && q.in === 'query' && q.required)
-        .map(
-          (q) =>
-            `${(q as { name: string }).name}=${{ engineId: engines[0].id, year: String(new Date().getFullYear()) }[(q as { name: string }).name] ?? ''}`,
-        );
+        .map((q) => (q as { name: string }).name)
+        .map((name) => `${name}=${queryValues[name] ?? ''}`);
       if (query.length) real += `?${query.join('&')}`;
       const res = await call('get', path, real);
       if (res.status >= 400) problems.push(`GET ${real} answered ${res.status}: ${JSON.stringify(res.body).slice(0, 300)}`);
