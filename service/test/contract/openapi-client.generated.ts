@@ -75,6 +75,9 @@ export interface paths {
     get: operations["RunsController_list"];
     post: operations["RunsController_create"];
   };
+  "/api/runs/alarm-figures": {
+    get: operations["RunsController_seasonAlarmFigures"];
+  };
   "/api/runs/{id}": {
     get: operations["RunsController_detail"];
     patch: operations["RunsController_update"];
@@ -91,6 +94,9 @@ export interface paths {
   "/api/runs/{id}/board": {
     get: operations["RunsController_board"];
   };
+  "/api/runs/{id}/alarm-figures": {
+    get: operations["RunsController_runAlarmFigures"];
+  };
   "/api/runs/{id}/alarms": {
     get: operations["RunsController_runAlarms"];
   };
@@ -102,9 +108,6 @@ export interface paths {
   };
   "/api/runs/{id}/readings.csv": {
     get: operations["RunsController_csvExport"];
-  };
-  "/api/runs/{id}/log-sheet.pdf": {
-    get: operations["RunsController_pdf"];
   };
   "/api/readings/{id}/amendments": {
     post: operations["ReadingsController_amend"];
@@ -186,6 +189,10 @@ export interface paths {
   };
   "/api/checklists/{id}/amendments": {
     post: operations["ChecklistsController_amend"];
+  };
+  "/api/site/settings": {
+    get: operations["SiteController_settings"];
+    put: operations["SiteController_update"];
   };
   "/api/mill/mills": {
     get: operations["MillController_list"];
@@ -436,6 +443,9 @@ export interface paths {
      */
     post: operations["LubricationCalculationsController_jackCapacity"];
   };
+  "/api/runs/{id}/log-sheet.pdf": {
+    get: operations["RecordsController_runLogSheet"];
+  };
 }
 
 export type webhooks = Record<string, never>;
@@ -530,10 +540,14 @@ export interface components {
       code: string;
       label: string;
       /** @enum {string} */
-      kind: "throttle_pressure" | "receiver_pressure" | "vacuum" | "speed" | "bearing_temperature" | "oil_pressure" | "oil_feed_rate" | "ambient_temperature" | "other";
+      kind: "throttle_pressure" | "receiver_pressure" | "vacuum" | "barometer" | "speed" | "bearing_temperature" | "oil_pressure" | "oil_feed_rate" | "ambient_temperature" | "other";
       /** @enum {string} */
       unit: "psig" | "psia" | "kPa" | "bar" | "inHg" | "rpm" | "degF" | "degC" | "drops/min" | "pint/h" | "mL/h" | "psi" | "in" | "mm";
       sequence: number;
+      /** @description an absolute limit suppresses the rise-above-ambient and rate-of-rise alarms */
+      relatedSuppression?: boolean;
+      /** @description run states in which the point's alarms are suppressed */
+      suppressedInStates?: ("planned" | "preparing" | "cleared" | "running" | "stopped" | "closed" | "abandoned")[];
     };
     EngineWriteDto: {
       /** @example No. 2 engine */
@@ -711,6 +725,7 @@ export interface components {
       reason: string;
       overrideReason?: string;
     };
+    UpdateSiteSettingsDto: Record<string, never>;
     MillStandWriteDto: {
       /** @description 1 = the first stand the bar meets */
       position: number;
@@ -1029,6 +1044,13 @@ export interface components {
       standMaxForceKn: number;
       /** @description 1 = frictionless estimate; 1.2 allows about 20 % for friction (default 1.2) */
       frictionFactor?: number;
+      /** @description roll–stock friction coefficient for the bite check (Δh ≤ μ²·R) and the plane-strain geometry factor; default 0.3 (hot rolling) */
+      frictionCoefficient?: number;
+      /**
+       * @description 'simple' (default): L·w·σ̄·frictionFactor; 'plane_strain': L·w·(2/√3)·σ̄·Q with the roll-gap geometry factor Q
+       * @enum {string}
+       */
+      forceModel?: "simple" | "plane_strain";
       /** @description mean flow stress, MPa, to use instead of the hot-steel equation */
       meanFlowStressMPa?: number;
       /**
@@ -1131,6 +1153,8 @@ export interface components {
       receiverPressurePsig?: Record<string, never>;
       /** @description inHg; leave out to use the nearest reading */
       vacuumInHg?: Record<string, never>;
+      /** @description The site barometer, inHg absolute; leave out to use the run's nearest barometer reading, else the standard atmosphere (29.92 inHg) */
+      barometerInHg?: Record<string, never>;
       notes?: Record<string, never>;
       /** @description One card per cylinder end (more may be added later) */
       cards: components["schemas"]["CardInputDto"][];
@@ -1151,6 +1175,8 @@ export interface components {
       receiverPressurePsig?: Record<string, never>;
       /** @description inHg; leave out to use the nearest reading */
       vacuumInHg?: Record<string, never>;
+      /** @description The site barometer, inHg absolute; leave out to use the run's nearest barometer reading, else the standard atmosphere (29.92 inHg) */
+      barometerInHg?: Record<string, never>;
       notes?: Record<string, never>;
       reason: string;
     };
@@ -1588,7 +1614,50 @@ export interface components {
       shelvedUntil: string | null;
       shelveReason: string | null;
       shelvedByName: string | null;
+      /** @description Suppressed alarms are recorded but not annunciated nor waiting: 'design' (by a higher alarm of the point) or 'state'. */
+      suppression: components["schemas"]["AlarmSuppression"] | null;
+      /** @description The alarm that suppresses this one (design suppression). */
+      suppressedById: string | null;
+      /** @description e.g. "High-high" (design) or "run state Preparing" (state). */
+      suppressedByLabel: string | null;
       updatedAt: string;
+    };
+    /** @description The alarm system's own figures for a run or a season, against the standards' suggested targets. */
+    AlarmFiguresDto: {
+      from: string;
+      to: string;
+      minutes: number;
+      runs: number;
+      total: number;
+      averagePerTenMinutes: number;
+      peakPerTenMinutes: number;
+      floods: number;
+      floodSharePercent: number;
+      topTen: {
+          key: string;
+          count: number;
+          sharePercent: number;
+        }[];
+      chattering: ({
+          key: string;
+          count: number;
+          suggestedDeadband: number | null;
+          unit: string;
+        })[];
+      stale: {
+          key: string;
+          minutes: number;
+        }[];
+      standingAtStart: number;
+      /** @description One row per figure, with its target and whether it is met (also the log sheet's section). */
+      rows: {
+          label: string;
+          value: string;
+          target: string;
+          met: boolean;
+        }[];
+      /** @description Where the targets come from, in words. */
+      basis: string;
     };
     /** @enum {string} */
     AlarmKind: "high" | "high_high" | "low" | "rate_of_rise" | "above_ambient" | "above_mawp" | "overspeed";
@@ -1596,6 +1665,8 @@ export interface components {
     AlarmPriority: "high" | "high_high";
     /** @enum {string} */
     AlarmState: "active_unacknowledged" | "active_acknowledged" | "returned_unacknowledged" | "normal" | "shelved";
+    /** @enum {string} */
+    AlarmSuppression: "design" | "state";
     AmendBrakeFigureRequest: {
       reason: string;
       measuredAt?: string;
@@ -1641,6 +1712,7 @@ export interface components {
       throttlePressurePsig?: number | null;
       receiverPressurePsig?: number | null;
       vacuumInHg?: number | null;
+      barometerInHg?: number | null;
       notes?: string | null;
       reason: string;
     };
@@ -1842,13 +1914,17 @@ export interface components {
       trend: number[];
       alarmState: components["schemas"]["AlarmState"] | null;
       alarmPriority: components["schemas"]["AlarmPriority"] | null;
+      /** @description Time to the next limit at the present trend, when the trend is steady enough to say so. */
+      forecast?: components["schemas"]["LimitForecastDto"] | null;
     };
     BrakeComparison: {
       figureId: string;
       measuredAt: string;
       brakeHorsepower: number;
-      /** @description Fraction (brake ÷ indicated). */
-      mechanicalEfficiency: number;
+      /** @description Fraction (brake ÷ indicated); null for an incomplete set or inputs that give more than 1 (see mechanicalEfficiencyMissing). */
+      mechanicalEfficiency: number | null;
+      /** @description Why there is no mechanical efficiency (null when it is given). */
+      mechanicalEfficiencyMissing: string | null;
     };
     BrakeFigureDto: {
       id: string;
@@ -1973,7 +2049,7 @@ export interface components {
       role: components["schemas"]["CylinderRole"];
       indicatedHorsepower: number;
       indicatedKilowatts: number;
-      /** @description Share of the engine's indicated work (fraction), when every cylinder has cards. */
+      /** @description Share of the engine's indicated work (fraction), only for a complete set (see CardSetResults.workSharesMissing). */
       workShare: number | null;
       admissionPressurePsia: number | null;
       backPressurePsia: number | null;
@@ -1994,6 +2070,9 @@ export interface components {
       receiverSource: components["schemas"]["FigureSource"] | null;
       vacuumInHg: number | null;
       vacuumSource: components["schemas"]["FigureSource"] | null;
+      /** @description The site barometer the vacuum and gauge readings were turned absolute with, inHg (null: the standard atmosphere). */
+      barometerInHg: number | null;
+      barometerSource: components["schemas"]["FigureSource"] | null;
       notes: string | null;
       cylinders: components["schemas"]["CardSetCylinder"][];
       cards: components["schemas"]["CardDto"][];
@@ -2026,6 +2105,8 @@ export interface components {
       receiverSource: components["schemas"]["FigureSource"] | null;
       vacuumInHg: number | null;
       vacuumSource: components["schemas"]["FigureSource"] | null;
+      barometerInHg: number | null;
+      barometerSource: components["schemas"]["FigureSource"] | null;
       cylinders: components["schemas"]["CardSetCylinder"][];
       cards: ({
           cylinderId: string;
@@ -2048,11 +2129,16 @@ export interface components {
           end: components["schemas"]["CylinderEnd"];
         }[];
       cylinders: components["schemas"]["CardSetCylinderResult"][];
+      /** @description The engine's indicated power for a complete set; for an incomplete one, the sum of the cards present. */
       totalIndicatedHorsepower: number;
       totalIndicatedKilowatts: number;
-      /** @description All the work referred to the largest cylinder, psi (null until every cylinder has a card). */
+      /** @description All the work referred to the largest cylinder, psi (null until every end of every cylinder has a card). */
       referredMeanEffectivePressurePsi: number | null;
       referredToCylinderLabel: string | null;
+      /** @description Why there is no referred MEP (null when it is given). */
+      referredMeanEffectivePressureMissing: string | null;
+      /** @description Why the cylinders carry no work share (null when they do). */
+      workSharesMissing: string | null;
       receiverPressurePsig: number | null;
       lowPressureAdmissionPsig: number | null;
       /** @description Receiver pressure less the low-pressure cylinder's admission pressure read off its cards, psi. */
@@ -2060,6 +2146,13 @@ export interface components {
       brake: components["schemas"]["BrakeComparison"] | null;
       /** @description Steam accounted for by the first cylinder's diagrams, lb per indicated horsepower-hour of the engine. */
       steamAccountedForLbPerIhpHour: number | null;
+      /** @description The atmosphere vacuum and gauge readings were turned absolute with, psia. */
+      atmosphericPressurePsia: number;
+      /**
+       * @description 'barometer': the site's barometer reading; 'standard': no barometer known, the standard atmosphere (see notes).
+       * @enum {string}
+       */
+      atmosphereBasis: "barometer" | "standard";
       /** @description What could not be worked out, and why. */
       notes: string[];
       computedAt: string;
@@ -2380,6 +2473,8 @@ export interface components {
       receiverPressurePsig?: number | null;
       /** @description Leave out to use the nearest vacuum reading. */
       vacuumInHg?: number | null;
+      /** @description The site barometer, inHg absolute; leave out to use the nearest barometer reading (else the standard atmosphere). */
+      barometerInHg?: number | null;
       notes?: string | null;
       cards: components["schemas"]["CardInput"][];
     };
@@ -2486,6 +2581,8 @@ export interface components {
       remaining: number;
       fractionRemaining: number;
       estimatedDueDate: string | null;
+      /** @description Why there is no estimated date (a counter without a usage rate: "cannot be predicted"). */
+      estimateNote: string | null;
       status: components["schemas"]["DueStatus"];
     };
     DueList: {
@@ -2561,6 +2658,10 @@ export interface components {
           maxRiseRatePerMin?: number | null;
           maxRiseAboveAmbient?: number | null;
           deadband?: number | null;
+          /** @description An absolute limit (high-high, high) suppresses this point's rise-above-ambient and rate-of-rise alarms; default true. */
+          relatedSuppression?: boolean;
+          /** @description Run states in which this point's alarms are suppressed (not meaningful), e.g. oil pressure low while 'preparing'. */
+          suppressedInStates?: components["schemas"]["RunState"][];
           bearingLabel?: string | null;
           bearingId?: string | null;
           cylinderLabel?: string | null;
@@ -2701,10 +2802,19 @@ export interface components {
     };
     IndicatedPowerResponse: {
       cylinders: components["schemas"]["IndicatedPowerCylinderResult"][];
+      /** @description Every end of every cylinder has a card. When false the totals are the sum of the cards present, not the engine's power. */
+      complete: boolean;
+      /** @description The ends without a card. */
+      missingEnds: {
+          cylinderLabel: string;
+          end: components["schemas"]["CylinderEnd"];
+        }[];
       totalIndicatedHorsepower: number;
       totalIndicatedKilowatts: number;
-      /** @description Every cylinder's work referred to the largest cylinder's area, psi. */
-      referredMeanEffectivePressurePsi: number;
+      /** @description Every cylinder's work referred to the largest cylinder's area, psi; null for an incomplete set. */
+      referredMeanEffectivePressurePsi: number | null;
+      /** @description Why the referred MEP is absent (null when it is given). */
+      referredMeanEffectivePressureMissing: string | null;
     };
     IngestResult: {
       stored: number;
@@ -2926,6 +3036,19 @@ export interface components {
       changedBy: string;
       changedByName: string;
       changedAt: string;
+    };
+    LimitForecastDto: {
+      /** @description e.g. 'high_high'. */
+      limitKind: components["schemas"]["AlarmKind"];
+      limit: number;
+      unit: string;
+      minutesToLimit: number;
+      ratePerMin: number;
+      /** @description Under the pre-alarm setting: an advisory pre-alarm, the lowest priority (not in the alarm record). */
+      preAlarm: boolean;
+      preAlarmMinutes: number;
+      /** @description The method and its window, in words, for the screen. */
+      method: string;
     };
     LinkRunRequest: {
       runId: string;
@@ -3174,7 +3297,7 @@ export interface components {
     /** @enum {string} */
     MeasurementItemKind: "clearance_lead_wire" | "clearance_feeler" | "web_deflection" | "shaft_level" | "squareness" | "bedplate_level" | "alignment_offset" | "other";
     /** @enum {string} */
-    MeasurementKind: "throttle_pressure" | "receiver_pressure" | "vacuum" | "speed" | "bearing_temperature" | "oil_pressure" | "oil_feed_rate" | "ambient_temperature" | "other";
+    MeasurementKind: "throttle_pressure" | "receiver_pressure" | "vacuum" | "barometer" | "speed" | "bearing_temperature" | "oil_pressure" | "oil_feed_rate" | "ambient_temperature" | "other";
     MeasurementPointDto: {
       id?: string;
       /** @description Short stable code used by loggers and CSV files, e.g. "MB1-T". */
@@ -3192,6 +3315,10 @@ export interface components {
       maxRiseRatePerMin?: number | null;
       maxRiseAboveAmbient?: number | null;
       deadband?: number | null;
+      /** @description An absolute limit (high-high, high) suppresses this point's rise-above-ambient and rate-of-rise alarms; default true. */
+      relatedSuppression?: boolean;
+      /** @description Run states in which this point's alarms are suppressed (not meaningful), e.g. oil pressure low while 'preparing'. */
+      suppressedInStates?: components["schemas"]["RunState"][];
       bearingLabel?: string | null;
       bearingId?: string | null;
       cylinderLabel?: string | null;
@@ -3382,6 +3509,25 @@ export interface components {
       meanStrainRatePerS: number;
       flowStress: components["schemas"]["FlowStressDto"];
       frictionFactor: number;
+      /** @description roll–stock friction coefficient the bite check (and a plane-strain force) used */
+      frictionCoefficient: number;
+      /** @description the largest draft the rolls bite unaided, μ²·R, mm */
+      maxBiteDraftMm: number;
+      bites: boolean;
+      /**
+       * @description 'simple': L·w·σ̄·frictionFactor; 'plane_strain': L·w·(2/√3)·σ̄·Q
+       * @enum {string}
+       */
+      forceModel: "simple" | "plane_strain";
+      /** @description Q, the roll-gap geometry factor (plane-strain model only) */
+      geometryFactor: number | null;
+      /** @description which model each figure used, in words */
+      models: {
+        strain: string;
+        flowStress: string;
+        force: string;
+        bite: string;
+      };
       forceKn: number;
       forceLbf: number;
       torquePerRollKnM: number;
@@ -3417,7 +3563,7 @@ export interface components {
       recoveryTimeS: number | null;
     };
     /** @enum {string} */
-    PassWarningCode: "stand_force" | "speed_drop" | "stall" | "no_surplus_power";
+    PassWarningCode: "stand_force" | "bite" | "speed_drop" | "stall" | "no_surplus_power";
     PassWarningDto: {
       code: components["schemas"]["PassWarningCode"];
       message: string;
@@ -3425,7 +3571,10 @@ export interface components {
     PlanDue: {
       status: components["schemas"]["DueStatus"];
       governing: components["schemas"]["DueCriterion"];
+      /** @description Never a future date for an overdue plan. */
       dueDate: string | null;
+      /** @description Said beside or instead of the date: overdue on a counter, or "cannot be predicted". */
+      dueDateNote: string | null;
       criteria: components["schemas"]["DueCriterionDto"][];
     };
     PointConsumption: {
@@ -3627,6 +3776,10 @@ export interface components {
       standMaxForceKn: number;
       frictionFactor?: number;
       meanFlowStressMPa?: number;
+      /** @description roll–stock friction coefficient for the bite check; default 0.3 (hot rolling) */
+      frictionCoefficient?: number;
+      /** @enum {string} */
+      forceModel?: "simple" | "plane_strain";
       /** @description the flywheel group: give all of flywheelMassLb … indicatedHp, or none */
       flywheelMassLb?: number;
       flywheelRadiusOfGyrationFt?: number;
@@ -3657,6 +3810,25 @@ export interface components {
       meanStrainRatePerS: number;
       flowStress: components["schemas"]["FlowStressDto"];
       frictionFactor: number;
+      /** @description roll–stock friction coefficient the bite check (and a plane-strain force) used */
+      frictionCoefficient: number;
+      /** @description the largest draft the rolls bite unaided, μ²·R, mm */
+      maxBiteDraftMm: number;
+      bites: boolean;
+      /**
+       * @description 'simple': L·w·σ̄·frictionFactor; 'plane_strain': L·w·(2/√3)·σ̄·Q
+       * @enum {string}
+       */
+      forceModel: "simple" | "plane_strain";
+      /** @description Q, the roll-gap geometry factor (plane-strain model only) */
+      geometryFactor: number | null;
+      /** @description which model each figure used, in words */
+      models: {
+        strain: string;
+        flowStress: string;
+        force: string;
+        bite: string;
+      };
       forceKn: number;
       forceLbf: number;
       torquePerRollKnM: number;
@@ -4058,11 +4230,23 @@ export interface components {
       invitationPending: boolean;
       createdAt: string;
     };
+    WebDeflectionPair: {
+      /** @enum {string} */
+      pair: "vertical" | "horizontal";
+      /** @description |difference| of the pair's readings, in their unit */
+      deflection: number;
+      /** @description the limit given on the pair's readings (null: none given) */
+      limit: number | null;
+      /** @enum {string} */
+      status: "within" | "above" | "no_tolerance";
+    };
     WebDeflectionSummary: {
       /** @description max − min of the web deflection readings, in their unit. */
       spread: number;
       unit: components["schemas"]["MaintenanceUnit"];
       readings: number;
+      /** @description The trade's judgement, pair by pair: vertical (90° against 270°) and horizontal (head-end dead centre against the mean of the readings either side of crank-end dead centre), each against its own limit (the tolerance given on that pair's readings). A pair without both readings is absent. */
+      pairs: components["schemas"]["WebDeflectionPair"][];
     };
     WithdrawQualificationRequest: {
       reason: string;
@@ -4898,6 +5082,28 @@ export interface operations {
       };
     };
   };
+  RunsController_seasonAlarmFigures: {
+    responses: {
+      /** @description AlarmFiguresDto */
+      200: {
+        content: {
+          "application/json": components["schemas"]["AlarmFiguresDto"];
+        };
+      };
+      /** @description Not signed in, or the access token (or logger key) is missing, expired or revoked */
+      401: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Signed in, but the role may not do this */
+      403: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+    };
+  };
   RunsController_detail: {
     responses: {
       /** @description RunDetail */
@@ -5088,6 +5294,34 @@ export interface operations {
       };
     };
   };
+  RunsController_runAlarmFigures: {
+    responses: {
+      /** @description AlarmFiguresDto */
+      200: {
+        content: {
+          "application/json": components["schemas"]["AlarmFiguresDto"];
+        };
+      };
+      /** @description Not signed in, or the access token (or logger key) is missing, expired or revoked */
+      401: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Signed in, but the role may not do this */
+      403: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Nothing with that id */
+      404: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+    };
+  };
   RunsController_runAlarms: {
     responses: {
       /** @description A list of AlarmDto */
@@ -5189,34 +5423,6 @@ export interface operations {
       200: {
         content: {
           "text/csv": string;
-        };
-      };
-      /** @description Not signed in, or the access token (or logger key) is missing, expired or revoked */
-      401: {
-        content: {
-          "application/json": components["schemas"]["ApiError"];
-        };
-      };
-      /** @description Signed in, but the role may not do this */
-      403: {
-        content: {
-          "application/json": components["schemas"]["ApiError"];
-        };
-      };
-      /** @description Nothing with that id */
-      404: {
-        content: {
-          "application/json": components["schemas"]["ApiError"];
-        };
-      };
-    };
-  };
-  RunsController_pdf: {
-    responses: {
-      /** @description The run log as a PDF */
-      200: {
-        content: {
-          "application/pdf": string;
         };
       };
       /** @description Not signed in, or the access token (or logger key) is missing, expired or revoked */
@@ -6205,6 +6411,69 @@ export interface operations {
       };
       /** @description Nothing with that id */
       404: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+    };
+  };
+  SiteController_settings: {
+    responses: {
+      /** @description The works' settings */
+      200: {
+        content: {
+          "application/json": {
+            worksName: string;
+            timeZone: string;
+            wetSignature: boolean;
+          };
+        };
+      };
+      /** @description Not signed in, or the access token (or logger key) is missing, expired or revoked */
+      401: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Signed in, but the role may not do this */
+      403: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+    };
+  };
+  SiteController_update: {
+    requestBody: {
+      content: {
+        "application/json": components["schemas"]["UpdateSiteSettingsDto"];
+      };
+    };
+    responses: {
+      /** @description The works' settings */
+      200: {
+        content: {
+          "application/json": {
+            worksName: string;
+            timeZone: string;
+            wetSignature: boolean;
+          };
+        };
+      };
+      /** @description Bad request: the body, query or path failed validation (the message says which field and why) */
+      400: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Not signed in, or the access token (or logger key) is missing, expired or revoked */
+      401: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Signed in, but the role may not do this */
+      403: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -8567,6 +8836,34 @@ export interface operations {
       };
       /** @description Signed in, but the role may not do this */
       403: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+    };
+  };
+  RecordsController_runLogSheet: {
+    responses: {
+      /** @description The run log sheet as a PDF */
+      200: {
+        content: {
+          "application/pdf": string;
+        };
+      };
+      /** @description Not signed in, or the access token (or logger key) is missing, expired or revoked */
+      401: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Signed in, but the role may not do this */
+      403: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Nothing with that id */
+      404: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
