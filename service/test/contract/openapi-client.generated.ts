@@ -5083,11 +5083,23 @@ export interface operations {
     };
   };
   RunsController_seasonAlarmFigures: {
+    parameters: {
+      query: {
+        engineId: string;
+        year: number;
+      };
+    };
     responses: {
       /** @description AlarmFiguresDto */
       200: {
         content: {
           "application/json": components["schemas"]["AlarmFiguresDto"];
+        };
+      };
+      /** @description Bad request: the body, query or path failed validation (the message says which field and why) */
+      400: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
         };
       };
       /** @description Not signed in, or the access token (or logger key) is missing, expired or revoked */
