@@ -3,12 +3,13 @@ import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import { NestFactory } from '@nestjs/core';
 import type { NestExpressApplication } from '@nestjs/platform-express';
-import { DocumentBuilder, SwaggerModule } from '@nestjs/swagger';
+import { SwaggerModule } from '@nestjs/swagger';
 import helmet from 'helmet';
 import { pinoHttp } from 'pino-http';
 import express from 'express';
 import { AppModule } from './app.module.js';
 import { AppConfig } from './config/app-config.service.js';
+import { buildApiDocument } from './common/openapi/openapi-document.js';
 
 /** Builds the application with every global piece; used by main.ts and the end-to-end tests. */
 export async function createApp(opts: { logger?: boolean } = {}): Promise<NestExpressApplication> {
@@ -49,15 +50,7 @@ export async function createApp(opts: { logger?: boolean } = {}): Promise<NestEx
   app.setGlobalPrefix('api');
   app.enableShutdownHooks();
 
-  const doc = SwaggerModule.createDocument(
-    app,
-    new DocumentBuilder()
-      .setTitle('Crankjournal API')
-      .setDescription('Run logbook, start gate, alarms and engineering calculations for a historic steam mill engine.')
-      .setVersion('0.1.0')
-      .addBearerAuth()
-      .build(),
-  );
+  const doc = buildApiDocument(app);
   SwaggerModule.setup('api/docs', app, doc, { jsonDocumentUrl: 'api/docs-json' });
 
   const uiDist = config.get('UI_DIST') ?? join(process.cwd(), '..', 'ui', 'dist');

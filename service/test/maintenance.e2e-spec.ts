@@ -638,7 +638,7 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
       expect(doc.paths['/api/calculations/journal-friction']).toBeDefined();
       const req = doc.components.schemas.JournalFrictionRequestDto.properties!;
       expect(Object.keys(req).sort()).toEqual(['diameterIn', 'lengthIn', 'loadLbf', 'radialClearanceIn', 'speedRpm', 'viscosityReyn']);
-      const out = doc.components.schemas.JournalFrictionResponseDto.properties!;
+      const out = doc.components.schemas.JournalFrictionResponse.properties!;
       expect(Object.keys(out)).toEqual(
         expect.arrayContaining(['frictionTorqueLbfIn', 'frictionCoefficient', 'powerLossHp', 'sommerfeldNumber', 'unitLoadPsi']),
       );

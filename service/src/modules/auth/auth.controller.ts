@@ -1,10 +1,11 @@
 import { Body, Controller, Get, HttpCode, Patch, Post, UseGuards } from '@nestjs/common';
-import { ApiBearerAuth, ApiTags } from '@nestjs/swagger';
+import { ApiBearerAuth, ApiTags, ApiBody } from '@nestjs/swagger';
 import type { SessionUser, TokenPair } from '@crankjournal/shared-types';
 import { Public } from '../../common/decorators/public.decorator.js';
 import { AnyRole } from '../../common/decorators/roles.decorator.js';
 import { CurrentUser, type AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { UsersService } from '../users/users.service.js';
+import { ApiAnswer, ApiNoContent } from '../../common/openapi/api-answer.decorator.js';
 import { AuthService } from './auth.service.js';
 import { LoginDto } from './dto/login.dto.js';
 import { RefreshDto } from './dto/refresh.dto.js';
@@ -22,14 +23,25 @@ export class AuthController {
     private readonly users: UsersService,
   ) {}
 
+  @ApiAnswer('TokenPair')
   @Public()
   @UseGuards(LoginThrottlerGuard)
+  @ApiBody({
+    type: LoginDto,
+    examples: {
+      demoOperator: {
+        summary: 'The demo operator (demo data only)',
+        value: { email: 'operator@alderforge.example', password: 'crankjournal-demo' },
+      },
+    },
+  })
   @Post('login')
   @HttpCode(200)
   login(@Body() dto: LoginDto): Promise<TokenPair> {
     return this.auth.login(dto.email, dto.password);
   }
 
+  @ApiAnswer('TokenPair')
   @Public()
   @Post('refresh')
   @HttpCode(200)
@@ -37,6 +49,7 @@ export class AuthController {
     return this.auth.refresh(dto.refreshToken);
   }
 
+  @ApiAnswer('TokenPair')
   @Public()
   @UseGuards(LoginThrottlerGuard)
   @Post('accept-invitation')
@@ -45,6 +58,7 @@ export class AuthController {
     return this.auth.acceptInvitation(dto.token, dto.password);
   }
 
+  @ApiNoContent()
   @ApiBearerAuth()
   @AnyRole()
   @Post('logout')
@@ -54,6 +68,7 @@ export class AuthController {
   }
 
   /** Ends every sign-in of the caller, on every device: tokens and live connections. */
+  @ApiNoContent()
   @ApiBearerAuth()
   @AnyRole()
   @Post('logout-everywhere')
@@ -62,6 +77,7 @@ export class AuthController {
     await this.auth.endEverySession(me.id);
   }
 
+  @ApiAnswer('SessionUser')
   @ApiBearerAuth()
   @AnyRole()
   @Get('me')
@@ -69,6 +85,7 @@ export class AuthController {
     return this.auth.sessionUser(await this.users.get(me.id));
   }
 
+  @ApiAnswer('SessionUser')
   @ApiBearerAuth()
   @AnyRole()
   @Patch('me')
@@ -76,6 +93,7 @@ export class AuthController {
     return this.auth.sessionUser(await this.users.updatePreferences(me.id, dto));
   }
 
+  @ApiNoContent()
   @ApiBearerAuth()
   @AnyRole()
   @Post('password')
@@ -84,6 +102,7 @@ export class AuthController {
     await this.auth.changePassword(me.id, dto.currentPassword, dto.newPassword);
   }
 
+  @ApiNoContent()
   @ApiBearerAuth()
   @AnyRole()
   @Post('signing-pin')

@@ -5,6 +5,7 @@ import type { ChecklistTemplateDetail, ChecklistTemplateSummary, ChecklistTempla
 import { AnyRole, Roles } from '../../common/decorators/roles.decorator.js';
 import { CurrentUser, type AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { IdParamDto } from '../../common/dto/id-param.dto.js';
+import { ApiAnswer, ApiFileAnswer } from '../../common/openapi/api-answer.decorator.js';
 import { ChecklistTemplatesService } from './checklist-templates.service.js';
 import { ChecklistPdfService } from './checklist-pdf.service.js';
 import {
@@ -25,24 +26,28 @@ export class ChecklistTemplatesController {
     private readonly pdf: ChecklistPdfService,
   ) {}
 
+  @ApiAnswer('ChecklistTemplateSummary', { array: true })
   @Get()
   @AnyRole()
   list(@Query() q: TemplateQueryDto): Promise<ChecklistTemplateSummary[]> {
     return this.templates.list(q);
   }
 
+  @ApiAnswer('ChecklistTemplateDetail')
   @Post()
   @Roles('chief_engineer')
   create(@Body() dto: CreateChecklistTemplateDto, @CurrentUser() me: AuthUser): Promise<ChecklistTemplateDetail> {
     return this.templates.create(dto, me);
   }
 
+  @ApiAnswer('ChecklistTemplateDetail')
   @Get(':id')
   @AnyRole()
   detail(@Param() p: IdParamDto): Promise<ChecklistTemplateDetail> {
     return this.templates.detail(p.id);
   }
 
+  @ApiAnswer('ChecklistTemplateVersionDto')
   @Get(':id/versions/:version')
   @AnyRole()
   version(@Param() p: TemplateVersionParamDto): Promise<ChecklistTemplateVersionDto> {
@@ -50,6 +55,7 @@ export class ChecklistTemplatesController {
   }
 
   /** Saves the chief engineer's changes without publishing them. */
+  @ApiAnswer('ChecklistTemplateDetail')
   @Put(':id/draft')
   @Roles('chief_engineer')
   saveDraft(
@@ -60,6 +66,7 @@ export class ChecklistTemplatesController {
     return this.templates.saveDraft(p.id, dto, me);
   }
 
+  @ApiAnswer('ChecklistTemplateDetail')
   @Delete(':id/draft')
   @Roles('chief_engineer')
   discardDraft(@Param() p: IdParamDto): Promise<ChecklistTemplateDetail> {
@@ -67,6 +74,7 @@ export class ChecklistTemplatesController {
   }
 
   /** The draft becomes the next version. */
+  @ApiAnswer('ChecklistTemplateDetail')
   @Post(':id/publish')
   @HttpCode(200)
   @Roles('chief_engineer')
@@ -74,6 +82,7 @@ export class ChecklistTemplatesController {
     return this.templates.publish(p.id, dto.changeNote ?? '', me);
   }
 
+  @ApiAnswer('ChecklistTemplateDetail')
   @Post(':id/retire')
   @HttpCode(200)
   @Roles('chief_engineer')
@@ -81,6 +90,7 @@ export class ChecklistTemplatesController {
     return this.templates.setRetired(p.id, true);
   }
 
+  @ApiAnswer('ChecklistTemplateDetail')
   @Post(':id/reinstate')
   @HttpCode(200)
   @Roles('chief_engineer')
@@ -89,6 +99,7 @@ export class ChecklistTemplatesController {
   }
 
   /** The printable blank checklist of the current version (or the draft while nothing is published). */
+  @ApiFileAnswer('application/pdf', 'The blank checklist as a printable PDF')
   @Get(':id/blank.pdf')
   @AnyRole()
   async blank(@Param() p: IdParamDto, @CurrentUser() user: AuthUser, @Res({ passthrough: true }) res: Response): Promise<StreamableFile> {
@@ -97,6 +108,7 @@ export class ChecklistTemplatesController {
     return new StreamableFile(buffer, { type: 'application/pdf' });
   }
 
+  @ApiFileAnswer('application/pdf', 'That version of the blank checklist as a printable PDF')
   @Get(':id/versions/:version/blank.pdf')
   @AnyRole()
   async blankVersion(

@@ -19,6 +19,7 @@ import { AnyRole, Roles } from '../../common/decorators/roles.decorator.js';
 import { CurrentUser, type AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { IdParamDto } from '../../common/dto/id-param.dto.js';
 import { AppConfig } from '../../config/app-config.service.js';
+import { ApiAnswer, ApiFileAnswer } from '../../common/openapi/api-answer.decorator.js';
 import { ChecklistsService } from './checklists.service.js';
 import {
   AmendChecklistDto,
@@ -68,18 +69,21 @@ export class ChecklistsController {
   ) {}
 
   /** Every template of the run's engine with this run's progress on it, and the pre-lube freshness. */
+  @ApiAnswer('RunChecklistsOverview')
   @Get('runs/:id/checklists')
   @AnyRole()
   overview(@Param() p: IdParamDto): Promise<RunChecklistsOverview> {
     return this.checklists.overview(p.id);
   }
 
+  @ApiAnswer('ChecklistDetail')
   @Post('runs/:id/checklists')
   @Roles('operator', 'chief_engineer')
   start(@Param() p: IdParamDto, @Body() dto: StartChecklistDto, @CurrentUser() me: AuthUser): Promise<ChecklistDetail> {
     return this.checklists.start(p.id, dto.templateId, me);
   }
 
+  @ApiAnswer('ChecklistDetail')
   @Get('checklists/:id')
   @AnyRole()
   detail(@Param() p: IdParamDto): Promise<ChecklistDetail> {
@@ -87,6 +91,7 @@ export class ChecklistsController {
   }
 
   /** Records an item's value while the checklist is being filled (only the field of its kind; null clears it). */
+  @ApiAnswer('ChecklistDetail')
   @Put('checklists/:id/items/:itemKey')
   @Roles('operator', 'chief_engineer')
   fill(@Param() p: ChecklistItemParamDto, @Body() dto: FillChecklistItemDto, @CurrentUser() me: AuthUser): Promise<ChecklistDetail> {
@@ -94,6 +99,7 @@ export class ChecklistsController {
   }
 
   /** A photo for a photo item, sent as the raw body (PNG, JPEG or WebP, judged by content). */
+  @ApiAnswer('ChecklistDetail')
   @Put('checklists/:id/items/:itemKey/photo')
   @ApiConsumes('image/png', 'image/jpeg', 'image/webp')
   @Roles('operator', 'chief_engineer')
@@ -107,6 +113,7 @@ export class ChecklistsController {
     return this.checklists.putPhoto(p.id, p.itemKey, body, me);
   }
 
+  @ApiFileAnswer('image/*', "The item's photo (PNG, JPEG or WebP)")
   @Get('checklists/:id/items/:itemKey/photo')
   @AnyRole()
   async photo(@Param() p: ChecklistItemParamDto, @Res({ passthrough: true }) res: Response): Promise<StreamableFile> {
@@ -117,6 +124,7 @@ export class ChecklistsController {
   }
 
   /** The chief engineer accepts an out-of-range value with a reason (part of the record). */
+  @ApiAnswer('ChecklistDetail')
   @Post('checklists/:id/items/:itemKey/override')
   @HttpCode(200)
   @Roles('chief_engineer')
@@ -129,6 +137,7 @@ export class ChecklistsController {
   }
 
   /** Signs with the signer's password or PIN given again; needs the template's qualification. */
+  @ApiAnswer('ChecklistDetail')
   @Post('checklists/:id/sign')
   @HttpCode(200)
   @Roles('operator', 'chief_engineer')
@@ -137,6 +146,7 @@ export class ChecklistsController {
   }
 
   /** Corrects a signed checklist; the value as signed stays in the record. */
+  @ApiAnswer('ChecklistDetail')
   @Post('checklists/:id/amendments')
   @Roles('operator', 'chief_engineer')
   amend(@Param() p: IdParamDto, @Body() dto: AmendChecklistDto, @CurrentUser() me: AuthUser): Promise<ChecklistDetail> {

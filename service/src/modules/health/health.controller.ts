@@ -4,6 +4,7 @@ import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource } from 'typeorm';
 import type { HealthResponse } from '@crankjournal/shared-types';
 import { Public } from '../../common/decorators/public.decorator.js';
+import { ApiAnswer } from '../../common/openapi/api-answer.decorator.js';
 
 @ApiTags('health')
 @Controller('health')
@@ -11,6 +12,7 @@ export class HealthController {
   constructor(@InjectDataSource() private readonly db: DataSource) {}
 
   /** Answers 200 when the database answers, 503 when it does not. */
+  @ApiAnswer('HealthResponse')
   @Public()
   @Get()
   async health(): Promise<HealthResponse> {

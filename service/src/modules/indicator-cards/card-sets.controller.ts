@@ -17,6 +17,7 @@ import type { BrakeFigureDto, CardImageDto, CardSetDto, CardSetPreviewDto } from
 import { AnyRole, Roles } from '../../common/decorators/roles.decorator.js';
 import { CurrentUser, type AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { IdParamDto } from '../../common/dto/id-param.dto.js';
+import { ApiAnswer, ApiFileAnswer } from '../../common/openapi/api-answer.decorator.js';
 import { CardSetsService } from './card-sets.service.js';
 import { CardImagesService, readLimited } from './card-images.service.js';
 import {
@@ -39,6 +40,7 @@ export class CardSetsController {
     private readonly images: CardImagesService,
   ) {}
 
+  @ApiAnswer('CardSetDto', { array: true })
   @Get('runs/:runId/card-sets')
   @AnyRole()
   @ApiOperation({ summary: "A run's card sets with their cards, results and amendments, in time order" })
@@ -46,6 +48,7 @@ export class CardSetsController {
     return this.sets.list(p.runId);
   }
 
+  @ApiAnswer('CardSetDto')
   @Post('runs/:runId/card-sets')
   @Roles('chief_engineer', 'operator')
   @ApiOperation({ summary: 'Take a card set (speed and pressures from the nearest readings unless given); broadcast to the run room' })
@@ -53,6 +56,7 @@ export class CardSetsController {
     return this.sets.create(p.runId, dto, me);
   }
 
+  @ApiAnswer('CardSetPreviewDto')
   @Post('runs/:runId/card-sets/preview')
   @HttpCode(200)
   @Roles('chief_engineer', 'operator')
@@ -61,12 +65,14 @@ export class CardSetsController {
     return this.sets.preview(p.runId, dto);
   }
 
+  @ApiAnswer('CardSetDto')
   @Get('card-sets/:id')
   @AnyRole()
   get(@Param() p: IdParamDto): Promise<CardSetDto> {
     return this.sets.get(p.id);
   }
 
+  @ApiAnswer('CardSetDto')
   @Post('card-sets/:id/cards')
   @Roles('chief_engineer', 'operator')
   @ApiOperation({ summary: 'Add the card of an end not yet taken' })
@@ -74,6 +80,7 @@ export class CardSetsController {
     return this.sets.addCard(p.id, dto, me);
   }
 
+  @ApiAnswer('CardSetDto')
   @Post('card-sets/:id/amendments')
   @Roles('chief_engineer', 'operator')
   @ApiOperation({ summary: "Correct a set's own figures; the old values stay with the reason, who and when" })
@@ -81,6 +88,7 @@ export class CardSetsController {
     return this.sets.amendSet(p.id, dto, me);
   }
 
+  @ApiAnswer('CardSetDto')
   @Post('cards/:id/amendments')
   @Roles('chief_engineer', 'operator')
   @ApiOperation({ summary: 'Correct a card (new figures in full, one way); the old values stay with the reason, who and when' })
@@ -89,6 +97,7 @@ export class CardSetsController {
   }
 
   /** The photo or scan itself as the body (PNG, JPEG or WebP, checked by content), at most UPLOAD_MAX_BYTES. */
+  @ApiAnswer('CardImageDto')
   @Post('runs/:runId/card-images')
   @Roles('chief_engineer', 'operator')
   @ApiConsumes('image/png', 'image/jpeg', 'image/webp')
@@ -113,6 +122,7 @@ export class CardSetsController {
     return this.images.upload(p.runId, body, me);
   }
 
+  @ApiFileAnswer('image/*', 'The scanned card (PNG, JPEG or WebP)')
   @Get('card-images/:id')
   @AnyRole()
   @ApiOperation({ summary: 'A card image' })
@@ -123,12 +133,14 @@ export class CardSetsController {
     return new StreamableFile(body, { type: image.contentType, length: body.length });
   }
 
+  @ApiAnswer('BrakeFigureDto', { array: true })
   @Get('runs/:runId/brake-figures')
   @AnyRole()
   brakeFigures(@Param() p: RunIdParamDto): Promise<BrakeFigureDto[]> {
     return this.sets.brakeFigures(p.runId);
   }
 
+  @ApiAnswer('BrakeFigureDto')
   @Post('runs/:runId/brake-figures')
   @Roles('chief_engineer', 'operator')
   @ApiOperation({ summary: 'Enter a brake or measured output figure; the run’s sets gain a mechanical efficiency' })
@@ -136,6 +148,7 @@ export class CardSetsController {
     return this.sets.addBrakeFigure(p.runId, dto, me);
   }
 
+  @ApiAnswer('BrakeFigureDto')
   @Post('brake-figures/:id/amendments')
   @Roles('chief_engineer', 'operator')
   amendBrakeFigure(@Param() p: IdParamDto, @Body() dto: AmendBrakeFigureDto, @CurrentUser() me: AuthUser): Promise<BrakeFigureDto> {

@@ -1,7 +1,8 @@
 import { Body, Controller, HttpCode, Post } from '@nestjs/common';
-import { ApiBadRequestResponse, ApiBearerAuth, ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
+import { ApiBadRequestResponse, ApiBody, ApiBearerAuth, ApiOperation, ApiTags } from '@nestjs/swagger';
 import { AnyRole } from '../../common/decorators/roles.decorator.js';
 import { computeIndicatedPower } from '../../calculations/indicated-power.js';
+import { ApiAnswer } from '../../common/openapi/api-answer.decorator.js';
 import {
   IndicatedPowerRequestDto,
   IndicatedPowerResponseDto,
@@ -28,7 +29,41 @@ export class IndicatorCalculationsController {
       'A card with two ways or none, a non-positive dimension, a rod not smaller than its bore or two cards for one end ' +
       'answers 400 naming the field.',
   })
-  @ApiOkResponse({ type: IndicatedPowerResponseDto })
+  @ApiBody({
+    type: IndicatedPowerRequestDto,
+    examples: {
+      compound: {
+        summary: 'A tandem pair at 64 rpm: the high-pressure cylinder by mean effective pressure, the low by planimeter area',
+        value: {
+          rpm: 64,
+          strokeIn: 48,
+          cylinders: [
+            {
+              label: 'HP',
+              boreIn: 20,
+              pistonRodIn: 4,
+              tailRodIn: 0,
+              cards: [
+                { end: 'head', meanEffectivePressurePsi: 38.5 },
+                { end: 'crank', meanEffectivePressurePsi: 36.2 },
+              ],
+            },
+            {
+              label: 'LP',
+              boreIn: 36,
+              pistonRodIn: 4,
+              tailRodIn: 4,
+              cards: [
+                { end: 'head', areaSqIn: 1.1, lengthIn: 3.6, springPsiPerIn: 30 },
+                { end: 'crank', areaSqIn: 1.05, lengthIn: 3.6, springPsiPerIn: 30 },
+              ],
+            },
+          ],
+        },
+      },
+    },
+  })
+  @ApiAnswer('IndicatedPowerResponse')
   @ApiBadRequestResponse({ description: 'The body is not valid; the message names the field, e.g. "cylinders[0].cards[1].areaSqIn: …".' })
   indicatedPower(@Body() dto: IndicatedPowerRequestDto): IndicatedPowerResponseDto {
     return computeIndicatedPower(dto);
@@ -43,7 +78,7 @@ export class IndicatorCalculationsController {
       'The atmospheric line and the two ends of the diagram set the frame; the card length (or a known pixels-per-inch) sets the scale. ' +
       'Answers the area from the traced polygon (shoelace), mean height, mean effective pressure and the outline in card coordinates.',
   })
-  @ApiOkResponse({ type: TraceCalibrationResponseDto })
+  @ApiAnswer('TraceCalibrationResponse')
   @ApiBadRequestResponse({ description: 'The trace or scale is not valid; the message names the field.' })
   indicatorTrace(@Body() dto: TraceCalibrationRequestDto): TraceCalibrationResponseDto {
     return calibrateCardTrace(dto.trace, dto.springPsiPerIn, dto.lengthIn);

@@ -1,5 +1,5 @@
 import { BadRequestException, Body, Controller, HttpCode, Post } from '@nestjs/common';
-import { ApiBadRequestResponse, ApiBearerAuth, ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
+import { ApiBadRequestResponse, ApiBearerAuth, ApiOperation, ApiTags } from '@nestjs/swagger';
 import { AnyRole } from '../../common/decorators/roles.decorator.js';
 import { hpToKw } from '../../calculations/units.js';
 import {
@@ -11,6 +11,7 @@ import {
   liftPressure,
   oilViscosity,
 } from '../../calculations/lubrication.js';
+import { ApiAnswer } from '../../common/openapi/api-answer.decorator.js';
 import {
   JackCapacityRequestDto,
   JackCapacityResponseDto,
@@ -41,7 +42,7 @@ export class LubricationCalculationsController {
   @HttpCode(200)
   @AnyRole()
   @ApiOperation({ summary: 'Oil viscosity at a temperature from its 40 °C and 100 °C figures', description: VISCOSITY_METHOD })
-  @ApiOkResponse({ type: OilViscosityResponseDto })
+  @ApiAnswer('OilViscosityResponse')
   @ApiBadRequestResponse({
     description: 'A field is missing or out of range, or the 100 °C figure is not below the 40 °C one; the message names the field.',
   })
@@ -59,7 +60,7 @@ export class LubricationCalculationsController {
   @HttpCode(200)
   @AnyRole()
   @ApiOperation({ summary: 'Petroff friction, power lost and Sommerfeld number of a journal bearing', description: FRICTION_METHOD })
-  @ApiOkResponse({ type: JournalFrictionResponseDto })
+  @ApiAnswer('JournalFrictionResponse')
   @ApiBadRequestResponse({ description: 'A field is missing or out of range; the message names the field.' })
   journalFriction(@Body() dto: JournalFrictionRequestDto): JournalFrictionResponseDto {
     if (dto.radialClearanceIn * 2 >= dto.diameterIn)
@@ -79,7 +80,7 @@ export class LubricationCalculationsController {
     summary: 'Oil pressure to lift a journal (pre-lube / hydrostatic jacking)',
     description: LIFT_PRESSURE_RULE_TEXT + ' ' + JACKING_CAUTION,
   })
-  @ApiOkResponse({ type: LiftPressureResponseDto })
+  @ApiAnswer('LiftPressureResponse')
   @ApiBadRequestResponse({ description: 'A field is missing or out of range; the message names the field.' })
   liftPressure(@Body() dto: LiftPressureRequestDto): LiftPressureResponseDto {
     return { ...liftPressure(dto), rule: LIFT_PRESSURE_RULE_TEXT, caution: JACKING_CAUTION };
@@ -89,7 +90,7 @@ export class LubricationCalculationsController {
   @HttpCode(200)
   @AnyRole()
   @ApiOperation({ summary: 'Are the jacks rated with margin for the load?', description: JACK_MARGIN_RULE_TEXT + ' ' + JACKING_CAUTION })
-  @ApiOkResponse({ type: JackCapacityResponseDto })
+  @ApiAnswer('JackCapacityResponse')
   @ApiBadRequestResponse({ description: 'A field is missing or out of range; the message names the field.' })
   jackCapacity(@Body() dto: JackCapacityRequestDto): JackCapacityResponseDto {
     return { ...jackCapacityCheck(dto), rule: JACK_MARGIN_RULE_TEXT, caution: JACKING_CAUTION };

@@ -30,6 +30,7 @@ import { AnyRole, Roles } from '../../common/decorators/roles.decorator.js';
 import { CurrentUser, type AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { IdParamDto } from '../../common/dto/id-param.dto.js';
 import { DUE_RULE_TEXT } from '../../calculations/maintenance-due.js';
+import { ApiAnswer, ApiFileAnswer } from '../../common/openapi/api-answer.decorator.js';
 import { PlansService } from './plans.service.js';
 import { InspectionsService } from './inspections.service.js';
 import { WorkRecordsService } from './work-records.service.js';
@@ -56,6 +57,7 @@ export class MaintenanceController {
 
   // --- Bearings ---------------------------------------------------------------------------------
 
+  @ApiAnswer('BearingListItem', { array: true })
   @Get('bearings')
   @AnyRole()
   @ApiOperation({ summary: 'Every bearing with its run count and drift flags' })
@@ -63,6 +65,7 @@ export class MaintenanceController {
     return this.history.list();
   }
 
+  @ApiAnswer('BearingHistory')
   @Get('bearings/:id/history')
   @AnyRole()
   @ApiOperation({
@@ -72,6 +75,7 @@ export class MaintenanceController {
     return this.history.history(p.id);
   }
 
+  @ApiFileAnswer('text/csv', 'The bearing history as CSV (one row per run)')
   @Get('bearings/:id/history.csv')
   @AnyRole()
   async bearingHistoryCsv(@Param() p: IdParamDto, @Res({ passthrough: true }) res: Response): Promise<StreamableFile> {
@@ -80,6 +84,7 @@ export class MaintenanceController {
     return new StreamableFile(stream, { type: 'text/csv; charset=utf-8' });
   }
 
+  @ApiFileAnswer('application/pdf', 'The bearing history as a PDF report')
   @Get('bearings/:id/history.pdf')
   @AnyRole()
   async bearingHistoryPdf(
@@ -94,6 +99,7 @@ export class MaintenanceController {
 
   // --- Plans and the due list ---------------------------------------------------------------------
 
+  @ApiAnswer('DueList')
   @Get('due')
   @AnyRole()
   @ApiOperation({ summary: 'Active inspection plans, overdue first', description: DUE_RULE_TEXT })
@@ -101,18 +107,21 @@ export class MaintenanceController {
     return this.plans.dueList(q.engineId);
   }
 
+  @ApiAnswer('InspectionPlanDto', { array: true })
   @Get('plans')
   @AnyRole()
   listPlans(@Query() q: PlanQueryDto): Promise<InspectionPlanDto[]> {
     return this.plans.list(q);
   }
 
+  @ApiAnswer('InspectionPlanDto')
   @Get('plans/:id')
   @AnyRole()
   getPlan(@Param() p: IdParamDto): Promise<InspectionPlanDto> {
     return this.plans.dto(p.id);
   }
 
+  @ApiAnswer('InspectionPlanDto')
   @Post('plans')
   @Roles(...WRITERS)
   @ApiOperation({ summary: 'Plan an inspection by running hours, revolutions and/or calendar days', description: DUE_RULE_TEXT })
@@ -120,6 +129,7 @@ export class MaintenanceController {
     return this.plans.create(dto, me.id);
   }
 
+  @ApiAnswer('InspectionPlanDto')
   @Patch('plans/:id')
   @Roles(...WRITERS)
   updatePlan(@Param() p: IdParamDto, @Body() dto: PlanUpdateDto): Promise<InspectionPlanDto> {
@@ -128,18 +138,21 @@ export class MaintenanceController {
 
   // --- Inspections ----------------------------------------------------------------------------------
 
+  @ApiAnswer('InspectionSummary', { array: true })
   @Get('inspections')
   @AnyRole()
   listInspections(@Query() q: InspectionQueryDto): Promise<InspectionSummary[]> {
     return this.inspections.list(q);
   }
 
+  @ApiAnswer('InspectionDto')
   @Get('inspections/:id')
   @AnyRole()
   getInspection(@Param() p: IdParamDto): Promise<InspectionDto> {
     return this.inspections.detail(p.id);
   }
 
+  @ApiAnswer('InspectionDto')
   @Post('inspections')
   @Roles(...WRITERS)
   @ApiOperation({ summary: 'Record an inspection; each measurement is judged against its tolerance when recorded' })
@@ -147,6 +160,7 @@ export class MaintenanceController {
     return this.inspections.create(dto, me.id);
   }
 
+  @ApiAnswer('AttachmentDto')
   @Post('inspections/:id/attachments')
   @Roles(...WRITERS)
   @UseInterceptors(FileInterceptor('file'))
@@ -167,6 +181,7 @@ export class MaintenanceController {
     return this.inspections.attach(p.id, file, body.caption, me.id);
   }
 
+  @ApiFileAnswer('application/octet-stream', 'The stored file, with the Content-Type it was uploaded with')
   @Get('attachments/:id/content')
   @AnyRole()
   async attachment(@Param() p: IdParamDto, @Res({ passthrough: true }) res: Response): Promise<StreamableFile> {
@@ -179,18 +194,21 @@ export class MaintenanceController {
 
   // --- Work records ---------------------------------------------------------------------------------
 
+  @ApiAnswer('WorkRecordSummary', { array: true })
   @Get('work-records')
   @AnyRole()
   listWork(@Query() q: WorkRecordQueryDto): Promise<WorkRecordSummary[]> {
     return this.work.list(q);
   }
 
+  @ApiAnswer('WorkRecordDto')
   @Get('work-records/:id')
   @AnyRole()
   getWork(@Param() p: IdParamDto): Promise<WorkRecordDto> {
     return this.work.detail(p.id);
   }
 
+  @ApiAnswer('WorkRecordDto')
   @Post('work-records')
   @Roles(...WRITERS)
   @ApiOperation({ summary: 'Record work: what, who, parts, hours, what prompted it, its hazards' })
@@ -198,6 +216,7 @@ export class MaintenanceController {
     return this.work.create(dto, me.id);
   }
 
+  @ApiAnswer('WorkRecordDto')
   @Patch('work-records/:id')
   @Roles(...WRITERS)
   @ApiOperation({ summary: 'Correct or complete an open work record (409 once closed)' })
@@ -205,6 +224,7 @@ export class MaintenanceController {
     return this.work.update(p.id, dto);
   }
 
+  @ApiAnswer('WorkRecordDto')
   @Post('work-records/:id/close')
   @HttpCode(200)
   @Roles(...WRITERS)

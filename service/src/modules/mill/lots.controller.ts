@@ -5,6 +5,7 @@ import { MILL_WRITERS, type LotDetail, type LotSummary, type QuoteDto } from '@c
 import { AnyRole, Roles } from '../../common/decorators/roles.decorator.js';
 import { CurrentUser, type AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { IdParamDto } from '../../common/dto/id-param.dto.js';
+import { ApiAnswer, ApiFileAnswer } from '../../common/openapi/api-answer.decorator.js';
 import { LotsService } from './lots.service.js';
 import {
   LinkRunDto,
@@ -24,30 +25,35 @@ import {
 export class LotsController {
   constructor(private readonly lots: LotsService) {}
 
+  @ApiAnswer('LotSummary', { array: true })
   @Get('lots')
   @AnyRole()
   list(@Query() q: LotQueryDto): Promise<LotSummary[]> {
     return this.lots.list(q);
   }
 
+  @ApiAnswer('LotDetail')
   @Get('lots/:id')
   @AnyRole()
   detail(@Param() p: IdParamDto): Promise<LotDetail> {
     return this.lots.detail(p.id);
   }
 
+  @ApiAnswer('LotDetail')
   @Post('lots')
   @Roles(...MILL_WRITERS)
   create(@Body() dto: LotWriteDto, @CurrentUser() me: AuthUser): Promise<LotDetail> {
     return this.lots.create(dto, me);
   }
 
+  @ApiAnswer('LotDetail')
   @Patch('lots/:id')
   @Roles(...MILL_WRITERS)
   update(@Param() p: IdParamDto, @Body() dto: LotUpdateDto): Promise<LotDetail> {
     return this.lots.update(p.id, dto);
   }
 
+  @ApiAnswer('LotDetail')
   @Post('lots/:id/transitions')
   @HttpCode(200)
   @Roles(...MILL_WRITERS)
@@ -58,6 +64,7 @@ export class LotsController {
     return this.lots.transition(p.id, dto, me);
   }
 
+  @ApiAnswer('LotDetail')
   @Post('lots/:id/runs')
   @HttpCode(200)
   @Roles(...MILL_WRITERS)
@@ -65,18 +72,21 @@ export class LotsController {
     return this.lots.linkRun(p.id, dto.runId, me);
   }
 
+  @ApiAnswer('LotDetail')
   @Delete('lots/:id/runs/:runId')
   @Roles(...MILL_WRITERS)
   unlinkRun(@Param() p: LotRunParamDto): Promise<LotDetail> {
     return this.lots.unlinkRun(p.id, p.runId);
   }
 
+  @ApiAnswer('QuoteDto', { array: true })
   @Get('lots/:id/quotes')
   @AnyRole()
   quotes(@Param() p: IdParamDto): Promise<QuoteDto[]> {
     return this.lots.quotes(p.id);
   }
 
+  @ApiAnswer('QuoteDto')
   @Post('lots/:id/quotes')
   @Roles(...MILL_WRITERS)
   @ApiOperation({ summary: "Make a quote from the site's rates and the lot's engine and crew hours" })
@@ -84,6 +94,7 @@ export class LotsController {
     return this.lots.createQuote(p.id, dto, me);
   }
 
+  @ApiFileAnswer('application/pdf', 'The lot sheet as a PDF')
   @Get('quotes/:id/quote.pdf')
   @AnyRole()
   async pdf(@Param() p: IdParamDto, @CurrentUser() me: AuthUser, @Res({ passthrough: true }) res: Response): Promise<StreamableFile> {
@@ -92,6 +103,7 @@ export class LotsController {
     return new StreamableFile(buffer, { type: 'application/pdf' });
   }
 
+  @ApiAnswer('QuoteDto')
   @Post('quotes/:id/send')
   @HttpCode(200)
   @Roles(...MILL_WRITERS)

@@ -1,8 +1,9 @@
 import { BadRequestException, Body, Controller, HttpCode, Post } from '@nestjs/common';
-import { ApiBearerAuth, ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
+import { ApiBearerAuth, ApiOperation, ApiTags } from '@nestjs/swagger';
 import type { RollingPassResponse } from '@crankjournal/shared-types';
 import { AnyRole } from '../../common/decorators/roles.decorator.js';
 import { MILL_LOAD_CAUTION } from '../../calculations/mill-pass.js';
+import { ApiAnswer } from '../../common/openapi/api-answer.decorator.js';
 import { RollingPassDto } from './dto/rolling-pass.dto.js';
 import { calculatePass } from './pass-calculation.js';
 import { DEFAULT_MILL_SETTINGS } from './mill.service.js';
@@ -28,7 +29,7 @@ export class MillCalculationsController {
       'engineSpeedRpm, ratedSpeedRpm, barExitLengthM, indicatedHp) for the speed drop and recovery time, or none. Warnings: stand_force, ' +
       'speed_drop, stall, no_surplus_power. Units are in every field name: Mm, C, Pct, Rpm, Kn, Lb, Ft, M, Hp, MPa.',
   })
-  @ApiOkResponse({
+  @ApiAnswer('RollingPassResponse', {
     description:
       'PassCalculationDto and a caution; forces in kN and lbf, torque in kN·m and lbf·ft, power in kW and hp, energies in kJ, times in s.',
   })

@@ -4,6 +4,7 @@ import { MILL_WRITERS, type MillDto, type ScheduleDetail, type ScheduleSummary }
 import { AnyRole, Roles } from '../../common/decorators/roles.decorator.js';
 import { CurrentUser, type AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { IdParamDto } from '../../common/dto/id-param.dto.js';
+import { ApiAnswer } from '../../common/openapi/api-answer.decorator.js';
 import { MillService } from './mill.service.js';
 import { SchedulesService } from './schedules.service.js';
 import { MillWriteDto } from './dto/mill-write.dto.js';
@@ -19,18 +20,21 @@ export class MillController {
     private readonly schedules: SchedulesService,
   ) {}
 
+  @ApiAnswer('MillDto', { array: true })
   @Get('mills')
   @AnyRole()
   list(): Promise<MillDto[]> {
     return this.mills.list();
   }
 
+  @ApiAnswer('MillDto')
   @Get('mills/:id')
   @AnyRole()
   detail(@Param() p: IdParamDto): Promise<MillDto> {
     return this.mills.detail(p.id);
   }
 
+  @ApiAnswer('MillDto')
   @Post('mills')
   @Roles(...MILL_WRITERS)
   @ApiOperation({ summary: 'Describe a mill: stands, driving engine, pass-check settings and quote rates' })
@@ -38,18 +42,21 @@ export class MillController {
     return this.mills.create(dto);
   }
 
+  @ApiAnswer('MillDto')
   @Put('mills/:id')
   @Roles(...MILL_WRITERS)
   update(@Param() p: IdParamDto, @Body() dto: MillWriteDto): Promise<MillDto> {
     return this.mills.update(p.id, dto);
   }
 
+  @ApiAnswer('ScheduleSummary', { array: true })
   @Get('schedules')
   @AnyRole()
   schedulesList(@Query() q: ScheduleQueryDto): Promise<ScheduleSummary[]> {
     return this.schedules.list(q);
   }
 
+  @ApiAnswer('ScheduleDetail')
   @Get('schedules/:id')
   @AnyRole()
   @ApiOperation({
@@ -60,18 +67,21 @@ export class MillController {
     return this.schedules.detail(p.id);
   }
 
+  @ApiAnswer('ScheduleDetail')
   @Post('schedules')
   @Roles(...MILL_WRITERS)
   createSchedule(@Body() dto: ScheduleWriteDto, @CurrentUser() me: AuthUser): Promise<ScheduleDetail> {
     return this.schedules.create(dto, me);
   }
 
+  @ApiAnswer('ScheduleDetail')
   @Put('schedules/:id')
   @Roles(...MILL_WRITERS)
   updateSchedule(@Param() p: IdParamDto, @Body() dto: ScheduleWriteDto): Promise<ScheduleDetail> {
     return this.schedules.update(p.id, dto);
   }
 
+  @ApiAnswer('ScheduleDetail')
   @Post('schedules/:id/copies')
   @HttpCode(201)
   @Roles(...MILL_WRITERS)

@@ -11,6 +11,7 @@ import {
 import { AnyRole, Roles } from '../../common/decorators/roles.decorator.js';
 import { CurrentUser, type AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { IdParamDto } from '../../common/dto/id-param.dto.js';
+import { ApiAnswer } from '../../common/openapi/api-answer.decorator.js';
 import { RollingLogService } from './rolling-log.service.js';
 import { CreateBarDto, LogPassDto, UpdateBarDto } from './dto/bar.dto.js';
 import { MillRunIdParamDto } from './dto/lot.dto.js';
@@ -22,18 +23,21 @@ import { MillRunIdParamDto } from './dto/lot.dto.js';
 export class RollingLogController {
   constructor(private readonly log: RollingLogService) {}
 
+  @ApiAnswer('MillRunSummary', { array: true })
   @Get('runs')
   @AnyRole()
   runs(): Promise<MillRunSummary[]> {
     return this.log.runsList();
   }
 
+  @ApiAnswer('MillRunLog')
   @Get('runs/:runId')
   @AnyRole()
   runLog(@Param() p: MillRunIdParamDto): Promise<MillRunLog> {
     return this.log.runLog(p.runId);
   }
 
+  @ApiAnswer('MillTimelineItem', { array: true })
   @Get('runs/:runId/timeline')
   @AnyRole()
   @ApiOperation({ summary: 'Passes, rounds of readings and alarms of a run, in time order' })
@@ -41,6 +45,7 @@ export class RollingLogController {
     return this.log.timeline(p.runId);
   }
 
+  @ApiAnswer('BarDto')
   @Post('runs/:runId/bars')
   @Roles(...MILL_WRITERS)
   @ApiOperation({ summary: 'Start a bar on a running (or stopped, not closed) run' })
@@ -48,12 +53,14 @@ export class RollingLogController {
     return this.log.createBar(p.runId, dto, me);
   }
 
+  @ApiAnswer('BarDto')
   @Patch('bars/:id')
   @Roles(...MILL_WRITERS)
   updateBar(@Param() p: IdParamDto, @Body() dto: UpdateBarDto, @CurrentUser() me: AuthUser): Promise<BarDto> {
     return this.log.updateBar(p.id, dto, me);
   }
 
+  @ApiAnswer('LoggedPassDto')
   @Post('bars/:id/passes')
   @HttpCode(201)
   @Roles(...MILL_WRITERS)

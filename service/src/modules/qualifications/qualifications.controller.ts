@@ -4,6 +4,7 @@ import type { QualificationDto, QualificationMatrix } from '@crankjournal/shared
 import { AnyRole, Roles } from '../../common/decorators/roles.decorator.js';
 import { CurrentUser, type AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { IdParamDto } from '../../common/dto/id-param.dto.js';
+import { ApiAnswer } from '../../common/openapi/api-answer.decorator.js';
 import { QualificationsService } from './qualifications.service.js';
 import {
   GrantQualificationDto,
@@ -20,12 +21,14 @@ import {
 export class QualificationsController {
   constructor(private readonly quals: QualificationsService) {}
 
+  @ApiAnswer('QualificationDto', { array: true })
   @Get('mine')
   @AnyRole()
   mine(@CurrentUser() me: AuthUser): Promise<QualificationDto[]> {
     return this.quals.mine(me.id);
   }
 
+  @ApiAnswer('QualificationDto', { array: true })
   @Get()
   @Roles('chief_engineer', 'administrator')
   list(@Query() q: QualificationQueryDto): Promise<QualificationDto[]> {
@@ -33,24 +36,28 @@ export class QualificationsController {
   }
 
   /** The crew against the duties of one engine, with what is about to expire. */
+  @ApiAnswer('QualificationMatrix')
   @Get('matrix')
   @Roles('chief_engineer', 'administrator')
   matrix(@Query() q: MatrixQueryDto): Promise<QualificationMatrix> {
     return this.quals.matrix(q.engineId);
   }
 
+  @ApiAnswer('QualificationDto')
   @Post()
   @Roles('chief_engineer')
   grant(@Body() dto: GrantQualificationDto, @CurrentUser() me: AuthUser): Promise<QualificationDto> {
     return this.quals.grant(dto, me);
   }
 
+  @ApiAnswer('QualificationDto')
   @Post(':id/renew')
   @Roles('chief_engineer')
   renew(@Param() p: IdParamDto, @Body() dto: RenewQualificationDto, @CurrentUser() me: AuthUser): Promise<QualificationDto> {
     return this.quals.renew(p.id, dto, me);
   }
 
+  @ApiAnswer('QualificationDto')
   @Post(':id/withdraw')
   @HttpCode(200)
   @Roles('chief_engineer')

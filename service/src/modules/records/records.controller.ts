@@ -4,6 +4,7 @@ import type { Response } from 'express';
 import { AnyRole } from '../../common/decorators/roles.decorator.js';
 import { CurrentUser, type AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { IdParamDto } from '../../common/dto/id-param.dto.js';
+import { ApiFileAnswer } from '../../common/openapi/api-answer.decorator.js';
 import { RunLogSheetService } from './run-log-sheet.service.js';
 
 /** Printed records that draw on several modules (the run log sheet). */
@@ -13,6 +14,7 @@ import { RunLogSheetService } from './run-log-sheet.service.js';
 export class RecordsController {
   constructor(private readonly logSheet: RunLogSheetService) {}
 
+  @ApiFileAnswer('application/pdf', 'The run log sheet as a PDF')
   @Get(':id/log-sheet.pdf')
   @AnyRole()
   async runLogSheet(

@@ -1,10 +1,11 @@
 import { Body, Controller, Get, HttpCode, Param, Post, Req, UseGuards, ConflictException, BadRequestException } from '@nestjs/common';
-import { ApiBearerAuth, ApiHeader, ApiTags } from '@nestjs/swagger';
+import { ApiBearerAuth, ApiHeader, ApiTags, ApiBody } from '@nestjs/swagger';
 import type { IngestResult, IssuedLoggerKey, LoggerDto } from '@crankjournal/shared-types';
 import { Roles } from '../../common/decorators/roles.decorator.js';
 import { Public } from '../../common/decorators/public.decorator.js';
 import { CurrentUser, type AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { IdParamDto } from '../../common/dto/id-param.dto.js';
+import { ApiAnswer } from '../../common/openapi/api-answer.decorator.js';
 import { LoggersService } from './loggers.service.js';
 import { LoggerKeyGuard } from './logger-key.guard.js';
 import { IngestService } from './ingest.service.js';
@@ -22,6 +23,7 @@ export class LoggersController {
     private readonly runs: RunsService,
   ) {}
 
+  @ApiAnswer('LoggerDto', { array: true })
   @Get('loggers')
   @ApiBearerAuth()
   @Roles('administrator', 'chief_engineer')
@@ -29,6 +31,7 @@ export class LoggersController {
     return this.loggers.list();
   }
 
+  @ApiAnswer('IssuedLoggerKey')
   @Post('loggers')
   @ApiBearerAuth()
   @Roles('administrator')
@@ -36,6 +39,7 @@ export class LoggersController {
     return this.loggers.issue(dto.engineId, dto.name, me.id);
   }
 
+  @ApiAnswer('LoggerDto')
   @Post('loggers/:id/revoke')
   @HttpCode(200)
   @ApiBearerAuth()
@@ -45,9 +49,24 @@ export class LoggersController {
   }
 
   /** Batch push from a data logger, authenticated by its key (header x-logger-key), not a user token. */
+  @ApiAnswer('IngestResult')
   @Post('logger/readings')
   @Public()
   @UseGuards(LoggerKeyGuard)
+  @ApiBody({
+    type: LoggerBatchDto,
+    examples: {
+      twoBearings: {
+        summary: "Two bearing temperatures into the engine's current run",
+        value: {
+          readings: [
+            { clientId: '6f1c2a54-0b7e-4d55-9a39-2f0f5d1e7a01', pointCode: 'MB1-T', value: 118.5, takenAt: '2026-06-13T10:15:00Z' },
+            { clientId: '6f1c2a54-0b7e-4d55-9a39-2f0f5d1e7a02', pointCode: 'MB2-T', value: 121, takenAt: '2026-06-13T10:15:00Z' },
+          ],
+        },
+      },
+    },
+  })
   @ApiHeader({ name: 'x-logger-key', required: true })
   async push(@Body() dto: LoggerBatchDto, @Req() req: { logger: DataLogger }): Promise<IngestResult> {
     const logger = req.logger;

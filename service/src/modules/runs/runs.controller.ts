@@ -13,7 +13,7 @@ import {
   StreamableFile,
   UnsupportedMediaTypeException,
 } from '@nestjs/common';
-import { ApiBearerAuth, ApiConsumes, ApiTags } from '@nestjs/swagger';
+import { ApiBearerAuth, ApiConsumes, ApiTags, ApiBody } from '@nestjs/swagger';
 import type { Request, Response } from 'express';
 import type {
   AlarmDto,
@@ -30,6 +30,7 @@ import { CurrentUser, type AuthUser } from '../../common/decorators/current-user
 import { IdParamDto } from '../../common/dto/id-param.dto.js';
 import { AppConfig } from '../../config/app-config.service.js';
 import { AlarmsService } from '../alarms/alarms.service.js';
+import { ApiAnswer, ApiFileAnswer } from '../../common/openapi/api-answer.decorator.js';
 import { RunsService } from './runs.service.js';
 import { ReadingsService } from './readings.service.js';
 import { IngestService } from './ingest.service.js';
@@ -71,6 +72,7 @@ export class RunsController {
     private readonly config: AppConfig,
   ) {}
 
+  @ApiAnswer('RunSummary', { array: true })
   @Get()
   @AnyRole()
   list(@Query() q: RunQueryDto): Promise<RunSummary[]> {
@@ -78,6 +80,7 @@ export class RunsController {
   }
 
   /** The alarm system's own figures for an engine's season (its runs of a calendar year). */
+  @ApiAnswer('AlarmFiguresDto')
   @Get('alarm-figures')
   @Roles('chief_engineer', 'maintenance_lead')
   async seasonAlarmFigures(@Query() q: SeasonFiguresQueryDto): Promise<AlarmFiguresDto> {
@@ -88,18 +91,21 @@ export class RunsController {
     );
   }
 
+  @ApiAnswer('RunDetail')
   @Post()
   @Roles('chief_engineer', 'operator')
   create(@Body() dto: CreateRunDto, @CurrentUser() me: AuthUser): Promise<RunDetail> {
     return this.runs.create(dto, me);
   }
 
+  @ApiAnswer('RunDetail')
   @Get(':id')
   @AnyRole()
   detail(@Param() p: IdParamDto): Promise<RunDetail> {
     return this.runs.detail(p.id);
   }
 
+  @ApiAnswer('RunDetail')
   @Patch(':id')
   @Roles('chief_engineer', 'operator')
   update(@Param() p: IdParamDto, @Body() dto: UpdateRunDto, @CurrentUser() me: AuthUser): Promise<RunDetail> {
@@ -107,6 +113,7 @@ export class RunsController {
   }
 
   /** Moves the run on; to running only through the start gate (409 with reasons when refused). */
+  @ApiAnswer('RunDetail')
   @Post(':id/transitions')
   @HttpCode(200)
   @Roles('chief_engineer', 'operator')
@@ -114,18 +121,21 @@ export class RunsController {
     return this.runs.transition(p.id, dto, me);
   }
 
+  @ApiAnswer('StartGateVerdict')
   @Get(':id/start-gate')
   @AnyRole()
   startGate(@Param() p: IdParamDto, @CurrentUser() me: AuthUser): Promise<StartGateVerdict> {
     return this.runs.startGate(p.id, me);
   }
 
+  @ApiAnswer('ReadingDto', { array: true })
   @Get(':id/readings')
   @AnyRole()
   readingsList(@Param() p: IdParamDto, @Query() q: ReadingsQueryDto): Promise<ReadingDto[]> {
     return this.readings.list(p.id, q);
   }
 
+  @ApiAnswer('BoardPoint', { array: true })
   @Get(':id/board')
   @AnyRole()
   board(@Param() p: IdParamDto): Promise<BoardPoint[]> {
@@ -133,6 +143,7 @@ export class RunsController {
   }
 
   /** The alarm system's own figures for this run, against the standards' targets. */
+  @ApiAnswer('AlarmFiguresDto')
   @Get(':id/alarm-figures')
   @Roles('chief_engineer', 'maintenance_lead')
   async runAlarmFigures(@Param() p: IdParamDto): Promise<AlarmFiguresDto> {
@@ -144,6 +155,7 @@ export class RunsController {
     return { id: run.id, from: run.createdAt, to: run.closedAt ?? run.stoppedAt ?? new Date(), startedAt: run.startedAt };
   }
 
+  @ApiAnswer('AlarmDto', { array: true })
   @Get(':id/alarms')
   @AnyRole()
   async runAlarms(@Param() p: IdParamDto): Promise<AlarmDto[]> {
@@ -152,6 +164,23 @@ export class RunsController {
   }
 
   /** A round of readings from the tablet. */
+  @ApiAnswer('IngestResult')
+  @ApiBody({
+    type: RoundDto,
+    examples: {
+      round: {
+        summary: 'A round from the tablet: speed and a bearing temperature',
+        value: {
+          takenAt: '2026-06-13T10:30:00Z',
+          note: 'All steady',
+          readings: [
+            { clientId: '0b5e7d2c-3f0a-4e8e-8f7e-3d9b1c2a4f10', pointCode: 'SPD', value: 64, takenAt: '2026-06-13T10:30:00Z' },
+            { clientId: '0b5e7d2c-3f0a-4e8e-8f7e-3d9b1c2a4f11', pointCode: 'MB1-T', value: 119, takenAt: '2026-06-13T10:30:00Z' },
+          ],
+        },
+      },
+    },
+  })
   @Post(':id/rounds')
   @Roles('chief_engineer', 'operator')
   async round(@Param() p: IdParamDto, @Body() dto: RoundDto, @CurrentUser() me: AuthUser): Promise<IngestResult> {
@@ -160,6 +189,7 @@ export class RunsController {
   }
 
   /** A logger's CSV file, sent as the raw body (text/csv), streamed. */
+  @ApiAnswer('IngestResult')
   @Post(':id/imports')
   @ApiConsumes('text/csv')
   @Roles('chief_engineer', 'operator')
@@ -182,6 +212,7 @@ export class RunsController {
     return result;
   }
 
+  @ApiFileAnswer('text/csv', "The run's readings as CSV")
   @Get(':id/readings.csv')
   @AnyRole()
   async csvExport(@Param() p: IdParamDto, @Res({ passthrough: true }) res: Response): Promise<StreamableFile> {

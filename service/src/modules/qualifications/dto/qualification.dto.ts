@@ -61,5 +61,5 @@ export class QualificationQueryDto {
 }
 
 export class MatrixQueryDto {
-  @IsUUID('all', { message: 'engineId must be a UUID' }) engineId: string;
+  @ApiProperty({ format: 'uuid' }) @IsUUID('all', { message: 'engineId must be a UUID' }) engineId: string;
 }

@@ -62,7 +62,8 @@ export class RunQueryDto {
 }
 
 export class SeasonFiguresQueryDto {
-  @IsUUID('all', { message: 'engineId must be a UUID' }) engineId: string;
+  @ApiProperty({ format: 'uuid' }) @IsUUID('all', { message: 'engineId must be a UUID' }) engineId: string;
+  @ApiProperty({ example: 2026 })
   @Type(() => Number)
   @IsInt({ message: 'year must be a whole number, e.g. 2026' })
   @Min(1900, { message: 'year must be 1900 or later' })
