@@ -223,6 +223,7 @@ export type SharedSchemaName =
   | 'ShelveAlarmRequest'
   | 'SignChecklistRequest'
   | 'SiteNotice'
+  | 'SiteSettings'
   | 'StartChecklistRequest'
   | 'StartGateReason'
   | 'StartGateVerdict'
@@ -241,6 +242,7 @@ export type SharedSchemaName =
   | 'UpdateBarRequest'
   | 'UpdateMyPreferencesRequest'
   | 'UpdateRunRequest'
+  | 'UpdateSiteSettingsRequest'
   | 'UpdateUserRequest'
   | 'UserSummary'
   | 'WebDeflectionPair'
@@ -4641,6 +4643,20 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
     required: ['message', 'from', 'at'],
     additionalProperties: false,
   },
+  SiteSettings: {
+    type: 'object',
+    properties: {
+      worksName: { type: 'string' },
+      timeZone: {
+        type: 'string',
+        description: 'An IANA time zone name (for example Europe/London); printed records show times in it, stored times stay UTC.',
+      },
+      wetSignature: { type: 'boolean', description: 'Whether the run log sheet ends with a block for a signature in ink.' },
+    },
+    required: ['worksName', 'timeZone', 'wetSignature'],
+    additionalProperties: false,
+    description: "The works' own settings: its name and time zone on every printed record, and the wet-signature block.",
+  },
   StartChecklistRequest: {
     type: 'object',
     properties: { templateId: { type: 'string' } },
@@ -4802,6 +4818,19 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       notes: { type: 'string' },
     },
     additionalProperties: false,
+  },
+  UpdateSiteSettingsRequest: {
+    type: 'object',
+    properties: {
+      worksName: { type: 'string' },
+      timeZone: {
+        type: 'string',
+        description: 'An IANA time zone name (for example Europe/London); printed records show times in it, stored times stay UTC.',
+      },
+      wetSignature: { type: 'boolean', description: 'Whether the run log sheet ends with a block for a signature in ink.' },
+    },
+    additionalProperties: false,
+    description: 'PUT /api/site/settings (administrator): any of the fields.',
   },
   UpdateUserRequest: {
     type: 'object',
