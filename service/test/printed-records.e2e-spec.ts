@@ -10,7 +10,7 @@ import { LotsService } from '../src/modules/mill/lots.service.js';
 import { compareWithGolden, inspectPdf, mangledWords, overlappingWords, pageFooters, type PdfInspection } from './utils/pdf-inspect.js';
 import { signedIn } from './utils/signed-in.js';
 import { login, type SignedIn } from './factories/users.factory.js';
-import { startTestApp, applyTestEnv, type TestApp } from './utils/test-app.js';
+import { startTestApp, applyTestEnv, clusterAdminConfig, type TestApp } from './utils/test-app.js';
 
 /**
  * Every kind of printed record, rendered from the demo data (the real seed, in a database of its own so the
@@ -53,10 +53,10 @@ describe('printed records from the demo data', () => {
 
   beforeAll(async () => {
     applyTestEnv();
-    // A database of its own, made through the cluster's superuser (trust on loopback, as ops/lib.sh sets it up).
+    // A database of its own, made through the cluster's superuser (its generated password, as ops/lib.sh sets it up).
     const url = new URL(process.env.DATABASE_URL!);
     const name = `${url.pathname.slice(1)}_records`;
-    const su = new pg.Client({ host: url.hostname, port: Number(url.port), user: 'postgres', database: 'postgres' });
+    const su = new pg.Client(clusterAdminConfig(url.toString()));
     await su.connect();
     await su.query(`DROP DATABASE IF EXISTS ${name} WITH (FORCE)`);
     await su.query(`CREATE DATABASE ${name} OWNER ${url.username}`);

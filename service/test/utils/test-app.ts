@@ -38,6 +38,21 @@ export function privateClusterPassword(name: string): string {
   }
 }
 
+/**
+ * Connection settings of the test cluster's superuser (to create a database of a file's own): user postgres on the
+ * host and port of `databaseUrl`, with the password ops/ generated for the private clusters (.data/pg-superuser-password).
+ */
+export function clusterAdminConfig(databaseUrl: string): { host: string; port: number; user: string; password: string; database: string } {
+  const u = new URL(databaseUrl);
+  return {
+    host: u.hostname,
+    port: Number(u.port),
+    user: 'postgres',
+    password: privateClusterPassword('pg-superuser-password'),
+    database: 'postgres',
+  };
+}
+
 export function applyTestEnv(): void {
   for (const [k, v] of Object.entries(TEST_ENV_DEFAULTS)) if (!process.env[k]) process.env[k] = v;
 }
