@@ -16,3 +16,4 @@ export * from './api/mill.js';
 export * from './api/indicator-cards.js';
 export * from './api/maintenance.js';
 export * from './api/lubrication.js';
+export * from './autotrace/autotrace.js';
