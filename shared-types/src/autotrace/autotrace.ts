@@ -289,6 +289,32 @@ function findAtmosphericLine(ink: Uint8Array, dark: Float32Array, w: number, h: 
  * comes back with `found: false` and the reasons.
  */
 export function proposeCardTrace(image: AutotraceImage): AutotraceProposal {
+  // A large photo is first averaged down (a whole number of pixels into one) to about 2 megapixels.
+  const factor = Math.floor(Math.sqrt((image.width * image.height) / 2_000_000));
+  if (factor < 2 || image.data.length < image.width * image.height * 4) return proposeAtFullSize(image);
+  const width = Math.floor(image.width / factor);
+  const height = Math.floor(image.height / factor);
+  const data = new Uint8Array(width * height * 4);
+  for (let y = 0; y < height; y++)
+    for (let x = 0; x < width; x++)
+      for (let c = 0; c < 4; c++) {
+        let sum = 0;
+        for (let dy = 0; dy < factor; dy++)
+          for (let dx = 0; dx < factor; dx++) sum += image.data[((y * factor + dy) * image.width + x * factor + dx) * 4 + c];
+        data[(y * width + x) * 4 + c] = Math.round(sum / (factor * factor));
+      }
+  const small = proposeAtFullSize({ data, width, height });
+  const up = (q: AutotracePoint): AutotracePoint => ({ x: (q.x + 0.5) * factor - 0.5, y: (q.y + 0.5) * factor - 0.5 });
+  return {
+    ...small,
+    atmosphericLine: small.atmosphericLine ? [up(small.atmosphericLine[0]), up(small.atmosphericLine[1])] : null,
+    admissionEndPx: small.admissionEndPx ? up(small.admissionEndPx) : null,
+    releaseEndPx: small.releaseEndPx ? up(small.releaseEndPx) : null,
+    pointsPx: small.pointsPx.map(up),
+  };
+}
+
+function proposeAtFullSize(image: AutotraceImage): AutotraceProposal {
   const { width: w, height: h, data } = image;
   if (!Number.isInteger(w) || !Number.isInteger(h) || w < 120 || h < 80 || data.length < w * h * 4) return refused(['too-small']);
   const n = w * h;
