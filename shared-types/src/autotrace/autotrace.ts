@@ -336,8 +336,11 @@ function proposeAtFullSize(image: AutotraceImage): AutotraceProposal {
     paper.filter((_, i) => i % 7 === 0),
     0.95,
   );
+  // A wide average of the grey image: thin pen lines hardly darken it, the dark bench does.
+  const wide = Float32Array.from(grey);
+  blur2({ data: wide, width: w, height: h }, 3 * paperWidth);
   const cardRaw = new Float32Array(n);
-  for (let p = 0; p < n; p++) cardRaw[p] = grey[p] > 0.55 * brightest || paper[p] > 0.8 * brightest ? 1 : 0;
+  for (let p = 0; p < n; p++) cardRaw[p] = wide[p] > 0.5 * brightest ? 1 : 0;
   blur2({ data: cardRaw, width: w, height: h }, 2 * paperWidth);
   const card = new Uint8Array(n);
   let cardCount = 0;
@@ -619,12 +622,24 @@ function proposeAtFullSize(image: AutotraceImage): AutotraceProposal {
   for (let p = 0; p < n; p++) {
     if (figures.labels[p] !== diagramFigure || lineInk[p]) continue;
     const x = p % w;
-    const t = along({ x, y: (p - x) / w });
+    const q = { x, y: (p - x) / w };
+    // Ink along the atmospheric line (its blurred fringe, left where the diagram crosses it) is no end.
+    if (Math.abs(upOf(q)) <= band + 2) continue;
+    const t = along(q);
     if (t < tLo) tLo = t;
     if (t > tHi) tHi = t;
   }
   tLo += strokePx / 2 - 0.5;
   tHi -= strokePx / 2 - 0.5;
+  // Where the outline itself reaches as far (a square end, not a thin toe), its own end is the truer.
+  let pLo = Infinity;
+  let pHi = -Infinity;
+  for (const q of outline) {
+    pLo = Math.min(pLo, along(q));
+    pHi = Math.max(pHi, along(q));
+  }
+  if (Math.abs(pLo - tLo) <= 3) tLo = pLo;
+  if (Math.abs(pHi - tHi) <= 3) tHi = pHi;
   let top = outline[0];
   for (const q of outline) if (upOf(q) > upOf(top)) top = q;
   const admissionAtLow = along(top) - tLo < tHi - along(top);
