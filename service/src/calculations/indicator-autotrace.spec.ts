@@ -29,6 +29,7 @@ describe('automatic card tracing', () => {
       errors.push(Math.abs(error));
       expect(Math.abs(error)).toBeLessThan(0.015);
     },
+    SLOW_MS,
   );
 
   it(
