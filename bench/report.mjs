@@ -12,6 +12,7 @@ const b3 = readResult('b3');
 const b4 = readResult('b4');
 const b4d = readResult('b4-data');
 const b5 = readResult('b5');
+const b6 = readResult('b6');
 const failed = (n) =>
   existsSync(join(WORK, 'results', `b${n}.failed.json`))
     ? JSON.parse(readFileSync(join(WORK, 'results', `b${n}.failed.json`), 'utf8'))
@@ -24,7 +25,7 @@ const fmt = (x, d = 0) =>
 const kb = (b) => fmt(b / 1024, 1);
 const yes = (ok) => (ok ? '**met**' : '**missed**');
 const when = (r) => (r ? `${r.measuredAt.replace('T', ' ').slice(0, 16)} UTC, load average ${r.loadAvg?.join(' / ') ?? '—'}` : 'not run');
-const newest = Math.max(...[b1, b2, b3, b4, b5].filter(Boolean).map((r) => Date.parse(r.measuredAt)));
+const newest = Math.max(...[b1, b2, b3, b4, b5, b6].filter(Boolean).map((r) => Date.parse(r.measuredAt)));
 const stale = (r) =>
   r && seconds && newest - Date.parse(r.measuredAt) > (seconds + 120) * 1000 ? ' (from an earlier run of the command)' : '';
 
@@ -108,6 +109,16 @@ if (b5) {
     yes(b5.met.usable),
   ]);
 }
+if (b6)
+  rows.push([
+    `6. Card photo to proposed trace (${b6.cards} cards × ${b6.repeat})`,
+    `${fmt(b6.msPerCard.median)} ms`,
+    `${fmt(b6.msPerCard.p99)} ms`,
+    '—',
+    '—',
+    'p99 < 1 s',
+    yes(b6.met.underOneSecond),
+  ]);
 /** Long lists of ids in a plan, shortened: '{a,b,…}' → '{… 124 ids …}'. */
 const shortPlan = (plan) =>
   plan.replace(/'\{((?:[0-9a-f-]{36},)+[0-9a-f-]{36})\}'/g, (_m, ids) =>
@@ -439,6 +450,23 @@ if (b5) {
   if (b5.liveRun.errors?.length) md.push(`\nPage errors seen: ${b5.liveRun.errors.join('; ')}`);
 } else md.push('Not measured.');
 md.push('');
+
+if (b6) {
+  md.push('## 6. Card photo to proposed trace');
+  md.push('');
+  md.push(`Measured ${when(b6)}${stale(b6)}.`);
+  md.push('');
+  md.push(
+    `The automatic tracer (shared-types proposeCardTrace) on ${b6.cards} card photos: the generated test set of ` +
+      'service/src/database/seeds/autotrace-cards.ts (ideal cards with and without clearance, wire-drawn admission, a compound ' +
+      'LP card with a loop, a negative loop at the toe; each turned up to ±8°, under uneven light, a shadow, noise, blur and ' +
+      `JPEG) and the demo's images in samples/cards, each traced ${b6.repeat} times in one process. Per card: median ` +
+      `${fmt(b6.msPerCard.median)} ms, p99 ${fmt(b6.msPerCard.p99)} ms, slowest ${fmt(b6.msPerCard.max)} ms. MEP against the ` +
+      `drawn outline (generated set): mean error ${fmt(b6.mepErrorPercent.mean, 2)} %, largest ${fmt(b6.mepErrorPercent.max, 2)} %, ` +
+      `${b6.mepErrorPercent.refused} refused.`,
+  );
+  md.push('');
+}
 
 const notes = join(ROOT, 'bench', 'NOTES.md');
 if (existsSync(notes)) {

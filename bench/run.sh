@@ -17,7 +17,7 @@ APP_PORT="${BENCH_APP_PORT:-3290}"
 ECHO_PORT="${BENCH_ECHO_PORT:-3291}"
 DB_NAME="crankjournal_bench"
 WORK="$ROOT/.data/bench"
-ONLY="${BENCH_ONLY:-1 2 3 4 5}"
+ONLY="${BENCH_ONLY:-1 2 3 4 5 6}"
 export BENCH_WORK="$WORK" BENCH_ROOT="$ROOT"
 export BENCH_DB_URL="$(db_url "$PG_PORT" "$DB_NAME")"
 BENCH_PG_SUPER_URL="postgres://postgres:$(secret_file pg-superuser-password)@127.0.0.1:$PG_PORT/$DB_NAME"
@@ -129,6 +129,7 @@ if wants 4; then
   run_bench 4 b4-bearing-history.mjs
 fi
 run_bench 5 b5-ui.mjs
+run_bench 6 b6-autotrace.mjs
 
 stop_server
 node "$ROOT/bench/report.mjs" --seconds "$(( $(date +%s) - STARTED_AT ))"

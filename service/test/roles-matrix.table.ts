@@ -131,6 +131,7 @@ export const ROUTE_ACCESS: Record<string, RouteAccess> = {
   // indicator cards (modules/indicator-cards)
   'POST /api/calculations/indicated-power': ANY_ROLE,
   'POST /api/calculations/indicator-trace': ANY_ROLE,
+  'POST /api/calculations/indicator-autotrace': ANY_ROLE,
   'GET /api/runs/:runId/card-sets': ANY_ROLE,
   'POST /api/runs/:runId/card-sets': ENGINE_CREW,
   'POST /api/runs/:runId/card-sets/preview': ENGINE_CREW,

@@ -17,3 +17,4 @@ export * from './api/indicator-cards.js';
 export * from './api/maintenance.js';
 export * from './api/lubrication.js';
 export * from './api/site.js';
+export * from './autotrace/autotrace.js';

@@ -441,3 +441,20 @@ export interface BrakeFigureDto {
 
 /** The live event's payload kinds ('run:record' with kind 'card_set' or 'brake_figure'). */
 export const CARD_RECORD_KINDS = { cardSet: 'card_set', brakeFigure: 'brake_figure' } as const;
+
+/** POST /api/calculations/indicator-autotrace (raw image body; query lengthIn, springPsiPerIn). */
+export interface IndicatorAutotraceResponse {
+  /** The proposed trace, image pixels. */
+  trace: CardTrace;
+  /** Net enclosed area of the diagram, in². */
+  areaIn2: number;
+  meanEffectivePressurePsi: number;
+  /** 0 (nothing to go on) to 1 (a clean card). */
+  confidence: number;
+  /** Why the confidence is below 1, in words. */
+  warnings: string[];
+}
+
+/** How a stored trace was made: the proposal accepted as it was, the proposal adjusted, or traced by hand. */
+export const TRACE_ORIGINS = ['proposed-accepted', 'adjusted', 'by-hand'] as const;
+export type TraceOrigin = (typeof TRACE_ORIGINS)[number];

@@ -16,6 +16,11 @@ export type SharedSchemaName =
   | 'ApiError'
   | 'AssignPointOilRequest'
   | 'AttachmentDto'
+  | 'AutotraceImage'
+  | 'AutotracePoint'
+  | 'AutotraceProposal'
+  | 'AutotraceReason'
+  | 'AutotraceReasonCode'
   | 'BarDto'
   | 'BearingDto'
   | 'BearingHistory'
@@ -107,6 +112,7 @@ export type SharedSchemaName =
   | 'IndicatedPowerEndResult'
   | 'IndicatedPowerRequest'
   | 'IndicatedPowerResponse'
+  | 'IndicatorAutotraceResponse'
   | 'IngestResult'
   | 'InspectionCreateRequest'
   | 'InspectionDto'
@@ -235,6 +241,7 @@ export type SharedSchemaName =
   | 'ToleranceStatus'
   | 'TraceCalibrationRequest'
   | 'TraceCalibrationResponse'
+  | 'TraceOrigin'
   | 'TracePoint'
   | 'UnitConversion'
   | 'UnitConversionTable'
@@ -535,6 +542,99 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
     },
     required: ['id', 'inspectionId', 'kind', 'filename', 'contentType', 'sizeBytes', 'caption', 'uploadedByName', 'uploadedAt'],
     additionalProperties: false,
+  },
+  AutotraceImage: {
+    type: 'object',
+    properties: {
+      data: {
+        anyOf: [
+          {
+            type: 'object',
+            properties: {
+              BYTES_PER_ELEMENT: { type: 'number' },
+              buffer: {
+                type: 'object',
+                properties: { byteLength: { type: 'number' } },
+                required: ['byteLength'],
+                additionalProperties: false,
+              },
+              byteLength: { type: 'number' },
+              byteOffset: { type: 'number' },
+              length: { type: 'number' },
+            },
+            required: ['BYTES_PER_ELEMENT', 'buffer', 'byteLength', 'byteOffset', 'length'],
+            additionalProperties: { type: 'number' },
+          },
+          {
+            type: 'object',
+            properties: {
+              BYTES_PER_ELEMENT: { type: 'number' },
+              buffer: {
+                type: 'object',
+                properties: { byteLength: { type: 'number' } },
+                required: ['byteLength'],
+                additionalProperties: false,
+              },
+              byteLength: { type: 'number' },
+              byteOffset: { type: 'number' },
+              length: { type: 'number' },
+            },
+            required: ['BYTES_PER_ELEMENT', 'buffer', 'byteLength', 'byteOffset', 'length'],
+            additionalProperties: { type: 'number' },
+          },
+        ],
+        description: 'RGBA bytes, row by row (as a canvas ImageData or a decoded PNG gives them).',
+      },
+      width: { type: 'number' },
+      height: { type: 'number' },
+    },
+    required: ['data', 'width', 'height'],
+    additionalProperties: false,
+  },
+  AutotracePoint: {
+    type: 'object',
+    properties: { x: { type: 'number' }, y: { type: 'number' } },
+    required: ['x', 'y'],
+    additionalProperties: false,
+  },
+  AutotraceProposal: {
+    type: 'object',
+    properties: {
+      found: { type: 'boolean', description: 'True when a trace is proposed; false when the card is refused (see reasons).' },
+      atmosphericLine: {
+        anyOf: [{ type: 'array', items: { $ref: '#/components/schemas/AutotracePoint' }, minItems: 2, maxItems: 2 }, { type: 'null' }],
+        description: 'Two points on the atmospheric line (its ends as drawn), image pixels.',
+      },
+      admissionEndPx: {
+        anyOf: [{ $ref: '#/components/schemas/AutotracePoint' }, { type: 'null' }],
+        description: 'Where the diagram reaches furthest toward the admission end, and toward the release end.',
+      },
+      releaseEndPx: { anyOf: [{ $ref: '#/components/schemas/AutotracePoint' }, { type: 'null' }] },
+      pointsPx: {
+        type: 'array',
+        items: { $ref: '#/components/schemas/AutotracePoint' },
+        description: 'The outline along the middle of the stroke, image pixels, closed implicitly.',
+      },
+      confidence: { type: 'number', description: '0 (nothing to go on) to 1 (clean card).' },
+      reasons: {
+        type: 'array',
+        items: { $ref: '#/components/schemas/AutotraceReason' },
+        description: 'Why the confidence is low, or why the card was refused.',
+      },
+      loops: { type: 'number', description: 'Number of enclosed loops in the diagram (2 or more for a card with a loop).' },
+    },
+    required: ['found', 'atmosphericLine', 'admissionEndPx', 'releaseEndPx', 'pointsPx', 'confidence', 'reasons', 'loops'],
+    additionalProperties: false,
+  },
+  AutotraceReason: {
+    type: 'object',
+    properties: { code: { $ref: '#/components/schemas/AutotraceReasonCode' }, message: { type: 'string' } },
+    required: ['code', 'message'],
+    additionalProperties: false,
+  },
+  AutotraceReasonCode: {
+    type: 'string',
+    enum: ['too-small', 'low-contrast', 'glare', 'no-atmospheric-line', 'no-diagram', 'not-closed', 'two-diagrams', 'several-loops'],
   },
   BarDto: {
     type: 'object',
@@ -2450,6 +2550,19 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       'referredMeanEffectivePressureMissing',
     ],
     additionalProperties: false,
+  },
+  IndicatorAutotraceResponse: {
+    type: 'object',
+    properties: {
+      trace: { $ref: '#/components/schemas/CardTrace', description: 'The proposed trace, image pixels.' },
+      areaIn2: { type: 'number', description: 'Net enclosed area of the diagram, in².' },
+      meanEffectivePressurePsi: { type: 'number' },
+      confidence: { type: 'number', description: '0 (nothing to go on) to 1 (a clean card).' },
+      warnings: { type: 'array', items: { type: 'string' }, description: 'Why the confidence is below 1, in words.' },
+    },
+    required: ['trace', 'areaIn2', 'meanEffectivePressurePsi', 'confidence', 'warnings'],
+    additionalProperties: false,
+    description: 'POST /api/calculations/indicator-autotrace (raw image body; query lengthIn, springPsiPerIn).',
   },
   IngestResult: {
     type: 'object',
@@ -4768,6 +4881,7 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
     ],
     additionalProperties: false,
   },
+  TraceOrigin: { type: 'string', enum: ['proposed-accepted', 'adjusted', 'by-hand'] },
   TracePoint: {
     type: 'object',
     properties: { x: { type: 'number' }, y: { type: 'number' } },

@@ -77,9 +77,9 @@ export function encodePng(widthPx: number, heightPx: number, rgb: Uint8Array): B
 // A small canvas
 // ---------------------------------------------------------------------------------------------
 
-type Rgb = [number, number, number];
+export type Rgb = [number, number, number];
 
-class Canvas {
+export class Canvas {
   readonly px: Uint8Array;
   constructor(
     readonly width: number,
@@ -140,7 +140,7 @@ class Canvas {
 // ---------------------------------------------------------------------------------------------
 
 /** A small deterministic generator, so a drawing is the same on every machine. */
-function prng(seed: string): () => number {
+export function prng(seed: string): () => number {
   let h = createHash('sha256').update(seed).digest().readUInt32LE(0) || 1;
   return () => {
     h ^= h << 13;

@@ -1,21 +1,45 @@
-import { Body, Controller, HttpCode, Post } from '@nestjs/common';
-import { ApiBadRequestResponse, ApiBody, ApiBearerAuth, ApiOperation, ApiTags } from '@nestjs/swagger';
+import {
+  BadRequestException,
+  Body,
+  Controller,
+  HttpCode,
+  HttpException,
+  Post,
+  Query,
+  Req,
+  UnprocessableEntityException,
+  UnsupportedMediaTypeException,
+} from '@nestjs/common';
+import type { Request } from 'express';
+import jpeg from 'jpeg-js';
+import { PNG } from 'pngjs';
+import { ApiBadRequestResponse, ApiBearerAuth, ApiBody, ApiConsumes, ApiOperation, ApiTags } from '@nestjs/swagger';
 import { AnyRole } from '../../common/decorators/roles.decorator.js';
 import { computeIndicatedPower } from '../../calculations/indicated-power.js';
-import { ApiAnswer } from '../../common/openapi/api-answer.decorator.js';
+import { autotraceCard } from '../../calculations/indicator-autotrace.js';
+import { sniffImage } from '../../common/util/image-sniff.js';
+import { ApiAnswer, ApiErrors } from '../../common/openapi/api-answer.decorator.js';
 import {
   IndicatedPowerRequestDto,
   IndicatedPowerResponseDto,
+  IndicatorAutotraceQueryDto,
+  IndicatorAutotraceResponseDto,
   TraceCalibrationRequestDto,
   TraceCalibrationResponseDto,
 } from './dto/calculations.dto.js';
 import { calibrateCardTrace } from './card-set-results.js';
+import { CardImagesService, readLimited } from './card-images.service.js';
+
+/** A decoded photo larger than this is refused (the tracer works on far less). */
+const MAX_AUTOTRACE_PIXELS = 40_000_000;
 
 /** Stateless calculators for indicator cards (nothing is stored). */
 @ApiTags('calculations')
 @ApiBearerAuth()
 @Controller('calculations')
 export class IndicatorCalculationsController {
+  constructor(private readonly images: CardImagesService) {}
+
   @Post('indicated-power')
   @HttpCode(200)
   @AnyRole()
@@ -82,5 +106,78 @@ export class IndicatorCalculationsController {
   @ApiBadRequestResponse({ description: 'The trace or scale is not valid; the message names the field.' })
   indicatorTrace(@Body() dto: TraceCalibrationRequestDto): TraceCalibrationResponseDto {
     return calibrateCardTrace(dto.trace, dto.springPsiPerIn, dto.lengthIn);
+  }
+
+  /** The photo itself as the body (PNG or JPEG, judged by its bytes); the scale in the query. */
+  @Post('indicator-autotrace')
+  @HttpCode(200)
+  @AnyRole()
+  @ApiConsumes('image/png', 'image/jpeg', 'image/webp')
+  @ApiBody({ schema: { type: 'string', format: 'binary' } })
+  @ApiOperation({
+    summary: 'Propose the trace of a card photo automatically',
+    description:
+      'Finds the atmospheric line and the closed outline of the diagram in the photo and answers the proposed trace (image pixels), ' +
+      'its area (in²), mean effective pressure (psi), a confidence (0–1) and warnings. PNG and JPEG are read; WebP answers 415 ' +
+      '(no WebP decoder on the server: the card editor traces WebP photos in the browser). 400 names the field for a bad image or ' +
+      'scale; 422 gives the reasons when no single closed diagram is found.',
+  })
+  @ApiAnswer('IndicatorAutotraceResponse')
+  @ApiErrors(413, 415, 422)
+  @ApiBadRequestResponse({ description: 'The image or the scale is not valid; the message names the field.' })
+  async indicatorAutotrace(@Query() q: IndicatorAutotraceQueryDto, @Req() req: Request): Promise<IndicatorAutotraceResponseDto> {
+    const type = (req.headers['content-type'] ?? '').split(';')[0].trim().toLowerCase();
+    if (!type.startsWith('image/') && type !== 'application/octet-stream') {
+      req.resume();
+      throw new UnsupportedMediaTypeException('Send the image itself as the body, with Content-Type image/png or image/jpeg.');
+    }
+    const max = this.images.maxBytes;
+    if (Number(req.headers['content-length'] ?? 0) > max) {
+      req.resume();
+      throw new HttpException(
+        { statusCode: 413, error: 'Payload Too Large', message: `image: larger than ${max} bytes; send a smaller photo.` },
+        413,
+      );
+    }
+    const body = await readLimited(req, max);
+    const sniffed = await sniffImage(body);
+    if (!sniffed) throw new BadRequestException('image: the body is not a PNG, JPEG or WebP image of a sensible size');
+    if (sniffed.contentType === 'image/webp') {
+      throw new UnsupportedMediaTypeException(
+        'image: WebP is not read on the server; send a PNG or JPEG, or use the card editor, which reads WebP',
+      );
+    }
+    if (sniffed.widthPx * sniffed.heightPx > MAX_AUTOTRACE_PIXELS) {
+      throw new BadRequestException(`image: at most ${MAX_AUTOTRACE_PIXELS / 1e6} megapixels; send a smaller photo`);
+    }
+    let pixels: { data: Uint8Array; width: number; height: number };
+    try {
+      if (sniffed.contentType === 'image/png') {
+        const png = PNG.sync.read(body);
+        pixels = { data: png.data, width: png.width, height: png.height };
+      } else {
+        const img = jpeg.decode(body, { useTArray: true, formatAsRGBA: true, maxMemoryUsageInMB: 512 });
+        pixels = { data: img.data, width: img.width, height: img.height };
+      }
+    } catch {
+      throw new BadRequestException('image: the picture could not be decoded (a damaged or cut-short file)');
+    }
+    const result = autotraceCard(pixels, { lengthIn: q.lengthIn, springPsiPerIn: q.springPsiPerIn });
+    const messages = result.proposal.reasons.map((r) => r.message);
+    if (!result.trace || result.areaSqIn == null || result.meanEffectivePressurePsi == null) {
+      throw new UnprocessableEntityException({
+        statusCode: 422,
+        error: 'Unprocessable Entity',
+        message: `No single closed diagram was found: ${messages.join(' ')}`,
+        reasons: result.proposal.reasons,
+      });
+    }
+    return {
+      trace: result.trace,
+      areaIn2: result.areaSqIn,
+      meanEffectivePressurePsi: result.meanEffectivePressurePsi,
+      confidence: result.proposal.confidence,
+      warnings: messages,
+    };
   }
 }

@@ -26,6 +26,7 @@ import {
   type TraceCalibrationResponse,
   type TracePoint,
   type CardOutlinePointDto,
+  type IndicatorAutotraceResponse,
 } from '@crankjournal/shared-types';
 import { IsFiniteNumberIn } from '../../../common/dto/validators.js';
 import { IsPositiveNumberUpTo } from './validators.js';
@@ -193,4 +194,24 @@ export class TraceCalibrationResponseDto implements TraceCalibrationResponse {
   @ApiProperty() verticalPixelsPerInch: number;
   @ApiProperty() atmosphericLineTiltDeg: number;
   @ApiProperty({ type: [CardOutlinePointResponseDto] }) outline: CardOutlinePointResponseDto[];
+}
+
+/** Query of POST /api/calculations/indicator-autotrace: the scale of the card in the photo. */
+export class IndicatorAutotraceQueryDto {
+  @ApiProperty({ description: 'Length of the diagram on the card, in', example: 3.5 })
+  @Type(() => Number)
+  @IsPositiveNumberUpTo(20)
+  lengthIn: number;
+  @ApiProperty({ description: 'Spring scale, psi per inch of pen height', example: 60 })
+  @Type(() => Number)
+  @IsPositiveNumberUpTo(1000)
+  springPsiPerIn: number;
+}
+
+export class IndicatorAutotraceResponseDto implements IndicatorAutotraceResponse {
+  @ApiProperty({ description: 'The proposed trace, image pixels' }) trace: CardTrace;
+  @ApiProperty({ description: 'Enclosed (net) area of the diagram, in²' }) areaIn2: number;
+  @ApiProperty({ description: 'Mean effective pressure, psi' }) meanEffectivePressurePsi: number;
+  @ApiProperty({ description: '0 (nothing to go on) to 1 (a clean card)' }) confidence: number;
+  @ApiProperty({ description: 'Why the confidence is below 1', type: [String] }) warnings: string[];
 }
