@@ -20,6 +20,9 @@ export interface paths {
   "/api/auth/logout": {
     post: operations["AuthController_logout"];
   };
+  "/api/auth/logout-everywhere": {
+    post: operations["AuthController_logoutEverywhere"];
+  };
   "/api/auth/me": {
     get: operations["AuthController_me"];
     patch: operations["AuthController_updateMe"];
@@ -328,6 +331,13 @@ export interface paths {
      * @description The atmospheric line and the two ends of the diagram set the frame; the card length (or a known pixels-per-inch) sets the scale. Answers the area from the traced polygon (shoelace), mean height, mean effective pressure and the outline in card coordinates.
      */
     post: operations["IndicatorCalculationsController_indicatorTrace"];
+  };
+  "/api/calculations/indicator-autotrace": {
+    /**
+     * Propose the trace of a card photo automatically
+     * @description Finds the atmospheric line and the closed outline of the diagram in the photo and answers the proposed trace (image pixels), its area (in²), mean effective pressure (psi), a confidence (0–1) and warnings. PNG and JPEG are read; WebP answers 415 (no WebP decoder on the server: the card editor traces WebP photos in the browser). 400 names the field for a bad image or scale; 422 gives the reasons when no single closed diagram is found.
+     */
+    post: operations["IndicatorCalculationsController_indicatorAutotrace"];
   };
   "/api/maintenance/bearings": {
     /** Every bearing with its run count and drift flags */
@@ -1764,6 +1774,48 @@ export interface components {
       uploadedByName: string;
       uploadedAt: string;
     };
+    AutotraceImage: {
+      /** @description RGBA bytes, row by row (as a canvas ImageData or a decoded PNG gives them). */
+      data: {
+        BYTES_PER_ELEMENT: number;
+        buffer: {
+          byteLength: number;
+        };
+        byteLength: number;
+        byteOffset: number;
+        length: number;
+        [key: string]: number;
+      };
+      width: number;
+      height: number;
+    };
+    AutotracePoint: {
+      x: number;
+      y: number;
+    };
+    AutotraceProposal: {
+      /** @description True when a trace is proposed; false when the card is refused (see reasons). */
+      found: boolean;
+      /** @description Two points on the atmospheric line (its ends as drawn), image pixels. */
+      atmosphericLine: components["schemas"]["AutotracePoint"][] | null;
+      /** @description Where the diagram reaches furthest toward the admission end, and toward the release end. */
+      admissionEndPx: components["schemas"]["AutotracePoint"] | null;
+      releaseEndPx: components["schemas"]["AutotracePoint"] | null;
+      /** @description The outline along the middle of the stroke, image pixels, closed implicitly. */
+      pointsPx: components["schemas"]["AutotracePoint"][];
+      /** @description 0 (nothing to go on) to 1 (clean card). */
+      confidence: number;
+      /** @description Why the confidence is low, or why the card was refused. */
+      reasons: components["schemas"]["AutotraceReason"][];
+      /** @description Number of enclosed loops in the diagram (2 or more for a card with a loop). */
+      loops: number;
+    };
+    AutotraceReason: {
+      code: components["schemas"]["AutotraceReasonCode"];
+      message: string;
+    };
+    /** @enum {string} */
+    AutotraceReasonCode: "too-small" | "low-contrast" | "glare" | "no-atmospheric-line" | "no-diagram" | "not-closed" | "two-diagrams" | "several-loops";
     BarDto: {
       id: string;
       runId: string;
@@ -2815,6 +2867,18 @@ export interface components {
       referredMeanEffectivePressurePsi: number | null;
       /** @description Why the referred MEP is absent (null when it is given). */
       referredMeanEffectivePressureMissing: string | null;
+    };
+    /** @description POST /api/calculations/indicator-autotrace (raw image body; query lengthIn, springPsiPerIn). */
+    IndicatorAutotraceResponse: {
+      /** @description The proposed trace, image pixels. */
+      trace: components["schemas"]["CardTrace"];
+      /** @description Net enclosed area of the diagram, in². */
+      areaIn2: number;
+      meanEffectivePressurePsi: number;
+      /** @description 0 (nothing to go on) to 1 (a clean card). */
+      confidence: number;
+      /** @description Why the confidence is below 1, in words. */
+      warnings: string[];
     };
     IngestResult: {
       stored: number;
@@ -4106,6 +4170,14 @@ export interface components {
       from: string;
       at: string;
     };
+    /** @description The works' own settings: its name and time zone on every printed record, and the wet-signature block. */
+    SiteSettings: {
+      worksName: string;
+      /** @description An IANA time zone name (for example Europe/London); printed records show times in it, stored times stay UTC. */
+      timeZone: string;
+      /** @description Whether the run log sheet ends with a block for a signature in ink. */
+      wetSignature: boolean;
+    };
     StartChecklistRequest: {
       templateId: string;
     };
@@ -4174,6 +4246,8 @@ export interface components {
       /** @description The outline in card coordinates. */
       outline: components["schemas"]["CardOutlinePointDto"][];
     };
+    /** @enum {string} */
+    TraceOrigin: "proposed-accepted" | "adjusted" | "by-hand";
     /** @description A point on the card image, in the image's own pixels (x to the right, y downward). */
     TracePoint: {
       x: number;
@@ -4213,6 +4287,14 @@ export interface components {
       plannedFor?: string | null;
       crewIds?: string[];
       notes?: string;
+    };
+    /** @description PUT /api/site/settings (administrator): any of the fields. */
+    UpdateSiteSettingsRequest: {
+      worksName?: string;
+      /** @description An IANA time zone name (for example Europe/London); printed records show times in it, stored times stay UTC. */
+      timeZone?: string;
+      /** @description Whether the run log sheet ends with a block for a signature in ink. */
+      wetSignature?: boolean;
     };
     UpdateUserRequest: {
       role?: components["schemas"]["Role"];
@@ -4387,6 +4469,18 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   AuthController_login: {
@@ -4404,6 +4498,12 @@ export interface operations {
       };
       /** @description Bad request: the body, query or path failed validation (the message says which field and why) */
       400: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -4435,6 +4535,12 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
       /** @description Too many attempts; wait and try again */
       429: {
         content: {
@@ -4458,6 +4564,18 @@ export interface operations {
       };
       /** @description Bad request: the body, query or path failed validation (the message says which field and why) */
       400: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -4489,6 +4607,44 @@ export interface operations {
       };
       /** @description Signed in, but the role may not do this */
       403: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+    };
+  };
+  AuthController_logoutEverywhere: {
+    responses: {
+      /** @description Done; no body */
+      204: {
+        content: never;
+      };
+      /** @description Not signed in, or the access token (or logger key) is missing, expired or revoked */
+      401: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Signed in, but the role may not do this */
+      403: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -4548,6 +4704,18 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   AuthController_changePassword: {
@@ -4579,6 +4747,18 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   AuthController_setPin: {
@@ -4606,6 +4786,18 @@ export interface operations {
       };
       /** @description Signed in, but the role may not do this */
       403: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -4687,6 +4879,18 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   UsersController_update: {
@@ -4722,6 +4926,18 @@ export interface operations {
       };
       /** @description Nothing with that id */
       404: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -4791,6 +5007,18 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   EnginesController_detail: {
@@ -4854,6 +5082,18 @@ export interface operations {
       };
       /** @description Nothing with that id */
       404: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -4958,6 +5198,12 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   AlarmsController_shelve: {
@@ -4997,6 +5243,18 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   AlarmsController_unshelve: {
@@ -5021,6 +5279,12 @@ export interface operations {
       };
       /** @description Nothing with that id */
       404: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -5076,6 +5340,18 @@ export interface operations {
       };
       /** @description Signed in, but the role may not do this */
       403: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -5181,6 +5457,18 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   RunsController_transition: {
@@ -5216,6 +5504,18 @@ export interface operations {
       };
       /** @description Nothing with that id */
       404: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -5399,6 +5699,18 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   RunsController_importCsv: {
@@ -5423,6 +5735,12 @@ export interface operations {
       };
       /** @description Nothing with that id */
       404: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -5494,6 +5812,18 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   LoggersController_list: {
@@ -5549,6 +5879,18 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   LoggersController_revoke: {
@@ -5577,6 +5919,12 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   LoggersController_push: {
@@ -5599,6 +5947,18 @@ export interface operations {
       };
       /** @description Bad request: the body, query or path failed validation (the message says which field and why) */
       400: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -5680,6 +6040,18 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   QualificationsController_matrix: {
@@ -5752,6 +6124,18 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   QualificationsController_withdraw: {
@@ -5787,6 +6171,18 @@ export interface operations {
       };
       /** @description Nothing with that id */
       404: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -5842,6 +6238,18 @@ export interface operations {
       };
       /** @description Signed in, but the role may not do this */
       403: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -5941,6 +6349,18 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   ChecklistTemplatesController_discardDraft: {
@@ -5965,6 +6385,12 @@ export interface operations {
       };
       /** @description Nothing with that id */
       404: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -6008,6 +6434,18 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   ChecklistTemplatesController_retire: {
@@ -6036,6 +6474,12 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   ChecklistTemplatesController_reinstate: {
@@ -6060,6 +6504,12 @@ export interface operations {
       };
       /** @description Nothing with that id */
       404: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -6187,6 +6637,18 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   ChecklistsController_detail: {
@@ -6254,6 +6716,18 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   ChecklistsController_photo: {
@@ -6310,6 +6784,12 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   ChecklistsController_override: {
@@ -6345,6 +6825,18 @@ export interface operations {
       };
       /** @description Nothing with that id */
       404: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -6388,6 +6880,18 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   ChecklistsController_amend: {
@@ -6427,18 +6931,26 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   SiteController_settings: {
     responses: {
-      /** @description The works' settings */
+      /** @description SiteSettings */
       200: {
         content: {
-          "application/json": {
-            worksName: string;
-            timeZone: string;
-            wetSignature: boolean;
-          };
+          "application/json": components["schemas"]["SiteSettings"];
         };
       };
       /** @description Not signed in, or the access token (or logger key) is missing, expired or revoked */
@@ -6462,14 +6974,10 @@ export interface operations {
       };
     };
     responses: {
-      /** @description The works' settings */
+      /** @description SiteSettings */
       200: {
         content: {
-          "application/json": {
-            worksName: string;
-            timeZone: string;
-            wetSignature: boolean;
-          };
+          "application/json": components["schemas"]["SiteSettings"];
         };
       };
       /** @description Bad request: the body, query or path failed validation (the message says which field and why) */
@@ -6486,6 +6994,18 @@ export interface operations {
       };
       /** @description Signed in, but the role may not do this */
       403: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -6542,6 +7062,18 @@ export interface operations {
       };
       /** @description Signed in, but the role may not do this */
       403: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -6613,6 +7145,18 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   MillController_schedulesList: {
@@ -6676,6 +7220,18 @@ export interface operations {
       };
       /** @description Signed in, but the role may not do this */
       403: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -6748,6 +7304,18 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   /** Plan a new schedule from a template (or any schedule) */
@@ -6784,6 +7352,18 @@ export interface operations {
       };
       /** @description Nothing with that id */
       404: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -6907,6 +7487,18 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   RollingLogController_updateBar: {
@@ -6942,6 +7534,18 @@ export interface operations {
       };
       /** @description Nothing with that id */
       404: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -6982,6 +7586,18 @@ export interface operations {
       };
       /** @description Nothing with that id */
       404: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -7037,6 +7653,18 @@ export interface operations {
       };
       /** @description Signed in, but the role may not do this */
       403: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -7108,6 +7736,18 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   /** Move a lot one step: enquiry → quoted → accepted → scheduled → rolled → inspected → delivered (409 when skipping) */
@@ -7144,6 +7784,18 @@ export interface operations {
       };
       /** @description Nothing with that id */
       404: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -7187,6 +7839,18 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   LotsController_unlinkRun: {
@@ -7211,6 +7875,12 @@ export interface operations {
       };
       /** @description Nothing with that id */
       404: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -7283,6 +7953,18 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   LotsController_pdf: {
@@ -7351,6 +8033,18 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   /**
@@ -7384,6 +8078,12 @@ export interface operations {
       };
       /** @description Signed in, but the role may not do this */
       403: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -7457,6 +8157,18 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   /** What a card set would come to, without storing it */
@@ -7493,6 +8205,18 @@ export interface operations {
       };
       /** @description Nothing with that id */
       404: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -7565,6 +8289,18 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   /** Correct a set's own figures; the old values stay with the reason, who and when */
@@ -7601,6 +8337,18 @@ export interface operations {
       };
       /** @description Nothing with that id */
       404: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -7645,6 +8393,18 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   /** Upload a card image (the raw image as the body); refused unless its bytes are a PNG, JPEG or WebP image */
@@ -7683,6 +8443,24 @@ export interface operations {
       };
       /** @description Nothing with that id */
       404: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The upload is not of an accepted type */
+      415: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -7784,6 +8562,18 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   CardSetsController_amendBrakeFigure: {
@@ -7819,6 +8609,18 @@ export interface operations {
       };
       /** @description Nothing with that id */
       404: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -7860,6 +8662,12 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   /**
@@ -7893,6 +8701,77 @@ export interface operations {
       };
       /** @description Signed in, but the role may not do this */
       403: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+    };
+  };
+  /**
+   * Propose the trace of a card photo automatically
+   * @description Finds the atmospheric line and the closed outline of the diagram in the photo and answers the proposed trace (image pixels), its area (in²), mean effective pressure (psi), a confidence (0–1) and warnings. PNG and JPEG are read; WebP answers 415 (no WebP decoder on the server: the card editor traces WebP photos in the browser). 400 names the field for a bad image or scale; 422 gives the reasons when no single closed diagram is found.
+   */
+  IndicatorCalculationsController_indicatorAutotrace: {
+    parameters: {
+      query: {
+        /** @description Length of the diagram on the card, in */
+        lengthIn: number;
+        /** @description Spring scale, psi per inch of pen height */
+        springPsiPerIn: number;
+      };
+    };
+    requestBody: {
+      content: {
+        "image/png": string;
+        "image/jpeg": string;
+        "image/webp": string;
+      };
+    };
+    responses: {
+      /** @description IndicatorAutotraceResponse */
+      200: {
+        content: {
+          "application/json": components["schemas"]["IndicatorAutotraceResponse"];
+        };
+      };
+      /** @description The image or the scale is not valid; the message names the field. */
+      400: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Not signed in, or the access token (or logger key) is missing, expired or revoked */
+      401: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Signed in, but the role may not do this */
+      403: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The upload is not of an accepted type */
+      415: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Well-formed but refused by a rule (e.g. the start gate, a calculation outside its valid range) */
+      422: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -8090,6 +8969,18 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   MaintenanceController_getPlan: {
@@ -8157,6 +9048,18 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   MaintenanceController_listInspections: {
@@ -8209,6 +9112,18 @@ export interface operations {
       };
       /** @description Signed in, but the role may not do this */
       403: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -8281,6 +9196,24 @@ export interface operations {
       };
       /** @description Nothing with that id */
       404: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The upload is not of an accepted type */
+      415: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -8369,6 +9302,18 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   MaintenanceController_getWork: {
@@ -8437,6 +9382,18 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   /** Close a work record; the plans it satisfies (or those named) start their intervals again from it */
@@ -8473,6 +9430,18 @@ export interface operations {
       };
       /** @description Nothing with that id */
       404: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -8533,6 +9502,18 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   LubricationController_updateOil: {
@@ -8568,6 +9549,18 @@ export interface operations {
       };
       /** @description Nothing with that id */
       404: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -8612,6 +9605,18 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   /** Log oil used by a lubrication point in a run: a quantity added, or the levels before and after */
@@ -8642,6 +9647,18 @@ export interface operations {
       };
       /** @description Signed in, but the role may not do this */
       403: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -8741,6 +9758,12 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   /**
@@ -8774,6 +9797,12 @@ export interface operations {
       };
       /** @description Signed in, but the role may not do this */
       403: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -8815,6 +9844,12 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   /**
@@ -8848,6 +9883,12 @@ export interface operations {
       };
       /** @description Signed in, but the role may not do this */
       403: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };

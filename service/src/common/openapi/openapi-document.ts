@@ -44,7 +44,9 @@ function addError(op: Operation, status: ErrorStatus): void {
 /**
  * The OpenAPI 3.1 description of the API: Nest's routes and request DTOs, answer shapes from shared-types
  * (shared-schemas.generated.ts), and the error answers every route can give: 400 where it takes input,
- * 401 and 403 where it needs a sign-in or a logger key, 429 on the sign-in routes.
+ * 401 and 403 where it needs a sign-in or a logger key, 404 where the path names a record, 409 on writes that
+ * touch stored records, 413 where it takes a body, 415 where it takes an upload, 429 on the sign-in routes;
+ * 422 and any other a route adds with @ApiErrors.
  */
 export function buildApiDocument(app: INestApplication): OpenAPIObject {
   applyAnswerDecorators();
@@ -80,8 +82,16 @@ export function buildApiDocument(app: INestApplication): OpenAPIObject {
     }
   }
   doc.components.schemas = { ...own, ...(sharedSchemas as NonNullable<typeof doc.components.schemas>) };
-  for (const { path, op } of operationsOf(doc)) {
+  for (const { method, path, op } of operationsOf(doc)) {
     const takesInput = !!op.requestBody || (op.parameters ?? []).length > 0;
+    const bodyTypes = Object.keys(op.requestBody && 'content' in op.requestBody ? (op.requestBody.content ?? {}) : {});
+    // Every write that touches stored records can meet a state that does not allow it (a closed run, a signed
+    // checklist) or a record that already exists (a unique key): 409. The stateless calculators and sign-in store nothing.
+    const stateless = path.startsWith('/api/calculations/') || path === '/api/auth/login' || path === '/api/auth/refresh';
+    if (method !== 'get' && !stateless) addError(op, 409);
+    // Every body passes a size limit (JSON and uploads alike); an upload is judged by its content.
+    if (bodyTypes.length) addError(op, 413);
+    if (bodyTypes.some((t) => t !== 'application/json')) addError(op, 415);
     if (takesInput) addError(op, 400);
     if ((op.security ?? []).length > 0) {
       addError(op, 401);
