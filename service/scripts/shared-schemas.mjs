@@ -35,6 +35,9 @@ function rewrite(node) {
   return out;
 }
 
+/** Shared types that never travel over the API: the tracer's in-memory pixel buffer. */
+const NOT_ON_THE_WIRE = new Set(['AutotraceImage']);
+
 /** The component schemas of every exported shared-types type (functions and constants left out). */
 export function sharedSchemas() {
   const schema = createGenerator({
@@ -51,6 +54,7 @@ export function sharedSchemas() {
   for (const name of Object.keys(schema.definitions ?? {}).sort()) {
     const def = schema.definitions[name];
     if (typeof def.$comment === 'string' && def.$comment.includes('=>')) continue; // a helper function
+    if (NOT_ON_THE_WIRE.has(name)) continue;
     out[componentName(name)] = rewrite(def);
   }
   return out;

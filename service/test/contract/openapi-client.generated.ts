@@ -1774,21 +1774,6 @@ export interface components {
       uploadedByName: string;
       uploadedAt: string;
     };
-    AutotraceImage: {
-      /** @description RGBA bytes, row by row (as a canvas ImageData or a decoded PNG gives them). */
-      data: {
-        BYTES_PER_ELEMENT: number;
-        buffer: {
-          byteLength: number;
-        };
-        byteLength: number;
-        byteOffset: number;
-        length: number;
-        [key: string]: number;
-      };
-      width: number;
-      height: number;
-    };
     AutotracePoint: {
       x: number;
       y: number;

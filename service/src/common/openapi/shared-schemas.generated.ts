@@ -16,7 +16,6 @@ export type SharedSchemaName =
   | 'ApiError'
   | 'AssignPointOilRequest'
   | 'AttachmentDto'
-  | 'AutotraceImage'
   | 'AutotracePoint'
   | 'AutotraceProposal'
   | 'AutotraceReason'
@@ -541,54 +540,6 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       uploadedAt: { type: 'string' },
     },
     required: ['id', 'inspectionId', 'kind', 'filename', 'contentType', 'sizeBytes', 'caption', 'uploadedByName', 'uploadedAt'],
-    additionalProperties: false,
-  },
-  AutotraceImage: {
-    type: 'object',
-    properties: {
-      data: {
-        anyOf: [
-          {
-            type: 'object',
-            properties: {
-              BYTES_PER_ELEMENT: { type: 'number' },
-              buffer: {
-                type: 'object',
-                properties: { byteLength: { type: 'number' } },
-                required: ['byteLength'],
-                additionalProperties: false,
-              },
-              byteLength: { type: 'number' },
-              byteOffset: { type: 'number' },
-              length: { type: 'number' },
-            },
-            required: ['BYTES_PER_ELEMENT', 'buffer', 'byteLength', 'byteOffset', 'length'],
-            additionalProperties: { type: 'number' },
-          },
-          {
-            type: 'object',
-            properties: {
-              BYTES_PER_ELEMENT: { type: 'number' },
-              buffer: {
-                type: 'object',
-                properties: { byteLength: { type: 'number' } },
-                required: ['byteLength'],
-                additionalProperties: false,
-              },
-              byteLength: { type: 'number' },
-              byteOffset: { type: 'number' },
-              length: { type: 'number' },
-            },
-            required: ['BYTES_PER_ELEMENT', 'buffer', 'byteLength', 'byteOffset', 'length'],
-            additionalProperties: { type: 'number' },
-          },
-        ],
-        description: 'RGBA bytes, row by row (as a canvas ImageData or a decoded PNG gives them).',
-      },
-      width: { type: 'number' },
-      height: { type: 'number' },
-    },
-    required: ['data', 'width', 'height'],
     additionalProperties: false,
   },
   AutotracePoint: {
