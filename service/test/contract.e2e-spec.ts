@@ -327,7 +327,7 @@ describe('live answers keep to the description', () => {
     expect(pushed.stored).toBe(1);
 
     // The calculators, each with the example values its description carries.
-    const drawnTrace = drawIndicatorCard({
+    const drawn = drawIndicatorCard({
       seed: 'contract',
       end: 'crank',
       admissionPressurePsia: 39,
@@ -336,14 +336,20 @@ describe('live answers keep to the description', () => {
       clearanceFraction: 0.06,
       springPsiPerIn: 20,
       lengthIn: 3.5,
-    }).trace;
+    });
     for (const { method, path, op } of operationsOf(doc).filter((o) => o.path.startsWith('/api/calculations/'))) {
+      const content = (op.requestBody as { content: Record<string, unknown> }).content;
+      if (!('application/json' in content)) {
+        // An upload (the card tracer): the drawn card's picture as the raw body, its scale in the query.
+        await expectOk(method as 'post', path, `${path}?lengthIn=3.5&springPsiPerIn=20`, drawn.png, { 'content-type': 'image/png' });
+        continue;
+      }
       const ref = (op.requestBody as { content: Record<string, { schema: { $ref?: string } }> }).content['application/json'].schema.$ref;
       const schema = doc.components!.schemas![ref!.split('/').pop()!] as { properties: Record<string, { example?: unknown }> };
       const fromProperties = Object.fromEntries(Object.entries(schema.properties).map(([k, p]) => [k, p.example]));
       // A trace is hundreds of points: drawn here rather than written out in the description.
       const body = path.endsWith('/indicator-trace')
-        ? { trace: drawnTrace, springPsiPerIn: 20, lengthIn: 3.5 }
+        ? { trace: drawn.trace, springPsiPerIn: 20, lengthIn: 3.5 }
         : (example(path) ?? fromProperties);
       await expectOk(method as 'post', path, path, body);
     }
