@@ -19,6 +19,7 @@
  * All limits are per-point (or per-engine) settings chosen by the chief engineer; none of them
  * comes from a published source.
  */
+import type { MeasurementKind } from '@crankjournal/shared-types';
 import {
   absoluteKpaOf,
   celsiusToFahrenheit,
@@ -35,17 +36,8 @@ export const ALARM_CAUTION =
   "bearings, nor local boiler and pressure-vessel law, the insurer's inspections or licensed practice. " +
   'Treat a pressure, overspeed or hot-bearing alarm as real until the crew has checked it.';
 
-export type MeasurementKind =
-  | 'throttle_pressure'
-  | 'receiver_pressure'
-  | 'vacuum'
-  | 'barometer'
-  | 'speed'
-  | 'bearing_temperature'
-  | 'oil_pressure'
-  | 'oil_feed_rate'
-  | 'ambient_temperature'
-  | 'other';
+/** The kinds of measurement point (one list, in shared-types). */
+export type { MeasurementKind };
 
 export type AlarmConditionKind = 'high' | 'high_high' | 'low' | 'rate_of_rise' | 'above_ambient' | 'above_mawp' | 'overspeed';
 

@@ -95,12 +95,6 @@ export class UsersService {
     return new Map(rows.map((u) => [u.id, u.displayName]));
   }
 
-  /** One person's display name, or null when the id is unknown. */
-  async displayName(id: string | null | undefined): Promise<string | null> {
-    if (!id) return null;
-    return (await this.displayNames([id])).get(id) ?? null;
-  }
-
   forget(id: string) {
     this.authCache.delete(id);
   }
