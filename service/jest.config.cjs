@@ -7,7 +7,20 @@ const common = {
 };
 module.exports = {
   projects: [
-    { ...common, displayName: 'unit', rootDir: __dirname, testMatch: ['<rootDir>/src/**/*.spec.ts'] },
+    {
+      ...common,
+      displayName: 'unit',
+      rootDir: __dirname,
+      testMatch: ['<rootDir>/src/**/*.spec.ts'],
+      // Image code (the card tracer, d3's blur and contours, the JPEG codec) with Math bound once per module:
+      // test/utils/bind-math-transform.cjs says why.
+      transform: {
+        '^.+\\.ts$': ['<rootDir>/test/utils/bind-math-ts-transform.cjs', common.transform['^.+\\.ts$'][1]],
+        '/shared-types/dist/autotrace/.+\\.js$': '<rootDir>/test/utils/bind-math-transform.cjs',
+        '/node_modules/(d3-[a-z]+|jpeg-js)/.+\\.m?js$': '<rootDir>/test/utils/bind-math-transform.cjs',
+      },
+      transformIgnorePatterns: ['/node_modules/(?!(d3-[a-z]+|jpeg-js)/)'],
+    },
     {
       ...common,
       displayName: 'e2e',
