@@ -368,7 +368,7 @@ describe('indicator cards and indicated power', () => {
         .send({
           takenAt: takenAt(),
           speedRpm: 75,
-          cards: [{ cylinderId: cyl('HP'), end: 'head', springPsiPerIn: 80, lengthIn: 3.5, imageId, trace }],
+          cards: [{ cylinderId: cyl('HP'), end: 'head', springPsiPerIn: 80, lengthIn: 3.5, imageId, trace, traceOrigin: 'adjusted' }],
         });
       expect(res.status).toBe(201);
       const list = (await signedIn(t, observer).get(`/api/runs/${run.id}/card-sets`)).body as CardSetDto[];
@@ -376,6 +376,7 @@ describe('indicator cards and indicated power', () => {
       expect(card.method).toBe('trace');
       expect(card.imageId).toBe(imageId);
       expect(card.trace).toEqual(trace as CardTrace);
+      expect(card.traceOrigin).toBe('adjusted');
       const again = calibrateTrace({
         atmosphericLine: card.trace!.atmosphericLine,
         diagramStartPx: card.trace!.admissionEndPx,
@@ -388,6 +389,19 @@ describe('indicator cards and indicated power', () => {
       expect(card.outline).toHaveLength(trace.pointsPx.length);
       // The set's results with only one end: incomplete, and it says which ends are missing.
       expect(list.find((s) => s.id === res.body.id)!.results.missingEnds).toHaveLength(3);
+    });
+
+    it('refuses a trace origin it does not know, naming the field', async () => {
+      const { imageId, trace } = await tracedCard();
+      const res = await signedIn(t, operator)
+        .post(`/api/runs/${run.id}/card-sets`)
+        .send({
+          takenAt: takenAt(),
+          speedRpm: 75,
+          cards: [{ cylinderId: cyl('HP'), end: 'head', springPsiPerIn: 80, lengthIn: 3.5, imageId, trace, traceOrigin: 'guessed' }],
+        });
+      expect(res.status).toBe(400);
+      expect(JSON.stringify(res.body)).toContain('traceOrigin must be one of: proposed-accepted, adjusted, by-hand');
     });
 
     it('amends a card: the new figures count, the old ones stay visible with who, when and why', async () => {

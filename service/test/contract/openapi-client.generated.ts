@@ -1139,6 +1139,11 @@ export interface components {
       imageId?: Record<string, never>;
       /** @description The trace (one way; with imageId and springPsiPerIn) */
       trace?: components["schemas"]["CardTraceDto"];
+      /**
+       * @description Where the trace came from: the automatic tracer's proposal accepted, the proposal adjusted, or traced by hand
+       * @enum {string}
+       */
+      traceOrigin?: "proposed-accepted" | "adjusted" | "by-hand";
       /** @description This end's cut-off where it differs from the set's, percent of stroke */
       cutOffPercent?: Record<string, never>;
       /** @description Where compression begins, percent of stroke from the admission end */
@@ -1205,6 +1210,11 @@ export interface components {
       imageId?: Record<string, never>;
       /** @description The trace (one way; with imageId and springPsiPerIn) */
       trace?: components["schemas"]["CardTraceDto"];
+      /**
+       * @description Where the trace came from: the automatic tracer's proposal accepted, the proposal adjusted, or traced by hand
+       * @enum {string}
+       */
+      traceOrigin?: "proposed-accepted" | "adjusted" | "by-hand";
       /** @description This end's cut-off where it differs from the set's, percent of stroke */
       cutOffPercent?: Record<string, never>;
       /** @description Where compression begins, percent of stroke from the admission end */
@@ -1706,6 +1716,8 @@ export interface components {
       /** @description The uploaded image a trace was made on. */
       imageId?: string | null;
       trace?: components["schemas"]["CardTrace"] | null;
+      /** @description Where the trace came from (with a trace). */
+      traceOrigin?: components["schemas"]["TraceOrigin"] | null;
       /** @description This end's cut-off where it differs from the set's, percent of stroke. */
       cutOffPercent?: number | null;
       /** @description Where compression begins, percent of stroke before the end of the return stroke (for the steam accounted for). */
@@ -2013,6 +2025,8 @@ export interface components {
       givenMeanEffectivePressurePsi: number | null;
       imageId: string | null;
       trace: components["schemas"]["CardTrace"] | null;
+      /** @description Where the trace came from (null for a card given another way, or stored without saying). */
+      traceOrigin: components["schemas"]["TraceOrigin"] | null;
       cutOffPercent: number | null;
       compressionPercent: number | null;
       admissionPressurePsig: number | null;
@@ -2055,6 +2069,8 @@ export interface components {
       /** @description The uploaded image a trace was made on. */
       imageId?: string | null;
       trace?: components["schemas"]["CardTrace"] | null;
+      /** @description Where the trace came from (with a trace). */
+      traceOrigin?: components["schemas"]["TraceOrigin"] | null;
       /** @description This end's cut-off where it differs from the set's, percent of stroke. */
       cutOffPercent?: number | null;
       /** @description Where compression begins, percent of stroke before the end of the return stroke (for the steam accounted for). */

@@ -149,6 +149,8 @@ export interface CardInput {
   /** The uploaded image a trace was made on. */
   imageId?: string | null;
   trace?: CardTrace | null;
+  /** Where the trace came from (with a trace). */
+  traceOrigin?: TraceOrigin | null;
   /** This end's cut-off where it differs from the set's, percent of stroke. */
   cutOffPercent?: number | null;
   /** Where compression begins, percent of stroke before the end of the return stroke (for the steam accounted for). */
@@ -223,6 +225,8 @@ export interface CardDto {
   givenMeanEffectivePressurePsi: number | null;
   imageId: string | null;
   trace: CardTrace | null;
+  /** Where the trace came from (null for a card given another way, or stored without saying). */
+  traceOrigin: TraceOrigin | null;
   cutOffPercent: number | null;
   compressionPercent: number | null;
   admissionPressurePsig: number | null;
@@ -458,3 +462,8 @@ export interface IndicatorAutotraceResponse {
 /** How a stored trace was made: the proposal accepted as it was, the proposal adjusted, or traced by hand. */
 export const TRACE_ORIGINS = ['proposed-accepted', 'adjusted', 'by-hand'] as const;
 export type TraceOrigin = (typeof TRACE_ORIGINS)[number];
+export const TRACE_ORIGIN_LABELS: Record<TraceOrigin, string> = {
+  'proposed-accepted': 'traced automatically, accepted',
+  adjusted: 'traced automatically, adjusted',
+  'by-hand': 'traced by hand',
+};

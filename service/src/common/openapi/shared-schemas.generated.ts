@@ -440,6 +440,10 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       meanEffectivePressurePsi: { type: ['number', 'null'] },
       imageId: { type: ['string', 'null'], description: 'The uploaded image a trace was made on.' },
       trace: { anyOf: [{ $ref: '#/components/schemas/CardTrace' }, { type: 'null' }] },
+      traceOrigin: {
+        anyOf: [{ $ref: '#/components/schemas/TraceOrigin' }, { type: 'null' }],
+        description: 'Where the trace came from (with a trace).',
+      },
       cutOffPercent: { type: ['number', 'null'], description: "This end's cut-off where it differs from the set's, percent of stroke." },
       compressionPercent: {
         type: ['number', 'null'],
@@ -978,6 +982,10 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       givenMeanEffectivePressurePsi: { type: ['number', 'null'], description: 'The typed-in MEP, for a card given that way.' },
       imageId: { type: ['string', 'null'] },
       trace: { anyOf: [{ $ref: '#/components/schemas/CardTrace' }, { type: 'null' }] },
+      traceOrigin: {
+        anyOf: [{ $ref: '#/components/schemas/TraceOrigin' }, { type: 'null' }],
+        description: 'Where the trace came from (null for a card given another way, or stored without saying).',
+      },
       cutOffPercent: { type: ['number', 'null'] },
       compressionPercent: { type: ['number', 'null'] },
       admissionPressurePsig: { type: ['number', 'null'] },
@@ -1008,6 +1016,7 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       'givenMeanEffectivePressurePsi',
       'imageId',
       'trace',
+      'traceOrigin',
       'cutOffPercent',
       'compressionPercent',
       'admissionPressurePsig',
@@ -1054,6 +1063,10 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       meanEffectivePressurePsi: { type: ['number', 'null'] },
       imageId: { type: ['string', 'null'], description: 'The uploaded image a trace was made on.' },
       trace: { anyOf: [{ $ref: '#/components/schemas/CardTrace' }, { type: 'null' }] },
+      traceOrigin: {
+        anyOf: [{ $ref: '#/components/schemas/TraceOrigin' }, { type: 'null' }],
+        description: 'Where the trace came from (with a trace).',
+      },
       cutOffPercent: { type: ['number', 'null'], description: "This end's cut-off where it differs from the set's, percent of stroke." },
       compressionPercent: {
         type: ['number', 'null'],

@@ -15,6 +15,7 @@ export const CARD_FIELDS = [
   'givenMeanEffectivePressurePsi',
   'imageId',
   'trace',
+  'traceOrigin',
   'cutOffPercent',
   'compressionPercent',
   'admissionPressurePsig',

@@ -50,6 +50,7 @@ export class CardSetMapper {
           givenMeanEffectivePressurePsi: c.givenMeanEffectivePressurePsi,
           imageId: c.imageId,
           trace: c.trace,
+          traceOrigin: c.traceOrigin,
           cutOffPercent: c.cutOffPercent,
           compressionPercent: c.compressionPercent,
           admissionPressurePsig: c.admissionPressurePsig,

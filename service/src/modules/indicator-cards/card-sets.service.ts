@@ -295,6 +295,7 @@ export class CardSetsService {
       givenMeanEffectivePressurePsi: e.method === 'mep' ? (input.meanEffectivePressurePsi ?? null) : null,
       imageId: input.imageId ?? null,
       trace: traced ? (input.trace ?? null) : null,
+      traceOrigin: traced ? (input.traceOrigin ?? null) : null,
       cutOffPercent: input.cutOffPercent ?? null,
       compressionPercent: input.compressionPercent ?? null,
       admissionPressurePsig: input.admissionPressurePsig ?? null,

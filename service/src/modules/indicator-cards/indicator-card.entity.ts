@@ -1,5 +1,5 @@
 import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, type Relation } from 'typeorm';
-import type { CardMethod, CardOutlinePointDto, CardTrace, CylinderEnd } from '@crankjournal/shared-types';
+import type { CardMethod, CardOutlinePointDto, CardTrace, CylinderEnd, TraceOrigin } from '@crankjournal/shared-types';
 import { CardSet } from './card-set.entity.js';
 
 /**
@@ -25,6 +25,8 @@ export class IndicatorCard {
   @Column({ name: 'given_mep_psi', type: 'double precision', nullable: true }) givenMeanEffectivePressurePsi: number | null;
   @Column({ name: 'image_id', type: 'uuid', nullable: true }) imageId: string | null;
   @Column({ type: 'jsonb', nullable: true }) trace: CardTrace | null;
+  /** Where the trace came from (proposal accepted, adjusted, by hand); null without a trace or when not said. */
+  @Column({ name: 'trace_origin', type: 'varchar', length: 20, nullable: true }) traceOrigin: TraceOrigin | null;
   @Column({ name: 'cut_off_percent', type: 'double precision', nullable: true }) cutOffPercent: number | null;
   @Column({ name: 'compression_percent', type: 'double precision', nullable: true }) compressionPercent: number | null;
   @Column({ name: 'admission_pressure_psig', type: 'double precision', nullable: true }) admissionPressurePsig: number | null;

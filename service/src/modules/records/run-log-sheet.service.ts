@@ -5,6 +5,7 @@ import {
   CYLINDER_END_LABELS,
   RUN_PURPOSE_LABELS,
   RUN_STATE_LABELS,
+  TRACE_ORIGIN_LABELS,
   type AlarmDto,
   type CardSetDto,
   type CylinderEnd,
@@ -12,6 +13,7 @@ import {
   type EngineDetail,
   type ReadingDto,
   type RunDetail,
+  type TraceOrigin,
 } from '@crankjournal/shared-types';
 import { unitLabel } from '../../calculations/units.js';
 import {
@@ -258,6 +260,15 @@ const checklists: LogSheetSection = ({ checklists: list, clock }) => {
   ];
 };
 
+const missingEnds = (s: CardSetDto) => s.results.missingEnds.map((m) => `${m.cylinderLabel} ${endWord(m.end)}`).join(', ');
+
+/** How a set's traces were made, e.g. "; 3 traced automatically, accepted, 1 traced by hand" (empty when no card says). */
+function traceOrigins(s: CardSetDto): string {
+  const counts = new Map<TraceOrigin, number>();
+  for (const c of s.cards) if (c.traceOrigin) counts.set(c.traceOrigin, (counts.get(c.traceOrigin) ?? 0) + 1);
+  return counts.size ? `; ${[...counts].map(([o, n]) => `${n} ${TRACE_ORIGIN_LABELS[o]}`).join(', ')}` : '';
+}
+
 const cardSets: LogSheetSection = ({ cardSets: sets, clock }) => [
   { kind: 'heading', text: 'Indicator card sets' },
   {
@@ -277,9 +288,9 @@ const cardSets: LogSheetSection = ({ cardSets: sets, clock }) => [
       s.results.cylinders.map((c) => `${c.label} ${c.indicatedHorsepower.toFixed(1)}`).join(', ') || '\u2014',
       { text: s.results.totalIndicatedHorsepower.toFixed(1), bold: true },
       s.results.complete
-        ? 'complete: every end of every cylinder has a card'
+        ? `complete: every end of every cylinder has a card${traceOrigins(s)}`
         : {
-            text: `incomplete: no card for ${s.results.missingEnds.map((m) => `${m.cylinderLabel} ${endWord(m.end)}`).join(', ')}`,
+            text: `incomplete: no card for ${missingEnds(s)}${traceOrigins(s)}`,
             tone: 'warning',
           },
       s.createdByName,

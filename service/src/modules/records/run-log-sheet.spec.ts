@@ -3,7 +3,8 @@ import { LOG_SHEET_SECTION, type LogSheetContext } from './run-log-sheet.service
 
 // Wording of the card-set and close sections, from a hand-made context (no database).
 const clock = zonedClock('America/Chicago');
-const set = (complete: boolean) => ({
+const set = (complete: boolean, cards: { traceOrigin: string | null }[] = []) => ({
+  cards,
   takenAt: '2026-08-08T15:00:00Z',
   speedRpm: 58.4,
   createdByName: 'Tobias Wrenfield',
@@ -25,6 +26,18 @@ describe('the run log sheet sections', () => {
     expect(out).toContain('121.0');
     // 15:00 UTC in August is 10:00 in Chicago (CDT)
     expect(out).toContain('08 Aug 2026 10:00 CDT');
+  });
+
+  it('a card set says how its traces were made, when its cards say', () => {
+    const origins = [
+      { traceOrigin: 'proposed-accepted' },
+      { traceOrigin: 'proposed-accepted' },
+      { traceOrigin: 'by-hand' },
+      { traceOrigin: null },
+    ];
+    const out = texts(LOG_SHEET_SECTION.cardSets(ctx({ cardSets: [set(true, origins)] })));
+    expect(out).toContain('complete: every end of every cylinder has a card; 2 traced automatically, accepted, 1 traced by hand');
+    expect(texts(LOG_SHEET_SECTION.cardSets(ctx({ cardSets: [set(true, [{ traceOrigin: null }])] })))).toContain('has a card",');
   });
 
   it('the close shows the countersignature and the wet-signature block only when the works asks for one', () => {

@@ -17,6 +17,7 @@ import {
 import {
   BRAKE_METHODS,
   CYLINDER_ENDS,
+  TRACE_ORIGINS,
   type AmendBrakeFigureRequest,
   type AmendCardRequest,
   type AmendCardSetRequest,
@@ -25,6 +26,7 @@ import {
   type CardInput,
   type CreateCardSetRequest,
   type CylinderEnd,
+  type TraceOrigin,
 } from '@crankjournal/shared-types';
 import { IsFiniteNumberIn } from '../../../common/dto/validators.js';
 import { IsPositiveNumberUpTo } from './validators.js';
@@ -62,6 +64,13 @@ export class CardInputDto implements CardInput {
   @ValidateNested()
   @Type(() => CardTraceDto)
   trace?: CardTraceDto | null;
+  @ApiPropertyOptional({
+    enum: TRACE_ORIGINS,
+    description: "Where the trace came from: the automatic tracer's proposal accepted, the proposal adjusted, or traced by hand",
+  })
+  @IsOptional()
+  @IsIn(TRACE_ORIGINS, { message: `traceOrigin must be one of: ${TRACE_ORIGINS.join(', ')}` })
+  traceOrigin?: TraceOrigin | null;
   @ApiPropertyOptional({ description: "This end's cut-off where it differs from the set's, percent of stroke" })
   @IsOptional()
   @IsFiniteNumberIn(1, 100)

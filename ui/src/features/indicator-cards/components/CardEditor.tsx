@@ -1,4 +1,4 @@
-import { useEffect, useState } from 'react';
+import { useEffect, useRef, useState } from 'react';
 import { useQuery } from '@tanstack/react-query';
 import {
   Alert,
@@ -17,11 +17,14 @@ import {
   Title,
 } from '@mantine/core';
 import { IconChevronDown, IconChevronUp, IconPhotoUp } from '@tabler/icons-react';
+import { TRACE_ORIGIN_LABELS, type AutotraceProposal } from '@crankjournal/shared-types';
 import { errorText } from '../../../api/http';
 import { cardImageQuery, uploadCardImage } from '../api/indicator-cards.api';
+import { proposeTraceInBrowser } from '../model/autotrace';
 import { fmt } from '../model/format';
 import { CardTracer } from './CardTracer';
-import { cardMissing, parseOrdinates, type CardDraft, type CardDraftMethod } from './card-draft';
+import { AutotracePanel } from './AutotracePanel';
+import { cardMissing, originAfterEdit, parseOrdinates, type AutotraceState, type CardDraft, type CardDraftMethod } from './card-draft';
 import { emptyTrace } from './trace-model';
 
 const METHODS: { value: CardDraftMethod; label: string }[] = [
@@ -53,6 +56,25 @@ function useImageSize(url: string | null): { widthPx: number; heightPx: number }
   return size;
 }
 
+const ADJUST_WORDS =
+  'Drag a point of the outline, an end mark or a mark on the atmospheric line to move it; Undo takes back the last change.';
+
+/** The tracer's answer as the draft keeps it. */
+function proposalState(p: AutotraceProposal): AutotraceState {
+  if (!p.found || !p.atmosphericLine || !p.admissionEndPx || !p.releaseEndPx) return { status: 'refused', reasons: p.reasons };
+  return {
+    status: 'proposed',
+    proposal: {
+      atmosphericLine: [...p.atmosphericLine],
+      admissionEndPx: p.admissionEndPx,
+      releaseEndPx: p.releaseEndPx,
+      pointsPx: p.pointsPx,
+    },
+    confidence: p.confidence,
+    reasons: p.reasons,
+  };
+}
+
 export interface CardEditorProps {
   runId: string;
   /** e.g. "HP head end". */
@@ -72,7 +94,14 @@ export function CardEditor({ runId, title, draft, onChange, figures, allowNone =
   );
   const [uploading, setUploading] = useState(false);
   const [uploadError, setUploadError] = useState<string | null>(null);
-  const set = (patch: Partial<CardDraft>) => onChange({ ...draft, ...patch });
+  // Answers that arrive later (the upload, the proposal) apply to the draft as it is then, not as it was.
+  const latest = useRef(draft);
+  latest.current = draft;
+  const set = (patch: Partial<CardDraft>) => {
+    latest.current = { ...latest.current, ...patch };
+    onChange(latest.current);
+  };
+  const photo = useRef(0);
   const numberProps = (
     field:
       | 'springPsiPerIn'
@@ -97,16 +126,35 @@ export function CardEditor({ runId, title, draft, onChange, figures, allowNone =
 
   const onFile = async (file: File | null) => {
     if (!file) return;
+    const mine = ++photo.current;
     setUploadError(null);
     setUploading(true);
+    // The proposal is worked out in the browser while the photo uploads.
+    const proposing = proposeTraceInBrowser(file).then(
+      (p): AutotraceState => proposalState(p),
+      (e: unknown): AutotraceState => ({ status: 'failed', message: e instanceof Error ? e.message : String(e) }),
+    );
     try {
       const up = await uploadCardImage(runId, file);
-      set({ imageId: up.id, image: { url: URL.createObjectURL(file), widthPx: up.widthPx, heightPx: up.heightPx }, trace: emptyTrace() });
+      if (mine !== photo.current) return;
+      set({
+        imageId: up.id,
+        image: { url: URL.createObjectURL(file), widthPx: up.widthPx, heightPx: up.heightPx },
+        trace: emptyTrace(),
+        traceOrigin: null,
+        autotrace: { status: 'finding' },
+      });
     } catch (e) {
       setUploadError(errorText(e));
+      return;
     } finally {
       setUploading(false);
     }
+    const autotrace = await proposing;
+    if (mine !== photo.current) return;
+    // Someone who began tracing by hand meanwhile keeps their trace; the proposal stays at hand.
+    if (latest.current.traceOrigin) set({ autotrace });
+    else set({ autotrace, trace: autotrace.status === 'proposed' ? autotrace.proposal : emptyTrace() });
   };
 
   const missing = cardMissing(draft);
@@ -187,13 +235,29 @@ export function CardEditor({ runId, title, draft, onChange, figures, allowNone =
                   </Alert>
                 )}
                 {draft.imageId && !image && <Loader size="sm" />}
+                {image && draft.autotrace && (
+                  <AutotracePanel
+                    state={draft.autotrace}
+                    origin={draft.traceOrigin}
+                    onAccept={() => set({ traceOrigin: 'proposed-accepted' })}
+                    onByHand={() => set({ trace: emptyTrace(), traceOrigin: 'by-hand' })}
+                    onBackToProposal={(proposal) => set({ trace: proposal, traceOrigin: null })}
+                  />
+                )}
+                {image && draft.traceOrigin && draft.traceOrigin !== 'by-hand' && !draft.autotrace && (
+                  <Text fz="sm" c="dimmed" data-testid="card-trace-origin">
+                    {TRACE_ORIGIN_LABELS[draft.traceOrigin]}
+                  </Text>
+                )}
                 {image && (
                   <CardTracer
                     imageUrl={image.url}
                     widthPx={image.widthPx}
                     heightPx={image.heightPx}
                     value={draft.trace}
-                    onChange={(trace) => set({ trace })}
+                    onChange={(trace) => set({ trace, traceOrigin: originAfterEdit(latest.current) })}
+                    appendOnClick={originAfterEdit(draft) === 'by-hand'}
+                    instruction={originAfterEdit(draft) === 'adjusted' ? ADJUST_WORDS : undefined}
                   />
                 )}
               </Stack>

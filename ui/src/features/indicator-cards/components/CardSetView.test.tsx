@@ -55,6 +55,7 @@ function set(over: Partial<CardSetDto> = {}): CardSetDto {
         givenMeanEffectivePressurePsi: null,
         imageId: null,
         trace: null,
+        traceOrigin: null,
         cutOffPercent: null,
         compressionPercent: null,
         admissionPressurePsig: null,

@@ -1,7 +1,7 @@
 import { useState, type ReactNode } from 'react';
 import { Badge, Box, Button, Collapse, Group, Paper, SimpleGrid, Stack, Text, Title } from '@mantine/core';
 import { IconChevronDown, IconChevronUp, IconEye, IconPencil, IconPlus } from '@tabler/icons-react';
-import type { CardDto, CardSetDto } from '@crankjournal/shared-types';
+import { TRACE_ORIGIN_LABELS, type CardDto, type CardSetDto } from '@crankjournal/shared-types';
 import { cardTitle, fmt, pct, timeOnly } from '../model/format';
 import { AmendmentList } from './AmendmentList';
 import { AmendCardModal } from './AmendCardModal';
@@ -159,10 +159,17 @@ export function CardSetView({ set, canWrite, defaultOpen }: { set: CardSetDto; c
               return (
                 <Box key={c.id} data-testid="card-panel">
                   <Group justify="space-between" mb={4} wrap="wrap">
-                    <Text fw={600}>
-                      {cardTitle(c)} · MEP {fmt(c.meanEffectivePressurePsi, 1)} psi
-                      {e?.diagramFactor != null ? ` · diagram factor ${fmt(e.diagramFactor, 2)}` : ''}
-                    </Text>
+                    <Stack gap={0}>
+                      <Text fw={600}>
+                        {cardTitle(c)} · MEP {fmt(c.meanEffectivePressurePsi, 1)} psi
+                        {e?.diagramFactor != null ? ` · diagram factor ${fmt(e.diagramFactor, 2)}` : ''}
+                      </Text>
+                      {c.traceOrigin && (
+                        <Text fz="sm" c="dimmed" data-testid="card-trace-origin">
+                          {TRACE_ORIGIN_LABELS[c.traceOrigin]}
+                        </Text>
+                      )}
+                    </Stack>
                     <Group gap={6}>
                       {c.trace && (
                         <Button size="compact-md" variant="default" leftSection={<IconEye size={16} />} onClick={() => setReviewing(c)}>

@@ -19,6 +19,13 @@ export interface CardTracerProps {
   onChange: (next: TraceDraft) => void;
   /** Shown read-only (reviewing a stored trace without the right to change it). */
   readOnly?: boolean;
+  /**
+   * Whether a click on the card adds an outline point (tracing by hand). Off for a proposed outline, whose
+   * points are only dragged: a stray click would add a point out of order.
+   */
+  appendOnClick?: boolean;
+  /** Words under the tools in place of the step's own (e.g. how to adjust a proposal). */
+  instruction?: string;
 }
 
 interface Press {
@@ -34,7 +41,7 @@ interface Press {
  * (the calibration), then click round the outline. Points can be dragged, the last change undone, the image
  * zoomed. Coordinates are kept in the image's own pixels whatever the zoom.
  */
-export function CardTracer({ imageUrl, widthPx, heightPx, value, onChange, readOnly }: CardTracerProps) {
+export function CardTracer({ imageUrl, widthPx, heightPx, value, onChange, readOnly, appendOnClick = true, instruction }: CardTracerProps) {
   const { ref: boxRef, width: boxWidth } = useElementSize();
   const svgRef = useRef<SVGSVGElement>(null);
   const [zoomIndex, setZoomIndex] = useState<number | null>(null); // null: fit the width
@@ -108,10 +115,13 @@ export function CardTracer({ imageUrl, widthPx, heightPx, value, onChange, readO
       return;
     }
     if (Math.hypot(e.clientX - pr.clientX, e.clientY - pr.clientY) >= CLICK_SLOP_PX) return;
+    if (!appendOnClick && step === 'outline') return;
     commit(addMark(value, toImage(e.clientX, e.clientY)), value);
   };
 
   const r = 6 / scale; // marks keep their size on screen
+  // A proposed outline has a point every few pixels: drawn smaller, they still show where to grab.
+  const pointR = value.pointsPx.length > 40 ? r / 2 : r;
   const stroke = 2 / scale;
   const atm = value.atmosphericLine;
   // The atmospheric line drawn across the whole image once both points are marked.
@@ -205,7 +215,7 @@ export function CardTracer({ imageUrl, widthPx, heightPx, value, onChange, readO
       </Group>
       {!readOnly && (
         <Text fz="sm" data-testid="tracer-instruction">
-          {STEP_WORDS[step]}
+          {instruction ?? STEP_WORDS[step]}
         </Text>
       )}
       <Box
@@ -290,7 +300,7 @@ export function CardTracer({ imageUrl, widthPx, heightPx, value, onChange, readO
                 key={`p${i}`}
                 cx={p.x}
                 cy={p.y}
-                r={r}
+                r={pointR}
                 fill={i === 0 ? 'var(--mantine-color-copper-7)' : 'var(--mantine-color-copper-4)'}
                 stroke="#fff"
                 strokeWidth={stroke / 2}

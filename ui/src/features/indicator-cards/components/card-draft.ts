@@ -1,7 +1,14 @@
-import type { CardDto, CardInput, CardMethod, CylinderEnd } from '@crankjournal/shared-types';
+import type { AutotraceReason, CardDto, CardInput, CardMethod, CylinderEnd, TraceOrigin } from '@crankjournal/shared-types';
 import { emptyTrace, fromCardTrace, toCardTrace, traceMissing, type TraceDraft } from './trace-model';
 
 export type CardDraftMethod = 'none' | CardMethod;
+
+/** The automatic tracer's work on the uploaded photo: under way, a proposal (kept to go back to), refused, or failed. */
+export type AutotraceState =
+  | { status: 'finding' }
+  | { status: 'proposed'; proposal: TraceDraft; confidence: number; reasons: AutotraceReason[] }
+  | { status: 'refused'; reasons: AutotraceReason[] }
+  | { status: 'failed'; message: string };
 type Num = number | '';
 
 /** One card as the form holds it (numbers may still be empty). */
@@ -15,6 +22,9 @@ export interface CardDraft {
   imageId: string | null;
   image: { url: string; widthPx: number; heightPx: number } | null;
   trace: TraceDraft;
+  /** Where the trace came from; null while a proposal waits to be accepted, adjusted or set aside. */
+  traceOrigin: TraceOrigin | null;
+  autotrace: AutotraceState | null;
   cutOffPercent: Num;
   compressionPercent: Num;
   admissionPressurePsig: Num;
@@ -31,6 +41,8 @@ export const emptyCard = (over: Partial<CardDraft> = {}): CardDraft => ({
   imageId: null,
   image: null,
   trace: emptyTrace(),
+  traceOrigin: null,
+  autotrace: null,
   cutOffPercent: '',
   compressionPercent: '',
   admissionPressurePsig: '',
@@ -72,6 +84,8 @@ export function cardMissing(d: CardDraft): string | null {
       if (!d.imageId) return 'upload the card image';
       if (d.springPsiPerIn === '') return 'give the spring scale';
       if (d.lengthIn === '') return 'give the card length';
+      if (d.autotrace?.status === 'finding' && !d.traceOrigin) return 'wait for the proposed trace (or trace by hand)';
+      if (d.autotrace?.status === 'proposed' && !d.traceOrigin) return 'accept the proposed trace, adjust it or trace by hand';
       return traceMissing(d.trace);
   }
 }
@@ -97,6 +111,7 @@ export function draftFigures(d: CardDraft): Omit<CardInput, 'cylinderId' | 'end'
         ...common,
         imageId: d.imageId,
         trace: toCardTrace(d.trace),
+        traceOrigin: d.traceOrigin,
         lengthIn: num(d.lengthIn),
         springPsiPerIn: num(d.springPsiPerIn),
       };
@@ -120,9 +135,17 @@ export function cardToDraft(c: CardDto): CardDraft {
     meanEffectivePressurePsi: n(c.givenMeanEffectivePressurePsi),
     imageId: c.imageId,
     trace: fromCardTrace(c.trace),
+    traceOrigin: c.traceOrigin,
     cutOffPercent: n(c.cutOffPercent),
     compressionPercent: n(c.compressionPercent),
     admissionPressurePsig: n(c.admissionPressurePsig),
     note: c.note ?? '',
   });
+}
+
+/** The origin of a trace after the person changed it by hand: a proposal's changes make it adjusted, anything else by hand. */
+export function originAfterEdit(d: Pick<CardDraft, 'traceOrigin' | 'autotrace'>): TraceOrigin {
+  const fromProposal =
+    d.traceOrigin === 'proposed-accepted' || d.traceOrigin === 'adjusted' || (!d.traceOrigin && d.autotrace?.status === 'proposed');
+  return fromProposal ? 'adjusted' : 'by-hand';
 }

@@ -1,4 +1,11 @@
-import { CYLINDER_END_LABELS, type CardDto, type CylinderEnd, type FieldChange } from '@crankjournal/shared-types';
+import {
+  CYLINDER_END_LABELS,
+  TRACE_ORIGIN_LABELS,
+  type CardDto,
+  type CylinderEnd,
+  type FieldChange,
+  type TraceOrigin,
+} from '@crankjournal/shared-types';
 import { formatNumber } from '../../units/units';
 
 export const fmt = (v: number | null | undefined, decimals = 1) =>
@@ -23,6 +30,7 @@ const FIELD_WORDS: Record<string, { label: string; unit?: string; decimals?: num
   givenMeanEffectivePressurePsi: { label: 'MEP typed in', unit: 'psi', decimals: 1 },
   imageId: { label: 'Image' },
   trace: { label: 'Trace' },
+  traceOrigin: { label: 'Trace made' },
   cutOffPercent: { label: 'Cut-off', unit: '%', decimals: 0 },
   compressionPercent: { label: 'Compression from', unit: '%', decimals: 0 },
   admissionPressurePsig: { label: 'Admission read off the card', unit: 'psig', decimals: 1 },
@@ -50,6 +58,7 @@ export function changeValue(field: string, v: unknown): string {
   if (v === null || v === undefined || v === '') return 'none';
   if (field === 'trace' && typeof v === 'object') return `${((v as { pointsPx?: unknown[] }).pointsPx ?? []).length} points`;
   if (field === 'imageId') return 'an image';
+  if (field === 'traceOrigin' && typeof v === 'string') return TRACE_ORIGIN_LABELS[v as TraceOrigin] ?? v;
   if ((field === 'takenAt' || field === 'measuredAt') && typeof v === 'string') return whenShort(v);
   if (Array.isArray(v))
     return v.map((x) => (typeof x === 'number' ? formatNumber(x, 2) : String(x))).join(', ') + (w?.unit ? ` ${w.unit}` : '');
