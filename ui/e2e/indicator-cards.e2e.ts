@@ -75,6 +75,9 @@ test(
 
     const surface = editor.getByTestId('card-tracer-surface');
     await expect(surface).toBeVisible();
+    // The photo's proposed trace is set aside: this operator traces by hand.
+    await expect(editor.getByTestId('autotrace-proposal')).toBeVisible();
+    await editor.getByRole('button', { name: 'Trace by hand' }).click();
     await expect(editor.getByTestId('tracer-step')).toHaveText('Atmospheric line 0/2');
 
     // Calibrate: two points on the atmospheric line, then the admission and release ends of the diagram.
@@ -120,6 +123,50 @@ test(
     await watcherContext.close();
   },
 );
+
+test('an operator uploads a card photo, accepts the proposed trace and sees the horsepower, in seconds', async ({ page, request }) => {
+  const operatorToken = await token(request, 'operator@alderforge.example');
+  const run = await openRun(request, operatorToken);
+  await signIn(page, 'operator@alderforge.example');
+  await page.goto(`/runs/${run.id}/cards`);
+  await page.getByRole('button', { name: 'Take a card set' }).click();
+  await page.getByLabel('Speed, rpm').fill('75');
+  const editor = page.getByTestId('card-editor-HP-head');
+  await editor.getByText('Image', { exact: true }).click();
+  await editor.getByLabel('Spring, psi per inch').fill(String(sample.springPsiPerIn));
+  await editor.getByLabel('Card length, in').fill(String(sample.lengthIn));
+
+  // The test's own clock: from choosing the photo to the horsepower on the screen.
+  const started = Date.now();
+  await editor.locator('input[type=file]').setInputFiles(`${CARDS_DIR}${CARD}.png`);
+  const proposal = editor.getByTestId('autotrace-proposal');
+  await expect(proposal).toBeVisible();
+  await expect(editor.getByTestId('tracer-atm-mark')).toHaveCount(2);
+  expect(await editor.getByTestId('tracer-point').count()).toBeGreaterThan(20);
+  await expect(editor.getByTestId('autotrace-confidence')).toHaveText(/confidence \d+ %/);
+  await editor.getByRole('button', { name: 'Accept the proposed trace' }).click();
+  await expect(editor.getByTestId('card-ihp')).toHaveText(/[1-9]\d* ihp/);
+  const seconds = (Date.now() - started) / 1000;
+  test.info().annotations.push({ type: 'photo to horsepower, s', description: seconds.toFixed(1) });
+  console.log(`photo to horsepower: ${seconds.toFixed(1)} s`);
+  expect(seconds).toBeLessThan(10);
+
+  // The proposal's MEP agrees with the careful hand trace made on the same card (traces.json) within 2 %.
+  const handTrace = await request.post('/api/calculations/indicator-trace', {
+    headers: { authorization: `Bearer ${operatorToken}` },
+    data: { trace: sample.trace, springPsiPerIn: sample.springPsiPerIn, lengthIn: sample.lengthIn },
+  });
+  const handMep = ((await handTrace.json()) as { meanEffectivePressurePsi: number }).meanEffectivePressurePsi;
+  const shownMep = Number((await editor.getByTestId('card-mep').textContent())!.replace(/[^\d.]/g, ''));
+  expect(Math.abs(shownMep - handMep) / handMep).toBeLessThan(0.02);
+  await expect(page.getByTestId('preview-total-ihp')).toHaveText(/[1-9][\d,]* ihp/);
+
+  // Saved, the card says how its trace was made.
+  await page.getByRole('button', { name: 'Save card set' }).click();
+  const saved = page.getByTestId('card-set').first();
+  await expect(saved.getByTestId('card-set-total')).toHaveText(/[1-9][\d,]* ihp/);
+  await expect(saved.getByTestId('card-trace-origin')).toHaveText('traced automatically, accepted');
+});
 
 test('the indicated power calculator works out the example and names a bad field', async ({ page }) => {
   await signIn(page, 'observer@alderforge.example');
