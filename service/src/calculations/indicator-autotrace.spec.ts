@@ -12,7 +12,9 @@ import { readCardSamples, sampleCards } from '../database/seeds/indicator-card-s
 import { SAMPLES_DIR } from '../database/seeds/samples.js';
 import { realisticOutline } from '../database/seeds/card-image.js';
 import { autotraceCard } from './indicator-autotrace.js';
+import { idealCardPoints } from './ideal-card.js';
 import { calibrateTrace } from './indicator-card.js';
+import { psiaToPsig } from './units.js';
 
 const CARDS_DIR = join(SAMPLES_DIR, 'cards');
 const baseCondition = { tiltDeg: 2, unevenLight: 0.2, shadow: false, noise: 3, blurPx: 0, jpegQuality: 0 };
@@ -45,6 +47,36 @@ describe('automatic card tracing', () => {
     () => {
       expect(errors.length).toBe(testCardSpecs().length);
       expect(errors.reduce((a, b) => a + b, 0) / errors.length).toBeLessThan(0.005);
+    },
+    SLOW_MS,
+  );
+
+  // Cards with what the test set lacks: a printed frame and grid on the card, and an exhaust line lying on the
+  // atmospheric line (a non-condensing engine exhausting at atmospheric pressure, so the two lines are one).
+  const exhaustOnLine = idealCardPoints({
+    admissionPressurePsia: 114.7,
+    cutoffFraction: 0.3,
+    backPressurePsia: 14.7,
+    clearanceFraction: 0.06,
+    expansionSegments: 48,
+  })
+    .slice(0, -1)
+    .map((p) => ({ strokeFraction: p.strokeFraction, pressurePsig: psiaToPsig(p.pressurePsia) }));
+  const [ideal, , wire] = testOutlines();
+  const printedAndOnLine: [string, Partial<TestCardSpec>][] = [
+    ['printed frame', { outlines: [wire.outline], printedBorder: true, tiltDeg: -6 }],
+    ['printed quarter-inch grid', { outlines: [wire.outline], grid: true, tiltDeg: -6 }],
+    ['printed frame and grid', { outlines: [ideal.outline], grid: true, printedBorder: true, tiltDeg: 5, jpegQuality: 70 }],
+    ['exhaust on the atmospheric line', { outlines: [exhaustOnLine] }],
+    ['exhaust on the atmospheric line, turned and compressed', { outlines: [exhaustOnLine], tiltDeg: -7, jpegQuality: 70 }],
+  ];
+  it.each(printedAndOnLine)(
+    '%s: MEP within 1.5 %% of the drawn outline',
+    (name, over) => {
+      const card = drawTestCard({ ...baseCondition, name, springPsiPerIn: 60, lengthIn: 3.5, outlines: [], ...over });
+      const result = autotraceCard(card, { lengthIn: 3.5, springPsiPerIn: 60 });
+      expect(result.proposal.reasons).toEqual([]);
+      expect(Math.abs(result.meanEffectivePressurePsi! / card.meanEffectivePressurePsi - 1)).toBeLessThan(0.015);
     },
     SLOW_MS,
   );

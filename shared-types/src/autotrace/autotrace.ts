@@ -18,7 +18,10 @@
  *     just below the line bridges the gap), so a card whose lines cross the atmosphere stays closed.
  *  5. Paper reachable from outside the card is "outside"; paper left over is enclosed. Enclosed
  *     regions belong to the ink figure around them; the figure enclosing the most is the diagram.
- *     A second figure enclosing a comparable area means two diagrams (refused); none means none.
+ *     A second figure enclosing a comparable area means two diagrams (refused); none means none. A printed
+ *     frame or grid is set aside (a figure that encloses the atmospheric line is the card's). When nothing is
+ *     closed without the line, the exhaust may run along it (exhausting at atmospheric pressure): then the
+ *     line is kept, and the figure of the line and the diagram, reaching no further than the line, is taken.
  *  6. Each enclosed region (lobe) gets the ink nearest to it. A field of 1 in the lobe, ½ on its
  *     ink and 0 outside, blurred, crosses ½ along the middle of the stroke: that contour is the
  *     lobe's outline. Lobes that meet the largest lobe at a crossing run the other way (a loop of
@@ -432,44 +435,59 @@ function proposeAtFullSize(image: AutotraceImage): AutotraceProposal {
     const ti = Math.min(nT, Math.max(0, Math.round(t - line.t0)));
     if (keep[ti]) withoutLine[p] = 1;
   }
+  const inkWithLine = ink;
   ink = withoutLine;
 
   // 5. Outside (paper reachable from beyond the card), enclosed regions and the figures around them.
-  const open = new Uint8Array(n);
-  for (let p = 0; p < n; p++) open[p] = ink[p] ? 0 : 1;
-  const regions = label(open, w, h, false);
-  const outsideLabels = new Set<number>();
-  for (let p = 0; p < n; p++) if (open[p] && !card[p]) outsideLabels.add(regions.labels[p]);
-  const figures = label(ink, w, h, true);
-  const minHole = Math.max(40, Math.round(n / 5000));
-  // Hole label → figure label (the figure whose ink borders it) and hole size.
-  const holeFigure = new Map<number, number>();
-  for (let p = 0; p < n; p++) {
-    const r = regions.labels[p];
-    if (!r || outsideLabels.has(r) || regions.sizes[r] < minHole || holeFigure.has(r)) continue;
-    const x = p % w;
-    // The pixel to the left of the first pixel of a region (in scan order) is its border ink.
-    if (x > 0 && ink[p - 1]) holeFigure.set(r, figures.labels[p - 1]);
-  }
-  const figureArea = new Map<number, number>();
-  for (const [r, f] of holeFigure) figureArea.set(f, (figureArea.get(f) ?? 0) + regions.sizes[r]);
   const lineEnds = [atmosphericLine[0], atmosphericLine[1]];
-  const figureBox = new Map<number, [number, number, number, number]>();
-  for (let p = 0; p < n; p++) {
-    const f = figures.labels[p];
-    if (!f || !figureArea.has(f)) continue;
-    const x = p % w;
-    const y = (p - x) / w;
-    const b = figureBox.get(f) ?? [x, y, x, y];
-    figureBox.set(f, [Math.min(b[0], x), Math.min(b[1], y), Math.max(b[2], x), Math.max(b[3], y)]);
+  const enclose = (ink: Uint8Array, onLine: boolean) => {
+    const open = new Uint8Array(n);
+    for (let p = 0; p < n; p++) open[p] = ink[p] ? 0 : 1;
+    const regions = label(open, w, h, false);
+    const outsideLabels = new Set<number>();
+    for (let p = 0; p < n; p++) if (open[p] && !card[p]) outsideLabels.add(regions.labels[p]);
+    const figures = label(ink, w, h, true);
+    const minHole = Math.max(40, Math.round(n / 5000));
+    // Hole label → figure label (the figure whose ink borders it) and hole size.
+    const holeFigure = new Map<number, number>();
+    for (let p = 0; p < n; p++) {
+      const r = regions.labels[p];
+      if (!r || outsideLabels.has(r) || regions.sizes[r] < minHole || holeFigure.has(r)) continue;
+      const x = p % w;
+      // The pixel to the left of the first pixel of a region (in scan order) is its border ink.
+      if (x > 0 && ink[p - 1]) holeFigure.set(r, figures.labels[p - 1]);
+    }
+    const figureArea = new Map<number, number>();
+    for (const [r, f] of holeFigure) figureArea.set(f, (figureArea.get(f) ?? 0) + regions.sizes[r]);
+    const figureBox = new Map<number, [number, number, number, number]>();
+    for (let p = 0; p < n; p++) {
+      const f = figures.labels[p];
+      if (!f || !figureArea.has(f)) continue;
+      const x = p % w;
+      const y = (p - x) / w;
+      const b = figureBox.get(f) ?? [x, y, x, y];
+      figureBox.set(f, [Math.min(b[0], x), Math.min(b[1], y), Math.max(b[2], x), Math.max(b[3], y)]);
+    }
+    // A printed border or frame that encloses the atmospheric line is the card's, not the diagram.
+    const candidates = [...figureArea.entries()]
+      .filter(([f]) => {
+        const b = figureBox.get(f)!;
+        // With the line kept (a diagram whose exhaust runs along it), the figure is the line and the diagram: it
+        // reaches no further along than the line's own ends, where a frame reaches well beyond them.
+        if (onLine)
+          return Math.min(...lineEnds.map((e) => e.x)) - b[0] <= band + 3 && b[2] - Math.max(...lineEnds.map((e) => e.x)) <= band + 3;
+        return !lineEnds.every((e) => e.x >= b[0] - 2 && e.x <= b[2] + 2 && e.y >= b[1] - 2 && e.y <= b[3] + 2);
+      })
+      .sort((a, b) => b[1] - a[1]);
+    return { open, regions, figures, holeFigure, candidates };
+  };
+  let { open, regions, figures, holeFigure, candidates } = enclose(ink, false);
+  if (candidates.length === 0) {
+    // Nothing closed once the line is taken out: the exhaust may run along the atmospheric line itself (a
+    // non-condensing engine exhausting at atmospheric pressure), so the line closes the diagram. Try with it kept.
+    const withLine = enclose(inkWithLine, true);
+    if (withLine.candidates.length > 0) ({ open, regions, figures, holeFigure, candidates } = withLine);
   }
-  // A printed border or frame that encloses the atmospheric line is the card's, not the diagram.
-  const candidates = [...figureArea.entries()]
-    .filter(([f]) => {
-      const b = figureBox.get(f)!;
-      return !lineEnds.every((e) => e.x >= b[0] - 2 && e.x <= b[2] + 2 && e.y >= b[1] - 2 && e.y <= b[3] + 2);
-    })
-    .sort((a, b) => b[1] - a[1]);
   if (candidates.length === 0) {
     // Ink of a size like a diagram but nothing enclosed: the outline is open.
     const bigInk = figures.sizes.some((s) => s > (line.t1 - line.t0) * 2);

@@ -34,6 +34,10 @@ export interface TestCardSpec {
   jpegQuality: number;
   /** Draw the atmospheric line. */
   atmosphericLine?: boolean;
+  /** A printed frame round the card, 0.15 in inside its edge. */
+  printedBorder?: boolean;
+  /** A printed grid of faint lines every quarter inch. */
+  grid?: boolean;
   pixelsPerInch?: number;
 }
 
@@ -159,6 +163,16 @@ export function drawTestCard(spec: TestCardSpec): TestCard {
   };
   const canvas = new Canvas(width, height, (x, y) => (inCard(x + 0.5, y + 0.5) ? [236, 231, 216] : [64, 60, 55]));
   const left = 0.6;
+  if (spec.grid)
+    for (let g = 0.25; g < Math.max(cardW, cardH); g += 0.25) {
+      if (g < cardW) canvas.polyline([toImage(g, 0.05), toImage(g, cardH - 0.05)], 1, [196, 188, 170]);
+      if (g < cardH) canvas.polyline([toImage(0.05, g), toImage(cardW - 0.05, g)], 1, [196, 188, 170]);
+    }
+  if (spec.printedBorder) {
+    const m = 0.15;
+    const frame = [toImage(m, m), toImage(cardW - m, m), toImage(cardW - m, cardH - m), toImage(m, cardH - m)];
+    canvas.polyline(frame, 1.4, [90, 84, 78], true);
+  }
   if (spec.atmosphericLine !== false)
     canvas.polyline([toImage(left - 0.25, aboveIn), toImage(left + spec.lengthIn + 0.25, aboveIn)], 1.6, [60, 62, 70]);
   spec.outlines.forEach((outline, d) => {
