@@ -10,7 +10,9 @@ import { join } from 'node:path';
 import { promisify } from 'node:util';
 import pg from 'pg';
 import { startTestApp } from '../utils/test-app.js';
-import { createEngine, createPreparingRun, engineBody } from '../factories/engine.factory.js';
+import { createEngine, createPreparingRun, engineBody, reading } from '../factories/engine.factory.js';
+import { qualifyInDb } from '../factories/checklists.factory.js';
+import { StartGateService } from '../../src/modules/runs/start-gate.service.js';
 import { validateEnvironment } from '../../src/config/env.validation.js';
 import { sha256 } from '../../src/common/util/password.util.js';
 import { seedUsers } from '../../src/database/seeds/seed-users.js';
@@ -374,5 +376,60 @@ describe('deactivated accounts', () => {
     const res = await post('/api/auth/accept-invitation', { token, password: 'a-password-of-my-own-1' });
     expect(res.status).toBe(400);
     expect(((await res.json()) as { message: string }).message).toMatch(/not active/);
+  });
+});
+
+const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
+/** A JSON request with a token, answered as { status, body }. */
+async function send(method: string, path: string, token: string, body?: unknown) {
+  const res = await fetch(`${t.url}${path}`, {
+    method,
+    headers: { ...authHeader(token), ...(body === undefined ? {} : { 'content-type': 'application/json' }) },
+    body: body === undefined ? undefined : JSON.stringify(body),
+  });
+  const text = await res.text();
+  return { status: res.status, body: (text ? JSON.parse(text) : null) as Record<string, unknown> & { message?: unknown } };
+}
+
+/** A cleared run of a fresh engine the chief engineer may start; the engine's points by code. */
+async function clearedRun() {
+  const e = await createEngine(t, chief, engineBody());
+  await qualifyInDb(t, s.chief_engineer.user.id, e.id, ['start_and_run']);
+  const r = await createPreparingRun(t, chief, e.id);
+  const cleared = await send('POST', `/api/runs/${r.id}/transitions`, chief, { to: 'cleared' });
+  if (cleared.status !== 200) throw new Error(`not cleared: ${cleared.status} ${JSON.stringify(cleared.body)}`);
+  const point = (code: string) => e.measurementPoints.find((p) => p.code === code)!.id;
+  return { engine: e, run: r, point };
+}
+
+describe('the start gate and the start itself are one transaction', () => {
+  it('a high-high reading that arrives while the gate is being asked waits for the start; it cannot slip in between', async () => {
+    const { run: r, point } = await clearedRun();
+    // A slow rule of this run only: the gate takes 800 ms to decide, and notes the high-high alarms there are then.
+    let highHighWhenDecided = -1;
+    t.app.get(StartGateService).registerStartRule({
+      name: 'test: a slow rule',
+      check: async (checked) => {
+        if (checked.id !== r.id) return { reasons: [] };
+        await sleep(800);
+        const [{ n }] = (await t.db.query(`SELECT count(*)::int AS n FROM alarms WHERE run_id = $1 AND priority = 'high_high'`, [
+          r.id,
+        ])) as { n: number }[];
+        highHighWhenDecided = n;
+        return { reasons: [] };
+      },
+    });
+    const start = send('POST', `/api/runs/${r.id}/transitions`, chief, { to: 'running' });
+    await sleep(200);
+    const round = send('POST', `/api/runs/${r.id}/rounds`, chief, {
+      takenAt: new Date().toISOString(),
+      readings: [reading(point('THR'), 149)],
+    });
+    const [started, stored] = await Promise.all([start, round]);
+    expect(started.status).toBe(200);
+    // Before, the reading was stored and its alarm raised while the gate was deciding, and the run started anyway.
+    expect(highHighWhenDecided).toBe(0);
+    expect(stored.status).toBe(201);
+    expect(stored.body).toMatchObject({ stored: 1, alarmsRaised: 1 });
   });
 });

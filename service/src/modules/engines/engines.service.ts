@@ -404,6 +404,11 @@ export class EnginesService {
     return v;
   }
 
+  /** Locks the engine's row for the caller's transaction (a run's change of state: the start and close gates). */
+  async lockForRunChange(engineId: string, m: EntityManager) {
+    await m.query(`SELECT id FROM engines WHERE id = $1 FOR UPDATE`, [engineId]);
+  }
+
   async setActiveRun(engineId: string, runId: string | null, m?: EntityManager) {
     await (m ?? this.db.manager).update(Engine, { id: engineId }, { activeRunId: runId });
     this.cache.delete(engineId);
