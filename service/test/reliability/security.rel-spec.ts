@@ -433,3 +433,40 @@ describe('the start gate and the start itself are one transaction', () => {
     expect(stored.body).toMatchObject({ stored: 1, alarmsRaised: 1 });
   });
 });
+
+describe('a back-dated reading does not reopen the start gate; a high-high alarm waits for a person', () => {
+  it('an older normal reading clears nothing, and a cleared high-high alarm holds the gate until acknowledged', async () => {
+    const { run: r, point } = await clearedRun();
+    const now = Date.now();
+    const round = (value: number, at: number) =>
+      send('POST', `/api/runs/${r.id}/rounds`, chief, {
+        takenAt: new Date(at).toISOString(),
+        readings: [reading(point('THR'), value, new Date(at))],
+      });
+    const start = () => send('POST', `/api/runs/${r.id}/transitions`, chief, { to: 'running' });
+    const highHigh = async () =>
+      (
+        (await t.db.query(`SELECT id, state, condition_active FROM alarms WHERE run_id = $1 AND priority = 'high_high'`, [r.id])) as {
+          id: string;
+          state: string;
+          condition_active: boolean;
+        }[]
+      )[0];
+
+    expect((await round(149, now - 60_000)).body).toMatchObject({ stored: 1, alarmsRaised: 1 });
+    expect((await start()).status).toBe(409);
+    // A normal value stamped before the alarm's reading (a tablet's late round, or a forged time).
+    expect((await round(120, now - 90_000)).status).toBe(201);
+    expect(await highHigh()).toMatchObject({ state: 'active_unacknowledged', condition_active: true });
+    expect((await start()).status).toBe(409);
+    // A normal value after it: the condition is gone, but nobody has acknowledged the alarm yet.
+    expect((await round(120, now - 30_000)).status).toBe(201);
+    const hh = await highHigh();
+    expect(hh).toMatchObject({ state: 'returned_unacknowledged', condition_active: false });
+    const refused = await start();
+    expect(refused.status).toBe(409);
+    expect(String(refused.body.message)).toMatch(/nobody has acknowledged it/);
+    expect((await send('POST', `/api/alarms/${hh.id}/acknowledge`, chief, {})).status).toBe(200);
+    expect((await start()).status).toBe(200);
+  });
+});
