@@ -470,3 +470,29 @@ describe('a back-dated reading does not reopen the start gate; a high-high alarm
     expect((await start()).status).toBe(200);
   });
 });
+
+describe('client ids are scoped to their run', () => {
+  it('the same client id in another run is another reading; in the same run with other content it is a 409', async () => {
+    const other = await clearedRun();
+    const thr = engine.measurementPoints.find((p) => p.code === 'THR')!.id;
+    const takenAt = new Date(Date.now() - 120_000);
+    const mine = reading(thr, 120, takenAt);
+    const round = (runId: string, r: ReturnType<typeof reading>) =>
+      send('POST', `/api/runs/${runId}/rounds`, operator, { takenAt: r.takenAt, readings: [r] });
+    expect((await round(run.id, mine)).body).toMatchObject({ stored: 1, duplicates: 0 });
+    // Another run (of another engine) using the same id: before, it was dropped as a duplicate of this run's reading.
+    const elsewhere = await send('POST', `/api/runs/${other.run.id}/rounds`, chief, {
+      takenAt: mine.takenAt,
+      readings: [{ ...mine, pointId: other.point('THR') }],
+    });
+    expect(elsewhere.body).toMatchObject({ stored: 1, duplicates: 0 });
+    // The same id in the same run with another value: a conflict, not a duplicate.
+    const clash = await round(run.id, { ...mine, value: 121 });
+    expect(clash.status).toBe(409);
+    expect(String(clash.body.message)).toMatch(new RegExp(`clientId ${mine.clientId} was already used in this run`));
+    // A true resend still counts once.
+    expect((await round(run.id, mine)).body).toMatchObject({ stored: 0, duplicates: 1 });
+    const [{ n }] = (await t.db.query(`SELECT count(*)::int AS n FROM readings WHERE client_id = $1`, [mine.clientId])) as { n: number }[];
+    expect(n).toBe(2);
+  });
+});
