@@ -77,6 +77,18 @@ export class EnvironmentVariables {
   @Min(1)
   LOGIN_ACCOUNT_LIMIT_PER_HOUR = 30;
 
+  /** Wrong passwords or PINs one person may give (re-entering the password, setting a PIN, signing) before a lock. */
+  @Transform(({ value }) => Number(value))
+  @IsInt()
+  @Min(1)
+  SECRET_ATTEMPT_LIMIT = 5;
+
+  /** How long the lock lasts, and the window the wrong attempts are counted in. */
+  @Transform(({ value }) => Number(value))
+  @IsInt()
+  @Min(1)
+  SECRET_LOCK_MINUTES = 15;
+
   @IsString()
   PUBLIC_URL = 'http://127.0.0.1:3000';
 

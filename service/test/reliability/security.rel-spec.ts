@@ -496,3 +496,43 @@ describe('client ids are scoped to their run', () => {
     expect(n).toBe(2);
   });
 });
+
+describe('password and PIN oracles have an attempt limit', () => {
+  it('after 5 wrong passwords or PINs, re-entry, PIN setting and signing all answer 429 with Retry-After, the right one too', async () => {
+    const u = await createUser(t.db, { role: 'chief_engineer' });
+    const token = await accessToken(u.id, 'chief_engineer');
+    // A stopped run to countersign.
+    const e = await createEngine(t, chief, engineBody());
+    const r = await createPreparingRun(t, chief, e.id);
+    await t.db.query(`UPDATE runs SET state = 'stopped', started_at = now() - interval '1 hour', stopped_at = now() WHERE id = $1`, [r.id]);
+    const changePassword = (currentPassword: string) =>
+      send('POST', '/api/auth/password', token, { currentPassword, newPassword: 'a-new-password-of-mine-42' });
+    const setPin = (currentPassword: string) => send('POST', '/api/auth/signing-pin', token, { currentPassword, pin: '482913' });
+    const countersign = (signature: string) => send('POST', `/api/runs/${r.id}/transitions`, token, { to: 'closed', signature });
+
+    expect((await changePassword('guess-1')).status).toBe(400);
+    expect((await changePassword('guess-2')).status).toBe(400);
+    expect((await setPin('guess-3')).status).toBe(400);
+    expect((await setPin('guess-4')).status).toBe(400);
+    expect((await countersign('1234')).status).toBe(400);
+    // Locked now: the right password is refused too, with the time to wait.
+    for (const attempt of [() => setPin(u.password), () => countersign(u.password), () => changePassword(u.password)]) {
+      const res = await fetch(`${t.url}/api/auth/me`, { headers: authHeader(token) });
+      expect(res.status).toBe(200);
+      const refused = await attempt();
+      expect(refused.status).toBe(429);
+      expect(String(refused.body.message)).toMatch(/Too many wrong passwords or PINs/);
+    }
+    const raw = await fetch(`${t.url}/api/auth/signing-pin`, {
+      method: 'POST',
+      headers: { ...authHeader(token), 'content-type': 'application/json' },
+      body: JSON.stringify({ currentPassword: u.password, pin: '482913' }),
+    });
+    expect(raw.status).toBe(429);
+    expect(Number(raw.headers.get('retry-after'))).toBeGreaterThan(60);
+    // Someone else is not affected.
+    expect(
+      (await send('POST', '/api/auth/signing-pin', chief, { currentPassword: s.chief_engineer.user.password, pin: '482913' })).status,
+    ).toBe(204);
+  });
+});

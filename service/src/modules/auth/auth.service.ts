@@ -8,6 +8,7 @@ import { AppConfig } from '../../config/app-config.service.js';
 import { UsersService, type UserRecord, type UserWithSecrets } from '../users/users.service.js';
 import { hashPassword, newSecret, sha256, verifyPassword } from '../../common/util/password.util.js';
 import { RefreshToken } from './refresh-token.entity.js';
+import { SecretAttemptsService } from './secret-attempts.service.js';
 
 const BAD_SIGN_IN = 'The e-mail or password is not right.';
 
@@ -18,6 +19,7 @@ export class AuthService {
     private readonly jwt: JwtService,
     private readonly config: AppConfig,
     @InjectRepository(RefreshToken) private readonly refreshTokens: Repository<RefreshToken>,
+    private readonly attempts: SecretAttemptsService,
   ) {}
 
   async login(email: string, password: string): Promise<TokenPair> {
@@ -56,9 +58,17 @@ export class AuthService {
     }
   }
 
-  async changePassword(userId: string, current: string, next: string): Promise<void> {
+  /** The person's current password, re-entered: refused while locked; a wrong one counts towards the lock. */
+  private async assertCurrentPassword(userId: string, current: string, what: string): Promise<void> {
+    this.attempts.assertNotLocked(userId);
     const user = await this.users.findByIdWithSecrets(userId);
-    if (!user || !(await verifyPassword(user.passwordHash, current))) throw new BadRequestException('Your current password is not right.');
+    if (user && (await verifyPassword(user.passwordHash, current))) return;
+    await this.attempts.failed(userId, what);
+    throw new BadRequestException('Your current password is not right.');
+  }
+
+  async changePassword(userId: string, current: string, next: string): Promise<void> {
+    await this.assertCurrentPassword(userId, current, 'a password change');
     await this.users.setPasswordHash(userId, await hashPassword(next));
     // End every sign-in of this person, this one included: access tokens, refresh tokens and live connections.
     await this.endEverySession(userId);
@@ -71,17 +81,21 @@ export class AuthService {
   }
 
   async setPin(userId: string, current: string, pin: string): Promise<void> {
-    const user = await this.users.findByIdWithSecrets(userId);
-    if (!user || !(await verifyPassword(user.passwordHash, current))) throw new BadRequestException('Your current password is not right.');
+    await this.assertCurrentPassword(userId, current, 'setting a signing PIN');
     await this.users.setPinHash(userId, await hashPassword(pin));
   }
 
-  /** Re-authentication when signing a record: the person's password or signing PIN. */
+  /**
+   * Re-authentication when signing a record: the person's password or signing PIN. A wrong one counts towards the
+   * lock; while locked this answers 429 (TooManyAttemptsException) whatever is given.
+   */
   async verifySigner(userId: string, secret: string): Promise<boolean> {
+    this.attempts.assertNotLocked(userId);
     const user = await this.users.findByIdWithSecrets(userId);
     if (!user || !user.active) return false;
-    if (await verifyPassword(user.passwordHash, secret)) return true;
-    return verifyPassword(user.pinHash, secret);
+    if ((await verifyPassword(user.passwordHash, secret)) || (await verifyPassword(user.pinHash, secret))) return true;
+    await this.attempts.failed(userId, 'signing');
+    return false;
   }
 
   async acceptInvitation(token: string, password: string): Promise<TokenPair> {
