@@ -536,3 +536,40 @@ describe('password and PIN oracles have an attempt limit', () => {
     ).toBe(204);
   });
 });
+
+describe('the refresh token lives in an httpOnly cookie', () => {
+  const login = (email: string, password: string, headers: Record<string, string> = {}) =>
+    fetch(`${t.url}/api/auth/login`, {
+      method: 'POST',
+      headers: { 'content-type': 'application/json', 'x-forwarded-for': '10.5.5.5', ...headers },
+      body: JSON.stringify({ email, password }),
+    });
+  const cookieOf = (res: Response) => res.headers.getSetCookie().find((c) => c.startsWith('cj_refresh='));
+
+  it('sign-in sets it httpOnly, SameSite=Strict, for /api/auth only, and leaves it out of the body; refresh works from it alone', async () => {
+    const u = await createUser(t.db, { role: 'operator' });
+    const res = await login(u.email, u.password);
+    expect(res.status).toBe(200);
+    const body = (await res.json()) as Record<string, unknown>;
+    expect(body.refreshToken).toBeUndefined();
+    const cookie = cookieOf(res)!;
+    expect(cookie).toMatch(/^cj_refresh=[0-9a-f-]{36}\.[^;]+; Path=\/api\/auth; Expires=[^;]+; HttpOnly; SameSite=Strict$/);
+    // No cookie, no refresh; with it, a new access token and a rotated cookie.
+    expect((await fetch(`${t.url}/api/auth/refresh`, { method: 'POST' })).status).toBe(401);
+    const pair = cookie.split(';')[0];
+    const refreshed = await fetch(`${t.url}/api/auth/refresh`, { method: 'POST', headers: { cookie: pair } });
+    expect(refreshed.status).toBe(200);
+    expect(((await refreshed.json()) as Record<string, unknown>).accessToken).toEqual(expect.any(String));
+    const next = cookieOf(refreshed)!;
+    expect(next.split(';')[0]).not.toBe(pair);
+    // The family keeps the end of its sign-in: rotation does not stretch it.
+    expect(next.match(/Expires=([^;]+)/)![1]).toBe(cookie.match(/Expires=([^;]+)/)![1]);
+  });
+
+  it('behind a TLS proxy (X-Forwarded-Proto: https) the cookie is Secure too', async () => {
+    const u = await createUser(t.db, { role: 'observer' });
+    const res = await login(u.email, u.password, { 'x-forwarded-proto': 'https', 'x-forwarded-for': '10.5.5.6' });
+    expect(res.status).toBe(200);
+    expect(cookieOf(res)).toMatch(/; Secure; SameSite=Strict$/);
+  });
+});

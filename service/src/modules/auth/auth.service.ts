@@ -12,6 +12,12 @@ import { SecretAttemptsService } from './secret-attempts.service.js';
 
 const BAD_SIGN_IN = 'The e-mail or password is not right.';
 
+/** A sign-in as issued: the answer's body, and the refresh token for the cookie with the family's absolute end. */
+export interface Issued {
+  pair: TokenPair;
+  refresh: { token: string; expiresAt: Date };
+}
+
 @Injectable()
 export class AuthService {
   constructor(
@@ -22,7 +28,7 @@ export class AuthService {
     private readonly attempts: SecretAttemptsService,
   ) {}
 
-  async login(email: string, password: string): Promise<TokenPair> {
+  async login(email: string, password: string): Promise<Issued> {
     const user = await this.users.findByEmailWithSecrets(email);
     // Verify even for unknown users so timing does not reveal who has an account.
     const ok = await verifyPassword(user?.passwordHash ?? DUMMY_HASH, password);
@@ -31,7 +37,8 @@ export class AuthService {
     return this.issue(user, randomUUID());
   }
 
-  async refresh(token: string): Promise<TokenPair> {
+  async refresh(token: string | undefined): Promise<Issued> {
+    if (!token) throw new UnauthorizedException('Please sign in again.');
     const [id] = token.split('.');
     const row = /^[0-9a-f-]{36}$/.test(id ?? '') ? await this.refreshTokens.findOne({ where: { id } }) : null;
     if (!row || row.tokenHash !== sha256(token)) throw new UnauthorizedException('Please sign in again.');
@@ -45,7 +52,8 @@ export class AuthService {
     if (!claimed.affected) throw new UnauthorizedException('This sign-in has ended. Please sign in again.');
     const user = await this.users.findByIdWithSecrets(row.userId);
     if (!user || !user.active) throw new UnauthorizedException('This account has been deactivated. Ask an administrator.');
-    return this.issue(user, row.familyId);
+    // The family keeps the end of its first sign-in: rotation never stretches a sign-in beyond REFRESH_TOKEN_TTL_DAYS.
+    return this.issue(user, row.familyId, row.expiresAt);
   }
 
   async logout(token: string | undefined, userId: string): Promise<void> {
@@ -98,7 +106,7 @@ export class AuthService {
     return false;
   }
 
-  async acceptInvitation(token: string, password: string): Promise<TokenPair> {
+  async acceptInvitation(token: string, password: string): Promise<Issued> {
     const user = await this.users.consumeInvitation(token);
     await this.users.setPasswordHash(user.id, await hashPassword(password));
     const fresh = await this.users.findByIdWithSecrets(user.id);
@@ -109,21 +117,25 @@ export class AuthService {
     return { id: u.id, email: u.email, displayName: u.displayName, role: u.role, unitSystem: u.unitSystem };
   }
 
-  private async issue(user: UserWithSecrets, familyId: string): Promise<TokenPair> {
+  private async issue(user: UserWithSecrets, familyId: string, familyEnds?: Date): Promise<Issued> {
     const ttl = this.config.get('ACCESS_TOKEN_TTL_SECONDS');
     const accessToken = await this.jwt.signAsync({ sub: user.id, role: user.role, sv: user.sessionVersion }, { expiresIn: ttl });
     const id = randomUUID();
     const { secret } = newSecret();
     const refreshToken = `${id}.${secret}`;
+    const expiresAt = familyEnds ?? new Date(Date.now() + this.config.get('REFRESH_TOKEN_TTL_DAYS') * 86400_000);
     await this.refreshTokens.insert({
       id,
       userId: user.id,
       familyId,
       tokenHash: sha256(refreshToken),
-      expiresAt: new Date(Date.now() + this.config.get('REFRESH_TOKEN_TTL_DAYS') * 86400_000),
+      expiresAt,
       revokedAt: null,
     });
-    return { accessToken, accessExpiresInSeconds: ttl, refreshToken, user: this.sessionUser(user) };
+    return {
+      pair: { accessToken, accessExpiresInSeconds: ttl, user: this.sessionUser(user) },
+      refresh: { token: refreshToken, expiresAt },
+    };
   }
 }
 
