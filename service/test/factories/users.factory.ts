@@ -33,7 +33,8 @@ export async function createUser(db: DataSource, opts: CreateUserOptions = {}): 
   const role = opts.role ?? 'operator';
   const password = opts.password ?? `pw-${randomUUID()}`;
   const email = (opts.email ?? uniqueEmail(role)).toLowerCase();
-  const displayName = opts.displayName ?? `Test ${role.replace('_', ' ')} ${email.slice(0, 8)}`;
+  // Display names are unique among active people: a part of the address's random id makes each one its own.
+  const displayName = opts.displayName ?? `Test ${role.replace('_', ' ')} ${email.replace(/^[^-]*-/, '').slice(0, 8)}`;
   const repo = db.getRepository(User);
   const saved = await repo.save(
     repo.create({ email, displayName, role, active: opts.active ?? true, passwordHash: await hashPassword(password) }),

@@ -546,7 +546,7 @@ describe('the refresh token lives in an httpOnly cookie', () => {
     });
   const cookieOf = (res: Response) => res.headers.getSetCookie().find((c) => c.startsWith('cj_refresh='));
 
-  it('sign-in sets it httpOnly, SameSite=Strict, for /api/auth only, and leaves it out of the body; refresh works from it alone', async () => {
+  it('sign-in sets it httpOnly, SameSite=Strict, for /api/auth only, not in the body; refresh works from it alone', async () => {
     const u = await createUser(t.db, { role: 'operator' });
     const res = await login(u.email, u.password);
     expect(res.status).toBe(200);
@@ -571,5 +571,32 @@ describe('the refresh token lives in an httpOnly cookie', () => {
     const res = await login(u.email, u.password, { 'x-forwarded-proto': 'https', 'x-forwarded-for': '10.5.5.6' });
     expect(res.status).toBe(200);
     expect(cookieOf(res)).toMatch(/; Secure; SameSite=Strict$/);
+  });
+});
+
+describe('display names are unique and records keep the name as signed', () => {
+  it('an active person cannot take a colleague’s name, whatever the case', async () => {
+    const a = await createUser(t.db, { role: 'operator', displayName: `Wren Halloway ${Date.now()}` });
+    const b = await createUser(t.db, { role: 'operator' });
+    const token = await accessToken(b.id, 'operator');
+    const taken = await send('PATCH', '/api/auth/me', token, { displayName: a.displayName.toUpperCase() });
+    expect(taken.status).toBe(409);
+    expect(String(taken.body.message)).toMatch(/already called/);
+    const byAdmin = await send('PATCH', `/api/users/${b.id}`, s.administrator.token, { displayName: a.displayName });
+    expect(byAdmin.status).toBe(409);
+    expect((await send('PATCH', '/api/auth/me', token, { displayName: `${a.displayName} junior` })).status).toBe(200);
+  });
+
+  it('a countersigned run shows the name as it was when signed, after the signer is renamed', async () => {
+    const u = await createUser(t.db, { role: 'chief_engineer', displayName: `Ottilie Brame ${Date.now()}` });
+    const token = await accessToken(u.id, 'chief_engineer');
+    const e = await createEngine(t, chief, engineBody());
+    const r = await createPreparingRun(t, chief, e.id);
+    await t.db.query(`UPDATE runs SET state = 'stopped', started_at = now() - interval '1 hour', stopped_at = now() WHERE id = $1`, [r.id]);
+    const closed = await send('POST', `/api/runs/${r.id}/transitions`, token, { to: 'closed', signature: u.password });
+    expect(closed.status).toBe(200);
+    expect((await send('PATCH', '/api/auth/me', token, { displayName: `Someone Else ${Date.now()}` })).status).toBe(200);
+    const after = await send('GET', `/api/runs/${r.id}`, chief);
+    expect(after.body.countersignedByName).toBe(u.displayName);
   });
 });

@@ -160,7 +160,7 @@ export class RunsService {
       notes: r.notes,
       crew: r.crewIds.map((cid) => ({ id: cid, displayName: name.get(cid) ?? 'unknown' })),
       countersignedBy: r.countersignedBy,
-      countersignedByName: r.countersignedBy ? (name.get(r.countersignedBy) ?? null) : null,
+      countersignedByName: r.countersignedBy ? (r.countersignedByName ?? name.get(r.countersignedBy) ?? null) : null,
       countersignedAt: r.closedAt?.toISOString() ?? null,
       abandonedReason: r.abandonedReason,
       history: history.map((h) => ({
@@ -303,6 +303,7 @@ export class RunsService {
       if (to === 'closed') {
         cur.closedAt = now;
         cur.countersignedBy = user.id;
+        cur.countersignedByName = (await this.users.displayNames([user.id])).get(user.id) ?? null;
       }
       if (to === 'abandoned') cur.abandonedReason = dto.note!.trim();
       await m.save(Run, cur);
