@@ -600,3 +600,65 @@ describe('display names are unique and records keep the name as signed', () => {
     expect(after.body.countersignedByName).toBe(u.displayName);
   });
 });
+
+describe('engine parts belong to their engine and are retired, not deleted', () => {
+  /** The engine's description as it stands, for a PUT (ids kept). */
+  const bodyOf = (e: Awaited<ReturnType<typeof createEngine>>) => {
+    const base = engineBody(e.name);
+    return {
+      ...base,
+      cylinders: e.cylinders.map(({ id, label, role, boreIn, strokeIn, pistonRodIn, tailRodIn, clearancePercent }) => ({
+        id,
+        label,
+        role,
+        boreIn,
+        strokeIn,
+        pistonRodIn,
+        tailRodIn,
+        clearancePercent,
+      })),
+      lubricationPoints: e.lubricationPoints.map(({ id, label, kind, oilGrade }) => ({ id, label, kind, oilGrade })),
+      bearings: e.bearings.map(({ id, label, kind, journalDiameterIn, journalLengthIn, loadSharePercent, lubricationPointId }) => ({
+        id,
+        label,
+        kind,
+        journalDiameterIn,
+        journalLengthIn,
+        loadSharePercent,
+        lubricationPointId,
+      })),
+      measurementPoints: base.measurementPoints.map((p) => {
+        const { bearingLabel: _b, ...rest } = p;
+        void _b;
+        const own = e.measurementPoints.find((x) => x.code === p.code)!;
+        return { ...rest, id: own.id, ...(own.bearingId ? { bearingId: own.bearingId } : {}) };
+      }),
+    };
+  };
+
+  it('a point or bearing that names a part of another engine is refused with 400', async () => {
+    const mine = await createEngine(t, chief, engineBody());
+    const theirs = await createEngine(t, chief, engineBody());
+    const body = bodyOf(mine);
+    body.measurementPoints.find((p) => p.code === 'MB')!.bearingId = theirs.bearings[0].id;
+    const res = await send('PUT', `/api/engines/${mine.id}`, chief, body);
+    expect(res.status).toBe(400);
+    expect(String(res.body.message)).toMatch(/is not one of this engine's bearings/);
+    const lube = bodyOf(mine);
+    lube.bearings[0].lubricationPointId = theirs.lubricationPoints[0].id;
+    expect((await send('PUT', `/api/engines/${mine.id}`, chief, lube)).status).toBe(400);
+  });
+
+  it('a bearing left out of the description is retired: gone from the engine, still in the database', async () => {
+    const e = await createEngine(t, chief, engineBody());
+    const bearingId = e.bearings[0].id;
+    const body = bodyOf(e);
+    body.bearings = [];
+    body.measurementPoints = body.measurementPoints.map((p) => ({ ...p, bearingId: undefined }));
+    const res = await send('PUT', `/api/engines/${e.id}`, chief, body);
+    expect(res.status).toBe(200);
+    expect(res.body.bearings).toEqual([]);
+    const rows = (await t.db.query(`SELECT active FROM bearings WHERE id = $1`, [bearingId])) as { active: boolean }[];
+    expect(rows).toEqual([{ active: false }]);
+  });
+});

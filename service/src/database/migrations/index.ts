@@ -12,6 +12,7 @@ import { SiteSettings1796413937879 } from './1796413937879-SiteSettings.js';
 import { UserSessionVersion1796414632333 } from './1796414632333-UserSessionVersion.js';
 import { ReadingClientIdPerRun1796423309760 } from './1796423309760-ReadingClientIdPerRun.js';
 import { NamesKeptAsSigned1796424216765 } from './1796424216765-NamesKeptAsSigned.js';
+import { EnginePartsRetired1796424633674 } from './1796424633674-EnginePartsRetired.js';
 
 /** Every migration in order. Add new ones at the end; never edit one that has been committed. */
 export const MIGRATIONS: (new () => MigrationInterface)[] = [
@@ -28,4 +29,5 @@ export const MIGRATIONS: (new () => MigrationInterface)[] = [
   UserSessionVersion1796414632333,
   ReadingClientIdPerRun1796423309760,
   NamesKeptAsSigned1796424216765,
+  EnginePartsRetired1796424633674,
 ];
