@@ -13,6 +13,7 @@ import { startTestApp } from '../utils/test-app.js';
 import { createEngine, createPreparingRun, engineBody, reading } from '../factories/engine.factory.js';
 import { qualifyInDb } from '../factories/checklists.factory.js';
 import { StartGateService } from '../../src/modules/runs/start-gate.service.js';
+import { smtpTlsOptions } from '../../src/modules/mail/mail.service.js';
 import { validateEnvironment } from '../../src/config/env.validation.js';
 import { sha256 } from '../../src/common/util/password.util.js';
 import { seedUsers } from '../../src/database/seeds/seed-users.js';
@@ -24,8 +25,14 @@ import { adminUrl, repoRoot, suiteDatabaseUrl } from './support/env.js';
 
 // A small byte cap for this file's app, so a chunked body over it costs a few MB, not 200.
 const CAP_BYTES = 3 * 1024 * 1024;
-// Low sign-in limits too (every other test file runs with them out of the way).
-const LIMITS = { CSV_IMPORT_MAX_BYTES: String(CAP_BYTES), LOGIN_ADDRESS_LIMIT_PER_MINUTE: '8', LOGIN_ACCOUNT_LIMIT_PER_HOUR: '6' };
+// Low sign-in limits too (every other test file runs with them out of the way), and the docs behind sign-in.
+const LIMITS = {
+  CSV_IMPORT_MAX_BYTES: String(CAP_BYTES),
+  LOGIN_ADDRESS_LIMIT_PER_MINUTE: '8',
+  LOGIN_ACCOUNT_LIMIT_PER_HOUR: '6',
+  // The API description for signed-in people only (the test suite's default is public).
+  API_DOCS: 'signed-in',
+};
 const before = Object.fromEntries(Object.keys(LIMITS).map((k) => [k, process.env[k]]));
 Object.assign(process.env, LIMITS);
 const t = await startTestApp();
@@ -660,5 +667,51 @@ describe('engine parts belong to their engine and are retired, not deleted', () 
     expect(res.body.bearings).toEqual([]);
     const rows = (await t.db.query(`SELECT active FROM bearings WHERE id = $1`, [bearingId])) as { active: boolean }[];
     expect(rows).toEqual([{ active: false }]);
+  });
+});
+
+describe('transport security headers, the API description and mail over TLS', () => {
+  it('HSTS is sent on answers to HTTPS requests (through a trusted proxy), never over plain HTTP', async () => {
+    const over = await fetch(`${t.url}/api/health`, { headers: { 'x-forwarded-proto': 'https' } });
+    expect(over.headers.get('strict-transport-security')).toBe('max-age=15552000; includeSubDomains');
+    const plain = await fetch(`${t.url}/api/health`);
+    expect(plain.headers.get('strict-transport-security')).toBeNull();
+  });
+
+  it('the CSP lets the page connect to its own origin only', async () => {
+    const csp = (await fetch(`${t.url}/api/health`)).headers.get('content-security-policy') ?? '';
+    expect(csp).toMatch(/(^|;)connect-src 'self'(;|$)/);
+  });
+
+  it('with API_DOCS=signed-in the description needs an access token; production hides it unless asked', async () => {
+    expect((await fetch(`${t.url}/api/docs-json`)).status).toBe(401);
+    expect((await fetch(`${t.url}/api/docs`)).status).toBe(401);
+    const res = await fetch(`${t.url}/api/docs-json`, { headers: authHeader(s.observer.token) });
+    expect(res.status).toBe(200);
+    expect(((await res.json()) as { openapi?: string }).openapi).toMatch(/^3\./);
+    const secret = { JWT_SECRET: 'a-secret-of-our-own-1234' };
+    expect(validateEnvironment({ NODE_ENV: 'production', ...secret }).API_DOCS).toBe('off');
+    expect(validateEnvironment({ NODE_ENV: 'development', ...secret }).API_DOCS).toBe('public');
+    expect(validateEnvironment({ NODE_ENV: 'production', API_DOCS: 'signed-in', ...secret }).API_DOCS).toBe('signed-in');
+  });
+
+  it('mail goes over TLS when asked (SMTP_SECURE, SMTP_REQUIRE_TLS) and plain only to a server on this machine', () => {
+    const env = validateEnvironment({ NODE_ENV: 'test', SMTP_SECURE: 'true', SMTP_REQUIRE_TLS: '1' });
+    expect([env.SMTP_SECURE, env.SMTP_REQUIRE_TLS]).toEqual([true, true]);
+    expect(smtpTlsOptions({ host: '127.0.0.1', secure: false, requireTls: false })).toMatchObject({ ignoreTLS: true, requireTLS: false });
+    // A remote server: STARTTLS whenever it is offered, required when asked, or TLS from the first byte.
+    expect(smtpTlsOptions({ host: 'mail.example.test', secure: false, requireTls: false })).toMatchObject({
+      secure: false,
+      ignoreTLS: false,
+      requireTLS: false,
+    });
+    expect(smtpTlsOptions({ host: 'mail.example.test', secure: false, requireTls: true })).toMatchObject({
+      ignoreTLS: false,
+      requireTLS: true,
+    });
+    expect(smtpTlsOptions({ host: 'mail.example.test', secure: true, requireTls: false })).toMatchObject({
+      secure: true,
+      ignoreTLS: false,
+    });
   });
 });
