@@ -6,7 +6,7 @@ import { Public } from '../../common/decorators/public.decorator.js';
 import { AnyRole } from '../../common/decorators/roles.decorator.js';
 import { CurrentUser, type AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { UsersService } from '../users/users.service.js';
-import { ApiAnswer, ApiNoContent } from '../../common/openapi/api-answer.decorator.js';
+import { ApiAnswer, ApiErrors, ApiNoContent } from '../../common/openapi/api-answer.decorator.js';
 import { AuthService, type Issued } from './auth.service.js';
 import { LoginDto } from './dto/login.dto.js';
 import { ChangePasswordDto, SetSigningPinDto } from './dto/change-password.dto.js';
@@ -107,6 +107,7 @@ export class AuthController {
   @ApiNoContent()
   @ApiBearerAuth()
   @AnyRole()
+  @ApiErrors(429)
   @Post('password')
   @HttpCode(204)
   async changePassword(@Body() dto: ChangePasswordDto, @CurrentUser() me: AuthUser): Promise<void> {
@@ -116,6 +117,7 @@ export class AuthController {
   @ApiNoContent()
   @ApiBearerAuth()
   @AnyRole()
+  @ApiErrors(429)
   @Post('signing-pin')
   @HttpCode(204)
   async setPin(@Body() dto: SetSigningPinDto, @CurrentUser() me: AuthUser): Promise<void> {
