@@ -434,9 +434,13 @@ export class EnginesService {
     return v;
   }
 
-  /** Locks the engine's row for the caller's transaction (a run's change of state: the start and close gates). */
+  /**
+   * Locks the engine's row for the caller's transaction (a run's change of state: the start and close gates), so
+   * changes of one engine's runs follow one another. NO KEY UPDATE: rows that merely refer to the engine (readings,
+   * alarms) are still written meanwhile.
+   */
   async lockForRunChange(engineId: string, m: EntityManager) {
-    await m.query(`SELECT id FROM engines WHERE id = $1 FOR UPDATE`, [engineId]);
+    await m.query(`SELECT id FROM engines WHERE id = $1 FOR NO KEY UPDATE`, [engineId]);
   }
 
   async setActiveRun(engineId: string, runId: string | null, m?: EntityManager) {

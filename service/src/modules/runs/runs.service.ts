@@ -247,11 +247,11 @@ export class RunsService {
   }
 
   /**
-   * One transaction for the gate and the change: the run and its engine are locked (FOR UPDATE) before the start
-   * or close gate is asked, so nothing the gate reads can change between its verdict and the new state (a reading
-   * that would raise a high-high alarm waits on the run's row; an acknowledgement, a checklist or another run of the
-   * engine that would change the verdict waits or is seen). Changes of one engine's runs also queue here, so a
-   * burst of requests holds one database connection at a time while the gate's rules read on others.
+   * One transaction for the gate and the change: the run's row and its engine's are locked before the start
+   * or close gate is asked and until the new state is committed: a reading that would raise a high-high alarm waits
+   * on the run's row (ingest reads it FOR SHARE), and any other change of state of this run or of another run of the
+   * engine waits on the rows. Changes of one engine's runs also queue here, so a burst of requests holds one
+   * database connection at a time while the gate's rules read on others.
    */
   private move(run0: Run, dto: RunTransitionDto, user: AuthUser): Promise<RunDetail> {
     return this.mutex.run(run0.engineId, () => this.moveLocked(run0, dto, user));
