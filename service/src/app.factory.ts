@@ -3,6 +3,7 @@ import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import { NestFactory } from '@nestjs/core';
 import type { NestExpressApplication } from '@nestjs/platform-express';
+import { JwtService } from '@nestjs/jwt';
 import { SwaggerModule } from '@nestjs/swagger';
 import helmet from 'helmet';
 import { pinoHttp } from 'pino-http';
@@ -18,7 +19,7 @@ export async function createApp(opts: { logger?: boolean } = {}): Promise<NestEx
     bodyParser: false,
   });
   const config = app.get(AppConfig);
-  app.set('trust proxy', 'loopback');
+  app.set('trust proxy', config.get('TRUST_PROXY'));
   app.use(
     helmet({
       contentSecurityPolicy: {
@@ -27,7 +28,8 @@ export async function createApp(opts: { logger?: boolean } = {}): Promise<NestEx
           'img-src': ["'self'", 'data:', 'blob:'],
           'style-src': ["'self'", "'unsafe-inline'"],
           'font-src': ["'self'", 'data:'],
-          'connect-src': ["'self'", 'ws:', 'wss:'],
+          // The own origin only (its ws:/wss: included): the UI talks to nothing else.
+          'connect-src': ["'self'"],
           'script-src': ["'self'"],
           'upgrade-insecure-requests': null,
         },
@@ -36,6 +38,13 @@ export async function createApp(opts: { logger?: boolean } = {}): Promise<NestEx
       strictTransportSecurity: false,
     }),
   );
+  // HSTS only on answers to HTTPS requests: served over plain HTTP (the local default) it would mean nothing.
+  const hsts = config.get('HSTS_MAX_AGE_SECONDS');
+  if (hsts > 0)
+    app.use((req: express.Request, res: express.Response, next: express.NextFunction) => {
+      if (req.secure) res.setHeader('Strict-Transport-Security', `max-age=${hsts}; includeSubDomains`);
+      next();
+    });
   if (config.get('LOG_LEVEL') !== 'silent' && opts.logger !== false) {
     app.use(
       pinoHttp({
@@ -50,8 +59,22 @@ export async function createApp(opts: { logger?: boolean } = {}): Promise<NestEx
   app.setGlobalPrefix('api');
   app.enableShutdownHooks();
 
-  const doc = buildApiDocument(app);
-  SwaggerModule.setup('api/docs', app, doc, { jsonDocumentUrl: 'api/docs-json' });
+  const docs = config.get('API_DOCS');
+  if (docs === 'signed-in') {
+    // Only with a valid access token (the page embeds the description, so it is held back too).
+    const jwt = app.get(JwtService);
+    app.use(['/api/docs', '/api/docs-json'], (req: express.Request, res: express.Response, next: express.NextFunction) => {
+      const token = /^Bearer (.+)$/.exec(req.headers.authorization ?? '')?.[1];
+      jwt.verifyAsync(token ?? '').then(
+        () => next(),
+        () =>
+          res
+            .status(401)
+            .json({ statusCode: 401, error: 'Unauthorized', message: 'Sign in to read the API description (send your access token).' }),
+      );
+    });
+  }
+  if (docs !== 'off') SwaggerModule.setup('api/docs', app, buildApiDocument(app), { jsonDocumentUrl: 'api/docs-json' });
 
   const uiDist = config.get('UI_DIST') ?? join(process.cwd(), '..', 'ui', 'dist');
   if (existsSync(join(uiDist, 'index.html'))) {

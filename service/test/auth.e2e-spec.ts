@@ -1,7 +1,7 @@
 import { JwtService } from '@nestjs/jwt';
 import { startTestApp, type TestApp } from './utils/test-app.js';
 import { signedIn } from './utils/signed-in.js';
-import { createUser, login, signIn, uniqueEmail } from './factories/users.factory.js';
+import { createUser, login, refreshCookieFrom, signIn, uniqueEmail } from './factories/users.factory.js';
 
 describe('sign-in and tokens (API)', () => {
   let t: TestApp;
@@ -13,6 +13,12 @@ describe('sign-in and tokens (API)', () => {
   });
 
   const me = (accessToken: string) => signedIn(t, accessToken).get('/api/auth/me');
+  /** POST /api/auth/refresh with the given refresh cookie only (plain fetch: no cookie jar of the test agent). */
+  const refresh = async (cookie: string) => {
+    const res = await fetch(`${t.url}/api/auth/refresh`, { method: 'POST', headers: cookie ? { cookie } : {} });
+    const body = (await res.json()) as { accessToken?: string };
+    return { status: res.status, body, cookie: refreshCookieFrom(res.headers.getSetCookie()) };
+  };
 
   it('signs in with the right password and returns a token pair', async () => {
     const u = await createUser(t.db, { role: 'operator' });
@@ -20,7 +26,9 @@ describe('sign-in and tokens (API)', () => {
     expect(res.status).toBe(200);
     expect(typeof res.body.accessToken).toBe('string');
     expect(res.body.accessToken.split('.')).toHaveLength(3);
-    expect(typeof res.body.refreshToken).toBe('string');
+    // The refresh token is in an httpOnly, SameSite=Strict cookie for /api/auth only, never in the body.
+    expect(res.body.refreshToken).toBeUndefined();
+    expect(refreshCookieFrom(res.headers['set-cookie'])).toMatch(/^cj_refresh=[0-9a-f-]{36}\./);
     expect(res.body.user).toMatchObject({ id: u.id, email: u.email, role: 'operator' });
     expect(res.body.user.passwordHash).toBeUndefined();
     // The access token works.
@@ -65,7 +73,7 @@ describe('sign-in and tokens (API)', () => {
     expect(again.status).toBe(401);
     expect((await me(before.accessToken)).status).toBe(401);
     // Nor can the refresh token of the earlier sign-in bring the session back.
-    const refreshed = await t.http.post('/api/auth/refresh').send({ refreshToken: before.refreshToken });
+    const refreshed = await refresh(before.refreshCookie);
     expect(refreshed.status).toBe(401);
   });
 
@@ -90,17 +98,18 @@ describe('sign-in and tokens (API)', () => {
 
   it('rotates refresh tokens: a new pair each time, the used one refused, reuse ends the family', async () => {
     const first = await login(t, 'chief_engineer');
-    const r1 = await t.http.post('/api/auth/refresh').send({ refreshToken: first.refreshToken });
+    const r1 = await refresh(first.refreshCookie);
     expect(r1.status).toBe(200);
-    expect(r1.body.refreshToken).not.toBe(first.refreshToken);
+    expect(r1.cookie).toMatch(/^cj_refresh=/);
+    expect(r1.cookie).not.toBe(first.refreshCookie);
     expect(typeof r1.body.accessToken).toBe('string');
-    expect((await me(r1.body.accessToken)).status).toBe(200);
+    expect((await me(r1.body.accessToken!)).status).toBe(200);
 
     // The used token again: refused...
-    const reuse = await t.http.post('/api/auth/refresh').send({ refreshToken: first.refreshToken });
+    const reuse = await refresh(first.refreshCookie);
     expect(reuse.status).toBe(401);
     // ...and the whole family ends, so the newest token is refused too.
-    const successor = await t.http.post('/api/auth/refresh').send({ refreshToken: r1.body.refreshToken });
+    const successor = await refresh(r1.cookie);
     expect(successor.status).toBe(401);
   });
 
@@ -108,9 +117,9 @@ describe('sign-in and tokens (API)', () => {
     const u = await createUser(t.db);
     const a = await signIn(t, u);
     const b = await signIn(t, u);
-    await t.http.post('/api/auth/refresh').send({ refreshToken: a.refreshToken });
-    await t.http.post('/api/auth/refresh').send({ refreshToken: a.refreshToken }); // reuse ends family a
-    const stillB = await t.http.post('/api/auth/refresh').send({ refreshToken: b.refreshToken });
+    await refresh(a.refreshCookie);
+    await refresh(a.refreshCookie); // reuse ends family a
+    const stillB = await refresh(b.refreshCookie);
     expect(stillB.status).toBe(200);
   });
 
@@ -139,9 +148,13 @@ describe('sign-in and tokens (API)', () => {
 
   it('logout revokes the refresh token', async () => {
     const s = await login(t, 'mill_lead');
-    const out = await signedIn(t, s).post('/api/auth/logout').send({ refreshToken: s.refreshToken });
+    const out = await fetch(`${t.url}/api/auth/logout`, {
+      method: 'POST',
+      headers: { authorization: `Bearer ${s.accessToken}`, cookie: s.refreshCookie },
+    });
     expect(out.status).toBe(204);
-    const res = await t.http.post('/api/auth/refresh').send({ refreshToken: s.refreshToken });
+    expect(out.headers.getSetCookie().join()).toMatch(/cj_refresh=;/);
+    const res = await refresh(s.refreshCookie);
     expect(res.status).toBe(401);
   });
 
@@ -163,7 +176,7 @@ describe('sign-in and tokens (API)', () => {
     const fresh = await t.http.post('/api/auth/login').send({ email: s.account.email, password: newPassword });
     expect(fresh.status).toBe(200);
     // The sign-ins made with the old password end.
-    const refreshOld = await t.http.post('/api/auth/refresh').send({ refreshToken: s.refreshToken });
+    const refreshOld = await refresh(s.refreshCookie);
     expect(refreshOld.status).toBe(401);
   });
 });

@@ -158,6 +158,16 @@ describe('checklists and the start gate (API)', () => {
           .post(`/api/runs/${run.id}/rounds`)
           .send({ takenAt: later, readings: [{ clientId: randomUUID(), pointId: engine.pointId, value: 100, takenAt: later }] });
       }
+      // Back to normal but nobody has acknowledged it: still refused until a person does.
+      const held = await start(t, operator, run.id);
+      expect(codes(held.verdict)).toEqual(['active_high_high_alarm']);
+      const alarms = (await signedIn(t, operator).get(`/api/runs/${run.id}/alarms`)).body as {
+        id: string;
+        priority: string;
+        state: string;
+      }[];
+      for (const a of alarms.filter((x) => x.priority === 'high_high' && x.state !== 'normal'))
+        expect((await signedIn(t, operator).post(`/api/alarms/${a.id}/acknowledge`)).status).toBe(200);
       expect((await start(t, operator, run.id)).status).toBe(200);
     });
   });

@@ -17,7 +17,9 @@ describe('invitations, health and API documentation (API)', () => {
 
   it('an invited person gets an e-mail, sets a password from its link once, and signs in with it', async () => {
     const email = uniqueEmail('invitee');
-    const invited = await requestAs(t, admin).post('/api/users/invitations').send({ email, displayName: 'Ivy Invitee', role: 'operator' });
+    const invited = await requestAs(t, admin)
+      .post('/api/users/invitations')
+      .send({ email, displayName: `Ivy Invitee ${email.slice(8, 16)}`, role: 'operator' });
     expect(invited.status).toBe(201);
     expect(invited.body).toMatchObject({ email, role: 'operator', active: true, invitationPending: true });
 
@@ -60,7 +62,9 @@ describe('invitations, health and API documentation (API)', () => {
 
   it('lets only one of two simultaneous uses of the same link through', async () => {
     const email = uniqueEmail('race');
-    const invited = await requestAs(t, admin).post('/api/users/invitations').send({ email, displayName: 'Rae Race', role: 'observer' });
+    const invited = await requestAs(t, admin)
+      .post('/api/users/invitations')
+      .send({ email, displayName: `Rae Race ${email.slice(5, 13)}`, role: 'observer' });
     expect(invited.status).toBe(201);
     const mail = await waitForMessage(email);
     const token = decodeURIComponent(mail.text.match(/set-password\?token=([^\s]+)/)![1]);

@@ -36,7 +36,7 @@ describe('who may call what (API)', () => {
           .post('/api/users/invitations')
           .send({
             email: uniqueEmail('invitee'),
-            displayName: 'Invited Person',
+            displayName: `Invited Person ${Date.now()}`,
             role: 'observer',
           });
       },
@@ -46,7 +46,9 @@ describe('who may call what (API)', () => {
       ok: 200,
       call: async (token) => {
         const target = await createUser(t.db, { role: 'observer' });
-        return requestAs(t, token).patch(`/api/users/${target.id}`).send({ displayName: 'Renamed By Test' });
+        return requestAs(t, token)
+          .patch(`/api/users/${target.id}`)
+          .send({ displayName: `Renamed By Test ${Date.now()}` });
       },
     },
   ];

@@ -28,7 +28,7 @@ describe('the API edge refuses bad input (API)', () => {
   describe('POST /api/users/invitations', () => {
     it('accepts a well-formed invitation (control for the cases below)', async () => {
       const email = uniqueEmail('valid');
-      const res = await invite({ email, displayName: 'Valid Invitee', role: 'observer' });
+      const res = await invite({ email, displayName: `Valid Invitee ${email.slice(0, 16)}`, role: 'observer' });
       expect(res.status).toBe(201);
       expect(await userExists(email)).toBe(true);
     });

@@ -77,6 +77,18 @@ export class EnvironmentVariables {
   @Min(1)
   LOGIN_ACCOUNT_LIMIT_PER_HOUR = 30;
 
+  /** Wrong passwords or PINs one person may give (re-entering the password, setting a PIN, signing) before a lock. */
+  @Transform(({ value }) => Number(value))
+  @IsInt()
+  @Min(1)
+  SECRET_ATTEMPT_LIMIT = 5;
+
+  /** How long the lock lasts, and the window the wrong attempts are counted in. */
+  @Transform(({ value }) => Number(value))
+  @IsInt()
+  @Min(1)
+  SECRET_LOCK_MINUTES = 15;
+
   @IsString()
   PUBLIC_URL = 'http://127.0.0.1:3000';
 
@@ -86,6 +98,14 @@ export class EnvironmentVariables {
   @Transform(({ value }) => Number(value))
   @IsInt()
   SMTP_PORT = 2525;
+
+  /** TLS from the first byte (SMTPS, usually port 465). */
+  @Transform(toBool)
+  SMTP_SECURE = false;
+
+  /** Refuse to send unless the server upgrades the connection with STARTTLS. */
+  @Transform(toBool)
+  SMTP_REQUIRE_TLS = false;
 
   @IsString()
   MAIL_FROM = 'Crankjournal <no-reply@crankjournal.example>';
@@ -119,6 +139,21 @@ export class EnvironmentVariables {
   @IsIn(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent'])
   LOG_LEVEL = 'info';
 
+  /** Strict-Transport-Security max-age sent on answers to HTTPS requests (direct, or from a trusted proxy); 0 = never. */
+  @Transform(({ value }) => Number(value))
+  @IsInt()
+  @Min(0)
+  HSTS_MAX_AGE_SECONDS = 15552000;
+
+  /** Which proxies' X-Forwarded-* headers are believed (express "trust proxy": loopback, an address, a subnet list). */
+  @IsString()
+  TRUST_PROXY = 'loopback';
+
+  /** Who may read the API description (/api/docs, /api/docs-json): everyone, signed-in people, or nobody. */
+  @IsOptional()
+  @IsIn(['public', 'signed-in', 'off'], { message: 'API_DOCS must be public, signed-in or off' })
+  API_DOCS?: 'public' | 'signed-in' | 'off';
+
   @Transform(({ value }) => Number(value))
   @IsInt()
   @Min(1)
@@ -151,5 +186,7 @@ export function validateEnvironment(config: Record<string, unknown>): Environmen
         'Set it to a long random secret of your own (npm start generates one in .data/jwt-secret).',
     );
   }
+  // The API description is for development unless asked for: production serves it to nobody by default.
+  validated.API_DOCS ??= validated.NODE_ENV === 'production' ? 'off' : 'public';
   return validated;
 }

@@ -472,15 +472,9 @@ export interface components {
       /** @example crankjournal-demo */
       password: string;
     };
-    RefreshDto: {
-      refreshToken: string;
-    };
     AcceptInvitationDto: {
       token: string;
       password: string;
-    };
-    LogoutDto: {
-      refreshToken?: string;
     };
     UpdatePreferencesDto: {
       /** @enum {string} */
@@ -3807,9 +3801,6 @@ export interface components {
       at: string;
       changes: components["schemas"]["FieldChange"][];
     };
-    RefreshRequest: {
-      refreshToken: string;
-    };
     RejectedRow: {
       /** @description Index in the batch, or line number in a CSV file. */
       index?: number;
@@ -4218,11 +4209,11 @@ export interface components {
       value: number;
       unit: string;
     };
+    /** @description What sign-in, refresh and accepting an invitation answer. The refresh token is not in it: it travels only in an httpOnly, SameSite=Strict cookie (Secure over HTTPS) scoped to /api/auth, out of reach of the page's scripts. */
     TokenPair: {
       accessToken: string;
       /** @description Seconds until the access token expires. */
       accessExpiresInSeconds: number;
-      refreshToken: string;
       user: components["schemas"]["SessionUser"];
     };
     /** @enum {string} */
@@ -4518,28 +4509,11 @@ export interface operations {
     };
   };
   AuthController_refresh: {
-    requestBody: {
-      content: {
-        "application/json": components["schemas"]["RefreshDto"];
-      };
-    };
     responses: {
       /** @description TokenPair */
       200: {
         content: {
           "application/json": components["schemas"]["TokenPair"];
-        };
-      };
-      /** @description Bad request: the body, query or path failed validation (the message says which field and why) */
-      400: {
-        content: {
-          "application/json": components["schemas"]["ApiError"];
-        };
-      };
-      /** @description The body or upload is too large */
-      413: {
-        content: {
-          "application/json": components["schemas"]["ApiError"];
         };
       };
       /** @description Too many attempts; wait and try again */
@@ -4584,21 +4558,10 @@ export interface operations {
     };
   };
   AuthController_logout: {
-    requestBody: {
-      content: {
-        "application/json": components["schemas"]["LogoutDto"];
-      };
-    };
     responses: {
       /** @description Done; no body */
       204: {
         content: never;
-      };
-      /** @description Bad request: the body, query or path failed validation (the message says which field and why) */
-      400: {
-        content: {
-          "application/json": components["schemas"]["ApiError"];
-        };
       };
       /** @description Not signed in, or the access token (or logger key) is missing, expired or revoked */
       401: {
@@ -4614,12 +4577,6 @@ export interface operations {
       };
       /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
       409: {
-        content: {
-          "application/json": components["schemas"]["ApiError"];
-        };
-      };
-      /** @description The body or upload is too large */
-      413: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -4760,6 +4717,12 @@ export interface operations {
           "application/json": components["schemas"]["ApiError"];
         };
       };
+      /** @description Too many attempts; wait and try again */
+      429: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
     };
   };
   AuthController_setPin: {
@@ -4799,6 +4762,12 @@ export interface operations {
       };
       /** @description The body or upload is too large */
       413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Too many attempts; wait and try again */
+      429: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -5517,6 +5486,12 @@ export interface operations {
       };
       /** @description The body or upload is too large */
       413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Too many attempts; wait and try again */
+      429: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -6889,6 +6864,12 @@ export interface operations {
       };
       /** @description The body or upload is too large */
       413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Too many attempts; wait and try again */
+      429: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };

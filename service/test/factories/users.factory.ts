@@ -33,7 +33,8 @@ export async function createUser(db: DataSource, opts: CreateUserOptions = {}): 
   const role = opts.role ?? 'operator';
   const password = opts.password ?? `pw-${randomUUID()}`;
   const email = (opts.email ?? uniqueEmail(role)).toLowerCase();
-  const displayName = opts.displayName ?? `Test ${role.replace('_', ' ')} ${email.slice(0, 8)}`;
+  // Display names are unique among active people: a part of the address's random id makes each one its own.
+  const displayName = opts.displayName ?? `Test ${role.replace('_', ' ')} ${email.replace(/^[^-]*-/, '').slice(0, 8)}`;
   const repo = db.getRepository(User);
   const saved = await repo.save(
     repo.create({ email, displayName, role, active: opts.active ?? true, passwordHash: await hashPassword(password) }),
@@ -43,13 +44,21 @@ export async function createUser(db: DataSource, opts: CreateUserOptions = {}): 
 
 export interface SignedIn extends TokenPair {
   account: CreatedUser;
+  /** `cj_refresh=<token>`: the refresh cookie the sign-in set (send it as the Cookie header to /api/auth/refresh). */
+  refreshCookie: string;
+}
+
+/** The `cj_refresh=…` pair of a response's Set-Cookie headers ('' when none was set). */
+export function refreshCookieFrom(setCookie: string[] | string | null | undefined): string {
+  const all = Array.isArray(setCookie) ? setCookie : setCookie ? [setCookie] : [];
+  return all.map((c) => c.split(';')[0].trim()).find((c) => c.startsWith('cj_refresh=') && c.length > 'cj_refresh='.length) ?? '';
 }
 
 /** Signs a user in through the API; fails loudly when the sign-in is refused. */
 export async function signIn(t: TestApp, account: CreatedUser): Promise<SignedIn> {
   const res = await t.http.post('/api/auth/login').send({ email: account.email, password: account.password });
   if (res.status !== 200) throw new Error(`sign-in of ${account.email} failed: ${res.status} ${JSON.stringify(res.body)}`);
-  return { ...(res.body as TokenPair), account };
+  return { ...(res.body as TokenPair), account, refreshCookie: refreshCookieFrom(res.headers['set-cookie']) };
 }
 
 /** Creates a fresh user of `role` and signs them in. */

@@ -10,7 +10,10 @@ import { join } from 'node:path';
 import { promisify } from 'node:util';
 import pg from 'pg';
 import { startTestApp } from '../utils/test-app.js';
-import { createEngine, createPreparingRun, engineBody } from '../factories/engine.factory.js';
+import { createEngine, createPreparingRun, engineBody, reading } from '../factories/engine.factory.js';
+import { qualifyInDb } from '../factories/checklists.factory.js';
+import { StartGateService } from '../../src/modules/runs/start-gate.service.js';
+import { smtpTlsOptions } from '../../src/modules/mail/mail.service.js';
 import { validateEnvironment } from '../../src/config/env.validation.js';
 import { sha256 } from '../../src/common/util/password.util.js';
 import { seedUsers } from '../../src/database/seeds/seed-users.js';
@@ -22,8 +25,14 @@ import { adminUrl, repoRoot, suiteDatabaseUrl } from './support/env.js';
 
 // A small byte cap for this file's app, so a chunked body over it costs a few MB, not 200.
 const CAP_BYTES = 3 * 1024 * 1024;
-// Low sign-in limits too (every other test file runs with them out of the way).
-const LIMITS = { CSV_IMPORT_MAX_BYTES: String(CAP_BYTES), LOGIN_ADDRESS_LIMIT_PER_MINUTE: '8', LOGIN_ACCOUNT_LIMIT_PER_HOUR: '6' };
+// Low sign-in limits too (every other test file runs with them out of the way), and the docs behind sign-in.
+const LIMITS = {
+  CSV_IMPORT_MAX_BYTES: String(CAP_BYTES),
+  LOGIN_ADDRESS_LIMIT_PER_MINUTE: '8',
+  LOGIN_ACCOUNT_LIMIT_PER_HOUR: '6',
+  // The API description for signed-in people only (the test suite's default is public).
+  API_DOCS: 'signed-in',
+};
 const before = Object.fromEntries(Object.keys(LIMITS).map((k) => [k, process.env[k]]));
 Object.assign(process.env, LIMITS);
 const t = await startTestApp();
@@ -374,5 +383,335 @@ describe('deactivated accounts', () => {
     const res = await post('/api/auth/accept-invitation', { token, password: 'a-password-of-my-own-1' });
     expect(res.status).toBe(400);
     expect(((await res.json()) as { message: string }).message).toMatch(/not active/);
+  });
+});
+
+const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
+/** A JSON request with a token, answered as { status, body }. */
+async function send(method: string, path: string, token: string, body?: unknown) {
+  const res = await fetch(`${t.url}${path}`, {
+    method,
+    headers: { ...authHeader(token), ...(body === undefined ? {} : { 'content-type': 'application/json' }) },
+    body: body === undefined ? undefined : JSON.stringify(body),
+  });
+  const text = await res.text();
+  return { status: res.status, body: (text ? JSON.parse(text) : null) as Record<string, unknown> & { message?: unknown } };
+}
+
+/** A cleared run of a fresh engine the chief engineer may start; the engine's points by code. */
+async function clearedRun() {
+  const e = await createEngine(t, chief, engineBody());
+  await qualifyInDb(t, s.chief_engineer.user.id, e.id, ['start_and_run']);
+  const r = await createPreparingRun(t, chief, e.id);
+  const cleared = await send('POST', `/api/runs/${r.id}/transitions`, chief, { to: 'cleared' });
+  if (cleared.status !== 200) throw new Error(`not cleared: ${cleared.status} ${JSON.stringify(cleared.body)}`);
+  const point = (code: string) => e.measurementPoints.find((p) => p.code === code)!.id;
+  return { engine: e, run: r, point };
+}
+
+describe('the start gate and the start itself are one transaction', () => {
+  it('a high-high reading that arrives while the gate is being asked waits for the start; it cannot slip in between', async () => {
+    const { run: r, point } = await clearedRun();
+    // A slow rule of this run only: the gate takes 800 ms to decide, and notes the high-high alarms there are then.
+    let highHighWhenDecided = -1;
+    t.app.get(StartGateService).registerStartRule({
+      name: 'test: a slow rule',
+      check: async (checked) => {
+        if (checked.id !== r.id) return { reasons: [] };
+        await sleep(800);
+        const [{ n }] = (await t.db.query(`SELECT count(*)::int AS n FROM alarms WHERE run_id = $1 AND priority = 'high_high'`, [
+          r.id,
+        ])) as { n: number }[];
+        highHighWhenDecided = n;
+        return { reasons: [] };
+      },
+    });
+    const start = send('POST', `/api/runs/${r.id}/transitions`, chief, { to: 'running' });
+    await sleep(200);
+    const round = send('POST', `/api/runs/${r.id}/rounds`, chief, {
+      takenAt: new Date().toISOString(),
+      readings: [reading(point('THR'), 149)],
+    });
+    const [started, stored] = await Promise.all([start, round]);
+    expect(started.status).toBe(200);
+    // Before, the reading was stored and its alarm raised while the gate was deciding, and the run started anyway.
+    expect(highHighWhenDecided).toBe(0);
+    expect(stored.status).toBe(201);
+    expect(stored.body).toMatchObject({ stored: 1, alarmsRaised: 1 });
+  });
+});
+
+describe('a back-dated reading does not reopen the start gate; a high-high alarm waits for a person', () => {
+  it('an older normal reading clears nothing, and a cleared high-high alarm holds the gate until acknowledged', async () => {
+    const { run: r, point } = await clearedRun();
+    const now = Date.now();
+    const round = (value: number, at: number) =>
+      send('POST', `/api/runs/${r.id}/rounds`, chief, {
+        takenAt: new Date(at).toISOString(),
+        readings: [reading(point('THR'), value, new Date(at))],
+      });
+    const start = () => send('POST', `/api/runs/${r.id}/transitions`, chief, { to: 'running' });
+    const highHigh = async () =>
+      (
+        (await t.db.query(`SELECT id, state, condition_active FROM alarms WHERE run_id = $1 AND priority = 'high_high'`, [r.id])) as {
+          id: string;
+          state: string;
+          condition_active: boolean;
+        }[]
+      )[0];
+
+    expect((await round(149, now - 60_000)).body).toMatchObject({ stored: 1, alarmsRaised: 1 });
+    expect((await start()).status).toBe(409);
+    // A normal value stamped before the alarm's reading (a tablet's late round, or a forged time).
+    expect((await round(120, now - 90_000)).status).toBe(201);
+    expect(await highHigh()).toMatchObject({ state: 'active_unacknowledged', condition_active: true });
+    expect((await start()).status).toBe(409);
+    // A normal value after it: the condition is gone, but nobody has acknowledged the alarm yet.
+    expect((await round(120, now - 30_000)).status).toBe(201);
+    const hh = await highHigh();
+    expect(hh).toMatchObject({ state: 'returned_unacknowledged', condition_active: false });
+    const refused = await start();
+    expect(refused.status).toBe(409);
+    expect(String(refused.body.message)).toMatch(/nobody has acknowledged it/);
+    expect((await send('POST', `/api/alarms/${hh.id}/acknowledge`, chief, {})).status).toBe(200);
+    expect((await start()).status).toBe(200);
+  });
+});
+
+describe('client ids are scoped to their run', () => {
+  it('the same client id in another run is another reading; in the same run with other content it is a 409', async () => {
+    const other = await clearedRun();
+    const thr = engine.measurementPoints.find((p) => p.code === 'THR')!.id;
+    const takenAt = new Date(Date.now() - 120_000);
+    const mine = reading(thr, 120, takenAt);
+    const round = (runId: string, r: ReturnType<typeof reading>) =>
+      send('POST', `/api/runs/${runId}/rounds`, operator, { takenAt: r.takenAt, readings: [r] });
+    expect((await round(run.id, mine)).body).toMatchObject({ stored: 1, duplicates: 0 });
+    // Another run (of another engine) using the same id: before, it was dropped as a duplicate of this run's reading.
+    const elsewhere = await send('POST', `/api/runs/${other.run.id}/rounds`, chief, {
+      takenAt: mine.takenAt,
+      readings: [{ ...mine, pointId: other.point('THR') }],
+    });
+    expect(elsewhere.body).toMatchObject({ stored: 1, duplicates: 0 });
+    // The same id in the same run with another value: a conflict, not a duplicate.
+    const clash = await round(run.id, { ...mine, value: 121 });
+    expect(clash.status).toBe(409);
+    expect(String(clash.body.message)).toMatch(new RegExp(`clientId ${mine.clientId} was already used in this run`));
+    // A true resend still counts once.
+    expect((await round(run.id, mine)).body).toMatchObject({ stored: 0, duplicates: 1 });
+    const [{ n }] = (await t.db.query(`SELECT count(*)::int AS n FROM readings WHERE client_id = $1`, [mine.clientId])) as { n: number }[];
+    expect(n).toBe(2);
+  });
+});
+
+describe('password and PIN oracles have an attempt limit', () => {
+  it('after 5 wrong passwords or PINs, re-entry, PIN setting and signing all answer 429 with Retry-After, the right one too', async () => {
+    const u = await createUser(t.db, { role: 'chief_engineer' });
+    const token = await accessToken(u.id, 'chief_engineer');
+    // A stopped run to countersign.
+    const e = await createEngine(t, chief, engineBody());
+    const r = await createPreparingRun(t, chief, e.id);
+    await t.db.query(`UPDATE runs SET state = 'stopped', started_at = now() - interval '1 hour', stopped_at = now() WHERE id = $1`, [r.id]);
+    const changePassword = (currentPassword: string) =>
+      send('POST', '/api/auth/password', token, { currentPassword, newPassword: 'a-new-password-of-mine-42' });
+    const setPin = (currentPassword: string) => send('POST', '/api/auth/signing-pin', token, { currentPassword, pin: '482913' });
+    const countersign = (signature: string) => send('POST', `/api/runs/${r.id}/transitions`, token, { to: 'closed', signature });
+
+    expect((await changePassword('guess-1')).status).toBe(400);
+    expect((await changePassword('guess-2')).status).toBe(400);
+    expect((await setPin('guess-3')).status).toBe(400);
+    expect((await setPin('guess-4')).status).toBe(400);
+    expect((await countersign('1234')).status).toBe(400);
+    // Locked now: the right password is refused too, with the time to wait.
+    for (const attempt of [() => setPin(u.password), () => countersign(u.password), () => changePassword(u.password)]) {
+      const res = await fetch(`${t.url}/api/auth/me`, { headers: authHeader(token) });
+      expect(res.status).toBe(200);
+      const refused = await attempt();
+      expect(refused.status).toBe(429);
+      expect(String(refused.body.message)).toMatch(/Too many wrong passwords or PINs/);
+    }
+    const raw = await fetch(`${t.url}/api/auth/signing-pin`, {
+      method: 'POST',
+      headers: { ...authHeader(token), 'content-type': 'application/json' },
+      body: JSON.stringify({ currentPassword: u.password, pin: '482913' }),
+    });
+    expect(raw.status).toBe(429);
+    expect(Number(raw.headers.get('retry-after'))).toBeGreaterThan(60);
+    // Someone else is not affected.
+    expect(
+      (await send('POST', '/api/auth/signing-pin', chief, { currentPassword: s.chief_engineer.user.password, pin: '482913' })).status,
+    ).toBe(204);
+  });
+});
+
+describe('the refresh token lives in an httpOnly cookie', () => {
+  const login = (email: string, password: string, headers: Record<string, string> = {}) =>
+    fetch(`${t.url}/api/auth/login`, {
+      method: 'POST',
+      headers: { 'content-type': 'application/json', 'x-forwarded-for': '10.5.5.5', ...headers },
+      body: JSON.stringify({ email, password }),
+    });
+  const cookieOf = (res: Response) => res.headers.getSetCookie().find((c) => c.startsWith('cj_refresh='));
+
+  it('sign-in sets it httpOnly, SameSite=Strict, for /api/auth only, not in the body; refresh works from it alone', async () => {
+    const u = await createUser(t.db, { role: 'operator' });
+    const res = await login(u.email, u.password);
+    expect(res.status).toBe(200);
+    const body = (await res.json()) as Record<string, unknown>;
+    expect(body.refreshToken).toBeUndefined();
+    const cookie = cookieOf(res)!;
+    expect(cookie).toMatch(/^cj_refresh=[0-9a-f-]{36}\.[^;]+; Path=\/api\/auth; Expires=[^;]+; HttpOnly; SameSite=Strict$/);
+    // No cookie, no refresh; with it, a new access token and a rotated cookie.
+    expect((await fetch(`${t.url}/api/auth/refresh`, { method: 'POST' })).status).toBe(401);
+    const pair = cookie.split(';')[0];
+    const refreshed = await fetch(`${t.url}/api/auth/refresh`, { method: 'POST', headers: { cookie: pair } });
+    expect(refreshed.status).toBe(200);
+    expect(((await refreshed.json()) as Record<string, unknown>).accessToken).toEqual(expect.any(String));
+    const next = cookieOf(refreshed)!;
+    expect(next.split(';')[0]).not.toBe(pair);
+    // The family keeps the end of its sign-in: rotation does not stretch it.
+    expect(next.match(/Expires=([^;]+)/)![1]).toBe(cookie.match(/Expires=([^;]+)/)![1]);
+  });
+
+  it('behind a TLS proxy (X-Forwarded-Proto: https) the cookie is Secure too', async () => {
+    const u = await createUser(t.db, { role: 'observer' });
+    const res = await login(u.email, u.password, { 'x-forwarded-proto': 'https', 'x-forwarded-for': '10.5.5.6' });
+    expect(res.status).toBe(200);
+    expect(cookieOf(res)).toMatch(/; Secure; SameSite=Strict$/);
+  });
+});
+
+describe('display names are unique and records keep the name as signed', () => {
+  it('an active person cannot take a colleague’s name, whatever the case', async () => {
+    const a = await createUser(t.db, { role: 'operator', displayName: `Wren Halloway ${Date.now()}` });
+    const b = await createUser(t.db, { role: 'operator' });
+    const token = await accessToken(b.id, 'operator');
+    const taken = await send('PATCH', '/api/auth/me', token, { displayName: a.displayName.toUpperCase() });
+    expect(taken.status).toBe(409);
+    expect(String(taken.body.message)).toMatch(/already called/);
+    const byAdmin = await send('PATCH', `/api/users/${b.id}`, s.administrator.token, { displayName: a.displayName });
+    expect(byAdmin.status).toBe(409);
+    expect((await send('PATCH', '/api/auth/me', token, { displayName: `${a.displayName} junior` })).status).toBe(200);
+  });
+
+  it('a countersigned run shows the name as it was when signed, after the signer is renamed', async () => {
+    const u = await createUser(t.db, { role: 'chief_engineer', displayName: `Ottilie Brame ${Date.now()}` });
+    const token = await accessToken(u.id, 'chief_engineer');
+    const e = await createEngine(t, chief, engineBody());
+    const r = await createPreparingRun(t, chief, e.id);
+    await t.db.query(`UPDATE runs SET state = 'stopped', started_at = now() - interval '1 hour', stopped_at = now() WHERE id = $1`, [r.id]);
+    const closed = await send('POST', `/api/runs/${r.id}/transitions`, token, { to: 'closed', signature: u.password });
+    expect(closed.status).toBe(200);
+    expect((await send('PATCH', '/api/auth/me', token, { displayName: `Someone Else ${Date.now()}` })).status).toBe(200);
+    const after = await send('GET', `/api/runs/${r.id}`, chief);
+    expect(after.body.countersignedByName).toBe(u.displayName);
+  });
+});
+
+describe('engine parts belong to their engine and are retired, not deleted', () => {
+  /** The engine's description as it stands, for a PUT (ids kept). */
+  const bodyOf = (e: Awaited<ReturnType<typeof createEngine>>) => {
+    const base = engineBody(e.name);
+    return {
+      ...base,
+      cylinders: e.cylinders.map(({ id, label, role, boreIn, strokeIn, pistonRodIn, tailRodIn, clearancePercent }) => ({
+        id,
+        label,
+        role,
+        boreIn,
+        strokeIn,
+        pistonRodIn,
+        tailRodIn,
+        clearancePercent,
+      })),
+      lubricationPoints: e.lubricationPoints.map(({ id, label, kind, oilGrade }) => ({ id, label, kind, oilGrade })),
+      bearings: e.bearings.map(({ id, label, kind, journalDiameterIn, journalLengthIn, loadSharePercent, lubricationPointId }) => ({
+        id,
+        label,
+        kind,
+        journalDiameterIn,
+        journalLengthIn,
+        loadSharePercent,
+        lubricationPointId,
+      })),
+      measurementPoints: base.measurementPoints.map((p) => {
+        const { bearingLabel: _b, ...rest } = p;
+        void _b;
+        const own = e.measurementPoints.find((x) => x.code === p.code)!;
+        return { ...rest, id: own.id, ...(own.bearingId ? { bearingId: own.bearingId } : {}) };
+      }),
+    };
+  };
+
+  it('a point or bearing that names a part of another engine is refused with 400', async () => {
+    const mine = await createEngine(t, chief, engineBody());
+    const theirs = await createEngine(t, chief, engineBody());
+    const body = bodyOf(mine);
+    body.measurementPoints.find((p) => p.code === 'MB')!.bearingId = theirs.bearings[0].id;
+    const res = await send('PUT', `/api/engines/${mine.id}`, chief, body);
+    expect(res.status).toBe(400);
+    expect(String(res.body.message)).toMatch(/is not one of this engine's bearings/);
+    const lube = bodyOf(mine);
+    lube.bearings[0].lubricationPointId = theirs.lubricationPoints[0].id;
+    expect((await send('PUT', `/api/engines/${mine.id}`, chief, lube)).status).toBe(400);
+  });
+
+  it('a bearing left out of the description is retired: gone from the engine, still in the database', async () => {
+    const e = await createEngine(t, chief, engineBody());
+    const bearingId = e.bearings[0].id;
+    const body = bodyOf(e);
+    body.bearings = [];
+    body.measurementPoints = body.measurementPoints.map((p) => ({ ...p, bearingId: undefined }));
+    const res = await send('PUT', `/api/engines/${e.id}`, chief, body);
+    expect(res.status).toBe(200);
+    expect(res.body.bearings).toEqual([]);
+    const rows = (await t.db.query(`SELECT active FROM bearings WHERE id = $1`, [bearingId])) as { active: boolean }[];
+    expect(rows).toEqual([{ active: false }]);
+  });
+});
+
+describe('transport security headers, the API description and mail over TLS', () => {
+  it('HSTS is sent on answers to HTTPS requests (through a trusted proxy), never over plain HTTP', async () => {
+    const over = await fetch(`${t.url}/api/health`, { headers: { 'x-forwarded-proto': 'https' } });
+    expect(over.headers.get('strict-transport-security')).toBe('max-age=15552000; includeSubDomains');
+    const plain = await fetch(`${t.url}/api/health`);
+    expect(plain.headers.get('strict-transport-security')).toBeNull();
+  });
+
+  it('the CSP lets the page connect to its own origin only', async () => {
+    const csp = (await fetch(`${t.url}/api/health`)).headers.get('content-security-policy') ?? '';
+    expect(csp).toMatch(/(^|;)connect-src 'self'(;|$)/);
+  });
+
+  it('with API_DOCS=signed-in the description needs an access token; production hides it unless asked', async () => {
+    expect((await fetch(`${t.url}/api/docs-json`)).status).toBe(401);
+    expect((await fetch(`${t.url}/api/docs`)).status).toBe(401);
+    const res = await fetch(`${t.url}/api/docs-json`, { headers: authHeader(s.observer.token) });
+    expect(res.status).toBe(200);
+    expect(((await res.json()) as { openapi?: string }).openapi).toMatch(/^3\./);
+    const secret = { JWT_SECRET: 'a-secret-of-our-own-1234' };
+    expect(validateEnvironment({ NODE_ENV: 'production', ...secret }).API_DOCS).toBe('off');
+    expect(validateEnvironment({ NODE_ENV: 'development', ...secret }).API_DOCS).toBe('public');
+    expect(validateEnvironment({ NODE_ENV: 'production', API_DOCS: 'signed-in', ...secret }).API_DOCS).toBe('signed-in');
+  });
+
+  it('mail goes over TLS when asked (SMTP_SECURE, SMTP_REQUIRE_TLS) and plain only to a server on this machine', () => {
+    const env = validateEnvironment({ NODE_ENV: 'test', SMTP_SECURE: 'true', SMTP_REQUIRE_TLS: '1' });
+    expect([env.SMTP_SECURE, env.SMTP_REQUIRE_TLS]).toEqual([true, true]);
+    expect(smtpTlsOptions({ host: '127.0.0.1', secure: false, requireTls: false })).toMatchObject({ ignoreTLS: true, requireTLS: false });
+    // A remote server: STARTTLS whenever it is offered, required when asked, or TLS from the first byte.
+    expect(smtpTlsOptions({ host: 'mail.example.test', secure: false, requireTls: false })).toMatchObject({
+      secure: false,
+      ignoreTLS: false,
+      requireTLS: false,
+    });
+    expect(smtpTlsOptions({ host: 'mail.example.test', secure: false, requireTls: true })).toMatchObject({
+      ignoreTLS: false,
+      requireTLS: true,
+    });
+    expect(smtpTlsOptions({ host: 'mail.example.test', secure: true, requireTls: false })).toMatchObject({
+      secure: true,
+      ignoreTLS: false,
+    });
   });
 });

@@ -5,9 +5,6 @@ export interface LoginRequest {
   email: string;
   password: string;
 }
-export interface RefreshRequest {
-  refreshToken: string;
-}
 export interface SessionUser {
   id: string;
   email: string;
@@ -15,11 +12,14 @@ export interface SessionUser {
   role: Role;
   unitSystem: UnitSystem;
 }
+/**
+ * What sign-in, refresh and accepting an invitation answer. The refresh token is not in it: it travels only in an
+ * httpOnly, SameSite=Strict cookie (Secure over HTTPS) scoped to /api/auth, out of reach of the page's scripts.
+ */
 export interface TokenPair {
   accessToken: string;
   /** Seconds until the access token expires. */
   accessExpiresInSeconds: number;
-  refreshToken: string;
   user: SessionUser;
 }
 export interface ChangePasswordRequest {

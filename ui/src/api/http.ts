@@ -28,11 +28,8 @@ async function refreshOnce(): Promise<boolean> {
   if (!s) return false;
   refreshing ??= (async () => {
     try {
-      const r = await fetch('/api/auth/refresh', {
-        method: 'POST',
-        headers: { 'content-type': 'application/json' },
-        body: JSON.stringify({ refreshToken: s.refreshToken }),
-      });
+      // The refresh token rides in its httpOnly cookie (same origin); the page never sees it.
+      const r = await fetch('/api/auth/refresh', { method: 'POST', credentials: 'same-origin' });
       if (!r.ok) return false;
       sessionStore.set((await r.json()) as TokenPair);
       return true;

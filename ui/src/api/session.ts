@@ -1,9 +1,11 @@
 import type { SessionUser, TokenPair } from '@crankjournal/shared-types';
 
-/** The signed-in session, kept in localStorage so a tablet survives a reload. */
+/**
+ * The signed-in session, kept in localStorage so a tablet survives a reload: the short-lived access token and who
+ * is signed in. The refresh token never reaches the page: the server keeps it in an httpOnly cookie.
+ */
 export interface Session {
   accessToken: string;
-  refreshToken: string;
   user: SessionUser;
 }
 
@@ -15,7 +17,11 @@ let current: Session | null = read();
 function read(): Session | null {
   try {
     const raw = localStorage.getItem(KEY);
-    return raw ? (JSON.parse(raw) as Session) : null;
+    if (!raw) return null;
+    const { accessToken, user } = JSON.parse(raw) as Session;
+    // A session stored by an earlier version also held a refresh token: written again without it.
+    localStorage.setItem(KEY, JSON.stringify({ accessToken, user }));
+    return { accessToken, user };
   } catch {
     return null;
   }
@@ -28,7 +34,7 @@ export const sessionStore = {
     return () => listeners.delete(l);
   },
   set(pair: TokenPair | Session | null) {
-    current = pair ? { accessToken: pair.accessToken, refreshToken: pair.refreshToken, user: pair.user } : null;
+    current = pair ? { accessToken: pair.accessToken, user: pair.user } : null;
     if (current) localStorage.setItem(KEY, JSON.stringify(current));
     else localStorage.removeItem(KEY);
     listeners.forEach((l) => l());

@@ -10,11 +10,7 @@ export function json(body: unknown, status = 200): Response {
  * Signs a demo person of the given role in (tokens are never checked by the stubbed fetch). Give `tokens` when the
  * code under test looks at the token's shape (e.g. a three-part JWT-like `a.b.c`).
  */
-export function signIn(
-  role: Role,
-  over: Partial<SessionUser> = {},
-  tokens: { accessToken?: string; refreshToken?: string } = {},
-): SessionUser {
+export function signIn(role: Role, over: Partial<SessionUser> = {}, tokens: { accessToken?: string } = {}): SessionUser {
   const user: SessionUser = {
     id: 'u1',
     email: 'x@alderforge.example',
@@ -23,7 +19,7 @@ export function signIn(
     unitSystem: 'imperial',
     ...over,
   };
-  sessionStore.set({ accessToken: 'a', refreshToken: 'r', ...tokens, user });
+  sessionStore.set({ accessToken: 'a', ...tokens, user });
   return user;
 }
 

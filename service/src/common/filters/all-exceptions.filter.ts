@@ -2,6 +2,7 @@ import { ArgumentsHost, Catch, ExceptionFilter, HttpException, HttpStatus, Logge
 import type { Request, Response } from 'express';
 import { QueryFailedError } from 'typeorm';
 import type { ApiError } from '@crankjournal/shared-types';
+import { TooManyAttemptsException } from '../errors/too-many-attempts.exception.js';
 
 /** Postgres errors caused by the request's data, answered as 4xx rather than 500. */
 const PG_CLIENT_ERRORS: Record<string, [number, string]> = {
@@ -24,6 +25,7 @@ export class AllExceptionsFilter implements ExceptionFilter {
     const res = ctx.getResponse<Response>();
     const req = ctx.getRequest<Request>();
     let body: ApiError;
+    if (exception instanceof TooManyAttemptsException) res.header('Retry-After', String(exception.retryAfterSeconds));
     if (exception instanceof HttpException) {
       const status = exception.getStatus();
       const r = exception.getResponse();

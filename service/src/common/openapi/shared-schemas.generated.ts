@@ -195,7 +195,6 @@ export type SharedSchemaName =
   | 'ReadingSource'
   | 'ReadingsEvent'
   | 'RecordAmendmentDto'
-  | 'RefreshRequest'
   | 'RejectedRow'
   | 'RenewQualificationRequest'
   | 'Role'
@@ -4081,12 +4080,6 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
     required: ['id', 'reason', 'by', 'byName', 'at', 'changes'],
     additionalProperties: false,
   },
-  RefreshRequest: {
-    type: 'object',
-    properties: { refreshToken: { type: 'string' } },
-    required: ['refreshToken'],
-    additionalProperties: false,
-  },
   RejectedRow: {
     type: 'object',
     properties: {
@@ -4794,11 +4787,12 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
     properties: {
       accessToken: { type: 'string' },
       accessExpiresInSeconds: { type: 'number', description: 'Seconds until the access token expires.' },
-      refreshToken: { type: 'string' },
       user: { $ref: '#/components/schemas/SessionUser' },
     },
-    required: ['accessToken', 'accessExpiresInSeconds', 'refreshToken', 'user'],
+    required: ['accessToken', 'accessExpiresInSeconds', 'user'],
     additionalProperties: false,
+    description:
+      "What sign-in, refresh and accepting an invitation answer. The refresh token is not in it: it travels only in an httpOnly, SameSite=Strict cookie (Secure over HTTPS) scoped to /api/auth, out of reach of the page's scripts.",
   },
   ToleranceStatus: { type: 'string', enum: ['within', 'below', 'above', 'no_tolerance'] },
   TraceCalibrationRequest: {

@@ -5,12 +5,15 @@ import { Mill1796164211009 } from './1796164211009-Mill.js';
 import { ChecklistsQualifications1796164498769 } from './1796164498769-ChecklistsQualifications.js';
 import { IndicatorCards1796164976631 } from './1796164976631-IndicatorCards.js';
 import { Maintenance1796166275712 } from './1796166275712-Maintenance.js';
-import { CardSetBarometer1796414559444 } from './1796414559444-CardSetBarometer.js';
 import { ReadingsPointRunIndex1796169344642 } from './1796169344642-ReadingsPointRunIndex.js';
 import { AlarmSuppression1796170500000 } from './1796170500000-AlarmSuppression.js';
 import { SiteSettings1796413937879 } from './1796413937879-SiteSettings.js';
+import { CardSetBarometer1796414559444 } from './1796414559444-CardSetBarometer.js';
 import { UserSessionVersion1796414632333 } from './1796414632333-UserSessionVersion.js';
 import { CardTraceOrigin1796422565325 } from './1796422565325-CardTraceOrigin.js';
+import { ReadingClientIdPerRun1796423309760 } from './1796423309760-ReadingClientIdPerRun.js';
+import { NamesKeptAsSigned1796424216765 } from './1796424216765-NamesKeptAsSigned.js';
+import { EnginePartsRetired1796424633674 } from './1796424633674-EnginePartsRetired.js';
 
 /** Every migration in order. Add new ones at the end; never edit one that has been committed. */
 export const MIGRATIONS: (new () => MigrationInterface)[] = [
@@ -26,4 +29,7 @@ export const MIGRATIONS: (new () => MigrationInterface)[] = [
   CardSetBarometer1796414559444,
   UserSessionVersion1796414632333,
   CardTraceOrigin1796422565325,
+  ReadingClientIdPerRun1796423309760,
+  NamesKeptAsSigned1796424216765,
+  EnginePartsRetired1796424633674,
 ];

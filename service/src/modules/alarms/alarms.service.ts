@@ -227,6 +227,8 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
       let settings = settingsById.get(point.id);
       if (!settings) settingsById.set(point.id, (settings = { ...point, name: point.label }));
       const list = st.recent.get(point.id) ?? [];
+      // A reading older than the newest one of its point tells of the past: it may raise, never clear.
+      const backDated = list.length > 0 && r.takenAt.getTime() < list[list.length - 1].takenAt.getTime();
       insertByTime(list, { pointId: point.id, value: r.value, takenAt: r.takenAt });
       const cutoff = r.takenAt.getTime() - RATE_WINDOW_MINUTES * 60_000;
       let drop = 0;
@@ -318,6 +320,9 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
               if (saved.priority === 'high_high') toEmail.push(saved);
             }
           }
+        } else if (d.action === 'clear' && open && (backDated || r.takenAt.getTime() < open.raisedAt.getTime())) {
+          // Older than what is known of the point (or than the reading that raised the alarm): it clears nothing.
+          continue;
         } else if (d.action === 'clear' && open && open.conditionActive && open.suppression && open.state !== 'shelved') {
           // Never annunciated, so nothing waits for the crew: straight back to normal, on the record.
           events.push({
@@ -576,8 +581,12 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
   }
 
   /** True when a high-high priority alarm is active (condition present) on the engine. */
-  async hasActiveHighHigh(engineId: string): Promise<Alarm[]> {
-    return this.alarmRepo.find({ where: { engineId, priority: 'high_high', conditionActive: true, state: Not('normal') } });
+  /**
+   * High-high alarms of the engine that still hold the start gate: every one not back to normal, i.e. its
+   * condition present, or gone but not yet acknowledged by a person (returned unacknowledged, or shelved).
+   */
+  async unresolvedHighHigh(engineId: string): Promise<Alarm[]> {
+    return this.alarmRepo.find({ where: { engineId, priority: 'high_high', state: Not('normal') } });
   }
 
   private async change(alarmId: string, user: AuthUser, build: (a: Alarm) => LifecycleEvent, note?: string): Promise<AlarmDto> {

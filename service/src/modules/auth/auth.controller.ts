@@ -1,19 +1,19 @@
-import { Body, Controller, Get, HttpCode, Patch, Post, UseGuards } from '@nestjs/common';
+import { Body, Controller, Get, HttpCode, Patch, Post, Req, Res, UseGuards } from '@nestjs/common';
+import type { Request, Response } from 'express';
 import { ApiBearerAuth, ApiTags, ApiBody } from '@nestjs/swagger';
 import type { SessionUser, TokenPair } from '@crankjournal/shared-types';
 import { Public } from '../../common/decorators/public.decorator.js';
 import { AnyRole } from '../../common/decorators/roles.decorator.js';
 import { CurrentUser, type AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { UsersService } from '../users/users.service.js';
-import { ApiAnswer, ApiNoContent } from '../../common/openapi/api-answer.decorator.js';
-import { AuthService } from './auth.service.js';
+import { ApiAnswer, ApiErrors, ApiNoContent } from '../../common/openapi/api-answer.decorator.js';
+import { AuthService, type Issued } from './auth.service.js';
 import { LoginDto } from './dto/login.dto.js';
-import { RefreshDto } from './dto/refresh.dto.js';
 import { ChangePasswordDto, SetSigningPinDto } from './dto/change-password.dto.js';
 import { AcceptInvitationDto } from './dto/accept-invitation.dto.js';
 import { UpdatePreferencesDto } from './dto/update-preferences.dto.js';
 import { LoginThrottlerGuard } from './login-throttler.guard.js';
-import { LogoutDto } from './dto/logout.dto.js';
+import { clearRefreshCookie, refreshCookieOf, setRefreshCookie } from './refresh-cookie.js';
 
 @ApiTags('auth')
 @Controller('auth')
@@ -37,16 +37,21 @@ export class AuthController {
   })
   @Post('login')
   @HttpCode(200)
-  login(@Body() dto: LoginDto): Promise<TokenPair> {
-    return this.auth.login(dto.email, dto.password);
+  async login(@Body() dto: LoginDto, @Req() req: Request, @Res({ passthrough: true }) res: Response): Promise<TokenPair> {
+    return answer(req, res, await this.auth.login(dto.email, dto.password));
   }
 
   @ApiAnswer('TokenPair')
   @Public()
   @Post('refresh')
   @HttpCode(200)
-  refresh(@Body() dto: RefreshDto): Promise<TokenPair> {
-    return this.auth.refresh(dto.refreshToken);
+  async refresh(@Req() req: Request, @Res({ passthrough: true }) res: Response): Promise<TokenPair> {
+    try {
+      return answer(req, res, await this.auth.refresh(refreshCookieOf(req)));
+    } catch (e) {
+      clearRefreshCookie(req, res);
+      throw e;
+    }
   }
 
   @ApiAnswer('TokenPair')
@@ -54,8 +59,12 @@ export class AuthController {
   @UseGuards(LoginThrottlerGuard)
   @Post('accept-invitation')
   @HttpCode(200)
-  acceptInvitation(@Body() dto: AcceptInvitationDto): Promise<TokenPair> {
-    return this.auth.acceptInvitation(dto.token, dto.password);
+  async acceptInvitation(
+    @Body() dto: AcceptInvitationDto,
+    @Req() req: Request,
+    @Res({ passthrough: true }) res: Response,
+  ): Promise<TokenPair> {
+    return answer(req, res, await this.auth.acceptInvitation(dto.token, dto.password));
   }
 
   @ApiNoContent()
@@ -63,8 +72,9 @@ export class AuthController {
   @AnyRole()
   @Post('logout')
   @HttpCode(204)
-  async logout(@Body() dto: LogoutDto, @CurrentUser() me: AuthUser): Promise<void> {
-    await this.auth.logout(dto.refreshToken, me.id);
+  async logout(@CurrentUser() me: AuthUser, @Req() req: Request, @Res({ passthrough: true }) res: Response): Promise<void> {
+    await this.auth.logout(refreshCookieOf(req), me.id);
+    clearRefreshCookie(req, res);
   }
 
   /** Ends every sign-in of the caller, on every device: tokens and live connections. */
@@ -73,8 +83,9 @@ export class AuthController {
   @AnyRole()
   @Post('logout-everywhere')
   @HttpCode(204)
-  async logoutEverywhere(@CurrentUser() me: AuthUser): Promise<void> {
+  async logoutEverywhere(@CurrentUser() me: AuthUser, @Req() req: Request, @Res({ passthrough: true }) res: Response): Promise<void> {
     await this.auth.endEverySession(me.id);
+    clearRefreshCookie(req, res);
   }
 
   @ApiAnswer('SessionUser')
@@ -96,6 +107,7 @@ export class AuthController {
   @ApiNoContent()
   @ApiBearerAuth()
   @AnyRole()
+  @ApiErrors(429)
   @Post('password')
   @HttpCode(204)
   async changePassword(@Body() dto: ChangePasswordDto, @CurrentUser() me: AuthUser): Promise<void> {
@@ -105,9 +117,16 @@ export class AuthController {
   @ApiNoContent()
   @ApiBearerAuth()
   @AnyRole()
+  @ApiErrors(429)
   @Post('signing-pin')
   @HttpCode(204)
   async setPin(@Body() dto: SetSigningPinDto, @CurrentUser() me: AuthUser): Promise<void> {
     await this.auth.setPin(me.id, dto.currentPassword, dto.pin);
   }
+}
+
+/** The answer's body; the refresh token goes in its cookie only. */
+function answer(req: Request, res: Response, issued: Issued): TokenPair {
+  setRefreshCookie(req, res, issued.refresh.token, issued.refresh.expiresAt);
+  return issued.pair;
 }

@@ -8,6 +8,7 @@ import { AuthService } from './auth.service.js';
 import { AuthController } from './auth.controller.js';
 import { JwtStrategy } from './jwt.strategy.js';
 import { RefreshToken } from './refresh-token.entity.js';
+import { SecretAttemptsService } from './secret-attempts.service.js';
 
 @Module({
   imports: [
@@ -19,7 +20,7 @@ import { RefreshToken } from './refresh-token.entity.js';
       useFactory: (config: AppConfig) => ({ secret: config.get('JWT_SECRET'), signOptions: { algorithm: 'HS256' } }),
     }),
   ],
-  providers: [AuthService, JwtStrategy],
+  providers: [AuthService, JwtStrategy, SecretAttemptsService],
   controllers: [AuthController],
   exports: [AuthService, JwtModule],
 })

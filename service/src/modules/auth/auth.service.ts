@@ -8,8 +8,15 @@ import { AppConfig } from '../../config/app-config.service.js';
 import { UsersService, type UserRecord, type UserWithSecrets } from '../users/users.service.js';
 import { hashPassword, newSecret, sha256, verifyPassword } from '../../common/util/password.util.js';
 import { RefreshToken } from './refresh-token.entity.js';
+import { SecretAttemptsService } from './secret-attempts.service.js';
 
 const BAD_SIGN_IN = 'The e-mail or password is not right.';
+
+/** A sign-in as issued: the answer's body, and the refresh token for the cookie with the family's absolute end. */
+export interface Issued {
+  pair: TokenPair;
+  refresh: { token: string; expiresAt: Date };
+}
 
 @Injectable()
 export class AuthService {
@@ -18,9 +25,10 @@ export class AuthService {
     private readonly jwt: JwtService,
     private readonly config: AppConfig,
     @InjectRepository(RefreshToken) private readonly refreshTokens: Repository<RefreshToken>,
+    private readonly attempts: SecretAttemptsService,
   ) {}
 
-  async login(email: string, password: string): Promise<TokenPair> {
+  async login(email: string, password: string): Promise<Issued> {
     const user = await this.users.findByEmailWithSecrets(email);
     // Verify even for unknown users so timing does not reveal who has an account.
     const ok = await verifyPassword(user?.passwordHash ?? DUMMY_HASH, password);
@@ -29,7 +37,8 @@ export class AuthService {
     return this.issue(user, randomUUID());
   }
 
-  async refresh(token: string): Promise<TokenPair> {
+  async refresh(token: string | undefined): Promise<Issued> {
+    if (!token) throw new UnauthorizedException('Please sign in again.');
     const [id] = token.split('.');
     const row = /^[0-9a-f-]{36}$/.test(id ?? '') ? await this.refreshTokens.findOne({ where: { id } }) : null;
     if (!row || row.tokenHash !== sha256(token)) throw new UnauthorizedException('Please sign in again.');
@@ -43,7 +52,8 @@ export class AuthService {
     if (!claimed.affected) throw new UnauthorizedException('This sign-in has ended. Please sign in again.');
     const user = await this.users.findByIdWithSecrets(row.userId);
     if (!user || !user.active) throw new UnauthorizedException('This account has been deactivated. Ask an administrator.');
-    return this.issue(user, row.familyId);
+    // The family keeps the end of its first sign-in: rotation never stretches a sign-in beyond REFRESH_TOKEN_TTL_DAYS.
+    return this.issue(user, row.familyId, row.expiresAt);
   }
 
   async logout(token: string | undefined, userId: string): Promise<void> {
@@ -56,9 +66,17 @@ export class AuthService {
     }
   }
 
-  async changePassword(userId: string, current: string, next: string): Promise<void> {
+  /** The person's current password, re-entered: refused while locked; a wrong one counts towards the lock. */
+  private async assertCurrentPassword(userId: string, current: string, what: string): Promise<void> {
+    this.attempts.assertNotLocked(userId);
     const user = await this.users.findByIdWithSecrets(userId);
-    if (!user || !(await verifyPassword(user.passwordHash, current))) throw new BadRequestException('Your current password is not right.');
+    if (user && (await verifyPassword(user.passwordHash, current))) return;
+    await this.attempts.failed(userId, what);
+    throw new BadRequestException('Your current password is not right.');
+  }
+
+  async changePassword(userId: string, current: string, next: string): Promise<void> {
+    await this.assertCurrentPassword(userId, current, 'a password change');
     await this.users.setPasswordHash(userId, await hashPassword(next));
     // End every sign-in of this person, this one included: access tokens, refresh tokens and live connections.
     await this.endEverySession(userId);
@@ -71,20 +89,24 @@ export class AuthService {
   }
 
   async setPin(userId: string, current: string, pin: string): Promise<void> {
-    const user = await this.users.findByIdWithSecrets(userId);
-    if (!user || !(await verifyPassword(user.passwordHash, current))) throw new BadRequestException('Your current password is not right.');
+    await this.assertCurrentPassword(userId, current, 'setting a signing PIN');
     await this.users.setPinHash(userId, await hashPassword(pin));
   }
 
-  /** Re-authentication when signing a record: the person's password or signing PIN. */
+  /**
+   * Re-authentication when signing a record: the person's password or signing PIN. A wrong one counts towards the
+   * lock; while locked this answers 429 (TooManyAttemptsException) whatever is given.
+   */
   async verifySigner(userId: string, secret: string): Promise<boolean> {
+    this.attempts.assertNotLocked(userId);
     const user = await this.users.findByIdWithSecrets(userId);
     if (!user || !user.active) return false;
-    if (await verifyPassword(user.passwordHash, secret)) return true;
-    return verifyPassword(user.pinHash, secret);
+    if ((await verifyPassword(user.passwordHash, secret)) || (await verifyPassword(user.pinHash, secret))) return true;
+    await this.attempts.failed(userId, 'signing');
+    return false;
   }
 
-  async acceptInvitation(token: string, password: string): Promise<TokenPair> {
+  async acceptInvitation(token: string, password: string): Promise<Issued> {
     const user = await this.users.consumeInvitation(token);
     await this.users.setPasswordHash(user.id, await hashPassword(password));
     const fresh = await this.users.findByIdWithSecrets(user.id);
@@ -95,21 +117,25 @@ export class AuthService {
     return { id: u.id, email: u.email, displayName: u.displayName, role: u.role, unitSystem: u.unitSystem };
   }
 
-  private async issue(user: UserWithSecrets, familyId: string): Promise<TokenPair> {
+  private async issue(user: UserWithSecrets, familyId: string, familyEnds?: Date): Promise<Issued> {
     const ttl = this.config.get('ACCESS_TOKEN_TTL_SECONDS');
     const accessToken = await this.jwt.signAsync({ sub: user.id, role: user.role, sv: user.sessionVersion }, { expiresIn: ttl });
     const id = randomUUID();
     const { secret } = newSecret();
     const refreshToken = `${id}.${secret}`;
+    const expiresAt = familyEnds ?? new Date(Date.now() + this.config.get('REFRESH_TOKEN_TTL_DAYS') * 86400_000);
     await this.refreshTokens.insert({
       id,
       userId: user.id,
       familyId,
       tokenHash: sha256(refreshToken),
-      expiresAt: new Date(Date.now() + this.config.get('REFRESH_TOKEN_TTL_DAYS') * 86400_000),
+      expiresAt,
       revokedAt: null,
     });
-    return { accessToken, accessExpiresInSeconds: ttl, refreshToken, user: this.sessionUser(user) };
+    return {
+      pair: { accessToken, accessExpiresInSeconds: ttl, user: this.sessionUser(user) },
+      refresh: { token: refreshToken, expiresAt },
+    };
   }
 }
 

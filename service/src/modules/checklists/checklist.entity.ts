@@ -16,6 +16,8 @@ export class Checklist {
   @Column({ name: 'started_by', type: 'uuid' }) startedBy: string;
   @Column({ name: 'started_at', type: 'timestamptz' }) startedAt: Date;
   @Column({ name: 'signed_by', type: 'uuid', nullable: true }) signedBy: string | null;
+  /** The signer's name as it was when signed: the record shows it even after a rename. */
+  @Column({ name: 'signed_by_name', type: 'varchar', length: 120, nullable: true }) signedByName: string | null;
   @Column({ name: 'signed_at', type: 'timestamptz', nullable: true }) signedAt: Date | null;
   /** The signer's qualification that allowed the signature. */
   @Column({ name: 'signer_qualification_id', type: 'uuid', nullable: true }) signerQualificationId: string | null;

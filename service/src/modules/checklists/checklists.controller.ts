@@ -19,7 +19,7 @@ import { AnyRole, Roles } from '../../common/decorators/roles.decorator.js';
 import { CurrentUser, type AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { IdParamDto } from '../../common/dto/id-param.dto.js';
 import { AppConfig } from '../../config/app-config.service.js';
-import { ApiAnswer, ApiFileAnswer } from '../../common/openapi/api-answer.decorator.js';
+import { ApiAnswer, ApiErrors, ApiFileAnswer } from '../../common/openapi/api-answer.decorator.js';
 import { ChecklistsService } from './checklists.service.js';
 import {
   AmendChecklistDto,
@@ -138,6 +138,7 @@ export class ChecklistsController {
 
   /** Signs with the signer's password or PIN given again; needs the template's qualification. */
   @ApiAnswer('ChecklistDetail')
+  @ApiErrors(429)
   @Post('checklists/:id/sign')
   @HttpCode(200)
   @Roles('operator', 'chief_engineer')

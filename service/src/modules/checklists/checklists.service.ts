@@ -165,7 +165,7 @@ export class ChecklistsService {
         startedAt: c.startedAt.toISOString(),
         startedByName: names.get(c.startedBy) ?? 'unknown',
         signedAt: c.signedAt?.toISOString() ?? null,
-        signedByName: c.signedBy ? (names.get(c.signedBy) ?? 'unknown') : null,
+        signedByName: c.signedBy ? (c.signedByName ?? names.get(c.signedBy) ?? 'unknown') : null,
         amendmentCount: amendBy.get(c.id)?.length ?? 0,
       });
       if (full) {
@@ -519,7 +519,13 @@ export class ChecklistsService {
         await m.update(
           Checklist,
           { id },
-          { status: 'signed', signedBy: user.id, signedAt: new Date(), signerQualificationId: qualificationId },
+          {
+            status: 'signed',
+            signedBy: user.id,
+            signedByName: (await this.names([user.id])).get(user.id) ?? null,
+            signedAt: new Date(),
+            signerQualificationId: qualificationId,
+          },
         );
       });
       this.emit(c.runId, await this.summary(id));

@@ -16,4 +16,6 @@ export class Bearing {
   @Column({ name: 'radial_clearance_in', type: 'numeric', nullable: true, transformer: numeric }) radialClearanceIn: number | null;
   @Column({ name: 'lubrication_point_id', type: 'uuid', nullable: true }) lubricationPointId: string | null;
   @Column({ type: 'int', default: 0 }) position: number;
+  /** False once left out of the engine's description: retired, kept for the records that refer to it. */
+  @Column({ type: 'boolean', default: true }) active: boolean;
 }

@@ -16,4 +16,6 @@ export class Cylinder {
   @Column({ name: 'tail_rod_in', type: 'numeric', default: 0, transformer: numeric }) tailRodIn: number;
   @Column({ name: 'clearance_percent', type: 'numeric', default: 0, transformer: numeric }) clearancePercent: number;
   @Column({ type: 'int', default: 0 }) position: number;
+  /** False once left out of the engine's description: retired, kept for the records that refer to it. */
+  @Column({ type: 'boolean', default: true }) active: boolean;
 }

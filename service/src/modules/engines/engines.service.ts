@@ -87,28 +87,37 @@ export class EnginesService {
       flywheelMassLb: e.flywheelMassLb,
       flywheelRadiusOfGyrationFt: e.flywheelRadiusOfGyrationFt,
       rotatingWeightLb: e.rotatingWeightLb,
-      cylinders: (e.cylinders ?? []).sort(byPos).map(({ id, label, role, boreIn, strokeIn, pistonRodIn, tailRodIn, clearancePercent }) => ({
-        id,
-        label,
-        role,
-        boreIn,
-        strokeIn,
-        pistonRodIn,
-        tailRodIn,
-        clearancePercent,
-      })),
-      lubricationPoints: (e.lubricationPoints ?? []).sort(byPos).map(({ id, label, kind, oilGrade }) => ({ id, label, kind, oilGrade })),
-      bearings: (e.bearings ?? []).sort(byPos).map((b) => ({
-        id: b.id,
-        label: b.label,
-        kind: b.kind,
-        journalDiameterIn: b.journalDiameterIn,
-        journalLengthIn: b.journalLengthIn,
-        loadSharePercent: b.loadSharePercent,
-        radialClearanceIn: b.radialClearanceIn,
-        lubricationPointId: b.lubricationPointId,
-        lubricationPointLabel: b.lubricationPointId ? (lubeById.get(b.lubricationPointId) ?? null) : null,
-      })),
+      cylinders: (e.cylinders ?? [])
+        .filter((x) => x.active)
+        .sort(byPos)
+        .map(({ id, label, role, boreIn, strokeIn, pistonRodIn, tailRodIn, clearancePercent }) => ({
+          id,
+          label,
+          role,
+          boreIn,
+          strokeIn,
+          pistonRodIn,
+          tailRodIn,
+          clearancePercent,
+        })),
+      lubricationPoints: (e.lubricationPoints ?? [])
+        .filter((x) => x.active)
+        .sort(byPos)
+        .map(({ id, label, kind, oilGrade }) => ({ id, label, kind, oilGrade })),
+      bearings: (e.bearings ?? [])
+        .filter((x) => x.active)
+        .sort(byPos)
+        .map((b) => ({
+          id: b.id,
+          label: b.label,
+          kind: b.kind,
+          journalDiameterIn: b.journalDiameterIn,
+          journalLengthIn: b.journalLengthIn,
+          loadSharePercent: b.loadSharePercent,
+          radialClearanceIn: b.radialClearanceIn,
+          lubricationPointId: b.lubricationPointId,
+          lubricationPointLabel: b.lubricationPointId ? (lubeById.get(b.lubricationPointId) ?? null) : null,
+        })),
       measurementPoints: (e.measurementPoints ?? [])
         .filter((m) => m.active)
         .sort((a, b) => a.sequence - b.sequence)
@@ -240,8 +249,9 @@ export class EnginesService {
   }
 
   /**
-   * Parts with an id are updated (they must belong to this engine), without one created; omitted parts are removed,
-   * omitted points retired.
+   * Parts with an id are updated (they must belong to this engine), without one created; omitted parts and points are
+   * retired (kept for the records that refer to them). A reference by id (a bearing's lubrication point, a point's
+   * bearing or cylinder) must name a part of this engine's new description.
    */
   private async writeParts(m: EntityManager, e: Engine, dto: EngineWriteDto, userId: string, fresh: boolean) {
     const own = async <T extends { id: string }>(cls: new () => T, ids: (string | undefined)[], what: string) => {
@@ -268,6 +278,7 @@ export class EnginesService {
         kind: l.kind,
         oilGrade: l.oilGrade.trim(),
         position: i,
+        active: true,
       })),
     );
     const lubeByLabel = new Map(savedLubes.map((l) => [l.label, l.id]));
@@ -278,9 +289,22 @@ export class EnginesService {
     );
     const savedCyls = await m.save(
       Cylinder,
-      dto.cylinders.map((c, i) => ({ ...(c.id ? cyls.get(c.id) : {}), ...c, label: c.label.trim(), engineId: e.id, position: i })),
+      dto.cylinders.map((c, i) => ({
+        ...(c.id ? cyls.get(c.id) : {}),
+        ...c,
+        label: c.label.trim(),
+        engineId: e.id,
+        position: i,
+        active: true,
+      })),
     );
     const cylByLabel = new Map(savedCyls.map((c) => [c.label, c.id]));
+    const refersTo = (ids: Set<string>, id: string | null | undefined, what: string, where: string) => {
+      if (id && !ids.has(id)) throw new BadRequestException(`${where}: ${what} ${id} is not one of this engine's ${what}s.`);
+      return id ?? null;
+    };
+    const lubeIds = new Set(savedLubes.map((l) => l.id));
+    const cylIds = new Set(savedCyls.map((c) => c.id));
     const bearings = await own(
       Bearing,
       dto.bearings.map((b) => b.id),
@@ -299,11 +323,13 @@ export class EnginesService {
         radialClearanceIn: b.radialClearanceIn ?? null,
         lubricationPointId: b.lubricationPointLabel
           ? (lubeByLabel.get(b.lubricationPointLabel.trim()) ?? null)
-          : (b.lubricationPointId ?? null),
+          : refersTo(lubeIds, b.lubricationPointId, 'lubrication point', `bearings.${i}.lubricationPointId`),
         position: i,
+        active: true,
       })),
     );
     const bearingByLabel = new Map(savedBearings.map((b) => [b.label, b.id]));
+    const bearingIds = new Set(savedBearings.map((b) => b.id));
     const points = await own(
       MeasurementPoint,
       dto.measurementPoints.map((p) => p.id),
@@ -314,7 +340,7 @@ export class EnginesService {
       : new Map((await m.find(MeasurementPoint, { where: { engineId: e.id } })).map((p) => [p.code, p]));
     const log: Partial<LimitChange>[] = [];
     const savedPoints: MeasurementPoint[] = [];
-    for (const p of dto.measurementPoints) {
+    for (const [i, p] of dto.measurementPoints.entries()) {
       const before = p.id ? points.get(p.id) : existingByCode.get(p.code);
       const next = {
         ...(before ?? {}),
@@ -334,8 +360,12 @@ export class EnginesService {
         deadband: p.deadband ?? null,
         relatedSuppression: p.relatedSuppression ?? before?.relatedSuppression ?? true,
         suppressedInStates: p.suppressedInStates ?? before?.suppressedInStates ?? [],
-        bearingId: p.bearingLabel ? (bearingByLabel.get(p.bearingLabel.trim()) ?? null) : (p.bearingId ?? null),
-        cylinderId: p.cylinderLabel ? (cylByLabel.get(p.cylinderLabel.trim()) ?? null) : (p.cylinderId ?? null),
+        bearingId: p.bearingLabel
+          ? (bearingByLabel.get(p.bearingLabel.trim()) ?? null)
+          : refersTo(bearingIds, p.bearingId, 'bearing', `measurementPoints.${i}.bearingId`),
+        cylinderId: p.cylinderLabel
+          ? (cylByLabel.get(p.cylinderLabel.trim()) ?? null)
+          : refersTo(cylIds, p.cylinderId, 'cylinder', `measurementPoints.${i}.cylinderId`),
         active: true,
       };
       if (before && !fresh) {
@@ -361,15 +391,15 @@ export class EnginesService {
       const all = await m.find(MeasurementPoint, { where: { engineId: e.id } });
       const retire = all.filter((p) => !keepPoints.has(p.id) && p.active).map((p) => p.id);
       if (retire.length) await m.update(MeasurementPoint, { id: In(retire) }, { active: false });
-      const removeParts = async (cls: typeof Cylinder | typeof Bearing | typeof LubricationPoint, keep: { id: string }[]) => {
+      const retireParts = async (cls: typeof Cylinder | typeof Bearing | typeof LubricationPoint, keep: { id: string }[]) => {
         const ids = new Set(keep.map((k) => k.id));
-        const rows = (await m.find(cls, { where: { engineId: e.id } })) as { id: string }[];
+        const rows = (await m.find(cls, { where: { engineId: e.id, active: true } })) as { id: string }[];
         const gone = rows.filter((r) => !ids.has(r.id)).map((r) => r.id);
-        if (gone.length) await m.delete(cls, { id: In(gone) });
+        if (gone.length) await m.update(cls, { id: In(gone) }, { active: false });
       };
-      await removeParts(Cylinder, savedCyls);
-      await removeParts(Bearing, savedBearings);
-      await removeParts(LubricationPoint, savedLubes);
+      await retireParts(Cylinder, savedCyls);
+      await retireParts(Bearing, savedBearings);
+      await retireParts(LubricationPoint, savedLubes);
     }
   }
 
@@ -402,6 +432,15 @@ export class EnginesService {
     const v = { engine, points };
     this.cache.set(engineId, v);
     return v;
+  }
+
+  /**
+   * Locks the engine's row for the caller's transaction (a run's change of state: the start and close gates), so
+   * changes of one engine's runs follow one another. NO KEY UPDATE: rows that merely refer to the engine (readings,
+   * alarms) are still written meanwhile.
+   */
+  async lockForRunChange(engineId: string, m: EntityManager) {
+    await m.query(`SELECT id FROM engines WHERE id = $1 FOR NO KEY UPDATE`, [engineId]);
   }
 
   async setActiveRun(engineId: string, runId: string | null, m?: EntityManager) {

@@ -13,4 +13,6 @@ export class LubricationPoint {
   @Column({ type: 'varchar', length: 24 }) kind: LubricationKind;
   @Column({ name: 'oil_grade', type: 'varchar', length: 80, default: '' }) oilGrade: string;
   @Column({ type: 'int', default: 0 }) position: number;
+  /** False once left out of the engine's description: retired, kept for the records that refer to it. */
+  @Column({ type: 'boolean', default: true }) active: boolean;
 }

@@ -9,6 +9,21 @@ export interface OutgoingMail {
   attachments?: { filename: string; content: Buffer; contentType?: string }[];
 }
 
+const LOOPBACK = /^(127\.\d+\.\d+\.\d+|::1|localhost)$/i;
+
+/**
+ * How the SMTP connection is protected: TLS from the start (SMTP_SECURE), STARTTLS required (SMTP_REQUIRE_TLS), or
+ * else STARTTLS whenever the server offers it. Plain text is only for a server on this machine (the local stand-in).
+ */
+export function smtpTlsOptions(o: { host: string; secure: boolean; requireTls: boolean }) {
+  return {
+    host: o.host,
+    secure: o.secure,
+    requireTLS: !o.secure && o.requireTls,
+    ignoreTLS: !o.secure && !o.requireTls && LOOPBACK.test(o.host),
+  };
+}
+
 /** E-mail through nodemailer (SMTP). In development and tests the SMTP server is our local inbox stand-in. */
 @Injectable()
 export class MailService implements OnModuleDestroy {
@@ -17,10 +32,12 @@ export class MailService implements OnModuleDestroy {
 
   constructor(private readonly config: AppConfig) {
     this.transport = nodemailer.createTransport({
-      host: config.get('SMTP_HOST'),
+      ...smtpTlsOptions({
+        host: config.get('SMTP_HOST'),
+        secure: config.get('SMTP_SECURE'),
+        requireTls: config.get('SMTP_REQUIRE_TLS'),
+      }),
       port: config.get('SMTP_PORT'),
-      secure: false,
-      ignoreTLS: true,
       pool: true,
       maxConnections: 2,
     });

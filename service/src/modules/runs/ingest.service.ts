@@ -244,7 +244,7 @@ export class IngestService {
                string_to_array($6, $11), string_to_array($7, $11)::timestamptz[], string_to_array($8, $11),
                string_to_array($9, $11, '')::uuid[], string_to_array($10, $11, '')::uuid[]
              ) AS x(c, p, v, u, t, s, e, l)
-           ON CONFLICT (client_id) DO NOTHING
+           ON CONFLICT (run_id, client_id) DO NOTHING
            RETURNING id, client_id`,
           [
             col((r) => r.g.clientId),
@@ -268,6 +268,7 @@ export class IngestService {
           const { job, g } = byClientId.get(client_id)!;
           return { job, row: { id, client_id, point_id: g.point.id, value: g.value, taken_at: g.takenAt } };
         });
+        await this.assertResentUnchanged(m, run.id, rows, ins);
         const fresh: NewReading[] = ins.map(({ row }) => ({
           id: String(row.id),
           pointId: row.point_id,
@@ -292,6 +293,42 @@ export class IngestService {
         alarmsRaised: mine.filter((r) => raisedBy.has(String(r.id))).length,
       };
     });
+  }
+
+  /**
+   * A client id already stored in the run counts as a resend (a duplicate) only when it says the same thing: the
+   * same point, value and time. Another reading under a known id is refused with 409 (the whole group rolls back
+   * and each batch is tried on its own), so a reused id can never silently drop a reading.
+   */
+  private async assertResentUnchanged(
+    m: EntityManager,
+    runId: string,
+    rows: { g: GoodRow }[],
+    inserted: { row: InsertedRow }[],
+  ): Promise<void> {
+    if (inserted.length === rows.length) return;
+    const fresh = new Set(inserted.map((x) => x.row.client_id));
+    const firstOf = new Map<string, GoodRow>();
+    const resent: GoodRow[] = [];
+    for (const { g } of rows) {
+      if (fresh.has(g.clientId) && !firstOf.has(g.clientId)) firstOf.set(g.clientId, g);
+      else resent.push(g);
+    }
+    const stored: { client_id: string; point_id: string; value: number; taken_at: Date }[] = await m.query(
+      `SELECT client_id, point_id, value, taken_at FROM readings WHERE run_id = $1 AND client_id = ANY($2::uuid[])`,
+      [runId, [...new Set(resent.map((g) => g.clientId))]],
+    );
+    const byId = new Map(stored.map((s) => [s.client_id, s]));
+    const clashes = resent.filter((g) => {
+      const s = byId.get(g.clientId);
+      return !s || s.point_id !== g.point.id || Number(s.value) !== g.value || new Date(s.taken_at).getTime() !== g.takenAt.getTime();
+    });
+    if (clashes.length)
+      throw new ConflictException(
+        `clientId ${clashes[0].clientId} was already used in this run for another reading` +
+          (clashes.length > 1 ? ` (and ${clashes.length - 1} more)` : '') +
+          '; give each reading an id of its own.',
+      );
   }
 
   private broadcast(ctx: IngestContext, inserted: { id: string; client_id: string; point_id: string; value: number; taken_at: Date }[]) {

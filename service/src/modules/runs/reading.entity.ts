@@ -11,9 +11,11 @@ import type { ReadingSource } from '@crankjournal/shared-types';
 @Index('readings_engine_time', ['engineId', 'takenAt'])
 /** Per-run figures of a point (bearing history): one exact range per point and run, whatever the table's size. */
 @Index('readings_point_run', ['pointId', 'runId'])
+/** A client id names one reading of its run (a device or logger may resend it; another run may use it too). */
+@Index('readings_run_client_id', ['runId', 'clientId'], { unique: true })
 export class Reading {
   @PrimaryGeneratedColumn('identity', { type: 'bigint', generatedIdentity: 'ALWAYS' }) id: string;
-  @Index('readings_client_id', { unique: true }) @Column({ name: 'client_id', type: 'uuid' }) clientId: string;
+  @Column({ name: 'client_id', type: 'uuid' }) clientId: string;
   @Column({ name: 'run_id', type: 'uuid' }) runId: string;
   @Column({ name: 'engine_id', type: 'uuid' }) engineId: string;
   @Column({ name: 'point_id', type: 'uuid' }) pointId: string;

@@ -16,6 +16,8 @@ export class Run {
   @Column({ name: 'stopped_at', type: 'timestamptz', nullable: true }) stoppedAt: Date | null;
   @Column({ name: 'closed_at', type: 'timestamptz', nullable: true }) closedAt: Date | null;
   @Column({ name: 'countersigned_by', type: 'uuid', nullable: true }) countersignedBy: string | null;
+  /** The countersigner's name as it was when signed: the record shows it even after a rename. */
+  @Column({ name: 'countersigned_by_name', type: 'varchar', length: 120, nullable: true }) countersignedByName: string | null;
   @Column({ name: 'abandoned_reason', type: 'text', nullable: true }) abandonedReason: string | null;
   /** Revolutions from the speed record, fixed when the run stops. */
   @Column({ type: 'double precision', nullable: true }) revolutions: number | null;

@@ -30,7 +30,7 @@ import { CurrentUser, type AuthUser } from '../../common/decorators/current-user
 import { IdParamDto } from '../../common/dto/id-param.dto.js';
 import { AppConfig } from '../../config/app-config.service.js';
 import { AlarmsService } from '../alarms/alarms.service.js';
-import { ApiAnswer, ApiFileAnswer } from '../../common/openapi/api-answer.decorator.js';
+import { ApiAnswer, ApiErrors, ApiFileAnswer } from '../../common/openapi/api-answer.decorator.js';
 import { RunsService } from './runs.service.js';
 import { ReadingsService } from './readings.service.js';
 import { IngestService } from './ingest.service.js';
@@ -114,6 +114,7 @@ export class RunsController {
 
   /** Moves the run on; to running only through the start gate (409 with reasons when refused). */
   @ApiAnswer('RunDetail')
+  @ApiErrors(429)
   @Post(':id/transitions')
   @HttpCode(200)
   @Roles('chief_engineer', 'operator')

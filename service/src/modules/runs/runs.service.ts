@@ -7,6 +7,7 @@ import {
   RUN_TRANSITIONS,
   type Role,
   type RunDetail,
+  type StartGateVerdict,
   type RunState,
   type RunSummary,
 } from '@crankjournal/shared-types';
@@ -17,6 +18,7 @@ import { UsersService } from '../users/users.service.js';
 import { AlarmsService } from '../alarms/alarms.service.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { revolutionsFromSpeedRecord, runningSeconds } from '../../calculations/run-derived.js';
+import { KeyedMutex } from '../../common/util/keyed-mutex.js';
 import type { CreateRunDto, RunTransitionDto, UpdateRunDto } from './dto/run.dto.js';
 import { StartGateService } from './start-gate.service.js';
 import { RunStateChange } from './run-state-change.entity.js';
@@ -45,6 +47,9 @@ export interface RunRecord {
 
 @Injectable()
 export class RunsService {
+  /** Per engine: one change of its runs' state at a time in this process (the database locks hold across processes). */
+  private readonly mutex = new KeyedMutex();
+
   constructor(
     @InjectDataSource() private readonly db: DataSource,
     @InjectRepository(Run) private readonly runRepo: Repository<Run>,
@@ -155,7 +160,7 @@ export class RunsService {
       notes: r.notes,
       crew: r.crewIds.map((cid) => ({ id: cid, displayName: name.get(cid) ?? 'unknown' })),
       countersignedBy: r.countersignedBy,
-      countersignedByName: r.countersignedBy ? (name.get(r.countersignedBy) ?? null) : null,
+      countersignedByName: r.countersignedBy ? (r.countersignedByName ?? name.get(r.countersignedBy) ?? null) : null,
       countersignedAt: r.closedAt?.toISOString() ?? null,
       abandonedReason: r.abandonedReason,
       history: history.map((h) => ({
@@ -241,40 +246,37 @@ export class RunsService {
     return this.move(run0, { to: 'cleared', note }, user);
   }
 
-  private async move(run0: Run, dto: RunTransitionDto, user: AuthUser): Promise<RunDetail> {
+  /**
+   * One transaction for the gate and the change: the run's row and its engine's are locked before the start
+   * or close gate is asked and until the new state is committed: a reading that would raise a high-high alarm waits
+   * on the run's row (ingest reads it FOR SHARE), and any other change of state of this run or of another run of the
+   * engine waits on the rows. Changes of one engine's runs also queue here, so a burst of requests holds one
+   * database connection at a time while the gate's rules read on others.
+   */
+  private move(run0: Run, dto: RunTransitionDto, user: AuthUser): Promise<RunDetail> {
+    return this.mutex.run(run0.engineId, () => this.moveLocked(run0, dto, user));
+  }
+
+  private async moveLocked(run0: Run, dto: RunTransitionDto, user: AuthUser): Promise<RunDetail> {
     const id = run0.id;
     const to = dto.to;
     if (!RUN_TRANSITIONS[run0.state].includes(to))
       throw new ConflictException(`A run that is ${RUN_STATE_LABELS[run0.state].toLowerCase()} cannot go to "${RUN_STATE_LABELS[to]}".`);
     if (to === 'abandoned' && !dto.note?.trim()) throw new BadRequestException('note must say why the run is abandoned');
-    if (to === 'running') {
-      const verdict = await this.gate.checkStart(run0, user);
+    if (to === 'closed' && (!dto.signature || !(await this.auth.verifySigner(user.id, dto.signature))))
+      throw new BadRequestException('To countersign, type your password or signing PIN; the one given is not right.');
+    const refuse = (verdict: StartGateVerdict) => {
       if (!verdict.allowed)
         throw new HttpException(
           { statusCode: 409, error: 'Conflict', message: verdict.reasons.map((r) => r.message), details: verdict },
           409,
         );
-    }
-    if (to === 'closed') {
-      if (!dto.signature || !(await this.auth.verifySigner(user.id, dto.signature)))
-        throw new BadRequestException('To countersign, type your password or signing PIN; the one given is not right.');
-      const verdict = await this.gate.checkClose(run0, user);
-      if (!verdict.allowed)
-        throw new HttpException(
-          { statusCode: 409, error: 'Conflict', message: verdict.reasons.map((r) => r.message), details: verdict },
-          409,
-        );
-    }
-    const now = new Date();
-    let addTotals: { hours: number; revs: number } | null = null;
-    if (to === 'stopped') {
-      const revs = await this.liveRevolutions(run0, now);
-      addTotals = { hours: runningSeconds(run0.startedAt, now) / 3600, revs };
-    }
+    };
     await this.db.transaction(async (m) => {
       const cur = await m.findOne(Run, { where: { id }, lock: { mode: 'pessimistic_write' } });
       if (!cur || cur.state !== run0.state)
         throw new ConflictException('Someone else changed this run a moment ago. Look again and retry.');
+      await this.engines.lockForRunChange(cur.engineId, m);
       if (to === 'preparing' && run0.state === 'planned') {
         const other = await m.findOne(Run, {
           where: { engineId: cur.engineId, state: In(RUN_STATES_TAKING_READINGS as RunState[]), id: Not(id) },
@@ -283,6 +285,14 @@ export class RunsService {
           throw new ConflictException(
             `Another run of this engine ("${other.title}") is ${RUN_STATE_LABELS[other.state].toLowerCase()}. Close or abandon it first.`,
           );
+      }
+      if (to === 'running') refuse(await this.gate.checkStart(cur, user));
+      if (to === 'closed') refuse(await this.gate.checkClose(cur, user));
+      const now = new Date();
+      let addTotals: { hours: number; revs: number } | null = null;
+      if (to === 'stopped') {
+        const revs = await this.liveRevolutions(cur, now);
+        addTotals = { hours: runningSeconds(cur.startedAt, now) / 3600, revs };
       }
       cur.state = to;
       if (to === 'running') cur.startedAt = now;
@@ -293,6 +303,7 @@ export class RunsService {
       if (to === 'closed') {
         cur.closedAt = now;
         cur.countersignedBy = user.id;
+        cur.countersignedByName = (await this.users.displayNames([user.id])).get(user.id) ?? null;
       }
       if (to === 'abandoned') cur.abandonedReason = dto.note!.trim();
       await m.save(Run, cur);

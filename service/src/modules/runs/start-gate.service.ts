@@ -23,11 +23,14 @@ export class StartGateService {
     this.startRules.push({
       name: 'no-high-high-alarm',
       check: async (run) => {
-        const active = await this.alarms.hasActiveHighHigh(run.engineId);
+        const unresolved = await this.alarms.unresolvedHighHigh(run.engineId);
         return {
-          reasons: active.map((a) => ({
+          reasons: unresolved.map((a) => ({
             code: 'active_high_high_alarm',
-            message: `A high-high alarm is active on this engine: ${a.message} Clear its cause first.`,
+            message: a.conditionActive
+              ? `A high-high alarm is active on this engine: ${a.message} Clear its cause first.`
+              : `A high-high alarm on this engine has returned to normal but nobody has acknowledged it yet: ${a.message} ` +
+                'A person qualified to answer alarms must acknowledge it first.',
             subject: a.id,
           })),
         };

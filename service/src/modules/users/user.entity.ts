@@ -11,6 +11,8 @@ export class User {
   @Column({ type: 'varchar', length: 254 })
   email: string;
 
+  /** Unique among active people, whatever the case: index users_display_name_active on lower(display_name), in the migrations. */
+  @Index('users_display_name_active', { synchronize: false })
   @Column({ name: 'display_name', type: 'varchar', length: 120 })
   displayName: string;
 

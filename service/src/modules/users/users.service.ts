@@ -148,8 +148,17 @@ export class UsersService {
     };
   }
 
+  /** Refuses a display name another active person already has (whatever the case): records must tell people apart. */
+  private async assertNameFree(name: string, exceptId?: string) {
+    const q = this.users.createQueryBuilder('u').where('lower(u.display_name) = lower(:name)', { name }).andWhere('u.active = true');
+    if (exceptId) q.andWhere('u.id <> :exceptId', { exceptId });
+    if (await q.getExists())
+      throw new ConflictException(`Someone else is already called "${name}". Add an initial or a surname so records tell you apart.`);
+  }
+
   async invite(dto: InviteUserDto, invitedBy: string): Promise<UserSummary> {
     const email = dto.email.trim().toLowerCase();
+    await this.assertNameFree(dto.displayName.trim());
     if (await this.users.exists({ where: { email } })) {
       throw new ConflictException(`${email} already has an account.`);
     }
@@ -220,6 +229,7 @@ export class UsersService {
     if (dto.role !== undefined) u.role = dto.role as Role;
     if (dto.active !== undefined) u.active = dto.active;
     if (dto.displayName !== undefined) u.displayName = dto.displayName.trim();
+    if (u.active && (dto.displayName !== undefined || dto.active === true)) await this.assertNameFree(u.displayName, u.id);
     await this.users.save(u);
     this.forget(id);
     if (dto.active === false) this.events.announce('deactivated', id);
@@ -232,6 +242,7 @@ export class UsersService {
     const patch: Partial<User> = {};
     if (prefs.unitSystem) patch.unitSystem = prefs.unitSystem;
     if (prefs.displayName) patch.displayName = prefs.displayName.trim();
+    if (patch.displayName) await this.assertNameFree(patch.displayName, id);
     if (Object.keys(patch).length) await this.users.update({ id }, patch);
     this.forget(id);
     return this.get(id);

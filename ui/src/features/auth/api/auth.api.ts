@@ -11,7 +11,8 @@ export async function signIn(req: LoginRequest): Promise<TokenPair> {
 export async function signOut(): Promise<void> {
   const s = sessionStore.get();
   try {
-    if (s) await api('/auth/logout', { body: { refreshToken: s.refreshToken } });
+    // The server revokes the refresh token its cookie carries, and clears the cookie.
+    if (s) await api('/auth/logout', { method: 'POST' });
   } catch {
     /* signed out locally whatever the server says */
   }
