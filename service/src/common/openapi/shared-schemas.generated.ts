@@ -3,6 +3,7 @@ export type SharedSchemaName =
   | 'AcceptInvitationRequest'
   | 'AlarmDto'
   | 'AlarmFiguresDto'
+  | 'AlarmForecastRecord'
   | 'AlarmKind'
   | 'AlarmPriority'
   | 'AlarmState'
@@ -297,6 +298,10 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       },
       suppressedById: { type: ['string', 'null'], description: 'The alarm that suppresses this one (design suppression).' },
       suppressedByLabel: { type: ['string', 'null'], description: 'e.g. "High-high" (design) or "run state Preparing" (state).' },
+      forecast: {
+        anyOf: [{ $ref: '#/components/schemas/AlarmForecastRecord' }, { type: 'null' }],
+        description: "A pre-alarm's forecast when it was raised (or last raised again); null for every other alarm.",
+      },
       updatedAt: { type: 'string' },
     },
     required: [
@@ -323,6 +328,7 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       'suppression',
       'suppressedById',
       'suppressedByLabel',
+      'forecast',
       'updatedAt',
     ],
     additionalProperties: false,
@@ -404,8 +410,26 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
     additionalProperties: false,
     description: "The alarm system's own figures for a run or a season, against the standards' suggested targets.",
   },
-  AlarmKind: { type: 'string', enum: ['high', 'high_high', 'low', 'rate_of_rise', 'above_ambient', 'above_mawp', 'overspeed'] },
-  AlarmPriority: { type: 'string', enum: ['high', 'high_high'] },
+  AlarmForecastRecord: {
+    type: 'object',
+    properties: {
+      limitKind: { $ref: '#/components/schemas/AlarmKind', description: "The limit it was heading for, e.g. 'high_high'." },
+      minutesToLimit: { type: 'number' },
+      ratePerMin: { type: 'number' },
+    },
+    required: ['limitKind', 'minutesToLimit', 'ratePerMin'],
+    additionalProperties: false,
+    description: 'The forecast a pre-alarm was raised on, as recorded.',
+  },
+  AlarmKind: {
+    type: 'string',
+    enum: ['high', 'high_high', 'low', 'rate_of_rise', 'above_ambient', 'above_mawp', 'overspeed', 'pre_alarm'],
+  },
+  AlarmPriority: {
+    type: 'string',
+    enum: ['advisory', 'high', 'high_high'],
+    description: "`advisory`: a pre-alarm, lowest of all; never e-mailed, never counted in the alarm system's figures.",
+  },
   AlarmState: { type: 'string', enum: ['active_unacknowledged', 'active_acknowledged', 'returned_unacknowledged', 'normal', 'shelved'] },
   AlarmSuppression: { type: 'string', enum: ['design', 'state'] },
   AmendBrakeFigureRequest: {
@@ -2890,7 +2914,7 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       ratePerMin: { type: 'number' },
       preAlarm: {
         type: 'boolean',
-        description: 'Under the pre-alarm setting: an advisory pre-alarm, the lowest priority (not in the alarm record).',
+        description: 'Under the pre-alarm setting: an advisory pre-alarm, the lowest priority, recorded as a `pre_alarm` alarm.',
       },
       preAlarmMinutes: { type: 'number' },
       method: { type: 'string', description: 'The method and its window, in words, for the screen.' },
