@@ -215,7 +215,8 @@ export class BearingHistoryService {
         row.driftNote =
           v.historyRuns === 0
             ? 'First run of this bearing: nothing earlier to compare with.'
-            : `Too few runs to judge: ${v.historyRuns} earlier run${v.historyRuns > 1 ? 's' : ''}, at least ${MIN_RUNS_TO_JUDGE} are needed.`;
+            : `Too few runs to judge: ${v.historyRuns} earlier run${v.historyRuns > 1 ? 's' : ''}, ` +
+              `at least ${MIN_RUNS_TO_JUDGE} are needed.`;
         continue;
       }
       const at = bandAt(v.band, row.load!);
