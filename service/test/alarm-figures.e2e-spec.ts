@@ -1,4 +1,4 @@
-import type { AlarmFiguresDto, BoardPoint, EngineDetail } from '@crankjournal/shared-types';
+import type { AlarmDto, AlarmFiguresDto, BoardPoint, EngineDetail } from '@crankjournal/shared-types';
 import { startTestApp, type TestApp } from './utils/test-app.js';
 import { signedIn } from './utils/signed-in.js';
 import { login, type SignedIn } from './factories/users.factory.js';
@@ -93,5 +93,30 @@ describe('alarm system figures', () => {
     expect(f).toMatchObject({ limitKind: 'high', limit: 130, preAlarm: true, preAlarmMinutes: 10 });
     expect(Math.abs(f.minutesToLimit - 5 / 1.5)).toBeLessThan(0.1 * (5 / 1.5));
     expect(f.method).toMatch(/Theil–Sen/);
+
+    // The pre-alarm is on the record: an advisory alarm with the forecast it was raised on.
+    const recorded = ((await signedIn(t, operator).get(`/api/runs/${run.id}/alarms`)).body as AlarmDto[]).filter((a) => a.pointId === mb);
+    const pre = recorded.find((a) => a.kind === 'pre_alarm')!;
+    expect(pre).toMatchObject({ priority: 'advisory', state: 'active_unacknowledged', limit: 130, suppression: null });
+    expect(pre.forecast?.limitKind).toBe('high');
+    expect(Math.abs(pre.forecast!.minutesToLimit - 5 / 1.5)).toBeLessThan(0.1 * (5 / 1.5));
+    expect(pre.forecast!.ratePerMin).toBeCloseTo(1.5, 1);
+    expect(pre.message).toMatch(/high \(130 °F\) in about 3 min/);
+
+    // The bearing cools back to 112 °F: no steady trend toward the limit, the pre-alarm returns to normal.
+    const T2 = Date.now() - 30_000;
+    const cool = Array.from({ length: 8 }, (_, i) => reading(mb, 118 - i, new Date(T2 - (7 - i) * 1_000)));
+    expect(
+      (
+        await signedIn(t, operator)
+          .post(`/api/runs/${run.id}/rounds`)
+          .send({ takenAt: new Date(T2).toISOString(), readings: cool })
+      ).status,
+    ).toBe(201);
+    const after = ((await signedIn(t, operator).get(`/api/runs/${run.id}/alarms`)).body as AlarmDto[]).find((a) => a.id === pre.id)!;
+    expect(after.state).toBe('returned_unacknowledged');
+    // Advisory: never counted in the alarm system's figures.
+    const figures = (await signedIn(t, chief).get(`/api/runs/${run.id}/alarm-figures`)).body as { total: number };
+    expect(figures.total).toBe(0);
   });
 });

@@ -107,6 +107,23 @@ describe('alarms suppressed by design and by state', () => {
     expect(res.alarmsRaised).toBe(0);
     const [low] = (await runAlarms(run.id)).filter((a) => a.pointId === point('OIL-P'));
     expect(low).toMatchObject({ kind: 'low', suppression: 'state', suppressedByLabel: 'the run state', state: 'active_unacknowledged' });
+
+    // The run is cleared to start: the change itself releases the alarm (no further reading of the point).
+    expect((await signedIn(t, chief).post(`/api/runs/${run.id}/transitions`).send({ to: 'cleared' })).status).toBe(200);
+    const [released] = (await runAlarms(run.id)).filter((a) => a.pointId === point('OIL-P'));
+    expect(released).toMatchObject({ id: low.id, kind: 'low', suppression: null, suppressedByLabel: null, state: 'active_unacknowledged' });
+    const events: { event: string; note: string }[] = await t.db.query(
+      `SELECT event, note FROM alarm_events WHERE alarm_id = $1 AND event IN ('suppress', 'release') ORDER BY at`,
+      [low.id],
+    );
+    expect(events).toEqual([
+      { event: 'suppress', note: 'Suppressed by run state preparing.' },
+      { event: 'release', note: 'Released: the run state changed to cleared to start.' },
+    ]);
+    // Back to preparing (the chief engineer's choice): the still-active alarm is suppressed by state again.
+    expect((await signedIn(t, chief).post(`/api/runs/${run.id}/transitions`).send({ to: 'preparing' })).status).toBe(200);
+    const [again] = (await runAlarms(run.id)).filter((a) => a.pointId === point('OIL-P'));
+    expect(again).toMatchObject({ id: low.id, suppression: 'state' });
   });
 
   it('the engine page carries the suppression settings of each point', async () => {

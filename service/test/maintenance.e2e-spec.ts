@@ -415,10 +415,22 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
       expect(h.runs).toHaveLength(6);
       expect(h.runs.filter((r) => r.drift?.flagged).map((r) => r.runId)).toEqual([hotRun]);
       expect(h.runs[0].drift).toBeNull();
+      // Runs 2 and 3 have one and two earlier runs: too few to judge; the hot fourth run is judged against three.
+      expect(h.runs.slice(1, 3).map((r) => [r.drift, r.driftNote])).toEqual([
+        [null, 'Too few runs to judge: 1 earlier run, at least 3 are needed.'],
+        [null, 'Too few runs to judge: 2 earlier runs, at least 3 are needed.'],
+      ]);
+      expect(h.settings).toMatchObject({ confidence: 0.95, minRunsToJudge: 3 });
+      expect(h.ruleText).toMatch(/95 % prediction interval/);
       expect(h.loadMeasure).toBe('speed_rpm');
       expect(h.ruleText).toMatch(/more than 5 °F above the top of the band/);
       const hot = h.runs.find((r) => r.runId === hotRun)!;
       expect(hot.riseAtPeakF).toBeGreaterThan(hot.drift!.limitF);
+      // A prediction interval about the mean of three runs at one speed: 2 degrees of freedom, t(0.975, 2) = 4.303
+      // (NIST/SEMATECH e-Handbook of Statistical Methods, §1.3.6.7.2).
+      expect(hot.drift).toMatchObject({ historyRuns: 3, bandKind: 'mean', degreesOfFreedom: 2, confidence: 0.95 });
+      expect(hot.drift!.tQuantile).toBeCloseTo(4.303, 3);
+      expect(hot.drift!.limitF - hot.drift!.halfWidthF - 5).toBeCloseTo(hot.drift!.expectedRiseF, 9);
       expect(hot.meanSpeedRpm).toBeCloseTo(75, 9);
       expect(h.band!.pointCount).toBe(5);
       // Closed runs' figures are kept for the next time.

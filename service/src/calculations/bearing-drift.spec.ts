@@ -1,5 +1,16 @@
 import { create, all } from 'mathjs';
-import { fitBand, bandAt, isDrift, driftCheck, driftHistory, driftRuleText, DRIFT_RULE_TEXT, type DriftPoint } from './bearing-drift.js';
+import {
+  fitBand,
+  bandAt,
+  isDrift,
+  driftCheck,
+  driftHistory,
+  driftRuleText,
+  studentTTwoSided,
+  DRIFT_RULE_TEXT,
+  MIN_RUNS_TO_JUDGE,
+  type DriftPoint,
+} from './bearing-drift.js';
 
 const math = create(all);
 
@@ -40,21 +51,86 @@ describe('least-squares fit', () => {
   });
 });
 
-describe('fallback band', () => {
-  it('with fewer than 3 runs the band is mean ± k·s (sample SD)', () => {
-    const band = fitBand([
-      { load: 400, temperatureRiseF: 20 },
-      { load: 600, temperatureRiseF: 24 },
-    ]);
-    expect(band.kind).toBe('mean');
-    expect(band.interceptF).toBe(22);
-    expect(band.slopeFPerLoad).toBe(0);
-    expect(band.residualSdF).toBeCloseTo(Number(math.std([20, 24])), 12);
-    const at = bandAt(band, 500);
-    expect(at.upperF).toBeCloseTo(22 + 2 * Number(math.std([20, 24])), 12);
+describe('the Student t quantile (from @stdlib/stats-base-dists-t-quantile)', () => {
+  // NIST/SEMATECH e-Handbook of Statistical Methods, §1.3.6.7.2 "Critical Values of the Student's t Distribution",
+  // upper critical values for α = 0.025 (two-sided 95 %), printed to three decimals.
+  it.each([
+    [1, 12.706],
+    [2, 4.303],
+    [5, 2.571],
+    [10, 2.228],
+    [30, 2.042],
+  ])('ν = %d: t(0.975) = %f as printed', (dof, printed) => {
+    expect(Math.abs(studentTTwoSided(0.95, dof) - printed)).toBeLessThan(0.0005);
+  });
+  it('ν = 10 at 90 % two-sided: 1.812 (same table, α = 0.05)', () => {
+    expect(Math.abs(studentTTwoSided(0.9, 10) - 1.812)).toBeLessThan(0.0005);
+  });
+  it('refuses a coverage outside (0, 1) and no degrees of freedom', () => {
+    expect(() => studentTTwoSided(1, 5)).toThrow(RangeError);
+    expect(() => studentTTwoSided(0.95, 0)).toThrow(RangeError);
+  });
+});
+
+describe('the band is a prediction interval for one more run', () => {
+  // D. C. Montgomery, G. C. Runger, "Applied Statistics and Probability for Engineers", Wiley (3rd ed. or later),
+  // ch. 11: the oxygen purity (y, %) against hydrocarbon level (x, %) data of Table 11-1; the fitted line
+  // ŷ = 74.283 + 14.947 x, σ̂² = 1.18, and the 95 % prediction interval for a new observation at x0 = 1.00 %:
+  // 86.83 ≤ Y0 ≤ 91.63 (data and figures from memory; the section on prediction of new observations).
+  const x = [0.99, 1.02, 1.15, 1.29, 1.46, 1.36, 0.87, 1.23, 1.55, 1.4, 1.19, 1.15, 0.98, 1.01, 1.11, 1.2, 1.26, 1.32, 1.43, 0.95];
+  const y = [
+    90.01, 89.05, 91.43, 93.74, 96.73, 94.45, 87.59, 91.77, 99.42, 93.65, 93.54, 92.52, 90.56, 89.54, 89.85, 90.39, 93.25, 93.41, 94.98,
+    87.33,
+  ];
+  const band = fitBand(
+    x.map((v, i) => ({ load: v, temperatureRiseF: y[i] })),
+    { confidence: 0.95 },
+  );
+
+  it('fits the printed line and variance on 18 degrees of freedom', () => {
+    expect(band.interceptF).toBeCloseTo(74.283, 3);
+    expect(band.slopeFPerLoad).toBeCloseTo(14.947, 3);
+    expect(band.residualSdF ** 2).toBeCloseTo(1.18, 2);
+    expect(band.degreesOfFreedom).toBe(18);
+    expect(band.tQuantile).toBeCloseTo(2.101, 3);
   });
 
-  it('with no spread in load it also falls back to the mean', () => {
+  it('gives the printed prediction interval at x0 = 1.00: 86.83 to 91.63', () => {
+    const at = bandAt(band, 1.0);
+    expect(at.lowerF).toBeCloseTo(86.83, 2);
+    expect(at.upperF).toBeCloseTo(91.63, 2);
+  });
+
+  it('widens away from the mean load (x̄ = 1.196)', () => {
+    expect(bandAt(band, 1.196).halfWidthF).toBeLessThan(bandAt(band, 1.0).halfWidthF);
+    expect(bandAt(band, 1.6).halfWidthF).toBeGreaterThan(bandAt(band, 1.4).halfWidthF);
+  });
+
+  it('about the mean (all runs at one load): mean ± t(n − 1) · s · √(1 + 1/n), checked with mathjs', () => {
+    const rises = [20, 22, 24, 23];
+    const b = fitBand(rises.map((r) => ({ load: 500, temperatureRiseF: r })));
+    expect(b.kind).toBe('mean');
+    expect(b.degreesOfFreedom).toBe(3);
+    // t(0.975, 3) = 3.182 (NIST/SEMATECH e-Handbook §1.3.6.7.2).
+    expect(b.tQuantile).toBeCloseTo(3.182, 3);
+    const s = Number(math.std(rises));
+    expect(bandAt(b, 500).upperF).toBeCloseTo(Number(math.mean(rises)) + b.tQuantile * s * Math.sqrt(1 + 1 / 4), 12);
+  });
+});
+
+describe('too few runs to judge', () => {
+  it(`fewer than ${MIN_RUNS_TO_JUDGE} earlier runs fit no band`, () => {
+    expect(MIN_RUNS_TO_JUDGE).toBe(3);
+    expect(() =>
+      fitBand([
+        { load: 400, temperatureRiseF: 20 },
+        { load: 600, temperatureRiseF: 24 },
+      ]),
+    ).toThrow(/too few runs to judge/);
+    expect(() => fitBand([])).toThrow(RangeError);
+  });
+
+  it('with no spread in load the band is about the mean', () => {
     const band = fitBand([
       { load: 500, temperatureRiseF: 20 },
       { load: 500, temperatureRiseF: 22 },
@@ -64,14 +140,14 @@ describe('fallback band', () => {
     expect(band.residualSdF).toBeCloseTo(2, 12);
   });
 
-  it('a single run gives a zero-width band, so only the margin applies', () => {
-    const band = fitBand([{ load: 500, temperatureRiseF: 20 }]);
-    expect(isDrift({ load: 500, temperatureRiseF: 24.9 }, band)).toBe(false);
-    expect(isDrift({ load: 500, temperatureRiseF: 25.1 }, band)).toBe(true);
-  });
-
-  it('no history is an error', () => {
-    expect(() => fitBand([])).toThrow(RangeError);
+  it('the first runs of a bearing get no verdict, the fourth is judged against three', () => {
+    const v = driftHistory(
+      [20, 21, 22, 40].map((r, i) => ({ id: String(i), load: 75, temperatureRiseF: r })),
+      { minLoadSpread: 5 },
+    );
+    expect(v.map((x) => x.check === null)).toEqual([true, true, true, false]);
+    expect(v.map((x) => x.historyRuns)).toEqual([0, 1, 2, 3]);
+    expect(v[3].check!.drift).toBe(true);
   });
 });
 
@@ -112,15 +188,18 @@ describe('drift flag (rule: above upper band + 5 °F)', () => {
     expect(c.extrapolated).toBe(true);
   });
 
-  it('the rule text for the UI states the band and the margin', () => {
+  it('the rule text for the UI states the band, its degrees of freedom, the minimum and the margin', () => {
     expect(DRIFT_RULE_TEXT).toMatch(/least squares/);
+    expect(DRIFT_RULE_TEXT).toMatch(/95 % prediction interval/);
+    expect(DRIFT_RULE_TEXT).toMatch(/degrees of freedom/);
+    expect(DRIFT_RULE_TEXT).toMatch(/fewer than 3 earlier runs there are too few runs to judge/);
     expect(DRIFT_RULE_TEXT).toMatch(/5 °F/);
   });
 });
 
 describe('comparable load (minLoadSpread)', () => {
   // Rule of the product (common practice, no source): loads that span less than the set spread are treated
-  // as the same load, so the band is the mean ± k·s rather than a slope fitted to noise.
+  // as the same load, so the band is about the mean rather than a slope fitted to noise.
   const nearlySame: DriftPoint[] = [
     { load: 74.2, temperatureRiseF: 40.1 },
     { load: 74.6, temperatureRiseF: 41.3 },
@@ -140,8 +219,8 @@ describe('comparable load (minLoadSpread)', () => {
     expect(() => fitBand(nearlySame, { minLoadSpread: -1 })).toThrow(RangeError);
   });
   it('states the settings actually used', () => {
-    const text = driftRuleText({ k: 2, marginF: 5, minLoadSpread: 5, loadName: 'mean speed', loadUnit: 'rpm' });
-    expect(text).toMatch(/\u00b1 2s/);
+    const text = driftRuleText({ confidence: 0.9, marginF: 5, minLoadSpread: 5, loadName: 'mean speed', loadUnit: 'rpm' });
+    expect(text).toMatch(/90 % prediction interval/);
     expect(text).toMatch(/more than 5 \u00b0F above the top of the band/);
     expect(text).toMatch(/spans less than 5 rpm \(comparable mean speed\)/);
     expect(driftRuleText({ marginF: 3 })).toMatch(/more than 3 \u00b0F/);

@@ -1634,6 +1634,8 @@ export interface components {
       suppressedById: string | null;
       /** @description e.g. "High-high" (design) or "run state Preparing" (state). */
       suppressedByLabel: string | null;
+      /** @description A pre-alarm's forecast when it was raised (or last raised again); null for every other alarm. */
+      forecast: components["schemas"]["AlarmForecastRecord"] | null;
       updatedAt: string;
     };
     /** @description The alarm system's own figures for a run or a season, against the standards' suggested targets. */
@@ -1673,10 +1675,20 @@ export interface components {
       /** @description Where the targets come from, in words. */
       basis: string;
     };
+    /** @description The forecast a pre-alarm was raised on, as recorded. */
+    AlarmForecastRecord: {
+      /** @description The limit it was heading for, e.g. 'high_high'. */
+      limitKind: components["schemas"]["AlarmKind"];
+      minutesToLimit: number;
+      ratePerMin: number;
+    };
     /** @enum {string} */
-    AlarmKind: "high" | "high_high" | "low" | "rate_of_rise" | "above_ambient" | "above_mawp" | "overspeed";
-    /** @enum {string} */
-    AlarmPriority: "high" | "high_high";
+    AlarmKind: "high" | "high_high" | "low" | "rate_of_rise" | "above_ambient" | "above_mawp" | "overspeed" | "pre_alarm";
+    /**
+     * @description `advisory`: a pre-alarm, lowest of all; never e-mailed, never counted in the alarm system's figures.
+     * @enum {string}
+     */
+    AlarmPriority: "advisory" | "high" | "high_high";
     /** @enum {string} */
     AlarmState: "active_unacknowledged" | "active_acknowledged" | "returned_unacknowledged" | "normal" | "shelved";
     /** @enum {string} */
@@ -1857,10 +1869,12 @@ export interface components {
       loadMeasure: components["schemas"]["LoadMeasure"];
       loadMeasureNote: string;
       ruleText: string;
+      /** @description minRunsToJudge: with fewer earlier runs a run is "too few runs to judge" (no verdict). */
       settings: {
-        bandK: number;
+        confidence: number;
         marginF: number;
         minLoadSpread: number;
+        minRunsToJudge: number;
       };
       runs: components["schemas"]["BearingRunRow"][];
       /** @description The band of the bearing's usual running, fitted to every run not flagged (for the chart). */
@@ -2592,7 +2606,10 @@ export interface components {
       interceptF: number;
       slopeFPerLoad: number;
       residualSdF: number;
-      k: number;
+      /** @description Coverage of the prediction interval, its degrees of freedom and Student t quantile. */
+      confidence: number;
+      degreesOfFreedom: number;
+      tQuantile: number;
       marginF: number;
       pointCount: number;
       loadMin: number;
@@ -2617,6 +2634,14 @@ export interface components {
       historyRuns: number;
       /** @enum {string} */
       bandKind: "regression" | "mean";
+      /** @description The band is the prediction interval for one more run at this coverage (e.g. 0.95)… */
+      confidence: number;
+      /** @description …with the degrees of freedom the history has (n − 2 about the line, n − 1 about the mean)… */
+      degreesOfFreedom: number;
+      /** @description …and the Student t quantile for them. */
+      tQuantile: number;
+      /** @description Half the band's width at the run's load, °F (wider away from the mean load). */
+      halfWidthF: number;
     };
     /** @enum {string} */
     DueCriterion: "run_hours" | "revolutions" | "calendar_days";
@@ -3103,7 +3128,7 @@ export interface components {
       unit: string;
       minutesToLimit: number;
       ratePerMin: number;
-      /** @description Under the pre-alarm setting: an advisory pre-alarm, the lowest priority (not in the alarm record). */
+      /** @description Under the pre-alarm setting: an advisory pre-alarm, the lowest priority, recorded as a `pre_alarm` alarm. */
       preAlarm: boolean;
       preAlarmMinutes: number;
       /** @description The method and its window, in words, for the screen. */
@@ -5121,11 +5146,25 @@ export interface operations {
     };
   };
   AlarmsController_list: {
+    parameters: {
+      query?: {
+        /** @description Only the alarms of this engine */
+        engineId?: string;
+        /** @description true: only alarms not yet back to normal */
+        open?: boolean;
+      };
+    };
     responses: {
       /** @description A list of AlarmDto */
       200: {
         content: {
           "application/json": components["schemas"]["AlarmDto"][];
+        };
+      };
+      /** @description Bad request: the body, query or path failed validation (the message says which field and why) */
+      400: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
         };
       };
       /** @description Not signed in, or the access token (or logger key) is missing, expired or revoked */
@@ -5262,11 +5301,25 @@ export interface operations {
     };
   };
   RunsController_list: {
+    parameters: {
+      query?: {
+        /** @description Only the runs of this engine */
+        engineId?: string;
+        /** @description Only the runs in this state */
+        state?: "planned" | "preparing" | "cleared" | "running" | "stopped" | "closed" | "abandoned";
+      };
+    };
     responses: {
       /** @description A list of RunSummary */
       200: {
         content: {
           "application/json": components["schemas"]["RunSummary"][];
+        };
+      };
+      /** @description Bad request: the body, query or path failed validation (the message says which field and why) */
+      400: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
         };
       };
       /** @description Not signed in, or the access token (or logger key) is missing, expired or revoked */
@@ -5331,7 +5384,9 @@ export interface operations {
   RunsController_seasonAlarmFigures: {
     parameters: {
       query: {
+        /** @description The engine whose season it is */
         engineId: string;
+        /** @description The season: the runs opened in this calendar year */
         year: number;
       };
     };
@@ -5527,11 +5582,25 @@ export interface operations {
     };
   };
   RunsController_readingsList: {
+    parameters: {
+      query?: {
+        /** @description Only readings taken at or after this time */
+        since?: string;
+        /** @description Only the readings of this measurement point */
+        pointId?: string;
+      };
+    };
     responses: {
       /** @description A list of ReadingDto */
       200: {
         content: {
           "application/json": components["schemas"]["ReadingDto"][];
+        };
+      };
+      /** @description Bad request: the body, query or path failed validation (the message says which field and why) */
+      400: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
         };
       };
       /** @description Not signed in, or the access token (or logger key) is missing, expired or revoked */
@@ -5690,11 +5759,23 @@ export interface operations {
     };
   };
   RunsController_importCsv: {
+    /** @description The CSV file as the body: a header row, then one reading a row */
+    requestBody: {
+      content: {
+        "text/csv": string;
+      };
+    };
     responses: {
       /** @description IngestResult */
       201: {
         content: {
           "application/json": components["schemas"]["IngestResult"];
+        };
+      };
+      /** @description Bad request: the body, query or path failed validation (the message says which field and why) */
+      400: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
         };
       };
       /** @description Not signed in, or the access token (or logger key) is missing, expired or revoked */
@@ -5717,6 +5798,18 @@ export interface operations {
       };
       /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
       409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The upload is not of an accepted type */
+      415: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -5964,11 +6057,27 @@ export interface operations {
     };
   };
   QualificationsController_list: {
+    parameters: {
+      query?: {
+        /** @description Only the qualifications of this person */
+        userId?: string;
+        /** @description Only the qualifications on this engine */
+        engineId?: string;
+        /** @description true: withdrawn qualifications too */
+        includeWithdrawn?: boolean;
+      };
+    };
     responses: {
       /** @description A list of QualificationDto */
       200: {
         content: {
           "application/json": components["schemas"]["QualificationDto"][];
+        };
+      };
+      /** @description Bad request: the body, query or path failed validation (the message says which field and why) */
+      400: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
         };
       };
       /** @description Not signed in, or the access token (or logger key) is missing, expired or revoked */
@@ -6033,6 +6142,7 @@ export interface operations {
   QualificationsController_matrix: {
     parameters: {
       query: {
+        /** @description The engine whose crew and duties the matrix shows */
         engineId: string;
       };
     };
@@ -6166,11 +6276,23 @@ export interface operations {
     };
   };
   ChecklistTemplatesController_list: {
+    parameters: {
+      query?: {
+        /** @description Only the templates of this engine */
+        engineId?: string;
+      };
+    };
     responses: {
       /** @description A list of ChecklistTemplateSummary */
       200: {
         content: {
           "application/json": components["schemas"]["ChecklistTemplateSummary"][];
+        };
+      };
+      /** @description Bad request: the body, query or path failed validation (the message says which field and why) */
+      400: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
         };
       };
       /** @description Not signed in, or the access token (or logger key) is missing, expired or revoked */
@@ -6735,11 +6857,25 @@ export interface operations {
     };
   };
   ChecklistsController_photoUpload: {
+    /** @description The photo as the body (PNG, JPEG or WebP) */
+    requestBody: {
+      content: {
+        "image/png": string;
+        "image/jpeg": string;
+        "image/webp": string;
+      };
+    };
     responses: {
       /** @description ChecklistDetail */
       200: {
         content: {
           "application/json": components["schemas"]["ChecklistDetail"];
+        };
+      };
+      /** @description Bad request: the body, query or path failed validation (the message says which field and why) */
+      400: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
         };
       };
       /** @description Not signed in, or the access token (or logger key) is missing, expired or revoked */
@@ -6762,6 +6898,18 @@ export interface operations {
       };
       /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
       409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The upload is not of an accepted type */
+      415: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };
@@ -7144,6 +7292,8 @@ export interface operations {
   MillController_schedulesList: {
     parameters: {
       query?: {
+        /** @description Only the schedules of this mill */
+        millId?: string;
         /** @description true: templates only; false: working schedules only */
         templates?: boolean;
       };
@@ -7587,11 +7737,23 @@ export interface operations {
     };
   };
   LotsController_list: {
+    parameters: {
+      query?: {
+        /** @description Only the lots in this state */
+        status?: "enquiry" | "quoted" | "accepted" | "scheduled" | "rolled" | "inspected" | "delivered";
+      };
+    };
     responses: {
       /** @description A list of LotSummary */
       200: {
         content: {
           "application/json": components["schemas"]["LotSummary"][];
+        };
+      };
+      /** @description Bad request: the body, query or path failed validation (the message says which field and why) */
+      400: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
         };
       };
       /** @description Not signed in, or the access token (or logger key) is missing, expired or revoked */
@@ -8873,11 +9035,25 @@ export interface operations {
    * @description A task is due when any of its intervals (running hours, revolutions, calendar days) is reached, whichever comes first. It is due soon when 10 % or less of an interval remains, or when its estimated due date is within 7 days; overdue once an interval has been reached.
    */
   MaintenanceController_due: {
+    parameters: {
+      query?: {
+        /** @description Only the plans of this engine */
+        engineId?: string;
+        /** @description Only the plans of this bearing */
+        bearingId?: string;
+      };
+    };
     responses: {
       /** @description DueList */
       200: {
         content: {
           "application/json": components["schemas"]["DueList"];
+        };
+      };
+      /** @description Bad request: the body, query or path failed validation (the message says which field and why) */
+      400: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
         };
       };
       /** @description Not signed in, or the access token (or logger key) is missing, expired or revoked */
@@ -8895,11 +9071,25 @@ export interface operations {
     };
   };
   MaintenanceController_listPlans: {
+    parameters: {
+      query?: {
+        /** @description Only the plans of this engine */
+        engineId?: string;
+        /** @description Only the plans of this bearing */
+        bearingId?: string;
+      };
+    };
     responses: {
       /** @description A list of InspectionPlanDto */
       200: {
         content: {
           "application/json": components["schemas"]["InspectionPlanDto"][];
+        };
+      };
+      /** @description Bad request: the body, query or path failed validation (the message says which field and why) */
+      400: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
         };
       };
       /** @description Not signed in, or the access token (or logger key) is missing, expired or revoked */
@@ -9045,11 +9235,25 @@ export interface operations {
     };
   };
   MaintenanceController_listInspections: {
+    parameters: {
+      query?: {
+        /** @description Only the inspections of this engine */
+        engineId?: string;
+        /** @description Only the inspections of this bearing */
+        bearingId?: string;
+      };
+    };
     responses: {
       /** @description A list of InspectionSummary */
       200: {
         content: {
           "application/json": components["schemas"]["InspectionSummary"][];
+        };
+      };
+      /** @description Bad request: the body, query or path failed validation (the message says which field and why) */
+      400: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
         };
       };
       /** @description Not signed in, or the access token (or logger key) is missing, expired or revoked */
@@ -9231,11 +9435,27 @@ export interface operations {
     };
   };
   MaintenanceController_listWork: {
+    parameters: {
+      query?: {
+        /** @description Only the work on this engine */
+        engineId?: string;
+        /** @description Only the work on this bearing */
+        bearingId?: string;
+        /** @description Only open or only closed work */
+        status?: "open" | "closed";
+      };
+    };
     responses: {
       /** @description A list of WorkRecordSummary */
       200: {
         content: {
           "application/json": components["schemas"]["WorkRecordSummary"][];
+        };
+      };
+      /** @description Bad request: the body, query or path failed validation (the message says which field and why) */
+      400: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
         };
       };
       /** @description Not signed in, or the access token (or logger key) is missing, expired or revoked */
@@ -9678,11 +9898,23 @@ export interface operations {
   };
   /** Each bearing at a run (default the latest): viscosity at its temperature, unit load, Petroff friction and power, Sommerfeld number */
   LubricationController_bearings: {
+    parameters: {
+      query?: {
+        /** @description Judge the bearings at the conditions of this run (default: the latest run) */
+        runId?: string;
+      };
+    };
     responses: {
       /** @description BearingLubricationAnalysis */
       200: {
         content: {
           "application/json": components["schemas"]["BearingLubricationAnalysis"];
+        };
+      };
+      /** @description Bad request: the body, query or path failed validation (the message says which field and why) */
+      400: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
         };
       };
       /** @description Not signed in, or the access token (or logger key) is missing, expired or revoked */

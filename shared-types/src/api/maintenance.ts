@@ -419,6 +419,14 @@ export interface DriftVerdict {
   /** How many earlier runs the band was fitted to. */
   historyRuns: number;
   bandKind: 'regression' | 'mean';
+  /** The band is the prediction interval for one more run at this coverage (e.g. 0.95)… */
+  confidence: number;
+  /** …with the degrees of freedom the history has (n − 2 about the line, n − 1 about the mean)… */
+  degreesOfFreedom: number;
+  /** …and the Student t quantile for them. */
+  tQuantile: number;
+  /** Half the band's width at the run's load, °F (wider away from the mean load). */
+  halfWidthF: number;
 }
 export interface BearingRunRow {
   runId: string;
@@ -450,7 +458,10 @@ export interface DriftBandDto {
   interceptF: number;
   slopeFPerLoad: number;
   residualSdF: number;
-  k: number;
+  /** Coverage of the prediction interval, its degrees of freedom and Student t quantile. */
+  confidence: number;
+  degreesOfFreedom: number;
+  tQuantile: number;
   marginF: number;
   pointCount: number;
   loadMin: number;
@@ -483,7 +494,8 @@ export interface BearingHistory {
   loadMeasure: LoadMeasure;
   loadMeasureNote: string;
   ruleText: string;
-  settings: { bandK: number; marginF: number; minLoadSpread: number };
+  /** minRunsToJudge: with fewer earlier runs a run is "too few runs to judge" (no verdict). */
+  settings: { confidence: number; marginF: number; minLoadSpread: number; minRunsToJudge: number };
   runs: BearingRunRow[];
   /** The band of the bearing's usual running, fitted to every run not flagged (for the chart). */
   band: DriftBandDto | null;

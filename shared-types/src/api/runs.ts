@@ -168,7 +168,16 @@ export interface AlarmDto {
   suppressedById: string | null;
   /** e.g. "High-high" (design) or "run state Preparing" (state). */
   suppressedByLabel: string | null;
+  /** A pre-alarm's forecast when it was raised (or last raised again); null for every other alarm. */
+  forecast: AlarmForecastRecord | null;
   updatedAt: string;
+}
+/** The forecast a pre-alarm was raised on, as recorded. */
+export interface AlarmForecastRecord {
+  /** The limit it was heading for, e.g. 'high_high'. */
+  limitKind: AlarmKind;
+  minutesToLimit: number;
+  ratePerMin: number;
 }
 export interface ShelveAlarmRequest {
   reason: string;
@@ -211,7 +220,7 @@ export interface LimitForecastDto {
   unit: string;
   minutesToLimit: number;
   ratePerMin: number;
-  /** Under the pre-alarm setting: an advisory pre-alarm, the lowest priority (not in the alarm record). */
+  /** Under the pre-alarm setting: an advisory pre-alarm, the lowest priority, recorded as a `pre_alarm` alarm. */
   preAlarm: boolean;
   preAlarmMinutes: number;
   /** The method and its window, in words, for the screen. */

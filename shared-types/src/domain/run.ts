@@ -34,11 +34,18 @@ export const RUN_STATES_TAKING_READINGS: readonly RunState[] = ['preparing', 'cl
 export const READING_SOURCES = ['round', 'logger', 'import', 'live'] as const;
 export type ReadingSource = (typeof READING_SOURCES)[number];
 
-export const ALARM_KINDS = ['high', 'high_high', 'low', 'rate_of_rise', 'above_ambient', 'above_mawp', 'overspeed'] as const;
+/** `pre_alarm`: the forecast of a limit within the pre-alarm setting (advisory, the lowest priority). */
+export const ALARM_KINDS = ['high', 'high_high', 'low', 'rate_of_rise', 'above_ambient', 'above_mawp', 'overspeed', 'pre_alarm'] as const;
 export type AlarmKind = (typeof ALARM_KINDS)[number];
 export const ALARM_STATES = ['active_unacknowledged', 'active_acknowledged', 'returned_unacknowledged', 'normal', 'shelved'] as const;
 export type AlarmState = (typeof ALARM_STATES)[number];
-export type AlarmPriority = 'high' | 'high_high';
+/** `advisory`: a pre-alarm, lowest of all; never e-mailed, never counted in the alarm system's figures. */
+export type AlarmPriority = 'advisory' | 'high' | 'high_high';
+export const ALARM_PRIORITY_WORDS: Record<AlarmPriority, string> = {
+  advisory: 'Pre-alarm (advisory)',
+  high: 'High',
+  high_high: 'High-high',
+};
 export type AlarmSuppression = 'design' | 'state';
 export const ALARM_STATE_WORDS: Record<AlarmState, string> = {
   active_unacknowledged: 'Active — not acknowledged',
@@ -55,6 +62,7 @@ export const ALARM_KIND_WORDS: Record<AlarmKind, string> = {
   above_ambient: 'Rise above ambient',
   above_mawp: 'Above maximum allowable working pressure',
   overspeed: 'Overspeed',
+  pre_alarm: 'Limit forecast',
 };
 
 /**

@@ -3,6 +3,7 @@ export type SharedSchemaName =
   | 'AcceptInvitationRequest'
   | 'AlarmDto'
   | 'AlarmFiguresDto'
+  | 'AlarmForecastRecord'
   | 'AlarmKind'
   | 'AlarmPriority'
   | 'AlarmState'
@@ -296,6 +297,10 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       },
       suppressedById: { type: ['string', 'null'], description: 'The alarm that suppresses this one (design suppression).' },
       suppressedByLabel: { type: ['string', 'null'], description: 'e.g. "High-high" (design) or "run state Preparing" (state).' },
+      forecast: {
+        anyOf: [{ $ref: '#/components/schemas/AlarmForecastRecord' }, { type: 'null' }],
+        description: "A pre-alarm's forecast when it was raised (or last raised again); null for every other alarm.",
+      },
       updatedAt: { type: 'string' },
     },
     required: [
@@ -322,6 +327,7 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       'suppression',
       'suppressedById',
       'suppressedByLabel',
+      'forecast',
       'updatedAt',
     ],
     additionalProperties: false,
@@ -403,8 +409,26 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
     additionalProperties: false,
     description: "The alarm system's own figures for a run or a season, against the standards' suggested targets.",
   },
-  AlarmKind: { type: 'string', enum: ['high', 'high_high', 'low', 'rate_of_rise', 'above_ambient', 'above_mawp', 'overspeed'] },
-  AlarmPriority: { type: 'string', enum: ['high', 'high_high'] },
+  AlarmForecastRecord: {
+    type: 'object',
+    properties: {
+      limitKind: { $ref: '#/components/schemas/AlarmKind', description: "The limit it was heading for, e.g. 'high_high'." },
+      minutesToLimit: { type: 'number' },
+      ratePerMin: { type: 'number' },
+    },
+    required: ['limitKind', 'minutesToLimit', 'ratePerMin'],
+    additionalProperties: false,
+    description: 'The forecast a pre-alarm was raised on, as recorded.',
+  },
+  AlarmKind: {
+    type: 'string',
+    enum: ['high', 'high_high', 'low', 'rate_of_rise', 'above_ambient', 'above_mawp', 'overspeed', 'pre_alarm'],
+  },
+  AlarmPriority: {
+    type: 'string',
+    enum: ['advisory', 'high', 'high_high'],
+    description: "`advisory`: a pre-alarm, lowest of all; never e-mailed, never counted in the alarm system's figures.",
+  },
   AlarmState: { type: 'string', enum: ['active_unacknowledged', 'active_acknowledged', 'returned_unacknowledged', 'normal', 'shelved'] },
   AlarmSuppression: { type: 'string', enum: ['design', 'state'] },
   AmendBrakeFigureRequest: {
@@ -691,9 +715,15 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       ruleText: { type: 'string' },
       settings: {
         type: 'object',
-        properties: { bandK: { type: 'number' }, marginF: { type: 'number' }, minLoadSpread: { type: 'number' } },
-        required: ['bandK', 'marginF', 'minLoadSpread'],
+        properties: {
+          confidence: { type: 'number' },
+          marginF: { type: 'number' },
+          minLoadSpread: { type: 'number' },
+          minRunsToJudge: { type: 'number' },
+        },
+        required: ['confidence', 'marginF', 'minLoadSpread', 'minRunsToJudge'],
         additionalProperties: false,
+        description: 'minRunsToJudge: with fewer earlier runs a run is "too few runs to judge" (no verdict).',
       },
       runs: { type: 'array', items: { $ref: '#/components/schemas/BearingRunRow' } },
       band: {
@@ -2038,7 +2068,9 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       interceptF: { type: 'number' },
       slopeFPerLoad: { type: 'number' },
       residualSdF: { type: 'number' },
-      k: { type: 'number' },
+      confidence: { type: 'number', description: 'Coverage of the prediction interval, its degrees of freedom and Student t quantile.' },
+      degreesOfFreedom: { type: 'number' },
+      tQuantile: { type: 'number' },
       marginF: { type: 'number' },
       pointCount: { type: 'number' },
       loadMin: { type: 'number' },
@@ -2060,7 +2092,20 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
         description: 'Sampled for charts: expected, lower, upper and upper + margin (the flag line).',
       },
     },
-    required: ['kind', 'interceptF', 'slopeFPerLoad', 'residualSdF', 'k', 'marginF', 'pointCount', 'loadMin', 'loadMax', 'line'],
+    required: [
+      'kind',
+      'interceptF',
+      'slopeFPerLoad',
+      'residualSdF',
+      'confidence',
+      'degreesOfFreedom',
+      'tQuantile',
+      'marginF',
+      'pointCount',
+      'loadMin',
+      'loadMax',
+      'line',
+    ],
     additionalProperties: false,
   },
   DriftVerdict: {
@@ -2073,8 +2118,27 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       extrapolated: { type: 'boolean' },
       historyRuns: { type: 'number', description: 'How many earlier runs the band was fitted to.' },
       bandKind: { type: 'string', enum: ['regression', 'mean'] },
+      confidence: { type: 'number', description: 'The band is the prediction interval for one more run at this coverage (e.g. 0.95)…' },
+      degreesOfFreedom: {
+        type: 'number',
+        description: '…with the degrees of freedom the history has (n − 2 about the line, n − 1 about the mean)…',
+      },
+      tQuantile: { type: 'number', description: '…and the Student t quantile for them.' },
+      halfWidthF: { type: 'number', description: "Half the band's width at the run's load, °F (wider away from the mean load)." },
     },
-    required: ['flagged', 'limitF', 'expectedRiseF', 'excessF', 'extrapolated', 'historyRuns', 'bandKind'],
+    required: [
+      'flagged',
+      'limitF',
+      'expectedRiseF',
+      'excessF',
+      'extrapolated',
+      'historyRuns',
+      'bandKind',
+      'confidence',
+      'degreesOfFreedom',
+      'tQuantile',
+      'halfWidthF',
+    ],
     additionalProperties: false,
   },
   DueCriterion: { type: 'string', enum: ['run_hours', 'revolutions', 'calendar_days'] },
@@ -2902,7 +2966,7 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       ratePerMin: { type: 'number' },
       preAlarm: {
         type: 'boolean',
-        description: 'Under the pre-alarm setting: an advisory pre-alarm, the lowest priority (not in the alarm record).',
+        description: 'Under the pre-alarm setting: an advisory pre-alarm, the lowest priority, recorded as a `pre_alarm` alarm.',
       },
       preAlarmMinutes: { type: 'number' },
       method: { type: 'string', description: 'The method and its window, in words, for the screen.' },

@@ -10,6 +10,7 @@ import { AlarmSuppression1796170500000 } from './1796170500000-AlarmSuppression.
 import { SiteSettings1796413937879 } from './1796413937879-SiteSettings.js';
 import { CardSetBarometer1796414559444 } from './1796414559444-CardSetBarometer.js';
 import { UserSessionVersion1796414632333 } from './1796414632333-UserSessionVersion.js';
+import { AlarmForecastRecord1796422336848 } from './1796422336848-AlarmForecastRecord.js';
 import { CardTraceOrigin1796422565325 } from './1796422565325-CardTraceOrigin.js';
 import { ReadingClientIdPerRun1796423309760 } from './1796423309760-ReadingClientIdPerRun.js';
 import { NamesKeptAsSigned1796424216765 } from './1796424216765-NamesKeptAsSigned.js';
@@ -28,6 +29,7 @@ export const MIGRATIONS: (new () => MigrationInterface)[] = [
   SiteSettings1796413937879,
   CardSetBarometer1796414559444,
   UserSessionVersion1796414632333,
+  AlarmForecastRecord1796422336848,
   CardTraceOrigin1796422565325,
   ReadingClientIdPerRun1796423309760,
   NamesKeptAsSigned1796424216765,

@@ -49,7 +49,7 @@ export const ALARM_FIGURE_BASIS =
   'Targets as the alarm-management standards suggest them (ANSI/ISA-18.2-2016 §16.5 and EEMUA 191, from memory): ' +
   'about 1 alarm per 10 min on average, no more than 10 in any 10 min (a flood), under 1 % of time in flood, ' +
   'no chattering, few stale alarms and none standing at the start. Counted in fixed 10-minute periods from the ' +
-  "run's opening; suppressed alarms are not counted.";
+  "run's opening; suppressed alarms and advisory pre-alarms (limit forecasts) are not counted.";
 
 export interface AlarmFigures {
   from: string;

@@ -31,6 +31,10 @@ export class Alarm {
   /** Suppressed alarms are recorded but not annunciated: 'design' (by `suppressedBy`) or 'state'. */
   @Column({ type: 'varchar', length: 8, nullable: true }) suppression: AlarmSuppression | null;
   @Column({ name: 'suppressed_by', type: 'uuid', nullable: true }) suppressedBy: string | null;
+  /** A pre-alarm's forecast (null for every other kind): the limit it heads for, minutes to it, rate per minute. */
+  @Column({ name: 'forecast_limit_kind', type: 'varchar', length: 24, nullable: true }) forecastLimitKind: AlarmKind | null;
+  @Column({ name: 'forecast_minutes', type: 'double precision', nullable: true }) forecastMinutes: number | null;
+  @Column({ name: 'forecast_rate_per_min', type: 'double precision', nullable: true }) forecastRatePerMin: number | null;
   @Column({ name: 'emailed_at', type: 'timestamptz', nullable: true }) emailedAt: Date | null;
   @UpdateDateColumn({ name: 'updated_at', type: 'timestamptz' }) updatedAt: Date;
 }

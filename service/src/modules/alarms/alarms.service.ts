@@ -9,13 +9,15 @@ import {
   type LimitForecastDto,
   type RunState,
   ALARM_KIND_WORDS,
+  RUN_STATE_LABELS,
 } from '@crankjournal/shared-types';
 import { EnginesService, type EngineWithPoints } from '../engines/engines.service.js';
 import { LiveService } from '../live/live.service.js';
 import { MailService } from '../mail/mail.service.js';
 import { UsersService } from '../users/users.service.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
-import { temperatureInUnit } from '../../calculations/units.js';
+import { temperatureInUnit, unitLabel } from '../../calculations/units.js';
+import { FORECAST_DEFAULTS } from '../../calculations/trend-forecast.js';
 import { AppConfig } from '../../config/app-config.service.js';
 import {
   AlarmTransitionError,
@@ -91,6 +93,11 @@ export type RecentHistoryLoader = (
 /** Permission check for acknowledging (the qualifications module fills it in). */
 export interface AlarmAckPolicy {
   assertMayAcknowledge(user: AuthUser, alarm: Alarm): Promise<void>;
+}
+
+/** The kinds the alarm rules raise (every kind but the advisory pre-alarm, which the forecast raises). */
+function isConditionKind(kind: AlarmKind): kind is AlarmConditionKind {
+  return kind !== 'pre_alarm';
 }
 
 /** Inserts a reading into a list kept in time order (after readings of the same moment, so ties keep arrival order). */
@@ -256,7 +263,10 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
         changed.set(a.id, a);
         st.open.delete(key);
       }
-      const activeConditions = [...st.open.values()].filter((a) => a.pointId === point.id && a.conditionActive).map((a) => a.kind);
+      const activeConditions = [...st.open.values()]
+        .filter((a) => a.pointId === point.id && a.conditionActive)
+        .map((a) => a.kind)
+        .filter(isConditionKind);
       const decisions = evaluateReading({
         point: settings,
         engine: engineLimits,
@@ -362,11 +372,94 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
         if (a.priority === 'high_high') toEmail.push(a);
       }
     }
+    // The forecast of each point read in this batch, at its latest reading: a pre-alarm is raised, raised again or
+    // returned to normal on the record (advisory: neither counted as raised nor e-mailed).
+    const lastByPoint = new Map<string, Date>();
+    for (const r of sorted) if (settingsById.has(r.pointId)) lastByPoint.set(r.pointId, r.takenAt);
+    for (const [pointId, at] of lastByPoint) {
+      const point = pointById.get(pointId)!;
+      const a = await this.preAlarm(engineId, runId, point, st, runState, at, m, events);
+      if (a) changed.set(a.id, a);
+    }
     if (changed.size) {
       await m.save(Alarm, [...changed.values()]);
     }
     if (events.length) await m.insert(AlarmEvent, events);
     return { changed: [...changed.values()], raised, raisedReadingIds, toEmail };
+  }
+
+  /**
+   * The point's pre-alarm after its latest reading: the forecast over the readings of the forecast window (the
+   * board's), raised when the time to the next limit is under ALARM_FORECAST_MINUTES, returned to normal when not.
+   */
+  private async preAlarm(
+    engineId: string,
+    runId: string,
+    point: EnginePoint,
+    st: EngineState,
+    runState: RunState | null | undefined,
+    at: Date,
+    m: EntityManager,
+    events: Partial<AlarmEvent>[],
+  ): Promise<Alarm | null> {
+    const from = at.getTime() - FORECAST_DEFAULTS.windowMinutes * 60_000;
+    const window = (st.recent.get(point.id) ?? []).filter((x) => {
+      const t = x.takenAt.getTime();
+      return t >= from && t <= at.getTime() && Number.isFinite(x.value);
+    });
+    const f = suppressedByState(point.suppressedInStates, runState) ? null : this.forecast(point, window, at);
+    const key = `${point.id}:pre_alarm`;
+    const open = st.open.get(key);
+    if (f?.preAlarm) {
+      const minutes = Math.max(1, Math.round(f.minutesToLimit));
+      const limitWords = `${ALARM_KIND_WORDS[f.limitKind].toLowerCase()} (${f.limit} ${unitLabel(f.unit)})`;
+      const message = `${point.label}: ${limitWords} in about ${minutes} min at the present trend`;
+      const record = { forecastLimitKind: f.limitKind, forecastMinutes: f.minutesToLimit, forecastRatePerMin: f.ratePerMin };
+      if (open) {
+        if (open.conditionActive) return null;
+        const next = this.apply(open, { type: 'reactivate' }, null, at, events, message);
+        Object.assign(next, record, { message, value: window[window.length - 1]?.value ?? null, limit: f.limit });
+        return next;
+      }
+      const saved = await m.save(
+        Alarm,
+        m.create(Alarm, {
+          engineId,
+          runId,
+          pointId: point.id,
+          kind: 'pre_alarm',
+          priority: 'advisory',
+          state: 'active_unacknowledged',
+          conditionActive: true,
+          message,
+          value: window[window.length - 1]?.value ?? null,
+          limit: f.limit,
+          unit: point.unit,
+          readingId: null,
+          raisedAt: at,
+          suppression: null,
+          suppressedBy: null,
+          ...record,
+        }),
+      );
+      events.push({ alarmId: saved.id, event: 'raise', fromState: null, toState: saved.state, byUser: null, at, note: message });
+      st.open.set(key, saved);
+      return saved;
+    }
+    if (!open || !open.conditionActive || open.runId !== runId) return null;
+    const next = this.apply(
+      open,
+      { type: 'return_to_normal' },
+      null,
+      at,
+      events,
+      f ? 'The limit is no longer near.' : 'No steady trend toward a limit.',
+    );
+    if (next.state === 'normal') {
+      await m.save(Alarm, next);
+      st.open.delete(key);
+    }
+    return next;
   }
 
   /** Why a new `kind` alarm of the point is suppressed (state first, then design), or null to annunciate it. */
@@ -377,7 +470,11 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
     runState: RunState | null | undefined,
   ): Suppression | null {
     if (suppressedByState(point.suppressedInStates, runState)) return { kind: 'state', by: null, label: `run state ${runState}` };
-    const others = [...st.open.values()].filter((a) => a.pointId === point.id && a.kind !== kind);
+    const others = [...st.open.values()].flatMap((a) =>
+      a.pointId === point.id && a.kind !== kind && isConditionKind(a.kind)
+        ? [{ id: a.id, kind: a.kind, conditionActive: a.conditionActive }]
+        : [],
+    );
     const hit = designSuppressor(kind, others, point.relatedSuppression !== false);
     return hit ? { kind: 'design', by: hit.id, label: ALARM_KIND_WORDS[hit.kind] } : null;
   }
@@ -409,7 +506,7 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
   ): Alarm[] {
     const released: Alarm[] = [];
     for (const a of st.open.values()) {
-      if (a.pointId !== point.id || !a.suppression || !a.conditionActive) continue;
+      if (a.pointId !== point.id || !a.suppression || !a.conditionActive || !isConditionKind(a.kind)) continue;
       if (a.suppression === 'state' && suppressedByState(point.suppressedInStates, runState)) continue;
       if (a.suppression === 'design') {
         const by = [...st.open.values()].find((o) => o.id === a.suppressedBy);
@@ -429,6 +526,72 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
       released.push(a);
     }
     return released;
+  }
+
+  /**
+   * A run changed state (RunsService.transition, after commit): alarms of the run that are suppressed by state and
+   * mean something in the new state are released at once (annunciated from the change, not from the point's next
+   * reading), and active alarms of points the chief engineer marked as meaningless in the new state are suppressed
+   * by state. Every release and suppression is on the record; the changes are broadcast and a released high-high
+   * is e-mailed. Returns the alarms changed.
+   */
+  async runStateChanged(engineId: string, runId: string, runState: RunState, at: Date = new Date()): Promise<AlarmDto[]> {
+    const { points } = await this.engines.withPoints(engineId);
+    const pointById = new Map(points.map((p) => [p.id, p]));
+    const changed = await this.db.transaction(async (m) => {
+      const open = await m.find(Alarm, {
+        where: { engineId, runId, state: Not('normal') },
+        order: { id: 'ASC' },
+        lock: { mode: 'pessimistic_write' },
+      });
+      const events: Partial<AlarmEvent>[] = [];
+      const out: Alarm[] = [];
+      for (const a of open) {
+        const point = a.pointId ? pointById.get(a.pointId) : undefined;
+        if (!point || !a.conditionActive || !isConditionKind(a.kind)) continue;
+        const meaningless = suppressedByState(point.suppressedInStates, runState);
+        if (a.suppression === 'state' && !meaningless) {
+          events.push({
+            alarmId: a.id,
+            event: 'release',
+            fromState: a.state,
+            toState: a.state,
+            byUser: null,
+            at,
+            note: `Released: the run state changed to ${RUN_STATE_LABELS[runState].toLowerCase()}.`,
+          });
+          a.suppression = null;
+          a.suppressedBy = null;
+          out.push(a);
+        } else if (!a.suppression && meaningless) {
+          this.suppress(a, { kind: 'state', by: null, label: `run state ${runState}` }, at, events);
+          out.push(a);
+        }
+      }
+      // A released alarm may itself be suppressed by design by a higher alarm of its point that is still active.
+      for (const a of out) {
+        if (a.suppression) continue;
+        const others = open.flatMap((o) =>
+          o.pointId === a.pointId && o.id !== a.id && !o.suppression && isConditionKind(o.kind)
+            ? [{ id: o.id, kind: o.kind, conditionActive: o.conditionActive }]
+            : [],
+        );
+        const hit = designSuppressor(a.kind as AlarmConditionKind, others, pointById.get(a.pointId!)!.relatedSuppression !== false);
+        if (hit) this.suppress(a, { kind: 'design', by: hit.id, label: ALARM_KIND_WORDS[hit.kind] }, at, events);
+      }
+      if (out.length) await m.save(Alarm, out);
+      if (events.length) await m.insert(AlarmEvent, events);
+      return out;
+    });
+    const st = this.state.get(engineId);
+    if (st) for (const a of changed) st.open.set(`${a.pointId}:${a.kind}`, a);
+    await this.publish({
+      changed,
+      raised: 0,
+      raisedReadingIds: [],
+      toEmail: changed.filter((a) => !a.suppression && a.priority === 'high_high'),
+    });
+    return Promise.all(changed.map((a) => this.toDto(a)));
   }
 
   private ambientIn(st: EngineState, point: EnginePoint): number | null {
@@ -542,6 +705,10 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
       suppression: a.suppression ?? null,
       suppressedById: a.suppressedBy ?? null,
       suppressedByLabel: await this.suppressorLabel(a),
+      forecast:
+        a.kind === 'pre_alarm' && a.forecastLimitKind && a.forecastMinutes !== null && a.forecastRatePerMin !== null
+          ? { limitKind: a.forecastLimitKind, minutesToLimit: a.forecastMinutes, ratePerMin: a.forecastRatePerMin }
+          : null,
       updatedAt: (a.updatedAt ?? new Date()).toISOString(),
     };
   }
@@ -676,7 +843,8 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
     readingValuesAt: ReadingValuesAt,
   ): Promise<AlarmFiguresDto> {
     const ids = runs.map((r) => r.id);
-    const alarms = ids.length ? await this.alarmRepo.find({ where: { runId: In(ids) } }) : [];
+    // Pre-alarms are advisory forecasts, not alarms of the rules: the figures count the alarms of the rules only.
+    const alarms = ids.length ? await this.alarmRepo.find({ where: { runId: In(ids), kind: Not('pre_alarm') } }) : [];
     const events = alarms.length
       ? await this.db.getRepository(AlarmEvent).find({ where: { alarmId: In(alarms.map((a) => a.id)) }, order: { at: 'ASC' } })
       : [];

@@ -12,7 +12,7 @@ import {
   StreamableFile,
   UnsupportedMediaTypeException,
 } from '@nestjs/common';
-import { ApiBearerAuth, ApiConsumes, ApiTags } from '@nestjs/swagger';
+import { ApiBearerAuth, ApiBody, ApiConsumes, ApiTags } from '@nestjs/swagger';
 import type { Request, Response } from 'express';
 import type { ChecklistDetail, RunChecklistsOverview } from '@crankjournal/shared-types';
 import { AnyRole, Roles } from '../../common/decorators/roles.decorator.js';
@@ -102,6 +102,7 @@ export class ChecklistsController {
   @ApiAnswer('ChecklistDetail')
   @Put('checklists/:id/items/:itemKey/photo')
   @ApiConsumes('image/png', 'image/jpeg', 'image/webp')
+  @ApiBody({ description: 'The photo as the body (PNG, JPEG or WebP)', schema: { type: 'string', format: 'binary' } })
   @Roles('operator', 'chief_engineer')
   async photoUpload(@Param() p: ChecklistItemParamDto, @Req() req: Request, @CurrentUser() me: AuthUser): Promise<ChecklistDetail> {
     const type = (req.headers['content-type'] ?? '').split(';')[0].trim().toLowerCase();

@@ -247,7 +247,8 @@ export class BearingHistoryExportsService {
                 `Usual band now (${h.band.pointCount} runs, ${h.band.kind === 'mean' ? 'mean rise' : 'straight line'}): ` +
                 `expected rise ${fmt(h.band.interceptF)} \u00b0F` +
                 `${h.band.kind === 'regression' ? ` + ${h.band.slopeFPerLoad.toFixed(4)} \u00b0F per unit of load` : ''}` +
-                `, s = ${fmt(h.band.residualSdF, 2)} \u00b0F.`,
+                `, s = ${fmt(h.band.residualSdF, 2)} \u00b0F on ${h.band.degreesOfFreedom} degrees of freedom; ` +
+                `${fmt(h.band.confidence * 100, 0)} % prediction interval, t = ${fmt(h.band.tQuantile, 3)}.`,
             },
           ]
         : []),

@@ -11,7 +11,15 @@ import type {
 } from '@crankjournal/shared-types';
 import { AlarmsService } from '../alarms/alarms.service.js';
 import type { PointRunStat } from '../runs/readings.service.js';
-import { bandAt, driftHistory, driftRuleText, fitBand, type DriftBand } from '../../calculations/bearing-drift.js';
+import {
+  DEFAULT_BAND_CONFIDENCE,
+  MIN_RUNS_TO_JUDGE,
+  bandAt,
+  driftHistory,
+  driftRuleText,
+  fitBand,
+  type DriftBand,
+} from '../../calculations/bearing-drift.js';
 import { celsiusToFahrenheit } from '../../calculations/units.js';
 import { EngineFactsService, type MeasurementPoint } from './engine-facts.service.js';
 import { InspectionsService } from './inspections.service.js';
@@ -19,10 +27,10 @@ import { WorkRecordsService } from './work-records.service.js';
 import { RunStatsService } from './run-stats.service.js';
 import { MaintenanceIndicatedPowerSource } from './maintenance-indicated-power.source.js';
 
-/** Band half-width in standard deviations and the margin above it (°F of rise) that flags drift. */
-export const DRIFT_SETTINGS = { bandK: 2, marginF: 5 } as const;
+/** Coverage of the prediction interval (the band) and the margin above it (°F of rise) that flags drift. */
+export const DRIFT_SETTINGS = { confidence: DEFAULT_BAND_CONFIDENCE, marginF: 5 } as const;
 /**
- * Below these spreads the earlier runs count as "at comparable load", so the band is the mean rise ± 2s rather
+ * Below these spreads the earlier runs count as "at comparable load", so the band is about the mean rise rather
  * than a slope fitted to scatter: a mill engine runs at its governed speed, so mean speeds within 5 rpm are the
  * same running; indicated power within 50 hp likewise (the product's own settings; common practice, no source).
  */
@@ -34,7 +42,7 @@ const LOAD_UNIT: Record<LoadMeasure, string> = { speed_rpm: 'rpm', indicated_hp:
 export function historyRuleText(measure: LoadMeasure): string {
   return (
     driftRuleText({
-      k: DRIFT_SETTINGS.bandK,
+      confidence: DRIFT_SETTINGS.confidence,
       marginF: DRIFT_SETTINGS.marginF,
       minLoadSpread: MIN_LOAD_SPREAD[measure],
       loadName: LOAD_NAME[measure],
@@ -82,7 +90,9 @@ function bandDto(band: DriftBand, loads: number[]): DriftBandDto {
     interceptF: band.interceptF,
     slopeFPerLoad: band.slopeFPerLoad,
     residualSdF: band.residualSdF,
-    k: band.k,
+    confidence: band.confidence,
+    degreesOfFreedom: band.degreesOfFreedom,
+    tQuantile: band.tQuantile,
     marginF: DRIFT_SETTINGS.marginF,
     pointCount: band.pointCount,
     loadMin: band.loadMin,
@@ -194,7 +204,7 @@ export class BearingHistoryService {
     for (const x of rows) x.load = measure === 'indicated_hp' ? x.indicatedHp : x.meanSpeedRpm;
 
     const judged = rows.filter((x) => x.riseAtPeakF !== null && x.load !== null);
-    const options = { k: DRIFT_SETTINGS.bandK, marginF: DRIFT_SETTINGS.marginF, minLoadSpread: MIN_LOAD_SPREAD[measure] };
+    const options = { confidence: DRIFT_SETTINGS.confidence, marginF: DRIFT_SETTINGS.marginF, minLoadSpread: MIN_LOAD_SPREAD[measure] };
     const verdicts = driftHistory(
       judged.map((x) => ({ id: x.runId, load: x.load!, temperatureRiseF: x.riseAtPeakF! })),
       options,
@@ -202,9 +212,14 @@ export class BearingHistoryService {
     for (const v of verdicts) {
       const row = rows.find((x) => x.runId === v.id)!;
       if (!v.check || !v.band) {
-        row.driftNote = 'First run of this bearing: nothing earlier to compare with.';
+        row.driftNote =
+          v.historyRuns === 0
+            ? 'First run of this bearing: nothing earlier to compare with.'
+            : `Too few runs to judge: ${v.historyRuns} earlier run${v.historyRuns > 1 ? 's' : ''}, ` +
+              `at least ${MIN_RUNS_TO_JUDGE} are needed.`;
         continue;
       }
+      const at = bandAt(v.band, row.load!);
       row.drift = {
         flagged: v.check.drift,
         limitF: v.check.limitF,
@@ -213,6 +228,10 @@ export class BearingHistoryService {
         extrapolated: v.check.extrapolated,
         historyRuns: v.historyRuns,
         bandKind: v.band.kind,
+        confidence: v.band.confidence,
+        degreesOfFreedom: v.band.degreesOfFreedom,
+        tQuantile: v.band.tQuantile,
+        halfWidthF: at.halfWidthF,
       };
     }
     for (const x of rows) {
@@ -223,12 +242,13 @@ export class BearingHistoryService {
           : 'No load figure (speed) for this run.';
     }
     const usual = judged.filter((x) => !x.drift?.flagged).map((x) => ({ load: x.load!, temperatureRiseF: x.riseAtPeakF! }));
-    const band = usual.length
-      ? bandDto(
-          fitBand(usual, options),
-          judged.map((x) => x.load!),
-        )
-      : null;
+    const band =
+      usual.length >= MIN_RUNS_TO_JUDGE
+        ? bandDto(
+            fitBand(usual, options),
+            judged.map((x) => x.load!),
+          )
+        : null;
     return { rows, measure, note, band };
   }
 
@@ -288,7 +308,12 @@ export class BearingHistoryService {
       loadMeasure: measure,
       loadMeasureNote: note,
       ruleText: historyRuleText(measure),
-      settings: { bandK: DRIFT_SETTINGS.bandK, marginF: DRIFT_SETTINGS.marginF, minLoadSpread: MIN_LOAD_SPREAD[measure] },
+      settings: {
+        confidence: DRIFT_SETTINGS.confidence,
+        marginF: DRIFT_SETTINGS.marginF,
+        minLoadSpread: MIN_LOAD_SPREAD[measure],
+        minRunsToJudge: MIN_RUNS_TO_JUDGE,
+      },
       runs: rows,
       band,
       inspections,

@@ -201,9 +201,13 @@ const alarms: LogSheetSection = ({ alarms: list, clock }) => [
         clock.dateTime(a.raisedAt),
         {
           text:
-            `${ALARM_KIND_WORDS[a.kind]}: ${a.pointLabel}. ${a.message}` +
+            `${a.priority === 'advisory' ? 'Pre-alarm (advisory), ' : ''}${ALARM_KIND_WORDS[a.kind]}: ${a.pointLabel}. ${a.message}` +
+            (a.forecast
+              ? ` Forecast: ${ALARM_KIND_WORDS[a.forecast.limitKind].toLowerCase()} in ${num(a.forecast.minutesToLimit)} min` +
+                ` at ${num(a.forecast.ratePerMin)} ${unitLabel(a.unit)}/min.`
+              : '') +
             (a.suppression ? ` (suppressed by ${a.suppressedByLabel ?? a.suppression})` : ''),
-          tone: a.priority === 'high_high' ? 'danger' : 'warning',
+          tone: a.priority === 'high_high' ? 'danger' : a.priority === 'advisory' ? 'normal' : 'warning',
         },
         a.value !== null ? `${num(a.value)}${a.limit !== null ? ` / ${num(a.limit)}` : ''} ${unitLabel(a.unit)}` : '\u2014',
         a.acknowledgedAt ? `${a.acknowledgedByName ?? ''}, ${clock.dateTime(a.acknowledgedAt)}` : 'not acknowledged',

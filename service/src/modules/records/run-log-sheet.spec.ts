@@ -40,6 +40,29 @@ describe('the run log sheet sections', () => {
     expect(texts(LOG_SHEET_SECTION.cardSets(ctx({ cardSets: [set(true, [{ traceOrigin: null }])] })))).toContain('has a card",');
   });
 
+  it('a pre-alarm is printed as advisory with the forecast it was raised on', () => {
+    const pre = {
+      kind: 'pre_alarm',
+      priority: 'advisory',
+      pointLabel: 'Main bearing 2',
+      message: 'Main bearing 2: high (130 °F) in about 3 min at the present trend',
+      value: 125,
+      limit: 130,
+      unit: 'degF',
+      raisedAt: '2026-08-08T15:00:00Z',
+      acknowledgedAt: null,
+      returnedAt: null,
+      shelvedUntil: null,
+      state: 'active_unacknowledged',
+      suppression: null,
+      forecast: { limitKind: 'high', minutesToLimit: 3.33, ratePerMin: 1.5 },
+    };
+    const out = texts(LOG_SHEET_SECTION.alarms(ctx({ alarms: [pre] })));
+    expect(out).toContain('Pre-alarm (advisory), Limit forecast: Main bearing 2.');
+    expect(out).toMatch(/Forecast: high in 3\.3\d* min at 1\.5\d* °F\/min\./);
+    expect(out).toContain('"tone":"normal"');
+  });
+
   it('the close shows the countersignature and the wet-signature block only when the works asks for one', () => {
     const run = { closedAt: '2026-08-08T20:00:00Z', countersignedByName: 'Hester Quarmby', countersignedAt: '2026-08-09T09:00:00Z' };
     const withBlock = texts(LOG_SHEET_SECTION.close(ctx({ run, site: { wetSignature: true } })));

@@ -193,6 +193,7 @@ export class RunsController {
   @ApiAnswer('IngestResult')
   @Post(':id/imports')
   @ApiConsumes('text/csv')
+  @ApiBody({ description: 'The CSV file as the body: a header row, then one reading a row', schema: { type: 'string' } })
   @Roles('chief_engineer', 'operator')
   async importCsv(@Param() p: IdParamDto, @Req() req: Request, @CurrentUser() me: AuthUser): Promise<IngestResult> {
     const type = (req.headers['content-type'] ?? '').split(';')[0].trim();

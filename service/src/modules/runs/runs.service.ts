@@ -1,4 +1,12 @@
-import { BadRequestException, ConflictException, ForbiddenException, HttpException, Injectable, NotFoundException } from '@nestjs/common';
+import {
+  BadRequestException,
+  ConflictException,
+  ForbiddenException,
+  HttpException,
+  Injectable,
+  Logger,
+  NotFoundException,
+} from '@nestjs/common';
 import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
 import { DataSource, In, Not, Repository } from 'typeorm';
 import {
@@ -49,6 +57,7 @@ export interface RunRecord {
 export class RunsService {
   /** Per engine: one change of its runs' state at a time in this process (the database locks hold across processes). */
   private readonly mutex = new KeyedMutex();
+  private readonly logger = new Logger('Runs');
 
   constructor(
     @InjectDataSource() private readonly db: DataSource,
@@ -319,6 +328,11 @@ export class RunsService {
       if (to === 'closed' || to === 'abandoned') await this.engines.setActiveRun(cur.engineId, null, m);
       if (addTotals) await this.engines.addRunTotals(cur.engineId, addTotals.hours, addTotals.revs, m);
     });
+    // Alarms suppressed by state are released (or suppressed) by the change itself, not by the next reading.
+    if (RUN_STATES_TAKING_READINGS.includes(to))
+      await this.alarms
+        .runStateChanged(run0.engineId, id, to, now)
+        .catch((e: Error) => this.logger.warn(`alarm state suppression: ${e.message}`));
     return this.broadcast(id);
   }
 

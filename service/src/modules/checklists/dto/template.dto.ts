@@ -109,7 +109,10 @@ export class PublishChecklistTemplateDto implements PublishChecklistTemplateRequ
 }
 
 export class TemplateQueryDto {
-  @IsOptional() @IsUUID('all', { message: 'engineId must be a UUID' }) engineId?: string;
+  @ApiPropertyOptional({ format: 'uuid', description: 'Only the templates of this engine' })
+  @IsOptional()
+  @IsUUID('all', { message: 'engineId must be a UUID' })
+  engineId?: string;
 }
 
 export class TemplateVersionParamDto {

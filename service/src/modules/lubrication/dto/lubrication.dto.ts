@@ -54,5 +54,8 @@ export class ConsumptionEntryDto implements ConsumptionEntryRequest {
 }
 
 export class AnalysisQueryDto {
-  @IsOptional() @IsUUID('all', { message: 'runId must be a UUID' }) runId?: string;
+  @ApiPropertyOptional({ format: 'uuid', description: 'Judge the bearings at the conditions of this run (default: the latest run)' })
+  @IsOptional()
+  @IsUUID('all', { message: 'runId must be a UUID' })
+  runId?: string;
 }

@@ -95,8 +95,14 @@ export class InspectionCreateDto implements InspectionCreateRequest {
 }
 
 export class InspectionQueryDto {
-  @IsOptional() @IsUUID('all', { message: 'engineId must be a UUID' }) engineId?: string;
-  @IsOptional() @IsUUID('all', { message: 'bearingId must be a UUID' }) bearingId?: string;
+  @ApiPropertyOptional({ format: 'uuid', description: 'Only the inspections of this engine' })
+  @IsOptional()
+  @IsUUID('all', { message: 'engineId must be a UUID' })
+  engineId?: string;
+  @ApiPropertyOptional({ format: 'uuid', description: 'Only the inspections of this bearing' })
+  @IsOptional()
+  @IsUUID('all', { message: 'bearingId must be a UUID' })
+  bearingId?: string;
 }
 
 export class AttachmentUploadDto {

@@ -1,4 +1,4 @@
-import { ApiProperty, ApiPropertyOptional, PartialType, OmitType } from '@nestjs/swagger';
+import { ApiProperty, ApiPropertyOptional, OmitType, PartialType } from '@nestjs/swagger';
 import { ArrayMaxSize, IsArray, IsBoolean, IsDateString, IsIn, IsOptional, IsString, IsUUID, MaxLength, MinLength } from 'class-validator';
 import {
   COMPONENT_KINDS,
@@ -52,6 +52,12 @@ export class PlanWriteDto implements InspectionPlanWriteRequest {
 export class PlanUpdateDto extends PartialType(OmitType(PlanWriteDto, ['engineId'] as const)) implements InspectionPlanUpdateRequest {}
 
 export class PlanQueryDto {
-  @IsOptional() @IsUUID('all', { message: 'engineId must be a UUID' }) engineId?: string;
-  @IsOptional() @IsUUID('all', { message: 'bearingId must be a UUID' }) bearingId?: string;
+  @ApiPropertyOptional({ format: 'uuid', description: 'Only the plans of this engine' })
+  @IsOptional()
+  @IsUUID('all', { message: 'engineId must be a UUID' })
+  engineId?: string;
+  @ApiPropertyOptional({ format: 'uuid', description: 'Only the plans of this bearing' })
+  @IsOptional()
+  @IsUUID('all', { message: 'bearingId must be a UUID' })
+  bearingId?: string;
 }

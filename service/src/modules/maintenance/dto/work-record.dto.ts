@@ -103,7 +103,16 @@ export class CloseWorkRecordDto implements CloseWorkRecordRequest {
 }
 
 export class WorkRecordQueryDto {
-  @IsOptional() @IsUUID('all', { message: 'engineId must be a UUID' }) engineId?: string;
-  @IsOptional() @IsUUID('all', { message: 'bearingId must be a UUID' }) bearingId?: string;
-  @IsOptional() @IsIn(['open', 'closed'], { message: 'status must be open or closed' }) status?: WorkStatus;
+  @ApiPropertyOptional({ format: 'uuid', description: 'Only the work on this engine' })
+  @IsOptional()
+  @IsUUID('all', { message: 'engineId must be a UUID' })
+  engineId?: string;
+  @ApiPropertyOptional({ format: 'uuid', description: 'Only the work on this bearing' })
+  @IsOptional()
+  @IsUUID('all', { message: 'bearingId must be a UUID' })
+  bearingId?: string;
+  @ApiPropertyOptional({ enum: ['open', 'closed'], description: 'Only open or only closed work' })
+  @IsOptional()
+  @IsIn(['open', 'closed'], { message: 'status must be open or closed' })
+  status?: WorkStatus;
 }

@@ -112,7 +112,10 @@ export class SendQuoteDto implements SendQuoteRequest {
 }
 
 export class LotQueryDto {
-  @IsOptional() @IsIn(LOT_STATUSES, oneOf(LOT_STATUSES)) status?: LotStatus;
+  @ApiPropertyOptional({ enum: LOT_STATUSES, description: 'Only the lots in this state' })
+  @IsOptional()
+  @IsIn(LOT_STATUSES, oneOf(LOT_STATUSES))
+  status?: LotStatus;
 }
 
 export class LotRunParamDto {

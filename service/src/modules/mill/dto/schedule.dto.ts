@@ -96,7 +96,10 @@ export class ScheduleCopyDto implements ScheduleCopyRequest {
 }
 
 export class ScheduleQueryDto {
-  @IsOptional() @IsUUID('all', { message: 'millId must be a UUID' }) millId?: string;
+  @ApiPropertyOptional({ format: 'uuid', description: 'Only the schedules of this mill' })
+  @IsOptional()
+  @IsUUID('all', { message: 'millId must be a UUID' })
+  millId?: string;
   @ApiPropertyOptional({ description: 'true: templates only; false: working schedules only' })
   @IsOptional()
   @Transform(({ value }) => (value === 'true' ? true : value === 'false' ? false : value))

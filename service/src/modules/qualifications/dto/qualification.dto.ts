@@ -52,8 +52,15 @@ export class WithdrawQualificationDto implements WithdrawQualificationRequest {
 }
 
 export class QualificationQueryDto {
-  @IsOptional() @IsUUID('all', { message: 'userId must be a UUID' }) userId?: string;
-  @IsOptional() @IsUUID('all', { message: 'engineId must be a UUID' }) engineId?: string;
+  @ApiPropertyOptional({ format: 'uuid', description: 'Only the qualifications of this person' })
+  @IsOptional()
+  @IsUUID('all', { message: 'userId must be a UUID' })
+  userId?: string;
+  @ApiPropertyOptional({ format: 'uuid', description: 'Only the qualifications on this engine' })
+  @IsOptional()
+  @IsUUID('all', { message: 'engineId must be a UUID' })
+  engineId?: string;
+  @ApiPropertyOptional({ type: Boolean, description: 'true: withdrawn qualifications too' })
   @IsOptional()
   @Transform(({ value }) => (value === 'true' ? true : value === 'false' ? false : value))
   @IsBoolean({ message: 'includeWithdrawn must be true or false' })
@@ -61,5 +68,7 @@ export class QualificationQueryDto {
 }
 
 export class MatrixQueryDto {
-  @ApiProperty({ format: 'uuid' }) @IsUUID('all', { message: 'engineId must be a UUID' }) engineId: string;
+  @ApiProperty({ format: 'uuid', description: 'The engine whose crew and duties the matrix shows' })
+  @IsUUID('all', { message: 'engineId must be a UUID' })
+  engineId: string;
 }

@@ -57,13 +57,21 @@ export class RunTransitionDto implements RunTransitionRequest {
 }
 
 export class RunQueryDto {
-  @IsOptional() @IsUUID('all', { message: 'engineId must be a UUID' }) engineId?: string;
-  @IsOptional() @IsIn(RUN_STATES, { message: `state must be one of: ${RUN_STATES.join(', ')}` }) state?: RunState;
+  @ApiPropertyOptional({ format: 'uuid', description: 'Only the runs of this engine' })
+  @IsOptional()
+  @IsUUID('all', { message: 'engineId must be a UUID' })
+  engineId?: string;
+  @ApiPropertyOptional({ enum: RUN_STATES, description: 'Only the runs in this state' })
+  @IsOptional()
+  @IsIn(RUN_STATES, { message: `state must be one of: ${RUN_STATES.join(', ')}` })
+  state?: RunState;
 }
 
 export class SeasonFiguresQueryDto {
-  @ApiProperty({ format: 'uuid' }) @IsUUID('all', { message: 'engineId must be a UUID' }) engineId: string;
-  @ApiProperty({ example: 2026 })
+  @ApiProperty({ format: 'uuid', description: 'The engine whose season it is' })
+  @IsUUID('all', { message: 'engineId must be a UUID' })
+  engineId: string;
+  @ApiProperty({ type: 'integer', example: 2026, description: 'The season: the runs opened in this calendar year' })
   @Type(() => Number)
   @IsInt({ message: 'year must be a whole number, e.g. 2026' })
   @Min(1900, { message: 'year must be 1900 or later' })
@@ -72,6 +80,12 @@ export class SeasonFiguresQueryDto {
 }
 
 export class ReadingsQueryDto {
-  @IsOptional() @IsDateString({}, { message: 'since must be an ISO date-time' }) since?: string;
-  @IsOptional() @IsUUID('all', { message: 'pointId must be a UUID' }) pointId?: string;
+  @ApiPropertyOptional({ format: 'date-time', description: 'Only readings taken at or after this time' })
+  @IsOptional()
+  @IsDateString({}, { message: 'since must be an ISO date-time' })
+  since?: string;
+  @ApiPropertyOptional({ format: 'uuid', description: 'Only the readings of this measurement point' })
+  @IsOptional()
+  @IsUUID('all', { message: 'pointId must be a UUID' })
+  pointId?: string;
 }

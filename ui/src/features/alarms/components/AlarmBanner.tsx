@@ -1,10 +1,10 @@
 import { Box, Button, Group, Stack, Text } from '@mantine/core';
-import { ALARM_KIND_WORDS, type AlarmDto } from '@crankjournal/shared-types';
+import { ALARM_KIND_WORDS, ALARM_PRIORITY_WORDS, type AlarmDto } from '@crankjournal/shared-types';
 import { alarmLook, alarmTime, isUnacknowledged } from './alarm-look';
 
-/** Most urgent first: high-high before high, active before returned, newest first. */
+/** Most urgent first: high-high before high before an advisory pre-alarm, active before returned, newest first. */
 export function bannerOrder(a: AlarmDto, b: AlarmDto): number {
-  const p = (x: AlarmDto) => (x.priority === 'high_high' ? 0 : 1);
+  const p = (x: AlarmDto) => (x.priority === 'high_high' ? 0 : x.priority === 'high' ? 1 : 2);
   const s = (x: AlarmDto) => (x.state === 'active_unacknowledged' ? 0 : 1);
   return p(a) - p(b) || s(a) - s(b) || b.raisedAt.localeCompare(a.raisedAt);
 }
@@ -62,7 +62,7 @@ export function AlarmBanner({
                 background: filled
                   ? `var(--mantine-color-${look.color}-${a.priority === 'high_high' ? 7 : 5})`
                   : 'var(--mantine-color-body)',
-                border: filled ? undefined : `3px solid var(--mantine-color-amber-5)`,
+                border: filled ? undefined : `3px solid var(--mantine-color-${look.color}-5)`,
                 borderBottom: '1px solid rgba(0,0,0,.25)',
                 color: fg,
               }}
@@ -73,7 +73,7 @@ export function AlarmBanner({
                 <look.Icon size={30} stroke={2} aria-hidden />
                 <Stack gap={0} style={{ minWidth: 0 }}>
                   <Text fw={800} fz="md" c={fg} lh={1.2}>
-                    {a.priority === 'high_high' ? 'HIGH-HIGH' : 'HIGH'} · {a.pointLabel} · {ALARM_KIND_WORDS[a.kind]}
+                    {ALARM_PRIORITY_WORDS[a.priority].toUpperCase()} · {a.pointLabel} · {ALARM_KIND_WORDS[a.kind]}
                   </Text>
                   <Text fz="sm" c={fg} lh={1.25} lineClamp={2} style={{ overflowWrap: 'anywhere' }}>
                     {a.message}

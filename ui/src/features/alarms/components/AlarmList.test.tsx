@@ -28,6 +28,7 @@ const base: AlarmDto = {
   suppression: null,
   suppressedById: null,
   suppressedByLabel: null,
+  forecast: null,
   updatedAt: '2026-06-13T10:00:00Z',
 };
 const suppressed = (id: string, kind: AlarmDto['kind']): AlarmDto => ({
@@ -56,5 +57,37 @@ describe('suppressed alarms', () => {
     await userEvent.click(screen.getByRole('button', { name: 'Show 2 suppressed alarms' }));
     expect(screen.getByText('high message')).toBeInTheDocument();
     expect(screen.getAllByTestId('suppressed-by')[0]).toHaveTextContent('Suppressed by High-high');
+  });
+});
+
+describe('a pre-alarm (the forecast of a limit)', () => {
+  const pre: AlarmDto = {
+    ...base,
+    id: 'pre',
+    kind: 'pre_alarm',
+    priority: 'advisory',
+    message: 'Main bearing 2 temperature: high (130 °F) in about 4 min at the present trend',
+    value: 124,
+    limit: 130,
+    forecast: { limitKind: 'high', minutesToLimit: 4.2, ratePerMin: 1.4 },
+  };
+
+  it('comes after every alarm in the banner, as an advisory with an outline, not a fill', () => {
+    render(
+      <AlarmBanner
+        alarms={[pre, { ...base, id: 'h', kind: 'high', priority: 'high' }]}
+        canAcknowledge
+        onAcknowledge={() => {}}
+        acknowledging={null}
+      />,
+    );
+    const rows = screen.getByTestId('alarm-banner').querySelectorAll('[data-priority]');
+    expect([...rows].map((r) => r.getAttribute('data-priority'))).toEqual(['high', 'advisory']);
+    expect(screen.getByText(/PRE-ALARM \(ADVISORY\) · Main bearing 2 temperature · Limit forecast/)).toBeInTheDocument();
+  });
+
+  it('the list names it advisory', () => {
+    render(<AlarmList alarms={[pre]} actions={actions} />);
+    expect(screen.getByText(/Pre-alarm \(advisory\) · Main bearing 2 temperature · Limit forecast/)).toBeInTheDocument();
   });
 });

@@ -2,9 +2,9 @@ import { useEffect, useState } from 'react';
 import { Alert, Button, Chip, Group, Modal, NumberInput, Paper, Stack, Text, Textarea } from '@mantine/core';
 import { IconBellCheck, IconClockPause, IconClockPlay } from '@tabler/icons-react';
 import dayjs from 'dayjs';
-import { ALARM_KIND_WORDS, type AlarmDto } from '@crankjournal/shared-types';
+import { ALARM_KIND_WORDS, ALARM_PRIORITY_WORDS, type AlarmDto } from '@crankjournal/shared-types';
 import { useUnits } from '../../units/useUnits';
-import { AlarmStateBadge, alarmTime, isUnacknowledged } from './alarm-look';
+import { AlarmStateBadge, alarmTime, isUnacknowledged, priorityColor } from './alarm-look';
 
 export const MAX_SHELVE_MINUTES = 24 * 60;
 const STATE_ORDER = ['active_unacknowledged', 'returned_unacknowledged', 'active_acknowledged', 'shelved', 'normal'];
@@ -26,6 +26,9 @@ export interface AlarmActions {
   onUnshelve: (a: AlarmDto) => void;
 }
 
+const priorityWords = (a: AlarmDto) =>
+  a.priority === 'advisory' ? ALARM_PRIORITY_WORDS.advisory : `${ALARM_PRIORITY_WORDS[a.priority]} priority`;
+
 function AlarmRow({ alarm: a, actions }: { alarm: AlarmDto; actions: AlarmActions }) {
   const { display } = useUnits();
   const shelved = a.state === 'shelved';
@@ -42,7 +45,7 @@ function AlarmRow({ alarm: a, actions }: { alarm: AlarmDto; actions: AlarmAction
       data-state={a.state}
       style={
         !shelved && !cleared && isUnacknowledged(a.state)
-          ? { borderColor: `var(--mantine-color-${a.priority === 'high_high' ? 'signal' : 'amber'}-6)`, borderWidth: 2 }
+          ? { borderColor: `var(--mantine-color-${priorityColor(a.priority)}-6)`, borderWidth: 2 }
           : undefined
       }
       opacity={cleared ? 0.8 : 1}
@@ -58,7 +61,7 @@ function AlarmRow({ alarm: a, actions }: { alarm: AlarmDto; actions: AlarmAction
               <AlarmStateBadge state={a.state} priority={a.priority} size="md" />
             )}
             <Text fw={700}>
-              {a.priority === 'high_high' ? 'High-high' : 'High'} priority · {a.pointLabel} · {ALARM_KIND_WORDS[a.kind]}
+              {priorityWords(a)} · {a.pointLabel} · {ALARM_KIND_WORDS[a.kind]}
             </Text>
           </Group>
           <Text fz="sm">{a.message}</Text>

@@ -1,7 +1,14 @@
 import type { ComponentType } from 'react';
 import { Badge } from '@mantine/core';
-import { IconAlertOctagon, IconAlertTriangle, IconBellCheck, IconCircleDashedCheck, IconClockPause } from '@tabler/icons-react';
-import { ALARM_STATE_WORDS, type AlarmPriority, type AlarmState } from '@crankjournal/shared-types';
+import {
+  IconAlertOctagon,
+  IconAlertTriangle,
+  IconBellCheck,
+  IconCircleDashedCheck,
+  IconClockPause,
+  IconTrendingUp,
+} from '@tabler/icons-react';
+import { ALARM_PRIORITY_WORDS, ALARM_STATE_WORDS, type AlarmPriority, type AlarmState } from '@crankjournal/shared-types';
 
 type Icon = ComponentType<{ size?: number | string; stroke?: number; 'aria-hidden'?: boolean }>;
 
@@ -16,19 +23,26 @@ export interface AlarmLook {
   shelved: boolean;
 }
 
+/** Red for high-high, amber for high; an advisory pre-alarm (a forecast, not an abnormal state) stays neutral. */
 export function priorityColor(priority: AlarmPriority | null | undefined): string {
-  return priority === 'high_high' ? 'signal' : 'amber';
+  return priority === 'high_high' ? 'signal' : priority === 'advisory' ? 'gray' : 'amber';
+}
+
+/** The highest of some priorities (for a counter that takes the colour of the highest waiting one). */
+export function highestPriority(priorities: readonly AlarmPriority[]): AlarmPriority {
+  return priorities.includes('high_high') ? 'high_high' : priorities.includes('high') ? 'high' : priorities.length ? 'advisory' : 'high';
 }
 
 export function alarmLook(state: AlarmState, priority: AlarmPriority | null | undefined): AlarmLook | null {
   const color = priorityColor(priority);
-  const level = priority === 'high_high' ? 'High-high' : 'High';
+  const level = priority === 'advisory' ? 'Pre-alarm' : ALARM_PRIORITY_WORDS[priority ?? 'high'];
   switch (state) {
     case 'active_unacknowledged':
       return {
         color,
-        variant: 'filled',
-        Icon: priority === 'high_high' ? IconAlertOctagon : IconAlertTriangle,
+        // A pre-alarm is advisory: an outline, never a fill.
+        variant: priority === 'advisory' ? 'outline' : 'filled',
+        Icon: priority === 'high_high' ? IconAlertOctagon : priority === 'advisory' ? IconTrendingUp : IconAlertTriangle,
         word: ALARM_STATE_WORDS[state],
         short: `${level} — not acknowledged`,
         shelved: false,

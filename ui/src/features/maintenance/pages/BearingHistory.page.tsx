@@ -26,19 +26,31 @@ function DriftCell({ r }: { r: BearingRunRow }) {
         {r.driftNote ?? '—'}
       </Text>
     );
-  if (r.drift.flagged)
+  const d = r.drift;
+  // The band behind the verdict: a prediction interval, wider with few runs and away from the mean load.
+  const band = (
+    <Text fz="xs" c="dimmed" className="cj-num" data-testid="drift-band">
+      {fmt(d.confidence * 100, 0)} % band ± {fmt(d.halfWidthF, 1)} °F from {d.historyRuns} runs ({d.degreesOfFreedom} degrees of freedom, t
+      = {fmt(d.tQuantile, 2)})
+    </Text>
+  );
+  if (d.flagged)
     return (
       <Stack gap={2}>
         <DriftBadge size="sm" />
         <Text fz="xs" className="cj-num">
-          rise {fmt(r.riseAtPeakF, 1)} °F &gt; limit {fmt(r.drift.limitF, 1)} °F
+          rise {fmt(r.riseAtPeakF, 1)} °F &gt; limit {fmt(d.limitF, 1)} °F
         </Text>
+        {band}
       </Stack>
     );
   return (
-    <Text fz="xs" c="dimmed" className="cj-num">
-      within (limit {fmt(r.drift.limitF, 1)} °F)
-    </Text>
+    <Stack gap={2}>
+      <Text fz="xs" c="dimmed" className="cj-num">
+        within (limit {fmt(d.limitF, 1)} °F)
+      </Text>
+      {band}
+    </Stack>
   );
 }
 

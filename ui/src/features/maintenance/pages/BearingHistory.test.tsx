@@ -33,6 +33,11 @@ describe('a bearing’s history', () => {
     expect(screen.getByTestId('bearing-run-r2')).toHaveAttribute('data-flagged', 'false');
     expect(within(screen.getByTestId('bearing-run-r1')).getByText(/First run/)).toBeInTheDocument();
     expect(screen.getByTestId('drift-rule')).toHaveTextContent('more than 5 °F above the top of the band');
+    // The band is a prediction interval with the history's degrees of freedom; too few runs are said so.
+    expect(within(screen.getByTestId('bearing-run-r3')).getByTestId('drift-band')).toHaveTextContent(
+      '95 % band ± 2.9 °F from 3 runs (2 degrees of freedom, t = 4.30)',
+    );
+    expect(screen.getByTestId('bearing-run-r2')).toHaveTextContent('Too few runs to judge: 1 earlier run, at least 3 are needed.');
     expect(screen.getByTestId('drift-summary')).toHaveTextContent('August demonstration');
     // Observers read: no button to record anything.
     expect(screen.queryByRole('link', { name: /Record an inspection/ })).not.toBeInTheDocument();

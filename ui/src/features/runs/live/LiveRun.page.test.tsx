@@ -72,6 +72,7 @@ const alarm: AlarmDto = {
   suppression: null,
   suppressedById: null,
   suppressedByLabel: null,
+  forecast: null,
   updatedAt: '2025-06-14T10:10:00Z',
 };
 

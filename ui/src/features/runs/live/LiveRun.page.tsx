@@ -24,7 +24,7 @@ import {
 import { RunHeader } from '../components/RunHeader';
 import { AlarmBanner } from '../../alarms/components/AlarmBanner';
 import { AlarmList, ShelveModal } from '../../alarms/components/AlarmList';
-import { isUnacknowledged, priorityColor } from '../../alarms/components/alarm-look';
+import { highestPriority, isUnacknowledged, priorityColor } from '../../alarms/components/alarm-look';
 import { mergeAlarms, openEngineAlarmsQuery, useAlarmAction } from '../../alarms/api/alarms.api';
 import { Board } from './Board';
 import { BottomBar } from './BottomBar';
@@ -98,7 +98,7 @@ export default function LiveRunPage() {
   const waitingAlarms = alarmList.filter((a) => isUnacknowledged(a.state));
   const waiting = waitingAlarms.length;
   // The counter takes the colour of the highest priority waiting: red only when a high-high waits.
-  const waitingColor = priorityColor(waitingAlarms.some((a) => a.priority === 'high_high') ? 'high_high' : 'high');
+  const waitingColor = priorityColor(highestPriority(waitingAlarms.map((a) => a.priority)));
   const open = alarmList.filter((a) => a.state !== 'normal').length;
 
   if (run.isLoading)

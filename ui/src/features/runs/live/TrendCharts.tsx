@@ -128,7 +128,7 @@ function TrendChart({
       (a) =>
         ({
           x: Date.parse(a.raisedAt),
-          color: a.priority === 'high_high' ? 'signal.6' : 'amber.6',
+          color: a.priority === 'high_high' ? 'signal.6' : a.priority === 'advisory' ? 'gray.6' : 'amber.6',
           strokeDasharray: '2 3',
           label: '▲',
           labelPosition: 'insideBottom',

@@ -45,6 +45,7 @@ const alarm = (over: Partial<AlarmDto>): AlarmDto => ({
   suppression: null,
   suppressedById: null,
   suppressedByLabel: null,
+  forecast: null,
   updatedAt: '2025-06-14T10:00:00Z',
   ...over,
 });
