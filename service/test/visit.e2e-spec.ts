@@ -25,6 +25,7 @@ const FIGURE_KEYS = [
   'speedRpm',
   'revolutionsSinceStart',
   'steamPressurePsig',
+  'steamPressureBar',
   'indicatedHorsepower',
   'indicatedKilowatts',
   'horses',
@@ -157,6 +158,8 @@ describe('visitor boards', () => {
     expectOnlyAllowedFigures(f);
     expect(f.speedRpm).toBeCloseTo(73, 6);
     expect(f.steamPressurePsig).toBe(130);
+    // 130 psi × 6.894757 kPa/psi = 896.3 kPa = 8.96 bar (NIST SP 811, 2008, appendix B.8)
+    expect(f.steamPressureBar).toBeCloseTo(9.0, 6);
     // Ten minutes at 72–74 rpm since the start (held before the first reading): about 730 revolutions.
     expect(f.revolutionsSinceStart).toBeGreaterThan(700);
     expect(f.revolutionsSinceStart).toBeLessThan(760);

@@ -49,6 +49,8 @@ export interface VisitorFigures {
   speedRpm: number | null;
   revolutionsSinceStart: number | null;
   steamPressurePsig: number | null;
+  /** The same steam pressure in bar gauge, for visitors who read metric units. */
+  steamPressureBar: number | null;
   /** The latest indicated horsepower measured from indicator cards on this engine (null when none yet). */
   indicatedHorsepower: number | null;
   indicatedKilowatts: number | null;

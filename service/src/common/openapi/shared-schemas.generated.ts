@@ -5042,6 +5042,10 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       speedRpm: { type: ['number', 'null'] },
       revolutionsSinceStart: { type: ['number', 'null'] },
       steamPressurePsig: { type: ['number', 'null'] },
+      steamPressureBar: {
+        type: ['number', 'null'],
+        description: 'The same steam pressure in bar gauge, for visitors who read metric units.',
+      },
       indicatedHorsepower: {
         type: ['number', 'null'],
         description: 'The latest indicated horsepower measured from indicator cards on this engine (null when none yet).',
@@ -5057,6 +5061,7 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       'speedRpm',
       'revolutionsSinceStart',
       'steamPressurePsig',
+      'steamPressureBar',
       'indicatedHorsepower',
       'indicatedKilowatts',
       'horses',

@@ -24,7 +24,7 @@ import type { AuthUser } from '../../common/decorators/current-user.decorator.js
 import { sniffImage } from '../../common/util/image-sniff.js';
 import { revolutionsFromSpeedRecord } from '../../calculations/run-derived.js';
 import { horsesFromHorsepower, smallCarEnginesFromHorsepower, smoothedLatestValue } from '../../calculations/visitor-figures.js';
-import { isRpm, pressureScaleOf, psigFromScale } from '../../calculations/units.js';
+import { isRpm, pressureScaleOf, psigFromScale, psigOnScale } from '../../calculations/units.js';
 import { RunsService, type RunRecord } from '../runs/runs.service.js';
 import { ReadingsService } from '../runs/readings.service.js';
 import { EnginesService } from '../engines/engines.service.js';
@@ -235,6 +235,7 @@ export class VisitService implements OnModuleDestroy {
       speedRpm: null,
       revolutionsSinceStart: null,
       steamPressurePsig: null,
+      steamPressureBar: null,
       indicatedHorsepower: power ? round(power.horsepower, 1) : null,
       indicatedKilowatts: power ? round(power.kilowatts, 1) : null,
       horses: power ? Math.round(horsesFromHorsepower(power.horsepower)) : null,
@@ -279,6 +280,7 @@ export class VisitService implements OnModuleDestroy {
       speedRpm: speedRpm === null ? null : round(speedRpm, 1),
       revolutionsSinceStart: Math.floor(revolutions),
       steamPressurePsig: psig === null ? null : round(psig, 0),
+      steamPressureBar: psig === null ? null : round(psigOnScale(psig, 'bar_gauge')!, 1),
     };
   }
 
