@@ -4405,6 +4405,8 @@ export interface components {
       speedRpm: number | null;
       revolutionsSinceStart: number | null;
       steamPressurePsig: number | null;
+      /** @description The same steam pressure in bar gauge, for visitors who read metric units. */
+      steamPressureBar: number | null;
       /** @description The latest indicated horsepower measured from indicator cards on this engine (null when none yet). */
       indicatedHorsepower: number | null;
       indicatedKilowatts: number | null;
