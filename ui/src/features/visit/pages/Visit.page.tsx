@@ -72,6 +72,7 @@ function Figure({ label, value, unit, big }: { label: string; value: string; uni
       </Text>
       <Text
         component="p"
+        data-testid="figure-value"
         style={{ fontVariantNumeric: 'tabular-nums', fontSize: big ? '5.2rem' : '2.4rem', lineHeight: 1.05, fontWeight: 700, margin: 0 }}
       >
         {value}
@@ -166,7 +167,7 @@ export default function VisitPage() {
     : { minHeight: '100vh', padding: 16, maxWidth: 560, margin: '0 auto', background: 'var(--cj-paper)', color: 'var(--cj-text)' };
 
   const header = (
-    <Group justify="space-between" align="flex-start" wrap="nowrap">
+    <Group justify="space-between" align="flex-start" wrap={big ? 'nowrap' : 'wrap'} gap="sm">
       <div>
         <Text size={big ? '1.6rem' : 'sm'} style={{ color: 'var(--cj-text-quiet)' }}>
           Live from the engine house
@@ -180,7 +181,7 @@ export default function VisitPage() {
           </Text>
         )}
       </div>
-      <Group gap="xs" wrap="nowrap">
+      <Group gap="xs" wrap="wrap">
         <SegmentedControl
           size={big ? 'lg' : 'md'}
           aria-label="Units"
