@@ -13,6 +13,7 @@ const b4 = readResult('b4');
 const b4d = readResult('b4-data');
 const b5 = readResult('b5');
 const b6 = readResult('b6');
+const b7 = readResult('b7');
 const failed = (n) =>
   existsSync(join(WORK, 'results', `b${n}.failed.json`))
     ? JSON.parse(readFileSync(join(WORK, 'results', `b${n}.failed.json`), 'utf8'))
@@ -25,7 +26,7 @@ const fmt = (x, d = 0) =>
 const kb = (b) => fmt(b / 1024, 1);
 const yes = (ok) => (ok ? '**met**' : '**missed**');
 const when = (r) => (r ? `${r.measuredAt.replace('T', ' ').slice(0, 16)} UTC, load average ${r.loadAvg?.join(' / ') ?? '—'}` : 'not run');
-const newest = Math.max(...[b1, b2, b3, b4, b5, b6].filter(Boolean).map((r) => Date.parse(r.measuredAt)));
+const newest = Math.max(...[b1, b2, b3, b4, b5, b6, b7].filter(Boolean).map((r) => Date.parse(r.measuredAt)));
 const stale = (r) =>
   r && seconds && newest - Date.parse(r.measuredAt) > (seconds + 120) * 1000 ? ' (from an earlier run of the command)' : '';
 
@@ -118,6 +119,16 @@ if (b6)
     '—',
     'p99 < 1 s',
     yes(b6.met.underOneSecond),
+  ]);
+if (b7)
+  rows.push([
+    `7. Visitor board, ${fmt(b7.visitors)} visitors (${b7.instances} instance), reading to update`,
+    `${fmt(b7.delayMs.median / 1000, 2)} s`,
+    `${fmt(b7.delayMs.p99 / 1000, 2)} s`,
+    `designed delay ${b7.delaySeconds} s + figures every 2 s`,
+    `CPU ${fmt(b7.cpu.msPerSecondPerVisitor, 3)} ms/s per visitor`,
+    '(none)',
+    '—',
   ]);
 /** Long lists of ids in a plan, shortened: '{a,b,…}' → '{… 124 ids …}'. */
 const shortPlan = (plan) =>
@@ -464,6 +475,27 @@ if (b6) {
       `${fmt(b6.msPerCard.median)} ms, p99 ${fmt(b6.msPerCard.p99)} ms, slowest ${fmt(b6.msPerCard.max)} ms. MEP against the ` +
       `drawn outline (generated set): mean error ${fmt(b6.mepErrorPercent.mean, 2)} %, largest ${fmt(b6.mepErrorPercent.max, 2)} %, ` +
       `${b6.mepErrorPercent.refused} refused.`,
+  );
+  md.push('');
+}
+
+if (b7) {
+  md.push('## 7. Visitor board, 500 visitors');
+  md.push('');
+  md.push(`Measured ${when(b7)}${stale(b7)}.`);
+  md.push('');
+  md.push(
+    `${fmt(b7.visitors)} socket.io clients on the public namespace /visit, all on one board of a running run, on ` +
+      `${b7.instances} service instance (several instances are not part of this build). The chief engineer submitted ` +
+      `${b7.submissions} speed readings, one every 3 s, through the rounds route. Measured: from a reading's arrival (the ` +
+      "round's answer) to the first `visit:figures` showing it at each visitor, which by design includes the board's delay " +
+      `(VISIT_DELAY_SECONDS = ${b7.delaySeconds} s) and up to one figures period (2 s). ${fmt(b7.updates.measured)} updates ` +
+      `measured (${fmt(b7.updates.missing)} missing): median ${fmt(b7.delayMs.median)} ms, p90 ${fmt(b7.delayMs.p90)} ms, ` +
+      `p99 ${fmt(b7.delayMs.p99)} ms, slowest ${fmt(b7.delayMs.max)} ms; beyond the designed delay: median ` +
+      `${fmt(b7.beyondDesignedDelayMs.median)} ms, p99 ${fmt(b7.beyondDesignedDelayMs.p99)} ms. ${fmt(b7.visitors)} visitors ` +
+      `connected in ${fmt(b7.connectMs)} ms. Service CPU: ${fmt(b7.cpu.idleSecondsPerSecond, 3)} s/s with the same readings ` +
+      `and no visitor, ${fmt(b7.cpu.loadedSecondsPerSecond, 3)} s/s with the visitors: ` +
+      `${fmt(b7.cpu.msPerSecondPerVisitor, 3)} ms of CPU per second per visitor.`,
   );
   md.push('');
 }

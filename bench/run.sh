@@ -17,7 +17,7 @@ APP_PORT="${BENCH_APP_PORT:-3290}"
 ECHO_PORT="${BENCH_ECHO_PORT:-3291}"
 DB_NAME="crankjournal_bench"
 WORK="$ROOT/.data/bench"
-ONLY="${BENCH_ONLY:-1 2 3 4 5 6}"
+ONLY="${BENCH_ONLY:-1 2 3 4 5 6 7}"
 export BENCH_WORK="$WORK" BENCH_ROOT="$ROOT"
 export BENCH_DB_URL="$(db_url "$PG_PORT" "$DB_NAME")"
 BENCH_PG_SUPER_URL="postgres://postgres:$(secret_file pg-superuser-password)@127.0.0.1:$PG_PORT/$DB_NAME"
@@ -75,6 +75,7 @@ start_server() {
   (cd "$ROOT/service" && NODE_ENV=production DATABASE_URL="$BENCH_DB_URL" PORT="$APP_PORT" HOST=127.0.0.1 \
     PUBLIC_URL="$BENCH_BASE_URL" JWT_SECRET="bench-only-secret-$(head -c 12 /dev/urandom | base64 | tr -dc 'A-Za-z0-9')" \
     ACCESS_TOKEN_TTL_SECONDS=7200 LOG_LEVEL=warn LOGIN_RATE_LIMIT_PER_MINUTE=100000 LOGIN_ADDRESS_LIMIT_PER_MINUTE=100000 LOGIN_ACCOUNT_LIMIT_PER_HOUR=100000 \
+    VISIT_RATE_LIMIT_PER_MINUTE=100000 \
     SMTP_HOST=127.0.0.1 SMTP_PORT="$SMTP_PORT" MAIL_INBOX_URL="http://127.0.0.1:$MAIL_HTTP_PORT" \
     S3_ENDPOINT="http://127.0.0.1:$S3_PORT" UI_DIST="$UI_OUT" \
     exec node dist/main.js >>"$BENCH_SERVER_LOG" 2>&1) &
@@ -130,6 +131,7 @@ if wants 4; then
 fi
 run_bench 5 b5-ui.mjs
 run_bench 6 b6-autotrace.mjs
+run_bench 7 b7-visitors.mjs
 
 stop_server
 node "$ROOT/bench/report.mjs" --seconds "$(( $(date +%s) - STARTED_AT ))"

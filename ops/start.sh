@@ -57,6 +57,9 @@ cat <<INFO
     mill@alderforge.example         mill lead
     observer@alderforge.example     observer
 
+  Visitor board of the "Winter open day" run: switched on by the seed (its /visit/ address is on the
+  seed line above); the chief engineer's "Visitor boards" screen has its QR page to print.
+
   Ctrl-C stops everything.
 INFO
 wait "${CHILD_PIDS[-1]}"

@@ -27,6 +27,7 @@ import { MaintenanceModule } from './modules/maintenance/maintenance.module.js';
 import { LubricationModule } from './modules/lubrication/lubrication.module.js';
 import { SiteModule } from './modules/site/site.module.js';
 import { RecordsModule } from './modules/records/records.module.js';
+import { VisitModule } from './modules/visit/visit.module.js';
 
 @Module({
   imports: [
@@ -60,6 +61,7 @@ import { RecordsModule } from './modules/records/records.module.js';
     LubricationModule,
     SiteModule,
     RecordsModule,
+    VisitModule,
   ],
   providers: [
     { provide: APP_GUARD, useClass: JwtAuthGuard },

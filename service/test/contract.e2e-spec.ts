@@ -265,6 +265,8 @@ describe('live answers keep to the description', () => {
       if (key) photo = `/api/checklists/${withChecklists[0]}/items/${key}/photo`;
     }
     const first = async (path: string, role?: Role) => (await getJson<WithId[]>(path, role))[0]?.id;
+    // The demo's open-day visitor board (switched on by the seed; it has no photo).
+    const board = (await getJson<{ id: string; slug: string; hasPhoto: boolean }[]>('/api/visitor-boards', 'chief_engineer'))[0];
 
     const ids: Record<string, string | undefined> = {
       '/api/engines/{id}': engines[0].id,
@@ -285,7 +287,9 @@ describe('live answers keep to the description', () => {
       '/api/maintenance/inspections/{id}': inspections[0]?.id,
       '/api/maintenance/attachments/{id}': attachmentId,
       '/api/maintenance/work-records/{id}': await first('/api/maintenance/work-records'),
+      '/api/visit/{slug}': board?.slug,
     };
+    const visitPhotos = ['/api/visit/{slug}/photo', '/api/visitor-boards/{id}/photo'];
     const version = String(template.versions[0]?.version ?? 1);
     const queryValues: Record<string, string> = { engineId: engines[0].id, year: String(new Date().getFullYear()) };
 
@@ -294,6 +298,8 @@ describe('live answers keep to the description', () => {
     for (const { path } of operationsOf(doc).filter((o) => o.method === 'get')) {
       let real: string | undefined = path;
       if (path === '/api/checklists/{id}/items/{itemKey}/photo') real = photo;
+      else if (visitPhotos.includes(path))
+        real = board?.hasPhoto ? path.replace('{slug}', board.slug).replace('{id}', board.id) : undefined;
       else if (path.includes('{')) {
         const prefix = Object.keys(ids)
           .filter((p) => path.startsWith(p))
@@ -316,9 +322,13 @@ describe('live answers keep to the description', () => {
       problems.push(...check('get', path, res));
     }
     expect(problems).toEqual([]);
-    // The demo holds no checklist photo and no scanned card image; every other GET route is called above.
+    // The demo holds no checklist photo, no scanned card image and no visitor board photo; every other GET route is called above.
     expect(noData.sort()).toEqual(
-      [photo ? undefined : '/api/checklists/{id}/items/{itemKey}/photo', cardImageId ? undefined : '/api/card-images/{id}']
+      [
+        photo ? undefined : '/api/checklists/{id}/items/{itemKey}/photo',
+        cardImageId ? undefined : '/api/card-images/{id}',
+        ...(board?.hasPhoto ? [] : visitPhotos),
+      ]
         .filter((p) => p !== undefined)
         .sort(),
     );

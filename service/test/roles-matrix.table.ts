@@ -128,6 +128,17 @@ export const ROUTE_ACCESS: Record<string, RouteAccess> = {
   'POST /api/qualifications/:id/renew': CHIEF,
   'POST /api/qualifications/:id/withdraw': CHIEF,
 
+  // visitor boards (modules/visit): the chief engineer manages them; the visitors' routes are public and read only
+  'GET /api/visitor-boards': CHIEF,
+  'POST /api/visitor-boards': CHIEF,
+  'PATCH /api/visitor-boards/:id': CHIEF,
+  'POST /api/visitor-boards/:id/slug': CHIEF,
+  'PUT /api/visitor-boards/:id/photo': CHIEF,
+  'GET /api/visitor-boards/:id/photo': CHIEF,
+  'DELETE /api/visitor-boards/:id/photo': CHIEF,
+  'GET /api/visit/:slug': 'public',
+  'GET /api/visit/:slug/photo': 'public',
+
   // indicator cards (modules/indicator-cards)
   'POST /api/calculations/indicated-power': ANY_ROLE,
   'POST /api/calculations/indicator-trace': ANY_ROLE,

@@ -52,6 +52,9 @@ const WorkRecordsPage = lazy(() => import('./features/maintenance/pages/WorkReco
 const WorkRecordPage = lazy(() => import('./features/maintenance/pages/WorkRecord.page'));
 const NewWorkRecordPage = lazy(() => import('./features/maintenance/pages/NewWorkRecord.page'));
 const LubricationPage = lazy(() => import('./features/lubrication/pages/Lubrication.page'));
+const VisitPage = lazy(() => import('./features/visit/pages/Visit.page'));
+const VisitorBoardsPage = lazy(() => import('./features/visit/pages/VisitorBoards.page'));
+const VisitorBoardQrPage = lazy(() => import('./features/visit/pages/VisitorBoardQr.page'));
 /** Who may write maintenance records (the server enforces the same). */
 const MAINTENANCE_WRITERS: Role[] = ['maintenance_lead', 'chief_engineer'];
 
@@ -72,6 +75,8 @@ export function RequireRole({ roles, children }: { roles: readonly Role[]; child
 export const routes = [
   { path: '/sign-in', element: <SignInPage /> },
   { path: '/set-password', element: <SetPasswordPage /> },
+  // The public visitor board: no sign-in, outside the crew's shell.
+  { path: '/visit/:slug', element: <VisitPage /> },
   {
     path: '/',
     element: (
@@ -199,6 +204,22 @@ export const routes = [
         element: (
           <RequireRole roles={['chief_engineer', 'operator']}>
             <NewRunPage />
+          </RequireRole>
+        ),
+      },
+      {
+        path: 'visitor-boards',
+        element: (
+          <RequireRole roles={['chief_engineer']}>
+            <VisitorBoardsPage />
+          </RequireRole>
+        ),
+      },
+      {
+        path: 'visitor-boards/:id/qr',
+        element: (
+          <RequireRole roles={['chief_engineer']}>
+            <VisitorBoardQrPage />
           </RequireRole>
         ),
       },

@@ -1,5 +1,14 @@
 import { create, all } from 'mathjs';
-import { WATTS_PER_HP, KPA_PER_PSI, psigToPsia, hpToKw, fahrenheitToCelsius, unitConversionTable } from './units.js';
+import {
+  WATTS_PER_HP,
+  KPA_PER_PSI,
+  psigToPsia,
+  hpToKw,
+  fahrenheitToCelsius,
+  unitConversionTable,
+  psigFromScale,
+  psigOnScale,
+} from './units.js';
 
 const math = create(all);
 
@@ -40,5 +49,16 @@ describe('display conversions (factors from mathjs)', () => {
   });
   it('leaves imperial units as they are for imperial users', () => {
     expect(show('imperial', 'psig', 132)).toEqual({ value: 132, unit: 'psig' });
+  });
+});
+
+describe('a pressure reading as gauge psi (the inverse of psigOnScale)', () => {
+  it('10 bar gauge is 145.04 psig (1 psi = 6.894757 kPa; NIST SP 811, 2008, appendix B.8)', () => {
+    expect(psigFromScale(10, 'bar_gauge')).toBeCloseTo(145.038, 3);
+  });
+  it('round-trips every gauge and absolute scale, and gives null for vacuum', () => {
+    for (const scale of ['psig', 'psia', 'kPa_gauge', 'kPa_abs', 'bar_gauge'] as const)
+      expect(psigFromScale(psigOnScale(120, scale)!, scale)).toBeCloseTo(120, 9);
+    expect(psigFromScale(25, 'inHg_vacuum')).toBeNull();
   });
 });

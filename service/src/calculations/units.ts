@@ -122,6 +122,24 @@ export function psigOnScale(psig: number, scale: PressureScale): number | null {
   }
 }
 
+/** A reading on a pressure scale as gauge psi (the inverse of psigOnScale); null for the vacuum scale. */
+export function psigFromScale(value: number, scale: PressureScale): number | null {
+  switch (scale) {
+    case 'psig':
+      return value;
+    case 'psia':
+      return psiaToPsig(value);
+    case 'kPa_gauge':
+      return value / KPA_PER_PSI;
+    case 'kPa_abs':
+      return psiaToPsig(value / KPA_PER_PSI);
+    case 'bar_gauge':
+      return (value * KPA_PER_BAR) / KPA_PER_PSI;
+    case 'inHg_vacuum':
+      return null;
+  }
+}
+
 /**
  * The engine's MAWP (psig) expressed in a pressure point's own unit, or null when that unit cannot
  * be compared with a gauge steam pressure.

@@ -170,6 +170,24 @@ export class EnvironmentVariables {
   @IsInt()
   @Min(256)
   CSV_IMPORT_MAX_LINE_BYTES = 64 * 1024;
+
+  /** Visitor board: its figures lag the engine by this many seconds (readings that arrived earlier only). */
+  @Transform(({ value }) => Number(value))
+  @IsInt()
+  @Min(0)
+  VISIT_DELAY_SECONDS = 5;
+
+  /** Visitor board: public requests and connections per minute from one address (a venue Wi-Fi puts many visitors behind one). */
+  @Transform(({ value }) => Number(value))
+  @IsInt()
+  @Min(1)
+  VISIT_RATE_LIMIT_PER_MINUTE = 600;
+
+  /** Visitor board: at most this many visitors connected to one board at once (the public socket namespace). */
+  @Transform(({ value }) => Number(value))
+  @IsInt()
+  @Min(1)
+  VISIT_VIEWERS_PER_BOARD = 600;
 }
 
 export function validateEnvironment(config: Record<string, unknown>): EnvironmentVariables {

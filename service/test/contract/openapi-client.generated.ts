@@ -456,6 +456,29 @@ export interface paths {
   "/api/runs/{id}/log-sheet.pdf": {
     get: operations["RecordsController_runLogSheet"];
   };
+  "/api/visitor-boards": {
+    get: operations["VisitorBoardsController_list"];
+    post: operations["VisitorBoardsController_create"];
+  };
+  "/api/visitor-boards/{id}": {
+    patch: operations["VisitorBoardsController_update"];
+  };
+  "/api/visitor-boards/{id}/slug": {
+    post: operations["VisitorBoardsController_changeSlug"];
+  };
+  "/api/visitor-boards/{id}/photo": {
+    get: operations["VisitorBoardsController_photo"];
+    /** The story's photo (the raw image as the body); refused unless its bytes are a PNG, JPEG or WebP image */
+    put: operations["VisitorBoardsController_setPhoto"];
+    delete: operations["VisitorBoardsController_removePhoto"];
+  };
+  "/api/visit/{slug}": {
+    /** A visitor board: the engine at work, delayed a few seconds and smoothed */
+    get: operations["VisitController_board"];
+  };
+  "/api/visit/{slug}/photo": {
+    get: operations["VisitController_photo"];
+  };
 }
 
 export type webhooks = Record<string, never>;
@@ -1569,6 +1592,8 @@ export interface components {
        */
       requiredMargin?: number;
     };
+    CreateVisitorBoardDto: Record<string, never>;
+    UpdateVisitorBoardDto: Record<string, never>;
     MeasurementItemDtoBody: {
       /** @enum {string} */
       kind: "clearance_lead_wire" | "clearance_feeler" | "web_deflection" | "shaft_level" | "squareness" | "bedplate_level" | "alignment_offset" | "other";
@@ -2562,6 +2587,12 @@ export interface components {
       plannedFor?: string | null;
       crewIds?: string[];
       notes?: string;
+    };
+    CreateVisitorBoardRequest: {
+      /** @description A board of one run (its engine follows from it) ... */
+      runId?: string;
+      /** @description ... or of an engine, whenever it runs. Exactly one of the two. */
+      engineId?: string;
     };
     CrewMember: {
       id: string;
@@ -4318,6 +4349,11 @@ export interface components {
       active?: boolean;
       displayName?: string;
     };
+    UpdateVisitorBoardRequest: {
+      enabled?: boolean;
+      /** @description The short story of the engine the visitors read (plain text, at most 4000 characters). */
+      story?: string;
+    };
     UserSummary: {
       id: string;
       email: string;
@@ -4328,6 +4364,92 @@ export interface components {
       /** @description True until the person has set a password from their invitation. */
       invitationPending: boolean;
       createdAt: string;
+    };
+    /** @description Events of the public /visit namespace: nothing is accepted from the visitor's side. */
+    VisitServerToClientEvents: {
+      "visit:figures": {
+        namedArgs?: {
+          figures: components["schemas"]["VisitorFigures"];
+        };
+      };
+      /** @description The board was switched off or its address changed: the page stops and says so. */
+      "visit:ended": {
+        namedArgs?: {
+          e: {
+            message: string;
+          };
+        };
+      };
+      /** @description Anything a visitor sends is refused with this event. */
+      "visit:refused": {
+        namedArgs?: {
+          e: {
+            event: string;
+            message: string;
+            status: number;
+          };
+        };
+      };
+    };
+    /** @description A visitor board as the chief engineer manages it. */
+    VisitorBoardDto: {
+      id: string;
+      scope: components["schemas"]["VisitorBoardScope"];
+      engineId: string;
+      /** @description Set for a board of one run; null for a board of the engine. */
+      runId: string | null;
+      /** @description What the board follows, in words: the run's title or the engine's name. */
+      followsLabel: string;
+      enabled: boolean;
+      /** @description The unguessable part of the public address /visit/<slug>. */
+      slug: string;
+      /** @description The public address path, /visit/<slug>. */
+      path: string;
+      story: string;
+      hasPhoto: boolean;
+      updatedAt: string;
+    };
+    /**
+     * @description A board follows one run, or an engine whenever it runs.
+     * @enum {string}
+     */
+    VisitorBoardScope: "run" | "engine";
+    /** @description The public board: what /api/visit/:slug answers. */
+    VisitorBoardView: {
+      slug: string;
+      /** @description The engine's name (never a person's). */
+      engineName: string;
+      /** @description The run's title for a board of one run, else the engine's name. */
+      title: string;
+      story: string;
+      /** @description Path of the story's photo, or null. */
+      photoPath: string | null;
+      figures: components["schemas"]["VisitorFigures"];
+    };
+    /**
+     * @description 'working': the engine runs and all is well; 'resting': stopped, not started, or an alarm is active (no detail given).
+     * @enum {string}
+     */
+    VisitorEngineState: "working" | "resting";
+    /** @description The figures a visitor sees: delayed by a few seconds and smoothed; the live ones are null while the engine rests. */
+    VisitorFigures: {
+      state: components["schemas"]["VisitorEngineState"];
+      speedRpm: number | null;
+      revolutionsSinceStart: number | null;
+      steamPressurePsig: number | null;
+      /** @description The same steam pressure in bar gauge, for visitors who read metric units. */
+      steamPressureBar: number | null;
+      /** @description The latest indicated horsepower measured from indicator cards on this engine (null when none yet). */
+      indicatedHorsepower: number | null;
+      indicatedKilowatts: number | null;
+      /** @description The same power as a number of horses (1 hp by definition). */
+      horses: number | null;
+      /** @description The same power as a number of small car engines. */
+      smallCarEngines: number | null;
+      /** @description How far behind the engine the figures are, seconds. */
+      delaySeconds: number;
+      /** @description When the figures were worked out (ISO 8601). */
+      at: string;
     };
     WebDeflectionPair: {
       /** @enum {string} */
@@ -10131,6 +10253,325 @@ export interface operations {
       };
       /** @description Nothing with that id */
       404: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+    };
+  };
+  VisitorBoardsController_list: {
+    responses: {
+      /** @description A list of VisitorBoardDto */
+      200: {
+        content: {
+          "application/json": components["schemas"]["VisitorBoardDto"][];
+        };
+      };
+      /** @description Not signed in, or the access token (or logger key) is missing, expired or revoked */
+      401: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Signed in, but the role may not do this */
+      403: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+    };
+  };
+  VisitorBoardsController_create: {
+    requestBody: {
+      content: {
+        "application/json": components["schemas"]["CreateVisitorBoardDto"];
+      };
+    };
+    responses: {
+      /** @description VisitorBoardDto */
+      201: {
+        content: {
+          "application/json": components["schemas"]["VisitorBoardDto"];
+        };
+      };
+      /** @description Bad request: the body, query or path failed validation (the message says which field and why) */
+      400: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Not signed in, or the access token (or logger key) is missing, expired or revoked */
+      401: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Signed in, but the role may not do this */
+      403: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+    };
+  };
+  VisitorBoardsController_update: {
+    requestBody: {
+      content: {
+        "application/json": components["schemas"]["UpdateVisitorBoardDto"];
+      };
+    };
+    responses: {
+      /** @description VisitorBoardDto */
+      200: {
+        content: {
+          "application/json": components["schemas"]["VisitorBoardDto"];
+        };
+      };
+      /** @description Bad request: the body, query or path failed validation (the message says which field and why) */
+      400: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Not signed in, or the access token (or logger key) is missing, expired or revoked */
+      401: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Signed in, but the role may not do this */
+      403: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Nothing with that id */
+      404: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+    };
+  };
+  VisitorBoardsController_changeSlug: {
+    responses: {
+      /** @description VisitorBoardDto */
+      200: {
+        content: {
+          "application/json": components["schemas"]["VisitorBoardDto"];
+        };
+      };
+      /** @description Not signed in, or the access token (or logger key) is missing, expired or revoked */
+      401: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Signed in, but the role may not do this */
+      403: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Nothing with that id */
+      404: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+    };
+  };
+  VisitorBoardsController_photo: {
+    responses: {
+      /** @description The story's photo */
+      200: {
+        content: {
+          "image/*": string;
+        };
+      };
+      /** @description Not signed in, or the access token (or logger key) is missing, expired or revoked */
+      401: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Signed in, but the role may not do this */
+      403: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Nothing with that id */
+      404: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+    };
+  };
+  /** The story's photo (the raw image as the body); refused unless its bytes are a PNG, JPEG or WebP image */
+  VisitorBoardsController_setPhoto: {
+    requestBody: {
+      content: {
+        "image/png": string;
+        "image/jpeg": string;
+        "image/webp": string;
+      };
+    };
+    responses: {
+      /** @description VisitorBoardDto */
+      200: {
+        content: {
+          "application/json": components["schemas"]["VisitorBoardDto"];
+        };
+      };
+      /** @description Bad request: the body, query or path failed validation (the message says which field and why) */
+      400: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Not signed in, or the access token (or logger key) is missing, expired or revoked */
+      401: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Signed in, but the role may not do this */
+      403: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Nothing with that id */
+      404: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The upload is not of an accepted type */
+      415: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+    };
+  };
+  VisitorBoardsController_removePhoto: {
+    responses: {
+      /** @description VisitorBoardDto */
+      200: {
+        content: {
+          "application/json": components["schemas"]["VisitorBoardDto"];
+        };
+      };
+      /** @description Not signed in, or the access token (or logger key) is missing, expired or revoked */
+      401: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Signed in, but the role may not do this */
+      403: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Nothing with that id */
+      404: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+    };
+  };
+  /** A visitor board: the engine at work, delayed a few seconds and smoothed */
+  VisitController_board: {
+    responses: {
+      /** @description VisitorBoardView */
+      200: {
+        content: {
+          "application/json": components["schemas"]["VisitorBoardView"];
+        };
+      };
+      /** @description Nothing with that id */
+      404: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Too many attempts; wait and try again */
+      429: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+    };
+  };
+  VisitController_photo: {
+    responses: {
+      /** @description The board's photo */
+      200: {
+        content: {
+          "image/*": string;
+        };
+      };
+      /** @description Nothing with that id */
+      404: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Too many attempts; wait and try again */
+      429: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };

@@ -79,6 +79,7 @@ export type SharedSchemaName =
   | 'CreateChecklistTemplateRequest'
   | 'CreateLoggerRequest'
   | 'CreateRunRequest'
+  | 'CreateVisitorBoardRequest'
   | 'CrewMember'
   | 'CrewMemberSummary'
   | 'CylinderDto'
@@ -250,7 +251,14 @@ export type SharedSchemaName =
   | 'UpdateRunRequest'
   | 'UpdateSiteSettingsRequest'
   | 'UpdateUserRequest'
+  | 'UpdateVisitorBoardRequest'
   | 'UserSummary'
+  | 'VisitServerToClientEvents'
+  | 'VisitorBoardDto'
+  | 'VisitorBoardScope'
+  | 'VisitorBoardView'
+  | 'VisitorEngineState'
+  | 'VisitorFigures'
   | 'WebDeflectionPair'
   | 'WebDeflectionSummary'
   | 'WithdrawQualificationRequest'
@@ -2003,6 +2011,14 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       notes: { type: 'string' },
     },
     required: ['engineId', 'purpose', 'title'],
+    additionalProperties: false,
+  },
+  CreateVisitorBoardRequest: {
+    type: 'object',
+    properties: {
+      runId: { type: 'string', description: 'A board of one run (its engine follows from it) ...' },
+      engineId: { type: 'string', description: '... or of an engine, whenever it runs. Exactly one of the two.' },
+    },
     additionalProperties: false,
   },
   CrewMember: {
@@ -4973,6 +4989,14 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
     properties: { role: { $ref: '#/components/schemas/Role' }, active: { type: 'boolean' }, displayName: { type: 'string' } },
     additionalProperties: false,
   },
+  UpdateVisitorBoardRequest: {
+    type: 'object',
+    properties: {
+      enabled: { type: 'boolean' },
+      story: { type: 'string', description: 'The short story of the engine the visitors read (plain text, at most 4000 characters).' },
+    },
+    additionalProperties: false,
+  },
   UserSummary: {
     type: 'object',
     properties: {
@@ -4987,6 +5011,137 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
     },
     required: ['id', 'email', 'displayName', 'role', 'active', 'unitSystem', 'invitationPending', 'createdAt'],
     additionalProperties: false,
+  },
+  VisitServerToClientEvents: {
+    type: 'object',
+    properties: {
+      'visit:figures': {
+        $comment: '(figures: VisitorFigures) => void',
+        type: 'object',
+        properties: {
+          namedArgs: {
+            type: 'object',
+            properties: { figures: { $ref: '#/components/schemas/VisitorFigures' } },
+            required: ['figures'],
+            additionalProperties: false,
+          },
+        },
+      },
+      'visit:ended': {
+        $comment: '(e: { message: string }) => void',
+        type: 'object',
+        properties: {
+          namedArgs: {
+            type: 'object',
+            properties: {
+              e: { type: 'object', properties: { message: { type: 'string' } }, required: ['message'], additionalProperties: false },
+            },
+            required: ['e'],
+            additionalProperties: false,
+          },
+        },
+        description: 'The board was switched off or its address changed: the page stops and says so.',
+      },
+      'visit:refused': {
+        $comment: '(e: { event: string; message: string; status: number }) => void',
+        type: 'object',
+        properties: {
+          namedArgs: {
+            type: 'object',
+            properties: {
+              e: {
+                type: 'object',
+                properties: { event: { type: 'string' }, message: { type: 'string' }, status: { type: 'number' } },
+                required: ['event', 'message', 'status'],
+                additionalProperties: false,
+              },
+            },
+            required: ['e'],
+            additionalProperties: false,
+          },
+        },
+        description: 'Anything a visitor sends is refused with this event.',
+      },
+    },
+    required: ['visit:figures', 'visit:ended', 'visit:refused'],
+    additionalProperties: false,
+    description: "Events of the public /visit namespace: nothing is accepted from the visitor's side.",
+  },
+  VisitorBoardDto: {
+    type: 'object',
+    properties: {
+      id: { type: 'string' },
+      scope: { $ref: '#/components/schemas/VisitorBoardScope' },
+      engineId: { type: 'string' },
+      runId: { type: ['string', 'null'], description: 'Set for a board of one run; null for a board of the engine.' },
+      followsLabel: { type: 'string', description: "What the board follows, in words: the run's title or the engine's name." },
+      enabled: { type: 'boolean' },
+      slug: { type: 'string', description: 'The unguessable part of the public address /visit/<slug>.' },
+      path: { type: 'string', description: 'The public address path, /visit/<slug>.' },
+      story: { type: 'string' },
+      hasPhoto: { type: 'boolean' },
+      updatedAt: { type: 'string' },
+    },
+    required: ['id', 'scope', 'engineId', 'runId', 'followsLabel', 'enabled', 'slug', 'path', 'story', 'hasPhoto', 'updatedAt'],
+    additionalProperties: false,
+    description: 'A visitor board as the chief engineer manages it.',
+  },
+  VisitorBoardScope: { type: 'string', enum: ['run', 'engine'], description: 'A board follows one run, or an engine whenever it runs.' },
+  VisitorBoardView: {
+    type: 'object',
+    properties: {
+      slug: { type: 'string' },
+      engineName: { type: 'string', description: "The engine's name (never a person's)." },
+      title: { type: 'string', description: "The run's title for a board of one run, else the engine's name." },
+      story: { type: 'string' },
+      photoPath: { type: ['string', 'null'], description: "Path of the story's photo, or null." },
+      figures: { $ref: '#/components/schemas/VisitorFigures' },
+    },
+    required: ['slug', 'engineName', 'title', 'story', 'photoPath', 'figures'],
+    additionalProperties: false,
+    description: 'The public board: what /api/visit/:slug answers.',
+  },
+  VisitorEngineState: {
+    type: 'string',
+    enum: ['working', 'resting'],
+    description: "'working': the engine runs and all is well; 'resting': stopped, not started, or an alarm is active (no detail given).",
+  },
+  VisitorFigures: {
+    type: 'object',
+    properties: {
+      state: { $ref: '#/components/schemas/VisitorEngineState' },
+      speedRpm: { type: ['number', 'null'] },
+      revolutionsSinceStart: { type: ['number', 'null'] },
+      steamPressurePsig: { type: ['number', 'null'] },
+      steamPressureBar: {
+        type: ['number', 'null'],
+        description: 'The same steam pressure in bar gauge, for visitors who read metric units.',
+      },
+      indicatedHorsepower: {
+        type: ['number', 'null'],
+        description: 'The latest indicated horsepower measured from indicator cards on this engine (null when none yet).',
+      },
+      indicatedKilowatts: { type: ['number', 'null'] },
+      horses: { type: ['number', 'null'], description: 'The same power as a number of horses (1 hp by definition).' },
+      smallCarEngines: { type: ['number', 'null'], description: 'The same power as a number of small car engines.' },
+      delaySeconds: { type: 'number', description: 'How far behind the engine the figures are, seconds.' },
+      at: { type: 'string', description: 'When the figures were worked out (ISO 8601).' },
+    },
+    required: [
+      'state',
+      'speedRpm',
+      'revolutionsSinceStart',
+      'steamPressurePsig',
+      'steamPressureBar',
+      'indicatedHorsepower',
+      'indicatedKilowatts',
+      'horses',
+      'smallCarEngines',
+      'delaySeconds',
+      'at',
+    ],
+    additionalProperties: false,
+    description: 'The figures a visitor sees: delayed by a few seconds and smoothed; the live ones are null while the engine rests.',
   },
   WebDeflectionPair: {
     type: 'object',

@@ -12,6 +12,7 @@ import { CardSetBarometer1796414559444 } from './1796414559444-CardSetBarometer.
 import { UserSessionVersion1796414632333 } from './1796414632333-UserSessionVersion.js';
 import { AlarmForecastRecord1796422336848 } from './1796422336848-AlarmForecastRecord.js';
 import { CardTraceOrigin1796422565325 } from './1796422565325-CardTraceOrigin.js';
+import { VisitorBoards1796422583042 } from './1796422583042-VisitorBoards.js';
 import { ReadingClientIdPerRun1796423309760 } from './1796423309760-ReadingClientIdPerRun.js';
 import { NamesKeptAsSigned1796424216765 } from './1796424216765-NamesKeptAsSigned.js';
 import { EnginePartsRetired1796424633674 } from './1796424633674-EnginePartsRetired.js';
@@ -31,6 +32,7 @@ export const MIGRATIONS: (new () => MigrationInterface)[] = [
   UserSessionVersion1796414632333,
   AlarmForecastRecord1796422336848,
   CardTraceOrigin1796422565325,
+  VisitorBoards1796422583042,
   ReadingClientIdPerRun1796423309760,
   NamesKeptAsSigned1796424216765,
   EnginePartsRetired1796424633674,

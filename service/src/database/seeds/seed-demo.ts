@@ -9,6 +9,7 @@ import { seedMill } from './seed-mill.js';
 import { seedIndicatorCards } from './seed-indicator-cards.js';
 import { seedMaintenance } from './seed-maintenance.js';
 import { seedLubrication } from './seed-lubrication.js';
+import { seedVisit } from './seed-visit.js';
 
 /**
  * Every part of the demo, in order. Each part is idempotent (matched by natural keys), so running the
@@ -28,8 +29,10 @@ export async function seedDemo(app: INestApplicationContext): Promise<string> {
   // After the season: the inspections refer to its runs and alarms.
   const maintenance = await seedMaintenance(app, engine, users);
   const lubrication = await seedLubrication(app, engine, users);
+  // The open day's visitor board, on from the start (its address is in this summary; the QR page is under Visitor boards).
+  const visit = await seedVisit(app, engine, users);
   return (
     `${users.size} users, engine "${engine.name}", ${runs} new runs, ${checklists}, ${mill}, ${cardSets} new ` +
-    `card sets, ${maintenance}, ${lubrication}`
+    `card sets, ${maintenance}, ${lubrication}, ${visit}`
   );
 }

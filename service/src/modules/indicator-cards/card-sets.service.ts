@@ -98,6 +98,23 @@ export class CardSetsService {
     return this.mapper.toDtos(sets);
   }
 
+  /**
+   * The engine's indicated power from its latest complete card set (of `runId` when given, else of any run), or null.
+   * The visitor board shows it with everyday equivalents.
+   */
+  async latestIndicatedPower(engineId: string, runId?: string): Promise<{ horsepower: number; kilowatts: number; takenAt: Date } | null> {
+    const qb = this.cardSetRepo
+      .createQueryBuilder('s')
+      .where('s.engineId = :engineId', { engineId })
+      .andWhere(`(s.results->>'complete')::boolean`)
+      .orderBy('s.takenAt', 'DESC')
+      .limit(1);
+    if (runId) qb.andWhere('s.runId = :runId', { runId });
+    const set = await qb.getOne();
+    if (!set) return null;
+    return { horsepower: set.results.totalIndicatedHorsepower, kilowatts: set.results.totalIndicatedKilowatts, takenAt: set.takenAt };
+  }
+
   async get(id: string): Promise<CardSetDto> {
     const [dto] = await this.mapper.toDtos([await this.load(id)]);
     return dto;

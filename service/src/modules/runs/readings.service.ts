@@ -254,6 +254,25 @@ export class ReadingsService {
     return rows.length ? { value: Number(rows[0].v), takenAt: new Date(rows[0].t) } : null;
   }
 
+  /**
+   * A run's readings of some points that had arrived by `arrivedBy` (and, when given, were taken at or after
+   * `takenFrom`), oldest first, amended values winning. The visitor board shows figures a few seconds late with it.
+   */
+  async arrivedBy(
+    runId: string,
+    pointIds: string[],
+    arrivedBy: Date,
+    takenFrom?: Date,
+  ): Promise<{ pointId: string; value: number; takenAt: Date }[]> {
+    if (!pointIds.length) return [];
+    const rows: { p: string; v: number; t: Date }[] = await this.db.query(
+      `SELECT point_id AS p, COALESCE(amended_value, value) AS v, taken_at AS t FROM readings
+        WHERE run_id = $1 AND point_id = ANY($2) AND received_at <= $3 AND taken_at >= $4 ORDER BY taken_at`,
+      [runId, pointIds, arrivedBy, takenFrom ?? new Date(0)],
+    );
+    return rows.map((r) => ({ pointId: r.p, value: Number(r.v), takenAt: new Date(r.t) }));
+  }
+
   /** The values a point recorded at exactly these instants (the original values, as the alarm rules saw them). */
   async valuesAt(pointId: string, at: Date[]): Promise<number[]> {
     if (at.length === 0) return [];

@@ -17,6 +17,7 @@ import {
   IconClipboardList,
   IconTimeline as IconRollingLog,
   IconTruckDelivery,
+  IconQrcode,
 } from '@tabler/icons-react';
 import { ROLES, type Role } from '@crankjournal/shared-types';
 import { CALCULATORS } from '../../features/calculators/calculators';
@@ -60,6 +61,15 @@ NAVIGATION.find((g) => g.label === 'Administration')?.items.push({
   path: '/admin/site',
   icon: IconBuildingFactory2,
   roles: ['administrator'],
+});
+
+// Visitor boards (the public window on a run) sit with the runs; the chief engineer manages them.
+NAVIGATION.find((g) => g.label === 'Runs')?.items.push({
+  label: 'Visitor boards',
+  path: '/visitor-boards',
+  icon: IconQrcode,
+  roles: ['chief_engineer'],
+  short: 'Visitors',
 });
 
 // Checklist templates and crew qualifications sit with the engines they belong to.
