@@ -12,11 +12,13 @@ import {
 } from '@crankjournal/shared-types';
 import { EnginesService, type EngineWithPoints } from '../engines/engines.service.js';
 import { LiveService } from '../live/live.service.js';
-import { MailService } from '../mail/mail.service.js';
+import { JobsService } from '../jobs/jobs.service.js';
+import { MailService, type OutgoingMail } from '../mail/mail.service.js';
 import { UsersService } from '../users/users.service.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { temperatureInUnit } from '../../calculations/units.js';
 import { AppConfig } from '../../config/app-config.service.js';
+import { runAlone } from '../../common/util/run-alone.js';
 import {
   AlarmTransitionError,
   applyShelveExpiry,
@@ -49,6 +51,14 @@ import { Alarm } from './alarm.entity.js';
 type EnginePoint = EngineWithPoints['points'][number];
 /** One reading of a point, as the alarm rules take it (for modules that keep recent history). */
 export type { PointReading };
+
+/** The queue of escalations: one job per high-high alarm, due when its engine's escalation time is up. */
+export const ESCALATION_QUEUE = 'alarm-escalation';
+/** Minutes a high-high alarm may wait unacknowledged before the call list is e-mailed (an engine may set its own). */
+export const DEFAULT_ESCALATE_AFTER_MINUTES = 5;
+interface EscalationJob {
+  alarmId: string;
+}
 
 /** Rate of rise is judged over this window, long enough to hold two hand-taken rounds. */
 export const RATE_WINDOW_MINUTES = 15;
@@ -152,13 +162,20 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
     private readonly engines: EnginesService,
     private readonly live: LiveService,
     private readonly mail: MailService,
+    private readonly jobs: JobsService,
     private readonly users: UsersService,
     private readonly config: AppConfig,
   ) {}
 
-  onModuleInit() {
-    this.sweep = setInterval(() => void this.expireShelves().catch((e) => this.logger.warn(e.message)), 30_000);
+  async onModuleInit() {
+    // Every instance runs the sweep; the advisory lock lets one at a time do it (the others skip that turn).
+    this.sweep = setInterval(
+      () => void runAlone(this.db, 'alarms:expire-shelves', () => this.expireShelves()).catch((e) => this.logger.warn(e.message)),
+      30_000,
+    );
     this.sweep.unref();
+    await this.jobs.queue(ESCALATION_QUEUE, { retryLimit: 5, retryDelay: 30, retryBackoff: true });
+    await this.jobs.work<EscalationJob>(ESCALATION_QUEUE, (job) => this.escalate(job));
   }
   onModuleDestroy() {
     if (this.sweep) clearInterval(this.sweep);
@@ -357,6 +374,13 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
         if (a.priority === 'high_high') toEmail.push(a);
       }
     }
+    // The e-mail (and its escalation) is queued in this transaction: it exists exactly when the alarm does.
+    for (const a of toEmail) {
+      if (a.emailedAt) continue;
+      a.emailedAt = new Date();
+      changed.set(a.id, a);
+      await this.queueAlarmMail(a, engine, m);
+    }
     if (changed.size) {
       await m.save(Alarm, [...changed.values()]);
     }
@@ -454,28 +478,27 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
     return a;
   }
 
-  /** After commit: tell everyone watching, and e-mail the people who must know of a high-high alarm (once per alarm). */
+  /** After commit: tell everyone watching (the e-mails were queued in the transaction). */
   async publish(outcome: EvaluationOutcome) {
     for (const a of outcome.changed) await this.broadcast(a);
-    for (const a of outcome.toEmail) void this.emailOnce(a).catch((e) => this.logger.warn(`alarm e-mail failed: ${e.message}`));
   }
 
-  private async emailOnce(a: Alarm) {
-    const claimed = await this.alarmRepo
-      .createQueryBuilder()
-      .update()
-      .set({ emailedAt: () => 'now()' })
-      .where('id = :id AND emailed_at IS NULL', { id: a.id })
-      .execute();
-    if (!claimed.affected) return;
+  /** The high-high e-mail to the chief engineer and maintenance lead, and its escalation job, in transaction `m`. */
+  private async queueAlarmMail(a: Alarm, engine: EngineWithPoints['engine'], m: EntityManager) {
     const to = (await this.users.usersWithRoles(['chief_engineer', 'maintenance_lead'])).map((u) => u.email);
-    if (!to.length) return;
-    const { engine } = await this.engines.withPoints(a.engineId);
-    await this.mail.send({
+    if (to.length) await this.mail.send(this.alarmMail(a, engine.name, to, false), m);
+    const minutes = engine.escalateAfterMinutes ?? DEFAULT_ESCALATE_AFTER_MINUTES;
+    const job: EscalationJob = { alarmId: a.id };
+    await this.jobs.send(ESCALATION_QUEUE, job, { startAfter: new Date(a.raisedAt.getTime() + minutes * 60_000) }, m);
+  }
+
+  private alarmMail(a: Alarm, engineName: string, to: string[], escalated: boolean): OutgoingMail {
+    return {
       to,
-      subject: `High-high alarm on ${engine.name}: ${a.message}`,
+      subject: `${escalated ? 'Not acknowledged: ' : ''}High-high alarm on ${engineName}: ${a.message}`,
       text: [
-        `${ALARM_KIND_WORDS[a.kind]} alarm raised at ${a.raisedAt.toISOString()} on ${engine.name}.`,
+        `${ALARM_KIND_WORDS[a.kind]} alarm raised at ${a.raisedAt.toISOString()} on ${engineName}.`,
+        ...(escalated ? ['', 'Nobody has acknowledged it yet: you are the next on the engine’s call list.'] : []),
         '',
         a.message,
         '',
@@ -484,6 +507,36 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
         'Follow the engine house’s hot-bearing and over-pressure procedures. Crankjournal aids a qualified crew; ' +
           'it does not replace local codes, the insurer’s inspections or licensed practice.',
       ].join('\n'),
+    };
+  }
+
+  /**
+   * The escalation job of a high-high alarm, when its time is up: if the alarm still waits for acknowledgement, an
+   * e-mail to the people on the engine's call list (in its order) who were not on the first e-mail. Once per alarm:
+   * the job is the only sender, and the queue hands it to one instance.
+   */
+  private async escalate({ alarmId }: EscalationJob) {
+    const a = await this.alarmRepo.findOne({ where: { id: alarmId } });
+    if (!a || a.state !== 'active_unacknowledged' || a.suppression) return;
+    const { engine } = await this.engines.withPoints(a.engineId);
+    const first = new Set((await this.users.usersWithRoles(['chief_engineer', 'maintenance_lead'])).map((u) => u.id));
+    const next = (engine.callList ?? []).filter((id) => !first.has(id));
+    const people = await this.users.activeEmails(next);
+    if (!people.length) {
+      this.logger.warn(`high-high alarm ${a.id} not acknowledged, and nobody further on the call list of ${engine.name}`);
+      return;
+    }
+    await this.db.transaction(async (m) => {
+      await this.mail.send(this.alarmMail(a, engine.name, people, true), m);
+      await m.insert(AlarmEvent, {
+        alarmId: a.id,
+        event: 'escalate',
+        fromState: a.state,
+        toState: a.state,
+        byUser: null,
+        at: new Date(),
+        note: `Not acknowledged in time: e-mailed ${people.join(', ')}.`,
+      });
     });
   }
 

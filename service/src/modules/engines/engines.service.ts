@@ -84,6 +84,8 @@ export class EnginesService {
     return {
       ...this.summary(e),
       notes: e.notes,
+      escalateAfterMinutes: e.escalateAfterMinutes,
+      callList: e.callList ?? [],
       flywheelMassLb: e.flywheelMassLb,
       flywheelRadiusOfGyrationFt: e.flywheelRadiusOfGyrationFt,
       rotatingWeightLb: e.rotatingWeightLb,
@@ -236,6 +238,8 @@ export class EnginesService {
       flywheelMassLb: dto.flywheelMassLb ?? null,
       flywheelRadiusOfGyrationFt: dto.flywheelRadiusOfGyrationFt ?? null,
       rotatingWeightLb: dto.rotatingWeightLb ?? null,
+      ...(dto.escalateAfterMinutes !== undefined ? { escalateAfterMinutes: dto.escalateAfterMinutes } : {}),
+      ...(dto.callList !== undefined ? { callList: [...new Set(dto.callList)] } : {}),
     };
   }
 
