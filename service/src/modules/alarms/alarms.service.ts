@@ -78,6 +78,8 @@ interface Suppression {
 }
 
 interface EngineState {
+  /** The engine's ingest count (engine_ingest_marks) this state includes: another instance's write makes it stale. */
+  seq: number;
   recent: Map<string, PointReading[]>;
   open: Map<string, Alarm>;
   ambient: { value: number; unit: string; takenAt: Date } | null;
@@ -196,6 +198,7 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
     const open = await m.find(Alarm, { where: { engineId, state: Not('normal') } });
     const { recent, ambient } = await history(engineId, RATE_WINDOW_MINUTES, m);
     const st: EngineState = {
+      seq: 0,
       recent,
       open: new Map(open.map((a) => [`${a.pointId}:${a.kind}`, a])),
       ambient,
@@ -219,7 +222,17 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
   ): Promise<EvaluationOutcome> {
     const { engine, points } = await this.engines.withPoints(engineId);
     const pointById = new Map(points.map((p) => [p.id, p]));
+    // Counts this engine's evaluations in the database (the caller holds the engine's lock): if the count moved on
+    // since this instance's last one, another instance stored readings meanwhile and the cached recent readings are
+    // stale, so they are read again.
+    const [{ seq }] = (await m.query(
+      `INSERT INTO engine_ingest_marks (engine_id, seq) VALUES ($1, 1)
+       ON CONFLICT (engine_id) DO UPDATE SET seq = engine_ingest_marks.seq + 1 RETURNING seq::int AS seq`,
+      [engineId],
+    )) as { seq: number }[];
+    if (this.state.get(engineId)?.seq !== seq - 1) this.state.delete(engineId);
     const st = await this.load(engineId, m, history);
+    st.seq = seq;
     // The open alarms are read again, and locked, in this transaction: people acknowledge, shelve and unshelve
     // them meanwhile (change(), expireShelves()), and a cached copy would overwrite their change or miss it
     // (an acknowledged alarm raised a second time, refused by alarms_one_open_per_condition).

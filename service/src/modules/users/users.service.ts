@@ -6,6 +6,7 @@ import type { AuthUser } from '../../common/decorators/current-user.decorator.js
 import { newSecret, sha256 } from '../../common/util/password.util.js';
 import { UserEvents } from '../../common/events/user-events.js';
 import { MailService } from '../mail/mail.service.js';
+import { ClusterService } from '../cluster/cluster.service.js';
 import { AppConfig } from '../../config/app-config.service.js';
 import { Invitation } from './invitation.entity.js';
 import { User } from './user.entity.js';
@@ -43,7 +44,10 @@ export class UsersService {
     private readonly mail: MailService,
     private readonly config: AppConfig,
     private readonly events: UserEvents,
-  ) {}
+    private readonly cluster: ClusterService,
+  ) {
+    cluster.on('user', (id) => (id ? this.authCache.delete(id) : this.authCache.clear()));
+  }
 
   async findActiveAuthUser(id: string): Promise<AuthUser | null> {
     const hit = this.authCache.get(id);
@@ -95,8 +99,10 @@ export class UsersService {
     return new Map(rows.map((u) => [u.id, u.displayName]));
   }
 
+  /** Drops the cached person here and in every other instance (role, session version, name changed). */
   forget(id: string) {
     this.authCache.delete(id);
+    void this.cluster.announce('user', id).catch(() => undefined);
   }
 
   findByEmailWithSecrets(email: string): Promise<UserWithSecrets | null> {
