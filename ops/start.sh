@@ -10,7 +10,8 @@ MAIL_HTTP_PORT="${MAIL_HTTP_PORT:-8025}"
 S3_PORT="${S3_PORT:-4569}"
 DB_NAME="crankjournal"
 
-cleanup() { trap - EXIT INT TERM; say "stopping"; stop_children; pg_down; }
+SERVE_ENV="$ROOT/.data/serve.env"
+cleanup() { trap - EXIT INT TERM; say "stopping"; rm -f "$SERVE_ENV"; stop_children; pg_down; }
 trap cleanup EXIT
 trap 'exit 130' INT TERM
 
@@ -41,6 +42,11 @@ say "migrating and seeding the demo site"
 (cd "$ROOT/service" && exec node dist/main.js) &
 CHILD_PIDS+=($!)
 wait_for_port "$PORT" "Crankjournal"
+# What `npm run serve` needs to start further instances against this cluster and these stand-ins (0600: it holds
+# the database password and the JWT secret; removed when npm start stops).
+(umask 077; for v in NODE_ENV DATABASE_URL HOST PUBLIC_URL SMTP_HOST SMTP_PORT MAIL_INBOX_URL S3_ENDPOINT UI_DIST JWT_SECRET; do
+  printf 'export %s=%q\n' "$v" "${!v}"
+done > "$SERVE_ENV")
 cat <<INFO
 
   Crankjournal is running:   http://127.0.0.1:$PORT
@@ -60,6 +66,7 @@ cat <<INFO
   Visitor board of the "Winter open day" run: switched on by the seed (its /visit/ address is on the
   seed line above); the chief engineer's "Visitor boards" screen has its QR page to print.
 
+  More instances on this database:  PORT=3001 npm run serve   (see README, "Several instances")
   Ctrl-C stops everything.
 INFO
 wait "${CHILD_PIDS[-1]}"

@@ -11,6 +11,7 @@ import express from 'express';
 import { AppModule } from './app.module.js';
 import { AppConfig } from './config/app-config.service.js';
 import { buildApiDocument } from './common/openapi/openapi-document.js';
+import { PostgresIoAdapter } from './common/ws/postgres-io.adapter.js';
 
 /** Builds the application with every global piece; used by main.ts and the end-to-end tests. */
 export async function createApp(opts: { logger?: boolean } = {}): Promise<NestExpressApplication> {
@@ -55,6 +56,7 @@ export async function createApp(opts: { logger?: boolean } = {}): Promise<NestEx
       }),
     );
   }
+  app.useWebSocketAdapter(new PostgresIoAdapter(app, config.get('DATABASE_URL')));
   app.use('/api', express.json({ limit: '5mb' }));
   app.setGlobalPrefix('api');
   app.enableShutdownHooks();

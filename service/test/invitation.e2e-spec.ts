@@ -1,3 +1,4 @@
+import type { MailJobDto } from '@crankjournal/shared-types';
 import { startTestApp, type TestApp } from './utils/test-app.js';
 import { requestAs } from './utils/signed-in.js';
 import { login, uniqueEmail, type SignedIn } from './factories/users.factory.js';
@@ -13,6 +14,25 @@ describe('invitations, health and API documentation (API)', () => {
   });
   afterAll(async () => {
     await t?.close();
+  });
+
+  it('the invitation e-mail goes through the durable queue, and only the administrator sees the queue', async () => {
+    const email = uniqueEmail('queued');
+    const invited = await requestAs(t, admin).post('/api/users/invitations').send({ email, displayName: 'Quinn Queued', role: 'observer' });
+    expect(invited.status).toBe(201);
+    await waitForMessage(email, { subject: 'invited' });
+    // The worker marks the job done just after the SMTP server took it.
+    let job: MailJobDto | undefined;
+    for (let i = 0; i < 50 && job?.state !== 'completed'; i++) {
+      const jobs = await requestAs(t, admin).get('/api/mail/jobs');
+      expect(jobs.status).toBe(200);
+      job = (jobs.body as MailJobDto[]).find((j) => j.to === email);
+      if (job?.state !== 'completed') await new Promise((r) => setTimeout(r, 100));
+    }
+    expect(job).toMatchObject({ state: 'completed', tries: 1, lastError: null, subject: expect.stringContaining('invited') });
+    const chief = await login(t, 'chief_engineer');
+    expect((await requestAs(t, chief).get('/api/mail/jobs')).status).toBe(403);
+    expect((await t.http.get('/api/mail/jobs')).status).toBe(401);
   });
 
   it('an invited person gets an e-mail, sets a password from its link once, and signs in with it', async () => {

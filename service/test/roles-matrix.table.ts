@@ -46,6 +46,9 @@ export const ROUTE_ACCESS: Record<string, RouteAccess> = {
   'POST /api/auth/password': ANY_ROLE,
   'POST /api/auth/signing-pin': ANY_ROLE,
 
+  // mail (the durable e-mail queue)
+  'GET /api/mail/jobs': ADMIN,
+
   // users
   'GET /api/users': ADMIN,
   'GET /api/users/crew': ANY_ROLE,

@@ -19,3 +19,4 @@ export * from './api/lubrication.js';
 export * from './api/site.js';
 export * from './autotrace/autotrace.js';
 export * from './api/visit.js';
+export * from './api/mail.js';

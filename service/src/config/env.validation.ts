@@ -1,5 +1,5 @@
 import { plainToInstance, Transform } from 'class-transformer';
-import { IsIn, IsInt, IsOptional, IsString, Max, Min, MinLength, validateSync } from 'class-validator';
+import { IsIn, IsInt, IsNumber, IsOptional, IsString, Max, Min, MinLength, validateSync } from 'class-validator';
 
 /** The built-in JWT secret: accepted only when NODE_ENV=test. */
 export const DEVELOPMENT_JWT_SECRET = 'development-only-secret-change-me';
@@ -109,6 +109,27 @@ export class EnvironmentVariables {
 
   @IsString()
   MAIL_FROM = 'Crankjournal <no-reply@crankjournal.example>';
+
+  /** E-mail goes through the job queue: tries after the first failed one before the job is marked failed. */
+  @Transform(({ value }) => Number(value))
+  @IsInt()
+  @Min(0)
+  MAIL_RETRY_LIMIT = 12;
+
+  /** Seconds before the first retry of an e-mail; doubled (with jitter) at each further try when MAIL_RETRY_BACKOFF. */
+  @Transform(({ value }) => Number(value))
+  @IsInt()
+  @Min(1)
+  MAIL_RETRY_DELAY_SECONDS = 30;
+
+  @Transform(({ value }) => (value === undefined ? true : toBool({ value })))
+  MAIL_RETRY_BACKOFF = true;
+
+  /** How often each instance asks the job queue for work (seconds, at least 0.5). */
+  @Transform(({ value }) => Number(value))
+  @IsNumber()
+  @Min(0.5)
+  JOBS_POLL_SECONDS = 1;
 
   @IsString()
   @IsOptional()

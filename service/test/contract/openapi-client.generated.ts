@@ -5,6 +5,9 @@
 
 
 export interface paths {
+  "/api/mail/jobs": {
+    get: operations["MailController_jobs"];
+  };
   "/api/live/notices": {
     post: operations["LiveController_notice"];
   };
@@ -589,6 +592,10 @@ export interface components {
       mawpPsig: number;
       preLubeFreshnessMinutes: number;
       notes?: string;
+      /** @description minutes */
+      escalateAfterMinutes?: number;
+      /** @description user ids, in the order to e-mail them */
+      callList?: string[];
       cylinders: components["schemas"]["CylinderWriteDto"][];
       lubricationPoints: components["schemas"]["LubricationPointWriteDto"][];
       bearings: components["schemas"]["BearingWriteDto"][];
@@ -2712,6 +2719,10 @@ export interface components {
       revolutions: number;
       activeRunId: string | null;
       notes: string;
+      /** @description Minutes a high-high alarm may wait unacknowledged before the call list is e-mailed. */
+      escalateAfterMinutes: number;
+      /** @description People (user ids), in order, e-mailed about a high-high alarm nobody acknowledged in time. */
+      callList: string[];
       flywheelMassLb: number | null;
       flywheelRadiusOfGyrationFt: number | null;
       rotatingWeightLb: number | null;
@@ -2804,6 +2815,10 @@ export interface components {
       mawpPsig: number;
       preLubeFreshnessMinutes: number;
       notes?: string;
+      /** @description Left out: unchanged (5 minutes for a new engine). */
+      escalateAfterMinutes?: number;
+      /** @description Left out: unchanged (empty for a new engine). */
+      callList?: string[];
       flywheelMassLb?: number | null;
       flywheelRadiusOfGyrationFt?: number | null;
       rotatingWeightLb?: number | null;
@@ -3374,6 +3389,28 @@ export interface components {
           label: string;
         }[];
     };
+    /** @description One e-mail of the durable queue, as the administrator sees it. */
+    MailJobDto: {
+      id: string;
+      state: components["schemas"]["MailJobState"];
+      /** @description Tries made so far (the first included). */
+      tries: number;
+      /** @description Tries allowed after the first before the job is marked failed. */
+      retryLimit: number;
+      to: string;
+      subject: string;
+      createdAt: string;
+      /** @description When the next try is due (waiting jobs only). */
+      nextTryAt: string | null;
+      completedAt: string | null;
+      /** @description What the SMTP server (or its absence) said at the last failed try. */
+      lastError: string | null;
+    };
+    /**
+     * @description Where an e-mail job stands: waiting for its first try, between tries, being sent, sent, or given up.
+     * @enum {string}
+     */
+    MailJobState: "created" | "retry" | "active" | "completed" | "cancelled" | "failed";
     /** @enum {string} */
     MaintenanceUnit: "in" | "mm" | "in/ft" | "mm/m";
     MeasurementItemDto: {
@@ -4574,6 +4611,28 @@ export type external = Record<string, never>;
 
 export interface operations {
 
+  MailController_jobs: {
+    responses: {
+      /** @description A list of MailJobDto */
+      200: {
+        content: {
+          "application/json": components["schemas"]["MailJobDto"][];
+        };
+      };
+      /** @description Not signed in, or the access token (or logger key) is missing, expired or revoked */
+      401: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Signed in, but the role may not do this */
+      403: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+    };
+  };
   LiveController_notice: {
     requestBody: {
       content: {

@@ -72,6 +72,10 @@ export interface EngineSummary {
 }
 export interface EngineDetail extends EngineSummary {
   notes: string;
+  /** Minutes a high-high alarm may wait unacknowledged before the call list is e-mailed. */
+  escalateAfterMinutes: number;
+  /** People (user ids), in order, e-mailed about a high-high alarm nobody acknowledged in time. */
+  callList: string[];
   flywheelMassLb: number | null;
   flywheelRadiusOfGyrationFt: number | null;
   rotatingWeightLb: number | null;
@@ -90,6 +94,10 @@ export interface EngineWriteRequest {
   mawpPsig: number;
   preLubeFreshnessMinutes: number;
   notes?: string;
+  /** Left out: unchanged (5 minutes for a new engine). */
+  escalateAfterMinutes?: number;
+  /** Left out: unchanged (empty for a new engine). */
+  callList?: string[];
   flywheelMassLb?: number | null;
   flywheelRadiusOfGyrationFt?: number | null;
   rotatingWeightLb?: number | null;

@@ -22,7 +22,9 @@ export function getSocket(): LiveSocket | null {
     return socket;
   }
   tokenUsed = s.accessToken;
-  socket = io({ path: '/socket.io', auth: { token: s.accessToken }, transports: ['websocket', 'polling'] });
+  // WebSocket only: every event of a connection reaches the same instance, so several instances behind a proxy need
+  // no sticky sessions (long-polling would send each request of one connection to any instance).
+  socket = io({ path: '/socket.io', auth: { token: s.accessToken }, transports: ['websocket'] });
   const rooms = new Set<string>();
   (socket as LiveSocket & { _rooms?: Set<string> })._rooms = rooms;
   socket.on('connect', () => rooms.forEach((room) => socket?.emit('room:join', { room })));

@@ -53,6 +53,8 @@ export function buildEngine(over: Partial<EngineDetail> = {}): EngineDetail {
     revolutions: 0,
     activeRunId: null,
     notes: '',
+    escalateAfterMinutes: 5,
+    callList: [],
     flywheelMassLb: null,
     flywheelRadiusOfGyrationFt: null,
     rotatingWeightLb: null,

@@ -155,6 +155,8 @@ export type SharedSchemaName =
   | 'LubricationKind'
   | 'LubricationPointDto'
   | 'LubricationPointOilDto'
+  | 'MailJobDto'
+  | 'MailJobState'
   | 'MaintenanceUnit'
   | 'MeasurementItemDto'
   | 'MeasurementItemInput'
@@ -2208,6 +2210,15 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       revolutions: { type: 'number' },
       activeRunId: { type: ['string', 'null'] },
       notes: { type: 'string' },
+      escalateAfterMinutes: {
+        type: 'number',
+        description: 'Minutes a high-high alarm may wait unacknowledged before the call list is e-mailed.',
+      },
+      callList: {
+        type: 'array',
+        items: { type: 'string' },
+        description: 'People (user ids), in order, e-mailed about a high-high alarm nobody acknowledged in time.',
+      },
       flywheelMassLb: { type: ['number', 'null'] },
       flywheelRadiusOfGyrationFt: { type: ['number', 'null'] },
       rotatingWeightLb: { type: ['number', 'null'] },
@@ -2309,7 +2320,9 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       'activeRunId',
       'bearings',
       'builder',
+      'callList',
       'cylinders',
+      'escalateAfterMinutes',
       'flywheelMassLb',
       'flywheelRadiusOfGyrationFt',
       'id',
@@ -2386,6 +2399,8 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       mawpPsig: { type: 'number' },
       preLubeFreshnessMinutes: { type: 'number' },
       notes: { type: 'string' },
+      escalateAfterMinutes: { type: 'number', description: 'Left out: unchanged (5 minutes for a new engine).' },
+      callList: { type: 'array', items: { type: 'string' }, description: 'Left out: unchanged (empty for a new engine).' },
       flywheelMassLb: { type: ['number', 'null'] },
       flywheelRadiusOfGyrationFt: { type: ['number', 'null'] },
       rotatingWeightLb: { type: ['number', 'null'] },
@@ -3355,6 +3370,29 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
     },
     required: ['lubricationPointId', 'engineId', 'label', 'kind', 'oilGradeText', 'oilId', 'oilName', 'matchedBy', 'bearings'],
     additionalProperties: false,
+  },
+  MailJobDto: {
+    type: 'object',
+    properties: {
+      id: { type: 'string' },
+      state: { $ref: '#/components/schemas/MailJobState' },
+      tries: { type: 'number', description: 'Tries made so far (the first included).' },
+      retryLimit: { type: 'number', description: 'Tries allowed after the first before the job is marked failed.' },
+      to: { type: 'string' },
+      subject: { type: 'string' },
+      createdAt: { type: 'string' },
+      nextTryAt: { type: ['string', 'null'], description: 'When the next try is due (waiting jobs only).' },
+      completedAt: { type: ['string', 'null'] },
+      lastError: { type: ['string', 'null'], description: 'What the SMTP server (or its absence) said at the last failed try.' },
+    },
+    required: ['id', 'state', 'tries', 'retryLimit', 'to', 'subject', 'createdAt', 'nextTryAt', 'completedAt', 'lastError'],
+    additionalProperties: false,
+    description: 'One e-mail of the durable queue, as the administrator sees it.',
+  },
+  MailJobState: {
+    type: 'string',
+    enum: ['created', 'retry', 'active', 'completed', 'cancelled', 'failed'],
+    description: 'Where an e-mail job stands: waiting for its first try, between tries, being sent, sent, or given up.',
   },
   MaintenanceUnit: { type: 'string', enum: ['in', 'mm', 'in/ft', 'mm/m'] },
   MeasurementItemDto: {

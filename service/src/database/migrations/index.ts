@@ -11,9 +11,11 @@ import { SiteSettings1796413937879 } from './1796413937879-SiteSettings.js';
 import { CardSetBarometer1796414559444 } from './1796414559444-CardSetBarometer.js';
 import { UserSessionVersion1796414632333 } from './1796414632333-UserSessionVersion.js';
 import { AlarmForecastRecord1796422336848 } from './1796422336848-AlarmForecastRecord.js';
+import { EngineCallList1796422448681 } from './1796422448681-EngineCallList.js';
 import { CardTraceOrigin1796422565325 } from './1796422565325-CardTraceOrigin.js';
 import { VisitorBoards1796422583042 } from './1796422583042-VisitorBoards.js';
 import { ReadingClientIdPerRun1796423309760 } from './1796423309760-ReadingClientIdPerRun.js';
+import { SeveralInstances1796424019287 } from './1796424019287-SeveralInstances.js';
 import { NamesKeptAsSigned1796424216765 } from './1796424216765-NamesKeptAsSigned.js';
 import { EnginePartsRetired1796424633674 } from './1796424633674-EnginePartsRetired.js';
 
@@ -31,9 +33,11 @@ export const MIGRATIONS: (new () => MigrationInterface)[] = [
   CardSetBarometer1796414559444,
   UserSessionVersion1796414632333,
   AlarmForecastRecord1796422336848,
+  EngineCallList1796422448681,
   CardTraceOrigin1796422565325,
   VisitorBoards1796422583042,
   ReadingClientIdPerRun1796423309760,
+  SeveralInstances1796424019287,
   NamesKeptAsSigned1796424216765,
   EnginePartsRetired1796424633674,
 ];

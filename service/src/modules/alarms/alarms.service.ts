@@ -13,12 +13,14 @@ import {
 } from '@crankjournal/shared-types';
 import { EnginesService, type EngineWithPoints } from '../engines/engines.service.js';
 import { LiveService } from '../live/live.service.js';
-import { MailService } from '../mail/mail.service.js';
+import { JobsService } from '../jobs/jobs.service.js';
+import { MailService, type OutgoingMail } from '../mail/mail.service.js';
 import { UsersService } from '../users/users.service.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { temperatureInUnit, unitLabel } from '../../calculations/units.js';
 import { FORECAST_DEFAULTS } from '../../calculations/trend-forecast.js';
 import { AppConfig } from '../../config/app-config.service.js';
+import { runAlone } from '../../common/util/run-alone.js';
 import {
   AlarmTransitionError,
   applyShelveExpiry,
@@ -52,6 +54,14 @@ type EnginePoint = EngineWithPoints['points'][number];
 /** One reading of a point, as the alarm rules take it (for modules that keep recent history). */
 export type { PointReading };
 
+/** The queue of escalations: one job per high-high alarm, due when its engine's escalation time is up. */
+export const ESCALATION_QUEUE = 'alarm-escalation';
+/** Minutes a high-high alarm may wait unacknowledged before the call list is e-mailed (an engine may set its own). */
+export const DEFAULT_ESCALATE_AFTER_MINUTES = 5;
+interface EscalationJob {
+  alarmId: string;
+}
+
 /** Rate of rise is judged over this window, long enough to hold two hand-taken rounds. */
 export const RATE_WINDOW_MINUTES = 15;
 
@@ -70,6 +80,8 @@ interface Suppression {
 }
 
 interface EngineState {
+  /** The engine's ingest count (engine_ingest_marks) this state includes: another instance's write makes it stale. */
+  seq: number;
   recent: Map<string, PointReading[]>;
   open: Map<string, Alarm>;
   ambient: { value: number; unit: string; takenAt: Date } | null;
@@ -159,13 +171,20 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
     private readonly engines: EnginesService,
     private readonly live: LiveService,
     private readonly mail: MailService,
+    private readonly jobs: JobsService,
     private readonly users: UsersService,
     private readonly config: AppConfig,
   ) {}
 
-  onModuleInit() {
-    this.sweep = setInterval(() => void this.expireShelves().catch((e) => this.logger.warn(e.message)), 30_000);
+  async onModuleInit() {
+    // Every instance runs the sweep; the advisory lock lets one at a time do it (the others skip that turn).
+    this.sweep = setInterval(
+      () => void runAlone(this.db, 'alarms:expire-shelves', () => this.expireShelves()).catch((e) => this.logger.warn(e.message)),
+      30_000,
+    );
     this.sweep.unref();
+    await this.jobs.queue(ESCALATION_QUEUE, { retryLimit: 5, retryDelay: 30, retryBackoff: true });
+    await this.jobs.work<EscalationJob>(ESCALATION_QUEUE, (job) => this.escalate(job));
   }
   onModuleDestroy() {
     if (this.sweep) clearInterval(this.sweep);
@@ -186,6 +205,7 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
     const open = await m.find(Alarm, { where: { engineId, state: Not('normal') } });
     const { recent, ambient } = await history(engineId, RATE_WINDOW_MINUTES, m);
     const st: EngineState = {
+      seq: 0,
       recent,
       open: new Map(open.map((a) => [`${a.pointId}:${a.kind}`, a])),
       ambient,
@@ -209,7 +229,17 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
   ): Promise<EvaluationOutcome> {
     const { engine, points } = await this.engines.withPoints(engineId);
     const pointById = new Map(points.map((p) => [p.id, p]));
+    // Counts this engine's evaluations in the database (the caller holds the engine's lock): if the count moved on
+    // since this instance's last one, another instance stored readings meanwhile and the cached recent readings are
+    // stale, so they are read again.
+    const [{ seq }] = (await m.query(
+      `INSERT INTO engine_ingest_marks (engine_id, seq) VALUES ($1, 1)
+       ON CONFLICT (engine_id) DO UPDATE SET seq = engine_ingest_marks.seq + 1 RETURNING seq::int AS seq`,
+      [engineId],
+    )) as { seq: number }[];
+    if (this.state.get(engineId)?.seq !== seq - 1) this.state.delete(engineId);
     const st = await this.load(engineId, m, history);
+    st.seq = seq;
     // The open alarms are read again, and locked, in this transaction: people acknowledge, shelve and unshelve
     // them meanwhile (change(), expireShelves()), and a cached copy would overwrite their change or miss it
     // (an acknowledged alarm raised a second time, refused by alarms_one_open_per_condition).
@@ -380,6 +410,13 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
       const point = pointById.get(pointId)!;
       const a = await this.preAlarm(engineId, runId, point, st, runState, at, m, events);
       if (a) changed.set(a.id, a);
+    }
+    // The e-mail (and its escalation) is queued in this transaction: it exists exactly when the alarm does.
+    for (const a of toEmail) {
+      if (a.emailedAt) continue;
+      a.emailedAt = new Date();
+      changed.set(a.id, a);
+      await this.queueAlarmMail(a, engine, m);
     }
     if (changed.size) {
       await m.save(Alarm, [...changed.values()]);
@@ -622,28 +659,27 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
     return a;
   }
 
-  /** After commit: tell everyone watching, and e-mail the people who must know of a high-high alarm (once per alarm). */
+  /** After commit: tell everyone watching (the e-mails were queued in the transaction). */
   async publish(outcome: EvaluationOutcome) {
     for (const a of outcome.changed) await this.broadcast(a);
-    for (const a of outcome.toEmail) void this.emailOnce(a).catch((e) => this.logger.warn(`alarm e-mail failed: ${e.message}`));
   }
 
-  private async emailOnce(a: Alarm) {
-    const claimed = await this.alarmRepo
-      .createQueryBuilder()
-      .update()
-      .set({ emailedAt: () => 'now()' })
-      .where('id = :id AND emailed_at IS NULL', { id: a.id })
-      .execute();
-    if (!claimed.affected) return;
+  /** The high-high e-mail to the chief engineer and maintenance lead, and its escalation job, in transaction `m`. */
+  private async queueAlarmMail(a: Alarm, engine: EngineWithPoints['engine'], m: EntityManager) {
     const to = (await this.users.usersWithRoles(['chief_engineer', 'maintenance_lead'])).map((u) => u.email);
-    if (!to.length) return;
-    const { engine } = await this.engines.withPoints(a.engineId);
-    await this.mail.send({
+    if (to.length) await this.mail.send(this.alarmMail(a, engine.name, to, false), m);
+    const minutes = engine.escalateAfterMinutes ?? DEFAULT_ESCALATE_AFTER_MINUTES;
+    const job: EscalationJob = { alarmId: a.id };
+    await this.jobs.send(ESCALATION_QUEUE, job, { startAfter: new Date(a.raisedAt.getTime() + minutes * 60_000) }, m);
+  }
+
+  private alarmMail(a: Alarm, engineName: string, to: string[], escalated: boolean): OutgoingMail {
+    return {
       to,
-      subject: `High-high alarm on ${engine.name}: ${a.message}`,
+      subject: `${escalated ? 'Not acknowledged: ' : ''}High-high alarm on ${engineName}: ${a.message}`,
       text: [
-        `${ALARM_KIND_WORDS[a.kind]} alarm raised at ${a.raisedAt.toISOString()} on ${engine.name}.`,
+        `${ALARM_KIND_WORDS[a.kind]} alarm raised at ${a.raisedAt.toISOString()} on ${engineName}.`,
+        ...(escalated ? ['', 'Nobody has acknowledged it yet: you are the next on the engine’s call list.'] : []),
         '',
         a.message,
         '',
@@ -652,6 +688,36 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
         'Follow the engine house’s hot-bearing and over-pressure procedures. Crankjournal aids a qualified crew; ' +
           'it does not replace local codes, the insurer’s inspections or licensed practice.',
       ].join('\n'),
+    };
+  }
+
+  /**
+   * The escalation job of a high-high alarm, when its time is up: if the alarm still waits for acknowledgement, an
+   * e-mail to the people on the engine's call list (in its order) who were not on the first e-mail. Once per alarm:
+   * the job is the only sender, and the queue hands it to one instance.
+   */
+  private async escalate({ alarmId }: EscalationJob) {
+    const a = await this.alarmRepo.findOne({ where: { id: alarmId } });
+    if (!a || a.state !== 'active_unacknowledged' || a.suppression) return;
+    const { engine } = await this.engines.withPoints(a.engineId);
+    const first = new Set((await this.users.usersWithRoles(['chief_engineer', 'maintenance_lead'])).map((u) => u.id));
+    const next = (engine.callList ?? []).filter((id) => !first.has(id));
+    const people = await this.users.activeEmails(next);
+    if (!people.length) {
+      this.logger.warn(`high-high alarm ${a.id} not acknowledged, and nobody further on the call list of ${engine.name}`);
+      return;
+    }
+    await this.db.transaction(async (m) => {
+      await this.mail.send(this.alarmMail(a, engine.name, people, true), m);
+      await m.insert(AlarmEvent, {
+        alarmId: a.id,
+        event: 'escalate',
+        fromState: a.state,
+        toState: a.state,
+        byUser: null,
+        at: new Date(),
+        note: `Not acknowledged in time: e-mailed ${people.join(', ')}.`,
+      });
     });
   }
 

@@ -30,6 +30,10 @@ export class Engine {
   /** The run now in preparation or under way, if any (one at a time per engine). */
   @Column({ name: 'active_run_id', type: 'uuid', nullable: true }) activeRunId: string | null;
   @Column({ type: 'text', default: '' }) notes: string;
+  /** Minutes a high-high alarm may wait unacknowledged before the call list is e-mailed. */
+  @Column({ name: 'escalate_after_minutes', type: 'int', default: 5 }) escalateAfterMinutes: number;
+  /** People (user ids) to e-mail, in this order, about a high-high alarm nobody acknowledged in time. */
+  @Column({ name: 'call_list', type: 'jsonb', default: () => "'[]'" }) callList: string[];
   @OneToMany(() => Cylinder, (c) => c.engine) cylinders?: Cylinder[];
   @OneToMany(() => Bearing, (b) => b.engine) bearings?: Bearing[];
   @OneToMany(() => LubricationPoint, (l) => l.engine) lubricationPoints?: LubricationPoint[];

@@ -1,5 +1,6 @@
 import { Module } from '@nestjs/common';
 import { TypeOrmModule } from '@nestjs/typeorm';
+import { ClusterModule } from '../cluster/cluster.module.js';
 import { UsersModule } from '../users/users.module.js';
 import { Engine } from './engine.entity.js';
 import { Cylinder } from './cylinder.entity.js';
@@ -12,7 +13,11 @@ import { EnginesController } from './engines.controller.js';
 import { UnitsController } from './units.controller.js';
 
 @Module({
-  imports: [TypeOrmModule.forFeature([Engine, Cylinder, Bearing, LubricationPoint, MeasurementPoint, LimitChange]), UsersModule],
+  imports: [
+    TypeOrmModule.forFeature([Engine, Cylinder, Bearing, LubricationPoint, MeasurementPoint, LimitChange]),
+    UsersModule,
+    ClusterModule,
+  ],
   providers: [EnginesService],
   controllers: [EnginesController, UnitsController],
   exports: [EnginesService],

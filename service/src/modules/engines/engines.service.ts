@@ -3,6 +3,7 @@ import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
 import { DataSource, EntityManager, In, Repository } from 'typeorm';
 import type { EngineDetail, EngineSummary, LimitChangeDto } from '@crankjournal/shared-types';
 import { UsersService } from '../users/users.service.js';
+import { ClusterService } from '../cluster/cluster.service.js';
 import { Engine } from './engine.entity.js';
 import { Cylinder } from './cylinder.entity.js';
 import { Bearing } from './bearing.entity.js';
@@ -41,7 +42,19 @@ export class EnginesService {
     @InjectRepository(MeasurementPoint) private readonly points: Repository<MeasurementPoint>,
     @InjectRepository(LimitChange) private readonly changes: Repository<LimitChange>,
     private readonly users: UsersService,
-  ) {}
+    private readonly cluster: ClusterService,
+  ) {
+    cluster.on('engine', (id) => (id ? this.cache.delete(id) : this.cache.clear()));
+  }
+
+  /**
+   * Drops the cached engine here and in every other instance (NOTIFY; inside transaction `m` it goes out at commit,
+   * so no instance reloads the engine before the change is visible).
+   */
+  private async forgetEngine(id: string, m?: EntityManager) {
+    this.cache.delete(id);
+    await this.cluster.announce('engine', id, m);
+  }
 
   async list(): Promise<EngineSummary[]> {
     const rows = await this.engines.find({ order: { name: 'ASC' } });
@@ -84,6 +97,8 @@ export class EnginesService {
     return {
       ...this.summary(e),
       notes: e.notes,
+      escalateAfterMinutes: e.escalateAfterMinutes,
+      callList: e.callList ?? [],
       flywheelMassLb: e.flywheelMassLb,
       flywheelRadiusOfGyrationFt: e.flywheelRadiusOfGyrationFt,
       rotatingWeightLb: e.rotatingWeightLb,
@@ -207,7 +222,7 @@ export class EnginesService {
       await this.writeParts(m, e, dto, userId, true);
       return e.id;
     });
-    this.cache.delete(id);
+    await this.forgetEngine(id);
     return this.detail(id);
   }
 
@@ -227,7 +242,7 @@ export class EnginesService {
       if (log.length) await m.insert(LimitChange, log);
       await this.writeParts(m, e, dto, userId, false);
     });
-    this.cache.delete(id);
+    await this.forgetEngine(id);
     return this.detail(id);
   }
 
@@ -245,6 +260,8 @@ export class EnginesService {
       flywheelMassLb: dto.flywheelMassLb ?? null,
       flywheelRadiusOfGyrationFt: dto.flywheelRadiusOfGyrationFt ?? null,
       rotatingWeightLb: dto.rotatingWeightLb ?? null,
+      ...(dto.escalateAfterMinutes !== undefined ? { escalateAfterMinutes: dto.escalateAfterMinutes } : {}),
+      ...(dto.callList !== undefined ? { callList: [...new Set(dto.callList)] } : {}),
     };
   }
 
@@ -445,7 +462,7 @@ export class EnginesService {
 
   async setActiveRun(engineId: string, runId: string | null, m?: EntityManager) {
     await (m ?? this.db.manager).update(Engine, { id: engineId }, { activeRunId: runId });
-    this.cache.delete(engineId);
+    await this.forgetEngine(engineId, m);
   }
 
   async addRunTotals(engineId: string, hours: number, revolutions: number, m?: EntityManager) {
@@ -458,6 +475,6 @@ export class EnginesService {
       })
       .where('id = :engineId', { engineId })
       .execute();
-    this.cache.delete(engineId);
+    await this.forgetEngine(engineId, m);
   }
 }

@@ -87,6 +87,9 @@ interface GoodRow {
   takenAt: Date;
 }
 
+/** First half of the advisory lock key of an engine's readings transaction (the second is a hash of its id). */
+const ENGINE_WRITE_LOCK = 7_401;
+
 /**
  * The one path every reading takes, whatever its source (round, logger, CSV file, live channel):
  * row-by-row checks, storing once per client id, alarm evaluation in the same transaction, then broadcast.
@@ -231,6 +234,8 @@ export class IngestService {
     let inserted: { job: number; row: InsertedRow }[];
     try {
       ({ inserted, outcome } = await this.db.transaction(async (m) => {
+        // Across service instances: one transaction per engine at a time (the mutex above orders this instance only).
+        await m.query(`SELECT pg_advisory_xact_lock(${ENGINE_WRITE_LOCK}, hashtext($1))`, [engineId]);
         const [state] = await m.query(`SELECT state FROM runs WHERE id = $1 FOR SHARE`, [run.id]);
         if (!state || !RUN_STATES_TAKING_READINGS.includes(state.state)) throw new ConflictException('This run no longer takes readings.');
         // Columns go as delimited text (cheaper to build than array literals for thousands of rows); every

@@ -2,6 +2,7 @@ import { Injectable, NotFoundException, UnauthorizedException } from '@nestjs/co
 import { InjectRepository } from '@nestjs/typeorm';
 import { Repository } from 'typeorm';
 import type { IssuedLoggerKey, LoggerDto } from '@crankjournal/shared-types';
+import { ClusterService } from '../cluster/cluster.service.js';
 import { EnginesService } from '../engines/engines.service.js';
 import { newSecret, sha256 } from '../../common/util/password.util.js';
 import { DataLogger } from './logger.entity.js';
@@ -16,7 +17,11 @@ export class LoggersService {
   constructor(
     @InjectRepository(DataLogger) private readonly loggers: Repository<DataLogger>,
     private readonly engines: EnginesService,
-  ) {}
+    private readonly cluster: ClusterService,
+  ) {
+    // A key revoked through another instance stops working here at once, not after KEY_CACHE_MS.
+    cluster.on('logger', () => this.cache.clear());
+  }
 
   toDto(l: DataLogger): LoggerDto {
     return {
@@ -60,6 +65,7 @@ export class LoggersService {
       await this.loggers.save(l);
     }
     this.cache.clear();
+    await this.cluster.announce('logger', l.id);
     return this.toDto(l);
   }
 

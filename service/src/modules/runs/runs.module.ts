@@ -1,5 +1,6 @@
 import { Module } from '@nestjs/common';
 import { TypeOrmModule } from '@nestjs/typeorm';
+import { ClusterModule } from '../cluster/cluster.module.js';
 import { EnginesModule } from '../engines/engines.module.js';
 import { AlarmsModule } from '../alarms/alarms.module.js';
 import { LiveModule } from '../live/live.module.js';
@@ -32,6 +33,7 @@ import { RunsGateway } from './runs.gateway.js';
     LiveModule,
     AuthModule,
     UsersModule,
+    ClusterModule,
   ],
   providers: [
     RunsService,

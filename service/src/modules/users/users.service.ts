@@ -6,6 +6,7 @@ import type { AuthUser } from '../../common/decorators/current-user.decorator.js
 import { newSecret, sha256 } from '../../common/util/password.util.js';
 import { UserEvents } from '../../common/events/user-events.js';
 import { MailService } from '../mail/mail.service.js';
+import { ClusterService } from '../cluster/cluster.service.js';
 import { AppConfig } from '../../config/app-config.service.js';
 import { Invitation } from './invitation.entity.js';
 import { User } from './user.entity.js';
@@ -43,7 +44,10 @@ export class UsersService {
     private readonly mail: MailService,
     private readonly config: AppConfig,
     private readonly events: UserEvents,
-  ) {}
+    private readonly cluster: ClusterService,
+  ) {
+    cluster.on('user', (id) => (id ? this.authCache.delete(id) : this.authCache.clear()));
+  }
 
   async findActiveAuthUser(id: string): Promise<AuthUser | null> {
     const hit = this.authCache.get(id);
@@ -95,8 +99,10 @@ export class UsersService {
     return new Map(rows.map((u) => [u.id, u.displayName]));
   }
 
+  /** Drops the cached person here and in every other instance (role, session version, name changed). */
   forget(id: string) {
     this.authCache.delete(id);
+    void this.cluster.announce('user', id).catch(() => undefined);
   }
 
   findByEmailWithSecrets(email: string): Promise<UserWithSecrets | null> {
@@ -176,24 +182,28 @@ export class UsersService {
           usedAt: null,
         }),
       );
+      // The invitation e-mail is queued in the same transaction: no invited person without their e-mail, nor the reverse.
+      const link = `${this.config.get('PUBLIC_URL')}/set-password?token=${encodeURIComponent(secret)}`;
+      await this.mail.send(
+        {
+          to: email,
+          subject: 'Crankjournal: you are invited onto the engine house crew list',
+          text: [
+            `Hello ${u.displayName},`,
+            '',
+            `You have been put on the engine house crew list as ${ROLE_LABELS[u.role].toLowerCase()}. ` +
+              'Before your first watch, choose a password for the engine log:',
+            '',
+            link,
+            '',
+            `The link opens once and lapses after ${INVITATION_TTL_HOURS} hours; if it has lapsed, ask the administrator for a new one.`,
+            'Crankjournal keeps the run log, the pre-start checklists and the alarms of the engine.',
+            'If nobody told you to expect this, leave it: nothing is set up until a password is chosen.',
+          ].join('\n'),
+        },
+        m,
+      );
       return u;
-    });
-    const link = `${this.config.get('PUBLIC_URL')}/set-password?token=${encodeURIComponent(secret)}`;
-    await this.mail.send({
-      to: email,
-      subject: 'Crankjournal: you are invited onto the engine house crew list',
-      text: [
-        `Hello ${user.displayName},`,
-        '',
-        `You have been put on the engine house crew list as ${ROLE_LABELS[user.role].toLowerCase()}. ` +
-          'Before your first watch, choose a password for the engine log:',
-        '',
-        link,
-        '',
-        `The link opens once and lapses after ${INVITATION_TTL_HOURS} hours; if it has lapsed, ask the administrator for a new one.`,
-        'Crankjournal keeps the run log, the pre-start checklists and the alarms of the engine.',
-        'If nobody told you to expect this, leave it: nothing is set up until a password is chosen.',
-      ].join('\n'),
     });
     return this.toSummary(user);
   }
@@ -246,6 +256,14 @@ export class UsersService {
     if (Object.keys(patch).length) await this.users.update({ id }, patch);
     this.forget(id);
     return this.get(id);
+  }
+
+  /** E-mail addresses of the active people among `ids`, in the order of `ids`. */
+  async activeEmails(ids: string[]): Promise<string[]> {
+    if (!ids.length) return [];
+    const rows = await this.users.find({ where: { id: In(ids), active: true }, select: { id: true, email: true } });
+    const byId = new Map(rows.map((u) => [u.id, u.email]));
+    return ids.map((id) => byId.get(id)).filter((e): e is string => !!e);
   }
 
   usersWithRoles(roles: Role[]): Promise<UserRecord[]> {

@@ -116,6 +116,13 @@ export class EngineWriteDto implements EngineWriteRequest {
   @ApiProperty({ description: 'psig' }) @IsFiniteNumberIn(1, 3000) mawpPsig: number;
   @ApiProperty() @IsInt() @Min(1) @Max(24 * 60) preLubeFreshnessMinutes: number;
   @ApiPropertyOptional() @IsOptional() @IsString() @MaxLength(5000) notes?: string;
+  @ApiPropertyOptional({ description: 'minutes' }) @IsOptional() @IsInt() @Min(1) @Max(24 * 60) escalateAfterMinutes?: number;
+  @ApiPropertyOptional({ type: [String], description: 'user ids, in the order to e-mail them' })
+  @IsOptional()
+  @IsArray()
+  @ArrayMaxSize(20)
+  @IsUUID('all', { each: true, message: 'each of callList must be a user id (UUID)' })
+  callList?: string[];
   @IsOptional() @IsFiniteNumberIn(1, 1e7) flywheelMassLb?: number | null;
   @IsOptional() @IsFiniteNumberIn(0.1, 100) flywheelRadiusOfGyrationFt?: number | null;
   @IsOptional() @IsFiniteNumberIn(1, 1e7) rotatingWeightLb?: number | null;

@@ -10,6 +10,7 @@ import { DataTable, columnHelper } from '../../../components/DataTable/DataTable
 import { errorText } from '../../../api/http';
 import { useSession } from '../../auth/useSession';
 import { inviteUser, updateUser, userKeys, usersListQuery } from '../api/users.api';
+import { MailQueue } from '../components/MailQueue';
 
 const roleOptions = ROLES.map((r) => ({ value: r, label: ROLE_LABELS[r] }));
 const col = columnHelper<UserSummary>();
@@ -92,6 +93,7 @@ export default function UsersPage() {
       {isLoading && <Loader />}
       {error && <Alert color="signal">{errorText(error)}</Alert>}
       {data && <DataTable data={data} columns={columns} caption="People" getRowId={(u) => u.id} />}
+      <MailQueue />
       <InviteModal opened={inviting} onClose={() => setInviting(false)} />
       <Modal opened={!!confirm} onClose={() => setConfirm(null)} title="Deactivate this person?" centered>
         <Stack>
