@@ -281,6 +281,7 @@ export class RunsService {
           409,
         );
     };
+    let now = new Date();
     await this.db.transaction(async (m) => {
       const cur = await m.findOne(Run, { where: { id }, lock: { mode: 'pessimistic_write' } });
       if (!cur || cur.state !== run0.state)
@@ -297,7 +298,7 @@ export class RunsService {
       }
       if (to === 'running') refuse(await this.gate.checkStart(cur, user));
       if (to === 'closed') refuse(await this.gate.checkClose(cur, user));
-      const now = new Date();
+      now = new Date();
       let addTotals: { hours: number; revs: number } | null = null;
       if (to === 'stopped') {
         const revs = await this.liveRevolutions(cur, now);
