@@ -308,7 +308,11 @@ export class VisitService implements OnModuleDestroy {
     return this.server?.adapter.rooms.get(boardRoom(boardId))?.size ?? 0;
   }
 
-  /** Sends each watched board's figures to its visitors (one computation per board, whatever the number of visitors). */
+  /**
+   * Sends each watched board's figures to its visitors (one computation per board, whatever the number of visitors).
+   * Every instance serves its own visitors (`local`): with several instances on one adapter a broadcast would reach
+   * the others' visitors as well, and they would get each figure once per instance.
+   */
   async sendFigures() {
     if (this.busy || !this.server) return;
     this.busy = true;
@@ -316,7 +320,7 @@ export class VisitService implements OnModuleDestroy {
       const watched = [...this.server.adapter.rooms.keys()].filter((r) => r.startsWith('board:')).map((r) => r.slice('board:'.length));
       if (!watched.length) return;
       const rows = await this.boards.find({ where: watched.map((id) => ({ id, enabled: true })) });
-      for (const b of rows) this.server.to(boardRoom(b.id)).emit('visit:figures', await this.figures(b));
+      for (const b of rows) this.server.local.to(boardRoom(b.id)).emit('visit:figures', await this.figures(b));
     } catch (e) {
       this.logger.warn(`visitor figures not sent: ${(e as Error).message}`);
     } finally {
