@@ -29,8 +29,14 @@ module.exports = {
       testTimeout: 60000,
       // @nestjs/throttler is CommonJS and require()s the ESM-only @nestjs/common, which Jest allows only
       // on Node 24.9+; test/utils/esm-require-bridge.cjs hands it the app's own ES modules instead.
-      transform: { ...common.transform, '/node_modules/@nestjs/throttler/.+\\.js$': '<rootDir>/test/utils/esm-require-bridge.cjs' },
-      transformIgnorePatterns: ['/node_modules/(?!@nestjs/throttler/)'],
+      // The card tracer's route runs the tracer in the test process: Math bound once per module, as in the unit project.
+      transform: {
+        '^.+\\.ts$': ['<rootDir>/test/utils/bind-math-ts-transform.cjs', common.transform['^.+\\.ts$'][1]],
+        '/shared-types/dist/autotrace/.+\\.js$': '<rootDir>/test/utils/bind-math-transform.cjs',
+        '/node_modules/(d3-[a-z]+|jpeg-js)/.+\\.m?js$': '<rootDir>/test/utils/bind-math-transform.cjs',
+        '/node_modules/@nestjs/throttler/.+\\.js$': '<rootDir>/test/utils/esm-require-bridge.cjs',
+      },
+      transformIgnorePatterns: ['/node_modules/(?!(@nestjs/throttler|d3-[a-z]+|jpeg-js)/)'],
     },
   ],
 };
