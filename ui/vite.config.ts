@@ -1,8 +1,79 @@
 import { defineConfig } from 'vitest/config';
 import react from '@vitejs/plugin-react';
+import { VitePWA } from 'vite-plugin-pwa';
+
+/**
+ * The installable app: a service worker (Workbox) that keeps the app shell, every page's code and the fonts, and
+ * answers the API's GETs from the network first, from its cache when the server cannot be reached. A response taken
+ * from that cache carries `x-cj-cached-at` (when the server sent it), so the screens say "figures as of".
+ * Never in vitest: `disable` leaves the register module a no-op there.
+ */
+const pwa = VitePWA({
+  disable: !!process.env.VITEST,
+  registerType: 'prompt',
+  injectRegister: false,
+  includeAssets: ['favicon.svg', 'icons/apple-touch-icon-180.png'],
+  manifest: {
+    id: '/',
+    name: 'Crankjournal',
+    short_name: 'Crankjournal',
+    description: 'Run logbook, pre-start checklists and alarms for the mill engine',
+    start_url: '/',
+    scope: '/',
+    display: 'standalone',
+    orientation: 'any',
+    background_color: '#181917',
+    theme_color: '#2a2c2b',
+    icons: [
+      { src: '/icons/icon-192.png', sizes: '192x192', type: 'image/png' },
+      { src: '/icons/icon-512.png', sizes: '512x512', type: 'image/png' },
+      { src: '/icons/maskable-512.png', sizes: '512x512', type: 'image/png', purpose: 'maskable' },
+    ],
+  },
+  workbox: {
+    globPatterns: ['**/*.{js,css,html,svg,png,woff2,webmanifest}'],
+    navigateFallback: '/index.html',
+    navigateFallbackDenylist: [/^\/api\//, /^\/socket\.io\//],
+    cleanupOutdatedCaches: true,
+    // The first install takes over the open page at once, so what it reads is kept; a new version still waits for
+    // "Reload to update" (no skipWaiting).
+    clientsClaim: true,
+    importScripts: ['/sw-outbox.js'],
+    runtimeCaching: [
+      {
+        // Everything a crew reads at the engine (engine, points and limits, runs, checklists and templates, board,
+        // alarms...); not sign-in, the API description or downloads.
+        urlPattern: ({ url, request, sameOrigin }) =>
+          sameOrigin &&
+          request.method === 'GET' &&
+          url.pathname.startsWith('/api/') &&
+          !/^\/api\/(auth|docs)/.test(url.pathname) &&
+          !/\.(pdf|csv)$/.test(url.pathname),
+        handler: 'NetworkFirst',
+        options: {
+          cacheName: 'cj-api',
+          networkTimeoutSeconds: 6,
+          expiration: { maxEntries: 400, maxAgeSeconds: 14 * 24 * 3600 },
+          cacheableResponse: { statuses: [200] },
+          plugins: [
+            {
+              cachedResponseWillBeUsed: async ({ cachedResponse }) => {
+                if (!cachedResponse) return cachedResponse;
+                const headers = new Headers(cachedResponse.headers);
+                headers.set('x-cj-cached-at', cachedResponse.headers.get('date') ?? '');
+                const body = await cachedResponse.blob();
+                return new Response(body, { status: cachedResponse.status, statusText: cachedResponse.statusText, headers });
+              },
+            },
+          ],
+        },
+      },
+    ],
+  },
+});
 
 export default defineConfig({
-  plugins: [react()],
+  plugins: [react(), pwa],
   server: {
     port: 5173,
     proxy: { '/api': 'http://127.0.0.1:3000', '/socket.io': { target: 'ws://127.0.0.1:3000', ws: true } },

@@ -85,6 +85,8 @@ export async function createApp(opts: { logger?: boolean } = {}): Promise<NestEx
       maxAge: '1h',
       setHeaders: (res, path) => {
         if (path.includes('/assets/')) res.setHeader('Cache-Control', 'public, max-age=31536000, immutable');
+        // The installable app's service worker and manifest: a tablet checks them for a new version at each visit.
+        else if (/(^|[\\/])(sw\.js|sw-outbox\.js|manifest\.webmanifest)$/.test(path)) res.setHeader('Cache-Control', 'no-cache');
       },
     });
     app.use((req: express.Request, res: express.Response, next: express.NextFunction) => {

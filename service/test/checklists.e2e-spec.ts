@@ -4,6 +4,7 @@ import { startTestApp, type TestApp } from './utils/test-app.js';
 import { signedIn } from './utils/signed-in.js';
 import { login, type SignedIn } from './factories/users.factory.js';
 import {
+  GOOD,
   INSPECTION,
   PRE_LUBE,
   SHUTDOWN,
@@ -192,6 +193,54 @@ describe('checklists and the start gate (API)', () => {
     const last = d.history[d.history.length - 1];
     expect(last).toMatchObject({ from: 'preparing', to: 'cleared', by: operator.account.id });
     expect(last.note).toContain('every checklist required before a start is signed');
+  });
+
+  describe('a signature made on a tablet without a connection', () => {
+    /** A pre-lube checklist with every item done, not yet signed. */
+    const filledPreLube = async () => {
+      const run = await preparingRun(t, operator, engine.id);
+      const c = await startChecklist(t, operator, run.id, preLube.id);
+      for (const e of c.entries) if (GOOD[e.itemKey]) expect((await fill(t, operator, c.id, e.itemKey, GOOD[e.itemKey])).status).toBe(200);
+      return { run, c };
+    };
+
+    it('keeps the tablet’s time beside the server’s, and the pre-lube freshness counts from the earlier', async () => {
+      const { run, c } = await filledPreLube();
+      // Begun before the connection dropped; signed on the tablet 12 minutes ago; sent now.
+      await t.db.query(`UPDATE checklists SET started_at = now() - interval '20 minutes' WHERE id = $1`, [c.id]);
+      const onTablet = new Date(Date.now() - 12 * 60_000).toISOString();
+      const before = Date.now();
+      const r = await signedIn(t, operator)
+        .post(`/api/checklists/${c.id}/sign`)
+        .send({ signature: operator.account.password, signedOnDeviceAt: onTablet });
+      expect(r.status).toBe(200);
+      const d = r.body as ChecklistDetail;
+      expect(d.signedOnDeviceAt).toBe(onTablet);
+      expect(Date.parse(d.signedAt!)).toBeGreaterThanOrEqual(before - 1000);
+      expect((await detail(c.id)).signedOnDeviceAt).toBe(onTablet);
+      const o = (await signedIn(t, operator).get(`/api/runs/${run.id}/checklists`)).body;
+      // 30 minutes of freshness (the test engine's setting) from the tablet's 12-minutes-ago, not from the server's now.
+      expect(Date.parse(o.preLubeFreshUntil) - Date.parse(onTablet)).toBe(30 * 60_000);
+    });
+
+    it('signed online, the tablet time stays empty', async () => {
+      const { c } = await filledPreLube();
+      const r = await sign(t, operator, c.id);
+      expect(r.status).toBe(200);
+      expect(r.body.signedOnDeviceAt).toBeNull();
+    });
+
+    it('refuses a tablet time in the future, before the checklist began, or not a time, and signs nothing', async () => {
+      const { c } = await filledPreLube();
+      for (const signedOnDeviceAt of [new Date(Date.now() + 60 * 60_000).toISOString(), '2001-01-01T00:00:00Z', 'yesterday']) {
+        const r = await signedIn(t, operator)
+          .post(`/api/checklists/${c.id}/sign`)
+          .send({ signature: operator.account.password, signedOnDeviceAt });
+        expect(r.status).toBe(400);
+        expect(JSON.stringify(r.body.message)).toMatch(/signedOnDeviceAt/);
+      }
+      expect((await detail(c.id)).status).toBe('in_progress');
+    });
   });
 
   it('pre-lubing again makes a stale pre-lube fresh', async () => {

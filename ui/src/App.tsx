@@ -7,6 +7,7 @@ import { cssVariablesResolver, defaultColorScheme, theme } from './theme';
 import { createQueryClient } from './api/queryClient';
 import { setSignedOutHandler } from './api/http';
 import { createRouter } from './Router';
+import { UpdatePrompt } from './components/Offline/UpdatePrompt';
 
 const queryClient = createQueryClient();
 
@@ -19,6 +20,7 @@ export function App() {
   return (
     <MantineProvider theme={theme} defaultColorScheme={defaultColorScheme()} cssVariablesResolver={cssVariablesResolver}>
       <Notifications position="top-right" />
+      <UpdatePrompt />
       <QueryClientProvider client={queryClient}>
         <Suspense
           fallback={

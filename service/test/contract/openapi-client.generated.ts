@@ -749,6 +749,11 @@ export interface components {
     SignChecklistDto: {
       /** @description the signer’s password or signing PIN */
       signature: string;
+      /**
+       * Format: date-time
+       * @description when the signer signed on a tablet without a connection (ISO time)
+       */
+      signedOnDeviceAt?: string;
     };
     AmendChecklistDto: {
       tick?: Record<string, never>;
@@ -2296,7 +2301,10 @@ export interface components {
       blockedItems: number;
       startedAt: string;
       startedByName: string;
+      /** @description When the server stored the signature. */
       signedAt: string | null;
+      /** @description When the signer signed on a tablet that had no connection (the tablet's clock), or null when signed online. */
+      signedOnDeviceAt: string | null;
       signedByName: string | null;
       amendmentCount: number;
       description: string;
@@ -2384,7 +2392,10 @@ export interface components {
       blockedItems: number;
       startedAt: string;
       startedByName: string;
+      /** @description When the server stored the signature. */
       signedAt: string | null;
+      /** @description When the signer signed on a tablet that had no connection (the tablet's clock), or null when signed online. */
+      signedOnDeviceAt: string | null;
       signedByName: string | null;
       amendmentCount: number;
     };
@@ -4249,6 +4260,8 @@ export interface components {
     SignChecklistRequest: {
       /** @description The signer's password or signing PIN, asked for again. */
       signature: string;
+      /** @description When the person signed on a tablet without a connection (ISO time, the tablet's clock), sent later from its outbox. Stored beside the server's own time; not in the future, not before the checklist was started. */
+      signedOnDeviceAt?: string;
     };
     SiteNotice: {
       message: string;

@@ -190,7 +190,10 @@ export interface ChecklistSummary {
   blockedItems: number;
   startedAt: string;
   startedByName: string;
+  /** When the server stored the signature. */
   signedAt: string | null;
+  /** When the signer signed on a tablet that had no connection (the tablet's clock), or null when signed online. */
+  signedOnDeviceAt: string | null;
   signedByName: string | null;
   amendmentCount: number;
 }
@@ -233,6 +236,11 @@ export interface OverrideChecklistItemRequest {
 export interface SignChecklistRequest {
   /** The signer's password or signing PIN, asked for again. */
   signature: string;
+  /**
+   * When the person signed on a tablet without a connection (ISO time, the tablet's clock), sent later from its outbox.
+   * Stored beside the server's own time; not in the future, not before the checklist was started.
+   */
+  signedOnDeviceAt?: string;
 }
 export interface AmendChecklistRequest extends ChecklistEntryValue {
   itemKey: string;

@@ -1,5 +1,6 @@
 import type { ApiError, TokenPair } from '@crankjournal/shared-types';
 import { sessionStore } from './session';
+import { cachedAtOf, freshness } from './freshness';
 
 /** An API error with the server's readable message. */
 export class HttpError extends Error {
@@ -96,6 +97,8 @@ export async function api<T>(path: string, opts: RequestOptions = {}, retried = 
     }
     throw new HttpError(res.status, parsed);
   }
+  const method = opts.method ?? (body ? 'POST' : 'GET');
+  if (method === 'GET') freshness.note(path, cachedAtOf(res.headers));
   if (opts.asResponse) return res as unknown as T;
   if (res.status === 204) return undefined as T;
   const type = res.headers.get('content-type') ?? '';

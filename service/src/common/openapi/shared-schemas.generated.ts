@@ -1455,7 +1455,11 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       blockedItems: { type: 'number', description: "Out-of-range items without a chief engineer's override." },
       startedAt: { type: 'string' },
       startedByName: { type: 'string' },
-      signedAt: { type: ['string', 'null'] },
+      signedAt: { type: ['string', 'null'], description: 'When the server stored the signature.' },
+      signedOnDeviceAt: {
+        type: ['string', 'null'],
+        description: "When the signer signed on a tablet that had no connection (the tablet's clock), or null when signed online.",
+      },
       signedByName: { type: ['string', 'null'] },
       amendmentCount: { type: 'number' },
       description: { type: 'string' },
@@ -1482,6 +1486,7 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       'sections',
       'signedAt',
       'signedByName',
+      'signedOnDeviceAt',
       'startedAt',
       'startedByName',
       'status',
@@ -1601,7 +1606,11 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       blockedItems: { type: 'number', description: "Out-of-range items without a chief engineer's override." },
       startedAt: { type: 'string' },
       startedByName: { type: 'string' },
-      signedAt: { type: ['string', 'null'] },
+      signedAt: { type: ['string', 'null'], description: 'When the server stored the signature.' },
+      signedOnDeviceAt: {
+        type: ['string', 'null'],
+        description: "When the signer signed on a tablet that had no connection (the tablet's clock), or null when signed online.",
+      },
       signedByName: { type: ['string', 'null'] },
       amendmentCount: { type: 'number' },
     },
@@ -1623,6 +1632,7 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       'startedAt',
       'startedByName',
       'signedAt',
+      'signedOnDeviceAt',
       'signedByName',
       'amendmentCount',
     ],
@@ -4821,7 +4831,14 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
   },
   SignChecklistRequest: {
     type: 'object',
-    properties: { signature: { type: 'string', description: "The signer's password or signing PIN, asked for again." } },
+    properties: {
+      signature: { type: 'string', description: "The signer's password or signing PIN, asked for again." },
+      signedOnDeviceAt: {
+        type: 'string',
+        description:
+          "When the person signed on a tablet without a connection (ISO time, the tablet's clock), sent later from its outbox. Stored beside the server's own time; not in the future, not before the checklist was started.",
+      },
+    },
     required: ['signature'],
     additionalProperties: false,
   },

@@ -16,6 +16,7 @@ import { CardTraceOrigin1796422565325 } from './1796422565325-CardTraceOrigin.js
 import { VisitorBoards1796422583042 } from './1796422583042-VisitorBoards.js';
 import { ReadingClientIdPerRun1796423309760 } from './1796423309760-ReadingClientIdPerRun.js';
 import { SeveralInstances1796424019287 } from './1796424019287-SeveralInstances.js';
+import { ChecklistSignedOnDevice1796424079811 } from './1796424079811-ChecklistSignedOnDevice.js';
 import { NamesKeptAsSigned1796424216765 } from './1796424216765-NamesKeptAsSigned.js';
 import { EnginePartsRetired1796424633674 } from './1796424633674-EnginePartsRetired.js';
 
@@ -38,6 +39,7 @@ export const MIGRATIONS: (new () => MigrationInterface)[] = [
   VisitorBoards1796422583042,
   ReadingClientIdPerRun1796423309760,
   SeveralInstances1796424019287,
+  ChecklistSignedOnDevice1796424079811,
   NamesKeptAsSigned1796424216765,
   EnginePartsRetired1796424633674,
 ];

@@ -19,6 +19,8 @@ export class Checklist {
   /** The signer's name as it was when signed: the record shows it even after a rename. */
   @Column({ name: 'signed_by_name', type: 'varchar', length: 120, nullable: true }) signedByName: string | null;
   @Column({ name: 'signed_at', type: 'timestamptz', nullable: true }) signedAt: Date | null;
+  /** When the signer signed on a tablet without a connection (its clock); the signature counts from signedAt. */
+  @Column({ name: 'signed_on_device_at', type: 'timestamptz', nullable: true }) signedOnDeviceAt: Date | null;
   /** The signer's qualification that allowed the signature. */
   @Column({ name: 'signer_qualification_id', type: 'uuid', nullable: true }) signerQualificationId: string | null;
   @CreateDateColumn({ name: 'created_at', type: 'timestamptz' }) createdAt: Date;

@@ -144,7 +144,7 @@ export class ChecklistsController {
   @HttpCode(200)
   @Roles('operator', 'chief_engineer')
   sign(@Param() p: IdParamDto, @Body() dto: SignChecklistDto, @CurrentUser() me: AuthUser): Promise<ChecklistDetail> {
-    return this.checklists.sign(p.id, dto.signature, me);
+    return this.checklists.sign(p.id, dto.signature, me, dto.signedOnDeviceAt);
   }
 
   /** Corrects a signed checklist; the value as signed stays in the record. */

@@ -74,6 +74,10 @@ const toState = (e: ChecklistEntry | undefined): EntryState | undefined =>
 /** A run as the start gate and RunsService hand it over. */
 type Run = Parameters<GateRule['check']>[0];
 
+/** How far a tablet's clock may run ahead of or behind the server's for a time it sends. */
+const DEVICE_CLOCK_SLACK_MS = 5 * 60_000;
+const earliest = (a: Date, b: Date | null): Date => (b && b < a ? b : a);
+
 @Injectable()
 export class ChecklistsService {
   private readonly logger = new Logger('Checklists');
@@ -165,6 +169,7 @@ export class ChecklistsService {
         startedAt: c.startedAt.toISOString(),
         startedByName: names.get(c.startedBy) ?? 'unknown',
         signedAt: c.signedAt?.toISOString() ?? null,
+        signedOnDeviceAt: c.signedOnDeviceAt?.toISOString() ?? null,
         signedByName: c.signedBy ? (c.signedByName ?? names.get(c.signedBy) ?? 'unknown') : null,
         amendmentCount: amendBy.get(c.id)?.length ?? 0,
       });
@@ -290,7 +295,8 @@ export class ChecklistsService {
       id: c.id,
       templateId: c.templateId,
       status: c.status,
-      signedAt: c.signedAt ? new Date(c.signedAt) : null,
+      // A sign-off made offline counts for freshness from the earlier of the tablet's and the server's time.
+      signedAt: c.signedAt ? earliest(new Date(c.signedAt), c.signedOnDeviceAt ? new Date(c.signedOnDeviceAt) : null) : null,
       signedByName: c.signedByName,
       requiredItems: c.requiredItems,
       requiredDone: c.requiredDone,
@@ -492,12 +498,17 @@ export class ChecklistsService {
    * holds the template's qualification for this engine, and confirms with their password or signing PIN.
    * When it completes the checklists required before a start, a preparing run is cleared.
    */
-  async sign(id: string, signature: string, user: AuthUser): Promise<ChecklistDetail> {
+  async sign(id: string, signature: string, user: AuthUser, signedOnDeviceAt?: string): Promise<ChecklistDetail> {
     const { c: c0 } = await this.load(id);
     return this.perRun.run(c0.runId, async () => {
       const { c, version } = await this.load(id);
       const content = version.content;
       if (c.status === 'signed') throw new ConflictException('This checklist is already signed.');
+      const onDevice = signedOnDeviceAt ? new Date(signedOnDeviceAt) : null;
+      if (onDevice && onDevice.getTime() > Date.now() + DEVICE_CLOCK_SLACK_MS)
+        throw new BadRequestException('signedOnDeviceAt is in the future: check the tablet’s clock, then sign again.');
+      if (onDevice && onDevice.getTime() < c.startedAt.getTime() - DEVICE_CLOCK_SLACK_MS)
+        throw new BadRequestException('signedOnDeviceAt is before the checklist was started: check the tablet’s clock, then sign again.');
       const run = await this.runs.get(c.runId);
       this.assertFillable(run, content.requiredWhen, content.name);
       const blockers = signBlockers(content.sections, await this.states(id));
@@ -524,6 +535,7 @@ export class ChecklistsService {
             signedBy: user.id,
             signedByName: (await this.names([user.id])).get(user.id) ?? null,
             signedAt: new Date(),
+            signedOnDeviceAt: onDevice,
             signerQualificationId: qualificationId,
           },
         );

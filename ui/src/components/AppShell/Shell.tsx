@@ -23,6 +23,8 @@ import { Brand } from '../Brand';
 import { useSession } from '../../features/auth/useSession';
 import { signOut } from '../../features/auth/api/auth.api';
 import { getSocket } from '../../api/socket';
+import { OfflineBanner } from '../Offline/OfflineBanner';
+import { OutboxIndicator, useOutboxRunner } from '../Offline/OutboxIndicator';
 import { navigationFor, shortLabel } from './navigation';
 
 export function Shell() {
@@ -35,6 +37,7 @@ export function Shell() {
   const [live, setLive] = useState<boolean>(false);
 
   useEffect(close, [location.pathname, close]);
+  useOutboxRunner(session.accessToken);
   useEffect(() => {
     const s = getSocket();
     if (!s) return;
@@ -63,6 +66,7 @@ export function Shell() {
             <Brand size={24} />
           </Group>
           <Group gap="xs" wrap="nowrap">
+            <OutboxIndicator />
             <Tooltip label={live ? 'Readings and alarms arrive as they happen' : 'Reload a page to see new readings and alarms'}>
               <Badge variant="outline" color={live ? 'gray' : 'amber'} size="lg" visibleFrom="sm" data-testid="live-state">
                 {live ? 'Live updates on' : 'Live updates off'}
@@ -120,6 +124,7 @@ export function Shell() {
         </ScrollArea>
       </AppShell.Navbar>
       <AppShell.Main>
+        <OfflineBanner />
         <Suspense
           fallback={
             <Center h={200}>

@@ -1,5 +1,5 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
-import { IsBoolean, IsOptional, IsString, IsUUID, Matches, MaxLength, MinLength } from 'class-validator';
+import { IsBoolean, IsISO8601, IsOptional, IsString, IsUUID, Matches, MaxLength, MinLength } from 'class-validator';
 import type {
   AmendChecklistRequest,
   FillChecklistItemRequest,
@@ -36,6 +36,10 @@ export class SignChecklistDto implements SignChecklistRequest {
   @MinLength(1, { message: 'signature must be your password or signing PIN' })
   @MaxLength(200)
   signature: string;
+  @ApiPropertyOptional({ description: 'when the signer signed on a tablet without a connection (ISO time)', format: 'date-time' })
+  @IsOptional()
+  @IsISO8601({ strict: true }, { message: 'signedOnDeviceAt must be a time like 2026-12-05T10:15:00Z' })
+  signedOnDeviceAt?: string;
 }
 
 export class AmendChecklistDto extends FillChecklistItemDto implements AmendChecklistRequest {

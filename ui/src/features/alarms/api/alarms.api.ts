@@ -1,6 +1,7 @@
 import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
 import type { AlarmDto, ShelveAlarmRequest } from '@crankjournal/shared-types';
 import { api, withQuery } from '../../../api/http';
+import { outbox } from '../../../api/outbox';
 import { runKeys } from '../../runs/api/runs.api';
 
 /** Open alarms of an engine, whichever run raised them (an alarm stays open across runs until it is cleared and acknowledged). */
@@ -43,17 +44,34 @@ type AlarmAction = { alarm: AlarmDto } & (
   { kind: 'acknowledge' } | { kind: 'unshelve' } | { kind: 'shelve'; reason: string; minutes: number }
 );
 
-/** Acknowledge, shelve and unshelve a run's alarms; the answer goes straight into the cache. */
+/**
+ * An acknowledgement: sent now, or kept on the tablet when the server cannot be reached (then null) and sent when it
+ * answers. Acknowledging an alarm twice leaves it acknowledged once.
+ */
+export async function acknowledgeOrQueue(alarm: AlarmDto): Promise<AlarmDto | null> {
+  const o = await outbox().submitRequest<AlarmDto>({
+    kind: 'alarm-ack',
+    label: `Acknowledge alarm: ${alarm.pointLabel}`,
+    runId: alarm.runId,
+    path: `/alarms/${alarm.id}/acknowledge`,
+    method: 'POST',
+    ref: { alarmId: alarm.id },
+  });
+  return o.kind === 'sent' ? o.result : null;
+}
+
+/** Acknowledge, shelve and unshelve a run's alarms; the answer goes straight into the cache (null: kept on the tablet). */
 export function useAlarmAction(runId: string) {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (a: AlarmAction) =>
+    mutationFn: (a: AlarmAction): Promise<AlarmDto | null> =>
       a.kind === 'acknowledge'
-        ? acknowledgeAlarm(a.alarm.id)
+        ? acknowledgeOrQueue(a.alarm)
         : a.kind === 'unshelve'
           ? unshelveAlarm(a.alarm.id)
           : shelveAlarm(a.alarm.id, { reason: a.reason, minutes: a.minutes }),
     onSuccess: (alarm) => {
+      if (!alarm) return;
       if (alarm.runId === runId) qc.setQueryData<AlarmDto[]>(runKeys.alarms(runId), (old) => upsertAlarm(old, alarm));
       qc.setQueryData<AlarmDto[]>(openAlarmKeys.engine(alarm.engineId), (old) => upsertAlarm(old, alarm));
       void qc.invalidateQueries({ queryKey: runKeys.board(runId) });

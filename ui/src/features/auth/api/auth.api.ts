@@ -19,6 +19,8 @@ export async function signOut(): Promise<void> {
   // Loaded here rather than imported above, so the sign-in page does not carry the live channel's client.
   (await import('../../../api/socket')).closeSocket();
   sessionStore.set(null);
+  // What the service worker kept of the API was read under this sign-in: the next person starts without it.
+  if (typeof caches !== 'undefined') await caches.delete('cj-api').catch(() => false);
 }
 
 export async function acceptInvitation(token: string, password: string): Promise<TokenPair> {

@@ -12,6 +12,7 @@ import type {
   RunChecklistsOverview,
 } from '@crankjournal/shared-types';
 import { api, withQuery, download } from '../../../api/http';
+import { outbox } from '../../../api/outbox';
 import { runKeys } from '../../runs/api/runs.api';
 
 /** Keys: a run's checklists sit under the run's key, so a run refresh takes them too; templates under ['checklist-templates']. */
@@ -83,11 +84,64 @@ export type ChecklistAction =
   | { kind: 'sign'; signature: string }
   | { kind: 'amend'; request: AmendChecklistRequest };
 
-export function checklistAction(id: string, a: ChecklistAction): Promise<ChecklistDetail> {
+/** Where an entry or photo kept on the tablet belongs, and what the person reads about it. */
+export interface ChecklistContext {
+  runId: string;
+  itemLabel: string;
+  /** The checklist's name (for a signature kept on the tablet). */
+  name?: string;
+}
+
+/**
+ * A signature: sent now, or kept on the tablet when the server cannot be reached (then null) with the time it was
+ * signed there; the password stays in this tab's memory only. The start gate counts it once the server has it.
+ */
+async function signOrQueue(id: string, signature: string, ctx: ChecklistContext): Promise<ChecklistDetail | null> {
+  const o = await outbox().submitRequest<ChecklistDetail>(
+    {
+      kind: 'checklist-sign',
+      label: ctx.name ? `Signature on “${ctx.name}”` : 'Checklist signature',
+      runId: ctx.runId,
+      path: `/checklists/${id}/sign`,
+      method: 'POST',
+      body: {},
+      whenQueued: { signedOnDeviceAt: new Date().toISOString() },
+      secretField: 'signature',
+      ref: { checklistId: id },
+    },
+    signature,
+  );
+  return o.kind === 'sent' ? o.result : null;
+}
+
+/** An entry or photo: sent now, or kept on the tablet when the server cannot be reached (then null). */
+async function sendOrQueue(
+  id: string,
+  itemKey: string,
+  ctx: ChecklistContext,
+  req: { kind: 'checklist-entry'; body: FillChecklistItemRequest } | { kind: 'checklist-photo'; blob: Blob },
+): Promise<ChecklistDetail | null> {
+  const photo = req.kind === 'checklist-photo';
+  const o = await outbox().submitRequest<ChecklistDetail>({
+    ...req,
+    label: `${photo ? 'Photo for' : 'Checklist item'} “${ctx.itemLabel}”`,
+    runId: ctx.runId,
+    path: `/checklists/${id}/items/${itemKey}${photo ? '/photo' : ''}`,
+    method: 'PUT',
+    contentType: photo ? req.blob.type || 'application/octet-stream' : undefined,
+    ref: { checklistId: id, itemKey },
+  });
+  return o.kind === 'sent' ? o.result : null;
+}
+
+/** Fill and photo go through the outbox when a context is given (they are puts of one item: a resend stores once). */
+export function checklistAction(id: string, a: ChecklistAction, ctx?: ChecklistContext): Promise<ChecklistDetail | null> {
   switch (a.kind) {
     case 'fill':
+      if (ctx) return sendOrQueue(id, a.itemKey, ctx, { kind: 'checklist-entry', body: a.value });
       return api(`/checklists/${id}/items/${a.itemKey}`, { method: 'PUT', body: a.value });
     case 'photo':
+      if (ctx) return sendOrQueue(id, a.itemKey, ctx, { kind: 'checklist-photo', blob: a.file });
       return api(`/checklists/${id}/items/${a.itemKey}/photo`, {
         method: 'PUT',
         raw: a.file,
@@ -96,15 +150,21 @@ export function checklistAction(id: string, a: ChecklistAction): Promise<Checkli
     case 'override':
       return api(`/checklists/${id}/items/${a.itemKey}/override`, { body: { reason: a.reason } });
     case 'sign':
+      if (ctx) return signOrQueue(id, a.signature, ctx);
       return api(`/checklists/${id}/sign`, { body: { signature: a.signature } });
     case 'amend':
       return api(`/checklists/${id}/amendments`, { body: a.request });
   }
 }
 
-export function useChecklistAction(id: string) {
+/** A checklist action; with `runId`, entries and photos are kept on the tablet when the server cannot be reached (null). */
+export function useChecklistAction(id: string, runId?: string, name?: string) {
   const apply = useApplyChecklist();
-  return useMutation({ mutationFn: (a: ChecklistAction) => checklistAction(id, a), onSuccess: apply });
+  return useMutation({
+    mutationFn: (a: ChecklistAction & { itemLabel?: string }) =>
+      checklistAction(id, a, runId ? { runId, name, itemLabel: a.itemLabel ?? ('itemKey' in a ? a.itemKey : '') } : undefined),
+    onSuccess: (c: ChecklistDetail | null) => c && apply(c),
+  });
 }
 
 export function useTemplateWrite() {

@@ -11,6 +11,7 @@ import {
   type StartGateVerdict,
 } from '@crankjournal/shared-types';
 import { errorText } from '../../../api/http';
+import { useFiguresAsOf, useOnline } from '../../../components/Offline/useOnline';
 import { useHasRole } from '../../auth/useSession';
 import { runKeys, startGateQuery, startRefusal, useTransitionRun } from '../../runs/api/runs.api';
 import { PreLubeCountdownView } from './PreLubeCountdown';
@@ -78,7 +79,11 @@ export function GatePanel({ run, overview }: { run: RunDetail; overview?: RunChe
   const [confirming, setConfirming] = useState(false);
   const [refusal, setRefusal] = useState<StartGateVerdict | null>(null);
   const transition = useTransitionRun(run.id);
+  const online = useOnline();
+  const asOf = useFiguresAsOf();
   if (!relevant) return null;
+  // The server decides every start: without it (offline, or figures from the tablet's cache) there is no start.
+  const noServer = !online || asOf !== null;
 
   const v = gate.data;
   const reasons = v ? v.reasons.filter((r) => mayStart || !STARTER_CODES.includes(r.code)) : [];
@@ -125,8 +130,20 @@ export function GatePanel({ run, overview }: { run: RunDetail; overview?: RunChe
         </Group>
       ) : null}
       {run.state === 'cleared' && mayStart && (
-        <Group justify="flex-end">
-          <Button size="xl" h={60} leftSection={<IconPlayerPlayFilled />} onClick={() => setConfirming(true)}>
+        <Group justify="flex-end" align="center">
+          {noServer && (
+            <Text fz="md" fw={600} id="start-needs-server">
+              Starting the engine needs the server: it checks the start gate at that moment. Wait for the connection.
+            </Text>
+          )}
+          <Button
+            size="xl"
+            h={60}
+            leftSection={<IconPlayerPlayFilled />}
+            disabled={noServer}
+            aria-describedby={noServer ? 'start-needs-server' : undefined}
+            onClick={() => setConfirming(true)}
+          >
             Start engine
           </Button>
         </Group>

@@ -65,6 +65,8 @@ export interface ItemCardProps {
   onPhoto: (f: File) => void;
   onOverride: () => void;
   onAmend: () => void;
+  /** What waits on the tablet for this item ("an entry", "a photo"), sent when the server answers. */
+  waiting?: string[];
 }
 
 /** One item: what to do, the control to record it with big targets, its acceptance range, and its caution beside it. */
@@ -80,6 +82,7 @@ export function ItemCard({
   onPhoto,
   onOverride,
   onAmend,
+  waiting,
 }: ItemCardProps) {
   const [draft, setDraft] = useState<string | number>(entry?.value ?? '');
   const [note, setNote] = useState(entry?.text ?? '');
@@ -262,6 +265,11 @@ export function ItemCard({
               </Text>
             )}
             {control()}
+            {waiting && waiting.length > 0 && (
+              <Text fz="sm" fw={600} data-testid={`waiting-${item.key}`}>
+                Kept on this tablet, not yet on the server: {waiting.join(', then ')}. It counts once the server has it.
+              </Text>
+            )}
             {out && (
               <Group gap="xs" wrap="nowrap" align="flex-start">
                 <IconAlertTriangle

@@ -3,9 +3,10 @@ import { Link, useParams } from 'react-router-dom';
 import { useQuery } from '@tanstack/react-query';
 import { Alert, Anchor, Badge, Button, Center, Group, Loader, Progress, Stack, Text, Title } from '@mantine/core';
 import { notifications } from '@mantine/notifications';
-import { IconArrowLeft, IconCircleCheck, IconLock, IconSignature } from '@tabler/icons-react';
+import { IconArrowLeft, IconCircleCheck, IconCloudOff, IconLock, IconSignature } from '@tabler/icons-react';
 import { CHECKLIST_RUN_STATES, DUTY_LABELS, RUN_STATE_LABELS, type ChecklistItemDef } from '@crankjournal/shared-types';
 import { errorText } from '../../../api/http';
+import { useOutbox } from '../../../api/useOutbox';
 import { SAFETY_NOTE } from '../../../components/Caution/Caution';
 import { useHasRole } from '../../auth/useSession';
 import { BottomBar } from '../../runs/live/BottomBar';
@@ -23,7 +24,17 @@ export default function ChecklistPage() {
   const canWrite = useHasRole('operator', 'chief_engineer');
   const isChief = useHasRole('chief_engineer');
   const q = useQuery(checklistQuery(checklistId));
-  const action = useChecklistAction(checklistId);
+  const action = useChecklistAction(checklistId, runId, q.data?.name);
+  const box = useOutbox(runId);
+  // Entries and photos of this checklist kept on the tablet, by item, in the order they were made.
+  const waiting = useMemo(() => {
+    const m = new Map<string, string[]>();
+    for (const p of box.pending)
+      if (p.ref?.checklistId === checklistId && p.ref.itemKey)
+        m.set(p.ref.itemKey, [...(m.get(p.ref.itemKey) ?? []), p.kind === 'checklist-photo' ? 'a photo' : 'an entry']);
+    return m;
+  }, [box.pending, checklistId]);
+  const signWaiting = box.pending.find((p) => p.kind === 'checklist-sign' && p.ref?.checklistId === checklistId);
   const [signing, setSigning] = useState(false);
   const [overriding, setOverriding] = useState<ChecklistItemDef | null>(null);
   const [amending, setAmending] = useState<ChecklistItemDef | null>(null);
@@ -53,16 +64,32 @@ export default function ChecklistPage() {
     action.variables?.kind === a &&
     (key === undefined || ('itemKey' in action.variables && action.variables.itemKey === key));
 
-  const run = (a: ChecklistAction, done?: () => void, what = 'Not saved') =>
+  const run = (a: ChecklistAction & { itemLabel?: string }, done?: () => void, what = 'Not saved') =>
     action.mutate(a, {
-      onSuccess: () => done?.(),
+      onSuccess: (r) => {
+        if (r !== null) return done?.();
+        notifications.show({
+          color: 'amber',
+          icon: <IconCloudOff size={18} />,
+          title: a.kind === 'sign' ? 'No connection — signature kept on this tablet' : 'No connection — kept on this tablet',
+          message:
+            a.kind === 'sign'
+              ? 'It is sent after the entries before it; the start gate counts it once the server has confirmed it.'
+              : 'It is sent in order as soon as the server answers; the checklist counts it once the server has it.',
+        });
+        if (a.kind === 'sign') setSigning(false);
+      },
       onError: (e) => {
         if (a.kind === 'sign' || a.kind === 'override' || a.kind === 'amend') return; // shown in the modal
         notifications.show({ color: 'signal', title: what, message: errorText(e) });
       },
     });
 
-  const missing = c.requiredItems - c.requiredDone;
+  // Required items done on the tablet but not yet on the server count here; the server checks again when the signature arrives.
+  const waitingRequired = c.sections
+    .flatMap((s) => s.items)
+    .filter((it) => it.required && !entries.get(it.key)?.done && waiting.has(it.key)).length;
+  const missing = c.requiredItems - c.requiredDone - waitingRequired;
   const ready = missing === 0 && c.blockedItems === 0;
   const why =
     missing > 0
@@ -119,12 +146,23 @@ export default function ChecklistPage() {
         <Group gap="xs" mb="md" data-testid="signature" wrap="nowrap" align="flex-start">
           <IconCircleCheck size={22} color="var(--mantine-color-copper-5)" aria-hidden style={{ flex: 'none', marginTop: 3 }} />
           <Text>
-            Signed by <b>{c.signedByName}</b> on {when(c.signedAt!)} against version {c.version}. Read-only
+            Signed by <b>{c.signedByName}</b>{' '}
+            {c.signedOnDeviceAt
+              ? `on the tablet at ${when(c.signedOnDeviceAt)}, confirmed by the server at ${when(c.signedAt!)},`
+              : `on ${when(c.signedAt!)}`}{' '}
+            against version {c.version}. Read-only
             {c.amendmentCount
               ? `; ${c.amendmentCount} amendment(s) recorded below.`
               : '; a mistake is corrected by an amendment with a reason.'}
           </Text>
         </Group>
+      )}
+      {!signed && signWaiting && (
+        <Alert color="amber" variant="outline" mb="md" icon={<IconCloudOff />} data-testid="signature-waiting">
+          Signed on the tablet at {when(String(signWaiting.body && (signWaiting.body as { signedOnDeviceAt?: string }).signedOnDeviceAt))}
+          {signWaiting.userName ? ` by ${signWaiting.userName}` : ''}; not yet confirmed by the server. The start gate counts it once the
+          server has it.
+        </Alert>
       )}
       {!signed && (
         <Stack gap={4} mb="md" data-testid="checklist-progress">
@@ -163,8 +201,9 @@ export default function ChecklistPage() {
                 busy={pending('fill', it.key) || pending('photo', it.key)}
                 canOverride={isChief}
                 canAmend={canWrite && runOpen}
-                onFill={(value) => run({ kind: 'fill', itemKey: it.key, value })}
-                onPhoto={(file) => run({ kind: 'photo', itemKey: it.key, file }, undefined, 'Photo not saved')}
+                waiting={waiting.get(it.key)}
+                onFill={(value) => run({ kind: 'fill', itemKey: it.key, value, itemLabel: it.label })}
+                onPhoto={(file) => run({ kind: 'photo', itemKey: it.key, file, itemLabel: it.label }, undefined, 'Photo not saved')}
                 onOverride={() => {
                   action.reset();
                   setOverriding(it);
@@ -222,7 +261,7 @@ export default function ChecklistPage() {
             size="xl"
             h={60}
             leftSection={<IconSignature />}
-            disabled={!ready}
+            disabled={!ready || !!signWaiting}
             onClick={() => {
               action.reset();
               setSigning(true);

@@ -5,7 +5,7 @@ import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { Alert, Badge, Button, Center, Group, Loader, Stack, Tabs, Text } from '@mantine/core';
 import { notifications } from '@mantine/notifications';
 import { IconClipboardList, IconCloudOff, IconFileTypeCsv, IconFileTypePdf, IconPlugConnectedX } from '@tabler/icons-react';
-import { RUN_STATES_TAKING_READINGS, type AlarmDto, type IngestResult, type ReadingDto } from '@crankjournal/shared-types';
+import { RUN_STATES_TAKING_READINGS, type AlarmDto, type ReadingDto } from '@crankjournal/shared-types';
 import { RunChecklistsLink } from '../../checklists/components/RunChecklistsLink';
 import { PreLubeCountdown } from '../../checklists/components/PreLubeCountdown';
 import { CardSetsPanel } from '../../indicator-cards';
@@ -26,6 +26,8 @@ import { AlarmBanner } from '../../alarms/components/AlarmBanner';
 import { AlarmList, ShelveModal } from '../../alarms/components/AlarmList';
 import { highestPriority, isUnacknowledged, priorityColor } from '../../alarms/components/alarm-look';
 import { mergeAlarms, openEngineAlarmsQuery, useAlarmAction } from '../../alarms/api/alarms.api';
+import { useOutbox } from '../../../api/useOutbox';
+import type { OutboxItem } from '../../../api/outbox';
 import { Board } from './Board';
 import { BottomBar } from './BottomBar';
 import { CsvImport } from './CsvImport';
@@ -34,7 +36,6 @@ import { QueueStatus, waitingText } from './QueueStatus';
 import { AmendModal, ReadingsTable } from './ReadingsTable';
 import { TrendCharts } from './TrendCharts';
 import { useLiveRun } from './useLiveRun';
-import { useOfflineQueue } from './useOfflineQueue';
 
 const TABS = ['board', 'alarms', 'readings', 'cards', 'import'] as const;
 type Tab = (typeof TABS)[number];
@@ -55,8 +56,8 @@ export default function LiveRunPage() {
   const finishedRun = run.data?.state === 'closed' || run.data?.state === 'abandoned';
   const engineAlarms = useQuery({ ...openEngineAlarmsQuery(engineId ?? ''), enabled: !!engineId && !finishedRun });
   const { connected } = useLiveRun(id, engineId);
-  const onSent = useCallback((runId: string, _r: IngestResult) => void qc.invalidateQueries({ queryKey: runKeys.run(runId) }), [qc]);
-  const q = useOfflineQueue(id, { onSent });
+  const onSent = useCallback((item: OutboxItem) => item.runId && void qc.invalidateQueries({ queryKey: runKeys.run(item.runId) }), [qc]);
+  const q = useOutbox(id, { onSent });
 
   const alarmAction = useAlarmAction(id);
   const amend = useAmendReading(id);
@@ -123,7 +124,16 @@ export default function LiveRunPage() {
   const ack = (a: AlarmDto) =>
     alarmAction.mutate(
       { kind: 'acknowledge', alarm: a },
-      { onError: (e) => notifications.show({ color: 'signal', title: 'Not acknowledged', message: errorText(e) }) },
+      {
+        onSuccess: (r) =>
+          r === null &&
+          notifications.show({
+            color: 'amber',
+            title: 'No connection — acknowledgement kept on this tablet',
+            message: 'It is sent as soon as the server answers.',
+          }),
+        onError: (e) => notifications.show({ color: 'signal', title: 'Not acknowledged', message: errorText(e) }),
+      },
     );
   const unshelve = (a: AlarmDto) =>
     alarmAction.mutate(

@@ -4,17 +4,17 @@ import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { Alert, Button, Center, Loader, Text } from '@mantine/core';
 import { notifications } from '@mantine/notifications';
 import { IconArrowLeft, IconCloudOff } from '@tabler/icons-react';
-import { RUN_STATES_TAKING_READINGS, type IngestResult } from '@crankjournal/shared-types';
+import { RUN_STATES_TAKING_READINGS } from '@crankjournal/shared-types';
 import { PageHeader } from '../../../components/PageHeader';
 import { errorText } from '../../../api/http';
 import { useHasRole } from '../../auth/useSession';
 import { engineDetailQuery } from '../../engines/api/engines.api';
 import { runBoardQuery, runDetailQuery, runKeys } from '../api/runs.api';
 import { RunStateBadge } from '../components/RunStateBadge';
+import { useOutbox } from '../../../api/useOutbox';
+import type { OutboxItem, SubmitOutcome } from '../../../api/outbox';
 import { RoundEntry, type PreviousValue } from './RoundEntry';
 import { QueueStatus, waitingText } from './QueueStatus';
-import { useOfflineQueue } from './useOfflineQueue';
-import type { SubmitOutcome } from './offline-queue';
 
 /** The tablet screen for a round of readings: /runs/:id/round. */
 export default function RoundEntryPage() {
@@ -26,8 +26,8 @@ export default function RoundEntryPage() {
   const engineId = run.data?.engineId;
   const engine = useQuery({ ...engineDetailQuery(engineId ?? ''), enabled: !!engineId });
   const board = useQuery(runBoardQuery(id));
-  const onSent = useCallback((runId: string, _r: IngestResult) => void qc.invalidateQueries({ queryKey: runKeys.run(runId) }), [qc]);
-  const q = useOfflineQueue(id, { onSent });
+  const onSent = useCallback((item: OutboxItem) => item.runId && void qc.invalidateQueries({ queryKey: runKeys.run(item.runId) }), [qc]);
+  const q = useOutbox(id, { onSent });
 
   // Load the live page's code now: after "Save round" it must open even when the server cannot be reached.
   useEffect(() => {

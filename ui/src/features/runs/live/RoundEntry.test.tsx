@@ -1,8 +1,8 @@
 import userEvent from '@testing-library/user-event';
 import type { IngestResult, RoundRequest } from '@crankjournal/shared-types';
 import { render, screen, waitFor } from '../../../test-utils/render';
+import { Outbox, type OutboxRequest, type OutboxState } from '../../../api/outbox';
 import { RoundEntry, type RoundPoint } from './RoundEntry';
-import { OfflineRoundQueue } from './offline-queue';
 
 // Limits of the demo engine's bearing and throttle points (invented demo data, not a source value).
 const points: RoundPoint[] = [
@@ -32,8 +32,10 @@ const points: RoundPoint[] = [
   },
 ];
 
-function setup(send = vi.fn<(runId: string, r: RoundRequest) => Promise<IngestResult>>()) {
-  const queue = new OfflineRoundQueue({ send, storage: window.localStorage, key: 'test-queue' });
+function setup(send = vi.fn<(req: OutboxRequest) => Promise<IngestResult>>()) {
+  let saved: OutboxState | undefined;
+  const persistence = { load: () => Promise.resolve(saved), save: (s: OutboxState) => Promise.resolve(void (saved = s)) };
+  const queue = new Outbox({ send, persistence });
   render(
     <RoundEntry
       runId="run-1"
@@ -104,8 +106,8 @@ describe('RoundEntry', () => {
 
   it('saves the entered points in one request, each reading with its own clientId', async () => {
     const user = userEvent.setup();
-    const send = vi.fn(async (_id: string, r: RoundRequest) => ({
-      stored: r.readings.length,
+    const send = vi.fn(async (req: OutboxRequest) => ({
+      stored: (req.body as RoundRequest).readings.length,
       duplicates: 0,
       rejected: [],
       rejectedCount: 0,
@@ -118,8 +120,9 @@ describe('RoundEntry', () => {
     await user.type(screen.getByLabelText('Main bearing 1 (°F)'), '152');
     await user.click(screen.getByRole('button', { name: 'Save round' }));
     await waitFor(() => expect(send).toHaveBeenCalledTimes(1));
-    const [runId, round] = send.mock.calls[0];
-    expect(runId).toBe('run-1');
+    const [req] = send.mock.calls[0];
+    const round = req.body as RoundRequest;
+    expect(req.path).toBe('/runs/run-1/rounds');
     expect(round.readings.map((r) => [r.pointId, r.value])).toEqual([
       ['p-thr', 131.5],
       ['p-mb1', 152],

@@ -4,8 +4,8 @@ import { IconAlertOctagon, IconAlertTriangle, IconArrowDown, IconArrowUp, IconDe
 import dayjs from 'dayjs';
 import type { IngestResult, MeasurementPointDto, RoundRequest } from '@crankjournal/shared-types';
 import { errorText, HttpError } from '../../../api/http';
+import { newClientId, outbox, type Outbox, type SubmitOutcome } from '../../../api/outbox';
 import { BottomBar } from './BottomBar';
-import { newClientId, offlineQueue, type OfflineRoundQueue, type SubmitOutcome } from './offline-queue';
 import {
   limitsText,
   limitStanding,
@@ -31,7 +31,7 @@ interface Props {
   /** Extra actions for the bottom bar (left of "Save round"). */
   secondaryActions?: React.ReactNode;
   onSaved?: (outcome: SubmitOutcome) => void;
-  queue?: OfflineRoundQueue;
+  queue?: Outbox;
 }
 
 const fmt = (n: number) => String(Number(n.toFixed(3)));
@@ -57,7 +57,7 @@ function standingStyle(s: LimitStanding | null): { color: string | null; Icon: t
  * A round of readings on the tablet: one big numeric field per measurement point in the engine's round order,
  * the last value and normal range beside it, out-of-range values marked before saving, one "Save round".
  */
-export function RoundEntry({ runId, points, previous = {}, engine, secondaryActions, onSaved, queue = offlineQueue() }: Props) {
+export function RoundEntry({ runId, points, previous = {}, engine, secondaryActions, onSaved, queue = outbox() }: Props) {
   const ordered = useMemo(() => [...points].sort((a, b) => a.sequence - b.sequence), [points]);
   const [entered, setEntered] = useState<Record<string, string>>({});
   const [rowErrors, setRowErrors] = useState<Record<string, string>>({});
