@@ -31,6 +31,7 @@ export class Alarm {
   /** Suppressed alarms are recorded but not annunciated: 'design' (by `suppressedBy`) or 'state'. */
   @Column({ type: 'varchar', length: 8, nullable: true }) suppression: AlarmSuppression | null;
   @Column({ name: 'suppressed_by', type: 'uuid', nullable: true }) suppressedBy: string | null;
+  /** When its e-mail was queued (in the transaction that raised or released it): at most one per alarm. */
   @Column({ name: 'emailed_at', type: 'timestamptz', nullable: true }) emailedAt: Date | null;
   @UpdateDateColumn({ name: 'updated_at', type: 'timestamptz' }) updatedAt: Date;
 }
