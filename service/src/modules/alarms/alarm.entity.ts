@@ -35,6 +35,7 @@ export class Alarm {
   @Column({ name: 'forecast_limit_kind', type: 'varchar', length: 24, nullable: true }) forecastLimitKind: AlarmKind | null;
   @Column({ name: 'forecast_minutes', type: 'double precision', nullable: true }) forecastMinutes: number | null;
   @Column({ name: 'forecast_rate_per_min', type: 'double precision', nullable: true }) forecastRatePerMin: number | null;
+  /** When its e-mail was queued (in the transaction that raised or released it): at most one per alarm. */
   @Column({ name: 'emailed_at', type: 'timestamptz', nullable: true }) emailedAt: Date | null;
   @UpdateDateColumn({ name: 'updated_at', type: 'timestamptz' }) updatedAt: Date;
 }
