@@ -4735,6 +4735,12 @@ export interface operations {
           "application/json": components["schemas"]["TokenPair"];
         };
       };
+      /** @description Bad request: the body, query or path failed validation (the message says which field and why) */
+      400: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
       /** @description Too many attempts; wait and try again */
       429: {
         content: {

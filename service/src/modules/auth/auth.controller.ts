@@ -42,6 +42,7 @@ export class AuthController {
   }
 
   @ApiAnswer('TokenPair')
+  @ApiErrors(400)
   @Public()
   @Post('refresh')
   @HttpCode(200)

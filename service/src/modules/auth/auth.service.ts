@@ -38,7 +38,8 @@ export class AuthService {
   }
 
   async refresh(token: string | undefined): Promise<Issued> {
-    if (!token) throw new UnauthorizedException('Please sign in again.');
+    // Nothing to refresh with (a missing input, like a missing field): 400, kept apart from a token that is refused.
+    if (!token) throw new BadRequestException('No sign-in to refresh: the request carries no refresh cookie. Please sign in.');
     const [id] = token.split('.');
     const row = /^[0-9a-f-]{36}$/.test(id ?? '') ? await this.refreshTokens.findOne({ where: { id } }) : null;
     if (!row || row.tokenHash !== sha256(token)) throw new UnauthorizedException('Please sign in again.');
