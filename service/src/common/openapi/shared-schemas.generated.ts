@@ -63,6 +63,7 @@ export type SharedSchemaName =
   | 'ChecklistSummary'
   | 'ChecklistTemplateContent'
   | 'ChecklistTemplateDetail'
+  | 'ChecklistTemplateState'
   | 'ChecklistTemplateSummary'
   | 'ChecklistTemplateVersionDto'
   | 'ChecklistVersionInfo'
@@ -1635,6 +1636,10 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       itemCount: { type: 'number' },
       hasDraft: { type: 'boolean' },
       retired: { type: 'boolean' },
+      state: {
+        $ref: '#/components/schemas/ChecklistTemplateState',
+        description: 'In preparation, issued or withdrawn (CHECKLIST_TEMPLATE_STATE_WORDS).',
+      },
       current: { anyOf: [{ $ref: '#/components/schemas/ChecklistTemplateVersionDto' }, { type: 'null' }] },
       draft: { anyOf: [{ $ref: '#/components/schemas/ChecklistTemplateContent' }, { type: 'null' }] },
       draftUpdatedAt: { type: ['string', 'null'] },
@@ -1656,9 +1661,16 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       'requiredDuty',
       'requiredWhen',
       'retired',
+      'state',
       'versions',
     ],
     additionalProperties: false,
+  },
+  ChecklistTemplateState: {
+    type: 'string',
+    enum: ['in_preparation', 'issued', 'withdrawn'],
+    description:
+      "Where a checklist template stands, in the engine house's words: in preparation (nothing issued yet), issued (a version is in use; a revision may be in preparation beside it), withdrawn (no longer asked for).",
   },
   ChecklistTemplateSummary: {
     type: 'object',
@@ -1675,6 +1687,10 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       itemCount: { type: 'number' },
       hasDraft: { type: 'boolean' },
       retired: { type: 'boolean' },
+      state: {
+        $ref: '#/components/schemas/ChecklistTemplateState',
+        description: 'In preparation, issued or withdrawn (CHECKLIST_TEMPLATE_STATE_WORDS).',
+      },
     },
     required: [
       'id',
@@ -1689,6 +1705,7 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       'itemCount',
       'hasDraft',
       'retired',
+      'state',
     ],
     additionalProperties: false,
   },
