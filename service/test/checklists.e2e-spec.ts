@@ -329,6 +329,28 @@ describe('checklists and the start gate (API)', () => {
       expect(r.body.message.join(' ')).toContain('min must not be above max');
     });
 
+    it('a template stands in preparation, issued or withdrawn, in our words in its answers and messages', async () => {
+      const body = { ...SHUTDOWN, name: `Words ${randomUUID().slice(0, 6)}`, engineId: engine.id, publish: false };
+      const made = await signedIn(t, chief).post('/api/checklist-templates').send(body);
+      expect(made.status).toBe(201);
+      expect(made.body.state).toBe('in_preparation');
+      const issued = await signedIn(t, chief).post(`/api/checklist-templates/${made.body.id}/publish`).send({ changeNote: 'First issue.' });
+      expect(issued.body.state).toBe('issued');
+      const again = await signedIn(t, chief).post(`/api/checklist-templates/${made.body.id}/publish`).send({});
+      expect(again.status).toBe(409);
+      expect(JSON.stringify(again.body.message)).toContain('nothing in preparation to issue');
+      const withdrawn = await signedIn(t, chief).post(`/api/checklist-templates/${made.body.id}/retire`).send({});
+      expect(withdrawn.body.state).toBe('withdrawn');
+      const twice = await signedIn(t, chief).post(`/api/checklist-templates/${made.body.id}/retire`).send({});
+      expect(twice.status).toBe(409);
+      expect(JSON.stringify(twice.body.message)).toContain('already withdrawn');
+      const list = (await signedIn(t, observer).get(`/api/checklist-templates?engineId=${engine.id}`)).body as {
+        id: string;
+        state: string;
+      }[];
+      expect(list.find((x) => x.id === made.body.id)?.state).toBe('withdrawn');
+    });
+
     it('is written by the chief engineer only; everyone reads and prints', async () => {
       const body = { ...SHUTDOWN, name: `Role test ${randomUUID().slice(0, 6)}`, engineId: engine.id };
       expect((await signedIn(t, operator).post('/api/checklist-templates').send(body)).status).toBe(403);

@@ -9,7 +9,7 @@ test('the maintenance lead opens the warm bearing of the demo season, sees the f
   // The start screen carries what is due, overdue marked.
   const due = page.getByTestId('today-maintenance');
   await expect(due.getByRole('heading', { name: 'Maintenance due' })).toBeVisible();
-  await expect(due.getByTestId('due-overdue').first()).toHaveText('Overdue');
+  await expect(due.getByTestId('due-overdue').first()).toHaveText('Overrun');
 
   await page.getByRole('navigation', { name: 'Main navigation' }).getByRole('link', { name: 'Bearings' }).click();
   // Other tests may describe engines of their own: take the demo engine's bearing.

@@ -82,14 +82,14 @@ export function driftRuleText(
   const flat =
     spread > 0
       ? `When their ${load} spans less than ${fmt(spread)}${unit} (comparable ${load}), the band is about the mean rise ` +
-        `instead: \u00b1 t \u00d7 s \u00d7 \u221a(1 + 1/n), n \u2212 1 degrees of freedom.`
+        `instead: \u00b1 t \u00d7 s \u00d7 sqrt(1 + 1/n), n \u2212 1 degrees of freedom.`
       : `When they were all at the same ${load}, the band is about the mean rise instead: \u00b1 t \u00d7 s \u00d7 ` +
-        `\u221a(1 + 1/n), n \u2212 1 degrees of freedom.`;
+        `sqrt(1 + 1/n), n \u2212 1 degrees of freedom.`;
   return (
     `Each bearing is compared with its own history. A straight line, temperature rise = a + b \u00d7 ${load}, is ` +
     `fitted by least squares to the earlier runs, with s the standard deviation of the runs about that line ` +
     `(n \u2212 2 degrees of freedom). The normal band is the ${pct(confidence)} prediction interval for one more run: ` +
-    `the line \u00b1 t \u00d7 s \u00d7 \u221a(1 + 1/n + (${load} \u2212 mean ${load})\u00b2 / Sxx), t the Student t ` +
+    `the line \u00b1 t \u00d7 s \u00d7 sqrt(1 + 1/n + (${load} \u2212 mean ${load})\u00b2 / Sxx), t the Student t ` +
     `quantile for the degrees of freedom the history has, so the band widens away from the mean ${load} and when the ` +
     `runs are few. With fewer than ${MIN_RUNS_TO_JUDGE} earlier runs there are too few runs to judge. ${flat} ` +
     `A run is flagged as drift when its rise above ambient is more than ${fmt(marginF)} \u00b0F above the top of the ` +

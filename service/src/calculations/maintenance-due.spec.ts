@@ -108,6 +108,9 @@ describe('thresholds', () => {
   it('exports the rule text', () => {
     expect(DUE_RULE_TEXT).toMatch(/10 %/);
     expect(DUE_RULE_TEXT).toMatch(/7 days/);
+    // Our words (the same as DUE_STATUS_LABELS): coming due, overrun.
+    expect(DUE_RULE_TEXT).toMatch(/coming due when/);
+    expect(DUE_RULE_TEXT).toMatch(/overrun once/);
   });
 });
 
@@ -131,7 +134,7 @@ describe('an overdue plan never shows a future date', () => {
     const r = maintenanceDue({ intervalRevolutions: 100_000, intervalDays: 365 }, lastDone, { runHours: 10, revolutions: 120_000, now });
     expect(r.status).toBe('overdue');
     expect(r.dueDate).toBeNull();
-    expect(r.dueDateNote).toBe('overdue on revolutions; when it fell due is not known');
+    expect(r.dueDateNote).toBe('overrun on revolutions; when it fell due is not known');
     expect(r.criteria.find((c) => c.criterion === 'revolutions')!.estimateNote).toMatch(/cannot be predicted: no usage rate/);
   });
 
@@ -144,7 +147,7 @@ describe('an overdue plan never shows a future date', () => {
     );
     expect(r.status).toBe('overdue');
     expect(r.dueDate!.getTime()).toBe(now.getTime() - 5 * MS_PER_DAY);
-    expect(r.dueDateNote).toBe('overdue on running hours');
+    expect(r.dueDateNote).toBe('overrun on running hours');
   });
 
   it('not overdue, counters only, no rate: the date cannot be predicted', () => {

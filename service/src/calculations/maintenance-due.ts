@@ -18,8 +18,8 @@ export const MS_PER_DAY = 86_400_000;
 
 export const DUE_RULE_TEXT =
   'A task is due when any of its intervals (running hours, revolutions, calendar days) is reached, whichever ' +
-  'comes first. It is due soon when 10 % or less of an interval remains, or when its estimated due date is ' +
-  'within 7 days; overdue once an interval has been reached.';
+  'comes first. It is coming due when 10 % or less of an interval remains, or when its estimated due date is ' +
+  'within 7 days; overrun once an interval has been reached.';
 
 export type DueStatus = 'ok' | 'due_soon' | 'overdue';
 export type DueCriterion = 'run_hours' | 'revolutions' | 'calendar_days';
@@ -191,7 +191,7 @@ export function maintenanceDue(
   let dueDateNote: string | null = null;
   if (status === 'overdue') {
     const overdueOn = candidates.map((c) => COUNTER_WORDS[c.criterion]).join(' and ');
-    dueDateNote = dueDate === null ? `overdue on ${overdueOn}; when it fell due is not known` : `overdue on ${overdueOn}`;
+    dueDateNote = dueDate === null ? `overrun on ${overdueOn}; when it fell due is not known` : `overrun on ${overdueOn}`;
   } else if (dueDate === null) {
     dueDateNote = 'the date cannot be predicted: no usage rate for the counters';
   }

@@ -359,7 +359,7 @@ export interface paths {
   "/api/maintenance/due": {
     /**
      * Active inspection plans, overdue first
-     * @description A task is due when any of its intervals (running hours, revolutions, calendar days) is reached, whichever comes first. It is due soon when 10 % or less of an interval remains, or when its estimated due date is within 7 days; overdue once an interval has been reached.
+     * @description A task is due when any of its intervals (running hours, revolutions, calendar days) is reached, whichever comes first. It is coming due when 10 % or less of an interval remains, or when its estimated due date is within 7 days; overrun once an interval has been reached.
      */
     get: operations["MaintenanceController_due"];
   };
@@ -367,7 +367,7 @@ export interface paths {
     get: operations["MaintenanceController_listPlans"];
     /**
      * Plan an inspection by running hours, revolutions and/or calendar days
-     * @description A task is due when any of its intervals (running hours, revolutions, calendar days) is reached, whichever comes first. It is due soon when 10 % or less of an interval remains, or when its estimated due date is within 7 days; overdue once an interval has been reached.
+     * @description A task is due when any of its intervals (running hours, revolutions, calendar days) is reached, whichever comes first. It is coming due when 10 % or less of an interval remains, or when its estimated due date is within 7 days; overrun once an interval has been reached.
      */
     post: operations["MaintenanceController_createPlan"];
   };
@@ -2424,11 +2424,18 @@ export interface components {
       itemCount: number;
       hasDraft: boolean;
       retired: boolean;
+      /** @description In preparation, issued or withdrawn (CHECKLIST_TEMPLATE_STATE_WORDS). */
+      state: components["schemas"]["ChecklistTemplateState"];
       current: components["schemas"]["ChecklistTemplateVersionDto"] | null;
       draft: components["schemas"]["ChecklistTemplateContent"] | null;
       draftUpdatedAt: string | null;
       versions: components["schemas"]["ChecklistVersionInfo"][];
     };
+    /**
+     * @description Where a checklist template stands, in the engine house's words: in preparation (nothing issued yet), issued (a version is in use; a revision may be in preparation beside it), withdrawn (no longer asked for).
+     * @enum {string}
+     */
+    ChecklistTemplateState: "in_preparation" | "issued" | "withdrawn";
     ChecklistTemplateSummary: {
       id: string;
       engineId: string;
@@ -2444,6 +2451,8 @@ export interface components {
       itemCount: number;
       hasDraft: boolean;
       retired: boolean;
+      /** @description In preparation, issued or withdrawn (CHECKLIST_TEMPLATE_STATE_WORDS). */
+      state: components["schemas"]["ChecklistTemplateState"];
     };
     ChecklistTemplateVersionDto: {
       version: number;
@@ -9232,7 +9241,7 @@ export interface operations {
   };
   /**
    * Active inspection plans, overdue first
-   * @description A task is due when any of its intervals (running hours, revolutions, calendar days) is reached, whichever comes first. It is due soon when 10 % or less of an interval remains, or when its estimated due date is within 7 days; overdue once an interval has been reached.
+   * @description A task is due when any of its intervals (running hours, revolutions, calendar days) is reached, whichever comes first. It is coming due when 10 % or less of an interval remains, or when its estimated due date is within 7 days; overrun once an interval has been reached.
    */
   MaintenanceController_due: {
     parameters: {
@@ -9308,7 +9317,7 @@ export interface operations {
   };
   /**
    * Plan an inspection by running hours, revolutions and/or calendar days
-   * @description A task is due when any of its intervals (running hours, revolutions, calendar days) is reached, whichever comes first. It is due soon when 10 % or less of an interval remains, or when its estimated due date is within 7 days; overdue once an interval has been reached.
+   * @description A task is due when any of its intervals (running hours, revolutions, calendar days) is reached, whichever comes first. It is coming due when 10 % or less of an interval remains, or when its estimated due date is within 7 days; overrun once an interval has been reached.
    */
   MaintenanceController_createPlan: {
     requestBody: {

@@ -87,6 +87,24 @@ export interface ChecklistTemplateContent {
   sections: ChecklistSectionDef[];
 }
 
+/**
+ * Where a checklist template stands, in the engine house's words: in preparation (nothing issued yet), issued (a
+ * version is in use; a revision may be in preparation beside it), withdrawn (no longer asked for).
+ */
+export type ChecklistTemplateState = 'in_preparation' | 'issued' | 'withdrawn';
+export const CHECKLIST_TEMPLATE_STATE_WORDS: Record<ChecklistTemplateState, string> = {
+  in_preparation: 'In preparation',
+  issued: 'Issued',
+  withdrawn: 'Withdrawn',
+};
+/** The words of a template's actions and of its unissued revision, used alike on screen, in PDFs and messages. */
+export const CHECKLIST_TEMPLATE_WORDS = {
+  revision: 'Revision in preparation',
+  issue: 'Issue',
+  withdraw: 'Withdraw',
+  reissue: 'Reissue',
+} as const;
+
 export interface ChecklistTemplateSummary {
   id: string;
   engineId: string;
@@ -102,6 +120,8 @@ export interface ChecklistTemplateSummary {
   itemCount: number;
   hasDraft: boolean;
   retired: boolean;
+  /** In preparation, issued or withdrawn (CHECKLIST_TEMPLATE_STATE_WORDS). */
+  state: ChecklistTemplateState;
 }
 export interface ChecklistVersionInfo {
   version: number;

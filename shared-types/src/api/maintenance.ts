@@ -109,7 +109,8 @@ export const WORK_HAZARD_CAUTIONS: Record<WorkHazard, string> = {
 
 export type DueStatus = 'ok' | 'due_soon' | 'overdue';
 export type DueCriterion = 'run_hours' | 'revolutions' | 'calendar_days';
-export const DUE_STATUS_LABELS: Record<DueStatus, string> = { ok: 'In date', due_soon: 'Due soon', overdue: 'Overdue' };
+/** Our words for an inspection plan's standing: in hand, coming due, overrun (run past its interval). */
+export const DUE_STATUS_LABELS: Record<DueStatus, string> = { ok: 'In hand', due_soon: 'Coming due', overdue: 'Overrun' };
 export const DUE_CRITERION_LABELS: Record<DueCriterion, string> = {
   run_hours: 'Running hours',
   revolutions: 'Revolutions',

@@ -63,6 +63,7 @@ export type SharedSchemaName =
   | 'ChecklistSummary'
   | 'ChecklistTemplateContent'
   | 'ChecklistTemplateDetail'
+  | 'ChecklistTemplateState'
   | 'ChecklistTemplateSummary'
   | 'ChecklistTemplateVersionDto'
   | 'ChecklistVersionInfo'
@@ -1667,6 +1668,10 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       itemCount: { type: 'number' },
       hasDraft: { type: 'boolean' },
       retired: { type: 'boolean' },
+      state: {
+        $ref: '#/components/schemas/ChecklistTemplateState',
+        description: 'In preparation, issued or withdrawn (CHECKLIST_TEMPLATE_STATE_WORDS).',
+      },
       current: { anyOf: [{ $ref: '#/components/schemas/ChecklistTemplateVersionDto' }, { type: 'null' }] },
       draft: { anyOf: [{ $ref: '#/components/schemas/ChecklistTemplateContent' }, { type: 'null' }] },
       draftUpdatedAt: { type: ['string', 'null'] },
@@ -1688,9 +1693,16 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       'requiredDuty',
       'requiredWhen',
       'retired',
+      'state',
       'versions',
     ],
     additionalProperties: false,
+  },
+  ChecklistTemplateState: {
+    type: 'string',
+    enum: ['in_preparation', 'issued', 'withdrawn'],
+    description:
+      "Where a checklist template stands, in the engine house's words: in preparation (nothing issued yet), issued (a version is in use; a revision may be in preparation beside it), withdrawn (no longer asked for).",
   },
   ChecklistTemplateSummary: {
     type: 'object',
@@ -1707,6 +1719,10 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       itemCount: { type: 'number' },
       hasDraft: { type: 'boolean' },
       retired: { type: 'boolean' },
+      state: {
+        $ref: '#/components/schemas/ChecklistTemplateState',
+        description: 'In preparation, issued or withdrawn (CHECKLIST_TEMPLATE_STATE_WORDS).',
+      },
     },
     required: [
       'id',
@@ -1721,6 +1737,7 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       'itemCount',
       'hasDraft',
       'retired',
+      'state',
     ],
     additionalProperties: false,
   },

@@ -40,7 +40,9 @@ export class ChecklistPdfService {
     const engine = await this.engines.get(t.engineId);
     const site = await this.site.settings();
     const clock = zonedClock(site.timeZone);
-    const versionText = published ? `Version ${published.version}, published ${clock.date(published.publishedAt)}` : 'DRAFT: not published';
+    const versionText = published
+      ? `Version ${published.version}, issued ${clock.date(published.publishedAt)}`
+      : 'IN PREPARATION: not issued';
     const blocks: Block[] = [
       {
         kind: 'text',

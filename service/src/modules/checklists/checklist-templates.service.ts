@@ -97,6 +97,7 @@ export class ChecklistTemplatesService {
         itemCount: content ? itemsOf(content.sections).length : 0,
         hasDraft: t.draft !== null,
         retired: t.retiredAt !== null,
+        state: t.retiredAt !== null ? 'withdrawn' : t.currentVersion > 0 ? 'issued' : 'in_preparation',
       };
     });
   }
@@ -217,15 +218,17 @@ export class ChecklistTemplatesService {
 
   async discardDraft(id: string): Promise<ChecklistTemplateDetail> {
     const t = await this.get(id);
-    if (!t.draft) throw new ConflictException('There is no draft to discard.');
+    if (!t.draft) throw new ConflictException('There is no revision in preparation to discard.');
     if (t.currentVersion === 0)
-      throw new ConflictException('Nothing is published yet: the draft is all this template has. Retire the template instead.');
+      throw new ConflictException(
+        'Nothing is issued yet: the revision in preparation is all this template has. Withdraw the template instead.',
+      );
     await this.checklistTemplateRepo.update({ id }, { draft: null, draftUpdatedAt: null });
     return this.detail(id);
   }
 
   private async publishIn(m: EntityManager, t: ChecklistTemplate, changeNote: string, user: AuthUser) {
-    if (!t.draft) throw new ConflictException('There is no draft to publish: save your changes as a draft first.');
+    if (!t.draft) throw new ConflictException('There is nothing in preparation to issue: save your changes first.');
     this.check(t.draft);
     const version = t.currentVersion + 1;
     await m.insert(ChecklistTemplateVersion, {
@@ -256,7 +259,7 @@ export class ChecklistTemplatesService {
     await this.db.transaction(async (m) => {
       const t = await m.findOne(ChecklistTemplate, { where: { id }, lock: { mode: 'pessimistic_write' } });
       if (!t) throw new NotFoundException('No such checklist template.');
-      if (t.retiredAt) throw new ConflictException('This template is retired; reinstate it before publishing.');
+      if (t.retiredAt) throw new ConflictException('This template is withdrawn; reissue it before issuing a new version.');
       await this.publishIn(m, t, changeNote, user);
     });
     return this.detail(id);
@@ -267,7 +270,7 @@ export class ChecklistTemplatesService {
       const t = await m.findOne(ChecklistTemplate, { where: { id }, lock: { mode: 'pessimistic_write' } });
       if (!t) throw new NotFoundException('No such checklist template.');
       if (retired === (t.retiredAt !== null))
-        throw new ConflictException(retired ? 'This template is already retired.' : 'This template is not retired.');
+        throw new ConflictException(retired ? 'This template is already withdrawn.' : 'This template is not withdrawn.');
       if (!retired) await this.assertNameFree(m, t.engineId, t.name, t.id);
       await m.update(ChecklistTemplate, { id }, { retiredAt: retired ? new Date() : null });
     });

@@ -371,8 +371,8 @@ export class ChecklistsService {
     const run = await this.runs.get(runId);
     const t = await this.templates.get(templateId);
     if (t.engineId !== run.engineId) throw new BadRequestException('That template belongs to another engine.');
-    if (t.retiredAt) throw new ConflictException(`The ${t.name} template is retired.`);
-    if (t.currentVersion === 0) throw new ConflictException(`The ${t.name} template has no published version yet.`);
+    if (t.retiredAt) throw new ConflictException(`The ${t.name} template is withdrawn.`);
+    if (t.currentVersion === 0) throw new ConflictException(`The ${t.name} template has no issued version yet.`);
     this.assertFillable(run, t.requiredWhen, t.name);
     const version = await this.templates.versionRow(t.id, t.currentVersion);
     const id = await this.db.transaction(async (m) => {

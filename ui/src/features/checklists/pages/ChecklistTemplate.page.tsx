@@ -5,6 +5,8 @@ import { Alert, Anchor, Badge, Button, Center, Grid, Group, Loader, Paper, Selec
 import { notifications } from '@mantine/notifications';
 import { IconArrowLeft, IconPencil, IconPrinter } from '@tabler/icons-react';
 import {
+  CHECKLIST_TEMPLATE_STATE_WORDS,
+  CHECKLIST_TEMPLATE_WORDS,
   acceptanceRangeText,
   CHECKLIST_ITEM_KIND_LABELS,
   CHECKLIST_PURPOSE_LABELS,
@@ -124,17 +126,17 @@ export default function ChecklistTemplatePage() {
               </Badge>
             ) : (
               <Badge size="lg" variant="outline" color="brass">
-                Not published
+                {CHECKLIST_TEMPLATE_STATE_WORDS.in_preparation}
               </Badge>
             )}
             {d.hasDraft && (
               <Badge size="lg" variant="outline" color="brass">
-                Draft waiting
+                {CHECKLIST_TEMPLATE_WORDS.revision}
               </Badge>
             )}
             {d.retired && (
               <Badge size="lg" variant="outline" color="gray">
-                Retired
+                {CHECKLIST_TEMPLATE_STATE_WORDS.withdrawn}
               </Badge>
             )}
           </Group>
@@ -146,7 +148,7 @@ export default function ChecklistTemplatePage() {
             </Button>
             {isChief && !d.retired && (
               <Button component={Link} to={`/checklists/templates/${d.id}/edit`} size="lg" leftSection={<IconPencil />}>
-                {d.hasDraft ? 'Continue the draft' : 'Edit'}
+                {d.hasDraft ? 'Continue the revision' : 'Edit'}
               </Button>
             )}
           </Group>
@@ -171,13 +173,13 @@ export default function ChecklistTemplatePage() {
         Versions
       </Title>
       {d.versions.length === 0 ? (
-        <Text c="dimmed">Nothing published yet.</Text>
+        <Text c="dimmed">Nothing issued yet.</Text>
       ) : (
         <Table verticalSpacing="xs" aria-label="Versions">
           <Table.Thead>
             <Table.Tr>
               <Table.Th>Version</Table.Th>
-              <Table.Th>Published</Table.Th>
+              <Table.Th>Issued</Table.Th>
               <Table.Th>By</Table.Th>
               <Table.Th>What changed</Table.Th>
             </Table.Tr>
@@ -215,7 +217,9 @@ export default function ChecklistTemplatePage() {
               )
             }
           >
-            {d.retired ? 'Reinstate this template' : 'Retire this template (no longer asked for)'}
+            {d.retired
+              ? `${CHECKLIST_TEMPLATE_WORDS.reissue} this template`
+              : `${CHECKLIST_TEMPLATE_WORDS.withdraw} this template (no longer asked for)`}
           </Button>
         </Group>
       )}

@@ -5,6 +5,8 @@ import { Alert, Anchor, Badge, Button, Group, Loader, Select, Stack, Text } from
 import { notifications } from '@mantine/notifications';
 import { IconPlus, IconPrinter } from '@tabler/icons-react';
 import {
+  CHECKLIST_TEMPLATE_STATE_WORDS,
+  CHECKLIST_TEMPLATE_WORDS,
   CHECKLIST_PURPOSE_LABELS,
   CHECKLIST_REQUIRED_WHEN_LABELS,
   DUTY_LABELS,
@@ -78,12 +80,12 @@ export default function ChecklistTemplatesPage() {
             </Text>
             {c.row.original.hasDraft && (
               <Badge variant="outline" color="brass">
-                Draft
+                {c.row.original.currentVersion > 0 ? CHECKLIST_TEMPLATE_WORDS.revision : CHECKLIST_TEMPLATE_STATE_WORDS.in_preparation}
               </Badge>
             )}
             {c.row.original.retired && (
               <Badge variant="outline" color="gray">
-                Retired
+                {CHECKLIST_TEMPLATE_STATE_WORDS.withdrawn}
               </Badge>
             )}
           </Group>

@@ -212,7 +212,7 @@ export default function RunChecklistsPage() {
       )}
       {o.templates.length === 0 && (
         <Alert color="gray" variant="outline" mb="md">
-          {r.engineName} has no published checklist templates yet. The chief engineer writes them under Checklists.
+          {r.engineName} has no issued checklist templates yet. The chief engineer writes them under Checklists.
         </Alert>
       )}
       <Stack gap="xl">

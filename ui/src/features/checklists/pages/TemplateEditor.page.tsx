@@ -27,6 +27,7 @@ import {
 import { notifications } from '@mantine/notifications';
 import { IconArrowDown, IconArrowLeft, IconArrowUp, IconPlus, IconTrash } from '@tabler/icons-react';
 import {
+  CHECKLIST_TEMPLATE_WORDS,
   CHECKLIST_ITEM_KIND_LABELS,
   CHECKLIST_ITEM_KINDS,
   CHECKLIST_PURPOSE_LABELS,
@@ -275,7 +276,7 @@ export default function TemplateEditorPage() {
         {
           onSuccess: (t) => {
             setDirty(false);
-            notifications.show({ title: 'Draft saved', message: `${t.name}: not published yet.` });
+            notifications.show({ title: 'Saved, in preparation', message: `${t.name}: not issued yet.` });
             void navigate(`/checklists/templates/${t.id}/edit`, { replace: true });
             then?.(t.id);
           },
@@ -290,7 +291,7 @@ export default function TemplateEditorPage() {
         onSuccess: () => {
           setDirty(false);
           if (then) then(id);
-          else notifications.show({ title: 'Draft saved', message: 'Not published yet: checklists still use the current version.' });
+          else notifications.show({ title: 'Revision saved', message: 'Not issued yet: checklists still use the version in issue.' });
         },
         onError: fail,
       },
@@ -304,7 +305,7 @@ export default function TemplateEditorPage() {
           onSuccess: (t) => {
             setPublishing(false);
             notifications.show({
-              title: `Version ${t.currentVersion} published`,
+              title: `Version ${t.currentVersion} issued`,
               message: 'New checklists use it; completed ones keep theirs.',
             });
             void navigate(`/checklists/templates/${t.id}`);
@@ -336,8 +337,8 @@ export default function TemplateEditorPage() {
         {id ? `Edit “${existing.data?.name}”` : 'New checklist template'}
       </Title>
       <Text c="dimmed" mb="md">
-        Changes are a draft until you publish them as version {nextVersion}. Checklists already filled keep the version they were filled
-        against.
+        Changes stay in preparation until you issue them as version {nextVersion}. Checklists already filled keep the version they were
+        filled against.
       </Text>
       {errors.length > 0 && (
         <Alert color="signal" title="Not saved" mb="md" role="alert">
@@ -470,7 +471,7 @@ export default function TemplateEditorPage() {
         onClose={() => setPublishing(false)}
         title={
           <Text fw={700} fz="lg">
-            Publish version {nextVersion}?
+            {CHECKLIST_TEMPLATE_WORDS.issue} version {nextVersion}?
           </Text>
         }
         centered
@@ -494,7 +495,7 @@ export default function TemplateEditorPage() {
               Cancel
             </Button>
             <Button size="lg" loading={busy} onClick={publish}>
-              Publish version {nextVersion}
+              {CHECKLIST_TEMPLATE_WORDS.issue} version {nextVersion}
             </Button>
           </Group>
         </Stack>
@@ -517,11 +518,11 @@ export default function TemplateEditorPage() {
                 })
               }
             >
-              Discard draft
+              Discard the revision
             </Button>
           )}
           <Text fz="sm" c="dimmed">
-            {dirty ? 'Unsaved changes' : existing.data?.hasDraft ? 'Draft saved, not published' : ''}
+            {dirty ? 'Unsaved changes' : existing.data?.hasDraft ? `${CHECKLIST_TEMPLATE_WORDS.revision}: saved, not issued` : ''}
           </Text>
         </Group>
         <Group gap="sm" wrap="nowrap">
@@ -533,10 +534,10 @@ export default function TemplateEditorPage() {
             onClick={() => saveDraft()}
             disabled={!dirty && !!id}
           >
-            Save draft
+            Save, keep in preparation
           </Button>
           <Button size="xl" h={60} onClick={() => setPublishing(true)} disabled={busy || (!!id && !dirty && !existing.data?.hasDraft)}>
-            Publish version {nextVersion}
+            {CHECKLIST_TEMPLATE_WORDS.issue} version {nextVersion}
           </Button>
         </Group>
       </BottomBar>

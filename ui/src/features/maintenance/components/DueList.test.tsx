@@ -21,11 +21,11 @@ describe('the due list', () => {
       />,
     );
     const rows = screen.getAllByRole('row').slice(1);
-    expect(within(rows[0]).getByText('Overdue')).toBeInTheDocument();
+    expect(within(rows[0]).getByText('Overrun')).toBeInTheDocument();
     expect(within(rows[0]).getByText(/45 days over/)).toBeInTheDocument();
-    expect(within(rows[1]).getByText('Due soon')).toBeInTheDocument();
+    expect(within(rows[1]).getByText('Coming due')).toBeInTheDocument();
     expect(within(rows[1]).getByText(/1 day left/)).toBeInTheDocument();
-    expect(within(rows[2]).getByText('In date')).toBeInTheDocument();
+    expect(within(rows[2]).getByText('In hand')).toBeInTheDocument();
     expect(rows[0]).toHaveAttribute('data-status', 'overdue');
   });
 
@@ -65,7 +65,7 @@ describe('the due list', () => {
     });
     render(<TodayMaintenance />);
     await waitFor(() => expect(screen.getByText('Main bearing 1 clearance')).toBeInTheDocument());
-    expect(screen.getByTestId('due-overdue')).toHaveTextContent('Overdue');
+    expect(screen.getByTestId('due-overdue')).toHaveTextContent('Overrun');
     expect(screen.queryByText('Crank webs')).not.toBeInTheDocument();
     await waitFor(() => expect(screen.getByRole('link', { name: 'Main bearing 2' })).toHaveAttribute('href', '/maintenance/bearings/b2'));
     expect(screen.getByTestId('drift-flag')).toHaveTextContent('Drift');

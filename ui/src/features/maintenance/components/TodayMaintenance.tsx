@@ -32,7 +32,7 @@ export function TodayMaintenance() {
         {due.data && needs.length === 0 && (
           <Group gap="xs">
             <IconCheck size={18} color="var(--mantine-color-copper-6)" />
-            <Text c="dimmed">Every inspection is in date.</Text>
+            <Text c="dimmed">Every inspection is in hand.</Text>
           </Group>
         )}
         {needs.length > 0 && <DueList plans={needs.slice(0, 8)} compact showEngine={false} />}

@@ -18,7 +18,7 @@ export default function MaintenanceOverviewPage() {
     <Stack gap="lg">
       <PageHeader
         title="Due and plans"
-        subtitle={data ? `${overdue} overdue · ${soon} due soon · ${data.items.length} plans` : undefined}
+        subtitle={data ? `${overdue} overrun · ${soon} coming due · ${data.items.length} plans` : undefined}
         action={
           canWrite && (
             <Group gap="sm">
