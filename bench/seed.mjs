@@ -8,7 +8,7 @@ import { pathToFileURL } from 'node:url';
 import pg from 'pg';
 import { ROOT, WORK, DB_URL, PASSWORD, api, login, log } from './lib.mjs';
 
-const { hashPassword } = await import(pathToFileURL(join(ROOT, 'service/dist/modules/auth/password.util.js')).href);
+const { hashPassword } = await import(pathToFileURL(join(ROOT, 'service/dist/common/util/password.util.js')).href);
 
 const people = [
   { key: 'admin', email: 'admin@bench.crankjournal.test', name: 'Bench administrator', role: 'administrator' },
