@@ -17,6 +17,7 @@ import { UsersService } from '../users/users.service.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { temperatureInUnit } from '../../calculations/units.js';
 import { AppConfig } from '../../config/app-config.service.js';
+import { YIELD_EVERY_ROWS, yieldToEventLoop } from '../../common/util/yield.js';
 import {
   AlarmTransitionError,
   applyShelveExpiry,
@@ -221,7 +222,9 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
     // Built once per call rather than once per reading (a logger batch holds thousands of readings).
     const engineLimits = { maximumAllowableWorkingPressurePsig: engine.mawpPsig, overspeedRpm: engine.overspeedRpm };
     const settingsById = new Map<string, EnginePoint & { name: string }>();
+    let done = 0;
     for (const r of sorted) {
+      if (++done % YIELD_EVERY_ROWS === 0) await yieldToEventLoop();
       const point = pointById.get(r.pointId);
       if (!point) continue;
       let settings = settingsById.get(point.id);
