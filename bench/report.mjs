@@ -37,8 +37,8 @@ if (b1)
     `${fmt(b1.service.latencyMs.p99, 1)} ms`,
     `socket.io echo: ${fmt(b1.baseline.latencyMs.median, 1)} / ${fmt(b1.baseline.latencyMs.p99, 1)} ms`,
     `×${fmt(b1.ratio.median, 1)} / ×${fmt(b1.ratio.p99, 1)}`,
-    'p99 ≤ 25 ms',
-    yes(b1.met),
+    'p99 ≤ 3 × echo p99',
+    yes(b1.ratio.p99 <= 3),
   ]);
 if (b2)
   rows.push([
@@ -47,18 +47,18 @@ if (b2)
     `slowest batch: ${fmt(b2.service.perBatchRate.p99)}/s`,
     `COPY: ${fmt(b2.baseline.rowsPerSecond)} rows/s`,
     `${fmt(b2.ratio, 2)}`,
-    '≥ 20,000/s; ratio ≥ 0.3',
-    `${yes(b2.service.readingsPerSecond >= 20000)}; ${yes(b2.ratio >= 0.3)}`,
+    'ratio ≥ 0.7',
+    yes(b2.ratio >= 0.7),
   ]);
 if (b3)
   rows.push([
     '3. CSV import, 1,000,000 rows',
     `${fmt(b3.service.rowsPerSecond)} rows/s; peak ${fmt(b3.service.memoryMb.peak)} MB`,
-    '(one import)',
+    b3.service.health ? `health route during it: ${fmt(b3.service.health.p99Ms, 1)} ms` : '(one import)',
     `COPY: ${fmt(b3.baseline.rowsPerSecond)} rows/s`,
     `${fmt(b3.ratio, 2)}`,
-    '≥ 50,000 rows/s; ≤ 300 MB',
-    `${yes(b3.met.throughput)}; ${yes(b3.met.memory)}`,
+    'ratio ≥ 0.6; ≤ 300 MB; health p99 < 50 ms',
+    `${yes(b3.ratio >= 0.6)}; ${yes(b3.met.memory)}; ${b3.service.health ? yes(b3.service.health.p99Ms < 50) : '—'}`,
   ]);
 if (b4) {
   rows.push([
@@ -300,6 +300,14 @@ if (b3) {
   );
   md.push('');
   md.push(`Ratio service / COPY: ${fmt(b3.ratio, 2)}. Alarms raised by the file: ${s.alarmsRaised}.`);
+  if (s.health) {
+    md.push('');
+    md.push(
+      `The health route (GET /api/health, one query) asked every 100 ms during the import on a connection of its own: ` +
+        `${fmt(s.health.n)} answers, median ${fmt(s.health.medianMs, 1)} ms, p99 ${fmt(s.health.p99Ms, 1)} ms, ` +
+        `slowest ${fmt(s.health.maxMs, 1)} ms (target: p99 under 50 ms; an import must not starve the live channel).`,
+    );
+  }
 } else md.push('Not measured.');
 md.push('');
 
@@ -364,7 +372,10 @@ if (b4) {
   md.push('');
   md.push('```sql\n' + b4.queries.kept.sql + '\n```\n\n```\n' + shortPlan(b4.plans.kept) + '\n```');
   md.push('');
-  md.push(`and computes those of the open run afresh (${fmt(b4.queries.openRun.ms, 1)} ms):`);
+  md.push(
+    `and reads those of the open run from the figures the storing statement keeps as its readings arrive ` +
+      `(run_point_figures; ${fmt(b4.queries.openRun.ms, 2)} ms):`,
+  );
   md.push('');
   md.push('```sql\n' + b4.queries.openRun.sql + '\n```\n\n```\n' + shortPlan(b4.plans.openRun) + '\n```');
   md.push('');
