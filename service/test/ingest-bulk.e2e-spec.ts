@@ -1,3 +1,4 @@
+import { randomUUID } from 'node:crypto';
 import type { EngineDetail, RunDetail } from '@crankjournal/shared-types';
 import { RunStatsService } from '../src/modules/maintenance/run-stats.service.js';
 import { startTestApp, type TestApp } from './utils/test-app.js';
@@ -125,8 +126,9 @@ describe('storing large batches (staging table) and the kept per-run figures', (
     expect(issued.status).toBe(201);
     const before = (await figures('THR')).kept;
     expect(before).toBeUndefined();
+    const prefix = randomUUID().slice(0, 24); // fresh ids on every run of the file (the e2e database is kept)
     const mk = (i: number) => ({
-      clientId: `00000000-0000-4000-8000-${String(i).padStart(12, '0')}`,
+      clientId: `${prefix}${String(i).padStart(12, '0')}`,
       pointCode: 'THR',
       value: 120 + (i % 10),
       takenAt: at(7200 + i),

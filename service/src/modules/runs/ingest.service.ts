@@ -86,7 +86,7 @@ const keepFigures = (runParam: string) => `,
   SELECT id, client_id FROM ins`;
 
 type StoreResult = Omit<IngestResult, 'rejected' | 'rejectedCount'>;
-type InsertedRow = { id: string; client_id: string; point_id: string; value: number; taken_at: Date };
+type InsertedRow = { id: string; client_id: string; point_id: string; value: number; unit: string; taken_at: Date };
 type StoredId = { id: string; client_id: string };
 type GroupRow = { job: number; g: GoodRow };
 interface StoreJob {
@@ -282,7 +282,7 @@ export class IngestService {
         for (const r of rows) if (!byClientId.has(r.g.clientId)) byClientId.set(r.g.clientId, r);
         const ins = ids.map(({ id, client_id }) => {
           const { job, g } = byClientId.get(client_id)!;
-          return { job, row: { id, client_id, point_id: g.point.id, value: g.value, taken_at: g.takenAt } };
+          return { job, row: { id, client_id, point_id: g.point.id, value: g.value, unit: g.point.unit, taken_at: g.takenAt } };
         });
         const fresh: NewReading[] = ins.map(({ row }) => ({
           id: String(row.id),
@@ -300,9 +300,14 @@ export class IngestService {
     }
     await this.alarms.publish(outcome);
     const raisedBy = new Set(outcome.raisedReadingIds);
+    // One readings:new per commit, whatever the number of batches the group held.
+    if (inserted.length)
+      this.broadcast(
+        run,
+        inserted.map((x) => ({ ...x.row, source: group[x.job].ctx.source })),
+      );
     return group.map((j, job) => {
       const mine = inserted.filter((x) => x.job === job).map((x) => x.row);
-      if (mine.length) this.broadcast(j.ctx, mine);
       return {
         stored: mine.length,
         duplicates: j.good.length - mine.length,
@@ -389,35 +394,31 @@ export class IngestService {
     );
   }
 
-  private broadcast(ctx: IngestContext, inserted: { id: string; client_id: string; point_id: string; value: number; taken_at: Date }[]) {
+  private broadcast(run: Run, inserted: (InsertedRow & { source: ReadingSource })[]) {
     // A large logger batch sends only the newest value of each point; viewers fetch the rest as they need.
     let rows = inserted;
     if (rows.length > 500) {
       const latest = new Map<string, (typeof rows)[number]>();
       for (const r of rows) {
         const cur = latest.get(r.point_id);
-        if (!cur || new Date(cur.taken_at) < new Date(r.taken_at)) latest.set(r.point_id, r);
+        if (!cur || cur.taken_at < r.taken_at) latest.set(r.point_id, r);
       }
       rows = [...latest.values()];
     }
     const readings: ReadingDto[] = rows.map((r) => ({
       id: String(r.id),
       clientId: r.client_id,
-      runId: ctx.run.id,
+      runId: run.id,
       pointId: r.point_id,
       value: Number(r.value),
       originalValue: null,
-      unit: '',
-      takenAt: new Date(r.taken_at).toISOString(),
-      source: ctx.source,
+      unit: r.unit,
+      takenAt: r.taken_at.toISOString(),
+      source: r.source,
       enteredByName: null,
       amendments: [],
     }));
-    void this.engines.withPoints(ctx.run.engineId).then(({ points }) => {
-      const unit = new Map(points.map((p) => [p.id, p.unit]));
-      for (const r of readings) r.unit = unit.get(r.pointId) ?? '';
-      this.live.emitToRoom(`run:${ctx.run.id}`, 'readings:new', { runId: ctx.run.id, readings });
-    });
+    this.live.emitToRoom(`run:${run.id}`, 'readings:new', { runId: run.id, readings });
   }
 
   /** What the alarm evaluation needs after a restart: recent readings and the latest ambient value. */
