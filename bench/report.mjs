@@ -38,8 +38,8 @@ if (b1)
     `${fmt(b1.service.latencyMs.p99, 1)} ms`,
     `socket.io echo: ${fmt(b1.baseline.latencyMs.median, 1)} / ${fmt(b1.baseline.latencyMs.p99, 1)} ms`,
     `×${fmt(b1.ratio.median, 1)} / ×${fmt(b1.ratio.p99, 1)}`,
-    'p99 ≤ 25 ms',
-    yes(b1.met),
+    'p99 ≤ 3 × echo p99',
+    b1.service.latencyMs.p99 ? yes(b1.ratio.p99 <= 3) : '**missed** (nothing measured: see 1)',
   ]);
 if (b2)
   rows.push([
@@ -48,18 +48,18 @@ if (b2)
     `slowest batch: ${fmt(b2.service.perBatchRate.p99)}/s`,
     `COPY: ${fmt(b2.baseline.rowsPerSecond)} rows/s`,
     `${fmt(b2.ratio, 2)}`,
-    '≥ 20,000/s; ratio ≥ 0.3',
-    `${yes(b2.service.readingsPerSecond >= 20000)}; ${yes(b2.ratio >= 0.3)}`,
+    'ratio ≥ 0.7',
+    yes(b2.ratio >= 0.7),
   ]);
 if (b3)
   rows.push([
     '3. CSV import, 1,000,000 rows',
     `${fmt(b3.service.rowsPerSecond)} rows/s; peak ${fmt(b3.service.memoryMb.peak)} MB`,
-    '(one import)',
+    b3.service.health ? `health route during it: ${fmt(b3.service.health.p99Ms, 1)} ms` : '(one import)',
     `COPY: ${fmt(b3.baseline.rowsPerSecond)} rows/s`,
     `${fmt(b3.ratio, 2)}`,
-    '≥ 50,000 rows/s; ≤ 300 MB',
-    `${yes(b3.met.throughput)}; ${yes(b3.met.memory)}`,
+    'ratio ≥ 0.6; ≤ 300 MB; health p99 < 50 ms',
+    `${yes(b3.ratio >= 0.6)}; ${yes(b3.met.memory)}; ${b3.service.health ? yes(b3.service.health.p99Ms < 50) : '—'}`,
   ]);
 if (b4) {
   rows.push([
@@ -109,6 +109,16 @@ if (b5) {
     '≤ 1 s',
     yes(b5.met.usable),
   ]);
+  if (b5.liveRun.tablet)
+    rows.push([
+      '5d. Live run page usable as a tablet on poor Wi-Fi (CPU ÷4, slow network; cold)',
+      `${fmt(b5.liveRun.tablet.usableMsCold.median)} ms`,
+      `${fmt(b5.liveRun.tablet.usableMsCold.p99)} ms`,
+      '—',
+      '—',
+      '≤ 3 s',
+      yes(b5.met.tablet),
+    ]);
 }
 if (b6)
   rows.push([
@@ -144,7 +154,8 @@ md.push('');
 md.push(
   `Measured by \`npm run bench\` (bench/run.sh) on ` +
     `${new Date().toISOString().slice(0, 10)}${seconds ? `, in ${Math.round(seconds / 60)} minutes` : ''}. ` +
-    'Each benchmark runs against the built service (`node service/dist/main.js`, NODE_ENV=production, LOG_LEVEL=warn) ' +
+    'Each benchmark runs against the built service (`node --max-old-space-size=192 service/dist/main.js`, as in ' +
+    'production; NODE_ENV=production, LOG_LEVEL=warn) ' +
     'as its own process, ' +
     'a private PostgreSQL cluster with durable commits (fsync on, as in service) and a fresh database, all on 127.0.0.1. ' +
     'The bench scripts (bench/*.mjs) are separate Node processes. The figures below are rewritten by every run; this ' +
@@ -311,6 +322,14 @@ if (b3) {
   );
   md.push('');
   md.push(`Ratio service / COPY: ${fmt(b3.ratio, 2)}. Alarms raised by the file: ${s.alarmsRaised}.`);
+  if (s.health) {
+    md.push('');
+    md.push(
+      `The health route (GET /api/health, one query) asked every 100 ms during the import on a connection of its own: ` +
+        `${fmt(s.health.n)} answers, median ${fmt(s.health.medianMs, 1)} ms, p99 ${fmt(s.health.p99Ms, 1)} ms, ` +
+        `slowest ${fmt(s.health.maxMs, 1)} ms (target: p99 under 50 ms; an import must not starve the live channel).`,
+    );
+  }
 } else md.push('Not measured.');
 md.push('');
 
@@ -375,7 +394,10 @@ if (b4) {
   md.push('');
   md.push('```sql\n' + b4.queries.kept.sql + '\n```\n\n```\n' + shortPlan(b4.plans.kept) + '\n```');
   md.push('');
-  md.push(`and computes those of the open run afresh (${fmt(b4.queries.openRun.ms, 1)} ms):`);
+  md.push(
+    `and reads those of the open run from the figures the storing statement keeps as its readings arrive ` +
+      `(run_point_figures; ${fmt(b4.queries.openRun.ms, 2)} ms):`,
+  );
   md.push('');
   md.push('```sql\n' + b4.queries.openRun.sql + '\n```\n\n```\n' + shortPlan(b4.plans.openRun) + '\n```');
   md.push('');
@@ -433,6 +455,17 @@ if (b5) {
                 '',
                 '',
                 `${fmt(b5.liveRun.busy.usableMsCold.median)} / ${fmt(b5.liveRun.busy.usableMsCold.p99)} ms`,
+              ],
+            ]
+          : []),
+        ...(b5.liveRun.tablet
+          ? [
+              [
+                'live run as a tablet on poor Wi-Fi (CPU ÷4, 150 ms, 1.6 Mbit/s), cold cache',
+                '',
+                '',
+                '',
+                `${fmt(b5.liveRun.tablet.usableMsCold.median)} / ${fmt(b5.liveRun.tablet.usableMsCold.p99)} ms`,
               ],
             ]
           : []),

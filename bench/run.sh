@@ -6,7 +6,8 @@
 #   Not part of npm test. Takes about 10 to 15 minutes.
 #
 # Environment: BENCH_ONLY="1 2" runs only some benchmarks (the report keeps earlier results of the others);
-# BENCH_SKIP_BUILD=1 reuses the current builds; BENCH_HOLD=1 only sets up and seeds, then waits.
+# BENCH_SKIP_BUILD=1 reuses the current builds; BENCH_HOLD=1 only sets up and seeds, then waits;
+# BENCH_PROFILE=<folder> writes a CPU profile of each service process there (node --cpu-prof) when it stops.
 source "$(dirname "${BASH_SOURCE[0]}")/../ops/lib.sh"
 
 PG_PORT="${BENCH_PG_PORT:-55434}"
@@ -78,7 +79,7 @@ start_server() {
     VISIT_RATE_LIMIT_PER_MINUTE=100000 \
     SMTP_HOST=127.0.0.1 SMTP_PORT="$SMTP_PORT" MAIL_INBOX_URL="http://127.0.0.1:$MAIL_HTTP_PORT" \
     S3_ENDPOINT="http://127.0.0.1:$S3_PORT" UI_DIST="$UI_OUT" \
-    exec node dist/main.js >>"$BENCH_SERVER_LOG" 2>&1) &
+    exec node "${SERVICE_NODE_FLAGS[@]}" ${BENCH_PROFILE:+--cpu-prof --cpu-prof-dir="$BENCH_PROFILE" -r "$ROOT/bench/exit-on-term.cjs"} dist/main.js >>"$BENCH_SERVER_LOG" 2>&1) &
   SERVER_PID=$!
   for _ in $(seq 1 150); do
     (exec 3<>"/dev/tcp/127.0.0.1/$APP_PORT") 2>/dev/null && { export BENCH_SERVER_PID="$SERVER_PID"; return 0; }

@@ -39,7 +39,7 @@ start_standins "$SMTP_PORT" "$MAIL_HTTP_PORT" "$S3_PORT" "$ROOT/.data/demo"
 say "migrating and seeding the demo site"
 (cd "$ROOT/service" && node dist/database/migrate.js && node dist/database/seeds/run-seed.js)
 
-(cd "$ROOT/service" && exec node dist/main.js) &
+(cd "$ROOT/service" && exec node "${SERVICE_NODE_FLAGS[@]}" dist/main.js) &
 CHILD_PIDS+=($!)
 wait_for_port "$PORT" "Crankjournal"
 # What `npm run serve` needs to start further instances against this cluster and these stand-ins (0600: it holds

@@ -14,6 +14,7 @@ import { Run } from '../modules/runs/run.entity.js';
 import { RunStateChange } from '../modules/runs/run-state-change.entity.js';
 import { Reading } from '../modules/runs/reading.entity.js';
 import { ReadingAmendment } from '../modules/runs/reading-amendment.entity.js';
+import { RunPointFigure } from '../modules/runs/run-point-figure.entity.js';
 import { DataLogger } from '../modules/runs/logger.entity.js';
 import { Mill } from '../modules/mill/mill.entity.js';
 import { MillStand } from '../modules/mill/mill-stand.entity.js';
@@ -59,6 +60,7 @@ export const ENTITIES = [
   RunStateChange,
   Reading,
   ReadingAmendment,
+  RunPointFigure,
   DataLogger,
   Mill,
   MillStand,

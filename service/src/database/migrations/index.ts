@@ -13,6 +13,7 @@ import { UserSessionVersion1796414632333 } from './1796414632333-UserSessionVers
 import { AlarmForecastRecord1796422336848 } from './1796422336848-AlarmForecastRecord.js';
 import { EngineCallList1796422448681 } from './1796422448681-EngineCallList.js';
 import { CardTraceOrigin1796422565325 } from './1796422565325-CardTraceOrigin.js';
+import { RunPointFigures1796422580256 } from './1796422580256-RunPointFigures.js';
 import { VisitorBoards1796422583042 } from './1796422583042-VisitorBoards.js';
 import { ReadingClientIdPerRun1796423309760 } from './1796423309760-ReadingClientIdPerRun.js';
 import { SeveralInstances1796424019287 } from './1796424019287-SeveralInstances.js';
@@ -36,6 +37,7 @@ export const MIGRATIONS: (new () => MigrationInterface)[] = [
   AlarmForecastRecord1796422336848,
   EngineCallList1796422448681,
   CardTraceOrigin1796422565325,
+  RunPointFigures1796422580256,
   VisitorBoards1796422583042,
   ReadingClientIdPerRun1796423309760,
   SeveralInstances1796424019287,

@@ -302,43 +302,62 @@ interface LevelCheck {
   unit: string;
   /** e.g. "its high limit", "the overspeed limit". */
   limitName: string;
-  /** Message on raise and while held active. */
-  raised: string;
+  /** Message on raise and while held active (written only when read). */
+  raised: () => string;
 }
 
-function levelDecision(check: LevelCheck, active: boolean, deadband: number, subject: string): ConditionDecision {
+/**
+ * A decision whose message is written only when someone reads it: a logger batch evaluates thousands of readings
+ * and keeps the messages of the few that raise or clear an alarm.
+ */
+function decided(d: Omit<ConditionDecision, 'message'>, make: () => string): ConditionDecision {
+  let text: string | undefined;
+  return {
+    kind: d.kind,
+    priority: d.priority,
+    action: d.action,
+    evaluated: d.evaluated,
+    value: d.value,
+    limit: d.limit,
+    unit: d.unit,
+    get message() {
+      return (text ??= make());
+    },
+  };
+}
+
+function levelDecision(check: LevelCheck, active: boolean, deadband: number, subject: () => string): ConditionDecision {
   const decide = check.side === 'high' ? decideHighSide : decideLowSide;
   const action = decide(active, check.value, check.limit, deadband);
   const clearAt = check.side === 'high' ? check.limit - deadband : check.limit + deadband;
   const direction = check.side === 'high' ? 'below' : 'above';
-  let message: string;
-  if (action === 'raise') {
-    message = check.raised;
-  } else if (action === 'clear') {
-    message =
-      deadband > 0
-        ? `${subject} is back to normal: ${direction} ${check.limitName} ${withUnit(check.limit, check.unit)} ` +
-          `less its deadband (${withUnit(clearAt, check.unit)}).`
-        : `${subject} is back to normal: ${direction} ${check.limitName} ${withUnit(check.limit, check.unit)}.`;
-  } else if (active) {
-    message = `${check.raised} Still in alarm until ${direction} ${withUnit(clearAt, check.unit)}.`;
-  } else {
-    message = `${subject} is within ${check.limitName} ${withUnit(check.limit, check.unit)}.`;
-  }
-  return {
-    kind: check.kind,
-    priority: priorityOf(check.kind),
-    action,
-    evaluated: true,
-    value: check.value,
-    limit: check.limit,
-    unit: check.unit,
-    message,
+  const message = () => {
+    if (action === 'raise') return check.raised();
+    if (action === 'clear')
+      return deadband > 0
+        ? `${subject()} is back to normal: ${direction} ${check.limitName} ${withUnit(check.limit, check.unit)} ` +
+            `less its deadband (${withUnit(clearAt, check.unit)}).`
+        : `${subject()} is back to normal: ${direction} ${check.limitName} ${withUnit(check.limit, check.unit)}.`;
+    if (active) return `${check.raised()} Still in alarm until ${direction} ${withUnit(clearAt, check.unit)}.`;
+    return `${subject()} is within ${check.limitName} ${withUnit(check.limit, check.unit)}.`;
   };
+  return decided(
+    {
+      kind: check.kind,
+      priority: priorityOf(check.kind),
+      action,
+      evaluated: true,
+      value: check.value,
+      limit: check.limit,
+      unit: check.unit,
+    },
+    message,
+  );
 }
 
-function notEvaluated(kind: AlarmConditionKind, limit: number | null, unit: string, message: string): ConditionDecision {
-  return { kind, priority: priorityOf(kind), action: 'hold', evaluated: false, value: null, limit, unit, message };
+function notEvaluated(kind: AlarmConditionKind, limit: number | null, unit: string, message: string | (() => string)): ConditionDecision {
+  const d = { kind, priority: priorityOf(kind), action: 'hold' as const, evaluated: false, value: null, limit, unit };
+  return typeof message === 'string' ? { ...d, message } : decided(d, message);
 }
 
 function limitRemoved(kind: AlarmConditionKind, name: string, unit: string): ConditionDecision {
@@ -366,7 +385,8 @@ export function evaluateReading(ctx: EvaluateReadingContext): ConditionDecision[
   const rawDeadband = setting(point.deadband) ?? 0;
   const deadband = rawDeadband > 0 ? rawDeadband : 0;
   const name = point.name;
-  const subject = `${name} ${withUnit(value, unit)}`;
+  let subjectText: string | undefined;
+  const subject = () => (subjectText ??= `${name} ${withUnit(value, unit)}`);
   const active = (kind: AlarmConditionKind) => isActive(ctx.activeConditions, kind);
   const out: ConditionDecision[] = [];
 
@@ -394,7 +414,7 @@ export function evaluateReading(ctx: EvaluateReadingContext): ConditionDecision[
           limit: highHigh,
           unit,
           limitName: 'its high-high limit',
-          raised: `${subject} is above its high-high limit ${withUnit(highHigh, unit)}.`,
+          raised: () => `${subject()} is above its high-high limit ${withUnit(highHigh, unit)}.`,
         },
   );
 
@@ -420,7 +440,7 @@ export function evaluateReading(ctx: EvaluateReadingContext): ConditionDecision[
         limit,
         unit,
         limitName: 'the maximum allowable working pressure',
-        raised: `${subject} is above the maximum allowable working pressure ${withUnit(limit, unit)}.`,
+        raised: () => `${subject()} is above the maximum allowable working pressure ${withUnit(limit, unit)}.`,
       });
     }
   } else if (active('above_mawp')) {
@@ -443,7 +463,7 @@ export function evaluateReading(ctx: EvaluateReadingContext): ConditionDecision[
         limit: overspeed,
         unit,
         limitName: 'the overspeed limit',
-        raised: `${subject} is above the overspeed limit ${withUnit(overspeed, unit)}.`,
+        raised: () => `${subject()} is above the overspeed limit ${withUnit(overspeed, unit)}.`,
       });
     }
   } else if (active('overspeed')) {
@@ -462,7 +482,7 @@ export function evaluateReading(ctx: EvaluateReadingContext): ConditionDecision[
           limit: high,
           unit,
           limitName: 'its high limit',
-          raised: `${subject} is above its high limit ${withUnit(high, unit)}.`,
+          raised: () => `${subject()} is above its high limit ${withUnit(high, unit)}.`,
         },
   );
 
@@ -478,7 +498,7 @@ export function evaluateReading(ctx: EvaluateReadingContext): ConditionDecision[
           limit: low,
           unit,
           limitName: 'its low limit',
-          raised: `${subject} is below its low limit ${withUnit(low, unit)}.`,
+          raised: () => `${subject()} is below its low limit ${withUnit(low, unit)}.`,
         },
   );
 
@@ -498,31 +518,37 @@ export function evaluateReading(ctx: EvaluateReadingContext): ConditionDecision[
           'rate_of_rise',
           maxRate,
           rateUnit,
-          `${name}: rate of rise not checked — it needs an earlier reading at least ${fmt(minSpan)} min before this one ` +
+          () =>
+            `${name}: rate of rise not checked — it needs an earlier reading at least ${fmt(minSpan)} min before this one ` +
             `and within the last ${fmt(windowMinutes)} min.`,
         ),
       );
     } else {
       const action = decideHighSide(isActiveRate, rate.ratePerMin, maxRate, 0);
-      const over =
-        `${name} is rising at ${withUnit(rate.ratePerMin, rateUnit)} over the last ${fmt(rate.spanMinutes)} min ` +
-        `(${withUnit(rate.fromValue, unit)} to ${withUnit(value, unit)})`;
-      const message =
-        action === 'raise' || (action === 'hold' && isActiveRate)
+      const message = () => {
+        const over =
+          `${name} is rising at ${withUnit(rate.ratePerMin, rateUnit)} over the last ${fmt(rate.spanMinutes)} min ` +
+          `(${withUnit(rate.fromValue, unit)} to ${withUnit(value, unit)})`;
+        return action === 'raise' || (action === 'hold' && isActiveRate)
           ? `${over}, above its limit ${withUnit(maxRate, rateUnit)}.`
           : action === 'clear'
             ? `${over}; back within its limit ${withUnit(maxRate, rateUnit)}.`
             : `${over}; within its limit ${withUnit(maxRate, rateUnit)}.`;
-      out.push({
-        kind: 'rate_of_rise',
-        priority: priorityOf('rate_of_rise'),
-        action,
-        evaluated: true,
-        value: rate.ratePerMin,
-        limit: maxRate,
-        unit: rateUnit,
-        message,
-      });
+      };
+      out.push(
+        decided(
+          {
+            kind: 'rate_of_rise',
+            priority: priorityOf('rate_of_rise'),
+            action,
+            evaluated: true,
+            value: rate.ratePerMin,
+            limit: maxRate,
+            unit: rateUnit,
+          },
+          message,
+        ),
+      );
     }
   }
 
@@ -534,30 +560,32 @@ export function evaluateReading(ctx: EvaluateReadingContext): ConditionDecision[
     const ambient = setting(ctx.ambientTemperature);
     if (ambient === null) {
       out.push(
-        notEvaluated('above_ambient', maxRise, unit, `${name}: rise above ambient not checked — there is no ambient temperature reading.`),
+        notEvaluated(
+          'above_ambient',
+          maxRise,
+          unit,
+          () => `${name}: rise above ambient not checked — there is no ambient temperature reading.`,
+        ),
       );
     } else {
       const rise = value - ambient;
       const isActiveAmbient = active('above_ambient');
       const action = decideHighSide(isActiveAmbient, rise, maxRise, deadband);
-      const base = `${subject} is ${withUnit(rise, unit)} above ambient ${withUnit(ambient, unit)}`;
-      const message =
-        action === 'raise' || (action === 'hold' && isActiveAmbient)
+      const message = () => {
+        const base = `${subject()} is ${withUnit(rise, unit)} above ambient ${withUnit(ambient, unit)}`;
+        return action === 'raise' || (action === 'hold' && isActiveAmbient)
           ? `${base}, more than the allowed ${withUnit(maxRise, unit)}.`
           : action === 'clear'
             ? `${base}; back within the allowed ${withUnit(maxRise, unit)}` +
               `${deadband > 0 ? ` less its deadband ${withUnit(deadband, unit)}` : ''}.`
             : `${base}; within the allowed ${withUnit(maxRise, unit)}.`;
-      out.push({
-        kind: 'above_ambient',
-        priority: priorityOf('above_ambient'),
-        action,
-        evaluated: true,
-        value: rise,
-        limit: maxRise,
-        unit,
-        message,
-      });
+      };
+      out.push(
+        decided(
+          { kind: 'above_ambient', priority: priorityOf('above_ambient'), action, evaluated: true, value: rise, limit: maxRise, unit },
+          message,
+        ),
+      );
     }
   }
 

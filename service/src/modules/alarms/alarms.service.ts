@@ -21,6 +21,7 @@ import { temperatureInUnit, unitLabel } from '../../calculations/units.js';
 import { FORECAST_DEFAULTS } from '../../calculations/trend-forecast.js';
 import { AppConfig } from '../../config/app-config.service.js';
 import { runAlone } from '../../common/util/run-alone.js';
+import { YIELD_EVERY_ROWS, yieldToEventLoop } from '../../common/util/yield.js';
 import {
   AlarmTransitionError,
   applyShelveExpiry,
@@ -258,7 +259,9 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
     // Built once per call rather than once per reading (a logger batch holds thousands of readings).
     const engineLimits = { maximumAllowableWorkingPressurePsig: engine.mawpPsig, overspeedRpm: engine.overspeedRpm };
     const settingsById = new Map<string, EnginePoint & { name: string }>();
+    let done = 0;
     for (const r of sorted) {
+      if (++done % YIELD_EVERY_ROWS === 0) await yieldToEventLoop();
       const point = pointById.get(r.pointId);
       if (!point) continue;
       let settings = settingsById.get(point.id);

@@ -149,11 +149,20 @@ export class BearingHistoryService {
     const ownIds = new Set(own.map((p) => p.id));
     const { ambient, speed, ihpByRun } = ctx;
     const started = ctx.runs;
+    // Grouped by pushing (not by copying the list at every element: a run can hold thousands of alarm changes).
     const byRun = new Map<string, PointRunStat[]>();
-    for (const s of stats) byRun.set(s.runId, [...(byRun.get(s.runId) ?? []), s]);
+    for (const s of stats) {
+      const list = byRun.get(s.runId);
+      if (list) list.push(s);
+      else byRun.set(s.runId, [s]);
+    }
     const alarmsByRun = new Map<string, AlarmDto[]>();
-    for (const a of alarms)
-      if (a.runId && a.pointId && ownIds.has(a.pointId)) alarmsByRun.set(a.runId, [...(alarmsByRun.get(a.runId) ?? []), a]);
+    for (const a of alarms) {
+      if (!a.runId || !a.pointId || !ownIds.has(a.pointId)) continue;
+      const list = alarmsByRun.get(a.runId);
+      if (list) list.push(a);
+      else alarmsByRun.set(a.runId, [a]);
+    }
 
     const rows: BearingRunRow[] = [];
     for (const r of started) {
@@ -209,8 +218,9 @@ export class BearingHistoryService {
       judged.map((x) => ({ id: x.runId, load: x.load!, temperatureRiseF: x.riseAtPeakF! })),
       options,
     );
+    const rowOf = new Map(rows.map((x) => [x.runId, x]));
     for (const v of verdicts) {
-      const row = rows.find((x) => x.runId === v.id)!;
+      const row = rowOf.get(v.id)!;
       if (!v.check || !v.band) {
         row.driftNote =
           v.historyRuns === 0

@@ -2,7 +2,7 @@ import { Column, Entity, Index, PrimaryColumn } from 'typeorm';
 
 /**
  * Aggregates of one point's readings in one closed run, kept once computed: a closed run's readings can no
- * longer change (no new readings, no amendments), so its figures are fixed. Open runs are always computed afresh.
+ * longer change (no new readings, no amendments), so its figures are fixed. Open runs read run_point_figures.
  * A row with count 0 records that the point had no readings in that run.
  */
 @Entity({ name: 'run_point_stats' })

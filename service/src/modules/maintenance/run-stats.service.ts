@@ -14,9 +14,9 @@ const WARM_EVERY_MS = 10 * 60_000;
 
 /**
  * Per-run figures of points for the bearing histories. Closed runs are computed once with one grouped query
- * (ReadingsService.pointRunStats) and kept in run_point_stats; open runs are computed afresh each time. A
+ * (ReadingsService.pointRunStats) and kept in run_point_stats; open runs read the figures kept as readings arrive. A
  * background pass fills the figures of newly closed runs, so a history over millions of readings reads only
- * one small row per run and point.
+ * one small row per run and point (open runs: ReadingsService.keptPointRunStats).
  */
 @Injectable()
 export class RunStatsService implements OnApplicationBootstrap, OnModuleDestroy {
@@ -139,7 +139,8 @@ export class RunStatsService implements OnApplicationBootstrap, OnModuleDestroy 
           .orIgnore()
           .execute();
     }
-    const live = open.length ? await this.readings.pointRunStats(pointIds, { runIds: open }) : [];
+    // Open runs: the figures the ingest path keeps as readings arrive (one row per run and point, not their readings).
+    const live = open.length ? await this.readings.keptPointRunStats(pointIds, open) : [];
     return [
       ...kept
         .filter((k) => k.count > 0)

@@ -1,8 +1,12 @@
+import { Readable } from 'node:stream';
+import { pipeline } from 'node:stream/promises';
 import { ConflictException, Injectable, Logger } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { plainToInstance } from 'class-transformer';
 import { isDateString, isUUID, validateSync } from 'class-validator';
 import { DataSource, EntityManager } from 'typeorm';
+import type { PoolClient } from 'pg';
+import { from as copyFrom } from 'pg-copy-streams';
 import {
   RUN_STATES_TAKING_READINGS,
   type IngestResult,
@@ -14,7 +18,8 @@ import { EnginesService, type EngineWithPoints } from '../engines/engines.servic
 import { AlarmsService, type NewReading, type PointReading, type RecentHistoryLoader } from '../alarms/alarms.service.js';
 import { LiveService } from '../live/live.service.js';
 import { KeyedMutex } from '../../common/util/keyed-mutex.js';
-import { flattenValidationErrors } from '../../common/pipes/validation.pipe.js';
+import { YIELD_EVERY_ROWS, yieldToEventLoop } from '../../common/util/yield.js';
+import { flattenValidationErrors, hiddenKeyPath } from '../../common/pipes/validation.pipe.js';
 import { RunsService } from './runs.service.js';
 import { Run } from './run.entity.js';
 import { ReadingInputDto } from './dto/reading.dto.js';
@@ -59,8 +64,31 @@ const GROUP_MAX_ROWS = 5000;
 /** Delimiter of the text-encoded columns of the INSERT (the ASCII unit separator). */
 const SEP = '\u001f';
 
+/** From this many rows a store goes by COPY into a staging table (fewer: one INSERT, one round trip less). */
+const COPY_MIN_ROWS = 200;
+
+/** A value as a field of COPY's text format (backslash, tab and line breaks escaped). */
+const copyText = (v: string) =>
+  /[\\\t\n\r]/.test(v) ? v.replace(/[\\\t\n\r]/g, (c) => ({ '\\': '\\\\', '\t': '\\t', '\n': '\\n', '\r': '\\r' })[c]!) : v;
+
+/**
+ * The tail of the storing statement after `WITH ins AS (INSERT INTO readings ... RETURNING ...)`: adds the new
+ * readings to the run's kept figures per point (run_point_figures, in the same statement) and hands back the new ids.
+ */
+const keepFigures = (runParam: string) => `,
+  fig AS (INSERT INTO run_point_figures AS f (run_id, point_id, count, total, peak, least, first_at, last_at)
+          SELECT ${runParam}::uuid, point_id, count(*), sum(value), max(value), min(value), min(taken_at), max(taken_at)
+            FROM ins GROUP BY point_id
+          ON CONFLICT (run_id, point_id) DO UPDATE SET
+            count = f.count + EXCLUDED.count, total = f.total + EXCLUDED.total,
+            peak = GREATEST(f.peak, EXCLUDED.peak), least = LEAST(f.least, EXCLUDED.least),
+            first_at = LEAST(f.first_at, EXCLUDED.first_at), last_at = GREATEST(f.last_at, EXCLUDED.last_at))
+  SELECT id, client_id FROM ins`;
+
 type StoreResult = Omit<IngestResult, 'rejected' | 'rejectedCount'>;
-type InsertedRow = { id: string; client_id: string; point_id: string; value: number; taken_at: Date };
+type InsertedRow = { id: string; client_id: string; point_id: string; value: number; unit: string; taken_at: Date };
+type StoredId = { id: string; client_id: string };
+type GroupRow = { job: number; g: GoodRow };
 interface StoreJob {
   ctx: IngestContext;
   good: GoodRow[];
@@ -100,6 +128,8 @@ export class IngestService {
   private readonly mutex = new KeyedMutex();
   /** Per engine: batches waiting for the engine's turn, oldest first. */
   private readonly waiting = new Map<string, StoreJob[]>();
+  /** Database connections that hold the staging table of insertByCopy. */
+  private readonly staged = new WeakSet<PoolClient>();
 
   constructor(
     @InjectDataSource() private readonly db: DataSource,
@@ -128,11 +158,14 @@ export class IngestService {
       const where = ctx.lineOf ? { line: ctx.lineOf(index) } : { index };
       rejected.push({ ...where, ...(field ? { field, column: col(field) } : {}), reason });
     };
-    rows.forEach((raw, index) => {
+    const checkRow = (raw: unknown, index: number) => {
       if (typeof raw !== 'object' || raw === null || Array.isArray(raw)) return reject(index, undefined, 'each reading must be an object');
       let dto: ReadingInputDto;
       if (plainlyValidReading(raw)) dto = raw;
       else {
+        // Keys class-transformer would drop without a word are refused, as the global pipe refuses them elsewhere.
+        const hidden = hiddenKeyPath(raw);
+        if (hidden) return reject(index, undefined, `property ${hidden} should not exist`);
         dto = plainToInstance(ReadingInputDto, raw);
         const errors = validateSync(dto, { whitelist: true, forbidNonWhitelisted: true });
         if (errors.length) {
@@ -160,7 +193,11 @@ export class IngestService {
       if (seen.has(dto.clientId)) return; // the same reading twice in one batch counts once
       seen.add(dto.clientId);
       good.push({ clientId: dto.clientId, point, value: dto.value, takenAt: t });
-    });
+    };
+    for (let i = 0; i < rows.length; i++) {
+      checkRow(rows[i], i);
+      if (i % YIELD_EVERY_ROWS === YIELD_EVERY_ROWS - 1) await yieldToEventLoop();
+    }
     return { good, rejected, rejectedCount };
   }
 
@@ -228,50 +265,29 @@ export class IngestService {
   /** One transaction for the group: insert, evaluate alarms, commit; then publish and broadcast. */
   private async commitGroup(engineId: string, group: StoreJob[]): Promise<StoreResult[]> {
     const run = group[0].ctx.run;
-    const rows: { job: number; g: GoodRow }[] = [];
+    const rows: GroupRow[] = [];
     group.forEach((j, job) => j.good.forEach((g) => rows.push({ job, g })));
     let outcome;
     let inserted: { job: number; row: InsertedRow }[];
+    const madeStage: PoolClient[] = [];
     try {
+      // The one transaction of a store: everything from here to its commit happens in it.
       ({ inserted, outcome } = await this.db.transaction(async (m) => {
         // Across service instances: one transaction per engine at a time (the mutex above orders this instance only).
         await m.query(`SELECT pg_advisory_xact_lock(${ENGINE_WRITE_LOCK}, hashtext($1))`, [engineId]);
         const [state] = await m.query(`SELECT state FROM runs WHERE id = $1 FOR SHARE`, [run.id]);
         if (!state || !RUN_STATES_TAKING_READINGS.includes(state.state)) throw new ConflictException('This run no longer takes readings.');
-        // Columns go as delimited text (cheaper to build than array literals for thousands of rows); every
-        // field is a uuid, a number, an ISO time, a source word or a unit, none of which holds the delimiter.
-        const col = (f: (r: { job: number; g: GoodRow }) => string) => rows.map(f).join(SEP);
-        const ids: { id: string; client_id: string }[] = await m.query(
-          `INSERT INTO readings (client_id, run_id, engine_id, point_id, value, unit, taken_at, source, entered_by, logger_id)
-           SELECT c, $2::uuid, $3::uuid, p, v, u, t, s, e, l
-             FROM unnest(
-               string_to_array($1, $11)::uuid[], string_to_array($4, $11)::uuid[], string_to_array($5, $11)::float8[],
-               string_to_array($6, $11), string_to_array($7, $11)::timestamptz[], string_to_array($8, $11),
-               string_to_array($9, $11, '')::uuid[], string_to_array($10, $11, '')::uuid[]
-             ) AS x(c, p, v, u, t, s, e, l)
-           ON CONFLICT (run_id, client_id) DO NOTHING
-           RETURNING id, client_id`,
-          [
-            col((r) => r.g.clientId),
-            run.id,
-            engineId,
-            col((r) => r.g.point.id),
-            col((r) => String(r.g.value)),
-            col((r) => r.g.point.unit),
-            col((r) => r.g.takenAt.toISOString()),
-            col((r) => group[r.job].ctx.source),
-            col((r) => group[r.job].ctx.enteredBy ?? ''),
-            col((r) => group[r.job].ctx.loggerId ?? ''),
-            SEP,
-          ],
-        );
+        const ids =
+          rows.length >= COPY_MIN_ROWS
+            ? await this.insertByCopy(m, run.id, engineId, group, rows, madeStage)
+            : await this.insertByUnnest(m, run.id, engineId, group, rows);
         // Only the new ids come back from the database; the rest is what was just checked. A client id
         // sent by two batches of the group counts for the first.
         const byClientId = new Map<string, { job: number; g: GoodRow }>();
         for (const r of rows) if (!byClientId.has(r.g.clientId)) byClientId.set(r.g.clientId, r);
         const ins = ids.map(({ id, client_id }) => {
           const { job, g } = byClientId.get(client_id)!;
-          return { job, row: { id, client_id, point_id: g.point.id, value: g.value, taken_at: g.takenAt } };
+          return { job, row: { id, client_id, point_id: g.point.id, value: g.value, unit: g.point.unit, taken_at: g.takenAt } };
         });
         await this.assertResentUnchanged(m, run.id, rows, ins);
         const fresh: NewReading[] = ins.map(({ row }) => ({
@@ -285,13 +301,19 @@ export class IngestService {
       }));
     } catch (e) {
       this.alarms.forget(engineId);
+      for (const c of madeStage) this.staged.delete(c); // rolled back with the transaction
       throw e;
     }
     await this.alarms.publish(outcome);
     const raisedBy = new Set(outcome.raisedReadingIds);
+    // One readings:new per commit, whatever the number of batches the group held.
+    if (inserted.length)
+      this.broadcast(
+        run,
+        inserted.map((x) => ({ ...x.row, source: group[x.job].ctx.source })),
+      );
     return group.map((j, job) => {
       const mine = inserted.filter((x) => x.job === job).map((x) => x.row);
-      if (mine.length) this.broadcast(j.ctx, mine);
       return {
         stored: mine.length,
         duplicates: j.good.length - mine.length,
@@ -336,35 +358,109 @@ export class IngestService {
       );
   }
 
-  private broadcast(ctx: IngestContext, inserted: { id: string; client_id: string; point_id: string; value: number; taken_at: Date }[]) {
+  /** A few rows (live readings, rounds): one INSERT with the columns as delimited text. */
+  private insertByUnnest(m: EntityManager, runId: string, engineId: string, group: StoreJob[], rows: GroupRow[]): Promise<StoredId[]> {
+    // Columns go as delimited text (cheaper to build than array literals for thousands of rows); every
+    // field is a uuid, a number, an ISO time, a source word or a unit, none of which holds the delimiter.
+    const col = (f: (r: GroupRow) => string) => rows.map(f).join(SEP);
+    return m.query(
+      `WITH ins AS (INSERT INTO readings (client_id, run_id, engine_id, point_id, value, unit, taken_at, source, entered_by, logger_id)
+       SELECT c, $2::uuid, $3::uuid, p, v, u, t, s, e, l
+         FROM unnest(
+           string_to_array($1, $11)::uuid[], string_to_array($4, $11)::uuid[], string_to_array($5, $11)::float8[],
+           string_to_array($6, $11), string_to_array($7, $11)::timestamptz[], string_to_array($8, $11),
+           string_to_array($9, $11, '')::uuid[], string_to_array($10, $11, '')::uuid[]
+         ) AS x(c, p, v, u, t, s, e, l)
+       ON CONFLICT (run_id, client_id) DO NOTHING
+       RETURNING id, client_id, point_id, value, taken_at)${keepFigures('$2')}`,
+      [
+        col((r) => r.g.clientId),
+        runId,
+        engineId,
+        col((r) => r.g.point.id),
+        col((r) => String(r.g.value)),
+        col((r) => r.g.point.unit),
+        col((r) => r.g.takenAt.toISOString()),
+        col((r) => group[r.job].ctx.source),
+        col((r) => group[r.job].ctx.enteredBy ?? ''),
+        col((r) => group[r.job].ctx.loggerId ?? ''),
+        SEP,
+      ],
+    );
+  }
+
+  /**
+   * Many rows (logger batches, CSV chunks): COPY into a temporary staging table of the connection, then one
+   * INSERT ... SELECT ... ON CONFLICT into readings. COPY is PostgreSQL's cheapest way in; the staging table
+   * keeps "once per client id" and hands back the new ids, which a COPY straight into readings could not.
+   */
+  private async insertByCopy(
+    m: EntityManager,
+    runId: string,
+    engineId: string,
+    group: StoreJob[],
+    rows: GroupRow[],
+    madeStage: PoolClient[],
+  ): Promise<StoredId[]> {
+    const client = (await m.queryRunner!.connect()) as PoolClient;
+    if (!this.staged.has(client)) {
+      // Kept for the connection's life, emptied at every commit; made again if the transaction that made it rolls back.
+      await m.query(
+        `CREATE TEMP TABLE IF NOT EXISTS reading_stage (client_id uuid, point_id uuid, value float8, unit text,
+           taken_at timestamptz, source text, entered_by uuid, logger_id uuid) ON COMMIT DELETE ROWS`,
+      );
+      this.staged.add(client);
+      madeStage.push(client);
+    }
+    const copy = client.query(copyFrom('COPY reading_stage FROM STDIN'));
+    async function* lines() {
+      for (let i = 0; i < rows.length; i += YIELD_EVERY_ROWS) {
+        let text = '';
+        for (const { job, g } of rows.slice(i, i + YIELD_EVERY_ROWS)) {
+          const ctx = group[job].ctx;
+          const what = `${g.value}\t${copyText(g.point.unit)}\t${g.takenAt.toISOString()}`;
+          const who = `${ctx.source}\t${ctx.enteredBy ?? '\\N'}\t${ctx.loggerId ?? '\\N'}`;
+          text += `${g.clientId}\t${g.point.id}\t${what}\t${who}\n`;
+        }
+        yield text;
+        await yieldToEventLoop();
+      }
+    }
+    await pipeline(Readable.from(lines()), copy);
+    return m.query(
+      `WITH ins AS (INSERT INTO readings (client_id, run_id, engine_id, point_id, value, unit, taken_at, source, entered_by, logger_id)
+       SELECT client_id, $1::uuid, $2::uuid, point_id, value, unit, taken_at, source, entered_by, logger_id FROM reading_stage
+       ON CONFLICT (run_id, client_id) DO NOTHING
+       RETURNING id, client_id, point_id, value, taken_at)${keepFigures('$1')}`,
+      [runId, engineId],
+    );
+  }
+
+  private broadcast(run: Run, inserted: (InsertedRow & { source: ReadingSource })[]) {
     // A large logger batch sends only the newest value of each point; viewers fetch the rest as they need.
     let rows = inserted;
     if (rows.length > 500) {
       const latest = new Map<string, (typeof rows)[number]>();
       for (const r of rows) {
         const cur = latest.get(r.point_id);
-        if (!cur || new Date(cur.taken_at) < new Date(r.taken_at)) latest.set(r.point_id, r);
+        if (!cur || cur.taken_at < r.taken_at) latest.set(r.point_id, r);
       }
       rows = [...latest.values()];
     }
     const readings: ReadingDto[] = rows.map((r) => ({
       id: String(r.id),
       clientId: r.client_id,
-      runId: ctx.run.id,
+      runId: run.id,
       pointId: r.point_id,
       value: Number(r.value),
       originalValue: null,
-      unit: '',
-      takenAt: new Date(r.taken_at).toISOString(),
-      source: ctx.source,
+      unit: r.unit,
+      takenAt: r.taken_at.toISOString(),
+      source: r.source,
       enteredByName: null,
       amendments: [],
     }));
-    void this.engines.withPoints(ctx.run.engineId).then(({ points }) => {
-      const unit = new Map(points.map((p) => [p.id, p.unit]));
-      for (const r of readings) r.unit = unit.get(r.pointId) ?? '';
-      this.live.emitToRoom(`run:${ctx.run.id}`, 'readings:new', { runId: ctx.run.id, readings });
-    });
+    this.live.emitToRoom(`run:${run.id}`, 'readings:new', { runId: run.id, readings });
   }
 
   /** What the alarm evaluation needs after a restart: recent readings and the latest ambient value. */

@@ -8,6 +8,7 @@ import { IdParamDto } from '../../common/dto/id-param.dto.js';
 import { ApiAnswer } from '../../common/openapi/api-answer.decorator.js';
 import { LoggersService } from './loggers.service.js';
 import { LoggerKeyGuard } from './logger-key.guard.js';
+import { LoggerBatchBody } from './logger-batch.body.js';
 import { IngestService } from './ingest.service.js';
 import { RunsService } from './runs.service.js';
 import { CreateLoggerDto, LoggerBatchDto } from './dto/reading.dto.js';
@@ -68,7 +69,7 @@ export class LoggersController {
     },
   })
   @ApiHeader({ name: 'x-logger-key', required: true })
-  async push(@Body() dto: LoggerBatchDto, @Req() req: { logger: DataLogger }): Promise<IngestResult> {
+  async push(@LoggerBatchBody() dto: LoggerBatchDto, @Req() req: { logger: DataLogger }): Promise<IngestResult> {
     const logger = req.logger;
     const run = dto.runId ? await this.runs.get(dto.runId) : await this.runs.activeRunOf(logger.engineId);
     if (!run) throw new ConflictException('No run of this engine is taking readings now; start one first or name runId.');

@@ -171,6 +171,17 @@ export class ReadingsService {
         at: new Date(),
       });
       await m.update(Reading, { id: readingId }, { amendedValue: value });
+      // The run's kept figures of the point, recomputed. Its row is locked first, in a statement of its own, so
+      // the recount (a new statement, a new snapshot) includes any readings a store committed meanwhile.
+      const key = [cur!.runId, cur!.pointId];
+      await m.query(`SELECT 1 FROM run_point_figures WHERE run_id = $1 AND point_id = $2 FOR UPDATE`, key);
+      await m.query(
+        `UPDATE run_point_figures f SET (count, total, peak, least, first_at, last_at) =
+           (SELECT count(*), sum(v), max(v), min(v), min(taken_at), max(taken_at)
+              FROM (SELECT COALESCE(amended_value, value) AS v, taken_at FROM readings WHERE point_id = $2 AND run_id = $1) r)
+          WHERE f.run_id = $1 AND f.point_id = $2`,
+        key,
+      );
     });
     const [dto] = await this.toDtos([(await this.readingRepo.findOne({ where: { id: readingId } }))!]);
     this.live.emitToRoom(`run:${r0.runId}`, 'reading:amended', dto);
@@ -191,6 +202,35 @@ export class ReadingsService {
       yield page;
       after = String(page[page.length - 1].id);
     }
+  }
+
+  /** The kept figures (run_point_figures) of some points in some runs: one small row per run and point with readings. */
+  async keptPointRunStats(pointIds: string[], runIds: string[]): Promise<PointRunStat[]> {
+    if (!pointIds.length || !runIds.length) return [];
+    const rows: {
+      run_id: string;
+      point_id: string;
+      count: number;
+      total: number;
+      peak: number;
+      least: number;
+      first_at: Date;
+      last_at: Date;
+    }[] = await this.db.query(
+      `SELECT run_id, point_id, count, total, peak, least, first_at, last_at FROM run_point_figures
+          WHERE run_id = ANY($1::uuid[]) AND point_id = ANY($2::uuid[]) AND count > 0`,
+      [runIds, pointIds],
+    );
+    return rows.map((r) => ({
+      runId: r.run_id,
+      pointId: r.point_id,
+      peak: Number(r.peak),
+      mean: Number(r.total) / r.count,
+      least: Number(r.least),
+      count: r.count,
+      firstAt: new Date(r.first_at),
+      lastAt: new Date(r.last_at),
+    }));
   }
 
   /**

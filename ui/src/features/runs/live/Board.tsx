@@ -1,5 +1,5 @@
+import { lazy, Suspense } from 'react';
 import { Box, Group, Paper, SimpleGrid, Stack, Text, Title } from '@mantine/core';
-import { Sparkline } from '@mantine/charts';
 import dayjs from 'dayjs';
 import { IconAlertOctagon, IconAlertTriangle } from '@tabler/icons-react';
 import {
@@ -12,6 +12,9 @@ import {
 import { useUnits } from '../../units/useUnits';
 import { AlarmStateBadge, alarmLook } from '../../alarms/components/alarm-look';
 import { GaugeGlass, LIMIT_MARK_WORDS, limitMark } from './GaugeGlass';
+
+/** The charts library (recharts) is loaded after the tiles are on screen: a tile shows its value first, its trend a moment later. */
+const Sparkline = lazy(() => import('@mantine/charts').then((m) => ({ default: m.Sparkline })));
 
 export type EnginePoint = MeasurementPointDto & { id: string };
 
@@ -95,15 +98,17 @@ function BoardTile({ point, board }: { point: EnginePoint; board: BoardPoint | n
           </Group>
           {trend.length > 1 && (
             <Box w={96} style={{ flexShrink: 0 }} aria-label={`Trend of the last ${trend.length} values`} role="img">
-              <Sparkline
-                h={40}
-                data={trend.map((v) => display(v, point.unit).value)}
-                color={look && !look.shelved ? `${look.color}.6` : 'gray.6'}
-                withGradient={false}
-                fillOpacity={0.15}
-                strokeWidth={2}
-                curveType="linear"
-              />
+              <Suspense fallback={<Box h={40} />}>
+                <Sparkline
+                  h={40}
+                  data={trend.map((v) => display(v, point.unit).value)}
+                  color={look && !look.shelved ? `${look.color}.6` : 'gray.6'}
+                  withGradient={false}
+                  fillOpacity={0.15}
+                  strokeWidth={2}
+                  curveType="linear"
+                />
+              </Suspense>
             </Box>
           )}
         </Group>

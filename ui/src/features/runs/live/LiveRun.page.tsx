@@ -1,5 +1,5 @@
 import '@mantine/charts/styles.css';
-import { useCallback, useEffect, useMemo, useState } from 'react';
+import { lazy, Suspense, useCallback, useEffect, useMemo, useState } from 'react';
 import { Link, useSearchParams, useParams } from 'react-router-dom';
 import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { Alert, Badge, Button, Center, Group, Loader, Stack, Tabs, Text } from '@mantine/core';
@@ -34,8 +34,10 @@ import { CsvImport } from './CsvImport';
 import { useAmendReading } from './live-actions.api';
 import { QueueStatus, waitingText } from './QueueStatus';
 import { AmendModal, ReadingsTable } from './ReadingsTable';
-import { TrendCharts } from './TrendCharts';
 import { useLiveRun } from './useLiveRun';
+
+/** The trend charts (and the charts library) load after the board's tiles and the run are on screen. */
+const TrendCharts = lazy(() => import('./TrendCharts').then((m) => ({ default: m.TrendCharts })));
 
 const TABS = ['board', 'alarms', 'readings', 'cards', 'import'] as const;
 type Tab = (typeof TABS)[number];
@@ -220,7 +222,9 @@ export default function LiveRunPage() {
                 ) : !readings.data ? (
                   <Alert color="signal">{errorText(readings.error)}</Alert>
                 ) : (
-                  <TrendCharts points={points} readings={readings.data ?? []} alarms={alarmList} engine={engine.data} />
+                  <Suspense fallback={<Loader />}>
+                    <TrendCharts points={points} readings={readings.data ?? []} alarms={alarmList} engine={engine.data} />
+                  </Suspense>
                 ))}
             </Stack>
           )}
