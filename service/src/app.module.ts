@@ -26,6 +26,7 @@ import { IndicatorCardsModule } from './modules/indicator-cards/indicator-cards.
 import { MaintenanceModule } from './modules/maintenance/maintenance.module.js';
 import { LubricationModule } from './modules/lubrication/lubrication.module.js';
 import { SiteModule } from './modules/site/site.module.js';
+import { PaymentsModule } from './modules/payments/payments.module.js';
 import { RecordsModule } from './modules/records/records.module.js';
 
 @Module({
@@ -60,6 +61,7 @@ import { RecordsModule } from './modules/records/records.module.js';
     LubricationModule,
     SiteModule,
     RecordsModule,
+    PaymentsModule,
   ],
   providers: [
     { provide: APP_GUARD, useClass: JwtAuthGuard },

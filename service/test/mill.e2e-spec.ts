@@ -419,7 +419,20 @@ describe('the mill (API)', () => {
       expect(noRun.body.message).toMatch(/Link the run/);
       const run = await createMillRun(t, chief.accessToken, engine.id);
       expect((await signedIn(t, lead).post(`/api/mill/lots/${lot.id}/runs`).send({ runId: run.id })).status).toBe(200);
-      expect((await move(lead, lot.id, 'scheduled')).status).toBe(200);
+      const unpaid = await move(lead, lot.id, 'scheduled');
+      expect(unpaid.status).toBe(409);
+      expect(unpaid.body.message).toMatch(/deposit for this lot is not paid.*chief engineer may put it on the roll plan/);
+      const notChief = await signedIn(t, lead)
+        .post(`/api/mill/lots/${lot.id}/transitions`)
+        .send({ to: 'scheduled', overrideReason: 'Regular customer' });
+      expect(notChief.status).toBe(403);
+      const overridden = await signedIn(t, chief)
+        .post(`/api/mill/lots/${lot.id}/transitions`)
+        .send({ to: 'scheduled', overrideReason: 'Regular customer, pays on account' });
+      expect(overridden.status).toBe(200);
+      expect((overridden.body as LotDetail).history.at(-1)?.note).toMatch(
+        /^Override by the chief engineer: Regular customer, pays on account/,
+      );
       const notRolled = await move(lead, lot.id, 'rolled');
       expect(notRolled.status).toBe(409);
       expect(notRolled.body.message).toMatch(/tonnage produced/);

@@ -87,7 +87,7 @@ describe('printed records from the demo data', () => {
       .send({ worksName: 'Alder Forge', timeZone: 'Europe/London', wetSignature: true });
     expect(ok.status).toBe(200);
     const read = await signedIn(t, observer).get('/api/site/settings');
-    expect(read.body).toEqual({ worksName: 'Alder Forge', timeZone: 'Europe/London', wetSignature: true });
+    expect(read.body).toEqual({ worksName: 'Alder Forge', timeZone: 'Europe/London', wetSignature: true, depositSharePct: 30 });
   });
 
   it('the run log sheet of a run with amendments, alarms, checklists and card sets shows each of them, in local time', async () => {

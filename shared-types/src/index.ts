@@ -18,3 +18,4 @@ export * from './api/maintenance.js';
 export * from './api/lubrication.js';
 export * from './api/site.js';
 export * from './autotrace/autotrace.js';
+export * from './api/payments.js';

@@ -41,6 +41,7 @@ import { RunPointStat } from '../modules/maintenance/run-point-stat.entity.js';
 import { Oil, LubricationPointOil } from '../modules/lubrication/oil.entity.js';
 import { OilConsumptionEntry } from '../modules/lubrication/oil-consumption.entity.js';
 import { SiteSettings } from '../modules/site/site-settings.entity.js';
+import { Payment, PaymentEvent, PaymentRefund } from '../modules/payments/payment.entity.js';
 /** Every entity, in one list for the application and the migration CLI. Add new ones here. */
 export const ENTITIES = [
   User,
@@ -90,4 +91,7 @@ export const ENTITIES = [
   LubricationPointOil,
   OilConsumptionEntry,
   SiteSettings,
+  Payment,
+  PaymentRefund,
+  PaymentEvent,
 ];

@@ -10,6 +10,7 @@ import { ReadingsPointRunIndex1796169344642 } from './1796169344642-ReadingsPoin
 import { AlarmSuppression1796170500000 } from './1796170500000-AlarmSuppression.js';
 import { SiteSettings1796413937879 } from './1796413937879-SiteSettings.js';
 import { UserSessionVersion1796414632333 } from './1796414632333-UserSessionVersion.js';
+import { Payments1796422787315 } from './1796422787315-Payments.js';
 
 /** Every migration in order. Add new ones at the end; never edit one that has been committed. */
 export const MIGRATIONS: (new () => MigrationInterface)[] = [
@@ -24,4 +25,5 @@ export const MIGRATIONS: (new () => MigrationInterface)[] = [
   SiteSettings1796413937879,
   CardSetBarometer1796414559444,
   UserSessionVersion1796414632333,
+  Payments1796422787315,
 ];

@@ -1,4 +1,4 @@
-import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
+import { BadRequestException, ConflictException, ForbiddenException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
 import { DataSource, type EntityManager, Repository } from 'typeorm';
 import {
@@ -33,6 +33,12 @@ import { QuotePdfService } from './quote-pdf.service.js';
 
 const label = (s: LotStatus) => LOT_STATUS_LABELS[s].toLowerCase();
 
+/**
+ * Asked before a lot goes on the roll plan (status `scheduled`): why it may not yet, or null. Feature modules
+ * register theirs (payments: the deposit is not paid); the chief engineer may override with a reason.
+ */
+export type RollPlanGate = (lotId: string) => Promise<string | null>;
+
 @Injectable()
 export class LotsService {
   constructor(
@@ -49,6 +55,12 @@ export class LotsService {
     private readonly mail: MailService,
     private readonly users: UsersService,
   ) {}
+
+  private readonly rollPlanGates: RollPlanGate[] = [];
+
+  registerRollPlanGate(gate: RollPlanGate): void {
+    this.rollPlanGates.push(gate);
+  }
 
   async get(id: string): Promise<CustomerLot> {
     const l = await this.customerLotRepo.findOne({ where: { id } });
@@ -243,6 +255,16 @@ export class LotsService {
       throw new ConflictException('Link the run that will roll the lot before marking it scheduled.');
     if (dto.to === 'rolled' && !(l.producedTonnes > 0))
       throw new ConflictException('Record the tonnage produced before marking the lot rolled.');
+    let note = dto.note?.trim() || null;
+    if (dto.to === 'scheduled') {
+      const refusals = (await Promise.all(this.rollPlanGates.map((g) => g(id)))).filter((r): r is string => !!r);
+      const reason = dto.overrideReason?.trim();
+      if (refusals.length && !reason)
+        throw new ConflictException(`${refusals.join(' ')} The chief engineer may put it on the roll plan with a reason.`);
+      if (refusals.length && user.role !== 'chief_engineer')
+        throw new ForbiddenException('Only the chief engineer may put a lot on the roll plan before its deposit is paid.');
+      if (refusals.length) note = [`Override by the chief engineer: ${reason}`, `(${refusals.join(' ')})`, note].filter(Boolean).join(' ');
+    }
     await this.db.transaction(async (m) => {
       const cur = await m.findOne(CustomerLot, { where: { id }, lock: { mode: 'pessimistic_write' } });
       if (!cur || cur.status !== l.status) throw new ConflictException('Someone else moved this lot a moment ago. Look again and retry.');
@@ -253,10 +275,20 @@ export class LotsService {
         toStatus: dto.to,
         byUser: user.id,
         at,
-        note: dto.note?.trim() || null,
+        note,
       });
     });
     return this.detail(id);
+  }
+
+  /** The customer paid the deposit: a lot still quoted is accepted (by the person who asked for the money). */
+  async acceptOnDeposit(id: string, byUser: string, at: Date, note: string): Promise<void> {
+    await this.db.transaction(async (m) => {
+      const cur = await m.findOne(CustomerLot, { where: { id }, lock: { mode: 'pessimistic_write' } });
+      if (!cur || cur.status !== 'quoted') return;
+      await m.update(CustomerLot, { id }, { status: 'accepted' });
+      await m.insert(LotStatusChange, { lotId: id, fromStatus: 'quoted', toStatus: 'accepted', byUser, at, note });
+    });
   }
 
   async linkRun(id: string, runId: string, user: AuthUser): Promise<LotDetail> {
