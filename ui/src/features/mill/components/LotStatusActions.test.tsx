@@ -1,6 +1,6 @@
 import userEvent from '@testing-library/user-event';
 import type { Role } from '@crankjournal/shared-types';
-import { render, screen, waitFor } from '../../../test-utils/render';
+import { render, screen, waitFor, within } from '../../../test-utils/render';
 import { lot } from '../../../test-utils/fixtures/mill';
 import { json, signIn, signOut, stubFetch } from '../../../test-utils/http';
 import { LotStatusActions } from './LotStatusActions';
@@ -71,5 +71,29 @@ describe('LotStatusActions', () => {
     expect(JSON.parse(String(init1?.body))).toEqual({ producedTonnes: 1.95, scrappedTonnes: 0.1 });
     expect(JSON.parse(String(fetchSpy.mock.calls[1]![1]?.body))).toEqual({ to: 'rolled' });
     expect(await screen.findByRole('alert', {}, { timeout: 5000 })).toHaveTextContent('Someone else moved this lot');
+  });
+
+  it('the chief engineer may give a reason to put a lot on the roll plan before its deposit is paid', async () => {
+    const user = userEvent.setup();
+    signIn('chief_engineer');
+    const { spy: fetchSpy } = stubFetch({ '*': lot({ status: 'scheduled', nextStatus: 'rolled' }) });
+    render(<LotStatusActions lot={lot({ status: 'accepted', nextStatus: 'scheduled' })} />);
+    await user.click(screen.getByRole('button', { name: 'Mark scheduled' }));
+    await user.type(await screen.findByRole('textbox', { name: /before the deposit is paid/ }), 'Regular customer, pays on account');
+    await user.click(within(screen.getByRole('dialog')).getByRole('button', { name: 'Mark scheduled' }));
+    await waitFor(() => expect(fetchSpy).toHaveBeenCalled(), { timeout: 10_000 });
+    expect(JSON.parse(String(fetchSpy.mock.calls[0]![1]?.body))).toEqual({
+      to: 'scheduled',
+      overrideReason: 'Regular customer, pays on account',
+    });
+  });
+
+  it('the mill lead is not offered the override', async () => {
+    const user = userEvent.setup();
+    signIn('mill_lead');
+    render(<LotStatusActions lot={lot({ status: 'accepted', nextStatus: 'scheduled' })} />);
+    await user.click(screen.getByRole('button', { name: 'Mark scheduled' }));
+    expect(await screen.findByText(/only the chief engineer may put it there/)).toBeInTheDocument();
+    expect(screen.queryByRole('textbox', { name: /before the deposit is paid/ })).not.toBeInTheDocument();
   });
 });

@@ -31,6 +31,8 @@ export function LotStatusActions({ lot }: { lot: LotDetail }) {
   const update = useUpdateLot(lot.id);
   const [open, setOpen] = useState(false);
   const [note, setNote] = useState('');
+  const isChief = useHasRole('chief_engineer');
+  const [overrideReason, setOverrideReason] = useState('');
   const [produced, setProduced] = useState<number | ''>(lot.producedTonnes || lot.barTonnes.produced || '');
   const [scrapped, setScrapped] = useState<number | ''>(lot.scrappedTonnes || lot.barTonnes.scrapped || '');
   const next = lot.nextStatus;
@@ -42,7 +44,11 @@ export function LotStatusActions({ lot }: { lot: LotDetail }) {
         scrappedTonnes: scrapped === '' ? 0 : Number(scrapped),
       });
     }
-    move.mutate({ to: next, note: note.trim() || undefined }, { onSuccess: () => setOpen(false) });
+    const reason = next === 'scheduled' && isChief ? overrideReason.trim() : '';
+    move.mutate(
+      { to: next, note: note.trim() || undefined, ...(reason ? { overrideReason: reason } : {}) },
+      { onSuccess: () => setOpen(false) },
+    );
   };
   const error = move.error ?? update.error;
   return (
@@ -73,6 +79,19 @@ export function LotStatusActions({ lot }: { lot: LotDetail }) {
                 onChange={(v) => setScrapped(v === '' ? '' : Number(v))}
               />
             </Group>
+          )}
+          {next === 'scheduled' && (
+            <Text fz="sm">
+              A lot goes on the roll plan once its deposit is paid; before that only the chief engineer may put it there, with a reason.
+            </Text>
+          )}
+          {next === 'scheduled' && isChief && (
+            <TextInput
+              label="Reason to put it on the roll plan before the deposit is paid"
+              description="Only needed while the deposit is unpaid; kept in the lot's history with your name."
+              value={overrideReason}
+              onChange={(e) => setOverrideReason(e.currentTarget.value)}
+            />
           )}
           <TextInput label="Note (optional)" value={note} onChange={(e) => setNote(e.currentTarget.value)} />
           {error && (
