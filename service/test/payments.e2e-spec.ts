@@ -79,7 +79,7 @@ describe('payments for customer lots (API, against the payment stand-in)', () =>
   it('deposit asked, e-mailed with the quote, declined once, paid with the test card; roll plan; balance; refund', async () => {
     const { lot, quote, email } = await quotedLot();
     const quotedMinor = Math.round(quote.total * 100);
-    const unpaid = await signedIn(t, lead).post(`/api/mill/lots/${lot.id}/transitions`).send({ to: 'accepted' });
+    const unpaid = await signedIn(t, lead).post(`/api/mill/lots/${lot.id}/transitions`).send({ to: 'ordered' });
     expect(unpaid.status).toBe(200);
 
     const asked = await signedIn(t, lead).post(`/api/payments/lots/${lot.id}/requests`).send({ kind: 'deposit' });
@@ -108,7 +108,7 @@ describe('payments for customer lots (API, against the payment stand-in)', () =>
     const m2 = await money(lot.id);
     expect(m2.payments[0]).toMatchObject({ state: 'asked', declineReason: expect.stringMatching(/declined/) as unknown });
     expect(m2.depositPaid).toBe(false);
-    const stillUnpaid = await signedIn(t, lead).post(`/api/mill/lots/${lot.id}/transitions`).send({ to: 'scheduled' });
+    const stillUnpaid = await signedIn(t, lead).post(`/api/mill/lots/${lot.id}/transitions`).send({ to: 'on_roll_plan' });
     expect(stillUnpaid.status).toBe(409);
 
     const paid = await payOnPage(p.checkoutUrl!, PAYS);
@@ -123,11 +123,11 @@ describe('payments for customer lots (API, against the payment stand-in)', () =>
 
     const run = await createMillRun(t, chief.accessToken, engine.id);
     expect((await signedIn(t, lead).post(`/api/mill/lots/${lot.id}/runs`).send({ runId: run.id })).status).toBe(200);
-    expect((await signedIn(t, lead).post(`/api/mill/lots/${lot.id}/transitions`).send({ to: 'scheduled' })).status).toBe(200);
+    expect((await signedIn(t, lead).post(`/api/mill/lots/${lot.id}/transitions`).send({ to: 'on_roll_plan' })).status).toBe(200);
 
     // Dispatched, then the balance: the quote less the deposit; settled when paid.
     expect((await signedIn(t, lead).patch(`/api/mill/lots/${lot.id}`).send({ producedTonnes: 3.9 })).status).toBe(200);
-    for (const to of ['rolled', 'inspected', 'delivered'])
+    for (const to of ['rolled', 'passed', 'dispatched'])
       expect((await signedIn(t, lead).post(`/api/mill/lots/${lot.id}/transitions`).send({ to })).status).toBe(200);
     const outstanding = (await signedIn(t, admin).get('/api/payments/outstanding')).body as OutstandingLot[];
     expect(outstanding.find((o) => o.lotId === lot.id)?.dueMinor).toBe(quotedMinor - p.amountMinor);
@@ -202,7 +202,7 @@ describe('payments for customer lots (API, against the payment stand-in)', () =>
     expect((await payOnPage(p.checkoutUrl!, PAYS)).status).toBe(303);
     expect((await postEvent(failed(`evt_test_late_${p.id.slice(0, 8)}`, 'Too late.'))).body).toEqual({ received: true, applied: true });
     expect((await money(lot.id)).payments[0]).toMatchObject({ state: 'paid', declineReason: null });
-    expect((await lotOf(lot.id)).status).toBe('accepted');
+    expect((await lotOf(lot.id)).status).toBe('ordered');
   });
 
   it('who may see and move money', async () => {

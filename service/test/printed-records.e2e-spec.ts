@@ -174,7 +174,7 @@ describe('printed records from the demo data', () => {
       const p = inspectPdf(r.buffer);
       expectClean(p, Number(p.info.Pages));
       expect(p.text).toContain('Total');
-      expect(r.filename).toMatch(/^quote-lot-2026-\d{3}-q\d+\.pdf$/);
+      expect(r.filename).toMatch(/^quote-bl26-\d{3}-q\d+\.pdf$/);
     }
     const r = await t.app.get(LotsService).quotePdf(quotes[0].id, PRINTED_BY, PRINTED_AT);
     expect(compareWithGolden(r.buffer, 1, golden('quote-p1'))).toBeLessThan(GOLDEN_TOLERANCE);

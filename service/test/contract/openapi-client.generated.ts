@@ -249,7 +249,7 @@ export interface paths {
     patch: operations["LotsController_update"];
   };
   "/api/mill/lots/{id}/transitions": {
-    /** Move a lot one step: enquiry → quoted → accepted → scheduled → rolled → inspected → delivered (409 when skipping) */
+    /** Move a lot one step: on the slate → priced → ordered → on the roll plan → rolled → passed inspection → dispatched (409 when skipping; an unpaid lot goes on the roll plan only by the chief engineer, with overrideReason) */
     post: operations["LotsController_transition"];
   };
   "/api/mill/lots/{id}/runs": {
@@ -267,7 +267,7 @@ export interface paths {
     get: operations["LotsController_pdf"];
   };
   "/api/mill/quotes/{id}/send": {
-    /** E-mail the quote as a PDF to the customer (an enquiry becomes quoted) */
+    /** E-mail the quote as a PDF to the customer (a lot on the slate becomes priced) */
     post: operations["LotsController_send"];
   };
   "/api/calculations/rolling-pass": {
@@ -984,7 +984,7 @@ export interface components {
     };
     LotTransitionDto: {
       /** @enum {string} */
-      to: "enquiry" | "quoted" | "accepted" | "scheduled" | "rolled" | "inspected" | "delivered";
+      to: "on_the_slate" | "priced" | "ordered" | "on_roll_plan" | "rolled" | "passed" | "dispatched";
       note?: string;
       /** @description chief engineer: put an unpaid lot on the roll plan, with this reason */
       overrideReason?: string;
@@ -3283,7 +3283,7 @@ export interface components {
       payments: components["schemas"]["PaymentDto"][];
     };
     /** @enum {string} */
-    LotStatus: "enquiry" | "quoted" | "accepted" | "scheduled" | "rolled" | "inspected" | "delivered";
+    LotStatus: "on_the_slate" | "priced" | "ordered" | "on_roll_plan" | "rolled" | "passed" | "dispatched";
     LotStatusChangeDto: {
       from: components["schemas"]["LotStatus"] | null;
       to: components["schemas"]["LotStatus"];
@@ -7874,7 +7874,7 @@ export interface operations {
       };
     };
   };
-  /** Move a lot one step: enquiry → quoted → accepted → scheduled → rolled → inspected → delivered (409 when skipping) */
+  /** Move a lot one step: on the slate → priced → ordered → on the roll plan → rolled → passed inspection → dispatched (409 when skipping; an unpaid lot goes on the roll plan only by the chief engineer, with overrideReason) */
   LotsController_transition: {
     requestBody: {
       content: {
@@ -8119,7 +8119,7 @@ export interface operations {
       };
     };
   };
-  /** E-mail the quote as a PDF to the customer (an enquiry becomes quoted) */
+  /** E-mail the quote as a PDF to the customer (a lot on the slate becomes priced) */
   LotsController_send: {
     requestBody: {
       content: {

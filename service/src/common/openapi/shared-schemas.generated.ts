@@ -3161,7 +3161,7 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
     additionalProperties: false,
     description: "GET /api/payments/lots/:id: a lot's money, in minor units of its currency.",
   },
-  LotStatus: { type: 'string', enum: ['enquiry', 'quoted', 'accepted', 'scheduled', 'rolled', 'inspected', 'delivered'] },
+  LotStatus: { type: 'string', enum: ['on_the_slate', 'priced', 'ordered', 'on_roll_plan', 'rolled', 'passed', 'dispatched'] },
   LotStatusChangeDto: {
     type: 'object',
     properties: {

@@ -11,6 +11,7 @@ import { AlarmSuppression1796170500000 } from './1796170500000-AlarmSuppression.
 import { SiteSettings1796413937879 } from './1796413937879-SiteSettings.js';
 import { UserSessionVersion1796414632333 } from './1796414632333-UserSessionVersion.js';
 import { Payments1796422787315 } from './1796422787315-Payments.js';
+import { LotWords1796424481387 } from './1796424481387-LotWords.js';
 
 /** Every migration in order. Add new ones at the end; never edit one that has been committed. */
 export const MIGRATIONS: (new () => MigrationInterface)[] = [
@@ -26,4 +27,5 @@ export const MIGRATIONS: (new () => MigrationInterface)[] = [
   CardSetBarometer1796414559444,
   UserSessionVersion1796414632333,
   Payments1796422787315,
+  LotWords1796424481387,
 ];

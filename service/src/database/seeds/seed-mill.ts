@@ -120,7 +120,7 @@ export async function seedMill(app: INestApplicationContext, engine: Engine, use
         on: s.on,
         order: 1,
         act: async () => {
-          if (s.to === 'scheduled' && runTitle) {
+          if (s.to === 'on_roll_plan' && runTitle) {
             const run = await db.getRepository(Run).findOneByOrFail({ engineId: engine.id, title: runTitle });
             await lots.linkRun(lot.id, run.id, lead);
           }
@@ -130,7 +130,7 @@ export async function seedMill(app: INestApplicationContext, engine: Engine, use
             const t = await rollSeasonBars(run, scheduleId, lot.id, bars);
             await lots.update(lot.id, { producedTonnes: t.produced, scrappedTonnes: t.scrapped });
           }
-          if (s.to === 'scheduled') await lots.transition(lot.id, { to: s.to, note: s.note, ...offline }, chief, noon(s.on));
+          if (s.to === 'on_roll_plan') await lots.transition(lot.id, { to: s.to, note: s.note, ...offline }, chief, noon(s.on));
           else await lots.transition(lot.id, { to: s.to, note: s.note }, lead, noon(s.on));
         },
       })),

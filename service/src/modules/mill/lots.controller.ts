@@ -18,7 +18,7 @@ import {
   SendQuoteDto,
 } from './dto/lot.dto.js';
 
-/** Small customer lots, from enquiry to delivery, and their quotes. */
+/** Small customer lots, from the order slate to dispatch, and their quotes. */
 /** Operators and the maintenance lead see no money: amounts are left out of their answers. */
 const seesMoney = (me: AuthUser) => MONEY_READERS.includes(me.role);
 const withoutMoney = <T extends LotSummary>(l: T): T => ({ ...l, latestQuoteTotal: null, ...('quotes' in l ? { quotes: [] } : {}) });
@@ -64,7 +64,9 @@ export class LotsController {
   @HttpCode(200)
   @Roles(...MILL_WRITERS)
   @ApiOperation({
-    summary: 'Move a lot one step: enquiry → quoted → accepted → scheduled → rolled → inspected → delivered (409 when skipping)',
+    summary:
+      'Move a lot one step: on the slate → priced → ordered → on the roll plan → rolled → passed inspection → dispatched ' +
+      '(409 when skipping; an unpaid lot goes on the roll plan only by the chief engineer, with overrideReason)',
   })
   transition(@Param() p: IdParamDto, @Body() dto: LotTransitionDto, @CurrentUser() me: AuthUser): Promise<LotDetail> {
     return this.lots.transition(p.id, dto, me);
@@ -113,7 +115,7 @@ export class LotsController {
   @Post('quotes/:id/send')
   @HttpCode(200)
   @Roles(...MILL_WRITERS)
-  @ApiOperation({ summary: 'E-mail the quote as a PDF to the customer (an enquiry becomes quoted)' })
+  @ApiOperation({ summary: 'E-mail the quote as a PDF to the customer (a lot on the slate becomes priced)' })
   send(@Param() p: IdParamDto, @Body() dto: SendQuoteDto, @CurrentUser() me: AuthUser): Promise<QuoteDto> {
     return this.lots.sendQuote(p.id, dto, me);
   }

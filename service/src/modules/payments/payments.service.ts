@@ -124,9 +124,9 @@ export class PaymentsService implements OnModuleInit {
     };
   }
 
-  /** Lots with money still to come: quoted and accepted onwards, not settled. */
+  /** Lots with money still to come: ordered onwards, not settled. */
   async outstanding(): Promise<OutstandingLot[]> {
-    const lots = (await this.lots.list({})).filter((l) => !['enquiry', 'quoted'].includes(l.status) && l.latestQuoteTotal !== null);
+    const lots = (await this.lots.list({})).filter((l) => !['on_the_slate', 'priced'].includes(l.status) && l.latestQuoteTotal !== null);
     const out: OutstandingLot[] = [];
     for (const l of lots) {
       const m = await this.lotMoney(l.id);
@@ -162,7 +162,7 @@ export class PaymentsService implements OnModuleInit {
     if (dto.kind === 'deposit') {
       if (dto.adjustmentMinor !== undefined)
         throw new BadRequestException('adjustmentMinor is for a balance; a deposit takes sharePct or amountMinor.');
-      if (!['quoted', 'accepted'].includes(lot.status))
+      if (!['priced', 'ordered'].includes(lot.status))
         throw new ConflictException(
           `Lot ${lot.reference} is ${lot.status}: a deposit is asked once the quote is sent and before the roll plan.`,
         );
@@ -173,7 +173,7 @@ export class PaymentsService implements OnModuleInit {
     } else {
       if (dto.sharePct !== undefined)
         throw new BadRequestException('sharePct is for a deposit; a balance takes amountMinor or adjustmentMinor.');
-      if (lot.status !== 'delivered')
+      if (lot.status !== 'dispatched')
         throw new ConflictException(`Lot ${lot.reference} is ${lot.status}: the balance is asked after dispatch.`);
       if (now.settled) throw new ConflictException(`Lot ${lot.reference} is settled: its balance is paid.`);
       amountMinor = dto.amountMinor ?? now.dueMinor + (dto.adjustmentMinor ?? 0);

@@ -55,7 +55,7 @@ export default function LotDetailPage() {
   const [runId, setRunId] = useState<string | null>(null);
   if (isLoading) return <Loader />;
   if (error || !lot) return <Alert color="signal">{errorText(error)}</Alert>;
-  const delivered = lot.status === 'delivered';
+  const delivered = lot.status === 'dispatched';
   const linkable = (runs.data ?? []).filter((r) => !lot.runs.some((x) => x.id === r.id) && r.state !== 'abandoned');
   return (
     <Stack gap="lg">

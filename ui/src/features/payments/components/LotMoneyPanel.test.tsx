@@ -30,7 +30,7 @@ function payment(over: Partial<PaymentDto> = {}): PaymentDto {
 function money(over: Partial<LotMoney> = {}): LotMoney {
   return {
     lotId: 'lot-1',
-    reference: 'LOT-2026-001',
+    reference: 'BL26-001',
     currency: 'GBP',
     quotedMinor: 123456,
     depositSharePct: 30,
@@ -67,7 +67,7 @@ describe('LotMoneyPanel', () => {
         return json(now);
       },
     });
-    render(<LotMoneyPanel lot={lot({ id: 'lot-1', status: 'quoted' })} />);
+    render(<LotMoneyPanel lot={lot({ id: 'lot-1', status: 'priced' })} />);
     await user.click(await screen.findByRole('button', { name: 'Ask for the deposit' }));
     await user.click(await screen.findByRole('button', { name: 'Send the payment link' }));
     await waitFor(() => expect(calls.some((c) => c.method === 'POST')).toBe(true), { timeout: 5000 });
@@ -78,7 +78,7 @@ describe('LotMoneyPanel', () => {
   it('shows a declined attempt with its reason, and is asked again while money is asked', async () => {
     signIn('observer');
     stubFetch({ 'GET /payments/lots/:id': money({ payments: [payment({ declineReason: 'Your card was declined. generic_decline' })] }) });
-    render(<LotMoneyPanel lot={lot({ id: 'lot-1', status: 'accepted' })} />);
+    render(<LotMoneyPanel lot={lot({ id: 'lot-1', status: 'ordered' })} />);
     expect(await screen.findByText('Last attempt failed: Your card was declined. generic_decline')).toBeInTheDocument();
     expect(screen.queryByRole('button', { name: 'Ask for the deposit' })).not.toBeInTheDocument();
     const opts = lotMoneyQuery('lot-1');
@@ -93,7 +93,7 @@ describe('LotMoneyPanel', () => {
   it('the mill lead sees a paid deposit and cannot refund it', async () => {
     signIn('mill_lead');
     stubFetch({ 'GET /payments/lots/:id': paid() });
-    render(<LotMoneyPanel lot={lot({ id: 'lot-1', status: 'accepted' })} />);
+    render(<LotMoneyPanel lot={lot({ id: 'lot-1', status: 'ordered' })} />);
     expect(await screen.findByTestId('payment-deposit')).toHaveTextContent('Paid');
     expect(screen.queryByRole('button', { name: 'Refund' })).not.toBeInTheDocument();
   });
@@ -102,7 +102,7 @@ describe('LotMoneyPanel', () => {
     const user = userEvent.setup();
     signIn('administrator');
     const { calls } = stubFetch({ 'GET /payments/lots/:id': paid(), 'POST /payments/:id/refunds': paid() });
-    render(<LotMoneyPanel lot={lot({ id: 'lot-1', status: 'accepted' })} />);
+    render(<LotMoneyPanel lot={lot({ id: 'lot-1', status: 'ordered' })} />);
     await user.click(await screen.findByRole('button', { name: 'Refund' }));
     await user.type(await screen.findByRole('textbox', { name: /Reason/ }), 'Lot withdrawn');
     await user.click(within(await screen.findByRole('dialog')).getByRole('button', { name: 'Refund' }));

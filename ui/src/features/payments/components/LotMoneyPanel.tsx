@@ -218,8 +218,8 @@ export function LotMoneyPanel({ lot }: { lot: LotDetail }) {
   if (error) return <Alert color="signal">{errorText(error)}</Alert>;
   if (!m) return null;
   const open = m.payments.some((p) => p.state === 'asked');
-  const mayAskDeposit = canAsk && !open && !m.depositPaid && m.quotedMinor !== null && ['quoted', 'accepted'].includes(lot.status);
-  const mayAskBalance = canAsk && !open && !m.settled && m.dueMinor > 0 && lot.status === 'delivered';
+  const mayAskDeposit = canAsk && !open && !m.depositPaid && m.quotedMinor !== null && ['priced', 'ordered'].includes(lot.status);
+  const mayAskBalance = canAsk && !open && !m.settled && m.dueMinor > 0 && lot.status === 'dispatched';
   return (
     <Card withBorder padding="lg">
       <Group justify="space-between" mb="sm">
@@ -303,7 +303,7 @@ export function LotMoneyPanel({ lot }: { lot: LotDetail }) {
           </Table>
         </Table.ScrollContainer>
       )}
-      {!m.depositPaid && ['quoted', 'accepted'].includes(lot.status) && (
+      {!m.depositPaid && ['priced', 'ordered'].includes(lot.status) && (
         <Text fz="sm" c="dimmed" mt="sm">
           The lot goes on the roll plan once the deposit is paid (or by the chief engineer&apos;s override, with a reason).
         </Text>
