@@ -171,15 +171,22 @@ pg_database() {
   fi
 }
 
-# start_standins SMTP_PORT MAIL_HTTP_PORT S3_PORT DATA_DIR
+# start_standins SMTP_PORT MAIL_HTTP_PORT S3_PORT DATA_DIR [PAYMENTS_PORT WEBHOOK_URL]
+# The payment stand-in uses PAYMENTS_API_KEY and PAYMENTS_WEBHOOK_SECRET from the environment when set.
 start_standins() {
-  local smtp="$1" mailhttp="$2" s3="$3" dir="$4"
+  local smtp="$1" mailhttp="$2" s3="$3" dir="$4" payments="${5:-}" webhook="${6:-}"
   node "$ROOT/ops/standins/mail-inbox.mjs" --smtp-port "$smtp" --http-port "$mailhttp" --dir "$dir/mail" &
   CHILD_PIDS+=($!)
   node "$ROOT/ops/standins/object-store.mjs" --port "$s3" --dir "$dir/objects" &
   CHILD_PIDS+=($!)
+  if [ -n "$payments" ]; then
+    node "$ROOT/ops/standins/payments.mjs" --port "$payments" --webhook-url "$webhook" \
+      --api-key "${PAYMENTS_API_KEY:-sk_test_crankjournal_standin}" --webhook-secret "${PAYMENTS_WEBHOOK_SECRET:-whsec_crankjournal_standin}" &
+    CHILD_PIDS+=($!)
+  fi
   wait_for_port "$smtp" "mail inbox"
   wait_for_port "$s3" "object store"
+  [ -z "$payments" ] || wait_for_port "$payments" "payment stand-in"
 }
 
 wait_for_port() {

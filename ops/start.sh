@@ -8,6 +8,7 @@ PG_PORT="${PG_PORT:-55432}"
 SMTP_PORT="${SMTP_PORT:-2525}"
 MAIL_HTTP_PORT="${MAIL_HTTP_PORT:-8025}"
 S3_PORT="${S3_PORT:-4569}"
+PAYMENTS_PORT="${PAYMENTS_PORT:-4242}"
 DB_NAME="crankjournal"
 
 SERVE_ENV="$ROOT/.data/serve.env"
@@ -15,7 +16,7 @@ cleanup() { trap - EXIT INT TERM; say "stopping"; rm -f "$SERVE_ENV"; stop_child
 trap cleanup EXIT
 trap 'exit 130' INT TERM
 
-for p in "$PORT" "$SMTP_PORT" "$MAIL_HTTP_PORT" "$S3_PORT"; do
+for p in "$PORT" "$SMTP_PORT" "$MAIL_HTTP_PORT" "$S3_PORT" "$PAYMENTS_PORT"; do
   port_free "$p" || { say "port $p is already in use (is Crankjournal already running?)"; exit 1; }
 done
 
@@ -32,10 +33,11 @@ export SMTP_HOST=127.0.0.1 SMTP_PORT
 export MAIL_INBOX_URL="http://127.0.0.1:$MAIL_HTTP_PORT"
 export S3_ENDPOINT="http://127.0.0.1:$S3_PORT"
 export UI_DIST="$ROOT/ui/dist"
+export PAYMENTS_API_URL="http://127.0.0.1:$PAYMENTS_PORT"
 # Generated once, kept in .data/jwt-secret (0600); the service refuses to start without a secret of its own.
 export JWT_SECRET="${JWT_SECRET:-$(secret_file jwt-secret)}"
 
-start_standins "$SMTP_PORT" "$MAIL_HTTP_PORT" "$S3_PORT" "$ROOT/.data/demo"
+start_standins "$SMTP_PORT" "$MAIL_HTTP_PORT" "$S3_PORT" "$ROOT/.data/demo" "$PAYMENTS_PORT" "$PUBLIC_URL/api/payments/webhook"
 say "migrating and seeding the demo site"
 (cd "$ROOT/service" && node dist/database/migrate.js && node dist/database/seeds/run-seed.js)
 
@@ -52,6 +54,7 @@ cat <<INFO
   Crankjournal is running:   http://127.0.0.1:$PORT
   API documentation:         http://127.0.0.1:$PORT/api/docs
   Local mail inbox:          http://127.0.0.1:$MAIL_HTTP_PORT
+  Payment stand-in:          http://127.0.0.1:$PAYMENTS_PORT (card 4242 4242 4242 4242 pays, 4000 0000 0000 0002 is declined)
   PostgreSQL (private):      127.0.0.1:$PG_PORT, data in $PGDATA_DIR
                              (passwords in .data/pg-superuser-password, .data/pg-crankjournal-password)
 

@@ -11,6 +11,7 @@ PG_PORT="${TEST_PG_PORT:-55433}"
 SMTP_PORT="${TEST_SMTP_PORT:-2535}"
 MAIL_HTTP_PORT="${TEST_MAIL_HTTP_PORT:-8035}"
 S3_PORT="${TEST_S3_PORT:-4579}"
+PAYMENTS_PORT="${TEST_PAYMENTS_PORT:-4252}"
 APP_PORT="${TEST_APP_PORT:-3100}"
 STANDINS_DIR="$ROOT/.data/test-standins"
 RESULTS="$ROOT/.data/test-results"
@@ -27,7 +28,7 @@ trap cleanup EXIT
 trap 'exit 130' INT TERM
 
 STARTED_AT=$(date +%s)
-for p in "$SMTP_PORT" "$MAIL_HTTP_PORT" "$S3_PORT" "$APP_PORT"; do
+for p in "$SMTP_PORT" "$MAIL_HTTP_PORT" "$S3_PORT" "$PAYMENTS_PORT" "$APP_PORT"; do
   port_free "$p" || { say "port $p is already in use (is another npm test running?)"; exit 1; }
 done
 
@@ -37,7 +38,8 @@ ensure_poppler
 pg_up test "$PG_PORT"
 rm -rf "$STANDINS_DIR" "$RESULTS"
 mkdir -p "$STANDINS_DIR" "$RESULTS"
-start_standins "$SMTP_PORT" "$MAIL_HTTP_PORT" "$S3_PORT" "$STANDINS_DIR"
+# The browser suite's service receives the payment stand-in's events; API tests register their own endpoint.
+start_standins "$SMTP_PORT" "$MAIL_HTTP_PORT" "$S3_PORT" "$STANDINS_DIR" "$PAYMENTS_PORT" "http://127.0.0.1:$APP_PORT/api/payments/webhook"
 
 # A failed build (for example the UI while it is being written) is reported, and the suites still run.
 set +e
@@ -64,6 +66,7 @@ export LOGIN_ADDRESS_LIMIT_PER_MINUTE=100000 LOGIN_ACCOUNT_LIMIT_PER_HOUR=100000
 export SMTP_HOST=127.0.0.1 SMTP_PORT
 export MAIL_INBOX_URL="http://127.0.0.1:$MAIL_HTTP_PORT"
 export S3_ENDPOINT="http://127.0.0.1:$S3_PORT"
+export PAYMENTS_API_URL="http://127.0.0.1:$PAYMENTS_PORT"
 
 say "creating fresh test databases"
 # The reliability suite creates and drops its own databases as the cluster's superuser.

@@ -57,6 +57,8 @@ export async function createApp(opts: { logger?: boolean } = {}): Promise<NestEx
     );
   }
   app.useWebSocketAdapter(new PostgresIoAdapter(app, config.get('DATABASE_URL')));
+  // The payment service signs the exact bytes it sends: its webhook keeps the raw body for the SDK to verify.
+  app.use('/api/payments/webhook', express.raw({ type: () => true, limit: '1mb' }));
   app.use('/api', express.json({ limit: '5mb' }));
   app.setGlobalPrefix('api');
   app.enableShutdownHooks();

@@ -26,6 +26,7 @@ import { IndicatorCardsModule } from './modules/indicator-cards/indicator-cards.
 import { MaintenanceModule } from './modules/maintenance/maintenance.module.js';
 import { LubricationModule } from './modules/lubrication/lubrication.module.js';
 import { SiteModule } from './modules/site/site.module.js';
+import { PaymentsModule } from './modules/payments/payments.module.js';
 import { RecordsModule } from './modules/records/records.module.js';
 import { VisitModule } from './modules/visit/visit.module.js';
 
@@ -62,6 +63,7 @@ import { VisitModule } from './modules/visit/visit.module.js';
     SiteModule,
     RecordsModule,
     VisitModule,
+    PaymentsModule,
   ],
   providers: [
     { provide: APP_GUARD, useClass: JwtAuthGuard },

@@ -279,6 +279,7 @@ describe('live answers keep to the description', () => {
       '/api/mill/schedules/{id}': await first('/api/mill/schedules', 'mill_lead'),
       '/api/mill/runs/{runId}': millRuns[0]?.runId,
       '/api/mill/lots/{id}': lots[0]?.id,
+      '/api/payments/lots/{id}': lots[0]?.id,
       '/api/mill/quotes/{id}': quoteId,
       '/api/card-sets/{id}': cardSetId,
       '/api/card-images/{id}': cardImageId,

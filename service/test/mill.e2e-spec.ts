@@ -10,6 +10,7 @@ import type {
   RunDetail,
   ScheduleDetail,
 } from '@crankjournal/shared-types';
+import { LotWords1796424481387 } from '../src/database/migrations/1796424481387-LotWords.js';
 import { startTestApp, type TestApp } from './utils/test-app.js';
 import { signedIn } from './utils/signed-in.js';
 import { login, type SignedIn } from './factories/users.factory.js';
@@ -377,10 +378,10 @@ describe('the mill (API)', () => {
       const created = await signedIn(t, chief).post('/api/mill/lots').send(lotBody());
       expect(created.status).toBe(201);
       const id = created.body.id as string;
-      expect(created.body.reference).toMatch(/^LOT-\d{4}-\d{3}$/);
+      expect(created.body.reference).toMatch(/^BL\d{2}-\d{3}$/);
       expect((await signedIn(t, observer).patch(`/api/mill/lots/${id}`).send({ notes: 'x' })).status).toBe(403);
       expect((await signedIn(t, lead).patch(`/api/mill/lots/${id}`).send({ notes: 'Call before delivery.' })).status).toBe(200);
-      expect((await move(operator, id, 'quoted')).status).toBe(403);
+      expect((await move(operator, id, 'priced')).status).toBe(403);
       expect((await signedIn(t, observer).post(`/api/mill/lots/${id}/quotes`).send({ engineHours: 1, crewHours: 1 })).status).toBe(403);
       const read = await signedIn(t, observer).get(`/api/mill/lots/${id}`);
       expect(read.status).toBe(200);
@@ -398,28 +399,41 @@ describe('the mill (API)', () => {
 
     it('the status flow goes one step at a time and refuses skipping with a message (409)', async () => {
       const lot = (await signedIn(t, lead).post('/api/mill/lots').send(lotBody())).body as LotDetail;
-      expect(lot.status).toBe('enquiry');
-      expect(lot.nextStatus).toBe('quoted');
-      const skip = await move(lead, lot.id, 'accepted');
+      expect(lot.status).toBe('on_the_slate');
+      expect(lot.nextStatus).toBe('priced');
+      const skip = await move(lead, lot.id, 'ordered');
       expect(skip.status).toBe(409);
-      expect(skip.body.message).toMatch(/next step is quoted, so it cannot skip to accepted/);
-      const noQuote = await move(lead, lot.id, 'quoted');
+      expect(skip.body.message).toMatch(/next step is priced, so it cannot skip to ordered/);
+      const noQuote = await move(lead, lot.id, 'priced');
       expect(noQuote.status).toBe(409);
       expect(noQuote.body.message).toMatch(/Make a quote/);
       expect((await signedIn(t, lead).post(`/api/mill/lots/${lot.id}/quotes`).send({ engineHours: 6, crewHours: 8 })).status).toBe(201);
-      expect((await move(lead, lot.id, 'quoted')).status).toBe(200);
-      expect((await move(lead, lot.id, 'quoted')).status).toBe(409);
-      expect((await move(lead, lot.id, 'delivered')).status).toBe(409);
-      expect((await move(chief, lot.id, 'accepted')).status).toBe(200);
+      expect((await move(lead, lot.id, 'priced')).status).toBe(200);
+      expect((await move(lead, lot.id, 'priced')).status).toBe(409);
+      expect((await move(lead, lot.id, 'dispatched')).status).toBe(409);
+      expect((await move(chief, lot.id, 'ordered')).status).toBe(200);
       const late = await signedIn(t, lead).post(`/api/mill/lots/${lot.id}/quotes`).send({ engineHours: 1, crewHours: 1 });
       expect(late.status).toBe(409);
       expect(late.body.message).toMatch(/price is fixed/);
-      const noRun = await move(lead, lot.id, 'scheduled');
+      const noRun = await move(lead, lot.id, 'on_roll_plan');
       expect(noRun.status).toBe(409);
       expect(noRun.body.message).toMatch(/Link the run/);
       const run = await createMillRun(t, chief.accessToken, engine.id);
       expect((await signedIn(t, lead).post(`/api/mill/lots/${lot.id}/runs`).send({ runId: run.id })).status).toBe(200);
-      expect((await move(lead, lot.id, 'scheduled')).status).toBe(200);
+      const unpaid = await move(lead, lot.id, 'on_roll_plan');
+      expect(unpaid.status).toBe(409);
+      expect(unpaid.body.message).toMatch(/deposit for this lot is not paid.*chief engineer may put it on the roll plan/);
+      const notChief = await signedIn(t, lead)
+        .post(`/api/mill/lots/${lot.id}/transitions`)
+        .send({ to: 'on_roll_plan', overrideReason: 'Regular customer' });
+      expect(notChief.status).toBe(403);
+      const overridden = await signedIn(t, chief)
+        .post(`/api/mill/lots/${lot.id}/transitions`)
+        .send({ to: 'on_roll_plan', overrideReason: 'Regular customer, pays on account' });
+      expect(overridden.status).toBe(200);
+      expect((overridden.body as LotDetail).history.at(-1)?.note).toMatch(
+        /^Override by the chief engineer: Regular customer, pays on account/,
+      );
       const notRolled = await move(lead, lot.id, 'rolled');
       expect(notRolled.status).toBe(409);
       expect(notRolled.body.message).toMatch(/tonnage produced/);
@@ -427,16 +441,40 @@ describe('the mill (API)', () => {
         200,
       );
       expect((await signedIn(t, lead).patch(`/api/mill/lots/${lot.id}`).send({ quantityTonnes: 12 })).status).toBe(409);
-      for (const to of ['rolled', 'inspected', 'delivered']) expect((await move(lead, lot.id, to)).status).toBe(200);
+      for (const to of ['rolled', 'passed', 'dispatched']) expect((await move(lead, lot.id, to)).status).toBe(200);
       const back = await move(lead, lot.id, 'rolled');
       expect(back.status).toBe(409);
-      expect(back.body.message).toMatch(/delivered/);
+      expect(back.body.message).toMatch(/dispatched/);
       expect((await signedIn(t, lead).patch(`/api/mill/lots/${lot.id}`).send({ notes: 'late' })).status).toBe(409);
       const done = (await signedIn(t, observer).get(`/api/mill/lots/${lot.id}`)).body as LotDetail;
-      expect(done.history.map((h) => h.to)).toEqual(['enquiry', 'quoted', 'accepted', 'scheduled', 'rolled', 'inspected', 'delivered']);
+      expect(done.history.map((h) => h.to)).toEqual([
+        'on_the_slate',
+        'priced',
+        'ordered',
+        'on_roll_plan',
+        'rolled',
+        'passed',
+        'dispatched',
+      ]);
       expect(done.runs.map((r) => r.id)).toEqual([run.id]);
       expect(done.producedTonnes).toBe(9.6);
       expect(done.nextStatus).toBeNull();
+
+      // Lots stored in the old words read in ours once the migration has run (and back again).
+      await t.db.query(`UPDATE mill_lots SET status = 'delivered', reference = 'LOT-2025-907' WHERE id = $1`, [lot.id]);
+      await t.db.query(`UPDATE mill_lot_status_changes SET to_status = 'scheduled' WHERE lot_id = $1 AND to_status = 'on_roll_plan'`, [
+        lot.id,
+      ]);
+      const q = t.db.createQueryRunner();
+      try {
+        await new LotWords1796424481387().up(q);
+      } finally {
+        await q.release();
+      }
+      const converted = (await signedIn(t, observer).get(`/api/mill/lots/${lot.id}`)).body as LotDetail;
+      expect(converted.status).toBe('dispatched');
+      expect(converted.reference).toBe('BL25-907');
+      expect(converted.history.map((h) => h.to)).toContain('on_roll_plan');
     });
 
     it('quote totals follow the site’s rates (stock after yield loss, engine and crew hours, fixed costs)', async () => {
@@ -489,7 +527,7 @@ describe('the mill (API)', () => {
         expect.objectContaining({ contentType: 'application/pdf', filename: `quote-${lot.reference.toLowerCase()}-q1.pdf` }),
       ]);
       const after = (await signedIn(t, lead).get(`/api/mill/lots/${lot.id}`)).body as LotDetail;
-      expect(after.status).toBe('quoted');
+      expect(after.status).toBe('priced');
       expect(after.quotes[0].sentAt).not.toBeNull();
     });
   });

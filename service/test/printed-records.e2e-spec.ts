@@ -87,7 +87,7 @@ describe('printed records from the demo data', () => {
       .send({ worksName: 'Alder Forge', timeZone: 'Europe/London', wetSignature: true });
     expect(ok.status).toBe(200);
     const read = await signedIn(t, observer).get('/api/site/settings');
-    expect(read.body).toEqual({ worksName: 'Alder Forge', timeZone: 'Europe/London', wetSignature: true });
+    expect(read.body).toEqual({ worksName: 'Alder Forge', timeZone: 'Europe/London', wetSignature: true, depositSharePct: 30 });
   });
 
   it('the run log sheet of a run with amendments, alarms, checklists and card sets shows each of them, in local time', async () => {
@@ -174,7 +174,7 @@ describe('printed records from the demo data', () => {
       const p = inspectPdf(r.buffer);
       expectClean(p, Number(p.info.Pages));
       expect(p.text).toContain('Total');
-      expect(r.filename).toMatch(/^quote-lot-2026-\d{3}-q\d+\.pdf$/);
+      expect(r.filename).toMatch(/^quote-bl26-\d{3}-q\d+\.pdf$/);
     }
     const r = await t.app.get(LotsService).quotePdf(quotes[0].id, PRINTED_BY, PRINTED_AT);
     expect(compareWithGolden(r.buffer, 1, golden('quote-p1'))).toBeLessThan(GOLDEN_TOLERANCE);

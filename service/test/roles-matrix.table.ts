@@ -20,6 +20,7 @@ const ADMIN: readonly Role[] = ['administrator'];
 const ADMIN_CHIEF: readonly Role[] = ['administrator', 'chief_engineer'];
 const ENGINE_CREW: readonly Role[] = ['chief_engineer', 'operator'];
 const MILL: readonly Role[] = ['mill_lead', 'chief_engineer'];
+const MONEY_READERS: readonly Role[] = ['administrator', 'chief_engineer', 'mill_lead', 'observer'];
 
 export const ROUTE_ACCESS: Record<string, RouteAccess> = {
   // API documentation (SwaggerModule in app.factory.ts)
@@ -211,10 +212,18 @@ export const ROUTE_ACCESS: Record<string, RouteAccess> = {
   'POST /api/mill/lots/:id/transitions': MILL,
   'POST /api/mill/lots/:id/runs': MILL,
   'DELETE /api/mill/lots/:id/runs/:runId': MILL,
-  'GET /api/mill/lots/:id/quotes': ANY_ROLE,
+  'GET /api/mill/lots/:id/quotes': MONEY_READERS,
   'POST /api/mill/lots/:id/quotes': MILL,
-  'GET /api/mill/quotes/:id/quote.pdf': ANY_ROLE,
+  'GET /api/mill/quotes/:id/quote.pdf': MONEY_READERS,
   'POST /api/mill/quotes/:id/send': MILL,
+
+  // payments (operators and the maintenance lead see no money)
+  'GET /api/payments/lots/:id': MONEY_READERS,
+  'POST /api/payments/lots/:id/requests': ['administrator', 'mill_lead'],
+  'POST /api/payments/:id/refunds': ADMIN,
+  'GET /api/payments/outstanding': ADMIN,
+  'POST /api/payments/webhook': 'public',
+  'GET /api/payments/thanks': 'public',
   'GET /api/mill/runs': ANY_ROLE,
   'GET /api/mill/runs/:runId': ANY_ROLE,
   'GET /api/mill/runs/:runId/timeline': ANY_ROLE,

@@ -20,3 +20,4 @@ export * from './api/site.js';
 export * from './autotrace/autotrace.js';
 export * from './api/visit.js';
 export * from './api/mail.js';
+export * from './api/payments.js';

@@ -1,8 +1,12 @@
 import { plainToInstance, Transform } from 'class-transformer';
-import { IsIn, IsInt, IsNumber, IsOptional, IsString, Max, Min, MinLength, validateSync } from 'class-validator';
+import { IsIn, IsInt, IsNumber, IsOptional, IsString, IsUrl, Max, Min, MinLength, validateSync } from 'class-validator';
 
 /** The built-in JWT secret: accepted only when NODE_ENV=test. */
 export const DEVELOPMENT_JWT_SECRET = 'development-only-secret-change-me';
+
+/** The payment stand-in's published key and webhook secret (ops/standins/payments.mjs): refused by a production start. */
+export const STANDIN_PAYMENTS_API_KEY = 'sk_test_crankjournal_standin';
+export const STANDIN_PAYMENTS_WEBHOOK_SECRET = 'whsec_crankjournal_standin';
 
 const toBool = ({ value }: { value: unknown }) => value === true || value === 'true' || value === '1';
 
@@ -186,6 +190,20 @@ export class EnvironmentVariables {
   @Min(1)
   CSV_IMPORT_MAX_BYTES = 200 * 1024 * 1024;
 
+  /** Secret key for the payment service's API (the stand-in's in development). */
+  @IsString()
+  @MinLength(8)
+  PAYMENTS_API_KEY = STANDIN_PAYMENTS_API_KEY;
+
+  /** Signs the payment service's webhook events (whsec_…). */
+  @IsString()
+  @MinLength(8)
+  PAYMENTS_WEBHOOK_SECRET = STANDIN_PAYMENTS_WEBHOOK_SECRET;
+
+  /** Where the payment service's API is: the stand-in in development (https://… of the service in production). */
+  @IsUrl({ require_tld: false, protocols: ['http', 'https'] }, { message: 'PAYMENTS_API_URL must be an http(s) URL' })
+  PAYMENTS_API_URL = 'http://127.0.0.1:4242';
+
   /** A CSV line longer than this is refused with a 400 naming the line. */
   @Transform(({ value }) => Number(value))
   @IsInt()
@@ -223,6 +241,15 @@ export function validateEnvironment(config: Record<string, unknown>): Environmen
     throw new Error(
       'Crankjournal cannot start: JWT_SECRET is not set (or is the published development value). ' +
         'Set it to a long random secret of your own (npm start generates one in .data/jwt-secret).',
+    );
+  }
+  if (
+    validated.NODE_ENV === 'production' &&
+    (validated.PAYMENTS_API_KEY === STANDIN_PAYMENTS_API_KEY || validated.PAYMENTS_WEBHOOK_SECRET === STANDIN_PAYMENTS_WEBHOOK_SECRET)
+  ) {
+    throw new Error(
+      "Crankjournal cannot start: PAYMENTS_API_KEY or PAYMENTS_WEBHOOK_SECRET is the local payment stand-in's published value. " +
+        "Set the payment service's own secret key and webhook signing secret for production.",
     );
   }
   // The API description is for development unless asked for: production serves it to nobody by default.

@@ -43,6 +43,7 @@ import { Oil, LubricationPointOil } from '../modules/lubrication/oil.entity.js';
 import { OilConsumptionEntry } from '../modules/lubrication/oil-consumption.entity.js';
 import { SiteSettings } from '../modules/site/site-settings.entity.js';
 import { VisitorBoard } from '../modules/visit/visitor-board.entity.js';
+import { Payment, PaymentEvent, PaymentRefund } from '../modules/payments/payment.entity.js';
 /** Every entity, in one list for the application and the migration CLI. Add new ones here. */
 export const ENTITIES = [
   User,
@@ -94,4 +95,7 @@ export const ENTITIES = [
   OilConsumptionEntry,
   SiteSettings,
   VisitorBoard,
+  Payment,
+  PaymentRefund,
+  PaymentEvent,
 ];

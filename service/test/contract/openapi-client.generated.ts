@@ -252,7 +252,7 @@ export interface paths {
     patch: operations["LotsController_update"];
   };
   "/api/mill/lots/{id}/transitions": {
-    /** Move a lot one step: enquiry → quoted → accepted → scheduled → rolled → inspected → delivered (409 when skipping) */
+    /** Move a lot one step: on the slate → priced → ordered → on the roll plan → rolled → passed inspection → dispatched (409 when skipping; an unpaid lot goes on the roll plan only by the chief engineer, with overrideReason) */
     post: operations["LotsController_transition"];
   };
   "/api/mill/lots/{id}/runs": {
@@ -270,7 +270,7 @@ export interface paths {
     get: operations["LotsController_pdf"];
   };
   "/api/mill/quotes/{id}/send": {
-    /** E-mail the quote as a PDF to the customer (an enquiry becomes quoted) */
+    /** E-mail the quote as a PDF to the customer (a lot on the slate becomes priced) */
     post: operations["LotsController_send"];
   };
   "/api/calculations/rolling-pass": {
@@ -481,6 +481,24 @@ export interface paths {
   };
   "/api/visit/{slug}/photo": {
     get: operations["VisitController_photo"];
+  };
+  "/api/payments/lots/{id}": {
+    get: operations["PaymentsController_lot"];
+  };
+  "/api/payments/lots/{id}/requests": {
+    /** Ask the customer for the deposit or the balance: a checkout page, e-mailed with the quote PDF */
+    post: operations["PaymentsController_ask"];
+  };
+  "/api/payments/{id}/refunds": {
+    /** Refund all or part of a paid payment, with a reason */
+    post: operations["PaymentsController_refund"];
+  };
+  "/api/payments/outstanding": {
+    get: operations["PaymentsController_outstanding"];
+  };
+  "/api/payments/webhook": {
+    /** The payment service's signed events (Stripe-Signature); each event id is applied once */
+    post: operations["PaymentsController_webhook"];
   };
 }
 
@@ -995,8 +1013,10 @@ export interface components {
     };
     LotTransitionDto: {
       /** @enum {string} */
-      to: "enquiry" | "quoted" | "accepted" | "scheduled" | "rolled" | "inspected" | "delivered";
+      to: "on_the_slate" | "priced" | "ordered" | "on_roll_plan" | "rolled" | "passed" | "dispatched";
       note?: string;
+      /** @description chief engineer: put an unpaid lot on the roll plan, with this reason */
+      overrideReason?: string;
     };
     LinkRunDto: {
       runId: string;
@@ -1606,6 +1626,30 @@ export interface components {
     };
     CreateVisitorBoardDto: Record<string, never>;
     UpdateVisitorBoardDto: Record<string, never>;
+    PaymentAskDto: {
+      /** @enum {string} */
+      kind: "deposit" | "balance";
+      /**
+       * @description a fixed sum, minor units (pence, cents)
+       * @example 25000
+       */
+      amountMinor?: number;
+      /**
+       * @description deposit: a share of the quote other than the site's, percent
+       * @example 30
+       */
+      sharePct?: number;
+      /** @description balance: agreed changes, plus or minus, minor units */
+      adjustmentMinor?: number;
+      /** @description defaults to the lot's customer e-mail */
+      to?: string;
+    };
+    PaymentRefundDto: {
+      /** @description minor units; the rest of the payment when left out */
+      amountMinor?: number;
+      /** @example Lot withdrawn by the customer */
+      reason: string;
+    };
     MeasurementItemDtoBody: {
       /** @enum {string} */
       kind: "clearance_lead_wire" | "clearance_feeler" | "web_deflection" | "shaft_level" | "squareness" | "bedplate_level" | "alignment_offset" | "other";
@@ -3320,8 +3364,27 @@ export interface components {
       quotes: components["schemas"]["QuoteDto"][];
       createdAt: string;
     };
+    /** @description GET /api/payments/lots/:id: a lot's money, in minor units of its currency. */
+    LotMoney: {
+      lotId: string;
+      reference: string;
+      currency: string;
+      /** @description The latest quote's total, or null before a quote. */
+      quotedMinor: number | null;
+      /** @description The share of the quote asked as a deposit by default (site setting), percent. */
+      depositSharePct: number;
+      askedMinor: number;
+      paidMinor: number;
+      refundedMinor: number;
+      /** @description Quoted less paid plus refunded (never below 0); what the customer still owes. */
+      dueMinor: number;
+      depositPaid: boolean;
+      /** @description The balance is paid. */
+      settled: boolean;
+      payments: components["schemas"]["PaymentDto"][];
+    };
     /** @enum {string} */
-    LotStatus: "enquiry" | "quoted" | "accepted" | "scheduled" | "rolled" | "inspected" | "delivered";
+    LotStatus: "on_the_slate" | "priced" | "ordered" | "on_roll_plan" | "rolled" | "passed" | "dispatched";
     LotStatusChangeDto: {
       from: components["schemas"]["LotStatus"] | null;
       to: components["schemas"]["LotStatus"];
@@ -3349,6 +3412,8 @@ export interface components {
     LotTransitionRequest: {
       to: components["schemas"]["LotStatus"];
       note?: string;
+      /** @description Chief engineer only: puts a lot on the roll plan before its deposit is paid, with this reason. */
+      overrideReason?: string;
     };
     LotUpdateRequest: {
       customerName?: string;
@@ -3655,6 +3720,18 @@ export interface components {
       figuresSource: string;
       notes?: string;
     };
+    /** @description GET /api/payments/outstanding (administrator): lots with money still to come. */
+    OutstandingLot: {
+      lotId: string;
+      reference: string;
+      customerName: string;
+      currency: string;
+      quotedMinor: number;
+      paidMinor: number;
+      dueMinor: number;
+      /** @description The open ask, if any. */
+      askedKind: components["schemas"]["PaymentKind"] | null;
+    };
     OverrideChecklistItemRequest: {
       reason: string;
     };
@@ -3739,6 +3816,55 @@ export interface components {
     PassWarningDto: {
       code: components["schemas"]["PassWarningCode"];
       message: string;
+    };
+    /** @description POST /api/payments/lots/:id/requests: ask the customer for money (mill lead, administrator). */
+    PaymentAskRequest: {
+      kind: components["schemas"]["PaymentKind"];
+      /** @description A fixed sum in minor units; without it a deposit is the site's share of the quote, a balance what is due. */
+      amountMinor?: number;
+      /** @description Deposit only: a share of the quote other than the site's, percent. */
+      sharePct?: number;
+      /** @description Balance only: agreed changes, plus or minus, in minor units. */
+      adjustmentMinor?: number;
+      /** @description Defaults to the lot's customer e-mail. */
+      to?: string;
+    };
+    PaymentDto: {
+      id: string;
+      lotId: string;
+      kind: components["schemas"]["PaymentKind"];
+      state: components["schemas"]["PaymentState"];
+      /** @description Minor units (pence, cents). */
+      amountMinor: number;
+      refundedMinor: number;
+      /** @description ISO 4217 code, e.g. GBP. */
+      currency: string;
+      /** @description The hosted checkout page the customer was sent; null once paid or cancelled. */
+      checkoutUrl: string | null;
+      emailedTo: string;
+      askedByName: string;
+      askedAt: string;
+      paidAt: string | null;
+      /** @description Why the last attempt to pay failed (a declined card), while still asked. */
+      declineReason: string | null;
+      refunds: components["schemas"]["RefundDto"][];
+    };
+    /** @enum {string} */
+    PaymentKind: "deposit" | "balance";
+    /** @description POST /api/payments/:id/refunds (administrator). */
+    PaymentRefundRequest: {
+      /** @description Minor units; the whole paid amount not yet refunded when left out. */
+      amountMinor?: number;
+      reason: string;
+    };
+    /** @enum {string} */
+    PaymentState: "asked" | "paid" | "cancelled";
+    /** @description The webhook's answer to the payment service. */
+    PaymentWebhookAck: {
+      /** @constant */
+      received: true;
+      /** @description false when the event id had been seen before (nothing changed). */
+      applied: boolean;
     };
     PlanDue: {
       status: components["schemas"]["DueStatus"];
@@ -3913,6 +4039,15 @@ export interface components {
       byName: string;
       at: string;
       changes: components["schemas"]["FieldChange"][];
+    };
+    /** @description A refund of (part of) a paid payment, by the administrator with a reason. */
+    RefundDto: {
+      id: string;
+      /** @description Minor units (pence, cents) of the payment's currency. */
+      amountMinor: number;
+      reason: string;
+      byName: string;
+      at: string;
     };
     RejectedRow: {
       /** @description Index in the batch, or line number in a CSV file. */
@@ -4284,6 +4419,8 @@ export interface components {
       timeZone: string;
       /** @description Whether the run log sheet ends with a block for a signature in ink. */
       wetSignature: boolean;
+      /** @description The share of a quote asked as a deposit, percent (default 30). */
+      depositSharePct: number;
     };
     StartChecklistRequest: {
       templateId: string;
@@ -4402,6 +4539,8 @@ export interface components {
       timeZone?: string;
       /** @description Whether the run log sheet ends with a block for a signature in ink. */
       wetSignature?: boolean;
+      /** @description The share of a quote asked as a deposit, percent (default 30). */
+      depositSharePct?: number;
     };
     UpdateUserRequest: {
       role?: components["schemas"]["Role"];
@@ -7949,7 +8088,7 @@ export interface operations {
     parameters: {
       query?: {
         /** @description Only the lots in this state */
-        status?: "enquiry" | "quoted" | "accepted" | "scheduled" | "rolled" | "inspected" | "delivered";
+        status?: "on_the_slate" | "priced" | "ordered" | "on_roll_plan" | "rolled" | "passed" | "dispatched";
       };
     };
     responses: {
@@ -8103,7 +8242,7 @@ export interface operations {
       };
     };
   };
-  /** Move a lot one step: enquiry → quoted → accepted → scheduled → rolled → inspected → delivered (409 when skipping) */
+  /** Move a lot one step: on the slate → priced → ordered → on the roll plan → rolled → passed inspection → dispatched (409 when skipping; an unpaid lot goes on the roll plan only by the chief engineer, with overrideReason) */
   LotsController_transition: {
     requestBody: {
       content: {
@@ -8348,7 +8487,7 @@ export interface operations {
       };
     };
   };
-  /** E-mail the quote as a PDF to the customer (an enquiry becomes quoted) */
+  /** E-mail the quote as a PDF to the customer (a lot on the slate becomes priced) */
   LotsController_send: {
     requestBody: {
       content: {
@@ -10659,6 +10798,200 @@ export interface operations {
       };
       /** @description Too many attempts; wait and try again */
       429: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+    };
+  };
+  PaymentsController_lot: {
+    responses: {
+      /** @description LotMoney */
+      200: {
+        content: {
+          "application/json": components["schemas"]["LotMoney"];
+        };
+      };
+      /** @description Not signed in, or the access token (or logger key) is missing, expired or revoked */
+      401: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Signed in, but the role may not do this */
+      403: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Nothing with that id */
+      404: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+    };
+  };
+  /** Ask the customer for the deposit or the balance: a checkout page, e-mailed with the quote PDF */
+  PaymentsController_ask: {
+    requestBody: {
+      content: {
+        "application/json": components["schemas"]["PaymentAskDto"];
+      };
+    };
+    responses: {
+      /** @description LotMoney */
+      201: {
+        content: {
+          "application/json": components["schemas"]["LotMoney"];
+        };
+      };
+      /** @description Bad request: the body, query or path failed validation (the message says which field and why) */
+      400: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Not signed in, or the access token (or logger key) is missing, expired or revoked */
+      401: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Signed in, but the role may not do this */
+      403: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Nothing with that id */
+      404: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+    };
+  };
+  /** Refund all or part of a paid payment, with a reason */
+  PaymentsController_refund: {
+    requestBody: {
+      content: {
+        "application/json": components["schemas"]["PaymentRefundDto"];
+      };
+    };
+    responses: {
+      /** @description LotMoney */
+      200: {
+        content: {
+          "application/json": components["schemas"]["LotMoney"];
+        };
+      };
+      /** @description Bad request: the body, query or path failed validation (the message says which field and why) */
+      400: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Not signed in, or the access token (or logger key) is missing, expired or revoked */
+      401: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Signed in, but the role may not do this */
+      403: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Nothing with that id */
+      404: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description The body or upload is too large */
+      413: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+    };
+  };
+  PaymentsController_outstanding: {
+    responses: {
+      /** @description A list of OutstandingLot */
+      200: {
+        content: {
+          "application/json": components["schemas"]["OutstandingLot"][];
+        };
+      };
+      /** @description Not signed in, or the access token (or logger key) is missing, expired or revoked */
+      401: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Signed in, but the role may not do this */
+      403: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+    };
+  };
+  /** The payment service's signed events (Stripe-Signature); each event id is applied once */
+  PaymentsController_webhook: {
+    parameters: {
+      header: {
+        "stripe-signature": string;
+      };
+    };
+    responses: {
+      /** @description PaymentWebhookAck */
+      200: {
+        content: {
+          "application/json": components["schemas"]["PaymentWebhookAck"];
+        };
+      };
+      /** @description Bad request: the body, query or path failed validation (the message says which field and why) */
+      400: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Not signed in, or the access token (or logger key) is missing, expired or revoked */
+      401: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Signed in, but the role may not do this */
+      403: {
+        content: {
+          "application/json": components["schemas"]["ApiError"];
+        };
+      };
+      /** @description Conflicts with the current state (e.g. a run in the wrong state, a duplicate, a stale version) */
+      409: {
         content: {
           "application/json": components["schemas"]["ApiError"];
         };

@@ -22,6 +22,7 @@ export const TEST_ENV_DEFAULTS: Record<string, string> = {
   SMTP_PORT: '2535',
   MAIL_INBOX_URL: 'http://127.0.0.1:8035',
   S3_ENDPOINT: 'http://127.0.0.1:4579',
+  PAYMENTS_API_URL: 'http://127.0.0.1:4252',
   LOGIN_RATE_LIMIT_PER_MINUTE: '5',
   // Every test signs in from 127.0.0.1: the per-address and per-account limits are tested where they are set low.
   LOGIN_ADDRESS_LIMIT_PER_MINUTE: '100000',

@@ -386,6 +386,8 @@ export interface LotUpdateRequest extends Partial<LotWriteRequest> {
 export interface LotTransitionRequest {
   to: LotStatus;
   note?: string;
+  /** Chief engineer only: puts a lot on the roll plan before its deposit is paid, with this reason. */
+  overrideReason?: string;
 }
 export interface LinkRunRequest {
   runId: string;

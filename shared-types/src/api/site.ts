@@ -5,6 +5,8 @@ export interface SiteSettings {
   timeZone: string;
   /** Whether the run log sheet ends with a block for a signature in ink. */
   wetSignature: boolean;
+  /** The share of a quote asked as a deposit, percent (default 30). */
+  depositSharePct: number;
 }
 
 /** PUT /api/site/settings (administrator): any of the fields. */

@@ -14,25 +14,42 @@ export const PRODUCT_SHAPES = ['flat', 'square', 'round'] as const;
 export type ProductShape = (typeof PRODUCT_SHAPES)[number];
 export const PRODUCT_SHAPE_LABELS: Record<ProductShape, string> = { flat: 'Flat bar', square: 'Square bar', round: 'Round bar' };
 
-/** A customer lot moves one step at a time, in this order. */
-export const LOT_STATUSES = ['enquiry', 'quoted', 'accepted', 'scheduled', 'rolled', 'inspected', 'delivered'] as const;
+/**
+ * A customer lot moves one step at a time, in this order, in the works' own words: chalked on the order slate,
+ * priced (a quote sent), ordered (the customer took it), on the roll plan, rolled, passed inspection, dispatched.
+ */
+export const LOT_STATUSES = ['on_the_slate', 'priced', 'ordered', 'on_roll_plan', 'rolled', 'passed', 'dispatched'] as const;
 export type LotStatus = (typeof LOT_STATUSES)[number];
 export const LOT_STATUS_LABELS: Record<LotStatus, string> = {
-  enquiry: 'Enquiry',
-  quoted: 'Quoted',
-  accepted: 'Accepted',
-  scheduled: 'Scheduled',
+  on_the_slate: 'On the slate',
+  priced: 'Priced',
+  ordered: 'Ordered',
+  on_roll_plan: 'On the roll plan',
   rolled: 'Rolled',
-  inspected: 'Inspected',
-  delivered: 'Delivered',
+  passed: 'Passed inspection',
+  dispatched: 'Dispatched',
 };
-/** The one status a lot may move to next, or null when delivered. */
+/** The words of the button that moves a lot into each state. */
+export const LOT_STATUS_ACTIONS: Record<LotStatus, string> = {
+  on_the_slate: 'Put on the slate',
+  priced: 'Mark priced',
+  ordered: 'Mark ordered',
+  on_roll_plan: 'Put on the roll plan',
+  rolled: 'Mark rolled',
+  passed: 'Pass inspection',
+  dispatched: 'Mark dispatched',
+};
+/** A bar-lot number: BL, the two-digit year of the enquiry, a dash and the lot's number in that year (BL26-014). */
+export function barLotNumber(year: number, n: number): string {
+  return `BL${String(year % 100).padStart(2, '0')}-${String(n).padStart(3, '0')}`;
+}
+/** The one status a lot may move to next, or null when dispatched. */
 export function nextLotStatus(s: LotStatus): LotStatus | null {
   const i = LOT_STATUSES.indexOf(s);
   return i >= 0 && i < LOT_STATUSES.length - 1 ? LOT_STATUSES[i + 1] : null;
 }
 /** Lot statuses in which a new quote may be made (after acceptance the price is fixed). */
-export const LOT_STATUSES_OPEN_TO_QUOTES: readonly LotStatus[] = ['enquiry', 'quoted'];
+export const LOT_STATUSES_OPEN_TO_QUOTES: readonly LotStatus[] = ['on_the_slate', 'priced'];
 
 /** Passes are logged while the engine runs, or after it stops until the run is closed. */
 export const RUN_STATES_LOGGING_PASSES: readonly RunState[] = ['running', 'stopped'];

@@ -13,3 +13,8 @@ export const ROLE_LABELS: Record<Role, string> = {
 
 /** Roles that may write anything at all; observers only read. */
 export const WRITING_ROLES: readonly Role[] = ROLES.filter((r) => r !== 'observer');
+
+/** Who sees money (quotes, payments); operators and the maintenance lead do not. */
+export const MONEY_READERS: readonly Role[] = ['administrator', 'chief_engineer', 'mill_lead', 'observer'];
+/** Who asks a customer for money. */
+export const MONEY_ASKERS: readonly Role[] = ['administrator', 'mill_lead'];

@@ -147,6 +147,7 @@ export type SharedSchemaName =
   | 'LoggerDto'
   | 'LoginRequest'
   | 'LotDetail'
+  | 'LotMoney'
   | 'LotStatus'
   | 'LotStatusChangeDto'
   | 'LotSummary'
@@ -176,12 +177,19 @@ export type SharedSchemaName =
   | 'OilViscosityRequest'
   | 'OilViscosityResponse'
   | 'OilWriteRequest'
+  | 'OutstandingLot'
   | 'OverrideChecklistItemRequest'
   | 'PartUsed'
   | 'PassCalculationDto'
   | 'PassFlywheelDto'
   | 'PassWarningCode'
   | 'PassWarningDto'
+  | 'PaymentAskRequest'
+  | 'PaymentDto'
+  | 'PaymentKind'
+  | 'PaymentRefundRequest'
+  | 'PaymentState'
+  | 'PaymentWebhookAck'
   | 'PlanDue'
   | 'PointConsumption'
   | 'PointPeak'
@@ -200,6 +208,7 @@ export type SharedSchemaName =
   | 'ReadingSource'
   | 'ReadingsEvent'
   | 'RecordAmendmentDto'
+  | 'RefundDto'
   | 'RejectedRow'
   | 'RenewQualificationRequest'
   | 'Role'
@@ -3253,7 +3262,40 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
     ],
     additionalProperties: false,
   },
-  LotStatus: { type: 'string', enum: ['enquiry', 'quoted', 'accepted', 'scheduled', 'rolled', 'inspected', 'delivered'] },
+  LotMoney: {
+    type: 'object',
+    properties: {
+      lotId: { type: 'string' },
+      reference: { type: 'string' },
+      currency: { type: 'string' },
+      quotedMinor: { type: ['number', 'null'], description: "The latest quote's total, or null before a quote." },
+      depositSharePct: { type: 'number', description: 'The share of the quote asked as a deposit by default (site setting), percent.' },
+      askedMinor: { type: 'number' },
+      paidMinor: { type: 'number' },
+      refundedMinor: { type: 'number' },
+      dueMinor: { type: 'number', description: 'Quoted less paid plus refunded (never below 0); what the customer still owes.' },
+      depositPaid: { type: 'boolean' },
+      settled: { type: 'boolean', description: 'The balance is paid.' },
+      payments: { type: 'array', items: { $ref: '#/components/schemas/PaymentDto' } },
+    },
+    required: [
+      'lotId',
+      'reference',
+      'currency',
+      'quotedMinor',
+      'depositSharePct',
+      'askedMinor',
+      'paidMinor',
+      'refundedMinor',
+      'dueMinor',
+      'depositPaid',
+      'settled',
+      'payments',
+    ],
+    additionalProperties: false,
+    description: "GET /api/payments/lots/:id: a lot's money, in minor units of its currency.",
+  },
+  LotStatus: { type: 'string', enum: ['on_the_slate', 'priced', 'ordered', 'on_roll_plan', 'rolled', 'passed', 'dispatched'] },
   LotStatusChangeDto: {
     type: 'object',
     properties: {
@@ -3306,7 +3348,14 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
   },
   LotTransitionRequest: {
     type: 'object',
-    properties: { to: { $ref: '#/components/schemas/LotStatus' }, note: { type: 'string' } },
+    properties: {
+      to: { $ref: '#/components/schemas/LotStatus' },
+      note: { type: 'string' },
+      overrideReason: {
+        type: 'string',
+        description: 'Chief engineer only: puts a lot on the roll plan before its deposit is paid, with this reason.',
+      },
+    },
     required: ['to'],
     additionalProperties: false,
   },
@@ -3792,6 +3841,22 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
     required: ['name', 'grade', 'viscosity40cSt', 'viscosity100cSt', 'figuresSource'],
     additionalProperties: false,
   },
+  OutstandingLot: {
+    type: 'object',
+    properties: {
+      lotId: { type: 'string' },
+      reference: { type: 'string' },
+      customerName: { type: 'string' },
+      currency: { type: 'string' },
+      quotedMinor: { type: 'number' },
+      paidMinor: { type: 'number' },
+      dueMinor: { type: 'number' },
+      askedKind: { anyOf: [{ $ref: '#/components/schemas/PaymentKind' }, { type: 'null' }], description: 'The open ask, if any.' },
+    },
+    required: ['lotId', 'reference', 'customerName', 'currency', 'quotedMinor', 'paidMinor', 'dueMinor', 'askedKind'],
+    additionalProperties: false,
+    description: 'GET /api/payments/outstanding (administrator): lots with money still to come.',
+  },
   OverrideChecklistItemRequest: {
     type: 'object',
     properties: { reason: { type: 'string' } },
@@ -3935,6 +4000,83 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
     properties: { code: { $ref: '#/components/schemas/PassWarningCode' }, message: { type: 'string' } },
     required: ['code', 'message'],
     additionalProperties: false,
+  },
+  PaymentAskRequest: {
+    type: 'object',
+    properties: {
+      kind: { $ref: '#/components/schemas/PaymentKind' },
+      amountMinor: {
+        type: 'number',
+        description: "A fixed sum in minor units; without it a deposit is the site's share of the quote, a balance what is due.",
+      },
+      sharePct: { type: 'number', description: "Deposit only: a share of the quote other than the site's, percent." },
+      adjustmentMinor: { type: 'number', description: 'Balance only: agreed changes, plus or minus, in minor units.' },
+      to: { type: 'string', description: "Defaults to the lot's customer e-mail." },
+    },
+    required: ['kind'],
+    additionalProperties: false,
+    description: 'POST /api/payments/lots/:id/requests: ask the customer for money (mill lead, administrator).',
+  },
+  PaymentDto: {
+    type: 'object',
+    properties: {
+      id: { type: 'string' },
+      lotId: { type: 'string' },
+      kind: { $ref: '#/components/schemas/PaymentKind' },
+      state: { $ref: '#/components/schemas/PaymentState' },
+      amountMinor: { type: 'number', description: 'Minor units (pence, cents).' },
+      refundedMinor: { type: 'number' },
+      currency: { type: 'string', description: 'ISO 4217 code, e.g. GBP.' },
+      checkoutUrl: {
+        type: ['string', 'null'],
+        description: 'The hosted checkout page the customer was sent; null once paid or cancelled.',
+      },
+      emailedTo: { type: 'string' },
+      askedByName: { type: 'string' },
+      askedAt: { type: 'string' },
+      paidAt: { type: ['string', 'null'] },
+      declineReason: { type: ['string', 'null'], description: 'Why the last attempt to pay failed (a declined card), while still asked.' },
+      refunds: { type: 'array', items: { $ref: '#/components/schemas/RefundDto' } },
+    },
+    required: [
+      'id',
+      'lotId',
+      'kind',
+      'state',
+      'amountMinor',
+      'refundedMinor',
+      'currency',
+      'checkoutUrl',
+      'emailedTo',
+      'askedByName',
+      'askedAt',
+      'paidAt',
+      'declineReason',
+      'refunds',
+    ],
+    additionalProperties: false,
+  },
+  PaymentKind: { type: 'string', enum: ['deposit', 'balance'] },
+  PaymentRefundRequest: {
+    type: 'object',
+    properties: {
+      amountMinor: { type: 'number', description: 'Minor units; the whole paid amount not yet refunded when left out.' },
+      reason: { type: 'string' },
+    },
+    required: ['reason'],
+    additionalProperties: false,
+    description: 'POST /api/payments/:id/refunds (administrator).',
+  },
+  PaymentState: { type: 'string', enum: ['asked', 'paid', 'cancelled'] },
+  PaymentWebhookAck: {
+    type: 'object',
+    properties: {
+      received: { type: 'boolean', const: true },
+      applied: { type: 'boolean', description: 'false when the event id had been seen before (nothing changed).' },
+    },
+    required: ['received', 'applied'],
+    additionalProperties: false,
+    description: "The webhook's answer to the payment service.",
   },
   PlanDue: {
     type: 'object',
@@ -4224,6 +4366,19 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
     },
     required: ['id', 'reason', 'by', 'byName', 'at', 'changes'],
     additionalProperties: false,
+  },
+  RefundDto: {
+    type: 'object',
+    properties: {
+      id: { type: 'string' },
+      amountMinor: { type: 'number', description: "Minor units (pence, cents) of the payment's currency." },
+      reason: { type: 'string' },
+      byName: { type: 'string' },
+      at: { type: 'string' },
+    },
+    required: ['id', 'amountMinor', 'reason', 'byName', 'at'],
+    additionalProperties: false,
+    description: 'A refund of (part of) a paid payment, by the administrator with a reason.',
   },
   RejectedRow: {
     type: 'object',
@@ -4874,8 +5029,9 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
         description: 'An IANA time zone name (for example Europe/London); printed records show times in it, stored times stay UTC.',
       },
       wetSignature: { type: 'boolean', description: 'Whether the run log sheet ends with a block for a signature in ink.' },
+      depositSharePct: { type: 'number', description: 'The share of a quote asked as a deposit, percent (default 30).' },
     },
-    required: ['worksName', 'timeZone', 'wetSignature'],
+    required: ['worksName', 'timeZone', 'wetSignature', 'depositSharePct'],
     additionalProperties: false,
     description: "The works' own settings: its name and time zone on every printed record, and the wet-signature block.",
   },
@@ -5052,6 +5208,7 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
         description: 'An IANA time zone name (for example Europe/London); printed records show times in it, stored times stay UTC.',
       },
       wetSignature: { type: 'boolean', description: 'Whether the run log sheet ends with a block for a signature in ink.' },
+      depositSharePct: { type: 'number', description: 'The share of a quote asked as a deposit, percent (default 30).' },
     },
     additionalProperties: false,
     description: 'PUT /api/site/settings (administrator): any of the fields.',

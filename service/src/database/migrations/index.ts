@@ -15,10 +15,12 @@ import { EngineCallList1796422448681 } from './1796422448681-EngineCallList.js';
 import { CardTraceOrigin1796422565325 } from './1796422565325-CardTraceOrigin.js';
 import { RunPointFigures1796422580256 } from './1796422580256-RunPointFigures.js';
 import { VisitorBoards1796422583042 } from './1796422583042-VisitorBoards.js';
+import { Payments1796422787315 } from './1796422787315-Payments.js';
 import { ReadingClientIdPerRun1796423309760 } from './1796423309760-ReadingClientIdPerRun.js';
 import { SeveralInstances1796424019287 } from './1796424019287-SeveralInstances.js';
 import { ChecklistSignedOnDevice1796424079811 } from './1796424079811-ChecklistSignedOnDevice.js';
 import { NamesKeptAsSigned1796424216765 } from './1796424216765-NamesKeptAsSigned.js';
+import { LotWords1796424481387 } from './1796424481387-LotWords.js';
 import { EnginePartsRetired1796424633674 } from './1796424633674-EnginePartsRetired.js';
 
 /** Every migration in order. Add new ones at the end; never edit one that has been committed. */
@@ -39,9 +41,11 @@ export const MIGRATIONS: (new () => MigrationInterface)[] = [
   CardTraceOrigin1796422565325,
   RunPointFigures1796422580256,
   VisitorBoards1796422583042,
+  Payments1796422787315,
   ReadingClientIdPerRun1796423309760,
   SeveralInstances1796424019287,
   ChecklistSignedOnDevice1796424079811,
   NamesKeptAsSigned1796424216765,
+  LotWords1796424481387,
   EnginePartsRetired1796424633674,
 ];

@@ -59,6 +59,9 @@ export async function seedMill(app: INestApplicationContext, engine: Engine, use
   const rolling = app.get(RollingLogService);
   const lots = app.get(LotsService);
   const lead = asAuth(users.get('mill@alderforge.example')!);
+  const chief = asAuth(users.get('chief@alderforge.example')!);
+  // The season's lots paid their deposits by cheque, before payments went online: the chief engineer put them on the roll plan.
+  const offline = { overrideReason: 'Deposit paid by cheque, before payments were taken online.' };
   const done: string[] = [];
 
   // The mill.
@@ -117,7 +120,7 @@ export async function seedMill(app: INestApplicationContext, engine: Engine, use
         on: s.on,
         order: 1,
         act: async () => {
-          if (s.to === 'scheduled' && runTitle) {
+          if (s.to === 'on_roll_plan' && runTitle) {
             const run = await db.getRepository(Run).findOneByOrFail({ engineId: engine.id, title: runTitle });
             await lots.linkRun(lot.id, run.id, lead);
           }
@@ -127,7 +130,8 @@ export async function seedMill(app: INestApplicationContext, engine: Engine, use
             const t = await rollSeasonBars(run, scheduleId, lot.id, bars);
             await lots.update(lot.id, { producedTonnes: t.produced, scrappedTonnes: t.scrapped });
           }
-          await lots.transition(lot.id, { to: s.to, note: s.note }, lead, noon(s.on));
+          if (s.to === 'on_roll_plan') await lots.transition(lot.id, { to: s.to, note: s.note, ...offline }, chief, noon(s.on));
+          else await lots.transition(lot.id, { to: s.to, note: s.note }, lead, noon(s.on));
         },
       })),
     ].sort((a, b) => a.on.localeCompare(b.on) || a.order - b.order);

@@ -17,7 +17,7 @@ export class CustomerLot {
   @Column({ name: 'carbon_pct', type: 'numeric', nullable: true, transformer: numeric }) carbonPct: number | null;
   @Column({ name: 'quantity_tonnes', type: 'numeric', transformer: numeric }) quantityTonnes: number;
   @Column({ name: 'due_date', type: 'date' }) dueDate: string;
-  @Index() @Column({ type: 'varchar', length: 16, default: 'enquiry' }) status: LotStatus;
+  @Index() @Column({ type: 'varchar', length: 16, default: 'on_the_slate' }) status: LotStatus;
   @Column({ name: 'produced_tonnes', type: 'numeric', default: 0, transformer: numeric }) producedTonnes: number;
   @Column({ name: 'scrapped_tonnes', type: 'numeric', default: 0, transformer: numeric }) scrappedTonnes: number;
   @Column({ name: 'mill_id', type: 'uuid', nullable: true }) millId: string | null;

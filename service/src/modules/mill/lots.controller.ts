@@ -1,7 +1,7 @@
 import { Body, Controller, Delete, Get, HttpCode, Param, Patch, Post, Query, Res, StreamableFile } from '@nestjs/common';
 import { ApiBearerAuth, ApiOperation, ApiTags } from '@nestjs/swagger';
 import type { Response } from 'express';
-import { MILL_WRITERS, type LotDetail, type LotSummary, type QuoteDto } from '@crankjournal/shared-types';
+import { MILL_WRITERS, MONEY_READERS, type LotDetail, type LotSummary, type QuoteDto } from '@crankjournal/shared-types';
 import { AnyRole, Roles } from '../../common/decorators/roles.decorator.js';
 import { CurrentUser, type AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { IdParamDto } from '../../common/dto/id-param.dto.js';
@@ -18,7 +18,11 @@ import {
   SendQuoteDto,
 } from './dto/lot.dto.js';
 
-/** Small customer lots, from enquiry to delivery, and their quotes. */
+/** Small customer lots, from the order slate to dispatch, and their quotes. */
+/** Operators and the maintenance lead see no money: amounts are left out of their answers. */
+const seesMoney = (me: AuthUser) => MONEY_READERS.includes(me.role);
+const withoutMoney = <T extends LotSummary>(l: T): T => ({ ...l, latestQuoteTotal: null, ...('quotes' in l ? { quotes: [] } : {}) });
+
 @ApiTags('mill')
 @ApiBearerAuth()
 @Controller('mill')
@@ -28,15 +32,17 @@ export class LotsController {
   @ApiAnswer('LotSummary', { array: true })
   @Get('lots')
   @AnyRole()
-  list(@Query() q: LotQueryDto): Promise<LotSummary[]> {
-    return this.lots.list(q);
+  async list(@Query() q: LotQueryDto, @CurrentUser() me: AuthUser): Promise<LotSummary[]> {
+    const rows = await this.lots.list(q);
+    return seesMoney(me) ? rows : rows.map(withoutMoney);
   }
 
   @ApiAnswer('LotDetail')
   @Get('lots/:id')
   @AnyRole()
-  detail(@Param() p: IdParamDto): Promise<LotDetail> {
-    return this.lots.detail(p.id);
+  async detail(@Param() p: IdParamDto, @CurrentUser() me: AuthUser): Promise<LotDetail> {
+    const lot = await this.lots.detail(p.id);
+    return seesMoney(me) ? lot : withoutMoney(lot);
   }
 
   @ApiAnswer('LotDetail')
@@ -58,7 +64,9 @@ export class LotsController {
   @HttpCode(200)
   @Roles(...MILL_WRITERS)
   @ApiOperation({
-    summary: 'Move a lot one step: enquiry → quoted → accepted → scheduled → rolled → inspected → delivered (409 when skipping)',
+    summary:
+      'Move a lot one step: on the slate → priced → ordered → on the roll plan → rolled → passed inspection → dispatched ' +
+      '(409 when skipping; an unpaid lot goes on the roll plan only by the chief engineer, with overrideReason)',
   })
   transition(@Param() p: IdParamDto, @Body() dto: LotTransitionDto, @CurrentUser() me: AuthUser): Promise<LotDetail> {
     return this.lots.transition(p.id, dto, me);
@@ -81,7 +89,7 @@ export class LotsController {
 
   @ApiAnswer('QuoteDto', { array: true })
   @Get('lots/:id/quotes')
-  @AnyRole()
+  @Roles(...MONEY_READERS)
   quotes(@Param() p: IdParamDto): Promise<QuoteDto[]> {
     return this.lots.quotes(p.id);
   }
@@ -96,7 +104,7 @@ export class LotsController {
 
   @ApiFileAnswer('application/pdf', 'The lot sheet as a PDF')
   @Get('quotes/:id/quote.pdf')
-  @AnyRole()
+  @Roles(...MONEY_READERS)
   async pdf(@Param() p: IdParamDto, @CurrentUser() me: AuthUser, @Res({ passthrough: true }) res: Response): Promise<StreamableFile> {
     const { filename, buffer } = await this.lots.quotePdf(p.id, me.displayName);
     res.setHeader('content-disposition', `attachment; filename="${filename}"`);
@@ -107,7 +115,7 @@ export class LotsController {
   @Post('quotes/:id/send')
   @HttpCode(200)
   @Roles(...MILL_WRITERS)
-  @ApiOperation({ summary: 'E-mail the quote as a PDF to the customer (an enquiry becomes quoted)' })
+  @ApiOperation({ summary: 'E-mail the quote as a PDF to the customer (a lot on the slate becomes priced)' })
   send(@Param() p: IdParamDto, @Body() dto: SendQuoteDto, @CurrentUser() me: AuthUser): Promise<QuoteDto> {
     return this.lots.sendQuote(p.id, dto, me);
   }

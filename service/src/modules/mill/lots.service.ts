@@ -1,8 +1,9 @@
-import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
+import { BadRequestException, ConflictException, ForbiddenException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
 import { DataSource, type EntityManager, Repository } from 'typeorm';
 import {
   LOT_STATUS_LABELS,
+  barLotNumber,
   LOT_STATUSES,
   LOT_STATUSES_OPEN_TO_QUOTES,
   nextLotStatus,
@@ -33,6 +34,12 @@ import { QuotePdfService } from './quote-pdf.service.js';
 
 const label = (s: LotStatus) => LOT_STATUS_LABELS[s].toLowerCase();
 
+/**
+ * Asked before a lot goes on the roll plan (status `on_roll_plan`): why it may not yet, or null. Feature modules
+ * register theirs (payments: the deposit is not paid); the chief engineer may override with a reason.
+ */
+export type RollPlanGate = (lotId: string) => Promise<string | null>;
+
 @Injectable()
 export class LotsService {
   constructor(
@@ -49,6 +56,12 @@ export class LotsService {
     private readonly mail: MailService,
     private readonly users: UsersService,
   ) {}
+
+  private readonly rollPlanGates: RollPlanGate[] = [];
+
+  registerRollPlanGate(gate: RollPlanGate): void {
+    this.rollPlanGates.push(gate);
+  }
 
   async get(id: string): Promise<CustomerLot> {
     const l = await this.customerLotRepo.findOne({ where: { id } });
@@ -137,12 +150,14 @@ export class LotsService {
     return this.users.displayNames(ids);
   }
 
-  /** LOT-<year>-<nnn>, numbered per year of the enquiry. */
+  /** A bar-lot number (BL26-014), numbered per year of the enquiry. */
   private async nextReference(m: EntityManager, at: Date): Promise<string> {
     const year = at.getUTCFullYear();
     await m.query(`SELECT pg_advisory_xact_lock(hashtext('mill_lots_reference'))`);
-    const [{ n }] = await m.query(`SELECT count(*)::int AS n FROM mill_lots WHERE reference LIKE $1`, [`LOT-${year}-%`]);
-    return `LOT-${year}-${String(n + 1).padStart(3, '0')}`;
+    const [{ n }] = await m.query(`SELECT count(*)::int AS n FROM mill_lots WHERE reference LIKE $1`, [
+      `${barLotNumber(year, 0).slice(0, 5)}%`,
+    ]);
+    return barLotNumber(year, n + 1);
   }
 
   async create(dto: LotWriteRequest, user: AuthUser, opts: { reference?: string; createdAt?: Date } = {}): Promise<LotDetail> {
@@ -167,22 +182,22 @@ export class LotsService {
           carbonPct: dto.carbonPct ?? null,
           quantityTonnes: dto.quantityTonnes,
           dueDate: dto.dueDate,
-          status: 'enquiry',
+          status: 'on_the_slate',
           millId,
           notes: dto.notes ?? '',
           createdBy: user.id,
           ...(opts.createdAt ? { createdAt: opts.createdAt } : {}),
         }),
       );
-      await m.insert(LotStatusChange, { lotId: lot.id, fromStatus: null, toStatus: 'enquiry', byUser: user.id, at, note: null });
+      await m.insert(LotStatusChange, { lotId: lot.id, fromStatus: null, toStatus: 'on_the_slate', byUser: user.id, at, note: null });
       return lot.id;
     });
     return this.detail(id);
   }
 
   private assertNotDelivered(l: CustomerLot) {
-    if (l.status === 'delivered')
-      throw new ConflictException(`Lot ${l.reference} is delivered: its record is closed and can no longer be changed.`);
+    if (l.status === 'dispatched')
+      throw new ConflictException(`Lot ${l.reference} is dispatched: its record is closed and can no longer be changed.`);
   }
 
   async update(id: string, dto: LotUpdateRequest): Promise<LotDetail> {
@@ -197,7 +212,7 @@ export class LotsService {
       (dto.productWidthMm !== undefined && dto.productWidthMm !== l.productWidthMm);
     if (priced && repriced)
       throw new ConflictException(
-        `Lot ${l.reference} is ${label(l.status)}: its product and quantity were priced. Agree a new enquiry for a change.`,
+        `Lot ${l.reference} is ${label(l.status)}: its product and quantity were priced. Put a new lot on the slate for a change.`,
       );
     if (dto.customerName !== undefined) patch.customerName = dto.customerName.trim();
     if (dto.customerEmail !== undefined) patch.customerEmail = dto.customerEmail.trim().toLowerCase();
@@ -231,18 +246,28 @@ export class LotsService {
       const back = LOT_STATUSES.indexOf(dto.to) < LOT_STATUSES.indexOf(l.status);
       throw new ConflictException(
         next === null
-          ? `Lot ${l.reference} is delivered: there is no step after that.`
+          ? `Lot ${l.reference} is dispatched: there is no step after that.`
           : back
             ? `Lot ${l.reference} is ${label(l.status)}; a lot does not go back to ${label(dto.to)}.`
             : `Lot ${l.reference} is ${label(l.status)}; its next step is ${label(next)}, so it cannot skip to ${label(dto.to)}.`,
       );
     }
-    if (dto.to === 'quoted' && !(await this.lotQuoteRepo.exists({ where: { lotId: id } })))
-      throw new ConflictException('Make a quote for the lot before marking it quoted.');
-    if (dto.to === 'scheduled' && !(await this.lotRunRepo.exists({ where: { lotId: id } })))
-      throw new ConflictException('Link the run that will roll the lot before marking it scheduled.');
+    if (dto.to === 'priced' && !(await this.lotQuoteRepo.exists({ where: { lotId: id } })))
+      throw new ConflictException('Make a quote for the lot before marking it priced.');
+    if (dto.to === 'on_roll_plan' && !(await this.lotRunRepo.exists({ where: { lotId: id } })))
+      throw new ConflictException('Link the run that will roll the lot before putting it on the roll plan.');
     if (dto.to === 'rolled' && !(l.producedTonnes > 0))
       throw new ConflictException('Record the tonnage produced before marking the lot rolled.');
+    let note = dto.note?.trim() || null;
+    if (dto.to === 'on_roll_plan') {
+      const refusals = (await Promise.all(this.rollPlanGates.map((g) => g(id)))).filter((r): r is string => !!r);
+      const reason = dto.overrideReason?.trim();
+      if (refusals.length && !reason)
+        throw new ConflictException(`${refusals.join(' ')} The chief engineer may put it on the roll plan with a reason.`);
+      if (refusals.length && user.role !== 'chief_engineer')
+        throw new ForbiddenException('Only the chief engineer may put a lot on the roll plan before its deposit is paid.');
+      if (refusals.length) note = [`Override by the chief engineer: ${reason}`, `(${refusals.join(' ')})`, note].filter(Boolean).join(' ');
+    }
     await this.db.transaction(async (m) => {
       const cur = await m.findOne(CustomerLot, { where: { id }, lock: { mode: 'pessimistic_write' } });
       if (!cur || cur.status !== l.status) throw new ConflictException('Someone else moved this lot a moment ago. Look again and retry.');
@@ -253,10 +278,20 @@ export class LotsService {
         toStatus: dto.to,
         byUser: user.id,
         at,
-        note: dto.note?.trim() || null,
+        note,
       });
     });
     return this.detail(id);
+  }
+
+  /** The customer paid the deposit: a lot still priced is ordered (by the person who asked for the money). */
+  async acceptOnDeposit(id: string, byUser: string, at: Date, note: string): Promise<void> {
+    await this.db.transaction(async (m) => {
+      const cur = await m.findOne(CustomerLot, { where: { id }, lock: { mode: 'pessimistic_write' } });
+      if (!cur || cur.status !== 'priced') return;
+      await m.update(CustomerLot, { id }, { status: 'ordered' });
+      await m.insert(LotStatusChange, { lotId: id, fromStatus: 'priced', toStatus: 'ordered', byUser, at, note });
+    });
   }
 
   async linkRun(id: string, runId: string, user: AuthUser): Promise<LotDetail> {
@@ -324,7 +359,7 @@ export class LotsService {
     const l = await this.get(lotId);
     if (!LOT_STATUSES_OPEN_TO_QUOTES.includes(l.status))
       throw new ConflictException(
-        `Lot ${l.reference} is ${label(l.status)}: its price is fixed. Quotes are made while a lot is an enquiry or quoted.`,
+        `Lot ${l.reference} is ${label(l.status)}: its price is fixed. Quotes are made while a lot is on the slate or priced.`,
       );
     const mill = l.millId ? await this.mills.get(l.millId) : await this.mills.first();
     if (!mill) throw new ConflictException('Describe the mill and its quote rates first.');
@@ -378,7 +413,7 @@ export class LotsService {
     return this.pdf.render({ quote: q, lot, millName: mill?.name ?? 'The mill', printedBy, printedAt });
   }
 
-  /** E-mails the quote as a PDF to the customer; a lot still an enquiry becomes quoted. */
+  /** E-mails the quote as a PDF to the customer; a lot still on the slate becomes priced. */
   async sendQuote(quoteId: string, dto: SendQuoteRequest, user: AuthUser): Promise<QuoteDto> {
     const q = await this.getQuote(quoteId);
     const lot = await this.get(q.lotId);
@@ -408,7 +443,7 @@ export class LotsService {
     });
     const now = new Date();
     await this.lotQuoteRepo.update({ id: q.id }, { sentAt: now, sentTo: to });
-    if (lot.status === 'enquiry') await this.transition(lot.id, { to: 'quoted', note: `Quote ${q.number} sent to ${to}.` }, user, now);
+    if (lot.status === 'on_the_slate') await this.transition(lot.id, { to: 'priced', note: `Quote ${q.number} sent to ${to}.` }, user, now);
     const names = await this.names([q.createdBy]);
     return this.quoteDto({ ...q, sentAt: now, sentTo: to }, names.get(q.createdBy) ?? 'unknown');
   }

@@ -9,5 +9,7 @@ export class SiteSettings {
   @Column({ name: 'time_zone', type: 'varchar', length: 64 }) timeZone: string;
   /** Whether the run log sheet carries a block for a wet signature (the insurer or trustees ask for one). */
   @Column({ name: 'wet_signature', type: 'boolean', default: true }) wetSignature: boolean;
+  /** The share of a quote asked as a deposit, percent. */
+  @Column({ name: 'deposit_share_pct', type: 'int', default: 30 }) depositSharePct: number;
   @UpdateDateColumn({ name: 'updated_at', type: 'timestamptz' }) updatedAt: Date;
 }

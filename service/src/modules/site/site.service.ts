@@ -18,6 +18,7 @@ export class SiteService {
       worksName: row?.worksName ?? 'The works',
       timeZone: row?.timeZone ?? 'UTC',
       wetSignature: row?.wetSignature ?? true,
+      depositSharePct: row?.depositSharePct ?? 30,
     };
   }
 

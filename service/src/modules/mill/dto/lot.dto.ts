@@ -73,6 +73,12 @@ export class LotUpdateDto extends PartialType(LotWriteDto) implements LotUpdateR
 export class LotTransitionDto implements LotTransitionRequest {
   @ApiProperty({ enum: LOT_STATUSES }) @IsIn(LOT_STATUSES, oneOf(LOT_STATUSES)) to: LotStatus;
   @ApiPropertyOptional() @IsOptional() @IsString() @MaxLength(2000) note?: string;
+  @ApiPropertyOptional({ description: 'chief engineer: put an unpaid lot on the roll plan, with this reason' })
+  @IsOptional()
+  @IsString()
+  @MinLength(3, { message: 'overrideReason must say why (at least 3 characters)' })
+  @MaxLength(2000)
+  overrideReason?: string;
 }
 
 export class LinkRunDto implements LinkRunRequest {

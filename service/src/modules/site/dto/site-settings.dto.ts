@@ -1,4 +1,15 @@
-import { IsBoolean, IsOptional, IsString, Length, Validate, ValidatorConstraint, type ValidatorConstraintInterface } from 'class-validator';
+import {
+  IsBoolean,
+  IsInt,
+  IsOptional,
+  Max,
+  Min,
+  IsString,
+  Length,
+  Validate,
+  ValidatorConstraint,
+  type ValidatorConstraintInterface,
+} from 'class-validator';
 import type { UpdateSiteSettingsRequest } from '@crankjournal/shared-types';
 import { isKnownTimeZone } from '../../../common/pdf/zoned-time.js';
 
@@ -16,4 +27,9 @@ export class UpdateSiteSettingsDto implements UpdateSiteSettingsRequest {
   @IsOptional() @IsString() @Length(1, 120) worksName?: string;
   @IsOptional() @IsString() @Validate(KnownTimeZone) timeZone?: string;
   @IsOptional() @IsBoolean() wetSignature?: boolean;
+  @IsOptional()
+  @IsInt({ message: 'depositSharePct must be a whole number of percent' })
+  @Min(0)
+  @Max(100)
+  depositSharePct?: number;
 }

@@ -33,7 +33,7 @@ export function BarRecord({ bar }: { bar: BarDto }) {
         w={240}
         clearable
         data={(lots.data ?? [])
-          .filter((l) => l.status !== 'delivered' || l.id === bar.lotId)
+          .filter((l) => l.status !== 'dispatched' || l.id === bar.lotId)
           .map((l) => ({ value: l.id, label: `${l.reference} · ${l.customerName}` }))}
         value={lotId}
         onChange={setLotId}

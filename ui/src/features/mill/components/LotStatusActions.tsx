@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { Alert, Button, Group, Modal, NumberInput, Stack, Stepper, Text, TextInput } from '@mantine/core';
 import { IconArrowRight } from '@tabler/icons-react';
-import { LOT_STATUSES, LOT_STATUS_LABELS, MILL_WRITERS, type LotDetail } from '@crankjournal/shared-types';
+import { LOT_STATUSES, LOT_STATUS_ACTIONS, LOT_STATUS_LABELS, MILL_WRITERS, type LotDetail } from '@crankjournal/shared-types';
 import { errorText } from '../../../api/http';
 import { useHasRole } from '../../auth/useSession';
 import { useMoveLot, useUpdateLot } from '../api/mill.api';
@@ -11,7 +11,7 @@ export function LotSteps({ lot }: { lot: LotDetail }) {
   const active = LOT_STATUSES.indexOf(lot.status);
   return (
     <Stepper
-      active={lot.status === 'delivered' ? LOT_STATUSES.length : active + 1}
+      active={lot.status === 'dispatched' ? LOT_STATUSES.length : active + 1}
       size="sm"
       allowNextStepsSelect={false}
       aria-label="Lot status"
@@ -31,6 +31,8 @@ export function LotStatusActions({ lot }: { lot: LotDetail }) {
   const update = useUpdateLot(lot.id);
   const [open, setOpen] = useState(false);
   const [note, setNote] = useState('');
+  const isChief = useHasRole('chief_engineer');
+  const [overrideReason, setOverrideReason] = useState('');
   const [produced, setProduced] = useState<number | ''>(lot.producedTonnes || lot.barTonnes.produced || '');
   const [scrapped, setScrapped] = useState<number | ''>(lot.scrappedTonnes || lot.barTonnes.scrapped || '');
   const next = lot.nextStatus;
@@ -42,15 +44,19 @@ export function LotStatusActions({ lot }: { lot: LotDetail }) {
         scrappedTonnes: scrapped === '' ? 0 : Number(scrapped),
       });
     }
-    move.mutate({ to: next, note: note.trim() || undefined }, { onSuccess: () => setOpen(false) });
+    const reason = next === 'on_roll_plan' && isChief ? overrideReason.trim() : '';
+    move.mutate(
+      { to: next, note: note.trim() || undefined, ...(reason ? { overrideReason: reason } : {}) },
+      { onSuccess: () => setOpen(false) },
+    );
   };
   const error = move.error ?? update.error;
   return (
     <>
       <Button size="lg" rightSection={<IconArrowRight />} onClick={() => setOpen(true)}>
-        Mark {LOT_STATUS_LABELS[next].toLowerCase()}
+        {LOT_STATUS_ACTIONS[next]}
       </Button>
-      <Modal opened={open} onClose={() => setOpen(false)} title={`Lot ${lot.reference}: mark ${LOT_STATUS_LABELS[next].toLowerCase()}`}>
+      <Modal opened={open} onClose={() => setOpen(false)} title={`Lot ${lot.reference}: ${LOT_STATUS_ACTIONS[next].toLowerCase()}`}>
         <Stack>
           <Text fz="sm">
             Records the step from {LOT_STATUS_LABELS[lot.status].toLowerCase()} to {LOT_STATUS_LABELS[next].toLowerCase()} with your name
@@ -74,6 +80,19 @@ export function LotStatusActions({ lot }: { lot: LotDetail }) {
               />
             </Group>
           )}
+          {next === 'on_roll_plan' && (
+            <Text fz="sm">
+              A lot goes on the roll plan once its deposit is paid; before that only the chief engineer may put it there, with a reason.
+            </Text>
+          )}
+          {next === 'on_roll_plan' && isChief && (
+            <TextInput
+              label="Reason to put it on the roll plan before the deposit is paid"
+              description="Only needed while the deposit is unpaid; kept in the lot's history with your name."
+              value={overrideReason}
+              onChange={(e) => setOverrideReason(e.currentTarget.value)}
+            />
+          )}
           <TextInput label="Note (optional)" value={note} onChange={(e) => setNote(e.currentTarget.value)} />
           {error && (
             <Alert color="signal" role="alert" title="Not moved">
@@ -85,7 +104,7 @@ export function LotStatusActions({ lot }: { lot: LotDetail }) {
               Cancel
             </Button>
             <Button onClick={confirm} loading={move.isPending || update.isPending}>
-              Mark {LOT_STATUS_LABELS[next].toLowerCase()}
+              {LOT_STATUS_ACTIONS[next]}
             </Button>
           </Group>
         </Stack>

@@ -12,23 +12,23 @@ import {
 import { LOT_STATUS_LABELS, type LotStatus } from '@crankjournal/shared-types';
 
 const ICONS: Record<LotStatus, typeof IconCheck> = {
-  enquiry: IconHelpCircle,
-  quoted: IconFileInvoice,
-  accepted: IconThumbUp,
-  scheduled: IconCalendarEvent,
+  on_the_slate: IconHelpCircle,
+  priced: IconFileInvoice,
+  ordered: IconThumbUp,
+  on_roll_plan: IconCalendarEvent,
   rolled: IconFlame,
-  inspected: IconSearch,
-  delivered: IconTruckDelivery,
+  passed: IconSearch,
+  dispatched: IconTruckDelivery,
 };
 
-/** A lot's status as a word with an icon; calm grey except a delivered lot's quiet tick. */
+/** A lot's status as a word with an icon; calm grey except a dispatched lot's quiet tick. */
 export function LotStatusBadge({ status, size = 'lg' }: { status: LotStatus; size?: 'md' | 'lg' }) {
   const Icon = ICONS[status];
   return (
     <Badge
       size={size}
-      variant={status === 'delivered' ? 'light' : 'outline'}
-      color={status === 'delivered' ? 'copper' : 'gray'}
+      variant={status === 'dispatched' ? 'light' : 'outline'}
+      color={status === 'dispatched' ? 'copper' : 'gray'}
       leftSection={<Icon size={14} />}
       data-testid="lot-status"
       styles={{ root: { minWidth: 'max-content', overflow: 'visible' }, label: { overflow: 'visible' } }}

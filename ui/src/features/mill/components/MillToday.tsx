@@ -11,7 +11,7 @@ export function MillToday() {
   const runs = useQuery(millRunsQuery());
   const lots = useQuery(lotsQuery());
   const rolling = (runs.data ?? []).filter((r) => r.state === 'running' || r.state === 'stopped');
-  const open = (lots.data ?? []).filter((l) => l.status !== 'delivered').slice(0, 5);
+  const open = (lots.data ?? []).filter((l) => l.status !== 'dispatched').slice(0, 5);
   return (
     <Card withBorder padding="lg" radius="md">
       <Title order={2} fz="xl" mb="sm">

@@ -18,7 +18,7 @@ export function PlanFromTemplate({ templateId, size = 'lg' }: { templateId?: str
   const lots = useQuery({ ...lotsQuery(), enabled: open });
   const copy = useCopySchedule();
   const navigate = useNavigate();
-  const openLots = (lots.data ?? []).filter((l) => l.status !== 'delivered');
+  const openLots = (lots.data ?? []).filter((l) => l.status !== 'dispatched');
   const submit = () =>
     chosen &&
     copy.mutate(

@@ -204,7 +204,7 @@ export function QuotePanel({ lot, canWrite }: { lot: LotDetail; canWrite: boolea
       </Stack>
       <Modal opened={!!sending} onClose={() => setSending(null)} title={`E-mail quote ${sending?.number ?? ''}`}>
         <Stack>
-          <Text fz="sm">The quote goes as a PDF attachment. {lot.status === 'enquiry' ? 'The lot becomes quoted.' : ''}</Text>
+          <Text fz="sm">The quote goes as a PDF attachment. {lot.status === 'on_the_slate' ? 'The lot becomes priced.' : ''}</Text>
           <TextInput label="To" type="email" value={to} onChange={(e) => setTo(e.currentTarget.value)} />
           <Textarea
             label="Message"

@@ -76,7 +76,7 @@ export function StartBar({
             clearable
             placeholder="None"
             data={(lots.data ?? [])
-              .filter((l) => l.status !== 'delivered')
+              .filter((l) => l.status !== 'dispatched')
               .map((l) => ({ value: l.id, label: `${l.reference} · ${l.customerName}` }))}
             value={lotId}
             onChange={setLotId}

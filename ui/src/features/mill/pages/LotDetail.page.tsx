@@ -31,6 +31,7 @@ import { fmt, product, when } from '../model/format';
 import { LotStatusBadge } from '../components/LotStatusBadge';
 import { LotStatusActions, LotSteps } from '../components/LotStatusActions';
 import { QuotePanel } from '../components/QuotePanel';
+import { LotMoneyPanel } from '../../payments/components/LotMoneyPanel';
 
 function Field({ label, children }: { label: string; children: ReactNode }) {
   return (
@@ -54,7 +55,7 @@ export default function LotDetailPage() {
   const [runId, setRunId] = useState<string | null>(null);
   if (isLoading) return <Loader />;
   if (error || !lot) return <Alert color="signal">{errorText(error)}</Alert>;
-  const delivered = lot.status === 'delivered';
+  const delivered = lot.status === 'dispatched';
   const linkable = (runs.data ?? []).filter((r) => !lot.runs.some((x) => x.id === r.id) && r.state !== 'abandoned');
   return (
     <Stack gap="lg">
@@ -121,6 +122,7 @@ export default function LotDetailPage() {
         </Grid.Col>
       </Grid>
       <QuotePanel lot={lot} canWrite={canWrite} />
+      <LotMoneyPanel lot={lot} />
       <Card withBorder padding="lg">
         <Title order={2} fz="xl" mb="sm">
           Runs that roll the lot

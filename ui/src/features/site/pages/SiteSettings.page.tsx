@@ -1,6 +1,6 @@
 import { useEffect, useMemo } from 'react';
 import { useQuery } from '@tanstack/react-query';
-import { Alert, Button, Group, Loader, Select, Stack, Switch, Text, TextInput } from '@mantine/core';
+import { Alert, Button, Group, Loader, NumberInput, Select, Stack, Switch, Text, TextInput } from '@mantine/core';
 import { useForm } from '@mantine/form';
 import { notifications } from '@mantine/notifications';
 import type { SiteSettings } from '@crankjournal/shared-types';
@@ -28,7 +28,7 @@ export default function SiteSettingsPage() {
   const { data, isLoading, error } = useQuery(siteSettingsQuery());
   const save = useUpdateSiteSettings();
   const form = useForm<SiteSettings>({
-    initialValues: { worksName: '', timeZone: 'UTC', wetSignature: true },
+    initialValues: { worksName: '', timeZone: 'UTC', wetSignature: true, depositSharePct: 30 },
     validate: {
       worksName: (v) => (v.trim().length === 0 ? 'Give the works a name: it heads every printed record.' : null),
       timeZone: (v) => (v ? null : 'Choose the time zone of the engine house.'),
@@ -55,7 +55,12 @@ export default function SiteSettingsPage() {
       <form
         onSubmit={form.onSubmit((values) =>
           save.mutate(
-            { worksName: values.worksName.trim(), timeZone: values.timeZone, wetSignature: values.wetSignature },
+            {
+              worksName: values.worksName.trim(),
+              timeZone: values.timeZone,
+              wetSignature: values.wetSignature,
+              depositSharePct: values.depositSharePct,
+            },
             {
               onSuccess: () => notifications.show({ message: 'Works settings saved.' }),
             },
@@ -77,6 +82,15 @@ export default function SiteSettingsPage() {
             label="End the run log sheet with a block for signatures in ink"
             size="md"
             {...form.getInputProps('wetSignature', { type: 'checkbox' })}
+          />
+          <NumberInput
+            label="Deposit asked of a customer, % of the quote"
+            description="The mill lead may ask another share or a fixed sum for a lot."
+            min={0}
+            max={100}
+            allowDecimal={false}
+            size="md"
+            {...form.getInputProps('depositSharePct')}
           />
           {save.error && <Alert color="red">{errorText(save.error)}</Alert>}
           <Group>

@@ -13,8 +13,8 @@ describe('works settings page', () => {
   it('shows the works and its time zone, and saves a new name with the zone kept', async () => {
     const user = userEvent.setup();
     const { calls } = stubFetch({
-      'GET /site/settings': { worksName: 'Alder Forge', timeZone: 'Europe/London', wetSignature: true },
-      'PUT /site/settings': { worksName: 'Alder Forge heritage works', timeZone: 'Europe/London', wetSignature: true },
+      'GET /site/settings': { worksName: 'Alder Forge', timeZone: 'Europe/London', wetSignature: true, depositSharePct: 30 },
+      'PUT /site/settings': { worksName: 'Alder Forge heritage works', timeZone: 'Europe/London', wetSignature: true, depositSharePct: 30 },
     });
     render(<SiteSettingsPage />);
     const name = await screen.findByLabelText('Name of the works', {}, { timeout: 8000 });
@@ -27,13 +27,18 @@ describe('works settings page', () => {
     await user.click(saveButton);
     await waitFor(() => expect(calls.some((c) => c.method === 'PUT')).toBe(true), { timeout: 8000 });
     const put = calls.find((c) => c.method === 'PUT');
-    expect(put?.body).toEqual({ worksName: 'Alder Forge heritage works', timeZone: 'Europe/London', wetSignature: true });
+    expect(put?.body).toEqual({
+      worksName: 'Alder Forge heritage works',
+      timeZone: 'Europe/London',
+      wetSignature: true,
+      depositSharePct: 30,
+    });
   }, 20_000);
 
   it('refuses an empty name before sending anything', async () => {
     const user = userEvent.setup();
     const { calls } = stubFetch({
-      'GET /site/settings': { worksName: 'Alder Forge', timeZone: 'UTC', wetSignature: false },
+      'GET /site/settings': { worksName: 'Alder Forge', timeZone: 'UTC', wetSignature: false, depositSharePct: 30 },
     });
     render(<SiteSettingsPage />);
     const name = await screen.findByLabelText('Name of the works', {}, { timeout: 8000 });
