@@ -1,5 +1,5 @@
 import { zonedClock } from '../../common/pdf/zoned-time.js';
-import { LOG_SHEET_SECTION, type LogSheetContext } from './run-log-sheet.service.js';
+import { LOG_SHEET_SECTION, type LogSheetContext } from './run-log-sheet.sections.js';
 
 // Wording of the card-set and close sections, from a hand-made context (no database).
 const clock = zonedClock('America/Chicago');
