@@ -101,6 +101,8 @@ export type RecentHistoryLoader = (
   engineId: string,
   windowMinutes: number,
   m: EntityManager,
+  /** Readings being evaluated (already stored in this transaction): left out, so each counts once and as new. */
+  excludeIds: string[],
 ) => Promise<{ recent: Map<string, PointReading[]>; ambient: { value: number; unit: string; takenAt: Date } | null }>;
 
 /** Permission check for acknowledging (the qualifications module fills it in). */
@@ -200,11 +202,16 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
     this.state.delete(engineId);
   }
 
-  private async load(engineId: string, m: EntityManager, history: RecentHistoryLoader): Promise<EngineState> {
+  private async load(engineId: string, m: EntityManager, history: RecentHistoryLoader, evaluating: NewReading[]): Promise<EngineState> {
     const hit = this.state.get(engineId);
     if (hit) return hit;
     const open = await m.find(Alarm, { where: { engineId, state: Not('normal') } });
-    const { recent, ambient } = await history(engineId, RATE_WINDOW_MINUTES, m);
+    const { recent, ambient } = await history(
+      engineId,
+      RATE_WINDOW_MINUTES,
+      m,
+      evaluating.map((r) => r.id),
+    );
     const st: EngineState = {
       seq: 0,
       recent,
@@ -239,7 +246,7 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
       [engineId],
     )) as { seq: number }[];
     if (this.state.get(engineId)?.seq !== seq - 1) this.state.delete(engineId);
-    const st = await this.load(engineId, m, history);
+    const st = await this.load(engineId, m, history, readings);
     st.seq = seq;
     // The open alarms are read again, and locked, in this transaction: people acknowledge, shelve and unshelve
     // them meanwhile (change(), expireShelves()), and a cached copy would overwrite their change or miss it

@@ -464,13 +464,14 @@ export class IngestService {
   }
 
   /** What the alarm evaluation needs after a restart: recent readings and the latest ambient value. */
-  private readonly history: RecentHistoryLoader = async (engineId: string, windowMinutes: number, m: EntityManager) => {
+  private readonly history: RecentHistoryLoader = async (engineId: string, windowMinutes: number, m: EntityManager, excludeIds) => {
     const rows: { point_id: string; value: number; taken_at: Date }[] = await m.query(
       `SELECT point_id, COALESCE(amended_value, value) AS value, taken_at FROM readings
-        WHERE engine_id = $1
-          AND taken_at > (SELECT COALESCE(max(taken_at), now()) FROM readings WHERE engine_id = $1) - make_interval(mins => $2)
+        WHERE engine_id = $1 AND id <> ALL($3::bigint[])
+          AND taken_at > (SELECT COALESCE(max(taken_at), now()) FROM readings WHERE engine_id = $1 AND id <> ALL($3::bigint[]))
+                         - make_interval(mins => $2)
         ORDER BY taken_at`,
-      [engineId, windowMinutes],
+      [engineId, windowMinutes, excludeIds],
     );
     const recent = new Map<string, PointReading[]>();
     for (const r of rows) {
@@ -484,8 +485,8 @@ export class IngestService {
     if (ambientIds.length) {
       const a: { value: number; unit: string; taken_at: Date }[] = await m.query(
         `SELECT COALESCE(amended_value, value) AS value, unit, taken_at FROM readings
-         WHERE point_id = ANY($1) ORDER BY taken_at DESC LIMIT 1`,
-        [ambientIds],
+         WHERE point_id = ANY($1) AND id <> ALL($2::bigint[]) ORDER BY taken_at DESC LIMIT 1`,
+        [ambientIds, excludeIds],
       );
       if (a[0]) ambient = { value: Number(a[0].value), unit: a[0].unit, takenAt: new Date(a[0].taken_at) };
     }
