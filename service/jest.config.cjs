@@ -27,6 +27,7 @@ module.exports = {
       rootDir: __dirname,
       testMatch: ['<rootDir>/test/**/*.e2e-spec.ts'],
       testTimeout: 60000,
+      setupFiles: ['<rootDir>/test/utils/esm-bridge.setup.ts'],
       // @nestjs/throttler is CommonJS and require()s the ESM-only @nestjs/common, which Jest allows only
       // on Node 24.9+; test/utils/esm-require-bridge.cjs hands it the app's own ES modules instead.
       // The card tracer's route runs the tracer in the test process: Math bound once per module, as in the unit project.
