@@ -4,20 +4,20 @@ import { api, HttpError, NetworkError } from './http';
 import { sessionStore } from './session';
 
 /**
- * The tablet's outbox: what a person recorded while the server could not be reached (rounds of readings, checklist
- * entries and their photos, alarm acknowledgements) waits here, in IndexedDB (photos do not fit in localStorage), and is
- * sent in the order it was made when the server answers again: on `online`, when the live socket reconnects, every
- * 10 s and on "Send now", from whichever screen is open. Rounds keep the clientId of each reading and checklist
- * entries and photos are puts of one item, so sending one again stores it once. What the server refuses (4xx) is kept
- * with the server's reason until the person dismisses it; it is never dropped silently. An item is sent only under
- * the sign-in of the person who made it.
+ * The tablet's outbox: what a person recorded while the server could not be reached (rounds of readings, amendments
+ * of readings, checklist entries and their photos, alarm acknowledgements) waits here, in IndexedDB (photos do not
+ * fit in localStorage), and is sent in the order it was made when the server answers again: on `online`, when the
+ * live socket reconnects, every 10 s and on "Send now", from whichever screen is open. Rounds keep the clientId of
+ * each reading, amendments their own clientId, and checklist entries and photos are puts of one item, so sending one
+ * again stores it once. What the server refuses (4xx) is kept with the server's reason until the person dismisses
+ * it; it is never dropped silently. An item is sent only under the sign-in of the person who made it.
  */
 
 export const OUTBOX_RETRY_INTERVAL_MS = 10_000;
 /** The localStorage key of the earlier queue of rounds; read once and moved into IndexedDB. */
 export const LEGACY_STORAGE_KEY = 'crankjournal.offline-rounds';
 
-export type OutboxKind = 'round' | 'checklist-entry' | 'checklist-photo' | 'checklist-sign' | 'alarm-ack';
+export type OutboxKind = 'round' | 'checklist-entry' | 'checklist-photo' | 'checklist-sign' | 'alarm-ack' | 'reading-amendment';
 
 /** One request to make when the server answers. */
 export interface OutboxRequest {
@@ -33,7 +33,7 @@ export interface OutboxRequest {
   blob?: Blob;
   contentType?: string;
   /** What the item changes, for the screens that mark it "waiting" (checklist and item). */
-  ref?: { checklistId?: string; itemKey?: string; alarmId?: string };
+  ref?: { checklistId?: string; itemKey?: string; alarmId?: string; readingId?: string };
   /** Fields added to the JSON body when the request waits in the outbox (e.g. the time it was signed on the tablet). */
   whenQueued?: Record<string, unknown>;
   /**

@@ -19,6 +19,7 @@ import { SeveralInstances1796424019287 } from './1796424019287-SeveralInstances.
 import { ChecklistSignedOnDevice1796424079811 } from './1796424079811-ChecklistSignedOnDevice.js';
 import { NamesKeptAsSigned1796424216765 } from './1796424216765-NamesKeptAsSigned.js';
 import { EnginePartsRetired1796424633674 } from './1796424633674-EnginePartsRetired.js';
+import { ReadingAmendmentClientId1796426692568 } from './1796426692568-ReadingAmendmentClientId.js';
 
 /** Every migration in order. Add new ones at the end; never edit one that has been committed. */
 export const MIGRATIONS: (new () => MigrationInterface)[] = [
@@ -42,4 +43,5 @@ export const MIGRATIONS: (new () => MigrationInterface)[] = [
   ChecklistSignedOnDevice1796424079811,
   NamesKeptAsSigned1796424216765,
   EnginePartsRetired1796424633674,
+  ReadingAmendmentClientId1796426692568,
 ];

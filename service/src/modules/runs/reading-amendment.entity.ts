@@ -9,4 +9,6 @@ export class ReadingAmendment {
   @Column({ type: 'text' }) reason: string;
   @Column({ name: 'by_user', type: 'uuid' }) byUser: string;
   @Column({ type: 'timestamptz' }) at: Date;
+  /** The client's id of the amendment (unique where given), so a resend from the tablet's outbox is stored once. */
+  @Column({ name: 'client_id', type: 'uuid', nullable: true }) clientId: string | null;
 }
