@@ -1,6 +1,8 @@
 import { Column, Entity, Index, PrimaryGeneratedColumn } from 'typeorm';
 
 @Entity({ name: 'reading_amendments' })
+/** A client id names one amendment (the tablet's outbox may send it again). */
+@Index('uq_reading_amendments_client_id', ['clientId'], { unique: true, where: '"client_id" IS NOT NULL' })
 export class ReadingAmendment {
   @PrimaryGeneratedColumn('uuid') id: string;
   @Index() @Column({ name: 'reading_id', type: 'bigint' }) readingId: string;
