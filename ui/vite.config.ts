@@ -1,6 +1,35 @@
+import { fileURLToPath } from 'node:url';
 import { defineConfig } from 'vitest/config';
+import { build, type Plugin, type Rolldown } from 'vite';
 import react from '@vitejs/plugin-react';
 import { VitePWA } from 'vite-plugin-pwa';
+
+/**
+ * The service worker's outbox script (`/sw-outbox.js`, loaded by Workbox's importScripts), built from
+ * src/sw/outbox-sync.ts with the page's own outbox code, so the worker sends with the same rules as the page.
+ */
+function outboxWorker(): Plugin {
+  return {
+    name: 'cj-sw-outbox',
+    apply: 'build',
+    async generateBundle() {
+      const out = await build({
+        configFile: false,
+        root: fileURLToPath(new URL('.', import.meta.url)),
+        logLevel: 'warn',
+        build: {
+          write: false,
+          minify: true,
+          lib: { entry: fileURLToPath(new URL('./src/sw/outbox-sync.ts', import.meta.url)), formats: ['iife'], name: 'cjOutboxSync' },
+        },
+      });
+      const first = (Array.isArray(out) ? out[0] : out) as Rolldown.RolldownOutput;
+      const chunk = first.output.find((o) => o.type === 'chunk');
+      if (!chunk) throw new Error('the outbox worker script was not built');
+      this.emitFile({ type: 'asset', fileName: 'sw-outbox.js', source: chunk.code });
+    },
+  };
+}
 
 /**
  * The installable app: a service worker (Workbox) that keeps the app shell, every page's code and the fonts, and
@@ -73,7 +102,7 @@ const pwa = VitePWA({
 });
 
 export default defineConfig({
-  plugins: [react(), pwa],
+  plugins: [react(), outboxWorker(), pwa],
   server: {
     port: 5173,
     proxy: { '/api': 'http://127.0.0.1:3000', '/socket.io': { target: 'ws://127.0.0.1:3000', ws: true } },

@@ -164,6 +164,39 @@ describe('the run log (engines, runs, readings, alarms) against PostgreSQL', () 
       expect(row).toEqual({ value: 47, amended_value: 74 });
     });
 
+    it('an amendment sent again with its clientId is stored once; the same id with other content is refused', async () => {
+      const r = reading(point('SPD'), 52);
+      await signedIn(t, operator)
+        .post(`/api/runs/${run.id}/rounds`)
+        .send({ takenAt: r.takenAt, readings: [r] });
+      const list = (await signedIn(t, observer).get(`/api/runs/${run.id}/readings?pointId=${point('SPD')}`)).body as ReadingDto[];
+      const stored = list.find((x) => x.clientId === r.clientId)!;
+      const clientId = randomUUID();
+      const body = { value: 25, reason: 'Digits swapped on the tablet', clientId };
+      expect(
+        (
+          await signedIn(t, operator)
+            .post(`/api/readings/${stored.id}/amendments`)
+            .send({ ...body, clientId: 'x' })
+        ).status,
+      ).toBe(400);
+      const first = await signedIn(t, operator).post(`/api/readings/${stored.id}/amendments`).send(body);
+      expect(first.status).toBe(201);
+      const again = await signedIn(t, operator).post(`/api/readings/${stored.id}/amendments`).send(body);
+      expect(again.status).toBe(201);
+      expect(again.body).toMatchObject({ value: 25, originalValue: 52 });
+      expect(again.body.amendments).toHaveLength(1);
+      const other = await signedIn(t, operator)
+        .post(`/api/readings/${stored.id}/amendments`)
+        .send({ ...body, value: 26 });
+      expect(other.status).toBe(409);
+      expect(other.body.message).toContain('clientId');
+      const [{ n }] = await t.db.query(`SELECT count(*)::int AS n FROM reading_amendments WHERE reading_id = $1`, [stored.id]);
+      expect(n).toBe(1);
+      const [row] = await t.db.query(`SELECT amended_value FROM readings WHERE id = $1`, [stored.id]);
+      expect(row.amended_value).toBe(25);
+    });
+
     it('bad input gets a 400 naming the problem, and the good part of the batch is kept', async () => {
       const good = reading(point('THR'), 131);
       const res = await signedIn(t, operator)

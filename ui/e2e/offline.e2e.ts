@@ -203,3 +203,59 @@ test('offline: the round page loads, a round and a checklist item with a photo w
   await page.getByRole('button', { name: 'Dismiss' }).click();
   await expect(page.getByTestId('outbox-indicator')).toHaveCount(0);
 });
+
+test('with no tab open, the service worker sends what waits on a Background Sync, under the sign-in cookie', async ({
+  page,
+  context,
+  request,
+}) => {
+  test.setTimeout(120_000);
+  const stamp = Date.now().toString(36);
+  const chief = await token(request, 'chief@alderforge.example');
+  const op = await token(request, 'operator@alderforge.example');
+  const a = await engineWithRun(request, chief, op, `Closed tab engine ${stamp}`);
+  const [p1] = [...a.engine.measurementPoints].sort((x, y) => x.sequence - y.sequence);
+
+  await signIn(page, 'operator@alderforge.example');
+  await controlled(page);
+  await page.goto(`/runs/${a.run.id}/round`);
+  await expect(page.getByLabel(label(p1.label))).toBeVisible();
+
+  // Offline, a round is kept on the tablet; then the tab is closed before the network returns.
+  await context.setOffline(true);
+  await page.getByLabel(label(p1.label)).fill(String(p1.normalLow ?? p1.normalHigh ?? 1));
+  await page.getByRole('button', { name: 'Save round' }).click();
+  await expect(page.getByText('No connection — round kept on this tablet')).toBeVisible();
+  await page.close();
+  await context.setOffline(false);
+
+  // The browser's Background Sync fires with no window of the app open (a blank page is no client of the app).
+  const blank = await context.newPage();
+  const cdp = await context.newCDPSession(blank);
+  const registrations: { registrationId: string; scopeURL: string }[] = [];
+  cdp.on('ServiceWorker.workerRegistrationUpdated', (e) => registrations.push(...e.registrations));
+  await cdp.send('ServiceWorker.enable');
+  await expect.poll(() => registrations.length).toBeGreaterThan(0);
+  const origin = new URL(registrations[0].scopeURL).origin;
+  await cdp.send('ServiceWorker.dispatchSyncEvent', {
+    origin,
+    registrationId: registrations[0].registrationId,
+    tag: 'cj-outbox',
+    lastChance: false,
+  });
+
+  await expect
+    .poll(
+      async () => (await ok<ReadingDto[]>(request.get(`/api/runs/${a.run.id}/readings`, { headers: auth(op) }))).map((r) => r.pointId),
+      {
+        timeout: 20_000,
+      },
+    )
+    .toEqual([p1.id]);
+
+  // Opened again: nothing waits.
+  const again = await context.newPage();
+  await again.goto(`/runs/${a.run.id}/round`);
+  await expect(again.getByRole('heading', { name: 'Round of readings' })).toBeVisible();
+  await expect(again.getByTestId('outbox-indicator')).toHaveCount(0);
+});

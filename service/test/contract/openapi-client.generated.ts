@@ -670,6 +670,7 @@ export interface components {
     AmendReadingDto: {
       value: number;
       reason: string;
+      clientId?: string;
     };
     CreateLoggerDto: {
       engineId: string;
@@ -1838,6 +1839,8 @@ export interface components {
     AmendReadingRequest: {
       value: number;
       reason: string;
+      /** @description Made by the client (a UUID), so an amendment sent again (from the tablet's outbox) is stored once: the same id with the same value and reason answers the stored amendment; with other content it is refused (409). */
+      clientId?: string;
     };
     AmendmentDto: {
       id: string;

@@ -140,6 +140,11 @@ export interface AmendmentDto {
 export interface AmendReadingRequest {
   value: number;
   reason: string;
+  /**
+   * Made by the client (a UUID), so an amendment sent again (from the tablet's outbox) is stored once: the same id
+   * with the same value and reason answers the stored amendment; with other content it is refused (409).
+   */
+  clientId?: string;
 }
 export interface AlarmDto {
   id: string;

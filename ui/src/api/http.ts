@@ -1,22 +1,9 @@
-import type { ApiError, TokenPair } from '@crankjournal/shared-types';
+import type { TokenPair } from '@crankjournal/shared-types';
 import { sessionStore } from './session';
 import { cachedAtOf, freshness } from './freshness';
+import { HttpError, httpErrorOf, NetworkError } from './errors';
 
-/** An API error with the server's readable message. */
-export class HttpError extends Error {
-  constructor(
-    readonly status: number,
-    readonly body: ApiError | null,
-  ) {
-    super(body ? (Array.isArray(body.message) ? body.message.join('\n') : body.message) : `Request failed (${status})`);
-  }
-  get messages(): string[] {
-    if (!this.body) return [this.message];
-    return Array.isArray(this.body.message) ? this.body.message : [this.body.message];
-  }
-}
-/** The server could not be reached (offline, or stopped). */
-export class NetworkError extends Error {}
+export { HttpError, NetworkError } from './errors';
 
 let refreshing: Promise<boolean> | null = null;
 let onSignedOut: () => void = () => {};
@@ -88,15 +75,7 @@ export async function api<T>(path: string, opts: RequestOptions = {}, retried = 
     onSignedOut();
     throw new HttpError(401, { statusCode: 401, error: 'Unauthorized', message: 'Your sign-in has ended. Please sign in again.' });
   }
-  if (!res.ok) {
-    let parsed: ApiError | null = null;
-    try {
-      parsed = (await res.json()) as ApiError;
-    } catch {
-      /* not JSON */
-    }
-    throw new HttpError(res.status, parsed);
-  }
+  if (!res.ok) throw await httpErrorOf(res);
   const method = opts.method ?? (body ? 'POST' : 'GET');
   if (method === 'GET') freshness.note(path, cachedAtOf(res.headers));
   if (opts.asResponse) return res as unknown as T;

@@ -1,88 +1,36 @@
-import { createStore, del, get, set, type UseStore } from 'idb-keyval';
 import type { IngestResult, RoundRequest } from '@crankjournal/shared-types';
-import { api, HttpError, NetworkError } from './http';
+import { api, NetworkError } from './http';
 import { sessionStore } from './session';
+import {
+  indexedDbPersistence,
+  newClientId,
+  OUTBOX_CHANNEL,
+  sendInOrder,
+  withSecret,
+  type OutboxItem,
+  type OutboxPersistence,
+  type OutboxRequest,
+  type OutboxSnapshot,
+  type OutboxState,
+  type RefusedItem,
+  type SendRequest,
+} from './outbox-core';
+
+export * from './outbox-core';
 
 /**
- * The tablet's outbox: what a person recorded while the server could not be reached (rounds of readings, checklist
- * entries and their photos, alarm acknowledgements) waits here, in IndexedDB (photos do not fit in localStorage), and is
- * sent in the order it was made when the server answers again: on `online`, when the live socket reconnects, every
- * 10 s and on "Send now", from whichever screen is open. Rounds keep the clientId of each reading and checklist
- * entries and photos are puts of one item, so sending one again stores it once. What the server refuses (4xx) is kept
- * with the server's reason until the person dismisses it; it is never dropped silently. An item is sent only under
- * the sign-in of the person who made it.
+ * The tablet's outbox: what a person recorded while the server could not be reached (rounds of readings, amendments
+ * of readings, checklist entries and their photos, alarm acknowledgements) waits here, in IndexedDB (photos do not
+ * fit in localStorage), and is sent in the order it was made when the server answers again: on `online`, when the
+ * live socket reconnects, every 10 s and on "Send now", from whichever screen is open. Rounds keep the clientId of
+ * each reading, amendments their own clientId, and checklist entries and photos are puts of one item, so sending one
+ * again stores it once. What the server refuses (4xx) is kept with the server's reason until the person dismisses
+ * it; it is never dropped silently. An item is sent only under the sign-in of the person who made it.
  */
 
 export const OUTBOX_RETRY_INTERVAL_MS = 10_000;
 /** The localStorage key of the earlier queue of rounds; read once and moved into IndexedDB. */
 export const LEGACY_STORAGE_KEY = 'crankjournal.offline-rounds';
-
-export type OutboxKind = 'round' | 'checklist-entry' | 'checklist-photo' | 'checklist-sign' | 'alarm-ack';
-
-/** One request to make when the server answers. */
-export interface OutboxRequest {
-  kind: OutboxKind;
-  /** What a person reads in the queue ("Round taken 10:15:00", "Checklist item: Oil cups filled"). */
-  label: string;
-  runId: string | null;
-  path: string;
-  method: 'POST' | 'PUT';
-  /** JSON body. */
-  body?: unknown;
-  /** Raw body (a photo) with its type. */
-  blob?: Blob;
-  contentType?: string;
-  /** What the item changes, for the screens that mark it "waiting" (checklist and item). */
-  ref?: { checklistId?: string; itemKey?: string; alarmId?: string };
-  /** Fields added to the JSON body when the request waits in the outbox (e.g. the time it was signed on the tablet). */
-  whenQueued?: Record<string, unknown>;
-  /**
-   * A body field that holds a secret (a signing password): kept in this tab's memory only, never in IndexedDB. If the
-   * tab is reloaded before the item is sent, the item is shown as not sent, to be done again.
-   */
-  secretField?: string;
-}
-
-export interface OutboxItem extends OutboxRequest {
-  /** Local id (not sent). */
-  id: string;
-  /** Who made it: it is sent only under their sign-in. */
-  userId: string | null;
-  userName: string | null;
-  queuedAt: string;
-  attempts: number;
-  lastTriedAt: string | null;
-  /** Why the last attempt did not go through (network, server error). */
-  lastError: string | null;
-}
-
-/** An item the server refused: not sent again; shown with the server's reason until dismissed. */
-export interface RefusedItem extends OutboxItem {
-  status: number;
-  error: string;
-  droppedAt: string;
-  /** The server's IngestResult when some readings of a round were refused (the good ones were stored). */
-  result: IngestResult | null;
-}
-
-export interface OutboxState {
-  pending: OutboxItem[];
-  failed: RefusedItem[];
-}
-
-export interface OutboxSnapshot extends OutboxState {
-  sending: boolean;
-  /** False until the stored outbox has been read. */
-  loaded: boolean;
-}
-
-export type SendRequest = (req: OutboxRequest) => Promise<unknown>;
-
-/** Where the outbox is kept between reloads. */
-export interface OutboxPersistence {
-  load(): Promise<OutboxState | undefined>;
-  save(state: OutboxState): Promise<void>;
-}
 
 export const sendRequest: SendRequest = (req) =>
   api<unknown>(
@@ -91,40 +39,6 @@ export const sendRequest: SendRequest = (req) =>
       ? { method: req.method, raw: req.blob, headers: { 'content-type': req.contentType || req.blob.type || 'application/octet-stream' } }
       : { method: req.method, body: req.body },
   );
-
-let idbStore: UseStore | null = null;
-/** The outbox in IndexedDB (database `crankjournal`, store `outbox`), one record. */
-export const indexedDbPersistence: OutboxPersistence = {
-  async load() {
-    idbStore ??= createStore('crankjournal', 'outbox');
-    return get<OutboxState>('state', idbStore);
-  },
-  async save(state) {
-    idbStore ??= createStore('crankjournal', 'outbox');
-    if (state.pending.length === 0 && state.failed.length === 0) await del('state', idbStore);
-    else await set('state', state, idbStore);
-  },
-};
-
-/** A v4 UUID. crypto.randomUUID exists only in secure contexts (https, localhost); a tablet on plain http still needs ids. */
-export function newClientId(): string {
-  const c = globalThis.crypto;
-  if (c && typeof c.randomUUID === 'function') return c.randomUUID();
-  const b = new Uint8Array(16);
-  if (c && typeof c.getRandomValues === 'function') c.getRandomValues(b);
-  else for (let i = 0; i < 16; i++) b[i] = Math.floor(Math.random() * 256);
-  b[6] = (b[6] & 0x0f) | 0x40;
-  b[8] = (b[8] & 0x3f) | 0x80;
-  const h = Array.from(b, (x) => x.toString(16).padStart(2, '0')).join('');
-  return `${h.slice(0, 8)}-${h.slice(8, 12)}-${h.slice(12, 16)}-${h.slice(16, 20)}-${h.slice(20)}`;
-}
-
-/** Statuses that mean "try again later" even though they are 4xx: the sign-in ended, a timeout, too many requests. */
-const TRANSIENT_4XX = new Set([401, 408, 429]);
-
-function isIngestResult(x: unknown): x is IngestResult {
-  return !!x && typeof x === 'object' && 'stored' in x && 'rejected' in x;
-}
 
 const clock = (iso: string) => new Date(iso).toLocaleTimeString(undefined, { hour: '2-digit', minute: '2-digit', second: '2-digit' });
 
@@ -326,61 +240,16 @@ export class Outbox {
   }
 
   private async flushPass() {
-    const ids = this.state.pending.filter((q) => this.mine(q)).map((q) => q.id);
-    for (const id of ids) {
-      const item = this.state.pending.find((q) => q.id === id);
-      if (!item) continue; // sent or dismissed meanwhile
-      const tried = { ...item, attempts: item.attempts + 1, lastTriedAt: this.now().toISOString() };
-      const secret = this.secrets.get(id);
-      if (item.secretField && secret === undefined) {
-        // The tab was reloaded: the password was never stored, so this cannot be sent. The person does it again.
-        const failed: RefusedItem = {
-          ...tried,
-          attempts: item.attempts,
-          status: 0,
-          error: 'Not sent: the tablet was reloaded before the server answered, and a password is never kept on the tablet. Do it again.',
-          droppedAt: this.now().toISOString(),
-          result: null,
-        };
-        await this.write({ pending: this.state.pending.filter((q) => q.id !== id), failed: [...this.state.failed, failed] });
-        continue;
-      }
-      try {
-        const result = await this.send(withSecret(item, secret));
-        this.secrets.delete(id);
-        await this.write({ ...this.state, pending: this.state.pending.filter((q) => q.id !== id) });
-        this.sentListeners.forEach((l) => l(item, result));
-      } catch (e) {
-        if (e instanceof NetworkError) {
-          // Still unreachable: keep this and the rest for the next try.
-          await this.replace({ ...tried, lastError: e.message });
-          return;
-        }
-        if (e instanceof HttpError && e.status >= 400 && e.status < 500 && !TRANSIENT_4XX.has(e.status)) {
-          const details = e.body?.details;
-          const failed: RefusedItem = {
-            ...tried,
-            lastError: e.message,
-            status: e.status,
-            error: e.message,
-            droppedAt: this.now().toISOString(),
-            result: isIngestResult(details) ? details : null,
-          };
-          this.secrets.delete(id);
-          await this.write({ pending: this.state.pending.filter((q) => q.id !== id), failed: [...this.state.failed, failed] });
-          // Some readings may have been stored: the run's screens should refresh.
-          this.sentListeners.forEach((l) => l(item, failed.result));
-          continue;
-        }
-        // Server error (5xx) or a transient refusal: keep it, try the others later too.
-        await this.replace({ ...tried, lastError: e instanceof Error ? e.message : 'Not sent.' });
-        return;
-      }
-    }
-  }
-
-  private replace(item: OutboxItem) {
-    return this.write({ ...this.state, pending: this.state.pending.map((q) => (q.id === item.id ? item : q)) });
+    await sendInOrder({
+      state: () => this.state,
+      write: (next) => this.write(next),
+      send: this.send,
+      now: this.now,
+      mine: (q) => this.mine(q),
+      secretOf: (id) => this.secrets.get(id),
+      forgetSecret: (id) => this.secrets.delete(id),
+      onSent: (item, result) => this.sentListeners.forEach((l) => l(item, result)),
+    });
   }
 
   /**
@@ -399,7 +268,7 @@ export class Outbox {
     socketLike?.on('connect', retry);
     if (!this.stopAuto) {
       const timer = setInterval(retry, intervalMs);
-      const channel = typeof BroadcastChannel !== 'undefined' ? new BroadcastChannel('crankjournal-outbox') : null;
+      const channel = typeof BroadcastChannel !== 'undefined' ? new BroadcastChannel(OUTBOX_CHANNEL) : null;
       const onMessage = (e: MessageEvent) => {
         if ((e.data as { type?: string } | null)?.type === 'cj-outbox-flush') retry();
       };
@@ -429,13 +298,10 @@ export class Outbox {
   }
 }
 
-/** The request with its secret put back into the body (see OutboxRequest.secretField). */
-function withSecret<R extends OutboxRequest>(req: R, secret: string | undefined): R {
-  if (!req.secretField || secret === undefined) return req;
-  return { ...req, body: { ...(req.body as Record<string, unknown>), [req.secretField]: secret } };
-}
-
-/** Asks the browser for a Background Sync (where it has one); the service worker then tells an open tab to send. */
+/**
+ * Asks the browser for a Background Sync (where it has one); the service worker then tells an open tab to send, or
+ * sends itself when no tab is open (sw/outbox-sync.ts).
+ */
 function registerBackgroundSync() {
   const sw = typeof navigator !== 'undefined' ? navigator.serviceWorker : undefined;
   if (!sw?.controller) return;

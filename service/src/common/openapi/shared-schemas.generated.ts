@@ -534,7 +534,15 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
   },
   AmendReadingRequest: {
     type: 'object',
-    properties: { value: { type: 'number' }, reason: { type: 'string' } },
+    properties: {
+      value: { type: 'number' },
+      reason: { type: 'string' },
+      clientId: {
+        type: 'string',
+        description:
+          "Made by the client (a UUID), so an amendment sent again (from the tablet's outbox) is stored once: the same id with the same value and reason answers the stored amendment; with other content it is refused (409).",
+      },
+    },
     required: ['value', 'reason'],
     additionalProperties: false,
   },

@@ -22,6 +22,7 @@ import { ChecklistSignedOnDevice1796424079811 } from './1796424079811-ChecklistS
 import { NamesKeptAsSigned1796424216765 } from './1796424216765-NamesKeptAsSigned.js';
 import { LotWords1796424481387 } from './1796424481387-LotWords.js';
 import { EnginePartsRetired1796424633674 } from './1796424633674-EnginePartsRetired.js';
+import { ReadingAmendmentClientId1796426692568 } from './1796426692568-ReadingAmendmentClientId.js';
 
 /** Every migration in order. Add new ones at the end; never edit one that has been committed. */
 export const MIGRATIONS: (new () => MigrationInterface)[] = [
@@ -48,4 +49,5 @@ export const MIGRATIONS: (new () => MigrationInterface)[] = [
   NamesKeptAsSigned1796424216765,
   LotWords1796424481387,
   EnginePartsRetired1796424633674,
+  ReadingAmendmentClientId1796426692568,
 ];

@@ -18,6 +18,6 @@ export class ReadingsController {
   @Post(':id/amendments')
   @Roles('chief_engineer', 'operator')
   amend(@Param() p: ReadingIdParamDto, @Body() dto: AmendReadingDto, @CurrentUser() me: AuthUser): Promise<ReadingDto> {
-    return this.readings.amend(p.id, dto.value, dto.reason, me);
+    return this.readings.amend(p.id, dto.value, dto.reason, me, dto.clientId);
   }
 }

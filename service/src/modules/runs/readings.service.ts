@@ -1,4 +1,4 @@
-import { Injectable, NotFoundException, BadRequestException } from '@nestjs/common';
+import { Injectable, NotFoundException, BadRequestException, ConflictException } from '@nestjs/common';
 import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
 import { DataSource, In, Repository } from 'typeorm';
 import type { AmendmentDto, BoardPoint, MeasurementKind, ReadingDto } from '@crankjournal/shared-types';
@@ -147,10 +147,12 @@ export class ReadingsService {
   }
 
   /** A correction: the original stays, the amendment records the new value, reason, who and when. */
-  async amend(readingId: string, value: number, reason: string, user: AuthUser): Promise<ReadingDto> {
+  async amend(readingId: string, value: number, reason: string, user: AuthUser, clientId?: string): Promise<ReadingDto> {
     if (!/^\d{1,18}$/.test(readingId)) throw new BadRequestException('id must be a reading number');
     const r0 = await this.readingRepo.findOne({ where: { id: readingId } });
     if (!r0) throw new NotFoundException('No such reading.');
+    // Sent again (the tablet's outbox): the stored amendment answers, even if the run has closed since.
+    if (clientId && (await this.sameAmendmentStored(clientId, readingId, value, reason))) return (await this.toDtos([r0]))[0];
     const run = await this.runs.get(r0.runId);
     this.runs.assertOpen(run);
     const { points } = await this.engines.withPoints(r0.engineId);
@@ -159,33 +161,53 @@ export class ReadingsService {
       const absurd = this.alarms.implausibleReading({ ...point, name: point.label }, value);
       if (absurd) throw new BadRequestException(`value: ${absurd}`);
     }
-    await this.db.transaction(async (m) => {
-      const cur = await m.findOne(Reading, { where: { id: readingId }, lock: { mode: 'pessimistic_write' } });
-      const old = cur!.amendedValue ?? cur!.value;
-      await m.insert(ReadingAmendment, {
-        readingId,
-        oldValue: old,
-        newValue: value,
-        reason: reason.trim(),
-        byUser: user.id,
-        at: new Date(),
+    try {
+      await this.db.transaction(async (m) => {
+        const cur = await m.findOne(Reading, { where: { id: readingId }, lock: { mode: 'pessimistic_write' } });
+        const old = cur!.amendedValue ?? cur!.value;
+        await m.insert(ReadingAmendment, {
+          readingId,
+          oldValue: old,
+          newValue: value,
+          reason: reason.trim(),
+          byUser: user.id,
+          at: new Date(),
+          clientId: clientId ?? null,
+        });
+        await m.update(Reading, { id: readingId }, { amendedValue: value });
+        // The run's kept figures of the point, recomputed. Its row is locked first, in a statement of its own, so
+        // the recount (a new statement, a new snapshot) includes any readings a store committed meanwhile.
+        const key = [cur!.runId, cur!.pointId];
+        await m.query(`SELECT 1 FROM run_point_figures WHERE run_id = $1 AND point_id = $2 FOR UPDATE`, key);
+        await m.query(
+          `UPDATE run_point_figures f SET (count, total, peak, least, first_at, last_at) =
+             (SELECT count(*), sum(v), max(v), min(v), min(taken_at), max(taken_at)
+                FROM (SELECT COALESCE(amended_value, value) AS v, taken_at FROM readings WHERE point_id = $2 AND run_id = $1) r)
+            WHERE f.run_id = $1 AND f.point_id = $2`,
+          key,
+        );
       });
-      await m.update(Reading, { id: readingId }, { amendedValue: value });
-      // The run's kept figures of the point, recomputed. Its row is locked first, in a statement of its own, so
-      // the recount (a new statement, a new snapshot) includes any readings a store committed meanwhile.
-      const key = [cur!.runId, cur!.pointId];
-      await m.query(`SELECT 1 FROM run_point_figures WHERE run_id = $1 AND point_id = $2 FOR UPDATE`, key);
-      await m.query(
-        `UPDATE run_point_figures f SET (count, total, peak, least, first_at, last_at) =
-           (SELECT count(*), sum(v), max(v), min(v), min(taken_at), max(taken_at)
-              FROM (SELECT COALESCE(amended_value, value) AS v, taken_at FROM readings WHERE point_id = $2 AND run_id = $1) r)
-          WHERE f.run_id = $1 AND f.point_id = $2`,
-        key,
-      );
-    });
+    } catch (e) {
+      // The same id arrived twice at once: the one stored first answers both.
+      if (!clientId || (e as { code?: string }).code !== '23505') throw e;
+      if (!(await this.sameAmendmentStored(clientId, readingId, value, reason))) throw e;
+    }
     const [dto] = await this.toDtos([(await this.readingRepo.findOne({ where: { id: readingId } }))!]);
     this.live.emitToRoom(`run:${r0.runId}`, 'reading:amended', dto);
     return dto;
+  }
+
+  /**
+   * Whether the amendment with this client id is already stored with this content (true), not stored (false), or
+   * stored with other content: then a 409, since one id names one amendment.
+   */
+  private async sameAmendmentStored(clientId: string, readingId: string, value: number, reason: string): Promise<boolean> {
+    const a = await this.readingAmendmentRepo.findOne({ where: { clientId } });
+    if (!a) return false;
+    if (a.readingId === readingId && a.newValue === value && a.reason === reason.trim()) return true;
+    throw new ConflictException(
+      'An amendment with this clientId was already stored with another reading, value or reason; send a new clientId for a new amendment.',
+    );
   }
 
   /** Readings of a run in time order, streamed in pages (for CSV and PDF exports). */

@@ -5,9 +5,9 @@ import { useFiguresAsOf, useOnline } from './useOnline';
 
 /** What works without the server, said once on every screen: everything recorded waits on the tablet. */
 export const OFFLINE_ACTIONS =
-  'Rounds, checklist entries, photos and signatures, and alarm acknowledgements are kept on this tablet and sent in order ' +
-  'when the server answers (a signature counts for the start gate once the server has it). Starting or stopping the ' +
-  'engine, amendments and everything else wait for the network.';
+  'Rounds and amendments of readings, checklist entries, photos and signatures, and alarm acknowledgements are kept on ' +
+  'this tablet and sent in order when the server answers (a signature counts for the start gate once the server has it). ' +
+  'Starting or stopping the engine, other amendments and everything else wait for the network.';
 
 /**
  * Shown above every page while the tablet is offline or shows figures it kept: the time of the oldest figure on

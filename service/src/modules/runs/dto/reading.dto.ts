@@ -52,6 +52,7 @@ export class LoggerBatchDto implements LoggerBatchRequest {
 export class AmendReadingDto implements AmendReadingRequest {
   @ApiProperty() @IsFiniteNumberIn(-1e9, 1e9) value: number;
   @ApiProperty() @IsString() @MinLength(3, { message: 'reason must say why (at least 3 characters)' }) @MaxLength(1000) reason: string;
+  @ApiPropertyOptional() @IsOptional() @IsUUID('all', { message: 'clientId must be a UUID' }) clientId?: string;
 }
 
 export class ReadingIdParamDto {

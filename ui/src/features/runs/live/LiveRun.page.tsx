@@ -299,7 +299,12 @@ export default function LiveRunPage() {
         }}
         busy={amend.isPending}
         error={amend.error ? errorText(amend.error) : null}
-        onAmend={(reading, value, reason) => amend.mutate({ reading, value, reason }, { onSuccess: () => setAmending(null) })}
+        onAmend={(reading, value, reason) =>
+          amend.mutate(
+            { reading, pointLabel: points.find((p) => p.id === reading.pointId)?.label ?? 'reading', value, reason },
+            { onSuccess: () => setAmending(null) },
+          )
+        }
       />
 
       <BottomBar label="Run actions">

@@ -3,6 +3,7 @@ import { Alert, Button, Group, Modal, Select, Stack, Table, Text, Textarea, Text
 import { IconPencil } from '@tabler/icons-react';
 import dayjs from 'dayjs';
 import type { ReadingDto } from '@crankjournal/shared-types';
+import { useOutbox } from '../../../api/useOutbox';
 import { useUnits } from '../../units/useUnits';
 import type { EnginePoint } from './Board';
 import { parseEntered, unitLabel } from './round-check';
@@ -66,6 +67,15 @@ export function ReadingsTable({
   const [pointId, setPointId] = useState<string | null>(null);
   const [shown, setShown] = useState(PAGE);
   const byId = useMemo(() => new Map(points.map((p) => [p.id, p])), [points]);
+  const { pending } = useOutbox();
+  const waiting = useMemo(() => {
+    const m = new Map<string, number[]>();
+    for (const q of pending) {
+      const id = q.kind === 'reading-amendment' ? q.ref?.readingId : undefined;
+      if (id) m.set(id, [...(m.get(id) ?? []), (q.body as { value: number }).value]);
+    }
+    return m;
+  }, [pending]);
   const rows = useMemo(() => {
     const list = pointId ? readings.filter((r) => r.pointId === pointId) : readings;
     return [...list].reverse();
@@ -119,6 +129,11 @@ export function ReadingsTable({
                     </Table.Td>
                     <Table.Td>
                       <RecordedValue reading={r} />
+                      {waiting.get(r.id)?.map((v, i) => (
+                        <Text key={i} fz="xs" c="dimmed" data-testid="amendment-waiting">
+                          Amendment to {v} waiting to send
+                        </Text>
+                      ))}
                     </Table.Td>
                     <Table.Td>
                       <Text fz="sm">{SOURCE_WORDS[r.source] ?? r.source}</Text>
