@@ -43,6 +43,9 @@ const TRANSITION_ROLES: Record<Exclude<RunState, 'planned'>, Role[]> = {
 };
 
 /** What other modules read of a run (a stored run satisfies it); they never import the entity. */
+/** A started run as the maintenance histories need it. */
+export type RunOutline = Pick<RunSummary, 'id' | 'title' | 'state' | 'runningSeconds'> & { startedAt: string };
+
 export interface RunRecord {
   id: string;
   engineId: string;
@@ -109,6 +112,24 @@ export class RunsService {
     if (filter.state) where.state = filter.state;
     const runs = await this.runRepo.find({ where, order: { createdAt: 'DESC' }, take: 300 });
     return this.summaries(runs);
+  }
+
+  /**
+   * An engine's runs that have started (not abandoned), oldest first, with only their own columns: no open
+   * alarm counts and no revolutions summed from the readings (which a running run would read in full).
+   */
+  async startedOutlines(engineId: string): Promise<RunOutline[]> {
+    const runs = await this.runRepo.find({ where: { engineId }, order: { createdAt: 'DESC' }, take: 300 });
+    return runs
+      .filter((r) => r.startedAt !== null && r.state !== 'abandoned')
+      .map((r) => ({
+        id: r.id,
+        title: r.title,
+        state: r.state,
+        startedAt: r.startedAt!.toISOString(),
+        runningSeconds: runningSeconds(r.startedAt, r.stoppedAt),
+      }))
+      .sort((a, b) => a.startedAt.localeCompare(b.startedAt));
   }
 
   private async summaries(runs: Run[]): Promise<RunSummary[]> {
