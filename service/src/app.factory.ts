@@ -5,6 +5,7 @@ import { NestFactory } from '@nestjs/core';
 import type { NestExpressApplication } from '@nestjs/platform-express';
 import { JwtService } from '@nestjs/jwt';
 import { SwaggerModule } from '@nestjs/swagger';
+import compression from 'compression';
 import helmet from 'helmet';
 import { pinoHttp } from 'pino-http';
 import express from 'express';
@@ -39,6 +40,9 @@ export async function createApp(opts: { logger?: boolean } = {}): Promise<NestEx
       strictTransportSecurity: false,
     }),
   );
+  // Answers compressed when the client accepts it (the UI's scripts and the JSON of the pages: a tablet on poor
+  // Wi-Fi gets a fraction of the bytes). The socket.io channel and uploads are not touched; small answers go plain.
+  app.use(compression({ threshold: 1024 }));
   // HSTS only on answers to HTTPS requests: served over plain HTTP (the local default) it would mean nothing.
   const hsts = config.get('HSTS_MAX_AGE_SECONDS');
   if (hsts > 0)

@@ -438,6 +438,12 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
       expect(n).toBeGreaterThanOrEqual(3);
       const again = (await signedIn(t, observer).get(`/api/maintenance/bearings/${b.id}/history`)).body as BearingHistory;
       expect(again.runs.map((r) => r.peakTemperature)).toEqual(h.runs.map((r) => r.peakTemperature));
+      // Answers go compressed to a client that accepts it (a tablet on poor Wi-Fi), plain to one that does not.
+      const gz = await signedIn(t, observer).get(`/api/maintenance/bearings/${b.id}/history`).set('Accept-Encoding', 'gzip');
+      expect(gz.headers['content-encoding']).toBe('gzip');
+      expect((gz.body as BearingHistory).runs).toEqual(again.runs);
+      const plain = await signedIn(t, observer).get(`/api/maintenance/bearings/${b.id}/history`).set('Accept-Encoding', 'identity');
+      expect(plain.headers['content-encoding']).toBeUndefined();
     });
 
     it('puts inspections and work on the same timeline', async () => {

@@ -428,11 +428,50 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
       changed.set(a.id, a);
       await this.queueAlarmMail(a, engine, m);
     }
-    if (changed.size) {
-      await m.save(Alarm, [...changed.values()]);
-    }
-    if (events.length) await m.insert(AlarmEvent, events);
+    await this.writeChanges(m, [...changed.values()], events);
     return { changed: [...changed.values()], raised, raisedReadingIds, toEmail };
+  }
+
+  /**
+   * The changed alarms and their events in one statement: every changed alarm updated from a JSON list (a column
+   * left out of an alarm's entry keeps its value) and the events inserted, in a data-modifying WITH. An alarm not
+   * yet stored (none is: raised ones are inserted when raised) is saved on its own first.
+   */
+  private async writeChanges(m: EntityManager, alarms: Alarm[], events: Partial<AlarmEvent>[]): Promise<void> {
+    const unsaved = alarms.filter((a) => !a.id);
+    if (unsaved.length) await m.save(Alarm, unsaved);
+    const stored = alarms.filter((a) => !unsaved.includes(a));
+    if (!stored.length && !events.length) return;
+    const meta = m.connection.getMetadata(Alarm);
+    const cols = meta.columns.filter((c) => !c.isPrimary && !c.isUpdateDate).map((c) => ({ c, name: c.databaseName }));
+    const rows = stored.map((a) => {
+      const row: Record<string, unknown> = { id: a.id };
+      for (const { c, name } of cols) {
+        const v: unknown = c.getEntityValue(a);
+        if (v !== undefined) row[name] = v;
+      }
+      return row;
+    });
+    const evCols = m.connection
+      .getMetadata(AlarmEvent)
+      .columns.filter((c) => !c.isPrimary)
+      .map((c) => ({ c, name: c.databaseName }));
+    const evRows = events.map((e) => Object.fromEntries(evCols.map(({ c, name }) => [name, (c.getEntityValue(e) as unknown) ?? null])));
+    const set = cols.map(({ name }) => `"${name}" = CASE WHEN j.o ? '${name}' THEN r."${name}" ELSE a."${name}" END`).join(', ');
+    const updated = meta.updateDateColumn!.databaseName;
+    const evList = evCols.map(({ name }) => `"${name}"`).join(', ');
+    const back: { id: string; updated_at: Date }[] = await m.query(
+      `WITH changed AS (
+         UPDATE alarms a SET ${set}, "${updated}" = now()
+           FROM jsonb_array_elements($1::jsonb) j(o), LATERAL jsonb_populate_record(NULL::alarms, j.o) r
+          WHERE a.id = r.id RETURNING a.id, a."${updated}" AS updated_at),
+       logged AS (
+         INSERT INTO alarm_events (${evList}) SELECT ${evList} FROM jsonb_populate_recordset(NULL::alarm_events, $2::jsonb))
+       SELECT id, updated_at FROM changed`,
+      [JSON.stringify(rows), JSON.stringify(evRows)],
+    );
+    const at = new Map(back.map((b) => [b.id, b.updated_at]));
+    for (const a of stored) a.updatedAt = at.get(a.id) ?? a.updatedAt;
   }
 
   /**

@@ -6,11 +6,11 @@ import type {
   BearingRunRow,
   DriftBandDto,
   LoadMeasure,
-  RunSummary,
   TimelineEntry,
 } from '@crankjournal/shared-types';
 import { AlarmsService } from '../alarms/alarms.service.js';
 import type { PointRunStat } from '../runs/readings.service.js';
+import type { RunOutline } from '../runs/runs.service.js';
 import {
   DEFAULT_BAND_CONFIDENCE,
   MIN_RUNS_TO_JUDGE,
@@ -56,7 +56,7 @@ export function historyRuleText(measure: LoadMeasure): string {
 
 interface EngineContext {
   points: MeasurementPoint[];
-  runs: RunSummary[];
+  runs: RunOutline[];
   ihpByRun: Map<string, number>;
   ambient: MeasurementPoint[];
   speed: MeasurementPoint[];
@@ -128,13 +128,19 @@ export class BearingHistoryService {
   }
 
   /** Per-run figures and alarms of some bearings' points, with the engine's ambient and speed points, in one go. */
-  private async figures(ctx: EngineContext, bearingIds: string[]): Promise<{ stats: PointRunStat[]; alarms: AlarmDto[] }> {
+  private async figures(
+    ctx: EngineContext,
+    bearingIds: string[],
+    withAlarms = true,
+  ): Promise<{ stats: PointRunStat[]; alarms: AlarmDto[] }> {
     const own = ctx.points.filter((p) => p.kind === 'bearing_temperature' && p.bearingId && bearingIds.includes(p.bearingId));
-    const stats = await this.stats.stats(
-      [...own, ...ctx.ambient, ...ctx.speed].map((p) => p.id),
-      ctx.runs,
-    );
-    const alarms = await this.alarms.listByPoints(own.map((p) => p.id));
+    const [stats, alarms] = await Promise.all([
+      this.stats.stats(
+        [...own, ...ctx.ambient, ...ctx.speed].map((p) => p.id),
+        ctx.runs,
+      ),
+      withAlarms ? this.alarms.listByPoints(own.map((p) => p.id)) : Promise.resolve([]),
+    ]);
     return { stats, alarms };
   }
 
@@ -332,37 +338,39 @@ export class BearingHistoryService {
     };
   }
 
-  /** Every bearing of every engine with a short account of its runs. */
+  /**
+   * Every bearing of every engine with a short account of its runs. The engines are read side by side; the
+   * list needs no alarms (only the drift verdicts), so none are read.
+   */
   async list(): Promise<BearingListItem[]> {
-    const out: BearingListItem[] = [];
     const names = await this.facts.engineNames();
-    for (const [engineId, engineName] of names) {
-      const engine = await this.facts.detail(engineId);
-      const ctx = await this.engineContext(engineId);
-      const points = ctx.points;
-      const { stats, alarms } = await this.figures(
-        ctx,
-        engine.bearings.map((b) => b.id),
-      );
-      const inspected = await this.inspections.lastInspectedAt(engine.bearings.map((b) => b.id));
-      for (const b of engine.bearings) {
-        const { rows } = this.runRows(ctx, b.id, stats, alarms);
-        const last = rows[rows.length - 1];
-        out.push({
-          id: b.id,
-          engineId,
-          engineName,
-          label: b.label,
-          kind: b.kind,
-          pointCodes: points.filter((p) => p.kind === 'bearing_temperature' && p.bearingId === b.id).map((p) => p.code),
-          runCount: rows.length,
-          lastRunAt: last?.startedAt ?? null,
-          latestRunDrift: !!last?.drift?.flagged,
-          driftRuns: rows.filter((r) => r.drift?.flagged).length,
-          lastInspectionAt: inspected.get(b.id) ?? null,
+    const perEngine = await Promise.all(
+      [...names].map(async ([engineId, engineName]): Promise<BearingListItem[]> => {
+        const [engine, ctx] = await Promise.all([this.facts.detail(engineId), this.engineContext(engineId)]);
+        const bearingIds = engine.bearings.map((b) => b.id);
+        const [{ stats }, inspected] = await Promise.all([
+          this.figures(ctx, bearingIds, false),
+          this.inspections.lastInspectedAt(bearingIds),
+        ]);
+        return engine.bearings.map((b) => {
+          const { rows } = this.runRows(ctx, b.id, stats, []);
+          const last = rows[rows.length - 1];
+          return {
+            id: b.id,
+            engineId,
+            engineName,
+            label: b.label,
+            kind: b.kind,
+            pointCodes: ctx.points.filter((p) => p.kind === 'bearing_temperature' && p.bearingId === b.id).map((p) => p.code),
+            runCount: rows.length,
+            lastRunAt: last?.startedAt ?? null,
+            latestRunDrift: !!last?.drift?.flagged,
+            driftRuns: rows.filter((r) => r.drift?.flagged).length,
+            lastInspectionAt: inspected.get(b.id) ?? null,
+          };
         });
-      }
-    }
-    return out;
+      }),
+    );
+    return perEngine.flat();
   }
 }

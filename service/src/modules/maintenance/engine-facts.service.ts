@@ -1,7 +1,7 @@
 import { Injectable, NotFoundException } from '@nestjs/common';
-import type { EngineDetail, EngineSummary, RunSummary } from '@crankjournal/shared-types';
+import type { EngineDetail, EngineSummary } from '@crankjournal/shared-types';
 import { EnginesService, type EngineWithPoints } from '../engines/engines.service.js';
-import { RunsService } from '../runs/runs.service.js';
+import { RunsService, type RunOutline } from '../runs/runs.service.js';
 import { UsersService } from '../users/users.service.js';
 
 /** A measurement point of an engine, as EnginesService hands it over. */
@@ -66,10 +66,9 @@ export class EngineFactsService {
     throw new NotFoundException('No such bearing.');
   }
 
-  /** Runs of an engine that have started, oldest first. */
-  async startedRuns(engineId: string): Promise<RunSummary[]> {
-    const list = await this.runs.list({ engineId });
-    return list.filter((r) => r.startedAt !== null && r.state !== 'abandoned').sort((a, b) => a.startedAt!.localeCompare(b.startedAt!));
+  /** Runs of an engine that have started, oldest first (their own columns only). */
+  startedRuns(engineId: string): Promise<RunOutline[]> {
+    return this.runs.startedOutlines(engineId);
   }
 
   /** The engine's counters now (baseline + runs recorded). */

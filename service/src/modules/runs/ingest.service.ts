@@ -13,6 +13,7 @@ import {
   type ReadingDto,
   type ReadingSource,
   type RejectedRow,
+  type RunState,
 } from '@crankjournal/shared-types';
 import { EnginesService, type EngineWithPoints } from '../engines/engines.service.js';
 import { AlarmsService, type NewReading, type PointReading, type RecentHistoryLoader } from '../alarms/alarms.service.js';
@@ -275,7 +276,7 @@ export class IngestService {
       ({ inserted, outcome } = await this.db.transaction(async (m) => {
         // Across service instances: one transaction per engine at a time (the mutex above orders this instance only).
         await m.query(`SELECT pg_advisory_xact_lock(${ENGINE_WRITE_LOCK}, hashtext($1))`, [engineId]);
-        const [state] = await m.query(`SELECT state FROM runs WHERE id = $1 FOR SHARE`, [run.id]);
+        const [state] = (await m.query(`SELECT state FROM runs WHERE id = $1 FOR SHARE`, [run.id])) as { state: RunState }[];
         if (!state || !RUN_STATES_TAKING_READINGS.includes(state.state)) throw new ConflictException('This run no longer takes readings.');
         const ids =
           rows.length >= COPY_MIN_ROWS
@@ -296,7 +297,8 @@ export class IngestService {
           value: row.value,
           takenAt: row.taken_at,
         }));
-        const o = await this.alarms.evaluate(engineId, run.id, fresh, m, this.history, run.state);
+        // The state read (and held) in this transaction: the run handed in may have been read a little earlier.
+        const o = await this.alarms.evaluate(engineId, run.id, fresh, m, this.history, state.state);
         return { inserted: ins, outcome: o };
       }));
     } catch (e) {

@@ -50,7 +50,7 @@ export class RunsGateway {
   @SubscribeMessage('readings:submit')
   async submit(@ConnectedSocket() socket: LiveSocket, @MessageBody() body: SubmitReadingsDto): Promise<LiveAck<IngestResult>> {
     const me = await allowedSender(this.users, socket, 'readings:submit');
-    const run = await this.runs.get(body.runId);
+    const run = await this.runs.forReadings(body.runId);
     const r = await this.ingest.ingest({ run, source: 'live', enteredBy: me.id }, body.readings);
     if (r.rejectedCount) {
       socket.emit('live:error', {

@@ -42,6 +42,12 @@ const TRANSITION_ROLES: Record<Exclude<RunState, 'planned'>, Role[]> = {
   abandoned: ['operator', 'chief_engineer'],
 };
 
+/** A started run as the maintenance histories need it. */
+export type RunOutline = Pick<RunSummary, 'id' | 'title' | 'state' | 'runningSeconds'> & { startedAt: string };
+
+/** How long a live reading's run may be taken from memory before it is read again (RunsService.forReadings). */
+const RUN_FACTS_TTL_MS = 5_000;
+
 /** What other modules read of a run (a stored run satisfies it); they never import the entity. */
 export interface RunRecord {
   id: string;
@@ -58,6 +64,8 @@ export class RunsService {
   /** Per engine: one change of its runs' state at a time in this process (the database locks hold across processes). */
   private readonly mutex = new KeyedMutex();
   private readonly logger = new Logger('Runs');
+  /** Runs that take readings, as forReadings last read them. */
+  private readonly takingReadings = new Map<string, { run: Run; at: number }>();
 
   constructor(
     @InjectDataSource() private readonly db: DataSource,
@@ -70,6 +78,20 @@ export class RunsService {
     private readonly alarms: AlarmsService,
     private readonly users: UsersService,
   ) {}
+
+  /**
+   * The run a live reading is for, read from the database at most every RUN_FACTS_TTL_MS per run: its id, engine
+   * and creation time never change, and its state may be that old, so the storing transaction reads the state
+   * again (and that is the one used). Forgotten at once when this instance changes the run.
+   */
+  async forReadings(id: string): Promise<Run> {
+    const hit = this.takingReadings.get(id);
+    if (hit && Date.now() - hit.at < RUN_FACTS_TTL_MS) return hit.run;
+    const r = await this.get(id);
+    if (RUN_STATES_TAKING_READINGS.includes(r.state)) this.takingReadings.set(id, { run: r, at: Date.now() });
+    else this.takingReadings.delete(id);
+    return r;
+  }
 
   async get(id: string): Promise<Run> {
     const r = await this.runRepo.findOne({ where: { id } });
@@ -109,6 +131,24 @@ export class RunsService {
     if (filter.state) where.state = filter.state;
     const runs = await this.runRepo.find({ where, order: { createdAt: 'DESC' }, take: 300 });
     return this.summaries(runs);
+  }
+
+  /**
+   * An engine's runs that have started (not abandoned), oldest first, with only their own columns: no open
+   * alarm counts and no revolutions summed from the readings (which a running run would read in full).
+   */
+  async startedOutlines(engineId: string): Promise<RunOutline[]> {
+    const runs = await this.runRepo.find({ where: { engineId }, order: { createdAt: 'DESC' }, take: 300 });
+    return runs
+      .filter((r) => r.startedAt !== null && r.state !== 'abandoned')
+      .map((r) => ({
+        id: r.id,
+        title: r.title,
+        state: r.state,
+        startedAt: r.startedAt!.toISOString(),
+        runningSeconds: runningSeconds(r.startedAt, r.stoppedAt),
+      }))
+      .sort((a, b) => a.startedAt.localeCompare(b.startedAt));
   }
 
   private async summaries(runs: Run[]): Promise<RunSummary[]> {
@@ -226,6 +266,7 @@ export class RunsService {
     if (dto.crewIds !== undefined) patch.crewIds = [...new Set(dto.crewIds)];
     if (dto.notes !== undefined) patch.notes = dto.notes;
     await this.runRepo.update({ id }, patch);
+    this.takingReadings.delete(id);
     void user;
     return this.broadcast(id);
   }
@@ -317,6 +358,7 @@ export class RunsService {
       }
       if (to === 'abandoned') cur.abandonedReason = dto.note!.trim();
       await m.save(Run, cur);
+      this.takingReadings.delete(id);
       await m.insert(RunStateChange, {
         runId: id,
         fromState: run0.state,

@@ -2,7 +2,7 @@ import { Route, Routes } from 'react-router-dom';
 import type { AlarmDto, BoardPoint, Role } from '@crankjournal/shared-types';
 import { render, screen, within } from '../../../test-utils/render';
 import { buildEngine, buildRun } from '../../../test-utils/builders';
-import { signIn as signInAs, signOut, stubFetch } from '../../../test-utils/http';
+import { json, signIn as signInAs, signOut, stubFetch } from '../../../test-utils/http';
 import LiveRunPage from './LiveRun.page';
 
 vi.mock('../../../api/socket', () => ({ getSocket: () => null, joinRoom: () => () => {}, closeSocket: () => {} }));
@@ -105,6 +105,35 @@ const page = () =>
   );
 
 describe('live run page', () => {
+  it("asks for the engine together with the run when the link carries the engine's id", async () => {
+    signIn('operator');
+    let release = () => {};
+    const held = new Promise<void>((r) => (release = r));
+    const stub = stubFetch({
+      [`GET /runs/${RUN}`]: async () => {
+        await held;
+        return json(run);
+      },
+      [`GET /engines/${ENGINE}`]: engine,
+      [`GET /runs/${RUN}/board`]: board,
+      [`GET /runs/${RUN}/readings*`]: [],
+      [`GET /runs/${RUN}/alarms`]: [alarm],
+      'GET /alarms': [alarm],
+      [`GET /runs/${RUN}/start-gate`]: { allowed: true, reasons: [] },
+      'GET /units/conversions': { imperial: {}, metric: {} },
+    });
+    render(
+      <Routes>
+        <Route path="/runs/:id" element={<LiveRunPage />} />
+      </Routes>,
+      { route: `/runs/${RUN}?engine=${ENGINE}` },
+    );
+    // The run's answer is held back: the engine is asked for all the same.
+    await vi.waitFor(() => expect(stub.calls.some((c) => c.path === `/engines/${ENGINE}`)).toBe(true));
+    release();
+    expect(await screen.findByTestId('board-MB2-T')).toBeInTheDocument();
+  });
+
   it('pins a red high-high alarm banner with its point, message and an Acknowledge button for an operator', async () => {
     signIn('operator');
     page();

@@ -49,6 +49,12 @@ export default function LiveRunPage() {
   const [params, setParams] = useSearchParams();
   const canWrite = useHasRole('operator', 'chief_engineer');
 
+  // A link that knows the engine carries it (`?engine=`): its detail is then fetched alongside the run's, not after
+  // it. Only a head start: the page still takes its engine from the run.
+  const engineHint = params.get('engine');
+  useEffect(() => {
+    if (engineHint) void qc.prefetchQuery(engineDetailQuery(engineHint));
+  }, [qc, engineHint]);
   const run = useQuery(runDetailQuery(id));
   const engineId = run.data?.engineId;
   const engine = useQuery({ ...engineDetailQuery(engineId ?? ''), enabled: !!engineId });
