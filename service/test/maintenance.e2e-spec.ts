@@ -235,7 +235,7 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
         });
       expect(res.status).toBe(201);
       const plan = res.body as InspectionPlanDto;
-      expect(plan.due.status).toBe('overdue');
+      expect(plan.due.status).toBe('overrun');
       expect(plan.due.governing).toBe('calendar_days');
       const due = (await signedIn(t, observer).get(`/api/maintenance/due?engineId=${engine.id}`)).body as DueList;
       expect(due.items[0].id).toBe(plan.id);
@@ -267,7 +267,7 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
         speedRpm: 75,
       });
       const after = (await signedIn(t, observer).get(`/api/maintenance/plans/${plan.id}`)).body as InspectionPlanDto;
-      expect(after.due.status).toBe('overdue');
+      expect(after.due.status).toBe('overrun');
       expect(after.due.governing).toBe('run_hours');
       const hours = after.due.criteria.find((c) => c.criterion === 'run_hours')!;
       expect(hours.used).toBeCloseTo(5, 6);
@@ -288,7 +288,7 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
             lastDoneAt: new Date(Date.now() - 30 * DAY).toISOString(),
           })
       ).body as InspectionPlanDto;
-      expect(plan.due.status).toBe('overdue');
+      expect(plan.due.status).toBe('overrun');
       const created = await signedIn(t, lead)
         .post('/api/maintenance/work-records')
         .send({
