@@ -257,7 +257,7 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
             lastDoneAt: new Date(Date.now() - 20 * DAY).toISOString(),
           })
       ).body as InspectionPlanDto;
-      expect(plan.due.status).toBe('ok');
+      expect(plan.due.status).toBe('in_hand');
       await insertClosedRun(t, engine, chief.account.id, {
         title: 'Hours run',
         startedAt: new Date(Date.now() - 10 * DAY),
@@ -323,7 +323,7 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
       expect(reset.lastDoneAt).toBe(completedAt.toISOString());
       expect(reset.lastResetByWorkRecordId).toBe(work.id);
       expect(reset.lastDoneRunHours).toBeCloseTo(counters.runningHours, 6);
-      expect(reset.due.status).toBe('ok');
+      expect(reset.due.status).toBe('in_hand');
       expect((await signedIn(t, lead).post(`/api/maintenance/work-records/${work.id}/close`).send({})).status).toBe(409);
       expect((await signedIn(t, lead).patch(`/api/maintenance/work-records/${work.id}`).send({ title: 'Changed' })).status).toBe(409);
     });
