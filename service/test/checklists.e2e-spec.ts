@@ -278,7 +278,7 @@ describe('checklists and the start gate (API)', () => {
   });
 
   describe('template versions', () => {
-    it('leaves a checklist completed against version 1 unchanged after version 2 is published', async () => {
+    it('leaves a checklist completed against version 1 unchanged after version 2 is issued', async () => {
       const tpl = await createTemplate(t, chief, engine.id, {
         ...PRE_LUBE,
         name: `Versioned ${randomUUID().slice(0, 6)}`,
@@ -297,12 +297,12 @@ describe('checklists and the start gate (API)', () => {
       const draft = await signedIn(t, chief).put(`/api/checklist-templates/${tpl.id}/draft`).send(v2);
       expect(draft.status).toBe(200);
       expect(draft.body.currentVersion).toBe(1);
-      const published = await signedIn(t, chief)
-        .post(`/api/checklist-templates/${tpl.id}/publish`)
+      const issuedV2 = await signedIn(t, chief)
+        .post(`/api/checklist-templates/${tpl.id}/issue`)
         .send({ changeNote: 'Tighter range, drains added.' });
-      expect(published.status).toBe(200);
-      expect(published.body.currentVersion).toBe(2);
-      expect(published.body.versions.map((v: { version: number }) => v.version)).toEqual([2, 1]);
+      expect(issuedV2.status).toBe(200);
+      expect(issuedV2.body.currentVersion).toBe(2);
+      expect(issuedV2.body.versions.map((v: { version: number }) => v.version)).toEqual([2, 1]);
 
       const after = await detail(done.id);
       expect(after).toEqual(before);
@@ -318,8 +318,8 @@ describe('checklists and the start gate (API)', () => {
       expect(v1.body.content.sections[0].items[1].label).toBe('Pre-lube line pressure');
     });
 
-    it('refuses to publish without a draft and refuses a template whose content does not hold together', async () => {
-      expect((await signedIn(t, chief).post(`/api/checklist-templates/${preLube.id}/publish`).send({})).status).toBe(409);
+    it('refuses to issue with nothing in preparation and refuses a template whose content does not hold together', async () => {
+      expect((await signedIn(t, chief).post(`/api/checklist-templates/${preLube.id}/issue`).send({})).status).toBe(409);
       const bad = structuredClone(PRE_LUBE);
       bad.sections[0].items[1] = { ...bad.sections[0].items[1], min: 40, max: 30 };
       const r = await signedIn(t, chief)
@@ -330,18 +330,21 @@ describe('checklists and the start gate (API)', () => {
     });
 
     it('a template stands in preparation, issued or withdrawn, in our words in its answers and messages', async () => {
-      const body = { ...SHUTDOWN, name: `Words ${randomUUID().slice(0, 6)}`, engineId: engine.id, publish: false };
+      const body = { ...SHUTDOWN, name: `Words ${randomUUID().slice(0, 6)}`, engineId: engine.id, issue: false };
       const made = await signedIn(t, chief).post('/api/checklist-templates').send(body);
       expect(made.status).toBe(201);
       expect(made.body.state).toBe('in_preparation');
-      const issued = await signedIn(t, chief).post(`/api/checklist-templates/${made.body.id}/publish`).send({ changeNote: 'First issue.' });
+      const issued = await signedIn(t, chief).post(`/api/checklist-templates/${made.body.id}/issue`).send({ changeNote: 'First issue.' });
       expect(issued.body.state).toBe('issued');
-      const again = await signedIn(t, chief).post(`/api/checklist-templates/${made.body.id}/publish`).send({});
+      expect(issued.body.issuedAt).toEqual(expect.any(String));
+      expect(issued.body.versions[0]).toMatchObject({ version: 1, changeNote: 'First issue.', issuedByName: expect.any(String) });
+      const again = await signedIn(t, chief).post(`/api/checklist-templates/${made.body.id}/issue`).send({});
       expect(again.status).toBe(409);
       expect(JSON.stringify(again.body.message)).toContain('nothing in preparation to issue');
-      const withdrawn = await signedIn(t, chief).post(`/api/checklist-templates/${made.body.id}/retire`).send({});
+      const withdrawn = await signedIn(t, chief).post(`/api/checklist-templates/${made.body.id}/withdraw`).send({});
       expect(withdrawn.body.state).toBe('withdrawn');
-      const twice = await signedIn(t, chief).post(`/api/checklist-templates/${made.body.id}/retire`).send({});
+      expect(withdrawn.body.withdrawn).toBe(true);
+      const twice = await signedIn(t, chief).post(`/api/checklist-templates/${made.body.id}/withdraw`).send({});
       expect(twice.status).toBe(409);
       expect(JSON.stringify(twice.body.message)).toContain('already withdrawn');
       const list = (await signedIn(t, observer).get(`/api/checklist-templates?engineId=${engine.id}`)).body as {
@@ -349,6 +352,14 @@ describe('checklists and the start gate (API)', () => {
         state: string;
       }[];
       expect(list.find((x) => x.id === made.body.id)?.state).toBe('withdrawn');
+      const reissued = await signedIn(t, chief).post(`/api/checklist-templates/${made.body.id}/reissue`).send({});
+      expect(reissued.status).toBe(200);
+      expect(reissued.body).toMatchObject({ state: 'issued', withdrawn: false, currentVersion: 1 });
+      const notWithdrawn = await signedIn(t, chief).post(`/api/checklist-templates/${made.body.id}/reissue`).send({});
+      expect(notWithdrawn.status).toBe(409);
+      expect(JSON.stringify(notWithdrawn.body.message)).toContain('not withdrawn');
+      // The old spellings are gone from the API.
+      expect((await signedIn(t, chief).post(`/api/checklist-templates/${made.body.id}/retire`).send({})).status).toBe(404);
     });
 
     it('is written by the chief engineer only; everyone reads and prints', async () => {

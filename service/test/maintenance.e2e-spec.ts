@@ -235,7 +235,7 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
         });
       expect(res.status).toBe(201);
       const plan = res.body as InspectionPlanDto;
-      expect(plan.due.status).toBe('overdue');
+      expect(plan.due.status).toBe('overrun');
       expect(plan.due.governing).toBe('calendar_days');
       const due = (await signedIn(t, observer).get(`/api/maintenance/due?engineId=${engine.id}`)).body as DueList;
       expect(due.items[0].id).toBe(plan.id);
@@ -257,7 +257,7 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
             lastDoneAt: new Date(Date.now() - 20 * DAY).toISOString(),
           })
       ).body as InspectionPlanDto;
-      expect(plan.due.status).toBe('ok');
+      expect(plan.due.status).toBe('in_hand');
       await insertClosedRun(t, engine, chief.account.id, {
         title: 'Hours run',
         startedAt: new Date(Date.now() - 10 * DAY),
@@ -267,7 +267,7 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
         speedRpm: 75,
       });
       const after = (await signedIn(t, observer).get(`/api/maintenance/plans/${plan.id}`)).body as InspectionPlanDto;
-      expect(after.due.status).toBe('overdue');
+      expect(after.due.status).toBe('overrun');
       expect(after.due.governing).toBe('run_hours');
       const hours = after.due.criteria.find((c) => c.criterion === 'run_hours')!;
       expect(hours.used).toBeCloseTo(5, 6);
@@ -288,7 +288,7 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
             lastDoneAt: new Date(Date.now() - 30 * DAY).toISOString(),
           })
       ).body as InspectionPlanDto;
-      expect(plan.due.status).toBe('overdue');
+      expect(plan.due.status).toBe('overrun');
       const created = await signedIn(t, lead)
         .post('/api/maintenance/work-records')
         .send({
@@ -323,7 +323,7 @@ describe('maintenance and lubrication (API against PostgreSQL and the object sto
       expect(reset.lastDoneAt).toBe(completedAt.toISOString());
       expect(reset.lastResetByWorkRecordId).toBe(work.id);
       expect(reset.lastDoneRunHours).toBeCloseTo(counters.runningHours, 6);
-      expect(reset.due.status).toBe('ok');
+      expect(reset.due.status).toBe('in_hand');
       expect((await signedIn(t, lead).post(`/api/maintenance/work-records/${work.id}/close`).send({})).status).toBe(409);
       expect((await signedIn(t, lead).patch(`/api/maintenance/work-records/${work.id}`).send({ title: 'Changed' })).status).toBe(409);
     });

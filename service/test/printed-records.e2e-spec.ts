@@ -147,7 +147,7 @@ describe('printed records from the demo data', () => {
       const p = inspectPdf(r.buffer);
       const pages = Number(p.info.Pages);
       expectClean(p, pages);
-      expect(r.filename).toMatch(/^checklist-[a-z0-9-]+-v(\d+|draft)\.pdf$/);
+      expect(r.filename).toMatch(/^checklist-[a-z0-9-]+-(v\d+|in-preparation)\.pdf$/);
     }
     const first = await t.app.get(ChecklistPdfService).blank(templates[0].id, undefined, PRINTED_BY, PRINTED_AT);
     expect(compareWithGolden(first.buffer, 1, golden('blank-checklist-p1'))).toBeLessThan(GOLDEN_TOLERANCE);

@@ -107,9 +107,9 @@ export const ROUTE_ACCESS: Record<string, RouteAccess> = {
   'GET /api/checklist-templates/:id/versions/:version': ANY_ROLE,
   'PUT /api/checklist-templates/:id/draft': CHIEF,
   'DELETE /api/checklist-templates/:id/draft': CHIEF,
-  'POST /api/checklist-templates/:id/publish': CHIEF,
-  'POST /api/checklist-templates/:id/retire': CHIEF,
-  'POST /api/checklist-templates/:id/reinstate': CHIEF,
+  'POST /api/checklist-templates/:id/issue': CHIEF,
+  'POST /api/checklist-templates/:id/withdraw': CHIEF,
+  'POST /api/checklist-templates/:id/reissue': CHIEF,
   'GET /api/checklist-templates/:id/blank.pdf': ANY_ROLE,
   'GET /api/checklist-templates/:id/versions/:version/blank.pdf': ANY_ROLE,
 

@@ -159,7 +159,7 @@ test('a second attempt with a stale pre-lube is refused, with the reason shown',
   const templates = (await (
     await request.get(`/api/checklist-templates?engineId=${demo.id}`, { headers: auth(chief) })
   ).json()) as ChecklistTemplateSummary[];
-  for (const t of templates.filter((x) => x.requiredWhen === 'before_start' && !x.retired)) {
+  for (const t of templates.filter((x) => x.requiredWhen === 'before_start' && !x.withdrawn)) {
     const full = (await (
       await request.get(`/api/checklist-templates/${t.id}`, { headers: auth(chief) })
     ).json()) as ChecklistTemplateDetail;
@@ -167,7 +167,7 @@ test('a second attempt with a stale pre-lube is refused, with the reason shown',
       (
         await request.post('/api/checklist-templates', {
           headers: auth(chief),
-          data: { ...full.current!.content, engineId: engine.id, publish: true },
+          data: { ...full.current!.content, engineId: engine.id, issue: true },
         })
       ).status(),
     ).toBe(201);

@@ -6,10 +6,10 @@ test('the maintenance lead opens the warm bearing of the demo season, sees the f
 }) => {
   await signIn(page, 'maintenance@alderforge.example');
 
-  // The start screen carries what is due, overdue marked.
+  // The start screen carries what is due, overrun marked.
   const due = page.getByTestId('today-maintenance');
   await expect(due.getByRole('heading', { name: 'Maintenance due' })).toBeVisible();
-  await expect(due.getByTestId('due-overdue').first()).toHaveText('Overrun');
+  await expect(due.getByTestId('due-overrun').first()).toHaveText('Overrun');
 
   await page.getByRole('navigation', { name: 'Main navigation' }).getByRole('link', { name: 'Bearings' }).click();
   // Other tests may describe engines of their own: take the demo engine's bearing.

@@ -31,7 +31,7 @@ async function ok<T>(r: Promise<import('@playwright/test').APIResponse>): Promis
   return (await res.json()) as T;
 }
 
-/** A copy of the demo engine under a new name, a published checklist for it (a tick and a photo), and a preparing run. */
+/** A copy of the demo engine under a new name, an issued checklist for it (a tick and a photo), and a preparing run. */
 async function engineWithRun(request: APIRequestContext, chief: string, op: string, name: string) {
   const engines = await ok<EngineDetail[]>(request.get('/api/engines', { headers: auth(chief) }));
   const demo = await ok<EngineDetail>(request.get(`/api/engines/${engines[0].id}`, { headers: auth(chief) }));
@@ -60,7 +60,7 @@ async function engineWithRun(request: APIRequestContext, chief: string, op: stri
       headers: auth(chief),
       data: {
         engineId: engine.id,
-        publish: true,
+        issue: true,
         name: 'Tablet round check',
         purpose: 'warm_up',
         requiredWhen: 'not_required',

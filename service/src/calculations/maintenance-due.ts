@@ -5,9 +5,9 @@ import { CalculationInputError } from './errors.js';
  * whichever criterion comes due first governs.
  *
  * Status per criterion (and overall, the worst of them):
- *   overdue   remaining ≤ 0 (the interval has been reached or passed);
- *   due_soon  remaining ≤ 10 % of the interval, or the estimated due date is within 7 days of now;
- *   ok        otherwise.
+ *   overrun     remaining ≤ 0 (the interval has been reached or passed);
+ *   coming_due  remaining ≤ 10 % of the interval, or the estimated due date is within 7 days of now;
+ *   in_hand     otherwise.
  * Both thresholds are options (dueSoonFraction, dueSoonDays). Counter criteria get an estimated due date
  * only when a usage rate (run-hours or revolutions per calendar day, e.g. averaged over the season) is given.
  */
@@ -21,7 +21,7 @@ export const DUE_RULE_TEXT =
   'comes first. It is coming due when 10 % or less of an interval remains, or when its estimated due date is ' +
   'within 7 days; overrun once an interval has been reached.';
 
-export type DueStatus = 'ok' | 'due_soon' | 'overdue';
+export type DueStatus = 'in_hand' | 'coming_due' | 'overrun';
 export type DueCriterion = 'run_hours' | 'revolutions' | 'calendar_days';
 
 export interface MaintenancePlan {
@@ -51,7 +51,7 @@ export interface CriterionDue {
   criterion: DueCriterion;
   interval: number;
   used: number;
-  /** in the criterion's own unit (hours, revolutions, days); negative when overdue */
+  /** in the criterion's own unit (hours, revolutions, days); negative when overrun */
   remaining: number;
   fractionRemaining: number;
   estimatedDueDate: Date | null;
@@ -63,18 +63,18 @@ export interface CriterionDue {
 export interface MaintenanceDueResult {
   status: DueStatus;
   /**
-   * Earliest estimated due date over the criteria that have one; never a future date for an overdue plan (then the
-   * earliest date an overdue criterion fell due, or null when none of them can be dated: see dueDateNote).
+   * Earliest estimated due date over the criteria that have one; never a future date for an overrun plan (then the
+   * earliest date an overrun criterion fell due, or null when none of them can be dated: see dueDateNote).
    */
   dueDate: Date | null;
-  /** Said beside (or instead of) the due date: overdue on a counter, or a date that cannot be predicted. */
+  /** Said beside (or instead of) the due date: overrun on a counter, or a date that cannot be predicted. */
   dueDateNote: string | null;
   /** the criterion that governs: worst status, then earliest due date, then least fraction remaining */
   governing: DueCriterion;
   criteria: CriterionDue[];
 }
 
-const STATUS_RANK: Record<DueStatus, number> = { ok: 0, due_soon: 1, overdue: 2 };
+const STATUS_RANK: Record<DueStatus, number> = { in_hand: 0, coming_due: 1, overrun: 2 };
 const COUNTER_WORDS: Record<DueCriterion, string> = {
   run_hours: 'running hours',
   revolutions: 'revolutions',
@@ -103,10 +103,10 @@ function classify(
   daysToDue: number | null,
   o: { dueSoonFraction: number; dueSoonDays: number },
 ): DueStatus {
-  if (remaining <= 0) return 'overdue';
-  if (remaining <= o.dueSoonFraction * interval) return 'due_soon';
-  if (daysToDue !== null && daysToDue <= o.dueSoonDays) return 'due_soon';
-  return 'ok';
+  if (remaining <= 0) return 'overrun';
+  if (remaining <= o.dueSoonFraction * interval) return 'coming_due';
+  if (daysToDue !== null && daysToDue <= o.dueSoonDays) return 'coming_due';
+  return 'in_hand';
 }
 
 export function maintenanceDue(
@@ -184,14 +184,14 @@ export function maintenanceDue(
     return a.fractionRemaining - b.fractionRemaining;
   });
   const status = ordered[0].status;
-  // An overdue plan is dated only by its overdue criteria (a calendar date still ahead would read as "not yet due").
-  const candidates = status === 'overdue' ? criteria.filter((c) => c.status === 'overdue') : criteria;
+  // An overrun plan is dated only by its overrun criteria (a calendar date still ahead would read as "not yet due").
+  const candidates = status === 'overrun' ? criteria.filter((c) => c.status === 'overrun') : criteria;
   const dated = candidates.filter((c) => c.estimatedDueDate !== null).map((c) => (c.estimatedDueDate as Date).getTime());
   const dueDate = dated.length > 0 ? new Date(Math.min(...dated)) : null;
   let dueDateNote: string | null = null;
-  if (status === 'overdue') {
-    const overdueOn = candidates.map((c) => COUNTER_WORDS[c.criterion]).join(' and ');
-    dueDateNote = dueDate === null ? `overrun on ${overdueOn}; when it fell due is not known` : `overrun on ${overdueOn}`;
+  if (status === 'overrun') {
+    const overrunOn = candidates.map((c) => COUNTER_WORDS[c.criterion]).join(' and ');
+    dueDateNote = dueDate === null ? `overrun on ${overrunOn}; when it fell due is not known` : `overrun on ${overrunOn}`;
   } else if (dueDate === null) {
     dueDateNote = 'the date cannot be predicted: no usage rate for the counters';
   }

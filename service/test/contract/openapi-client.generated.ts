@@ -158,14 +158,14 @@ export interface paths {
     put: operations["ChecklistTemplatesController_saveDraft"];
     delete: operations["ChecklistTemplatesController_discardDraft"];
   };
-  "/api/checklist-templates/{id}/publish": {
-    post: operations["ChecklistTemplatesController_publish"];
+  "/api/checklist-templates/{id}/issue": {
+    post: operations["ChecklistTemplatesController_issue"];
   };
-  "/api/checklist-templates/{id}/retire": {
-    post: operations["ChecklistTemplatesController_retire"];
+  "/api/checklist-templates/{id}/withdraw": {
+    post: operations["ChecklistTemplatesController_withdraw"];
   };
-  "/api/checklist-templates/{id}/reinstate": {
-    post: operations["ChecklistTemplatesController_reinstate"];
+  "/api/checklist-templates/{id}/reissue": {
+    post: operations["ChecklistTemplatesController_reissue"];
   };
   "/api/checklist-templates/{id}/blank.pdf": {
     get: operations["ChecklistTemplatesController_blank"];
@@ -358,7 +358,7 @@ export interface paths {
   };
   "/api/maintenance/due": {
     /**
-     * Active inspection plans, overdue first
+     * Active inspection plans, overrun first
      * @description A task is due when any of its intervals (running hours, revolutions, calendar days) is reached, whichever comes first. It is coming due when 10 % or less of an interval remains, or when its estimated due date is within 7 days; overrun once an interval has been reached.
      */
     get: operations["MaintenanceController_due"];
@@ -737,7 +737,7 @@ export interface components {
       description: string;
       sections: components["schemas"]["ChecklistSectionDefDto"][];
       engineId: string;
-      publish?: boolean;
+      issue?: boolean;
     };
     ChecklistTemplateContentDto: {
       name: string;
@@ -750,7 +750,7 @@ export interface components {
       description: string;
       sections: components["schemas"]["ChecklistSectionDefDto"][];
     };
-    PublishChecklistTemplateDto: {
+    IssueChecklistTemplateDto: {
       changeNote?: string;
     };
     StartChecklistDto: {
@@ -2460,17 +2460,17 @@ export interface components {
       id: string;
       engineId: string;
       engineName: string;
-      /** @description From the current (latest published) version, or the draft when nothing is published yet. */
+      /** @description From the current (latest issued) version, or the revision in preparation when nothing is issued yet. */
       name: string;
       purpose: components["schemas"]["ChecklistPurpose"];
       requiredWhen: components["schemas"]["ChecklistRequiredWhen"];
       requiredDuty: components["schemas"]["Duty"];
-      /** @description 0 while nothing is published. */
+      /** @description 0 while nothing is issued. */
       currentVersion: number;
-      publishedAt: string | null;
+      issuedAt: string | null;
       itemCount: number;
       hasDraft: boolean;
-      retired: boolean;
+      withdrawn: boolean;
       /** @description In preparation, issued or withdrawn (CHECKLIST_TEMPLATE_STATE_WORDS). */
       state: components["schemas"]["ChecklistTemplateState"];
       current: components["schemas"]["ChecklistTemplateVersionDto"] | null;
@@ -2487,32 +2487,32 @@ export interface components {
       id: string;
       engineId: string;
       engineName: string;
-      /** @description From the current (latest published) version, or the draft when nothing is published yet. */
+      /** @description From the current (latest issued) version, or the revision in preparation when nothing is issued yet. */
       name: string;
       purpose: components["schemas"]["ChecklistPurpose"];
       requiredWhen: components["schemas"]["ChecklistRequiredWhen"];
       requiredDuty: components["schemas"]["Duty"];
-      /** @description 0 while nothing is published. */
+      /** @description 0 while nothing is issued. */
       currentVersion: number;
-      publishedAt: string | null;
+      issuedAt: string | null;
       itemCount: number;
       hasDraft: boolean;
-      retired: boolean;
+      withdrawn: boolean;
       /** @description In preparation, issued or withdrawn (CHECKLIST_TEMPLATE_STATE_WORDS). */
       state: components["schemas"]["ChecklistTemplateState"];
     };
     ChecklistTemplateVersionDto: {
       version: number;
-      publishedAt: string;
-      publishedByName: string;
+      issuedAt: string;
+      issuedByName: string;
       changeNote: string;
       templateId: string;
       content: components["schemas"]["ChecklistTemplateContent"];
     };
     ChecklistVersionInfo: {
       version: number;
-      publishedAt: string;
-      publishedByName: string;
+      issuedAt: string;
+      issuedByName: string;
       changeNote: string;
     };
     ClientToServerEvents: {
@@ -2647,8 +2647,8 @@ export interface components {
       description: string;
       sections: components["schemas"]["ChecklistSectionDef"][];
       engineId: string;
-      /** @description Publish version 1 at once instead of keeping a draft. */
-      publish?: boolean;
+      /** @description Issue version 1 at once instead of keeping it in preparation. */
+      issue?: boolean;
     };
     CreateLoggerRequest: {
       engineId: string;
@@ -2754,7 +2754,7 @@ export interface components {
       criterion: components["schemas"]["DueCriterion"];
       interval: number;
       used: number;
-      /** @description In the criterion's own unit (hours, revolutions, days); negative when overdue. */
+      /** @description In the criterion's own unit (hours, revolutions, days); negative when overrun. */
       remaining: number;
       fractionRemaining: number;
       estimatedDueDate: string | null;
@@ -2763,13 +2763,13 @@ export interface components {
       status: components["schemas"]["DueStatus"];
     };
     DueList: {
-      /** @description Active plans, overdue first, then due soon, then by due date. */
+      /** @description Active plans, overrun first, then coming due, then by due date. */
       items: components["schemas"]["InspectionPlanDto"][];
       ruleText: string;
       generatedAt: string;
     };
     /** @enum {string} */
-    DueStatus: "ok" | "due_soon" | "overdue";
+    DueStatus: "in_hand" | "coming_due" | "overrun";
     /** @enum {string} */
     Duty: "pre_lube" | "start_and_run" | "shutdown" | "mill_operation";
     EngineDetail: {
@@ -3148,6 +3148,9 @@ export interface components {
       email: string;
       displayName: string;
       role: components["schemas"]["Role"];
+    };
+    IssueChecklistTemplateRequest: {
+      changeNote?: string;
     };
     IssuedLoggerKey: {
       id: string;
@@ -3872,9 +3875,9 @@ export interface components {
     PlanDue: {
       status: components["schemas"]["DueStatus"];
       governing: components["schemas"]["DueCriterion"];
-      /** @description Never a future date for an overdue plan. */
+      /** @description Never a future date for an overrun plan. */
       dueDate: string | null;
-      /** @description Said beside or instead of the date: overdue on a counter, or "cannot be predicted". */
+      /** @description Said beside or instead of the date: overrun on a counter, or "cannot be predicted". */
       dueDateNote: string | null;
       criteria: components["schemas"]["DueCriterionDto"][];
     };
@@ -3895,9 +3898,6 @@ export interface components {
     };
     /** @enum {string} */
     ProductShape: "flat" | "square" | "round";
-    PublishChecklistTemplateRequest: {
-      changeNote?: string;
-    };
     QualificationDto: {
       id: string;
       userId: string;
@@ -6846,10 +6846,10 @@ export interface operations {
       };
     };
   };
-  ChecklistTemplatesController_publish: {
+  ChecklistTemplatesController_issue: {
     requestBody: {
       content: {
-        "application/json": components["schemas"]["PublishChecklistTemplateDto"];
+        "application/json": components["schemas"]["IssueChecklistTemplateDto"];
       };
     };
     responses: {
@@ -6897,7 +6897,7 @@ export interface operations {
       };
     };
   };
-  ChecklistTemplatesController_retire: {
+  ChecklistTemplatesController_withdraw: {
     responses: {
       /** @description ChecklistTemplateDetail */
       200: {
@@ -6931,7 +6931,7 @@ export interface operations {
       };
     };
   };
-  ChecklistTemplatesController_reinstate: {
+  ChecklistTemplatesController_reissue: {
     responses: {
       /** @description ChecklistTemplateDetail */
       200: {
@@ -9382,7 +9382,7 @@ export interface operations {
     };
   };
   /**
-   * Active inspection plans, overdue first
+   * Active inspection plans, overrun first
    * @description A task is due when any of its intervals (running hours, revolutions, calendar days) is reached, whichever comes first. It is coming due when 10 % or less of an interval remains, or when its estimated due date is within 7 days; overrun once an interval has been reached.
    */
   MaintenanceController_due: {

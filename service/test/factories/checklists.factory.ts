@@ -156,7 +156,7 @@ export async function createTemplate(
 ): Promise<ChecklistTemplateDetail> {
   const res = await signedIn(t, chief)
     .post('/api/checklist-templates')
-    .send({ ...content, engineId, publish: true });
+    .send({ ...content, engineId, issue: true });
   if (res.status !== 201) throw new Error(`template not created: ${res.status} ${JSON.stringify(res.body)}`);
   return res.body;
 }

@@ -109,24 +109,24 @@ export interface ChecklistTemplateSummary {
   id: string;
   engineId: string;
   engineName: string;
-  /** From the current (latest published) version, or the draft when nothing is published yet. */
+  /** From the current (latest issued) version, or the revision in preparation when nothing is issued yet. */
   name: string;
   purpose: ChecklistPurpose;
   requiredWhen: ChecklistRequiredWhen;
   requiredDuty: Duty;
-  /** 0 while nothing is published. */
+  /** 0 while nothing is issued. */
   currentVersion: number;
-  publishedAt: string | null;
+  issuedAt: string | null;
   itemCount: number;
   hasDraft: boolean;
-  retired: boolean;
+  withdrawn: boolean;
   /** In preparation, issued or withdrawn (CHECKLIST_TEMPLATE_STATE_WORDS). */
   state: ChecklistTemplateState;
 }
 export interface ChecklistVersionInfo {
   version: number;
-  publishedAt: string;
-  publishedByName: string;
+  issuedAt: string;
+  issuedByName: string;
   changeNote: string;
 }
 export interface ChecklistTemplateVersionDto extends ChecklistVersionInfo {
@@ -141,11 +141,11 @@ export interface ChecklistTemplateDetail extends ChecklistTemplateSummary {
 }
 export interface CreateChecklistTemplateRequest extends ChecklistTemplateContent {
   engineId: string;
-  /** Publish version 1 at once instead of keeping a draft. */
-  publish?: boolean;
+  /** Issue version 1 at once instead of keeping it in preparation. */
+  issue?: boolean;
 }
 export type SaveChecklistDraftRequest = ChecklistTemplateContent;
-export interface PublishChecklistTemplateRequest {
+export interface IssueChecklistTemplateRequest {
   changeNote?: string;
 }
 

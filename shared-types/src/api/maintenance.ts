@@ -107,10 +107,10 @@ export const WORK_HAZARD_CAUTIONS: Record<WorkHazard, string> = {
 // Due logic (the calculation lives on the server; these are its answers)
 // ---------------------------------------------------------------------------------------------
 
-export type DueStatus = 'ok' | 'due_soon' | 'overdue';
+export type DueStatus = 'in_hand' | 'coming_due' | 'overrun';
 export type DueCriterion = 'run_hours' | 'revolutions' | 'calendar_days';
 /** Our words for an inspection plan's standing: in hand, coming due, overrun (run past its interval). */
-export const DUE_STATUS_LABELS: Record<DueStatus, string> = { ok: 'In hand', due_soon: 'Coming due', overdue: 'Overrun' };
+export const DUE_STATUS_LABELS: Record<DueStatus, string> = { in_hand: 'In hand', coming_due: 'Coming due', overrun: 'Overrun' };
 export const DUE_CRITERION_LABELS: Record<DueCriterion, string> = {
   run_hours: 'Running hours',
   revolutions: 'Revolutions',
@@ -121,7 +121,7 @@ export interface DueCriterionDto {
   criterion: DueCriterion;
   interval: number;
   used: number;
-  /** In the criterion's own unit (hours, revolutions, days); negative when overdue. */
+  /** In the criterion's own unit (hours, revolutions, days); negative when overrun. */
   remaining: number;
   fractionRemaining: number;
   estimatedDueDate: string | null;
@@ -132,9 +132,9 @@ export interface DueCriterionDto {
 export interface PlanDue {
   status: DueStatus;
   governing: DueCriterion;
-  /** Never a future date for an overdue plan. */
+  /** Never a future date for an overrun plan. */
   dueDate: string | null;
-  /** Said beside or instead of the date: overdue on a counter, or "cannot be predicted". */
+  /** Said beside or instead of the date: overrun on a counter, or "cannot be predicted". */
   dueDateNote: string | null;
   criteria: DueCriterionDto[];
 }
@@ -188,7 +188,7 @@ export interface InspectionPlanDto {
   due: PlanDue;
 }
 export interface DueList {
-  /** Active plans, overdue first, then due soon, then by due date. */
+  /** Active plans, overrun first, then coming due, then by due date. */
   items: InspectionPlanDto[];
   ruleText: string;
   generatedAt: string;

@@ -124,6 +124,7 @@ export type SharedSchemaName =
   | 'InspectionPlanWriteRequest'
   | 'InspectionSummary'
   | 'InviteUserRequest'
+  | 'IssueChecklistTemplateRequest'
   | 'IssuedLoggerKey'
   | 'ItemCaution'
   | 'JackCapacityRequest'
@@ -194,7 +195,6 @@ export type SharedSchemaName =
   | 'PointConsumption'
   | 'PointPeak'
   | 'ProductShape'
-  | 'PublishChecklistTemplateRequest'
   | 'QualificationDto'
   | 'QualificationMatrix'
   | 'QualificationMatrixRow'
@@ -1676,15 +1676,18 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       id: { type: 'string' },
       engineId: { type: 'string' },
       engineName: { type: 'string' },
-      name: { type: 'string', description: 'From the current (latest published) version, or the draft when nothing is published yet.' },
+      name: {
+        type: 'string',
+        description: 'From the current (latest issued) version, or the revision in preparation when nothing is issued yet.',
+      },
       purpose: { $ref: '#/components/schemas/ChecklistPurpose' },
       requiredWhen: { $ref: '#/components/schemas/ChecklistRequiredWhen' },
       requiredDuty: { $ref: '#/components/schemas/Duty' },
-      currentVersion: { type: 'number', description: '0 while nothing is published.' },
-      publishedAt: { type: ['string', 'null'] },
+      currentVersion: { type: 'number', description: '0 while nothing is issued.' },
+      issuedAt: { type: ['string', 'null'] },
       itemCount: { type: 'number' },
       hasDraft: { type: 'boolean' },
-      retired: { type: 'boolean' },
+      withdrawn: { type: 'boolean' },
       state: {
         $ref: '#/components/schemas/ChecklistTemplateState',
         description: 'In preparation, issued or withdrawn (CHECKLIST_TEMPLATE_STATE_WORDS).',
@@ -1703,15 +1706,15 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       'engineName',
       'hasDraft',
       'id',
+      'issuedAt',
       'itemCount',
       'name',
-      'publishedAt',
       'purpose',
       'requiredDuty',
       'requiredWhen',
-      'retired',
       'state',
       'versions',
+      'withdrawn',
     ],
     additionalProperties: false,
   },
@@ -1727,15 +1730,18 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       id: { type: 'string' },
       engineId: { type: 'string' },
       engineName: { type: 'string' },
-      name: { type: 'string', description: 'From the current (latest published) version, or the draft when nothing is published yet.' },
+      name: {
+        type: 'string',
+        description: 'From the current (latest issued) version, or the revision in preparation when nothing is issued yet.',
+      },
       purpose: { $ref: '#/components/schemas/ChecklistPurpose' },
       requiredWhen: { $ref: '#/components/schemas/ChecklistRequiredWhen' },
       requiredDuty: { $ref: '#/components/schemas/Duty' },
-      currentVersion: { type: 'number', description: '0 while nothing is published.' },
-      publishedAt: { type: ['string', 'null'] },
+      currentVersion: { type: 'number', description: '0 while nothing is issued.' },
+      issuedAt: { type: ['string', 'null'] },
       itemCount: { type: 'number' },
       hasDraft: { type: 'boolean' },
-      retired: { type: 'boolean' },
+      withdrawn: { type: 'boolean' },
       state: {
         $ref: '#/components/schemas/ChecklistTemplateState',
         description: 'In preparation, issued or withdrawn (CHECKLIST_TEMPLATE_STATE_WORDS).',
@@ -1750,10 +1756,10 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       'requiredWhen',
       'requiredDuty',
       'currentVersion',
-      'publishedAt',
+      'issuedAt',
       'itemCount',
       'hasDraft',
-      'retired',
+      'withdrawn',
       'state',
     ],
     additionalProperties: false,
@@ -1762,24 +1768,24 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
     type: 'object',
     properties: {
       version: { type: 'number' },
-      publishedAt: { type: 'string' },
-      publishedByName: { type: 'string' },
+      issuedAt: { type: 'string' },
+      issuedByName: { type: 'string' },
       changeNote: { type: 'string' },
       templateId: { type: 'string' },
       content: { $ref: '#/components/schemas/ChecklistTemplateContent' },
     },
-    required: ['changeNote', 'content', 'publishedAt', 'publishedByName', 'templateId', 'version'],
+    required: ['changeNote', 'content', 'issuedAt', 'issuedByName', 'templateId', 'version'],
     additionalProperties: false,
   },
   ChecklistVersionInfo: {
     type: 'object',
     properties: {
       version: { type: 'number' },
-      publishedAt: { type: 'string' },
-      publishedByName: { type: 'string' },
+      issuedAt: { type: 'string' },
+      issuedByName: { type: 'string' },
       changeNote: { type: 'string' },
     },
-    required: ['version', 'publishedAt', 'publishedByName', 'changeNote'],
+    required: ['version', 'issuedAt', 'issuedByName', 'changeNote'],
     additionalProperties: false,
   },
   ClientToServerEvents: {
@@ -2035,7 +2041,7 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       description: { type: 'string' },
       sections: { type: 'array', items: { $ref: '#/components/schemas/ChecklistSectionDef' } },
       engineId: { type: 'string' },
-      publish: { type: 'boolean', description: 'Publish version 1 at once instead of keeping a draft.' },
+      issue: { type: 'boolean', description: 'Issue version 1 at once instead of keeping it in preparation.' },
     },
     required: ['description', 'engineId', 'name', 'purpose', 'requiredDuty', 'requiredWhen', 'sections'],
     additionalProperties: false,
@@ -2210,7 +2216,7 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       criterion: { $ref: '#/components/schemas/DueCriterion' },
       interval: { type: 'number' },
       used: { type: 'number' },
-      remaining: { type: 'number', description: "In the criterion's own unit (hours, revolutions, days); negative when overdue." },
+      remaining: { type: 'number', description: "In the criterion's own unit (hours, revolutions, days); negative when overrun." },
       fractionRemaining: { type: 'number' },
       estimatedDueDate: { type: ['string', 'null'] },
       estimateNote: {
@@ -2228,7 +2234,7 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
       items: {
         type: 'array',
         items: { $ref: '#/components/schemas/InspectionPlanDto' },
-        description: 'Active plans, overdue first, then due soon, then by due date.',
+        description: 'Active plans, overrun first, then coming due, then by due date.',
       },
       ruleText: { type: 'string' },
       generatedAt: { type: 'string' },
@@ -2236,7 +2242,7 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
     required: ['items', 'ruleText', 'generatedAt'],
     additionalProperties: false,
   },
-  DueStatus: { type: 'string', enum: ['ok', 'due_soon', 'overdue'] },
+  DueStatus: { type: 'string', enum: ['in_hand', 'coming_due', 'overrun'] },
   Duty: { type: 'string', enum: ['pre_lube', 'start_and_run', 'shutdown', 'mill_operation'] },
   EngineDetail: {
     type: 'object',
@@ -2902,6 +2908,7 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
     required: ['email', 'displayName', 'role'],
     additionalProperties: false,
   },
+  IssueChecklistTemplateRequest: { type: 'object', properties: { changeNote: { type: 'string' } }, additionalProperties: false },
   IssuedLoggerKey: {
     type: 'object',
     properties: {
@@ -4091,10 +4098,10 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
     properties: {
       status: { $ref: '#/components/schemas/DueStatus' },
       governing: { $ref: '#/components/schemas/DueCriterion' },
-      dueDate: { type: ['string', 'null'], description: 'Never a future date for an overdue plan.' },
+      dueDate: { type: ['string', 'null'], description: 'Never a future date for an overrun plan.' },
       dueDateNote: {
         type: ['string', 'null'],
-        description: 'Said beside or instead of the date: overdue on a counter, or "cannot be predicted".',
+        description: 'Said beside or instead of the date: overrun on a counter, or "cannot be predicted".',
       },
       criteria: { type: 'array', items: { $ref: '#/components/schemas/DueCriterionDto' } },
     },
@@ -4122,7 +4129,6 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
     additionalProperties: false,
   },
   ProductShape: { type: 'string', enum: ['flat', 'square', 'round'] },
-  PublishChecklistTemplateRequest: { type: 'object', properties: { changeNote: { type: 'string' } }, additionalProperties: false },
   QualificationDto: {
     type: 'object',
     properties: {

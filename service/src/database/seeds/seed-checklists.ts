@@ -66,7 +66,7 @@ export async function seedChecklists(app: INestApplicationContext, engine: Engin
   for (const t of sample.templates) {
     const exists = await db.getRepository(ChecklistTemplate).findOne({ where: { engineId: engine.id, name: t.name } });
     if (exists) continue;
-    const dto = plainToInstance(CreateChecklistTemplateDto, { ...t, engineId: engine.id, publish: true });
+    const dto = plainToInstance(CreateChecklistTemplateDto, { ...t, engineId: engine.id, issue: true });
     const errors = validateSync(dto, { whitelist: true, forbidNonWhitelisted: true });
     if (errors.length) throw new Error(`samples/checklists.json, template "${t.name}": ${flattenValidationErrors(errors).join('; ')}`);
     await templates.create(dto, chief);

@@ -108,7 +108,10 @@ export class ChecklistPdfService {
       subject: 'Blank checklist',
       blocks,
     });
-    return { filename: recordFileName('checklist', null, `${content.name} v${published?.version ?? 'draft'}`), buffer };
+    return {
+      filename: recordFileName('checklist', null, published ? `${content.name} v${published.version}` : `${content.name} in preparation`),
+      buffer,
+    };
   }
 
   private item(it: ChecklistItemDef, n: number): Block {

@@ -11,12 +11,12 @@ import { ChecklistPdfService } from './checklist-pdf.service.js';
 import {
   ChecklistTemplateContentDto,
   CreateChecklistTemplateDto,
-  PublishChecklistTemplateDto,
+  IssueChecklistTemplateDto,
   TemplateQueryDto,
   TemplateVersionParamDto,
 } from './dto/template.dto.js';
 
-/** Checklist templates: everyone reads and prints them; the chief engineer writes, publishes and retires them. */
+/** Checklist templates: everyone reads and prints them; the chief engineer writes, issues and withdraws them. */
 @ApiTags('checklists')
 @ApiBearerAuth()
 @Controller('checklist-templates')
@@ -54,7 +54,7 @@ export class ChecklistTemplatesController {
     return this.templates.version(p.id, p.version);
   }
 
-  /** Saves the chief engineer's changes without publishing them. */
+  /** Saves the chief engineer's changes as the revision in preparation, without issuing them. */
   @ApiAnswer('ChecklistTemplateDetail')
   @Put(':id/draft')
   @Roles('chief_engineer')
@@ -73,32 +73,34 @@ export class ChecklistTemplatesController {
     return this.templates.discardDraft(p.id);
   }
 
-  /** The draft becomes the next version. */
+  /** Issue: the revision in preparation becomes the next version. */
   @ApiAnswer('ChecklistTemplateDetail')
-  @Post(':id/publish')
+  @Post(':id/issue')
   @HttpCode(200)
   @Roles('chief_engineer')
-  publish(@Param() p: IdParamDto, @Body() dto: PublishChecklistTemplateDto, @CurrentUser() me: AuthUser): Promise<ChecklistTemplateDetail> {
-    return this.templates.publish(p.id, dto.changeNote ?? '', me);
+  issue(@Param() p: IdParamDto, @Body() dto: IssueChecklistTemplateDto, @CurrentUser() me: AuthUser): Promise<ChecklistTemplateDetail> {
+    return this.templates.issue(p.id, dto.changeNote ?? '', me);
   }
 
+  /** Withdraw: no run may use the template until it is reissued. */
   @ApiAnswer('ChecklistTemplateDetail')
-  @Post(':id/retire')
+  @Post(':id/withdraw')
   @HttpCode(200)
   @Roles('chief_engineer')
-  retire(@Param() p: IdParamDto): Promise<ChecklistTemplateDetail> {
-    return this.templates.setRetired(p.id, true);
+  withdraw(@Param() p: IdParamDto): Promise<ChecklistTemplateDetail> {
+    return this.templates.setWithdrawn(p.id, true);
   }
 
+  /** Reissue: a withdrawn template is back in use at its current version. */
   @ApiAnswer('ChecklistTemplateDetail')
-  @Post(':id/reinstate')
+  @Post(':id/reissue')
   @HttpCode(200)
   @Roles('chief_engineer')
-  reinstate(@Param() p: IdParamDto): Promise<ChecklistTemplateDetail> {
-    return this.templates.setRetired(p.id, false);
+  reissue(@Param() p: IdParamDto): Promise<ChecklistTemplateDetail> {
+    return this.templates.setWithdrawn(p.id, false);
   }
 
-  /** The printable blank checklist of the current version (or the draft while nothing is published). */
+  /** The printable blank checklist of the current version (or the revision in preparation while nothing is issued). */
   @ApiFileAnswer('application/pdf', 'The blank checklist as a printable PDF')
   @Get(':id/blank.pdf')
   @AnyRole()

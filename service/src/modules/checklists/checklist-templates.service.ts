@@ -93,10 +93,10 @@ export class ChecklistTemplatesService {
         requiredWhen: t.requiredWhen,
         requiredDuty: t.requiredDuty,
         currentVersion: t.currentVersion,
-        publishedAt: v?.publishedAt.toISOString() ?? null,
+        issuedAt: v?.publishedAt.toISOString() ?? null,
         itemCount: content ? itemsOf(content.sections).length : 0,
         hasDraft: t.draft !== null,
-        retired: t.retiredAt !== null,
+        withdrawn: t.retiredAt !== null,
         state: t.retiredAt !== null ? 'withdrawn' : t.currentVersion > 0 ? 'issued' : 'in_preparation',
       };
     });
@@ -108,7 +108,7 @@ export class ChecklistTemplatesService {
     const rows = await this.checklistTemplateRepo.find({ where, order: { createdAt: 'ASC' } });
     const order: ChecklistRequiredWhen[] = ['before_start', 'not_required', 'after_stop'];
     return (await this.summaries(rows)).sort(
-      (a, b) => Number(a.retired) - Number(b.retired) || order.indexOf(a.requiredWhen) - order.indexOf(b.requiredWhen),
+      (a, b) => Number(a.withdrawn) - Number(b.withdrawn) || order.indexOf(a.requiredWhen) - order.indexOf(b.requiredWhen),
     );
   }
 
@@ -118,8 +118,8 @@ export class ChecklistTemplatesService {
       templateId: v.templateId,
       version: v.version,
       content: v.content,
-      publishedAt: v.publishedAt.toISOString(),
-      publishedByName: n.get(v.publishedBy) ?? 'unknown',
+      issuedAt: v.publishedAt.toISOString(),
+      issuedByName: n.get(v.publishedBy) ?? 'unknown',
       changeNote: v.changeNote,
     };
   }
@@ -141,8 +141,8 @@ export class ChecklistTemplatesService {
       draftUpdatedAt: t.draftUpdatedAt?.toISOString() ?? null,
       versions: versions.map((v) => ({
         version: v.version,
-        publishedAt: v.publishedAt.toISOString(),
-        publishedByName: names.get(v.publishedBy) ?? 'unknown',
+        issuedAt: v.publishedAt.toISOString(),
+        issuedByName: names.get(v.publishedBy) ?? 'unknown',
         changeNote: v.changeNote,
       })),
     };
@@ -188,7 +188,7 @@ export class ChecklistTemplatesService {
           createdBy: user.id,
         }),
       );
-      if (dto.publish) await this.publishIn(m, t, '', user);
+      if (dto.issue) await this.issueIn(m, t, '', user);
       return t.id;
     });
     return this.detail(id);
@@ -227,7 +227,7 @@ export class ChecklistTemplatesService {
     return this.detail(id);
   }
 
-  private async publishIn(m: EntityManager, t: ChecklistTemplate, changeNote: string, user: AuthUser) {
+  private async issueIn(m: EntityManager, t: ChecklistTemplate, changeNote: string, user: AuthUser) {
     if (!t.draft) throw new ConflictException('There is nothing in preparation to issue: save your changes first.');
     this.check(t.draft);
     const version = t.currentVersion + 1;
@@ -254,30 +254,31 @@ export class ChecklistTemplatesService {
     );
   }
 
-  /** The draft becomes the next version; checklists already filled keep the version they were filled against. */
-  async publish(id: string, changeNote: string, user: AuthUser): Promise<ChecklistTemplateDetail> {
+  /** Issue: the revision in preparation becomes the next version; checklists already filled keep the version they were filled against. */
+  async issue(id: string, changeNote: string, user: AuthUser): Promise<ChecklistTemplateDetail> {
     await this.db.transaction(async (m) => {
       const t = await m.findOne(ChecklistTemplate, { where: { id }, lock: { mode: 'pessimistic_write' } });
       if (!t) throw new NotFoundException('No such checklist template.');
       if (t.retiredAt) throw new ConflictException('This template is withdrawn; reissue it before issuing a new version.');
-      await this.publishIn(m, t, changeNote, user);
+      await this.issueIn(m, t, changeNote, user);
     });
     return this.detail(id);
   }
 
-  async setRetired(id: string, retired: boolean): Promise<ChecklistTemplateDetail> {
+  /** Withdraw (true) or reissue (false) a template. */
+  async setWithdrawn(id: string, withdrawn: boolean): Promise<ChecklistTemplateDetail> {
     await this.db.transaction(async (m) => {
       const t = await m.findOne(ChecklistTemplate, { where: { id }, lock: { mode: 'pessimistic_write' } });
       if (!t) throw new NotFoundException('No such checklist template.');
-      if (retired === (t.retiredAt !== null))
-        throw new ConflictException(retired ? 'This template is already withdrawn.' : 'This template is not withdrawn.');
-      if (!retired) await this.assertNameFree(m, t.engineId, t.name, t.id);
-      await m.update(ChecklistTemplate, { id }, { retiredAt: retired ? new Date() : null });
+      if (withdrawn === (t.retiredAt !== null))
+        throw new ConflictException(withdrawn ? 'This template is already withdrawn.' : 'This template is not withdrawn.');
+      if (!withdrawn) await this.assertNameFree(m, t.engineId, t.name, t.id);
+      await m.update(ChecklistTemplate, { id }, { retiredAt: withdrawn ? new Date() : null });
     });
     return this.detail(id);
   }
 
-  /** Published, not retired templates of an engine (what the gates and a run's checklists work from). */
+  /** Issued, not withdrawn templates of an engine (what the gates and a run's checklists work from). */
   async activeFor(engineId: string): Promise<ChecklistTemplate[]> {
     return this.checklistTemplateRepo.find({
       where: { engineId, retiredAt: IsNull(), currentVersion: Not(0) },

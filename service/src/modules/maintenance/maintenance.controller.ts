@@ -102,7 +102,7 @@ export class MaintenanceController {
   @ApiAnswer('DueList')
   @Get('due')
   @AnyRole()
-  @ApiOperation({ summary: 'Active inspection plans, overdue first', description: DUE_RULE_TEXT })
+  @ApiOperation({ summary: 'Active inspection plans, overrun first', description: DUE_RULE_TEXT })
   due(@Query() q: PlanQueryDto): Promise<DueList> {
     return this.plans.dueList(q.engineId);
   }

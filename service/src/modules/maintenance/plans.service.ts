@@ -7,7 +7,7 @@ import { InspectionPlan } from './inspection-plan.entity.js';
 import { EngineFactsService, type Counters } from './engine-facts.service.js';
 import type { PlanUpdateDto, PlanWriteDto } from './dto/plan.dto.js';
 
-const STATUS_ORDER = { overdue: 0, due_soon: 1, ok: 2 } as const;
+const STATUS_ORDER = { overrun: 0, coming_due: 1, in_hand: 2 } as const;
 
 export function dueToDto(r: MaintenanceDueResult): PlanDue {
   return {
@@ -50,7 +50,7 @@ export class PlansService {
     return (await this.toDtos([await this.get(id)]))[0];
   }
 
-  /** Active plans of every engine (or one), overdue first, then due soon, then by due date. */
+  /** Active plans of every engine (or one), overrun first, then coming due, then by due date. */
   async dueList(engineId?: string): Promise<DueList> {
     const items = await this.list({ engineId, activeOnly: true });
     items.sort(

@@ -30,7 +30,7 @@ import {
   type Duty,
   type Hazard,
   type ItemCaution,
-  type PublishChecklistTemplateRequest,
+  type IssueChecklistTemplateRequest,
 } from '@crankjournal/shared-types';
 import { IsFiniteNumberIn } from '../../../common/dto/validators.js';
 import { KEY_PATTERN } from '../checklist-rules.js';
@@ -101,10 +101,10 @@ export class ChecklistTemplateContentDto implements ChecklistTemplateContent {
 
 export class CreateChecklistTemplateDto extends ChecklistTemplateContentDto implements CreateChecklistTemplateRequest {
   @ApiProperty() @IsUUID('all', { message: 'engineId must be a UUID' }) engineId: string;
-  @ApiPropertyOptional() @IsOptional() @IsBoolean({ message: 'publish must be true or false' }) publish?: boolean;
+  @ApiPropertyOptional() @IsOptional() @IsBoolean({ message: 'issue must be true or false' }) issue?: boolean;
 }
 
-export class PublishChecklistTemplateDto implements PublishChecklistTemplateRequest {
+export class IssueChecklistTemplateDto implements IssueChecklistTemplateRequest {
   @ApiPropertyOptional() @IsOptional() @IsString() @MaxLength(1000) changeNote?: string;
 }
 

@@ -187,14 +187,14 @@ export function useTemplateWrite() {
       mutationFn: (id: string) => api<ChecklistTemplateDetail>(`/checklist-templates/${id}/draft`, { method: 'DELETE' }),
       onSuccess: done,
     }),
-    publish: useMutation({
+    issue: useMutation({
       mutationFn: ({ id, changeNote }: { id: string; changeNote: string }) =>
-        api<ChecklistTemplateDetail>(`/checklist-templates/${id}/publish`, { body: { changeNote } }),
+        api<ChecklistTemplateDetail>(`/checklist-templates/${id}/issue`, { body: { changeNote } }),
       onSuccess: done,
     }),
-    retire: useMutation({
-      mutationFn: ({ id, retired }: { id: string; retired: boolean }) =>
-        api<ChecklistTemplateDetail>(`/checklist-templates/${id}/${retired ? 'retire' : 'reinstate'}`, { method: 'POST' }),
+    withdraw: useMutation({
+      mutationFn: ({ id, withdrawn }: { id: string; withdrawn: boolean }) =>
+        api<ChecklistTemplateDetail>(`/checklist-templates/${id}/${withdrawn ? 'withdraw' : 'reissue'}`, { method: 'POST' }),
       onSuccess: done,
     }),
   };

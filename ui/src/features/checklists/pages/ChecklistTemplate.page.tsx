@@ -134,7 +134,7 @@ export default function ChecklistTemplatePage() {
                 {CHECKLIST_TEMPLATE_WORDS.revision}
               </Badge>
             )}
-            {d.retired && (
+            {d.withdrawn && (
               <Badge size="lg" variant="outline" color="gray">
                 {CHECKLIST_TEMPLATE_STATE_WORDS.withdrawn}
               </Badge>
@@ -146,7 +146,7 @@ export default function ChecklistTemplatePage() {
             <Button variant="default" size="lg" leftSection={<IconPrinter />} onClick={() => void print()} loading={printing}>
               Blank PDF{shown ? ` (v${shown})` : ''}
             </Button>
-            {isChief && !d.retired && (
+            {isChief && !d.withdrawn && (
               <Button component={Link} to={`/checklists/templates/${d.id}/edit`} size="lg" leftSection={<IconPencil />}>
                 {d.hasDraft ? 'Continue the revision' : 'Edit'}
               </Button>
@@ -189,7 +189,7 @@ export default function ChecklistTemplatePage() {
               <Table.Tr key={x.version}>
                 <Table.Td className="cj-num">{x.version}</Table.Td>
                 <Table.Td>
-                  {new Date(x.publishedAt).toLocaleString(undefined, {
+                  {new Date(x.issuedAt).toLocaleString(undefined, {
                     day: 'numeric',
                     month: 'short',
                     year: 'numeric',
@@ -197,7 +197,7 @@ export default function ChecklistTemplatePage() {
                     minute: '2-digit',
                   })}
                 </Table.Td>
-                <Table.Td>{x.publishedByName}</Table.Td>
+                <Table.Td>{x.issuedByName}</Table.Td>
                 <Table.Td>{x.changeNote || '—'}</Table.Td>
               </Table.Tr>
             ))}
@@ -208,16 +208,16 @@ export default function ChecklistTemplatePage() {
         <Group mt="xl">
           <Button
             variant="subtle"
-            color={d.retired ? undefined : 'signal'}
-            loading={write.retire.isPending}
+            color={d.withdrawn ? undefined : 'signal'}
+            loading={write.withdraw.isPending}
             onClick={() =>
-              write.retire.mutate(
-                { id: d.id, retired: !d.retired },
+              write.withdraw.mutate(
+                { id: d.id, withdrawn: !d.withdrawn },
                 { onError: (e) => notifications.show({ color: 'signal', title: 'Not changed', message: errorText(e) }) },
               )
             }
           >
-            {d.retired
+            {d.withdrawn
               ? `${CHECKLIST_TEMPLATE_WORDS.reissue} this template`
               : `${CHECKLIST_TEMPLATE_WORDS.withdraw} this template (no longer asked for)`}
           </Button>

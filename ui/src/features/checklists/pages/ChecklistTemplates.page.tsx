@@ -83,7 +83,7 @@ export default function ChecklistTemplatesPage() {
                 {c.row.original.currentVersion > 0 ? CHECKLIST_TEMPLATE_WORDS.revision : CHECKLIST_TEMPLATE_STATE_WORDS.in_preparation}
               </Badge>
             )}
-            {c.row.original.retired && (
+            {c.row.original.withdrawn && (
               <Badge variant="outline" color="gray">
                 {CHECKLIST_TEMPLATE_STATE_WORDS.withdrawn}
               </Badge>

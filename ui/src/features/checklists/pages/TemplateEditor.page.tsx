@@ -241,7 +241,7 @@ export default function TemplateEditorPage() {
   const [content, setContent] = useState<ChecklistTemplateContent | null>(id ? null : BLANK);
   const [dirty, setDirty] = useState(false);
   const [errors, setErrors] = useState<string[]>([]);
-  const [publishing, setPublishing] = useState(false);
+  const [issuing, setIssuing] = useState(false);
   const [note, setNote] = useState('');
 
   useEffect(() => {
@@ -272,7 +272,7 @@ export default function TemplateEditorPage() {
     const body = tidyContent(content);
     if (!id) {
       write.create.mutate(
-        { ...body, engineId, publish: false },
+        { ...body, engineId, issue: false },
         {
           onSuccess: (t) => {
             setDirty(false);
@@ -297,13 +297,13 @@ export default function TemplateEditorPage() {
       },
     );
   };
-  const publish = () => {
+  const issue = () => {
     const go = (tid: string) =>
-      write.publish.mutate(
+      write.issue.mutate(
         { id: tid, changeNote: note },
         {
           onSuccess: (t) => {
-            setPublishing(false);
+            setIssuing(false);
             notifications.show({
               title: `Version ${t.currentVersion} issued`,
               message: 'New checklists use it; completed ones keep theirs.',
@@ -311,7 +311,7 @@ export default function TemplateEditorPage() {
             void navigate(`/checklists/templates/${t.id}`);
           },
           onError: (e) => {
-            setPublishing(false);
+            setIssuing(false);
             fail(e);
           },
         },
@@ -319,7 +319,7 @@ export default function TemplateEditorPage() {
     if (!id || dirty || !existing.data?.hasDraft) saveDraft(go);
     else go(id);
   };
-  const busy = write.create.isPending || write.saveDraft.isPending || write.publish.isPending;
+  const busy = write.create.isPending || write.saveDraft.isPending || write.issue.isPending;
 
   return (
     <>
@@ -467,8 +467,8 @@ export default function TemplateEditorPage() {
       </Stack>
 
       <Modal
-        opened={publishing}
-        onClose={() => setPublishing(false)}
+        opened={issuing}
+        onClose={() => setIssuing(false)}
         title={
           <Text fw={700} fz="lg">
             {CHECKLIST_TEMPLATE_WORDS.issue} version {nextVersion}?
@@ -491,10 +491,10 @@ export default function TemplateEditorPage() {
             data-autofocus
           />
           <Group justify="flex-end">
-            <Button variant="default" size="lg" onClick={() => setPublishing(false)}>
+            <Button variant="default" size="lg" onClick={() => setIssuing(false)}>
               Cancel
             </Button>
-            <Button size="lg" loading={busy} onClick={publish}>
+            <Button size="lg" loading={busy} onClick={issue}>
               {CHECKLIST_TEMPLATE_WORDS.issue} version {nextVersion}
             </Button>
           </Group>
@@ -536,7 +536,7 @@ export default function TemplateEditorPage() {
           >
             Save, keep in preparation
           </Button>
-          <Button size="xl" h={60} onClick={() => setPublishing(true)} disabled={busy || (!!id && !dirty && !existing.data?.hasDraft)}>
+          <Button size="xl" h={60} onClick={() => setIssuing(true)} disabled={busy || (!!id && !dirty && !existing.data?.hasDraft)}>
             {CHECKLIST_TEMPLATE_WORDS.issue} version {nextVersion}
           </Button>
         </Group>

@@ -19,7 +19,7 @@ todayPanels.push({ key: 'runs', roles: ROLES, Component: ShiftNow });
 // The mill lead's day: runs to log passes on and the open customer lots.
 todayPanels.push({ key: 'mill', roles: ['mill_lead', 'chief_engineer'], Component: MillToday });
 
-// What is due or overdue, and bearings that drifted: the maintenance lead's and the chief engineer's start screen.
+// What is due or overrun, and bearings that drifted: the maintenance lead's and the chief engineer's start screen.
 todayPanels.push({ key: 'maintenance', roles: ['maintenance_lead', 'chief_engineer'], Component: TodayMaintenance });
 
 // Qualifications that have ended or end soon: everyone's own; the crew's for the chief engineer.

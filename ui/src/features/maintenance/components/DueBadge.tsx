@@ -6,7 +6,7 @@ import { DUE_STATUS_LABELS, type DueStatus } from '@crankjournal/shared-types';
 const noCut = { root: { overflow: 'visible', flexShrink: 0 }, label: { overflow: 'visible' } } as const;
 
 export function DueBadge({ status, size = 'md' }: { status: DueStatus; size?: 'sm' | 'md' | 'lg' }) {
-  if (status === 'overdue')
+  if (status === 'overrun')
     return (
       <Badge
         color="signal"
@@ -14,12 +14,12 @@ export function DueBadge({ status, size = 'md' }: { status: DueStatus; size?: 's
         size={size}
         styles={noCut}
         leftSection={<IconAlertOctagon size={14} />}
-        data-testid="due-overdue"
+        data-testid="due-overrun"
       >
-        {DUE_STATUS_LABELS.overdue}
+        {DUE_STATUS_LABELS.overrun}
       </Badge>
     );
-  if (status === 'due_soon')
+  if (status === 'coming_due')
     return (
       <Badge
         color="amber"
@@ -27,14 +27,14 @@ export function DueBadge({ status, size = 'md' }: { status: DueStatus; size?: 's
         size={size}
         styles={noCut}
         leftSection={<IconAlertTriangle size={14} />}
-        data-testid="due-soon"
+        data-testid="due-coming"
       >
-        {DUE_STATUS_LABELS.due_soon}
+        {DUE_STATUS_LABELS.coming_due}
       </Badge>
     );
   return (
     <Badge color="gray" variant="outline" size={size} styles={noCut} leftSection={<IconCheck size={14} />}>
-      {DUE_STATUS_LABELS.ok}
+      {DUE_STATUS_LABELS.in_hand}
     </Badge>
   );
 }

@@ -10,13 +10,13 @@ describe('the due list', () => {
     signOut();
   });
 
-  it('marks an overdue plan by word, with how far over, and a due-soon one apart from the ones in date', () => {
+  it('marks an overrun plan by word, with how far over, and a coming-due one apart from the ones in hand', () => {
     render(
       <DueList
         plans={[
-          plan('p1', 'Main bearing 1 clearance', 'overdue', -45),
-          plan('p2', 'Governor', 'due_soon', 1.4),
-          plan('p3', 'Crank webs', 'ok', 500),
+          plan('p1', 'Main bearing 1 clearance', 'overrun', -45),
+          plan('p2', 'Governor', 'coming_due', 1.4),
+          plan('p3', 'Crank webs', 'in_hand', 500),
         ]}
       />,
     );
@@ -26,24 +26,24 @@ describe('the due list', () => {
     expect(within(rows[1]).getByText('Coming due')).toBeInTheDocument();
     expect(within(rows[1]).getByText(/1 day left/)).toBeInTheDocument();
     expect(within(rows[2]).getByText('In hand')).toBeInTheDocument();
-    expect(rows[0]).toHaveAttribute('data-status', 'overdue');
+    expect(rows[0]).toHaveAttribute('data-status', 'overrun');
   });
 
-  it('an overdue plan on revolutions with no rate shows no date, only that it is overdue and cannot be dated', () => {
-    const p = plan('p1', 'Crosshead guides', 'overdue', -45);
-    p.due = { ...p.due, governing: 'revolutions', dueDate: null, dueDateNote: 'overdue on revolutions; when it fell due is not known' };
+  it('an overrun plan on revolutions with no rate shows no date, only that it is overrun and cannot be dated', () => {
+    const p = plan('p1', 'Crosshead guides', 'overrun', -45);
+    p.due = { ...p.due, governing: 'revolutions', dueDate: null, dueDateNote: 'overrun on revolutions; when it fell due is not known' };
     render(<DueList plans={[p]} />);
     const cell = screen.getByTestId('due-date');
     expect(cell).toHaveTextContent('—');
-    expect(cell).toHaveTextContent('overdue on revolutions; when it fell due is not known');
+    expect(cell).toHaveTextContent('overrun on revolutions; when it fell due is not known');
   });
 
-  it('on the Today screen shows only what needs someone, overdue marked, and bearings that drifted', async () => {
+  it('on the Today screen shows only what needs someone, overrun marked, and bearings that drifted', async () => {
     signIn('maintenance_lead', { id: 'u1', email: 'm@alderforge.example', displayName: 'Test Lead', unitSystem: 'imperial' });
     stubFetch({
       '*': { imperial: {}, metric: {} },
       '/maintenance/due*': {
-        items: [plan('p1', 'Main bearing 1 clearance', 'overdue', -45), plan('p3', 'Crank webs', 'ok', 500)],
+        items: [plan('p1', 'Main bearing 1 clearance', 'overrun', -45), plan('p3', 'Crank webs', 'in_hand', 500)],
         ruleText: 'Whichever comes first.',
         generatedAt: '2026-12-01T00:00:00Z',
       },
@@ -65,7 +65,7 @@ describe('the due list', () => {
     });
     render(<TodayMaintenance />);
     await waitFor(() => expect(screen.getByText('Main bearing 1 clearance')).toBeInTheDocument());
-    expect(screen.getByTestId('due-overdue')).toHaveTextContent('Overrun');
+    expect(screen.getByTestId('due-overrun')).toHaveTextContent('Overrun');
     expect(screen.queryByText('Crank webs')).not.toBeInTheDocument();
     await waitFor(() => expect(screen.getByRole('link', { name: 'Main bearing 2' })).toHaveAttribute('href', '/maintenance/bearings/b2'));
     expect(screen.getByTestId('drift-flag')).toHaveTextContent('Drift');

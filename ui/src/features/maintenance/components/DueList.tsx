@@ -64,7 +64,7 @@ export function DueList({
                 <Table.Td className="cj-num" data-testid="due-date">
                   {p.due.dueDate ? day(p.due.dueDate) : '—'}
                   {p.due.dueDateNote && (
-                    <Text fz="xs" c={p.due.status === 'overdue' ? 'var(--cj-signal)' : 'dimmed'}>
+                    <Text fz="xs" c={p.due.status === 'overrun' ? 'var(--cj-signal)' : 'dimmed'}>
                       {p.due.dueDateNote}
                     </Text>
                   )}

@@ -8,13 +8,13 @@ import { DueList } from './DueList';
 import { DriftBadge } from './DriftBadge';
 
 /**
- * The Today panel of the maintenance lead and the chief engineer: inspections overdue or due soon (overdue
+ * The Today panel of the maintenance lead and the chief engineer: inspections overrun or coming due (overrun
  * first), and bearings whose latest run was flagged by the drift rule. Calm when all is in date.
  */
 export function TodayMaintenance() {
   const due = useQuery(dueListQuery());
   const bearings = useQuery(bearingsQuery());
-  const needs = (due.data?.items ?? []).filter((p) => p.due.status !== 'ok');
+  const needs = (due.data?.items ?? []).filter((p) => p.due.status !== 'in_hand');
   const drifting = (bearings.data ?? []).filter((b) => b.latestRunDrift);
   return (
     <Card withBorder padding="lg" radius="md" data-testid="today-maintenance">

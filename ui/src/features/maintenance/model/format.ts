@@ -36,4 +36,4 @@ export function remainingText(c: DueCriterionDto): string {
   return c.remaining <= 0 ? `${fmt(amount, d)} ${unit} over` : `${fmt(amount, d)} ${unit} left`;
 }
 
-export const DUE_ORDER: Record<DueStatus, number> = { overdue: 0, due_soon: 1, ok: 2 };
+export const DUE_ORDER: Record<DueStatus, number> = { overrun: 0, coming_due: 1, in_hand: 2 };

@@ -8,17 +8,17 @@ import { useHasRole } from '../../auth/useSession';
 import { dueListQuery } from '../api/maintenance.api';
 import { DueList } from '../components/DueList';
 
-/** /maintenance — every active inspection plan with what is due, overdue first. */
+/** /maintenance — every active inspection plan with what is due, overrun first. */
 export default function MaintenanceOverviewPage() {
   const canWrite = useHasRole('maintenance_lead', 'chief_engineer');
   const { data, isLoading, error } = useQuery(dueListQuery());
-  const overdue = data?.items.filter((p) => p.due.status === 'overdue').length ?? 0;
-  const soon = data?.items.filter((p) => p.due.status === 'due_soon').length ?? 0;
+  const overrun = data?.items.filter((p) => p.due.status === 'overrun').length ?? 0;
+  const soon = data?.items.filter((p) => p.due.status === 'coming_due').length ?? 0;
   return (
     <Stack gap="lg">
       <PageHeader
         title="Due and plans"
-        subtitle={data ? `${overdue} overrun · ${soon} coming due · ${data.items.length} plans` : undefined}
+        subtitle={data ? `${overrun} overrun · ${soon} coming due · ${data.items.length} plans` : undefined}
         action={
           canWrite && (
             <Group gap="sm">
