@@ -82,8 +82,8 @@ describe('visitor boards', () => {
       process.env[k] = v;
     }
     t = await startTestApp();
-    chief = await login(t, 'chief_engineer', { displayName: 'Chief Visible-Name' });
-    operator = await login(t, 'operator', { displayName: 'Operator Visible-Name' });
+    chief = await login(t, 'chief_engineer', { displayName: `Chief Visible-Name ${randomUUID().slice(0, 8)}` });
+    operator = await login(t, 'operator', { displayName: `Operator Visible-Name ${randomUUID().slice(0, 8)}` });
     observer = await login(t, 'observer');
     engine = await createEngine(t, chief);
     run = await createPreparingRun(t, chief, engine.id, { title: 'Open day test run' });

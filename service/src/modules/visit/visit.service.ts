@@ -33,6 +33,9 @@ import { CardSetsService } from '../indicator-cards/card-sets.service.js';
 import { StorageService } from '../storage/storage.service.js';
 import { VisitorBoard } from './visitor-board.entity.js';
 
+/** Between instances: a board's visitors are to be ended (its id). */
+const END_BOARD = 'visit:end-board';
+
 /** The public namespace's server: it only ever sends (VisitServerToClientEvents); `data.boardId` is the board a visitor watches. */
 export type VisitNamespace = Namespace<Record<string, never>, VisitServerToClientEvents, Record<string, never>, { boardId: string }>;
 
@@ -296,6 +299,10 @@ export class VisitService implements OnModuleDestroy {
 
   attach(server: VisitNamespace) {
     this.server = server;
+    // Another instance ended a board (switched off or given a new address): end its visitors here too.
+    server.on(END_BOARD, (boardId: unknown) => {
+      if (typeof boardId === 'string') this.endLocalViewers(boardId);
+    });
     this.timer = setInterval(() => void this.sendFigures(), FIGURES_EVERY_MS);
     this.timer.unref();
   }
@@ -328,10 +335,21 @@ export class VisitService implements OnModuleDestroy {
     }
   }
 
+  /**
+   * Ends a board's visitors on every instance. Each instance tells its own visitors and then disconnects them: a
+   * broadcast through the adapter reaches this instance's sockets only after the database has carried it, by which
+   * time a cluster-wide disconnect would already have closed them, and the visitors would miss the reason.
+   */
   private endViewers(boardId: string) {
     if (!this.server) return;
-    this.server.to(boardRoom(boardId)).emit('visit:ended', { message: ENDED });
-    this.server.in(boardRoom(boardId)).disconnectSockets(false);
+    this.endLocalViewers(boardId);
+    this.server.serverSideEmit(END_BOARD, boardId);
+  }
+
+  private endLocalViewers(boardId: string) {
+    if (!this.server) return;
+    this.server.local.to(boardRoom(boardId)).emit('visit:ended', { message: ENDED });
+    this.server.local.in(boardRoom(boardId)).disconnectSockets(false);
   }
 }
 
