@@ -34,7 +34,9 @@ async function ok<T>(r: Promise<import('@playwright/test').APIResponse>): Promis
 /** A copy of the demo engine under a new name, an issued checklist for it (a tick and a photo), and a preparing run. */
 async function engineWithRun(request: APIRequestContext, chief: string, op: string, name: string) {
   const engines = await ok<EngineDetail[]>(request.get('/api/engines', { headers: auth(chief) }));
-  const demo = await ok<EngineDetail>(request.get(`/api/engines/${engines[0].id}`, { headers: auth(chief) }));
+  // The demo's engine by its name: other browser tests add engines of their own, which may sort first.
+  const demoId = (engines.find((e) => e.name === 'No. 2 engine') ?? engines[0]).id;
+  const demo = await ok<EngineDetail>(request.get(`/api/engines/${demoId}`, { headers: auth(chief) }));
   const strip = <T extends { id?: string }>(xs: T[]) => xs.map(({ id: _id, ...rest }) => rest);
   const engine = await ok<EngineDetail>(
     request.post('/api/engines', {
