@@ -502,7 +502,7 @@ describe('the mill (API)', () => {
       expect((await signedIn(t, observer).get(`/api/mill/lots/${lot.id}`)).body.latestQuoteTotal).toBe(17520.25);
     });
 
-    it('the quote is a PDF, and e-mailing it sends the PDF to the customer and marks an enquiry quoted', async () => {
+    it('the quote is a PDF, and e-mailing it sends the PDF to the customer and marks a lot on the slate priced', async () => {
       const body = lotBody();
       const lot = (await signedIn(t, lead).post('/api/mill/lots').send(body)).body as LotDetail;
       const q = (await signedIn(t, lead).post(`/api/mill/lots/${lot.id}/quotes`).send({ engineHours: 2, crewHours: 3 })).body as QuoteDto;

@@ -2,7 +2,7 @@ import { Column, CreateDateColumn, Entity, Index, PrimaryGeneratedColumn, Update
 import type { LotStatus, ProductShape } from '@crankjournal/shared-types';
 import { numeric } from '../../common/transformers/numeric.transformer.js';
 
-/** A small customer lot, from enquiry to delivery. */
+/** A small customer lot, from the slate to dispatch. */
 @Entity({ name: 'mill_lots' })
 export class CustomerLot {
   @PrimaryGeneratedColumn('uuid') id: string;

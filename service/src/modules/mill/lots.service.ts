@@ -150,7 +150,7 @@ export class LotsService {
     return this.users.displayNames(ids);
   }
 
-  /** A bar-lot number (BL26-014), numbered per year of the enquiry. */
+  /** A bar-lot number (BL26-014), numbered per year it went on the slate. */
   private async nextReference(m: EntityManager, at: Date): Promise<string> {
     const year = at.getUTCFullYear();
     await m.query(`SELECT pg_advisory_xact_lock(hashtext('mill_lots_reference'))`);

@@ -9,7 +9,7 @@ import { useCreateLot } from '../api/mill.api';
 type Num = number | '';
 const n = (v: Num) => (v === '' ? (undefined as unknown as number) : Number(v));
 
-/** "New enquiry": a customer's lot as first asked for. */
+/** "Put a lot on the slate": a customer's lot as first asked for. */
 export function NewLotButton() {
   const [open, setOpen] = useState(false);
   const create = useCreateLot();
@@ -46,9 +46,9 @@ export function NewLotButton() {
   return (
     <>
       <Button size="lg" leftSection={<IconPlus />} onClick={() => setOpen(true)}>
-        New enquiry
+        Put a lot on the slate
       </Button>
-      <Modal opened={open} onClose={() => setOpen(false)} title="New enquiry" size="xl">
+      <Modal opened={open} onClose={() => setOpen(false)} title="A lot on the slate" size="xl">
         <Stack>
           <SimpleGrid cols={{ base: 1, sm: 3 }}>
             <TextInput label="Customer" value={f.customerName} onChange={(e) => setF({ ...f, customerName: e.currentTarget.value })} />
@@ -112,7 +112,7 @@ export function NewLotButton() {
               Cancel
             </Button>
             <Button onClick={submit} loading={create.isPending}>
-              Record the enquiry
+              Put it on the slate
             </Button>
           </Group>
         </Stack>

@@ -15,7 +15,7 @@ import { NewLotButton } from '../components/LotForm';
 
 const col = columnHelper<LotSummary>();
 
-/** /mill/lots: small customer lots from enquiry to delivery. */
+/** /mill/lots: small customer lots from the slate to dispatch. */
 export default function LotsPage() {
   const canWrite = useHasRole(...MILL_WRITERS);
   const { data, isLoading, error } = useQuery(lotsQuery());
@@ -69,7 +69,7 @@ export default function LotsPage() {
     <>
       <PageHeader
         title="Customer lots"
-        subtitle="Short paid lots: enquiry → quoted → accepted → scheduled → rolled → inspected → delivered, one step at a time."
+        subtitle="Short paid lots: on the slate → priced → ordered → on the roll plan → rolled → passed → dispatched."
         action={canWrite && <NewLotButton />}
       />
       <DataTable data={data} columns={columns} caption="Customer lots" empty="No lots yet." getRowId={(l) => l.id} />
