@@ -689,7 +689,12 @@ describe('transport security headers, the API description and mail over TLS', ()
     const res = await fetch(`${t.url}/api/docs-json`, { headers: authHeader(s.observer.token) });
     expect(res.status).toBe(200);
     expect(((await res.json()) as { openapi?: string }).openapi).toMatch(/^3\./);
-    const secret = { JWT_SECRET: 'a-secret-of-our-own-1234' };
+    // A production start also needs the payment service's own keys (the stand-in's are refused).
+    const secret = {
+      JWT_SECRET: 'a-secret-of-our-own-1234',
+      PAYMENTS_API_KEY: 'sk_test_a-key-of-our-own',
+      PAYMENTS_WEBHOOK_SECRET: 'whsec_a-secret-of-our-own',
+    };
     expect(validateEnvironment({ NODE_ENV: 'production', ...secret }).API_DOCS).toBe('off');
     expect(validateEnvironment({ NODE_ENV: 'development', ...secret }).API_DOCS).toBe('public');
     expect(validateEnvironment({ NODE_ENV: 'production', API_DOCS: 'signed-in', ...secret }).API_DOCS).toBe('signed-in');
