@@ -1,10 +1,18 @@
 import { Injectable, Logger, type OnModuleDestroy, type OnModuleInit } from '@nestjs/common';
 import type { EntityManager } from 'typeorm';
+import pg from 'pg';
 import PgBoss from 'pg-boss';
 import { AppConfig } from '../../config/app-config.service.js';
 
 /** The schema the job queue keeps its tables in (created and migrated by the queue itself at start-up). */
 export const JOBS_SCHEMA = 'pgboss';
+
+/**
+ * Setting up the queue (its schema at start, a queue's table when it is first made) takes locks on shared tables;
+ * two instances starting at once against the same database could deadlock there. Every set-up step therefore
+ * holds one cluster-wide advisory lock (any number), so instances set up one after another.
+ */
+const SETUP_LOCK_KEY = 'crankjournal:job-queue-setup';
 
 /** Retry settings of a queue: tries after the first, seconds before the first retry, doubling (with jitter) or not. */
 export interface RetryPolicy {
@@ -49,8 +57,20 @@ export class JobsService implements OnModuleInit, OnModuleDestroy {
   }
 
   async onModuleInit() {
-    await this.boss.start();
+    await this.oneInstanceAtATime(() => this.boss.start());
     this.started = true;
+  }
+
+  /** Runs a set-up step under the cluster-wide set-up lock (see SETUP_LOCK_KEY), on a connection of its own. */
+  private async oneInstanceAtATime<T>(step: () => Promise<T>): Promise<T> {
+    const client = new pg.Client({ connectionString: this.config.get('DATABASE_URL'), application_name: 'crankjournal-jobs-setup' });
+    await client.connect();
+    try {
+      await client.query('SELECT pg_advisory_lock(hashtext($1))', [SETUP_LOCK_KEY]);
+      return await step();
+    } finally {
+      await client.end().catch(() => undefined);
+    }
   }
 
   async onModuleDestroy() {
@@ -61,8 +81,10 @@ export class JobsService implements OnModuleInit, OnModuleDestroy {
 
   /** Creates the queue if it is not there, and sets its retry policy. */
   async queue(name: string, retry: RetryPolicy): Promise<void> {
-    if (!(await this.boss.getQueue(name))) await this.boss.createQueue(name, { name, ...retry });
-    else await this.boss.updateQueue(name, { name, ...retry });
+    await this.oneInstanceAtATime(async () => {
+      if (!(await this.boss.getQueue(name))) await this.boss.createQueue(name, { name, ...retry });
+      else await this.boss.updateQueue(name, { name, ...retry });
+    });
   }
 
   /**
