@@ -3,7 +3,7 @@
 // Node 20 lets CommonJS require() an ES module, but Jest's module runtime only does so on Node 24.9+,
 // so under Jest `require("@nestjs/common")` inside @nestjs/throttler fails ("Must use import to load
 // ES Module"). This transform points those require() calls at the very ES module instances the app
-// itself imported (test/utils/test-app.ts puts them on globalThis before importing the app), so
+// itself imported (test/utils/esm-bridge.setup.ts puts them on globalThis before each test file), so
 // decorators, Reflector and class identity stay shared. Tests only; the built service is unaffected.
 const { createHash } = require('node:crypto');
 
@@ -16,7 +16,7 @@ module.exports = {
     BRIDGED.lastIndex = 0;
     const prelude =
       `const __esmBridge = (name) => { const m = globalThis.${KEY} && globalThis.${KEY}[name]; ` +
-      `if (!m) throw new Error('ES module ' + name + ' is not bridged: start the app through startTestApp() (test/utils/test-app.ts)'); return m; };`;
+      `if (!m) throw new Error('ES module ' + name + ' is not bridged: the Jest project must list test/utils/esm-bridge.setup.ts in setupFiles'); return m; };`;
     const body = sourceText.replace(BRIDGED, (_, name) => `__esmBridge(${JSON.stringify(name)})`);
     // The prelude goes on the first line (after a "use strict" directive), so line numbers stay right.
     const strict = body.match(/^\s*(["'])use strict\1;?/);

@@ -75,13 +75,7 @@ export interface TestApp {
  */
 export async function startTestApp(): Promise<TestApp> {
   applyTestEnv();
-  // The app's own instances of these ES modules, for the one CommonJS package that require()s them
-  // (see test/utils/esm-require-bridge.cjs). Must be set before the app module is imported.
-  const bridge = globalThis as { __crankjournalEsmBridge?: Record<string, unknown> };
-  bridge.__crankjournalEsmBridge ??= {
-    '@nestjs/common': await import('@nestjs/common'),
-    '@nestjs/core': await import('@nestjs/core'),
-  };
+  // The ES module bridge for @nestjs/throttler is set before every test file (test/utils/esm-bridge.setup.ts).
   // Imported only now: the data source reads DATABASE_URL and the config module reads the environment
   // when their modules are first evaluated.
   const { default: db } = await import('../../src/database/data-source.js');
