@@ -7,8 +7,8 @@ import { AppConfig } from '../../config/app-config.service.js';
 /** The PostgreSQL channel every instance listens on for cache invalidations. */
 export const CACHE_CHANNEL = 'crankjournal_cache';
 
-/** What a cache holds: engines (limits, points), people (role, session version, name), logger keys. */
-export type CacheTopic = 'engine' | 'user' | 'logger';
+/** What a cache holds: engines (limits, points), people (role, session version, name), logger keys, runs taking readings. */
+export type CacheTopic = 'engine' | 'user' | 'logger' | 'run';
 
 type Listener = (key: string | null) => void;
 

@@ -24,6 +24,7 @@ import { LiveService } from '../live/live.service.js';
 import { AuthService } from '../auth/auth.service.js';
 import { UsersService } from '../users/users.service.js';
 import { AlarmsService } from '../alarms/alarms.service.js';
+import { ClusterService } from '../cluster/cluster.service.js';
 import type { AuthUser } from '../../common/decorators/current-user.decorator.js';
 import { revolutionsFromSpeedRecord, runningSeconds } from '../../calculations/run-derived.js';
 import { KeyedMutex } from '../../common/util/keyed-mutex.js';
@@ -45,9 +46,6 @@ const TRANSITION_ROLES: Record<Exclude<RunState, 'planned'>, Role[]> = {
 /** A started run as the maintenance histories need it. */
 export type RunOutline = Pick<RunSummary, 'id' | 'title' | 'state' | 'runningSeconds'> & { startedAt: string };
 
-/** How long a live reading's run may be taken from memory before it is read again (RunsService.forReadings). */
-const RUN_FACTS_TTL_MS = 5_000;
-
 /** What other modules read of a run (a stored run satisfies it); they never import the entity. */
 export interface RunRecord {
   id: string;
@@ -64,8 +62,8 @@ export class RunsService {
   /** Per engine: one change of its runs' state at a time in this process (the database locks hold across processes). */
   private readonly mutex = new KeyedMutex();
   private readonly logger = new Logger('Runs');
-  /** Runs that take readings, as forReadings last read them. */
-  private readonly takingReadings = new Map<string, { run: Run; at: number }>();
+  /** Runs that take readings, as forReadings last read them; dropped on every instance when a run changes. */
+  private readonly takingReadings = new Map<string, Run>();
 
   constructor(
     @InjectDataSource() private readonly db: DataSource,
@@ -77,19 +75,21 @@ export class RunsService {
     private readonly auth: AuthService,
     private readonly alarms: AlarmsService,
     private readonly users: UsersService,
-  ) {}
+    private readonly cluster: ClusterService,
+  ) {
+    cluster.on('run', (id) => (id ? this.takingReadings.delete(id) : this.takingReadings.clear()));
+  }
 
   /**
-   * The run a live reading is for, read from the database at most every RUN_FACTS_TTL_MS per run: its id, engine
-   * and creation time never change, and its state may be that old, so the storing transaction reads the state
-   * again (and that is the one used). Forgotten at once when this instance changes the run.
+   * The run a live reading is for, kept in memory while it takes readings: every change of a run is announced to
+   * every instance (ClusterService, at commit), which drops it. The storing transaction still reads the run's state
+   * again under its lock, and that is the state used.
    */
   async forReadings(id: string): Promise<Run> {
     const hit = this.takingReadings.get(id);
-    if (hit && Date.now() - hit.at < RUN_FACTS_TTL_MS) return hit.run;
+    if (hit) return hit;
     const r = await this.get(id);
-    if (RUN_STATES_TAKING_READINGS.includes(r.state)) this.takingReadings.set(id, { run: r, at: Date.now() });
-    else this.takingReadings.delete(id);
+    if (RUN_STATES_TAKING_READINGS.includes(r.state)) this.takingReadings.set(id, r);
     return r;
   }
 
@@ -266,7 +266,7 @@ export class RunsService {
     if (dto.crewIds !== undefined) patch.crewIds = [...new Set(dto.crewIds)];
     if (dto.notes !== undefined) patch.notes = dto.notes;
     await this.runRepo.update({ id }, patch);
-    this.takingReadings.delete(id);
+    await this.cluster.announce('run', id);
     void user;
     return this.broadcast(id);
   }
@@ -358,7 +358,7 @@ export class RunsService {
       }
       if (to === 'abandoned') cur.abandonedReason = dto.note!.trim();
       await m.save(Run, cur);
-      this.takingReadings.delete(id);
+      await this.cluster.announce('run', id, m);
       await m.insert(RunStateChange, {
         runId: id,
         fromState: run0.state,
