@@ -79,6 +79,8 @@ start_server() {
     VISIT_RATE_LIMIT_PER_MINUTE=100000 \
     SMTP_HOST=127.0.0.1 SMTP_PORT="$SMTP_PORT" MAIL_INBOX_URL="http://127.0.0.1:$MAIL_HTTP_PORT" \
     S3_ENDPOINT="http://127.0.0.1:$S3_PORT" UI_DIST="$UI_OUT" \
+    PAYMENTS_API_KEY="sk_test_bench_$(head -c 12 /dev/urandom | base64 | tr -dc 'A-Za-z0-9')" \
+    PAYMENTS_WEBHOOK_SECRET="whsec_bench_$(head -c 12 /dev/urandom | base64 | tr -dc 'A-Za-z0-9')" \
     exec node "${SERVICE_NODE_FLAGS[@]}" ${BENCH_PROFILE:+--cpu-prof --cpu-prof-dir="$BENCH_PROFILE" -r "$ROOT/bench/exit-on-term.cjs"} dist/main.js >>"$BENCH_SERVER_LOG" 2>&1) &
   SERVER_PID=$!
   for _ in $(seq 1 150); do

@@ -2,7 +2,7 @@
  * Constructed series with known crossing times (worked by hand beside each case). The 10 % tolerance is the
  * product's acceptance figure; Theil–Sen and Kendall's tau after Theil (1950) and Sen (JASA 63, 1968).
  */
-import { forecastTimeToLimit, kendallTau, theilSen, type TimedValue } from './trend-forecast.js';
+import { FORECAST_DEFAULTS, forecastTimeToLimit, kendallTau, theilSen, thinEvenly, type TimedValue } from './trend-forecast.js';
 
 /** Readings every 30 s from t0 to t1 (minutes). */
 function series(t0: number, t1: number, f: (t: number) => number): TimedValue[] {
@@ -111,5 +111,33 @@ describe('time to the limit', () => {
         'high',
       ),
     ).toBeNull();
+  });
+});
+
+describe('dense windows are thinned evenly before the pairwise fits', () => {
+  it('keeps the first and the last and spaces the rest evenly; leaves short lists alone', () => {
+    const xs = Array.from({ length: 601 }, (_, i) => i);
+    const thin = thinEvenly(xs, 121);
+    expect(thin).toHaveLength(121);
+    expect(thin[0]).toBe(0);
+    expect(thin[120]).toBe(600);
+    expect(thin[1]).toBe(5);
+    expect(thinEvenly([1, 2, 3], 121)).toEqual([1, 2, 3]);
+  });
+
+  it('a one-second logger (601 readings in the window) forecasts the same crossing from at most 120 of them', () => {
+    // The same linear rise as above, 100 + 2t °F towards 145, now t = 10: (145 − 120) / 2 = 12.5 min.
+    const dense: TimedValue[] = Array.from({ length: 601 }, (_, i) => ({ tMin: i / 60, value: 100 + 2 * (i / 60) }));
+    const f = forecastTimeToLimit(dense, 10, 145, 'high');
+    within10(f?.minutesToLimit, 12.5);
+    expect(f?.readingsUsed).toBe(FORECAST_DEFAULTS.maxReadings);
+  });
+
+  it('a wild reading among thousands moves nothing, and only 120 of them are fitted', () => {
+    const dense: TimedValue[] = Array.from({ length: 24_000 }, (_, i) => ({ tMin: i / 2400, value: 100 + 2 * (i / 2400) }));
+    dense[12_000] = { ...dense[12_000], value: 900 };
+    const f = forecastTimeToLimit(dense, 10, 145, 'high');
+    within10(f?.minutesToLimit, 12.5);
+    expect(f?.readingsUsed).toBe(120); // all 24,000 pairwise would be 288 million slopes
   });
 });

@@ -29,6 +29,13 @@ export interface ForecastOptions {
   minTau?: number;
   /** Forecasts further ahead than this are not given (minutes); default 120. */
   horizonMinutes?: number;
+  /**
+   * At most this many readings of the window are fitted, taken evenly through it (the first and the last always);
+   * default 120. The pairwise fits grow with the square of the readings: a logger at one reading a second fills a
+   * ten-minute window with 600, a fast live feed with thousands, and two minutes of evenly spaced readings say the
+   * same about a steady trend.
+   */
+  maxReadings?: number;
 }
 
 export interface LimitForecast {
@@ -42,7 +49,7 @@ export interface LimitForecast {
   readingsUsed: number;
 }
 
-export const FORECAST_DEFAULTS = { windowMinutes: 10, minReadings: 6, minTau: 0.6, horizonMinutes: 120 } as const;
+export const FORECAST_DEFAULTS = { windowMinutes: 10, minReadings: 6, minTau: 0.6, horizonMinutes: 120, maxReadings: 120 } as const;
 
 export const FORECAST_METHOD_WORDS =
   'Theil–Sen slopes over the two halves of the last 10 minutes of readings, carried forward; shown only while the ' +
@@ -52,6 +59,14 @@ function median(xs: number[]): number {
   const s = [...xs].sort((a, b) => a - b);
   const m = s.length >> 1;
   return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
+}
+
+/** At most `max` of the readings (in time order), evenly through them, the first and the last always kept. */
+export function thinEvenly<T>(sorted: readonly T[], max: number): T[] {
+  if (sorted.length <= max || max < 2) return [...sorted];
+  const out: T[] = [];
+  for (let i = 0; i < max; i++) out.push(sorted[Math.round((i * (sorted.length - 1)) / (max - 1))]);
+  return out;
 }
 
 /** Theil–Sen line: slope = median of pairwise slopes, intercept = median of value − slope·t. Null under 2 distinct times. */
@@ -93,7 +108,10 @@ export function forecastTimeToLimit(
 ): LimitForecast | null {
   const o = { ...FORECAST_DEFAULTS, ...options };
   const start = nowMin - o.windowMinutes;
-  const pts = readings.filter((r) => Number.isFinite(r.value) && r.tMin >= start && r.tMin <= nowMin).sort((a, b) => a.tMin - b.tMin);
+  const pts = thinEvenly(
+    readings.filter((r) => Number.isFinite(r.value) && r.tMin >= start && r.tMin <= nowMin).sort((a, b) => a.tMin - b.tMin),
+    o.maxReadings,
+  );
   if (pts.length < o.minReadings) return null;
   const span = pts[pts.length - 1].tMin - pts[0].tMin;
   if (span < o.windowMinutes / 2) return null;
