@@ -7,8 +7,7 @@
 // through the database, with no message between the instances. Measured: the time from a reading's arrival (the
 // round's answer) to the first `visit:figures` showing it at each visitor, for all and per instance: the board's
 // designed delay (VISIT_DELAY_SECONDS) plus up to one figures period (2 s) plus the work and the fan-out. Each
-// reading is stamped 20 s after the previous one, so the smoothing window (15 s) holds that reading alone and its
-// value shows as sent.
+// measured reading is stamped STEP_MS after the previous one (see submit).
 // Also measured: each instance's CPU time per second with its visitors connected and the readings coming, against a
 // window of the same length with the same readings and no visitor connected; the difference per visitor of that
 // instance is the cost of one visitor. Without BENCH_BASE2_URL all visitors go to the one instance.
@@ -25,9 +24,16 @@ const HAVE_PIDS = INSTANCES.every((x) => x.pid);
 
 const VISITORS = Number(process.env.B7_VISITORS ?? 500);
 const SUBMISSIONS = Number(process.env.B7_SUBMISSIONS ?? 12);
-const SUBMIT_EVERY_MS = 3_000;
-/** The CPU windows, with and without visitors: the same length, the same readings. */
-const CPU_WINDOW_MS = Math.min(20_000, SUBMISSIONS * SUBMIT_EVERY_MS);
+const SUBMIT_EVERY_MS = 5_000;
+/** Between the stamps of two measured readings: more than the smoothing window (15 s). */
+const STEP_MS = 16_000;
+/**
+ * The CPU windows, with and without visitors: the same length, the same readings. CPU time is counted in 10 ms ticks,
+ * so a long window keeps the per-visitor figure from being a handful of ticks.
+ */
+const CPU_WINDOW_MS = Math.min(60_000, SUBMISSIONS * SUBMIT_EVERY_MS);
+/** CPU per visitor is good to about this (ms/s): one tick either way in each of the two windows, over `visitors`. */
+const tickResolution = (visitors) => round((2 * 10) / (CPU_WINDOW_MS / 1000) / visitors, 4);
 const DELAY_SECONDS = Number(process.env.VISIT_DELAY_SECONDS ?? 5);
 
 const ctx = context();
@@ -95,10 +101,16 @@ async function cpuPerSecond(ms) {
 
 let takenAtMs = Date.now();
 let k = 0;
-/** One reading through the rounds route; resolves with its arrival time (the answer) and its value. */
-async function submit() {
+/**
+ * One reading through the rounds route; resolves with its arrival time (the answer) and its value. A measured
+ * reading is stamped STEP_MS after the one before, so the smoothing window (15 s) holds it alone and the visitors see
+ * its value as sent; the readings of the window without visitors are stamped as they are sent (the service takes
+ * readings up to 5 minutes ahead of its clock, which the measured ones, gaining STEP_MS − SUBMIT_EVERY_MS each,
+ * stay within).
+ */
+async function submit({ measured }) {
   k++;
-  takenAtMs += 20_000;
+  takenAtMs = measured ? takenAtMs + STEP_MS : Math.max(takenAtMs + 1, Date.now());
   const value = 60 + k * 0.5;
   const takenAt = new Date(takenAtMs).toISOString();
   await api(`/api/runs/${run.id}/rounds`, {
@@ -112,7 +124,7 @@ async function submit() {
 // The idle cost first: the same readings, no visitor.
 const idleCpu = HAVE_PIDS
   ? await (async () => {
-      const timer = setInterval(() => void submit(), SUBMIT_EVERY_MS);
+      const timer = setInterval(() => void submit({ measured: false }), SUBMIT_EVERY_MS);
       const c = await cpuPerSecond(CPU_WINDOW_MS);
       clearInterval(timer);
       return c;
@@ -146,7 +158,7 @@ await sleep(3_000);
 
 const loadedCpuPromise = HAVE_PIDS ? cpuPerSecond(CPU_WINDOW_MS) : Promise.resolve(null);
 for (let n = 0; n < SUBMISSIONS; n++) {
-  const { value, arrived } = await submit();
+  const { value, arrived } = await submit({ measured: true });
   pending.set(value, arrived);
   await sleep(SUBMIT_EVERY_MS);
 }
@@ -168,6 +180,7 @@ const cpuOf = (i) => {
     idleSecondsPerSecond: round(idle, 3),
     loadedSecondsPerSecond: round(loaded, 3),
     msPerSecondPerVisitor: idle === null || loaded === null ? null : round(((loaded - idle) * 1000) / onInstance[i], 3),
+    resolutionMsPerSecondPerVisitor: tickResolution(onInstance[i]),
   };
 };
 const perInstance = INSTANCES.map((x, i) => ({
@@ -197,6 +210,8 @@ const result = {
     idleSecondsPerSecond: round(idleAll, 3),
     loadedSecondsPerSecond: round(loadedAll, 3),
     msPerSecondPerVisitor: idleAll === null || loadedAll === null ? null : round(((loadedAll - idleAll) * 1000) / VISITORS, 3),
+    // Two processes: up to a tick either way on each, in each window.
+    resolutionMsPerSecondPerVisitor: tickResolution(VISITORS / INSTANCES.length),
   },
 };
 log(

@@ -133,7 +133,8 @@ if (b6)
   ]);
 if (b7)
   rows.push([
-    `7. Visitor board, ${fmt(b7.visitors)} visitors ${b7.instances > 1 ? `over ${b7.instances} instances` : 'on 1 instance'}, reading to update`,
+    `7. Visitor board, ${fmt(b7.visitors)} visitors ${b7.instances > 1 ? `over ${b7.instances} instances` : 'on 1 instance'}, ` +
+      'reading to update',
     `${fmt(b7.delayMs.median / 1000, 2)} s`,
     `${fmt(b7.delayMs.p99 / 1000, 2)} s`,
     `designed delay ${b7.delaySeconds} s + figures every 2 s`,
@@ -544,7 +545,10 @@ if (b7) {
       'period (2 s); all clients in one bench process (one clock). CPU per visitor: the CPU time (user + system, ' +
       `/proc/<pid>/stat) of each service process per second over ${(b7.cpuWindowMs ?? 20000) / 1000} s with its visitors ` +
       'connected and the readings coming, minus the same over a window of the same length with the same readings and no ' +
-      "visitor connected, divided by that instance's visitors.",
+      "visitor connected, divided by that instance's visitors. CPU time is counted in 10 ms ticks, so each CPU per " +
+      `visitor figure is good to about ±${fmt(b7.cpu.resolutionMsPerSecondPerVisitor ?? null, 4)} ms/s from the counting ` +
+      "alone; each process's own background work (the job queue's polling, timers) falls into one window or the other, " +
+      'so the per-instance figures scatter more than that between runs, and the figure over both instances is the steadier one.',
   );
   md.push('');
   const line = (label, x) => [

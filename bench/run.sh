@@ -32,6 +32,10 @@ export BENCH_BASE2_URL="http://127.0.0.1:$APP2_PORT"
 # One signing secret for every service process of the run (both instances, and the same process restarted), as
 # several instances behind one address need.
 JWT_SECRET="bench-only-secret-$(head -c 12 /dev/urandom | base64 | tr -dc 'A-Za-z0-9')"
+# In production the service refuses the payment stand-in's published keys; no benchmark takes a payment, so keys of
+# the run's own (no payment stand-in is started).
+PAY_KEY="sk_test_bench_only_$(head -c 12 /dev/urandom | base64 | tr -dc 'A-Za-z0-9')"
+PAY_WEBHOOK_SECRET="whsec_bench_only_$(head -c 12 /dev/urandom | base64 | tr -dc 'A-Za-z0-9')"
 export BENCH_ECHO_PORT="$ECHO_PORT"
 
 SERVER_PID=""
@@ -98,6 +102,7 @@ start_instance() {  # start_instance PORT LOG VAR: the built service on PORT, as
   local port="$1" logf="$2" var="$3"
   (cd "$ROOT/service" && NODE_ENV=production DATABASE_URL="$BENCH_DB_URL" PORT="$port" HOST=127.0.0.1 \
     PUBLIC_URL="$BENCH_BASE_URL" JWT_SECRET="$JWT_SECRET" \
+    PAYMENTS_API_KEY="$PAY_KEY" PAYMENTS_WEBHOOK_SECRET="$PAY_WEBHOOK_SECRET" \
     ACCESS_TOKEN_TTL_SECONDS=7200 LOG_LEVEL=warn LOGIN_RATE_LIMIT_PER_MINUTE=100000 LOGIN_ADDRESS_LIMIT_PER_MINUTE=100000 LOGIN_ACCOUNT_LIMIT_PER_HOUR=100000 \
     VISIT_RATE_LIMIT_PER_MINUTE=100000 \
     SMTP_HOST=127.0.0.1 SMTP_PORT="$SMTP_PORT" MAIL_INBOX_URL="http://127.0.0.1:$MAIL_HTTP_PORT" \
