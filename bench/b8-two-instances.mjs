@@ -8,6 +8,7 @@
 //
 // Standalone (not part of bench/run.sh): DATABASE_URL of a migrated database, JWT_SECRET, and free ports:
 //   DATABASE_URL=… JWT_SECRET=… SMTP_PORT=… S3_ENDPOINT=… node bench/b8-two-instances.mjs
+// Writes .data/bench/results/b8.json (BENCH_WORK to change the folder); bench/report.mjs then rewrites section 8.
 import { fork, spawn } from 'node:child_process';
 import { randomUUID } from 'node:crypto';
 import { createServer } from 'node:net';
@@ -16,7 +17,7 @@ import { performance } from 'node:perf_hooks';
 import jwt from 'jsonwebtoken';
 import pg from 'pg';
 import { io } from 'socket.io-client';
-import { ROOT, round, sleep, stats } from './lib.mjs';
+import { ROOT, round, sleep, stats, writeResult } from './lib.mjs';
 
 const VIEWERS = Number(process.env.B7_VIEWERS ?? 500);
 const RATE = Number(process.env.B7_RATE ?? 20);
@@ -197,14 +198,12 @@ try {
   const run = await call('/api/runs', operator, { engineId: engine.id, purpose: 'test', title: 'Open day' });
   await call(`/api/runs/${run.id}/transitions`, operator, { to: 'preparing' });
   const service = await measure('service: two instances', [a, b], operator, run.id, engine.measurementPoints[0].id);
-  console.log(
-    JSON.stringify({
-      ratio: {
-        median: round(service.latencyMs.median / baseline.latencyMs.median, 1),
-        p99: round(service.latencyMs.p99 / baseline.latencyMs.p99, 1),
-      },
-    }),
-  );
+  const ratio = {
+    median: round(service.latencyMs.median / baseline.latencyMs.median, 1),
+    p99: round(service.latencyMs.p99 / baseline.latencyMs.p99, 1),
+  };
+  console.log(JSON.stringify({ ratio }));
+  writeResult('b8', { design: { viewers: VIEWERS, rate: RATE, warmupMs: WARMUP_MS, measureMs: MEASURE_MS }, baseline, service, ratio });
 } finally {
   for (const i of instances) i.kill('SIGTERM');
 }

@@ -14,6 +14,7 @@ const b4d = readResult('b4-data');
 const b5 = readResult('b5');
 const b6 = readResult('b6');
 const b7 = readResult('b7');
+const b8 = readResult('b8');
 const failed = (n) =>
   existsSync(join(WORK, 'results', `b${n}.failed.json`))
     ? JSON.parse(readFileSync(join(WORK, 'results', `b${n}.failed.json`), 'utf8'))
@@ -132,12 +133,23 @@ if (b6)
   ]);
 if (b7)
   rows.push([
-    `7. Visitor board, ${fmt(b7.visitors)} visitors (${b7.instances} instance), reading to update`,
+    `7. Visitor board, ${fmt(b7.visitors)} visitors ${b7.instances > 1 ? `over ${b7.instances} instances` : 'on 1 instance'}, ` +
+      'reading to update',
     `${fmt(b7.delayMs.median / 1000, 2)} s`,
     `${fmt(b7.delayMs.p99 / 1000, 2)} s`,
     `designed delay ${b7.delaySeconds} s + figures every 2 s`,
     `CPU ${fmt(b7.cpu.msPerSecondPerVisitor, 3)} ms/s per visitor`,
     '(none)',
+    '—',
+  ]);
+if (b8)
+  rows.push([
+    `8. Reading to alarm, ${fmt(b8.design.viewers)} viewers on two instances (${fmt(b8.design.rate)} readings/s)`,
+    `${fmt(b8.service.latencyMs.median, 1)} ms`,
+    `${fmt(b8.service.latencyMs.p99, 1)} ms`,
+    `two bare socket.io servers, same adapter: ${fmt(b8.baseline.latencyMs.median, 1)} / ${fmt(b8.baseline.latencyMs.p99, 1)} ms`,
+    `×${fmt(b8.ratio.median, 1)} / ×${fmt(b8.ratio.p99, 1)}`,
+    '(none set)',
     '—',
   ]);
 /** Long lists of ids in a plan, shortened: '{a,b,…}' → '{… 124 ids …}'. */
@@ -158,8 +170,9 @@ md.push(
     'production; NODE_ENV=production, LOG_LEVEL=warn) ' +
     'as its own process, ' +
     'a private PostgreSQL cluster with durable commits (fsync on, as in service) and a fresh database, all on 127.0.0.1. ' +
-    'The bench scripts (bench/*.mjs) are separate Node processes. The figures below are rewritten by every run; this ' +
-    'page is generated (bench/report.mjs).',
+    'The bench scripts (bench/*.mjs) are separate Node processes. This page is generated (bench/report.mjs): each ' +
+    "benchmark's section and summary rows are rewritten from its results when it runs; a run of some benchmarks only " +
+    '(BENCH_ONLY) keeps the others as they were, and the rows measured by hand say where they came from.',
 );
 md.push('');
 md.push('## Machine');
@@ -179,7 +192,7 @@ md.push('## Summary');
 md.push('');
 md.push(table(['Benchmark', 'Median', 'p99', 'Baseline (median / p99)', 'Ratio', 'Target', 'Target met'], rows));
 md.push('');
-for (const n of [1, 2, 3, 4, 5]) {
+for (const n of [1, 2, 3, 4, 5, 6, 7]) {
   const f = failed(n);
   if (f)
     md.push(
@@ -513,29 +526,187 @@ if (b6) {
 }
 
 if (b7) {
-  md.push('## 7. Visitor board, 500 visitors');
+  const two = (b7.perInstance?.length ?? 1) > 1;
+  md.push(`## 7. Visitor board, ${fmt(b7.visitors)} visitors${two ? ' over two instances' : ''}`);
   md.push('');
   md.push(`Measured ${when(b7)}${stale(b7)}.`);
   md.push('');
   md.push(
-    `${fmt(b7.visitors)} socket.io clients on the public namespace /visit, all on one board of a running run, on ` +
-      `${b7.instances} service instance (several instances are not part of this build). The chief engineer submitted ` +
-      `${b7.submissions} speed readings, one every 3 s, through the rounds route. Measured: from a reading's arrival (the ` +
-      "round's answer) to the first `visit:figures` showing it at each visitor, which by design includes the board's delay " +
-      `(VISIT_DELAY_SECONDS = ${b7.delaySeconds} s) and up to one figures period (2 s). ${fmt(b7.updates.measured)} updates ` +
-      `measured (${fmt(b7.updates.missing)} missing): median ${fmt(b7.delayMs.median)} ms, p90 ${fmt(b7.delayMs.p90)} ms, ` +
-      `p99 ${fmt(b7.delayMs.p99)} ms, slowest ${fmt(b7.delayMs.max)} ms; beyond the designed delay: median ` +
-      `${fmt(b7.beyondDesignedDelayMs.median)} ms, p99 ${fmt(b7.beyondDesignedDelayMs.p99)} ms. ${fmt(b7.visitors)} visitors ` +
-      `connected in ${fmt(b7.connectMs)} ms. Service CPU: ${fmt(b7.cpu.idleSecondsPerSecond, 3)} s/s with the same readings ` +
-      `and no visitor, ${fmt(b7.cpu.loadedSecondsPerSecond, 3)} s/s with the visitors: ` +
-      `${fmt(b7.cpu.msPerSecondPerVisitor, 3)} ms of CPU per second per visitor.`,
+    `${fmt(b7.visitors)} socket.io clients on the public namespace /visit, all on one board of a running run, ` +
+      (two
+        ? `alternately on two instances of the built service on one database (A on BENCH_APP_PORT, B on BENCH_APP2_PORT, ` +
+          `${b7.perInstance.map((x) => `${fmt(x.visitors)} on ${x.name}`).join(', ')}). `
+        : 'on one service instance. ') +
+      `The chief engineer submitted ${b7.submissions} speed readings, one every ${(b7.submitEveryMs ?? 3000) / 1000} s, ` +
+      `through the rounds route${two ? ' of instance A' : ''}. Each instance sends the figures to its own visitors every 2 s, ` +
+      `computed from the database${two ? " (so a reading stored through A reaches B's visitors through the database)" : ''}. ` +
+      "Measured: from a reading's arrival (the round's answer) to the first `visit:figures` showing it at each visitor, " +
+      `which by design includes the board's delay (VISIT_DELAY_SECONDS = ${b7.delaySeconds} s) and up to one figures ` +
+      'period (2 s); all clients in one bench process (one clock). CPU per visitor: the CPU time (user + system, ' +
+      `/proc/<pid>/stat) of each service process per second over ${(b7.cpuWindowMs ?? 20000) / 1000} s with its visitors ` +
+      'connected and the readings coming, minus the same over a window of the same length with the same readings and no ' +
+      "visitor connected, divided by that instance's visitors. CPU time is counted in 10 ms ticks, so each CPU per " +
+      `visitor figure is good to about ±${fmt(b7.cpu.resolutionMsPerSecondPerVisitor ?? null, 4)} ms/s from the counting ` +
+      "alone; each process's own background work (the job queue's polling, timers) falls into one window or the other, " +
+      'so the per-instance figures scatter more than that between runs, and the figure over both instances is the steadier one.',
+  );
+  md.push('');
+  const line = (label, x) => [
+    label,
+    fmt(x.visitors),
+    `${fmt(x.updates.measured)} (${fmt(x.updates.missing)})`,
+    `${fmt(x.delayMs.median)} ms`,
+    `${fmt(x.delayMs.p90)} ms`,
+    `${fmt(x.delayMs.p99)} ms`,
+    `${fmt(x.delayMs.max)} ms`,
+    `${fmt(x.cpu.idleSecondsPerSecond, 3)} / ${fmt(x.cpu.loadedSecondsPerSecond, 3)} s/s`,
+    `${fmt(x.cpu.msPerSecondPerVisitor, 3)} ms/s`,
+  ];
+  md.push(
+    table(
+      ['', 'visitors', 'updates measured (missing)', 'median', 'p90', 'p99', 'max', 'CPU without / with visitors', 'CPU per visitor'],
+      [
+        ...(b7.perInstance ?? []).map((x) =>
+          line(`instance ${x.name}${x.takesReadings ? ' (takes the readings)' : ' (visitors only)'}`, x),
+        ),
+        line(two ? 'all visitors, both instances' : 'all visitors', b7),
+      ],
+    ),
+  );
+  md.push('');
+  md.push(
+    `Beyond the designed delay: median ${fmt(b7.beyondDesignedDelayMs.median)} ms, p99 ${fmt(b7.beyondDesignedDelayMs.p99)} ms. ` +
+      `${fmt(b7.visitors)} visitors connected in ${fmt(b7.connectMs)} ms (50 at a time). The CPU per visitor of all visitors ` +
+      "is the two instances' extra CPU together divided by all visitors.",
   );
   md.push('');
 }
 
-const notes = join(ROOT, 'bench', 'NOTES.md');
-if (existsSync(notes)) {
-  md.push(readFileSync(notes, 'utf8').trim());
+if (b8) {
+  md.push(`## 8. Reading to alarm, ${fmt(b8.design.viewers)} viewers over two instances`);
+  md.push('');
+  md.push(`Measured ${when(b8)}, by \`node bench/b8-two-instances.mjs\` on its own (not run by \`npm run bench\`).`);
+  md.push('');
+  md.push(
+    `Two instances of the built service on one database, ${fmt(b8.design.viewers / 2)} viewers in the run's room on each, ` +
+      `one client submitting on the live channel of instance A at ${fmt(b8.design.rate)} readings/s, each reading raising or ` +
+      `clearing the alarm of one point, so each reading sends one \`alarm:changed\` to all ${fmt(b8.design.viewers)} viewers ` +
+      "(to those on B through socket.io's PostgreSQL adapter). Measured: submission to `alarm:changed` at each viewer, " +
+      `${b8.design.measureMs / 1000} s after ${b8.design.warmupMs / 1000} s of warm-up. Baseline: the same viewers and client ` +
+      'against two bare socket.io servers joined by the same adapter (`bench/echo-server-pg.mjs`).',
+  );
+  md.push('');
+  md.push(
+    table(
+      ['', 'events measured (missing)', 'median', 'p99', 'max', 'p99 on the submitting instance / on the other', 'load average'],
+      [b8.baseline, b8.service].map((x) => [
+        x.label,
+        `${fmt(x.eventsMeasured)} (${fmt(x.eventsExpected - x.eventsMeasured)})`,
+        `${fmt(x.latencyMs.median, 1)} ms`,
+        `${fmt(x.latencyMs.p99, 1)} ms`,
+        `${fmt(x.latencyMs.max, 1)} ms`,
+        `${fmt(x.sameInstanceP99, 1)} / ${fmt(x.otherInstanceP99, 1)} ms`,
+        x.loadAvg?.join(' / ') ?? '—',
+      ]),
+    ),
+  );
   md.push('');
 }
-writeFileSync(join(ROOT, 'BENCHMARKS.md'), md.join('\n'));
+
+// ---- What this run did not measure: carried over from the page as it was ----
+// A numbered section and its summary rows are rewritten only when the benchmark has a results file
+// (.data/bench/results/bN.json); otherwise they are carried over from BENCHMARKS.md as they are. So are the rows and
+// sections measured by hand (HAND_MEASURED) and any other section written by hand above the notes. The intro and the
+// machine are rewritten only by a run of every benchmark. The notes (bench/NOTES.md) are appended afresh.
+/** Rows measured by hand, not by this command, and where each came from. */
+const HAND_MEASURED = {
+  '6b': 'the browser test ui/e2e/indicator-cards.e2e.ts ("accepts the proposed trace") on its own clock, one run (see 6)',
+  8: '`node bench/b8-two-instances.mjs` run on its own, outside this command (see 8)',
+};
+const results = { 1: b1, 2: b2, 3: b3, 4: b4, 5: b5, 6: b6, 7: b7, 8: b8 };
+/** The benchmarks `npm run bench` runs (8 is run by hand). */
+const BY_THE_COMMAND = ['1', '2', '3', '4', '5', '6', '7'];
+const onlyArg = process.argv.indexOf('--only');
+const only = onlyArg >= 0 ? (process.argv[onlyArg + 1] ?? '').split(/\s+/).filter(Boolean) : null;
+const everyBenchmark = !only || BY_THE_COMMAND.every((n) => only.includes(n));
+
+/** A page cut at its '## ' headings: the text before the first one, then each section (heading line included). */
+function cut(text) {
+  const parts = text.split(/^(?=## )/m);
+  const head = parts[0].startsWith('## ') ? '' : parts.shift();
+  return {
+    head: head.replace(/\s+$/, ''),
+    sections: parts.map((p) => ({ heading: p.split('\n', 1)[0].trim(), text: p.replace(/\s+$/, '') })),
+  };
+}
+const numberOf = (heading) => (heading.match(/^## (\d+)\./) ?? [])[1] ?? null;
+const rowKey = (line) => (line.match(/^\| (\d+[a-z]?)\. /) ?? [])[1] ?? null;
+const keyOrder = (k) => Number(k.match(/^\d+/)[0]) * 100 + (/[a-z]$/.test(k) ? k.charCodeAt(k.length - 1) - 96 : 0);
+
+const page = join(ROOT, 'BENCHMARKS.md');
+const fresh = cut(md.join('\n'));
+const old = existsSync(page) ? cut(readFileSync(page, 'utf8')) : { head: '', sections: [] };
+const noteHeadings = new Set(
+  existsSync(join(ROOT, 'bench', 'NOTES.md'))
+    ? readFileSync(join(ROOT, 'bench', 'NOTES.md'), 'utf8')
+        .split('\n')
+        .filter((l) => l.startsWith('## '))
+        .map((l) => l.trim())
+    : [],
+);
+const firstNote = old.sections.findIndex((x) => noteHeadings.has(x.heading));
+const oldSections = firstNote >= 0 ? old.sections.slice(0, firstNote) : old.sections;
+const oldNamed = (h) => oldSections.find((x) => x.heading === h);
+const freshNamed = (h) => fresh.sections.find((x) => x.heading === h);
+const measured = (n) => !!results[n];
+
+// The summary: this run's rows of the benchmarks it has results for, the page's other rows as they were.
+const tableRows = (text) => text.split('\n').filter((l) => rowKey(l));
+const freshSummary = freshNamed('## Summary').text;
+const freshRows = tableRows(freshSummary);
+const freshKeys = new Set(freshRows.map(rowKey));
+const keptRows = tableRows(oldNamed('## Summary')?.text ?? '').filter((l) => {
+  const k = rowKey(l);
+  const n = k.match(/^\d+/)[0];
+  return !freshKeys.has(k) && !(measured(n) && !(k in HAND_MEASURED));
+});
+const allRows = [...freshRows, ...keptRows].sort((x, y) => keyOrder(rowKey(x)) - keyOrder(rowKey(y)));
+const summaryLines = freshSummary.split('\n');
+const headerAt = summaryLines.findIndex((l) => l.startsWith('| Benchmark'));
+const summaryNotes = summaryLines.slice(headerAt + 2).filter((l) => !rowKey(l) && l.trim());
+const handKept = keptRows.map(rowKey).filter((k) => k in HAND_MEASURED);
+const carried = keptRows.map(rowKey).filter((k) => !(k in HAND_MEASURED));
+if (handKept.length)
+  summaryNotes.push('Measured by hand, not by `npm run bench`: ' + handKept.map((k) => `${k} — ${HAND_MEASURED[k]}`).join('; ') + '.');
+if (carried.length)
+  summaryNotes.push(
+    `Carried over from an earlier version of this page (this run has no results of theirs): ${carried.join(', ')}; ` +
+      'each section says when it was measured.',
+  );
+const summary = [['## Summary', '', ...summaryLines.slice(headerAt, headerAt + 2), ...allRows].join('\n'), ...summaryNotes].join('\n\n');
+
+// The numbered sections: this run's where it has results, else the page's, else this run's "not measured".
+const numbers = [...new Set([...fresh.sections, ...oldSections].map((x) => numberOf(x.heading)).filter((n) => n !== null))].sort(
+  (x, y) => Number(x) - Number(y),
+);
+const numbered = numbers
+  .map((n) => {
+    const f = fresh.sections.find((x) => numberOf(x.heading) === n);
+    const o = oldSections.find((x) => numberOf(x.heading) === n);
+    return (measured(n) ? f : (o ?? f))?.text;
+  })
+  .filter(Boolean);
+const handSections = oldSections
+  .filter((x) => numberOf(x.heading) === null && !['## Machine', '## Summary'].includes(x.heading))
+  .map((x) => x.text);
+const keepOld = !everyBenchmark && old.head;
+const out = [
+  keepOld ? old.head : fresh.head,
+  (keepOld ? (oldNamed('## Machine') ?? freshNamed('## Machine')) : freshNamed('## Machine')).text,
+  summary,
+  ...numbered,
+  ...handSections,
+];
+const notes = join(ROOT, 'bench', 'NOTES.md');
+if (existsSync(notes)) out.push(readFileSync(notes, 'utf8').trim());
+writeFileSync(page, out.join('\n\n') + '\n');

@@ -3,11 +3,14 @@
 #   a private PostgreSQL cluster on 127.0.0.1:55434 (fresh database crankjournal_bench), the mail and
 #   object-store stand-ins on their own ports, a build of the service and of the UI (the UI into a private
 #   folder), the built service as a separate process, then the benchmarks in bench/*.mjs one after another.
-#   Not part of npm test. Takes about 10 to 15 minutes.
+#   Benchmark 7 (visitor board) runs on two instances: a second service process on BENCH_APP2_PORT, same database,
+#   started just before it and stopped after it. Not part of npm test. Takes about 10 to 15 minutes.
 #
-# Environment: BENCH_ONLY="1 2" runs only some benchmarks (the report keeps earlier results of the others);
-# BENCH_SKIP_BUILD=1 reuses the current builds; BENCH_HOLD=1 only sets up and seeds, then waits;
-# BENCH_PROFILE=<folder> writes a CPU profile of each service process there (node --cpu-prof) when it stops.
+# Environment: BENCH_ONLY="1 2" runs only some benchmarks (the report keeps the page's other sections as they are);
+# BENCH_SKIP_BUILD=1 reuses the current builds (the UI is built only when benchmark 5 runs); BENCH_HOLD=1 only sets
+# up and seeds, then waits; BENCH_PROFILE=<folder> writes a CPU profile of each service process there (node
+# --cpu-prof) when it stops. Ports: BENCH_PG_PORT, BENCH_SMTP_PORT, BENCH_MAIL_HTTP_PORT, BENCH_S3_PORT,
+# BENCH_APP_PORT, BENCH_APP2_PORT (the second instance), BENCH_ECHO_PORT.
 source "$(dirname "${BASH_SOURCE[0]}")/../ops/lib.sh"
 
 PG_PORT="${BENCH_PG_PORT:-55434}"
@@ -15,6 +18,7 @@ SMTP_PORT="${BENCH_SMTP_PORT:-2555}"
 MAIL_HTTP_PORT="${BENCH_MAIL_HTTP_PORT:-8055}"
 S3_PORT="${BENCH_S3_PORT:-4599}"
 APP_PORT="${BENCH_APP_PORT:-3290}"
+APP2_PORT="${BENCH_APP2_PORT:-3292}"
 ECHO_PORT="${BENCH_ECHO_PORT:-3291}"
 DB_NAME="crankjournal_bench"
 WORK="$ROOT/.data/bench"
@@ -24,22 +28,38 @@ export BENCH_DB_URL="$(db_url "$PG_PORT" "$DB_NAME")"
 BENCH_PG_SUPER_URL="postgres://postgres:$(secret_file pg-superuser-password)@127.0.0.1:$PG_PORT/$DB_NAME"
 export BENCH_PG_SUPER_URL
 export BENCH_BASE_URL="http://127.0.0.1:$APP_PORT"
+export BENCH_BASE2_URL="http://127.0.0.1:$APP2_PORT"
+# One signing secret for every service process of the run (both instances, and the same process restarted), as
+# several instances behind one address need.
+JWT_SECRET="bench-only-secret-$(head -c 12 /dev/urandom | base64 | tr -dc 'A-Za-z0-9')"
+# In production the service refuses the payment stand-in's published keys; no benchmark takes a payment, so keys of
+# the run's own (no payment stand-in is started).
+PAY_KEY="sk_test_bench_only_$(head -c 12 /dev/urandom | base64 | tr -dc 'A-Za-z0-9')"
+PAY_WEBHOOK_SECRET="whsec_bench_only_$(head -c 12 /dev/urandom | base64 | tr -dc 'A-Za-z0-9')"
 export BENCH_ECHO_PORT="$ECHO_PORT"
 
 SERVER_PID=""
-stop_server() {
-  if [ -n "$SERVER_PID" ]; then
-    kill "$SERVER_PID" 2>/dev/null || true
-    wait "$SERVER_PID" 2>/dev/null || true
-    SERVER_PID=""
+SERVER2_PID=""
+stop_pid() {  # stop_pid VAR: stops the process whose id the variable VAR holds, and empties it
+  local pid="${!1}"
+  if [ -n "$pid" ]; then
+    kill "$pid" 2>/dev/null || true
+    wait "$pid" 2>/dev/null || true
+    printf -v "$1" '%s' ""
   fi
 }
-cleanup() { trap - EXIT INT TERM; say "bench: stopping the service, the stand-ins and the bench PostgreSQL cluster"; stop_server; stop_children; pg_down; }
+stop_server() { stop_pid SERVER_PID; }
+stop_second() { stop_pid SERVER2_PID; unset BENCH_SERVER2_PID; }
+cleanup() {
+  trap - EXIT INT TERM
+  say "bench: stopping the service, the stand-ins and the bench PostgreSQL cluster"
+  stop_second; stop_server; stop_children; pg_down
+}
 trap cleanup EXIT
 trap 'exit 130' INT TERM
 
 STARTED_AT=$(date +%s)
-for p in "$SMTP_PORT" "$MAIL_HTTP_PORT" "$S3_PORT" "$APP_PORT" "$ECHO_PORT"; do
+for p in "$SMTP_PORT" "$MAIL_HTTP_PORT" "$S3_PORT" "$APP_PORT" "$APP2_PORT" "$ECHO_PORT"; do
   port_free "$p" || { say "port $p is already in use (is another bench running?)"; exit 1; }
 done
 
@@ -63,8 +83,13 @@ if [ -z "${BENCH_SKIP_BUILD:-}" ]; then
   # tsc still writes the JavaScript when it reports type errors; those are shown, and the bench goes on.
   (cd "$ROOT" && npm run build -w shared-types --silent && npm run build -w service --silent) \
     || say "bench: the service build reported errors (above); measuring the JavaScript it emitted"
-  say "bench: building the UI into $UI_OUT"
-  (cd "$ROOT/ui" && "$ROOT/node_modules/.bin/vite" build --logLevel warn --outDir "$UI_OUT" --emptyOutDir)
+  case " $ONLY " in
+    *" 5 "*)
+      say "bench: building the UI into $UI_OUT"
+      (cd "$ROOT/ui" && "$ROOT/node_modules/.bin/vite" build --logLevel warn --outDir "$UI_OUT" --emptyOutDir)
+      ;;
+    *) say "bench: the UI is not built (only benchmark 5 needs it)" ;;
+  esac
 fi
 export BENCH_UI_DIST="$UI_OUT"
 
@@ -72,23 +97,32 @@ say "bench: migrating the bench database"
 (cd "$ROOT/service" && DATABASE_URL="$BENCH_DB_URL" node dist/database/migrate.js >/dev/null)
 
 export BENCH_SERVER_LOG="$WORK/server.log"
-start_server() {
-  (cd "$ROOT/service" && NODE_ENV=production DATABASE_URL="$BENCH_DB_URL" PORT="$APP_PORT" HOST=127.0.0.1 \
-    PUBLIC_URL="$BENCH_BASE_URL" JWT_SECRET="bench-only-secret-$(head -c 12 /dev/urandom | base64 | tr -dc 'A-Za-z0-9')" \
+export BENCH_SERVER2_LOG="$WORK/server2.log"
+start_instance() {  # start_instance PORT LOG VAR: the built service on PORT, as in production; its pid into VAR
+  local port="$1" logf="$2" var="$3"
+  (cd "$ROOT/service" && NODE_ENV=production DATABASE_URL="$BENCH_DB_URL" PORT="$port" HOST=127.0.0.1 \
+    PUBLIC_URL="$BENCH_BASE_URL" JWT_SECRET="$JWT_SECRET" \
+    PAYMENTS_API_KEY="$PAY_KEY" PAYMENTS_WEBHOOK_SECRET="$PAY_WEBHOOK_SECRET" \
     ACCESS_TOKEN_TTL_SECONDS=7200 LOG_LEVEL=warn LOGIN_RATE_LIMIT_PER_MINUTE=100000 LOGIN_ADDRESS_LIMIT_PER_MINUTE=100000 LOGIN_ACCOUNT_LIMIT_PER_HOUR=100000 \
     VISIT_RATE_LIMIT_PER_MINUTE=100000 \
     SMTP_HOST=127.0.0.1 SMTP_PORT="$SMTP_PORT" MAIL_INBOX_URL="http://127.0.0.1:$MAIL_HTTP_PORT" \
     S3_ENDPOINT="http://127.0.0.1:$S3_PORT" UI_DIST="$UI_OUT" \
-    PAYMENTS_API_KEY="sk_test_bench_$(head -c 12 /dev/urandom | base64 | tr -dc 'A-Za-z0-9')" \
-    PAYMENTS_WEBHOOK_SECRET="whsec_bench_$(head -c 12 /dev/urandom | base64 | tr -dc 'A-Za-z0-9')" \
-    exec node "${SERVICE_NODE_FLAGS[@]}" ${BENCH_PROFILE:+--cpu-prof --cpu-prof-dir="$BENCH_PROFILE" -r "$ROOT/bench/exit-on-term.cjs"} dist/main.js >>"$BENCH_SERVER_LOG" 2>&1) &
-  SERVER_PID=$!
+    exec node "${SERVICE_NODE_FLAGS[@]}" ${BENCH_PROFILE:+--cpu-prof --cpu-prof-dir="$BENCH_PROFILE" -r "$ROOT/bench/exit-on-term.cjs"} dist/main.js >>"$logf" 2>&1) &
+  local pid=$!
+  printf -v "$var" '%s' "$pid"
   for _ in $(seq 1 150); do
-    (exec 3<>"/dev/tcp/127.0.0.1/$APP_PORT") 2>/dev/null && { export BENCH_SERVER_PID="$SERVER_PID"; return 0; }
-    kill -0 "$SERVER_PID" 2>/dev/null || break
+    (exec 3<>"/dev/tcp/127.0.0.1/$port") 2>/dev/null && return 0
+    kill -0 "$pid" 2>/dev/null || break
     sleep 0.2
   done
-  say "the service did not start; its log: $BENCH_SERVER_LOG"; tail -n 30 "$BENCH_SERVER_LOG"; exit 1
+  say "the service did not start on port $port; its log: $logf"; tail -n 30 "$logf"; exit 1
+}
+start_server() { start_instance "$APP_PORT" "$BENCH_SERVER_LOG" SERVER_PID; export BENCH_SERVER_PID="$SERVER_PID"; }
+start_second() {  # a second instance of the service on the same database (benchmark 7)
+  : >"$BENCH_SERVER2_LOG"
+  start_instance "$APP2_PORT" "$BENCH_SERVER2_LOG" SERVER2_PID
+  export BENCH_SERVER2_PID="$SERVER2_PID"
+  say "bench: second instance, pid $SERVER2_PID on $BENCH_BASE2_URL"
 }
 : >"$BENCH_SERVER_LOG"
 start_server
@@ -134,8 +168,12 @@ if wants 4; then
 fi
 run_bench 5 b5-ui.mjs
 run_bench 6 b6-autotrace.mjs
-run_bench 7 b7-visitors.mjs
+if wants 7; then
+  start_second
+  run_bench 7 b7-visitors.mjs
+  stop_second
+fi
 
 stop_server
-node "$ROOT/bench/report.mjs" --seconds "$(( $(date +%s) - STARTED_AT ))"
+node "$ROOT/bench/report.mjs" --seconds "$(( $(date +%s) - STARTED_AT ))" --only "$ONLY"
 say "bench: wrote $ROOT/BENCHMARKS.md in $(( $(date +%s) - STARTED_AT )) s"
