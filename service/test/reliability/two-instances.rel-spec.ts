@@ -3,7 +3,7 @@
  * and alarms submitted through instance A (socket.io's PostgreSQL adapter). Readings of one engine sent to both
  * instances at the same moment are stored once each, and every crossing of the high limit raises exactly one alarm
  * event, in order (a per-engine advisory lock orders the two instances' transactions); killing instance A half-way
- * loses nothing either instance acknowledged.
+ * loses nothing either instance acknowledged. The cap on visitors per board counts the visitors of both instances.
  */
 import { execFile } from 'node:child_process';
 import { randomUUID } from 'node:crypto';
@@ -22,6 +22,8 @@ const DEADBAND = 2;
 /** psig: normal, just under the clear point, at it, in the band, at the limit, just above, clearly above. */
 const LEVELS = [40, 47.9, 48, 49, 50, 50.1, 55];
 const READINGS = 600;
+/** Visitors one board takes, across both instances. */
+const VISITOR_CAP = 3;
 const BATCH = 10;
 
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
@@ -65,8 +67,9 @@ describe('two service instances on one database', () => {
       cwd: serviceDir(),
       env: { ...process.env, NODE_OPTIONS: '', DATABASE_URL: dbUrl },
     });
-    a = new ServiceProcess({ databaseUrl: dbUrl, port: await freePort() });
-    b = new ServiceProcess({ databaseUrl: dbUrl, port: await freePort() });
+    const env = { VISIT_VIEWERS_PER_BOARD: String(VISITOR_CAP) };
+    a = new ServiceProcess({ databaseUrl: dbUrl, port: await freePort(), env });
+    b = new ServiceProcess({ databaseUrl: dbUrl, port: await freePort(), env });
     await Promise.all([a.start(), b.start()]);
     const people = await withClient(dbUrl, async (c) => {
       const add = async (role: string) =>
@@ -163,6 +166,38 @@ describe('two service instances on one database', () => {
     expect(alarms.map((x) => x.state)).toEqual(['active_unacknowledged', 'returned_unacknowledged']);
     expect(alarms.every((x) => x.kind === 'high' && x.runId === runId)).toBe(true);
   });
+
+  it('the cap on visitors per board holds across both instances', async () => {
+    const { runId } = await engineAndRun(a);
+    const board = await fetchJson<{ slug: string }>(a.url, 'POST', '/api/visitor-boards', chief, { runId });
+    /** A visitor on `svc`: null when connected, else the refusal's message. */
+    const visit = (svc: ServiceProcess) =>
+      new Promise<{ socket: Socket; refused: string | null }>((res) => {
+        const socket = io(`${svc.url}/visit`, {
+          transports: ['websocket'],
+          reconnection: false,
+          forceNew: true,
+          auth: { slug: board.slug },
+        });
+        sockets.push(socket);
+        socket.once('connect', () => res({ socket, refused: null }));
+        socket.once('connect_error', (e) => res({ socket, refused: e.message }));
+      });
+    // Each instance tells the others its visitors with every round of figures (every 2 s).
+    const round = () => sleep(4_500);
+    const onA = [await visit(a), await visit(a)];
+    expect(onA.map((v) => v.refused)).toEqual([null, null]);
+    await round();
+    expect((await visit(b)).refused).toBeNull();
+    // Two on A and one on B: the board is full on either instance.
+    expect((await visit(b)).refused).toMatch(/as many visitors as it can take/);
+    await round();
+    expect((await visit(a)).refused).toMatch(/as many visitors as it can take/);
+    // One leaves A: B takes a visitor again once A has said so.
+    onA[0].socket.disconnect();
+    await round();
+    expect((await visit(b)).refused).toBeNull();
+  }, 60_000);
 
   it('readings sent to both at once are stored once each, one alarm event per crossing, in order; killing A loses nothing', async () => {
     const { engineId, runId } = await engineAndRun(b);

@@ -30,7 +30,7 @@ export class VisitGateway implements OnGatewayInit, OnGatewayConnection {
         if (wait) return next(new Error(`Too many connections from your network. Try again in ${wait} seconds.`));
         const board = await this.visit.enabledBoard((socket.handshake.auth as { slug?: unknown })?.slug);
         if (!board) return next(new Error('There is no visitor board at this address, or it has been switched off.'));
-        if (this.visit.viewersOf(board.id) >= this.visit.viewerCap)
+        if (this.visit.viewersEverywhere(board.id) >= this.visit.viewerCap)
           return next(new Error('This board has as many visitors as it can take just now. Try again in a minute.'));
         socket.data.boardId = board.id;
         await socket.join(boardRoom(board.id));

@@ -35,6 +35,10 @@ import { VisitorBoard } from './visitor-board.entity.js';
 
 /** Between instances: a board's visitors are to be ended (its id). */
 const END_BOARD = 'visit:end-board';
+/** Between instances: how many visitors each instance has on each board (for the cap per board, which is cluster-wide). */
+const VIEWER_COUNTS = 'visit:viewer-counts';
+/** Another instance's counts are believed for this long after it sent them (it sends them every FIGURES_EVERY_MS). */
+const COUNTS_FRESH_MS = 3 * 2_000;
 
 /** The public namespace's server: it only ever sends (VisitServerToClientEvents); `data.boardId` is the board a visitor watches. */
 export type VisitNamespace = Namespace<Record<string, never>, VisitServerToClientEvents, Record<string, never>, { boardId: string }>;
@@ -60,6 +64,11 @@ export class VisitService implements OnModuleDestroy {
   private server: VisitNamespace | null = null;
   private timer: NodeJS.Timeout | null = null;
   private busy = false;
+  /** This instance, as the others know it in their viewer counts. */
+  private readonly instanceId = randomUUID();
+  /** The other instances' visitors per board, as they last said. */
+  private readonly remoteCounts = new Map<string, { at: number; counts: Record<string, number> }>();
+  private sentNoVisitors = true;
 
   constructor(
     @InjectRepository(VisitorBoard) private readonly boards: Repository<VisitorBoard>,
@@ -303,6 +312,11 @@ export class VisitService implements OnModuleDestroy {
     server.on(END_BOARD, (boardId: unknown) => {
       if (typeof boardId === 'string') this.endLocalViewers(boardId);
     });
+    server.on(VIEWER_COUNTS, (msg: unknown) => {
+      const m = msg as { from?: unknown; counts?: unknown };
+      if (typeof m?.from !== 'string' || m.from === this.instanceId || typeof m.counts !== 'object' || m.counts === null) return;
+      this.remoteCounts.set(m.from, { at: Date.now(), counts: m.counts as Record<string, number> });
+    });
     this.timer = setInterval(() => void this.sendFigures(), FIGURES_EVERY_MS);
     this.timer.unref();
   }
@@ -311,8 +325,31 @@ export class VisitService implements OnModuleDestroy {
     if (this.timer) clearInterval(this.timer);
   }
 
+  /** Visitors of a board on this instance. */
   viewersOf(boardId: string): number {
     return this.server?.adapter.rooms.get(boardRoom(boardId))?.size ?? 0;
+  }
+
+  /**
+   * Visitors of a board on every instance: this one's, plus what the others said in the last few seconds (each sends
+   * its counts with every round of figures). The cap per board holds across instances to within one round's arrivals.
+   */
+  viewersEverywhere(boardId: string): number {
+    const now = Date.now();
+    let n = this.viewersOf(boardId);
+    for (const [from, r] of this.remoteCounts) {
+      if (now - r.at > COUNTS_FRESH_MS) this.remoteCounts.delete(from);
+      else n += Number(r.counts[boardId]) || 0;
+    }
+    return n;
+  }
+
+  /** Tells the other instances how many visitors this one has per board (once more when it has none left). */
+  private shareCounts(watched: string[]) {
+    if (!this.server || (!watched.length && this.sentNoVisitors)) return;
+    const counts = Object.fromEntries(watched.map((id) => [id, this.viewersOf(id)]));
+    this.server.serverSideEmit(VIEWER_COUNTS, { from: this.instanceId, counts });
+    this.sentNoVisitors = !watched.length;
   }
 
   /**
@@ -325,6 +362,7 @@ export class VisitService implements OnModuleDestroy {
     this.busy = true;
     try {
       const watched = [...this.server.adapter.rooms.keys()].filter((r) => r.startsWith('board:')).map((r) => r.slice('board:'.length));
+      this.shareCounts(watched);
       if (!watched.length) return;
       const rows = await this.boards.find({ where: watched.map((id) => ({ id, enabled: true })) });
       for (const b of rows) this.server.local.to(boardRoom(b.id)).emit('visit:figures', await this.figures(b));
