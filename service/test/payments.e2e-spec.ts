@@ -1,13 +1,26 @@
 import { randomUUID } from 'node:crypto';
+import { jest } from '@jest/globals';
 import Stripe from 'stripe';
-import type { EngineDetail, LotDetail, LotMoney, MillDto, OutstandingLot, QuoteDto } from '@crankjournal/shared-types';
+import type { Socket } from 'socket.io-client';
+import {
+  MONEY_ROOM,
+  type EngineDetail,
+  type LotDetail,
+  type LotMoney,
+  type MillDto,
+  type OutstandingLot,
+  type QuoteDto,
+} from '@crankjournal/shared-types';
 import { paymentClient } from '../src/modules/payments/payments.service.js';
+import { MailService, type OutgoingMail } from '../src/modules/mail/mail.service.js';
 import { STANDIN_PAYMENTS_API_KEY, STANDIN_PAYMENTS_WEBHOOK_SECRET } from '../src/config/env.validation.js';
 import { startTestApp, type TestApp } from './utils/test-app.js';
 import { signedIn } from './utils/signed-in.js';
 import { login, type SignedIn } from './factories/users.factory.js';
 import { createMill, createMillRun, millEngine } from './factories/mill.factory.js';
 import { waitForMessage } from './utils/mail-inbox.js';
+import { connected, socketAs } from './utils/socket.js';
+import { inspectPdf } from './utils/pdf-inspect.js';
 
 const PAYS = '4242 4242 4242 4242';
 const DECLINES = '4000 0000 0000 0002';
@@ -203,6 +216,83 @@ describe('payments for customer lots (API, against the payment stand-in)', () =>
     expect((await postEvent(failed(`evt_test_late_${p.id.slice(0, 8)}`, 'Too late.'))).body).toEqual({ received: true, applied: true });
     expect((await money(lot.id)).payments[0]).toMatchObject({ state: 'paid', declineReason: null });
     expect((await lotOf(lot.id)).status).toBe('ordered');
+  });
+
+  it("a lot's money goes live to the money room: the mill lead and the observer get it, operators and maintenance never", async () => {
+    const sockets: Socket[] = [lead, observer, operator, maintenance].map((who) => socketAs(t.url, who));
+    // Every e-mail the app sends, as it hands it to its queue (the spy calls through: the e-mails still go out).
+    const spy = jest.spyOn(t.app.get(MailService), 'send');
+    const sent = (): OutgoingMail[] => spy.mock.calls.map((c) => c[0]);
+    try {
+      await Promise.all(sockets.map((s) => connected(s)));
+      const [leadS, observerS, operatorS, maintenanceS] = sockets;
+      for (const s of [leadS, observerS])
+        expect(await s.timeout(5000).emitWithAck('room:join', { room: MONEY_ROOM })).toEqual({ ok: true, room: MONEY_ROOM });
+      for (const s of [operatorS, maintenanceS])
+        expect(await s.timeout(5000).emitWithAck('room:join', { room: MONEY_ROOM })).toMatchObject({ ok: false, status: 403 });
+      const crewHeard: string[] = [];
+      for (const s of [operatorS, maintenanceS]) s.onAny((event: string) => crewHeard.push(event));
+      const heard = new Map<Socket, LotMoney[]>([
+        [leadS, []],
+        [observerS, []],
+      ]);
+      for (const [s, list] of heard) s.on('lot:money', (m: LotMoney) => list.push(m));
+      /** Waits until `s` has heard this lot's money in a state `ok` accepts. */
+      const hears = async (s: Socket, lotId: string, ok: (m: LotMoney) => boolean) => {
+        const until = Date.now() + 10_000;
+        for (;;) {
+          const m = heard.get(s)!.find((x) => x.lotId === lotId && ok(x));
+          if (m) return m;
+          if (Date.now() > until) throw new Error(`no lot:money for ${lotId} in the state looked for within 10 s`);
+          await new Promise((r) => setTimeout(r, 50));
+        }
+      };
+
+      const { lot, email, quote: q } = await quotedLot();
+      const p = ((await signedIn(t, lead).post(`/api/payments/lots/${lot.id}/requests`).send({ kind: 'deposit' })).body as LotMoney)
+        .payments[0];
+      expect((await hears(observerS, lot.id, (m) => m.payments[0]?.state === 'asked')).askedMinor).toBe(p.amountMinor);
+
+      // The customer's card is declined, then the test card pays: each event reaches the room at once.
+      expect((await payOnPage(p.checkoutUrl!, DECLINES)).status).toBe(402);
+      const declined = await hears(leadS, lot.id, (m) => !!m.payments[0]?.declineReason);
+      expect(declined.payments[0].declineReason).toMatch(/declined/);
+      expect((await payOnPage(p.checkoutUrl!, PAYS)).status).toBe(303);
+      const paid = await hears(leadS, lot.id, (m) => m.depositPaid);
+      expect(paid).toMatchObject({ paidMinor: p.amountMinor, askedMinor: 0 });
+      expect(paid.payments[0]).toMatchObject({ state: 'paid', checkoutUrl: null });
+      await hears(observerS, lot.id, (m) => m.depositPaid);
+
+      // A refund by the administrator reaches the room too.
+      const refunded = await signedIn(t, admin).post(`/api/payments/${p.id}/refunds`).send({ amountMinor: 100, reason: 'Rounding agreed' });
+      expect(refunded.status).toBe(200);
+      expect((await hears(leadS, lot.id, (m) => m.refundedMinor === 100)).dueMinor).toBe((refunded.body as LotMoney).dueMinor);
+
+      // Operators and maintenance heard no money at all (the room's events arrived above before this check).
+      await new Promise((r) => setTimeout(r, 300));
+      expect(crewHeard.filter((e) => e === 'lot:money')).toEqual([]);
+
+      // The receipt e-mailed for the payment, read as text: the lot, the sum in its currency, when, and no card data.
+      await waitForMessage(email, { subject: /Receipt: deposit/ });
+      const receiptMail = sent().find((m) => m.to === email && m.subject.startsWith('Receipt'))!;
+      expect(receiptMail.attachments).toHaveLength(1);
+      const receipt = inspectPdf(receiptMail.attachments![0].content);
+      const amount = new Intl.NumberFormat('en-GB', { style: 'currency', currency: p.currency }).format(p.amountMinor / 100);
+      expect(receipt.text).toContain(`Receipt: deposit for lot ${lot.reference}`);
+      expect(receipt.text).toContain(amount);
+      expect(receipt.text).toContain(`${p.currency} (`);
+      expect(receipt.text).toMatch(/received \d{2} [A-Z][a-z]{2} \d{4} \d{2}:\d{2} [A-Z]{3,4}/);
+      expect(receipt.text).not.toMatch(/4242 ?4242|4000 ?0000|\b\d{4} ?\d{4} ?\d{4} ?\d{4}\b|card number|CVC|expiry/i);
+      // The request for the deposit carried the quote: its PDF names the lot and the quote's total.
+      const request = sent().find((m) => m.to === email && m.subject.startsWith('Deposit for lot'))!;
+      const quote = inspectPdf(request.attachments![0].content);
+      expect(quote.text).toContain(lot.reference);
+      expect(quote.text).toContain(new Intl.NumberFormat('en-GB', { style: 'currency', currency: q.currency }).format(q.total));
+      expect(quote.text).not.toMatch(/4242 ?4242/);
+    } finally {
+      spy.mockRestore();
+      for (const s of sockets) s.disconnect();
+    }
   });
 
   it('who may see and move money', async () => {

@@ -7,6 +7,8 @@ import { RunLogSheetService } from '../src/modules/records/run-log-sheet.service
 import { ChecklistPdfService } from '../src/modules/checklists/checklist-pdf.service.js';
 import { BearingHistoryExportsService } from '../src/modules/maintenance/bearing-history-exports.service.js';
 import { LotsService } from '../src/modules/mill/lots.service.js';
+import { ReceiptPdfService } from '../src/modules/payments/receipt-pdf.service.js';
+import type { Payment } from '../src/modules/payments/payment.entity.js';
 import { compareWithGolden, inspectPdf, mangledWords, overlappingWords, pageFooters, type PdfInspection } from './utils/pdf-inspect.js';
 import { signedIn } from './utils/signed-in.js';
 import { login, type SignedIn } from './factories/users.factory.js';
@@ -180,5 +182,42 @@ describe('printed records from the demo data', () => {
     expect(compareWithGolden(r.buffer, 1, golden('quote-p1'))).toBeLessThan(GOLDEN_TOLERANCE);
     const http = await binary(signedIn(t, observer).get(`/api/mill/quotes/${quotes[0].id}/quote.pdf`));
     expect(http.status).toBe(200);
+  });
+
+  it('a receipt prints cleanly: the lot, the sum in its currency, when it was paid, and no card data', async () => {
+    const [row] = await t.db.query(`SELECT id FROM mill_lots ORDER BY reference LIMIT 1`);
+    const lot = await t.app.get(LotsService).detail(row.id);
+    const [lead] = await t.db.query(`SELECT id FROM users WHERE email = 'mill@alderforge.example'`);
+    const payment: Payment = {
+      id: '00000000-0000-4000-8000-000000000001',
+      lotId: lot.id,
+      kind: 'deposit',
+      state: 'paid',
+      amountMinor: 123456,
+      refundedMinor: 0,
+      currency: 'GBP',
+      sessionId: 'cs_test_golden',
+      checkoutUrl: 'http://127.0.0.1:4252/pay/cs_test_golden',
+      paymentIntentId: 'pi_test_golden',
+      emailedTo: lot.customerEmail,
+      declineReason: null,
+      askedBy: lead.id,
+      askedAt: new Date('2026-12-01T10:00:00Z'),
+      // 14:05 UTC in December is 14:05 GMT.
+      paidAt: new Date('2026-12-03T14:05:00Z'),
+    };
+    const r = await t.app.get(ReceiptPdfService).render({ payment, lot, printedAt: PRINTED_AT });
+    const p = inspectPdf(r.buffer);
+    expectClean(p, Number(p.info.Pages));
+    expect(r.filename).toMatch(/^receipt-bl26-\d{3}-deposit\.pdf$/);
+    expect(p.info.Title).toBe(`Receipt: deposit for lot ${lot.reference}`);
+    expect(p.text).toContain(`Receipt: deposit for lot ${lot.reference}`);
+    expect(p.text).toContain('received 03 Dec 2026 14:05 GMT');
+    expect(p.text).toMatch(/Deposit\s+£1,234\.56/);
+    expect(p.text).toMatch(/Currency\s+GBP \(British Pound\)/);
+    expect(p.text).toContain(lot.customerName);
+    expect(p.text).toContain('pi_test_golden');
+    expect(p.text).not.toMatch(/\b\d{4} ?\d{4} ?\d{4} ?\d{4}\b|card number|CVC|expiry/i);
+    expect(compareWithGolden(r.buffer, 1, golden('receipt-p1'))).toBeLessThan(GOLDEN_TOLERANCE);
   });
 });

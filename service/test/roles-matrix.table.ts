@@ -251,6 +251,7 @@ export const SOCKET_ACCESS: Record<string, SocketAccess> = {
   'room:join run:<uuid>': { roles: ANY_ROLE, payload: (id) => ({ room: `run:${id()}` }) },
   'room:join engine:<uuid>': { roles: ANY_ROLE, payload: (id) => ({ room: `engine:${id()}` }) },
   'room:join administration': { roles: ADMIN, payload: () => ({ room: 'administration' }) },
+  'room:join money': { roles: MONEY_READERS, payload: () => ({ room: 'money' }) },
   'room:leave': { roles: ANY_ROLE, payload: () => ({ room: 'site' }) },
   'readings:submit': {
     roles: ENGINE_CREW,

@@ -16,12 +16,12 @@ export async function signOut(page: Page) {
   await expect(page.getByRole('heading', { name: 'Sign in' })).toBeVisible();
 }
 
-/** Polls the local mail stand-in for a message to `to`. */
-export async function waitForMail(to: string, timeoutMs = 10_000): Promise<{ subject: string; text: string }> {
+/** Polls the local mail stand-in for a message to `to` (the latest one, or the latest whose subject matches). */
+export async function waitForMail(to: string, timeoutMs = 10_000, subject?: RegExp): Promise<{ subject: string; text: string }> {
   const until = Date.now() + timeoutMs;
   while (Date.now() < until) {
     const r = await fetch(`${MAIL_INBOX_URL}/messages?to=${encodeURIComponent(to)}`);
-    const list = (await r.json()) as { subject: string; text: string }[];
+    const list = ((await r.json()) as { subject: string; text: string }[]).filter((m) => !subject || subject.test(m.subject));
     if (list.length) return list[list.length - 1];
     await new Promise((res) => setTimeout(res, 250));
   }

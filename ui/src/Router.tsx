@@ -22,6 +22,7 @@ const MillRollingRunsPage = lazy(() => import('./features/mill/pages/RollingRuns
 const MillRunRollingPage = lazy(() => import('./features/mill/pages/RunRolling.page'));
 const MillLotsPage = lazy(() => import('./features/mill/pages/Lots.page'));
 const MillLotDetailPage = lazy(() => import('./features/mill/pages/LotDetail.page'));
+const OutstandingPage = lazy(() => import('./features/payments/pages/Outstanding.page'));
 const EnginesPage = lazy(() => import('./features/engines/pages/Engines.page'));
 const EngineDetailPage = lazy(() => import('./features/engines/pages/EngineDetail.page'));
 const EngineEditPage = lazy(() => import('./features/engines/pages/EngineEdit.page'));
@@ -278,6 +279,14 @@ export const routes = [
       { path: 'mill/rolling/:runId', element: <MillRunRollingPage /> },
       { path: 'mill/lots', element: <MillLotsPage /> },
       { path: 'mill/lots/:id', element: <MillLotDetailPage /> },
+      {
+        path: 'payments/outstanding',
+        element: (
+          <RequireRole roles={['administrator']}>
+            <OutstandingPage />
+          </RequireRole>
+        ),
+      },
       { path: '*', element: <NotFoundPage /> },
     ],
   },

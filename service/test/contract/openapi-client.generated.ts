@@ -4387,6 +4387,12 @@ export interface components {
           e: components["schemas"]["RunRecordEvent"];
         };
       };
+      /** @description In MONEY_ROOM: a lot's money as GET /api/payments/lots/:id answers it, whenever a payment changes it. */
+      "lot:money": {
+        namedArgs?: {
+          m: components["schemas"]["LotMoney"];
+        };
+      };
     };
     SessionUser: {
       id: string;

@@ -1,8 +1,15 @@
 /**
  * The live channel's events, typed once for both the server (socket.io gateway) and the UI.
- * Rooms: `site` (everyone signed in), `run:<id>`, `engine:<id>`, `administration`.
+ * Rooms: `site` (everyone signed in), `run:<id>`, `engine:<id>`, `administration`, `money` (MONEY_READERS only).
  */
 import type { AlarmDto, IngestResult, ReadingDto, RunDetail, StartGateVerdict, ReadingInput } from '../api/runs.js';
+import type { LotMoney } from '../api/payments.js';
+
+/**
+ * The room of customer lots' money: `lot:money` (a lot's money after a payment is asked, paid, declined, expired or
+ * refunded) goes only there. Only the roles that see money (MONEY_READERS) may join it.
+ */
+export const MONEY_ROOM = 'money';
 
 export interface SiteNotice {
   message: string;
@@ -58,6 +65,8 @@ export interface ServerToClientEvents {
   'alarm:changed': (a: AlarmDto) => void;
   'run:changed': (r: RunDetail) => void;
   'run:record': (e: RunRecordEvent) => void;
+  /** In MONEY_ROOM: a lot's money as GET /api/payments/lots/:id answers it, whenever a payment changes it. */
+  'lot:money': (m: LotMoney) => void;
 }
 
 export interface ClientToServerEvents {

@@ -4987,8 +4987,21 @@ export const sharedSchemas: Record<SharedSchemaName, Record<string, unknown>> = 
           },
         },
       },
+      'lot:money': {
+        $comment: '(m: LotMoney) => void',
+        type: 'object',
+        properties: {
+          namedArgs: {
+            type: 'object',
+            properties: { m: { $ref: '#/components/schemas/LotMoney' } },
+            required: ['m'],
+            additionalProperties: false,
+          },
+        },
+        description: "In MONEY_ROOM: a lot's money as GET /api/payments/lots/:id answers it, whenever a payment changes it.",
+      },
     },
-    required: ['site:notice', 'live:error', 'readings:new', 'reading:amended', 'alarm:changed', 'run:changed', 'run:record'],
+    required: ['site:notice', 'live:error', 'readings:new', 'reading:amended', 'alarm:changed', 'run:changed', 'run:record', 'lot:money'],
     additionalProperties: false,
   },
   SessionUser: {

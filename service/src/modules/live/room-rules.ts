@@ -1,4 +1,4 @@
-import { type Role, ROLES } from '@crankjournal/shared-types';
+import { MONEY_READERS, MONEY_ROOM, type Role, ROLES } from '@crankjournal/shared-types';
 
 const UUID = '[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}';
 
@@ -8,6 +8,7 @@ export const ROOM_RULES: { pattern: RegExp; roles: readonly Role[]; what: string
   { pattern: new RegExp(`^run:${UUID}$`), roles: ROLES, what: 'one run: readings, alarms, state, card sets' },
   { pattern: new RegExp(`^engine:${UUID}$`), roles: ROLES, what: 'one engine: its runs and alarms' },
   { pattern: /^administration$/, roles: ['administrator'], what: 'account changes' },
+  { pattern: new RegExp(`^${MONEY_ROOM}$`), roles: MONEY_READERS, what: "customer lots' money" },
 ];
 
 export function canJoinRoom(role: Role, room: string): { ok: true } | { ok: false; reason: string; status: 403 | 404 } {

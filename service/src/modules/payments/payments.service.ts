@@ -4,6 +4,7 @@ import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
 import { DataSource, In, Repository } from 'typeorm';
 import Stripe from 'stripe';
 import {
+  MONEY_ROOM,
   PAYMENT_KIND_LABELS,
   type LotDetail,
   type LotMoney,
@@ -18,6 +19,7 @@ import type { AuthUser } from '../../common/decorators/current-user.decorator.js
 import { amountToMinorUnits, minorUnitsToAmount, shareOfMinorUnits } from '../../calculations/money.js';
 import { LotsService } from '../mill/lots.service.js';
 import { MailService } from '../mail/mail.service.js';
+import { LiveService } from '../live/live.service.js';
 import { SiteService } from '../site/site.service.js';
 import { UsersService } from '../users/users.service.js';
 import { Payment, PaymentRefund } from './payment.entity.js';
@@ -52,6 +54,7 @@ export class PaymentsService implements OnModuleInit {
     private readonly site: SiteService,
     private readonly users: UsersService,
     private readonly receipts: ReceiptPdfService,
+    private readonly live: LiveService,
   ) {
     this.client = paymentClient(config.get('PAYMENTS_API_KEY'), config.get('PAYMENTS_API_URL'));
   }
@@ -70,6 +73,23 @@ export class PaymentsService implements OnModuleInit {
   private quoted(lot: LotDetail): { minor: number; currency: string; quoteId: string } | null {
     const q = lot.quotes[0];
     return q ? { minor: amountToMinorUnits(q.total, q.currency), currency: q.currency, quoteId: q.id } : null;
+  }
+
+  /**
+   * Tells the people who see money (the money room) a lot's money as it is now, on every instance (the socket
+   * adapter carries room events across instances). A failure is logged: the change itself is stored already.
+   */
+  private async announce(lotId: string): Promise<void> {
+    try {
+      this.tell(await this.lotMoney(lotId));
+    } catch (e) {
+      this.log.warn(`live money of lot ${lotId}: ${e instanceof Error ? e.message : String(e)}`);
+    }
+  }
+
+  private tell(m: LotMoney): LotMoney {
+    this.live.emitToRoom(MONEY_ROOM, 'lot:money', m);
+    return m;
   }
 
   async lotMoney(lotId: string): Promise<LotMoney> {
@@ -235,7 +255,7 @@ export class PaymentsService implements OnModuleInit {
       ].join('\n'),
       attachments: [{ filename, content: buffer, contentType: 'application/pdf' }],
     });
-    return this.lotMoney(lotId);
+    return this.tell(await this.lotMoney(lotId));
   }
 
   private unreachable(e: unknown): never {
@@ -268,7 +288,7 @@ export class PaymentsService implements OnModuleInit {
       );
       if (added.length) await m.query(`UPDATE payments SET refunded_minor = refunded_minor + $2 WHERE id = $1`, [paymentId, refund.amount]);
     });
-    return this.lotMoney(p.lotId);
+    return this.tell(await this.lotMoney(p.lotId));
   }
 
   /** A signed event from the payment service: verified, applied once per event id, in any order. */
@@ -282,6 +302,8 @@ export class PaymentsService implements OnModuleInit {
       throw new BadRequestException('The payment event is not signed with our webhook secret (or is too old); nothing was changed.');
     }
     const after: (() => Promise<void>)[] = [];
+    /** Lots whose money changed without a payment (a declined card, an expired page): told at once after the commit. */
+    const changed = new Set<string>();
     const applied = await this.db.transaction(async (m) => {
       const first: unknown[] = await m.query(
         `INSERT INTO payment_events (event_id, type, received_at) VALUES ($1, $2, now()) ON CONFLICT DO NOTHING RETURNING event_id`,
@@ -306,26 +328,36 @@ export class PaymentsService implements OnModuleInit {
           const err = pi.last_payment_error;
           const reason = [err?.message ?? 'The payment failed.', err?.decline_code ?? err?.code].filter(Boolean).join(' ');
           await m.update(Payment, { id: p.id }, { declineReason: reason });
+          changed.add(p.lotId);
         }
       } else if (event.type === 'checkout.session.expired') {
         const p = await m.findOne(Payment, { where: { sessionId: event.data.object.id }, lock: { mode: 'pessimistic_write' } });
-        if (p && p.state === 'asked') await m.update(Payment, { id: p.id }, { state: 'cancelled' });
+        if (p && p.state === 'asked') {
+          await m.update(Payment, { id: p.id }, { state: 'cancelled' });
+          changed.add(p.lotId);
+        }
       }
       return true;
     });
+    for (const lotId of changed) await this.announce(lotId);
     for (const f of after) await f().catch((e: unknown) => this.log.warn(`after a payment: ${e instanceof Error ? e.message : String(e)}`));
     return { received: true, applied };
   }
 
   private async afterPaid(p: Payment): Promise<void> {
     const lot = await this.lots.detail(p.lotId);
-    if (p.kind === 'deposit')
-      await this.lots.acceptOnDeposit(
-        p.lotId,
-        p.askedBy,
-        p.paidAt ?? new Date(),
-        `Deposit of ${this.money(p.currency, p.amountMinor)} paid.`,
-      );
+    try {
+      if (p.kind === 'deposit')
+        await this.lots.acceptOnDeposit(
+          p.lotId,
+          p.askedBy,
+          p.paidAt ?? new Date(),
+          `Deposit of ${this.money(p.currency, p.amountMinor)} paid.`,
+        );
+    } finally {
+      // Live before the receipt is drawn and e-mailed: the lot page shows the payment as soon as the lot has moved on.
+      await this.announce(p.lotId);
+    }
     const { filename, buffer } = await this.receipts.render({ payment: p, lot });
     await this.mail.send({
       to: p.emailedTo,

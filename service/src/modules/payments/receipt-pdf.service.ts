@@ -6,6 +6,9 @@ import { minorUnitsToAmount } from '../../calculations/money.js';
 import { SiteService } from '../site/site.service.js';
 import type { Payment } from './payment.entity.js';
 
+/** "British Pound" for GBP: the currency's English name, beside its code. */
+const currencyName = (code: string) => new Intl.DisplayNames(['en-GB'], { type: 'currency' }).of(code) ?? code;
+
 /** A receipt for a payment received, on the records layer; e-mailed to the customer. */
 @Injectable()
 export class ReceiptPdfService {
@@ -38,6 +41,7 @@ export class ReceiptPdfService {
               value: `Lot ${lot.reference}: ${productLabel(lot.productShape, lot.productHeightMm, lot.productWidthMm)}, ${lot.steelGrade}`,
             },
             { label: kind, value: money(payment.amountMinor) },
+            { label: 'Currency', value: `${payment.currency} (${currencyName(payment.currency)})` },
             { label: 'Paid through', value: 'the payment service (card payment on its own page)' },
             { label: 'Payment reference', value: payment.paymentIntentId ?? payment.sessionId },
           ],

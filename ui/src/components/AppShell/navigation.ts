@@ -18,6 +18,7 @@ import {
   IconTimeline as IconRollingLog,
   IconTruckDelivery,
   IconQrcode,
+  IconCashBanknote,
 } from '@tabler/icons-react';
 import { ROLES, type Role } from '@crankjournal/shared-types';
 import { CALCULATORS } from '../../features/calculators/calculators';
@@ -102,6 +103,8 @@ NAVIGATION.splice(
       { label: 'Pass schedules', path: '/mill/schedules', icon: IconClipboardList, roles: ROLES },
       { label: 'Rolling log', path: '/mill/rolling', icon: IconRollingLog, roles: ROLES },
       { label: 'Customer lots', path: '/mill/lots', icon: IconTruckDelivery, roles: ROLES },
+      // GET /api/payments/outstanding is the administrator's.
+      { label: 'Money outstanding', path: '/payments/outstanding', icon: IconCashBanknote, roles: ['administrator'] },
     ],
   },
 );
@@ -135,6 +138,7 @@ const SHORT: Record<string, string> = {
   '/mill/schedules': 'Passes',
   '/mill/rolling': 'Rolling',
   '/mill/lots': 'Lots',
+  '/payments/outstanding': 'Owed',
   '/admin/users': 'People',
   '/admin/loggers': 'Loggers',
   '/admin/site': 'Works',

@@ -9,14 +9,17 @@ export const paymentKeys = {
   outstanding: () => [...paymentKeys.all, 'outstanding'] as const,
 };
 
-/** While money is asked the customer may pay at any moment: the state is asked again every few seconds. */
-export const ASKED_POLL_MS = 4000;
+/**
+ * A payment's news comes through the live channel (useMoneyLive). Only while the channel is down and money is asked
+ * (the customer may pay at any moment) is the lot's money asked again, slowly.
+ */
+export const OFFLINE_POLL_MS = 15_000;
 
-export const lotMoneyQuery = (lotId: string) =>
+export const lotMoneyQuery = (lotId: string, opts: { live: boolean } = { live: true }) =>
   queryOptions({
     queryKey: paymentKeys.lot(lotId),
     queryFn: () => api<LotMoney>(`/payments/lots/${lotId}`),
-    refetchInterval: (q) => (q.state.data?.payments.some((p) => p.state === 'asked') ? ASKED_POLL_MS : false),
+    refetchInterval: (q) => (!opts.live && q.state.data?.payments.some((p) => p.state === 'asked') ? OFFLINE_POLL_MS : false),
   });
 
 export const outstandingQuery = () =>

@@ -31,6 +31,7 @@ import { errorText } from '../../../api/http';
 import { useHasRole } from '../../auth/useSession';
 import { when } from '../../mill/model/format';
 import { lotMoneyQuery, useAskPayment, useRefund } from '../api/payments.api';
+import { useMoneyLive } from '../api/useMoneyLive';
 
 /** Minor units (pence, cents) in the currency, through Intl.NumberFormat. */
 export function minorMoney(minor: number | null, currency: string): string {
@@ -198,12 +199,13 @@ function RefundModal({ p, onClose }: { p: PaymentDto; onClose: () => void }) {
   );
 }
 
-/** A lot's money: quoted, asked, paid, refunded, due, and each payment with its state and time (live while asked). */
+/** A lot's money: quoted, asked, paid, refunded, due, and each payment with its state and time (live, through the money room). */
 export function LotMoneyPanel({ lot }: { lot: LotDetail }) {
   const sees = useHasRole(...MONEY_READERS);
   const canAsk = useHasRole(...MONEY_ASKERS);
   const canRefund = useHasRole('administrator');
-  const { data: m, error } = useQuery({ ...lotMoneyQuery(lot.id), enabled: sees });
+  const { connected } = useMoneyLive(sees);
+  const { data: m, error } = useQuery({ ...lotMoneyQuery(lot.id, { live: connected }), enabled: sees });
   const qc = useQueryClient();
   const [asking, setAsking] = useState<PaymentKind | null>(null);
   const [refunding, setRefunding] = useState<PaymentDto | null>(null);
