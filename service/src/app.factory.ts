@@ -13,6 +13,7 @@ import { AppModule } from './app.module.js';
 import { AppConfig } from './config/app-config.service.js';
 import { buildApiDocument } from './common/openapi/openapi-document.js';
 import { PostgresIoAdapter } from './common/ws/postgres-io.adapter.js';
+import { uiAssets } from './common/util/ui-assets.js';
 
 /** Builds the application with every global piece; used by main.ts and the end-to-end tests. */
 export async function createApp(opts: { logger?: boolean } = {}): Promise<NestExpressApplication> {
@@ -40,6 +41,10 @@ export async function createApp(opts: { logger?: boolean } = {}): Promise<NestEx
       strictTransportSecurity: false,
     }),
   );
+  const uiDist = config.get('UI_DIST') ?? join(process.cwd(), '..', 'ui', 'dist');
+  const servesUi = existsSync(join(uiDist, 'index.html'));
+  // The UI's hashed files from memory, compressed once (ahead of the per-answer compression below).
+  if (servesUi) app.use(uiAssets(uiDist));
   // Answers compressed when the client accepts it (the UI's scripts and the JSON of the pages: a tablet on poor
   // Wi-Fi gets a fraction of the bytes). The socket.io channel and uploads are not touched; small answers go plain.
   app.use(compression({ threshold: 1024 }));
@@ -84,8 +89,7 @@ export async function createApp(opts: { logger?: boolean } = {}): Promise<NestEx
   }
   if (docs !== 'off') SwaggerModule.setup('api/docs', app, buildApiDocument(app), { jsonDocumentUrl: 'api/docs-json' });
 
-  const uiDist = config.get('UI_DIST') ?? join(process.cwd(), '..', 'ui', 'dist');
-  if (existsSync(join(uiDist, 'index.html'))) {
+  if (servesUi) {
     app.useStaticAssets(uiDist, {
       index: false,
       maxAge: '1h',

@@ -8,8 +8,21 @@ import { createQueryClient } from './api/queryClient';
 import { setSignedOutHandler } from './api/http';
 import { createRouter } from './Router';
 import { UpdatePrompt } from './components/Offline/UpdatePrompt';
+import { sessionStore } from './api/session';
 
 const queryClient = createQueryClient();
+
+/**
+ * The app opened straight on a live run page (a link, a reload): the shell's and the page's code and the page's first
+ * answers are all asked for now, side by side, instead of one after another as each lazy part renders.
+ */
+const liveRun = /^\/runs\/([0-9a-f-]{36})\/?$/i.exec(window.location.pathname);
+if (liveRun && sessionStore.get()) {
+  // The answers' small module first: the browser sends six requests at a time, and the code comes in dozens of files.
+  void import('./features/runs/live/live-preload').then((m) => m.preloadLiveRun(queryClient, liveRun[1]!));
+  void import('./components/AppShell/Shell');
+  void import('./features/runs/live/LiveRun.page');
+}
 
 export function App() {
   const router = useMemo(() => createRouter(), []);

@@ -97,12 +97,23 @@ export function driftRuleText(
   );
 }
 
+const T_QUANTILES = new Map<string, number>();
+
 /** The Student t quantile t(1 − α/2, ν) for a two-sided coverage (e.g. 0.95) and ν degrees of freedom. */
 export function studentTTwoSided(confidence: number, degreesOfFreedom: number): number {
   assertFinite('confidence', confidence);
   if (!(confidence > 0 && confidence < 1)) throw new CalculationInputError(null, 'confidence must be between 0 and 1');
   if (!(degreesOfFreedom >= 1)) throw new CalculationInputError(null, 'at least one degree of freedom is needed');
-  return tQuantile(1 - (1 - confidence) / 2, degreesOfFreedom);
+  // Kept once worked out: the quantile is an iterative inverse (tens of microseconds), and a bearing history asks for
+  // the same few (one coverage, one per count of earlier runs) once per run of every bearing.
+  const key = `${confidence}|${degreesOfFreedom}`;
+  let t = T_QUANTILES.get(key);
+  if (t === undefined) {
+    t = tQuantile(1 - (1 - confidence) / 2, degreesOfFreedom);
+    if (T_QUANTILES.size >= 10_000) T_QUANTILES.clear();
+    T_QUANTILES.set(key, t);
+  }
+  return t;
 }
 
 /** Fit the normal band to a bearing's earlier runs (at least MIN_RUNS_TO_JUDGE of them). */

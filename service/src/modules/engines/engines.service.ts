@@ -85,9 +85,13 @@ export class EnginesService {
   }
 
   async detail(id: string): Promise<EngineDetail> {
+    // Each kind of part by a query of its own: joined in one, the rows multiplied (cylinders × bearings × lubrication
+    // points × measurement points, 176 rows for a two-cylinder engine) and building the entities from them was most
+    // of the read.
     const e = await this.engines.findOne({
       where: { id },
       relations: { cylinders: true, bearings: true, lubricationPoints: true, measurementPoints: true },
+      relationLoadStrategy: 'query',
     });
     if (!e) throw new NotFoundException('No such engine.');
     const lubeById = new Map((e.lubricationPoints ?? []).map((l) => [l.id, l.label]));
@@ -438,6 +442,19 @@ export class EnginesService {
         changedAt: c.changedAt.toISOString(),
       };
     });
+  }
+
+  /** The active bearings of some engines (in the engines' order of position), in one read: for lists across engines. */
+  async activeBearings(engineIds: string[]): Promise<Map<string, Pick<Bearing, 'id' | 'label' | 'kind'>[]>> {
+    const out = new Map<string, Pick<Bearing, 'id' | 'label' | 'kind'>[]>(engineIds.map((id) => [id, []]));
+    if (!engineIds.length) return out;
+    const rows = await this.db.getRepository(Bearing).find({
+      select: { id: true, engineId: true, label: true, kind: true, position: true },
+      where: { engineId: In(engineIds), active: true },
+      order: { position: 'ASC' },
+    });
+    for (const b of rows) out.get(b.engineId)?.push({ id: b.id, label: b.label, kind: b.kind });
+    return out;
   }
 
   /** The engine and its active points, for evaluating readings quickly. */

@@ -340,19 +340,22 @@ export class BearingHistoryService {
 
   /**
    * Every bearing of every engine with a short account of its runs. The engines are read side by side; the
-   * list needs no alarms (only the drift verdicts), so none are read.
+   * list needs no alarms (only the drift verdicts), so none are read, and of the engines only their bearings.
    */
   async list(): Promise<BearingListItem[]> {
     const names = await this.facts.engineNames();
+    // Only the bearings' names are needed of each engine: one read for all engines, not each engine's whole detail.
+    const bearingsOf = this.facts.activeBearings([...names.keys()]);
     const perEngine = await Promise.all(
       [...names].map(async ([engineId, engineName]): Promise<BearingListItem[]> => {
-        const [engine, ctx] = await Promise.all([this.facts.detail(engineId), this.engineContext(engineId)]);
-        const bearingIds = engine.bearings.map((b) => b.id);
+        const [all, ctx] = await Promise.all([bearingsOf, this.engineContext(engineId)]);
+        const bearings = all.get(engineId) ?? [];
+        const bearingIds = bearings.map((b) => b.id);
         const [{ stats }, inspected] = await Promise.all([
           this.figures(ctx, bearingIds, false),
           this.inspections.lastInspectedAt(bearingIds),
         ]);
-        return engine.bearings.map((b) => {
+        return bearings.map((b) => {
           const { rows } = this.runRows(ctx, b.id, stats, []);
           const last = rows[rows.length - 1];
           return {

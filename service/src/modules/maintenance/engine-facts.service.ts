@@ -36,6 +36,13 @@ export class EngineFactsService {
     return this.engines.detail(engineId);
   }
 
+  /** The active bearings of each engine (id, label, kind), in position order, in one read. */
+  activeBearings(
+    engineIds: string[],
+  ): Promise<Map<string, { id: string; label: string; kind: EngineDetail['bearings'][number]['kind'] }[]>> {
+    return this.engines.activeBearings(engineIds);
+  }
+
   /** Every measurement point of the engine, retired ones included (their readings stay in the record). */
   async allPoints(engineId: string): Promise<MeasurementPoint[]> {
     return (await this.engines.withPoints(engineId)).points;

@@ -150,6 +150,29 @@ describe('live run page', () => {
     expect(await screen.findByTestId('board-MB2-T')).toHaveTextContent('High-high — not acknowledged');
   });
 
+  it("loads the indicator cards' panel when its tab is opened", async () => {
+    signIn('observer');
+    stubFetch({
+      [`GET /runs/${RUN}`]: run,
+      [`GET /engines/${ENGINE}`]: engine,
+      [`GET /runs/${RUN}/board`]: board,
+      [`GET /runs/${RUN}/readings*`]: [],
+      [`GET /runs/${RUN}/alarms`]: [alarm],
+      'GET /alarms': [alarm],
+      [`GET /runs/${RUN}/start-gate`]: { allowed: true, reasons: [] },
+      'GET /units/conversions': { imperial: {}, metric: {} },
+      [`GET /runs/${RUN}/card-sets`]: [],
+      [`GET /runs/${RUN}/brake-figures`]: [],
+    });
+    render(
+      <Routes>
+        <Route path="/runs/:id" element={<LiveRunPage />} />
+      </Routes>,
+      { route: `/runs/${RUN}?tab=cards` },
+    );
+    expect(await screen.findByTestId('card-sets-panel', {}, { timeout: 5000 })).toBeInTheDocument();
+  });
+
   it('shows an observer everything but no write buttons', async () => {
     signIn('observer');
     page();

@@ -8,7 +8,6 @@ import { IconClipboardList, IconCloudOff, IconFileTypeCsv, IconFileTypePdf, Icon
 import { RUN_STATES_TAKING_READINGS, type AlarmDto, type ReadingDto } from '@crankjournal/shared-types';
 import { RunChecklistsLink } from '../../checklists/components/RunChecklistsLink';
 import { PreLubeCountdown } from '../../checklists/components/PreLubeCountdown';
-import { CardSetsPanel } from '../../indicator-cards';
 import { errorText } from '../../../api/http';
 import { useHasRole } from '../../auth/useSession';
 import { engineDetailQuery } from '../../engines/api/engines.api';
@@ -38,6 +37,8 @@ import { useLiveRun } from './useLiveRun';
 
 /** The trend charts (and the charts library) load after the board's tiles and the run are on screen. */
 const TrendCharts = lazy(() => import('./TrendCharts').then((m) => ({ default: m.TrendCharts })));
+/** The indicator cards (and the charts library they draw with) load only when their tab is opened. */
+const CardSetsPanel = lazy(() => import('../../indicator-cards').then((m) => ({ default: m.CardSetsPanel })));
 
 const TABS = ['board', 'alarms', 'readings', 'cards', 'import'] as const;
 type Tab = (typeof TABS)[number];
@@ -274,7 +275,9 @@ export default function LiveRunPage() {
         </Tabs.Panel>
 
         <Tabs.Panel value="cards">
-          <CardSetsPanel runId={id} />
+          <Suspense fallback={<Loader />}>
+            <CardSetsPanel runId={id} />
+          </Suspense>
         </Tabs.Panel>
 
         {mayWrite && takingReadings && (

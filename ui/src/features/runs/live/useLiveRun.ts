@@ -41,11 +41,19 @@ export function useLiveRun(runId: string, engineId?: string): { connected: boole
     const onRun = (r: RunDetail) => {
       if (r.id === runId) applyRun(r);
     };
+    // Asks again for what was read before the room was joined. A read still on its way (the page's first, on a cold
+    // start) is not cut off and started over, which would hold the screen back: it is asked for again once it is in.
+    const catchUp = (queryKey: readonly unknown[]) => {
+      const onTheWay = qc.getQueryCache().findAll({ queryKey, fetchStatus: 'fetching' });
+      void qc.invalidateQueries({ queryKey }, { cancelRefetch: false }).then(() => {
+        for (const q of onTheWay) void qc.refetchQueries({ queryKey: q.queryKey, exact: true }, { cancelRefetch: false });
+      });
+    };
     const onConnect = () => {
       setConnected(true);
       if (missed) {
-        void qc.invalidateQueries({ queryKey: runKeys.run(runId) });
-        if (engineId) void qc.invalidateQueries({ queryKey: openAlarmKeys.engine(engineId) });
+        catchUp(runKeys.run(runId));
+        if (engineId) catchUp(openAlarmKeys.engine(engineId));
       }
       missed = false;
     };
