@@ -412,7 +412,7 @@ export class IngestService {
       `WITH known AS (SELECT client_id FROM readings WHERE run_id = $1 AND client_id = ANY(string_to_array($2, ',')::uuid[]))
        SELECT (SELECT string_agg(client_id::text, ',') FROM known) AS known,
               (SELECT string_agg(id::text, ',' ORDER BY id)
-                 FROM (SELECT nextval(pg_get_serial_sequence('readings', 'id')) AS id
+                 FROM (SELECT nextval((SELECT pg_get_serial_sequence('readings', 'id')::regclass)) AS id
                          FROM generate_series(1, $3::int - (SELECT count(*) FROM known)::int)) n) AS ids`,
       [runId, [...seen].join(','), seen.size],
     )) as { known: string | null; ids: string | null }[];
