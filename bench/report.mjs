@@ -166,7 +166,7 @@ md.push('');
 md.push(
   `Measured by \`npm run bench\` (bench/run.sh) on ` +
     `${new Date().toISOString().slice(0, 10)}${seconds ? `, in ${Math.round(seconds / 60)} minutes` : ''}. ` +
-    'Each benchmark runs against the built service (`node --max-old-space-size=192 service/dist/main.js`, as in ' +
+    'Each benchmark runs against the built service (`node --max-old-space-size=224 service/dist/main.js`, as in ' +
     'production; NODE_ENV=production, LOG_LEVEL=warn) ' +
     'as its own process, ' +
     'a private PostgreSQL cluster with durable commits (fsync on, as in service) and a fresh database, all on 127.0.0.1. ' +

@@ -8,7 +8,7 @@ export PLAYWRIGHT_SKIP_BROWSER_DOWNLOAD=1
 CHILD_PIDS=()
 # How the service's Node.js runs: V8 would let the heap grow to three or four times what it holds before collecting
 # (a million-row CSV import reached 540 MB); capped, the process stays under 300 MB at the same speed.
-SERVICE_NODE_FLAGS=(--max-old-space-size=192)
+SERVICE_NODE_FLAGS=(--max-old-space-size=224)
 
 say() { printf '\033[1;33m[crankjournal]\033[0m %s\n' "$*"; }
 as_root() { if [ "$(id -u)" = 0 ]; then "$@"; else sudo "$@"; fi; }

@@ -11,7 +11,7 @@ import { createEngine, createPreparingRun } from './factories/engine.factory.js'
  * ON CONFLICT); the run's figures per point are kept in the same statement. What a caller sees must be what the
  * row-by-row path gave: each reading stored once, bad lines reported by line, alarms raised by the rules.
  */
-describe('storing large batches (staging table) and the kept per-run figures', () => {
+describe('storing large batches (by COPY) and the kept per-run figures', () => {
   let t: TestApp;
   let chief: SignedIn;
   let operator: SignedIn;
@@ -149,5 +149,24 @@ describe('storing large batches (staging table) and the kept per-run figures', (
     expect(kept.count).toBe(recount.count);
     expect(kept.peak).toBe(129);
     expect(kept.least).toBe(120);
+    // A stored id sent again with another value, in a batch large enough to go by COPY: refused whole, nothing kept.
+    const reused = await t.http
+      .post('/api/logger/readings')
+      .set('x-logger-key', issued.body.key)
+      .send({ runId: run.id, readings: [...Array.from({ length: 250 }, (_, i) => mk(300 + i)), { ...mk(5), value: 99 }] });
+    expect(reused.status).toBe(409);
+    expect(reused.body.message).toContain(`clientId ${mk(5).clientId} was already used in this run`);
+    expect((await figures('THR')).kept.count).toBe(300);
+    // The same id twice in one large batch (in upper case the second time) is one reading.
+    const twice = await t.http
+      .post('/api/logger/readings')
+      .set('x-logger-key', issued.body.key)
+      .send({
+        runId: run.id,
+        readings: [...Array.from({ length: 250 }, (_, i) => mk(300 + i)), { ...mk(300), clientId: mk(300).clientId.toUpperCase() }],
+      });
+    expect(twice.status).toBe(201);
+    expect(twice.body).toMatchObject({ stored: 250, duplicates: 1 });
+    expect((await figures('THR')).kept).toMatchObject({ count: 550, peak: 129, least: 120 });
   });
 });

@@ -56,7 +56,8 @@ export const FORECAST_METHOD_WORDS =
   "trend is steady (Kendall's tau at least 0.6 toward the limit).";
 
 function median(xs: number[]): number {
-  const s = [...xs].sort((a, b) => a - b);
+  // A typed array sorts numbers in ascending order natively (no comparator call per comparison): several times faster.
+  const s = Float64Array.from(xs).sort();
   const m = s.length >> 1;
   return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
 }

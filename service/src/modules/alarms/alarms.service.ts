@@ -84,6 +84,11 @@ interface EngineState {
   /** The engine's ingest count (engine_ingest_marks) this state includes: another instance's write makes it stale. */
   seq: number;
   recent: Map<string, PointReading[]>;
+  /**
+   * Per point: readings of `recent` before this time (ms) count as gone. They are dropped in bulk, once they span a
+   * second window, rather than one at a time (each drop moves the whole list: most of a logger batch's evaluation).
+   */
+  floor: Map<string, number>;
   open: Map<string, Alarm>;
   ambient: { value: number; unit: string; takenAt: Date } | null;
 }
@@ -136,9 +141,9 @@ function insertByTime(list: PointReading[], r: PointReading) {
  * The earliest reading of a time-ordered list within [takenAt − window, takenAt] with a finite value (the
  * first such in arrival order among readings of the same moment), as a one-element list; empty when none.
  */
-function oldestInWindow(list: readonly PointReading[], takenAt: Date, windowMinutes: number): PointReading[] {
+function oldestInWindow(list: readonly PointReading[], takenAt: Date, windowMinutes: number, floor = -Infinity): PointReading[] {
   const end = takenAt.getTime();
-  const start = end - windowMinutes * 60_000;
+  const start = Math.max(end - windowMinutes * 60_000, floor);
   let lo = 0;
   let hi = list.length;
   while (lo < hi) {
@@ -215,6 +220,7 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
     const st: EngineState = {
       seq: 0,
       recent,
+      floor: new Map(),
       open: new Map(open.map((a) => [`${a.pointId}:${a.kind}`, a])),
       ambient,
     };
@@ -278,9 +284,13 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
       const backDated = list.length > 0 && r.takenAt.getTime() < list[list.length - 1].takenAt.getTime();
       insertByTime(list, { pointId: point.id, value: r.value, takenAt: r.takenAt });
       const cutoff = r.takenAt.getTime() - RATE_WINDOW_MINUTES * 60_000;
-      let drop = 0;
-      while (drop < list.length && list[drop].takenAt.getTime() < cutoff) drop++;
-      if (drop) list.splice(0, drop);
+      const floor = Math.max(st.floor.get(point.id) ?? -Infinity, cutoff);
+      st.floor.set(point.id, floor);
+      if (list[0].takenAt.getTime() < floor - RATE_WINDOW_MINUTES * 60_000) {
+        let drop = 0;
+        while (drop < list.length && list[drop].takenAt.getTime() < floor) drop++;
+        list.splice(0, drop);
+      }
       st.recent.set(point.id, list);
       if (point.kind === 'ambient_temperature') {
         if (!st.ambient || st.ambient.takenAt <= r.takenAt) st.ambient = { value: r.value, unit: point.unit, takenAt: r.takenAt };
@@ -313,7 +323,8 @@ export class AlarmsService implements OnModuleInit, OnModuleDestroy {
         reading: { pointId: point.id, value: r.value, takenAt: r.takenAt },
         // The list is kept in time order, so the rate of rise needs only the oldest reading of the window
         // (the one riseRatePerMinute would pick from the whole list): O(log n) instead of O(n) per reading.
-        recentHistory: oldestInWindow(list, r.takenAt, RATE_WINDOW_MINUTES),
+        // (A reading older than the floor still sees itself, as when the older ones were dropped one at a time.)
+        recentHistory: oldestInWindow(list, r.takenAt, RATE_WINDOW_MINUTES, Math.min(floor, r.takenAt.getTime())),
         ambientTemperature: this.ambientIn(st, point),
         activeConditions,
         rateWindowMinutes: RATE_WINDOW_MINUTES,

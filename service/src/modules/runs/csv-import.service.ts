@@ -9,7 +9,7 @@ import { CsvLineLimiter } from './csv-lines.js';
 import { RunsService } from './runs.service.js';
 import type { Run } from './run.entity.js';
 
-const CHUNK_ROWS = 5000;
+const CHUNK_ROWS = 2500;
 const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
 const COLUMNS: Record<string, string> = {
   takenAt: 'taken_at',

@@ -129,8 +129,6 @@ export class IngestService {
   private readonly mutex = new KeyedMutex();
   /** Per engine: batches waiting for the engine's turn, oldest first. */
   private readonly waiting = new Map<string, StoreJob[]>();
-  /** Database connections that hold the staging table of insertByCopy. */
-  private readonly staged = new WeakSet<PoolClient>();
 
   constructor(
     @InjectDataSource() private readonly db: DataSource,
@@ -270,25 +268,29 @@ export class IngestService {
     group.forEach((j, job) => j.good.forEach((g) => rows.push({ job, g })));
     let outcome;
     let inserted: { job: number; row: InsertedRow }[];
-    const madeStage: PoolClient[] = [];
     try {
       // The one transaction of a store: everything from here to its commit happens in it.
       ({ inserted, outcome } = await this.db.transaction(async (m) => {
         // Across service instances: one transaction per engine at a time (the mutex above orders this instance only).
-        await m.query(`SELECT pg_advisory_xact_lock(${ENGINE_WRITE_LOCK}, hashtext($1))`, [engineId]);
-        const [state] = (await m.query(`SELECT state FROM runs WHERE id = $1 FOR SHARE`, [run.id])) as { state: RunState }[];
+        // The engine's lock and the run's state (held FOR SHARE) in one round trip: the lock is taken in the filter
+        // of the run's row, before the row lock (a missing run takes no lock and is refused below).
+        const [state] = (await m.query(
+          `SELECT state FROM runs WHERE id = $1 AND pg_advisory_xact_lock(${ENGINE_WRITE_LOCK}, hashtext($2)) IS NOT NULL FOR SHARE`,
+          [run.id, engineId],
+        )) as { state: RunState }[];
         if (!state || !RUN_STATES_TAKING_READINGS.includes(state.state)) throw new ConflictException('This run no longer takes readings.');
         const ids =
           rows.length >= COPY_MIN_ROWS
-            ? await this.insertByCopy(m, run.id, engineId, group, rows, madeStage)
+            ? await this.insertByCopy(m, run.id, engineId, group, rows)
             : await this.insertByUnnest(m, run.id, engineId, group, rows);
         // Only the new ids come back from the database; the rest is what was just checked. A client id
         // sent by two batches of the group counts for the first.
         const byClientId = new Map<string, { job: number; g: GoodRow }>();
-        for (const r of rows) if (!byClientId.has(r.g.clientId)) byClientId.set(r.g.clientId, r);
+        // Keyed in lower case, as the database writes a uuid back.
+        for (const r of rows) if (!byClientId.has(r.g.clientId.toLowerCase())) byClientId.set(r.g.clientId.toLowerCase(), r);
         const ins = ids.map(({ id, client_id }) => {
-          const { job, g } = byClientId.get(client_id)!;
-          return { job, row: { id, client_id, point_id: g.point.id, value: g.value, unit: g.point.unit, taken_at: g.takenAt } };
+          const { job, g } = byClientId.get(client_id.toLowerCase())!;
+          return { job, row: { id, client_id: g.clientId, point_id: g.point.id, value: g.value, unit: g.point.unit, taken_at: g.takenAt } };
         });
         await this.assertResentUnchanged(m, run.id, rows, ins);
         const fresh: NewReading[] = ins.map(({ row }) => ({
@@ -303,7 +305,6 @@ export class IngestService {
       }));
     } catch (e) {
       this.alarms.forget(engineId);
-      for (const c of madeStage) this.staged.delete(c); // rolled back with the transaction
       throw e;
     }
     await this.alarms.publish(outcome);
@@ -312,7 +313,7 @@ export class IngestService {
     if (inserted.length)
       this.broadcast(
         run,
-        inserted.map((x) => ({ ...x.row, source: group[x.job].ctx.source })),
+        inserted.map((x) => ({ row: x.row, source: group[x.job].ctx.source })),
       );
     return group.map((j, job) => {
       const mine = inserted.filter((x) => x.job === job).map((x) => x.row);
@@ -349,7 +350,7 @@ export class IngestService {
     );
     const byId = new Map(stored.map((s) => [s.client_id, s]));
     const clashes = resent.filter((g) => {
-      const s = byId.get(g.clientId);
+      const s = byId.get(g.clientId.toLowerCase());
       return !s || s.point_id !== g.point.id || Number(s.value) !== g.value || new Date(s.taken_at).getTime() !== g.takenAt.getTime();
     });
     if (clashes.length)
@@ -392,64 +393,104 @@ export class IngestService {
   }
 
   /**
-   * Many rows (logger batches, CSV chunks): COPY into a temporary staging table of the connection, then one
-   * INSERT ... SELECT ... ON CONFLICT into readings. COPY is PostgreSQL's cheapest way in; the staging table
-   * keeps "once per client id" and hands back the new ids, which a COPY straight into readings could not.
+   * Many rows (logger batches, CSV chunks): COPY straight into readings. The caller holds the engine's lock, and
+   * readings are written nowhere else, so no other transaction adds readings of this run meanwhile: one indexed
+   * query finds which client ids the run already holds (and takes ids for the new rows from the table's sequence),
+   * the new rows (the first of each client id) go in by COPY with those ids, and the run's kept figures are added to
+   * from sums made here. Resent ids are then checked by the caller (assertResentUnchanged), as after ON CONFLICT.
    */
-  private async insertByCopy(
-    m: EntityManager,
-    runId: string,
-    engineId: string,
-    group: StoreJob[],
-    rows: GroupRow[],
-    madeStage: PoolClient[],
-  ): Promise<StoredId[]> {
-    const client = (await m.queryRunner!.connect()) as PoolClient;
-    if (!this.staged.has(client)) {
-      // Kept for the connection's life, emptied at every commit; made again if the transaction that made it rolls back.
-      await m.query(
-        `CREATE TEMP TABLE IF NOT EXISTS reading_stage (client_id uuid, point_id uuid, value float8, unit text,
-           taken_at timestamptz, source text, entered_by uuid, logger_id uuid) ON COMMIT DELETE ROWS`,
-      );
-      this.staged.add(client);
-      madeStage.push(client);
+  private async insertByCopy(m: EntityManager, runId: string, engineId: string, group: StoreJob[], rows: GroupRow[]): Promise<StoredId[]> {
+    const firsts: GroupRow[] = [];
+    const seen = new Set<string>();
+    for (const r of rows) {
+      const key = r.g.clientId.toLowerCase();
+      if (seen.has(key)) continue;
+      seen.add(key);
+      firsts.push(r);
     }
-    const copy = client.query(copyFrom('COPY reading_stage FROM STDIN'));
+    const [taken] = (await m.query(
+      `WITH known AS (SELECT client_id FROM readings WHERE run_id = $1 AND client_id = ANY(string_to_array($2, ',')::uuid[]))
+       SELECT (SELECT string_agg(client_id::text, ',') FROM known) AS known,
+              (SELECT string_agg(id::text, ',' ORDER BY id)
+                 FROM (SELECT nextval((SELECT pg_get_serial_sequence('readings', 'id')::regclass)) AS id
+                         FROM generate_series(1, $3::int - (SELECT count(*) FROM known)::int)) n) AS ids`,
+      [runId, [...seen].join(','), seen.size],
+    )) as { known: string | null; ids: string | null }[];
+    const known = new Set(taken.known ? taken.known.split(',') : []);
+    const fresh = known.size ? firsts.filter((r) => !known.has(r.g.clientId.toLowerCase())) : firsts;
+    const ids = taken.ids ? taken.ids.split(',') : [];
+    if (ids.length !== fresh.length) throw new Error(`expected ${fresh.length} reading ids, got ${ids.length}`);
+    if (!fresh.length) return [];
+    const client = (await m.queryRunner!.connect()) as PoolClient;
+    const copy = client.query(
+      copyFrom(
+        'COPY readings (id, client_id, run_id, engine_id, point_id, value, unit, taken_at, source, entered_by, logger_id) FROM STDIN',
+      ),
+    );
+    const figures = new Map<string, { count: number; total: number; peak: number; least: number; first: number; last: number }>();
     async function* lines() {
-      for (let i = 0; i < rows.length; i += YIELD_EVERY_ROWS) {
+      for (let i = 0; i < fresh.length; i += YIELD_EVERY_ROWS) {
         let text = '';
-        for (const { job, g } of rows.slice(i, i + YIELD_EVERY_ROWS)) {
+        const end = Math.min(fresh.length, i + YIELD_EVERY_ROWS);
+        for (let k = i; k < end; k++) {
+          const { job, g } = fresh[k];
           const ctx = group[job].ctx;
-          const what = `${g.value}\t${copyText(g.point.unit)}\t${g.takenAt.toISOString()}`;
+          const t = g.takenAt.getTime();
+          const f = figures.get(g.point.id);
+          if (!f) figures.set(g.point.id, { count: 1, total: g.value, peak: g.value, least: g.value, first: t, last: t });
+          else {
+            f.count++;
+            f.total += g.value;
+            if (g.value > f.peak) f.peak = g.value;
+            if (g.value < f.least) f.least = g.value;
+            if (t < f.first) f.first = t;
+            if (t > f.last) f.last = t;
+          }
+          const what = `${g.point.id}\t${g.value}\t${copyText(g.point.unit)}\t${g.takenAt.toISOString()}`;
           const who = `${ctx.source}\t${ctx.enteredBy ?? '\\N'}\t${ctx.loggerId ?? '\\N'}`;
-          text += `${g.clientId}\t${g.point.id}\t${what}\t${who}\n`;
+          text += `${ids[k]}\t${g.clientId}\t${runId}\t${engineId}\t${what}\t${who}\n`;
         }
         yield text;
         await yieldToEventLoop();
       }
     }
     await pipeline(Readable.from(lines()), copy);
-    return m.query(
-      `WITH ins AS (INSERT INTO readings (client_id, run_id, engine_id, point_id, value, unit, taken_at, source, entered_by, logger_id)
-       SELECT client_id, $1::uuid, $2::uuid, point_id, value, unit, taken_at, source, entered_by, logger_id FROM reading_stage
-       ON CONFLICT (run_id, client_id) DO NOTHING
-       RETURNING id, client_id, point_id, value, taken_at)${keepFigures('$1')}`,
-      [runId, engineId],
+    const fig = [...figures];
+    await m.query(
+      `INSERT INTO run_point_figures AS f (run_id, point_id, count, total, peak, least, first_at, last_at)
+       SELECT $1::uuid, x.*
+         FROM unnest($2::uuid[], $3::int[], $4::float8[], $5::float8[], $6::float8[], $7::timestamptz[], $8::timestamptz[])
+           AS x(point_id, count, total, peak, least, first_at, last_at)
+       ON CONFLICT (run_id, point_id) DO UPDATE SET
+         count = f.count + EXCLUDED.count, total = f.total + EXCLUDED.total,
+         peak = GREATEST(f.peak, EXCLUDED.peak), least = LEAST(f.least, EXCLUDED.least),
+         first_at = LEAST(f.first_at, EXCLUDED.first_at), last_at = GREATEST(f.last_at, EXCLUDED.last_at)`,
+      [
+        runId,
+        fig.map(([p]) => p),
+        fig.map(([, f]) => f.count),
+        fig.map(([, f]) => f.total),
+        fig.map(([, f]) => f.peak),
+        fig.map(([, f]) => f.least),
+        fig.map(([, f]) => new Date(f.first).toISOString()),
+        fig.map(([, f]) => new Date(f.last).toISOString()),
+      ],
     );
+    return fresh.map((r, k) => ({ id: ids[k], client_id: r.g.clientId }));
   }
 
-  private broadcast(run: Run, inserted: (InsertedRow & { source: ReadingSource })[]) {
+  private broadcast(run: Run, inserted: { row: InsertedRow; source: ReadingSource }[]) {
     // A large logger batch sends only the newest value of each point; viewers fetch the rest as they need.
     let rows = inserted;
     if (rows.length > 500) {
       const latest = new Map<string, (typeof rows)[number]>();
       for (const r of rows) {
-        const cur = latest.get(r.point_id);
-        if (!cur || cur.taken_at < r.taken_at) latest.set(r.point_id, r);
+        const cur = latest.get(r.row.point_id);
+        if (!cur || cur.row.taken_at < r.row.taken_at) latest.set(r.row.point_id, r);
       }
       rows = [...latest.values()];
     }
-    const readings: ReadingDto[] = rows.map((r) => ({
+    const readings: ReadingDto[] = rows.map(({ row: r, source }) => ({
       id: String(r.id),
       clientId: r.client_id,
       runId: run.id,
@@ -458,7 +499,7 @@ export class IngestService {
       originalValue: null,
       unit: r.unit,
       takenAt: r.taken_at.toISOString(),
-      source: r.source,
+      source,
       enteredByName: null,
       amendments: [],
     }));
