@@ -2,6 +2,8 @@ import { expect, test, type APIRequestContext } from '@playwright/test';
 import type { LotDetail, MillDto, QuoteDto, TokenPair } from '@crankjournal/shared-types';
 import { DEMO_PASSWORD, signIn, waitForMail } from './helpers';
 
+const SHOTS = process.env.SCREENSHOT_DIR ?? '../.data/test-results/screens';
+
 async function login(request: APIRequestContext, email: string): Promise<TokenPair> {
   const r = await request.post('/api/auth/login', { data: { email, password: DEMO_PASSWORD } });
   expect(r.ok()).toBeTruthy();
@@ -79,6 +81,7 @@ test('the mill lead asks for a deposit; the customer pays on the payment page; t
     await pay.getByLabel('Card number').fill('4242 4242 4242 4242');
     await pay.getByLabel('Expiry').fill('12 / 30');
     await pay.getByLabel('CVC').fill('123');
+    await pay.screenshot({ path: `${SHOTS}/payments-standin-checkout.png` });
     await pay.getByRole('button', { name: `Pay ${sum}` }).click();
     await expect(pay.getByText('Thank you. We will e-mail you a receipt.')).toBeVisible();
   } finally {
@@ -91,6 +94,8 @@ test('the mill lead asks for a deposit; the customer pays on the payment page; t
   await expect(page.getByRole('button', { name: 'Ask for the deposit' })).toHaveCount(0);
   expect(await page.evaluate(() => (window as Window & { notReloaded?: boolean }).notReloaded)).toBe(true);
   expect(moneyReads).toEqual([]);
+  await page.getByRole('heading', { name: 'Money' }).scrollIntoViewIfNeeded();
+  await page.screenshot({ path: `${SHOTS}/payments-lot-paid.png` });
   // And the customer has the receipt.
   expect((await waitForMail(email, 15_000, /^Receipt: deposit/)).subject).toContain(lot.reference);
 });
@@ -104,6 +109,7 @@ test('the administrator finds a lot with money outstanding and opens it', async 
   const row = table.getByRole('row').filter({ has: page.getByRole('link', { name: lot.reference }) });
   await expect(row).toContainText('Nothing asked yet');
   await expect(row.getByTestId(`due-${lot.reference}`)).toHaveText(/^[£$][\d,]+\.\d{2}$/);
+  await page.screenshot({ path: `${SHOTS}/payments-outstanding.png` });
   await row.getByRole('link', { name: lot.reference }).click();
   await expect(page).toHaveURL(new RegExp(`/mill/lots/${lot.id}$`));
   await expect(page.getByRole('heading', { name: 'Money' })).toBeVisible();
