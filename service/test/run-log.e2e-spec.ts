@@ -1,5 +1,5 @@
 import { randomUUID } from 'node:crypto';
-import type { AlarmDto, EngineDetail, IngestResult, ReadingDto, RunDetail } from '@crankjournal/shared-types';
+import type { AlarmDto, EngineDetail, IngestResult, ReadingDto, RunDetail, RunDetailWithEngine } from '@crankjournal/shared-types';
 import { startTestApp, type TestApp } from './utils/test-app.js';
 import { signedIn } from './utils/signed-in.js';
 import { login, type SignedIn } from './factories/users.factory.js';
@@ -315,6 +315,25 @@ describe('the run log (engines, runs, readings, alarms) against PostgreSQL', () 
       expect(ab.status).toBe(200);
       expect(ab.body).toMatchObject({ state: 'abandoned', abandonedReason: 'Boiler feed pump failed' });
       expect((await signedIn(t, operator).patch(`/api/runs/${run.id}`).send({ notes: 'later' })).status).toBe(409);
+    });
+
+    it("a run's answer carries its engine's detail, as the engine's own route gives it, to every role that reads the run", async () => {
+      const e = await createEngine(t, chief.accessToken);
+      const run = await createPreparingRun(t, operator.accessToken, e.id);
+      const own = (await signedIn(t, observer).get(`/api/engines/${e.id}`)).body as EngineDetail;
+      for (const who of [observer, maintenance, operator, chief]) {
+        const res = await signedIn(t, who).get(`/api/runs/${run.id}`);
+        expect(res.status).toBe(200);
+        const body = res.body as RunDetailWithEngine;
+        expect(body).toMatchObject({ id: run.id, engineId: e.id });
+        expect(body.engine).toEqual(own);
+      }
+      expect((await t.http.get(`/api/runs/${run.id}`)).status).toBe(401);
+      expect((await signedIn(t, observer).get(`/api/runs/${randomUUID()}`)).status).toBe(404);
+      // The answers of a change stay the run alone.
+      const patched = await signedIn(t, operator).patch(`/api/runs/${run.id}`).send({ notes: 'oil checked' });
+      expect(patched.status).toBe(200);
+      expect(patched.body.engine).toBeUndefined();
     });
 
     it('an alarm left open by an earlier run is closed out, and the next run raises its own', async () => {

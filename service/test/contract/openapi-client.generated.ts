@@ -4197,6 +4197,32 @@ export interface components {
       peaks: components["schemas"]["PointPeak"][];
       createdAt: string;
     };
+    /** @description GET /runs/:id: the run with its engine's detail (the same as GET /engines/:id), so a run's page needs one request. */
+    RunDetailWithEngine: {
+      id: string;
+      engineId: string;
+      engineName: string;
+      purpose: components["schemas"]["RunPurpose"];
+      state: components["schemas"]["RunState"];
+      title: string;
+      plannedFor: string | null;
+      startedAt: string | null;
+      stoppedAt: string | null;
+      closedAt: string | null;
+      runningSeconds: number;
+      revolutions: number;
+      openAlarms: number;
+      notes: string;
+      crew: components["schemas"]["CrewMember"][];
+      countersignedBy: string | null;
+      countersignedByName: string | null;
+      countersignedAt: string | null;
+      abandonedReason: string | null;
+      history: components["schemas"]["RunStateChange"][];
+      peaks: components["schemas"]["PointPeak"][];
+      createdAt: string;
+      engine: components["schemas"]["EngineDetail"];
+    };
     /** @enum {string} */
     RunPurpose: "demonstration" | "production_lot" | "test" | "turning_over";
     /** @description A generic "something changed in this run" event for feature areas (card sets, checklists, passes). */
@@ -5776,10 +5802,10 @@ export interface operations {
   };
   RunsController_detail: {
     responses: {
-      /** @description RunDetail */
+      /** @description RunDetailWithEngine */
       200: {
         content: {
-          "application/json": components["schemas"]["RunDetail"];
+          "application/json": components["schemas"]["RunDetailWithEngine"];
         };
       };
       /** @description Not signed in, or the access token (or logger key) is missing, expired or revoked */

@@ -1,4 +1,5 @@
 import type { AlarmKind, AlarmPriority, AlarmState, AlarmSuppression, ReadingSource, RunPurpose, RunState } from '../domain/run.js';
+import type { EngineDetail } from './engines.js';
 
 export interface CrewMember {
   id: string;
@@ -43,6 +44,10 @@ export interface RunDetail extends RunSummary {
   history: RunStateChange[];
   peaks: PointPeak[];
   createdAt: string;
+}
+/** GET /runs/:id: the run with its engine's detail (the same as GET /engines/:id), so a run's page needs one request. */
+export interface RunDetailWithEngine extends RunDetail {
+  engine: EngineDetail;
 }
 export interface CreateRunRequest {
   engineId: string;

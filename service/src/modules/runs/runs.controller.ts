@@ -22,6 +22,7 @@ import type {
   IngestResult,
   ReadingDto,
   RunDetail,
+  RunDetailWithEngine,
   RunSummary,
   StartGateVerdict,
 } from '@crankjournal/shared-types';
@@ -98,11 +99,12 @@ export class RunsController {
     return this.runs.create(dto, me);
   }
 
-  @ApiAnswer('RunDetail')
+  /** The run with its engine's detail: whoever may read the run may read its engine (both any role). */
+  @ApiAnswer('RunDetailWithEngine')
   @Get(':id')
   @AnyRole()
-  detail(@Param() p: IdParamDto): Promise<RunDetail> {
-    return this.runs.detail(p.id);
+  detail(@Param() p: IdParamDto): Promise<RunDetailWithEngine> {
+    return this.runs.detailWithEngine(p.id);
   }
 
   @ApiAnswer('RunDetail')

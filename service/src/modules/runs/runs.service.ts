@@ -15,6 +15,7 @@ import {
   RUN_TRANSITIONS,
   type Role,
   type RunDetail,
+  type RunDetailWithEngine,
   type StartGateVerdict,
   type RunState,
   type RunSummary,
@@ -194,7 +195,18 @@ export class RunsService {
   }
 
   async detail(id: string): Promise<RunDetail> {
+    return this.detailOf(await this.get(id));
+  }
+
+  /** The run's detail and its engine's (as GET /engines/:id gives it), read side by side. */
+  async detailWithEngine(id: string): Promise<RunDetailWithEngine> {
     const r = await this.get(id);
+    const [run, engine] = await Promise.all([this.detailOf(r), this.engines.detail(r.engineId)]);
+    return { ...run, engine };
+  }
+
+  private async detailOf(r: Run): Promise<RunDetail> {
+    const id = r.id;
     const [summary] = await this.summaries([r]);
     const history = await this.runStateChangeRepo.find({ where: { runId: id }, order: { at: 'ASC' } });
     const userIds = [...new Set([...r.crewIds, ...history.map((h) => h.byUser), ...(r.countersignedBy ? [r.countersignedBy] : [])])];

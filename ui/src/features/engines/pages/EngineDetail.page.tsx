@@ -85,12 +85,7 @@ export default function EngineDetailPage() {
           .join(' · ')}
         state={
           engine.activeRunId ? (
-            <Button
-              component={Link}
-              to={`/runs/${engine.activeRunId}?engine=${engine.id}`}
-              variant="light"
-              rightSection={<IconArrowRight size={18} />}
-            >
+            <Button component={Link} to={`/runs/${engine.activeRunId}`} variant="light" rightSection={<IconArrowRight size={18} />}>
               Open current run
             </Button>
           ) : undefined

@@ -61,7 +61,7 @@ export default function EnginesPage() {
         enableSorting: false,
         cell: (c) =>
           c.getValue() ? (
-            <Button component={Link} to={`/runs/${c.getValue()}?engine=${c.row.original.id}`} variant="light" size="md">
+            <Button component={Link} to={`/runs/${c.getValue()}`} variant="light" size="md">
               Open current run
             </Button>
           ) : (

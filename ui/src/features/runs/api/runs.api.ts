@@ -6,6 +6,7 @@ import type {
   CreateRunRequest,
   ReadingDto,
   RunDetail,
+  RunDetailWithEngine,
   RunState,
   RunSummary,
   RunTransitionRequest,
@@ -45,7 +46,19 @@ export const runsListQuery = (f: RunFilters = {}) =>
     queryKey: runKeys.list(f),
     queryFn: () => api<RunSummary[]>(withQuery('/runs', { engineId: f.engineId, state: f.state })),
   });
-export const runDetailQuery = (id: string) => queryOptions({ queryKey: runKeys.detail(id), queryFn: () => api<RunDetail>(`/runs/${id}`) });
+/**
+ * The run's answer carries its engine's detail: it goes into the engine's own cache entry (so a run's page asks for the
+ * engine not at all), and the run's entry keeps the run alone, as the answers of a change give it.
+ */
+export const runDetailQuery = (id: string) =>
+  queryOptions({
+    queryKey: runKeys.detail(id),
+    queryFn: async ({ client }): Promise<RunDetail> => {
+      const { engine, ...run } = await api<RunDetailWithEngine>(`/runs/${id}`);
+      client.setQueryData(engineKeys.detail(engine.id), engine);
+      return run;
+    },
+  });
 export const runBoardQuery = (id: string) =>
   queryOptions({ queryKey: runKeys.board(id), queryFn: () => api<BoardPoint[]>(`/runs/${id}/board`) });
 export const runReadingsQuery = (id: string, f: ReadingFilters = {}) =>

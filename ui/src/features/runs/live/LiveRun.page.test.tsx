@@ -2,7 +2,7 @@ import { Route, Routes } from 'react-router-dom';
 import type { AlarmDto, BoardPoint, Role } from '@crankjournal/shared-types';
 import { render, screen, within } from '../../../test-utils/render';
 import { buildEngine, buildRun } from '../../../test-utils/builders';
-import { json, signIn as signInAs, signOut, stubFetch } from '../../../test-utils/http';
+import { signIn as signInAs, signOut, stubFetch } from '../../../test-utils/http';
 import LiveRunPage from './LiveRun.page';
 
 vi.mock('../../../api/socket', () => ({ getSocket: () => null, joinRoom: () => () => {}, closeSocket: () => {} }));
@@ -37,6 +37,8 @@ const engine = buildEngine({
     },
   ],
 });
+/** The run as `GET /runs/:id` answers it: with its engine's detail. */
+const runAnswer = { ...run, engine };
 const board: BoardPoint[] = [
   {
     pointId: 'p-mb2',
@@ -81,7 +83,7 @@ const signIn = (role: Role) => signInAs(role, { email: 'x@example.test' }, { acc
 
 beforeEach(() => {
   stubFetch({
-    [`GET /runs/${RUN}`]: run,
+    [`GET /runs/${RUN}`]: runAnswer,
     [`GET /engines/${ENGINE}`]: engine,
     [`GET /runs/${RUN}/board`]: board,
     [`GET /runs/${RUN}/readings*`]: [],
@@ -105,16 +107,10 @@ const page = () =>
   );
 
 describe('live run page', () => {
-  it("asks for the engine together with the run when the link carries the engine's id", async () => {
+  it("takes its engine from the run's answer: no request of its own for the engine on a cold open", async () => {
     signIn('operator');
-    let release = () => {};
-    const held = new Promise<void>((r) => (release = r));
     const stub = stubFetch({
-      [`GET /runs/${RUN}`]: async () => {
-        await held;
-        return json(run);
-      },
-      [`GET /engines/${ENGINE}`]: engine,
+      [`GET /runs/${RUN}`]: runAnswer,
       [`GET /runs/${RUN}/board`]: board,
       [`GET /runs/${RUN}/readings*`]: [],
       [`GET /runs/${RUN}/alarms`]: [alarm],
@@ -122,16 +118,11 @@ describe('live run page', () => {
       [`GET /runs/${RUN}/start-gate`]: { allowed: true, reasons: [] },
       'GET /units/conversions': { imperial: {}, metric: {} },
     });
-    render(
-      <Routes>
-        <Route path="/runs/:id" element={<LiveRunPage />} />
-      </Routes>,
-      { route: `/runs/${RUN}?engine=${ENGINE}` },
-    );
-    // The run's answer is held back: the engine is asked for all the same.
-    await vi.waitFor(() => expect(stub.calls.some((c) => c.path === `/engines/${ENGINE}`)).toBe(true));
-    release();
-    expect(await screen.findByTestId('board-MB2-T')).toBeInTheDocument();
+    page();
+    // The tile needs the engine's measurement point (its code and label): it came with the run.
+    expect(await screen.findByTestId('board-MB2-T')).toHaveTextContent('147');
+    expect(stub.calls.filter((c) => c.path === `/runs/${RUN}`)).toHaveLength(1);
+    expect(stub.calls.some((c) => c.path.startsWith('/engines'))).toBe(false);
   });
 
   it('pins a red high-high alarm banner with its point, message and an Acknowledge button for an operator', async () => {
@@ -153,7 +144,7 @@ describe('live run page', () => {
   it("loads the indicator cards' panel when its tab is opened", async () => {
     signIn('observer');
     stubFetch({
-      [`GET /runs/${RUN}`]: run,
+      [`GET /runs/${RUN}`]: runAnswer,
       [`GET /engines/${ENGINE}`]: engine,
       [`GET /runs/${RUN}/board`]: board,
       [`GET /runs/${RUN}/readings*`]: [],

@@ -50,15 +50,11 @@ export default function LiveRunPage() {
   const [params, setParams] = useSearchParams();
   const canWrite = useHasRole('operator', 'chief_engineer');
 
-  // A link that knows the engine carries it (`?engine=`): its detail is then fetched alongside the run's, not after
-  // it. Only a head start: the page still takes its engine from the run.
-  const engineHint = params.get('engine');
-  useEffect(() => {
-    if (engineHint) void qc.prefetchQuery(engineDetailQuery(engineHint));
-  }, [qc, engineHint]);
+  // The run's answer carries its engine's detail and leaves it in the engine's cache entry: no second request. Each
+  // read of the run (on every live change, on focus) renews it, so the page never reads the engine on its own.
   const run = useQuery(runDetailQuery(id));
   const engineId = run.data?.engineId;
-  const engine = useQuery({ ...engineDetailQuery(engineId ?? ''), enabled: !!engineId });
+  const engine = useQuery({ ...engineDetailQuery(engineId ?? ''), enabled: !!engineId, staleTime: Infinity });
   const board = useQuery(runBoardQuery(id));
   const readings = useQuery(runReadingsQuery(id));
   const alarms = useQuery(runAlarmsQuery(id));

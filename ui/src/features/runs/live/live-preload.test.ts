@@ -14,19 +14,21 @@ afterEach(() => {
 });
 
 describe('live run page preload', () => {
-  it("asks for the run's answers side by side, then for its engine, and leaves them in the query cache", async () => {
+  it("asks for the run's answers side by side, takes the engine from the run's answer, and leaves them in the query cache", async () => {
     signIn('operator', { email: 'x@example.test' }, { accessToken: 'a.b.c' });
     let release = () => {};
     const held = new Promise<void>((r) => (release = r));
     const stub = stubFetch({
       [`GET /runs/${RUN}`]: async () => {
         await held;
-        return new Response(JSON.stringify(buildRun({ id: RUN, engineId: ENGINE, state: 'running' })), {
-          status: 200,
-          headers: { 'content-type': 'application/json' },
-        });
+        return new Response(
+          JSON.stringify({ ...buildRun({ id: RUN, engineId: ENGINE, state: 'running' }), engine: buildEngine({ id: ENGINE }) }),
+          {
+            status: 200,
+            headers: { 'content-type': 'application/json' },
+          },
+        );
       },
-      [`GET /engines/${ENGINE}`]: buildEngine({ id: ENGINE }),
       [`GET /runs/${RUN}/board`]: [],
       [`GET /runs/${RUN}/readings*`]: [],
       [`GET /runs/${RUN}/alarms`]: [],
@@ -35,15 +37,17 @@ describe('live run page preload', () => {
     });
     const qc = new QueryClient({ defaultOptions: { queries: { retry: false } } });
     preloadLiveRun(qc, RUN);
-    // While the run's answer is held back, its board, readings and alarms are already asked for; the engine is not.
+    // While the run's answer is held back, its board, readings and alarms are already asked for.
     await vi.waitFor(() =>
       expect(stub.calls.map((c) => c.path)).toEqual(
         expect.arrayContaining([`/runs/${RUN}/board`, `/runs/${RUN}/readings`, `/runs/${RUN}/alarms`]),
       ),
     );
-    expect(stub.calls.some((c) => c.path === `/engines/${ENGINE}`)).toBe(false);
     release();
-    await vi.waitFor(() => expect(qc.getQueryData(engineKeys.detail(ENGINE))).toBeDefined());
+    // The engine comes with the run: in its own cache entry, never asked for on its own; the run's entry is the run alone.
+    await vi.waitFor(() => expect(qc.getQueryData(engineKeys.detail(ENGINE))).toMatchObject({ id: ENGINE }));
+    expect(stub.calls.some((c) => c.path.startsWith('/engines'))).toBe(false);
+    expect(qc.getQueryData(runKeys.detail(RUN))).not.toHaveProperty('engine');
     expect(stub.calls.some((c) => c.path === '/alarms' && c.query.get('engineId') === ENGINE)).toBe(true);
     expect(qc.getQueryData(runKeys.detail(RUN))).toMatchObject({ id: RUN, engineId: ENGINE });
     expect(qc.getQueryData(runKeys.board(RUN))).toEqual([]);
@@ -52,8 +56,7 @@ describe('live run page preload', () => {
   it('asks for no open engine alarms for a closed run, and a failed run read is left to the page', async () => {
     signIn('operator', { email: 'x@example.test' }, { accessToken: 'a.b.c' });
     const stub = stubFetch({
-      [`GET /runs/${RUN}`]: buildRun({ id: RUN, engineId: ENGINE, state: 'closed' }),
-      [`GET /engines/${ENGINE}`]: buildEngine({ id: ENGINE }),
+      [`GET /runs/${RUN}`]: { ...buildRun({ id: RUN, engineId: ENGINE, state: 'closed' }), engine: buildEngine({ id: ENGINE }) },
       [`GET /runs/${RUN}/board`]: [],
       [`GET /runs/${RUN}/readings*`]: [],
       [`GET /runs/${RUN}/alarms`]: [],
