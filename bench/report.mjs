@@ -182,7 +182,7 @@ md.push(
 );
 md.push('');
 md.push(
-  'The machine is shared: other work (builds, test suites, other services) ran during the measurement. The load average ' +
+  'The machine may be shared: other work (builds, test suites, other services) can run during a measurement. The load average ' +
     '(runnable processes, 1/5/15 min) is recorded with each benchmark; on 2 cores anything above 2 means every process, the ' +
     'service and PostgreSQL included, waits for a core. Benchmarks 2 and 3 therefore also record the CPU time the service ' +
     'and PostgreSQL spent, which does not depend on that waiting, and the rate those CPU costs allow on 2 otherwise idle cores.',
