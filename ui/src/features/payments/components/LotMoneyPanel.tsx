@@ -236,7 +236,7 @@ export function LotMoneyPanel({ lot }: { lot: LotDetail }) {
       </Group>
       <SimpleGrid cols={{ base: 2, sm: 5 }} spacing="md" mb="md">
         <Figure label="Quoted" value={minorMoney(m.quotedMinor, m.currency)} />
-        <Figure label="Asked" value={minorMoney(m.askedMinor, m.currency)} />
+        <Figure label="Awaiting payment" value={minorMoney(m.askedMinor, m.currency)} />
         <Figure label="Paid" value={minorMoney(m.paidMinor, m.currency)} testId="money-paid" />
         <Figure label="Refunded" value={minorMoney(m.refundedMinor, m.currency)} />
         <Figure label="Due" value={minorMoney(m.dueMinor, m.currency)} />
