@@ -29,7 +29,6 @@ import { useOutbox } from '../../../api/useOutbox';
 import type { OutboxItem } from '../../../api/outbox';
 import { Board } from './Board';
 import { BottomBar } from './BottomBar';
-import { CsvImport } from './CsvImport';
 import { useAmendReading } from './live-actions.api';
 import { QueueStatus, waitingText } from './QueueStatus';
 import { AmendModal, ReadingsTable } from './ReadingsTable';
@@ -39,6 +38,8 @@ import { useLiveRun } from './useLiveRun';
 const TrendCharts = lazy(() => import('./TrendCharts').then((m) => ({ default: m.TrendCharts })));
 /** The indicator cards (and the charts library they draw with) load only when their tab is opened. */
 const CardSetsPanel = lazy(() => import('../../indicator-cards').then((m) => ({ default: m.CardSetsPanel })));
+/** The logger-file import (and its CSV parser) loads only when its tab is opened. */
+const CsvImport = lazy(() => import('./CsvImport').then((m) => ({ default: m.CsvImport })));
 
 const TABS = ['board', 'alarms', 'readings', 'cards', 'import'] as const;
 type Tab = (typeof TABS)[number];
@@ -278,7 +279,9 @@ export default function LiveRunPage() {
 
         {mayWrite && takingReadings && (
           <Tabs.Panel value="import">
-            <CsvImport runId={id} onImported={() => void qc.invalidateQueries({ queryKey: runKeys.run(id) })} />
+            <Suspense fallback={<Loader />}>
+              <CsvImport runId={id} onImported={() => void qc.invalidateQueries({ queryKey: runKeys.run(id) })} />
+            </Suspense>
           </Tabs.Panel>
         )}
       </Tabs>
