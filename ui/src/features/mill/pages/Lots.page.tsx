@@ -1,7 +1,6 @@
 import { useMemo } from 'react';
-import { Link } from 'react-router-dom';
 import { useQuery } from '@tanstack/react-query';
-import { Alert, Anchor, Loader, Stack, Text } from '@mantine/core';
+import { Alert, Loader, Text } from '@mantine/core';
 import { MILL_WRITERS, type LotSummary } from '@crankjournal/shared-types';
 import { PageHeader } from '../../../components/PageHeader';
 import { DataTable, columnHelper } from '../../../components/DataTable/DataTable';
@@ -11,6 +10,7 @@ import { formatPlannedFor } from '../../runs/model/transitions';
 import { lotsQuery } from '../api/mill.api';
 import { fmt, money, product } from '../model/format';
 import { LotStatusBadge } from '../components/LotStatusBadge';
+import { LotReference } from '../components/LotReference';
 import { NewLotButton } from '../components/LotForm';
 
 const col = columnHelper<LotSummary>();
@@ -23,16 +23,7 @@ export default function LotsPage() {
     () => [
       col.accessor('reference', {
         header: 'Lot',
-        cell: (c) => (
-          <Stack gap={0}>
-            <Anchor component={Link} to={`/mill/lots/${c.row.original.id}`} fw={600} fz="lg">
-              {c.getValue()}
-            </Anchor>
-            <Text fz="sm" c="dimmed">
-              {c.row.original.customerName}
-            </Text>
-          </Stack>
-        ),
+        cell: (c) => <LotReference lotId={c.row.original.id} reference={c.getValue()} customerName={c.row.original.customerName} />,
       }),
       col.accessor((l) => product(l), { id: 'product', header: 'Product', cell: (c) => <Text fz="sm">{c.getValue()}</Text> }),
       col.accessor('steelGrade', { header: 'Steel' }),

@@ -29,19 +29,18 @@ import {
 } from '@crankjournal/shared-types';
 import { errorText } from '../../../api/http';
 import { useHasRole } from '../../auth/useSession';
-import { when } from '../../mill/model/format';
+import { money, when } from '../../mill/model/format';
 import { lotMoneyQuery, useAskPayment, useRefund } from '../api/payments.api';
 import { useMoneyLive } from '../api/useMoneyLive';
 
 /** Minor units (pence, cents) in the currency, through Intl.NumberFormat. */
 export function minorMoney(minor: number | null, currency: string): string {
-  if (minor === null) return '—';
-  const f = new Intl.NumberFormat('en-GB', { style: 'currency', currency });
-  const digits = f.resolvedOptions().maximumFractionDigits ?? 2;
-  return f.format(minor / 10 ** digits);
+  return minor === null ? '—' : money(minor / 10 ** minorDigits(currency), currency);
 }
-const toMinor = (amount: number, currency: string) =>
-  Math.round(amount * 10 ** (new Intl.NumberFormat('en-GB', { style: 'currency', currency }).resolvedOptions().maximumFractionDigits ?? 2));
+/** Digits of the currency's minor unit (2 for pounds and dollars, 0 for yen). */
+const minorDigits = (currency: string) =>
+  new Intl.NumberFormat('en-GB', { style: 'currency', currency }).resolvedOptions().maximumFractionDigits ?? 2;
+const toMinor = (amount: number, currency: string) => Math.round(amount * 10 ** minorDigits(currency));
 
 function Figure({ label, value, testId }: { label: string; value: string; testId?: string }) {
   return (

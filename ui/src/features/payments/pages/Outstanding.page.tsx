@@ -1,7 +1,6 @@
 import { useMemo } from 'react';
-import { Link } from 'react-router-dom';
 import { useQuery } from '@tanstack/react-query';
-import { Alert, Anchor, Group, Loader, Stack, Text } from '@mantine/core';
+import { Alert, Group, Loader, Stack, Text } from '@mantine/core';
 import { PAYMENT_KIND_LABELS, type OutstandingLot } from '@crankjournal/shared-types';
 import { PageHeader } from '../../../components/PageHeader';
 import { DataTable, columnHelper } from '../../../components/DataTable/DataTable';
@@ -9,6 +8,7 @@ import { errorText } from '../../../api/http';
 import { outstandingQuery } from '../api/payments.api';
 import { useMoneyLive } from '../api/useMoneyLive';
 import { minorMoney } from '../components/LotMoneyPanel';
+import { LotReference } from '../../mill/components/LotReference';
 
 const col = columnHelper<OutstandingLot>();
 
@@ -27,16 +27,7 @@ export default function OutstandingPage() {
     () => [
       col.accessor('reference', {
         header: 'Lot',
-        cell: (c) => (
-          <Stack gap={0}>
-            <Anchor component={Link} to={`/mill/lots/${c.row.original.lotId}`} fw={600} fz="lg">
-              {c.getValue()}
-            </Anchor>
-            <Text fz="sm" c="dimmed">
-              {c.row.original.customerName}
-            </Text>
-          </Stack>
-        ),
+        cell: (c) => <LotReference lotId={c.row.original.lotId} reference={c.getValue()} customerName={c.row.original.customerName} />,
       }),
       col.accessor('quotedMinor', {
         header: 'Quoted',
