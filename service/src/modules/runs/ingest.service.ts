@@ -72,6 +72,12 @@ const COPY_MIN_ROWS = 200;
 const copyText = (v: string) =>
   /[\\\t\n\r]/.test(v) ? v.replace(/[\\\t\n\r]/g, (c) => ({ '\\': '\\\\', '\t': '\\t', '\n': '\\n', '\r': '\\r' })[c]!) : v;
 
+/** Adds a row of figures to the run's kept figures of its point (`run_point_figures AS f`), or keeps it as the first. */
+const ADD_TO_KEPT_FIGURES = `ON CONFLICT (run_id, point_id) DO UPDATE SET
+  count = f.count + EXCLUDED.count, total = f.total + EXCLUDED.total,
+  peak = GREATEST(f.peak, EXCLUDED.peak), least = LEAST(f.least, EXCLUDED.least),
+  first_at = LEAST(f.first_at, EXCLUDED.first_at), last_at = GREATEST(f.last_at, EXCLUDED.last_at)`;
+
 /**
  * The tail of the storing statement after `WITH ins AS (INSERT INTO readings ... RETURNING ...)`: adds the new
  * readings to the run's kept figures per point (run_point_figures, in the same statement) and hands back the new ids.
@@ -80,10 +86,7 @@ const keepFigures = (runParam: string) => `,
   fig AS (INSERT INTO run_point_figures AS f (run_id, point_id, count, total, peak, least, first_at, last_at)
           SELECT ${runParam}::uuid, point_id, count(*), sum(value), max(value), min(value), min(taken_at), max(taken_at)
             FROM ins GROUP BY point_id
-          ON CONFLICT (run_id, point_id) DO UPDATE SET
-            count = f.count + EXCLUDED.count, total = f.total + EXCLUDED.total,
-            peak = GREATEST(f.peak, EXCLUDED.peak), least = LEAST(f.least, EXCLUDED.least),
-            first_at = LEAST(f.first_at, EXCLUDED.first_at), last_at = GREATEST(f.last_at, EXCLUDED.last_at))
+          ${ADD_TO_KEPT_FIGURES})
   SELECT id, client_id FROM ins`;
 
 type StoreResult = Omit<IngestResult, 'rejected' | 'rejectedCount'>;
@@ -461,10 +464,7 @@ export class IngestService {
        SELECT $1::uuid, x.*
          FROM unnest($2::uuid[], $3::int[], $4::float8[], $5::float8[], $6::float8[], $7::timestamptz[], $8::timestamptz[])
            AS x(point_id, count, total, peak, least, first_at, last_at)
-       ON CONFLICT (run_id, point_id) DO UPDATE SET
-         count = f.count + EXCLUDED.count, total = f.total + EXCLUDED.total,
-         peak = GREATEST(f.peak, EXCLUDED.peak), least = LEAST(f.least, EXCLUDED.least),
-         first_at = LEAST(f.first_at, EXCLUDED.first_at), last_at = GREATEST(f.last_at, EXCLUDED.last_at)`,
+       ${ADD_TO_KEPT_FIGURES}`,
       [
         runId,
         fig.map(([p]) => p),
